@@ -1,0 +1,166 @@
+/**
+ * Syntax tree of the air-state notation. The parser never throws: it returns the statements it
+ * could read plus a list of syntax diagnostics. Every node carries its exact source span
+ * (UTF-16 offsets into the whole Markdown document). The tree knows nothing of physics or units:
+ * unit symbols are kept as written and resolved by the evaluator.
+ */
+import type { Span } from '../text/types';
+
+/** The statement keywords, as written. */
+export type Keyword = 'site' | 'units' | 'state' | 'mix' | 'process';
+
+/** Where a statement was found in the Markdown. */
+export type StatementOrigin = 'fence' | 'inline';
+
+/** A number as written, with its value and its precision (for claims). */
+export interface NumberNode {
+  /** The parsed value (finite, or the parser reports a syntax error instead). */
+  value: number;
+  /** The digits exactly as written (`9.30`, `-5`, `1.2e3`). */
+  text: string;
+  /**
+   * Place value of the last written digit: `50` → 1, `9.30` → 0.01, `1.2e3` → 100. Half of it is
+   * the default claim tolerance.
+   */
+  resolution: number;
+  span: Span;
+}
+
+/** A unit symbol as written after a number (`C`, `°F`, `g/kg`, `%`, `m3/s`). */
+export interface UnitNode {
+  text: string;
+  span: Span;
+}
+
+/** An explicit tolerance written after a value: `±2`, `+-0.5`, `±0.5C`, `±2%` of a non-% value. */
+export interface ToleranceNode {
+  number: NumberNode;
+  /** Unit of the tolerance when written; otherwise the value's own unit applies. */
+  unit: UnitNode | null;
+  span: Span;
+}
+
+/** A value with an optional unit and tolerance: `24C`, `50%±2`, `0.0093`, `1000L/s`. */
+export interface QuantityNode {
+  number: NumberNode;
+  unit: UnitNode | null;
+  tolerance: ToleranceNode | null;
+  span: Span;
+}
+
+/** `key=value` inside a statement. */
+export interface PropertyNode {
+  key: string;
+  keySpan: Span;
+  /** Null when nothing usable follows the `=` (a syntax diagnostic is reported). */
+  value: QuantityNode | null;
+  span: Span;
+}
+
+/** A state name (definition or reference). */
+export interface NameNode {
+  text: string;
+  span: Span;
+}
+
+interface StatementBase {
+  keyword: Keyword;
+  keywordSpan: Span;
+  origin: StatementOrigin;
+  /** The statement from its keyword to its last token (comments excluded). */
+  span: Span;
+}
+
+/** `site: p=VALUE` or `site: elev=VALUE`. */
+export interface SiteStatement extends StatementBase {
+  keyword: 'site';
+  props: PropertyNode[];
+}
+
+/** `units: SI` or `units: IP`. */
+export interface UnitsStatement extends StatementBase {
+  keyword: 'units';
+  /** The word as written (`SI`, `IP`, or something invalid that the evaluator reports); null if missing. */
+  system: NameNode | null;
+}
+
+/** `state NAME: key=value …`. */
+export interface StateStatement extends StatementBase {
+  keyword: 'state';
+  name: NameNode | null;
+  props: PropertyNode[];
+}
+
+/** One stream of a mix: `OA 25%`, `RA 1.2kg/s`, `OA 1000L/s`. */
+export interface MixStream {
+  name: NameNode;
+  amount: QuantityNode | null;
+  span: Span;
+}
+
+/** `mix NAME: A X + B Y [+ …]`, optionally followed by claims `key=value` about the result. */
+export interface MixStatement extends StatementBase {
+  keyword: 'mix';
+  name: NameNode | null;
+  streams: MixStream[];
+  /** Properties written after the streams, e.g. `mix MA: OA 25% + RA 75% db=26.2C` (claims). */
+  props: PropertyNode[];
+}
+
+/** `process NAME: A -> B [m=… | q=…]` and further claims such as `q_total=98kW`. */
+export interface ProcessStatement extends StatementBase {
+  keyword: 'process';
+  name: NameNode | null;
+  from: NameNode | null;
+  to: NameNode | null;
+  /** `m=`/`q=` and any other `key=value` written after the arrow, in order. */
+  props: PropertyNode[];
+}
+
+/** Any statement. */
+export type Statement =
+  | SiteStatement
+  | UnitsStatement
+  | StateStatement
+  | MixStatement
+  | ProcessStatement;
+
+/** A diagnostic as the core reports it (LSP-free). */
+export interface CoreDiagnostic {
+  /** Stable code (`syntax`, `missing-unit`, `wb-above-db`…). */
+  code: string;
+  severity: 'error' | 'warning' | 'info';
+  /** What is wrong, where, and how to fix it. */
+  message: string;
+  span: Span;
+  /** Other places that explain this one (the first definition of a duplicated name…). */
+  related?: { span: Span; message: string }[];
+  /** Plain data a quick fix needs (e.g. the computed value for a stale claim). */
+  data?: Record<string, unknown>;
+}
+
+/** A region of the document that holds statements. */
+export interface AirRegion {
+  origin: StatementOrigin;
+  /** The whole construct: the fence from its opening to closing line, or the code span with its backticks. */
+  span: Span;
+  /** The content: the fenced block's body, or the code span's content. */
+  contentSpan: Span;
+}
+
+/** An ATX or setext Markdown heading (for the outline). */
+export interface HeadingNode {
+  level: number;
+  /** The heading's text, trimmed, without the `#` marks. */
+  text: string;
+  span: Span;
+}
+
+/** What the parser returns for one document. */
+export interface ParsedNote {
+  regions: AirRegion[];
+  headings: HeadingNode[];
+  statements: Statement[];
+  /** Syntax diagnostics (code `syntax` or more specific), in document order. */
+  diagnostics: CoreDiagnostic[];
+}

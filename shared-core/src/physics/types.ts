@@ -1,0 +1,103 @@
+/**
+ * Public types of the moist-air engine. Everything is SI inside:
+ * temperatures in °C, pressures in Pa, humidity ratio in kg water per kg dry air,
+ * enthalpy in J per kg dry air (dry air 0 at 0 °C, water from liquid at 0 °C),
+ * specific volume in m³ per kg dry air, density in kg moist air per m³,
+ * relative humidity and degree of saturation as fractions (0…1).
+ */
+
+/** Keys of the properties that can define a state (two of them fix it, with pressure). */
+export type DefiningKey = 'db' | 'wb' | 'dp' | 'rh' | 'w' | 'h';
+
+/** Stable error and warning codes of the engine (shared with the notation's diagnostics). */
+export type PhysicsCode =
+  | 'out-of-range' // a temperature outside −100…200 °C, or a pressure outside the engine's range
+  | 'wb-above-db'
+  | 'dp-above-db'
+  | 'rh-out-of-range'
+  | 'supersaturated' // humidity ratio above saturation at the dry-bulb (fog region)
+  | 'negative-humidity-ratio'
+  | 'enthalpy-too-low' // enthalpy below that of bone-dry air at the dry-bulb
+  | 'wb-too-low' // wet-bulb so far below the dry-bulb that the humidity ratio would be negative
+  | 'pressure-below-saturation' // total pressure at or below the saturation pressure that the state needs
+  | 'dependent-pair' // both properties fix the same thing (dp with w, dp with rh at unknown db…)
+  | 'underspecified' // fewer than two defining properties
+  | 'overspecified' // more than two defining properties handed to the solver
+  | 'ill-conditioned' // a warning: the pair is nearly parallel on the chart (wb with h)
+  | 'no-solution' // the pair admits no state (e.g. rh with h outside the range that the pair can reach)
+  | 'no-convergence'; // an iterative solve hit its bound (should never happen; reported, never looped)
+
+/** A typed failure of the engine: stable code, what is wrong, and what would fix it. */
+export interface PhysicsProblem {
+  code: PhysicsCode;
+  /** What is wrong, in one sentence, with the offending figures. */
+  message: string;
+  /** What the engineer could change to make the input valid. */
+  fix: string;
+  /** The defining keys the problem is about (so a caller can point at the right token). */
+  keys: DefiningKey[];
+}
+
+/** Error thrown by the low-level property functions; carries a {@link PhysicsProblem}. */
+export class PsychroError extends Error {
+  readonly problem: PhysicsProblem;
+  constructor(problem: PhysicsProblem) {
+    super(problem.message);
+    this.name = 'PsychroError';
+    this.problem = problem;
+  }
+  /** Stable code of the problem. */
+  get code(): PhysicsCode {
+    return this.problem.code;
+  }
+}
+
+/** Every property of a moist-air state, SI (see module comment for the units). */
+export interface MoistAirState {
+  /** Total (barometric) pressure, Pa. */
+  p: number;
+  /** Dry-bulb temperature, °C. */
+  db: number;
+  /** Thermodynamic wet-bulb temperature, °C (over ice when below 0 °C, see `wbIce`). */
+  wb: number;
+  /** Dew-point temperature, °C (frost point when below 0 °C, see `dpFrost`). */
+  dp: number;
+  /** Relative humidity, fraction 0…1. */
+  rh: number;
+  /** Humidity ratio, kg water / kg dry air. For a fog state: the total water, vapour plus suspended liquid. */
+  w: number;
+  /** Specific enthalpy, J / kg dry air. */
+  h: number;
+  /** Specific volume, m³ / kg dry air. */
+  v: number;
+  /** Moist-air density, kg / m³ ((1 + W) / v). */
+  rho: number;
+  /** Partial pressure of water vapour, Pa. */
+  pw: number;
+  /** Saturation vapour pressure at the dry-bulb, Pa. */
+  pws: number;
+  /** Humidity ratio at saturation at the dry-bulb and pressure, kg/kg. */
+  ws: number;
+  /** Degree of saturation, fraction (W / Ws). */
+  mu: number;
+  /** True when the wet-bulb is below 0 °C and so was computed over ice. */
+  wbIce: boolean;
+  /** True when the dew point is below 0 °C and so is a frost point (over ice). */
+  dpFrost: boolean;
+  /** True when the state lies in the fog region (more water than saturated air can hold as vapour). */
+  fog: boolean;
+}
+
+/** Options of the general state solver. */
+export interface SolveOptions {
+  /**
+   * Accept a humidity ratio above saturation and return a fog state (flag `fog`, with a
+   * `supersaturated` warning) instead of the `supersaturated` error. Default false.
+   */
+  allowFog?: boolean;
+}
+
+/** Result of the general state solver: a state (plus warnings) or a typed problem. */
+export type SolveResult =
+  | { ok: true; state: MoistAirState; warnings: PhysicsProblem[] }
+  | { ok: false; problem: PhysicsProblem };
