@@ -1,0 +1,145 @@
+/**
+ * Results of evaluating a parsed note. Plain data, SI inside (see physics/types.ts for the
+ * units); formatting for display happens in the service, the CLI and the chart.
+ */
+import type { MoistAirState, DefiningKey } from '../physics/types';
+import type { UnitSystem } from '../units/types';
+import type { Span } from '../text/types';
+import type {
+  CoreDiagnostic,
+  MixStatement,
+  ParsedNote,
+  ProcessStatement,
+  PropertyNode,
+  StateStatement,
+  Statement,
+} from '../notation/ast';
+
+/** Settings that an editor or the CLI hands to the evaluator (the note's own directives win). */
+export interface EvaluateSettings {
+  /** Unit system for results when the note has no `units:` line. Default 'SI'. */
+  units: UnitSystem;
+  /** Default barometric pressure, Pa, when the note has no `site:` line. Default 101 325. */
+  pressurePa: number;
+  /** Where the default pressure came from, for hovers ("setting dewmark.pressure", "default"). */
+  pressureOrigin: string;
+  /** Whether written claims are compared. Default true. */
+  checkClaims: boolean;
+}
+
+/** Where the pressure used for a state came from. */
+export interface PressureBasis {
+  /** Pa. */
+  pa: number;
+  /** `site` (a `site:` line), `override` (the state's own p= or elev=), `setting` (editor/CLI default). */
+  source: 'site' | 'override' | 'setting';
+  /** The site line or override property that set it, when there is one. */
+  span: Span | null;
+  /** When set from an elevation: the elevation in m. */
+  elevationM: number | null;
+  /** A short human description: "site line 3: elev=1600m", "default 101.325 kPa". */
+  describe: string;
+}
+
+/** Keys a claim can be about (state properties plus process figures). */
+export type ClaimKey = string;
+
+/** One written property beyond the defining pair, compared with the computed value. */
+export interface ClaimResult {
+  key: ClaimKey;
+  prop: PropertyNode;
+  /** The written value, converted to SI. */
+  writtenSI: number;
+  /** The computed value, SI. */
+  computedSI: number;
+  /** Half-width of the accepted band, SI (from the written precision or the explicit ±). */
+  toleranceSI: number;
+  pass: boolean;
+  /** The computed value formatted in the claim's own unit and precision (`17.1C`), for messages and quick fixes. */
+  computedText: string;
+}
+
+/** A state (from `state`) or a mixed state (from `mix`). */
+export interface StateResult {
+  kind: 'state' | 'mix';
+  name: string;
+  statement: StateStatement | MixStatement;
+  /** Null when the state could not be computed (its diagnostics say why). */
+  state: MoistAirState | null;
+  pressure: PressureBasis;
+  /** The two defining keys actually used (for a mix: the w and h of the balance). */
+  defining: DefiningKey[];
+  claims: ClaimResult[];
+  /** For a mix: the streams with their dry-air mass fraction (0…1) and mass flow if known. */
+  streams?: { name: string; fraction: number; massFlowKgS: number | null }[];
+  /** For a mix: total dry-air mass flow, kg/s, when the streams were given as flows. */
+  massFlowKgS?: number | null;
+}
+
+/** The kind of process, named from the direction of temperature and moisture change. */
+export type ProcessKind =
+  | 'sensible-heating'
+  | 'sensible-cooling'
+  | 'cooling-dehumidifying'
+  | 'heating-humidifying'
+  | 'heating-dehumidifying'
+  | 'cooling-humidifying' // incl. evaporative cooling when the enthalpy stays ~constant
+  | 'evaporative-cooling'
+  | 'humidifying'
+  | 'dehumidifying'
+  | 'no-change';
+
+/** A `process` between two named states at one dry-air flow. */
+export interface ProcessResult {
+  kind: 'process';
+  name: string;
+  statement: ProcessStatement;
+  from: string;
+  to: string;
+  processKind: ProcessKind | null;
+  /** Dry-air mass flow, kg/s; null when no flow was given (then only per-kg figures are known). */
+  massFlowKgS: number | null;
+  /** Volume flow at the entering state, m³/s, when known. */
+  volumeFlowM3S: number | null;
+  /** Per kg dry air: total, sensible and latent enthalpy change, J/kg (positive = heat added). */
+  dhTotal: number;
+  dhSensible: number;
+  dhLatent: number;
+  /** Heat rates, W (positive = added to the air), null without a flow. */
+  qTotalW: number | null;
+  qSensibleW: number | null;
+  qLatentW: number | null;
+  /** Sensible heat ratio (sensible / total), null when the total is ~0. */
+  shr: number | null;
+  /** Humidity ratio change, kg/kg (positive = moisture added). */
+  dw: number;
+  /** Water added (positive) or removed as condensate (negative), kg/s; null without a flow. */
+  waterKgS: number | null;
+  /**
+   * Heat rate at the coil or heater including the enthalpy of the water leaving as condensate or
+   * entering as humidifier water, W (positive = heat added). Null without a flow.
+   */
+  qCoilW: number | null;
+  claims: ClaimResult[];
+}
+
+/** Result of one statement (site/units statements have no result of their own). */
+export type EvaluatedItem = StateResult | ProcessResult;
+
+/** Everything the evaluator knows about one note. */
+export interface Analysis {
+  parsed: ParsedNote;
+  /** Unit system for display (a `units:` line wins over the settings). */
+  units: UnitSystem;
+  /** Where the unit system came from. */
+  unitsSource: 'note' | 'setting';
+  settings: EvaluateSettings;
+  /** States, mixes and processes in document order. */
+  items: EvaluatedItem[];
+  /** Defined names → their item (first definition wins). */
+  byName: Map<string, EvaluatedItem>;
+  /** Every name reference (mix streams, process from/to) with the name it points to. */
+  references: { name: string; span: Span; statement: Statement }[];
+  /** Parse and evaluation diagnostics together, in document order. */
+  diagnostics: CoreDiagnostic[];
+}
