@@ -121,6 +121,11 @@ export interface ProcessResult {
    */
   qCoilW: number | null;
   claims: ClaimResult[];
+  /**
+   * For moisture removed: where the line from the entering through the leaving state meets the
+   * saturation curve (apparatus dew point), °C; null when it does not or moisture is not removed.
+   */
+  apparatusDewPointC?: number | null;
 }
 
 /** Result of one statement (site/units statements have no result of their own). */

@@ -1,0 +1,72 @@
+/** Claims: a written figure beyond what defines a result, compared with the computed value. */
+import type { CoreDiagnostic, PropertyNode } from '../notation/ast';
+import type { ClaimResult } from './types';
+import type { ResolvedQuantity } from './quantity';
+import { formatInUnit } from '../units';
+import { formatAtResolution } from './util';
+
+/** Relative slack added to every band so that a value exactly on the edge passes despite rounding. */
+const EDGE_SLACK = 1e-9;
+
+/**
+ * The computed value in the claim's own unit, at the finer of the written precision and the
+ * unit's display precision, without the unit (`rh=50%` → `49.6`).
+ */
+export function computedNumberText(computedSI: number, q: ResolvedQuantity): string {
+  if (!q.unit) return formatAtResolution(computedSI, q.quantity.number.resolution);
+  const text = formatInUnit(computedSI, q.unit, q.quantity.number.resolution, '');
+  return text;
+}
+
+/** Whether the written value agrees with the computed one within the band. */
+export function claimPasses(writtenSI: number, computedSI: number, toleranceSI: number): boolean {
+  const diff = Math.abs(writtenSI - computedSI);
+  const slack = EDGE_SLACK * Math.max(Math.abs(writtenSI), Math.abs(computedSI), toleranceSI) + 1e-15;
+  return diff <= toleranceSI + slack;
+}
+
+/**
+ * Compares a claim and returns its result, plus a `claim-mismatch` warning when it fails. The
+ * warning's data holds what a quick fix needs: `computedText` (`17.1C`), `replacement` (`17.1`,
+ * the new digits) and `replaceSpan` (the written number's span).
+ * @param context  what the computed value follows from, e.g. "from db=24C and rh=50%".
+ */
+export function checkClaim(
+  key: string,
+  prop: PropertyNode,
+  q: ResolvedQuantity,
+  computedSI: number,
+  context: string,
+): { claim: ClaimResult; diagnostic: CoreDiagnostic | null } {
+  const replacement = computedNumberText(computedSI, q);
+  const computedText = `${replacement}${q.unitText}`;
+  const pass = Number.isFinite(computedSI) && claimPasses(q.si, computedSI, q.toleranceSI);
+  const claim: ClaimResult = {
+    key,
+    prop,
+    writtenSI: q.si,
+    computedSI: Number.isFinite(computedSI) ? computedSI : 0,
+    toleranceSI: q.toleranceSI,
+    pass,
+    computedText,
+  };
+  if (pass) return { claim, diagnostic: null };
+  const written = `${key}=${q.quantity.number.text}${q.unitText}`;
+  const band = q.explicitTolerance ? 'its written tolerance' : 'half a unit of its last digit';
+  const diagnostic: CoreDiagnostic = {
+    code: 'claim-mismatch',
+    severity: 'warning',
+    message: `stale claim: ${written} does not match the computed ${key}=${computedText} ${context} (it differs by more than ${band}); update the figure to ${computedText}, or check the properties it follows from`,
+    span: q.quantity.number.span,
+    data: {
+      key,
+      computedText,
+      replacement,
+      replaceSpan: { ...q.quantity.number.span },
+      writtenSI: q.si,
+      computedSI: claim.computedSI,
+      toleranceSI: q.toleranceSI,
+    },
+  };
+  return { claim, diagnostic };
+}

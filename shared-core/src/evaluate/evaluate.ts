@@ -1,0 +1,147 @@
+/**
+ * The evaluator: a second pass over the parsed note, in document order. It never throws: every
+ * statement is evaluated inside a guard, and a failure becomes a diagnostic on that statement.
+ */
+import type { CoreDiagnostic, ParsedNote, Statement } from '../notation/ast';
+import { parseNote } from '../notation/parse';
+import type { Analysis, EvaluateSettings, EvaluatedItem } from './types';
+import { EvalContext, type NameDef } from './context';
+import { SITE_KEYS } from './keys';
+import { evaluateMix } from './mix';
+import { pressureFromProps } from './pressure';
+import { evaluateProcess } from './process';
+import { readProps } from './props';
+import { resolveSettings } from './settings';
+import { evaluateState } from './state';
+
+/** Every name a statement defines, found before evaluation (for `used-before-defined`). */
+function prescan(statements: Statement[]): Map<string, NameDef[]> {
+  const defs = new Map<string, NameDef[]>();
+  statements.forEach((s, i) => {
+    if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process') && s.name) {
+      const d: NameDef = { name: s.name.text, span: s.name.span, statementIndex: i, keyword: s.keyword };
+      const list = defs.get(d.name);
+      if (list) list.push(d);
+      else defs.set(d.name, [d]);
+    }
+  });
+  return defs;
+}
+
+function evaluateSite(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'site' }>): void {
+  const { props, broken } = readProps(ctx, stmt.props, SITE_KEYS, 'site:');
+  if (props.length === 0) {
+    if (broken.size === 0 && stmt.props.length === 0) {
+      ctx.report({
+        code: 'underspecified',
+        severity: 'error',
+        message: 'site: sets nothing; write the pressure (site: p=84.5kPa) or the elevation (site: elev=1600m)',
+        span: stmt.keywordSpan,
+      });
+    }
+    return;
+  }
+  const line = ctx.lineWord(stmt.span);
+  const basis = pressureFromProps(ctx, props, 'site', line ? `site ${line}` : 'site');
+  if (basis) ctx.site = basis;
+}
+
+function evaluateUnits(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'units' }>): void {
+  const word = stmt.system;
+  if (!word) return; // the parser reported the syntax
+  if (word.text !== 'SI' && word.text !== 'IP') {
+    const upper = word.text.toUpperCase().replace(/[^A-Z]/g, '');
+    const guess = upper === 'SI' || upper === 'METRIC' ? 'SI' : upper === 'IP' || upper === 'US' || upper === 'IMPERIAL' ? 'IP' : null;
+    ctx.report({
+      code: 'unknown-unit-system',
+      severity: 'error',
+      message: `'${word.text}' is not a unit system; write units: SI or units: IP${guess ? ` (did you mean ${guess}?)` : ''}`,
+      span: word.span,
+      data: guess ? { suggestion: guess } : {},
+    });
+    return;
+  }
+  if (ctx.unitsSource === 'note' && ctx.units !== word.text) {
+    ctx.report({
+      code: 'units-conflict',
+      severity: 'warning',
+      message: `a units: ${ctx.units} line is already in this note; results are shown in ${ctx.units}. Keep one units: line`,
+      span: word.span,
+      related: ctx.unitsSpan ? [{ span: ctx.unitsSpan, message: `units: ${ctx.units}` }] : undefined,
+    });
+    return;
+  }
+  if (ctx.unitsSource === 'note') return;
+  ctx.units = word.text;
+  ctx.unitsSource = 'note';
+  ctx.unitsSpan = word.span;
+}
+
+/**
+ * Evaluates a parsed note. Statements are taken in document order; the note's `units:` line wins
+ * over `settings.units`. Pass the note's `text` to get line numbers in messages.
+ */
+export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings>, text?: string): Analysis {
+  const resolved = resolveSettings(settings);
+  const ctx = new EvalContext(resolved, text);
+  const statements = Array.isArray(parsed?.statements) ? parsed.statements : [];
+  for (const [k, v] of prescan(statements)) ctx.allDefs.set(k, v);
+
+  statements.forEach((stmt, index) => {
+    try {
+      switch (stmt.keyword) {
+        case 'site':
+          evaluateSite(ctx, stmt);
+          break;
+        case 'units':
+          evaluateUnits(ctx, stmt);
+          break;
+        case 'state':
+        case 'mix': {
+          const owner = stmt.name ? ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: stmt.keyword }, stmt.name) : false;
+          const item = stmt.keyword === 'state' ? evaluateState(ctx, stmt, owner) : evaluateMix(ctx, stmt, index, owner);
+          if (stmt.name) ctx.addItem(item, owner);
+          break;
+        }
+        case 'process': {
+          const owner = stmt.name ? ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'process' }, stmt.name) : false;
+          const item = evaluateProcess(ctx, stmt, index);
+          if (item && stmt.name) ctx.addItem(item, owner);
+          break;
+        }
+        default:
+          break;
+      }
+    } catch (err) {
+      ctx.report({
+        code: 'internal-error',
+        severity: 'error',
+        message: `this statement could not be evaluated (${err instanceof Error ? err.message : String(err)}); please report it with the note`,
+        span: (stmt as Statement).span ?? { start: 0, end: 0 },
+      });
+    }
+  });
+
+  const parseDiagnostics: CoreDiagnostic[] = Array.isArray(parsed?.diagnostics) ? parsed.diagnostics : [];
+  const diagnostics = [...parseDiagnostics, ...ctx.diagnostics]
+    .map((d, i) => ({ d, i }))
+    .sort((x, y) => x.d.span.start - y.d.span.start || x.d.span.end - y.d.span.end || x.i - y.i)
+    .map((x) => x.d);
+
+  const byName = new Map<string, EvaluatedItem>(ctx.byName);
+  return {
+    parsed,
+    units: ctx.units,
+    unitsSource: ctx.unitsSource,
+    settings: resolved,
+    items: ctx.items,
+    byName,
+    references: ctx.references,
+    diagnostics,
+  };
+}
+
+/** Parses a Markdown note and evaluates it (`parseNote` + {@link evaluate}). */
+export function analyzeNote(text: string, settings?: Partial<EvaluateSettings>): Analysis {
+  return evaluate(parseNote(text), settings, text);
+}

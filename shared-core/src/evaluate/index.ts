@@ -1,0 +1,9 @@
+/** The evaluator's public surface. */
+export { evaluate, analyzeNote } from './evaluate';
+export { DEFAULT_SETTINGS, STANDARD_PRESSURE_PA, resolveSettings } from './settings';
+export { STATE_KEYS, SITE_KEYS, MIX_KEYS, PROCESS_KEYS, DEFINING_KEYS } from './keys';
+export type { KeySpec } from './keys';
+export { candidatePairs } from './state';
+export { splitSensibleLatent, apparatusDewPoint, processKindOf } from './process';
+export { allFinite } from './util';
+export type * from './types';

@@ -1,0 +1,285 @@
+/**
+ * `mix NAME: A X + B Y [+ …] [claims]`: adiabatic mixing of named states by dry-air mass and
+ * energy balance (ASHRAE HoF 2017 SI Ch.1, adiabatic mixing of two moist-air streams):
+ *   W = Σ ṁ·W / Σ ṁ,  h = Σ ṁ·h / Σ ṁ,  then the state from (W, h) at the streams' pressure.
+ * Amounts are dry-air mass fractions (%), dry-air mass flows, or volume flows taken at each
+ * stream's own state (ṁ = V̇ / v, v per kg of dry air).
+ */
+import { solveState } from '../physics';
+import type { MixStatement } from '../notation/ast';
+import type { Span } from '../text/types';
+import { lookupUnit } from '../units';
+import type { EvalContext } from './context';
+import { MIX_KEYS } from './keys';
+import { problemDiagnostic } from './problems';
+import { readProps } from './props';
+import { dimensionWords, findUnit, readQuantity, suggestSymbol } from './quantity';
+import { kPaText } from './pressure';
+import { stateClaims } from './state';
+import type { PressureBasis, StateResult } from './types';
+import { allFinite, formatSig, spanUnion } from './util';
+
+/** Streams whose pressures differ by more than this fraction get a `pressure-mismatch` warning. */
+const PRESSURE_SLACK = 1e-4;
+
+type AmountKind = 'fraction' | 'massFlow' | 'volumeFlow';
+
+interface StreamRead {
+  name: string;
+  span: Span;
+  amountSpan: Span;
+  kind: AmountKind;
+  /** Fraction 0…1, kg/s or m³/s. */
+  si: number;
+  /** Half a unit of the last written digit (fractions), as a fraction. */
+  halfResolution: number;
+  state: StateResult;
+}
+
+/** Evaluates one `mix` statement; always returns a result (with `state: null` when it failed). */
+export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number, owner: boolean): StateResult {
+  const name = stmt.name?.text ?? '';
+  const what = name ? `mix ${name}` : 'this mix';
+  const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
+  const result: StateResult = {
+    kind: 'mix',
+    name,
+    statement: stmt,
+    state: null,
+    pressure: ctx.site,
+    defining: ['w', 'h'],
+    claims: [],
+    streams: [],
+    massFlowKgS: null,
+  };
+  const claimProps = readProps(ctx, stmt.props, MIX_KEYS, what);
+
+  if (stmt.streams.length === 0) {
+    ctx.report({ code: 'underspecified', severity: 'error', message: `${what} has no streams; write them like mix ${name || 'MA'}: OA 25% + RA 75%`, span: fallback });
+    return result;
+  }
+
+  // Read every stream: its name (a computed state defined above) and its amount.
+  const streams: StreamRead[] = [];
+  let failed = false;
+  for (const s of stmt.streams) {
+    const ref = ctx.resolve(s.name, stmt, index);
+    let state: StateResult | null = null;
+    if (ref.ok) {
+      if (ref.item.kind === 'process') {
+        ctx.report({
+          code: 'not-a-state',
+          severity: 'error',
+          message: `'${s.name.text}' is a process, not a state; a mix takes states (state or mix names)`,
+          span: s.name.span,
+          related: [{ span: ref.def.span, message: `process ${s.name.text}` }],
+        });
+        failed = true;
+      } else if (ref.item.state === null) {
+        ctx.report(dependencyInfo(what, s.name.text, s.name.span, ref.def.span));
+        failed = true;
+      } else state = ref.item;
+    } else {
+      if (ref.failed) ctx.report(dependencyInfo(what, s.name.text, s.name.span, ref.def.span));
+      failed = true;
+    }
+    const amount = readAmount(ctx, s.amount, s.span, s.name.text, what);
+    if (!amount) {
+      failed = true;
+      continue;
+    }
+    if (state) streams.push({ name: s.name.text, span: s.span, amountSpan: amount.span, kind: amount.kind, si: amount.si, halfResolution: amount.halfResolution, state });
+  }
+
+  // Fractions and flows do not mix.
+  const kinds = new Set(streams.map((s) => s.kind));
+  const allAmountKinds = new Set<AmountKind>();
+  for (const s of stmt.streams) {
+    const k = s.amount?.unit ? amountKindOf(s.amount.unit.text) : null;
+    if (k) allAmountKinds.add(k);
+  }
+  if (allAmountKinds.has('fraction') && (allAmountKinds.has('massFlow') || allAmountKinds.has('volumeFlow'))) {
+    ctx.report({
+      code: 'mix-amounts',
+      severity: 'error',
+      message: `${what} mixes fractions (%) with flows; give every stream as a dry-air mass fraction (OA 25% + RA 75%) or every stream as a flow (OA 1.2kg/s + RA 3.6kg/s, or volume flows such as 1000L/s)`,
+      span: spanUnion(...stmt.streams.map((s) => s.span)),
+    });
+    return result;
+  }
+  if (failed || streams.length === 0) return result;
+
+  // Fractions must add to 100 % (within half a unit of the last digit of each).
+  if (kinds.has('fraction')) {
+    const sum = streams.reduce((a, s) => a + s.si, 0);
+    const slack = streams.reduce((a, s) => a + s.halfResolution, 0) + 1e-9;
+    const negative = streams.find((s) => s.si < 0);
+    if (negative) {
+      ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: the fraction of ${negative.name} is negative; fractions are between 0 % and 100 %`, span: negative.amountSpan });
+      return result;
+    }
+    if (Math.abs(sum - 1) > slack) {
+      ctx.report({
+        code: 'mix-fractions',
+        severity: 'error',
+        message: `${what}: the fractions add to ${formatSig(sum * 100, 6)} %, not 100 %; change them so they add to 100 % (the fractions are of dry-air mass)`,
+        span: spanUnion(...streams.map((s) => s.amountSpan)),
+        data: { sumPct: sum * 100 },
+      });
+      return result;
+    }
+  }
+
+  // Dry-air mass flow of each stream (or its fraction when amounts are fractions).
+  const mass: number[] = streams.map((s) => {
+    if (s.kind === 'volumeFlow') return s.si / s.state.state!.v;
+    return s.si;
+  });
+  const total = mass.reduce((a, m) => a + m, 0);
+  if (!(total > 0) || !Number.isFinite(total)) {
+    ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: the streams add to no flow at all; give at least one stream a positive amount`, span: spanUnion(...streams.map((s) => s.amountSpan)) });
+    return result;
+  }
+  const fractions = mass.map((m) => m / total);
+  if (fractions.some((f) => f < 0)) {
+    ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: a stream has a negative flow; flows are positive figures`, span: spanUnion(...streams.map((s) => s.amountSpan)) });
+    return result;
+  }
+
+  // One pressure for all the streams: the dry-air-mass-weighted mean, with a warning if they differ.
+  const pMean = streams.reduce((a, s, i) => a + fractions[i]! * s.state.pressure.pa, 0);
+  const pMin = Math.min(...streams.map((s) => s.state.pressure.pa));
+  const pMax = Math.max(...streams.map((s) => s.state.pressure.pa));
+  const first = streams[0]!.state.pressure;
+  let pressure: PressureBasis = first;
+  if (pMax - pMin > PRESSURE_SLACK * pMean) {
+    ctx.report({
+      code: 'pressure-mismatch',
+      severity: 'warning',
+      message: `${what}: the streams are at different pressures (${kPaText(pMin)} to ${kPaText(pMax)}); the mix is computed at their mean, ${kPaText(pMean)}. Put all streams at one pressure (one site: line)`,
+      span: spanUnion(...streams.map((s) => s.span)),
+    });
+    pressure = { pa: pMean, source: first.source, span: null, elevationM: null, describe: `mean of the streams' pressures, ${kPaText(pMean)}` };
+  }
+  result.pressure = pressure;
+
+  // Mass and energy balance.
+  let w = 0;
+  let h = 0;
+  streams.forEach((s, i) => {
+    w += fractions[i]! * s.state.state!.w;
+    h += fractions[i]! * s.state.state!.h;
+  });
+  const flows = !kinds.has('fraction');
+  result.streams = streams.map((s, i) => ({ name: s.name, fraction: fractions[i]!, massFlowKgS: flows ? mass[i]! : null }));
+  result.massFlowKgS = flows ? total : null;
+
+  let solved: ReturnType<typeof solveState>;
+  try {
+    solved = solveState({ w, h }, pressure.pa, { allowFog: true });
+  } catch (err) {
+    solved = { ok: false, problem: { code: 'no-solution', message: `the engine failed (${err instanceof Error ? err.message : String(err)})`, fix: 'check the streams', keys: [] } };
+  }
+  const streamsSpan = spanUnion(...streams.map((s) => s.span));
+  const spans = new Map<string, Span>();
+  if (!solved.ok) {
+    ctx.report(problemDiagnostic(solved.problem, 'error', spans, fallback, `${what} (W = ${formatSig(w * 1000, 4)} g/kg, h = ${formatSig(h / 1000, 4)} kJ/kg)`));
+    return result;
+  }
+  if (!allFinite(solved.state)) {
+    ctx.report({ code: 'no-solution', severity: 'error', message: `${what}: the mixed state could not be computed; check the streams`, span: streamsSpan });
+    return result;
+  }
+  result.state = solved.state;
+  for (const warn of solved.warnings) {
+    if (warn.code === 'supersaturated') {
+      ctx.report({
+        code: 'supersaturated',
+        severity: 'warning',
+        message: `${what}: the mixed state lies in the fog region (W = ${formatSig(w * 1000, 4)} g/kg is above saturation at the mixed dry-bulb ${formatSig(solved.state.db, 3)} °C): water would condense as mist in the mixing box. Preheat the colder stream, or change the proportions`,
+        span: fallback,
+        related: streams.map((s) => ({ span: s.span, message: `stream ${s.name}` })),
+      });
+    } else {
+      ctx.report(problemDiagnostic(warn, 'warning', spans, fallback, what));
+    }
+  }
+  const ctxText = `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`;
+  result.claims = stateClaims(ctx, claimProps.props, solved.state, ctxText);
+  void owner;
+  return result;
+}
+
+function amountKindOf(unitText: string): AmountKind | null {
+  const u = lookupUnit(unitText);
+  if (!u) return null;
+  if (u.dimension === 'fraction') return 'fraction';
+  if (u.dimension === 'massFlow') return 'massFlow';
+  if (u.dimension === 'volumeFlow') return 'volumeFlow';
+  return null;
+}
+
+function readAmount(
+  ctx: EvalContext,
+  amount: MixStatement['streams'][number]['amount'],
+  streamSpan: Span,
+  streamName: string,
+  what: string,
+): { kind: AmountKind; si: number; halfResolution: number; span: Span } | null {
+  if (!amount) {
+    ctx.report({
+      code: 'mix-amounts',
+      severity: 'error',
+      message: `${what}: stream ${streamName} has no amount; write a dry-air mass fraction (${streamName} 25%), a dry-air mass flow (${streamName} 1.2kg/s) or a volume flow (${streamName} 1000L/s)`,
+      span: streamSpan,
+    });
+    return null;
+  }
+  if (!amount.unit) {
+    ctx.report({
+      code: 'missing-unit',
+      severity: 'error',
+      message: `${what}: the amount ${amount.number.text} of ${streamName} has no unit; write a fraction (${amount.number.text}%), a mass flow (${amount.number.text}kg/s) or a volume flow (${amount.number.text}m3/s)`,
+      span: amount.number.span,
+    });
+    return null;
+  }
+  const kind = amountKindOf(amount.unit.text);
+  if (!kind) {
+    const u = amount.unit.text;
+    const def = findUnit(u);
+    const sug = def ? null : suggestSymbol(u, ['fraction', 'massFlow', 'volumeFlow']);
+    const kinds = 'a dry-air mass fraction (%), a dry-air mass flow (kg/s, kg/h, lb/h) or a volume flow (m3/s, m3/h, L/s, cfm)';
+    ctx.report({
+      code: 'unknown-unit',
+      severity: 'error',
+      message: def
+        ? `${what}: '${u}' after ${streamName} is ${dimensionWords(def.dimension)} unit; a stream amount is ${kinds}`
+        : `${what}: '${u}' after ${streamName} is not a unit Dewmark knows; ${sug ? `did you mean ${streamName} ${amount.number.text}${sug}? ` : ''}a stream amount is ${kinds}`,
+      span: amount.unit.span,
+      data: sug ? { suggestion: sug } : {},
+    });
+    return null;
+  }
+  const dim = kind === 'fraction' ? 'fraction' : kind;
+  const r = readQuantity({ key: streamName, keySpan: streamSpan }, amount, { key: streamName, dimension: dim, title: 'a stream amount', bare: 'error', example: `${streamName} 25%` });
+  if (!r.ok) {
+    ctx.report(r.diagnostic);
+    return null;
+  }
+  const unit = r.value.unit;
+  const halfResolution = (amount.number.resolution / 2) * (unit ? Math.abs(unit.scale) : 1);
+  return { kind, si: r.value.si, halfResolution, span: amount.span };
+}
+
+function dependencyInfo(what: string, ref: string, span: Span, defSpan: Span) {
+  return {
+    code: 'unresolved-dependency',
+    severity: 'info' as const,
+    message: `${what} is not computed because ${ref} could not be computed (see the problem reported there)`,
+    span,
+    related: [{ span: defSpan, message: `${ref} is defined here` }],
+  };
+}
+
+export { dependencyInfo };

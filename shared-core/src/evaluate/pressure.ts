@@ -1,0 +1,106 @@
+/** Barometric pressure: `site:` lines and the per-state `p=` / `elev=` overrides. */
+import { stdAtmPressure } from '../physics';
+import type { Span } from '../text/types';
+import type { EvalContext } from './context';
+import type { PressureBasis } from './types';
+import type { ReadProp } from './props';
+import { problemOf } from './problems';
+import { formatSig } from './util';
+
+/** Site pressures outside this band are accepted but flagged as unusual (common practice: 30–110 kPa covers inhabited sites). */
+const USUAL_MIN_PA = 30_000;
+const USUAL_MAX_PA = 110_000;
+
+/** "84.556 kPa". */
+export function kPaText(pa: number): string {
+  return `${formatSig(pa / 1000, 6)} kPa`;
+}
+
+/**
+ * The pressure that `p=` or `elev=` among `props` sets, or null when neither is written or the
+ * value is unusable (diagnostics reported). With both, `p=` is used and `elev=` gets a warning.
+ * @param source  'site' for a site line, 'override' for a state's own pressure.
+ * @param label   how the description starts ("site line 3", "own").
+ */
+export function pressureFromProps(
+  ctx: EvalContext,
+  props: ReadProp[],
+  source: 'site' | 'override',
+  label: string,
+): PressureBasis | null {
+  const p = props.find((x) => x.key === 'p');
+  const elev = props.find((x) => x.key === 'elev');
+  if (p && elev) {
+    ctx.report({
+      code: 'pressure-conflict',
+      severity: 'warning',
+      message: `both p= and elev= set the pressure here; p=${p.q.quantity.number.text}${p.q.unitText} is used and elev= is ignored, remove one of them`,
+      span: elev.prop.span,
+      related: [{ span: p.prop.span, message: 'the pressure used' }],
+    });
+  }
+  if (p) {
+    const pa = p.q.si;
+    if (!(pa > 0) || !Number.isFinite(pa)) {
+      ctx.report({
+        code: 'out-of-range',
+        severity: 'error',
+        message: `p=${p.q.quantity.number.text}${p.q.unitText} is not a positive pressure; write the absolute barometric pressure, e.g. p=101.325kPa`,
+        span: p.q.quantity.span,
+      });
+      return null;
+    }
+    warnUnusual(ctx, pa, p.q.quantity.span, `p=${p.q.quantity.number.text}${p.q.unitText}`);
+    return {
+      pa,
+      source,
+      span: p.prop.span,
+      elevationM: null,
+      describe: `${label}: p=${p.q.quantity.number.text}${p.q.unitText}`,
+    };
+  }
+  if (elev) {
+    const z = elev.q.si;
+    let pa: number;
+    try {
+      pa = stdAtmPressure(z);
+    } catch (err) {
+      const prob = problemOf(err);
+      ctx.report({
+        code: prob.code,
+        severity: 'error',
+        message: `elev=${elev.q.quantity.number.text}${elev.q.unitText}: ${prob.message} ${prob.fix}`,
+        span: elev.q.quantity.span,
+      });
+      return null;
+    }
+    if (!(pa > 0) || !Number.isFinite(pa)) {
+      ctx.report({
+        code: 'out-of-range',
+        severity: 'error',
+        message: `elev=${elev.q.quantity.number.text}${elev.q.unitText} gives no usable standard-atmosphere pressure; give an elevation between −500 m and 11 000 m, or the pressure itself with p=`,
+        span: elev.q.quantity.span,
+      });
+      return null;
+    }
+    warnUnusual(ctx, pa, elev.q.quantity.span, `elev=${elev.q.quantity.number.text}${elev.q.unitText}`);
+    return {
+      pa,
+      source,
+      span: elev.prop.span,
+      elevationM: z,
+      describe: `${label}: elev=${elev.q.quantity.number.text}${elev.q.unitText} → ${kPaText(pa)} (standard atmosphere)`,
+    };
+  }
+  return null;
+}
+
+function warnUnusual(ctx: EvalContext, pa: number, span: Span, written: string): void {
+  if (pa >= USUAL_MIN_PA && pa <= USUAL_MAX_PA) return;
+  ctx.report({
+    code: 'unusual-pressure',
+    severity: 'warning',
+    message: `${written} is ${kPaText(pa)}, outside the 30–110 kPa of inhabited sites; check the unit (kPa, not Pa or bar?)`,
+    span,
+  });
+}

@@ -1,0 +1,65 @@
+/** Turning the engine's typed problems into diagnostics on the offending tokens. */
+import type { PhysicsProblem } from '../physics/types';
+import { PsychroError } from '../physics/types';
+import type { CoreDiagnostic } from '../notation/ast';
+import type { Span } from '../text/types';
+import { spanUnion } from './util';
+
+/** Codes whose natural severity is a warning even when the engine reports them as problems. */
+const WARNING_CODES = new Set(['ill-conditioned']);
+
+/**
+ * A diagnostic for an engine problem: same stable code, the engine's message and fix, the span of
+ * the properties the problem names (or `fallback`), and `where` ("state OA") in the message.
+ */
+export function problemDiagnostic(
+  problem: PhysicsProblem,
+  severity: 'error' | 'warning',
+  spansByKey: ReadonlyMap<string, Span>,
+  fallback: Span,
+  where: string,
+  related?: CoreDiagnostic['related'],
+): CoreDiagnostic {
+  const spans: Span[] = [];
+  for (const k of problem.keys ?? []) {
+    const s = spansByKey.get(k);
+    if (s) spans.push(s);
+  }
+  const span = spans.length > 0 ? spanUnion(...spans) : fallback;
+  const sev = WARNING_CODES.has(problem.code) ? 'warning' : severity;
+  const msg = ensureSentence(problem.message);
+  const fix = problem.fix ? ` ${ensureSentence(capitalize(problem.fix))}` : '';
+  const d: CoreDiagnostic = {
+    code: problem.code,
+    severity: sev,
+    message: `${where}: ${msg}${fix}`,
+    span,
+    data: { keys: [...(problem.keys ?? [])], fix: problem.fix },
+  };
+  if (related && related.length > 0) d.related = related;
+  return d;
+}
+
+/** The problem carried by an error thrown by the engine, or a generic one for anything else. */
+export function problemOf(err: unknown): PhysicsProblem {
+  if (err instanceof PsychroError) return err.problem;
+  if (err && typeof err === 'object' && 'problem' in err) {
+    const p = (err as { problem: unknown }).problem;
+    if (p && typeof p === 'object' && 'code' in p && 'message' in p) return p as PhysicsProblem;
+  }
+  return {
+    code: 'no-solution',
+    message: `the engine could not compute this (${err instanceof Error ? err.message : String(err)})`,
+    fix: 'check the figures',
+    keys: [],
+  };
+}
+
+function ensureSentence(s: string): string {
+  const t = s.trim();
+  return /[.!?]$/.test(t) ? t : `${t}.`;
+}
+
+function capitalize(s: string): string {
+  return s.length > 0 ? s[0]!.toUpperCase() + s.slice(1) : s;
+}

@@ -1,0 +1,307 @@
+/**
+ * `process NAME: A -> B [m=… | q=…] [claims]`: a steady-flow process between two states at one
+ * dry-air mass flow.
+ *
+ * Per kg of dry air (ASHRAE HoF 2017 SI Ch.1 eq 32, h = 1.006 t + W (2501 + 1.86 t) kJ/kg):
+ *   total    Δh = h_B − h_A
+ *   sensible Δh_s = (1.006 + 1.86 W_A) (t_B − t_A)   — moist-air cp at the entering W
+ *   latent   Δh_l = Δh − Δh_s                          (= (W_B − W_A)(2501 + 1.86 t_B) with eq 32)
+ * Water: ṁ (W_B − W_A), positive = added (humidifier), negative = condensate removed.
+ * Coil or heater duty: Q = ṁ [Δh − (W_B − W_A) h_water(t_B)], the water leaving (condensate) or
+ * entering (humidifier) as liquid at the leaving dry-bulb (frost below 0 °C for condensate).
+ */
+import { condensateEnthalpy, liquidWaterEnthalpy, satHumRatio } from '../physics';
+import type { MoistAirState } from '../physics/types';
+import type { ProcessStatement } from '../notation/ast';
+import type { Span } from '../text/types';
+import type { EvalContext } from './context';
+import { PROCESS_KEYS } from './keys';
+import { dependencyInfo } from './mix';
+import { kPaText } from './pressure';
+import type { ReadProp } from './props';
+import { readProps } from './props';
+import { checkClaim } from './claims';
+import type { ClaimResult, ProcessKind, ProcessResult, StateResult } from './types';
+import { formatSig } from './util';
+
+/** Specific heat of dry air, kJ/(kg·K) as J/(kg·K) (ASHRAE HoF 2017 SI Ch.1 eq 32). */
+const CP_DRY_AIR = 1006;
+/** Specific heat of water vapour, J/(kg·K) (ASHRAE HoF 2017 SI Ch.1 eq 32). */
+const CP_VAPOUR = 1860;
+/** Below this |Δt| the temperature is taken as unchanged, K (0.05 K: half the 0.1 K display step). */
+const DT_STILL = 0.05;
+/** Below this |ΔW| the moisture is taken as unchanged, kg/kg (0.01 g/kg: the display step). */
+const DW_STILL = 1e-5;
+/** Below this |Δh| the SHR is not defined, J/kg. */
+const DH_STILL = 10;
+/** Tolerance for reaching the saturation curve along the coil line, kg/kg. */
+const SAT_SLACK = 2e-5;
+
+/** Sensible and latent split per kg dry air (see the module comment). */
+export function splitSensibleLatent(a: MoistAirState, b: MoistAirState): { total: number; sensible: number; latent: number } {
+  const total = b.h - a.h;
+  const sensible = (CP_DRY_AIR + CP_VAPOUR * a.w) * (b.db - a.db);
+  return { total, sensible, latent: total - sensible };
+}
+
+/** Enthalpy of the water that enters (humidifier, liquid) or leaves (condensate, frost below 0 °C) at t °C, J/kg. */
+export function waterEnthalpy(tC: number, added: boolean): number {
+  try {
+    const h = added ? liquidWaterEnthalpy(tC) : condensateEnthalpy(tC);
+    return Number.isFinite(h) ? h : 4186 * tC;
+  } catch {
+    return 4186 * tC;
+  }
+}
+
+/** Names the process from the directions of the dry-bulb and humidity-ratio changes. */
+export function processKindOf(a: MoistAirState, b: MoistAirState, coilPerKg: number, sensiblePerKg: number): ProcessKind {
+  const dt = b.db - a.db;
+  const dw = b.w - a.w;
+  const tUp = dt > DT_STILL;
+  const tDown = dt < -DT_STILL;
+  const wUp = dw > DW_STILL;
+  const wDown = dw < -DW_STILL;
+  if (!wUp && !wDown) return tUp ? 'sensible-heating' : tDown ? 'sensible-cooling' : 'no-change';
+  if (wDown) return tUp ? 'heating-dehumidifying' : tDown ? 'cooling-dehumidifying' : 'dehumidifying';
+  if (tUp) return 'heating-humidifying';
+  if (!tDown) return 'humidifying';
+  // Cooling while humidifying: evaporative when hardly any heat crosses the boundary.
+  return Math.abs(coilPerKg) <= Math.max(500, 0.1 * Math.abs(sensiblePerKg)) ? 'evaporative-cooling' : 'cooling-humidifying';
+}
+
+/**
+ * For moisture removed: the apparatus dew point, the temperature where the straight line from A
+ * through B, continued in the drying direction, meets the saturation curve — or null when it never
+ * does before W reaches zero (no cooling surface can produce B from A).
+ */
+export function apparatusDewPoint(a: MoistAirState, b: MoistAirState, p: number): number | null {
+  const dt = b.db - a.db;
+  const dw = b.w - a.w;
+  if (!(dw < 0)) return null;
+  const f = (s: number): number | null => {
+    const t = a.db + s * dt;
+    if (t < -100 || t > 200) return null;
+    try {
+      const ws = satHumRatio(t, p);
+      return Number.isFinite(ws) ? a.w + s * dw - ws : null;
+    } catch {
+      return null;
+    }
+  };
+  const f1 = f(1);
+  if (f1 !== null && f1 >= -SAT_SLACK) return b.db;
+  const sMax = a.w / -dw;
+  if (!(sMax > 1)) return null;
+  const steps = 200;
+  let prevS = 1;
+  for (let i = 1; i <= steps; i++) {
+    const s = 1 + ((sMax - 1) * i) / steps;
+    const v = f(s);
+    if (v === null) {
+      if (dt > 0) return null; // beyond boiling: the line never meets saturation
+      break;
+    }
+    if (v >= -SAT_SLACK) {
+      // Bisect between prevS (below) and s (at or above) for the crossing.
+      let lo = prevS;
+      let hi = s;
+      for (let k = 0; k < 50; k++) {
+        const mid = (lo + hi) / 2;
+        const fm = f(mid);
+        if (fm !== null && fm >= 0) hi = mid;
+        else lo = mid;
+      }
+      return a.db + hi * dt;
+    }
+    prevS = s;
+  }
+  return null;
+}
+
+/** Evaluates one `process` statement; null when it cannot be computed (diagnostics say why). */
+export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index: number): ProcessResult | null {
+  const name = stmt.name?.text ?? '';
+  const what = name ? `process ${name}` : 'this process';
+  const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
+  const { props } = readProps(ctx, stmt.props, PROCESS_KEYS, what);
+  if (!stmt.from || !stmt.to) return null; // the parser reported the syntax
+  const from = endpoint(ctx, stmt, index, 'from', what);
+  const to = endpoint(ctx, stmt, index, 'to', what);
+  if (!from || !to) return null;
+  const a = from.state!;
+  const b = to.state!;
+
+  if (Math.abs(from.pressure.pa - to.pressure.pa) > 1e-4 * from.pressure.pa) {
+    ctx.report({
+      code: 'pressure-mismatch',
+      severity: 'warning',
+      message: `${what}: ${from.name} is at ${kPaText(from.pressure.pa)} and ${to.name} at ${kPaText(to.pressure.pa)}; a process is taken at one pressure, so the figures are approximate. Put both states at one pressure`,
+      span: stmt.to.span,
+      related: [{ span: stmt.from.span, message: `${from.name}: ${from.pressure.describe}` }],
+    });
+  }
+
+  // Dry-air mass flow: m=, or q= at the entering state, or the entering mix's own flow.
+  const m = props.find((p) => p.key === 'm');
+  const q = props.find((p) => p.key === 'q');
+  if (m && q) {
+    ctx.report({
+      code: 'flow-conflict',
+      severity: 'error',
+      message: `${what}: both m= and q= give the flow; keep one (m= is used)`,
+      span: q.prop.span,
+      related: [{ span: m.prop.span, message: 'the flow used' }],
+    });
+  }
+  let massFlow: number | null = null;
+  let volumeFlow: number | null = null;
+  const flowProp = m ?? q;
+  if (flowProp) {
+    if (!(flowProp.q.si > 0) || !Number.isFinite(flowProp.q.si)) {
+      ctx.report({
+        code: 'out-of-range',
+        severity: 'error',
+        message: `${what}: ${flowProp.key}=${flowProp.q.quantity.number.text}${flowProp.q.unitText} is not a positive flow; give the dry-air flow through the process as a positive figure`,
+        span: flowProp.q.quantity.span,
+      });
+    } else if (flowProp === m) {
+      massFlow = m.q.si;
+      volumeFlow = massFlow * a.v;
+    } else {
+      volumeFlow = flowProp.q.si;
+      massFlow = volumeFlow / a.v;
+    }
+  } else if (from.kind === 'mix' && typeof from.massFlowKgS === 'number' && from.massFlowKgS > 0) {
+    massFlow = from.massFlowKgS;
+    volumeFlow = massFlow * a.v;
+  }
+
+  const { total, sensible, latent } = splitSensibleLatent(a, b);
+  const dw = b.w - a.w;
+  const hWater = waterEnthalpy(b.db, dw > 0);
+  const coilPerKg = total - dw * hWater;
+  const kind = processKindOf(a, b, coilPerKg, sensible);
+  const shr = Math.abs(total) >= DH_STILL ? sensible / total : null;
+  const rate = (x: number): number | null => (massFlow === null ? null : massFlow * x);
+
+  const result: ProcessResult = {
+    kind: 'process',
+    name,
+    statement: stmt,
+    from: from.name,
+    to: to.name,
+    processKind: kind,
+    massFlowKgS: massFlow,
+    volumeFlowM3S: volumeFlow,
+    dhTotal: total,
+    dhSensible: sensible,
+    dhLatent: latent,
+    qTotalW: rate(total),
+    qSensibleW: rate(sensible),
+    qLatentW: rate(latent),
+    shr: shr !== null && Number.isFinite(shr) ? shr : null,
+    dw,
+    waterKgS: rate(dw),
+    qCoilW: rate(coilPerKg),
+    claims: [],
+    apparatusDewPointC: null,
+  };
+
+  // Moisture removed: the coil line must reach the saturation curve (an apparatus dew point).
+  if (dw < -DW_STILL) {
+    const adp = apparatusDewPoint(a, b, (from.pressure.pa + to.pressure.pa) / 2);
+    result.apparatusDewPointC = adp;
+    if (adp === null) {
+      const heating = b.db - a.db > -DT_STILL;
+      ctx.report({
+        code: 'impossible-process',
+        severity: 'error',
+        message: heating
+          ? `${what}: moisture is removed (${formatSig(-dw * 1000, 3)} g/kg) while the air is ${b.db - a.db > DT_STILL ? 'heated' : 'kept at the same temperature'}; a coil can only dry air by cooling part of it below its dew point (${formatSig(a.dp, 3)} °C for ${from.name}), which lowers the dry-bulb. Check ${to.name}: its dry-bulb should be lower, or its humidity ratio higher`
+          : `${what}: ${to.name} is too dry for its temperature: the line from ${from.name} through ${to.name} never meets the saturation curve, so no coil surface temperature can give this state (coil air leaves between the entering state and saturation at the surface). Lower ${to.name}'s dry-bulb or raise its humidity ratio`,
+        span: stmt.to.span,
+        related: [{ span: stmt.from.span, message: `entering state ${from.name}` }],
+        data: { from: from.name, to: to.name },
+      });
+    }
+  }
+
+  result.claims = processClaims(ctx, props.filter((p) => p.key !== 'm' && p.key !== 'q'), result, what);
+  return result;
+}
+
+function endpoint(ctx: EvalContext, stmt: ProcessStatement, index: number, end: 'from' | 'to', what: string): StateResult | null {
+  const node = stmt[end]!;
+  const ref = ctx.resolve(node, stmt, index);
+  if (!ref.ok) {
+    if (ref.failed) ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));
+    return null;
+  }
+  if (ref.item.kind === 'process') {
+    ctx.report({
+      code: 'not-a-state',
+      severity: 'error',
+      message: `'${node.text}' is a process, not a state; a process goes from one state (or mix) to another`,
+      span: node.span,
+      related: [{ span: ref.def.span, message: `process ${node.text}` }],
+    });
+    return null;
+  }
+  if (ref.item.state === null) {
+    ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));
+    return null;
+  }
+  return ref.item;
+}
+
+/** The computed figure a process claim is compared with, SI, signed (positive = added to the air). */
+function processFigure(r: ProcessResult, key: string): number | null {
+  switch (key) {
+    case 'q_total':
+      return r.qTotalW;
+    case 'q_sensible':
+      return r.qSensibleW;
+    case 'q_latent':
+      return r.qLatentW;
+    case 'q_coil':
+      return r.qCoilW;
+    case 'water':
+      return r.waterKgS;
+    case 'shr':
+      return r.shr;
+    default:
+      return null;
+  }
+}
+
+/**
+ * Compares process claims. Heat-rate and water claims written as positive figures are compared as
+ * magnitudes (a cooling coil's `q_total=98kW` means 98 kW removed); a written negative figure is
+ * compared with the signed value (positive = added to the air).
+ */
+function processClaims(ctx: EvalContext, claims: ReadProp[], r: ProcessResult, what: string): ClaimResult[] {
+  const out: ClaimResult[] = [];
+  if (!ctx.settings.checkClaims) return out;
+  for (const c of claims) {
+    const signed = processFigure(r, c.key);
+    if (signed === null) {
+      const needsFlow = c.key !== 'shr';
+      ctx.report({
+        code: needsFlow ? 'missing-flow' : 'claim-undefined',
+        severity: 'warning',
+        message: needsFlow
+          ? `${what}: ${c.key}= cannot be checked without a dry-air flow; add m=… (mass) or q=… (volume at ${r.from})`
+          : `${what}: the sensible heat ratio is not defined when the total heat is about zero; remove shr=`,
+        span: c.prop.keySpan,
+      });
+      continue;
+    }
+    const computed = c.key !== 'shr' && c.q.si >= 0 ? Math.abs(signed) : signed;
+    const flowText = r.massFlowKgS !== null ? ` at ${formatSig(r.massFlowKgS, 4)} kg/s dry air` : '';
+    const { claim, diagnostic } = checkClaim(c.key, c.prop, c.q, computed, `for ${r.from} -> ${r.to}${flowText}`);
+    out.push(claim);
+    if (diagnostic) ctx.report(diagnostic);
+  }
+  return out;
+}

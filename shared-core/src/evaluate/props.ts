@@ -1,0 +1,74 @@
+/** Reading the `key=value` list of a statement against a table of keys. */
+import type { PropertyNode } from '../notation/ast';
+import type { EvalContext } from './context';
+import type { KeySpec } from './keys';
+import type { ResolvedQuantity } from './quantity';
+import { readQuantity } from './quantity';
+import { closest } from './util';
+
+/** A property whose key is known and whose value was read. */
+export interface ReadProp {
+  key: string;
+  spec: KeySpec;
+  prop: PropertyNode;
+  q: ResolvedQuantity;
+}
+
+/** The outcome of reading a statement's properties. */
+export interface ReadProps {
+  /** Usable properties in written order (first occurrence of each key). */
+  props: ReadProp[];
+  /** Keys written with a value that could not be read (its diagnostic is already reported). */
+  broken: Set<string>;
+}
+
+/**
+ * Reads `props` against `table`: `unknown-key` (with a suggestion), `duplicate-key` for a key
+ * written twice (the first one counts), and the unit diagnostics of {@link readQuantity}.
+ * @param what  the statement, for messages ("state OA", "site").
+ */
+export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readonly<Record<string, KeySpec>>, what: string): ReadProps {
+  const out: ReadProp[] = [];
+  const broken = new Set<string>();
+  const seen = new Map<string, PropertyNode>();
+  for (const prop of props) {
+    const spec = Object.prototype.hasOwnProperty.call(table, prop.key) ? table[prop.key] : undefined;
+    if (!spec) {
+      const keys = Object.keys(table);
+      const suggestion = closest(prop.key, keys);
+      ctx.report({
+        code: 'unknown-key',
+        severity: 'error',
+        message: `'${prop.key}' is not a property of ${what}; ${suggestion ? `did you mean ${suggestion}=…? ` : ''}the keys are ${keys.join(', ')}`,
+        span: prop.keySpan,
+        data: suggestion ? { key: prop.key, suggestion } : { key: prop.key },
+      });
+      continue;
+    }
+    const first = seen.get(prop.key);
+    if (first) {
+      ctx.report({
+        code: 'duplicate-key',
+        severity: 'error',
+        message: `${prop.key}= is written twice in ${what}; the first one is used, remove one of them`,
+        span: prop.keySpan,
+        related: [{ span: first.span, message: `first ${prop.key}=` }],
+      });
+      continue;
+    }
+    seen.set(prop.key, prop);
+    if (prop.value === null) {
+      // The parser has reported the syntax error already.
+      broken.add(prop.key);
+      continue;
+    }
+    const r = readQuantity(prop, prop.value, spec);
+    if (!r.ok) {
+      ctx.report(r.diagnostic);
+      broken.add(prop.key);
+      continue;
+    }
+    out.push({ key: prop.key, spec, prop, q: r.value });
+  }
+  return { props: out, broken };
+}

@@ -1,0 +1,199 @@
+/**
+ * Reading a written quantity (`24C`, `50%±2`, `0.0093`, `1000L/s`) for a key: unit lookup,
+ * conversion to the SI base, the claim tolerance, and the diagnostics for missing, unknown or
+ * wrong-dimension units.
+ */
+import { lookupUnit, suggestUnit } from '../units';
+import type { Dimension, UnitDef } from '../units/types';
+import type { CoreDiagnostic, PropertyNode, QuantityNode } from '../notation/ast';
+import type { KeySpec } from './keys';
+
+/** A quantity converted for its key. */
+export interface ResolvedQuantity {
+  /** The written value in the SI base of the key's dimension. */
+  si: number;
+  /** The unit as resolved; null for a bare number read in the SI base (w in kg/kg, shr). */
+  unit: UnitDef | null;
+  /** The unit as written (`°C`, `g/kg`), or '' for a bare number. */
+  unitText: string;
+  /** Half-width of the accepted band for a claim, SI (difference, no offset). */
+  toleranceSI: number;
+  /** True when the tolerance was written (`±2`). */
+  explicitTolerance: boolean;
+  quantity: QuantityNode;
+}
+
+/** Outcome of reading a quantity: the value, or one diagnostic on the offending token. */
+export type QuantityOutcome = { ok: true; value: ResolvedQuantity } | { ok: false; diagnostic: CoreDiagnostic };
+
+/** Converts a value in `unit` to SI (affine: value·scale + offset). */
+export function unitToSI(value: number, unit: UnitDef): number {
+  return value * unit.scale + unit.offset;
+}
+
+/** Converts an SI value to `unit` (the inverse of {@link unitToSI}). */
+export function unitFromSI(si: number, unit: UnitDef): number {
+  return (si - unit.offset) / unit.scale;
+}
+
+/** Calls the units module's suggestion and keeps a symbol string, whatever shape it returns. */
+export function suggestSymbol(text: string, dimensions?: Dimension[]): string | null {
+  let r: unknown;
+  try {
+    r = (suggestUnit as (t: string, d?: Dimension[]) => unknown)(text, dimensions);
+  } catch {
+    return null;
+  }
+  const pick = (x: unknown): string | null => {
+    if (typeof x === 'string') return x;
+    if (x && typeof x === 'object' && 'symbol' in x && typeof (x as { symbol: unknown }).symbol === 'string') {
+      return (x as { symbol: string }).symbol;
+    }
+    return null;
+  };
+  if (Array.isArray(r)) {
+    for (const x of r) {
+      const s = pick(x);
+      if (s) return s;
+    }
+    return null;
+  }
+  return pick(r);
+}
+
+/** Looks a unit up, tolerating a units module that throws on odd input. */
+export function findUnit(symbol: string): UnitDef | undefined {
+  try {
+    return lookupUnit(symbol);
+  } catch {
+    return undefined;
+  }
+}
+
+const DIMENSION_WORDS: Record<Dimension, string> = {
+  temperature: 'a temperature',
+  pressure: 'a pressure',
+  humidityRatio: 'a humidity ratio',
+  enthalpy: 'a specific enthalpy',
+  specificVolume: 'a specific volume',
+  length: 'a length',
+  massFlow: 'a mass flow',
+  volumeFlow: 'a volume flow',
+  power: 'a heat rate',
+  fraction: 'a fraction (%)',
+  density: 'a density',
+};
+
+/** "a temperature", "a mass flow"… for messages. */
+export function dimensionWords(d: Dimension): string {
+  return DIMENSION_WORDS[d] ?? d;
+}
+
+/**
+ * Reads `q` as a value of `spec` (one dimension, or `alt` dimensions for mix amounts). Errors:
+ * `missing-unit` (a bare number where a unit is needed), `unknown-unit` (not a unit, or a unit of
+ * another dimension, with a suggestion), `syntax` for a negative explicit tolerance.
+ */
+export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan'] }, q: QuantityNode, spec: KeySpec): QuantityOutcome {
+  const where = `${prop.key}=${q.number.text}${q.unit?.text ?? ''}`;
+  let unit: UnitDef | null = null;
+  let unitText = '';
+  let si: number;
+  let scale: number;
+  if (q.unit === null) {
+    if (spec.bare === 'error') {
+      return {
+        ok: false,
+        diagnostic: {
+          code: 'missing-unit',
+          severity: 'error',
+          message: missingUnitMessage(spec, q.number.text, q.number.value),
+          span: q.number.span,
+          data: { key: spec.key, dimension: spec.dimension },
+        },
+      };
+    }
+    si = q.number.value;
+    scale = 1;
+  } else {
+    unitText = q.unit.text;
+    const def = findUnit(q.unit.text);
+    if (!def || def.dimension !== spec.dimension) {
+      const suggestion = suggestSymbol(q.unit.text, [spec.dimension]);
+      const what = def
+        ? `'${q.unit.text}' is ${dimensionWords(def.dimension)} unit, but ${spec.key} is ${spec.title}`
+        : `'${q.unit.text}' is not a unit Dewmark knows`;
+      const fix = suggestion ? `did you mean ${spec.key}=${q.number.text}${suggestion}?` : `write it like ${spec.example}`;
+      return {
+        ok: false,
+        diagnostic: {
+          code: 'unknown-unit',
+          severity: 'error',
+          message: `${what} (in ${where}); ${fix}`,
+          span: q.unit.span,
+          data: suggestion ? { suggestion, key: spec.key } : { key: spec.key },
+        },
+      };
+    }
+    unit = def;
+    si = unitToSI(q.number.value, def);
+    scale = def.scale;
+  }
+  // Tolerance: half a unit of the last written digit, or the explicit ± figure.
+  let toleranceSI = (q.number.resolution / 2) * Math.abs(scale);
+  let explicitTolerance = false;
+  if (q.tolerance) {
+    const t = q.tolerance;
+    const tv = t.number.value;
+    if (!(tv >= 0) || !Number.isFinite(tv)) {
+      return {
+        ok: false,
+        diagnostic: {
+          code: 'syntax',
+          severity: 'error',
+          message: `the tolerance in ${where}±${t.number.text} must be a positive figure; write it like ±2`,
+          span: t.span,
+        },
+      };
+    }
+    explicitTolerance = true;
+    if (t.unit === null) {
+      toleranceSI = tv * Math.abs(scale);
+    } else if (t.unit.text === '%' && spec.dimension !== 'fraction') {
+      // ±2% of a non-% value: a relative band around the written figure in its own unit.
+      toleranceSI = (tv / 100) * Math.abs(q.number.value) * Math.abs(scale);
+    } else {
+      const tdef = findUnit(t.unit.text);
+      if (!tdef || tdef.dimension !== spec.dimension) {
+        return {
+          ok: false,
+          diagnostic: {
+            code: 'unknown-unit',
+            severity: 'error',
+            message: `the tolerance unit '${t.unit.text}' in ${where} does not fit ${spec.title}; write the tolerance in the value's unit (±${t.number.text}) or as a percentage of it (±${t.number.text}%)`,
+            span: t.unit.span,
+          },
+        };
+      }
+      toleranceSI = tv * Math.abs(tdef.scale);
+    }
+  }
+  if (!Number.isFinite(si) || !Number.isFinite(toleranceSI)) {
+    return {
+      ok: false,
+      diagnostic: { code: 'out-of-range', severity: 'error', message: `${where} is too large to use; check the figure`, span: q.span },
+    };
+  }
+  return { ok: true, value: { si, unit, unitText, toleranceSI, explicitTolerance, quantity: q } };
+}
+
+function missingUnitMessage(spec: KeySpec, numText: string, value: number): string {
+  switch (spec.dimension) {
+    case 'temperature':
+      return `${spec.key}=${numText} has no unit: Dewmark does not guess between °C and °F; write ${spec.key}=${numText}C or ${spec.key}=${numText}F`;
+    case 'fraction':
+      return `${spec.key}=${numText} has no unit: a bare relative humidity is ambiguous (50 or 0.5?); write it in percent, e.g. ${spec.key}=${value > 0 && value <= 1 ? `${+(value * 100).toPrecision(6)}%` : `${numText}%`}`;
+    default:
+      return `${spec.key}=${numText} has no unit; ${spec.title} needs one, e.g. ${spec.example}`;
+  }
+}

@@ -1,0 +1,208 @@
+/**
+ * `state NAME: key=value …`: pressure, the defining pair, the solve, and the claims.
+ *
+ * Rule for the defining pair (documented in docs/notation.md): among the defining properties as
+ * written (db wb dp rh w h; v is never defining), take
+ *   1. db with the first other defining property written (before or after it), if db is written;
+ *   2. otherwise the first pair in written order that is neither dependent (dp with w) nor
+ *      ill-conditioned (wb with h);
+ *   3. otherwise an ill-conditioned pair (solved, with a warning).
+ * Every other property written is a claim.
+ */
+import { solveState } from '../physics';
+import type { DefiningKey, MoistAirState, PhysicsProblem } from '../physics/types';
+import type { StateStatement } from '../notation/ast';
+import type { Span } from '../text/types';
+import type { EvalContext } from './context';
+import { STATE_KEYS, isDefiningKey, isDependentPair, isIllConditionedPair, thirdKindFor } from './keys';
+import { pressureFromProps } from './pressure';
+import { problemDiagnostic } from './problems';
+import type { ReadProp } from './props';
+import { readProps } from './props';
+import { checkClaim } from './claims';
+import type { ClaimResult, PressureBasis, StateResult } from './types';
+import { allFinite } from './util';
+
+/** The value of a state property in SI, for claims. */
+export function stateValue(s: MoistAirState, key: string): number | null {
+  switch (key) {
+    case 'db':
+      return s.db;
+    case 'wb':
+      return s.wb;
+    case 'dp':
+      return s.dp;
+    case 'rh':
+      return s.rh;
+    case 'w':
+      return s.w;
+    case 'h':
+      return s.h;
+    case 'v':
+      return s.v;
+    default:
+      return null;
+  }
+}
+
+/** `db=24C and rh=50%`, for messages. */
+export function writtenList(props: ReadProp[]): string {
+  const parts = props.map((p) => `${p.key}=${p.q.quantity.number.text}${p.q.unitText}`);
+  if (parts.length <= 1) return parts.join('');
+  return `${parts.slice(0, -1).join(', ')} and ${parts[parts.length - 1]}`;
+}
+
+/** Candidate defining pairs in order of preference (see the module comment). */
+export function candidatePairs(defs: ReadProp[]): [ReadProp, ReadProp][] {
+  const out: [ReadProp, ReadProp][] = [];
+  const db = defs.find((d) => d.key === 'db');
+  if (db) {
+    for (const d of defs) if (d !== db) out.push([db, d]);
+  }
+  const ill: [ReadProp, ReadProp][] = [];
+  for (let i = 0; i < defs.length; i++) {
+    for (let j = i + 1; j < defs.length; j++) {
+      const a = defs[i]!;
+      const b = defs[j]!;
+      if (a.key === 'db' || b.key === 'db') continue;
+      const ka = a.key as DefiningKey;
+      const kb = b.key as DefiningKey;
+      if (isDependentPair(ka, kb)) continue;
+      if (isIllConditionedPair(ka, kb)) ill.push([a, b]);
+      else out.push([a, b]);
+    }
+  }
+  return [...out, ...ill];
+}
+
+/** Compares every claim of a computed state (the properties that did not define it). */
+export function stateClaims(ctx: EvalContext, claimsProps: ReadProp[], s: MoistAirState, context: string): ClaimResult[] {
+  const out: ClaimResult[] = [];
+  if (!ctx.settings.checkClaims) return out;
+  for (const c of claimsProps) {
+    const computed = stateValue(s, c.key);
+    if (computed === null || !Number.isFinite(computed)) continue;
+    const { claim, diagnostic } = checkClaim(c.key, c.prop, c.q, computed, context);
+    out.push(claim);
+    if (diagnostic) ctx.report(diagnostic);
+  }
+  return out;
+}
+
+/** Evaluates one `state` statement; always returns a result (with `state: null` when it failed). */
+export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boolean): StateResult {
+  const name = stmt.name?.text ?? '';
+  const what = name ? `state ${name}` : 'this state';
+  const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
+  const { props, broken } = readProps(ctx, stmt.props, STATE_KEYS, what);
+
+  // Pressure: the state's own p= / elev=, else the site pressure.
+  let pressure: PressureBasis = ctx.site;
+  let pressureFailed = broken.has('p') || broken.has('elev');
+  const override = props.filter((p) => p.key === 'p' || p.key === 'elev');
+  if (override.length > 0) {
+    const basis = pressureFromProps(ctx, override, 'override', `${what} own pressure`);
+    if (basis) pressure = basis;
+    else pressureFailed = true;
+  }
+
+  const result: StateResult = { kind: 'state', name, statement: stmt, state: null, pressure, defining: [], claims: [] };
+  const defs = props.filter((p) => isDefiningKey(p.key));
+  const brokenDefining = [...broken].filter((k) => isDefiningKey(k));
+  if (pressureFailed) return result;
+
+  if (defs.length < 2) {
+    if (defs.length + brokenDefining.length >= 2) return result; // the unit errors already say why
+    const has = defs.length === 1 ? `only ${writtenList(defs)}` : 'no defining property';
+    const hasV = props.some((p) => p.key === 'v');
+    ctx.report({
+      code: 'underspecified',
+      severity: 'error',
+      message: `${what} has ${has}: two independent properties fix a state; add ${defs.length === 1 ? 'one more' : 'two'} of db, wb, dp, rh, w or h (e.g. db=24C rh=50%)${hasV ? '; v is checked as a claim but cannot define a state' : ''}`,
+      span: fallback,
+    });
+    return result;
+  }
+
+  const spansByKey = new Map<string, Span>(props.map((p) => [p.key, p.prop.span]));
+  const candidates = candidatePairs(defs);
+  if (candidates.length === 0) {
+    const a = defs[0]!;
+    const b = defs[1]!;
+    ctx.report({
+      code: 'dependent-pair',
+      severity: 'error',
+      message: `${what}: ${writtenList(defs)} fix the same thing (the moisture content) twice, so the state is not fixed; add ${thirdKindFor(a.key as DefiningKey, b.key as DefiningKey)}`,
+      span: spanOf(spansByKey, defs),
+    });
+    return result;
+  }
+
+  let lastDependent: PhysicsProblem | null = null;
+  for (const [a, b] of candidates) {
+    const input: Partial<Record<DefiningKey, number>> = { [a.key]: a.q.si, [b.key]: b.q.si };
+    let solved: ReturnType<typeof solveState>;
+    try {
+      solved = solveState(input, pressure.pa, { allowFog: true });
+    } catch (err) {
+      // The engine promises not to throw; if it does, report it as a problem and go on.
+      solved = { ok: false, problem: { code: 'no-solution', message: `the engine failed (${err instanceof Error ? err.message : String(err)})`, fix: 'check the figures', keys: [a.key as DefiningKey, b.key as DefiningKey] } };
+    }
+    if (!solved.ok) {
+      if (solved.problem.code === 'dependent-pair') {
+        lastDependent = solved.problem;
+        continue;
+      }
+      ctx.report(problemDiagnostic(solved.problem, 'error', spansByKey, spanOf(spansByKey, [a, b]), what, pressureRelated(solved.problem, pressure)));
+      return result;
+    }
+    if (!allFinite(solved.state)) {
+      ctx.report({ code: 'no-solution', severity: 'error', message: `${what}: the engine returned no finite state for ${writtenList([a, b])}; check the figures`, span: spanOf(spansByKey, [a, b]) });
+      return result;
+    }
+    result.state = solved.state;
+    result.defining = [a.key as DefiningKey, b.key as DefiningKey];
+    let illReported = false;
+    for (const w of solved.warnings) {
+      if (w.code === 'ill-conditioned') illReported = true;
+      ctx.report(problemDiagnostic(w, 'warning', spansByKey, spanOf(spansByKey, [a, b]), what));
+    }
+    if (!illReported && isIllConditionedPair(a.key as DefiningKey, b.key as DefiningKey)) {
+      ctx.report({
+        code: 'ill-conditioned',
+        severity: 'warning',
+        message: `${what}: ${writtenList([a, b])} are nearly parallel on the chart, so small changes in either move the state a lot; define it with db, dp, rh or w instead`,
+        span: spanOf(spansByKey, [a, b]),
+      });
+    }
+    const claimsProps = props.filter((p) => p !== a && p !== b && p.key !== 'p' && p.key !== 'elev');
+    result.claims = stateClaims(ctx, claimsProps, solved.state, `from ${writtenList([a, b])} at ${pressureWord(pressure)}`);
+    return result;
+  }
+  if (lastDependent) {
+    ctx.report(problemDiagnostic(lastDependent, 'error', spansByKey, spanOf(spansByKey, defs), what));
+  }
+  return result;
+}
+
+/** "83.5 kPa" style text for the pressure a result used. */
+export function pressureWord(p: PressureBasis): string {
+  return `${Number((p.pa / 1000).toPrecision(6))} kPa`;
+}
+
+function spanOf(spansByKey: ReadonlyMap<string, Span>, props: ReadProp[]): Span {
+  let start = Infinity;
+  let end = -Infinity;
+  for (const p of props) {
+    const s = spansByKey.get(p.key) ?? p.prop.span;
+    start = Math.min(start, s.start);
+    end = Math.max(end, s.end);
+  }
+  return Number.isFinite(start) ? { start, end } : { start: 0, end: 0 };
+}
+
+function pressureRelated(problem: PhysicsProblem, basis: PressureBasis): { span: Span; message: string }[] | undefined {
+  if (problem.code !== 'pressure-below-saturation' && problem.code !== 'out-of-range') return undefined;
+  if (!basis.span) return undefined;
+  return [{ span: basis.span, message: `pressure used: ${basis.describe}` }];
+}
