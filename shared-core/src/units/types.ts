@@ -15,7 +15,6 @@
  * | power            | W                                         |
  * | fraction         | 1 (so 50 % is 0.5)                        |
  * | density          | kg/m³                                     |
- * | waterRate        | kg/s  (condensate, humidifier water)      |
  */
 export type Dimension =
   | 'temperature'
