@@ -1,0 +1,179 @@
+#!/usr/bin/env node
+/**
+ * The extension manifest fields, merged into the root package.json (which is the manifest VS Code
+ * reads). Reads the file, sets only the fields below, and writes it back in one go, so fields
+ * other people own (dependencies, workspaces, other scripts) are kept as they are.
+ *
+ *   node client/manifest.mjs          write the fields
+ *   node client/manifest.mjs --check  exit 1 (and say which) when the file differs from them
+ */
+import { readFileSync, writeFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { isDeepStrictEqual } from 'node:util';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const manifestPath = join(root, 'package.json');
+
+/** Hint keys the server accepts in dewmark.inlayHints.properties (shared-core/src/service/types.ts HINT_KEYS). */
+const HINT_KEYS = [
+  ['db', 'dry-bulb temperature'],
+  ['wb', 'thermodynamic wet-bulb temperature'],
+  ['dp', 'dew-point temperature'],
+  ['rh', 'relative humidity'],
+  ['w', 'humidity ratio'],
+  ['h', 'specific enthalpy per mass of dry air'],
+  ['v', 'specific volume per mass of dry air'],
+  ['rho', 'density of the moist air'],
+];
+
+const category = 'Dewmark';
+
+/** Top-level manifest fields this script owns. */
+export const fields = {
+  main: './dist/client.js',
+  icon: 'images/icon.png',
+  galleryBanner: { color: '#0b2f45', theme: 'dark' },
+  preview: true,
+  categories: ['Linters', 'Programming Languages', 'Other'],
+  keywords: ['psychrometrics', 'moist air', 'HVAC', 'humidity', 'dew point', 'enthalpy', 'markdown', 'engineering', 'calculation notes'],
+  extensionKind: ['workspace'],
+  activationEvents: ['onLanguage:markdown'],
+  capabilities: {
+    untrustedWorkspaces: { supported: true },
+    virtualWorkspaces: true,
+  },
+  contributes: {
+    configuration: {
+      title: 'Dewmark',
+      properties: {
+        'dewmark.units': {
+          order: 1,
+          type: 'string',
+          enum: ['SI', 'IP'],
+          enumDescriptions: ['SI: °C, kPa, kJ/kg (dry air h = 0 at 0 °C)', 'IP: °F, psia, Btu/lb (dry air h = 0 at 0 °F)'],
+          default: 'SI',
+          scope: 'resource',
+          markdownDescription:
+            'Unit system of the results (hovers, inline hints, messages) in notes without a `units:` line. A note\'s own `units: SI` or `units: IP` line wins. Input may mix units freely.',
+        },
+        'dewmark.pressure': {
+          order: 2,
+          type: 'string',
+          default: '',
+          scope: 'resource',
+          markdownDescription:
+            'Barometric pressure for notes without a `site:` line, a number with a unit: `101.325 kPa`, `14.696 psia`, `29.92 inHg`. Empty: 101.325 kPa (standard sea level). `#dewmark.elevation#` wins when both are set.',
+        },
+        'dewmark.elevation': {
+          order: 3,
+          type: 'string',
+          default: '',
+          scope: 'resource',
+          markdownDescription:
+            'Site elevation for notes without a `site:` line, a number with a unit: `1600 m`, `5250 ft`; turned into a pressure with the standard atmosphere. Wins over `#dewmark.pressure#` when set. Empty: not used.',
+        },
+        'dewmark.inlayHints.properties': {
+          order: 4,
+          type: 'array',
+          items: { type: 'string', enum: HINT_KEYS.map(([k]) => k), enumDescriptions: HINT_KEYS.map(([, d]) => d) },
+          uniqueItems: true,
+          default: [],
+          scope: 'resource',
+          markdownDescription:
+            'Computed properties shown as inline hints after each state and mix, in this order. Empty: chosen automatically (rh, w, h and dp, or wb where dp is written), leaving out what the note already states. Inline hints also need `#editor.inlayHints.enabled#`.',
+        },
+        'dewmark.precision': {
+          order: 5,
+          type: 'integer',
+          minimum: 0,
+          maximum: 4,
+          default: 0,
+          scope: 'resource',
+          markdownDescription: 'Decimals shown beyond each quantity\'s usual engineering precision in hovers and inline hints (0 = the usual precision, up to 4).',
+        },
+        'dewmark.checkClaims': {
+          order: 6,
+          type: 'boolean',
+          default: true,
+          scope: 'resource',
+          markdownDescription:
+            'Compare every property written beyond a state\'s defining pair (a claim) with the computed value, and warn when they differ by more than the written precision.',
+        },
+        'dewmark.hover.secondaryUnits': {
+          order: 7,
+          type: 'boolean',
+          default: false,
+          scope: 'resource',
+          markdownDescription: 'Also show every figure of a hover in the other unit system.',
+        },
+        'dewmark.trace.server': {
+          order: 8,
+          type: 'string',
+          enum: ['off', 'messages', 'verbose'],
+          enumDescriptions: ['No trace.', 'Each message\'s name.', 'Each message with its content.'],
+          default: 'off',
+          scope: 'window',
+          markdownDescription: 'Traces the messages between VS Code and the Dewmark language server into Output → Dewmark (for bug reports).',
+        },
+      },
+    },
+    commands: [
+      { command: 'dewmark.switchUnits', title: 'Switch Result Units (SI/IP)', category, icon: '$(symbol-ruler)' },
+      { command: 'dewmark.checkWorkspace', title: 'Check All Notes in the Workspace', category, icon: '$(checklist)' },
+      { command: 'dewmark.restartServer', title: 'Restart Language Server', category, icon: '$(debug-restart)' },
+      { command: 'dewmark.showLog', title: 'Show Server Log', category, icon: '$(output)' },
+    ],
+    menus: {
+      commandPalette: [
+        { command: 'dewmark.switchUnits', when: 'editorLangId == markdown' },
+        { command: 'dewmark.checkWorkspace', when: 'workspaceFolderCount > 0' },
+        { command: 'dewmark.restartServer' },
+        { command: 'dewmark.showLog' },
+      ],
+    },
+    languages: [
+      {
+        id: 'dewmark-air',
+        aliases: ['Dewmark air statements'],
+        configuration: './syntaxes/air.language-configuration.json',
+      },
+    ],
+    grammars: [
+      {
+        scopeName: 'markdown.dewmark.air.injection',
+        path: './syntaxes/air.injection.tmLanguage.json',
+        injectTo: ['text.html.markdown'],
+        embeddedLanguages: { 'meta.embedded.block.air': 'dewmark-air', 'meta.embedded.inline.air': 'dewmark-air' },
+      },
+    ],
+  },
+};
+
+/** Scripts this script owns (other scripts are left alone). */
+export const scripts = {
+  package: 'node client/package-vsix.mjs',
+  'test:electron': 'node --import tsx test/vscode-electron/run.ts',
+};
+
+/** Writes (or with --check, verifies) the fields in package.json. */
+function main() {
+  const text = readFileSync(manifestPath, 'utf8');
+  const manifest = JSON.parse(text);
+  const want = { ...manifest, ...fields, scripts: { ...(manifest.scripts ?? {}), ...scripts } };
+
+  if (process.argv.includes('--check')) {
+    const wrong = [...Object.keys(fields).filter((k) => !isDeepStrictEqual(manifest[k], fields[k])), ...Object.keys(scripts).filter((k) => manifest.scripts?.[k] !== scripts[k]).map((k) => `scripts.${k}`)];
+    if (wrong.length > 0) {
+      console.error(`package.json differs from client/manifest.mjs in: ${wrong.join(', ')}. Run: node client/manifest.mjs`);
+      process.exit(1);
+    }
+    console.log('package.json holds the extension manifest fields of client/manifest.mjs');
+  } else {
+    const out = `${JSON.stringify(want, null, 2)}\n`;
+    if (out !== text) writeFileSync(manifestPath, out);
+    console.log(out === text ? 'package.json already up to date' : 'package.json: extension manifest fields written');
+  }
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) main();

@@ -1,0 +1,315 @@
+/**
+ * The Dewmark VS Code extension: a thin client. It starts the bundled language server
+ * (dist/server.js) over node IPC, restarts it if it dies, and adds the commands and the
+ * status-bar item. Everything about air states is computed by the server.
+ */
+import { existsSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import * as vscode from 'vscode';
+import {
+  CloseAction,
+  ErrorAction,
+  LanguageClient,
+  State,
+  TransportKind,
+  WorkDoneProgress,
+  type LanguageClientOptions,
+  type ServerOptions,
+} from 'vscode-languageclient/node';
+import { CHECK_WORKSPACE_METHOD, SETTINGS_SECTION, type CheckWorkspaceParams, type CheckWorkspaceResult } from '../../server/src/protocol';
+import { COMMANDS, OUTPUT_CHANNEL } from './commands';
+import {
+  advertisedNoteStatus,
+  statusFromSettings,
+  statusView,
+  type NoteStatusParams,
+  type NoteStatusResult,
+} from './noteStatus';
+import { RestartPolicy } from './restartPolicy';
+
+/** When this module was loaded (for the activation-time marker). */
+const loadedAt = performance.now();
+
+/** URI schemes whose Markdown documents the server reads (local, unsaved and virtual files). */
+export const DOCUMENT_SCHEMES = ['file', 'untitled', 'vscode-vfs'] as const;
+
+/** What `activate` returns: lets tests and other extensions wait for the server. */
+export interface DewmarkApi {
+  /** Resolves once the language server is running (rejects when it could not start). */
+  ready(): Promise<void>;
+}
+
+/** Env var naming a file where the extension writes its activation timings (tests and benchmarks). */
+export const ACTIVATION_MARKER_ENV = 'DEWMARK_ACTIVATION_MARKER';
+
+/** The language server's client, restarted on crashes within the limits of a {@link RestartPolicy}. */
+class ServerController {
+  readonly client: LanguageClient;
+  private readonly policy = new RestartPolicy();
+  private starting: Promise<void>;
+
+  constructor(serverModule: string, output: vscode.LogOutputChannel) {
+    const serverOptions: ServerOptions = {
+      run: { module: serverModule, transport: TransportKind.ipc },
+      debug: { module: serverModule, transport: TransportKind.ipc, options: { execArgv: ['--nolazy', '--inspect=6019'] } },
+    };
+    const clientOptions: LanguageClientOptions = {
+      documentSelector: DOCUMENT_SCHEMES.map((scheme) => ({ language: 'markdown', scheme })),
+      outputChannel: output,
+      markdown: { isTrusted: false, supportHtml: false },
+      errorHandler: {
+        error: (_error, _message, count) => ({ action: (count ?? 0) <= 3 ? ErrorAction.Continue : ErrorAction.Shutdown }),
+        closed: () => {
+          const d = this.policy.onCrash();
+          output.warn(d.message);
+          if (d.announce) {
+            if (d.restart) void vscode.window.showWarningMessage(d.message);
+            else {
+              void vscode.window.showErrorMessage(d.message, 'Restart', 'Show Log').then((choice) => {
+                if (choice === 'Restart') void vscode.commands.executeCommand(COMMANDS.restartServer.id);
+                if (choice === 'Show Log') output.show(true);
+              });
+            }
+          }
+          return { action: d.restart ? CloseAction.Restart : CloseAction.DoNotRestart, message: d.message, handled: true };
+        },
+      },
+    };
+    // The id makes VS Code's client read the `dewmark.trace.server` setting.
+    this.client = new LanguageClient(SETTINGS_SECTION, 'Dewmark', serverOptions, clientOptions);
+    this.starting = this.client.start();
+  }
+
+  /** Resolves when the server is running. */
+  async ready(): Promise<void> {
+    await this.starting;
+    if (this.client.state !== State.Running) await this.client.start();
+  }
+
+  /** Restarts the server by request of the user (forgets earlier crashes). */
+  async restart(): Promise<void> {
+    this.policy.reset();
+    if (this.client.state === State.Running) await this.client.restart();
+    else {
+      this.starting = this.client.start();
+      await this.starting;
+    }
+  }
+
+  /** The note-status method when this server offers one. */
+  noteStatusMethod(): string | null {
+    if (this.client.state !== State.Running) return null;
+    return advertisedNoteStatus(this.client.initializeResult?.capabilities.experimental);
+  }
+}
+
+/** The active note's status: from the server when it can say, else from the settings. */
+async function noteStatus(ctl: ServerController, doc: vscode.TextDocument): Promise<{ status: NoteStatusResult; fromServer: boolean }> {
+  const method = ctl.noteStatusMethod();
+  if (method) {
+    try {
+      const params: NoteStatusParams = { textDocument: { uri: ctl.client.code2ProtocolConverter.asUri(doc.uri) } };
+      const status = await ctl.client.sendRequest<NoteStatusResult | null>(method, params);
+      if (status) return { status, fromServer: true };
+    } catch (err) {
+      ctl.client.debug(`note status request failed: ${String(err)}`);
+    }
+  }
+  const cfg = vscode.workspace.getConfiguration(SETTINGS_SECTION, doc.uri);
+  return { status: statusFromSettings({ units: cfg.get('units'), pressure: cfg.get('pressure'), elevation: cfg.get('elevation') }), fromServer: false };
+}
+
+function activeNote(): vscode.TextEditor | undefined {
+  const editor = vscode.window.activeTextEditor;
+  return editor && editor.document.languageId === 'markdown' ? editor : undefined;
+}
+
+/** The status-bar item: the active note's unit system and pressure basis; a click switches units. */
+function createStatusBar(ctl: ServerController, context: vscode.ExtensionContext): () => void {
+  const item = vscode.window.createStatusBarItem('dewmark.status', vscode.StatusBarAlignment.Right, 100);
+  item.name = 'Dewmark units';
+  item.command = COMMANDS.switchUnits.id;
+  context.subscriptions.push(item);
+  let seq = 0;
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  const refresh = async (): Promise<void> => {
+    const mine = ++seq;
+    const editor = activeNote();
+    if (!editor) {
+      item.hide();
+      return;
+    }
+    const { status, fromServer } = await noteStatus(ctl, editor.document);
+    if (mine !== seq) return;
+    const view = statusView(status, fromServer);
+    item.text = view.text;
+    item.tooltip = view.tooltip;
+    item.accessibilityInformation = { label: view.tooltip.split('\n')[0] ?? view.text };
+    item.show();
+  };
+  const soon = (): void => {
+    if (timer) clearTimeout(timer);
+    timer = setTimeout(() => void refresh(), 250);
+  };
+  context.subscriptions.push(
+    vscode.window.onDidChangeActiveTextEditor(() => void refresh()),
+    vscode.workspace.onDidChangeTextDocument((e) => {
+      if (e.document === vscode.window.activeTextEditor?.document) soon();
+    }),
+    vscode.workspace.onDidChangeConfiguration((e) => {
+      if (e.affectsConfiguration(SETTINGS_SECTION)) soon();
+    }),
+    ctl.client.onDidChangeState((e) => {
+      if (e.newState === State.Running) soon();
+    }),
+    { dispose: () => timer && clearTimeout(timer) },
+  );
+  void refresh();
+  return () => void refresh();
+}
+
+/** `Dewmark: Switch Result Units`: rewrites the note's `units:` line, or changes dewmark.units. */
+async function switchUnits(ctl: ServerController, refreshStatus: () => void): Promise<void> {
+  const editor = activeNote();
+  if (!editor) {
+    void vscode.window.showInformationMessage('Dewmark: open a Markdown note first; the result units are switched for the active note.');
+    return;
+  }
+  const doc = editor.document;
+  const { status } = await noteStatus(ctl, doc);
+  const other = status.units === 'SI' ? 'IP' : 'SI';
+  if (status.unitsSource === 'note') {
+    if (!status.unitsValueRange) {
+      void vscode.window.showInformationMessage(`Dewmark: this note sets its result units with a units: line; change it to "units: ${other}".`);
+      return;
+    }
+    const r = status.unitsValueRange;
+    const edit = new vscode.WorkspaceEdit();
+    edit.replace(doc.uri, new vscode.Range(r.start.line, r.start.character, r.end.line, r.end.character), other);
+    if (!(await vscode.workspace.applyEdit(edit))) void vscode.window.showErrorMessage(`Dewmark: could not edit the note's units: line (is the file read-only?).`);
+  } else {
+    const cfg = vscode.workspace.getConfiguration(SETTINGS_SECTION, doc.uri);
+    const where = cfg.inspect('units');
+    const target =
+      where?.workspaceFolderValue !== undefined
+        ? vscode.ConfigurationTarget.WorkspaceFolder
+        : where?.workspaceValue !== undefined
+          ? vscode.ConfigurationTarget.Workspace
+          : vscode.ConfigurationTarget.Global;
+    await cfg.update('units', other, target);
+    vscode.window.setStatusBarMessage(`Dewmark: results in ${other} (setting dewmark.units)`, 4000);
+  }
+  refreshStatus();
+}
+
+/** `Dewmark: Check All Notes in the Workspace`, with the server's progress in a notification. */
+async function checkWorkspace(ctl: ServerController): Promise<void> {
+  if (!vscode.workspace.workspaceFolders?.length) {
+    void vscode.window.showInformationMessage('Dewmark: open a folder first; "Check All Notes" reads every Markdown file of the workspace folders.');
+    return;
+  }
+  await ctl.ready();
+  const summary = await vscode.window.withProgress(
+    { location: vscode.ProgressLocation.Notification, title: 'Dewmark', cancellable: true },
+    async (progress, token): Promise<string | null> => {
+      const workDoneToken = `dewmark-check-${Date.now()}`;
+      let last = 0;
+      const sub = ctl.client.onProgress(WorkDoneProgress.type, workDoneToken, (v) => {
+        if (v.kind === 'end') return;
+        const pct = v.percentage;
+        const increment = pct === undefined ? undefined : Math.max(0, pct - last);
+        if (pct !== undefined) last = Math.max(last, pct);
+        progress.report({ message: v.message ?? (v.kind === 'begin' ? v.title : undefined), increment });
+      });
+      try {
+        const params: CheckWorkspaceParams = { workDoneToken };
+        const r = await ctl.client.sendRequest<CheckWorkspaceResult>(CHECK_WORKSPACE_METHOD, params, token);
+        const plural = (n: number, w: string) => `${n} ${w}${n === 1 ? '' : 's'}`;
+        let text = `Dewmark: checked ${plural(r.notes.length, 'note')} with statements (${plural(r.filesRead, 'Markdown file')} read): ${plural(r.errors, 'error')}, ${plural(r.warnings, 'warning')}.`;
+        if (r.unreadable.length > 0) text += ` ${plural(r.unreadable.length, 'file')} could not be read (see Output → Dewmark).`;
+        for (const u of r.unreadable) ctl.client.warn(`could not read ${u.uri}: ${u.reason}`);
+        return text;
+      } catch (err) {
+        if (token.isCancellationRequested) return null;
+        throw err;
+      } finally {
+        sub.dispose();
+      }
+    },
+  );
+  if (summary === null) {
+    vscode.window.setStatusBarMessage('Dewmark: check cancelled', 4000);
+    return;
+  }
+  const choice = await vscode.window.showInformationMessage(summary, 'Show Problems');
+  if (choice === 'Show Problems') await vscode.commands.executeCommand('workbench.actions.view.problems');
+}
+
+function writeMarker(data: Record<string, number | string>): void {
+  const path = process.env[ACTIVATION_MARKER_ENV];
+  if (!path) return;
+  try {
+    writeFileSync(path, `${JSON.stringify(data)}\n`);
+  } catch {
+    // A marker is a test aid only; failing to write it must not disturb the user.
+  }
+}
+
+let controller: ServerController | undefined;
+
+/** Called by VS Code when a Markdown document opens (activation event `onLanguage:markdown`). */
+export function activate(context: vscode.ExtensionContext): DewmarkApi {
+  const t0 = performance.now();
+  const output = vscode.window.createOutputChannel(OUTPUT_CHANNEL, { log: true });
+  context.subscriptions.push(output);
+  const serverModule = context.asAbsolutePath(join('dist', 'server.js'));
+  if (!existsSync(serverModule)) {
+    const message = `Dewmark: the bundled language server is missing (${serverModule}). Reinstall the extension, or run "npm run build" in a development checkout.`;
+    output.error(message);
+    void vscode.window.showErrorMessage(message);
+    return { ready: () => Promise.reject(new Error(message)) };
+  }
+  const ctl = new ServerController(serverModule, output);
+  controller = ctl;
+  const refreshStatus = createStatusBar(ctl, context);
+  const guard = (name: string, run: () => Promise<void>) => async () => {
+    try {
+      await run();
+    } catch (err) {
+      const why = err instanceof Error ? err.message : String(err);
+      output.error(`${name} failed: ${why}`);
+      void vscode.window.showErrorMessage(`Dewmark: ${name} failed: ${why}`);
+    }
+  };
+  context.subscriptions.push(
+    vscode.commands.registerCommand(COMMANDS.switchUnits.id, guard('switching units', () => switchUnits(ctl, refreshStatus))),
+    vscode.commands.registerCommand(COMMANDS.checkWorkspace.id, guard('checking the workspace', () => checkWorkspace(ctl))),
+    vscode.commands.registerCommand(
+      COMMANDS.restartServer.id,
+      guard('restarting the server', async () => {
+        await ctl.restart();
+        vscode.window.setStatusBarMessage('Dewmark: language server restarted', 4000);
+      }),
+    ),
+    vscode.commands.registerCommand(COMMANDS.showLog.id, () => output.show(true)),
+    { dispose: () => void ctl.client.stop() },
+  );
+  const activateMs = performance.now() - t0;
+  const sinceLoadMs = performance.now() - loadedAt;
+  writeMarker({ activateMs, sinceLoadMs });
+  ctl.ready().then(
+    () => writeMarker({ activateMs, sinceLoadMs, readyMs: performance.now() - t0 }),
+    (err: unknown) => {
+      output.error(`the language server did not start: ${err instanceof Error ? err.message : String(err)}`);
+      writeMarker({ activateMs, sinceLoadMs, error: String(err) });
+    },
+  );
+  return { ready: () => ctl.ready() };
+}
+
+/** Called by VS Code on shutdown: stops the server. */
+export function deactivate(): Thenable<void> | undefined {
+  const c = controller;
+  controller = undefined;
+  return c?.client.stop();
+}

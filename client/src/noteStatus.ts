@@ -1,0 +1,93 @@
+/**
+ * What the status bar shows for the active note: its unit system and pressure basis. The server
+ * answers a `dewmark/noteStatus` request when it offers one (it lists the method under
+ * `capabilities.experimental.dewmark.noteStatus`); otherwise the client says what the settings
+ * alone imply, and says that the note's own `units:`/`site:` lines were not read. Pure: no
+ * editor API.
+ */
+
+/** Method name of the note-status request (proposed to the server; used only when advertised). */
+export const NOTE_STATUS_METHOD = 'dewmark/noteStatus';
+
+/** A zero-based LSP position. */
+export interface WirePosition {
+  line: number;
+  character: number;
+}
+
+/** Parameters of {@link NOTE_STATUS_METHOD}. */
+export interface NoteStatusParams {
+  textDocument: { uri: string };
+}
+
+/** Result of {@link NOTE_STATUS_METHOD}. */
+export interface NoteStatusResult {
+  /** Unit system the note's results are shown in. */
+  units: 'SI' | 'IP';
+  /** `note` when a `units:` line sets it, `setting` when dewmark.units does. */
+  unitsSource: 'note' | 'setting';
+  /** The range of the `SI`/`IP` word of the note's `units:` line, when it has one. */
+  unitsValueRange: { start: WirePosition; end: WirePosition } | null;
+  /** A short label of the pressure basis for the status bar ("101.325 kPa", "site 83.4 kPa"). */
+  pressureLabel: string;
+  /** One sentence on where the pressure comes from, for the tooltip. */
+  pressureDescribe: string;
+}
+
+/** The slice of `dewmark.*` settings the fallback status reads. */
+export interface StatusSettings {
+  units: unknown;
+  pressure: unknown;
+  elevation: unknown;
+}
+
+/** What the status-bar item displays. */
+export interface StatusView {
+  text: string;
+  tooltip: string;
+  /** The unit system a click switches to. */
+  other: 'SI' | 'IP';
+}
+
+/** The method name when the server's initialize result advertises the note-status request. */
+export function advertisedNoteStatus(experimental: unknown): string | null {
+  if (!experimental || typeof experimental !== 'object') return null;
+  const dewmark = (experimental as Record<string, unknown>).dewmark;
+  if (!dewmark || typeof dewmark !== 'object') return null;
+  const method = (dewmark as Record<string, unknown>).noteStatus;
+  return typeof method === 'string' && method !== '' ? method : null;
+}
+
+/** The status implied by the settings alone (used when the server cannot say more). */
+export function statusFromSettings(s: StatusSettings): NoteStatusResult {
+  const units = s.units === 'IP' ? 'IP' : 'SI';
+  const text = (v: unknown): string => (typeof v === 'number' ? String(v) : typeof v === 'string' ? v.trim() : '');
+  const elevation = text(s.elevation);
+  const pressure = text(s.pressure);
+  let pressureLabel = '101.325 kPa';
+  let pressureDescribe = 'Default pressure 101.325 kPa (standard sea level), for notes without a site: line.';
+  if (elevation !== '') {
+    pressureLabel = `elev ${elevation}`;
+    pressureDescribe = `Setting dewmark.elevation = ${elevation} (standard atmosphere), for notes without a site: line.`;
+  } else if (pressure !== '') {
+    pressureLabel = pressure;
+    pressureDescribe = `Setting dewmark.pressure = ${pressure}, for notes without a site: line.`;
+  }
+  return { units, unitsSource: 'setting', unitsValueRange: null, pressureLabel, pressureDescribe };
+}
+
+/** The status-bar text and tooltip for a note status. */
+export function statusView(status: NoteStatusResult, fromServer: boolean): StatusView {
+  const other = status.units === 'SI' ? 'IP' : 'SI';
+  const unitsWhy =
+    status.unitsSource === 'note' ? "set by the note's units: line" : 'from the setting dewmark.units';
+  const lines = [
+    `Dewmark: results in ${status.units} (${unitsWhy}).`,
+    status.pressureDescribe,
+    status.unitsSource === 'note'
+      ? `Click to switch to ${other} (rewrites the note's units: line).`
+      : `Click to switch to ${other} (changes the setting dewmark.units).`,
+  ];
+  if (!fromServer) lines.push("The server did not report this note's own units: or site: lines; these figures come from the settings.");
+  return { text: `$(symbol-ruler) ${status.units} · ${status.pressureLabel}`, tooltip: lines.join('\n'), other };
+}
