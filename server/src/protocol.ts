@@ -1,0 +1,38 @@
+/**
+ * Custom requests shared by the language server and its clients. Plain method names and JSON
+ * shapes only, so a client can use them without importing the server.
+ */
+
+/** Method of the "check every note in the workspace" request (work-done progress supported). */
+export const CHECK_WORKSPACE_METHOD = 'dewmark/checkWorkspace';
+
+/** Parameters of {@link CHECK_WORKSPACE_METHOD}; a client may pass a work-done token. */
+export interface CheckWorkspaceParams {
+  workDoneToken?: string | number;
+}
+
+/** One Markdown note read by {@link CHECK_WORKSPACE_METHOD}. */
+export interface CheckedNote {
+  uri: string;
+  errors: number;
+  warnings: number;
+  /** Statements found in the note (states, mixes, processes, site and units lines). */
+  statements: number;
+}
+
+/** Result of {@link CHECK_WORKSPACE_METHOD}: the notes that hold statements, and the totals. */
+export interface CheckWorkspaceResult {
+  notes: CheckedNote[];
+  /** Markdown files read, including those without statements. */
+  filesRead: number;
+  errors: number;
+  warnings: number;
+  /** Files that could not be read, with the reason. */
+  unreadable: { uri: string; reason: string }[];
+}
+
+/** The settings section the server reads through `workspace/configuration`. */
+export const SETTINGS_SECTION = 'dewmark';
+
+/** The `source` of every diagnostic the server reports. */
+export const DIAGNOSTIC_SOURCE = 'dewmark';

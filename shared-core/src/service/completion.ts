@@ -1,0 +1,179 @@
+/**
+ * Completion inside `air` fences and keyword code spans: statement keywords at the start of a
+ * statement, `SI`/`IP` after `units:`, property keys where a key may go, units after a number
+ * (those of the key's dimension), and the names of states and mixes defined earlier where a mix
+ * or process names its streams or ends.
+ */
+import { MIX_KEYS, PROCESS_KEYS, SITE_KEYS, STATE_KEYS, type KeySpec } from '../evaluate/keys';
+import type { Span } from '../text/types';
+import { describeUnit, dimensionTitle, unitsOf } from '../units';
+import type { Dimension } from '../units/types';
+import { show } from './format';
+import { lineStart, regionAt } from './note';
+import type { CancellationFlag, Note } from './types';
+
+/** One completion proposal. */
+export interface CompletionEntry {
+  label: string;
+  kind: 'keyword' | 'key' | 'unit' | 'name' | 'value';
+  /** The text that replaces {@link CompletionResult.replace}. */
+  insertText: string;
+  detail?: string;
+  /** Markdown. */
+  documentation?: string;
+  filterText?: string;
+}
+
+/** Proposals and the span they replace (the partly typed word). */
+export interface CompletionResult {
+  items: CompletionEntry[];
+  replace: Span;
+}
+
+const KEYWORDS: CompletionEntry[] = [
+  { label: 'state', kind: 'keyword', insertText: 'state ', detail: 'a moist-air state: state NAME: db=… rh=…' },
+  { label: 'mix', kind: 'keyword', insertText: 'mix ', detail: 'adiabatic mixing: mix NAME: A 30% + B 70%' },
+  { label: 'process', kind: 'keyword', insertText: 'process ', detail: 'a process: process NAME: A -> B m=…' },
+  { label: 'site', kind: 'keyword', insertText: 'site: ', detail: 'pressure for what follows: site: elev=… or p=…' },
+  { label: 'units', kind: 'keyword', insertText: 'units: ', detail: 'unit system of the results: units: SI or IP' },
+];
+
+const SYSTEMS: CompletionEntry[] = [
+  { label: 'SI', kind: 'value', insertText: 'SI', detail: 'results in °C, kPa, g/kg, kJ/kg, m³/kg' },
+  { label: 'IP', kind: 'value', insertText: 'IP', detail: 'results in °F, psia, gr/lb, Btu/lb, ft³/lb' },
+];
+
+/** Dimensions a mix stream's amount may have. */
+const STREAM_DIMENSIONS: Dimension[] = ['fraction', 'massFlow', 'volumeFlow'];
+
+const NUMBER = String.raw`[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?`;
+const NAME = String.raw`[A-Za-z][A-Za-z0-9_-]*`;
+
+/** `key=NUMBER unit-so-far` at the end of the text before the cursor. */
+const AFTER_NUMBER = new RegExp(String.raw`(?:^|\s)([A-Za-z_]+)=${NUMBER}(\S*)$`);
+/** A key being typed (or about to be) after whitespace or `:`. */
+const KEY_SO_FAR = /(?:^|[\s:])([A-Za-z_]*)$/;
+
+function keyEntries(table: Readonly<Record<string, KeySpec>>, written: Set<string>): CompletionEntry[] {
+  return Object.values(table)
+    .filter((k) => !written.has(k.key))
+    .map((k) => ({
+      label: k.key,
+      kind: 'key' as const,
+      insertText: `${k.key}=`,
+      filterText: k.key,
+      detail: k.title,
+      documentation: `\`${k.key}\` — ${k.title}; e.g. \`${k.example}\``,
+    }));
+}
+
+function unitEntries(dimensions: readonly Dimension[]): CompletionEntry[] {
+  const out: CompletionEntry[] = [];
+  for (const d of dimensions) {
+    for (const u of unitsOf(d)) {
+      const doc = describeUnit(u.symbol);
+      const entry: CompletionEntry = { label: u.symbol, kind: 'unit', insertText: u.symbol, detail: `${u.title} (${dimensionTitle(d)})` };
+      if (doc) entry.documentation = doc.replace(/\n/g, '  \n');
+      out.push(entry);
+    }
+  }
+  return out;
+}
+
+/** States and mixes defined before `before`, newest last. */
+function nameEntries(note: Note, before: number, except: string | null): CompletionEntry[] {
+  const out: CompletionEntry[] = [];
+  const seen = new Set<string>();
+  for (const item of note.analysis.items) {
+    if (item.statement.span.start >= before) break;
+    if (item.kind === 'process' || item.name === except || seen.has(item.name)) continue;
+    seen.add(item.name);
+    let detail: string = item.kind;
+    if (item.state) {
+      const sys = note.analysis.units;
+      detail += ` · ${show(note, item.state.db, 'temperature', sys)} db, ${show(note, item.state.rh, 'fraction', sys)} rh`;
+    }
+    out.push({ label: item.name, kind: 'name', insertText: item.name, detail });
+  }
+  return out;
+}
+
+/** The keys already written in the statement text before the cursor. */
+function keysWritten(text: string): Set<string> {
+  const out = new Set<string>();
+  for (const m of text.matchAll(/(?:^|\s)([A-Za-z_]+)=/g)) out.add(m[1]!);
+  return out;
+}
+
+/** Completion proposals at `offset`, or null outside statements and comments. */
+export function completions(note: Note, offset: number, token?: CancellationFlag): CompletionResult | null {
+  if (token?.isCancellationRequested) return null;
+  const region = regionAt(note, offset);
+  if (!region) return null;
+  const from = region.origin === 'fence' ? Math.max(lineStart(note.text, offset), region.contentSpan.start) : region.contentSpan.start;
+  const before = note.text.slice(from, offset);
+  if (before.includes('#') || before.includes('`')) return null;
+
+  // The word under the cursor: what is typed so far and what follows it.
+  let wordEnd = offset;
+  while (wordEnd < region.contentSpan.end && /[A-Za-z0-9_/%°³-]/.test(note.text[wordEnd]!)) wordEnd++;
+  const replaceFrom = (typed: string): Span => ({ start: offset - typed.length, end: wordEnd });
+  const result = (items: CompletionEntry[], typed: string): CompletionResult | null =>
+    items.length > 0 ? { items, replace: replaceFrom(typed) } : null;
+
+  // Start of a statement: keywords.
+  const start = /^\s*([A-Za-z]*)$/.exec(before);
+  if (start) return result(KEYWORDS, start[1]!);
+
+  const units = /^\s*units:\s*([A-Za-z]*)$/.exec(before);
+  if (units) return result(SYSTEMS, units[1]!);
+
+  // A number just typed: units of the key's dimension (or of a mix stream's amount).
+  const afterNumber = AFTER_NUMBER.exec(before);
+  if (afterNumber) {
+    const key = afterNumber[1]!;
+    const spec = STATE_KEYS[key] ?? PROCESS_KEYS[key] ?? SITE_KEYS[key];
+    return spec ? result(unitEntries([spec.dimension]), afterNumber[2]!) : null;
+  }
+
+  const site = /^\s*site:(.*)$/.exec(before);
+  if (site) {
+    const k = KEY_SO_FAR.exec(site[1]!);
+    return k ? result(keyEntries(SITE_KEYS, keysWritten(site[1]!)), k[1]!) : null;
+  }
+
+  const state = new RegExp(String.raw`^\s*state\s+(${NAME})?\s*:(.*)$`).exec(before);
+  if (state) {
+    const rest = state[2]!;
+    const k = KEY_SO_FAR.exec(rest);
+    return k ? result(keyEntries(STATE_KEYS, keysWritten(rest)), k[1]!) : null;
+  }
+
+  const mix = new RegExp(String.raw`^\s*mix\s+(${NAME})?\s*:(.*)$`).exec(before);
+  if (mix) {
+    const self = mix[1] ?? null;
+    const rest = mix[2]!;
+    const stream = /(?:^|\+)\s*([A-Za-z][A-Za-z0-9_-]*|)$/.exec(rest);
+    if (stream) return result(nameEntries(note, offset, self), stream[1]!);
+    const amount = new RegExp(String.raw`${NAME}\s+${NUMBER}(\S*)$`).exec(rest);
+    if (amount) return result(unitEntries(STREAM_DIMENSIONS), amount[1]!);
+    const k = /\s([A-Za-z_]*)$/.exec(rest);
+    return k ? result(keyEntries(MIX_KEYS, keysWritten(rest)), k[1]!) : null;
+  }
+
+  const proc = new RegExp(String.raw`^\s*process\s+(${NAME})?\s*:(.*)$`).exec(before);
+  if (proc) {
+    const self = proc[1] ?? null;
+    const rest = proc[2]!;
+    const end = /(?:^|->)\s*([A-Za-z][A-Za-z0-9_]*|)$/.exec(rest);
+    if (end && !/->.*->/.test(rest) && !new RegExp(String.raw`->\s*${NAME}\s`).test(rest)) {
+      return result(nameEntries(note, offset, self), end[1]!);
+    }
+    if (rest.includes('->')) {
+      const k = /\s([A-Za-z_]*)$/.exec(rest);
+      return k ? result(keyEntries(PROCESS_KEYS, keysWritten(rest)), k[1]!) : null;
+    }
+    return null;
+  }
+  return null;
+}

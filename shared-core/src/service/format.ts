@@ -1,0 +1,113 @@
+/**
+ * Display helpers shared by hovers, inline hints, the outline and quick fixes: which property is
+ * which, how a figure is shown in a unit system at the chosen precision, and the fixed wording of
+ * the method line, the datum lines and the caution footer.
+ */
+import type { MoistAirState } from '../physics/types';
+import type { ProcessKind } from '../evaluate/types';
+import { formatQuantity, lookupUnit } from '../units';
+import type { Dimension, UnitDef, UnitSystem } from '../units/types';
+import type { HintKey, Note } from './types';
+
+/** A property shown for a state: its key, label, dimension and where it is in a computed state. */
+export interface PropertyRow {
+  key: string;
+  label: string;
+  dimension: Dimension;
+  value: (s: MoistAirState) => number;
+  /** A label for the special case (wet-bulb over ice, frost point), when it applies. */
+  special?: (s: MoistAirState) => string | null;
+}
+
+/** Every property of a computed state, in the order the hover table lists them. */
+export const STATE_ROWS: readonly PropertyRow[] = [
+  { key: 'db', label: 'dry-bulb', dimension: 'temperature', value: (s) => s.db },
+  { key: 'wb', label: 'wet-bulb', dimension: 'temperature', value: (s) => s.wb, special: (s) => (s.wbIce ? 'wet-bulb (over ice)' : null) },
+  { key: 'dp', label: 'dew point', dimension: 'temperature', value: (s) => s.dp, special: (s) => (s.dpFrost ? 'frost point' : null) },
+  { key: 'rh', label: 'relative humidity', dimension: 'fraction', value: (s) => s.rh },
+  { key: 'w', label: 'humidity ratio', dimension: 'humidityRatio', value: (s) => s.w },
+  { key: 'h', label: 'enthalpy', dimension: 'enthalpy', value: (s) => s.h },
+  { key: 'v', label: 'specific volume', dimension: 'specificVolume', value: (s) => s.v },
+  { key: 'rho', label: 'density (moist air)', dimension: 'density', value: (s) => s.rho },
+  { key: 'pw', label: 'vapour pressure', dimension: 'pressure', value: (s) => s.pw },
+  { key: 'mu', label: 'degree of saturation', dimension: 'fraction', value: (s) => s.mu },
+];
+
+/** The row of a key shown in hints and hovers. */
+export function rowOf(key: string): PropertyRow | undefined {
+  return STATE_ROWS.find((r) => r.key === key);
+}
+
+/** The other unit system. */
+export function otherSystem(system: UnitSystem): UnitSystem {
+  return system === 'SI' ? 'IP' : 'SI';
+}
+
+/** The number of decimals in a formatted number (`47.81` → 2, `98` → 0). */
+function decimalsIn(valueText: string): number {
+  const dot = valueText.indexOf('.');
+  return dot < 0 ? 0 : valueText.length - dot - 1;
+}
+
+/**
+ * An SI figure shown in `system` (or in `unit`), at the usual engineering precision plus the
+ * note's extra decimals: `24.0 °C`, `9.31 g/kg`, `— °F` for a missing value.
+ */
+export function show(note: Note, si: number, dimension: Dimension, system: UnitSystem, unit?: UnitDef): string {
+  const opts = unit ? { unit } : {};
+  const first = formatQuantity(si, dimension, system, opts);
+  const extra = note.settings.extraDigits;
+  if (extra <= 0 || !Number.isFinite(si)) return first.text;
+  return formatQuantity(si, dimension, system, { ...opts, digits: decimalsIn(first.valueText) + extra }).text;
+}
+
+/** A water rate (condensate or humidifier water) in kg/h or lb/h. */
+export function showWaterRate(note: Note, kgPerS: number, system: UnitSystem): string {
+  return show(note, kgPerS, 'massFlow', system, lookupUnit(system === 'SI' ? 'kg/h' : 'lb/h'));
+}
+
+/** A plain number at `decimals` places, never `-0`. */
+export function plain(x: number, decimals: number): string {
+  const t = x.toFixed(decimals);
+  return /^-0\.?0*$/.test(t) ? t.slice(1) : t;
+}
+
+/** The properties the automatic inline hints show: rh, w, h and dp (wb when dp is written). */
+export function autoHintKeys(written: ReadonlySet<string>): HintKey[] {
+  const keys: HintKey[] = ['rh', 'w', 'h'];
+  keys.push(written.has('dp') ? 'wb' : 'dp');
+  return keys;
+}
+
+/** Words for each kind of process. */
+export const PROCESS_KIND_TEXT: Record<ProcessKind, string> = {
+  'sensible-heating': 'sensible heating',
+  'sensible-cooling': 'sensible cooling',
+  'cooling-dehumidifying': 'cooling and dehumidifying',
+  'heating-humidifying': 'heating and humidifying',
+  'heating-dehumidifying': 'heating and dehumidifying',
+  'cooling-humidifying': 'cooling and humidifying',
+  'evaporative-cooling': 'evaporative cooling',
+  humidifying: 'humidifying',
+  dehumidifying: 'dehumidifying',
+  'no-change': 'no change of state',
+};
+
+/** The method line of every state hover. */
+export const METHOD_LINE = 'Method: ASHRAE Handbook—Fundamentals Ch. 1, ideal-gas; ice below 0 °C.';
+
+/** The one-line caution footer of every result hover. */
+export const CAUTION_LINE =
+  '_Design aid only; verify against applicable codes and standards and a licensed engineer’s review._';
+
+/** The enthalpy datum of figures shown in a unit system. */
+export function datumLine(system: UnitSystem): string {
+  return system === 'SI'
+    ? 'Enthalpy datum: dry air 0 at 0 °C; water vapour from liquid water at 0 °C.'
+    : 'Enthalpy datum: dry air 0 at 0 °F; water vapour from liquid water at 32 °F.';
+}
+
+/** Escapes the characters that would break a Markdown table cell or emphasis. */
+export function md(text: string): string {
+  return text.replace(/([\\`*_|[\]<>])/g, '\\$1');
+}

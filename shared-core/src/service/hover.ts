@@ -1,0 +1,259 @@
+/**
+ * Hover: on a state (its name, keyword, values or a reference to it) a compact table of every
+ * property with the pressure basis, enthalpy datum, claims and method; on a mix its streams and
+ * result; on a process its kind, flows and duties; on a key, unit, keyword or `units:` word what
+ * it means in a line or two. Results end with a one-line caution.
+ */
+import { PROCESS_KEYS, SITE_KEYS, STATE_KEYS } from '../evaluate/keys';
+import type { ClaimResult, EvaluatedItem, ProcessResult, StateResult } from '../evaluate/types';
+import type { PropertyNode, Statement } from '../notation/ast';
+import type { Span } from '../text/types';
+import { baseUnit, deltaFromSI, describeUnit, displaySymbol, lookupUnit } from '../units';
+import type { Dimension, UnitSystem } from '../units/types';
+import {
+  CAUTION_LINE,
+  METHOD_LINE,
+  PROCESS_KIND_TEXT,
+  STATE_ROWS,
+  datumLine,
+  md,
+  otherSystem,
+  plain,
+  show,
+  showWaterRate,
+} from './format';
+import { itemOf, overlaps, targetAt } from './note';
+import type { CancellationFlag, Note } from './types';
+
+/** What a hover shows: Markdown text and the span it is about. */
+export interface HoverInfo {
+  markdown: string;
+  span: Span;
+}
+
+/** One or two lines on each statement keyword. */
+const KEYWORD_TEXT: Record<Statement['keyword'], string> = {
+  site: '`site:` sets the barometric pressure for the statements after it: `p=` a pressure, or `elev=` an elevation (standard atmosphere).',
+  units: '`units:` chooses the unit system in which this note’s results are shown (`SI` or `IP`); input may mix units freely.',
+  state:
+    '`state NAME: …` a moist-air state. Two independent properties fix it; `p=`/`elev=` override the site pressure; every further property is a claim, computed and compared.',
+  mix: '`mix NAME: A X + B Y …` adiabatic mixing of named states by dry-air mass fraction (`30%`), dry-air mass flow (`kg/s`, `lb/h`) or volume flow (`L/s`, `m3/s`, `cfm`) at each stream’s own state.',
+  process:
+    '`process NAME: A -> B [m=… | q=…]` a process between two named states at one dry-air flow: heat rates, sensible heat ratio, moisture added or removed, and the kind of process.',
+};
+
+/** What each property key means, in one line (units accepted follow from the units table). */
+const KEY_TEXT: Record<string, string> = {
+  db: 'dry-bulb temperature',
+  wb: 'thermodynamic wet-bulb temperature (over ice below 0 °C)',
+  dp: 'dew-point temperature (frost point below 0 °C)',
+  rh: 'relative humidity, in % (a bare number is an error: 50 or 0.5 would be ambiguous)',
+  w: 'humidity ratio: mass of water vapour per mass of dry air (a bare number is kg/kg)',
+  h: 'specific enthalpy per mass of dry air (SI datum dry air 0 at 0 °C; IP datum 0 °F)',
+  v: 'specific volume per mass of dry air (a claim only; it does not define a state)',
+  p: 'barometric (absolute) pressure',
+  elev: 'site elevation; the pressure follows from the standard atmosphere',
+  m: 'dry-air mass flow through the process',
+  q: 'volume flow of air at the entering state',
+  q_total: 'claim: total heat rate of the process',
+  q_sensible: 'claim: sensible heat rate',
+  q_latent: 'claim: latent heat rate',
+  q_coil: 'claim: coil or heater duty, including the enthalpy of the water leaving or entering',
+  shr: 'claim: sensible heat ratio (sensible / total); a bare number is a fraction',
+  water: 'claim: water added (humidifier) or removed (condensate), as a mass flow',
+};
+
+function keyDimension(key: string): Dimension | undefined {
+  return (STATE_KEYS[key] ?? PROCESS_KEYS[key] ?? SITE_KEYS[key])?.dimension;
+}
+
+/** The written text of a property (`rh=45%`). */
+function written(note: Note, prop: PropertyNode): string {
+  return note.text.slice(prop.span.start, prop.span.end);
+}
+
+/** A claim's verdict in a few words: `✓ within ±0.5 %` or `✗ written 45%`. */
+function claimVerdict(note: Note, claim: ClaimResult, system: UnitSystem): string {
+  const dim = keyDimension(claim.key);
+  const unit = claim.prop.value?.unit ? lookupUnit(claim.prop.value.unit.text) : undefined;
+  let band = '';
+  if (dim) {
+    const u = unit ?? baseUnit(dim);
+    band = ` (band ±${Number(deltaFromSI(claim.toleranceSI, u).toPrecision(2))} ${displaySymbol(u)})`;
+  }
+  const computed = dim ? show(note, claim.computedSI, dim, system, unit) : claim.computedText;
+  return claim.pass
+    ? `\`${md(written(note, claim.prop))}\` ✓ computed ${computed}${band}`
+    : `\`${md(written(note, claim.prop))}\` ✗ computed ${computed}${band} — stale claim`;
+}
+
+function claimsBlock(note: Note, claims: readonly ClaimResult[], system: UnitSystem): string[] {
+  if (claims.length === 0) return [];
+  if (!note.settings.checkClaims) return ['Claims: not checked (setting dewmark.checkClaims is off).'];
+  return ['Claims:', ...claims.map((c) => `- ${claimVerdict(note, c, system)}`)];
+}
+
+function pressureLine(note: Note, item: StateResult, system: UnitSystem): string {
+  const p = show(note, item.pressure.pa, 'pressure', system);
+  return `Pressure: ${p} — ${md(item.pressure.describe)}`;
+}
+
+/** Problems reported on a statement, for a hover on something that could not be computed. */
+function problemsOf(note: Note, statement: Statement): string[] {
+  return note.analysis.diagnostics
+    .filter((d) => d.severity === 'error' && overlaps(d.span, statement.span))
+    .map((d) => `- ${md(d.message)}`);
+}
+
+function stateTable(note: Note, item: StateResult, system: UnitSystem): string[] {
+  const state = item.state!;
+  const secondary = note.settings.secondaryUnits ? otherSystem(system) : null;
+  const given = new Set<string>(item.defining);
+  const claims = new Map(item.claims.map((c) => [c.key, c]));
+  const head = secondary ? `| property | | ${system} | ${secondary} | |` : '| property | | value | |';
+  const rule = secondary ? '|---|---|--:|--:|---|' : '|---|---|--:|---|';
+  const rows = [head, rule];
+  for (const r of STATE_ROWS) {
+    const label = r.special?.(state) ?? r.label;
+    const si = r.value(state);
+    const claim = claims.get(r.key);
+    let mark = given.has(r.key) ? 'given' : '';
+    if (claim && note.settings.checkClaims) mark = claim.pass ? 'claim ✓' : `claim ✗ (${md(written(note, claim.prop))})`;
+    const cells = [label, `\`${r.key}\``, show(note, si, r.dimension, system)];
+    if (secondary) cells.push(show(note, si, r.dimension, secondary));
+    cells.push(mark);
+    rows.push(`| ${cells.join(' | ')} |`);
+  }
+  if (state.fog) rows.push('', '⚠ Fog region: the air holds more water than saturated air can carry as vapour; w is the total water.');
+  return rows;
+}
+
+function stateHover(note: Note, item: StateResult): string {
+  const system = note.analysis.units;
+  const out: string[] = [];
+  if (item.kind === 'mix') {
+    out.push(`**mix ${md(item.name)}** — adiabatic mixing`);
+    if (item.streams && item.streams.length > 0) {
+      out.push('', '| stream | dry-air fraction | dry-air flow |', '|---|--:|--:|');
+      for (const s of item.streams) {
+        const flow = s.massFlowKgS === null ? '—' : show(note, s.massFlowKgS, 'massFlow', system);
+        out.push(`| ${md(s.name)} | ${show(note, s.fraction, 'fraction', system)} | ${flow} |`);
+      }
+    }
+    if (item.massFlowKgS !== undefined && item.massFlowKgS !== null) {
+      out.push('', `Total dry-air flow: ${show(note, item.massFlowKgS, 'massFlow', system)}`);
+    }
+    out.push('', 'Result:');
+  } else {
+    out.push(`**state ${md(item.name)}**`);
+  }
+  if (!item.state) {
+    out.push('', 'Not computed:', ...problemsOf(note, item.statement));
+    return out.join('\n');
+  }
+  out.push('', ...stateTable(note, item, system));
+  out.push('', pressureLine(note, item, system), '', datumLine(system));
+  if (note.settings.secondaryUnits) out.push(datumLine(otherSystem(system)));
+  const claims = claimsBlock(note, item.claims, system);
+  if (claims.length > 0) out.push('', ...claims);
+  out.push('', METHOD_LINE, '', '---', CAUTION_LINE);
+  return out.join('\n');
+}
+
+function heat(note: Note, w: number | null, system: UnitSystem): string {
+  if (w === null) return '—';
+  const mag = show(note, Math.abs(w), 'power', system);
+  if (Math.abs(w) < 1e-9) return mag;
+  return `${mag} ${w > 0 ? 'added' : 'removed'}`;
+}
+
+function processHover(note: Note, item: ProcessResult): string {
+  const system = note.analysis.units;
+  const kind = item.processKind ? PROCESS_KIND_TEXT[item.processKind] : 'kind unknown';
+  const out = [`**process ${md(item.name)}** — ${kind}, ${md(item.from)} → ${md(item.to)}`, ''];
+  const rows: [string, string][] = [];
+  if (item.massFlowKgS !== null) {
+    let flow = show(note, item.massFlowKgS, 'massFlow', system);
+    if (item.volumeFlowM3S !== null) flow += ` (${show(note, item.volumeFlowM3S, 'volumeFlow', system)} at ${md(item.from)})`;
+    rows.push(['dry-air flow', flow]);
+    rows.push(['total heat', heat(note, item.qTotalW, system)]);
+    rows.push(['sensible heat', heat(note, item.qSensibleW, system)]);
+    rows.push(['latent heat', heat(note, item.qLatentW, system)]);
+  } else {
+    rows.push(['dry-air flow', 'not given (add `m=` or `q=` for heat rates)']);
+  }
+  rows.push(['sensible heat ratio', item.shr === null ? '— (no net heat)' : plain(item.shr, 2 + note.settings.extraDigits)]);
+  rows.push(['Δh per kg dry air', show(note, item.dhTotal, 'enthalpy', system).replace(/^(?=\d)/, '+')]);
+  const perKgW = show(note, Math.abs(item.dw), 'humidityRatio', system);
+  rows.push(['Δw', item.dw < 0 ? `−${perKgW} (removed)` : item.dw > 0 ? `+${perKgW} (added)` : perKgW]);
+  if (item.waterKgS !== null) {
+    const rate = showWaterRate(note, Math.abs(item.waterKgS), system);
+    rows.push([item.waterKgS < 0 ? 'condensate' : 'water added', item.waterKgS === 0 ? '—' : rate]);
+  }
+  if (item.qCoilW !== null) rows.push(['coil duty incl. water', heat(note, item.qCoilW, system)]);
+  out.push('| | |', '|---|--:|', ...rows.map(([a, b]) => `| ${a} | ${b} |`));
+  const claims = claimsBlock(note, item.claims, system);
+  if (claims.length > 0) out.push('', ...claims);
+  out.push('', 'Heat rates are positive when heat is added to the air; steady flow, one dry-air flow.');
+  out.push('', METHOD_LINE, '', '---', CAUTION_LINE);
+  return out.join('\n');
+}
+
+/** The hover of an evaluated item (state, mix or process). */
+export function itemHover(note: Note, item: EvaluatedItem): string {
+  return item.kind === 'process' ? processHover(note, item) : stateHover(note, item);
+}
+
+function statementHover(note: Note, statement: Statement, span: Span): HoverInfo | null {
+  const item = itemOf(note, statement);
+  if (item) return { markdown: itemHover(note, item), span };
+  if (statement.keyword === 'site' || statement.keyword === 'units') return { markdown: KEYWORD_TEXT[statement.keyword], span };
+  const problems = problemsOf(note, statement);
+  const head = `**${statement.keyword}${'name' in statement && statement.name ? ` ${md(statement.name.text)}` : ''}** — not computed`;
+  return { markdown: [head, '', ...problems].join('\n'), span };
+}
+
+/** The hover at `offset`, or null where there is nothing to say. */
+export function hover(note: Note, offset: number, token?: CancellationFlag): HoverInfo | null {
+  if (token?.isCancellationRequested) return null;
+  const target = targetAt(note, offset);
+  if (!target) return null;
+  switch (target.kind) {
+    case 'keyword': {
+      const item = itemOf(note, target.statement);
+      if (item) return { markdown: itemHover(note, item), span: target.span };
+      return { markdown: KEYWORD_TEXT[target.statement.keyword], span: target.span };
+    }
+    case 'definition':
+      return statementHover(note, target.statement, target.name.span);
+    case 'reference': {
+      const item = note.analysis.byName.get(target.name.text);
+      if (!item || item.statement.span.start > target.statement.span.start) {
+        return { markdown: `\`${md(target.name.text)}\` is not defined before this line (names must be defined earlier in the note).`, span: target.name.span };
+      }
+      return { markdown: itemHover(note, item), span: target.name.span };
+    }
+    case 'key': {
+      const key = target.prop.key;
+      const text = KEY_TEXT[key];
+      if (!text) return null;
+      return { markdown: `\`${md(key)}\` — ${text}.`, span: target.span };
+    }
+    case 'unit': {
+      const text = describeUnit(target.unit.text);
+      if (!text) return null;
+      return { markdown: text.split('\n').map(md).join('  \n'), span: target.unit.span };
+    }
+    case 'system': {
+      const sys = target.name.text;
+      if (sys !== 'SI' && sys !== 'IP') return null;
+      const units = sys === 'SI' ? '°C, kPa, g/kg, kJ/kg, m³/kg, kg/s, m³/s, kW' : '°F, psia, gr/lb, Btu/lb, ft³/lb, lb/h, cfm, Btu/h';
+      return { markdown: `Results of this note are shown in ${sys} units (${units}).\n\n${datumLine(sys)}`, span: target.name.span };
+    }
+    case 'value':
+      return statementHover(note, target.statement, target.span);
+    case 'statement':
+      return statementHover(note, target.statement, target.statement.span);
+  }
+}
+

@@ -1,0 +1,103 @@
+/**
+ * Inline hints: after each state or mix, the chosen computed properties the engineer did not
+ * write; after each process its kind, total duty, SHR and condensate. Failed claims are marked
+ * `✗`. One short line per statement, placed at the end of its line (after the closing backtick
+ * of an inline code span).
+ */
+import type { ProcessResult, StateResult } from '../evaluate/types';
+import type { Statement } from '../notation/ast';
+import type { Span } from '../text/types';
+import { lookupUnit } from '../units';
+import { PROCESS_KIND_TEXT, autoHintKeys, plain, rowOf, show, showWaterRate } from './format';
+import { itemOf, lineEnd, propsOf, regionAt, statementsIn } from './note';
+import type { CancellationFlag, HintKey, Note } from './types';
+
+/** One inline hint: where it goes, what it says, and a tooltip (Markdown). */
+export interface HintItem {
+  /** Offset the hint is shown at (end of the statement's line, or after the code span). */
+  offset: number;
+  label: string;
+  tooltip: string;
+  /** True when a written claim on the statement failed. */
+  failed: boolean;
+}
+
+/** Figures shown for a mix when the setting is automatic. */
+const MIX_AUTO: HintKey[] = ['db', 'rh', 'w', 'h'];
+
+function stateLabel(note: Note, item: StateResult): { label: string; failed: boolean } | null {
+  const state = item.state;
+  if (!state) return null;
+  const system = note.analysis.units;
+  const writtenKeys = new Set(propsOf(item.statement).map((p) => p.key));
+  const chosen = note.settings.hintProperties;
+  const keys = chosen === 'auto' ? (item.kind === 'mix' ? MIX_AUTO : autoHintKeys(writtenKeys)) : chosen;
+  const parts: string[] = [];
+  for (const key of keys) {
+    if (writtenKeys.has(key)) continue;
+    const row = rowOf(key);
+    if (!row) continue;
+    parts.push(`${key} ${show(note, row.value(state), row.dimension, system)}`);
+  }
+  let failed = false;
+  if (note.settings.checkClaims) {
+    for (const c of item.claims) {
+      if (c.pass) continue;
+      failed = true;
+      const row = rowOf(c.key);
+      const unit = c.prop.value?.unit ? lookupUnit(c.prop.value.unit.text) : undefined;
+      const computed = row ? show(note, c.computedSI, row.dimension, system, unit) : c.computedText;
+      parts.push(`✗ ${c.key} is ${computed}`);
+    }
+  }
+  if (state.fog) parts.push('fog');
+  return parts.length > 0 ? { label: parts.join(' · '), failed } : null;
+}
+
+function processLabel(note: Note, item: ProcessResult): { label: string; failed: boolean } {
+  const system = note.analysis.units;
+  const parts: string[] = [];
+  if (item.processKind) parts.push(PROCESS_KIND_TEXT[item.processKind]);
+  if (item.qTotalW !== null) {
+    parts.push(`${show(note, Math.abs(item.qTotalW), 'power', system)} ${item.qTotalW >= 0 ? 'added' : 'removed'}`);
+  } else {
+    parts.push(`Δh ${show(note, item.dhTotal, 'enthalpy', system)}`);
+  }
+  if (item.shr !== null) parts.push(`SHR ${plain(item.shr, 2 + note.settings.extraDigits)}`);
+  if (item.waterKgS !== null && item.waterKgS < 0) parts.push(`${showWaterRate(note, -item.waterKgS, system)} condensate`);
+  else if (item.waterKgS !== null && item.waterKgS > 0) parts.push(`${showWaterRate(note, item.waterKgS, system)} water`);
+  let failed = false;
+  if (note.settings.checkClaims) {
+    for (const c of item.claims) {
+      if (c.pass) continue;
+      failed = true;
+      parts.push(`✗ ${c.key} is ${c.computedText}`);
+    }
+  }
+  return { label: parts.join(' · '), failed };
+}
+
+/** Where a statement's hint goes: the end of its line in a fence, after the closing backtick inline. */
+function hintOffset(note: Note, statement: Statement): number {
+  if (statement.origin === 'inline') {
+    const region = regionAt(note, statement.span.start);
+    if (region) return region.span.end;
+  }
+  return lineEnd(note.text, statement.span.end);
+}
+
+/** The inline hints of the statements that overlap `span`, in document order. */
+export function inlayHints(note: Note, span: Span, token?: CancellationFlag): HintItem[] {
+  const out: HintItem[] = [];
+  for (const statement of statementsIn(note, span)) {
+    if (token?.isCancellationRequested) break;
+    const item = itemOf(note, statement);
+    if (!item) continue;
+    const r = item.kind === 'process' ? processLabel(note, item) : stateLabel(note, item);
+    if (!r) continue;
+    const pressure = item.kind === 'process' ? '' : ` at ${show(note, item.pressure.pa, 'pressure', note.analysis.units)}`;
+    const tooltip = `Computed by Dewmark for ${item.kind} **${item.name}**${pressure}. Hover the name for every figure and the claims.`;
+    out.push({ offset: hintOffset(note, statement), label: r.label, tooltip, failed: r.failed });
+  }
+  return out;
+}

@@ -1,0 +1,174 @@
+/**
+ * One analysed note and the lookups every feature shares: the statement, region and syntax node at
+ * an offset (binary search over document order), and the evaluated item of a statement.
+ */
+import { analyzeNote } from '../evaluate';
+import type { EvaluatedItem } from '../evaluate/types';
+import type {
+  AirRegion,
+  NameNode,
+  PropertyNode,
+  Statement,
+  UnitNode,
+} from '../notation/ast';
+import type { Span } from '../text/types';
+import { toEvaluateSettings } from './settings';
+import type { Note, ServiceSettings } from './types';
+
+/** Parses and evaluates `text` once with the service settings; every feature reads the result. */
+export function analyzeText(text: string, settings: ServiceSettings): Note {
+  return { text, analysis: analyzeNote(text, toEvaluateSettings(settings)), settings };
+}
+
+/** True when `offset` lies in `span` or touches its end (a cursor just after a word is on it). */
+export function touches(span: Span, offset: number): boolean {
+  return span.start <= offset && offset <= span.end;
+}
+
+/** True when two spans overlap or touch. */
+export function overlaps(a: Span, b: Span): boolean {
+  return a.start <= b.end && b.start <= a.end;
+}
+
+interface NoteIndex {
+  items: Map<Statement, EvaluatedItem>;
+}
+
+const indexes = new WeakMap<Note, NoteIndex>();
+
+function indexOf(note: Note): NoteIndex {
+  let idx = indexes.get(note);
+  if (!idx) {
+    const items = new Map<Statement, EvaluatedItem>();
+    for (const item of note.analysis.items) items.set(item.statement, item);
+    idx = { items };
+    indexes.set(note, idx);
+  }
+  return idx;
+}
+
+/** The evaluated item (state, mix or process) of a statement, if it produced one. */
+export function itemOf(note: Note, statement: Statement): EvaluatedItem | undefined {
+  return indexOf(note).items.get(statement);
+}
+
+/** Index of the last element whose `span.start` is at or before `offset` (−1 when none). */
+function lastStartingAtOrBefore<T extends { span: Span }>(list: readonly T[], offset: number): number {
+  let lo = 0;
+  let hi = list.length - 1;
+  let found = -1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (list[mid]!.span.start <= offset) {
+      found = mid;
+      lo = mid + 1;
+    } else hi = mid - 1;
+  }
+  return found;
+}
+
+/** The statement whose span holds (or ends at) `offset`. */
+export function statementAt(note: Note, offset: number): Statement | undefined {
+  const list = note.analysis.parsed.statements;
+  const i = lastStartingAtOrBefore(list, offset);
+  if (i < 0) return undefined;
+  const s = list[i]!;
+  return touches(s.span, offset) ? s : undefined;
+}
+
+/** The statements that overlap `span`, in document order. */
+export function statementsIn(note: Note, span: Span): Statement[] {
+  const list = note.analysis.parsed.statements;
+  let i = lastStartingAtOrBefore(list, span.start);
+  if (i < 0) i = 0;
+  const out: Statement[] = [];
+  for (; i < list.length; i++) {
+    const s = list[i]!;
+    if (s.span.start > span.end) break;
+    if (overlaps(s.span, span)) out.push(s);
+  }
+  return out;
+}
+
+/** The fenced block or code span whose content holds `offset` (an empty fence body included). */
+export function regionAt(note: Note, offset: number): AirRegion | undefined {
+  const list = note.analysis.parsed.regions;
+  const i = lastStartingAtOrBefore(list, offset);
+  if (i < 0) return undefined;
+  const r = list[i]!;
+  return touches(r.contentSpan, offset) ? r : undefined;
+}
+
+/** What lies under the cursor inside a statement. */
+export type Target =
+  | { kind: 'keyword'; statement: Statement; span: Span }
+  | { kind: 'definition'; statement: Statement; name: NameNode }
+  | { kind: 'reference'; statement: Statement; name: NameNode }
+  | { kind: 'key'; statement: Statement; prop: PropertyNode; span: Span }
+  | { kind: 'unit'; statement: Statement; unit: UnitNode; prop: PropertyNode | null }
+  | { kind: 'value'; statement: Statement; prop: PropertyNode; span: Span }
+  | { kind: 'system'; statement: Statement; name: NameNode }
+  | { kind: 'statement'; statement: Statement };
+
+/** The names a statement refers to (mix streams, process ends). */
+export function referencesOf(statement: Statement): NameNode[] {
+  if (statement.keyword === 'mix') return statement.streams.map((s) => s.name);
+  if (statement.keyword === 'process') return [statement.from, statement.to].filter((n): n is NameNode => n !== null);
+  return [];
+}
+
+/** The properties written in a statement (for a mix: its claims; for a process: flow and claims). */
+export function propsOf(statement: Statement): PropertyNode[] {
+  return statement.keyword === 'units' ? [] : statement.props;
+}
+
+/** The syntax node at `offset`, most specific first; undefined outside every statement. */
+export function targetAt(note: Note, offset: number): Target | undefined {
+  const statement = statementAt(note, offset);
+  if (!statement) return undefined;
+  if (touches(statement.keywordSpan, offset)) return { kind: 'keyword', statement, span: statement.keywordSpan };
+  if (statement.keyword === 'units') {
+    if (statement.system && touches(statement.system.span, offset)) return { kind: 'system', statement, name: statement.system };
+    return { kind: 'statement', statement };
+  }
+  if ((statement.keyword === 'state' || statement.keyword === 'mix' || statement.keyword === 'process') && statement.name) {
+    if (touches(statement.name.span, offset)) return { kind: 'definition', statement, name: statement.name };
+  }
+  for (const ref of referencesOf(statement)) {
+    if (touches(ref.span, offset)) return { kind: 'reference', statement, name: ref };
+  }
+  if (statement.keyword === 'mix') {
+    for (const stream of statement.streams) {
+      const unit = stream.amount?.unit;
+      if (unit && touches(unit.span, offset)) return { kind: 'unit', statement, unit, prop: null };
+    }
+  }
+  for (const prop of propsOf(statement)) {
+    if (!touches(prop.span, offset)) continue;
+    if (touches(prop.keySpan, offset)) return { kind: 'key', statement, prop, span: prop.keySpan };
+    const v = prop.value;
+    if (v?.unit && touches(v.unit.span, offset)) return { kind: 'unit', statement, unit: v.unit, prop };
+    if (v?.tolerance?.unit && touches(v.tolerance.unit.span, offset)) return { kind: 'unit', statement, unit: v.tolerance.unit, prop };
+    return { kind: 'value', statement, prop, span: v?.span ?? prop.span };
+  }
+  return { kind: 'statement', statement };
+}
+
+/** The offset where the line holding `offset` ends (before `\r\n` or `\n`). */
+export function lineEnd(text: string, offset: number): number {
+  const nl = text.indexOf('\n', offset);
+  const end = nl < 0 ? text.length : nl;
+  return end > 0 && text.charCodeAt(end - 1) === 13 ? end - 1 : end;
+}
+
+/** The offset where the line holding `offset` starts. */
+export function lineStart(text: string, offset: number): number {
+  return text.lastIndexOf('\n', offset - 1) + 1;
+}
+
+/** The 1-based line number of `offset` (for messages; counts `\n`). */
+export function lineNumber(text: string, offset: number): number {
+  let n = 1;
+  for (let i = text.indexOf('\n'); i >= 0 && i < offset; i = text.indexOf('\n', i + 1)) n++;
+  return n;
+}
