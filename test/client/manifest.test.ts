@@ -1,0 +1,125 @@
+/**
+ * The extension manifest (root package.json) agrees with the code: the commands contributed are
+ * exactly the ones the client registers, every setting is one the server reads (its default gives
+ * the server's defaults, and a changed value changes what the server uses), and every file the
+ * manifest names is packed by .vscodeignore.
+ */
+import { describe, expect, it } from 'vitest';
+import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { COMMAND_CATEGORY, COMMANDS } from '../../client/src/commands';
+import { DEFAULT_SERVICE_SETTINGS, readSettings } from '../../shared-core/src/service/settings';
+import { HINT_KEYS } from '../../shared-core/src/service/types';
+// @ts-expect-error -- a plain ES module without type declarations
+import { fields, scripts } from '../../client/manifest.mjs';
+
+const root = join(__dirname, '..', '..');
+const manifest = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as Record<string, any>;
+
+interface SettingSchema {
+  type: string;
+  default: unknown;
+  enum?: string[];
+  items?: { enum?: string[] };
+  markdownDescription?: string;
+  description?: string;
+  minimum?: number;
+  maximum?: number;
+}
+const properties = manifest.contributes.configuration.properties as Record<string, SettingSchema>;
+
+/** A valid value different from the default, to prove the server reads the setting. */
+const changed: Record<string, unknown> = {
+  'dewmark.units': 'IP',
+  'dewmark.pressure': '84 kPa',
+  'dewmark.elevation': '1600 m',
+  'dewmark.inlayHints.properties': ['wb', 'v'],
+  'dewmark.precision': 2,
+  'dewmark.checkClaims': false,
+  'dewmark.hover.secondaryUnits': true,
+};
+
+/** Nests `{ 'a.b': v }` the way VS Code hands a section to `workspace/configuration`. */
+function section(values: Record<string, unknown>): Record<string, unknown> {
+  const out: Record<string, any> = {};
+  for (const [key, v] of Object.entries(values)) {
+    const parts = key.replace(/^dewmark\./, '').split('.');
+    let cur = out;
+    for (const p of parts.slice(0, -1)) cur = cur[p] ??= {};
+    cur[parts[parts.length - 1]!] = v;
+  }
+  return out;
+}
+
+describe('extension manifest', () => {
+  it('package.json holds the fields of client/manifest.mjs', () => {
+    for (const [k, v] of Object.entries(fields as Record<string, unknown>)) expect(manifest[k], k).toEqual(v);
+    for (const [k, v] of Object.entries(scripts as Record<string, string>)) expect(manifest.scripts[k], k).toBe(v);
+  });
+
+  it('activates on Markdown and runs the bundled client', () => {
+    expect(manifest.main).toBe('./dist/client.js');
+    expect(manifest.activationEvents).toContain('onLanguage:markdown');
+    expect(manifest.engines.vscode).toBe('^1.91.0');
+    expect(manifest.capabilities).toEqual({ untrustedWorkspaces: { supported: true }, virtualWorkspaces: true });
+  });
+
+  it('contributes exactly the commands the client registers, under the Dewmark category', () => {
+    const contributed = (manifest.contributes.commands as { command: string; title: string; category: string }[]).map((c) => [c.command, c.title, c.category]);
+    const code = Object.values(COMMANDS).map((c) => [c.id, c.title, COMMAND_CATEGORY]);
+    expect(contributed.sort()).toEqual(code.sort());
+    const source = readFileSync(join(root, 'client', 'src', 'extension.ts'), 'utf8');
+    for (const key of Object.keys(COMMANDS)) expect(source, key).toMatch(new RegExp(`registerCommand\\(\\s*COMMANDS\\.${key}\\.id`));
+    const palette = (manifest.contributes.menus.commandPalette as { command: string }[]).map((m) => m.command).sort();
+    expect(palette).toEqual(Object.values(COMMANDS).map((c) => c.id).sort());
+  });
+
+  it('every setting has a description and a default, and the defaults are the server defaults', () => {
+    for (const [key, s] of Object.entries(properties)) {
+      expect(s.markdownDescription ?? s.description, key).toBeTruthy();
+      expect(s.default, key).not.toBeUndefined();
+    }
+    const defaults = Object.fromEntries(Object.entries(properties).map(([k, s]) => [k, s.default]));
+    const { settings, problems } = readSettings(section(defaults));
+    expect(problems).toEqual([]);
+    expect(settings).toEqual(DEFAULT_SERVICE_SETTINGS);
+  });
+
+  it('every setting except the client-side trace is read by the server', () => {
+    const serverSide = Object.keys(properties).filter((k) => k !== 'dewmark.trace.server');
+    expect(serverSide.sort()).toEqual(Object.keys(changed).sort());
+    const base = readSettings(section({})).settings;
+    for (const key of serverSide) {
+      const { settings, problems } = readSettings(section({ [key]: changed[key] }));
+      expect(problems, key).toEqual([]);
+      expect(settings, `${key} = ${JSON.stringify(changed[key])} changes nothing the server uses`).not.toEqual(base);
+    }
+    expect(properties['dewmark.trace.server']!.enum).toEqual(['off', 'messages', 'verbose']);
+  });
+
+  it('enumerates the hint keys and unit systems the server accepts', () => {
+    expect(properties['dewmark.inlayHints.properties']!.items!.enum).toEqual([...HINT_KEYS]);
+    expect(properties['dewmark.units']!.enum).toEqual(['SI', 'IP']);
+    const { problems } = readSettings(section({ 'dewmark.precision': properties['dewmark.precision']!.maximum! + 1 }));
+    expect(problems.length, 'the manifest maximum of dewmark.precision is the server maximum').toBe(1);
+  });
+
+  it('packs every file the manifest names, and nothing from node_modules', () => {
+    const ignore = readFileSync(join(root, '.vscodeignore'), 'utf8').split('\n').map((l) => l.trim());
+    expect(ignore).toContain('**');
+    const named = [
+      manifest.main.replace(/^\.\//, ''),
+      'dist/server.js',
+      manifest.icon,
+      ...(manifest.contributes.grammars as { path: string }[]).map((g) => g.path.replace(/^\.\//, '')),
+      ...(manifest.contributes.languages as { configuration: string }[]).map((l) => l.configuration.replace(/^\.\//, '')),
+      'LICENSE',
+      'CHANGELOG.md',
+    ];
+    for (const f of named) {
+      expect(ignore, f).toContain(`!${f}`);
+      if (!f.startsWith('dist/')) expect(existsSync(join(root, f)), f).toBe(true);
+    }
+    expect(ignore.filter((l) => l.startsWith('!') && l.includes('node_modules'))).toEqual([]);
+  });
+});
