@@ -1,0 +1,140 @@
+/**
+ * Turns an {@link Analysis} of a note into chart data: plotted states and mixes, mixing lines,
+ * process arrows, and the states that could not be plotted (with the evaluator's reason).
+ */
+import type { Analysis, ProcessResult, StateResult } from '../evaluate/types';
+import type { CoreDiagnostic } from '../notation/ast';
+import type { Span } from '../text/types';
+import { renderChartFromData } from './render';
+import type { ChartData, ChartInfeasible, ChartMix, ChartOptions, ChartPoint, ChartProcess } from './types';
+
+/** Options of {@link chartDataFromAnalysis}: the note's text (for line numbers) and a title. */
+export interface FromAnalysisOptions {
+  /** The note's full text; without it no line numbers are given. */
+  source?: string;
+  /** Title of the chart (the note's file name, say). */
+  title?: string;
+}
+
+/** 1-based line of a UTF-16 offset in `text`. */
+function lineOf(text: string | undefined, offset: number): number | undefined {
+  if (text === undefined) return undefined;
+  let line = 1;
+  const end = Math.min(offset, text.length);
+  for (let i = 0; i < end; i++) if (text.charCodeAt(i) === 10) line++;
+  return line;
+}
+
+function within(inner: Span, outer: Span): boolean {
+  return inner.start >= outer.start && inner.end <= outer.end;
+}
+
+function diagnosticsOf(analysis: Analysis, span: Span): CoreDiagnostic[] {
+  return analysis.diagnostics.filter((d) => within(d.span, span));
+}
+
+/** The first sentence-worth of a diagnostic message, for the chart's short list. */
+function shortReason(d: CoreDiagnostic | undefined, fallback: string): string {
+  const m = d?.message.trim();
+  if (!m) return fallback;
+  return /[.!?]$/.test(m) ? m : `${m}.`;
+}
+
+/** The pressure most of the note's states are at (the first state's on a tie); the setting without states. */
+function notePressure(analysis: Analysis): { pa: number; text: string } {
+  const states = analysis.items.filter((i): i is StateResult => i.kind !== 'process');
+  if (states.length === 0) {
+    return { pa: analysis.settings.pressurePa, text: analysis.settings.pressureOrigin };
+  }
+  const counts = new Map<number, { n: number; text: string }>();
+  for (const s of states) {
+    const key = Math.round(s.pressure.pa);
+    const c = counts.get(key);
+    if (c) c.n++;
+    else counts.set(key, { n: 1, text: s.pressure.describe });
+  }
+  let best: [number, { n: number; text: string }] | undefined;
+  for (const e of counts) if (!best || e[1].n > best[1].n) best = e;
+  const first = states.find((s) => Math.round(s.pressure.pa) === best![0])!;
+  return { pa: first.pressure.pa, text: best![1].text };
+}
+
+/** Builds the chart data of an analysed note (SI, the note's unit system). */
+export function chartDataFromAnalysis(analysis: Analysis, options: FromAnalysisOptions = {}): ChartData {
+  const points: ChartPoint[] = [];
+  const mixes: ChartMix[] = [];
+  const processes: ChartProcess[] = [];
+  const infeasible: ChartInfeasible[] = [];
+  const src = options.source;
+  for (const item of analysis.items) {
+    const span = item.statement.span;
+    const line = lineOf(src, span.start);
+    const diags = diagnosticsOf(analysis, span);
+    if (item.kind === 'process') {
+      const pr = item as ProcessResult;
+      processes.push({
+        name: pr.name,
+        from: pr.from,
+        to: pr.to,
+        kind: pr.processKind,
+        flagged: diags.some((d) => d.severity === 'error'),
+        ...(line !== undefined ? { line } : {}),
+      });
+      continue;
+    }
+    const st = item as StateResult;
+    if (st.kind === 'mix' && st.streams) {
+      mixes.push({ name: st.name, streams: st.streams.map((s) => s.name), ...(line !== undefined ? { line } : {}) });
+    }
+    if (st.state) {
+      const s = st.state;
+      points.push({
+        name: st.name,
+        kind: st.kind,
+        db: s.db,
+        w: s.w,
+        h: s.h,
+        pressurePa: s.p,
+        fog: s.fog,
+        ...(line !== undefined ? { line } : {}),
+      });
+      if (s.fog) {
+        const why = diags.find((d) => d.code === 'supersaturated');
+        infeasible.push({
+          name: st.name,
+          plotted: true,
+          reason: shortReason(why, 'in the fog region: more water than saturated air holds as vapour.'),
+          ...(line !== undefined ? { line } : {}),
+        });
+      }
+    } else {
+      const why = diags.find((d) => d.severity === 'error') ?? diags[0];
+      infeasible.push({
+        name: st.name,
+        plotted: false,
+        reason: shortReason(why, 'the state could not be computed.'),
+        ...(line !== undefined ? { line } : {}),
+      });
+    }
+  }
+  const pressure = notePressure(analysis);
+  return {
+    pressurePa: pressure.pa,
+    pressureText: pressure.text,
+    units: analysis.units,
+    points,
+    mixes,
+    processes,
+    infeasible,
+    ...(options.title !== undefined ? { title: options.title } : {}),
+  };
+}
+
+/**
+ * Renders the chart of an analysed note as SVG text: its states, mixes and processes over the
+ * curves for the note's pressure, in the note's unit system.
+ */
+export function renderChart(analysis: Analysis, options: ChartOptions & FromAnalysisOptions = {}): string {
+  const data = chartDataFromAnalysis(analysis, options);
+  return renderChartFromData(data, options);
+}

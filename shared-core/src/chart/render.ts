@@ -1,0 +1,484 @@
+/**
+ * The psychrometric chart as SVG text: data in, a self-contained `<svg>` string out (no DOM, no
+ * I/O). Dry-bulb runs to the right, humidity ratio up; the curves are drawn for one pressure and
+ * every position comes from the engine through {@link toPixel}.
+ */
+import { displaySymbol, formatQuantity, fromSI, toSI } from '../units';
+import type { UnitSystem } from '../units/types';
+import {
+  enthalpyLines,
+  mixingLine,
+  rhCurves,
+  saturationCurve,
+  volumeLines,
+  wetBulbLines,
+  type ChartCurve,
+} from './curves';
+import { chartLayout, chartUnits, niceStep, stepsIn, toPixel } from './layout';
+import { placeLabels, textWidth, type Box } from './labels';
+import { chartCss } from './style';
+import type { ChartData, ChartFamilies, ChartLayout, ChartOptions, ChartPoint, Pixel } from './types';
+
+/** Radius of a state marker, px. */
+export const MARKER_RADIUS = 5;
+
+/** Escapes text for SVG/XML content and attribute values. */
+export function escapeXml(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+}
+
+/** A coordinate as SVG text, two decimals; a non-finite value is a programming error caught here. */
+function n(x: number): string {
+  if (!Number.isFinite(x)) throw new RangeError('chart: non-finite coordinate');
+  const r = Math.round(x * 100) / 100;
+  return String(r === 0 ? 0 : r);
+}
+
+/** A number for a tick or line label: a real minus sign, no binary noise. */
+function label(x: number): string {
+  const r = Number(x.toPrecision(10));
+  const s = String(Math.abs(r) < 1e-12 ? 0 : r);
+  return s.startsWith('-') ? `\u2212${s.slice(1)}` : s;
+}
+
+function pathOf(run: Pixel[]): string {
+  return run.map((p, i) => `${i === 0 ? 'M' : 'L'}${n(p.x)} ${n(p.y)}`).join('');
+}
+
+interface Ctx {
+  layout: ChartLayout;
+  id: string;
+  out: string[];
+}
+
+/** Label of a family line at one end of its visible part; skipped when it would collide. */
+function familyLabel(
+  ctx: Ctx,
+  taken: Box[],
+  text: string,
+  cls: string,
+  at: Pixel,
+  anchor: 'start' | 'end' | 'middle',
+  dy: number,
+): boolean {
+  const w = textWidth(text, 10);
+  const x0 = anchor === 'start' ? at.x : anchor === 'end' ? at.x - w : at.x - w / 2;
+  const box: Box = { x: x0 - 2, y: at.y + dy - 9, w: w + 4, h: 12 };
+  const { plot } = ctx.layout;
+  if (box.x < plot.left || box.x + box.w > plot.right || box.y < plot.top || box.y + box.h > plot.bottom) return false;
+  for (const t of taken) {
+    if (box.x < t.x + t.w && t.x < box.x + box.w && box.y < t.y + t.h && t.y < box.y + box.h) return false;
+  }
+  taken.push(box);
+  ctx.out.push(`<text class="dmc-lbl ${cls}" x="${n(at.x)}" y="${n(at.y + dy)}" text-anchor="${anchor}">${escapeXml(text)}</text>`);
+  return true;
+}
+
+/** Points on a curve's last run at the given arc lengths (px) back from its end. */
+function pointsBack(c: ChartCurve, distances: number[]): Pixel[] {
+  const run = c.runs[c.runs.length - 1];
+  if (!run) return [];
+  const out: Pixel[] = [];
+  let acc = 0;
+  let k = 0;
+  for (let i = run.length - 1; i > 0 && k < distances.length; i--) {
+    const a = run[i]!;
+    const b = run[i - 1]!;
+    const len = Math.hypot(a.x - b.x, a.y - b.y);
+    while (k < distances.length && acc + len >= distances[k]!) {
+      const t = len > 0 ? (distances[k]! - acc) / len : 0;
+      out.push({ x: a.x + (b.x - a.x) * t, y: a.y + (b.y - a.y) * t });
+      k++;
+    }
+    acc += len;
+  }
+  return out;
+}
+
+function lastPoint(c: ChartCurve): Pixel | undefined {
+  const run = c.runs[c.runs.length - 1];
+  return run?.[run.length - 1];
+}
+
+function firstPoint(c: ChartCurve): Pixel | undefined {
+  return c.runs[0]?.[0];
+}
+
+function drawCurves(ctx: Ctx, curves: ChartCurve[], cls: (c: ChartCurve) => string): void {
+  for (const c of curves) {
+    const d = c.runs.map(pathOf).join('');
+    if (d) ctx.out.push(`<path class="${cls(c)}" data-family="${c.family}" data-value="${label(c.value).replace('\u2212', '-')}" d="${d}"/>`);
+  }
+}
+
+function fogRegion(ctx: Ctx, sat: ChartCurve): void {
+  const run = sat.runs[0];
+  const { plot } = ctx.layout;
+  if (!run || run.length < 2) return;
+  const first = run[0]!;
+  const last = run[run.length - 1]!;
+  const pts = [...run];
+  if (Math.abs(last.x - plot.right) < 0.5 && last.y > plot.top) pts.push({ x: plot.right, y: plot.top });
+  pts.push({ x: plot.left, y: plot.top });
+  if (first.x > plot.left + 0.5) pts.push({ x: plot.left, y: first.y });
+  ctx.out.push(`<path class="dmc-fog" d="${pathOf(pts)}Z"/>`);
+}
+
+function axes(ctx: Ctx): void {
+  const { layout, out } = ctx;
+  const { plot, range } = layout;
+  const u = chartUnits(layout.units);
+  const tLo = fromSI(range.dbMin, u.temperature);
+  const tHi = fromSI(range.dbMax, u.temperature);
+  const tStep = niceStep(tHi - tLo, 12);
+  const wLo = fromSI(range.wMin, u.humidityRatio);
+  const wHi = fromSI(range.wMax, u.humidityRatio);
+  const wStep = niceStep(wHi - wLo, 8);
+  const grid: string[] = [];
+  const ticks: string[] = [];
+  for (const t of stepsIn(tLo, tHi, tStep)) {
+    const x = toPixel(layout, toSI(t, u.temperature), range.wMin).x;
+    grid.push(`M${n(x)} ${n(plot.top)}V${n(plot.bottom)}`);
+    ticks.push(`<line class="dmc-axis" x1="${n(x)}" y1="${n(plot.bottom)}" x2="${n(x)}" y2="${n(plot.bottom + 5)}"/>`);
+    ticks.push(`<text class="dmc-tick" data-axis="db" x="${n(x)}" y="${n(plot.bottom + 18)}" text-anchor="middle">${label(t)}</text>`);
+  }
+  for (const w of stepsIn(wLo, wHi, wStep)) {
+    const y = toPixel(layout, range.dbMin, toSI(w, u.humidityRatio)).y;
+    grid.push(`M${n(plot.left)} ${n(y)}H${n(plot.right)}`);
+    ticks.push(`<line class="dmc-axis" x1="${n(plot.left - 5)}" y1="${n(y)}" x2="${n(plot.left)}" y2="${n(y)}"/>`);
+    ticks.push(`<text class="dmc-tick" data-axis="w" x="${n(plot.left - 8)}" y="${n(y + 3.5)}" text-anchor="end">${label(w)}</text>`);
+  }
+  out.push(`<path class="dmc-grid" d="${grid.join('')}"/>`);
+  ctx.out.push('<g class="dmc-axes">');
+  out.push(`<path class="dmc-axis" d="M${n(plot.left)} ${n(plot.top)}V${n(plot.bottom)}H${n(plot.right)}"/>`);
+  out.push(...ticks);
+  const tSym = displaySymbol(u.temperature);
+  const wSym = displaySymbol(u.humidityRatio);
+  out.push(
+    `<text class="dmc-axis-title" data-axis-title="db" x="${n((plot.left + plot.right) / 2)}" y="${n(plot.bottom + 40)}" text-anchor="middle">Dry-bulb temperature (${escapeXml(tSym)})</text>`,
+  );
+  const yMid = (plot.top + plot.bottom) / 2;
+  out.push(
+    `<text class="dmc-axis-title" data-axis-title="w" transform="translate(${n(plot.left - 50)} ${n(yMid)}) rotate(-90)" text-anchor="middle">Humidity ratio (${escapeXml(wSym)} dry air)</text>`,
+  );
+  out.push('</g>');
+}
+
+function pointClass(p: ChartPoint): string {
+  return p.fog ? 'fog' : p.kind;
+}
+
+/** How a state's position reads in the display units (`24.0 °C, 9.30 g/kg`). */
+function positionText(p: { db: number; w: number }, units: UnitSystem): string {
+  return `${formatQuantity(p.db, 'temperature', units).text}, ${formatQuantity(p.w, 'humidityRatio', units).text}`;
+}
+
+/** The pressures of the points that differ from the chart's by more than 1 Pa. */
+function otherPressurePoints(data: ChartData): ChartPoint[] {
+  return data.points.filter((p) => p.pressurePa !== undefined && Math.abs(p.pressurePa - data.pressurePa) > 1);
+}
+
+function captionLines(data: ChartData): string[] {
+  const pText = formatQuantity(data.pressurePa, 'pressure', data.units).text;
+  const lines = [
+    `Curves drawn for ${pText}${data.pressureText ? ` (${data.pressureText})` : ''}; ${data.units} units. Moist-air properties after ASHRAE Handbook\u2014Fundamentals Ch. 1 (ideal gas; over ice below 0 \u00b0C, 32 \u00b0F).`,
+  ];
+  const others = otherPressurePoints(data);
+  if (others.length > 0) {
+    lines.push(
+      `${others.map((p) => p.name).join(', ')} ${others.length === 1 ? 'is' : 'are'} at another pressure: placed by dry-bulb and humidity ratio; read its other properties from the note, not from these curves.`,
+    );
+  }
+  return lines;
+}
+
+function flagLines(data: ChartData): string[] {
+  const items = data.infeasible.map(
+    (f) => `${f.name}${f.line ? ` (line ${f.line})` : ''} \u2014 ${f.plotted ? 'marked on the chart' : 'not plotted'}: ${f.reason}`,
+  );
+  const byName = new Set(data.points.map((p) => p.name));
+  for (const pr of data.processes) {
+    const missing = [pr.from, pr.to].filter((s) => !byName.has(s));
+    if (missing.length > 0) items.push(`process ${pr.name}${pr.line ? ` (line ${pr.line})` : ''} \u2014 not drawn: ${missing.join(' and ')} not plotted.`);
+    else if (pr.flagged) items.push(`process ${pr.name}${pr.line ? ` (line ${pr.line})` : ''} \u2014 drawn dashed: the note's diagnostics flag it.`);
+  }
+  for (const m of data.mixes) {
+    const missing = m.streams.filter((s) => !byName.has(s));
+    if (missing.length > 0) items.push(`mix ${m.name}${m.line ? ` (line ${m.line})` : ''} \u2014 mixing line not drawn: ${missing.join(' and ')} not plotted.`);
+  }
+  return items;
+}
+
+/** Wraps text at about `chars` characters a line. */
+function wrap(text: string, chars: number): string[] {
+  const words = text.split(' ');
+  const lines: string[] = [];
+  let cur = '';
+  for (const w of words) {
+    if (cur && cur.length + 1 + w.length > chars) {
+      lines.push(cur);
+      cur = w;
+    } else cur = cur ? `${cur} ${w}` : w;
+  }
+  if (cur) lines.push(cur);
+  return lines;
+}
+
+function describe(data: ChartData, layout: ChartLayout): string {
+  const u = chartUnits(data.units);
+  const r = layout.range;
+  const parts = [
+    `Psychrometric chart at ${formatQuantity(data.pressurePa, 'pressure', data.units).text}: dry-bulb temperature from ${formatQuantity(r.dbMin, 'temperature', data.units).text} to ${formatQuantity(r.dbMax, 'temperature', data.units).text} across, humidity ratio from ${label(fromSI(r.wMin, u.humidityRatio))} to ${formatQuantity(r.wMax, 'humidityRatio', data.units).text} up, with the saturation curve, relative-humidity curves from 10 % to 90 %, wet-bulb, enthalpy and specific-volume lines.`,
+  ];
+  if (data.points.length > 0) {
+    parts.push(
+      `Points: ${data.points.map((p) => `${p.kind === 'mix' ? 'mixed state ' : ''}${p.name} at ${positionText(p, data.units)}${p.fog ? ' (fog region, physically impossible as vapour)' : ''}`).join('; ')}.`,
+    );
+  } else parts.push('No states are plotted.');
+  for (const m of data.mixes) parts.push(`Mixing line of ${m.streams.join(' and ')} through ${m.name}.`);
+  for (const pr of data.processes) parts.push(`Process ${pr.name}: arrow from ${pr.from} to ${pr.to}${pr.kind ? ` (${pr.kind.replace(/-/g, ' ')})` : ''}.`);
+  for (const f of data.infeasible) parts.push(`${f.name}: ${f.plotted ? 'marked' : 'not plotted'}, ${f.reason}`);
+  return parts.join(' ');
+}
+
+/** The legend's entries and their positions, wrapped to the plot width; rows are 18 px apart. */
+function legendItems(layout: ChartLayout): { cls: string; text: string; x: number; row: number }[] {
+  const u = chartUnits(layout.units);
+  const items: [string, string][] = [
+    ['dmc-sat', 'saturation'],
+    ['dmc-rh', 'relative humidity (%)'],
+    ['dmc-wb', `wet-bulb (${displaySymbol(u.temperature)})`],
+    ['dmc-h', `enthalpy (${displaySymbol(u.enthalpy)})`],
+    ['dmc-v', `specific volume (${displaySymbol(u.specificVolume)})`],
+    ['dmc-mixline', 'mixing line'],
+    ['dmc-process', 'process'],
+  ];
+  const out: { cls: string; text: string; x: number; row: number }[] = [];
+  let x = layout.plot.left;
+  let row = 0;
+  for (const [cls, text] of items) {
+    const w = 27 + textWidth(text, 11) * 0.92;
+    if (x + w > layout.plot.right && x > layout.plot.left) {
+      row++;
+      x = layout.plot.left;
+    }
+    out.push({ cls, text, x, row });
+    x += w + 20;
+  }
+  return out;
+}
+
+function legend(ctx: Ctx, y: number): void {
+  ctx.out.push('<g class="dmc-legend-row">');
+  for (const { cls, text, x, row } of legendItems(ctx.layout)) {
+    const yy = y + row * 18;
+    ctx.out.push(`<line class="${cls}" x1="${n(x)}" y1="${n(yy - 4)}" x2="${n(x + 22)}" y2="${n(yy - 4)}"/>`);
+    ctx.out.push(`<text class="dmc-legend" x="${n(x + 27)}" y="${n(yy)}">${escapeXml(text)}</text>`);
+  }
+  ctx.out.push('</g>');
+}
+
+const ALL_FAMILIES: ChartFamilies = { rh: true, wetBulb: true, enthalpy: true, volume: true };
+
+/**
+ * Renders a chart from plain data (SI). Returns one `<svg>` element as text, with its own
+ * stylesheet, `<title>` and `<desc>`. Markers carry `data-name`, `data-kind`, `data-db` (°C) and
+ * `data-w` (kg/kg) so tests and hosts can find them.
+ */
+export function renderChartFromData(data: ChartData, options: ChartOptions = {}): string {
+  const layout = chartLayout(data, options);
+  const id = (options.idPrefix ?? 'dmc').replace(/[^A-Za-z0-9_-]/g, '') || 'dmc';
+  const families = { ...ALL_FAMILIES, ...(options.families ?? {}) };
+  const { plot } = layout;
+  const u = chartUnits(data.units);
+
+  // Caption block below the plot: legend, caption lines, flagged items.
+  const captions = captionLines(data).flatMap((l) => wrap(l, Math.floor((layout.width - plot.left - 20) / 6)));
+  const flags = flagLines(data).flatMap((l) => wrap(l, Math.floor((layout.width - plot.left - 40) / 6)));
+  let y = plot.bottom + 64;
+  const legendY = y;
+  y += 20 + 18 * Math.max(0, ...legendItems(layout).map((i) => i.row));
+  const captionY = y;
+  y += captions.length * 15;
+  const flagsY = y + 6;
+  if (flags.length > 0) y = flagsY + 16 + flags.length * 15;
+  const height = Math.ceil(y + 12);
+  const full: ChartLayout = { ...layout, height };
+
+  const ctx: Ctx = { layout: full, id, out: [] };
+  const out = ctx.out;
+  const title = options.title ?? data.title ?? 'Psychrometric chart';
+  out.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" class="dmc" role="img" aria-labelledby="${id}-title ${id}-desc" width="${full.width}" height="${height}" viewBox="0 0 ${full.width} ${height}" data-pressure-pa="${n(data.pressurePa)}" data-units="${data.units}" data-db-min="${layout.range.dbMin}" data-db-max="${layout.range.dbMax}" data-w-min="${layout.range.wMin}" data-w-max="${layout.range.wMax}" data-plot="${plot.left} ${plot.top} ${plot.right} ${plot.bottom}">`,
+  );
+  out.push(`<title id="${id}-title">${escapeXml(title)}</title>`);
+  out.push(`<desc id="${id}-desc">${escapeXml(describe(data, layout))}</desc>`);
+  out.push(`<style>${chartCss()}</style>`);
+  out.push(`<defs><clipPath id="${id}-clip"><rect x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/></clipPath></defs>`);
+  out.push(`<rect class="dmc-page" x="0" y="0" width="${full.width}" height="${height}"/>`);
+  out.push(`<text class="dmc-heading" x="${n(plot.left)}" y="24">${escapeXml(title)}</text>`);
+  out.push(
+    `<text class="dmc-sub" x="${n(plot.left)}" y="41">${escapeXml(`${formatQuantity(data.pressurePa, 'pressure', data.units).text} \u00b7 ${data.units} \u00b7 dry-bulb against humidity ratio`)}</text>`,
+  );
+  out.push(`<rect class="dmc-panel" x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/>`);
+
+  const sat = saturationCurve(layout);
+  out.push(`<g clip-path="url(#${id}-clip)">`);
+  fogRegion(ctx, sat);
+  out.push('</g>');
+  axes(ctx);
+
+  const vLines = families.volume ? volumeLines(layout) : [];
+  const hLines = families.enthalpy ? enthalpyLines(layout) : [];
+  const wbLines = families.wetBulb ? wetBulbLines(layout) : [];
+  const rh = families.rh ? rhCurves(layout) : [];
+  out.push(`<g class="dmc-lines" clip-path="url(#${id}-clip)">`);
+  drawCurves(ctx, vLines, () => 'dmc-v');
+  drawCurves(ctx, hLines, () => 'dmc-h');
+  drawCurves(ctx, wbLines, () => 'dmc-wb');
+  drawCurves(ctx, rh, (c) => `dmc-rh dmc-rh-${c.value}`);
+  drawCurves(ctx, [sat], () => 'dmc-sat');
+  out.push('</g>');
+
+  // Line labels: rh and saturation at their upper end, wet-bulb at saturation (in the fog
+  // region), enthalpy at their lower-right end, volume above the dry-bulb axis.
+  const taken: Box[] = [];
+  out.push('<g class="dmc-line-labels">');
+  const upperEnd = (c: ChartCurve, text: string, cls: string): void => {
+    const p = lastPoint(c);
+    if (!p) return;
+    if (p.y <= plot.top + 1) {
+      // Exits through the top: beside the curve just below the edge, or further down the curve.
+      for (const q of [p, ...pointsBack(c, [22, 44, 66])]) {
+        if (familyLabel(ctx, taken, text, cls, { x: q.x + 4, y: Math.max(q.y, plot.top) }, 'start', 12)) return;
+      }
+    } else {
+      for (const q of [p, ...pointsBack(c, [30, 60])]) {
+        if (familyLabel(ctx, taken, text, cls, { x: Math.min(q.x, plot.right) - 4, y: q.y }, 'end', -4)) return;
+      }
+    }
+  };
+  upperEnd(sat, '100%', 'dmc-lbl-sat');
+  for (const c of rh) upperEnd(c, `${c.value}%`, 'dmc-lbl-rh');
+  for (const c of wbLines) {
+    const p = firstPoint(c);
+    if (p && p.x > plot.left + 1 && p.y > plot.top + 1) familyLabel(ctx, taken, label(c.value), 'dmc-lbl-wb', { x: p.x - 3, y: p.y }, 'end', -3);
+  }
+  for (const c of hLines) {
+    const p = lastPoint(c);
+    if (!p) continue;
+    if (p.x >= plot.right - 1) familyLabel(ctx, taken, label(c.value), 'dmc-lbl-h', { x: plot.right - 4, y: p.y }, 'end', 12);
+    else if (p.y >= plot.bottom - 1) familyLabel(ctx, taken, label(c.value), 'dmc-lbl-h', { x: p.x + 3, y: plot.bottom }, 'start', -4);
+  }
+  for (const c of vLines) {
+    const p = lastPoint(c);
+    if (p && p.y >= plot.bottom - 1) familyLabel(ctx, taken, label(c.value), 'dmc-lbl-v', { x: p.x - 3, y: plot.bottom }, 'end', -16);
+  }
+  out.push('</g>');
+
+  // Mixing lines, processes, points and their labels.
+  const pos = new Map<string, { p: ChartPoint; px: Pixel }>();
+  for (const p of data.points) {
+    if (!pos.has(p.name)) pos.set(p.name, { p, px: toPixel(layout, p.db, p.w) });
+  }
+  const segments: [Pixel, Pixel][] = [];
+  out.push(`<g class="dmc-overlay" clip-path="url(#${id}-clip)">`);
+  for (const m of data.mixes) {
+    const mixed = pos.get(m.name);
+    const streams = m.streams.map((s) => pos.get(s));
+    if (!mixed || streams.some((s) => !s)) continue;
+    const ends = streams.length === 2 ? [[streams[0]!, streams[1]!]] : streams.map((s) => [s!, mixed]);
+    for (const [a, b] of ends) {
+      const runs = mixingLine(layout, a!.p, b!.p);
+      for (const run of runs) {
+        out.push(`<path class="dmc-mixline" data-mix="${escapeXml(m.name)}" d="${pathOf(run)}"/>`);
+        for (let i = 1; i < run.length; i++) segments.push([run[i - 1]!, run[i]!]);
+      }
+    }
+  }
+  for (const pr of data.processes) {
+    const a = pos.get(pr.from);
+    const b = pos.get(pr.to);
+    if (!a || !b) continue;
+    const dx = b.px.x - a.px.x;
+    const dy = b.px.y - a.px.y;
+    const len = Math.hypot(dx, dy);
+    if (len < 1e-6) continue;
+    const ux = dx / len;
+    const uy = dy / len;
+    const gap = MARKER_RADIUS + 3;
+    const start = len > 2 * gap + 4 ? { x: a.px.x + ux * gap, y: a.px.y + uy * gap } : a.px;
+    const tip = len > 2 * gap + 4 ? { x: b.px.x - ux * gap, y: b.px.y - uy * gap } : b.px;
+    const head = 10;
+    const base = { x: tip.x - ux * head, y: tip.y - uy * head };
+    const flagged = pr.flagged ? ' dmc-flagged' : '';
+    out.push(`<g class="dmc-process-group" data-process="${escapeXml(pr.name)}" data-from="${escapeXml(pr.from)}" data-to="${escapeXml(pr.to)}">`);
+    out.push(`<path class="dmc-process${flagged}" d="M${n(start.x)} ${n(start.y)}L${n(base.x)} ${n(base.y)}"/>`);
+    out.push(
+      `<path class="${pr.flagged ? 'dmc-arrow-flag' : 'dmc-arrow'}" d="M${n(tip.x)} ${n(tip.y)}L${n(base.x - uy * 4.5)} ${n(base.y + ux * 4.5)}L${n(base.x + uy * 4.5)} ${n(base.y - ux * 4.5)}Z"/>`,
+    );
+    const mid = { x: (start.x + tip.x) / 2, y: (start.y + tip.y) / 2 };
+    // Name on the side of the arrow away from the points' label preference (left of travel).
+    const nx = uy;
+    const ny = -ux;
+    out.push(
+      `<text class="dmc-process-name" x="${n(mid.x + nx * 11)}" y="${n(mid.y + ny * 11 + 3)}" text-anchor="middle">${escapeXml(pr.name)}</text>`,
+    );
+    out.push('</g>');
+    segments.push([start, tip]);
+  }
+  out.push('</g>');
+
+  const plotted = [...pos.values()];
+  const tagText = (p: ChartPoint): string => (p.fog ? `${p.name} \u00b7 fog` : p.name);
+  const markers: Box[] = plotted.map(({ px }) => ({ x: px.x - MARKER_RADIUS - 2, y: px.y - MARKER_RADIUS - 2, w: 2 * MARKER_RADIUS + 4, h: 2 * MARKER_RADIUS + 4 }));
+  const placed = placeLabels(
+    plotted.map(({ p, px }) => ({ anchor: px, width: textWidth(tagText(p), 11) + 12, height: 18 })),
+    markers,
+    segments,
+    plot,
+  );
+  out.push('<g class="dmc-points">');
+  plotted.forEach(({ p, px }, i) => {
+    const kind = pointClass(p);
+    const where = positionText(p, data.units);
+    out.push(`<g class="dmc-point" data-name="${escapeXml(p.name)}">`);
+    out.push(`<title>${escapeXml(`${p.kind === 'mix' ? 'mix' : 'state'} ${p.name}: ${where}${p.fog ? ' \u2014 fog region (infeasible as vapour)' : ''}`)}</title>`);
+    const lp = placed[i]!;
+    if (lp.leader) {
+      const bx = Math.max(lp.box.x, Math.min(px.x, lp.box.x + lp.box.w));
+      const by = Math.max(lp.box.y, Math.min(px.y, lp.box.y + lp.box.h));
+      out.push(`<line class="dmc-leader" x1="${n(px.x)}" y1="${n(px.y)}" x2="${n(bx)}" y2="${n(by)}"/>`);
+    }
+    out.push(
+      `<circle class="dmc-marker dmc-marker-${kind}" data-name="${escapeXml(p.name)}" data-kind="${p.kind}"${p.fog ? ' data-infeasible="fog"' : ''} data-db="${p.db}" data-w="${p.w}" cx="${n(px.x)}" cy="${n(px.y)}" r="${MARKER_RADIUS}"/>`,
+    );
+    if (p.fog) {
+      const k = MARKER_RADIUS * 0.6;
+      out.push(`<path class="dmc-fogcross" d="M${n(px.x - k)} ${n(px.y - k)}L${n(px.x + k)} ${n(px.y + k)}M${n(px.x - k)} ${n(px.y + k)}L${n(px.x + k)} ${n(px.y - k)}"/>`);
+    }
+    out.push(
+      `<rect class="dmc-tag${p.kind === 'mix' ? ' dmc-tag-mix' : ''}${p.fog ? ' dmc-tag-fog' : ''}" x="${n(lp.box.x)}" y="${n(lp.box.y)}" width="${n(lp.box.w)}" height="${n(lp.box.h)}" rx="9"/>`,
+    );
+    out.push(
+      `<text class="dmc-tagtext" x="${n(lp.box.x + lp.box.w / 2)}" y="${n(lp.box.y + lp.box.h / 2 + 4)}" text-anchor="middle">${escapeXml(tagText(p))}</text>`,
+    );
+    out.push('</g>');
+  });
+  out.push('</g>');
+
+  legend(ctx, legendY);
+  captions.forEach((line, i) => {
+    out.push(`<text class="dmc-caption" data-caption="${i}" x="${n(plot.left)}" y="${n(captionY + i * 15)}">${escapeXml(line)}</text>`);
+  });
+  if (flags.length > 0) {
+    out.push(`<g class="dmc-flags"><text class="dmc-flag-title" x="${n(plot.left)}" y="${n(flagsY + 4)}">Flagged</text>`);
+    flags.forEach((line, i) => {
+      out.push(`<text class="dmc-flag-item" x="${n(plot.left + 12)}" y="${n(flagsY + 20 + i * 15)}">${escapeXml(line)}</text>`);
+    });
+    out.push('</g>');
+  }
+  void u;
+  out.push('</svg>');
+  return out.join('\n');
+}

@@ -1,0 +1,104 @@
+/**
+ * Dewmark's chart style: a warm paper panel with ink-blue saturation, plum humidity curves, teal
+ * dotted wet-bulb lines, amber dashed enthalpy lines and slate dash-dot volume lines; states are
+ * crimson dots with tag labels. All colours are CSS custom properties (`--dm-chart-*`) so a host
+ * can re-theme the chart (the VS Code webview maps them to its `--vscode-*` variables); a
+ * `prefers-color-scheme: dark` block gives a dark variant.
+ */
+
+/** The custom properties of the light theme (also the fallbacks). */
+export const LIGHT_THEME: Readonly<Record<string, string>> = {
+  '--dm-chart-page': '#f7f4ee',
+  '--dm-chart-panel': '#fffdf8',
+  '--dm-chart-fog': '#ece8f3',
+  '--dm-chart-ink': '#27232e',
+  '--dm-chart-muted': '#6e6877',
+  '--dm-chart-grid': '#e9e3d8',
+  '--dm-chart-sat': '#23408e',
+  '--dm-chart-rh': '#8a4f9e',
+  '--dm-chart-wb': '#1f8a7a',
+  '--dm-chart-h': '#b9770e',
+  '--dm-chart-v': '#5f6f86',
+  '--dm-chart-state': '#c8283f',
+  '--dm-chart-mix': '#7a3fb8',
+  '--dm-chart-process': '#173f73',
+  '--dm-chart-flag': '#d35400',
+  '--dm-chart-tag': '#ffffff',
+};
+
+/** The custom properties of the dark theme. */
+export const DARK_THEME: Readonly<Record<string, string>> = {
+  '--dm-chart-page': '#15151b',
+  '--dm-chart-panel': '#1d1c24',
+  '--dm-chart-fog': '#272536',
+  '--dm-chart-ink': '#ece8f2',
+  '--dm-chart-muted': '#a59fb0',
+  '--dm-chart-grid': '#2d2b37',
+  '--dm-chart-sat': '#8fb0ff',
+  '--dm-chart-rh': '#d49be6',
+  '--dm-chart-wb': '#55cbb8',
+  '--dm-chart-h': '#f2b84b',
+  '--dm-chart-v': '#9fb0c9',
+  '--dm-chart-state': '#ff6f83',
+  '--dm-chart-mix': '#c39bff',
+  '--dm-chart-process': '#9cc7ff',
+  '--dm-chart-flag': '#ff9a4d',
+  '--dm-chart-tag': '#24232d',
+};
+
+function block(vars: Readonly<Record<string, string>>): string {
+  return Object.entries(vars)
+    .map(([k, v]) => `${k}:${v};`)
+    .join('');
+}
+
+/** The stylesheet embedded in the SVG; every selector is scoped to `.dmc`. */
+export function chartCss(): string {
+  const v = (name: string): string => `var(--dm-chart-${name})`;
+  return [
+    `.dmc{${block(LIGHT_THEME)}font-family:"Inter","Noto Sans","DejaVu Sans",system-ui,sans-serif;font-variant-numeric:tabular-nums}`,
+    `@media (prefers-color-scheme:dark){.dmc{${block(DARK_THEME)}}}`,
+    `.dmc .dmc-page{fill:${v('page')}}`,
+    `.dmc .dmc-panel{fill:${v('panel')};stroke:${v('grid')};stroke-width:1}`,
+    `.dmc .dmc-fog{fill:${v('fog')}}`,
+    `.dmc .dmc-grid{stroke:${v('grid')};stroke-width:1;fill:none}`,
+    `.dmc .dmc-axis{stroke:${v('muted')};stroke-width:1.2;fill:none}`,
+    `.dmc text{fill:${v('ink')}}`,
+    `.dmc .dmc-tick{font-size:11px;fill:${v('muted')}}`,
+    `.dmc .dmc-axis-title{font-size:12.5px;font-weight:600;letter-spacing:.03em}`,
+    `.dmc .dmc-heading{font-size:15px;font-weight:650}`,
+    `.dmc .dmc-sub{font-size:11.5px;fill:${v('muted')}}`,
+    `.dmc .dmc-sat{stroke:${v('sat')};stroke-width:2.6;fill:none;stroke-linejoin:round}`,
+    `.dmc .dmc-rh{stroke:${v('rh')};stroke-width:.9;fill:none;opacity:.75}`,
+    `.dmc .dmc-rh.dmc-rh-50{stroke-width:1.5;opacity:.95}`,
+    `.dmc .dmc-wb{stroke:${v('wb')};stroke-width:1.1;fill:none;stroke-dasharray:1.2 3.2;stroke-linecap:round}`,
+    `.dmc .dmc-h{stroke:${v('h')};stroke-width:.85;fill:none;stroke-dasharray:7 4}`,
+    `.dmc .dmc-v{stroke:${v('v')};stroke-width:.85;fill:none;stroke-dasharray:9 3 2 3}`,
+    `.dmc .dmc-lbl{font-size:10px;paint-order:stroke;stroke:${v('panel')};stroke-width:3px;stroke-linejoin:round}`,
+    `.dmc .dmc-lbl-rh{fill:${v('rh')};font-weight:600}`,
+    `.dmc .dmc-lbl-sat{fill:${v('sat')};font-weight:700}`,
+    `.dmc .dmc-lbl-wb{fill:${v('wb')};font-style:italic}`,
+    `.dmc .dmc-lbl-h{fill:${v('h')}}`,
+    `.dmc .dmc-lbl-v{fill:${v('v')}}`,
+    `.dmc .dmc-mixline{stroke:${v('mix')};stroke-width:2;fill:none;stroke-dasharray:5 2.5;stroke-linecap:round}`,
+    `.dmc .dmc-process{stroke:${v('process')};stroke-width:2.4;fill:none;stroke-linecap:round}`,
+    `.dmc .dmc-process.dmc-flagged{stroke:${v('flag')};stroke-dasharray:6 3}`,
+    `.dmc .dmc-arrow{fill:${v('process')}}`,
+    `.dmc .dmc-arrow-flag{fill:${v('flag')}}`,
+    `.dmc .dmc-process-name{font-size:10.5px;font-style:italic;fill:${v('process')};paint-order:stroke;stroke:${v('panel')};stroke-width:3px}`,
+    `.dmc .dmc-marker{stroke:${v('tag')};stroke-width:1.6}`,
+    `.dmc .dmc-marker-state{fill:${v('state')}}`,
+    `.dmc .dmc-marker-mix{fill:${v('mix')}}`,
+    `.dmc .dmc-marker-fog{fill:${v('panel')};stroke:${v('flag')};stroke-width:2;stroke-dasharray:2 1.5}`,
+    `.dmc .dmc-fogcross{stroke:${v('flag')};stroke-width:1.6}`,
+    `.dmc .dmc-tag{fill:${v('tag')};stroke:${v('state')};stroke-width:1;opacity:.96}`,
+    `.dmc .dmc-tag-mix{stroke:${v('mix')}}`,
+    `.dmc .dmc-tag-fog{stroke:${v('flag')};stroke-dasharray:3 2}`,
+    `.dmc .dmc-tagtext{font-size:11px;font-weight:650}`,
+    `.dmc .dmc-leader{stroke:${v('muted')};stroke-width:.8}`,
+    `.dmc .dmc-legend{font-size:11px;fill:${v('muted')}}`,
+    `.dmc .dmc-caption{font-size:11px;fill:${v('muted')}}`,
+    `.dmc .dmc-flag-title{font-size:11.5px;font-weight:650;fill:${v('flag')}}`,
+    `.dmc .dmc-flag-item{font-size:11px}`,
+  ].join('\n');
+}
