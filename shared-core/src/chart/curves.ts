@@ -216,7 +216,7 @@ export function familySteps(layout: ChartLayout): { wetBulb: number; enthalpy: n
   return {
     wetBulb: niceStep(tSpan, 11),
     enthalpy: niceStep(hSpan, 14),
-    volume: niceStep(vSpan, 9, false),
+    volume: niceStep(vSpan, 12, false),
   };
 }
 

@@ -41,8 +41,17 @@ function label(x: number): string {
   return s.startsWith('-') ? `\u2212${s.slice(1)}` : s;
 }
 
+/** A polyline as path data; vertices closer than 0.3 px to the previous one are dropped (the last is kept). */
 function pathOf(run: Pixel[]): string {
-  return run.map((p, i) => `${i === 0 ? 'M' : 'L'}${n(p.x)} ${n(p.y)}`).join('');
+  const kept: Pixel[] = [];
+  for (const p of run) {
+    const last = kept[kept.length - 1];
+    if (!last || Math.hypot(p.x - last.x, p.y - last.y) >= 0.3) kept.push(p);
+  }
+  const end = run[run.length - 1];
+  if (end && kept.length > 1 && kept[kept.length - 1] !== end) kept[kept.length - 1] = end;
+  else if (end && kept.length === 1 && run.length > 1) kept.push(end);
+  return kept.map((p, i) => `${i === 0 ? 'M' : 'L'}${n(p.x)} ${n(p.y)}`).join('');
 }
 
 interface Ctx {
