@@ -3,7 +3,6 @@
  * statement is evaluated inside a guard, and a failure becomes a diagnostic on that statement.
  */
 import type { CoreDiagnostic, ParsedNote, Statement } from '../notation/ast';
-import { parseNote } from '../notation/parse';
 import type { Analysis, EvaluateSettings, EvaluatedItem } from './types';
 import { EvalContext, type NameDef } from './context';
 import { SITE_KEYS } from './keys';
@@ -139,9 +138,4 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
     references: ctx.references,
     diagnostics,
   };
-}
-
-/** Parses a Markdown note and evaluates it (`parseNote` + {@link evaluate}). */
-export function analyzeNote(text: string, settings?: Partial<EvaluateSettings>): Analysis {
-  return evaluate(parseNote(text), settings, text);
 }

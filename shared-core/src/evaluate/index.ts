@@ -1,5 +1,6 @@
 /** The evaluator's public surface. */
-export { evaluate, analyzeNote } from './evaluate';
+export { evaluate } from './evaluate';
+export { analyzeNote } from './analyze';
 export { DEFAULT_SETTINGS, STANDARD_PRESSURE_PA, resolveSettings } from './settings';
 export { STATE_KEYS, SITE_KEYS, MIX_KEYS, PROCESS_KEYS, DEFINING_KEYS } from './keys';
 export type { KeySpec } from './keys';

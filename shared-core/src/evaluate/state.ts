@@ -157,7 +157,21 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
       return result;
     }
     if (!allFinite(solved.state)) {
-      ctx.report({ code: 'no-solution', severity: 'error', message: `${what}: the engine returned no finite state for ${writtenList([a, b])}; check the figures`, span: spanOf(spansByKey, [a, b]) });
+      // A property without a finite value (bone-dry air has no dew point; air above the boiling
+      // point cannot be saturated): the engine explains it in a warning, reported here as the error.
+      const why = solved.warnings.filter((w) => w.code === 'out-of-range' || w.code === 'pressure-below-saturation');
+      if (why.length > 0) {
+        for (const w of why) {
+          ctx.report({
+            code: w.code,
+            severity: 'error',
+            message: `${what}: ${w.message} A state needs every property finite; give a humidity ratio above zero, or a dry-bulb below the boiling point at this pressure`,
+            span: spanOf(spansByKey, [a, b]),
+          });
+        }
+      } else {
+        ctx.report({ code: 'out-of-range', severity: 'error', message: `${what}: ${writtenList([a, b])} give a state with a property that has no finite value; check the figures`, span: spanOf(spansByKey, [a, b]) });
+      }
       return result;
     }
     result.state = solved.state;

@@ -1,0 +1,250 @@
+/** What `dewmark` prints: diagnostic lines, the JSON documents, and the terminal tables. */
+import type { Analysis, CoreDiagnostic, Dimension, ProcessResult, StateResult, UnitSystem } from './core';
+import { LineIndex, displaySymbol, displayUnit, formatQuantity } from './core';
+
+/** One checked or evaluated file. */
+export interface FileResult {
+  path: string;
+  text: string;
+  analysis: Analysis;
+  lines: LineIndex;
+}
+
+/** A diagnostic with 1-based positions (end exclusive), as printed and as in the JSON. */
+export interface DiagnosticJson {
+  line: number;
+  column: number;
+  endLine: number;
+  endColumn: number;
+  severity: CoreDiagnostic['severity'];
+  code: string;
+  message: string;
+}
+
+/** Builds a {@link FileResult}. */
+export function fileResult(path: string, text: string, analysis: Analysis): FileResult {
+  return { path, text, analysis, lines: new LineIndex(text) };
+}
+
+/** The diagnostic with 1-based line/column positions. */
+export function diagnosticJson(f: FileResult, d: CoreDiagnostic): DiagnosticJson {
+  const a = f.lines.lineCol(Math.max(0, Math.min(d.span.start, f.text.length)));
+  const b = f.lines.lineCol(Math.max(0, Math.min(d.span.end, f.text.length)));
+  return { line: a.line, column: a.column, endLine: b.line, endColumn: b.column, severity: d.severity, code: d.code, message: d.message };
+}
+
+/** `path:line:col: severity[code]: message` (the form CI problem matchers read). */
+export function diagnosticLine(f: FileResult, d: CoreDiagnostic): string {
+  const j = diagnosticJson(f, d);
+  return `${f.path}:${j.line}:${j.column}: ${j.severity}[${j.code}]: ${j.message.replace(/\s*\n\s*/g, ' ')}`;
+}
+
+/** Counts of diagnostics by severity. */
+export interface Counts {
+  errors: number;
+  warnings: number;
+  infos: number;
+}
+
+/** Counts the diagnostics of some files. */
+export function countDiagnostics(files: FileResult[]): Counts {
+  const c: Counts = { errors: 0, warnings: 0, infos: 0 };
+  for (const f of files) {
+    for (const d of f.analysis.diagnostics) {
+      if (d.severity === 'error') c.errors++;
+      else if (d.severity === 'warning') c.warnings++;
+      else c.infos++;
+    }
+  }
+  return c;
+}
+
+const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
+
+/** `3 files, 2 errors, 1 warning` (infos and unreadable files only when there are some). */
+export function summaryLine(files: number, c: Counts, unreadable = 0): string {
+  const parts = [plural(files, 'file'), plural(c.errors, 'error'), plural(c.warnings, 'warning')];
+  if (c.infos > 0) parts.push(plural(c.infos, 'info'));
+  if (unreadable > 0) parts.push(`${unreadable} could not be read`);
+  return parts.join(', ');
+}
+
+/** Rounds to `decimals` places; null stays null (never NaN or Infinity in the JSON). */
+function r(x: number | null | undefined, decimals: number): number | null {
+  if (x === null || x === undefined || !Number.isFinite(x)) return null;
+  const f = 10 ** decimals;
+  const v = Math.round(x * f) / f;
+  return Object.is(v, -0) ? 0 : v;
+}
+
+function lineOf(f: FileResult, item: StateResult | ProcessResult): number {
+  const s = item.statement.name?.span ?? item.statement.span;
+  return f.lines.lineCol(s.start).line;
+}
+
+/** A state or mix in the JSON shape of the notation's machine-readable output (SI, as the key names). */
+export function stateJson(f: FileResult, s: StateResult): Record<string, unknown> {
+  const st = s.state;
+  const out: Record<string, unknown> = {
+    name: s.name,
+    line: lineOf(f, s),
+    kind: s.kind,
+    ok: st !== null,
+    p_kPa: r(s.pressure.pa / 1000, 4),
+    db_C: r(st?.db, 3),
+    wb_C: r(st?.wb, 3),
+    dp_C: r(st?.dp, 3),
+    rh_pct: r(st ? st.rh * 100 : null, 3),
+    w_kgkg: r(st?.w, 7),
+    h_kJkg: r(st ? st.h / 1000 : null, 3),
+    v_m3kg: r(st?.v, 5),
+    rho_kgm3: r(st?.rho, 5),
+    defining: [...s.defining],
+    pressure: s.pressure.describe,
+  };
+  if (s.kind === 'mix') {
+    out.streams = (s.streams ?? []).map((x) => ({ name: x.name, fraction: r(x.fraction, 6), m_kgs: r(x.massFlowKgS, 6) }));
+    out.m_kgs = r(s.massFlowKgS ?? null, 6);
+  }
+  if (s.claims.length > 0) out.claims = s.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
+  return out;
+}
+
+/** A process in the JSON shape (heat rates in kW and water in kg/h, positive = added to the air). */
+export function processJson(f: FileResult, p: ProcessResult): Record<string, unknown> {
+  const out: Record<string, unknown> = {
+    name: p.name,
+    line: lineOf(f, p),
+    kind: p.processKind,
+    from: p.from,
+    to: p.to,
+    m_kgs: r(p.massFlowKgS, 5),
+    q_total_kW: r(p.qTotalW === null ? null : p.qTotalW / 1000, 3),
+    q_sensible_kW: r(p.qSensibleW === null ? null : p.qSensibleW / 1000, 3),
+    q_latent_kW: r(p.qLatentW === null ? null : p.qLatentW / 1000, 3),
+    shr: r(p.shr, 4),
+    water_kgh: r(p.waterKgS === null ? null : p.waterKgS * 3600, 3),
+    q_coil_kW: r(p.qCoilW === null ? null : p.qCoilW / 1000, 3),
+    v_m3s: r(p.volumeFlowM3S, 5),
+    dh_kJkg: r(p.dhTotal / 1000, 4),
+    dw_kgkg: r(p.dw, 7),
+    adp_C: r(p.apparatusDewPointC ?? null, 2),
+  };
+  if (p.claims.length > 0) out.claims = p.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
+  return out;
+}
+
+/** One file of the `eval --format json` document. */
+export function evalFileJson(f: FileResult): Record<string, unknown> {
+  const states: Record<string, unknown>[] = [];
+  const processes: Record<string, unknown>[] = [];
+  for (const item of f.analysis.items) {
+    if (item.kind === 'process') processes.push(processJson(f, item));
+    else states.push(stateJson(f, item));
+  }
+  return {
+    path: f.path,
+    units: f.analysis.units,
+    states,
+    processes,
+    diagnostics: f.analysis.diagnostics.map((d) => diagnosticJson(f, d)),
+  };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Tables
+// ---------------------------------------------------------------------------------------------
+
+/** Lays out rows as aligned columns (numbers right-aligned). */
+export function renderTable(header: string[], rows: string[][], numeric: boolean[]): string {
+  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((row) => (row[i] ?? '').length)));
+  const fmt = (cells: string[]) =>
+    cells
+      .map((c, i) => (numeric[i] ? c.padStart(widths[i]!) : c.padEnd(widths[i]!)))
+      .join('  ')
+      .replace(/\s+$/, '');
+  return [fmt(header), widths.map((w) => '-'.repeat(w)).join('  '), ...rows.map(fmt)].join('\n');
+}
+
+function q(si: number | null | undefined, dim: Dimension, sys: UnitSystem, digits?: number): string {
+  if (si === null || si === undefined || !Number.isFinite(si)) return '—';
+  return formatQuantity(si, dim, sys, digits === undefined ? {} : { digits }).valueText;
+}
+
+function sym(dim: Dimension, sys: UnitSystem): string {
+  return displaySymbol(displayUnit(dim, sys));
+}
+
+/** The states and mixes of a file as a table in the note's unit system. */
+export function statesTable(f: FileResult): string | null {
+  const sys = f.analysis.units;
+  const states = f.analysis.items.filter((i): i is StateResult => i.kind !== 'process');
+  if (states.length === 0) return null;
+  const header = [
+    'name',
+    'line',
+    'kind',
+    `p ${sym('pressure', sys)}`,
+    `db ${sym('temperature', sys)}`,
+    `wb ${sym('temperature', sys)}`,
+    `dp ${sym('temperature', sys)}`,
+    'rh %',
+    `w ${sym('humidityRatio', sys)}`,
+    `h ${sym('enthalpy', sys)}`,
+    `v ${sym('specificVolume', sys)}`,
+    'from',
+  ];
+  const rows = states.map((s) => {
+    const st = s.state;
+    return [
+      s.name,
+      String(lineOf(f, s)),
+      s.kind,
+      q(s.pressure.pa, 'pressure', sys),
+      q(st?.db, 'temperature', sys),
+      q(st?.wb, 'temperature', sys),
+      q(st?.dp, 'temperature', sys),
+      q(st?.rh, 'fraction', sys),
+      q(st?.w, 'humidityRatio', sys),
+      q(st?.h, 'enthalpy', sys),
+      q(st?.v, 'specificVolume', sys),
+      st === null ? 'not computed (see diagnostics)' : s.kind === 'mix' ? (s.streams ?? []).map((x) => `${x.name} ${(x.fraction * 100).toFixed(1)}%`).join(' + ') : s.defining.join('+'),
+    ];
+  });
+  return renderTable(header, rows, [false, true, false, true, true, true, true, true, true, true, true, false]);
+}
+
+/** The processes of a file as a table in the note's unit system. */
+export function processesTable(f: FileResult): string | null {
+  const sys = f.analysis.units;
+  const procs = f.analysis.items.filter((i): i is ProcessResult => i.kind === 'process');
+  if (procs.length === 0) return null;
+  const power = sym('power', sys);
+  const header = [
+    'name',
+    'line',
+    'path',
+    'kind',
+    `m ${sym('massFlow', sys)}`,
+    `total ${power}`,
+    `sensible ${power}`,
+    `latent ${power}`,
+    'SHR',
+    `water ${sys === 'SI' ? 'kg/h' : 'lb/h'}`,
+    `coil ${power}`,
+  ];
+  const rows = procs.map((p) => [
+    p.name,
+    String(lineOf(f, p)),
+    `${p.from} -> ${p.to}`,
+    p.processKind ?? '—',
+    q(p.massFlowKgS, 'massFlow', sys),
+    q(p.qTotalW, 'power', sys),
+    q(p.qSensibleW, 'power', sys),
+    q(p.qLatentW, 'power', sys),
+    p.shr === null || !Number.isFinite(p.shr) ? '—' : p.shr.toFixed(2),
+    p.waterKgS === null ? '—' : sys === 'SI' ? (p.waterKgS * 3600).toFixed(1) : q(p.waterKgS, 'massFlow', 'IP'),
+    q(p.qCoilW, 'power', sys),
+  ]);
+  return renderTable(header, rows, [false, true, false, false, true, true, true, true, true, true, true]);
+}
