@@ -1,0 +1,109 @@
+/**
+ * The extension in a real VS Code (code-server 4.139 = VS Code 1.139, in headless Chromium): the
+ * packaged .vsix is installed into a fresh profile, the fixture note is opened, and the checks are
+ * on what a user sees — the inline hint's figures, the hover's property table, a squiggle and a
+ * Problems row for an infeasible state, a quick fix applied and the saved text afterwards, the
+ * status-bar item, and a palette command. Screenshots go to test-artifacts/code-server/dewmark/.
+ *
+ * Expected figures: ASHRAE HoF 2017 SI Ch.1 Example 1 (copied with tolerances in
+ * test/fixtures/e2e/expected.ts). Every wait is on a condition. Without the tools (scripts/
+ * setup-e2e-tools.sh) the suite is skipped with a message; under CI=true it fails instead.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { EXAMPLE_1, FIXTURE_NOTE, INFEASIBLE, checkExample1, readFigure } from '../fixtures/e2e/expected';
+import { startSession, type CodeServerSession } from './lib/codeServer';
+import { REPO_ROOT, skipWithout } from './lib/tools';
+
+const fixtureText = readFileSync(join(REPO_ROOT, 'test', 'fixtures', 'e2e', FIXTURE_NOTE), 'utf8');
+const skip = skipWithout('node24', 'code-server', 'chromium', 'playwright-core');
+
+describe.skipIf(skip)('Dewmark extension in code-server', () => {
+  let session: CodeServerSession;
+  let work: string;
+  let marker: string;
+  const t0 = Date.now();
+
+  beforeAll(async () => {
+    work = mkdtempSync(join(tmpdir(), 'dewmark-vsix-'));
+    const vsix = join(work, 'dewmark-e2e.vsix');
+    // The same packaging a user's .vsix gets: build, then vsce with .vscodeignore.
+    const r = spawnSync(process.execPath, [join(REPO_ROOT, 'client', 'package-vsix.mjs'), '--out', vsix], { cwd: REPO_ROOT, encoding: 'utf8', timeout: 180_000 });
+    if (r.status !== 0 || !existsSync(vsix)) throw new Error(`npm run package failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
+    console.log(`[e2e] packaged ${vsix}: ${(statSync(vsix).size / 1024).toFixed(1)} KiB`);
+    marker = join(work, 'activation.json');
+    session = await startSession(
+      { extensions: [vsix], files: { [FIXTURE_NOTE]: fixtureText }, env: { DEWMARK_ACTIVATION_MARKER: marker } },
+      { name: 'dewmark', timeoutMs: 45_000 },
+    );
+    await session.workbench.openFile(FIXTURE_NOTE);
+  }, 300_000);
+
+  afterAll(async () => {
+    await session?.close();
+    if (work) rmSync(work, { recursive: true, force: true });
+    console.log(`[e2e] code-server suite wall time ${((Date.now() - t0) / 1000).toFixed(1)} s`);
+  });
+
+  it(`shows an inline hint with the computed values (${EXAMPLE_1.source})`, async () => {
+    const wb = session.workbench;
+    const line = await wb.waitForEditorLine(new RegExp(`^${EXAMPLE_1.line}.*\\brh \\d`), { timeoutMs: 60_000 });
+    await wb.screenshot('hint');
+    const hint = line.slice(line.indexOf('#'));
+    expect(checkExample1(hint), `editor line: ${line}`).toEqual([]);
+    // The extension activated in this profile and wrote its timing marker.
+    const timing = JSON.parse(readFileSync(marker, 'utf8')) as { activateMs: number };
+    expect(timing.activateMs).toBeGreaterThan(0);
+    console.log(`[e2e] activate() took ${timing.activateMs.toFixed(1)} ms in code-server`);
+  }, 90_000);
+
+  it('shows a hover with the property table, the pressure basis and the method', async () => {
+    const wb = session.workbench;
+    const text = await wb.hover('OA', { line: 'state OA', expect: 'humidity ratio' });
+    await wb.screenshot('hover');
+    for (const part of ['state OA', 'dry-bulb', 'wet-bulb', 'dew point', 'relative humidity', 'enthalpy', 'specific volume', 'Pressure: 101.325 kPa', 'Method: ASHRAE']) {
+      expect(text, `hover text: ${text}`).toContain(part);
+    }
+    // The table's humidity ratio, read as shown, is the source value (ASHRAE HoF 2017 SI Ch.1 Example 1).
+    const row = /humidity ratio\s+w\s+(\d+(?:\.\d+)?)\s*g\/kg/.exec(text);
+    expect(row, `a humidity-ratio row in g/kg in: ${text}`).not.toBeNull();
+    const w = readFigure(`w ${row![1]} g/kg`, 'w', 'g/kg')!;
+    expect(Math.abs(w.value - EXAMPLE_1.w.value)).toBeLessThanOrEqual(EXAMPLE_1.w.tol + w.halfStep + 1e-9);
+  }, 90_000);
+
+  it('marks the infeasible state with a squiggle and a Problems entry', async () => {
+    const wb = session.workbench;
+    const squiggle = await wb.waitForSquiggle('error', { line: INFEASIBLE.before });
+    expect(squiggle.line).toContain(INFEASIBLE.before);
+    const rows = await wb.waitForProblem(INFEASIBLE.code);
+    const row = rows.find((r) => r.text.includes(INFEASIBLE.code) || r.ariaLabel.includes(INFEASIBLE.code))!;
+    expect(row.severity).toBe('error');
+    expect(`${row.text} ${row.ariaLabel}`).toMatch(/wet-bulb/i);
+    await wb.screenshot('problems');
+  }, 90_000);
+
+  it('applies the quick fix, and the saved note is correct afterwards', async () => {
+    const wb = session.workbench;
+    await wb.applyQuickFix(INFEASIBLE.fixTitle, { word: 'wb', line: INFEASIBLE.before });
+    await wb.waitForEditorLine(INFEASIBLE.after);
+    const saved = await wb.saveAndRead(FIXTURE_NOTE);
+    expect(saved).toBe(fixtureText.replace(INFEASIBLE.before, INFEASIBLE.after));
+    await wb.waitFor('the squiggle to go after the fix', async () => !(await wb.squiggles()).some((s) => s.severity === 'error'));
+    await wb.screenshot('after-fix');
+  }, 90_000);
+
+  it('shows the unit system and pressure basis in the status bar, and switches units from the palette', async () => {
+    const wb = session.workbench;
+    await wb.waitFor('the Dewmark status-bar item', async () => (await wb.statusBar()).find((t) => t.includes('SI · 101.325 kPa')));
+    await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
+    const line = await wb.waitForEditorLine(new RegExp(`^${EXAMPLE_1.line}.*°F`));
+    expect(line).not.toContain('°C');
+    await wb.waitFor('the status bar to say IP', async () => (await wb.statusBar()).find((t) => t.includes('IP ·')));
+    await wb.screenshot('ip-units');
+    await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
+    await wb.waitForEditorLine(new RegExp(`^${EXAMPLE_1.line}.*°C`));
+  }, 90_000);
+});
