@@ -11,6 +11,7 @@ import type {
   Statement,
   UnitNode,
 } from '../notation/ast';
+import { LineIndex } from '../text/lineIndex';
 import type { Span } from '../text/types';
 import { toEvaluateSettings } from './settings';
 import type { Note, ServiceSettings } from './types';
@@ -166,9 +167,7 @@ export function lineStart(text: string, offset: number): number {
   return text.lastIndexOf('\n', offset - 1) + 1;
 }
 
-/** The 1-based line number of `offset` (for messages; counts `\n`). */
+/** The 1-based line number of `offset` (for messages). */
 export function lineNumber(text: string, offset: number): number {
-  let n = 1;
-  for (let i = text.indexOf('\n'); i >= 0 && i < offset; i = text.indexOf('\n', i + 1)) n++;
-  return n;
+  return new LineIndex(text).lineCol(offset).line;
 }
