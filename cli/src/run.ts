@@ -8,6 +8,8 @@ import { STDIN_PATH, collectInputs, decodeText, readInput, readStdin } from './f
 import type { FileResult } from './output';
 import { countDiagnostics, diagnosticJson, diagnosticLine, evalFileJson, fileResult, processesTable, statesTable, summaryLine } from './output';
 import { UsageError, toSettings, type RawEvalOptions } from './settings';
+import { registerChart } from './commands/chart';
+import { registerReport } from './commands/report';
 
 declare const __DEWMARK_VERSION__: string | undefined;
 
@@ -163,6 +165,8 @@ function program(io: CliIO, onResult: (code: number) => void): Command {
       .option('--format <format>', 'table or json', 'table'),
   ).action(async (paths: string[], opts: CommonOptions) => onResult(await runEvalCommand(paths, opts, io)));
 
+  registerReport(prog, io, onResult, addCommon, VERSION);
+  registerChart(prog, io, onResult, addCommon);
   for (const c of prog.commands) c.exitOverride().configureOutput({ writeOut: (s) => io.out(s), writeErr: (s) => io.err(s) }).showHelpAfterError(`(run dewmark ${c.name()} --help for its options)`).showSuggestionAfterError(true);
   return prog;
 }

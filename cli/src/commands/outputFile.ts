@@ -1,0 +1,90 @@
+/**
+ * What the `report` and `chart` commands share: reading exactly one note, and writing exactly the
+ * output path given — never the note itself, never a Markdown file.
+ */
+import { statSync, writeFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { analyzeNote, type Analysis } from '../core';
+import { STDIN_PATH, collectInputs, decodeText, readInput } from '../files';
+import type { CliIO } from '../run';
+import { UsageError, toSettings, type RawEvalOptions } from '../settings';
+
+/** One note read and analysed. */
+export interface AnalysedNote {
+  /** Path as shown to the user (or `<stdin>`). */
+  path: string;
+  /** Absolute path, null for standard input. */
+  abs: string | null;
+  text: string;
+  analysis: Analysis;
+}
+
+/** Options every file-writing command takes. */
+export interface WriteOptions extends RawEvalOptions {
+  output?: string;
+  gitignore?: boolean;
+}
+
+/** Markdown endings that a generated file must never be written to. */
+const MARKDOWN = /\.(md|markdown|mdown|mkd|mkdn)$/i;
+
+/**
+ * Checks the output path against the input: refuses a missing `-o`, the note itself (same path,
+ * or the same file through a link), and any Markdown file. Throws {@link UsageError} (exit 2).
+ */
+export function checkOutputPath(output: string | undefined, input: { abs: string | null; path: string }, cwd: string, what: string, example: string): string {
+  if (output === undefined || output.trim() === '') {
+    throw new UsageError(`say where to write the ${what} with -o, e.g. ${example}`);
+  }
+  const abs = resolve(cwd, output);
+  if (input.abs !== null) {
+    let same = abs === input.abs;
+    if (!same) {
+      try {
+        const a = statSync(abs);
+        const b = statSync(input.abs);
+        same = a.dev === b.dev && a.ino === b.ino;
+      } catch {
+        // the output does not exist yet: it cannot be the note
+      }
+    }
+    if (same) throw new UsageError(`refusing to write the ${what} over the note '${input.path}' itself; give another path with -o, e.g. ${example}`);
+  }
+  if (MARKDOWN.test(abs)) {
+    throw new UsageError(`refusing to write the ${what} to '${output}': it is a Markdown file name, and dewmark never overwrites notes; use a name such as ${example}`);
+  }
+  return abs;
+}
+
+/** Reads exactly one note (a file or `-` for standard input) and analyses it; throws {@link UsageError}. */
+export async function readOneNote(paths: string[], opts: WriteOptions, io: CliIO, command: string): Promise<AnalysedNote> {
+  if (paths.length !== 1) {
+    throw new UsageError(`${command} takes exactly one note (got ${paths.length === 0 ? 'none' : paths.length}), e.g. dewmark ${command} notes/ahu.md -o …`);
+  }
+  const settings = toSettings(opts);
+  const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false });
+  if (problems.length > 0) throw new UsageError(problems.map((p) => p.message).join('; '));
+  if (inputs.length !== 1) {
+    throw new UsageError(`${command} takes exactly one note, but '${paths[0]}' names ${inputs.length === 0 ? 'no Markdown file' : `${inputs.length} files`}; name one file`);
+  }
+  const input = inputs[0]!;
+  const read = input.abs === null ? decodeText(await io.stdin(), STDIN_PATH) : readInput(input);
+  if (!read.ok) throw new UsageError(read.message);
+  return { path: input.display, abs: input.abs, text: read.text, analysis: analyzeNote(read.text, settings) };
+}
+
+/** Writes `content` to `abs` (UTF-8); an I/O failure is a {@link UsageError} with the reason. */
+export function writeOutput(abs: string, shown: string, content: string): void {
+  try {
+    writeFileSync(abs, content, 'utf8');
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    const why = code === 'ENOENT' ? 'its folder does not exist' : code === 'EACCES' ? 'permission denied' : code === 'EISDIR' ? 'it is a folder' : (err as Error).message;
+    throw new UsageError(`cannot write '${shown}': ${why}`);
+  }
+}
+
+/** Exit code after a file was written: 1 when the note has errors (the file is still written), else 0. */
+export function exitCodeOf(analysis: Analysis): number {
+  return analysis.diagnostics.some((d) => d.severity === 'error') ? 1 : 0;
+}
