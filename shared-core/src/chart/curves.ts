@@ -214,7 +214,7 @@ export function familySteps(layout: ChartLayout): { wetBulb: number; enthalpy: n
   const v1 = volumeOf(dbMax, wMax, layout.pressurePa) ?? v0 + 0.1;
   const vSpan = Math.abs(fromSI(v1, u.specificVolume) - fromSI(v0, u.specificVolume));
   return {
-    wetBulb: niceStep(tSpan, 11),
+    wetBulb: niceStep(tSpan, 14, false),
     enthalpy: niceStep(hSpan, 14),
     volume: niceStep(vSpan, 12, false),
   };

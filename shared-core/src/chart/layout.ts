@@ -88,8 +88,8 @@ export function fitRange(data: ChartData, fixed: Partial<ChartRange> = {}): Char
     const minS = Math.min(...dbDisp);
     const maxS = Math.max(...dbDisp);
     // Shrink the default towards the states when they sit well inside it, but keep a minimum span.
-    lo = Math.min(minS - d.dbPad, Math.max(d.dbLo, maxS + d.dbPad - d.dbMinSpan * 2));
-    hi = Math.max(maxS + d.dbPad, Math.min(d.dbHi, lo + d.dbMinSpan * 2));
+    lo = Math.min(minS - d.dbPad, Math.max(d.dbLo, maxS + d.dbPad - d.dbMinSpan * 1.5));
+    hi = Math.max(maxS + d.dbPad, Math.min(d.dbHi, lo + d.dbMinSpan * 1.5));
     if (hi - lo < d.dbMinSpan) hi = lo + d.dbMinSpan;
   }
   const dbStep = niceStep(hi - lo, 10);

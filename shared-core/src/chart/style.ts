@@ -21,7 +21,7 @@ export const LIGHT_THEME: Readonly<Record<string, string>> = {
   '--dm-chart-v': '#5f6f86',
   '--dm-chart-state': '#c8283f',
   '--dm-chart-mix': '#7a3fb8',
-  '--dm-chart-process': '#173f73',
+  '--dm-chart-process': '#1d1a22',
   '--dm-chart-flag': '#d35400',
   '--dm-chart-tag': '#ffffff',
 };
@@ -41,7 +41,7 @@ export const DARK_THEME: Readonly<Record<string, string>> = {
   '--dm-chart-v': '#9fb0c9',
   '--dm-chart-state': '#ff6f83',
   '--dm-chart-mix': '#c39bff',
-  '--dm-chart-process': '#9cc7ff',
+  '--dm-chart-process': '#f3f0fa',
   '--dm-chart-flag': '#ff9a4d',
   '--dm-chart-tag': '#24232d',
 };
