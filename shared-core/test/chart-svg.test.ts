@@ -163,11 +163,14 @@ describe('caption and theming', () => {
     expect(svg).toContain('ASHRAE Handbook—Fundamentals Ch. 1');
   });
 
-  it('styles with custom properties and has a dark variant under prefers-color-scheme', () => {
+  it('styles with custom properties a host can override, and has a dark variant under prefers-color-scheme', () => {
     const svg = renderChartFromData(typical);
-    expect(svg).toContain('--dm-chart-sat:');
-    expect(svg).toMatch(/@media \(prefers-color-scheme:dark\)\{\.dmc\{[^}]*--dm-chart-panel:/);
-    expect(svg).toContain('stroke:var(--dm-chart-sat)');
+    // Internal defaults are set on the chart; the public --dm-chart-* names are only read, so an
+    // ancestor's value (a VS Code webview's theme mapping) wins.
+    expect(svg).toContain('--dmc-sat:');
+    expect(svg).not.toMatch(/--dm-chart-[a-z]+:/);
+    expect(svg).toMatch(/@media \(prefers-color-scheme:dark\)\{\.dmc\{[^}]*--dmc-panel:/);
+    expect(svg).toContain('stroke:var(--dm-chart-sat,var(--dmc-sat))');
   });
 
   it('escapes names and titles', () => {

@@ -1,9 +1,12 @@
 /**
  * Dewmark's chart style: a warm paper panel with ink-blue saturation, plum humidity curves, teal
  * dotted wet-bulb lines, amber dashed enthalpy lines and slate dash-dot volume lines; states are
- * crimson dots with tag labels. All colours are CSS custom properties (`--dm-chart-*`) so a host
- * can re-theme the chart (the VS Code webview maps them to its `--vscode-*` variables); a
- * `prefers-color-scheme: dark` block gives a dark variant.
+ * crimson dots with tag labels, processes ink arrows.
+ *
+ * Theming: every colour is read as `var(--dm-chart-NAME, var(--dmc-NAME))`. The chart sets only
+ * the internal defaults `--dmc-*` (light, and dark under `prefers-color-scheme: dark`), so a host
+ * page overrides any colour by setting the public `--dm-chart-*` property on an ancestor — the VS
+ * Code webview maps them to its `--vscode-*` variables that way.
  */
 
 /** The custom properties of the light theme (also the fallbacks). */
@@ -46,15 +49,16 @@ export const DARK_THEME: Readonly<Record<string, string>> = {
   '--dm-chart-tag': '#24232d',
 };
 
+/** The theme as declarations of the internal defaults (`--dm-chart-ink` → `--dmc-ink`). */
 function block(vars: Readonly<Record<string, string>>): string {
   return Object.entries(vars)
-    .map(([k, v]) => `${k}:${v};`)
+    .map(([k, v]) => `${k.replace('--dm-chart-', '--dmc-')}:${v};`)
     .join('');
 }
 
 /** The stylesheet embedded in the SVG; every selector is scoped to `.dmc`. */
 export function chartCss(): string {
-  const v = (name: string): string => `var(--dm-chart-${name})`;
+  const v = (name: string): string => `var(--dm-chart-${name},var(--dmc-${name}))`;
   return [
     `.dmc{${block(LIGHT_THEME)}font-family:"Inter","Noto Sans","DejaVu Sans",system-ui,sans-serif;font-variant-numeric:tabular-nums}`,
     `@media (prefers-color-scheme:dark){.dmc{${block(DARK_THEME)}}}`,
