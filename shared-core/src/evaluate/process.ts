@@ -32,7 +32,7 @@ const CP_VAPOUR = 1860;
 const DT_STILL = 0.05;
 /** Below this |ΔW| the moisture is taken as unchanged, kg/kg (0.01 g/kg: the display step). */
 const DW_STILL = 1e-5;
-/** Below this |Δh| the SHR is not defined, J/kg. */
+/** Below this |Δh| the SHR is not defined, J/kg (one hundredth of a kJ/kg). */
 const DH_STILL = 10;
 /** Tolerance for reaching the saturation curve along the coil line, kg/kg. */
 const SAT_SLACK = 2e-5;
@@ -182,7 +182,9 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
   const hWater = waterEnthalpy(b.db, dw > 0);
   const coilPerKg = total - dw * hWater;
   const kind = processKindOf(a, b, coilPerKg, sensible);
-  const shr = Math.abs(total) >= DH_STILL ? sensible / total : null;
+  // SHR is a share: given only when sensible and latent act in the same direction (0 ≤ SHR ≤ 1).
+  const sameWay = sensible * latent >= 0 || Math.abs(latent) <= Math.max(1, 1e-3 * Math.abs(total));
+  const shr = Math.abs(total) >= DH_STILL && sameWay ? sensible / total : null;
   const rate = (x: number): number | null => (massFlow === null ? null : massFlow * x);
 
   const result: ProcessResult = {
@@ -292,7 +294,7 @@ function processClaims(ctx: EvalContext, claims: ReadProp[], r: ProcessResult, w
         severity: 'warning',
         message: needsFlow
           ? `${what}: ${c.key}= cannot be checked without a dry-air flow; add m=… (mass) or q=… (volume at ${r.from})`
-          : `${what}: the sensible heat ratio is not defined when the total heat is about zero; remove shr=`,
+          : `${what}: the sensible heat ratio is not defined here (the total heat is about zero, or sensible and latent heat act in opposite directions, as in an evaporative humidifier); remove shr=`,
         span: c.prop.keySpan,
       });
       continue;
