@@ -4,7 +4,7 @@
  * where a comment names the source.
  */
 import { describe, expect, it } from 'vitest';
-import { chartLayout, renderChartFromData, type ChartData, type ChartPoint } from '../src/chart';
+import { chartLayout, LIGHT_THEME, renderChartFromData, VSCODE_THEME_MAP, vscodeThemeCss, type ChartData, type ChartPoint } from '../src/chart';
 import { humRatioFromRelHum, satHumRatio } from '../src/physics';
 import { elements } from './chart-helpers';
 
@@ -171,6 +171,14 @@ describe('caption and theming', () => {
     expect(svg).not.toMatch(/--dm-chart-[a-z]+:/);
     expect(svg).toMatch(/@media \(prefers-color-scheme:dark\)\{\.dmc\{[^}]*--dmc-panel:/);
     expect(svg).toContain('stroke:var(--dm-chart-sat,var(--dmc-sat))');
+  });
+
+  it('maps every chart colour to a VS Code theme variable for webviews', () => {
+    expect(Object.keys(VSCODE_THEME_MAP).sort()).toEqual(Object.keys(LIGHT_THEME).sort());
+    const css = vscodeThemeCss();
+    expect(css).toContain('--dm-chart-sat:var(--vscode-charts-blue);');
+    expect(css).toContain('--dm-chart-ink:var(--vscode-editor-foreground);');
+    for (const k of Object.keys(LIGHT_THEME)) expect(css).toContain(`${k}:var(--vscode-`);
   });
 
   it('escapes names and titles', () => {

@@ -28,4 +28,4 @@ export type { ChartCurve, DbW } from './curves';
 export { escapeXml, MARKER_RADIUS, renderChartFromData } from './render';
 export { chartDataFromAnalysis, renderChart } from './fromAnalysis';
 export type { FromAnalysisOptions } from './fromAnalysis';
-export { chartCss, DARK_THEME, LIGHT_THEME } from './style';
+export { chartCss, DARK_THEME, LIGHT_THEME, VSCODE_THEME_MAP, vscodeThemeCss } from './style';

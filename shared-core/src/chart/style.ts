@@ -106,3 +106,34 @@ export function chartCss(): string {
     `.dmc .dmc-flag-item{font-size:11px}`,
   ].join('\n');
 }
+
+/** The VS Code theme colour each chart colour follows inside a webview. */
+export const VSCODE_THEME_MAP: Readonly<Record<string, string>> = {
+  '--dm-chart-page': '--vscode-editor-background',
+  '--dm-chart-panel': '--vscode-editor-background',
+  '--dm-chart-fog': '--vscode-editor-inactiveSelectionBackground',
+  '--dm-chart-ink': '--vscode-editor-foreground',
+  '--dm-chart-muted': '--vscode-descriptionForeground',
+  '--dm-chart-grid': '--vscode-panel-border',
+  '--dm-chart-sat': '--vscode-charts-blue',
+  '--dm-chart-rh': '--vscode-charts-purple',
+  '--dm-chart-wb': '--vscode-charts-green',
+  '--dm-chart-h': '--vscode-charts-orange',
+  '--dm-chart-v': '--vscode-descriptionForeground',
+  '--dm-chart-state': '--vscode-charts-red',
+  '--dm-chart-mix': '--vscode-charts-purple',
+  '--dm-chart-process': '--vscode-editor-foreground',
+  '--dm-chart-flag': '--vscode-editorWarning-foreground',
+  '--dm-chart-tag': '--vscode-editor-background',
+};
+
+/**
+ * A stylesheet for a VS Code webview that hosts the chart: maps each public `--dm-chart-*`
+ * colour to the theme's `--vscode-*` variable on `body`. Where the theme lacks a variable the
+ * chart's own default applies (an undefined `var()` makes the override invalid, so the fallback wins).
+ */
+export function vscodeThemeCss(): string {
+  return `body{${Object.entries(VSCODE_THEME_MAP)
+    .map(([k, v]) => `${k}:var(${v});`)
+    .join('')}}`;
+}
