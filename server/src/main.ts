@@ -20,7 +20,8 @@ import { NoteStore } from './documents';
 import { registerHover } from './hover';
 import { registerInlayHints } from './inlayHints';
 import { registerNavigation } from './navigation';
-import { CHECK_WORKSPACE_METHOD } from './protocol';
+import { registerNoteStatus } from './noteStatus';
+import { CHECK_WORKSPACE_METHOD, NOTE_STATUS_METHOD } from './protocol';
 import { registerSymbols } from './symbols';
 
 const USAGE = `Usage: dewmark-language-server --stdio | --node-ipc | --socket=PORT | --pipe=NAME
@@ -44,7 +45,7 @@ export function serverCapabilities(ctx: ServerContext): ServerCapabilities {
     renameProvider: ctx.client.prepareRename ? { prepareProvider: true } : true,
     codeActionProvider: { codeActionKinds: CODE_ACTION_KINDS, resolveProvider: false },
     workspace: { workspaceFolders: { supported: true, changeNotifications: true } },
-    experimental: { dewmark: { checkWorkspace: CHECK_WORKSPACE_METHOD } },
+    experimental: { dewmark: { checkWorkspace: CHECK_WORKSPACE_METHOD, noteStatus: NOTE_STATUS_METHOD } },
   };
   if (ctx.client.pullDiagnostics) {
     caps.diagnosticProvider = { identifier: 'dewmark', interFileDependencies: false, workspaceDiagnostics: false };
@@ -104,6 +105,7 @@ export function main(argv: readonly string[]): void {
   registerNavigation(ctx);
   registerCodeActions(ctx);
   registerCheckWorkspace(ctx, diagnostics);
+  registerNoteStatus(ctx);
 
   notes.listen(connection);
   connection.listen();

@@ -31,6 +31,33 @@ export interface CheckWorkspaceResult {
   unreadable: { uri: string; reason: string }[];
 }
 
+/** Method of the note-status request: unit system and pressure basis of one open note. */
+export const NOTE_STATUS_METHOD = 'dewmark/noteStatus';
+
+/** Parameters of {@link NOTE_STATUS_METHOD}. */
+export interface NoteStatusParams {
+  textDocument: { uri: string };
+}
+
+/** A zero-based LSP position (UTF-16). */
+export interface WirePosition {
+  line: number;
+  character: number;
+}
+
+/** Result of {@link NOTE_STATUS_METHOD} (null for a document that is not open). */
+export interface NoteStatusResult {
+  units: 'SI' | 'IP';
+  /** `note` when a `units:` line sets it, `setting` when dewmark.units does. */
+  unitsSource: 'note' | 'setting';
+  /** The range of the `SI`/`IP` word of the note's `units:` line, when it has one. */
+  unitsValueRange: { start: WirePosition; end: WirePosition } | null;
+  /** Short label of the pressure basis ("101.325 kPa", "site 83.4 kPa"). */
+  pressureLabel: string;
+  /** One sentence on where the pressure comes from. */
+  pressureDescribe: string;
+}
+
 /** The settings section the server reads through `workspace/configuration`. */
 export const SETTINGS_SECTION = 'dewmark';
 

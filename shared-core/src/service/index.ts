@@ -18,6 +18,7 @@ export { documentSymbols, type OutlineSymbol } from './symbols';
 export { definition, prepareRename, references, rename, renameProblem, type DefinitionTarget } from './navigation';
 export { codeActions, type FixAction } from './codeActions';
 export { countDiagnostics, noteDiagnostics } from './diagnostics';
+export { noteStatus, type NoteStatus } from './status';
 
 import { codeActions } from './codeActions';
 import { completions } from './completion';
@@ -26,6 +27,7 @@ import { hover } from './hover';
 import { inlayHints } from './inlayHints';
 import { definition, prepareRename, references, rename } from './navigation';
 import { analyzeText } from './note';
+import { noteStatus } from './status';
 import { documentSymbols } from './symbols';
 
 /** Every feature of the service in one object (the same functions as the named exports). */
@@ -43,6 +45,7 @@ export function createLanguageService() {
     codeActions,
     diagnostics: noteDiagnostics,
     countDiagnostics,
+    noteStatus,
   } as const;
 }
 

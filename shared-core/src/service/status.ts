@@ -1,0 +1,41 @@
+/**
+ * The note's status for an editor's status bar: the unit system its results are shown in (and
+ * whether the note or the settings chose it), and the pressure basis of its first state.
+ */
+import type { StateResult } from '../evaluate/types';
+import type { Span } from '../text/types';
+import { show } from './format';
+import { toEvaluateSettings } from './settings';
+import type { Note } from './types';
+
+/** Unit system and pressure basis of a note, as plain data. */
+export interface NoteStatus {
+  units: 'SI' | 'IP';
+  unitsSource: 'note' | 'setting';
+  /** The `SI`/`IP` word of the note's first `units:` line, when it has one. */
+  unitsSpan: Span | null;
+  /** A short label: "101.325 kPa", "site 83.4 kPa". */
+  pressureLabel: string;
+  /** One sentence on where the pressure comes from. */
+  pressureDescribe: string;
+}
+
+/** The status of a note: its units and the pressure its first state (or the settings) use. */
+export function noteStatus(note: Note): NoteStatus {
+  const a = note.analysis;
+  const unitsLine = a.parsed.statements.find((s) => s.keyword === 'units');
+  const unitsSpan = unitsLine?.keyword === 'units' && unitsLine.system ? unitsLine.system.span : null;
+  const first = a.items.find((i): i is StateResult => i.kind !== 'process');
+  let pressureLabel: string;
+  let pressureDescribe: string;
+  if (first) {
+    const p = show(note, first.pressure.pa, 'pressure', a.units);
+    pressureLabel = first.pressure.source === 'site' ? `site ${p}` : first.pressure.source === 'override' ? `${p} (own)` : p;
+    pressureDescribe = `The first state, ${first.name}, is at ${p}: ${first.pressure.describe}.`;
+  } else {
+    const e = toEvaluateSettings(note.settings);
+    pressureLabel = show(note, e.pressurePa, 'pressure', a.units);
+    pressureDescribe = `Statements without a site: line use ${pressureLabel} (${e.pressureOrigin}).`;
+  }
+  return { units: a.units, unitsSource: a.unitsSource, unitsSpan, pressureLabel, pressureDescribe };
+}

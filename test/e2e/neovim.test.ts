@@ -1,0 +1,80 @@
+/**
+ * A real independent client: headless Neovim (0.7.2 from Debian) starts the server with the
+ * configuration snippet the README quotes (test/e2e/neovim-config.lua), opens a note, and the test
+ * checks hover, diagnostics after an edit, symbols, completion and an inlay-hint request. Without
+ * `nvim` the test is skipped with a message; under CI=true it fails.
+ */
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { completionLabels, hoverText, inlayHintLabels, positionOf, runNeovim } from './lib/neovim';
+import { REPO_ROOT, requireTool } from './lib/tools';
+
+const CONFIG = join(REPO_ROOT, 'test', 'e2e', 'neovim-config.lua');
+const SERVER = join(REPO_ROOT, 'bin', 'dewmark-language-server.js');
+
+const NOTE = [
+  '# Harbour Street Lab — AHU-2',
+  '',
+  '```air',
+  'state OA: db=40C wb=20C        # hot, dry intake air',
+  'state RA: db=24 rh=50%',
+  'mix MA: OA 25% + RA 75%',
+  '```',
+  '',
+].join('\n');
+
+// ASHRAE HoF 2017 SI Ch.1 Example 1 (40 °C db / 20 °C wb, 101.325 kPa): W 0.0065 kg/kg ± 0.0001,
+// h 56.7 kJ/kg ± 0.1 (PsychroLib test-suite tolerances), plus half a shown digit.
+const W_G_PER_KG = { value: 6.5, tol: 0.105 };
+const H_KJ_PER_KG = { value: 56.7, tol: 0.105 };
+
+describe('Neovim as the LSP client', () => {
+  it('hovers, diagnoses an edit, lists symbols, completes and answers an inlay-hint request', async (ctx) => {
+    const nvim = requireTool('nvim', ctx);
+    const run = await runNeovim({
+      nvim: nvim.path,
+      configFile: CONFIG,
+      env: { DEWMARK_LANGUAGE_SERVER: SERVER },
+      files: { 'ahu2.md': NOTE },
+      steps: [
+        { op: 'open', name: 'ahu2.md' },
+        { op: 'waitDiagnostics', minCount: 1 },
+        { op: 'hover', position: positionOf(NOTE, 'OA:') },
+        { op: 'edit', startLine: 4, endLine: 5, lines: ['state RA: db=24C rh=50%'] },
+        { op: 'documentSymbols' },
+        { op: 'completion', position: positionOf(NOTE, 'mix MA: ', 0, 'mix MA: '.length) },
+        { op: 'inlayHints' },
+        { op: 'shutdown' },
+      ],
+    });
+    expect(run.report.nvimVersion).toMatch(/^0\.\d+\.\d+/);
+    expect(run.report.serverInfo?.name).toBe('dewmark-language-server');
+
+    const before = run.step('waitDiagnostics');
+    expect(before.diagnostics.map((d) => d.code)).toEqual(['missing-unit']);
+    expect(before.diagnostics[0]!.range.start).toEqual(positionOf(NOTE, '24 rh', 0));
+
+    const hover = hoverText(run.step('hover').result);
+    expect(hover).toContain('**state OA**');
+    const w = Number(/\| `w` \| ([\d.]+) g\/kg/.exec(hover)?.[1]);
+    const h = Number(/\| `h` \| ([\d.]+) kJ\/kg/.exec(hover)?.[1]);
+    expect(Math.abs(w - W_G_PER_KG.value)).toBeLessThanOrEqual(W_G_PER_KG.tol);
+    expect(Math.abs(h - H_KJ_PER_KG.value)).toBeLessThanOrEqual(H_KJ_PER_KG.tol);
+    expect(hover).toContain('Design aid only');
+
+    const edit = run.step('edit');
+    expect(edit.diagnostics?.version).toBe(edit.version);
+    expect(edit.diagnostics?.diagnostics).toEqual([]);
+
+    const symbols = run.step('documentSymbols').result as { name: string; children?: { name: string }[] }[];
+    expect(symbols.map((s) => s.name)).toEqual(['Harbour Street Lab — AHU-2']);
+    expect(symbols[0]!.children!.map((c) => c.name)).toEqual(['OA', 'RA', 'MA']);
+
+    expect(completionLabels(run.step('completion').result)).toEqual(['OA', 'RA']);
+
+    const hints = inlayHintLabels(run.step('inlayHints').result);
+    expect(hints).toHaveLength(3);
+    expect(hints[0]).toMatch(/^rh [\d.]+ % · w [\d.]+ g\/kg · h [\d.]+ kJ\/kg · dp [\d.]+ °C$/);
+    expect(run.report.serverExit?.code ?? 0).toBe(0);
+  });
+});
