@@ -60,7 +60,10 @@ export interface MoistAirState {
   db: number;
   /** Thermodynamic wet-bulb temperature, °C (over ice when below 0 °C, see `wbIce`). */
   wb: number;
-  /** Dew-point temperature, °C (frost point when below 0 °C, see `dpFrost`). */
+  /**
+   * Dew-point temperature, °C (frost point below the triple point, see `dpFrost`). −Infinity for
+   * bone-dry air (W = 0); below −100 °C it is the ice equation extrapolated (the solver warns).
+   */
   dp: number;
   /** Relative humidity, fraction 0…1. */
   rh: number;
@@ -76,13 +79,19 @@ export interface MoistAirState {
   pw: number;
   /** Saturation vapour pressure at the dry-bulb, Pa. */
   pws: number;
-  /** Humidity ratio at saturation at the dry-bulb and pressure, kg/kg. */
+  /**
+   * Humidity ratio at saturation at the dry-bulb and pressure, kg/kg. +Infinity when the dry-bulb
+   * is at or above the boiling point at p (the air cannot be saturated; the solver warns).
+   */
   ws: number;
-  /** Degree of saturation, fraction (W / Ws). */
+  /** Degree of saturation, fraction (W / Ws; 0 when Ws is infinite). */
   mu: number;
   /** True when the wet-bulb is below 0 °C and so was computed over ice. */
   wbIce: boolean;
-  /** True when the dew point is below 0 °C and so is a frost point (over ice). */
+  /**
+   * True when the dew point is a frost point (over ice): below the triple point, 0.01 °C, where the
+   * saturation curve switches from the ice equation to the liquid-water one.
+   */
   dpFrost: boolean;
   /** True when the state lies in the fog region (more water than saturated air can hold as vapour). */
   fog: boolean;

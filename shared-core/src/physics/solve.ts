@@ -1,0 +1,694 @@
+/**
+ * The general state solver: any valid defining pair of the notation plus pressure → every
+ * property of the state, or a typed problem with a stable code and a fix.
+ */
+import {
+  PsychroError,
+  type DefiningKey,
+  type MoistAirState,
+  type PhysicsProblem,
+  type SolveOptions,
+  type SolveResult,
+} from './types';
+import { fmtH, fmtNum, fmtPa, fmtRh, fmtT, fmtW } from './format';
+import { CP_DA, CP_WV, EPSILON, H_FG0, condensateEnthalpy } from './properties';
+import {
+  PWS_MAX,
+  PWS_MIN,
+  T_MAX_C,
+  T_MIN_C,
+  TRIPLE_POINT_C,
+  ZERO_C_K,
+  lnPwsIce,
+  lnPwsWater,
+  noConvergence,
+  satTempFromLn,
+  satTempRaw,
+} from './saturation';
+import { completeState, fogState, pwsAt } from './state';
+import { humRatioEq33, supersaturatedError } from './wetbulb';
+import { pressureBelowSaturation } from './checks';
+import { findRoot } from './roots';
+
+/** The defining keys in a fixed order (the order problems list them in). */
+export const DEFINING_KEYS: readonly DefiningKey[] = ['db', 'wb', 'dp', 'rh', 'w', 'h'];
+
+const NAMES: Record<DefiningKey, string> = {
+  db: 'dry-bulb',
+  wb: 'wet-bulb',
+  dp: 'dew point',
+  rh: 'relative humidity',
+  w: 'humidity ratio',
+  h: 'enthalpy',
+};
+
+function problem(code: PhysicsProblem['code'], message: string, fix: string, keys: DefiningKey[]): PsychroError {
+  return new PsychroError({ code, message, fix, keys });
+}
+
+function fmtKey(k: DefiningKey, x: number): string {
+  switch (k) {
+    case 'db':
+    case 'wb':
+    case 'dp':
+      return fmtT(x);
+    case 'rh':
+      return fmtRh(x);
+    case 'w':
+      return fmtW(x);
+    case 'h':
+      return fmtH(x);
+  }
+}
+
+/** A computed dry-bulb outside −100…200 °C. */
+function dbOutOfRange(db: number, keys: DefiningKey[]): PsychroError {
+  return problem(
+    'out-of-range',
+    `These figures put the dry-bulb at ${Number.isFinite(db) ? fmtT(db) : 'an unbounded temperature'}, outside the formulation's −100 °C to 200 °C.`,
+    `Check the ${keys.map((k) => NAMES[k]).join(' and ')}; the state they describe must have a dry-bulb between −100 °C and 200 °C.`,
+    keys,
+  );
+}
+
+/** pws(t) at or above p for a temperature that must be saturated (wb, dp). */
+function checkBelowBoiling(t: number, pws: number, p: number, key: DefiningKey): void {
+  if (pws >= p) throw pressureBelowSaturation(t, pws, p, [key], NAMES[key]);
+}
+
+/** Dry-bulb, °C, from wet-bulb, the saturation humidity ratio at it, and W (eq 33/35 solved for t). */
+function dbFromWetBulbW(wb: number, wsStar: number, w: number): number {
+  return wb >= 0
+    ? ((2501 - 2.326 * wb) * wsStar + 1.006 * wb - w * (2501 - 4.186 * wb)) / (1.006 + 1.86 * w)
+    : ((2830 - 0.24 * wb) * wsStar + 1.006 * wb - w * (2830 - 2.1 * wb)) / (1.006 + 1.86 * w);
+}
+
+/** Saturation humidity ratio at t (pws(t) < p assumed). */
+function wsAt(t: number, p: number): number {
+  const pws = pwsAt(t);
+  return (EPSILON * pws) / (p - pws);
+}
+
+/**
+ * The state at (db, w) once w is known, with the fog case and the range checks. `pwKnown` is the
+ * vapour pressure when the pair gave it directly (a dew point), NaN otherwise.
+ */
+function stateAt(
+  db: number,
+  w: number,
+  p: number,
+  keys: DefiningKey[],
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+  dp = Number.NaN,
+  wb = Number.NaN,
+  pwKnown = Number.NaN,
+): MoistAirState {
+  if (!(db >= T_MIN_C && db <= T_MAX_C)) throw dbOutOfRange(db, keys);
+  const pwsDb = pwsAt(db);
+  let pw = Number.isNaN(pwKnown) ? (p * w) / (EPSILON + w) : pwKnown;
+  if (pw > pwsDb) {
+    if (pw <= pwsDb * (1 + SATURATION_ROUNDOFF)) {
+      // Saturated air whose two figures agree to round-off (db = wb, db = dp, rh = 100 %).
+      pw = pwsDb;
+      w = (EPSILON * pw) / (p - pw);
+    } else {
+      // More water than the air can hold as vapour at this dry-bulb.
+      const ws = (EPSILON * pwsDb) / (p - pwsDb);
+      if (!opts?.allowFog) throw supersaturatedError(db, w, ws, keys);
+      warnings.push(fogWarning(db, w, ws, keys));
+      return fogState(db, w, p);
+    }
+  }
+  return completeState(db, w, p, pwsDb, pw, Number.NaN, dp, wb);
+}
+
+/** Relative excess of the vapour pressure over saturation still taken as saturated (round-off). */
+const SATURATION_ROUNDOFF = 1e-12;
+
+function fogWarning(t: number, w: number, ws: number, keys: DefiningKey[]): PhysicsProblem {
+  return {
+    code: 'supersaturated',
+    message: `Fog: ${fmtW(w)} of water is more than saturated air at ${fmtT(t)} holds as vapour (${fmtW(ws)}); the rest, ${fmtW(w - ws)}, is suspended ${t < 0 ? 'ice' : 'liquid'}.`,
+    fix: 'If fog is not intended, check the figures: the state lies beyond the saturation curve.',
+    keys,
+  };
+}
+
+/** Warnings about a finished state: temperatures extrapolated below the range, no saturation possible. */
+function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
+  if (s.fog) return;
+  if (s.dp < T_MIN_C) {
+    warnings.push({
+      code: 'out-of-range',
+      message:
+        s.w === 0
+          ? 'Bone-dry air has no dew point (reported as −Infinity).'
+          : `The dew point ${fmtT(s.dp)} is below −100 °C: extrapolated from the ice equation.`,
+      fix: 'Nothing to fix if the air is meant to be this dry.',
+      keys: ['dp'],
+    });
+  }
+  if (s.wb < T_MIN_C) {
+    warnings.push({
+      code: 'out-of-range',
+      message: `The wet-bulb ${fmtT(s.wb)} is below −100 °C: extrapolated from the ice equation.`,
+      fix: 'Nothing to fix if the air is meant to be this cold and dry.',
+      keys: ['wb'],
+    });
+  }
+  if (!Number.isFinite(s.ws)) {
+    warnings.push({
+      code: 'pressure-below-saturation',
+      message: `The dry-bulb ${fmtT(s.db)} is at or above the boiling point at ${fmtPa(s.p)}: this air cannot be saturated, so the saturation humidity ratio is infinite and the degree of saturation 0.`,
+      fix: 'Nothing to fix if superheated air is meant; otherwise check the pressure.',
+      keys: ['db'],
+    });
+  }
+}
+
+/**
+ * Solve a moist-air state from exactly two defining properties (SI: °C, fraction, kg/kg, J/kg)
+ * at pressure p Pa. Valid pairs: db with wb, dp, rh, w or h; wb with rh, w, dp or h (wb+h is
+ * ill-conditioned: solved, with a warning); dp with rh or h; rh with w or h; w with h. dp with w
+ * is a dependent pair. Never throws for bad input: returns a typed problem instead.
+ */
+export function solveState(input: Partial<Record<DefiningKey, number>>, p: number, options?: SolveOptions): SolveResult {
+  const warnings: PhysicsProblem[] = [];
+  try {
+    const state = solveOrThrow(input, p, options, warnings);
+    stateWarnings(state, warnings);
+    return { ok: true, state, warnings };
+  } catch (e) {
+    if (e instanceof PsychroError) return { ok: false, problem: e.problem };
+    throw e;
+  }
+}
+
+// Bits of the defining keys, in the fixed order of DEFINING_KEYS.
+const DB = 1;
+const WB = 2;
+const DP = 4;
+const RH = 8;
+const W = 16;
+const H = 32;
+
+function keysOf(mask: number): DefiningKey[] {
+  const out: DefiningKey[] = [];
+  for (let i = 0; i < DEFINING_KEYS.length; i++) if (mask & (1 << i)) out.push(DEFINING_KEYS[i]!);
+  return out;
+}
+
+function solveOrThrow(
+  input: Partial<Record<DefiningKey, number>>,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
+  const db = input.db;
+  const wb = input.wb;
+  const dp = input.dp;
+  const rh = input.rh;
+  const w = input.w;
+  const h = input.h;
+  const mask =
+    (db !== undefined ? DB : 0) |
+    (wb !== undefined ? WB : 0) |
+    (dp !== undefined ? DP : 0) |
+    (rh !== undefined ? RH : 0) |
+    (w !== undefined ? W : 0) |
+    (h !== undefined ? H : 0);
+  let n = 0;
+  for (let m = mask; m !== 0; m &= m - 1) n++;
+  if (n !== 2) {
+    const given = keysOf(mask);
+    if (n < 2) {
+      const k1 = given[0];
+      throw problem(
+        'underspecified',
+        k1 === undefined ? 'No defining property is given: a state needs two.' : `Only the ${NAMES[k1]} is given: a state needs two defining properties.`,
+        k1 === undefined
+          ? 'Give two of db, wb, dp, rh, w, h (for example db and rh).'
+          : `Add a second property: ${k1 === 'db' ? 'wb, dp, rh, w or h' : k1 === 'w' || k1 === 'dp' ? 'a temperature (db or wb), rh or h' : 'db or w'}.`,
+        given,
+      );
+    }
+    throw problem(
+      'overspecified',
+      `${n} defining properties are given (${given.join(', ')}); the solver takes exactly two.`,
+      'Pass two of them to the solver and compare the others with the result.',
+      given,
+    );
+  }
+  if (!(p > 0 && p < Number.POSITIVE_INFINITY)) {
+    throw problem(
+      'out-of-range',
+      `Pressure ${String(p)} Pa is not a positive, finite pressure.`,
+      'Give the barometric pressure as a positive figure (101.325 kPa at sea level), or a site elevation.',
+      [],
+    );
+  }
+  if (db !== undefined) checkValue('db', db);
+  if (wb !== undefined) checkValue('wb', wb);
+  if (dp !== undefined) checkValue('dp', dp);
+  if (rh !== undefined) checkValue('rh', rh);
+  if (w !== undefined) checkValue('w', w);
+  if (h !== undefined) checkValue('h', h);
+  switch (mask) {
+    case DB | RH:
+      return fromDbRh(db!, rh!, p);
+    case DB | WB:
+      return fromDbWb(db!, wb!, p, warnings);
+    case DB | DP:
+      return fromDbDp(db!, dp!, p, opts, warnings);
+    case DB | W:
+      return stateAt(db!, w!, p, ['db', 'w'], opts, warnings);
+    case DB | H:
+      return fromDbH(db!, h!, p, opts, warnings);
+    case WB | DP:
+      return fromWbDp(wb!, dp!, p, opts, warnings);
+    case WB | RH:
+      return fromWbRh(wb!, rh!, p, opts, warnings);
+    case WB | W:
+      return fromWbW(wb!, w!, p, opts, warnings);
+    case WB | H:
+      return fromWbH(wb!, h!, p, opts, warnings);
+    case DP | RH:
+      return fromDpRh(dp!, rh!, p, opts, warnings);
+    case DP | W:
+      throw problem(
+        'dependent-pair',
+        `The dew point and the humidity ratio both fix the moisture content (at ${fmtPa(p)} one follows from the other), so together they do not fix the state.`,
+        'Replace one of them with a temperature (db or wb), the relative humidity (rh) or the enthalpy (h).',
+        ['dp', 'w'],
+      );
+    case DP | H:
+      return fromDpH(dp!, h!, p, opts, warnings);
+    case RH | W:
+      return fromRhW(rh!, w!, p, opts, warnings);
+    case RH | H:
+      return fromRhH(rh!, h!, p, opts, warnings);
+    default: // W | H
+      return fromWH(w!, h!, p, opts, warnings);
+  }
+}
+
+/** Range and sign checks of one input value. */
+function checkValue(k: DefiningKey, x: number): void {
+  if (typeof x !== 'number' || !Number.isFinite(x)) {
+    throw problem('out-of-range', `The ${NAMES[k]} ${String(x)} is not a finite number.`, `Give the ${NAMES[k]} as a finite number.`, [k]);
+  }
+  switch (k) {
+    case 'db':
+    case 'wb':
+    case 'dp':
+      if (x < T_MIN_C || x > T_MAX_C) {
+        throw problem(
+          'out-of-range',
+          `The ${NAMES[k]} ${fmtT(x)} is outside the formulation's range (−100 °C to 200 °C).`,
+          `Use a ${NAMES[k]} between −100 °C and 200 °C.`,
+          [k],
+        );
+      }
+      return;
+    case 'rh':
+      if (x < 0 || x > 1) {
+        throw problem('rh-out-of-range', `The relative humidity ${fmtRh(x)} is outside 0 % to 100 %.`, 'Give a relative humidity between 0 % and 100 %.', ['rh']);
+      }
+      return;
+    case 'w':
+      if (x < 0) {
+        throw problem('negative-humidity-ratio', `The humidity ratio ${fmtW(x)} is negative.`, 'A humidity ratio is 0 (bone-dry air) or more.', ['w']);
+      }
+      return;
+    case 'h':
+      return;
+  }
+}
+
+function fromDbWb(db: number, wb: number, p: number, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['db', 'wb'];
+  if (wb > db) {
+    throw problem(
+      'wb-above-db',
+      `The wet-bulb ${fmtT(wb)} is above the dry-bulb ${fmtT(db)}.`,
+      'The wet-bulb is at most the dry-bulb (equal when saturated): check the two figures or swap them.',
+      keys,
+    );
+  }
+  const T = wb + ZERO_C_K;
+  const pwsWb = Math.exp(wb < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T));
+  checkBelowBoiling(wb, pwsWb, p, 'wb');
+  const w = humRatioEq33(db, wb, (EPSILON * pwsWb) / (p - pwsWb));
+  if (w < 0) throw wbTooLow(db, wb, p);
+  return stateAt(db, w, p, keys, undefined, warnings, Number.NaN, wb);
+}
+
+function wbTooLow(db: number, wb: number, p: number): PsychroError {
+  let min = Number.NaN;
+  try {
+    min = stateAt(db, 0, p, ['db'], undefined, []).wb;
+  } catch {
+    // keep NaN: the message then gives no figure
+  }
+  return problem(
+    'wb-too-low',
+    `The wet-bulb ${fmtT(wb)} is too far below the dry-bulb ${fmtT(db)}: even bone-dry air at ${fmtPa(p)} ` +
+      (Number.isFinite(min) ? `has a wet-bulb of ${fmtT(min)}` : 'has a higher wet-bulb') +
+      ' (the humidity ratio would be negative).',
+    Number.isFinite(min)
+      ? `Use a wet-bulb of at least ${fmtT(min)} at this dry-bulb, or check the dry-bulb.`
+      : 'Use a higher wet-bulb, or check the dry-bulb.',
+    ['db', 'wb'],
+  );
+}
+
+function fromDbDp(db: number, dp: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['db', 'dp'];
+  if (dp > db) {
+    throw problem(
+      'dp-above-db',
+      `The dew point ${fmtT(dp)} is above the dry-bulb ${fmtT(db)}.`,
+      'The dew point is at most the dry-bulb (equal when saturated): check the two figures or swap them.',
+      keys,
+    );
+  }
+  const pw = pwsAt(dp);
+  checkBelowBoiling(dp, pw, p, 'dp');
+  const w = (EPSILON * pw) / (p - pw);
+  return stateAt(db, w, p, keys, opts, warnings, dp, Number.NaN, pw);
+}
+
+function fromDbRh(db: number, rh: number, p: number): MoistAirState {
+  const T = db + ZERO_C_K;
+  const lnPwsDb = db < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T);
+  const pwsDb = Math.exp(lnPwsDb);
+  const pw = rh * pwsDb;
+  if (pw >= p) {
+    throw problem(
+      'pressure-below-saturation',
+      `At ${fmtT(db)} and ${fmtRh(rh)} the vapour pressure would be ${fmtPa(pw)}, at or above the total pressure ${fmtPa(p)}: water boils there.`,
+      `Lower the relative humidity below ${fmtRh(p / pwsDb)} or the dry-bulb, or raise the pressure.`,
+      ['db', 'rh'],
+    );
+  }
+  const w = (EPSILON * pw) / (p - pw);
+  return completeState(db, w, p, pwsDb, pw, lnPwsDb + Math.log(rh), Number.NaN, Number.NaN);
+}
+
+function fromDbH(db: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['db', 'h'];
+  const w = (h - CP_DA * db) / (H_FG0 + CP_WV * db);
+  if (w < 0) {
+    throw problem(
+      'enthalpy-too-low',
+      `The enthalpy ${fmtH(h)} is below that of bone-dry air at ${fmtT(db)} (${fmtH(CP_DA * db)}).`,
+      `Use an enthalpy of at least ${fmtH(CP_DA * db)} at this dry-bulb (dry air 0 at 0 °C), or check the dry-bulb.`,
+      keys,
+    );
+  }
+  const pwsDb = pwsAt(db);
+  const pw = (p * w) / (EPSILON + w);
+  if (pw > pwsDb && opts?.allowFog) {
+    // Fog at db: the enthalpy beyond saturated air is carried by suspended water at db.
+    const ws = (EPSILON * pwsDb) / (p - pwsDb);
+    const hs = CP_DA * db + ws * (H_FG0 + CP_WV * db);
+    const hc = condensateEnthalpy(db);
+    const wTotal = hc !== 0 ? ws + (h - hs) / hc : Number.NaN;
+    if (!(wTotal >= ws)) {
+      throw problem(
+        'no-solution',
+        `The enthalpy ${fmtH(h)} is above that of saturated air at ${fmtT(db)} (${fmtH(hs)}), and suspended ${db < 0 ? 'ice' : 'water'} at this temperature cannot make up the difference.`,
+        'Check the enthalpy and the dry-bulb, or give the humidity ratio instead of the enthalpy.',
+        keys,
+      );
+    }
+    warnings.push(fogWarning(db, wTotal, ws, keys));
+    return fogState(db, wTotal, p);
+  }
+  return stateAt(db, w, p, keys, undefined, warnings);
+}
+
+function fromWbDp(wb: number, dp: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['wb', 'dp'];
+  if (dp > wb) {
+    throw problem(
+      'wb-too-low',
+      `The wet-bulb ${fmtT(wb)} is below the dew point ${fmtT(dp)}; the wet-bulb always lies between the dew point and the dry-bulb.`,
+      'Check the two figures (are they swapped?).',
+      keys,
+    );
+  }
+  const pwsWb = pwsAt(wb);
+  checkBelowBoiling(wb, pwsWb, p, 'wb');
+  const pw = pwsAt(dp);
+  const w = (EPSILON * pw) / (p - pw);
+  const db = dbFromWetBulbW(wb, (EPSILON * pwsWb) / (p - pwsWb), w);
+  return stateAt(db < wb ? wb : db, w, p, keys, opts, warnings, dp, wb, pw);
+}
+
+function fromWbW(wb: number, w: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['wb', 'w'];
+  const pwsWb = pwsAt(wb);
+  checkBelowBoiling(wb, pwsWb, p, 'wb');
+  const wsWb = (EPSILON * pwsWb) / (p - pwsWb);
+  if (w > wsWb) {
+    if (!opts?.allowFog) {
+      throw problem(
+        'supersaturated',
+        `The humidity ratio ${fmtW(w)} is above saturation at the wet-bulb ${fmtT(wb)} (${fmtW(wsWb)}): no air with this much vapour has so low a wet-bulb (it would be fog).`,
+        `Use a humidity ratio of at most ${fmtW(wsWb)} with this wet-bulb, or a higher wet-bulb.`,
+        keys,
+      );
+    }
+    warnings.push(fogWarning(wb, w, wsWb, keys));
+    return fogState(wb, w, p);
+  }
+  const db = dbFromWetBulbW(wb, wsWb, w);
+  return stateAt(db < wb ? wb : db, w, p, keys, opts, warnings, Number.NaN, wb);
+}
+
+/** The dry-bulb of bone-dry air with wet-bulb wb (the largest dry-bulb that wb allows). */
+function dbMaxForWetBulb(wb: number, wsWb: number): number {
+  return dbFromWetBulbW(wb, wsWb, 0);
+}
+
+function fromWbRh(wb: number, rh: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['wb', 'rh'];
+  const pwsWb = pwsAt(wb);
+  checkBelowBoiling(wb, pwsWb, p, 'wb');
+  const wsWb = (EPSILON * pwsWb) / (p - pwsWb);
+  if (rh === 1) return stateAt(wb, wsWb, p, keys, opts, warnings, Number.NaN, wb);
+  const dbMax = dbMaxForWetBulb(wb, wsWb);
+  if (rh === 0) return stateAt(dbMax, 0, p, keys, opts, warnings, Number.NaN, wb);
+  // rh along the wet-bulb line falls from 1 at db = wb to 0 at dbMax.
+  const wAt = (db: number): number => humRatioEq33(db, wb, wsWb);
+  const f = (db: number): number => {
+    const w = wAt(db);
+    return (p * w) / (EPSILON + w) / pwsAt(db) - rh;
+  };
+  const hi = Math.min(dbMax, T_MAX_C);
+  const fHi = f(hi);
+  if (fHi > 0) throw dbOutOfRange(Number.POSITIVE_INFINITY, keys);
+  const db = findRoot(f, wb, hi, 1 - rh, fHi);
+  if (Number.isNaN(db)) throw noConvergence('dry-bulb (from wb and rh)');
+  return stateAt(db, Math.max(0, wAt(db)), p, keys, opts, warnings, Number.NaN, wb);
+}
+
+function fromWbH(wb: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['wb', 'h'];
+  const pwsWb = pwsAt(wb);
+  checkBelowBoiling(wb, pwsWb, p, 'wb');
+  const wsWb = (EPSILON * pwsWb) / (p - pwsWb);
+  const dbMax = Math.min(dbMaxForWetBulb(wb, wsWb), T_MAX_C);
+  const hAt = (db: number): number => {
+    const w = humRatioEq33(db, wb, wsWb);
+    return CP_DA * db + w * (H_FG0 + CP_WV * db);
+  };
+  const f = (db: number): number => hAt(db) - h;
+  const fLo = f(wb);
+  const fHi = f(dbMax);
+  const hLo = fLo + h;
+  const hHi = fHi + h;
+  const spread = Math.abs(hHi - hLo);
+  if (spread <= 1e-9 * Math.max(1, Math.abs(h)) && Math.abs(fLo) <= 1e-6 * Math.max(1000, Math.abs(h))) {
+    throw problem(
+      'dependent-pair',
+      `At a wet-bulb of ${fmtT(wb)} the enthalpy is the same (${fmtH(hLo)}) for every dry-bulb, so the two do not fix the state.`,
+      'Replace the enthalpy with the dry-bulb, the relative humidity or the humidity ratio.',
+      keys,
+    );
+  }
+  if (fLo * fHi > 0) {
+    const [lo, hi2] = hLo < hHi ? [hLo, hHi] : [hHi, hLo];
+    throw problem(
+      'no-solution',
+      `No air with a wet-bulb of ${fmtT(wb)} has an enthalpy of ${fmtH(h)}: along that wet-bulb the enthalpy only ranges from ${fmtH(lo)} to ${fmtH(hi2)}.`,
+      'Check the enthalpy; the wet-bulb and the enthalpy are nearly redundant, so prefer the dry-bulb, rh or w with the wet-bulb.',
+      keys,
+    );
+  }
+  const db = findRoot(f, wb, dbMax, fLo, fHi, 1e-12);
+  if (Number.isNaN(db)) throw noConvergence('dry-bulb (from wb and h)');
+  const slope = Math.abs(hHi - hLo) / Math.max(dbMax - wb, 1e-9); // J/kg per K along the wet-bulb line
+  warnings.push({
+    code: 'ill-conditioned',
+    message:
+      `Wet-bulb and enthalpy are nearly parallel on the chart: along this wet-bulb the enthalpy changes by only about ${fmtNum(slope, 2)} J/kg per kelvin of dry-bulb` +
+      (slope > 0 ? `, so an error of 0.1 kJ/kg in h moves the dry-bulb by about ${fmtNum(100 / slope, 2)} K.` : '.'),
+    fix: 'Prefer the dry-bulb, rh or w together with the wet-bulb.',
+    keys,
+  });
+  return stateAt(db, Math.max(0, humRatioEq33(db, wb, wsWb)), p, keys, opts, warnings, Number.NaN, wb);
+}
+
+function fromDpRh(dp: number, rh: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['dp', 'rh'];
+  const pw = pwsAt(dp);
+  checkBelowBoiling(dp, pw, p, 'dp');
+  if (rh === 0) {
+    throw problem(
+      'no-solution',
+      `A relative humidity of 0 % means bone-dry air, which has no dew point; it cannot go with a dew point of ${fmtT(dp)}.`,
+      'Give a relative humidity above 0 %, or replace the dew point with a dry-bulb.',
+      keys,
+    );
+  }
+  const pwsDb = pw / rh;
+  if (pwsDb > PWS_MAX) throw dbOutOfRange(Number.POSITIVE_INFINITY, keys);
+  const db = rh === 1 ? dp : satTempRaw(pwsDb);
+  if (Number.isNaN(db)) throw noConvergence('dry-bulb (from dp and rh)');
+  const w = (EPSILON * pw) / (p - pw);
+  return stateAt(db < dp ? dp : db, w, p, keys, opts, warnings, dp, Number.NaN, pw);
+}
+
+function fromDpH(dp: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['dp', 'h'];
+  const pw = pwsAt(dp);
+  checkBelowBoiling(dp, pw, p, 'dp');
+  const w = (EPSILON * pw) / (p - pw);
+  const db = (h - H_FG0 * w) / (CP_DA + CP_WV * w);
+  if (db < dp) {
+    const hs = CP_DA * dp + w * (H_FG0 + CP_WV * dp);
+    throw problem(
+      'enthalpy-too-low',
+      `The enthalpy ${fmtH(h)} is below that of saturated air at the dew point ${fmtT(dp)} (${fmtH(hs)}): the dry-bulb would be below the dew point.`,
+      `Use an enthalpy of at least ${fmtH(hs)} with this dew point.`,
+      keys,
+    );
+  }
+  return stateAt(db, w, p, keys, opts, warnings, dp, Number.NaN, pw);
+}
+
+function fromRhW(rh: number, w: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['rh', 'w'];
+  if (rh === 0 || w === 0) {
+    if (rh === 0 && w === 0) {
+      throw problem(
+        'dependent-pair',
+        'A relative humidity of 0 % and a humidity ratio of 0 both say only that the air is bone-dry; they do not fix its temperature.',
+        'Replace one of them with a temperature (db or wb) or the enthalpy (h).',
+        keys,
+      );
+    }
+    throw problem(
+      'no-solution',
+      rh === 0
+        ? `A relative humidity of 0 % means bone-dry air, but the humidity ratio is ${fmtW(w)}.`
+        : `A humidity ratio of 0 means bone-dry air, but the relative humidity is ${fmtRh(rh)}.`,
+      'Check the two figures, or replace one with a temperature.',
+      keys,
+    );
+  }
+  const pw = (p * w) / (EPSILON + w);
+  const pwsDb = pw / rh;
+  if (pwsDb > PWS_MAX || pwsDb < PWS_MIN) throw dbOutOfRange(pwsDb > PWS_MAX ? Number.POSITIVE_INFINITY : Number.NEGATIVE_INFINITY, keys);
+  const db = satTempFromLn(Math.log(pwsDb));
+  if (Number.isNaN(db)) throw noConvergence('dry-bulb (from rh and w)');
+  return stateAt(db, w, p, keys, opts, warnings);
+}
+
+function fromRhH(rh: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['rh', 'h'];
+  const wAt = (db: number): number => {
+    const pw = rh * pwsAt(db);
+    return pw < p ? (EPSILON * pw) / (p - pw) : Number.POSITIVE_INFINITY;
+  };
+  // h rises with db along a line of constant rh (both terms grow).
+  const f = (db: number): number => {
+    const w = wAt(db);
+    return CP_DA * db + w * (H_FG0 + CP_WV * db) - h;
+  };
+  const fLo = f(T_MIN_C);
+  if (fLo > 0) {
+    throw problem(
+      'out-of-range',
+      `The enthalpy ${fmtH(h)} at ${fmtRh(rh)} would need a dry-bulb below −100 °C.`,
+      `Use an enthalpy of at least ${fmtH(fLo + h)} at this relative humidity.`,
+      keys,
+    );
+  }
+  // Upper end: 200 °C, or just below the dry-bulb at which rh·pws reaches p (W → ∞ there).
+  let hi = T_MAX_C;
+  let fHi = f(hi);
+  if (!Number.isFinite(fHi)) {
+    let lo = T_MIN_C;
+    hi = satTempRaw(p / rh);
+    for (let i = 0; i < 200; i++) {
+      const m = 0.5 * (lo + hi);
+      const fm = f(m);
+      if (fm <= 0) lo = m;
+      else if (Number.isFinite(fm)) {
+        hi = m;
+        fHi = fm;
+        break;
+      } else hi = m;
+    }
+    if (!Number.isFinite(fHi)) throw noConvergence('dry-bulb (from rh and h)');
+  }
+  if (fHi < 0) throw dbOutOfRange(Number.POSITIVE_INFINITY, keys);
+  const db = findRoot(f, T_MIN_C, hi, fLo, fHi);
+  if (Number.isNaN(db)) throw noConvergence('dry-bulb (from rh and h)');
+  return stateAt(db, wAt(db), p, keys, opts, warnings);
+}
+
+function fromWH(w: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+  const keys: DefiningKey[] = ['w', 'h'];
+  const db = (h - H_FG0 * w) / (CP_DA + CP_WV * w);
+  const pw = (p * w) / (EPSILON + w);
+  // Unsaturated if the dry-bulb from eq 30 is at or above the dew point of w.
+  const unsaturated = pw <= PWS_MIN || (db >= T_MIN_C && pw <= pwsAt(Math.min(db, T_MAX_C)));
+  if (unsaturated || db > T_MAX_C) return stateAt(db, w, p, keys, opts, warnings);
+  if (pw > PWS_MAX) throw dbOutOfRange(db, keys);
+  const tSat = satTempRaw(pw); // dew point of the total water
+  if (Number.isNaN(tSat)) throw noConvergence('dew point');
+  const hSat = CP_DA * tSat + w * (H_FG0 + CP_WV * tSat);
+  if (!opts?.allowFog) {
+    throw problem(
+      'supersaturated',
+      `The humidity ratio ${fmtW(w)} with the enthalpy ${fmtH(h)} lies in the fog region: saturated air with that much water has ${fmtH(hSat)} at its dew point ${fmtT(tSat)}, so there is more water than the air can hold as vapour.`,
+      `Use an enthalpy of at least ${fmtH(hSat)} with this humidity ratio, or allow fog.`,
+      keys,
+    );
+  }
+  // Fog: energy balance h = hs(t) + (W − Ws(t))·h_condensate(t) for t below the dew point of W.
+  const f = (t: number): number => {
+    const ws = wsAt(t, p);
+    return CP_DA * t + ws * (H_FG0 + CP_WV * t) + (w - ws) * condensateEnthalpy(t) - h;
+  };
+  const fLo = f(T_MIN_C);
+  if (fLo > 0) {
+    throw problem(
+      'out-of-range',
+      `The enthalpy ${fmtH(h)} with ${fmtW(w)} of water would need a fog temperature below −100 °C.`,
+      'Check the enthalpy and the humidity ratio.',
+      keys,
+    );
+  }
+  const fHi = hSat - h;
+  const t = findRoot(f, T_MIN_C, tSat, fLo, fHi, 1e-12);
+  if (Number.isNaN(t)) throw noConvergence('fog temperature');
+  const ws = wsAt(t, p);
+  warnings.push(fogWarning(t, w, ws, keys));
+  return fogState(t, Math.max(w, ws), p);
+}

@@ -1,0 +1,132 @@
+/**
+ * Assembly of a complete {@link MoistAirState} from dry-bulb, humidity ratio and pressure (the
+ * dew point and wet-bulb solved when not already known), and of fog states.
+ */
+import type { MoistAirState } from './types';
+import { checkHumRatio, checkPressure } from './checks';
+import { CP_DA, CP_WV, EPSILON, H_FG0, R_DA, condensateEnthalpy } from './properties';
+import {
+  ZERO_C_K,
+  TRIPLE_POINT_C,
+  checkTemperature,
+  dLnPwsIce,
+  dLnPwsWater,
+  d2LnPwsIce,
+  d2LnPwsWater,
+  lnPwsIce,
+  lnPwsWater,
+  noConvergence,
+  satTempDeriv,
+  satTempFromLn,
+} from './saturation';
+import { supersaturatedError, wetBulbSolve } from './wetbulb';
+
+/**
+ * Every property of unsaturated (or exactly saturated) air from db °C, w kg/kg and p Pa, with
+ * pwsDb = pws(db) and pw = p w / (0.621945 + w) already computed and w ≤ Ws(db) already
+ * checked. `lnPw` is ln(pw) when known (NaN otherwise); `dp` and `wb` are used as given when not
+ * NaN (they were inputs), else solved. Throws `no-convergence` if a solve hits its bound.
+ */
+export function completeState(
+  db: number,
+  w: number,
+  p: number,
+  pwsDb: number,
+  pw: number,
+  lnPw: number,
+  dp: number,
+  wb: number,
+): MoistAirState {
+  let d1 = 0;
+  let d2 = 0;
+  if (pw > 0) {
+    if (Number.isNaN(dp)) {
+      dp = satTempFromLn(Number.isNaN(lnPw) ? Math.log(pw) : lnPw);
+      if (Number.isNaN(dp)) throw noConvergence('dew-point');
+      d1 = satTempDeriv.d1;
+      d2 = satTempDeriv.d2;
+    } else if (Number.isNaN(wb)) {
+      const T = dp + ZERO_C_K;
+      d1 = dp < TRIPLE_POINT_C ? dLnPwsIce(T) : dLnPwsWater(T);
+      d2 = dp < TRIPLE_POINT_C ? d2LnPwsIce(T) : d2LnPwsWater(T);
+    }
+  } else {
+    dp = Number.NEGATIVE_INFINITY;
+  }
+  if (Number.isNaN(wb)) {
+    wb = wetBulbSolve(db, w, p, pw, dp, d1, d2, pwsDb);
+    if (Number.isNaN(wb)) throw noConvergence('wet-bulb');
+  }
+  const ws = pwsDb < p ? (EPSILON * pwsDb) / (p - pwsDb) : Number.POSITIVE_INFINITY;
+  const v = (R_DA * (db + ZERO_C_K) * (1 + 1.607858 * w)) / p;
+  return {
+    p,
+    db,
+    wb,
+    dp,
+    rh: pw / pwsDb,
+    w,
+    h: CP_DA * db + w * (H_FG0 + CP_WV * db),
+    v,
+    rho: (1 + w) / v,
+    pw,
+    pws: pwsDb,
+    ws,
+    mu: w / ws,
+    wbIce: wb < 0,
+    dpFrost: dp < TRIPLE_POINT_C,
+    fog: false,
+  };
+}
+
+/** pws at t °C with the triple-point switch (no range check). */
+export function pwsAt(tC: number): number {
+  const T = tC + ZERO_C_K;
+  return Math.exp(tC < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T));
+}
+
+/**
+ * A fog state at t °C: saturated air plus (wTotal − Ws) kg/kg of suspended water (ice below
+ * 0 °C) at the same temperature. `w` is the total water, `h` includes the suspended water,
+ * `v` is the gas volume per kg dry air, `rho` counts the suspended water, `mu` = wTotal / Ws.
+ * Needs pws(t) < p and wTotal ≥ Ws(t) (checked by callers).
+ */
+export function fogState(t: number, wTotal: number, p: number): MoistAirState {
+  const pws = pwsAt(t);
+  const ws = (EPSILON * pws) / (p - pws);
+  const v = (R_DA * (t + ZERO_C_K) * (1 + 1.607858 * ws)) / p;
+  return {
+    p,
+    db: t,
+    wb: t,
+    dp: t,
+    rh: 1,
+    w: wTotal,
+    h: CP_DA * t + ws * (H_FG0 + CP_WV * t) + (wTotal - ws) * condensateEnthalpy(t),
+    v,
+    rho: (1 + wTotal) / v,
+    pw: pws,
+    pws,
+    ws,
+    mu: wTotal / ws,
+    wbIce: t < 0,
+    dpFrost: t < TRIPLE_POINT_C,
+    fog: true,
+  };
+}
+
+/**
+ * Every property of moist air from dry-bulb db °C, humidity ratio w kg/kg and pressure p Pa
+ * (used for mixes). Throws `PsychroError`: `out-of-range`, `negative-humidity-ratio`,
+ * `supersaturated` (w above saturation at db: use `solveState` with `allowFog` for a fog
+ * state), or `no-convergence`.
+ */
+export function stateFromDbW(db: number, w: number, p: number): MoistAirState {
+  checkTemperature(db, 'Dry-bulb');
+  checkPressure(p);
+  checkHumRatio(w);
+  const pwsDb = pwsAt(db);
+  const pw = (p * w) / (EPSILON + w);
+  if (pw > pwsDb) throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
+  return completeState(db, w, p, pwsDb, pw, Number.NaN, Number.NaN, Number.NaN);
+}

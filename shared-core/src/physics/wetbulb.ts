@@ -1,0 +1,292 @@
+/**
+ * Thermodynamic wet-bulb and dew point (ASHRAE Handbook—Fundamentals 2017 SI, Ch. 1):
+ * humidity ratio from dry-bulb and wet-bulb by eq 33 (wet-bulb at or above 0 °C, liquid water on
+ * the wick) or eq 35 (below 0 °C, ice), and the inverse by a safeguarded Newton iteration.
+ */
+import { PsychroError } from './types';
+import { checkHumRatio, checkPressure, pressureBelowSaturation } from './checks';
+import { fmtPa, fmtT, fmtW } from './format';
+import { EPSILON } from './properties';
+import {
+  C1, C2, C3, C4, C5, C6, C7, C8, C9, C10, C11, C12, C13,
+  ZERO_C_K,
+  TRIPLE_POINT_C,
+  checkTemperature,
+  lnPwsIce,
+  lnPwsWater,
+  noConvergence,
+  satTempDeriv,
+  satTempRaw,
+  PWS_0C,
+  PWS_MAX,
+} from './saturation';
+
+/** Convergence of the wet-bulb iteration: the returned value is within this of the root, K. */
+export const WB_TOLERANCE_K = 1e-6;
+const MAX_WB_ITER = 100;
+/**
+ * A Halley step smaller than this, with a small curvature term (|step·g''/g'| < 0.01), ends the
+ * wet-bulb iteration: the error left is then ~ (g''/2g')²·step³ < 2.5e-7 × step, i.e. < 3e-9 K.
+ */
+const WB_STEP_DONE = 1e-2;
+/** Internal lower limit for wet-bulb brackets of bone-dry air, °C (eq 5 extrapolated below −100 °C). */
+const WB_FLOOR_C = -200;
+
+/**
+ * Humidity ratio, kg/kg, from eq 33 (wet-bulb ≥ 0 °C) or eq 35 (wet-bulb < 0 °C) without checks;
+ * `wsStar` is the saturation humidity ratio at the wet-bulb. May be negative.
+ */
+export function humRatioEq33(db: number, wb: number, wsStar: number): number {
+  return wb >= 0
+    ? ((2501 - 2.326 * wb) * wsStar - 1.006 * (db - wb)) / (2501 + 1.86 * db - 4.186 * wb)
+    : ((2830 - 0.24 * wb) * wsStar - 1.006 * (db - wb)) / (2830 + 1.86 * db - 2.1 * wb);
+}
+
+/**
+ * Humidity ratio, kg/kg, from dry-bulb db, thermodynamic wet-bulb wb (°C) and pressure p Pa
+ * (eq 33, or eq 35 over ice when wb < 0 °C). Throws `wb-above-db`, `pressure-below-saturation`
+ * (pws(wb) ≥ p), `wb-too-low` (the equation gives W < 0) or `out-of-range`: never a clamp.
+ */
+export function humRatioFromWetBulb(db: number, wb: number, p: number): number {
+  checkTemperature(db, 'Dry-bulb');
+  checkTemperature(wb, 'Wet-bulb');
+  checkPressure(p);
+  if (wb > db) {
+    throw new PsychroError({
+      code: 'wb-above-db',
+      message: `Wet-bulb ${fmtT(wb)} is above the dry-bulb ${fmtT(db)}.`,
+      fix: 'The wet-bulb is at most the dry-bulb (equal when saturated): check the two figures or swap them.',
+      keys: ['db', 'wb'],
+    });
+  }
+  const pws = Math.exp(wb < TRIPLE_POINT_C ? lnPwsIce(wb + ZERO_C_K) : lnPwsWater(wb + ZERO_C_K));
+  if (pws >= p) throw pressureBelowSaturation(wb, pws, p, ['wb'], 'wet-bulb');
+  const w = humRatioEq33(db, wb, (EPSILON * pws) / (p - pws));
+  if (w < 0) {
+    const min = wetBulbSolve(db, 0, p, 0, Number.NEGATIVE_INFINITY, 0, 0, pwsAt(db));
+    throw new PsychroError({
+      code: 'wb-too-low',
+      message:
+        `Wet-bulb ${fmtT(wb)} is too far below the dry-bulb ${fmtT(db)}: even bone-dry air at ${fmtPa(p)} ` +
+        (Number.isFinite(min) ? `has a wet-bulb of ${fmtT(min)}` : 'has a higher wet-bulb') +
+        ' (the humidity ratio would be negative).',
+      fix: Number.isFinite(min)
+        ? `Use a wet-bulb of at least ${fmtT(min)} at this dry-bulb, or check the dry-bulb.`
+        : 'Use a higher wet-bulb, or check the dry-bulb.',
+      keys: ['db', 'wb'],
+    });
+  }
+  return w;
+}
+
+function pwsAt(tC: number): number {
+  const T = tC + ZERO_C_K;
+  return Math.exp(tC < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T));
+}
+
+/** Scratch outputs of {@link wetBulbSolve}: iterations of the last solve. */
+export const wetBulbInfo = { iterations: 0 };
+
+/**
+ * Wet-bulb, °C, by safeguarded Halley/Newton steps on eq 33/35 (internal, inputs already checked).
+ * `pw` is the vapour pressure, `dp` the dew point (−Infinity for bone-dry air), `dpD1`, `dpD2`
+ * the first two derivatives of ln pws at (or within 2e-3 K of) the dew point on its branch, and
+ * `pwsDb` pws at the dry-bulb. The bracket is [dew point, min(db, boiling point at p)]; a step
+ * that leaves it is replaced by bisection. Where the dry-bulb is above 0 °C and the dew point
+ * below, eq 33 is used when it has a root at or above 0 °C, and eq 35 (ice) otherwise. Returns
+ * NaN if the iteration bound is hit.
+ */
+export function wetBulbSolve(
+  db: number,
+  w: number,
+  p: number,
+  pw: number,
+  dp: number,
+  dpD1: number,
+  dpD2: number,
+  pwsDb: number,
+): number {
+  // Upper end: the dry-bulb, or the boiling point at p when the dry-bulb is above it (where the
+  // saturation humidity ratio is infinite); the residual is +∞ there and is never evaluated.
+  let hi = db;
+  if (pwsDb >= p) {
+    if (p > PWS_MAX) return Number.NaN;
+    hi = satTempRaw(p);
+    if (Number.isNaN(hi)) return Number.NaN;
+  }
+  let lo = dp > WB_FLOOR_C ? dp : WB_FLOOR_C;
+  if (lo >= hi) {
+    // Saturated air (dp = db up to round-off) or air at its boiling point.
+    wetBulbInfo.iterations = 0;
+    return hi < db ? hi : db;
+  }
+  const e = EPSILON * p;
+  // Branch: ice (eq 35) when the whole bracket is below 0 °C; water (eq 33) when it is above; in
+  // between, eq 33 if its residual at 0 °C is ≤ 0 (a root at or above 0 °C exists), else eq 35.
+  let ice: boolean;
+  if (hi <= 0) ice = true;
+  else if (lo >= 0) ice = false;
+  else {
+    const ws0 = (EPSILON * PWS_0C) / (p - PWS_0C);
+    const g0 = 2501 * ws0 - 1.006 * db - w * (2501 + 1.86 * db);
+    if (g0 <= 0) {
+      ice = false;
+      lo = 0;
+    } else {
+      ice = true;
+      hi = 0;
+    }
+  }
+  // Residual g(t) = (a0 − a1 t)·Ws(t) − 1.006 (db − t) − W (dConst − d1 t), no division by the
+  // denominator of eq 33/35 (it is positive), increasing and convex in t.
+  const a0 = ice ? 2830 : 2501;
+  const a1 = ice ? 0.24 : 2.326;
+  const d1 = ice ? 2.1 : 4.186;
+  const dConst = (ice ? 2830 : 2501) + 1.86 * db;
+  const gConst = 1.006 + d1 * w;
+
+  let t: number;
+  if (lo === dp && w > 0) {
+    // Free first step from the dew point: there pws = pw, Ws = W and the residual is
+    // −(db − dp)(1.006 + 1.86 W); its slopes need no exponential.
+    const iq = 1 / (p - pw);
+    const u1 = pw * dpD1;
+    const wsp = e * u1 * iq * iq;
+    const wspp = e * (pw * (dpD1 * dpD1 + dpD2) + 2 * u1 * u1 * iq) * iq * iq;
+    const g = -(db - dp) * (1.006 + 1.86 * w);
+    const a = a0 - a1 * dp;
+    const gp = -a1 * w + a * wsp + gConst;
+    const gpp = -2 * a1 * wsp + a * wspp;
+    const igp = 1 / gp;
+    const newton = g * igp;
+    const corr = 1 - 0.5 * newton * gpp * igp;
+    t = dp - (corr > 0.5 && corr < 2 ? newton / corr : newton);
+    if (!(t > lo && t < hi)) t = 0.5 * (lo + hi);
+  } else {
+    t = 0.5 * (lo + hi);
+  }
+
+  for (let i = 0; i < MAX_WB_ITER; i++) {
+    const T = t + ZERO_C_K;
+    const x = 1 / T;
+    const lnT = Math.log(T);
+    let lnPws: number;
+    let L1: number;
+    let L2: number;
+    if (t < TRIPLE_POINT_C) {
+      lnPws = C1 * x + C2 + T * (C3 + T * (C4 + T * (C5 + T * C6))) + C7 * lnT;
+      L1 = x * (C7 - C1 * x) + C3 + T * (2 * C4 + T * (3 * C5 + T * 4 * C6));
+      L2 = x * x * (2 * C1 * x - C7) + 2 * C4 + T * (6 * C5 + T * 12 * C6);
+    } else {
+      lnPws = C8 * x + C9 + T * (C10 + T * (C11 + T * C12)) + C13 * lnT;
+      L1 = x * (C13 - C8 * x) + C10 + T * (2 * C11 + T * 3 * C12);
+      L2 = x * x * (2 * C8 * x - C13) + 2 * C11 + T * 6 * C12;
+    }
+    const pws = Math.exp(lnPws);
+    const q = p - pws;
+    let next: number;
+    if (q <= 0) {
+      // At or above the boiling point (round-off near hi): residual +∞.
+      hi = t;
+      next = 0.5 * (lo + hi);
+    } else {
+      const iq = 1 / q;
+      const ws = EPSILON * pws * iq;
+      const a = a0 - a1 * t;
+      const g = a * ws - 1.006 * (db - t) - w * (dConst - d1 * t);
+      if (g === 0) {
+        wetBulbInfo.iterations = i + 1;
+        return t;
+      }
+      if (g < 0) lo = t;
+      else hi = t;
+      const u1 = pws * L1;
+      const wsp = e * u1 * iq * iq;
+      const wspp = e * (pws * (L1 * L1 + L2) + 2 * u1 * u1 * iq) * iq * iq;
+      const gp = -a1 * ws + a * wsp + gConst;
+      const gpp = -2 * a1 * wsp + a * wspp;
+      // Halley step (cubic convergence), Newton when the correction is not well behaved.
+      const igp = 1 / gp;
+      const newton = g * igp;
+      const curv = newton * gpp * igp;
+      const corr = 1 - 0.5 * curv;
+      const step = corr > 0.5 && corr < 2 ? newton / corr : newton;
+      next = t - step;
+      // The error after a small step is ~ C·step³ (C well below 1 K⁻² here), except across the
+      // triple point, where the slope of pws jumps (ice below, water above): no stop there.
+      if (Math.abs(step) < WB_STEP_DONE && Math.abs(curv) < 0.01 && t < TRIPLE_POINT_C === next < TRIPLE_POINT_C) {
+        wetBulbInfo.iterations = i + 1;
+        return next;
+      }
+      if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    }
+    if (hi - lo < 1e-9) {
+      wetBulbInfo.iterations = i + 1;
+      return next;
+    }
+    t = next;
+  }
+  wetBulbInfo.iterations = MAX_WB_ITER;
+  return Number.NaN;
+}
+
+/**
+ * Thermodynamic wet-bulb, °C, from dry-bulb db °C, humidity ratio w kg/kg and pressure p Pa:
+ * safeguarded Newton on eq 33/35, bracketed by [dew point, min(db, boiling point at p)],
+ * converged to 1e-6 K or better. Throws `supersaturated` (w above saturation at db),
+ * `negative-humidity-ratio`, `out-of-range` or `no-convergence`.
+ */
+export function wetBulbFromHumRatio(db: number, w: number, p: number): number {
+  checkTemperature(db, 'Dry-bulb');
+  checkPressure(p);
+  checkHumRatio(w);
+  const pw = (p * w) / (EPSILON + w);
+  const Tdb = db + ZERO_C_K;
+  const pwsDb = Math.exp(db < TRIPLE_POINT_C ? lnPwsIce(Tdb) : lnPwsWater(Tdb));
+  if (pw > pwsDb) throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
+  let dp = Number.NEGATIVE_INFINITY;
+  let d1 = 0;
+  let d2 = 0;
+  if (pw > 0) {
+    dp = satTempRaw(pw);
+    if (Number.isNaN(dp)) throw noConvergence('dew-point');
+    d1 = satTempDeriv.d1;
+    d2 = satTempDeriv.d2;
+  }
+  const wb = wetBulbSolve(db, w, p, pw, dp, d1, d2, pwsDb);
+  if (Number.isNaN(wb)) throw noConvergence('wet-bulb');
+  return wb;
+}
+
+/** The `supersaturated` error: w above the saturation humidity ratio ws at db. */
+export function supersaturatedError(db: number, w: number, ws: number, keys: ('db' | 'w' | 'wb' | 'h' | 'rh' | 'dp')[]): PsychroError {
+  return new PsychroError({
+    code: 'supersaturated',
+    message: `Humidity ratio ${fmtW(w)} is above saturation at ${fmtT(db)} (${fmtW(ws)}): that is fog, not humid air.`,
+    fix: `Use a humidity ratio of at most ${fmtW(ws)} at this dry-bulb, or a higher dry-bulb.`,
+    keys,
+  });
+}
+
+/**
+ * Dew point (frost point below 0.01 °C), °C, from humidity ratio w kg/kg and pressure p Pa, by
+ * inverting eqs 5/6. W = 0 gives −Infinity. Throws `negative-humidity-ratio` or `out-of-range`.
+ */
+export function dewPointFromHumRatio(w: number, p: number): number {
+  checkPressure(p);
+  checkHumRatio(w);
+  const pw = (p * w) / (EPSILON + w);
+  if (pw === 0) return Number.NEGATIVE_INFINITY;
+  if (pw > PWS_MAX) {
+    throw new PsychroError({
+      code: 'out-of-range',
+      message: `Humidity ratio ${fmtW(w)} at ${fmtPa(p)} puts the dew point above 200 °C.`,
+      fix: 'Use a lower humidity ratio or pressure.',
+      keys: ['w'],
+    });
+  }
+  const dp = satTempRaw(pw);
+  if (Number.isNaN(dp)) throw noConvergence('dew-point');
+  return dp;
+}
+
