@@ -391,6 +391,8 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
     if (!pos.has(p.name)) pos.set(p.name, { p, px: toPixel(layout, p.db, p.w) });
   }
   const segments: [Pixel, Pixel][] = [];
+  /** Process names: state tags keep clear of them. */
+  const obstacles: Box[] = [];
   out.push(`<g class="dmc-overlay" clip-path="url(#${id}-clip)">`);
   for (const m of data.mixes) {
     const mixed = pos.get(m.name);
@@ -430,9 +432,11 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
     // Name on the side of the arrow away from the points' label preference (left of travel).
     const nx = uy;
     const ny = -ux;
-    out.push(
-      `<text class="dmc-process-name" x="${n(mid.x + nx * 11)}" y="${n(mid.y + ny * 11 + 3)}" text-anchor="middle">${escapeXml(pr.name)}</text>`,
-    );
+    const lx = mid.x + nx * 11;
+    const ly = mid.y + ny * 11 + 3;
+    out.push(`<text class="dmc-process-name" x="${n(lx)}" y="${n(ly)}" text-anchor="middle">${escapeXml(pr.name)}</text>`);
+    const lw = textWidth(pr.name, 10.5);
+    obstacles.push({ x: lx - lw / 2, y: ly - 9, w: lw, h: 12 });
     out.push('</g>');
     segments.push([start, tip]);
   }
@@ -443,7 +447,7 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
   const markers: Box[] = plotted.map(({ px }) => ({ x: px.x - MARKER_RADIUS - 2, y: px.y - MARKER_RADIUS - 2, w: 2 * MARKER_RADIUS + 4, h: 2 * MARKER_RADIUS + 4 }));
   const placed = placeLabels(
     plotted.map(({ p, px }) => ({ anchor: px, width: textWidth(tagText(p), 11) + 12, height: 18 })),
-    markers,
+    [...markers, ...obstacles],
     segments,
     plot,
   );
