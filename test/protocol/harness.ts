@@ -4,7 +4,8 @@
  * the expected version), never on fixed sleeps.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
-import { join } from 'node:path';
+import { existsSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 import {
   createMessageConnection,
   IPCMessageReader,
@@ -14,8 +15,16 @@ import {
   type MessageConnection,
 } from 'vscode-jsonrpc/node';
 
-/** The repository root. */
-export const ROOT = join(__dirname, '..', '..');
+/** The repository root: the nearest folder upwards from the working directory that holds the server's bin. */
+export const ROOT = ((): string => {
+  let dir = process.cwd();
+  for (;;) {
+    if (existsSync(join(dir, 'bin', 'dewmark-language-server.js'))) return dir;
+    const up = dirname(dir);
+    if (up === dir) throw new Error(`no bin/dewmark-language-server.js above ${process.cwd()}; run from the Dewmark repository`);
+    dir = up;
+  }
+})();
 /** The server's entry point, as editors start it. */
 export const SERVER_BIN = join(ROOT, 'bin', 'dewmark-language-server.js');
 

@@ -1,0 +1,167 @@
+/**
+ * Language-server benchmark through the real protocol (`dewmark-language-server --stdio`, driven
+ * with vscode-jsonrpc) on a generated 10,000-line note with 2,000 statements:
+ * - cold start: spawn → initialize → didOpen → first diagnostics (goal ≤ 300 ms);
+ * - a one-character didChange → the new diagnostics of that version (goal ≤ 20 ms median);
+ * - hover on a state name (goal ≤ 1 ms median);
+ * - inlay hints for a 60-line range (goal ≤ 5 ms median);
+ * - the server's resident memory after the runs (goal ≤ 80 MB).
+ * Every time is a round trip as a client sees it (message encoding, pipe and decoding included).
+ * Run alone: `node --import tsx bench/server.ts` (after `npm run build`).
+ */
+import { readFileSync } from 'node:fs';
+import { PUSH_ONLY_CAPABILITIES, startServer, type Position, type Session } from '../test/protocol/harness';
+
+/** Lines and statements of the generated note. */
+const LINES = 10_000;
+const STATEMENTS = 2_000;
+
+/** A note of an invented campus: 200 fenced blocks of 10 statements, each under a heading with prose. */
+export function generateNote(): { text: string; stateLines: number[]; lineCount: number } {
+  const lines: string[] = ['# Riverside campus — air-handling plant', ''];
+  const stateLines: number[] = [];
+  const blocks = STATEMENTS / 10;
+  const proseLines = Math.floor((LINES - 2 - blocks * 16) / blocks);
+  for (let b = 0; b < blocks; b++) {
+    lines.push(`## Plant room ${b + 1}`, '');
+    for (let p = 0; p < proseLines; p++) lines.push(`Design note ${b + 1}.${p + 1}: the unit serves zone ${(b % 17) + 1}; figures below are checked on save.`);
+    lines.push('', '```air');
+    const n = (k: number) => `B${b}_${k}`;
+    const db = 20 + (b % 15);
+    const states = [
+      `state ${n(1)}: db=${db}C rh=${40 + (b % 30)}%`,
+      `state ${n(2)}: db=${db + 8}C wb=${db + 1}C`,
+      `state ${n(3)}: db=${12 + (b % 4)}C rh=90%`,
+      `state ${n(4)}: db=${db - 2}C dp=${8 + (b % 5)}C`,
+      `state ${n(5)}: db=${db + 3}C w=${7 + (b % 6)}g/kg`,
+      `state ${n(6)}: db=${db}C rh=50% w=${(7 + (b % 5)).toFixed(1)}g/kg`,
+      `state ${n(7)}: db=${db + 1}C h=${45 + (b % 10)}kJ/kg`,
+      `mix ${n(8)}: ${n(1)} 30% + ${n(2)} 70%`,
+      `mix ${n(9)}: ${n(1)} 1.2kg/s + ${n(5)} 0.8kg/s`,
+      `process ${n(10)}: ${n(8)} -> ${n(3)} m=${2 + (b % 4)}kg/s`,
+    ];
+    for (const s of states) {
+      if (s.startsWith('state')) stateLines.push(lines.length);
+      lines.push(s);
+    }
+    lines.push('```', '');
+  }
+  while (lines.length < LINES) lines.push('Closing remarks on the plant.');
+  return { text: lines.join('\n') + '\n', stateLines, lineCount: lines.length };
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
+}
+
+function rssMB(pid: number): number | null {
+  try {
+    const status = readFileSync(`/proc/${pid}/status`, 'utf8');
+    const kb = Number(/VmRSS:\s+(\d+)\s+kB/.exec(status)?.[1]);
+    return Number.isFinite(kb) ? kb / 1024 : null;
+  } catch {
+    return null;
+  }
+}
+
+function ms(t0: bigint): number {
+  return Number(process.hrtime.bigint() - t0) / 1e6;
+}
+
+function row(name: string, value: number | null, unit: string, goal: number): string {
+  const shown = value === null ? 'n/a' : value.toFixed(unit === 'MB' ? 1 : 2);
+  const verdict = value === null ? 'not measured' : value <= goal ? 'met' : 'NOT met';
+  return `${name.padEnd(44)} ${shown.padStart(9)} ${unit.padEnd(3)}  goal ≤ ${goal} ${unit}  ${verdict}`;
+}
+
+/** Runs the server benchmark and prints the figures. */
+export async function benchServer(): Promise<void> {
+  const { text, stateLines, lineCount } = generateNote();
+  const statements = text.split('\n').filter((l) => /^(state|mix|process) /.test(l)).length;
+  console.log(`note: ${lineCount} lines, ${statements} statements, ${(text.length / 1024).toFixed(0)} KiB`);
+  const uri = 'file:///bench/campus.md';
+
+  // Cold start: spawn → initialize → didOpen → first publishDiagnostics.
+  const colds: number[] = [];
+  let s: Session | undefined;
+  for (let round = 0; round < 5; round++) {
+    const t0 = process.hrtime.bigint();
+    const session = startServer();
+    await session.initialize(PUSH_ONLY_CAPABILITIES);
+    await session.open(uri, text, 1);
+    await session.diagnosticsFor(uri, 1);
+    colds.push(ms(t0));
+    if (round < 4) {
+      await session.shutdown();
+      session.kill();
+    } else s = session;
+  }
+  const session = s!;
+  try {
+    // One-character edits: toggle a digit of a dry-bulb in the middle of the note.
+    const line = stateLines[Math.floor(stateLines.length / 2)]!;
+    const lineText = text.split('\n')[line]!;
+    const col = lineText.indexOf('db=') + 4; // second digit of the temperature
+    const digits = [lineText[col]!, lineText[col] === '1' ? '2' : '1'];
+    const edits: number[] = [];
+    let version = 1;
+    for (let i = 0; i < 40; i++) {
+      version++;
+      const t0 = process.hrtime.bigint();
+      await session.change(uri, version, [{ range: { start: { line, character: col }, end: { line, character: col + 1 } }, text: digits[version % 2]! }]);
+      await session.diagnosticsFor(uri, version);
+      if (i >= 5) edits.push(ms(t0));
+    }
+
+    // Hovers on state names spread over the note.
+    const hovers: number[] = [];
+    for (let i = 0; i < 300; i++) {
+      const l = stateLines[(i * 37) % stateLines.length]!;
+      const position: Position = { line: l, character: 7 };
+      const t0 = process.hrtime.bigint();
+      const h = await session.request<{ contents: { value: string } } | null>('textDocument/hover', { textDocument: { uri }, position });
+      if (i >= 20) hovers.push(ms(t0));
+      if (!h) throw new Error(`no hover at line ${l}`);
+    }
+
+    // Inlay hints for 60-line windows around statement blocks.
+    const hints: number[] = [];
+    for (let i = 0; i < 200; i++) {
+      const start = stateLines[(i * 53) % stateLines.length]! - 20;
+      const t0 = process.hrtime.bigint();
+      const r = await session.request<unknown[]>('textDocument/inlayHint', {
+        textDocument: { uri },
+        range: { start: { line: Math.max(0, start), character: 0 }, end: { line: Math.max(0, start) + 60, character: 0 } },
+      });
+      if (i >= 20) hints.push(ms(t0));
+      if (!Array.isArray(r) || r.length === 0) throw new Error('no inlay hints in a range with statements');
+    }
+
+    const rss = session.proc.pid ? rssMB(session.proc.pid) : null;
+    console.log(row('cold start → first diagnostics (median of 5)', median(colds), 'ms', 300));
+    console.log(row('didChange (1 char) → new diagnostics (median)', median(edits), 'ms', 20));
+    console.log(row('hover (median)', median(hovers), 'ms', 1));
+    console.log(row('inlay hints, 60-line range (median)', median(hints), 'ms', 5));
+    console.log(row('server RSS after the runs', rss, 'MB', 80));
+    console.log(
+      `spread: didChange p90 ${percentile(edits, 0.9).toFixed(2)} ms, hover p90 ${percentile(hovers, 0.9).toFixed(3)} ms, hints p90 ${percentile(hints, 0.9).toFixed(2)} ms, cold max ${Math.max(...colds).toFixed(1)} ms`,
+    );
+    await session.shutdown();
+  } finally {
+    session.kill();
+  }
+}
+
+function percentile(xs: number[], p: number): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.min(s.length - 1, Math.floor(p * s.length))]!;
+}
+
+if (process.argv[1] && /bench[\\/]server\.ts$/.test(process.argv[1])) {
+  benchServer().catch((err: unknown) => {
+    console.error(err);
+    process.exitCode = 1;
+  });
+}
