@@ -1,0 +1,209 @@
+/**
+ * The `dewmark` command as a real process: built once with the project's build script, then run as
+ * `node bin/dewmark.js …` with files in a temporary folder. Exit codes: 0 clean, 1 errors in notes,
+ * 2 usage or I/O problems.
+ */
+import { beforeAll, afterAll, describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+const root = join(__dirname, '..', '..');
+const bin = join(root, 'bin', 'dewmark.js');
+let dir = '';
+
+interface Run {
+  code: number | null;
+  out: string;
+  err: string;
+}
+
+function dewmark(args: string[], opts: { cwd?: string; input?: string | Buffer } = {}): Run {
+  const r = spawnSync(process.execPath, [bin, ...args], {
+    cwd: opts.cwd ?? dir,
+    input: opts.input,
+    encoding: 'utf8',
+    env: { ...process.env, NO_COLOR: '1' },
+    timeout: 60_000,
+  });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+const GOOD = ['# Good note', '', '```air', 'site: elev=1600m', 'state RA: db=24C rh=50%', 'state OA: db=32C wb=16.5C', 'mix MA: OA 25% + RA 75%', 'state OFF: db=12C rh=92%', 'process CC: MA -> OFF m=4.6kg/s', '```', ''].join('\n');
+const BAD = ['# Bad note', '', '```air', 'state A: db=20C wb=25C', 'state B: db=24C w=9.3g/kg rh=80%', '```', ''].join('\n');
+const WARN = ['# Warning only', '', '```air', 'state B: db=24C w=9.3g/kg rh=80%', '```', ''].join('\n');
+
+beforeAll(() => {
+  const b = spawnSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, encoding: 'utf8' });
+  if (b.status !== 0) throw new Error(`build failed: ${b.stderr}`);
+  dir = mkdtempSync(join(tmpdir(), 'dewmark-cli-'));
+  writeFileSync(join(dir, 'good.md'), GOOD);
+  writeFileSync(join(dir, 'bad.md'), BAD);
+  writeFileSync(join(dir, 'warn.markdown'), WARN);
+  mkdirSync(join(dir, 'notes', 'deep'), { recursive: true });
+  writeFileSync(join(dir, 'notes', 'a.md'), GOOD);
+  writeFileSync(join(dir, 'notes', 'deep', 'b.md'), GOOD);
+  writeFileSync(join(dir, 'notes', 'deep', 'skip.txt'), 'not markdown');
+  mkdirSync(join(dir, 'notes', 'build'));
+  writeFileSync(join(dir, 'notes', 'build', 'generated.md'), BAD);
+  writeFileSync(join(dir, 'notes', '.gitignore'), 'build/\n');
+  writeFileSync(join(dir, 'binary.md'), Buffer.from([0x23, 0x20, 0x00, 0x01, 0x02, 0xff]));
+  writeFileSync(join(dir, 'latin1.md'), Buffer.from('# Caf\xe9 note\n', 'latin1'));
+}, 120_000);
+
+afterAll(() => {
+  if (dir) rmSync(dir, { recursive: true, force: true });
+});
+
+describe('dewmark check', () => {
+  it('exit 0 and a summary for a clean note', () => {
+    const r = dewmark(['check', 'good.md']);
+    expect(r.code).toBe(0);
+    expect(r.out.trim()).toBe('1 file, 0 errors, 0 warnings');
+  });
+
+  it('exit 1 with path:line:col: severity[code]: message lines', () => {
+    const r = dewmark(['check', 'bad.md']);
+    expect(r.code).toBe(1);
+    const lines = r.out.trim().split('\n');
+    expect(lines[0]).toMatch(/^bad\.md:4:10: error\[wb-above-db\]: .+/);
+    expect(lines[1]).toMatch(/^bad\.md:5:30: warning\[claim-mismatch\]: .+computed rh=/);
+    expect(lines.at(-1)).toBe('1 file, 1 error, 1 warning');
+  });
+
+  it('--format json gives the diagnostics with 1-based ranges and a summary', () => {
+    const r = dewmark(['check', '--format', 'json', 'bad.md']);
+    expect(r.code).toBe(1);
+    const doc = JSON.parse(r.out);
+    expect(doc.summary).toEqual({ files: 1, errors: 1, warnings: 1, infos: 0, unreadable: 0 });
+    expect(doc.files[0].path).toBe('bad.md');
+    expect(doc.files[0].diagnostics[0]).toMatchObject({ line: 4, column: 10, endLine: 4, endColumn: 23, severity: 'error', code: 'wb-above-db' });
+  });
+
+  it('reads standard input with -', () => {
+    const r = dewmark(['check', '-'], { input: BAD });
+    expect(r.code).toBe(1);
+    expect(r.out).toMatch(/^<stdin>:4:10: error\[wb-above-db\]/m);
+  });
+
+  it('folders are walked recursively for .md and .markdown, honouring .gitignore', () => {
+    const r = dewmark(['check', 'notes']);
+    expect(r.code).toBe(0);
+    expect(r.out.trim()).toBe('2 files, 0 errors, 0 warnings');
+    const all = dewmark(['check', '--no-gitignore', 'notes']);
+    expect(all.code).toBe(1);
+    expect(all.out).toContain('generated.md');
+  });
+
+  it('globs', () => {
+    const r = dewmark(['check', '--format', 'json', 'notes/**/*.md']);
+    const doc = JSON.parse(r.out);
+    expect(doc.files.map((f: { path: string }) => f.path).sort()).toEqual(['notes/a.md', 'notes/build/generated.md', 'notes/deep/b.md']);
+  });
+
+  it('a missing file is exit 2 with a clear message', () => {
+    const r = dewmark(['check', 'nowhere.md']);
+    expect(r.code).toBe(2);
+    expect(r.err).toContain("cannot read 'nowhere.md': no such file or folder");
+  });
+
+  it('a glob that matches nothing is exit 2', () => {
+    const r = dewmark(['check', 'nothing/*.md']);
+    expect(r.code).toBe(2);
+    expect(r.err).toContain("no files match the pattern 'nothing/*.md'");
+  });
+
+  it('a binary file is exit 2', () => {
+    const r = dewmark(['check', 'binary.md']);
+    expect(r.code).toBe(2);
+    expect(r.err).toContain("'binary.md' is a binary file");
+  });
+
+  it('a file that is not UTF-8 is exit 2, and the other files are still checked', () => {
+    const r = dewmark(['check', 'latin1.md', 'good.md']);
+    expect(r.code).toBe(2);
+    expect(r.err).toContain("'latin1.md' is not valid UTF-8 text (first bad byte at offset 5)");
+    expect(r.out).toContain('1 file, 0 errors, 0 warnings, 1 could not be read');
+  });
+
+  it('--no-claims drops claim warnings; --max-warnings turns warnings into a failure', () => {
+    expect(dewmark(['check', 'warn.markdown']).code).toBe(0);
+    expect(dewmark(['check', '--max-warnings', '0', 'warn.markdown']).code).toBe(1);
+    const r = dewmark(['check', '--no-claims', 'warn.markdown']);
+    expect(r.out.trim()).toBe('1 file, 0 errors, 0 warnings');
+  });
+
+  it('--elevation sets the default pressure (notes without a site line)', () => {
+    const note = ['```air', 'state A: db=20C rh=50%', '```', ''].join('\n');
+    const r = dewmark(['eval', '--format', 'json', '--elevation', '1000m', '-'], { input: note });
+    // ASHRAE HoF 2017 SI Ch.1 Table 1: 89.875 kPa at 1000 m (±1 Pa).
+    expect(Math.abs(JSON.parse(r.out).files[0].states[0].p_kPa - 89.875)).toBeLessThanOrEqual(0.001);
+  });
+});
+
+describe('dewmark eval', () => {
+  it('--format json has the documented fields in SI', () => {
+    const r = dewmark(['eval', '--format', 'json', 'good.md']);
+    expect(r.code).toBe(0);
+    const f = JSON.parse(r.out).files[0];
+    expect(f.path).toBe('good.md');
+    const ra = f.states.find((s: { name: string }) => s.name === 'RA');
+    for (const k of ['name', 'line', 'kind', 'p_kPa', 'db_C', 'wb_C', 'dp_C', 'rh_pct', 'w_kgkg', 'h_kJkg', 'v_m3kg']) expect(ra).toHaveProperty(k);
+    expect(ra).toMatchObject({ name: 'RA', line: 5, kind: 'state', db_C: 24, rh_pct: 50 });
+    expect(f.states.find((s: { name: string }) => s.name === 'MA').kind).toBe('mix');
+    const cc = f.processes[0];
+    for (const k of ['name', 'line', 'm_kgs', 'q_total_kW', 'q_sensible_kW', 'q_latent_kW', 'shr', 'water_kgh']) expect(cc).toHaveProperty(k);
+    expect(cc).toMatchObject({ name: 'CC', line: 9, m_kgs: 4.6, kind: 'cooling-dehumidifying' });
+    expect(cc.q_total_kW).toBeLessThan(0);
+    expect(f.diagnostics).toEqual([]);
+  });
+
+  it('a table in the note unit system', () => {
+    const r = dewmark(['eval', 'good.md']);
+    expect(r.code).toBe(0);
+    expect(r.out).toContain('States');
+    expect(r.out).toMatch(/db °C/);
+    expect(r.out).toMatch(/^RA\s+5\s+state/m);
+    expect(r.out).toContain('Processes');
+    const ip = dewmark(['eval', '--units', 'IP', 'good.md']);
+    expect(ip.out).toMatch(/db °F/);
+  });
+
+  it('exit 1 when a note has errors, and the diagnostics are listed', () => {
+    const r = dewmark(['eval', 'bad.md']);
+    expect(r.code).toBe(1);
+    expect(r.out).toContain('error[wb-above-db]');
+  });
+});
+
+describe('usage', () => {
+  it('--version and --help', () => {
+    const v = dewmark(['--version']);
+    expect(v.code).toBe(0);
+    expect(v.out.trim()).toMatch(/^\d+\.\d+\.\d+/);
+    const h = dewmark(['--help']);
+    expect(h.code).toBe(0);
+    expect(h.out).toContain('check');
+    expect(h.out).toContain('eval');
+  });
+
+  it('an unknown option is exit 2 with a hint', () => {
+    const r = dewmark(['check', '--colour', 'good.md']);
+    expect(r.code).toBe(2);
+    expect(r.err).toContain("unknown option '--colour'");
+  });
+
+  it('an unknown command is exit 2', () => {
+    const r = dewmark(['chekc']);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/unknown command 'chekc'/);
+  });
+
+  it('bad option values are exit 2', () => {
+    expect(dewmark(['check', '--units', 'metric', 'good.md']).err).toContain('--units must be SI or IP');
+    expect(dewmark(['check', '--pressure', '84', 'good.md']).code).toBe(2);
+    expect(dewmark(['check', '--elevation', '1600kPa', 'good.md']).err).toContain('not a length unit');
+    expect(dewmark(['check', '--format', 'xml', 'good.md']).code).toBe(2);
+  });
+});
