@@ -17,7 +17,10 @@ const common = {
   sourcemap: false,
   legalComments: 'none',
   logLevel: 'warning',
-  define: { __DEWMARK_VERSION__: JSON.stringify(pkg.version) },
+  // ES-module dependencies bundled into CommonJS may read import.meta.url (fdir does, for
+  // createRequire); give them the bundle's own file URL.
+  banner: { js: "var __bundleMetaUrl = require('url').pathToFileURL(__filename).href;" },
+  define: { __DEWMARK_VERSION__: JSON.stringify(pkg.version), 'import.meta.url': '__bundleMetaUrl' },
 };
 
 const targets = [

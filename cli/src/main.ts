@@ -1,6 +1,14 @@
 /** Entry point of the `dewmark` command (bundled to dist/cli.js). */
 import { processIO, run } from './run';
 
+// A closed pipe (`dewmark check | head`) ends the output quietly.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on('error', (err: NodeJS.ErrnoException) => {
+    if (err.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    throw err;
+  });
+}
+
 run(process.argv.slice(2), processIO()).then(
   (code) => {
     process.exitCode = code;

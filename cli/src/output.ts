@@ -1,6 +1,6 @@
 /** What `dewmark` prints: diagnostic lines, the JSON documents, and the terminal tables. */
 import type { Analysis, CoreDiagnostic, Dimension, ProcessResult, StateResult, UnitSystem } from './core';
-import { LineIndex, displaySymbol, displayUnit, formatQuantity } from './core';
+import { LineIndex, displaySymbol, displayUnit, formatQuantity, lookupUnit } from './core';
 
 /** One checked or evaluated file. */
 export interface FileResult {
@@ -166,6 +166,9 @@ export function renderTable(header: string[], rows: string[][], numeric: boolean
   return [fmt(header), widths.map((w) => '-'.repeat(w)).join('  '), ...rows.map(fmt)].join('\n');
 }
 
+/** SHR is shown as a plain ratio (0.73), not as %. */
+const FRACTION_ONE = { symbol: '', aliases: [], dimension: 'fraction' as const, system: 'both' as const, title: 'ratio', scale: 1, offset: 0 };
+
 function q(si: number | null | undefined, dim: Dimension, sys: UnitSystem, digits?: number): string {
   if (si === null || si === undefined || !Number.isFinite(si)) return '—';
   return formatQuantity(si, dim, sys, digits === undefined ? {} : { digits }).valueText;
@@ -242,8 +245,8 @@ export function processesTable(f: FileResult): string | null {
     q(p.qTotalW, 'power', sys),
     q(p.qSensibleW, 'power', sys),
     q(p.qLatentW, 'power', sys),
-    p.shr === null || !Number.isFinite(p.shr) ? '—' : p.shr.toFixed(2),
-    p.waterKgS === null ? '—' : sys === 'SI' ? (p.waterKgS * 3600).toFixed(1) : q(p.waterKgS, 'massFlow', 'IP'),
+    p.shr === null || !Number.isFinite(p.shr) ? '—' : formatQuantity(p.shr, 'fraction', sys, { unit: FRACTION_ONE, digits: 2 }).valueText,
+    p.waterKgS === null ? '—' : formatQuantity(p.waterKgS, 'massFlow', sys, { unit: lookupUnit(sys === 'SI' ? 'kg/h' : 'lb/h')!, digits: 1 }).valueText,
     q(p.qCoilW, 'power', sys),
   ]);
   return renderTable(header, rows, [false, true, false, false, true, true, true, true, true, true, true]);

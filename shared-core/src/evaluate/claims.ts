@@ -52,11 +52,11 @@ export function checkClaim(
   };
   if (pass) return { claim, diagnostic: null };
   const written = `${key}=${q.quantity.number.text}${q.unitText}`;
-  const band = q.explicitTolerance ? 'its written tolerance' : 'half a unit of its last digit';
+  const band = q.explicitTolerance ? 'outside its written tolerance' : 'more than half a unit of its last digit away';
   const diagnostic: CoreDiagnostic = {
     code: 'claim-mismatch',
     severity: 'warning',
-    message: `stale claim: ${written} does not match the computed ${key}=${computedText} ${context} (it differs by more than ${band}); update the figure to ${computedText}, or check the properties it follows from`,
+    message: `stale claim ${written}: computed ${key}=${computedText} ${context}, ${band}; update it to ${computedText} or check the figures it follows from`,
     span: q.quantity.number.span,
     data: {
       key,

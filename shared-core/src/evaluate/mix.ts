@@ -226,15 +226,7 @@ function readAmount(
   streamName: string,
   what: string,
 ): { kind: AmountKind; si: number; halfResolution: number; span: Span } | null {
-  if (!amount) {
-    ctx.report({
-      code: 'mix-amounts',
-      severity: 'error',
-      message: `${what}: stream ${streamName} has no amount; write a dry-air mass fraction (${streamName} 25%), a dry-air mass flow (${streamName} 1.2kg/s) or a volume flow (${streamName} 1000L/s)`,
-      span: streamSpan,
-    });
-    return null;
-  }
+  if (!amount) return null; // the parser reports a stream without an amount (missing-value)
   if (!amount.unit) {
     ctx.report({
       code: 'missing-unit',

@@ -183,7 +183,7 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
   const coilPerKg = total - dw * hWater;
   const kind = processKindOf(a, b, coilPerKg, sensible);
   // SHR is a share: given only when sensible and latent act in the same direction (0 ≤ SHR ≤ 1).
-  const sameWay = sensible * latent >= 0 || Math.abs(latent) <= Math.max(1, 1e-3 * Math.abs(total));
+  const sameWay = sensible * latent >= 0 || Math.abs(dw) <= DW_STILL || Math.abs(latent) <= Math.max(1, 1e-3 * Math.abs(total));
   const shr = Math.abs(total) >= DH_STILL && sameWay ? sensible / total : null;
   const rate = (x: number): number | null => (massFlow === null ? null : massFlow * x);
 

@@ -20,6 +20,8 @@ export interface ReadProps {
   props: ReadProp[];
   /** Keys written with a value that could not be read (its diagnostic is already reported). */
   broken: Set<string>;
+  /** How many keys were not known (each reported as `unknown-key`). */
+  unknownKeys: number;
 }
 
 /**
@@ -30,6 +32,7 @@ export interface ReadProps {
 export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readonly<Record<string, KeySpec>>, what: string): ReadProps {
   const out: ReadProp[] = [];
   const broken = new Set<string>();
+  let unknownKeys = 0;
   const seen = new Map<string, PropertyNode>();
   for (const prop of props) {
     const spec = Object.prototype.hasOwnProperty.call(table, prop.key) ? table[prop.key] : undefined;
@@ -43,6 +46,7 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
         span: prop.keySpan,
         data: suggestion ? { key: prop.key, suggestion } : { key: prop.key },
       });
+      unknownKeys++;
       continue;
     }
     const first = seen.get(prop.key);
@@ -70,5 +74,5 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
     }
     out.push({ key: prop.key, spec, prop, q: r.value });
   }
-  return { props: out, broken };
+  return { props: out, broken, unknownKeys };
 }

@@ -14,7 +14,7 @@ import type { DefiningKey, MoistAirState, PhysicsProblem } from '../physics/type
 import type { StateStatement } from '../notation/ast';
 import type { Span } from '../text/types';
 import type { EvalContext } from './context';
-import { STATE_KEYS, isDefiningKey, isDependentPair, isIllConditionedPair, thirdKindFor } from './keys';
+import { DEFINING_KEYS, STATE_KEYS, isDefiningKey, isDependentPair, isIllConditionedPair, thirdKindFor } from './keys';
 import { pressureFromProps } from './pressure';
 import { problemDiagnostic } from './problems';
 import type { ReadProp } from './props';
@@ -50,6 +50,11 @@ export function writtenList(props: ReadProp[]): string {
   const parts = props.map((p) => `${p.key}=${p.q.quantity.number.text}${p.q.unitText}`);
   if (parts.length <= 1) return parts.join('');
   return `${parts.slice(0, -1).join(', ')} and ${parts[parts.length - 1]}`;
+}
+
+/** `a, b or c`. */
+function orList(xs: readonly string[]): string {
+  return xs.length <= 1 ? xs.join('') : `${xs.slice(0, -1).join(', ')} or ${xs[xs.length - 1]}`;
 }
 
 /** Candidate defining pairs in order of preference (see the module comment). */
@@ -94,7 +99,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
   const name = stmt.name?.text ?? '';
   const what = name ? `state ${name}` : 'this state';
   const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
-  const { props, broken } = readProps(ctx, stmt.props, STATE_KEYS, what);
+  const { props, broken, unknownKeys } = readProps(ctx, stmt.props, STATE_KEYS, what);
 
   // Pressure: the state's own p= / elev=, else the site pressure.
   let pressure: PressureBasis = ctx.site;
@@ -112,13 +117,14 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
   if (pressureFailed) return result;
 
   if (defs.length < 2) {
-    if (defs.length + brokenDefining.length >= 2) return result; // the unit errors already say why
+    // A property that could not be read (bad unit, unknown key) already explains the shortfall.
+    if (defs.length + brokenDefining.length + unknownKeys >= 2) return result;
     const has = defs.length === 1 ? `only ${writtenList(defs)}` : 'no defining property';
     const hasV = props.some((p) => p.key === 'v');
     ctx.report({
       code: 'underspecified',
       severity: 'error',
-      message: `${what} has ${has}: two independent properties fix a state; add ${defs.length === 1 ? 'one more' : 'two'} of db, wb, dp, rh, w or h (e.g. db=24C rh=50%)${hasV ? '; v is checked as a claim but cannot define a state' : ''}`,
+      message: `${what} has ${has}: two independent properties fix a state; add ${defs.length === 1 ? 'one more' : 'two'} of ${orList(DEFINING_KEYS.filter((k) => !defs.some((d) => d.key === k)))} (e.g. ${defs[0]?.key === 'db' ? 'rh=50%' : 'db=24C rh=50%'})${hasV ? '; v is checked as a claim but cannot define a state' : ''}`,
       span: fallback,
     });
     return result;
@@ -201,7 +207,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
 
 /** "83.5 kPa" style text for the pressure a result used. */
 export function pressureWord(p: PressureBasis): string {
-  return `${Number((p.pa / 1000).toPrecision(6))} kPa`;
+  return `${(p.pa / 1000).toFixed(3)} kPa`;
 }
 
 function spanOf(spansByKey: ReadonlyMap<string, Span>, props: ReadProp[]): Span {
