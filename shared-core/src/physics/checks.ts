@@ -60,3 +60,12 @@ export function pressureBelowSaturation(tC: number, pws: number, p: number, keys
     keys,
   });
 }
+
+/**
+ * Relative excess of the vapour pressure over saturation still taken as exactly saturated: the
+ * last-digit round-off of figures computed from one another (db = wb, db = dp, rh = 100 %).
+ */
+export const SATURATION_ROUNDOFF = 1e-12;
+
+/** A temperature this far (K) above another that must not exceed it is round-off of equality. */
+export const TEMP_ROUNDOFF_K = 1e-9;

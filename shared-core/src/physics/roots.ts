@@ -17,7 +17,7 @@ export function findRoot(
   b: number,
   fa: number,
   fb: number,
-  xtol = 1e-10,
+  xtol = 1e-13,
   maxIter = 200,
 ): number {
   if (fa === 0) return a;
@@ -41,7 +41,9 @@ export function findRoot(
       if (side === 1) fb *= 0.5;
       side = 1;
     }
-    if (Math.abs(b - a) <= xtol * (1 + Math.abs(x))) return 0.5 * (a + b);
+    const m = 0.5 * (a + b);
+    // Done when the bracket is within tolerance or no double lies strictly inside it.
+    if (Math.abs(b - a) <= xtol * (1 + Math.abs(x)) || m === a || m === b) return m;
   }
   return Number.NaN;
 }

@@ -26,8 +26,8 @@ import {
   satTempRaw,
 } from './saturation';
 import { completeState, fogState, pwsAt } from './state';
-import { humRatioEq33, supersaturatedError } from './wetbulb';
-import { pressureBelowSaturation } from './checks';
+import { humRatioEq33, supersaturatedError, wRoundoff } from './wetbulb';
+import { SATURATION_ROUNDOFF, TEMP_ROUNDOFF_K, pressureBelowSaturation } from './checks';
 import { findRoot } from './roots';
 
 /** The defining keys in a fixed order (the order problems list them in). */
@@ -122,9 +122,6 @@ function stateAt(
   }
   return completeState(db, w, p, pwsDb, pw, Number.NaN, dp, wb);
 }
-
-/** Relative excess of the vapour pressure over saturation still taken as saturated (round-off). */
-const SATURATION_ROUNDOFF = 1e-12;
 
 function fogWarning(t: number, w: number, ws: number, keys: DefiningKey[]): PhysicsProblem {
   return {
@@ -328,6 +325,7 @@ function checkValue(k: DefiningKey, x: number): void {
 
 function fromDbWb(db: number, wb: number, p: number, warnings: PhysicsProblem[]): MoistAirState {
   const keys: DefiningKey[] = ['db', 'wb'];
+  if (wb > db && wb <= db + TEMP_ROUNDOFF_K) wb = db; // saturated, up to round-off
   if (wb > db) {
     throw problem(
       'wb-above-db',
@@ -339,7 +337,9 @@ function fromDbWb(db: number, wb: number, p: number, warnings: PhysicsProblem[])
   const T = wb + ZERO_C_K;
   const pwsWb = Math.exp(wb < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T));
   checkBelowBoiling(wb, pwsWb, p, 'wb');
-  const w = humRatioEq33(db, wb, (EPSILON * pwsWb) / (p - pwsWb));
+  const wsWb = (EPSILON * pwsWb) / (p - pwsWb);
+  let w = humRatioEq33(db, wb, wsWb);
+  if (w < 0 && w >= -wRoundoff(wsWb)) w = 0; // bone-dry air, up to round-off
   if (w < 0) throw wbTooLow(db, wb, p);
   return stateAt(db, w, p, keys, undefined, warnings, Number.NaN, wb);
 }
@@ -365,6 +365,7 @@ function wbTooLow(db: number, wb: number, p: number): PsychroError {
 
 function fromDbDp(db: number, dp: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
   const keys: DefiningKey[] = ['db', 'dp'];
+  if (dp > db && dp <= db + TEMP_ROUNDOFF_K) dp = db; // saturated, up to round-off
   if (dp > db) {
     throw problem(
       'dp-above-db',
@@ -431,6 +432,7 @@ function fromDbH(db: number, h: number, p: number, opts: SolveOptions | undefine
 
 function fromWbDp(wb: number, dp: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
   const keys: DefiningKey[] = ['wb', 'dp'];
+  if (dp > wb && dp <= wb + TEMP_ROUNDOFF_K) dp = wb; // saturated, up to round-off
   if (dp > wb) {
     throw problem(
       'wb-too-low',
@@ -452,7 +454,7 @@ function fromWbW(wb: number, w: number, p: number, opts: SolveOptions | undefine
   const pwsWb = pwsAt(wb);
   checkBelowBoiling(wb, pwsWb, p, 'wb');
   const wsWb = (EPSILON * pwsWb) / (p - pwsWb);
-  if (w > wsWb) {
+  if (w > wsWb * (1 + SATURATION_ROUNDOFF)) {
     if (!opts?.allowFog) {
       throw problem(
         'supersaturated',
@@ -528,7 +530,7 @@ function fromWbH(wb: number, h: number, p: number, opts: SolveOptions | undefine
       keys,
     );
   }
-  const db = findRoot(f, wb, dbMax, fLo, fHi, 1e-12);
+  const db = findRoot(f, wb, dbMax, fLo, fHi);
   if (Number.isNaN(db)) throw noConvergence('dry-bulb (from wb and h)');
   const slope = Math.abs(hHi - hLo) / Math.max(dbMax - wb, 1e-9); // J/kg per K along the wet-bulb line
   warnings.push({
@@ -567,7 +569,8 @@ function fromDpH(dp: number, h: number, p: number, opts: SolveOptions | undefine
   const pw = pwsAt(dp);
   checkBelowBoiling(dp, pw, p, 'dp');
   const w = (EPSILON * pw) / (p - pw);
-  const db = (h - H_FG0 * w) / (CP_DA + CP_WV * w);
+  let db = (h - H_FG0 * w) / (CP_DA + CP_WV * w);
+  if (db < dp && db >= dp - TEMP_ROUNDOFF_K) db = dp; // saturated, up to round-off
   if (db < dp) {
     const hs = CP_DA * dp + w * (H_FG0 + CP_WV * dp);
     throw problem(
@@ -657,7 +660,7 @@ function fromWH(w: number, h: number, p: number, opts: SolveOptions | undefined,
   const db = (h - H_FG0 * w) / (CP_DA + CP_WV * w);
   const pw = (p * w) / (EPSILON + w);
   // Unsaturated if the dry-bulb from eq 30 is at or above the dew point of w.
-  const unsaturated = pw <= PWS_MIN || (db >= T_MIN_C && pw <= pwsAt(Math.min(db, T_MAX_C)));
+  const unsaturated = pw <= PWS_MIN || (db >= T_MIN_C && pw <= pwsAt(Math.min(db, T_MAX_C)) * (1 + SATURATION_ROUNDOFF));
   if (unsaturated || db > T_MAX_C) return stateAt(db, w, p, keys, opts, warnings);
   if (pw > PWS_MAX) throw dbOutOfRange(db, keys);
   const tSat = satTempRaw(pw); // dew point of the total water
@@ -686,7 +689,7 @@ function fromWH(w: number, h: number, p: number, opts: SolveOptions | undefined,
     );
   }
   const fHi = hSat - h;
-  const t = findRoot(f, T_MIN_C, tSat, fLo, fHi, 1e-12);
+  const t = findRoot(f, T_MIN_C, tSat, fLo, fHi);
   if (Number.isNaN(t)) throw noConvergence('fog temperature');
   const ws = wsAt(t, p);
   warnings.push(fogWarning(t, w, ws, keys));

@@ -3,7 +3,7 @@
  * dew point and wet-bulb solved when not already known), and of fog states.
  */
 import type { MoistAirState } from './types';
-import { checkHumRatio, checkPressure } from './checks';
+import { SATURATION_ROUNDOFF, checkHumRatio, checkPressure } from './checks';
 import { CP_DA, CP_WV, EPSILON, H_FG0, R_DA, condensateEnthalpy } from './properties';
 import {
   ZERO_C_K,
@@ -43,6 +43,7 @@ export function completeState(
     if (Number.isNaN(dp)) {
       dp = satTempFromLn(Number.isNaN(lnPw) ? Math.log(pw) : lnPw);
       if (Number.isNaN(dp)) throw noConvergence('dew-point');
+      if (dp > db) dp = db; // saturated air: the inversion's last-digit round-off
       d1 = satTempDeriv.d1;
       d2 = satTempDeriv.d2;
     } else if (Number.isNaN(wb)) {
@@ -126,7 +127,10 @@ export function stateFromDbW(db: number, w: number, p: number): MoistAirState {
   checkPressure(p);
   checkHumRatio(w);
   const pwsDb = pwsAt(db);
-  const pw = (p * w) / (EPSILON + w);
-  if (pw > pwsDb) throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
+  let pw = (p * w) / (EPSILON + w);
+  if (pw > pwsDb) {
+    if (pw > pwsDb * (1 + SATURATION_ROUNDOFF)) throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
+    pw = pwsDb; // saturated, up to round-off
+  }
   return completeState(db, w, p, pwsDb, pw, Number.NaN, Number.NaN, Number.NaN);
 }

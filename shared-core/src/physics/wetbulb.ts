@@ -4,7 +4,7 @@
  * the wick) or eq 35 (below 0 °C, ice), and the inverse by a safeguarded Newton iteration.
  */
 import { PsychroError } from './types';
-import { checkHumRatio, checkPressure, pressureBelowSaturation } from './checks';
+import { SATURATION_ROUNDOFF, TEMP_ROUNDOFF_K, checkHumRatio, checkPressure, pressureBelowSaturation } from './checks';
 import { fmtPa, fmtT, fmtW } from './format';
 import { EPSILON } from './properties';
 import {
@@ -51,6 +51,7 @@ export function humRatioFromWetBulb(db: number, wb: number, p: number): number {
   checkTemperature(db, 'Dry-bulb');
   checkTemperature(wb, 'Wet-bulb');
   checkPressure(p);
+  if (wb > db && wb <= db + TEMP_ROUNDOFF_K) wb = db; // saturated, up to round-off
   if (wb > db) {
     throw new PsychroError({
       code: 'wb-above-db',
@@ -61,7 +62,10 @@ export function humRatioFromWetBulb(db: number, wb: number, p: number): number {
   }
   const pws = Math.exp(wb < TRIPLE_POINT_C ? lnPwsIce(wb + ZERO_C_K) : lnPwsWater(wb + ZERO_C_K));
   if (pws >= p) throw pressureBelowSaturation(wb, pws, p, ['wb'], 'wet-bulb');
-  const w = humRatioEq33(db, wb, (EPSILON * pws) / (p - pws));
+  const wsStar = (EPSILON * pws) / (p - pws);
+  let w = humRatioEq33(db, wb, wsStar);
+  // The wet-bulb of bone-dry air, given to ~1e-9 K, can give W a hair below zero: round-off.
+  if (w < 0 && w >= -wRoundoff(wsStar)) w = 0;
   if (w < 0) {
     const min = wetBulbSolve(db, 0, p, 0, Number.NEGATIVE_INFINITY, 0, 0, pwsAt(db));
     throw new PsychroError({
@@ -82,6 +86,14 @@ export function humRatioFromWetBulb(db: number, wb: number, p: number): number {
 function pwsAt(tC: number): number {
   const T = tC + ZERO_C_K;
   return Math.exp(tC < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T));
+}
+
+/**
+ * How far below zero eq 33/35 may put W, kg/kg, and still mean bone-dry air: what a 1e-9 K error
+ * in the wet-bulb moves W by (dW/dwb < 0.1·Ws* + 4e-4 per K), so round-off, not a low wet-bulb.
+ */
+export function wRoundoff(wsStar: number): number {
+  return 1e-9 * (wsStar + 4e-4);
 }
 
 /** Scratch outputs of {@link wetBulbSolve}: iterations of the last solve. */
@@ -115,6 +127,8 @@ export function wetBulbSolve(
     if (Number.isNaN(hi)) return Number.NaN;
   }
   let lo = dp > WB_FLOOR_C ? dp : WB_FLOOR_C;
+  const lo0 = lo;
+  const hi0 = hi;
   if (lo >= hi) {
     // Saturated air (dp = db up to round-off) or air at its boiling point.
     wetBulbInfo.iterations = 0;
@@ -216,7 +230,8 @@ export function wetBulbSolve(
       // triple point, where the slope of pws jumps (ice below, water above): no stop there.
       if (Math.abs(step) < WB_STEP_DONE && Math.abs(curv) < 0.01 && t < TRIPLE_POINT_C === next < TRIPLE_POINT_C) {
         wetBulbInfo.iterations = i + 1;
-        return next;
+        // Within the bracket (a last step can overshoot it by round-off): dp ≤ wb ≤ db.
+        return next < lo0 ? lo0 : next > hi0 ? hi0 : next;
       }
       if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
     }
@@ -240,10 +255,13 @@ export function wetBulbFromHumRatio(db: number, w: number, p: number): number {
   checkTemperature(db, 'Dry-bulb');
   checkPressure(p);
   checkHumRatio(w);
-  const pw = (p * w) / (EPSILON + w);
+  let pw = (p * w) / (EPSILON + w);
   const Tdb = db + ZERO_C_K;
   const pwsDb = Math.exp(db < TRIPLE_POINT_C ? lnPwsIce(Tdb) : lnPwsWater(Tdb));
-  if (pw > pwsDb) throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
+  if (pw > pwsDb) {
+    if (pw > pwsDb * (1 + SATURATION_ROUNDOFF)) throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
+    pw = pwsDb; // saturated, up to round-off
+  }
   let dp = Number.NEGATIVE_INFINITY;
   let d1 = 0;
   let d2 = 0;
