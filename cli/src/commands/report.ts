@@ -214,7 +214,7 @@ th{font-weight:600;background:color-mix(in srgb,var(--card) 85%,var(--line))}
 .claim{display:inline-block;font-size:12px;border-radius:8px;padding:0 6px;margin:1px 0;border:1px solid var(--line)}
 .claim.pass{color:var(--ok)}.claim.fail{color:var(--warn);border-color:var(--warn)}
 .sev{font-weight:650}.sev.error{color:var(--err)}.sev.warning{color:var(--warn)}.sev.info{color:var(--muted)}
-.chart{background:var(--card);border:1px solid var(--line);border-radius:6px;padding:8px;overflow-x:auto}
+.chart{background:var(--card);border:1px solid var(--line);border-radius:6px;padding:8px;margin:0;overflow-x:auto}
 .chart svg{display:block;max-width:100%;height:auto}
 .none{color:var(--muted);font-style:italic}
 .small{font-size:12px;color:var(--muted)}

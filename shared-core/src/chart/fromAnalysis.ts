@@ -33,11 +33,16 @@ function diagnosticsOf(analysis: Analysis, span: Span): CoreDiagnostic[] {
   return analysis.diagnostics.filter((d) => within(d.span, span));
 }
 
-/** The first sentence-worth of a diagnostic message, for the chart's short list. */
+/**
+ * A diagnostic's message shortened for the chart's list: without the leading `state NAME:`
+ * (the list names the state), first sentence only; the report has the full text.
+ */
 function shortReason(d: CoreDiagnostic | undefined, fallback: string): string {
-  const m = d?.message.trim();
+  let m = d?.message.trim() ?? '';
+  m = m.replace(/^(state|mix|process)\s+[^:]+:\s*/, '');
+  m = m.split(/(?<=[.!?;])\s+(?=[A-Z])/)[0] ?? m;
   if (!m) return fallback;
-  return /[.!?]$/.test(m) ? m : `${m}.`;
+  return /[.!?]$/.test(m) ? m : `${m.replace(/;$/, '')}.`;
 }
 
 /** The pressure most of the note's states are at (the first state's on a tie); the setting without states. */
@@ -116,6 +121,13 @@ export function chartDataFromAnalysis(analysis: Analysis, options: FromAnalysisO
         ...(line !== undefined ? { line } : {}),
       });
     }
+  }
+  // A process whose states could not be computed has no result: list it as not drawn.
+  const evaluated = new Set(analysis.items.filter((i) => i.kind === 'process').map((i) => i.statement.span.start));
+  for (const st of analysis.parsed.statements) {
+    if (st.keyword !== 'process' || evaluated.has(st.span.start) || !st.name || !st.from || !st.to) continue;
+    const line = lineOf(src, st.span.start);
+    processes.push({ name: st.name.text, from: st.from.text, to: st.to.text, flagged: true, ...(line !== undefined ? { line } : {}) });
   }
   const pressure = notePressure(analysis);
   return {

@@ -1,0 +1,292 @@
+/**
+ * `dewmark report` and `dewmark chart`, rendered in headless Debian Chromium (playwright-core):
+ * the report's tables and diagnostics as a reader sees them, the chart's state markers at the
+ * pixels the chart's own mapping gives, screenshots in light and dark colour schemes
+ * (test-artifacts/report/), and the refusals that protect the note. Under CI=true a missing
+ * Chromium or playwright-core fails the suite (requireTool); elsewhere it is skipped with a message.
+ *
+ * The note is set in an invented building. The pixel checks compare two computations of the same
+ * engine (the browser's layout against `toPixel`), so they need no published figure.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync, existsSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { run, type CliIO } from '../../cli/src/run';
+import { analyzeNote } from '../../shared-core/src/evaluate';
+import { chartDataFromAnalysis, chartLayout, toPixel } from '../../shared-core/src/chart';
+import { artifactsDir, requireTool, skipWithout } from './lib/tools';
+import { CHROMIUM_ARGS, loadPlaywright } from './lib/codeServer';
+
+const NOTE = `# Quayside Gallery — AHU-2 summer check
+
+Outdoor design for the gallery roof plant; return air from the east hall.
+
+\`\`\`air
+state OA: db=31C wb=22C          # outdoor summer design
+state RA: db=24C rh=50%          # east hall return
+mix MA: OA 30% + RA 70%
+state SA: db=13C rh=92%          # off-coil
+process CC: MA -> SA q=3.2m3/s
+state BAD: db=25C wb=30C         # a typo: wet-bulb above dry-bulb
+state FOG: db=20C w=18g/kg       # above saturation: fog
+\`\`\`
+
+The hall is held at \`state HALL: db=23C rh=45%\` in summer.
+`;
+
+interface Captured {
+  code: number;
+  out: string;
+  err: string;
+}
+
+async function dewmark(args: string[], cwd: string): Promise<Captured> {
+  let out = '';
+  let err = '';
+  const io: CliIO = {
+    cwd,
+    out: (t) => {
+      out += t;
+    },
+    err: (t) => {
+      err += t;
+    },
+    stdin: async () => new Uint8Array(),
+    stderrIsTTY: false,
+  };
+  const code = await run(args, io);
+  return { code, out, err };
+}
+
+let dir = '';
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'dewmark-report-'));
+  writeFileSync(join(dir, 'ahu-2.md'), NOTE);
+});
+afterAll(() => {
+  if (dir) rmSync(dir, { recursive: true, force: true });
+});
+
+describe('report and chart commands (files)', () => {
+  it('writes a self-contained report: no scripts, no external references, a CSP that forbids loading', async () => {
+    const r = await dewmark(['report', 'ahu-2.md', '-o', 'report.html'], dir);
+    // The note has errors (BAD), so the exit code is 1, and the report is still written.
+    expect(r.code).toBe(1);
+    expect(r.err).toContain('wrote report.html');
+    const html = readFileSync(join(dir, 'report.html'), 'utf8');
+    expect(html).toMatch(/^<!doctype html>/);
+    expect(html).not.toMatch(/<script|<link\b|<img\b|<iframe|@import|url\(\s*['"]?(https?:|\/\/)/i);
+    expect(html).not.toMatch(/\b(src|href)=["']?(https?:|\/\/)/i);
+    expect(html).toContain(`content="default-src 'none'; style-src 'unsafe-inline'; img-src data:"`);
+    expect(html).toContain('<svg xmlns="http://www.w3.org/2000/svg" class="dmc"');
+    expect(html).not.toMatch(/NaN|Infinity|undefined/);
+  });
+
+  it('writes the chart alone as an SVG document', async () => {
+    const r = await dewmark(['chart', 'ahu-2.md', '-o', 'chart.svg'], dir);
+    expect(r.code).toBe(1);
+    const svg = readFileSync(join(dir, 'chart.svg'), 'utf8');
+    expect(svg.startsWith('<?xml version="1.0" encoding="UTF-8"?>\n<svg ')).toBe(true);
+    expect(svg).toContain('<title id="dmc-title">Psychrometric chart — ahu-2.md</title>');
+  });
+
+  it('refuses to overwrite the note, or to write any .md file, with exit 2 and a clear message', async () => {
+    const before = readFileSync(join(dir, 'ahu-2.md'), 'utf8');
+    const same = await dewmark(['report', 'ahu-2.md', '-o', 'ahu-2.md'], dir);
+    expect(same.code).toBe(2);
+    expect(same.err).toContain("refusing to write the report over the note 'ahu-2.md' itself");
+    const other = await dewmark(['report', 'ahu-2.md', '-o', 'notes/other.MD'], dir);
+    expect(other.code).toBe(2);
+    expect(other.err).toContain('it is a Markdown file name');
+    const chart = await dewmark(['chart', 'ahu-2.md', '-o', './ahu-2.md'], dir);
+    expect(chart.code).toBe(2);
+    expect(chart.err).toContain("refusing to write the chart over the note 'ahu-2.md' itself");
+    expect(readFileSync(join(dir, 'ahu-2.md'), 'utf8')).toBe(before);
+    expect(existsSync(join(dir, 'notes'))).toBe(false);
+  });
+
+  it('needs -o, one note, and an existing folder; says how to fix each', async () => {
+    const noOut = await dewmark(['report', 'ahu-2.md'], dir);
+    expect(noOut.code).toBe(2);
+    expect(noOut.err).toContain('say where to write the report with -o, e.g. report.html');
+    const missing = await dewmark(['chart', 'nope.md', '-o', 'x.svg'], dir);
+    expect(missing.code).toBe(2);
+    expect(missing.err).toContain("cannot read 'nope.md'");
+    const badDir = await dewmark(['chart', 'ahu-2.md', '-o', 'no/such/dir/x.svg'], dir);
+    expect(badDir.code).toBe(2);
+    expect(badDir.err).toContain("cannot write 'no/such/dir/x.svg': its folder does not exist");
+  });
+
+  it('exits 0 for a note without errors, and writes only the path given', async () => {
+    const clean = join(dir, 'clean');
+    mkdirSync(clean);
+    writeFileSync(join(clean, 'plant.md'), '```air\nstate RA: db=24C rh=50%\n```\n');
+    const r = await dewmark(['chart', 'plant.md', '-o', 'out.svg'], clean);
+    expect(r.code).toBe(0);
+    expect(statSync(join(clean, 'out.svg')).size).toBeGreaterThan(1000);
+    expect(readFileSync(join(clean, 'plant.md'), 'utf8')).toBe('```air\nstate RA: db=24C rh=50%\n```\n');
+  });
+});
+
+// ---------------------------------------------------------------------------------------------
+// In the browser
+
+interface Rect {
+  x: number;
+  y: number;
+  width: number;
+  height: number;
+}
+
+interface Page {
+  goto(url: string): Promise<unknown>;
+  evaluate<T>(expression: string): Promise<T>;
+  screenshot(options: { path: string; fullPage?: boolean }): Promise<unknown>;
+  on(event: 'request', listener: (r: { url(): string }) => void): unknown;
+  close(): Promise<void>;
+}
+interface Browser {
+  newContext(options: { viewport: { width: number; height: number }; colorScheme?: 'light' | 'dark' }): Promise<{ newPage(): Promise<Page>; close(): Promise<void> }>;
+  close(): Promise<void>;
+}
+
+describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromium', () => {
+  let browser: Browser | null = null;
+  const shots = artifactsDir('report');
+
+  async function open(url: string, colorScheme: 'light' | 'dark' = 'light'): Promise<{ page: Page; requests: string[]; done: () => Promise<void> }> {
+    const ctx = await browser!.newContext({ viewport: { width: 1200, height: 900 }, colorScheme });
+    const page = await ctx.newPage();
+    const requests: string[] = [];
+    page.on('request', (r) => requests.push(r.url()));
+    await page.goto(url);
+    return { page, requests, done: () => ctx.close() };
+  }
+
+  beforeAll(async () => {
+    // skipWithout has already failed the suite under CI, or skipped it elsewhere, when a tool is missing.
+    const chromium = requireTool('chromium');
+    requireTool('playwright-core');
+    const pw = loadPlaywright();
+    browser = (await pw.chromium.launch({ executablePath: chromium.path, headless: true, args: [...CHROMIUM_ARGS], timeout: 60_000 })) as unknown as Browser;
+    mkdirSync(shots, { recursive: true });
+    expect((await dewmark(['report', 'ahu-2.md', '-o', 'report.html'], dir)).code).toBe(1);
+    expect((await dewmark(['chart', 'ahu-2.md', '-o', 'chart.svg'], dir)).code).toBe(1);
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it('shows the states, mixes, processes and every diagnostic in tables, and loads nothing from outside', async () => {
+    const { page, requests, done } = await open(pathToFileURL(join(dir, 'report.html')).href);
+    const analysis = analyzeNote(NOTE, {});
+    const rows = await page.evaluate<Record<string, string[][]>>(`(() => {
+      const t = (id) => [...document.querySelectorAll('#' + id + ' tbody tr')].map((tr) => [...tr.cells].map((c) => c.textContent.trim()));
+      return { states: t('states'), mixes: t('mixes'), processes: t('processes'), diagnostics: t('diagnostics') };
+    })()`);
+    expect(rows.states!.map((r) => r[0]!.split(' ')[0])).toEqual(['OA', 'RA', 'SA', 'BAD', 'FOG', 'HALL']);
+    expect(rows.states!.find((r) => r[0]!.startsWith('BAD'))![0]).toContain('not computed');
+    expect(rows.mixes!.map((r) => r[0])).toEqual(['MA']);
+    expect(rows.mixes![0]![2]).toBe('OA 30.0 % + RA 70.0 %');
+    expect(rows.processes!.map((r) => r[0])).toEqual(['CC']);
+    expect(rows.processes![0]![2]).toBe('MA → SA');
+    // Every diagnostic of the analysis appears, with its code and message.
+    expect(rows.diagnostics!.length).toBe(analysis.diagnostics.length);
+    for (const d of analysis.diagnostics) expect(rows.diagnostics!.some((r) => r[2] === d.code && r[3] === d.message)).toBe(true);
+    expect(analysis.diagnostics.some((d) => d.code === 'wb-above-db')).toBe(true);
+    const text = await page.evaluate<{ caution: string; method: string; pressure: string; title: string }>(`({
+      caution: document.querySelector('#caution').textContent,
+      method: document.querySelector('#method').textContent,
+      pressure: document.querySelector('#pressure-basis').textContent,
+      title: document.title,
+    })`);
+    expect(text.caution).toContain('Design aid only');
+    expect(text.caution).toContain('licensed professional engineer');
+    expect(text.method).toContain('ASHRAE Handbook—Fundamentals');
+    expect(text.method).toContain('ideal gases');
+    expect(text.method).toContain('over ice below 0 °C');
+    expect(text.pressure).toContain('101.325 kPa');
+    expect(text.title).toBe('Dewmark review report — ahu-2.md');
+    expect(requests.filter((u) => !u.startsWith('file:') && !u.startsWith('data:'))).toEqual([]);
+    await page.screenshot({ path: join(shots, 'report-light.png'), fullPage: true });
+    await done();
+  });
+
+  it('places every state marker of the report chart at the pixel that toPixel gives', async () => {
+    const { page, done } = await open(pathToFileURL(join(dir, 'report.html')).href);
+    const data = chartDataFromAnalysis(analyzeNote(NOTE, {}), { source: NOTE });
+    const layout = chartLayout(data);
+    const got = await page.evaluate<{ svg: Rect; vbw: number; markers: { name: string; rect: Rect }[] }>(`(() => {
+      const svg = document.querySelector('#chart svg');
+      const r = (el) => { const b = el.getBoundingClientRect(); return { x: b.x, y: b.y, width: b.width, height: b.height }; };
+      return { svg: r(svg), vbw: svg.viewBox.baseVal.width, markers: [...svg.querySelectorAll('circle.dmc-marker')].map((c) => ({ name: c.dataset.name, rect: r(c) })) };
+    })()`);
+    const scale = got.svg.width / got.vbw;
+    expect(got.markers.map((m) => m.name).sort()).toEqual(data.points.map((p) => p.name).sort());
+    expect(got.markers.length).toBeGreaterThanOrEqual(6);
+    for (const p of data.points) {
+      const m = got.markers.find((x) => x.name === p.name)!;
+      const want = toPixel(layout, p.db, p.w);
+      const cx = (m.rect.x + m.rect.width / 2 - got.svg.x) / scale;
+      const cy = (m.rect.y + m.rect.height / 2 - got.svg.y) / scale;
+      expect(Math.abs(cx - want.x)).toBeLessThan(0.6);
+      expect(Math.abs(cy - want.y)).toBeLessThan(0.6);
+    }
+    // The fog state is marked as such, and the state that could not be computed is listed, not drawn.
+    const marks = await page.evaluate<{ fog: string | null; flagged: string }>(`({
+      fog: document.querySelector('circle.dmc-marker[data-name="FOG"]').getAttribute('data-infeasible'),
+      flagged: document.querySelector('#chart .dmc-flags').textContent,
+    })`);
+    expect(marks.fog).toBe('fog');
+    expect(marks.flagged).toContain('BAD');
+    expect(marks.flagged).toContain('not plotted');
+    await done();
+  });
+
+  it('renders the standalone chart: well-formed, title and desc, markers at their pixels; light and dark screenshots', async () => {
+    const data = chartDataFromAnalysis(analyzeNote(NOTE, {}), { source: NOTE });
+    const layout = chartLayout(data);
+    const colours: Record<string, string> = {};
+    for (const scheme of ['light', 'dark'] as const) {
+      const { page, done } = await open(pathToFileURL(join(dir, 'chart.svg')).href, scheme);
+      const info = await page.evaluate<{ root: string; errors: number; title: string; desc: string; markers: { name: string; x: number; y: number }[]; panel: string }>(`(() => {
+        const svg = document.documentElement;
+        const base = svg.getBoundingClientRect();
+        return {
+          root: svg.localName,
+          errors: document.getElementsByTagName('parsererror').length,
+          title: svg.querySelector('title').textContent,
+          desc: svg.querySelector('desc').textContent,
+          markers: [...svg.querySelectorAll('circle.dmc-marker')].map((c) => { const b = c.getBoundingClientRect(); return { name: c.dataset.name, x: b.x + b.width / 2 - base.x, y: b.y + b.height / 2 - base.y }; }),
+          panel: getComputedStyle(svg.querySelector('.dmc-panel')).fill,
+        };
+      })()`);
+      expect(info.root).toBe('svg');
+      expect(info.errors).toBe(0);
+      expect(info.title).toBe('Psychrometric chart — ahu-2.md');
+      expect(info.desc).toContain('OA');
+      for (const p of data.points) {
+        const m = info.markers.find((x) => x.name === p.name)!;
+        const want = toPixel(layout, p.db, p.w);
+        expect(Math.abs(m.x - want.x)).toBeLessThan(0.6);
+        expect(Math.abs(m.y - want.y)).toBeLessThan(0.6);
+      }
+      colours[scheme] = info.panel;
+      await page.screenshot({ path: join(shots, `chart-${scheme}.png`) });
+      await done();
+    }
+    // The dark scheme really changes the palette (prefers-color-scheme block).
+    expect(colours.light).not.toBe(colours.dark);
+    const { page, done } = await open(pathToFileURL(join(dir, 'report.html')).href, 'dark');
+    await page.screenshot({ path: join(shots, 'report-dark.png'), fullPage: true });
+    // A host page re-themes the chart by setting the public --dm-chart-* properties on an ancestor.
+    const overridden = await page.evaluate<string>(`(() => {
+      document.body.style.setProperty('--dm-chart-panel', 'rgb(1, 2, 3)');
+      return getComputedStyle(document.querySelector('#chart .dmc-panel')).fill;
+    })()`);
+    expect(overridden).toBe('rgb(1, 2, 3)');
+    await done();
+  });
+});
