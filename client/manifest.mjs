@@ -118,6 +118,10 @@ export const fields = {
         },
       },
     },
+    configurationDefaults: {
+      // The hints after a statement run to about 50 characters; VS Code cuts inline hints at 43 by default.
+      '[markdown]': { 'editor.inlayHints.maximumLength': 0 },
+    },
     commands: [
       { command: 'dewmark.switchUnits', title: 'Switch Result Units (SI/IP)', category, icon: '$(symbol-ruler)' },
       { command: 'dewmark.checkWorkspace', title: 'Check All Notes in the Workspace', category, icon: '$(checklist)' },

@@ -58,7 +58,13 @@ class ServerController {
       outputChannel: output,
       markdown: { isTrusted: false, supportHtml: false },
       errorHandler: {
-        error: (_error, _message, count) => ({ action: (count ?? 0) <= 3 ? ErrorAction.Continue : ErrorAction.Shutdown }),
+        // Write errors are expected while a dying server's channel closes; the close handler below
+        // tells the user (once), so they only go to the log unless they keep coming.
+        error: (error, _message, count) => {
+          output.warn(`connection to the server: ${error.message}`);
+          if ((count ?? 0) <= 3) return { action: ErrorAction.Continue, handled: true };
+          return { action: ErrorAction.Shutdown, message: `The connection to the Dewmark language server keeps failing (${error.message}); it was stopped. Run "Dewmark: Restart Language Server" to start it again.` };
+        },
         closed: () => {
           const d = this.policy.onCrash();
           output.warn(d.message);

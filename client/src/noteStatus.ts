@@ -1,38 +1,14 @@
 /**
  * What the status bar shows for the active note: its unit system and pressure basis. The server
- * answers a `dewmark/noteStatus` request when it offers one (it lists the method under
- * `capabilities.experimental.dewmark.noteStatus`); otherwise the client says what the settings
- * alone imply, and says that the note's own `units:`/`site:` lines were not read. Pure: no
- * editor API.
+ * answers the `dewmark/noteStatus` request (server/src/protocol.ts) and lists it under
+ * `capabilities.experimental.dewmark.noteStatus`; a server without it (an older build, or one
+ * that failed to start) leaves the client to say what the settings alone imply, and to say that
+ * the note's own `units:`/`site:` lines were not read. Pure: no editor API.
  */
 
-/** Method name of the note-status request (proposed to the server; used only when advertised). */
-export const NOTE_STATUS_METHOD = 'dewmark/noteStatus';
+import type { NoteStatusResult } from '../../server/src/protocol';
 
-/** A zero-based LSP position. */
-export interface WirePosition {
-  line: number;
-  character: number;
-}
-
-/** Parameters of {@link NOTE_STATUS_METHOD}. */
-export interface NoteStatusParams {
-  textDocument: { uri: string };
-}
-
-/** Result of {@link NOTE_STATUS_METHOD}. */
-export interface NoteStatusResult {
-  /** Unit system the note's results are shown in. */
-  units: 'SI' | 'IP';
-  /** `note` when a `units:` line sets it, `setting` when dewmark.units does. */
-  unitsSource: 'note' | 'setting';
-  /** The range of the `SI`/`IP` word of the note's `units:` line, when it has one. */
-  unitsValueRange: { start: WirePosition; end: WirePosition } | null;
-  /** A short label of the pressure basis for the status bar ("101.325 kPa", "site 83.4 kPa"). */
-  pressureLabel: string;
-  /** One sentence on where the pressure comes from, for the tooltip. */
-  pressureDescribe: string;
-}
+export type { NoteStatusParams, NoteStatusResult } from '../../server/src/protocol';
 
 /** The slice of `dewmark.*` settings the fallback status reads. */
 export interface StatusSettings {

@@ -11,14 +11,39 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { EXAMPLE_1, FIXTURE_NOTE, INFEASIBLE, checkExample1, readFigure } from '../fixtures/e2e/expected';
 import { startSession, type CodeServerSession } from './lib/codeServer';
 import { REPO_ROOT, skipWithout } from './lib/tools';
 
+/** Process ids of the language servers started from this run's extensions folder (read from /proc). */
+function serverPids(extensionsDir: string): number[] {
+  const out: number[] = [];
+  for (const entry of readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    let cmd = '';
+    try {
+      cmd = readFileSync(`/proc/${entry}/cmdline`, 'utf8');
+    } catch {
+      continue;
+    }
+    if (cmd.includes(extensionsDir) && cmd.includes('dist/server.js')) out.push(Number(entry));
+  }
+  return out;
+}
+
 const fixtureText = readFileSync(join(REPO_ROOT, 'test', 'fixtures', 'e2e', FIXTURE_NOTE), 'utf8');
+/** The fixture's full source line of a statement (the editor shows it, then the inline hint). */
+function sourceLine(starts: string): string {
+  const line = fixtureText.split('\n').find((l) => l.startsWith(starts));
+  if (!line) throw new Error(`the fixture has no line starting with ${starts}`);
+  return line;
+}
+const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&');
+/** A visible editor line that is `src` followed by a hint matching `hint`. */
+const hintedLine = (src: string, hint: string) => new RegExp(`^${escape(src)}.*${hint}`);
 const skip = skipWithout('node24', 'code-server', 'chromium', 'playwright-core');
 
 describe.skipIf(skip)('Dewmark extension in code-server', () => {
@@ -36,7 +61,8 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     console.log(`[e2e] packaged ${vsix}: ${(statSync(vsix).size / 1024).toFixed(1)} KiB`);
     marker = join(work, 'activation.json');
     session = await startSession(
-      { extensions: [vsix], files: { [FIXTURE_NOTE]: fixtureText }, env: { DEWMARK_ACTIVATION_MARKER: marker } },
+      { extensions: [vsix], files: { [FIXTURE_NOTE]: fixtureText }, env: { DEWMARK_ACTIVATION_MARKER: marker }, settings: { '[markdown]': { 'editor.wordWrap': 'off' } } },
+      // Word wrap off (Markdown wraps by default) so each note line is one editor line with its hint.
       { name: 'dewmark', timeoutMs: 45_000 },
     );
     await session.workbench.openFile(FIXTURE_NOTE);
@@ -50,9 +76,10 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
 
   it(`shows an inline hint with the computed values (${EXAMPLE_1.source})`, async () => {
     const wb = session.workbench;
-    const line = await wb.waitForEditorLine(new RegExp(`^${EXAMPLE_1.line}.*\\brh \\d`), { timeoutMs: 60_000 });
+    const src = sourceLine(EXAMPLE_1.line);
+    const line = await wb.waitForEditorLine(hintedLine(src, 'dp -?\\d'), { timeoutMs: 60_000 });
     await wb.screenshot('hint');
-    const hint = line.slice(line.indexOf('#'));
+    const hint = line.slice(src.length);
     expect(checkExample1(hint), `editor line: ${line}`).toEqual([]);
     // The extension activated in this profile and wrote its timing marker.
     const timing = JSON.parse(readFileSync(marker, 'utf8')) as { activateMs: number };
@@ -95,15 +122,38 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.screenshot('after-fix');
   }, 90_000);
 
+  it('restarts the language server when it dies, and says so', async () => {
+    const wb = session.workbench;
+    const before = await wb.waitFor('the language server process', () => {
+      const pids = serverPids(session.server.extensionsDir);
+      return pids.length === 1 ? pids[0] : undefined;
+    });
+    process.kill(before, 'SIGKILL'); // the server this test's code-server started
+    const note = await wb.waitFor('the restart notification', async () => (await wb.notifications()).find((t) => t.includes('stopped unexpectedly and was restarted')));
+    expect(note).toContain('Output → Dewmark');
+    const after = await wb.waitFor('a new language server process', () => {
+      const pids = serverPids(session.server.extensionsDir);
+      return pids.length === 1 && pids[0] !== before ? pids[0] : undefined;
+    });
+    expect(after).not.toBe(before);
+    // The new server answers: a hover needs it.
+    await wb.hover('RA', { line: 'state RA:', expect: 'state RA' });
+    // Said once: the client does not add its own "connection is erroring" or "server will not restart" toasts.
+    expect((await wb.notifications()).filter((t) => /Dewmark/.test(t) && !t.includes('stopped unexpectedly'))).toEqual([]);
+    await wb.screenshot('restarted');
+  }, 90_000);
+
   it('shows the unit system and pressure basis in the status bar, and switches units from the palette', async () => {
     const wb = session.workbench;
-    await wb.waitFor('the Dewmark status-bar item', async () => (await wb.statusBar()).find((t) => t.includes('SI · 101.325 kPa')));
+    // The note's own site line sets the pressure basis (the server's note status says so).
+    await wb.waitFor('the Dewmark status-bar item', async () => (await wb.statusBar()).find((t) => t.includes('SI · site 101.325 kPa')));
     await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
-    const line = await wb.waitForEditorLine(new RegExp(`^${EXAMPLE_1.line}.*°F`));
-    expect(line).not.toContain('°C');
-    await wb.waitFor('the status bar to say IP', async () => (await wb.statusBar()).find((t) => t.includes('IP ·')));
+    const src = sourceLine(EXAMPLE_1.line);
+    const line = await wb.waitForEditorLine(hintedLine(src, '°F'));
+    expect(line.slice(src.length)).not.toMatch(/°C|kJ\/kg|g\/kg/);
+    await wb.waitFor('the status bar to say IP', async () => (await wb.statusBar()).find((t) => t.includes('IP · site 14.696 psia')));
     await wb.screenshot('ip-units');
     await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
-    await wb.waitForEditorLine(new RegExp(`^${EXAMPLE_1.line}.*°C`));
+    await wb.waitForEditorLine(hintedLine(src, '°C'));
   }, 90_000);
 });
