@@ -6,6 +6,8 @@
  */
 import {
   DidChangeConfigurationNotification,
+  MessageType,
+  ShowMessageNotification,
   type Connection,
   type InitializeParams,
 } from 'vscode-languageserver/node';
@@ -89,7 +91,9 @@ export class Configuration {
     for (const problem of problems) {
       if (this.reported.has(problem)) continue;
       this.reported.add(problem);
-      void this.connection.window.showWarningMessage(`Dewmark settings: ${problem}`);
+      // A notification (allowed even before the initialize result), and the log for later reading.
+      void this.connection.sendNotification(ShowMessageNotification.type, { type: MessageType.Warning, message: `Dewmark settings: ${problem}` });
+      this.connection.console.warn(`settings: ${problem}`);
     }
     return settings;
   }

@@ -20,7 +20,7 @@ const NOTE = [
   'state RA: db=24C rh=50%', // 5
   'state LOG7: db=20C wb=25C      # as copied from the log', // 6
   'mix MA: OA 25% + RA 75%', // 7
-  'state SA: db=13C rh=95%', // 8
+  'state SA: db=13C rh=80%', // 8
   'process CC: MA -> SA m=5kg/s', // 9
   '```', // 10
   '', // 11

@@ -103,8 +103,12 @@ export class Session {
       this.published.push(p);
       this.wake();
     });
-    connection.onNotification('window/logMessage', (p: { message: string }) => void this.logs.push(p.message));
-    connection.onNotification('window/showMessage', (p: { message: string }) => void this.logs.push(p.message));
+    const log = (p: { message: string }) => {
+      this.logs.push(p.message);
+      this.wake();
+    };
+    connection.onNotification('window/logMessage', log);
+    connection.onNotification('window/showMessage', log);
     connection.onNotification('$/progress', (p: unknown) => {
       this.progress.push(p);
       this.wake();
@@ -113,13 +117,15 @@ export class Session {
     connection.onRequest('window/workDoneProgress/create', () => null);
     connection.onRequest('client/registerCapability', (p: unknown) => {
       this.registrations.push(p);
+      this.wake();
       return null;
     });
     connection.onRequest('workspace/inlayHint/refresh', () => null);
     connection.onRequest('workspace/diagnostic/refresh', () => null);
     connection.onRequest('workspace/configuration', (p: { items: { scopeUri?: string; section?: string }[] }) => {
       this.configurationRequests.push(...p.items);
-      return p.items.map((item) => (this.configuration ? this.configuration(item) : null));
+      this.wake();
+      return Promise.all(p.items.map((item) => (this.configuration ? this.configuration(item) : null)));
     });
     connection.listen();
   }

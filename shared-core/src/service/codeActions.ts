@@ -109,9 +109,11 @@ function staleClaimFix(note: Note, d: CoreDiagnostic): FixAction[] {
     replacement = claim.computedText;
     shown = claim.computedText;
   }
+  const statement = statementAt(note, span.start);
+  const prop = statement ? propWithValueIn(statement, span) : undefined;
   return [
     {
-      title: `Replace the stale claim ${text(note, span)} with the computed ${shown}`,
+      title: `Replace the stale claim ${prop ? text(note, prop.span) : text(note, span)} with the computed ${shown}`,
       kind: 'quickfix',
       edits: [{ span, newText: replacement }],
       diagnostic: d,

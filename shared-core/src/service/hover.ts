@@ -22,7 +22,7 @@ import {
   show,
   showWaterRate,
 } from './format';
-import { itemOf, overlaps, targetAt } from './note';
+import { itemOf, overlaps, propsOf, targetAt } from './note';
 import type { CancellationFlag, Note } from './types';
 
 /** What a hover shows: Markdown text and the span it is about. */
@@ -83,13 +83,21 @@ function claimVerdict(note: Note, claim: ClaimResult, system: UnitSystem): strin
   }
   const computed = dim ? show(note, claim.computedSI, dim, system, unit) : claim.computedText;
   return claim.pass
-    ? `\`${md(written(note, claim.prop))}\` ✓ computed ${computed}${band}`
-    : `\`${md(written(note, claim.prop))}\` ✗ computed ${computed}${band} — stale claim`;
+    ? `${code(written(note, claim.prop))} ✓ computed ${computed}${band}`
+    : `${code(written(note, claim.prop))} ✗ computed ${computed}${band} — stale claim`;
 }
 
-function claimsBlock(note: Note, claims: readonly ClaimResult[], system: UnitSystem): string[] {
+/** Keys that set the pressure or the flow rather than being claims. */
+const NOT_CLAIMS = new Set(['p', 'elev', 'm', 'q']);
+
+function claimsBlock(note: Note, item: EvaluatedItem, system: UnitSystem): string[] {
+  const claims = item.claims;
+  if (!note.settings.checkClaims) {
+    const defining = new Set<string>(item.kind === 'process' ? [] : item.defining);
+    const written = propsOf(item.statement).some((p) => !defining.has(p.key) && !NOT_CLAIMS.has(p.key));
+    return written ? ['Claims: not checked (setting dewmark.checkClaims is off).'] : [];
+  }
   if (claims.length === 0) return [];
-  if (!note.settings.checkClaims) return ['Claims: not checked (setting dewmark.checkClaims is off).'];
   return ['Claims:', ...claims.map((c) => `- ${claimVerdict(note, c, system)}`)];
 }
 
@@ -108,7 +116,8 @@ function problemsOf(note: Note, statement: Statement): string[] {
 function stateTable(note: Note, item: StateResult, system: UnitSystem): string[] {
   const state = item.state!;
   const secondary = note.settings.secondaryUnits ? otherSystem(system) : null;
-  const given = new Set<string>(item.defining);
+  // A mix's w and h come from the balance, not from the note: nothing is marked as given.
+  const given = new Set<string>(item.kind === 'state' ? item.defining : []);
   const claims = new Map(item.claims.map((c) => [c.key, c]));
   const head = secondary ? `| property | | ${system} | ${secondary} | |` : '| property | | value | |';
   const rule = secondary ? '|---|---|--:|--:|---|' : '|---|---|--:|---|';
@@ -154,10 +163,22 @@ function stateHover(note: Note, item: StateResult): string {
   out.push('', ...stateTable(note, item, system));
   out.push('', pressureLine(note, item, system), '', datumLine(system));
   if (note.settings.secondaryUnits) out.push(datumLine(otherSystem(system)));
-  const claims = claimsBlock(note, item.claims, system);
+  const claims = claimsBlock(note, item, system);
   if (claims.length > 0) out.push('', ...claims);
   out.push('', METHOD_LINE, '', '---', CAUTION_LINE);
   return out.join('\n');
+}
+
+/** A magnitude with the sign of `x` in front (`+1.2 …`, `−1.2 …`, none for zero). */
+function signed(x: number, magnitude: string): string {
+  if (/^0(\.0*)? /.test(magnitude)) return magnitude;
+  return `${x < 0 ? '−' : '+'}${magnitude}`;
+}
+
+/** Text as a Markdown code span (longer fences when it holds backticks). */
+function code(text: string): string {
+  const fence = text.includes('`') ? '``' : '`';
+  return `${fence}${text.includes('`') ? ` ${text} ` : text}${fence}`;
 }
 
 function heat(note: Note, w: number | null, system: UnitSystem): string {
@@ -183,16 +204,16 @@ function processHover(note: Note, item: ProcessResult): string {
     rows.push(['dry-air flow', 'not given (add `m=` or `q=` for heat rates)']);
   }
   rows.push(['sensible heat ratio', item.shr === null ? '— (no net heat)' : plain(item.shr, 2 + note.settings.extraDigits)]);
-  rows.push(['Δh per kg dry air', show(note, item.dhTotal, 'enthalpy', system).replace(/^(?=\d)/, '+')]);
+  rows.push(['Δh per kg dry air', signed(item.dhTotal, show(note, Math.abs(item.dhTotal), 'enthalpy', system))]);
   const perKgW = show(note, Math.abs(item.dw), 'humidityRatio', system);
-  rows.push(['Δw', item.dw < 0 ? `−${perKgW} (removed)` : item.dw > 0 ? `+${perKgW} (added)` : perKgW]);
+  rows.push(['Δw', `${signed(item.dw, perKgW)}${item.dw < 0 ? ' (removed)' : item.dw > 0 ? ' (added)' : ''}`]);
   if (item.waterKgS !== null) {
     const rate = showWaterRate(note, Math.abs(item.waterKgS), system);
     rows.push([item.waterKgS < 0 ? 'condensate' : 'water added', item.waterKgS === 0 ? '—' : rate]);
   }
   if (item.qCoilW !== null) rows.push(['coil duty incl. water', heat(note, item.qCoilW, system)]);
   out.push('| | |', '|---|--:|', ...rows.map(([a, b]) => `| ${a} | ${b} |`));
-  const claims = claimsBlock(note, item.claims, system);
+  const claims = claimsBlock(note, item, system);
   if (claims.length > 0) out.push('', ...claims);
   out.push('', 'Heat rates are positive when heat is added to the air; steady flow, one dry-air flow.');
   out.push('', METHOD_LINE, '', '---', CAUTION_LINE);

@@ -89,7 +89,7 @@ function hintOffset(note: Note, statement: Statement): number {
 /** The inline hints of the statements that overlap `span`, in document order. */
 export function inlayHints(note: Note, span: Span, token?: CancellationFlag): HintItem[] {
   const out: HintItem[] = [];
-  for (const statement of statementsIn(note, span)) {
+  for (const statement of statementsIn(note, span, true)) {
     if (token?.isCancellationRequested) break;
     const item = itemOf(note, statement);
     if (!item) continue;

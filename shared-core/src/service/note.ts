@@ -77,15 +77,18 @@ export function statementAt(note: Note, offset: number): Statement | undefined {
   return touches(s.span, offset) ? s : undefined;
 }
 
-/** The statements that overlap `span`, in document order. */
-export function statementsIn(note: Note, span: Span): Statement[] {
+/**
+ * The statements that overlap `span`, in document order. With `endExclusive`, a statement that
+ * starts exactly at `span.end` is left out (an LSP range up to the start of the next line).
+ */
+export function statementsIn(note: Note, span: Span, endExclusive = false): Statement[] {
   const list = note.analysis.parsed.statements;
   let i = lastStartingAtOrBefore(list, span.start);
   if (i < 0) i = 0;
   const out: Statement[] = [];
   for (; i < list.length; i++) {
     const s = list[i]!;
-    if (s.span.start > span.end) break;
+    if (s.span.start > span.end || (endExclusive && s.span.start === span.end && span.end > span.start)) break;
     if (overlaps(s.span, span)) out.push(s);
   }
   return out;

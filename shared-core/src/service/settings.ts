@@ -4,7 +4,7 @@
  */
 import type { EvaluateSettings } from '../evaluate/types';
 import { stdAtmPressure } from '../physics';
-import { displaySymbol, fromSI, lookupUnit, toSI } from '../units';
+import { displaySymbol, lookupUnit, toSI } from '../units';
 import type { Dimension } from '../units/types';
 import { HINT_KEYS, type DefaultSite, type HintKey, type ServiceSettings } from './types';
 
@@ -141,15 +141,15 @@ export function readSettings(raw: unknown): { settings: ServiceSettings; problem
 
 /** The evaluator settings that the service settings imply (default pressure and where it came from). */
 export function toEvaluateSettings(s: ServiceSettings): EvaluateSettings {
+  // The evaluator describes the basis as `${pressureOrigin} ${kPa} kPa`.
   let pressurePa = SEA_LEVEL_PA;
-  let pressureOrigin = 'default 101.325 kPa';
+  let pressureOrigin = 'default';
   if (s.site.kind === 'elevation') {
     pressurePa = stdAtmPressure(s.site.m);
-    const kPa = fromSI(pressurePa, lookupUnit('kPa')!);
-    pressureOrigin = `setting dewmark.elevation = ${s.site.written} (standard atmosphere, ${kPa.toFixed(3)} kPa)`;
+    pressureOrigin = `setting dewmark.elevation = ${s.site.written} (standard atmosphere):`;
   } else if (s.site.written !== 'default') {
     pressurePa = s.site.pa;
-    pressureOrigin = `setting dewmark.pressure = ${s.site.written}`;
+    pressureOrigin = `setting dewmark.pressure = ${s.site.written}, i.e.`;
   }
   return { units: s.units, pressurePa, pressureOrigin, checkClaims: s.checkClaims };
 }
