@@ -158,7 +158,7 @@ describe('caption and theming', () => {
   it('says which pressure the curves are for, and names states at another pressure', () => {
     const d = data([state('A', 20, 0.006), state('B', 22, 0.007, { pressurePa: 83_000 })], { pressureText: 'site line 2: elev=0m' });
     const svg = renderChartFromData(d);
-    expect(svg).toContain('Curves drawn for 101.325 kPa (site line 2: elev=0m)');
+    expect(svg).toContain('Curves drawn for 101.325 kPa — site line 2: elev=0m;');
     expect(svg).toMatch(/B is at another pressure/);
     expect(svg).toContain('ASHRAE Handbook—Fundamentals Ch. 1');
   });

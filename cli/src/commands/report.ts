@@ -44,6 +44,12 @@ function q(si: number | null | undefined, dim: Dimension, sys: UnitSystem): stri
   return formatQuantity(si, dim, sys).valueText;
 }
 
+/** `x` at `d` decimals, never "-0.00". */
+function fixed(x: number, d: number): string {
+  const t = x.toFixed(d);
+  return /^-0(\.0+)?$/.test(t) ? t.slice(1) : t;
+}
+
 function sym(dim: Dimension, sys: UnitSystem): string {
   return displaySymbol(displayUnit(dim, sys));
 }
@@ -124,16 +130,17 @@ function processesSection(a: Analysis, lines: LineIndex, text: string): string {
   const rows = procs.map((p) => [
     `<span class="name">${escapeHtml(p.name)}</span>`,
     String(lineOf(lines, text, p.statement.span.start)),
-    `${escapeHtml(p.from)} → ${escapeHtml(p.to)}`,
+    `<span class="nowrap">${escapeHtml(p.from)} → ${escapeHtml(p.to)}</span>`,
     escapeHtml((p.processKind ?? '—').replace(/-/g, ' ')),
     q(p.massFlowKgS, 'massFlow', sys),
     q(p.qTotalW, 'power', sys),
     q(p.qSensibleW, 'power', sys),
     q(p.qLatentW, 'power', sys),
-    p.shr === null || !Number.isFinite(p.shr) ? '—' : p.shr.toFixed(2),
-    p.waterKgS === null || !Number.isFinite(p.waterKgS) ? '—' : sys === 'SI' ? (p.waterKgS * 3600).toFixed(2) : (p.waterKgS * 3600 / 0.45359237).toFixed(2),
+    p.shr === null || !Number.isFinite(p.shr) ? '—' : fixed(p.shr, 2),
+    // kg/h, or lb/h (1 lb = 0.45359237 kg exactly).
+    p.waterKgS === null || !Number.isFinite(p.waterKgS) ? '—' : fixed(sys === 'SI' ? p.waterKgS * 3600 : (p.waterKgS * 3600) / 0.45359237, 2),
     // A difference: the datum offset cancels, so it is scaled only.
-    Number.isFinite(p.dhTotal) ? (p.dhTotal / displayUnit('enthalpy', sys).scale).toFixed(2) : '—',
+    Number.isFinite(p.dhTotal) ? fixed(p.dhTotal / displayUnit('enthalpy', sys).scale, 2) : '—',
     claimsCell(p.claims),
   ]);
   return (
@@ -169,9 +176,9 @@ function pressureSection(a: Analysis, lines: LineIndex, text: string): string {
   const settingText = `${formatQuantity(a.settings.pressurePa, 'pressure', a.units).text} (${escapeHtml(a.settings.pressureOrigin)})`;
   if (bases.size === 0) return `<p id="pressure-basis">No states; the default pressure would be ${settingText}.</p>`;
   const items = [...bases.values()].map(({ basis, names }) => {
-    const where = basis.span ? `, line ${lineOf(lines, text, basis.span.start)}` : '';
-    const elev = basis.elevationM !== null ? ` from an elevation of ${formatQuantity(basis.elevationM, 'length', a.units).text} by the standard-atmosphere equation (ASHRAE HoF Ch. 1, eq 3)` : '';
-    return `<li><strong>${formatQuantity(basis.pa, 'pressure', a.units).text}</strong> — ${escapeHtml(basis.describe)}${escapeHtml(where)}${escapeHtml(elev)}: ${names.map((n) => `<span class="name">${escapeHtml(n)}</span>`).join(', ')}</li>`;
+    const where = basis.span && !/\bline \d+/.test(basis.describe) ? `, line ${lineOf(lines, text, basis.span.start)}` : '';
+    const elev = basis.elevationM !== null ? ' (elevation to pressure by the standard-atmosphere equation, ASHRAE HoF Ch. 1 eq 3)' : '';
+    return `<li><strong>${formatQuantity(basis.pa, 'pressure', a.units).text}</strong> — ${escapeHtml(basis.describe)}${escapeHtml(where)}${escapeHtml(elev)}; used by ${names.map((n) => `<span class="name">${escapeHtml(n)}</span>`).join(', ')}</li>`;
   });
   return `<ul id="pressure-basis">${items.join('\n')}</ul><p class="small">Default when a note has no <code>site:</code> line: ${settingText}. The chart's curves are drawn for the pressure most states use.</p>`;
 }
@@ -211,6 +218,7 @@ th{font-weight:600;background:color-mix(in srgb,var(--card) 85%,var(--line))}
 .badge{font-size:11px;border-radius:8px;padding:0 6px;border:1px solid}
 .badge.err{color:var(--err)}.badge.warn{color:var(--warn)}
 .note{font-size:11px;color:var(--muted)}
+.nowrap{white-space:nowrap}
 .claim{display:inline-block;font-size:12px;border-radius:8px;padding:0 6px;margin:1px 0;border:1px solid var(--line)}
 .claim.pass{color:var(--ok)}.claim.fail{color:var(--warn);border-color:var(--warn)}
 .sev{font-weight:650}.sev.error{color:var(--err)}.sev.warning{color:var(--warn)}.sev.info{color:var(--muted)}

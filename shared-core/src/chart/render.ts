@@ -190,7 +190,7 @@ function otherPressurePoints(data: ChartData): ChartPoint[] {
 function captionLines(data: ChartData): string[] {
   const pText = formatQuantity(data.pressurePa, 'pressure', data.units).text;
   const lines = [
-    `Curves drawn for ${pText}${data.pressureText ? ` (${data.pressureText})` : ''}; ${data.units} units. Moist-air properties after ASHRAE Handbook\u2014Fundamentals Ch. 1 (ideal gas; over ice below 0 \u00b0C, 32 \u00b0F).`,
+    `Curves drawn for ${pText}${data.pressureText ? ` \u2014 ${data.pressureText}` : ''}; ${data.units} units. Moist-air properties after ASHRAE Handbook\u2014Fundamentals Ch. 1 (ideal gas; over ice below 0 \u00b0C, 32 \u00b0F).`,
   ];
   const others = otherPressurePoints(data);
   if (others.length > 0) {
@@ -391,8 +391,8 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
     if (!pos.has(p.name)) pos.set(p.name, { p, px: toPixel(layout, p.db, p.w) });
   }
   const segments: [Pixel, Pixel][] = [];
-  /** Process names: state tags keep clear of them. */
-  const obstacles: Box[] = [];
+  /** Process names to place once the state tags are placed. */
+  const nameRequests: { key: string; text: string; start: Pixel; tip: Pixel }[] = [];
   out.push(`<g class="dmc-overlay" clip-path="url(#${id}-clip)">`);
   for (const m of data.mixes) {
     const mixed = pos.get(m.name);
@@ -428,15 +428,11 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
     out.push(
       `<path class="${pr.flagged ? 'dmc-arrow-flag' : 'dmc-arrow'}" d="M${n(tip.x)} ${n(tip.y)}L${n(base.x - uy * 4.5)} ${n(base.y + ux * 4.5)}L${n(base.x + uy * 4.5)} ${n(base.y - ux * 4.5)}Z"/>`,
     );
-    const mid = { x: (start.x + tip.x) / 2, y: (start.y + tip.y) / 2 };
-    // Name on the side of the arrow away from the points' label preference (left of travel).
-    const nx = uy;
-    const ny = -ux;
-    const lx = mid.x + nx * 11;
-    const ly = mid.y + ny * 11 + 3;
-    out.push(`<text class="dmc-process-name" x="${n(lx)}" y="${n(ly)}" text-anchor="middle">${escapeXml(pr.name)}</text>`);
-    const lw = textWidth(pr.name, 10.5);
-    obstacles.push({ x: lx - lw / 2, y: ly - 9, w: lw, h: 12 });
+    // Processes between the same two states share one arrow name ("CC, CC_sched").
+    const key = `${pr.from}\u0000${pr.to}`;
+    const same = nameRequests.find((r) => r.key === key);
+    if (same) same.text += `, ${pr.name}`;
+    else nameRequests.push({ key, text: pr.name, start, tip });
     out.push('</g>');
     segments.push([start, tip]);
   }
@@ -447,7 +443,7 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
   const markers: Box[] = plotted.map(({ px }) => ({ x: px.x - MARKER_RADIUS - 2, y: px.y - MARKER_RADIUS - 2, w: 2 * MARKER_RADIUS + 4, h: 2 * MARKER_RADIUS + 4 }));
   const placed = placeLabels(
     plotted.map(({ p, px }) => ({ anchor: px, width: textWidth(tagText(p), 11) + 12, height: 18 })),
-    [...markers, ...obstacles],
+    markers,
     segments,
     plot,
   );
@@ -478,6 +474,39 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
     );
     out.push('</g>');
   });
+  out.push('</g>');
+
+  // Process names beside their arrows, clear of the tags, the points and each other.
+  const blocked: Box[] = [...markers, ...placed.map((l) => l.box)];
+  out.push('<g class="dmc-process-names">');
+  for (const r of nameRequests) {
+    const dx = r.tip.x - r.start.x;
+    const dy = r.tip.y - r.start.y;
+    const len = Math.hypot(dx, dy) || 1;
+    const w = textWidth(r.text, 10.5);
+    let chosen: Box | null = null;
+    for (const [t, off] of [[0.5, 12], [0.35, 12], [0.65, 12], [0.2, 12], [0.8, 12], [0.5, 24], [0.5, 38], [0.5, 54]] as const) {
+      for (const side of [1, -1]) {
+        const cx = r.start.x + dx * t + (side * dy * off) / len;
+        const cy = r.start.y + dy * t - (side * dx * off) / len;
+        const box: Box = { x: cx - w / 2, y: cy - 7, w, h: 13 };
+        const inside = box.x >= plot.left && box.y >= plot.top && box.x + box.w <= plot.right && box.y + box.h <= plot.bottom;
+        const free = blocked.every((b) => box.x >= b.x + b.w || b.x >= box.x + box.w || box.y >= b.y + b.h || b.y >= box.y + box.h);
+        if (inside && free) {
+          chosen = box;
+          break;
+        }
+      }
+      if (chosen) break;
+    }
+    if (!chosen) {
+      const cx = r.start.x + dx / 2 + (dy * 12) / len;
+      const cy = r.start.y + dy / 2 - (dx * 12) / len;
+      chosen = { x: cx - w / 2, y: cy - 7, w, h: 13 };
+    }
+    blocked.push(chosen);
+    out.push(`<text class="dmc-process-name" x="${n(chosen.x + chosen.w / 2)}" y="${n(chosen.y + 10)}" text-anchor="middle">${escapeXml(r.text)}</text>`);
+  }
   out.push('</g>');
 
   legend(ctx, legendY);
