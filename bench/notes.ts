@@ -9,11 +9,17 @@ import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { analyzeNote } from '../shared-core/src/evaluate';
+import { enthalpy, humRatioFromRelHum, stdAtmPressure } from '../shared-core/src/physics';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 
-/** A realistic note: headings, prose, tables and `air` fences; `statements` statements in `lines` lines. */
-export function generateNote(statements: number, lines: number, seed = 1): string {
+/**
+ * A realistic note: headings, prose, tables and `air` fences, `statements` statements in about
+ * `lines` lines. States carry a humidity-ratio claim worked out with the engine (so it passes, as
+ * most figures in a maintained note do) except every `staleEvery`-th one, which is stale; per
+ * block a mix, an off-coil state and a reheat process with a worked-out heat-rate claim.
+ */
+export function generateNote(statements: number, lines: number, seed = 1, staleEvery = 25): string {
   let x = seed >>> 0 || 1;
   const rnd = () => {
     x ^= x << 13;
@@ -21,26 +27,36 @@ export function generateNote(statements: number, lines: number, seed = 1): strin
     x ^= x << 5;
     return (x >>> 0) / 4294967296;
   };
+  const p = stdAtmPressure(1200);
+  const wCoil = humRatioFromRelHum(12, 0.9, p);
   const out: string[] = ['# Generated plant note', '', 'Prose that the reader skips.', '', '```air', 'site: elev=1200m', '```', ''];
   let made = 1;
   let block = 0;
+  let states = 0;
   while (made < statements) {
     block++;
-    out.push(`## Block ${block}`, '', `Paragraph ${block} with \`inline code\` that is not a statement and a table:`, '', '| a | b |', '|---|---|', '| 1 | 2 |', '');
+    out.push(`## Block ${block}`, '', `Paragraph ${block} with \`inline code\` that is not a statement, and a table:`, '', '| a | b |', '|---|---|', '| 1 | 2 |', '');
     out.push('```air');
     const n = Math.min(10, statements - made);
     const names: string[] = [];
     for (let i = 0; i < n; i++) {
-      const id = `S${block}_${i}`;
-      const kind = i % 5;
-      if (kind === 3 && names.length >= 2) {
-        out.push(`mix M${block}_${i}: ${names[0]} 30% + ${names[1]} 70%   # mix`);
-      } else if (kind === 4 && names.length >= 2) {
-        out.push(`process P${block}_${i}: ${names[0]} -> ${names[1]} m=2.5kg/s q_total=10kW`);
+      if (i === 3 && names.length >= 2) {
+        out.push(`mix M${block}: ${names[0]} 30% + ${names[1]} 70%   # mixed air`);
+      } else if (i === 4) {
+        out.push(`state C${block}: db=12C rh=90%   # off-coil`);
+      } else if (i === 5) {
+        out.push(`state H${block}: db=18C w=${(wCoil * 1000).toFixed(3)}g/kg   # after reheat`);
+      } else if (i === 6) {
+        const q = (2.5 * (enthalpy(18, wCoil) - enthalpy(12, wCoil))) / 1000;
+        out.push(`process P${block}: C${block} -> H${block} m=2.5kg/s q_total=${q.toFixed(1)}kW`);
       } else {
-        const db = (10 + rnd() * 25).toFixed(1);
+        const id = `S${block}_${i}`;
+        const db = Math.round((10 + rnd() * 25) * 10) / 10;
         const rh = Math.round(20 + rnd() * 60);
-        out.push(`state ${id}: db=${db}C rh=${rh}% w=9.3g/kg   # claim`);
+        states++;
+        const w = humRatioFromRelHum(db, rh / 100, p) * 1000;
+        const claim = states % staleEvery === 0 ? w + 0.5 : w;
+        out.push(`state ${id}: db=${db}C rh=${rh}% w=${claim.toFixed(2)}g/kg   # claim`);
         names.push(id);
       }
       made++;
@@ -48,7 +64,7 @@ export function generateNote(statements: number, lines: number, seed = 1): strin
     out.push('```', '');
   }
   while (out.length < lines) out.push(out.length % 7 === 0 ? '' : 'More prose to reach the target length of the note, as a long calculation has.');
-  return out.slice(0, Math.max(lines, out.length)).join('\n');
+  return out.join('\n');
 }
 
 function median(xs: number[]): number {
@@ -73,6 +89,16 @@ export async function benchNotes(): Promise<void> {
   const med = median(times);
   console.log(`parse+evaluate: ${lineCount} lines, ${statementCount} statements, ${check.items.length} results, ${check.diagnostics.length} diagnostics`);
   console.log(`  median ${med.toFixed(2)} ms, min ${Math.min(...times).toFixed(2)} ms, max ${Math.max(...times).toFixed(2)} ms (goal ≤ 20 ms median) ${med <= 20 ? 'OK' : 'OVER GOAL'}`);
+  // Worst case: every claim stale, so every state carries a warning with its message.
+  const stale = generateNote(2000, 10_000, 1, 1);
+  for (let i = 0; i < 3; i++) analyzeNote(stale);
+  const staleTimes: number[] = [];
+  for (let i = 0; i < 15; i++) {
+    const t0 = performance.now();
+    analyzeNote(stale);
+    staleTimes.push(performance.now() - t0);
+  }
+  console.log(`  every claim stale (${analyzeNote(stale).diagnostics.length} diagnostics): median ${median(staleTimes).toFixed(2)} ms`);
 
   // 2. `dewmark check` as a real process on 1000 notes of 200 statements.
   const cli = join(root, 'dist', 'cli.js');

@@ -96,7 +96,16 @@ async function runCheck(paths: string[], opts: CommonOptions, io: CliIO): Promis
     };
     io.out(`${JSON.stringify(doc, null, 2)}\n`);
   } else {
-    for (const f of files) for (const d of f.analysis.diagnostics) io.out(`${diagnosticLine(f, d)}\n`);
+    // One write per batch of lines: a write per diagnostic is slow on a pipe.
+    let chunk: string[] = [];
+    for (const f of files) {
+      for (const d of f.analysis.diagnostics) chunk.push(diagnosticLine(f, d));
+      if (chunk.length >= 2000) {
+        io.out(`${chunk.join('\n')}\n`);
+        chunk = [];
+      }
+    }
+    if (chunk.length > 0) io.out(`${chunk.join('\n')}\n`);
     io.out(`${summaryLine(files.length, c, ioProblems)}\n`);
     if (maxWarnings !== null && c.warnings > maxWarnings) io.out(`too many warnings: ${c.warnings} (at most ${maxWarnings} allowed by --max-warnings)\n`);
   }

@@ -29,18 +29,34 @@ export function claimPasses(writtenSI: number, computedSI: number, toleranceSI: 
  * Compares a claim and returns its result, plus a `claim-mismatch` warning when it fails. The
  * warning's data holds what a quick fix needs: `computedText` (`17.1C`), `replacement` (`17.1`,
  * the new digits) and `replaceSpan` (the written number's span).
- * @param context  what the computed value follows from, e.g. "from db=24C and rh=50%".
+ * @param context  what the computed value follows from, e.g. "from db=24C and rh=50%" (or a
+ *                 function that builds it, called only for a failed claim).
  */
 export function checkClaim(
   key: string,
   prop: PropertyNode,
   q: ResolvedQuantity,
   computedSI: number,
-  context: string,
+  context: string | (() => string),
 ): { claim: ClaimResult; diagnostic: CoreDiagnostic | null } {
+  const pass = Number.isFinite(computedSI) && claimPasses(q.si, computedSI, q.toleranceSI);
+  if (pass) {
+    // A passing claim shows the computed value at its own written precision (cheap, and it is
+    // what the writer would see rounded the same way).
+    const inUnit = q.unit ? (computedSI - q.unit.offset) / q.unit.scale : computedSI;
+    const claim: ClaimResult = {
+      key,
+      prop,
+      writtenSI: q.si,
+      computedSI,
+      toleranceSI: q.toleranceSI,
+      pass,
+      computedText: `${formatAtResolution(inUnit, q.quantity.number.resolution)}${q.unitText}`,
+    };
+    return { claim, diagnostic: null };
+  }
   const replacement = computedNumberText(computedSI, q);
   const computedText = `${replacement}${q.unitText}`;
-  const pass = Number.isFinite(computedSI) && claimPasses(q.si, computedSI, q.toleranceSI);
   const claim: ClaimResult = {
     key,
     prop,
@@ -50,7 +66,7 @@ export function checkClaim(
     pass,
     computedText,
   };
-  if (pass) return { claim, diagnostic: null };
+  if (typeof context === 'function') context = context();
   const written = `${key}=${q.quantity.number.text}${q.unitText}`;
   const band = q.explicitTolerance ? 'outside its written tolerance' : 'more than half a unit of its last digit away';
   const diagnostic: CoreDiagnostic = {

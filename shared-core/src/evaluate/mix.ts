@@ -15,9 +15,9 @@ import { problemDiagnostic } from './problems';
 import { readProps } from './props';
 import { dimensionWords, findUnit, readQuantity, suggestSymbol } from './quantity';
 import { kPaText } from './pressure';
-import { stateClaims } from './state';
+import { stateClaims, stateFinite } from './state';
 import type { PressureBasis, StateResult } from './types';
-import { allFinite, formatSig, spanUnion } from './util';
+import { formatSig, spanUnion } from './util';
 
 /** Streams whose pressures differ by more than this fraction get a `pressure-mismatch` warning. */
 const PRESSURE_SLACK = 1e-4;
@@ -186,7 +186,7 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     ctx.report(problemDiagnostic(solved.problem, 'error', spans, fallback, `${what} (W = ${formatSig(w * 1000, 4)} g/kg, h = ${formatSig(h / 1000, 4)} kJ/kg)`));
     return result;
   }
-  if (!allFinite(solved.state)) {
+  if (!stateFinite(solved.state)) {
     ctx.report({ code: 'no-solution', severity: 'error', message: `${what}: the mixed state could not be computed; check the streams`, span: streamsSpan });
     return result;
   }
@@ -204,8 +204,8 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       ctx.report(problemDiagnostic(warn, 'warning', spans, fallback, what));
     }
   }
-  const ctxText = `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`;
-  result.claims = stateClaims(ctx, claimProps.props, solved.state, ctxText);
+  const ctxText = () => `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`;
+  if (claimProps.props.length > 0) result.claims = stateClaims(ctx, claimProps.props, solved.state, ctxText);
   void owner;
   return result;
 }

@@ -79,44 +79,56 @@ export function apparatusDewPoint(a: MoistAirState, b: MoistAirState, p: number)
   const dt = b.db - a.db;
   const dw = b.w - a.w;
   if (!(dw < 0)) return null;
-  const f = (s: number): number | null => {
+  // f(s) = W on the line − W at saturation, at t = a.db + s·dt. W is linear in s and the
+  // saturation humidity ratio is convex in t, so f is concave: one maximum, found by golden
+  // section, then the crossing by bisection.
+  const f = (s: number): number => {
     const t = a.db + s * dt;
-    if (t < -100 || t > 200) return null;
+    if (t < -100 || t > 200) return -Infinity;
     try {
       const ws = satHumRatio(t, p);
-      return Number.isFinite(ws) ? a.w + s * dw - ws : null;
+      return Number.isFinite(ws) ? a.w + s * dw - ws : -Infinity;
     } catch {
-      return null;
+      return -Infinity;
     }
   };
-  const f1 = f(1);
-  if (f1 !== null && f1 >= -SAT_SLACK) return b.db;
-  const sMax = a.w / -dw;
-  if (!(sMax > 1)) return null;
-  const steps = 200;
-  let prevS = 1;
-  for (let i = 1; i <= steps; i++) {
-    const s = 1 + ((sMax - 1) * i) / steps;
-    const v = f(s);
-    if (v === null) {
-      if (dt > 0) return null; // beyond boiling: the line never meets saturation
-      break;
+  if (f(1) >= -SAT_SLACK) return b.db;
+  // Heating or constant temperature while drying: the line moves away from saturation.
+  if (!(dt < 0)) return null;
+  let hi = Math.min(a.w / -dw, (a.db + 100) / -dt);
+  if (!(hi > 1)) return null;
+  let lo = 1;
+  const g = (Math.sqrt(5) - 1) / 2;
+  let x1 = hi - g * (hi - lo);
+  let x2 = lo + g * (hi - lo);
+  let f1 = f(x1);
+  let f2 = f(x2);
+  for (let k = 0; k < 40 && hi - lo > 1e-4 * hi; k++) {
+    if (f1 < f2) {
+      lo = x1;
+      x1 = x2;
+      f1 = f2;
+      x2 = lo + g * (hi - lo);
+      f2 = f(x2);
+    } else {
+      hi = x2;
+      x2 = x1;
+      f2 = f1;
+      x1 = hi - g * (hi - lo);
+      f1 = f(x1);
     }
-    if (v >= -SAT_SLACK) {
-      // Bisect between prevS (below) and s (at or above) for the crossing.
-      let lo = prevS;
-      let hi = s;
-      for (let k = 0; k < 50; k++) {
-        const mid = (lo + hi) / 2;
-        const fm = f(mid);
-        if (fm !== null && fm >= 0) hi = mid;
-        else lo = mid;
-      }
-      return a.db + hi * dt;
-    }
-    prevS = s;
   }
-  return null;
+  const sMax = (lo + hi) / 2;
+  if (!(f(sMax) >= -SAT_SLACK)) return null;
+  // The first crossing lies between s = 1 (below saturation) and the maximum.
+  let below = 1;
+  let above = sMax;
+  for (let k = 0; k < 40 && above - below > 1e-7 * above; k++) {
+    const mid = (below + above) / 2;
+    if (f(mid) >= 0) above = mid;
+    else below = mid;
+  }
+  return a.db + above * dt;
 }
 
 /** Evaluates one `process` statement; null when it cannot be computed (diagnostics say why). */
@@ -300,8 +312,8 @@ function processClaims(ctx: EvalContext, claims: ReadProp[], r: ProcessResult, w
       continue;
     }
     const computed = c.key !== 'shr' && c.q.si >= 0 ? Math.abs(signed) : signed;
-    const flowText = r.massFlowKgS !== null ? ` at ${formatSig(r.massFlowKgS, 4)} kg/s dry air` : '';
-    const { claim, diagnostic } = checkClaim(c.key, c.prop, c.q, computed, `for ${r.from} -> ${r.to}${flowText}`);
+    const context = () => `for ${r.from} -> ${r.to}${r.massFlowKgS !== null ? ` at ${formatSig(r.massFlowKgS, 4)} kg/s dry air` : ''}`;
+    const { claim, diagnostic } = checkClaim(c.key, c.prop, c.q, computed, context);
     out.push(claim);
     if (diagnostic) ctx.report(diagnostic);
   }

@@ -21,7 +21,6 @@ import type { ReadProp } from './props';
 import { readProps } from './props';
 import { checkClaim } from './claims';
 import type { ClaimResult, PressureBasis, StateResult } from './types';
-import { allFinite } from './util';
 
 /** The value of a state property in SI, for claims. */
 export function stateValue(s: MoistAirState, key: string): number | null {
@@ -50,6 +49,15 @@ export function writtenList(props: ReadProp[]): string {
   const parts = props.map((p) => `${p.key}=${p.q.quantity.number.text}${p.q.unitText}`);
   if (parts.length <= 1) return parts.join('');
   return `${parts.slice(0, -1).join(', ')} and ${parts[parts.length - 1]}`;
+}
+
+/** True when every numeric property of a state is finite (the invariant of results). */
+export function stateFinite(s: MoistAirState): boolean {
+  return (
+    Number.isFinite(s.p) && Number.isFinite(s.db) && Number.isFinite(s.wb) && Number.isFinite(s.dp) && Number.isFinite(s.rh) &&
+    Number.isFinite(s.w) && Number.isFinite(s.h) && Number.isFinite(s.v) && Number.isFinite(s.rho) && Number.isFinite(s.pw) &&
+    Number.isFinite(s.pws) && Number.isFinite(s.ws) && Number.isFinite(s.mu)
+  );
 }
 
 /** `a, b or c`. */
@@ -81,7 +89,7 @@ export function candidatePairs(defs: ReadProp[]): [ReadProp, ReadProp][] {
 }
 
 /** Compares every claim of a computed state (the properties that did not define it). */
-export function stateClaims(ctx: EvalContext, claimsProps: ReadProp[], s: MoistAirState, context: string): ClaimResult[] {
+export function stateClaims(ctx: EvalContext, claimsProps: ReadProp[], s: MoistAirState, context: string | (() => string)): ClaimResult[] {
   const out: ClaimResult[] = [];
   if (!ctx.settings.checkClaims) return out;
   for (const c of claimsProps) {
@@ -162,7 +170,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
       ctx.report(problemDiagnostic(solved.problem, 'error', spansByKey, spanOf(spansByKey, [a, b]), what, pressureRelated(solved.problem, pressure)));
       return result;
     }
-    if (!allFinite(solved.state)) {
+    if (!stateFinite(solved.state)) {
       // A property without a finite value (bone-dry air has no dew point; air above the boiling
       // point cannot be saturated): the engine explains it in a warning, reported here as the error.
       const why = solved.warnings.filter((w) => w.code === 'out-of-range' || w.code === 'pressure-below-saturation');
@@ -196,7 +204,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
       });
     }
     const claimsProps = props.filter((p) => p !== a && p !== b && p.key !== 'p' && p.key !== 'elev');
-    result.claims = stateClaims(ctx, claimsProps, solved.state, `from ${writtenList([a, b])} at ${pressureWord(pressure)}`);
+    if (claimsProps.length > 0) result.claims = stateClaims(ctx, claimsProps, solved.state, () => `from ${writtenList([a, b])} at ${pressureWord(pressure)}`);
     return result;
   }
   if (lastDependent) {
