@@ -51,7 +51,7 @@ describe('Neovim as the LSP client', () => {
     expect(run.report.serverInfo?.name).toBe('dewmark-language-server');
 
     const before = run.step('waitDiagnostics');
-    expect(before.diagnostics.map((d) => d.code)).toEqual(['missing-unit']);
+    expect(before.diagnostics.map((d) => d.code)).toEqual(['missing-unit', 'unresolved-dependency']); // MA waits on RA
     expect(before.diagnostics[0]!.range.start).toEqual(positionOf(NOTE, '24 rh', 0));
 
     const hover = hoverText(run.step('hover').result);
