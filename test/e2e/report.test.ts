@@ -25,7 +25,7 @@ Outdoor design for the gallery roof plant; return air from the east hall.
 
 \`\`\`air
 state OA: db=31C wb=22C          # outdoor summer design
-state RA: db=24C rh=50%          # east hall return
+state RA: db=24C rh=50% w=9.9g/kg  # east hall return; the w claim is stale
 mix MA: OA 30% + RA 70%
 state SA: db=13C rh=92%          # off-coil
 process CC: MA -> SA q=3.2m3/s
@@ -188,6 +188,10 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
     })()`);
     expect(rows.states!.map((r) => r[0]!.split(' ')[0])).toEqual(['OA', 'RA', 'SA', 'BAD', 'FOG', 'HALL']);
     expect(rows.states!.find((r) => r[0]!.startsWith('BAD'))![0]).toContain('not computed');
+    // The stale claim shows as failed beside the state, with the computed value, and as a diagnostic.
+    const raClaims = rows.states!.find((r) => r[0] === 'RA')!.at(-1)!;
+    expect(raClaims).toMatch(/^w ✗ \d+\.\d+g\/kg$/);
+    expect(rows.diagnostics!.some((r) => r[2] === 'claim-mismatch' && r[1] === 'warning')).toBe(true);
     expect(rows.mixes!.map((r) => r[0])).toEqual(['MA']);
     expect(rows.mixes![0]![2]).toBe('OA 30.0 % + RA 70.0 %');
     expect(rows.processes!.map((r) => r[0])).toEqual(['CC']);
