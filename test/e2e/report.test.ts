@@ -15,7 +15,7 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { run, type CliIO } from '../../cli/src/run';
 import { analyzeNote } from '../../shared-core/src/evaluate';
-import { chartDataFromAnalysis, chartLayout, toPixel } from '../../shared-core/src/chart';
+import { chartDataFromAnalysis, chartLayout, chartWebviewHtml, renderChart, toPixel } from '../../shared-core/src/chart';
 import { artifactsDir, requireTool, skipWithout } from './lib/tools';
 import { CHROMIUM_ARGS, loadPlaywright } from './lib/codeServer';
 
@@ -143,6 +143,7 @@ interface Rect {
 interface Page {
   goto(url: string): Promise<unknown>;
   evaluate<T>(expression: string): Promise<T>;
+  waitForFunction(expression: string): Promise<unknown>;
   screenshot(options: { path: string; fullPage?: boolean }): Promise<unknown>;
   on(event: 'request', listener: (r: { url(): string }) => void): unknown;
   close(): Promise<void>;
@@ -246,6 +247,55 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
     expect(marks.fog).toBe('fog');
     expect(marks.flagged).toContain('BAD');
     expect(marks.flagged).toContain('not plotted');
+    await done();
+  });
+
+  it('webview page: the chart shows under the strict CSP, follows --vscode-* colours, and updates live on a message', async () => {
+    const nonce = 'Zt4kQ9wLm2Xc7Vb1Np8Rs3';
+    const analysis = analyzeNote(NOTE, {});
+    const first = renderChart(analysis, { source: NOTE, styleNonce: nonce });
+    writeFileSync(join(dir, 'webview.html'), chartWebviewHtml({ svg: first, nonce, title: 'ahu-2.md' }));
+    const { page, requests, done } = await open(pathToFileURL(join(dir, 'webview.html')).href);
+    const before = await page.evaluate<{ markers: number; sat: string; injected: string }>(`(() => {
+      // A style without the nonce is refused by the page's policy.
+      const s = document.createElement('style');
+      s.textContent = 'body { outline: 7px solid rgb(255, 0, 0); }';
+      document.head.appendChild(s);
+      return {
+        markers: document.querySelectorAll('circle.dmc-marker').length,
+        sat: getComputedStyle(document.querySelector('path.dmc-sat')).stroke,
+        injected: getComputedStyle(document.body).outlineStyle,
+      };
+    })()`);
+    expect(before.markers).toBe(6);
+    expect(before.sat).toBe('rgb(35, 64, 142)'); // the chart's own default (#23408e) without a VS Code theme
+    expect(before.injected).toBe('none');
+    // A VS Code theme sets --vscode-* on the document element; the chart follows it.
+    const themed = await page.evaluate<string>(`(() => {
+      document.documentElement.style.setProperty('--vscode-charts-blue', 'rgb(0, 122, 204)');
+      return getComputedStyle(document.querySelector('path.dmc-sat')).stroke;
+    })()`);
+    expect(themed).toBe('rgb(0, 122, 204)');
+    // The note changes: the host posts the new chart and the page replaces it.
+    const changed = NOTE.replace('state SA: db=13C rh=92%', 'state SA: db=15C rh=85%');
+    const second = renderChart(analyzeNote(changed, {}), { source: changed, styleNonce: nonce });
+    await page.evaluate(`window.postMessage({ type: 'dewmark.chart', svg: ${JSON.stringify(second)} }, '*')`);
+    await page.waitForFunction(`document.getElementById('dewmark-chart').getAttribute('data-updates') === '1'`);
+    const after = await page.evaluate<{ db: string | null; svgs: number; sat: string }>(`({
+      db: document.querySelector('circle.dmc-marker[data-name="SA"]').getAttribute('data-db'),
+      svgs: document.querySelectorAll('#dewmark-chart svg').length,
+      sat: getComputedStyle(document.querySelector('path.dmc-sat')).stroke,
+    })`);
+    expect(Number(after.db)).toBeCloseTo(15, 9);
+    expect(after.svgs).toBe(1);
+    expect(after.sat).toBe('rgb(0, 122, 204)'); // the new chart's nonce'd style applies too
+    expect(requests.filter((u) => !u.startsWith('file:') && !u.startsWith('data:'))).toEqual([]);
+    // A dark VS Code-like theme, for the screenshot.
+    await page.evaluate(`(() => {
+      const r = document.documentElement.style;
+      for (const [k, v] of Object.entries({ '--vscode-editor-background': '#1e1e1e', '--vscode-editor-foreground': '#d4d4d4', '--vscode-descriptionForeground': '#a0a0a0', '--vscode-panel-border': '#3c3c3c', '--vscode-charts-blue': '#3794ff', '--vscode-charts-purple': '#b180d7', '--vscode-charts-green': '#89d185', '--vscode-charts-orange': '#d18616', '--vscode-charts-red': '#f14c4c', '--vscode-editorWarning-foreground': '#cca700', '--vscode-editor-inactiveSelectionBackground': '#3a3d41' })) r.setProperty(k, v);
+    })()`);
+    await page.screenshot({ path: join(shots, 'webview-vscode-dark.png') });
     await done();
   });
 

@@ -29,3 +29,5 @@ export { escapeXml, MARKER_RADIUS, renderChartFromData } from './render';
 export { chartDataFromAnalysis, renderChart } from './fromAnalysis';
 export type { FromAnalysisOptions } from './fromAnalysis';
 export { chartCss, DARK_THEME, LIGHT_THEME, VSCODE_THEME_MAP, vscodeThemeCss } from './style';
+export { chartWebviewHtml } from './webview';
+export type { ChartUpdateMessage, ChartWebviewOptions } from './webview';

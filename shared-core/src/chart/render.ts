@@ -322,7 +322,8 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
   );
   out.push(`<title id="${id}-title">${escapeXml(title)}</title>`);
   out.push(`<desc id="${id}-desc">${escapeXml(describe(data, layout))}</desc>`);
-  out.push(`<style>${chartCss()}</style>`);
+  const nonce = options.styleNonce && /^[A-Za-z0-9+/=_-]+$/.test(options.styleNonce) ? ` nonce="${options.styleNonce}"` : '';
+  out.push(`<style${nonce}>${chartCss()}</style>`);
   out.push(`<defs><clipPath id="${id}-clip"><rect x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/></clipPath></defs>`);
   out.push(`<rect class="dmc-page" x="0" y="0" width="${full.width}" height="${height}"/>`);
   out.push(`<text class="dmc-heading" x="${n(plot.left)}" y="24">${escapeXml(title)}</text>`);

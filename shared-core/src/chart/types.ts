@@ -101,6 +101,8 @@ export interface ChartOptions {
   families?: Partial<ChartFamilies>;
   /** Title of the SVG (its `<title>`); default from the data. */
   title?: string;
+  /** A CSP nonce for the SVG's `<style>` element (a webview with a nonce-only style policy). */
+  styleNonce?: string;
 }
 
 /** A pixel position (CSS px, origin top-left of the SVG). */
