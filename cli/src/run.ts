@@ -3,10 +3,9 @@
  * notes (or more warnings than --max-warnings), 2 usage or I/O problems.
  */
 import { Command, CommanderError, Option } from 'commander';
-import { analyzeNote } from './core';
-import { STDIN_PATH, collectInputs, decodeText, readInput, readStdin } from './files';
-import type { FileResult } from './output';
-import { countDiagnostics, diagnosticJson, diagnosticLine, evalFileJson, fileResult, processesTable, statesTable, summaryLine } from './output';
+import { STDIN_PATH, collectInputs, decodeText, readStdin } from './files';
+import { summaryLine, type Counts } from './output';
+import { runTasks, type FileOutput, type Mode, type Task } from './work';
 import { UsageError, toSettings, type RawEvalOptions } from './settings';
 import { registerChart } from './commands/chart';
 import { registerReport } from './commands/report';
@@ -36,36 +35,65 @@ interface CommonOptions extends RawEvalOptions {
   gitignore?: boolean;
 }
 
-/** Reads and analyses the inputs; I/O problems are printed and counted. */
-async function analyse(paths: string[], opts: CommonOptions, io: CliIO): Promise<{ files: FileResult[]; ioProblems: number }> {
+/** Per-file totals kept while files stream through (analyses are not kept, to spare memory). */
+interface Totals {
+  files: number;
+  counts: Counts;
+  ioProblems: number;
+}
+
+/**
+ * Finds, reads and analyses the inputs, handing each file's rendered output to `onFile` in input
+ * order. Analyses are not kept (holding 1000 at once makes the garbage collector the slowest part
+ * of a run); many files are spread over worker threads. I/O problems are printed and counted.
+ */
+async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mode, onFile: (out: FileOutput) => void): Promise<Totals> {
   const settings = toSettings(opts);
   const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false });
-  let ioProblems = 0;
+  const totals: Totals = { files: 0, counts: { errors: 0, warnings: 0, infos: 0 }, ioProblems: 0 };
   for (const p of problems) {
     io.err(`dewmark: ${p.message}\n`);
-    ioProblems++;
+    totals.ioProblems++;
   }
-  const files: FileResult[] = [];
-  const progress = io.stderrIsTTY && inputs.length >= PROGRESS_FROM;
-  let i = 0;
+  const tasks: Task[] = [];
   for (const input of inputs) {
-    i++;
-    if (progress && (i % 10 === 0 || i === inputs.length)) io.err(`\rdewmark: checking ${i}/${inputs.length} files…`);
-    const read = input.abs === null ? decodeText(await io.stdin(), STDIN_PATH) : readInput(input);
-    if (!read.ok) {
-      if (progress) io.err('\r\x1b[K');
-      io.err(`dewmark: ${read.message}\n`);
-      ioProblems++;
+    if (input.abs !== null) {
+      tasks.push({ input });
       continue;
     }
-    files.push(fileResult(input.display, read.text, analyzeNote(read.text, settings)));
+    const read = decodeText(await io.stdin(), STDIN_PATH);
+    if (read.ok) tasks.push({ input, text: read.text });
+    else {
+      io.err(`dewmark: ${read.message}\n`);
+      totals.ioProblems++;
+    }
   }
+  const progress = io.stderrIsTTY && tasks.length >= PROGRESS_FROM;
+  await runTasks(
+    tasks,
+    mode,
+    settings,
+    (_task, r) => {
+      if (!r.ok) {
+        if (progress) io.err('\r\x1b[K');
+        io.err(`dewmark: ${r.message}\n`);
+        totals.ioProblems++;
+        return;
+      }
+      totals.files++;
+      totals.counts.errors += r.out.counts.errors;
+      totals.counts.warnings += r.out.counts.warnings;
+      totals.counts.infos += r.out.counts.infos;
+      onFile(r.out);
+    },
+    progress ? (done) => io.err(`\rdewmark: checking ${done}/${tasks.length} files…`) : undefined,
+  );
   if (progress) io.err('\r\x1b[K');
   if (inputs.length === 0 && problems.length === 0) {
     io.err(`dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${p}'`).join(', ') : 'the current folder'}\n`);
-    ioProblems++;
+    totals.ioProblems++;
   }
-  return { files, ioProblems };
+  return totals;
 }
 
 function maxWarningsOf(opts: CommonOptions): number | null {
@@ -75,66 +103,66 @@ function maxWarningsOf(opts: CommonOptions): number | null {
   return n;
 }
 
-function exitCodeFor(files: FileResult[], ioProblems: number, maxWarnings: number | null): number {
-  if (ioProblems > 0) return 2;
-  const c = countDiagnostics(files);
-  if (c.errors > 0) return 1;
-  if (maxWarnings !== null && c.warnings > maxWarnings) return 1;
+function exitCodeFor(t: Totals, maxWarnings: number | null): number {
+  if (t.ioProblems > 0) return 2;
+  if (t.counts.errors > 0) return 1;
+  if (maxWarnings !== null && t.counts.warnings > maxWarnings) return 1;
   return 0;
+}
+
+/** Collects output and writes it in large pieces (a write per line is slow on a pipe). */
+class OutBuffer {
+  private parts: string[] = [];
+  private size = 0;
+  constructor(private readonly io: CliIO) {}
+  push(text: string): void {
+    this.parts.push(text);
+    this.size += text.length;
+    if (this.size >= 1 << 16) this.flush();
+  }
+  flush(): void {
+    if (this.parts.length === 0) return;
+    this.io.out(this.parts.join(''));
+    this.parts = [];
+    this.size = 0;
+  }
 }
 
 async function runCheck(paths: string[], opts: CommonOptions, io: CliIO): Promise<number> {
   const format = opts.format ?? 'text';
   if (format !== 'text' && format !== 'json') throw new UsageError(`--format must be text or json for check, not '${format}'`);
   const maxWarnings = maxWarningsOf(opts);
-  const { files, ioProblems } = await analyse(paths, opts, io);
-  const c = countDiagnostics(files);
+  const out = new OutBuffer(io);
+  const jsonFiles: unknown[] = [];
+  const t = await analyse(paths, opts, io, format === 'json' ? 'check-json' : 'check-text', (f) => {
+    if (format === 'json') jsonFiles.push(f.json);
+    else if (f.text) out.push(f.text);
+  });
+  const c = t.counts;
   if (format === 'json') {
-    const doc = {
-      files: files.map((f) => ({ path: f.path, diagnostics: f.analysis.diagnostics.map((d) => diagnosticJson(f, d)) })),
-      summary: { files: files.length, errors: c.errors, warnings: c.warnings, infos: c.infos, unreadable: ioProblems },
-    };
-    io.out(`${JSON.stringify(doc, null, 2)}\n`);
+    const doc = { files: jsonFiles, summary: { files: t.files, errors: c.errors, warnings: c.warnings, infos: c.infos, unreadable: t.ioProblems } };
+    out.push(`${JSON.stringify(doc, null, 2)}\n`);
   } else {
-    // One write per batch of lines: a write per diagnostic is slow on a pipe.
-    let chunk: string[] = [];
-    for (const f of files) {
-      for (const d of f.analysis.diagnostics) chunk.push(diagnosticLine(f, d));
-      if (chunk.length >= 2000) {
-        io.out(`${chunk.join('\n')}\n`);
-        chunk = [];
-      }
-    }
-    if (chunk.length > 0) io.out(`${chunk.join('\n')}\n`);
-    io.out(`${summaryLine(files.length, c, ioProblems)}\n`);
-    if (maxWarnings !== null && c.warnings > maxWarnings) io.out(`too many warnings: ${c.warnings} (at most ${maxWarnings} allowed by --max-warnings)\n`);
+    out.push(`${summaryLine(t.files, c, t.ioProblems)}\n`);
+    if (maxWarnings !== null && c.warnings > maxWarnings) out.push(`too many warnings: ${c.warnings} (at most ${maxWarnings} allowed by --max-warnings)\n`);
   }
-  return exitCodeFor(files, ioProblems, maxWarnings);
+  out.flush();
+  return exitCodeFor(t, maxWarnings);
 }
 
 async function runEvalCommand(paths: string[], opts: CommonOptions, io: CliIO): Promise<number> {
   const format = opts.format ?? 'table';
   if (format !== 'table' && format !== 'json') throw new UsageError(`--format must be table or json for eval, not '${format}'`);
-  const { files, ioProblems } = await analyse(paths, opts, io);
-  if (format === 'json') {
-    io.out(`${JSON.stringify({ files: files.map(evalFileJson) }, null, 2)}\n`);
-  } else {
-    for (const f of files) {
-      io.out(`${f.path}  (results in ${f.analysis.units}${f.analysis.unitsSource === 'note' ? ', from the note' : ''})\n\n`);
-      const st = statesTable(f);
-      const pr = processesTable(f);
-      if (st) io.out(`States\n${st}\n\n`);
-      if (pr) io.out(`Processes (positive = heat or water added to the air)\n${pr}\n\n`);
-      if (!st && !pr) io.out('no states or processes\n\n');
-      if (f.analysis.diagnostics.length > 0) {
-        io.out('Diagnostics\n');
-        for (const d of f.analysis.diagnostics) io.out(`${diagnosticLine(f, d)}\n`);
-        io.out('\n');
-      }
-    }
-    io.out(`${summaryLine(files.length, countDiagnostics(files), ioProblems)}\n`);
-  }
-  return exitCodeFor(files, ioProblems, null);
+  const out = new OutBuffer(io);
+  const jsonFiles: unknown[] = [];
+  const t = await analyse(paths, opts, io, format === 'json' ? 'eval-json' : 'eval-table', (f) => {
+    if (format === 'json') jsonFiles.push(f.json);
+    else out.push(f.text);
+  });
+  if (format === 'json') out.push(`${JSON.stringify({ files: jsonFiles }, null, 2)}\n`);
+  else out.push(`${summaryLine(t.files, t.counts, t.ioProblems)}\n`);
+  out.flush();
+  return exitCodeFor(t, null);
 }
 
 function addCommon(cmd: Command): Command {
