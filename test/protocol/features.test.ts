@@ -244,6 +244,24 @@ describe('settings, cancellation and custom requests', () => {
     s.configuration = (item) => (item.scopeUri?.endsWith('-ip.md') ? { units: 'IP' } : {});
   });
 
+  it('answers ContentModified when the document changed while the request waited', async () => {
+    const uri = 'file:///work-notes/edited.md';
+    let release!: () => void;
+    const gate = new Promise<void>((r) => (release = r));
+    const asked = s.configurationRequests.length;
+    s.configuration = () => gate.then(() => ({}));
+    await s.open(uri, '```air\nstate OA: db=40C wb=20C\n```\n', 1);
+    const pending = s.request('textDocument/hover', { textDocument: { uri }, position: { line: 1, character: 7 } });
+    await s.until('the configuration request', () => s.configurationRequests.length > asked);
+    await s.change(uri, 2, [{ range: { start: { line: 1, character: 13 }, end: { line: 1, character: 14 } }, text: '3' }]);
+    release();
+    await expect(pending).rejects.toMatchObject({ code: -32801 }); // LSP ContentModified
+    // Asked again, it answers for the new text (db=30C).
+    const h = await s.request<{ contents: { value: string } }>('textDocument/hover', { textDocument: { uri }, position: { line: 1, character: 7 } });
+    expect(tableValue(h.contents.value, 'db')).toBe(30);
+    s.configuration = (item) => (item.scopeUri?.endsWith('-ip.md') ? { units: 'IP' } : {});
+  });
+
   it('answers dewmark/noteStatus with the units and the pressure basis', async () => {
     const status = await s.request<{ units: string; unitsSource: string; pressureLabel: string }>('dewmark/noteStatus', { textDocument: { uri: URI } });
     expect(status).toMatchObject({ units: 'SI', unitsSource: 'setting', pressureLabel: 'site 101.325 kPa' });

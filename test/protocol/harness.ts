@@ -16,7 +16,7 @@ import {
 } from 'vscode-jsonrpc/node';
 
 /** The repository root: the nearest folder upwards from the working directory that holds the server's bin. */
-export const ROOT = ((): string => {
+export function repoRoot(): string {
   let dir = process.cwd();
   for (;;) {
     if (existsSync(join(dir, 'bin', 'dewmark-language-server.js'))) return dir;
@@ -24,9 +24,12 @@ export const ROOT = ((): string => {
     if (up === dir) throw new Error(`no bin/dewmark-language-server.js above ${process.cwd()}; run from the Dewmark repository`);
     dir = up;
   }
-})();
+}
+
 /** The server's entry point, as editors start it. */
-export const SERVER_BIN = join(ROOT, 'bin', 'dewmark-language-server.js');
+export function serverBin(): string {
+  return join(repoRoot(), 'bin', 'dewmark-language-server.js');
+}
 
 /** LSP position. */
 export interface Position {
@@ -208,11 +211,11 @@ export class Session {
 /** Starts the server over stdio (default) or node IPC. */
 export function startServer(transport: 'stdio' | 'node-ipc' = 'stdio'): Session {
   if (transport === 'stdio') {
-    const proc = spawn(process.execPath, [SERVER_BIN, '--stdio'], { cwd: ROOT, stdio: ['pipe', 'pipe', 'pipe'] });
+    const proc = spawn(process.execPath, [serverBin(), '--stdio'], { cwd: repoRoot(), stdio: ['pipe', 'pipe', 'pipe'] });
     const connection = createMessageConnection(new StreamMessageReader(proc.stdout!), new StreamMessageWriter(proc.stdin!));
     return new Session(proc, connection);
   }
-  const proc = spawn(process.execPath, [SERVER_BIN, '--node-ipc'], { cwd: ROOT, stdio: ['pipe', 'pipe', 'pipe', 'ipc'] });
+  const proc = spawn(process.execPath, [serverBin(), '--node-ipc'], { cwd: repoRoot(), stdio: ['pipe', 'pipe', 'pipe', 'ipc'] });
   const connection = createMessageConnection(new IPCMessageReader(proc), new IPCMessageWriter(proc));
   return new Session(proc, connection);
 }

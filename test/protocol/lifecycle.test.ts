@@ -5,17 +5,17 @@
  */
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
-import { FULL_CAPABILITIES, PUSH_ONLY_CAPABILITIES, SERVER_BIN, startServer } from './harness';
+import { FULL_CAPABILITIES, PUSH_ONLY_CAPABILITIES, serverBin, startServer } from './harness';
 
 describe('command line', () => {
   it('prints the usage and exits 2 without a transport', () => {
-    const r = spawnSync(process.execPath, [SERVER_BIN], { encoding: 'utf8', timeout: 20_000 });
+    const r = spawnSync(process.execPath, [serverBin()], { encoding: 'utf8', timeout: 20_000 });
     expect(r.status).toBe(2);
     expect(r.stderr).toContain('Usage: dewmark-language-server --stdio');
   });
 
   it('prints its version', () => {
-    const r = spawnSync(process.execPath, [SERVER_BIN, '--version'], { encoding: 'utf8', timeout: 20_000 });
+    const r = spawnSync(process.execPath, [serverBin(), '--version'], { encoding: 'utf8', timeout: 20_000 });
     expect(r.status).toBe(0);
     expect(r.stdout.trim()).toMatch(/^\d+\.\d+\.\d+$/);
   });
