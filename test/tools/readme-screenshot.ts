@@ -3,16 +3,16 @@
  * demo note examples/kestrel-ridge-ahu1.md open, its inline hints showing and a hover on a state.
  * Needs the editor-test tools (bash scripts/setup-e2e-tools.sh) and a built dist/.
  *
- *   node --import tsx images/render-screenshot.ts
+ *   node --import tsx test/tools/readme-screenshot.ts
  */
 import { spawnSync } from 'node:child_process';
 import { copyFileSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { startSession } from '../test/e2e/lib/codeServer';
+import { startSession } from '../e2e/lib/codeServer';
 
-const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const root = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
 const NOTE = 'kestrel-ridge-ahu1.md';
 
 async function main(): Promise<void> {
