@@ -1,0 +1,85 @@
+/**
+ * The air regions of a Markdown note: fenced code blocks whose info string's first word is `air`,
+ * and code spans whose content starts with a statement keyword (`state `, `mix `, `process `,
+ * `site:`, `units:` — the keyword followed by whitespace or `:`). Everything else is prose.
+ */
+import type { AirRegion, HeadingNode, Keyword } from '../notation/ast';
+import type { Span } from '../text/types';
+import { scanMarkdown } from './scan';
+
+/** The statement keywords, in the order the docs list them. */
+export const STATEMENT_KEYWORDS: readonly Keyword[] = ['site', 'units', 'state', 'mix', 'process'];
+
+/** A ` ```air ` fence. */
+export interface FenceRegion extends AirRegion {
+  origin: 'fence';
+  /** Each body line's content: one statement (or blank, or a comment) per line. */
+  lines: Span[];
+  /** The whole info string (`air`, or `air` followed by more words). */
+  info: string;
+  /** False when the fence runs to the end of its container without a closing fence. */
+  closed: boolean;
+}
+
+/** A code span holding one statement. */
+export interface InlineRegion extends AirRegion {
+  origin: 'inline';
+  /**
+   * The statement's pieces, one per source line (container prefixes and continuation indentation
+   * left out); the line breaks between them count as spaces.
+   */
+  lines: Span[];
+}
+
+/** Any air region. */
+export type ExtractedRegion = FenceRegion | InlineRegion;
+
+/** What {@link extractRegions} returns. */
+export interface ExtractedNote {
+  /** Air regions in document order. */
+  regions: ExtractedRegion[];
+  /** Every ATX and setext heading, in document order. */
+  headings: HeadingNode[];
+}
+
+/** Whether `content` starts with a statement keyword followed by whitespace or `:`. */
+export function startsWithKeyword(content: string): boolean {
+  for (const kw of STATEMENT_KEYWORDS) {
+    if (content.startsWith(kw)) {
+      const c = content.charCodeAt(kw.length);
+      if (c === 0x3a || c === 0x20 || c === 0x09 || c === 0x0a || c === 0x0d) return true;
+    }
+  }
+  return false;
+}
+
+/** Finds the air regions and the headings of a Markdown text (offsets into `text`). */
+export function extractRegions(text: string): ExtractedNote {
+  const scan = scanMarkdown(text);
+  const fences: FenceRegion[] = [];
+  for (const f of scan.fences) {
+    if (f.lang !== 'air') continue;
+    fences.push({ origin: 'fence', span: f.span, contentSpan: f.contentSpan, lines: f.lines, info: f.info, closed: f.closed });
+  }
+  const inline: InlineRegion[] = [];
+  for (const c of scan.codeSpans) {
+    if (!startsWithKeyword(c.content)) continue;
+    inline.push({ origin: 'inline', span: c.span, contentSpan: c.contentSpan, lines: c.lines });
+  }
+  // Both lists are in document order and never overlap (a code span is never inside a fence).
+  const regions: ExtractedRegion[] = [];
+  let i = 0;
+  let j = 0;
+  while (i < fences.length || j < inline.length) {
+    const f = fences[i];
+    const s = inline[j];
+    if (f && (!s || f.span.start < s.span.start)) {
+      regions.push(f);
+      i++;
+    } else if (s) {
+      regions.push(s);
+      j++;
+    }
+  }
+  return { regions, headings: scan.headings };
+}

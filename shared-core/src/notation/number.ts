@@ -1,0 +1,90 @@
+/**
+ * Numbers of the notation as written: optional sign, digits, optional fraction, optional exponent
+ * (`24`, `-5`, `9.30`, `.5`, `5.`, `1.2e3`, `1E-4`). Scanning works on the document text in place;
+ * the value comes from the written digits (never guessed), and the resolution is the place value
+ * of the last written digit.
+ */
+
+/** A number found at a position, before any check of its value. */
+export interface ScannedNumber {
+  /** Offset just past the number. */
+  end: number;
+  /** The text to hand to `Number()` (a Unicode minus turned into `-`). */
+  numeric: string;
+  /** Digits after the decimal point. */
+  fractionDigits: number;
+  /** The written exponent (0 when none). */
+  exponent: number;
+}
+
+function isDigit(c: number): boolean {
+  return c >= 0x30 && c <= 0x39;
+}
+
+/** Whether a number can start at `pos` (a digit, or a sign or point followed by one). */
+export function startsNumber(text: string, pos: number, end: number): boolean {
+  if (pos >= end) return false;
+  let c = text.charCodeAt(pos);
+  if (c === 0x2b || c === 0x2d || c === 0x2212) {
+    pos++;
+    if (pos >= end) return false;
+    c = text.charCodeAt(pos);
+  }
+  if (isDigit(c)) return true;
+  return c === 0x2e && pos + 1 < end && isDigit(text.charCodeAt(pos + 1));
+}
+
+/**
+ * Scans a number starting at `pos` (which must satisfy {@link startsNumber}). Stops after the
+ * last character that belongs to it; the caller looks at what follows (a unit, a comma…).
+ */
+export function scanNumber(text: string, pos: number, end: number): ScannedNumber {
+  const start = pos;
+  let c = text.charCodeAt(pos);
+  let unicodeMinus = false;
+  if (c === 0x2b || c === 0x2d || c === 0x2212) {
+    unicodeMinus = c === 0x2212;
+    pos++;
+  }
+  while (pos < end && isDigit(text.charCodeAt(pos))) pos++;
+  let fractionDigits = 0;
+  if (pos < end && text.charCodeAt(pos) === 0x2e) {
+    pos++;
+    while (pos < end && isDigit(text.charCodeAt(pos))) {
+      pos++;
+      fractionDigits++;
+    }
+  }
+  let exponent = 0;
+  if (pos < end) {
+    c = text.charCodeAt(pos);
+    if (c === 0x65 || c === 0x45) {
+      let q = pos + 1;
+      let sign = 1;
+      const s = text.charCodeAt(q);
+      if (s === 0x2b || s === 0x2d) {
+        if (s === 0x2d) sign = -1;
+        q++;
+      }
+      if (q < end && isDigit(text.charCodeAt(q))) {
+        let e = 0;
+        while (q < end && isDigit(text.charCodeAt(q))) {
+          // Saturate: a huge exponent gives an infinite value or zero, reported or kept by the caller.
+          if (e < 100000) e = e * 10 + (text.charCodeAt(q) - 0x30);
+          q++;
+        }
+        exponent = sign * e;
+        pos = q;
+      }
+    }
+  }
+  let numeric = text.slice(start, pos);
+  if (unicodeMinus) numeric = '-' + numeric.slice(1);
+  return { end: pos, numeric, fractionDigits, exponent };
+}
+
+/** Place value of the last written digit: `50` → 1, `9.30` → 0.01, `1.2e3` → 100, `0.0093` → 0.0001. */
+export function resolutionOf(fractionDigits: number, exponent: number): number {
+  // Built from its decimal text so that 0.01 is the double nearest to 1/100, not 10 ** -2.
+  return Number(`1e${exponent - fractionDigits}`);
+}

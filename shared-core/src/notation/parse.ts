@@ -1,0 +1,903 @@
+/**
+ * Tolerant parser of the air-state notation.
+ *
+ * {@link parseNote} finds the air regions of a Markdown note (see `markdown/regions`) and reads
+ * their statements: one per non-blank line of an ` ```air ` fence, one per keyword code span.
+ * {@link parseStatementText} reads one statement from a range of the document. The parser never
+ * throws: what it cannot read becomes a diagnostic, and it goes on with the next statement. Every
+ * node carries its exact source span (UTF-16 offsets into the whole document).
+ *
+ * Grammar (spaces and tabs separate tokens; in a code span, line breaks count as spaces):
+ *
+ *     site: KEY=VALUE …                       units: WORD
+ *     state NAME: KEY=VALUE …                 mix NAME: NAME AMOUNT + NAME AMOUNT [+ …] [KEY=VALUE …]
+ *     process NAME: NAME -> NAME [KEY=VALUE …]        (`→` works as well as `->`)
+ *     VALUE, AMOUNT:  NUMBER[UNIT][±NUMBER[UNIT]]     (`+-` works as well as `±`)
+ *     NUMBER:  [+|-|−] digits [. digits] [e|E [+|-] digits]    (`.5` and `5.` too)
+ *     NAME:    a letter, then letters, digits, `_` or `-`
+ *     KEY:     a letter or `_`, then letters, digits or `_`
+ *
+ * `#` starts a comment that runs to the end of the line (of the code span, inline). Spaces around
+ * `=` are accepted. The unit is the run of characters written directly after the number up to a
+ * space, `#`, `±`, `+`, `=` or `,`; the parser keeps keys and units as written and does not check
+ * them (the evaluator does).
+ *
+ * Every `null` in the tree (a missing name, value, unit system, state of a process) comes with a
+ * diagnostic from the parser, so the evaluator does not need to report it again. Diagnostic codes
+ * (all severity `error`) are listed in {@link SYNTAX_CODES}.
+ */
+import type {
+  CoreDiagnostic,
+  Keyword,
+  MixStatement,
+  MixStream,
+  NameNode,
+  NumberNode,
+  ParsedNote,
+  ProcessStatement,
+  PropertyNode,
+  QuantityNode,
+  SiteStatement,
+  Statement,
+  StatementOrigin,
+  StateStatement,
+  ToleranceNode,
+  UnitNode,
+  UnitsStatement,
+} from './ast';
+import type { Span } from '../text/types';
+import { extractRegions, type ExtractedRegion } from '../markdown/regions';
+import { resolutionOf, scanNumber, startsNumber } from './number';
+
+/** The diagnostic codes the parser reports, each with what it means. */
+export const SYNTAX_CODES = {
+  /** A malformed statement not covered by a more specific code (stray token, comma, arrow…). */
+  syntax: 'malformed statement',
+  /** A fence line whose first word is not a statement keyword. */
+  'unknown-keyword': 'line does not start with site:, units:, state, mix or process',
+  /** A statement, stream or process end without its state name. */
+  'missing-name': 'a name is missing',
+  /** A name that does not follow the naming rule (a letter, then letters, digits, `_`, `-`). */
+  'bad-name': 'a name is not a valid name',
+  /** `state NAME` (or `site`, `units`…) without the `:` that ends its head. */
+  'missing-colon': 'the colon after the statement head is missing',
+  /** `key=` with nothing after it, a stream without amount, `units:` without a system… */
+  'missing-value': 'a value is missing',
+  /** A value that is not a finite decimal number (`1,5`, `NaN`, `1e999`, `abc`). */
+  'bad-number': 'a value is not a valid number',
+  /** A space between a number and its unit or tolerance (`24 C`): read as if written together. */
+  'value-spacing': 'a unit or tolerance is separated from its number',
+} as const;
+
+/** A diagnostic code of the parser. */
+export type SyntaxCode = keyof typeof SYNTAX_CODES;
+
+/** What {@link parseStatementText} returns. */
+export interface StatementParse {
+  /** Null for a blank or comment-only range, or when no statement keyword could be read. */
+  statement: Statement | null;
+  diagnostics: CoreDiagnostic[];
+}
+
+const KEYWORDS: readonly Keyword[] = ['site', 'units', 'state', 'mix', 'process'];
+
+// ---------------------------------------------------------------------------------------------
+// Character classes
+
+function isWs(c: number): boolean {
+  return c === 0x20 || c === 0x09 || c === 0x0a || c === 0x0d || c === 0x0c || c === 0x0b || c === 0xa0 || c === 0xfeff;
+}
+
+function isAsciiLetter(c: number): boolean {
+  return (c >= 0x41 && c <= 0x5a) || (c >= 0x61 && c <= 0x7a);
+}
+
+function isDigit(c: number): boolean {
+  return c >= 0x30 && c <= 0x39;
+}
+
+const LETTER = /^\p{L}/u;
+
+/** Code units taken by a letter at `pos` (a non-ASCII letter may be a surrogate pair), or 0. */
+function letterAt(text: string, pos: number, end: number): number {
+  if (pos >= end) return 0;
+  const c = text.charCodeAt(pos);
+  if (isAsciiLetter(c)) return 1;
+  if (c < 0x80) return 0;
+  const cp = text.codePointAt(pos) ?? c;
+  const len = cp > 0xffff ? 2 : 1;
+  return pos + len <= end && LETTER.test(String.fromCodePoint(cp)) ? len : 0;
+}
+
+/** Whether a key can start with `c` (ASCII letter or `_`). */
+function isKeyStart(c: number): boolean {
+  return isAsciiLetter(c) || c === 0x5f;
+}
+
+function isKeyChar(c: number): boolean {
+  return isAsciiLetter(c) || isDigit(c) || c === 0x5f;
+}
+
+/** Characters that end a unit (and any token of a value). */
+function endsUnit(c: number): boolean {
+  return isWs(c) || c === 0x23 || c === 0xb1 || c === 0x2b || c === 0x3d || c === 0x2c;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Suggestions
+
+function editDistance(a: string, b: string): number {
+  const m = a.length;
+  const n = b.length;
+  if (Math.abs(m - n) > 2) return 3;
+  let prev2: number[] = [];
+  let prev = Array.from({ length: n + 1 }, (_, j) => j);
+  for (let i = 1; i <= m; i++) {
+    const cur = [i];
+    for (let j = 1; j <= n; j++) {
+      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
+      let v = Math.min((prev[j] as number) + 1, (cur[j - 1] as number) + 1, (prev[j - 1] as number) + cost);
+      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) v = Math.min(v, (prev2[j - 2] as number) + 1);
+      cur.push(v);
+    }
+    prev2 = prev;
+    prev = cur;
+  }
+  return prev[n] as number;
+}
+
+function keywordAdvice(word: string): string {
+  const lower = word.toLowerCase();
+  for (const kw of KEYWORDS) {
+    if (lower === kw) return `keywords are lowercase: write '${kw}'`;
+  }
+  let best: Keyword | null = null;
+  let bestD = 3;
+  for (const kw of KEYWORDS) {
+    const d = editDistance(lower, kw);
+    if (d < bestD) {
+      bestD = d;
+      best = kw;
+    }
+  }
+  if (best && bestD <= 1) return `did you mean '${best}'?`;
+  for (const kw of KEYWORDS) {
+    if (word.length > kw.length && word.startsWith(kw)) {
+      return `did you mean '${kw} ${word.slice(kw.length)}'? Put a space after '${kw}'`;
+    }
+  }
+  if (best && bestD === 2 && word.length >= 4) return `did you mean '${best}'?`;
+  return "a statement starts with 'site:', 'units:', 'state', 'mix' or 'process'; start a note line with '#'";
+}
+
+// ---------------------------------------------------------------------------------------------
+// The parser of one statement
+
+interface Scanned {
+  start: number;
+  end: number;
+}
+
+class StatementParser {
+  private text = '';
+  private segs: readonly Span[] = [];
+  private seg = 0;
+  private pos = 0;
+  private end = 0;
+  private origin: StatementOrigin = 'fence';
+  /** End of the last token consumed (the statement's span ends there). */
+  private lastEnd = 0;
+  /** A saved cursor, for look-ahead (one level is enough). */
+  private savedSeg = 0;
+  private savedPos = 0;
+  private savedEnd = 0;
+  diagnostics: CoreDiagnostic[] = [];
+
+  parse(text: string, segs: readonly Span[], origin: StatementOrigin, diagnostics: CoreDiagnostic[]): Statement | null {
+    this.text = text;
+    this.segs = segs;
+    this.origin = origin;
+    this.diagnostics = diagnostics;
+    this.seg = 0;
+    const first = segs[0];
+    this.pos = first ? first.start : 0;
+    this.end = first ? first.end : 0;
+    this.lastEnd = this.pos;
+    return this.statement();
+  }
+
+  // --- cursor -------------------------------------------------------------------------------
+
+  /** Skips whitespace, moving on to the next piece at the end of one. */
+  private skipWs(): void {
+    for (;;) {
+      while (this.pos < this.end && isWs(this.text.charCodeAt(this.pos))) this.pos++;
+      if (this.pos < this.end) return;
+      const next = this.segs[this.seg + 1];
+      if (!next) return;
+      this.seg++;
+      this.pos = next.start;
+      this.end = next.end;
+    }
+  }
+
+  /** The next significant character after whitespace, or -1 at the end (or at a comment). */
+  private peek(): number {
+    this.skipWs();
+    if (this.pos >= this.end) return -1;
+    const c = this.text.charCodeAt(this.pos);
+    return c === 0x23 ? -1 : c;
+  }
+
+  private charAt(pos: number): number {
+    return pos < this.end ? this.text.charCodeAt(pos) : -1;
+  }
+
+  private isArrowAt(pos: number): boolean {
+    const c = this.charAt(pos);
+    return c === 0x2192 || (c === 0x2d && this.charAt(pos + 1) === 0x3e);
+  }
+
+  /** A run of non-whitespace characters (up to a comment) from the cursor, for messages. */
+  private rawToken(): Scanned {
+    const start = this.pos;
+    let p = start;
+    while (p < this.end) {
+      const c = this.text.charCodeAt(p);
+      if (isWs(c) || (c === 0x23 && p > start)) break;
+      p++;
+    }
+    if (p === start && p < this.end) p++;
+    return { start, end: p };
+  }
+
+  private save(): void {
+    this.savedSeg = this.seg;
+    this.savedPos = this.pos;
+    this.savedEnd = this.end;
+  }
+
+  private restore(): void {
+    this.seg = this.savedSeg;
+    this.pos = this.savedPos;
+    this.end = this.savedEnd;
+  }
+
+  private consume(to: number): void {
+    this.pos = to;
+    if (to > this.lastEnd) this.lastEnd = to;
+  }
+
+  private span(start: number, end: number): Span {
+    return { start, end };
+  }
+
+  private slice(s: Scanned): string {
+    return this.text.slice(s.start, s.end);
+  }
+
+  private report(code: SyntaxCode, message: string, start: number, end: number): void {
+    this.diagnostics.push({ code, severity: 'error', message, span: { start, end: Math.max(start, end) } });
+  }
+
+  /** Skips the rest of the statement (after an error that leaves nothing sensible to read). */
+  private skipRest(): void {
+    for (;;) {
+      if (this.peek() < 0) return;
+      const t = this.rawToken();
+      this.consume(t.end);
+    }
+  }
+
+  // --- statements ---------------------------------------------------------------------------
+
+  private statement(): Statement | null {
+    if (this.peek() < 0) return null;
+    const start = this.pos;
+    let p = start;
+    while (p < this.end && isAsciiLetter(this.text.charCodeAt(p))) p++;
+    const word = this.text.slice(start, p);
+    const after = this.charAt(p);
+    const keyword = (KEYWORDS as readonly string[]).includes(word) && (after < 0 || after === 0x3a || isWs(after)) ? (word as Keyword) : null;
+    if (!keyword) {
+      const t = this.rawToken();
+      let e = t.start;
+      while (e < t.end && this.text.charCodeAt(e) !== 0x3a) e++;
+      if (e === t.start) e = t.end;
+      const shown = this.text.slice(t.start, e);
+      this.report('unknown-keyword', `unknown statement '${shown}': ${keywordAdvice(shown)}`, t.start, e);
+      this.skipRest();
+      return null;
+    }
+    this.consume(p);
+    const keywordSpan = this.span(start, p);
+    switch (keyword) {
+      case 'site':
+        return this.site(keywordSpan);
+      case 'units':
+        return this.units(keywordSpan);
+      case 'state':
+        return this.state(keywordSpan);
+      case 'mix':
+        return this.mix(keywordSpan);
+      case 'process':
+        return this.process(keywordSpan);
+    }
+  }
+
+  private stmtSpan(keywordSpan: Span): Span {
+    return { start: keywordSpan.start, end: Math.max(keywordSpan.end, this.lastEnd) };
+  }
+
+  private site(keywordSpan: Span): SiteStatement {
+    this.colon('site', 'site: elev=1600m', keywordSpan.start);
+    const props = this.props();
+    return { keyword: 'site', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), props };
+  }
+
+  private units(keywordSpan: Span): UnitsStatement {
+    this.colon('units', 'units: SI', keywordSpan.start);
+    let system: NameNode | null = null;
+    if (this.peek() < 0) {
+      this.report('missing-value', "'units:' needs a unit system: write 'units: SI' or 'units: IP'", keywordSpan.start, this.lastEnd);
+    } else {
+      const t = this.rawToken();
+      this.consume(t.end);
+      system = { text: this.slice(t), span: this.span(t.start, t.end) };
+      if (this.peek() >= 0) {
+        const extraStart = this.pos;
+        this.skipRest();
+        this.report(
+          'syntax',
+          `unexpected '${this.text.slice(extraStart, this.lastEnd)}' after the unit system: 'units:' takes one word, SI or IP`,
+          extraStart,
+          this.lastEnd,
+        );
+      }
+    }
+    return { keyword: 'units', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), system };
+  }
+
+  private state(keywordSpan: Span): StateStatement {
+    const name = this.definedName('state', keywordSpan, 'state RA: db=24C rh=50%');
+    this.colon(name ? `state ${name.text}` : 'state', `state ${name?.text ?? 'RA'}: db=24C rh=50%`, keywordSpan.start, !name);
+    const props = this.props();
+    return { keyword: 'state', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, props };
+  }
+
+  private mix(keywordSpan: Span): MixStatement {
+    const name = this.definedName('mix', keywordSpan, 'mix MA: OA 25% + RA 75%');
+    this.colon(name ? `mix ${name.text}` : 'mix', `mix ${name?.text ?? 'MA'}: OA 25% + RA 75%`, keywordSpan.start, !name);
+    const streams = this.streams(keywordSpan, name?.text ?? 'MA');
+    const props = this.props();
+    return { keyword: 'mix', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, streams, props };
+  }
+
+  private process(keywordSpan: Span): ProcessStatement {
+    const name = this.definedName('process', keywordSpan, 'process CC: MA -> SA q=4.8m3/s');
+    const example = `process ${name?.text ?? 'CC'}: MA -> SA`;
+    this.colon(name ? `process ${name.text}` : 'process', example, keywordSpan.start, !name);
+    const from = this.referencedName('the entering state', example, keywordSpan);
+    const arrowExample = `process ${name?.text ?? 'CC'}: ${from?.text ?? 'MA'} -> SA`;
+    let arrow = false;
+    const c = this.peek();
+    if (c >= 0 && this.isArrowAt(this.pos)) {
+      this.consume(this.pos + (c === 0x2192 ? 1 : 2));
+      arrow = true;
+    } else if (c === 0x3d && this.charAt(this.pos + 1) === 0x3e) {
+      this.report('syntax', "write the arrow as '->' (or '→'), not '=>'", this.pos, this.pos + 2);
+      this.consume(this.pos + 2);
+      arrow = true;
+    } else if (from || this.nameAhead()) {
+      // (With neither states nor arrow, the missing entering state was reported already.)
+      const at = c >= 0 ? this.pos : this.lastEnd;
+      this.report('syntax', `missing '->' between the two states: write ${arrowExample}`, from ? from.span.start : at, from ? from.span.end : at);
+    }
+    // Without an arrow, a following name is still read as the leaving state (the arrow was reported).
+    const to = arrow || this.nameAhead() ? this.referencedName("the leaving state after '->'", arrowExample, keywordSpan) : null;
+    const props = this.props();
+    return { keyword: 'process', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, from, to, props };
+  }
+
+  /**
+   * `:` after the statement head (`headStart` to the cursor); reported on the head, not consumed,
+   * when missing — unless `quiet` (the missing name was reported and properties follow).
+   */
+  private colon(head: string, example: string, headStart: number, quiet = false): void {
+    const headEnd = this.lastEnd;
+    const c = this.peek();
+    if (c === 0x3a) {
+      this.consume(this.pos + 1);
+      return;
+    }
+    if (quiet && (c < 0 || this.keyAhead())) return;
+    this.report('missing-colon', `missing ':' after '${head}': write ${example}`, headStart, headEnd);
+  }
+
+  // --- names --------------------------------------------------------------------------------
+
+  /** Scans a name-like token at the cursor (without checking it). */
+  private nameToken(): Scanned {
+    const start = this.pos;
+    let p = start;
+    while (p < this.end) {
+      const c = this.text.charCodeAt(p);
+      if (isWs(c) || c === 0x3a || c === 0x3d || c === 0x23 || c === 0x2c || c === 0x2b || c === 0xb1 || c === 0x2192) break;
+      if (c === 0x2d && this.charAt(p + 1) === 0x3e) break;
+      p++;
+    }
+    return { start, end: p };
+  }
+
+  /** Checks a scanned name: null (and a `bad-name` diagnostic) when it breaks the naming rule. */
+  private checkName(t: Scanned): NameNode | null {
+    const text = this.text;
+    const first = letterAt(text, t.start, t.end);
+    let problem: string | null = null;
+    if (first === 0) {
+      problem = isDigit(text.charCodeAt(t.start)) ? 'a name starts with a letter' : `a name cannot start with '${String.fromCodePoint(text.codePointAt(t.start) ?? 0)}'`;
+    } else {
+      let p = t.start + first;
+      while (p < t.end) {
+        const c = text.charCodeAt(p);
+        if (isDigit(c) || c === 0x5f || c === 0x2d) {
+          p++;
+          continue;
+        }
+        const l = letterAt(text, p, t.end);
+        if (l === 0) {
+          problem = `a name cannot contain '${String.fromCodePoint(text.codePointAt(p) ?? 0)}'`;
+          break;
+        }
+        p += l;
+      }
+    }
+    if (problem) {
+      this.report('bad-name', `'${this.slice(t)}' is not a valid name: ${problem}; use a letter, then letters, digits, '_' or '-' (e.g. AHU-1_off)`, t.start, t.end);
+      return null;
+    }
+    return { text: this.slice(t), span: this.span(t.start, t.end) };
+  }
+
+  /** Whether a `key=` (with optional spaces before `=`, but not `=>`) starts at the cursor. */
+  private keyAhead(): boolean {
+    if (this.peek() < 0 || !isKeyStart(this.text.charCodeAt(this.pos))) return false;
+    let p = this.pos + 1;
+    while (p < this.end && isKeyChar(this.text.charCodeAt(p))) p++;
+    while (p < this.end && (this.text.charCodeAt(p) === 0x20 || this.text.charCodeAt(p) === 0x09)) p++;
+    return this.charAt(p) === 0x3d && this.charAt(p + 1) !== 0x3e; // `=>` is a mistyped arrow
+  }
+
+  /** Whether a name-like token (not a `key=`) starts at the cursor. */
+  private nameAhead(): boolean {
+    const c = this.peek();
+    if (c < 0 || c === 0x3a || c === 0x3d || c === 0x2b || c === 0x2c || this.isArrowAt(this.pos)) return false;
+    if (startsNumber(this.text, this.pos, this.end)) return false;
+    return !this.keyAhead();
+  }
+
+  /** The name after `state`/`mix`/`process`. */
+  private definedName(keyword: Keyword, keywordSpan: Span, example: string): NameNode | null {
+    const c = this.peek();
+    if (c < 0 || c === 0x3a || this.keyAhead()) {
+      const at = c === 0x3a ? this.pos : keywordSpan.start;
+      const endAt = c === 0x3a ? this.pos + 1 : keywordSpan.end;
+      this.report('missing-name', `'${keyword}' needs a name before ':': write ${example}`, at, endAt);
+      return null;
+    }
+    const t = this.nameToken();
+    if (t.end === t.start) {
+      const r = this.rawToken();
+      this.consume(r.end);
+      this.report('bad-name', `'${this.slice(r)}' is not a valid name: use a letter, then letters, digits, '_' or '-' (e.g. ${example})`, r.start, r.end);
+      return null;
+    }
+    this.consume(t.end);
+    return this.checkName(t);
+  }
+
+  /** A state named in a mix stream or a process. */
+  private referencedName(role: string, example: string, keywordSpan: Span): NameNode | null {
+    if (!this.nameAhead()) {
+      const c = this.peek();
+      const at = c >= 0 ? this.pos : Math.max(keywordSpan.end, this.lastEnd);
+      this.report('missing-name', `${role} is missing: write ${example}`, at, c >= 0 ? this.rawToken().end : at);
+      return null;
+    }
+    const t = this.nameToken();
+    if (t.end === t.start) return null;
+    this.consume(t.end);
+    return this.checkName(t);
+  }
+
+  // --- mix streams ----------------------------------------------------------------------------
+
+  private streams(keywordSpan: Span, mixName: string): MixStream[] {
+    const streams: MixStream[] = [];
+    const example = 'OA 25% + RA 75%';
+    let expectStream = true;
+    let plusAt = -1;
+    for (;;) {
+      const c = this.peek();
+      if (c < 0 || this.keyAhead()) break;
+      if (!expectStream) {
+        if (c === 0x2b && this.charAt(this.pos + 1) !== 0x2d) {
+          plusAt = this.pos;
+          this.consume(this.pos + 1);
+          expectStream = true;
+          continue;
+        }
+        if (this.nameAhead() && letterAt(this.text, this.pos, this.end) > 0) {
+          const t = this.nameToken();
+          this.report('syntax', `missing '+' before the stream '${this.slice(t)}': write ${example}`, t.start, t.end);
+          expectStream = true;
+          continue;
+        }
+        break;
+      }
+      // A stream: NAME AMOUNT.
+      const streamStart = this.pos;
+      let name: NameNode | null = null;
+      if (startsNumber(this.text, this.pos, this.end)) {
+        this.report('missing-name', `a stream starts with the name of a state: write ${example}`, this.pos, this.rawToken().end);
+      } else if (this.nameAhead()) {
+        const t = this.nameToken();
+        if (t.end === t.start) break;
+        this.consume(t.end);
+        name = this.checkName(t);
+      } else {
+        break;
+      }
+      let amount: QuantityNode | null = null;
+      if (this.peek() >= 0 && startsNumber(this.text, this.pos, this.end)) {
+        amount = this.quantity('stream');
+      } else if (name) {
+        this.report(
+          'missing-value',
+          `the stream '${name.text}' has no amount: write a dry-air mass fraction, a mass flow or a volume flow, e.g. ${name.text} 25%, ${name.text} 1.2kg/s or ${name.text} 1000L/s`,
+          name.span.start,
+          name.span.end,
+        );
+      }
+      if (name) streams.push({ name, amount, span: this.span(streamStart, Math.max(name.span.end, amount?.span.end ?? 0)) });
+      expectStream = false;
+      plusAt = -1;
+    }
+    if (expectStream && plusAt >= 0) {
+      this.report('missing-name', `'+' must be followed by another stream: write ${example}`, plusAt, plusAt + 1);
+    } else if (streams.length === 0 && expectStream) {
+      const at = this.lastEnd;
+      this.report('missing-value', `the mix has no streams: write mix ${mixName}: ${example}`, keywordSpan.start, Math.max(at, keywordSpan.end));
+    }
+    return streams;
+  }
+
+  // --- properties -----------------------------------------------------------------------------
+
+  private props(): PropertyNode[] {
+    const props: PropertyNode[] = [];
+    for (;;) {
+      const c = this.peek();
+      if (c < 0) break;
+      const start = this.pos;
+      if (c === 0x2c) {
+        this.report('syntax', 'separate properties with spaces, not commas: write db=24C rh=50%', start, start + 1);
+        this.consume(start + 1);
+        continue;
+      }
+      if (c === 0x3d) {
+        this.consume(start + 1);
+        const value = this.peek() >= 0 && !this.keyAhead() ? this.rawToken() : null;
+        if (value) this.consume(value.end);
+        this.report('syntax', "'=' without a key before it: write key=value, e.g. rh=50%", start, value ? value.end : start + 1);
+        continue;
+      }
+      if (isKeyStart(c)) {
+        let p = start + 1;
+        while (p < this.end && isKeyChar(this.text.charCodeAt(p))) p++;
+        const keyEnd = p;
+        while (p < this.end && (this.text.charCodeAt(p) === 0x20 || this.text.charCodeAt(p) === 0x09)) p++;
+        const key = this.text.slice(start, keyEnd);
+        const keySpan = this.span(start, keyEnd);
+        if (this.charAt(p) === 0x3d) {
+          this.consume(p + 1);
+          const value = this.value(key, keySpan);
+          props.push({ key, keySpan, value, span: this.span(start, value ? value.span.end : p + 1) });
+          continue;
+        }
+        const afterKey = this.charAt(keyEnd);
+        if (keyEnd < this.end && !isWs(afterKey) && afterKey !== 0x23) {
+          // Something glued to the word that is not '=': report the whole token.
+          const t = this.rawToken();
+          this.consume(t.end);
+          this.report('syntax', `'${this.slice(t)}' is not a property: write key=value, e.g. db=24C`, t.start, t.end);
+          continue;
+        }
+        this.consume(keyEnd);
+        if (this.peek() >= 0 && startsNumber(this.text, this.pos, this.end)) {
+          // `rh 50%`: the '=' is missing; read the value all the same.
+          this.report('syntax', `missing '=' after '${key}': write ${key}=${this.slice(this.rawToken())}`, start, keyEnd);
+          const value = this.quantity('prop');
+          props.push({ key, keySpan, value, span: this.span(start, value ? value.span.end : keyEnd) });
+          continue;
+        }
+        this.report('syntax', `'${key}' is not a property: write key=value, e.g. db=24C`, start, keyEnd);
+        continue;
+      }
+      const t = this.rawToken();
+      this.consume(t.end);
+      this.report('syntax', `unexpected '${this.slice(t)}': expected key=value, e.g. db=24C`, t.start, t.end);
+    }
+    return props;
+  }
+
+  /** The value after `key=`; null (with a diagnostic) when there is no usable number. */
+  private value(key: string, keySpan: Span): QuantityNode | null {
+    const eq = this.lastEnd;
+    const c = this.peek();
+    if (c < 0 || c === 0x2c || this.keyAhead()) {
+      this.report('missing-value', `'${key}=' has no value: write a number with its unit, e.g. ${exampleFor(key)}`, keySpan.start, eq);
+      return null;
+    }
+    if (!startsNumber(this.text, this.pos, this.end)) {
+      const t = this.rawToken();
+      this.consume(t.end);
+      const word = this.slice(t);
+      const lower = word.toLowerCase().replace(/^[+\-−]/, '');
+      const why = lower === 'nan' || lower.startsWith('inf') ? `'${word}' is not a finite number` : `'${word}' is not a number`;
+      this.report('bad-number', `${why}: write ${key}= followed by a decimal number and its unit, e.g. ${exampleFor(key)}`, t.start, t.end);
+      return null;
+    }
+    return this.quantity('prop', key);
+  }
+
+  /** NUMBER[UNIT][±NUMBER[UNIT]] at the cursor (which starts a number). */
+  private quantity(context: 'prop' | 'stream', key?: string): QuantityNode | null {
+    const number = this.number(key);
+    if (!number) return null;
+    let unit: UnitNode | null = null;
+    const u = this.unitAt(this.pos);
+    if (u) {
+      this.consume(u.end);
+      unit = { text: this.slice(u), span: this.span(u.start, u.end) };
+    } else {
+      const detached = this.detachedUnit(context);
+      if (detached) {
+        this.report(
+          'value-spacing',
+          `write the unit directly after the number, e.g. ${number.text}${this.slice(detached)} (no space)`,
+          number.span.start,
+          detached.end,
+        );
+        this.consume(detached.end);
+        unit = { text: this.slice(detached), span: this.span(detached.start, detached.end) };
+      }
+    }
+    let tolerance: ToleranceNode | null = null;
+    if (this.toleranceAt(this.pos) > 0) {
+      tolerance = this.tolerance();
+    } else {
+      this.save();
+      if (this.peek() >= 0 && this.toleranceAt(this.pos) > 0) {
+        const at = this.pos;
+        const written = `${number.text}${unit?.text ?? ''}`;
+        tolerance = this.tolerance();
+        this.report('value-spacing', `write the tolerance directly after the value, e.g. ${written}${this.text.slice(at, this.lastEnd).replace(/\s+/g, '')} (no space)`, at, this.lastEnd);
+      } else {
+        this.restore();
+      }
+    }
+    const endAt = tolerance ? tolerance.span.end : unit ? unit.span.end : number.span.end;
+    return { number, unit, tolerance, span: this.span(number.span.start, endAt) };
+  }
+
+  /** A number at the cursor; null (with a `bad-number` diagnostic, token skipped) when malformed. */
+  private number(key?: string): NumberNode | null {
+    const start = this.pos;
+    const n = scanNumber(this.text, start, this.end);
+    const next = this.charAt(n.end);
+    const example = key ? ` e.g. ${exampleFor(key)}` : '';
+    if (next === 0x2c && isDigit(this.charAt(n.end + 1))) {
+      const t = this.rawToken();
+      this.consume(t.end);
+      const shown = this.slice(t);
+      const fixed = shown.replace(/,/, '.');
+      this.report('bad-number', `'${shown}' is not a number: use a decimal point, not a comma (${fixed}), and no thousands separators`, t.start, t.end);
+      return null;
+    }
+    if (next === 0x2e || isDigit(next)) {
+      const t = this.rawToken();
+      this.consume(t.end);
+      this.report('bad-number', `'${this.slice(t)}' is not a number: write one decimal number,${example || ' e.g. 24.5'}`, t.start, t.end);
+      return null;
+    }
+    const value = Number(n.numeric);
+    if (!Number.isFinite(value)) {
+      const t = this.rawToken();
+      this.consume(t.end);
+      this.report('bad-number', `'${this.text.slice(start, n.end)}' is too large: write a finite number,${example || ' e.g. 1.2e3'}`, start, t.end);
+      return null;
+    }
+    this.consume(n.end);
+    return {
+      value,
+      text: this.text.slice(start, n.end),
+      resolution: resolutionOf(n.fractionDigits, n.exponent),
+      span: this.span(start, n.end),
+    };
+  }
+
+  /** A unit written directly at `pos`, or null. */
+  private unitAt(pos: number): Scanned | null {
+    if (pos >= this.end) return null;
+    const c = this.text.charCodeAt(pos);
+    if (endsUnit(c)) return null;
+    let p = pos;
+    while (p < this.end && !endsUnit(this.text.charCodeAt(p))) p++;
+    return { start: pos, end: p };
+  }
+
+  /**
+   * A unit separated from its number by spaces (`24 C`): a token that looks like a unit, is not a
+   * `key=` and (in a mix) is not the next stream's name followed by its amount. The cursor is
+   * left unchanged either way.
+   */
+  private detachedUnit(context: 'prop' | 'stream'): Scanned | null {
+    this.save();
+    const from = this.pos;
+    const c = this.peek();
+    if (c < 0 || this.pos === from) {
+      this.restore();
+      return null;
+    }
+    const startsLikeUnit = c === 0x25 || c === 0xb0 || c === 0xb5 || c === 0x3bc || c === 0x2030 || letterAt(this.text, this.pos, this.end) > 0;
+    if (!startsLikeUnit || this.keyAhead() || this.isArrowAt(this.pos)) {
+      this.restore();
+      return null;
+    }
+    const u = this.unitAt(this.pos);
+    if (!u) {
+      this.restore();
+      return null;
+    }
+    // What follows the candidate: a number means it was a name or key with its value.
+    this.pos = u.end;
+    const next = this.peek();
+    const followedByNumber = next >= 0 && startsNumber(this.text, this.pos, this.end);
+    const followedByEq = next === 0x3d;
+    this.restore();
+    if (followedByNumber || followedByEq) return null;
+    if (context === 'stream' && KEYWORDS.includes(this.text.slice(u.start, u.end) as Keyword)) return null;
+    // Make the cursor point at the candidate for the caller.
+    this.peek();
+    if (this.pos !== u.start) {
+      this.restore();
+      return null;
+    }
+    return u;
+  }
+
+  /** Length of a tolerance sign at `pos` (`±` → 1, `+-` → 2), or 0. */
+  private toleranceAt(pos: number): number {
+    const c = this.charAt(pos);
+    if (c === 0xb1) return 1;
+    if (c === 0x2b && this.charAt(pos + 1) === 0x2d) return 2;
+    return 0;
+  }
+
+  /** `±NUMBER[UNIT]` at the cursor. */
+  private tolerance(): ToleranceNode | null {
+    const start = this.pos;
+    const signLen = this.toleranceAt(start);
+    this.consume(start + signLen);
+    const c = this.charAt(this.pos);
+    if (c === 0x2b || c === 0x2d || c === 0x2212) {
+      const t = this.rawToken();
+      this.consume(t.end);
+      this.report('bad-number', `write the tolerance without a sign, e.g. ±${this.text.slice(t.start + 1, t.end)}`, start, t.end);
+      return null;
+    }
+    if (!startsNumber(this.text, this.pos, this.end)) {
+      this.report('missing-value', `'${this.text.slice(start, start + signLen)}' needs a number after it, e.g. rh=50%±2`, start, start + signLen);
+      const t = this.unitAt(this.pos);
+      if (t) this.consume(t.end);
+      return null;
+    }
+    const number = this.number();
+    if (!number) return null;
+    let unit: UnitNode | null = null;
+    const u = this.unitAt(this.pos);
+    if (u) {
+      this.consume(u.end);
+      unit = { text: this.slice(u), span: this.span(u.start, u.end) };
+    }
+    return { number, unit, span: this.span(start, unit ? unit.span.end : number.span.end) };
+  }
+}
+
+function exampleFor(key: string): string {
+  switch (key) {
+    case 'db':
+    case 'wb':
+    case 'dp':
+      return `${key}=24C`;
+    case 'rh':
+      return 'rh=50%';
+    case 'w':
+      return 'w=9.3g/kg';
+    case 'h':
+      return 'h=47.8kJ/kg';
+    case 'v':
+      return 'v=0.85m3/kg';
+    case 'p':
+      return 'p=101.325kPa';
+    case 'elev':
+      return 'elev=1600m';
+    case 'm':
+      return 'm=5.6kg/s';
+    case 'q':
+      return 'q=4.8m3/s';
+    default:
+      return `${key}=24C`;
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Public API
+
+const shared = new StatementParser();
+
+/**
+ * Reads one statement from `text[start, end)` (offsets into the whole document). A blank or
+ * comment-only range gives `statement: null` and no diagnostics.
+ */
+export function parseStatementText(text: string, start: number, end: number, origin: StatementOrigin): StatementParse {
+  const s = Math.max(0, Math.min(start, text.length));
+  const e = Math.max(s, Math.min(end, text.length));
+  return parseStatementPieces(text, [{ start: s, end: e }], origin);
+}
+
+/**
+ * Reads one statement written in several pieces of the document (a code span over several lines:
+ * the gaps between pieces count as spaces). Pieces must be in order and inside the text.
+ */
+export function parseStatementPieces(text: string, pieces: readonly Span[], origin: StatementOrigin): StatementParse {
+  const diagnostics: CoreDiagnostic[] = [];
+  const statement = shared.parse(text, pieces, origin, diagnostics);
+  return { statement, diagnostics };
+}
+
+function regionStatements(text: string, region: ExtractedRegion, statements: Statement[], diagnostics: CoreDiagnostic[]): void {
+  if (region.origin === 'inline') {
+    const st = shared.parse(text, region.lines, 'inline', diagnostics);
+    if (st) statements.push(st);
+    return;
+  }
+  const one: Span[] = [{ start: 0, end: 0 }];
+  for (const line of region.lines) {
+    one[0] = line;
+    const st = shared.parse(text, one, 'fence', diagnostics);
+    if (st) statements.push(st);
+  }
+}
+
+/** Finds the air regions of a Markdown note and parses their statements (never throws). */
+export function parseNote(text: string): ParsedNote {
+  const statements: Statement[] = [];
+  const diagnostics: CoreDiagnostic[] = [];
+  let extracted: ReturnType<typeof extractRegions>;
+  try {
+    extracted = extractRegions(text);
+  } catch (err) {
+    // The Markdown library failed on this text: report it rather than crash the editor or CLI.
+    diagnostics.push({
+      code: 'syntax',
+      severity: 'error',
+      message: `could not read the Markdown structure of this note (${err instanceof Error ? err.message : String(err)}); no statement was read — please report this with the note`,
+      span: { start: 0, end: 0 },
+    });
+    return { regions: [], headings: [], statements, diagnostics };
+  }
+  for (const region of extracted.regions) regionStatements(text, region, statements, diagnostics);
+  return { regions: extracted.regions, headings: extracted.headings, statements, diagnostics };
+}

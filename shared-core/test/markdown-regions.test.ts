@@ -1,0 +1,237 @@
+/**
+ * extractRegions: which fences and code spans are air regions, the per-line content ranges (with
+ * container prefixes removed, offsets into the original text), headings, and positions with CRLF,
+ * lone CR, a BOM, tabs and characters outside the BMP. Also the places where markdown-it alone
+ * would depart from CommonMark (see markdown/markdownIt.ts).
+ */
+import { describe, expect, it } from 'vitest';
+import { extractRegions, startsWithKeyword, type ExtractedRegion } from '../src/markdown/regions';
+import { scanMarkdown } from '../src/markdown/scan';
+
+/**
+ * One summary per region: `fence|line|line…` (each body line read through its range) or
+ * `inline|piece piece…` (the code span's pieces joined by spaces).
+ */
+function summarize(md: string, r: ExtractedRegion): string {
+  const parts = r.lines.map((l) => md.slice(l.start, l.end));
+  return r.origin === 'fence' ? ['fence', ...parts].join('|') : `inline|${parts.join(' ')}`;
+}
+
+/** Regions of `md` must be exactly `expected`; every range must be well-formed. */
+function check(md: string, expected: string[]): void {
+  const { regions } = extractRegions(md);
+  expect(regions.map((r) => summarize(md, r))).toEqual(expected);
+  for (const r of regions) {
+    expect(r.span.start).toBeLessThanOrEqual(r.contentSpan.start);
+    expect(r.contentSpan.end).toBeLessThanOrEqual(r.span.end);
+    for (const l of r.lines) {
+      expect(l.start).toBeGreaterThanOrEqual(r.contentSpan.start);
+      expect(l.end).toBeLessThanOrEqual(r.contentSpan.end);
+      expect(md.slice(l.start, l.end)).not.toMatch(/[\r\n]/);
+    }
+    const whole = md.slice(r.span.start, r.span.end);
+    if (r.origin === 'fence') expect(whole).toMatch(/^(`{3,}|~{3,})/);
+    else expect(whole).toMatch(/^`+[\s\S]*`+$/);
+  }
+}
+
+describe('air fences', () => {
+  it('reads every body line of a backtick or tilde fence whose info word is air', () => {
+    check('text\n\n```air\nstate A: db=1C\n\nstate B: db=2C\n```\n', ['fence|state A: db=1C||state B: db=2C']);
+    check('~~~air\nunits: SI\n~~~\n', ['fence|units: SI']);
+    check('````air\n```\nstate A: db=1C\n````\n', ['fence|```|state A: db=1C']);
+  });
+
+  it('takes the first word of the info string, exactly', () => {
+    check('```air extra words\nunits: SI\n```\n', ['fence|units: SI']);
+    check('``` air\nunits: SI\n```\n', ['fence|units: SI']);
+    check('```airx\nunits: SI\n```\n```AIR\nunits: SI\n```\n```js air\nx\n```\n', []);
+    // Backslash escapes and entities are resolved in the info string.
+    check('```&#97;ir\nunits: SI\n```\n', ['fence|units: SI']);
+  });
+
+  it('removes the fence indentation and container prefixes from each line', () => {
+    check('  ```air\n  state A: db=1C\n    state B: db=2C\n ```\n', ['fence|state A: db=1C|  state B: db=2C']);
+    check('> ```air\n> state A: db=1C\n>state B: db=2C\n> ```\n', ['fence|state A: db=1C|state B: db=2C']);
+    check('- item\n\n  ```air\n  state A: db=1C\n  ```\n', ['fence|state A: db=1C']);
+    check('1. a\n   - b\n\n     ```air\n     state A: db=1C\n     ```\n', ['fence|state A: db=1C']);
+    check('> - ```air\n>   state A: db=1C\n>   ```\n', ['fence|state A: db=1C']);
+  });
+
+  it('runs an unclosed fence to the end of its container', () => {
+    check('```air\nstate A: db=1C\nstate B: db=2C\n', ['fence|state A: db=1C|state B: db=2C']);
+    check('> ```air\n> state A: db=1C\n\nstate B: db=2C\n', ['fence|state A: db=1C']);
+    check('- ```air\n  state A: db=1C\nafter\n', ['fence|state A: db=1C']);
+    const { regions } = extractRegions('```air\nunits: SI\n');
+    expect(regions[0]?.origin === 'fence' && regions[0].closed).toBe(false);
+  });
+
+  it('never takes indented code for a fence', () => {
+    check('    ```air\n    state A: db=1C\n    ```\n', []);
+    check('para\n\n\t```air\n\tstate A: db=1C\n', []);
+  });
+
+  it('reports an empty fence with no lines', () => {
+    const md = 'x\n\n```air\n```\n';
+    const { regions } = extractRegions(md);
+    expect(regions).toHaveLength(1);
+    expect(regions[0]?.lines).toEqual([]);
+    expect(regions[0]?.contentSpan.start).toBe(regions[0]?.contentSpan.end);
+  });
+});
+
+describe('keyword code spans', () => {
+  it('takes code spans that start with a keyword and whitespace or a colon', () => {
+    check('The room is at `state RA: db=24C rh=50%` in summer.', ['inline|state RA: db=24C rh=50%']);
+    check('`site: elev=1600m` and `units: IP` and `mix MA: OA 25% + RA 75%` and `process CC: MA -> SA`', [
+      'inline|site: elev=1600m',
+      'inline|units: IP',
+      'inline|mix MA: OA 25% + RA 75%',
+      'inline|process CC: MA -> SA',
+    ]);
+    check('`state:` `site :`', ['inline|state:', 'inline|site :']);
+  });
+
+  it('ignores code spans without a keyword at the start', () => {
+    check('`states A` `stateA: db=1C` `State A: db=1C` `x state A:` `state` `site` `unitsSI`', []);
+    expect(startsWithKeyword('mix\tM: A 1% + B 99%')).toBe(true);
+    expect(startsWithKeyword('mixer')).toBe(false);
+  });
+
+  it('follows CommonMark backtick strings and space stripping', () => {
+    check('``state A: db=1C``', ['inline|state A: db=1C']);
+    check('`` state A: db=`1`C ``', ['inline|state A: db=`1`C']);
+    // Only one space is stripped from each end.
+    check('`  state A: db=1C  `', []);
+    // A backtick string without a matching closer is literal text.
+    check('```state A: db=1C`', []);
+    check('\\`state A: db=1C`', []);
+  });
+
+  it('does not read code spans in HTML blocks, autolinks, raw HTML tags or code blocks', () => {
+    check('<div>\n`state A: db=1C`\n</div>\n', []);
+    // An autolink holds no spaces: its backticks are part of the URL.
+    expect(scanMarkdown('<http://x.example/`a`>').codeSpans).toEqual([]);
+    // With spaces it is not an autolink, so the code span is one (as CommonMark says).
+    check('<http://x.example/`state A: db=1C`>', ['inline|state A: db=1C']);
+    check('<a title="`state A: db=1C`">x</a>', []);
+    check('<!-- `state A: db=1C` -->', []);
+    check('```\n`state A: db=1C`\n```\n', []);
+    check('    `state A: db=1C`\n', []);
+  });
+
+  it('keeps a span across lines in pieces without line breaks, prefixes or indentation', () => {
+    check('The state `state A:\n   db=1C rh=50%` holds.', ['inline|state A: db=1C rh=50%']);
+    check('> The state `state A:\n> db=1C` holds.', ['inline|state A: db=1C']);
+    check('- The state `state A:\n  db=1C` holds.', ['inline|state A: db=1C']);
+    check('`\nstate A: db=1C\n`', ['inline|state A: db=1C']);
+  });
+
+  it('finds spans in headings, lists, quotes, tables and link text', () => {
+    check('## Room `state R: db=24C`\n', ['inline|state R: db=24C']);
+    check('- `state A: db=1C`\n  - `state B: db=2C`\n', ['inline|state A: db=1C', 'inline|state B: db=2C']);
+    check('| a | `state A: db=1C` |\n|---|---|\n', ['inline|state A: db=1C']);
+    check('[see `state A: db=1C`](x.md)', ['inline|state A: db=1C']);
+  });
+
+  it('orders fences and spans as they appear', () => {
+    check('`state A: db=1C`\n\n```air\nstate B: db=2C\n```\n\n`state C: db=3C`\n', [
+      'inline|state A: db=1C',
+      'fence|state B: db=2C',
+      'inline|state C: db=3C',
+    ]);
+  });
+});
+
+describe('positions', () => {
+  const base = '# T\n\n> ```air\n> state A: db=1C\n> ```\n\nSee `state B:\n db=2C` now.\n';
+
+  it('are the same text through CRLF, lone CR and a BOM', () => {
+    const want = ['fence|state A: db=1C', 'inline|state B: db=2C'];
+    check(base, want);
+    check(base.replace(/\n/g, '\r\n'), want);
+    check(base.replace(/\n/g, '\r'), want);
+    check('\uFEFF' + base, want);
+    check('\uFEFF' + base.replace(/\n/g, '\r\n'), want);
+  });
+
+  it('count characters outside the BMP as two code units', () => {
+    const md = '𝔸𝔹 `state 𝔸: db=1C` 𝔸\n\n```air\n# 𝔸𝔹𝔸\nstate B: db=2C # 𝔸\n```\n';
+    check(md, ['inline|state 𝔸: db=1C', 'fence|# 𝔸𝔹𝔸|state B: db=2C # 𝔸']);
+    const { regions } = extractRegions(md);
+    expect(regions[0]?.contentSpan).toEqual({ start: 6, end: 6 + 'state 𝔸: db=1C'.length });
+  });
+
+  it('handle tabs in container indentation', () => {
+    check('-\t```air\n\tstate A: db=1C\n\t```\n', ['fence|state A: db=1C']);
+    // '>' takes one column of the tab; the fence's indentation (the other two) is removed too.
+    check('>\t```air\n>\tstate A: db=1C\n', ['fence|state A: db=1C']);
+    check('>\t```air\n>\t\tstate A: db=1C\n', ['fence|\tstate A: db=1C']);
+  });
+
+  it('keep NUL characters in place', () => {
+    check('```air\nstate A: db=1C\0\n```\n', ['fence|state A: db=1C\0']);
+  });
+});
+
+describe('headings', () => {
+  /** Headings as [level, text, text of the span]. */
+  function checkHeadings(md: string, expected: [number, string, string][]): void {
+    const { headings } = extractRegions(md);
+    expect(headings.map((h) => [h.level, h.text, md.slice(h.span.start, h.span.end)])).toEqual(expected);
+  }
+
+  it('reads ATX headings with their level and trimmed text', () => {
+    checkHeadings('# One\n## Two ##\n###   Three   \n####### not\n#five\n', [
+      [1, 'One', '# One'],
+      [2, 'Two', '## Two ##'],
+      [3, 'Three', '###   Three'],
+    ]);
+  });
+
+  it('reads setext headings, joining their lines', () => {
+    checkHeadings('Summer\ncase\n===\n\nWinter\n---\n', [
+      [1, 'Summer case', 'Summer\ncase\n==='],
+      [2, 'Winter', 'Winter\n---'],
+    ]);
+  });
+
+  it('reads headings inside containers, not inside code', () => {
+    checkHeadings('> # Quoted\n- ## Listed\n\n```\n# code\n```\n', [
+      [1, 'Quoted', '# Quoted'],
+      [2, 'Listed', '## Listed'],
+    ]);
+  });
+
+  it('keeps spans exact with CRLF', () => {
+    checkHeadings('# A\r\nB\r\n---\r\n', [
+      [1, 'A', '# A'],
+      [2, 'B', 'B\r\n---'],
+    ]);
+  });
+});
+
+describe('where markdown-it alone departs from CommonMark', () => {
+  const blocks = (md: string) => {
+    const s = scanMarkdown(md);
+    return { fences: s.fences.map((f) => f.lines.map((l) => md.slice(l.start, l.end))), indented: s.indentedCode.length, spans: s.codeSpans.map((c) => c.content) };
+  };
+
+  it('a `>` after four columns of indentation is not a block-quote marker', () => {
+    // CommonMark: the fence inside the quote ends; the next line is indented code outside.
+    expect(blocks('> ```air\n    > state A: db=1C\n')).toEqual({ fences: [[]], indented: 1, spans: [] });
+  });
+
+  it('lines after a link reference definition continue its paragraph', () => {
+    // CommonMark: "    `state A: db=1C`" continues the paragraph (a code span), not indented code.
+    expect(blocks('[x]: /url\n    `state A: db=1C`\n')).toEqual({ fences: [], indented: 0, spans: ['state A: db=1C'] });
+  });
+
+  it('an HTML comment hides backticks even after an unclosed one later in the paragraph', () => {
+    expect(blocks('[a <!--`x`--> b `y` <!--')).toEqual({ fences: [], indented: 0, spans: ['y'] });
+  });
+
+  it('continuation-line indentation is not code span content', () => {
+    expect(blocks('`a\n   b`')).toEqual({ fences: [], indented: 0, spans: ['a b'] });
+  });
+});

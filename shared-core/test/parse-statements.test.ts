@@ -1,0 +1,217 @@
+/**
+ * parseNote on well-formed statements of every kind, from fences and code spans: the tree in a
+ * compact summary, the statement spans as text, and every node's span read back from the input.
+ */
+import { describe, expect, it } from 'vitest';
+import type { PropertyNode, QuantityNode, Statement } from '../src/notation/ast';
+import { parseNote, parseStatementText } from '../src/notation/parse';
+
+const q = (v: QuantityNode | null): string =>
+  v ? `${v.number.text}${v.unit?.text ?? ''}${v.tolerance ? `±${v.tolerance.number.text}${v.tolerance.unit?.text ?? ''}` : ''}` : '?';
+const props = (ps: PropertyNode[]): string => ps.map((p) => `${p.key}=${q(p.value)}`).join(' ');
+const tail = (ps: PropertyNode[]): string => (ps.length ? ` | ${props(ps)}` : '');
+
+/** A statement in one line: `state RA: db=24C rh=50%±2`, `mix MA: OA 25% + RA 75% | db=26C`… */
+function summary(st: Statement): string {
+  switch (st.keyword) {
+    case 'site':
+      return `site: ${props(st.props)}`;
+    case 'units':
+      return `units: ${st.system?.text ?? '?'}`;
+    case 'state':
+      return `state ${st.name?.text ?? '?'}: ${props(st.props)}`;
+    case 'mix':
+      return `mix ${st.name?.text ?? '?'}: ${st.streams.map((s) => `${s.name.text} ${q(s.amount)}`).join(' + ')}${tail(st.props)}`;
+    case 'process':
+      return `process ${st.name?.text ?? '?'}: ${st.from?.text ?? '?'} -> ${st.to?.text ?? '?'}${tail(st.props)}`;
+  }
+}
+
+/** Every node's span must give back its own text; nested spans must lie inside their parents. */
+function verifySpans(md: string, st: Statement): void {
+  const cut = (s: { start: number; end: number }) => md.slice(s.start, s.end);
+  const inside = (s: { start: number; end: number }, outer: { start: number; end: number }) => {
+    expect(s.start).toBeGreaterThanOrEqual(outer.start);
+    expect(s.end).toBeLessThanOrEqual(outer.end);
+  };
+  expect(cut(st.keywordSpan)).toBe(st.keyword);
+  inside(st.keywordSpan, st.span);
+  const quantity = (v: QuantityNode | null, outer: { start: number; end: number }) => {
+    if (!v) return;
+    inside(v.span, outer);
+    expect(cut(v.number.span)).toBe(v.number.text);
+    if (v.unit) expect(cut(v.unit.span)).toBe(v.unit.text);
+    if (v.tolerance) {
+      expect(cut(v.tolerance.number.span)).toBe(v.tolerance.number.text);
+      if (v.tolerance.unit) expect(cut(v.tolerance.unit.span)).toBe(v.tolerance.unit.text);
+      expect(cut(v.tolerance.span)).toMatch(/^(±|\+-)/);
+    }
+  };
+  const propsOf = 'props' in st ? st.props : [];
+  for (const p of propsOf) {
+    inside(p.span, st.span);
+    expect(cut(p.keySpan)).toBe(p.key);
+    quantity(p.value, p.span);
+  }
+  const names = [
+    'name' in st ? st.name : null,
+    st.keyword === 'process' ? st.from : null,
+    st.keyword === 'process' ? st.to : null,
+    st.keyword === 'units' ? st.system : null,
+  ];
+  if (st.keyword === 'mix') {
+    for (const s of st.streams) {
+      inside(s.span, st.span);
+      names.push(s.name);
+      quantity(s.amount, s.span);
+    }
+  }
+  for (const n of names) if (n) expect(cut(n.span)).toBe(n.text);
+}
+
+/** Statements of `md` (summaries, in order), their span texts when given, and no diagnostics. */
+function check(md: string, expected: string[], spans?: string[]): void {
+  const parsed = parseNote(md);
+  expect(parsed.diagnostics.map((d) => d.message)).toEqual([]);
+  expect(parsed.statements.map(summary)).toEqual(expected);
+  if (spans) expect(parsed.statements.map((s) => md.slice(s.span.start, s.span.end))).toEqual(spans);
+  for (const st of parsed.statements) verifySpans(md, st);
+}
+
+describe('statements in air fences', () => {
+  it('reads the design example, comments and blank lines skipped', () => {
+    const md = [
+      '# Plant room',
+      '',
+      '```air',
+      'site: elev=1600m            # sets pressure for what follows',
+      'state OA: db=33C wb=23C     # outdoor design',
+      '',
+      '# a comment line',
+      'state RA: db=24C rh=50%',
+      'mix MA: OA 25% + RA 75%',
+      'state SA: db=13C rh=95%',
+      'process CC: MA -> SA q=4.8m3/s',
+      '```',
+    ].join('\n');
+    check(
+      md,
+      [
+        'site: elev=1600m',
+        'state OA: db=33C wb=23C',
+        'state RA: db=24C rh=50%',
+        'mix MA: OA 25% + RA 75%',
+        'state SA: db=13C rh=95%',
+        'process CC: MA -> SA | q=4.8m3/s',
+      ],
+      ['site: elev=1600m', 'state OA: db=33C wb=23C', 'state RA: db=24C rh=50%', 'mix MA: OA 25% + RA 75%', 'state SA: db=13C rh=95%', 'process CC: MA -> SA q=4.8m3/s'],
+    );
+  });
+
+  it('reads units and pressure directives', () => {
+    check('```air\nunits: SI\nunits: IP\nsite: p=84.5kPa\nsite:elev=5000ft\n```', ['units: SI', 'units: IP', 'site: p=84.5kPa', 'site: elev=5000ft']);
+  });
+
+  it('reads names with digits, underscores and hyphens, and non-ASCII letters', () => {
+    check('```air\nstate AHU-3_off_coil: db=12.5C rh=95%\nstate Zone2b: db=21C w=7g/kg\nstate Außenluft: db=-5C rh=80%\n```', [
+      'state AHU-3_off_coil: db=12.5C rh=95%',
+      'state Zone2b: db=21C w=7g/kg',
+      'state Außenluft: db=-5C rh=80%',
+    ]);
+  });
+
+  it('reads mixes by fraction, mass flow and volume flow, with claims after the streams', () => {
+    check('```air\nmix MA: OA 25% + RA 75% db=26.2C\nmix M2: OA 1.2kg/s + RA 3.4kg/s + XA 0.5kg/s\nmix M3: OA 1000L/s+RA 3000L/s\n```', [
+      'mix MA: OA 25% + RA 75% | db=26.2C',
+      'mix M2: OA 1.2kg/s + RA 3.4kg/s + XA 0.5kg/s',
+      'mix M3: OA 1000L/s + RA 3000L/s',
+    ]);
+  });
+
+  it('reads processes with -> or →, flows and further claims', () => {
+    check('```air\nprocess CC: MA -> SA m=5.6kg/s q_total=98kW\nprocess HU: SA → SB q=2m3/s\nprocess X: A->B\n```', [
+      'process CC: MA -> SA | m=5.6kg/s q_total=98kW',
+      'process HU: SA -> SB | q=2m3/s',
+      'process X: A -> B',
+    ]);
+  });
+
+  it('reads units with symbols, tolerances and spaces around =', () => {
+    check('```air\nstate A: db=24°C rh=50%±2 w=9.30g/kg+-0.05 dp = 12.9C±0.5C\nstate B: db=75.2°F h=28.1Btu/lb v=13.7ft3/lb\n```', [
+      'state A: db=24°C rh=50%±2 w=9.30g/kg±0.05 dp=12.9C±0.5C',
+      'state B: db=75.2°F h=28.1Btu/lb v=13.7ft3/lb',
+    ]);
+  });
+
+  it('keeps keys and units as written (the evaluator checks them)', () => {
+    check('```air\nstate A: DB=24c rh=50pct foo=1bar\n```', ['state A: DB=24c rh=50pct foo=1bar']);
+  });
+
+  it('reads statements in fences inside lists and block quotes', () => {
+    const md = '- Summer:\n\n  ```air\n  state S: db=24C rh=50%\n  ```\n\n> ```air\n> state Q: db=20C rh=40%\n> ```\n';
+    check(md, ['state S: db=24C rh=50%', 'state Q: db=20C rh=40%']);
+  });
+
+  it('marks fence statements with origin fence and keeps document order', () => {
+    const parsed = parseNote('`state A: db=1C`\n\n```air\nstate B: db=2C\n```\n\nthen `state C: db=3C`.\n');
+    expect(parsed.statements.map((s) => [s.origin, s.keyword, 'name' in s ? s.name?.text : null])).toEqual([
+      ['inline', 'state', 'A'],
+      ['fence', 'state', 'B'],
+      ['inline', 'state', 'C'],
+    ]);
+  });
+});
+
+describe('statements in code spans', () => {
+  it('reads a statement in prose', () => {
+    check('The room is held at `state RA: db=24C rh=50%` in summer.', ['state RA: db=24C rh=50%'], ['state RA: db=24C rh=50%']);
+  });
+
+  it('reads a comment to the end of the span', () => {
+    check('See `state RA: db=24C rh=50% # summer` here.', ['state RA: db=24C rh=50%'], ['state RA: db=24C rh=50%']);
+  });
+
+  it('reads a span over several lines, in a block quote too', () => {
+    check('We keep `state RA:\ndb=24C rh=50%` all year.', ['state RA: db=24C rh=50%'], ['state RA:\ndb=24C rh=50%']);
+    check('> We keep `state RA:\r\n> db=24C\r\n> rh=50%` all year.', ['state RA: db=24C rh=50%'], ['state RA:\r\n> db=24C\r\n> rh=50%']);
+  });
+
+  it('reads spans with longer backtick strings', () => {
+    check('``state RA: db=24C rh=50%`` and `` units: IP ``', ['state RA: db=24C rh=50%', 'units: IP']);
+  });
+});
+
+describe('positions', () => {
+  it('are exact after a BOM, CRLF and characters outside the BMP', () => {
+    const md = '\uFEFF# 𝔸 note\r\n\r\n```air\r\nstate 𝔸1: db=24C rh=50% # 𝔸\r\n```\r\n';
+    check(md, ['state 𝔸1: db=24C rh=50%'], ['state 𝔸1: db=24C rh=50%']);
+    const st = parseNote(md).statements[0];
+    expect(st?.span.start).toBe(md.indexOf('state'));
+  });
+
+  it('are exact with tabs between tokens', () => {
+    check('```air\nstate\tA:\tdb=24C\trh=50%\n```', ['state A: db=24C rh=50%'], ['state\tA:\tdb=24C\trh=50%']);
+  });
+});
+
+describe('parseStatementText', () => {
+  const text = 'xx state A: db=1C rh=2% # c\nyy';
+
+  it('reads one statement from a range of the document, with document offsets', () => {
+    const r = parseStatementText(text, 3, 27, 'fence');
+    expect(r.diagnostics).toEqual([]);
+    expect(r.statement && summary(r.statement)).toBe('state A: db=1C rh=2%');
+    expect(r.statement?.span).toEqual({ start: 3, end: 23 });
+    expect(r.statement?.origin).toBe('fence');
+  });
+
+  it('gives null for blank and comment-only ranges', () => {
+    expect(parseStatementText('   ', 0, 3, 'fence')).toEqual({ statement: null, diagnostics: [] });
+    expect(parseStatementText('  # only a note', 0, 15, 'fence')).toEqual({ statement: null, diagnostics: [] });
+  });
+
+  it('clamps a range outside the text', () => {
+    const r = parseStatementText('units: SI', -4, 99, 'inline');
+    expect(r.statement && summary(r.statement)).toBe('units: SI');
+  });
+});
