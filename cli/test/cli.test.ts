@@ -134,6 +134,19 @@ describe('dewmark check', () => {
     expect(r.out.trim()).toBe('1 file, 0 errors, 0 warnings');
   });
 
+  it('many files (checked in worker threads) keep their order and totals', () => {
+    const many = join(dir, 'many');
+    mkdirSync(many);
+    for (let i = 0; i < 80; i++) writeFileSync(join(many, `n${String(i).padStart(2, '0')}.md`), i % 10 === 3 ? BAD : GOOD);
+    const r = dewmark(['check', '--format', 'json', 'many']);
+    expect(r.code).toBe(1);
+    const doc = JSON.parse(r.out);
+    expect(doc.files.map((f: { path: string }) => f.path)).toEqual(Array.from({ length: 80 }, (_, i) => `many/n${String(i).padStart(2, '0')}.md`));
+    expect(doc.summary).toEqual({ files: 80, errors: 8, warnings: 8, infos: 0, unreadable: 0 });
+    const serial = spawnSync(process.execPath, [bin, 'check', '--format', 'json', 'many'], { cwd: dir, encoding: 'utf8', env: { ...process.env, DEWMARK_WORKERS: '0' } });
+    expect(JSON.parse(serial.stdout)).toEqual(doc);
+  });
+
   it('--elevation sets the default pressure (notes without a site line)', () => {
     const note = ['```air', 'state A: db=20C rh=50%', '```', ''].join('\n');
     const r = dewmark(['eval', '--format', 'json', '--elevation', '1000m', '-'], { input: note });

@@ -95,7 +95,6 @@ export function dimensionWords(d: Dimension): string {
  * another dimension, with a suggestion), `syntax` for a negative explicit tolerance.
  */
 export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan'] }, q: QuantityNode, spec: KeySpec): QuantityOutcome {
-  const where = (): string => `${prop.key}=${q.number.text}${q.unit?.text ?? ''}`;
   let unit: UnitDef | null = null;
   let unitText = '';
   let si: number;
@@ -129,7 +128,7 @@ export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan
         diagnostic: {
           code: 'unknown-unit',
           severity: 'error',
-          message: `${what} (in ${where()}); ${fix}`,
+          message: `${what} (in ${whereText(prop.key, q)}); ${fix}`,
           span: q.unit.span,
           data: suggestion ? { suggestion, key: spec.key } : { key: spec.key },
         },
@@ -151,7 +150,7 @@ export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan
         diagnostic: {
           code: 'syntax',
           severity: 'error',
-          message: `the tolerance in ${where()}±${t.number.text} must be a positive figure; write it like ±2`,
+          message: `the tolerance in ${whereText(prop.key, q)}±${t.number.text} must be a positive figure; write it like ±2`,
           span: t.span,
         },
       };
@@ -170,7 +169,7 @@ export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan
           diagnostic: {
             code: 'unknown-unit',
             severity: 'error',
-            message: `the tolerance unit '${t.unit.text}' in ${where()} does not fit ${spec.title}; write the tolerance in the value's unit (±${t.number.text}) or as a percentage of it (±${t.number.text}%)`,
+            message: `the tolerance unit '${t.unit.text}' in ${whereText(prop.key, q)} does not fit ${spec.title}; write the tolerance in the value's unit (±${t.number.text}) or as a percentage of it (±${t.number.text}%)`,
             span: t.unit.span,
           },
         };
@@ -181,10 +180,15 @@ export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan
   if (!Number.isFinite(si) || !Number.isFinite(toleranceSI)) {
     return {
       ok: false,
-      diagnostic: { code: 'out-of-range', severity: 'error', message: `${where()} is too large to use; check the figure`, span: q.span },
+      diagnostic: { code: 'out-of-range', severity: 'error', message: `${whereText(prop.key, q)} is too large to use; check the figure`, span: q.span },
     };
   }
   return { ok: true, value: { si, unit, unitText, toleranceSI, explicitTolerance, quantity: q } };
+}
+
+/** `db=24C` as written, for messages. */
+function whereText(key: string, q: QuantityNode): string {
+  return `${key}=${q.number.text}${q.unit?.text ?? ''}`;
 }
 
 function missingUnitMessage(spec: KeySpec, numText: string, value: number): string {
