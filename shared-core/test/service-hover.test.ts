@@ -101,6 +101,11 @@ describe('hover on a state', () => {
     expect(near(Number(m![1]), 89.875, 0.001 + 0.0005)).toBe(true);
   });
 
+  it('shows the pressure a site line sets (ASHRAE HoF 2017 SI Ch.1 Table 1: 1000 m → 89 875 Pa)', () => {
+    const md = check(air('site: elev=10|00m', 'state S1: db=20C rh=50%'), { contains: ['**site** — ', 'standard atmosphere', 'psia'] });
+    expect(near(Number(/— (\d+\.\d+) kPa/.exec(md)![1]), 89.875, 0.001 + 0.0005)).toBe(true);
+  });
+
   it('shows the hover from the keyword and from a value too', () => {
     check(air('sta|te OA: db=40C wb=20C'), { contains: ['**state OA**'], figures: EX1_FIGURES.slice(0, 1) });
     check(air('state OA: db=4|0C wb=20C'), { contains: ['**state OA**'], spanText: '40C' });

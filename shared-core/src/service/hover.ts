@@ -225,10 +225,25 @@ export function itemHover(note: Note, item: EvaluatedItem): string {
   return item.kind === 'process' ? processHover(note, item) : stateHover(note, item);
 }
 
+/** A site line: the pressure it sets, as the first state after it uses it. */
+function siteHover(note: Note, statement: Statement): string {
+  const system = note.analysis.units;
+  const user = note.analysis.items.find(
+    (i): i is StateResult => i.kind !== 'process' && i.pressure.source === 'site' && i.pressure.span !== null && overlaps(i.pressure.span, statement.span),
+  );
+  if (!user) return KEYWORD_TEXT.site;
+  const p = user.pressure;
+  const lines = [`**site** — ${show(note, p.pa, 'pressure', system)} (${show(note, p.pa, 'pressure', otherSystem(system))}) for the statements after it`];
+  if (p.elevationM !== null) lines.push('', `From the elevation ${show(note, p.elevationM, 'length', system)} by the standard atmosphere (ASHRAE Handbook—Fundamentals Ch. 1).`);
+  lines.push('', md(p.describe));
+  return lines.join('\n');
+}
+
 function statementHover(note: Note, statement: Statement, span: Span): HoverInfo | null {
   const item = itemOf(note, statement);
   if (item) return { markdown: itemHover(note, item), span };
-  if (statement.keyword === 'site' || statement.keyword === 'units') return { markdown: KEYWORD_TEXT[statement.keyword], span };
+  if (statement.keyword === 'site') return { markdown: siteHover(note, statement), span };
+  if (statement.keyword === 'units') return { markdown: KEYWORD_TEXT.units, span };
   const problems = problemsOf(note, statement);
   const head = `**${statement.keyword}${'name' in statement && statement.name ? ` ${md(statement.name.text)}` : ''}** — not computed`;
   return { markdown: [head, '', ...problems].join('\n'), span };
