@@ -204,8 +204,9 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       ctx.report(problemDiagnostic(warn, 'warning', spans, fallback, what));
     }
   }
-  const ctxText = () => `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`;
-  if (claimProps.props.length > 0) result.claims = stateClaims(ctx, claimProps.props, solved.state, ctxText);
+  if (claimProps.props.length > 0) {
+    result.claims = stateClaims(ctx, claimProps.props, solved.state, () => `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`);
+  }
   void owner;
   return result;
 }

@@ -197,7 +197,6 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
   // SHR is a share: given only when sensible and latent act in the same direction (0 ≤ SHR ≤ 1).
   const sameWay = sensible * latent >= 0 || Math.abs(dw) <= DW_STILL || Math.abs(latent) <= Math.max(1, 1e-3 * Math.abs(total));
   const shr = Math.abs(total) >= DH_STILL && sameWay ? sensible / total : null;
-  const rate = (x: number): number | null => (massFlow === null ? null : massFlow * x);
 
   const result: ProcessResult = {
     kind: 'process',
@@ -211,13 +210,13 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
     dhTotal: total,
     dhSensible: sensible,
     dhLatent: latent,
-    qTotalW: rate(total),
-    qSensibleW: rate(sensible),
-    qLatentW: rate(latent),
+    qTotalW: massFlow === null ? null : massFlow * total,
+    qSensibleW: massFlow === null ? null : massFlow * sensible,
+    qLatentW: massFlow === null ? null : massFlow * latent,
     shr: shr !== null && Number.isFinite(shr) ? shr : null,
     dw,
-    waterKgS: rate(dw),
-    qCoilW: rate(coilPerKg),
+    waterKgS: massFlow === null ? null : massFlow * dw,
+    qCoilW: massFlow === null ? null : massFlow * coilPerKg,
     claims: [],
     apparatusDewPointC: null,
   };
@@ -312,8 +311,7 @@ function processClaims(ctx: EvalContext, claims: ReadProp[], r: ProcessResult, w
       continue;
     }
     const computed = c.key !== 'shr' && c.q.si >= 0 ? Math.abs(signed) : signed;
-    const context = () => `for ${r.from} -> ${r.to}${r.massFlowKgS !== null ? ` at ${formatSig(r.massFlowKgS, 4)} kg/s dry air` : ''}`;
-    const { claim, diagnostic } = checkClaim(c.key, c.prop, c.q, computed, context);
+    const { claim, diagnostic } = checkClaim(c.key, c.prop, c.q, computed, () => `for ${r.from} -> ${r.to}${r.massFlowKgS !== null ? ` at ${formatSig(r.massFlowKgS, 4)} kg/s dry air` : ''}`);
     out.push(claim);
     if (diagnostic) ctx.report(diagnostic);
   }
