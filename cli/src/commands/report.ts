@@ -68,7 +68,7 @@ function claimsCell(claims: ClaimResult[]): string {
 function table(id: string, caption: string, header: string[], rows: string[][], numeric: boolean[]): string {
   const th = header.map((h, i) => `<th scope="col"${numeric[i] ? ' class="num"' : ''}>${h}</th>`).join('');
   const body = rows.map((r) => `<tr>${r.map((c, i) => `<td${numeric[i] ? ' class="num"' : ''}>${c}</td>`).join('')}</tr>`).join('\n');
-  return `<table id="${id}"><caption>${caption}</caption><thead><tr>${th}</tr></thead><tbody>\n${body}\n</tbody></table>`;
+  return `<div class="scroll"><table id="${id}"><caption>${caption}</caption><thead><tr>${th}</tr></thead><tbody>\n${body}\n</tbody></table></div>`;
 }
 
 function statesSection(a: Analysis, lines: LineIndex, text: string): string {
@@ -219,6 +219,7 @@ th{font-weight:600;background:color-mix(in srgb,var(--card) 85%,var(--line))}
 .badge.err{color:var(--err)}.badge.warn{color:var(--warn)}
 .note{font-size:11px;color:var(--muted)}
 .nowrap{white-space:nowrap}
+.scroll{overflow-x:auto}
 .claim{display:inline-block;font-size:12px;border-radius:8px;padding:0 6px;margin:1px 0;border:1px solid var(--line)}
 .claim.pass{color:var(--ok)}.claim.fail{color:var(--warn);border-color:var(--warn)}
 .sev{font-weight:650}.sev.error{color:var(--err)}.sev.warning{color:var(--warn)}.sev.info{color:var(--muted)}
