@@ -125,6 +125,7 @@ export const fields = {
     commands: [
       { command: 'dewmark.switchUnits', title: 'Switch Result Units (SI/IP)', category, icon: '$(symbol-ruler)' },
       { command: 'dewmark.checkWorkspace', title: 'Check All Notes in the Workspace', category, icon: '$(checklist)' },
+      { command: 'dewmark.showChart', title: 'Show Psychrometric Chart', category, icon: '$(graph)' },
       { command: 'dewmark.restartServer', title: 'Restart Language Server', category, icon: '$(debug-restart)' },
       { command: 'dewmark.showLog', title: 'Show Server Log', category, icon: '$(output)' },
     ],
@@ -132,6 +133,7 @@ export const fields = {
       commandPalette: [
         { command: 'dewmark.switchUnits', when: 'editorLangId == markdown' },
         { command: 'dewmark.checkWorkspace', when: 'workspaceFolderCount > 0' },
+        { command: 'dewmark.showChart', when: 'editorLangId == markdown' },
         { command: 'dewmark.restartServer' },
         { command: 'dewmark.showLog' },
       ],

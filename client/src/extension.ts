@@ -1,7 +1,8 @@
 /**
  * The Dewmark VS Code extension: a thin client. It starts the bundled language server
  * (dist/server.js) over node IPC, restarts it if it dies, and adds the commands and the
- * status-bar item. Everything about air states is computed by the server.
+ * status-bar item and the chart panel. Hovers, hints, diagnostics and fixes come from the server;
+ * the chart is drawn by the pure core in the extension host (client/src/chart.ts).
  */
 import { existsSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -17,6 +18,7 @@ import {
   type ServerOptions,
 } from 'vscode-languageclient/node';
 import { CHECK_WORKSPACE_METHOD, SETTINGS_SECTION, type CheckWorkspaceParams, type CheckWorkspaceResult } from '../../server/src/protocol';
+import type { ChartPanels } from './chart';
 import { COMMANDS, OUTPUT_CHANNEL } from './commands';
 import {
   advertisedNoteStatus,
@@ -278,6 +280,9 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
   const ctl = new ServerController(serverModule, output);
   controller = ctl;
   const refreshStatus = createStatusBar(ctl, context);
+  // The chart code (and the core it draws with) is evaluated on first use, not at activation.
+  let charts: ChartPanels | undefined;
+  context.subscriptions.push({ dispose: () => charts?.dispose() });
   const guard = (name: string, run: () => Promise<void>) => async () => {
     try {
       await run();
@@ -295,6 +300,18 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
       guard('restarting the server', async () => {
         await ctl.restart();
         vscode.window.setStatusBarMessage('Dewmark: language server restarted', 4000);
+      }),
+    ),
+    vscode.commands.registerCommand(
+      COMMANDS.showChart.id,
+      guard('showing the chart', async () => {
+        const editor = activeNote();
+        if (!editor) {
+          void vscode.window.showInformationMessage('Dewmark: open a Markdown note first; the chart shows the active note.');
+          return;
+        }
+        charts ??= new (await import('./chart')).ChartPanels(output);
+        charts.show(editor.document);
       }),
     ),
     vscode.commands.registerCommand(COMMANDS.showLog.id, () => output.show(true)),

@@ -34,6 +34,33 @@ function serverPids(extensionsDir: string): number[] {
   return out;
 }
 
+/** A Playwright frame (the calls used here); the workbench's webviews are nested iframes. */
+interface PwFrame {
+  evaluate(expression: string): Promise<unknown>;
+}
+
+/** What the chart webview shows: its text (state labels) and how often it was redrawn. */
+interface ChartView {
+  text: string;
+  updates: number;
+  svgWidth: number;
+}
+
+/** The chart webview's content, from whichever frame holds it (null while none does). */
+async function chartView(page: unknown): Promise<ChartView | null> {
+  const frames = (page as { frames(): PwFrame[] }).frames();
+  for (const f of frames) {
+    const v = (await f
+      .evaluate(
+        `(() => { const m = document.getElementById('dewmark-chart'); const svg = m && m.querySelector('svg'); if (!svg) return null;
+          return { text: m.textContent || '', updates: Number(m.getAttribute('data-updates') || '0'), svgWidth: svg.getBoundingClientRect().width }; })()`,
+      )
+      .catch(() => null)) as ChartView | null;
+    if (v) return v;
+  }
+  return null;
+}
+
 const fixtureText = readFileSync(join(REPO_ROOT, 'test', 'fixtures', 'e2e', FIXTURE_NOTE), 'utf8');
 /** The fixture's full source line of a statement (the editor shows it, then the inline hint). */
 function sourceLine(starts: string): string {
@@ -155,5 +182,26 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.screenshot('ip-units');
     await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
     await wb.waitForEditorLine(hintedLine(src, '°C'));
+  }, 90_000);
+
+  it('shows the psychrometric chart beside the note, and redraws it when the note changes', async () => {
+    const wb = session.workbench;
+    await wb.runCommand('Dewmark: Show Psychrometric Chart');
+    const first = await wb.waitFor('the chart webview with the note\'s states', async () => {
+      const v = await chartView(wb.page);
+      return v && v.text.includes('OA') && v.text.includes('RA') && v.svgWidth > 100 ? v : undefined;
+    });
+    await wb.screenshot('chart');
+    // Type a new state into the note: the chart follows.
+    await wb.clickWord('RA', { line: 'state RA:' });
+    await wb.page.keyboard.press('End');
+    await wb.page.keyboard.press('Enter');
+    await wb.page.keyboard.insertText('state SA9: db=14C rh=90%');
+    const updated = await wb.waitFor('the chart to show the new state SA9', async () => {
+      const v = await chartView(wb.page);
+      return v && v.text.includes('SA9') ? v : undefined;
+    });
+    expect(updated.updates).toBeGreaterThan(first.updates);
+    await wb.screenshot('chart-updated');
   }, 90_000);
 });
