@@ -58,7 +58,9 @@ describe('numbers', () => {
     expect(resolutionOf(2, 0)).toBe(0.01);
     expect(resolutionOf(4, 0)).toBe(0.0001);
     expect(resolutionOf(1, 3)).toBe(100);
-    expect(scanNumber('12.5e-1x', 0, 8)).toEqual({ end: 7, numeric: '12.5e-1', fractionDigits: 1, exponent: -1 });
+    expect(resolutionOf(0, -40)).toBe(1e-40);
+    expect(scanNumber('12.5e-1x', 0, 8)).toEqual({ end: 7, written: '12.5e-1', numeric: '12.5e-1', fractionDigits: 1, exponent: -1 });
+    expect(scanNumber('\u22123', 0, 2)).toEqual({ end: 2, written: '\u22123', numeric: '-3', fractionDigits: 0, exponent: 0 });
   });
 });
 

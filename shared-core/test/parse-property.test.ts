@@ -162,6 +162,32 @@ describe('parseNote on random text', () => {
     );
   });
 
+  it('gives every missing part of the tree (a null) a diagnostic within its statement', () => {
+    const word = fc.constantFrom('state', 'mix', 'process', 'site:', 'units:', 'A', 'B', ':', '=', 'db', 'db=', '24C', '25%', '+', '->', '→', '±', '±2', ',', '1,5', 'NaN', '', '#', 'x=', 'q=2', '1A', 'A.B', '=>', '-', '+-');
+    const head = fc.constantFrom('state', 'mix', 'process', 'site:', 'units:');
+    let withNulls = 0;
+    fc.assert(
+      fc.property(head, fc.array(word, { maxLength: 10 }), (h, words) => {
+        const md = `\`\`\`air\n${h} ${words.join(' ')}\n\`\`\``;
+        const parsed = parseNote(md);
+        for (const st of parsed.statements) {
+          const nulls: string[] = [];
+          if ('name' in st && st.name === null) nulls.push('name');
+          if (st.keyword === 'units' && st.system === null) nulls.push('system');
+          if (st.keyword === 'process' && (!st.from || !st.to)) nulls.push('from/to');
+          if ('props' in st) for (const pr of st.props) if (!pr.value) nulls.push(`value of ${pr.key}`);
+          if (st.keyword === 'mix') for (const m of st.streams) if (!m.amount) nulls.push('amount');
+          if (nulls.length === 0) continue;
+          withNulls++;
+          const near = parsed.diagnostics.filter((d) => d.span.start >= st.span.start && d.span.start <= st.span.end);
+          if (near.length === 0) throw new Error(`${JSON.stringify(md)}: ${nulls.join(', ')} without a diagnostic`);
+        }
+      }),
+      { seed: 99, numRuns: 3000 },
+    );
+    expect(withNulls).toBeGreaterThan(500);
+  });
+
   it('reads valid statements back without a diagnostic, however they are laid out', () => {
     // [prefix of the fence's first line, prefix of the lines after it]
     const containers = fc.constantFrom(['', ''], ['> ', '> '], ['- ', '  '], ['1. ', '   '], ['   ', '   '], ['> - ', '>   ']);

@@ -9,6 +9,8 @@
 export interface ScannedNumber {
   /** Offset just past the number. */
   end: number;
+  /** The number exactly as written. */
+  written: string;
   /** The text to hand to `Number()` (a Unicode minus turned into `-`). */
   numeric: string;
   /** Digits after the decimal point. */
@@ -78,13 +80,16 @@ export function scanNumber(text: string, pos: number, end: number): ScannedNumbe
       }
     }
   }
-  let numeric = text.slice(start, pos);
-  if (unicodeMinus) numeric = '-' + numeric.slice(1);
-  return { end: pos, numeric, fractionDigits, exponent };
+  const written = text.slice(start, pos);
+  return { end: pos, written, numeric: unicodeMinus ? '-' + written.slice(1) : written, fractionDigits, exponent };
 }
 
 /** Place value of the last written digit: `50` → 1, `9.30` → 0.01, `1.2e3` → 100, `0.0093` → 0.0001. */
 export function resolutionOf(fractionDigits: number, exponent: number): number {
-  // Built from its decimal text so that 0.01 is the double nearest to 1/100, not 10 ** -2.
-  return Number(`1e${exponent - fractionDigits}`);
+  const e = exponent - fractionDigits;
+  return e >= -POW10_LIMIT && e <= POW10_LIMIT ? (POW10[e + POW10_LIMIT] as number) : Number(`1e${e}`);
 }
+
+const POW10_LIMIT = 30;
+/** 1e-30 … 1e30, each built from its decimal text: the double nearest to the power of ten (so 0.01, not 10 ** -2). */
+const POW10: readonly number[] = Array.from({ length: 2 * POW10_LIMIT + 1 }, (_, i) => Number(`1e${i - POW10_LIMIT}`));

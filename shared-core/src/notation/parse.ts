@@ -471,7 +471,7 @@ class StatementParser {
   /** Whether a name-like token (not a `key=`) starts at the cursor. */
   private nameAhead(): boolean {
     const c = this.peek();
-    if (c < 0 || c === 0x3a || c === 0x3d || c === 0x2b || c === 0x2c || this.isArrowAt(this.pos)) return false;
+    if (c < 0 || c === 0x3a || c === 0x3d || c === 0x2b || c === 0x2c || c === 0xb1 || this.isArrowAt(this.pos)) return false;
     if (startsNumber(this.text, this.pos, this.end)) return false;
     return !this.keyAhead();
   }
@@ -721,7 +721,7 @@ class StatementParser {
     this.consume(n.end);
     return {
       value,
-      text: this.text.slice(start, n.end),
+      text: n.written,
       resolution: resolutionOf(n.fractionDigits, n.exponent),
       span: this.span(start, n.end),
     };
