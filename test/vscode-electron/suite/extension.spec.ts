@@ -68,7 +68,7 @@ describe('Dewmark in VS Code', () => {
 
   it('contributes its commands', async () => {
     const all = await vscode.commands.getCommands(true);
-    for (const id of ['dewmark.switchUnits', 'dewmark.checkWorkspace', 'dewmark.restartServer', 'dewmark.showLog']) {
+    for (const id of ['dewmark.switchUnits', 'dewmark.checkWorkspace', 'dewmark.showChart', 'dewmark.restartServer', 'dewmark.showLog']) {
       assert.ok(all.includes(id), `${id} is registered`);
     }
   });
@@ -126,5 +126,14 @@ describe('Dewmark in VS Code', () => {
     });
     assert.ok(!label.includes('°C'), `no °C left in "${label}"`);
     await vscode.commands.executeCommand('dewmark.switchUnits');
+  });
+
+  it('opens the chart of the note in a webview beside it', async () => {
+    await vscode.window.showTextDocument(doc);
+    await vscode.commands.executeCommand('dewmark.showChart');
+    const tab = await waitFor('a chart tab', () =>
+      vscode.window.tabGroups.all.flatMap((g) => g.tabs).find((t) => t.input instanceof vscode.TabInputWebview && t.label === `Chart: ${FIXTURE_NOTE}`),
+    );
+    assert.ok(tab.group.viewColumn !== vscode.window.tabGroups.all.find((g) => g.tabs.some((t) => t.input instanceof vscode.TabInputText && t.input.uri.toString() === doc.uri.toString()))?.viewColumn, 'beside the note');
   });
 });
