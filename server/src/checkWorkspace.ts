@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { type CancellationToken, type WorkDoneProgressReporter } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { analyzeText } from '../../shared-core/src/service';
+import { analyzeText, countDiagnostics } from '../../shared-core/src/service';
 import type { ServerContext } from './context';
 import type { Diagnostics } from './diagnostics';
 import { toLspDiagnostics } from './diagnostics';
@@ -81,13 +81,7 @@ export function registerCheckWorkspace(ctx: ServerContext, diagnostics: Diagnost
           }
           result.filesRead++;
           if (note.analysis.parsed.statements.length === 0) continue;
-          const found = note.analysis.diagnostics;
-          const checked: CheckedNote = {
-            uri,
-            errors: found.filter((d) => d.severity === 'error').length,
-            warnings: found.filter((d) => d.severity === 'warning').length,
-            statements: note.analysis.parsed.statements.length,
-          };
+          const checked: CheckedNote = { uri, ...countDiagnostics(note), statements: note.analysis.parsed.statements.length };
           result.notes.push(checked);
           result.errors += checked.errors;
           result.warnings += checked.warnings;
