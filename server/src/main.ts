@@ -29,8 +29,11 @@ const USAGE = `Usage: dewmark-language-server --stdio | --node-ipc | --socket=PO
 The Dewmark language server speaks the Language Server Protocol to an editor. Start it from the
 editor's LSP configuration with one of the transports above (--stdio for most editors).`;
 
+/** Replaced by the package version when bundled (scripts/build.mjs). */
+declare const __DEWMARK_VERSION__: string | undefined;
+
 /** The server's version, as bundled. */
-export const SERVER_VERSION = '0.1.0';
+export const SERVER_VERSION: string = typeof __DEWMARK_VERSION__ === 'string' ? __DEWMARK_VERSION__ : '0.0.0-dev';
 
 /** Capabilities the server implements, adapted to what the client can use. */
 export function serverCapabilities(ctx: ServerContext): ServerCapabilities {
