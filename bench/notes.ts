@@ -79,9 +79,9 @@ export async function benchNotes(): Promise<void> {
   const lineCount = big.split('\n').length;
   const check = analyzeNote(big);
   const statementCount = check.parsed.statements.length;
-  for (let i = 0; i < 5; i++) analyzeNote(big); // warm-up
+  for (let i = 0; i < 15; i++) analyzeNote(big); // warm-up (the editor and CLI run warmed code too)
   const times: number[] = [];
-  for (let i = 0; i < 25; i++) {
+  for (let i = 0; i < 31; i++) {
     const t0 = performance.now();
     analyzeNote(big);
     times.push(performance.now() - t0);

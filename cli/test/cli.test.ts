@@ -81,6 +81,12 @@ describe('dewmark check', () => {
     expect(doc.files[0].diagnostics[0]).toMatchObject({ line: 4, column: 10, endLine: 4, endColumn: 23, severity: 'error', code: 'wb-above-db' });
   });
 
+  it('columns are right with a byte-order mark and CRLF line ends', () => {
+    writeFileSync(join(dir, 'crlf.md'), `\ufeff${BAD.replace(/\n/g, '\r\n')}`);
+    const r = dewmark(['check', 'crlf.md']);
+    expect(r.out).toMatch(/^crlf\.md:4:10: error\[wb-above-db\]/m);
+  });
+
   it('reads standard input with -', () => {
     const r = dewmark(['check', '-'], { input: BAD });
     expect(r.code).toBe(1);

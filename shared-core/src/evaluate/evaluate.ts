@@ -97,12 +97,16 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
           break;
         case 'state':
         case 'mix': {
+          // Without a usable name the parser has reported the statement; evaluating the rest
+          // would only add a second diagnostic for the same line.
+          if (!stmt.name) break;
           const owner = stmt.name ? ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: stmt.keyword }, stmt.name) : false;
           const item = stmt.keyword === 'state' ? evaluateState(ctx, stmt, owner) : evaluateMix(ctx, stmt, index, owner);
           if (stmt.name) ctx.addItem(item, owner);
           break;
         }
         case 'process': {
+          if (!stmt.name) break;
           const owner = stmt.name ? ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'process' }, stmt.name) : false;
           const item = evaluateProcess(ctx, stmt, index);
           if (item && stmt.name) ctx.addItem(item, owner);

@@ -6,7 +6,7 @@
  * stream's own state (ṁ = V̇ / v, v per kg of dry air).
  */
 import { solveState } from '../physics';
-import type { MixStatement } from '../notation/ast';
+import type { CoreDiagnostic, MixStatement } from '../notation/ast';
 import type { Span } from '../text/types';
 import { lookupUnit } from '../units';
 import type { EvalContext } from './context';
@@ -265,14 +265,14 @@ function readAmount(
   return { kind, si: r.value.si, halfResolution, span: amount.span };
 }
 
-function dependencyInfo(what: string, ref: string, span: Span, defSpan: Span) {
+/** The short info on a reference to a state that could not be computed (instead of a second error). */
+export function dependencyInfo(what: string, ref: string, span: Span, defSpan: Span): CoreDiagnostic {
   return {
     code: 'unresolved-dependency',
-    severity: 'info' as const,
+    severity: 'info',
     message: `${what} is not computed because ${ref} could not be computed (see the problem reported there)`,
     span,
     related: [{ span: defSpan, message: `${ref} is defined here` }],
   };
 }
 
-export { dependencyInfo };
