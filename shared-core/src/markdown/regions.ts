@@ -42,6 +42,8 @@ export interface ExtractedNote {
   headings: HeadingNode[];
 }
 
+const KEYWORD_ANYWHERE = /state|mix|process|site|units/;
+
 /** Whether `content` starts with a statement keyword followed by whitespace or `:`. */
 export function startsWithKeyword(content: string): boolean {
   for (const kw of STATEMENT_KEYWORDS) {
@@ -55,7 +57,9 @@ export function startsWithKeyword(content: string): boolean {
 
 /** Finds the air regions and the headings of a Markdown text (offsets into `text`). */
 export function extractRegions(text: string): ExtractedNote {
-  const scan = scanMarkdown(text);
+  // A keyword code span has its keyword literally in the block's source (no escapes or entities
+  // apply inside code spans), so blocks without any keyword need no inline pass.
+  const scan = scanMarkdown(text, { inlineFilter: (src) => KEYWORD_ANYWHERE.test(src) });
   const fences: FenceRegion[] = [];
   for (const f of scan.fences) {
     if (f.lang !== 'air') continue;

@@ -101,8 +101,17 @@ function isSpaceOrTab(c: number): boolean {
   return c === 0x20 || c === 0x09;
 }
 
+/** Options of {@link scanMarkdown}. */
+export interface ScanOptions {
+  /**
+   * Only blocks whose inline source passes this test are searched for code spans (a cheap
+   * pre-filter: a block can be skipped only when none of its code spans could matter).
+   */
+  inlineFilter?: (inlineSource: string) => boolean;
+}
+
 /** Finds the fences, indented code, code spans and headings of a Markdown text. */
-export function scanMarkdown(text: string): MarkdownScan {
+export function scanMarkdown(text: string, options: ScanOptions = {}): MarkdownScan {
   const { src, base } = normalizeForMarkdown(text);
   const result: MarkdownScan = { fences: [], indentedCode: [], codeSpans: [], headings: [] };
   if (src.length === 0) return result;
@@ -163,7 +172,7 @@ export function scanMarkdown(text: string): MarkdownScan {
   for (const token of tokens) {
     if (token.type !== 'inline') continue;
     const map = (token.meta as { dewmarkMap?: InlineMap } | null)?.dewmarkMap;
-    if (!map) continue;
+    if (!map || (options.inlineFilter && !options.inlineFilter(token.content))) continue;
     const state = new md.inline.State(token.content, md, env, []);
     col.inlineState = state;
     col.spans = [];
