@@ -82,8 +82,10 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
   beforeAll(async () => {
     work = mkdtempSync(join(tmpdir(), 'dewmark-vsix-'));
     const vsix = join(work, 'dewmark-e2e.vsix');
-    // The same packaging a user's .vsix gets: build, then vsce with .vscodeignore.
-    const r = spawnSync(process.execPath, [join(REPO_ROOT, 'client', 'package-vsix.mjs'), '--out', vsix], { cwd: REPO_ROOT, encoding: 'utf8', timeout: 180_000 });
+    // The same packaging a user's .vsix gets: build, then vsce with .vscodeignore. Under `npm test`
+    // the bundles were just built, and rebuilding them here could race other suites that run them.
+    const build = process.env.npm_lifecycle_event === 'test' ? ['--no-build'] : [];
+    const r = spawnSync(process.execPath, [join(REPO_ROOT, 'client', 'package-vsix.mjs'), ...build, '--out', vsix], { cwd: REPO_ROOT, encoding: 'utf8', timeout: 180_000 });
     if (r.status !== 0 || !existsSync(vsix)) throw new Error(`npm run package failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
     console.log(`[e2e] packaged ${vsix}: ${(statSync(vsix).size / 1024).toFixed(1)} KiB`);
     marker = join(work, 'activation.json');
