@@ -179,7 +179,11 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
           ctx.report({
             code: w.code,
             severity: 'error',
-            message: `${what}: ${w.message} A state needs every property finite; give a humidity ratio above zero, or a dry-bulb below the boiling point at this pressure`,
+            message: `${what}: ${w.message} ${
+              w.code === 'pressure-below-saturation'
+                ? `Dewmark needs a state that can be saturated: lower the dry-bulb below the boiling point at ${pressureWord(pressure)}, or raise the pressure`
+                : 'Dewmark needs every property finite: give a humidity ratio above zero'
+            }`,
             span: spanOf(spansByKey, [a, b]),
           });
         }
