@@ -2,7 +2,7 @@
  * Saturation pressure of water vapour (Hyland–Wexler, ASHRAE Handbook—Fundamentals 2017 SI,
  * Ch. 1 eqs 5 and 6) and its inverse (dew/frost point, boiling point).
  *
- * The two equations meet at the triple point, 0.01 °C, where they agree to 6e-9 relative; the
+ * The two equations meet at the triple point, 0.01 °C (exactly equal 6e-7 K above it); the
  * switch is made there (not at 0 °C, where they differ by 97 ppm) so that the curve is continuous
  * and its inverse well defined. Below 0.01 °C the curve is over ice (frost point), above it over
  * liquid water.
@@ -12,7 +12,7 @@ import { fmtPa, fmtT } from './format';
 
 /** 0 °C in kelvin (exact). */
 export const ZERO_C_K = 273.15;
-/** Triple point of water, °C: the switch between the ice and the liquid-water equations. */
+/** Triple point of water, °C. */
 export const TRIPLE_POINT_C = 0.01;
 /** Lowest temperature of the formulation, °C (inclusive). */
 export const T_MIN_C = -100;
@@ -60,10 +60,21 @@ export function d2LnPwsWater(T: number): number {
   return (2 * C8) / (T * T * T) + 2 * C11 + T * 6 * C12 - C13 / (T * T);
 }
 
+/**
+ * Where the ice and liquid-water equations meet, °C: 0.0100006 °C, the triple point to within
+ * 1e-6 K (eqs 5 and 6 differ by 6e-9 relative at 0.01 °C itself). Switching exactly where they are
+ * equal makes the saturation curve continuous to the last digit, so that it has an exact inverse.
+ */
+export const SWITCH_C = ((): number => {
+  let T = TRIPLE_POINT_C + ZERO_C_K;
+  for (let i = 0; i < 8; i++) T -= (lnPwsIce(T) - lnPwsWater(T)) / (dLnPwsIce(T) - dLnPwsWater(T));
+  return T - ZERO_C_K;
+})();
+
 /** ln pws at t °C with the triple-point switch, no range check. */
 export function lnPwsRaw(tC: number): number {
   const T = tC + ZERO_C_K;
-  return tC < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T);
+  return tC < SWITCH_C ? lnPwsIce(T) : lnPwsWater(T);
 }
 
 /** Saturation pressure at t °C with the triple-point switch, no range check (internal). */
@@ -71,8 +82,8 @@ export function pwsRaw(tC: number): number {
   return Math.exp(lnPwsRaw(tC));
 }
 
-/** Saturation pressure at the triple point on the liquid-water equation, Pa (611.657 Pa). */
-export const PWS_TRIPLE = Math.exp(lnPwsWater(TRIPLE_POINT_C + ZERO_C_K));
+/** Saturation pressure at the ice/water switch (the triple point), Pa (611.657 Pa). */
+export const PWS_TRIPLE = Math.exp(lnPwsWater(SWITCH_C + ZERO_C_K));
 /** Saturation pressure at 0 °C on the ice equation (0 °C is below the triple point), Pa. */
 export const PWS_0C = Math.exp(lnPwsIce(ZERO_C_K));
 /** Saturation pressure at −100 °C (over ice), Pa. */
@@ -125,7 +136,7 @@ export function satTempRaw(pw: number): number {
 }
 
 /** ln of {@link PWS_TRIPLE}. */
-const LN_PWS_TRIPLE = lnPwsWater(TRIPLE_POINT_C + ZERO_C_K);
+const LN_PWS_TRIPLE = lnPwsWater(SWITCH_C + ZERO_C_K);
 
 // Starting points for the inversion: 1/T as a polynomial in u = (ln pws − mid)·scale, a
 // least-squares fit made for this engine to eqs 5/6 themselves (water: 0.01…36.85, 36.85…96.85,
@@ -164,9 +175,9 @@ export function satTempFromLn(y: number): number {
   let hi: number;
   if (ice) {
     lo = 1 - ZERO_C_K;
-    hi = TRIPLE_POINT_C;
+    hi = SWITCH_C;
   } else {
-    lo = TRIPLE_POINT_C;
+    lo = SWITCH_C;
     hi = T_MAX_C + 1;
   }
   if (y >= GYI && y <= GY3) {

@@ -17,7 +17,7 @@ import {
   PWS_MIN,
   T_MAX_C,
   T_MIN_C,
-  TRIPLE_POINT_C,
+  SWITCH_C,
   ZERO_C_K,
   lnPwsIce,
   lnPwsWater,
@@ -104,7 +104,13 @@ function stateAt(
   wb = Number.NaN,
   pwKnown = Number.NaN,
 ): MoistAirState {
-  if (!(db >= T_MIN_C && db <= T_MAX_C)) throw dbOutOfRange(db, keys);
+  if (!(db >= T_MIN_C && db <= T_MAX_C)) {
+    // A computed dry-bulb a hair outside the range is round-off of its end (a pair such as wb
+    // with dp magnifies the last digits of its figures by up to ~100 at high temperatures).
+    if (db >= T_MIN_C - RANGE_ROUNDOFF_K && db < T_MIN_C) db = T_MIN_C;
+    else if (db > T_MAX_C && db <= T_MAX_C + RANGE_ROUNDOFF_K) db = T_MAX_C;
+    else throw dbOutOfRange(db, keys);
+  }
   const pwsDb = pwsAt(db);
   let pw = Number.isNaN(pwKnown) ? (p * w) / (EPSILON + w) : pwKnown;
   if (pw > pwsDb) {
@@ -122,6 +128,9 @@ function stateAt(
   }
   return completeState(db, w, p, pwsDb, pw, Number.NaN, dp, wb);
 }
+
+/** How far (K) beyond −100 °C or 200 °C a computed dry-bulb may fall and still count as the end. */
+const RANGE_ROUNDOFF_K = 1e-6;
 
 function fogWarning(t: number, w: number, ws: number, keys: DefiningKey[]): PhysicsProblem {
   return {
@@ -290,6 +299,16 @@ function solveOrThrow(
   }
 }
 
+/**
+ * Whether the root of f lies within round-off (1e-9 K) beyond the range end x, where f(x) = fx
+ * has the wrong sign: judged from the local slope.
+ */
+function rootWithinRoundoff(f: (x: number) => number, x: number, fx: number): boolean {
+  const d = x > 0 ? -1e-3 : 1e-3; // step back into the range
+  const slope = (fx - f(x + d)) / -d;
+  return Number.isFinite(slope) && slope !== 0 && Math.abs(fx / slope) <= TEMP_ROUNDOFF_K;
+}
+
 /** Range and sign checks of one input value. */
 function checkValue(k: DefiningKey, x: number): void {
   if (typeof x !== 'number' || !Number.isFinite(x)) {
@@ -335,7 +354,7 @@ function fromDbWb(db: number, wb: number, p: number, warnings: PhysicsProblem[])
     );
   }
   const T = wb + ZERO_C_K;
-  const pwsWb = Math.exp(wb < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T));
+  const pwsWb = Math.exp(wb < SWITCH_C ? lnPwsIce(T) : lnPwsWater(T));
   checkBelowBoiling(wb, pwsWb, p, 'wb');
   const wsWb = (EPSILON * pwsWb) / (p - pwsWb);
   let w = humRatioEq33(db, wb, wsWb);
@@ -382,7 +401,7 @@ function fromDbDp(db: number, dp: number, p: number, opts: SolveOptions | undefi
 
 function fromDbRh(db: number, rh: number, p: number): MoistAirState {
   const T = db + ZERO_C_K;
-  const lnPwsDb = db < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T);
+  const lnPwsDb = db < SWITCH_C ? lnPwsIce(T) : lnPwsWater(T);
   const pwsDb = Math.exp(lnPwsDb);
   const pw = rh * pwsDb;
   if (pw >= p) {
@@ -399,7 +418,7 @@ function fromDbRh(db: number, rh: number, p: number): MoistAirState {
 
 function fromDbH(db: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
   const keys: DefiningKey[] = ['db', 'h'];
-  const w = (h - CP_DA * db) / (H_FG0 + CP_WV * db);
+  let w = (h - CP_DA * db) / (H_FG0 + CP_WV * db);
   if (w < 0) {
     throw problem(
       'enthalpy-too-low',
@@ -409,6 +428,11 @@ function fromDbH(db: number, h: number, p: number, opts: SolveOptions | undefine
     );
   }
   const pwsDb = pwsAt(db);
+  if (pwsDb < p) {
+    // Saturated air, up to the round-off of W = (h − 1006 t)/(2501000 + 1860 t) (a difference).
+    const ws = (EPSILON * pwsDb) / (p - pwsDb);
+    if (w > ws && w - ws <= (1e-14 * (Math.abs(h) + CP_DA * Math.abs(db))) / (H_FG0 + CP_WV * db)) w = ws;
+  }
   const pw = (p * w) / (EPSILON + w);
   if (pw > pwsDb && opts?.allowFog) {
     // Fog at db: the enthalpy beyond saturated air is carried by suspended water at db.
@@ -416,7 +440,7 @@ function fromDbH(db: number, h: number, p: number, opts: SolveOptions | undefine
     const hs = CP_DA * db + ws * (H_FG0 + CP_WV * db);
     const hc = condensateEnthalpy(db);
     const wTotal = hc !== 0 ? ws + (h - hs) / hc : Number.NaN;
-    if (!(wTotal >= ws)) {
+    if (!(wTotal >= ws && wTotal < Number.POSITIVE_INFINITY)) {
       throw problem(
         'no-solution',
         `The enthalpy ${fmtH(h)} is above that of saturated air at ${fmtT(db)} (${fmtH(hs)}), and suspended ${db < 0 ? 'ice' : 'water'} at this temperature cannot make up the difference.`,
@@ -491,7 +515,10 @@ function fromWbRh(wb: number, rh: number, p: number, opts: SolveOptions | undefi
   };
   const hi = Math.min(dbMax, T_MAX_C);
   const fHi = f(hi);
-  if (fHi > 0) throw dbOutOfRange(Number.POSITIVE_INFINITY, keys);
+  if (fHi > 0) {
+    if (!rootWithinRoundoff(f, hi, fHi)) throw dbOutOfRange(Number.POSITIVE_INFINITY, keys);
+    return stateAt(hi, Math.max(0, wAt(hi)), p, keys, opts, warnings, Number.NaN, wb);
+  }
   const db = findRoot(f, wb, hi, 1 - rh, fHi);
   if (Number.isNaN(db)) throw noConvergence('dry-bulb (from wb and rh)');
   return stateAt(db, Math.max(0, wAt(db)), p, keys, opts, warnings, Number.NaN, wb);
@@ -557,7 +584,7 @@ function fromDpRh(dp: number, rh: number, p: number, opts: SolveOptions | undefi
     );
   }
   const pwsDb = pw / rh;
-  if (pwsDb > PWS_MAX) throw dbOutOfRange(Number.POSITIVE_INFINITY, keys);
+  if (pwsDb > PWS_MAX * (1 + SATURATION_ROUNDOFF)) throw dbOutOfRange(Number.POSITIVE_INFINITY, keys);
   const db = rh === 1 ? dp : satTempRaw(pwsDb);
   if (Number.isNaN(db)) throw noConvergence('dry-bulb (from dp and rh)');
   const w = (EPSILON * pw) / (p - pw);
@@ -570,9 +597,10 @@ function fromDpH(dp: number, h: number, p: number, opts: SolveOptions | undefine
   checkBelowBoiling(dp, pw, p, 'dp');
   const w = (EPSILON * pw) / (p - pw);
   let db = (h - H_FG0 * w) / (CP_DA + CP_WV * w);
-  if (db < dp && db >= dp - TEMP_ROUNDOFF_K) db = dp; // saturated, up to round-off
+  const hs = CP_DA * dp + w * (H_FG0 + CP_WV * dp);
+  // Saturated air, up to the round-off of h (relative 1e-11: W itself came from a dew point).
+  if (db < dp && h >= hs - (1e-11 * Math.abs(hs) + 1e-6)) db = dp;
   if (db < dp) {
-    const hs = CP_DA * dp + w * (H_FG0 + CP_WV * dp);
     throw problem(
       'enthalpy-too-low',
       `The enthalpy ${fmtH(h)} is below that of saturated air at the dew point ${fmtT(dp)} (${fmtH(hs)}): the dry-bulb would be below the dew point.`,
@@ -605,7 +633,7 @@ function fromRhW(rh: number, w: number, p: number, opts: SolveOptions | undefine
   }
   const pw = (p * w) / (EPSILON + w);
   const pwsDb = pw / rh;
-  if (pwsDb > PWS_MAX || pwsDb < PWS_MIN) throw dbOutOfRange(pwsDb > PWS_MAX ? Number.POSITIVE_INFINITY : Number.NEGATIVE_INFINITY, keys);
+  if (pwsDb > PWS_MAX * (1 + SATURATION_ROUNDOFF) || pwsDb < PWS_MIN * (1 - SATURATION_ROUNDOFF)) throw dbOutOfRange(pwsDb > PWS_MAX ? Number.POSITIVE_INFINITY : Number.NEGATIVE_INFINITY, keys);
   const db = satTempFromLn(Math.log(pwsDb));
   if (Number.isNaN(db)) throw noConvergence('dry-bulb (from rh and w)');
   return stateAt(db, w, p, keys, opts, warnings);
@@ -623,6 +651,7 @@ function fromRhH(rh: number, h: number, p: number, opts: SolveOptions | undefine
     return CP_DA * db + w * (H_FG0 + CP_WV * db) - h;
   };
   const fLo = f(T_MIN_C);
+  if (fLo > 0 && rootWithinRoundoff(f, T_MIN_C, fLo)) return stateAt(T_MIN_C, wAt(T_MIN_C), p, keys, opts, warnings);
   if (fLo > 0) {
     throw problem(
       'out-of-range',
@@ -649,7 +678,10 @@ function fromRhH(rh: number, h: number, p: number, opts: SolveOptions | undefine
     }
     if (!Number.isFinite(fHi)) throw noConvergence('dry-bulb (from rh and h)');
   }
-  if (fHi < 0) throw dbOutOfRange(Number.POSITIVE_INFINITY, keys);
+  if (fHi < 0) {
+    if (!rootWithinRoundoff(f, hi, fHi)) throw dbOutOfRange(Number.POSITIVE_INFINITY, keys);
+    return stateAt(hi, wAt(hi), p, keys, opts, warnings);
+  }
   const db = findRoot(f, T_MIN_C, hi, fLo, fHi);
   if (Number.isNaN(db)) throw noConvergence('dry-bulb (from rh and h)');
   return stateAt(db, wAt(db), p, keys, opts, warnings);
@@ -660,12 +692,15 @@ function fromWH(w: number, h: number, p: number, opts: SolveOptions | undefined,
   const db = (h - H_FG0 * w) / (CP_DA + CP_WV * w);
   const pw = (p * w) / (EPSILON + w);
   // Unsaturated if the dry-bulb from eq 30 is at or above the dew point of w.
-  const unsaturated = pw <= PWS_MIN || (db >= T_MIN_C && pw <= pwsAt(Math.min(db, T_MAX_C)) * (1 + SATURATION_ROUNDOFF));
+  const tCheck = db < T_MIN_C ? T_MIN_C : db > T_MAX_C ? T_MAX_C : db;
+  const unsaturated = pw <= PWS_MIN || pw <= pwsAt(tCheck) * (1 + SATURATION_ROUNDOFF);
   if (unsaturated || db > T_MAX_C) return stateAt(db, w, p, keys, opts, warnings);
   if (pw > PWS_MAX) throw dbOutOfRange(db, keys);
   const tSat = satTempRaw(pw); // dew point of the total water
   if (Number.isNaN(tSat)) throw noConvergence('dew point');
   const hSat = CP_DA * tSat + w * (H_FG0 + CP_WV * tSat);
+  // Saturated air at its dew point, up to the round-off of h.
+  if (h >= hSat - (1e-13 * (Math.abs(hSat) + CP_DA * Math.abs(tSat)) + 1e-9)) return stateAt(tSat, w, p, keys, opts, warnings);
   if (!opts?.allowFog) {
     throw problem(
       'supersaturated',

@@ -7,7 +7,7 @@ import { SATURATION_ROUNDOFF, checkHumRatio, checkPressure } from './checks';
 import { CP_DA, CP_WV, EPSILON, H_FG0, R_DA, condensateEnthalpy } from './properties';
 import {
   ZERO_C_K,
-  TRIPLE_POINT_C,
+  SWITCH_C,
   checkTemperature,
   dLnPwsIce,
   dLnPwsWater,
@@ -48,8 +48,8 @@ export function completeState(
       d2 = satTempDeriv.d2;
     } else if (Number.isNaN(wb)) {
       const T = dp + ZERO_C_K;
-      d1 = dp < TRIPLE_POINT_C ? dLnPwsIce(T) : dLnPwsWater(T);
-      d2 = dp < TRIPLE_POINT_C ? d2LnPwsIce(T) : d2LnPwsWater(T);
+      d1 = dp < SWITCH_C ? dLnPwsIce(T) : dLnPwsWater(T);
+      d2 = dp < SWITCH_C ? d2LnPwsIce(T) : d2LnPwsWater(T);
     }
   } else {
     dp = Number.NEGATIVE_INFINITY;
@@ -75,7 +75,7 @@ export function completeState(
     ws,
     mu: w / ws,
     wbIce: wb < 0,
-    dpFrost: dp < TRIPLE_POINT_C,
+    dpFrost: dp < SWITCH_C,
     fog: false,
   };
 }
@@ -83,7 +83,7 @@ export function completeState(
 /** pws at t °C with the triple-point switch (no range check). */
 export function pwsAt(tC: number): number {
   const T = tC + ZERO_C_K;
-  return Math.exp(tC < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T));
+  return Math.exp(tC < SWITCH_C ? lnPwsIce(T) : lnPwsWater(T));
 }
 
 /**
@@ -111,7 +111,7 @@ export function fogState(t: number, wTotal: number, p: number): MoistAirState {
     ws,
     mu: wTotal / ws,
     wbIce: t < 0,
-    dpFrost: t < TRIPLE_POINT_C,
+    dpFrost: t < SWITCH_C,
     fog: true,
   };
 }

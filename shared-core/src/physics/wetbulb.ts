@@ -10,7 +10,7 @@ import { EPSILON } from './properties';
 import {
   C1, C2, C3, C4, C5, C6, C7, C8, C9, C10, C11, C12, C13,
   ZERO_C_K,
-  TRIPLE_POINT_C,
+  SWITCH_C,
   checkTemperature,
   lnPwsIce,
   lnPwsWater,
@@ -60,7 +60,7 @@ export function humRatioFromWetBulb(db: number, wb: number, p: number): number {
       keys: ['db', 'wb'],
     });
   }
-  const pws = Math.exp(wb < TRIPLE_POINT_C ? lnPwsIce(wb + ZERO_C_K) : lnPwsWater(wb + ZERO_C_K));
+  const pws = Math.exp(wb < SWITCH_C ? lnPwsIce(wb + ZERO_C_K) : lnPwsWater(wb + ZERO_C_K));
   if (pws >= p) throw pressureBelowSaturation(wb, pws, p, ['wb'], 'wet-bulb');
   const wsStar = (EPSILON * pws) / (p - pws);
   let w = humRatioEq33(db, wb, wsStar);
@@ -85,7 +85,7 @@ export function humRatioFromWetBulb(db: number, wb: number, p: number): number {
 
 function pwsAt(tC: number): number {
   const T = tC + ZERO_C_K;
-  return Math.exp(tC < TRIPLE_POINT_C ? lnPwsIce(T) : lnPwsWater(T));
+  return Math.exp(tC < SWITCH_C ? lnPwsIce(T) : lnPwsWater(T));
 }
 
 /**
@@ -127,8 +127,6 @@ export function wetBulbSolve(
     if (Number.isNaN(hi)) return Number.NaN;
   }
   let lo = dp > WB_FLOOR_C ? dp : WB_FLOOR_C;
-  const lo0 = lo;
-  const hi0 = hi;
   if (lo >= hi) {
     // Saturated air (dp = db up to round-off) or air at its boiling point.
     wetBulbInfo.iterations = 0;
@@ -151,6 +149,10 @@ export function wetBulbSolve(
       hi = 0;
     }
   }
+  // The result stays within the branch's bracket: dp ≤ wb ≤ db, and on the side of 0 °C whose
+  // equation it solves (so that wbIce and humRatioFromWetBulb agree with it).
+  const lo0 = lo;
+  const hi0 = ice && hi >= 0 ? -Number.MIN_VALUE : hi;
   // Residual g(t) = (a0 − a1 t)·Ws(t) − 1.006 (db − t) − W (dConst − d1 t), no division by the
   // denominator of eq 33/35 (it is positive), increasing and convex in t.
   const a0 = ice ? 2830 : 2501;
@@ -187,7 +189,7 @@ export function wetBulbSolve(
     let lnPws: number;
     let L1: number;
     let L2: number;
-    if (t < TRIPLE_POINT_C) {
+    if (t < SWITCH_C) {
       lnPws = C1 * x + C2 + T * (C3 + T * (C4 + T * (C5 + T * C6))) + C7 * lnT;
       L1 = x * (C7 - C1 * x) + C3 + T * (2 * C4 + T * (3 * C5 + T * 4 * C6));
       L2 = x * x * (2 * C1 * x - C7) + 2 * C4 + T * (6 * C5 + T * 12 * C6);
@@ -210,7 +212,7 @@ export function wetBulbSolve(
       const g = a * ws - 1.006 * (db - t) - w * (dConst - d1 * t);
       if (g === 0) {
         wetBulbInfo.iterations = i + 1;
-        return t;
+        return t < lo0 ? lo0 : t > hi0 ? hi0 : t;
       }
       if (g < 0) lo = t;
       else hi = t;
@@ -228,16 +230,16 @@ export function wetBulbSolve(
       next = t - step;
       // The error after a small step is ~ C·step³ (C well below 1 K⁻² here), except across the
       // triple point, where the slope of pws jumps (ice below, water above): no stop there.
-      if (Math.abs(step) < WB_STEP_DONE && Math.abs(curv) < 0.01 && t < TRIPLE_POINT_C === next < TRIPLE_POINT_C) {
+      if (Math.abs(step) < WB_STEP_DONE && Math.abs(curv) < 0.01 && t < SWITCH_C === next < SWITCH_C) {
         wetBulbInfo.iterations = i + 1;
-        // Within the bracket (a last step can overshoot it by round-off): dp ≤ wb ≤ db.
+        // Within the bracket (a last step can overshoot it by round-off).
         return next < lo0 ? lo0 : next > hi0 ? hi0 : next;
       }
       if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
     }
     if (hi - lo < 1e-9) {
       wetBulbInfo.iterations = i + 1;
-      return next;
+      return next < lo0 ? lo0 : next > hi0 ? hi0 : next;
     }
     t = next;
   }
@@ -257,7 +259,7 @@ export function wetBulbFromHumRatio(db: number, w: number, p: number): number {
   checkHumRatio(w);
   let pw = (p * w) / (EPSILON + w);
   const Tdb = db + ZERO_C_K;
-  const pwsDb = Math.exp(db < TRIPLE_POINT_C ? lnPwsIce(Tdb) : lnPwsWater(Tdb));
+  const pwsDb = Math.exp(db < SWITCH_C ? lnPwsIce(Tdb) : lnPwsWater(Tdb));
   if (pw > pwsDb) {
     if (pw > pwsDb * (1 + SATURATION_ROUNDOFF)) throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
     pw = pwsDb; // saturated, up to round-off
