@@ -30,7 +30,7 @@ function prescan(statements: Statement[]): Map<string, NameDef[]> {
 function evaluateSite(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'site' }>): void {
   const { props, broken } = readProps(ctx, stmt.props, SITE_KEYS, 'site:');
   if (props.length === 0) {
-    if (broken.size === 0 && stmt.props.length === 0) {
+    if (broken.length === 0 && stmt.props.length === 0) {
       ctx.report({
         code: 'underspecified',
         severity: 'error',

@@ -71,20 +71,14 @@ export function isDefiningKey(key: string): key is DefiningKey {
   return (DEFINING_KEYS as readonly string[]).includes(key);
 }
 
-/** Pairs that fix the same thing twice at a known pressure (both fix the moisture content). */
-const DEPENDENT: ReadonlySet<string> = new Set(['dp+w', 'w+dp']);
-
-/** Pairs that the engine solves but that are nearly parallel on the chart (a warning). */
-const ILL_CONDITIONED: ReadonlySet<string> = new Set(['wb+h', 'h+wb']);
-
-/** True when the two keys fix the same thing (dp with w). */
+/** True when the two keys fix the same thing (dp with w: both fix the moisture content at a known pressure). */
 export function isDependentPair(a: DefiningKey, b: DefiningKey): boolean {
-  return a === b || DEPENDENT.has(`${a}+${b}`);
+  return a === b || (a === 'dp' && b === 'w') || (a === 'w' && b === 'dp');
 }
 
-/** True when the pair is solvable but ill-conditioned (wb with h). */
+/** True when the pair is solvable but ill-conditioned (wb with h: nearly parallel on the chart). */
 export function isIllConditionedPair(a: DefiningKey, b: DefiningKey): boolean {
-  return ILL_CONDITIONED.has(`${a}+${b}`);
+  return (a === 'wb' && b === 'h') || (a === 'h' && b === 'wb');
 }
 
 /** The keys that, added to a dependent pair, would fix the state. */

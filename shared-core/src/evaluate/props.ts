@@ -19,7 +19,7 @@ export interface ReadProps {
   /** Usable properties in written order (first occurrence of each key). */
   props: ReadProp[];
   /** Keys written with a value that could not be read (its diagnostic is already reported). */
-  broken: Set<string>;
+  broken: string[];
   /** How many keys were not known (each reported as `unknown-key`). */
   unknownKeys: number;
 }
@@ -31,9 +31,10 @@ export interface ReadProps {
  */
 export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readonly<Record<string, KeySpec>>, what: string): ReadProps {
   const out: ReadProp[] = [];
-  const broken = new Set<string>();
+  const broken: string[] = [];
   let unknownKeys = 0;
-  const seen = new Map<string, PropertyNode>();
+  // Statements hold a handful of properties: a linear scan beats a Map here.
+  const seen: PropertyNode[] = [];
   for (const prop of props) {
     const spec = Object.prototype.hasOwnProperty.call(table, prop.key) ? table[prop.key] : undefined;
     if (!spec) {
@@ -49,7 +50,7 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
       unknownKeys++;
       continue;
     }
-    const first = seen.get(prop.key);
+    const first = seen.find((p) => p.key === prop.key);
     if (first) {
       ctx.report({
         code: 'duplicate-key',
@@ -60,16 +61,16 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
       });
       continue;
     }
-    seen.set(prop.key, prop);
+    seen.push(prop);
     if (prop.value === null) {
       // The parser has reported the syntax error already.
-      broken.add(prop.key);
+      broken.push(prop.key);
       continue;
     }
     const r = readQuantity(prop, prop.value, spec);
     if (!r.ok) {
       ctx.report(r.diagnostic);
-      broken.add(prop.key);
+      broken.push(prop.key);
       continue;
     }
     out.push({ key: prop.key, spec, prop, q: r.value });

@@ -67,6 +67,13 @@ function orList(xs: readonly string[]): string {
 
 /** Candidate defining pairs in order of preference (see the module comment). */
 export function candidatePairs(defs: ReadProp[]): [ReadProp, ReadProp][] {
+  if (defs.length === 2) {
+    // The common case: exactly two defining properties written.
+    const a = defs[0]!;
+    const b = defs[1]!;
+    if (isDependentPair(a.key as DefiningKey, b.key as DefiningKey)) return [];
+    return b.key === 'db' ? [[b, a]] : [[a, b]];
+  }
   const out: [ReadProp, ReadProp][] = [];
   const db = defs.find((d) => d.key === 'db');
   if (db) {
@@ -111,7 +118,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
 
   // Pressure: the state's own p= / elev=, else the site pressure.
   let pressure: PressureBasis = ctx.site;
-  let pressureFailed = broken.has('p') || broken.has('elev');
+  let pressureFailed = broken.includes('p') || broken.includes('elev');
   const override = props.filter((p) => p.key === 'p' || p.key === 'elev');
   if (override.length > 0) {
     const basis = pressureFromProps(ctx, override, 'override', `${what} own pressure`);
@@ -121,7 +128,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
 
   const result: StateResult = { kind: 'state', name, statement: stmt, state: null, pressure, defining: [], claims: [] };
   const defs = props.filter((p) => isDefiningKey(p.key));
-  const brokenDefining = [...broken].filter((k) => isDefiningKey(k));
+  const brokenDefining = broken.filter((k) => isDefiningKey(k));
   if (pressureFailed) return result;
 
   if (defs.length < 2) {
