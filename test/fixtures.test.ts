@@ -67,6 +67,10 @@ const sourced: Record<string, (a: Analysis) => void> = {
     near(s.w, 0.00523, { abs: 0.0001 }, 'W');
     near(s.dp, (40 - 32) / 1.8, { abs: 1 / 1.8 }, 'dew point 40 °F ±1 °F');
     near(s.rh, 0.13, { abs: 0.01 }, 'rh');
+    // h 29.8 Btu/lb ±0.1 on the I-P datum (dry air 0 at 0 °F): Btu/lb = (J/kg + 1006·160/9) / 2326
+    // (exact unit definitions, NIST SP 811); v 14.22 ft³/lb ±0.01 (1 ft³/lb = 0.3048³/0.45359237 m³/kg).
+    near((s.h + (1006 * 160) / 9) / 2326, 29.8, { abs: 0.1 }, 'h, Btu/lb');
+    near(s.v / (0.3048 ** 3 / 0.45359237), 14.22, { abs: 0.01 }, 'v, ft³/lb');
     expect(a.units).toBe('IP');
   },
   'site-elevation.md': (a) => {
