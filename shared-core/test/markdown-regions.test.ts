@@ -4,7 +4,10 @@
  * lone CR, a BOM, tabs and characters outside the BMP. Also the places where markdown-it alone
  * would depart from CommonMark (see markdown/markdownIt.ts).
  */
+import fc from 'fast-check';
+import MarkdownIt from 'markdown-it';
 import { describe, expect, it } from 'vitest';
+import { createMarkdownIt } from '../src/markdown/markdownIt';
 import { extractRegions, startsWithKeyword, type ExtractedRegion } from '../src/markdown/regions';
 import { scanMarkdown } from '../src/markdown/scan';
 
@@ -233,5 +236,31 @@ describe('where markdown-it alone departs from CommonMark', () => {
 
   it('continuation-line indentation is not code span content', () => {
     expect(blocks('`a\n   b`')).toEqual({ fences: [], indented: 0, spans: ['a b'] });
+  });
+});
+
+describe('the instrumented markdown-it', () => {
+  it("builds the same line table as markdown-it's own block state", () => {
+    const ours = createMarkdownIt();
+    const theirs = new MarkdownIt('commonmark');
+    const text = fc.array(fc.constantFrom(' ', '\t', '\n', 'a', '>', '- ', '\u00a0'), { maxLength: 40 }).map((xs) => xs.join(''));
+    fc.assert(
+      fc.property(text, (src) => {
+        const a = new ours.block.State(src, ours, {}, []);
+        const b = new theirs.block.State(src, theirs, {}, []);
+        expect([a.bMarks, a.eMarks, a.tShift, a.sCount, a.bsCount, a.lineMax]).toEqual([b.bMarks, b.eMarks, b.tShift, b.sCount, b.bsCount, b.lineMax]);
+      }),
+      { seed: 31337, numRuns: 2000 },
+    );
+  });
+
+  it('produces the same block tokens as markdown-it on sample notes', () => {
+    const ours = createMarkdownIt();
+    const theirs = new MarkdownIt('commonmark', { maxNesting: 100 });
+    theirs.disable(['emphasis', 'entity', 'newline']);
+    for (const md of ['# T\n\n- a\n  > b `c`\n\n```air\nstate A: db=1C\n```\n', 'p\n\n    code\n\n<div>\nx\n</div>\n']) {
+      const strip = (ts: { type: string; map: [number, number] | null; content: string; level: number }[]) => ts.map((t) => [t.type, t.map, t.content, t.level]);
+      expect(strip(ours.parse(md, {}))).toEqual(strip(theirs.parse(md, {})));
+    }
   });
 });

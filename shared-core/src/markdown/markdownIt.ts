@@ -440,6 +440,54 @@ function useFastTokens(md: Md): void {
   const make = FastToken as unknown as new (type: string, tag: string, nesting: Token['nesting']) => Token;
 
   class FastBlockState extends md.block.State {
+    /**
+     * Same line table as markdown-it's constructor (bMarks, eMarks, tShift, sCount, bsCount and
+     * the sentinel line, including its quirk of dropping a last line of only blanks that has no
+     * line break), found with the native `indexOf` instead of a loop over every character.
+     */
+    constructor(src: string, mdIn: Md, env: Env, tokens: Token[]) {
+      super('', mdIn, env, tokens);
+      const bMarks: number[] = [];
+      const eMarks: number[] = [];
+      const tShift: number[] = [];
+      const sCount: number[] = [];
+      const bsCount: number[] = [];
+      const len = src.length;
+      let start = 0;
+      while (start < len) {
+        const nl = src.indexOf('\n', start);
+        const lineEnd = nl < 0 ? len : nl;
+        let p = start;
+        let offset = 0;
+        for (; p < lineEnd; p++) {
+          const c = src.charCodeAt(p);
+          if (c === 0x20) offset++;
+          else if (c === 0x09) offset += 4 - (offset % 4);
+          else break;
+        }
+        if (nl < 0 && p === lineEnd) break;
+        bMarks.push(start);
+        eMarks.push(lineEnd);
+        tShift.push(p - start);
+        sCount.push(offset);
+        bsCount.push(0);
+        if (nl < 0) break;
+        start = nl + 1;
+      }
+      bMarks.push(len);
+      eMarks.push(len);
+      tShift.push(0);
+      sCount.push(0);
+      bsCount.push(0);
+      this.src = src;
+      this.bMarks = bMarks;
+      this.eMarks = eMarks;
+      this.tShift = tShift;
+      this.sCount = sCount;
+      this.bsCount = bsCount;
+      this.lineMax = bMarks.length - 1;
+    }
+
     override push(type: string, tag: string, nesting: Token['nesting']): Token {
       const token = new make(type, tag, nesting);
       token.block = true;
