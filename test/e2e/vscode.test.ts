@@ -175,7 +175,7 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.screenshot('restarted');
   }, 90_000);
 
-  it('shows the unit system and pressure basis in the status bar, and switches units from the palette', async () => {
+  it('shows the unit system and pressure basis in the status bar, and switches units from the palette and by a click', async () => {
     const wb = session.workbench;
     // The note's own site line sets the pressure basis (the server's note status says so).
     await wb.waitFor('the Dewmark status-bar item', async () => (await wb.statusBar()).find((t) => t.includes('SI · site 101.325 kPa')));
@@ -185,8 +185,15 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     expect(line.slice(src.length)).not.toMatch(/°C|kJ\/kg|g\/kg/);
     await wb.waitFor('the status bar to say IP', async () => (await wb.statusBar()).find((t) => t.includes('IP · site 14.696 psia')));
     await wb.screenshot('ip-units');
-    await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
+    // Clicking the status-bar item switches back.
+    const item = (await wb.page.evaluate(
+      `(() => { const el = [...document.querySelectorAll('.statusbar-item')].find((e) => (e.textContent || '').includes('IP · site')); if (!el) return null;
+        const r = el.getBoundingClientRect(); return { x: r.x + r.width / 2, y: r.y + r.height / 2 }; })()`,
+    )) as { x: number; y: number } | null;
+    expect(item, 'the Dewmark status-bar item').not.toBeNull();
+    await wb.page.mouse.click(item!.x, item!.y);
     await wb.waitForEditorLine(hintedLine(src, '°C'));
+    await wb.waitFor('the status bar to say SI again', async () => (await wb.statusBar()).find((t) => t.includes('SI · site 101.325 kPa')));
   }, 90_000);
 
   it('shows the psychrometric chart beside the note, and redraws it when the note changes', async () => {
