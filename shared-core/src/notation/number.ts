@@ -11,13 +11,16 @@ export interface ScannedNumber {
   end: number;
   /** The number exactly as written. */
   written: string;
-  /** The text to hand to `Number()` (a Unicode minus turned into `-`). */
-  numeric: string;
+  /** Its value, correctly rounded (as `Number()` gives it); ±Infinity when too large. */
+  value: number;
   /** Digits after the decimal point. */
   fractionDigits: number;
   /** The written exponent (0 when none). */
   exponent: number;
 }
+
+/** 1, 10, …, 1e22: the powers of ten that a double holds exactly. */
+const EXACT_POW10: readonly number[] = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
 
 function isDigit(c: number): boolean {
   return c >= 0x30 && c <= 0x39;
@@ -43,16 +46,25 @@ export function startsNumber(text: string, pos: number, end: number): boolean {
 export function scanNumber(text: string, pos: number, end: number): ScannedNumber {
   const start = pos;
   let c = text.charCodeAt(pos);
-  let unicodeMinus = false;
+  let negative = false;
   if (c === 0x2b || c === 0x2d || c === 0x2212) {
-    unicodeMinus = c === 0x2212;
+    negative = c !== 0x2b;
     pos++;
   }
-  while (pos < end && isDigit(text.charCodeAt(pos))) pos++;
+  // The digits as an integer (exact while there are at most 15 of them).
+  let mantissa = 0;
+  let digits = 0;
+  while (pos < end && isDigit((c = text.charCodeAt(pos)))) {
+    mantissa = mantissa * 10 + (c - 0x30);
+    digits++;
+    pos++;
+  }
   let fractionDigits = 0;
   if (pos < end && text.charCodeAt(pos) === 0x2e) {
     pos++;
-    while (pos < end && isDigit(text.charCodeAt(pos))) {
+    while (pos < end && isDigit((c = text.charCodeAt(pos)))) {
+      mantissa = mantissa * 10 + (c - 0x30);
+      digits++;
       pos++;
       fractionDigits++;
     }
@@ -81,7 +93,17 @@ export function scanNumber(text: string, pos: number, end: number): ScannedNumbe
     }
   }
   const written = text.slice(start, pos);
-  return { end: pos, written, numeric: unicodeMinus ? '-' + written.slice(1) : written, fractionDigits, exponent };
+  // Exact fast path: an integer below 2^53 times or divided by an exact power of ten is rounded
+  // once, so it equals the correctly rounded decimal; anything else goes through Number().
+  const k = exponent - fractionDigits;
+  let value: number;
+  if (digits <= 15 && k >= -22 && k <= 22) {
+    const magnitude = k >= 0 ? mantissa * (EXACT_POW10[k] as number) : mantissa / (EXACT_POW10[-k] as number);
+    value = negative ? -magnitude : magnitude;
+  } else {
+    value = Number(text.charCodeAt(start) === 0x2212 ? '-' + written.slice(1) : written);
+  }
+  return { end: pos, written, value, fractionDigits, exponent };
 }
 
 /** Place value of the last written digit: `50` → 1, `9.30` → 0.01, `1.2e3` → 100, `0.0093` → 0.0001. */

@@ -711,7 +711,7 @@ class StatementParser {
       this.report('bad-number', `'${this.slice(t)}' is not a number: write one decimal number,${example || ' e.g. 24.5'}`, t.start, t.end);
       return null;
     }
-    const value = Number(n.numeric);
+    const value = n.value;
     if (!Number.isFinite(value)) {
       const t = this.rawToken();
       this.consume(t.end);
