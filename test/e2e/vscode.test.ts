@@ -65,6 +65,9 @@ const fixtureText = readFileSync(join(REPO_ROOT, 'test', 'fixtures', 'e2e', FIXT
 /** A second note, never opened: only "Check All Notes" reads it. */
 const CLOSED_NOTE = 'plant-room.md';
 const closedText = readFileSync(join(REPO_ROOT, 'test', 'fixtures', 'e2e', CLOSED_NOTE), 'utf8');
+/** A note that sets its own result units with a `units:` line. */
+const UNITS_NOTE = 'units-line.md';
+const unitsText = readFileSync(join(REPO_ROOT, 'test', 'fixtures', 'e2e', UNITS_NOTE), 'utf8');
 /** The fixture's full source line of a statement (the editor shows it, then the inline hint). */
 function sourceLine(starts: string): string {
   const line = fixtureText.split('\n').find((l) => l.startsWith(starts));
@@ -93,7 +96,7 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     console.log(`[e2e] packaged ${vsix}: ${(statSync(vsix).size / 1024).toFixed(1)} KiB`);
     marker = join(work, 'activation.json');
     session = await startSession(
-      { extensions: [vsix], files: { [FIXTURE_NOTE]: fixtureText, [`notes/${CLOSED_NOTE}`]: closedText }, env: { DEWMARK_ACTIVATION_MARKER: marker }, settings: { '[markdown]': { 'editor.wordWrap': 'off' } } },
+      { extensions: [vsix], files: { [FIXTURE_NOTE]: fixtureText, [`notes/${CLOSED_NOTE}`]: closedText, [UNITS_NOTE]: unitsText }, env: { DEWMARK_ACTIVATION_MARKER: marker }, settings: { '[markdown]': { 'editor.wordWrap': 'off' } } },
       // Word wrap off (Markdown wraps by default) so each note line is one editor line with its hint.
       { name: 'dewmark', timeoutMs: 45_000 },
     );
@@ -221,11 +224,24 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     const wb = session.workbench;
     await wb.runCommand('Dewmark: Check All Notes in the Workspace');
     const summary = await wb.waitFor('the check-all summary', async () => (await wb.notifications()).find((t) => t.startsWith('Dewmark: checked')));
-    // Two notes hold statements; only the closed plant-room note still has an error (PR1).
-    expect(summary).toContain('checked 2 notes with statements (2 Markdown files read): 1 error, 0 warnings');
+    // Three notes hold statements; only the closed plant-room note still has an error (PR1).
+    expect(summary).toContain('checked 3 notes with statements (3 Markdown files read): 1 error, 0 warnings');
     await wb.waitFor('the progress notification to close', async () => !(await wb.notifications()).some((t) => t.includes('finding Markdown files') || /^\d+\/\d+ /.test(t)));
     const rows = await wb.waitForProblem(/PR1/);
     expect(rows.some((r) => r.kind === 'resource' && r.text.includes(CLOSED_NOTE))).toBe(true);
     await wb.screenshot('check-all');
+  }, 90_000);
+
+  it("switches a note that has its own units: line by rewriting that line", async () => {
+    const wb = session.workbench;
+    await wb.openFile(UNITS_NOTE);
+    await wb.waitForEditorLine(/^state ANTE: db=70F rh=45%.*°F/);
+    await wb.waitFor('the status bar to show the note\'s IP', async () => (await wb.statusBar()).find((t) => t.includes('IP · 14.696 psia')));
+    await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
+    await wb.waitForEditorLine(/^units: SI$/);
+    await wb.waitForEditorLine(/^state ANTE: db=70F rh=45%.*°C/);
+    const saved = await wb.saveAndRead(UNITS_NOTE);
+    expect(saved).toBe(unitsText.replace('units: IP', 'units: SI'));
+    await wb.screenshot('units-line');
   }, 90_000);
 });
