@@ -20,19 +20,32 @@ export const T_MIN_C = -100;
 export const T_MAX_C = 200;
 
 // Eq 5, over ice, −100…0.01 °C (T in K, pws in Pa). Exported for the wet-bulb iteration.
+/** Eq 5 coefficient C1. */
 export const C1 = -5.6745359e3;
+/** Eq 5 coefficient C2. */
 export const C2 = 6.3925247;
+/** Eq 5 coefficient C3. */
 export const C3 = -9.677843e-3;
+/** Eq 5 coefficient C4. */
 export const C4 = 6.2215701e-7;
+/** Eq 5 coefficient C5. */
 export const C5 = 2.0747825e-9;
+/** Eq 5 coefficient C6. */
 export const C6 = -9.484024e-13;
+/** Eq 5 coefficient C7. */
 export const C7 = 4.1635019;
 // Eq 6, over liquid water, 0.01…200 °C.
+/** Eq 6 coefficient C8. */
 export const C8 = -5.8002206e3;
+/** Eq 6 coefficient C9. */
 export const C9 = 1.3914993;
+/** Eq 6 coefficient C10. */
 export const C10 = -4.8640239e-2;
+/** Eq 6 coefficient C11. */
 export const C11 = 4.1764768e-5;
+/** Eq 6 coefficient C12. */
 export const C12 = -1.4452093e-8;
+/** Eq 6 coefficient C13. */
 export const C13 = 6.5459673;
 
 /** ln pws over ice, T in K (eq 5, unchecked). */
@@ -170,29 +183,32 @@ function guessInvT(y: number): number {
 export function satTempFromLn(y: number): number {
   const ice = y < LN_PWS_TRIPLE;
   satTempDeriv.ice = ice;
-  let t: number;
+  // Iterate in kelvin, keeping x = 1/T alongside T (the first guess gives x directly).
   let lo: number;
   let hi: number;
   if (ice) {
-    lo = 1 - ZERO_C_K;
-    hi = SWITCH_C;
+    lo = 1;
+    hi = SWITCH_C + ZERO_C_K;
   } else {
-    lo = SWITCH_C;
-    hi = T_MAX_C + 1;
+    lo = SWITCH_C + ZERO_C_K;
+    hi = T_MAX_C + 1 + ZERO_C_K;
   }
+  let T: number;
+  let x: number;
   if (y >= GYI && y <= GY3) {
-    t = 1 / guessInvT(y) - ZERO_C_K;
-  } else if (ice) {
-    // Far below −100 °C (extremely dry air): a Magnus-type guess over ice.
-    const a = y - 6.41543;
-    t = (272.62 * a) / (22.46 - a);
+    x = guessInvT(y);
+    T = 1 / x;
   } else {
-    t = T_MAX_C;
+    // Far below −100 °C (extremely dry air): a Magnus-type guess over ice; above 200 °C: 200 °C.
+    const a = y - 6.41543;
+    T = ice ? (272.62 * a) / (22.46 - a) + ZERO_C_K : T_MAX_C + ZERO_C_K;
+    x = 1 / T;
   }
-  if (!(t > lo && t < hi)) t = 0.5 * (lo + hi);
+  if (!(T > lo && T < hi)) {
+    T = 0.5 * (lo + hi);
+    x = 1 / T;
+  }
   for (let i = 0; i < MAX_SAT_ITER; i++) {
-    const T = t + ZERO_C_K;
-    const x = 1 / T;
     const lnT = Math.log(T);
     let f: number;
     let d1: number;
@@ -206,14 +222,14 @@ export function satTempFromLn(y: number): number {
       d1 = x * (C13 - C8 * x) + C10 + T * (2 * C11 + T * 3 * C12);
       d2 = x * x * (2 * C8 * x - C13) + 2 * C11 + T * 6 * C12;
     }
-    if (f < 0) lo = t;
-    else if (f > 0) hi = t;
-    // Halley step (cubic convergence), Newton if the correction is not well behaved.
+    if (f < 0) lo = T;
+    else if (f > 0) hi = T;
+    // Halley step, newton·(1 + c + c²) for newton/(1 − c): the same order, one division less.
     const inv = 1 / d1;
     const newton = f * inv;
-    const corr = 1 - 0.5 * newton * d2 * inv;
-    const step = corr > 0.5 && corr < 2 ? newton / corr : newton;
-    let next = t - step;
+    const c = 0.5 * newton * d2 * inv;
+    const step = c > -0.5 && c < 0.5 ? newton * (1 + c * (1 + c)) : newton;
+    let next = T - step;
     // Halley's error after a step s is ~ C s³ with C < 1e-2 K⁻² on this range: < 1e-10 K here.
     const done = Math.abs(step) < 2e-3;
     if (!done && !(next > lo && next < hi)) next = 0.5 * (lo + hi);
@@ -222,9 +238,10 @@ export function satTempFromLn(y: number): number {
       satTempDeriv.d1 = d1;
       satTempDeriv.d2 = d2;
       satTempDeriv.iterations = i + 1;
-      return next;
+      return next - ZERO_C_K;
     }
-    t = next;
+    T = next;
+    x = 1 / T;
   }
   satTempDeriv.iterations = MAX_SAT_ITER;
   return Number.NaN;
