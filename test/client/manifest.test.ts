@@ -61,6 +61,8 @@ describe('extension manifest', () => {
     expect(manifest.main).toBe('./dist/client.js');
     expect(manifest.activationEvents).toContain('onLanguage:markdown');
     expect(manifest.engines.vscode).toBe('^1.91.0');
+    // dist/client.js is a CommonJS bundle: VS Code requires it, which fails in a "type": "module" package.
+    expect(manifest.type ?? 'commonjs', 'the root package must stay CommonJS').toBe('commonjs');
     expect(manifest.capabilities).toEqual({ untrustedWorkspaces: { supported: true }, virtualWorkspaces: true });
   });
 
