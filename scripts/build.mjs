@@ -25,8 +25,10 @@ const common = {
 
 const targets = [
   { entry: 'cli/src/main.ts', out: 'dist/cli.js', required: true },
-  { entry: 'server/src/main.ts', out: 'dist/server.js', required: false },
-  { entry: 'client/src/extension.ts', out: 'dist/client.js', required: false, external: ['vscode'] },
+  // The editor bundles ship in the .vsix: whitespace and syntax minified, names kept so that a
+  // stack trace in the server log still reads.
+  { entry: 'server/src/main.ts', out: 'dist/server.js', required: false, minify: true },
+  { entry: 'client/src/extension.ts', out: 'dist/client.js', required: false, external: ['vscode'], minify: true },
 ];
 
 // During `npm install` (the prepare script) a failing build only warns, so that installing the
@@ -44,7 +46,8 @@ for (const t of targets) {
     continue;
   }
   try {
-    await build({ ...common, entryPoints: [entry], outfile: join(root, t.out), external: t.external ?? [] });
+    const minify = t.minify ? { minifyWhitespace: true, minifySyntax: true } : {};
+    await build({ ...common, ...minify, entryPoints: [entry], outfile: join(root, t.out), external: t.external ?? [] });
     console.log(`built ${t.out}`);
   } catch (err) {
     failed++;
