@@ -10,7 +10,15 @@ import {
   DEFINING_KEYS,
   PsychroError,
   boilingPoint,
+  condensateEnthalpy,
+  dbFromEnthalpy,
+  density,
   dewPointFromHumRatio,
+  enthalpy,
+  humRatioFromEnthalpy,
+  iceEnthalpy,
+  liquidWaterEnthalpy,
+  specificVolume,
   dewPointFromVapPres,
   humRatioFromVapPres,
   relHumFromHumRatio,
@@ -182,6 +190,16 @@ describe('every invalid input class gets a typed problem', () => {
     expect(codeOf(() => stateFromDbW(20, -1, 101325))).toBe('negative-humidity-ratio');
     expect(codeOf(() => stdAtmPressure(20000))).toBe('out-of-range');
     expect(codeOf(() => stdAtmPressure(Number.NaN))).toBe('out-of-range');
+    // The closed-form helpers check their inputs too: no NaN in, so no NaN out.
+    expect(codeOf(() => enthalpy(Number.NaN, 0.01))).toBe('out-of-range');
+    expect(codeOf(() => enthalpy(20, -0.01))).toBe('negative-humidity-ratio');
+    expect(codeOf(() => dbFromEnthalpy(Number.POSITIVE_INFINITY, 0.01))).toBe('out-of-range');
+    expect(codeOf(() => humRatioFromEnthalpy(40000, 300))).toBe('out-of-range');
+    expect(codeOf(() => specificVolume(20, 0.01, 0))).toBe('out-of-range');
+    expect(codeOf(() => density(20, Number.NaN, 101325))).toBe('out-of-range');
+    expect(codeOf(() => condensateEnthalpy(Number.NaN))).toBe('out-of-range');
+    expect(codeOf(() => liquidWaterEnthalpy(Number.NaN))).toBe('out-of-range');
+    expect(codeOf(() => iceEnthalpy(Number.NaN))).toBe('out-of-range');
   });
 
   it('iterations are bounded: a root finder that hits its bound says so (NaN → no-convergence), never loops', () => {

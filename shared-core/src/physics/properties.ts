@@ -8,6 +8,17 @@ import { checkHumRatio, checkPressure, checkRelHum, pressureBelowSaturation } fr
 import { fmtNum, fmtPa } from './format';
 import { checkTemperature, pwsRaw } from './saturation';
 
+function checkFinite(x: number, what: string): void {
+  if (!Number.isFinite(x)) {
+    throw new PsychroError({
+      code: 'out-of-range',
+      message: `${what} ${String(x)} is not a finite number.`,
+      fix: `Give the ${what.toLowerCase()} as a finite number.`,
+      keys: [],
+    });
+  }
+}
+
 /** Ratio of the molar masses of water and dry air, 18.015268 / 28.966 (eq 20 constant). */
 export const EPSILON = 0.621945;
 /** Gas constant of dry air, J/(kg·K) (eq 26: 0.287042 kJ/(kg·K)). */
@@ -66,7 +77,10 @@ export function satHumRatio(tC: number, p: number): number {
   return (EPSILON * pws) / (p - pws);
 }
 
-/** Relative humidity, fraction, from dry-bulb t °C, humidity ratio w and pressure p Pa (eqs 20, 24). */
+/**
+ * Relative humidity, fraction, from dry-bulb t °C, humidity ratio w and pressure p Pa (eqs 20, 24).
+ * Above 1 for supersaturated input (no clamp; `solveState` reports that as `supersaturated`).
+ */
 export function relHumFromHumRatio(tC: number, w: number, p: number): number {
   checkTemperature(tC, 'Dry-bulb');
   checkPressure(p);
@@ -98,21 +112,30 @@ export function degreeOfSaturation(tC: number, w: number, p: number): number {
 
 /** Specific enthalpy of moist air, J/kg dry air, at t °C and humidity ratio w (eq 30). */
 export function enthalpy(tC: number, w: number): number {
+  checkTemperature(tC, 'Dry-bulb');
+  checkHumRatio(w);
   return CP_DA * tC + w * (H_FG0 + CP_WV * tC);
 }
 
-/** Dry-bulb, °C, from enthalpy h J/kg and humidity ratio w (eq 30 solved for t). */
+/** Dry-bulb, °C, from enthalpy h J/kg and humidity ratio w (eq 30 solved for t; not range-checked). */
 export function dbFromEnthalpy(h: number, w: number): number {
+  checkFinite(h, 'Enthalpy');
+  checkHumRatio(w);
   return (h - H_FG0 * w) / (CP_DA + CP_WV * w);
 }
 
 /** Humidity ratio, kg/kg, from enthalpy h J/kg and dry-bulb t °C (eq 30 solved for W; may be negative). */
 export function humRatioFromEnthalpy(h: number, tC: number): number {
+  checkFinite(h, 'Enthalpy');
+  checkTemperature(tC, 'Dry-bulb');
   return (h - CP_DA * tC) / (H_FG0 + CP_WV * tC);
 }
 
 /** Specific volume, m³/kg dry air, at t °C, humidity ratio w and pressure p Pa (eq 26). */
 export function specificVolume(tC: number, w: number, p: number): number {
+  checkTemperature(tC, 'Dry-bulb');
+  checkHumRatio(w);
+  checkPressure(p);
   return (R_DA * (tC + 273.15) * (1 + 1.607858 * w)) / p;
 }
 
@@ -153,15 +176,18 @@ export function stdAtmTemperature(z: number): number {
 
 /** Enthalpy of liquid water, J/kg, at t °C (datum liquid at 0 °C): 4.186 t kJ/kg. */
 export function liquidWaterEnthalpy(tC: number): number {
+  checkFinite(tC, 'Water temperature');
   return CP_W * tC;
 }
 
 /** Enthalpy of ice, J/kg, at t °C (datum liquid water at 0 °C): −333.4 + 2.1 t kJ/kg. */
 export function iceEnthalpy(tC: number): number {
+  checkFinite(tC, 'Ice temperature');
   return H_ICE0 + CP_ICE * tC;
 }
 
 /** Enthalpy of condensed water, J/kg, at t °C: ice below 0 °C, liquid from 0 °C. */
 export function condensateEnthalpy(tC: number): number {
+  checkFinite(tC, 'Water temperature');
   return tC < 0 ? H_ICE0 + CP_ICE * tC : CP_W * tC;
 }
