@@ -46,21 +46,6 @@ function problem(code: PhysicsProblem['code'], message: string, fix: string, key
   return new PsychroError({ code, message, fix, keys });
 }
 
-function fmtKey(k: DefiningKey, x: number): string {
-  switch (k) {
-    case 'db':
-    case 'wb':
-    case 'dp':
-      return fmtT(x);
-    case 'rh':
-      return fmtRh(x);
-    case 'w':
-      return fmtW(x);
-    case 'h':
-      return fmtH(x);
-  }
-}
-
 /** A computed dry-bulb outside −100…200 °C. */
 function dbOutOfRange(db: number, keys: DefiningKey[]): PsychroError {
   return problem(
@@ -300,13 +285,13 @@ function solveOrThrow(
 }
 
 /**
- * Whether the root of f lies within round-off (1e-9 K) beyond the range end x, where f(x) = fx
- * has the wrong sign: judged from the local slope.
+ * Whether the root of f lies within round-off (RANGE_ROUNDOFF_K) beyond the range end x, where
+ * f(x) = fx has the wrong sign: judged from the local slope.
  */
 function rootWithinRoundoff(f: (x: number) => number, x: number, fx: number): boolean {
   const d = x > 0 ? -1e-3 : 1e-3; // step back into the range
   const slope = (fx - f(x + d)) / -d;
-  return Number.isFinite(slope) && slope !== 0 && Math.abs(fx / slope) <= TEMP_ROUNDOFF_K;
+  return Number.isFinite(slope) && slope !== 0 && Math.abs(fx / slope) <= RANGE_ROUNDOFF_K;
 }
 
 /** Range and sign checks of one input value. */

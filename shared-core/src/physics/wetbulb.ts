@@ -250,8 +250,10 @@ export function wetBulbSolve(
 
 /**
  * Thermodynamic wet-bulb, °C, from dry-bulb db °C, humidity ratio w kg/kg and pressure p Pa:
- * safeguarded Newton on eq 33/35, bracketed by [dew point, min(db, boiling point at p)],
- * converged to 1e-6 K or better. Throws `supersaturated` (w above saturation at db),
+ * safeguarded Newton (Halley) steps on eq 33/35, bracketed by [dew point, min(db, boiling point
+ * at p)], bisection when a step leaves the bracket, converged to better than 1e-8 K. In the narrow
+ * band of W, near a 0 °C wet-bulb, where eq 33 (water) and eq 35 (ice) both have a root, the eq 33
+ * root is returned. Throws `supersaturated` (w above saturation at db),
  * `negative-humidity-ratio`, `out-of-range` or `no-convergence`.
  */
 export function wetBulbFromHumRatio(db: number, w: number, p: number): number {
