@@ -94,10 +94,10 @@ function fmtErr(x: number): string {
 
 /** Runs the engine benchmark and prints its figures. */
 export async function benchEngine(): Promise<void> {
-  // The engine is loaded with dynamic imports so that tsx links it as ES modules, the way the
-  // shipped esbuild bundle links it (one scope). tsx's per-file CommonJS transform, which static
-  // imports from this file would get, puts a property getter on every cross-module call and makes
-  // the engine about 3× slower than it ships.
+  // The engine is loaded with dynamic imports so that tsx links it as ES modules (close to the
+  // shipped esbuild bundle, one scope) even if this file runs in CommonJS mode: tsx's per-file
+  // CommonJS transform puts a property getter on every cross-module call and makes the engine
+  // about 3× slower than it ships.
   const E: Engine = await import('../shared-core/src/physics');
   const I: Internals = { ...(await import('../shared-core/src/physics/wetbulb')), ...(await import('../shared-core/src/physics/saturation')) };
   const { humRatioFromRelHum, humRatioFromWetBulb, satVapPres, solveState, wetBulbFromHumRatio, dewPointFromVapPres } = E;
