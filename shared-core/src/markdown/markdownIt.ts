@@ -447,12 +447,16 @@ function useFastTokens(md: Md): void {
      */
     constructor(src: string, mdIn: Md, env: Env, tokens: Token[]) {
       super('', mdIn, env, tokens);
-      const bMarks: number[] = [];
-      const eMarks: number[] = [];
-      const tShift: number[] = [];
-      const sCount: number[] = [];
-      const bsCount: number[] = [];
       const len = src.length;
+      // Count the lines first so that the five arrays are allocated once, at their final size.
+      let lines = 1;
+      for (let i = src.indexOf('\n'); i >= 0; i = src.indexOf('\n', i + 1)) lines++;
+      const bMarks = new Array<number>(lines + 1);
+      const eMarks = new Array<number>(lines + 1);
+      const tShift = new Array<number>(lines + 1);
+      const sCount = new Array<number>(lines + 1);
+      const bsCount = new Array<number>(lines + 1);
+      let n = 0;
       let start = 0;
       while (start < len) {
         const nl = src.indexOf('\n', start);
@@ -466,19 +470,22 @@ function useFastTokens(md: Md): void {
           else break;
         }
         if (nl < 0 && p === lineEnd) break;
-        bMarks.push(start);
-        eMarks.push(lineEnd);
-        tShift.push(p - start);
-        sCount.push(offset);
-        bsCount.push(0);
+        bMarks[n] = start;
+        eMarks[n] = lineEnd;
+        tShift[n] = p - start;
+        sCount[n] = offset;
+        bsCount[n] = 0;
+        n++;
         if (nl < 0) break;
         start = nl + 1;
       }
-      bMarks.push(len);
-      eMarks.push(len);
-      tShift.push(0);
-      sCount.push(0);
-      bsCount.push(0);
+      bMarks[n] = len;
+      eMarks[n] = len;
+      tShift[n] = 0;
+      sCount[n] = 0;
+      bsCount[n] = 0;
+      n++;
+      bMarks.length = eMarks.length = tShift.length = sCount.length = bsCount.length = n;
       this.src = src;
       this.bMarks = bMarks;
       this.eMarks = eMarks;
