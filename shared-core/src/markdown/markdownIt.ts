@@ -68,6 +68,8 @@ export interface Collector {
   inlineState: StateInline | null;
   spans: RawCodeSpan[];
   headings: RawHeading[];
+  /** Inline tokens that may hold a code span (they have an {@link InlineMap}), in document order. */
+  inlines: Token[];
 }
 
 /** A heading as recorded by the wrapped `heading`/`lheading` rules. */
@@ -86,6 +88,15 @@ export type ScanEnv = Env & { dewmark: Collector };
 
 type BlockRule = (state: StateBlock, startLine: number, endLine: number, silent: boolean) => boolean;
 type InlineRule = (state: StateInline, silent: boolean) => boolean;
+
+/**
+ * Forgets the tokens a leaf-block rule just pushed (from index `n`), once recorded: nothing reads
+ * them back (markdown-it's tight-list marking only looks for paragraphs, which stay in threes or
+ * go whole), and a long note's token list would otherwise stay alive through the whole parse.
+ */
+function dropTokens(state: StateBlock, n: number): void {
+  if (state.tokens.length > n) state.tokens.length = n;
+}
 
 /** Deepest nesting of containers (and of inline links) followed; deeper content is not read. */
 export const MAX_NESTING = 100;
@@ -248,6 +259,7 @@ export function createMarkdownIt(): Md {
       const indent = state.sCount[startLine] as number;
       recordBlock(state, 'fence', token, startLine + 1, closed ? last : state.line, indent, closed);
     }
+    dropTokens(state, n);
     return ok;
   });
 
@@ -259,6 +271,7 @@ export function createMarkdownIt(): Md {
     if (token && token.type === 'code_block') {
       recordBlock(state, 'indented', token, startLine, state.line, 4 + state.blkIndent, true);
     }
+    dropTokens(state, n);
     return ok;
   });
 
@@ -267,6 +280,7 @@ export function createMarkdownIt(): Md {
     if (!token || token.type !== 'inline') return;
     if (token.content.indexOf('`') < 0) return; // no backtick, no code span: nothing to map
     token.meta = { dewmarkMap: inlineMap(state, begin, end, state.blkIndent) };
+    collectorOf(state.env)?.inlines.push(token);
   };
 
   const recordHeading = (state: StateBlock, openIndex: number, startLine: number, lastLine: number): void => {
@@ -283,16 +297,28 @@ export function createMarkdownIt(): Md {
   wrapBlock(md, 'paragraph', (orig) => (state, startLine, endLine, silent) => {
     const n = state.tokens.length;
     const ok = orig(state, startLine, endLine, silent);
-    if (ok && !silent) recordInline(state, n + 1, startLine, state.line);
+    if (ok && !silent) {
+      recordInline(state, n + 1, startLine, state.line);
+      dropTokens(state, n);
+    }
     return ok;
   });
 
   wrapBlock(md, 'lheading', (orig) => (state, startLine, endLine, silent) => {
     const n = state.tokens.length;
-    const ok = orig(state, startLine, endLine, silent);
+    const fast = state as StateBlock & { keepText?: boolean };
+    const keep = fast.keepText;
+    fast.keepText = true;
+    let ok: boolean;
+    try {
+      ok = orig(state, startLine, endLine, silent);
+    } finally {
+      fast.keepText = keep;
+    }
     if (ok && !silent) {
       recordInline(state, n + 1, startLine, state.line - 1);
       recordHeading(state, n, startLine, state.line - 1);
+      dropTokens(state, n);
     }
     return ok;
   });
@@ -310,8 +336,24 @@ export function createMarkdownIt(): Md {
       while (pos < max && isAsciiTrimmable(src.charCodeAt(pos))) pos++;
       const map: InlineMap = { firsts: [pos], pads: [0], pieceStarts: [0], lineEnds: [max], lead: 0 };
       token.meta = { dewmarkMap: map };
+      collectorOf(state.env)?.inlines.push(token);
     }
     recordHeading(state, n, startLine, startLine);
+    dropTokens(state, n);
+    return ok;
+  });
+
+  wrapBlock(md, 'html_block', (orig) => (state, startLine, endLine, silent) => {
+    const n = state.tokens.length;
+    const ok = orig(state, startLine, endLine, silent);
+    if (ok && !silent) dropTokens(state, n);
+    return ok;
+  });
+
+  wrapBlock(md, 'hr', (orig) => (state, startLine, endLine, silent) => {
+    const n = state.tokens.length;
+    const ok = orig(state, startLine, endLine, silent);
+    if (ok && !silent) dropTokens(state, n);
     return ok;
   });
 
@@ -448,14 +490,16 @@ function useFastTokens(md: Md): void {
     constructor(src: string, mdIn: Md, env: Env, tokens: Token[]) {
       super('', mdIn, env, tokens);
       const len = src.length;
-      // Count the lines first so that the five arrays are allocated once, at their final size.
+      // Count the lines first so that the five tables are allocated once, at their final size, as
+      // typed arrays (their storage is outside the garbage-collected heap; markdown-it only ever
+      // indexes them, and every value is an integer between -1 and the text's length).
       let lines = 1;
       for (let i = src.indexOf('\n'); i >= 0; i = src.indexOf('\n', i + 1)) lines++;
-      const bMarks = new Array<number>(lines + 1);
-      const eMarks = new Array<number>(lines + 1);
-      const tShift = new Array<number>(lines + 1);
-      const sCount = new Array<number>(lines + 1);
-      const bsCount = new Array<number>(lines + 1);
+      const bMarks = new Int32Array(lines + 1);
+      const eMarks = new Int32Array(lines + 1);
+      const tShift = new Int32Array(lines + 1);
+      const sCount = new Int32Array(lines + 1);
+      const bsCount = new Int32Array(lines + 1);
       let n = 0;
       let start = 0;
       while (start < len) {
@@ -485,14 +529,37 @@ function useFastTokens(md: Md): void {
       sCount[n] = 0;
       bsCount[n] = 0;
       n++;
-      bMarks.length = eMarks.length = tShift.length = sCount.length = bsCount.length = n;
+      const table = (a: Int32Array): number[] => a.subarray(0, n) as unknown as number[];
       this.src = src;
-      this.bMarks = bMarks;
-      this.eMarks = eMarks;
-      this.tShift = tShift;
-      this.sCount = sCount;
-      this.bsCount = bsCount;
-      this.lineMax = bMarks.length - 1;
+      this.bMarks = table(bMarks);
+      this.eMarks = table(eMarks);
+      this.tShift = table(tShift);
+      this.sCount = table(sCount);
+      this.bsCount = table(bsCount);
+      this.lineMax = n - 1;
+    }
+
+    /** While set, getLines always builds the text (a setext heading's text is kept for the outline). */
+    keepText = false;
+    /** The first backtick at or after `tickFrom` (-1: none), for {@link getLines}. */
+    private tickFrom = Number.POSITIVE_INFINITY;
+    private tickAt = -1;
+
+    /**
+     * markdown-it's getLines, except that it returns '' for lines holding no backtick: the text of
+     * paragraphs and code blocks is never read here unless a code span may be in it, and building
+     * it for every block of a long note is a large share of all allocation.
+     */
+    override getLines(begin: number, end: number, indent: number, keepLastLF: boolean): string {
+      if (!this.keepText && begin < end) {
+        const a = this.bMarks[begin] as number;
+        if (a < this.tickFrom || (this.tickAt >= 0 && this.tickAt < a)) {
+          this.tickFrom = a;
+          this.tickAt = this.src.indexOf('`', a);
+        }
+        if (this.tickAt < 0 || this.tickAt >= (this.eMarks[end - 1] as number)) return '';
+      }
+      return super.getLines(begin, end, indent, keepLastLF);
     }
 
     override push(type: string, tag: string, nesting: Token['nesting']): Token {

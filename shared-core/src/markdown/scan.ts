@@ -116,7 +116,7 @@ export function scanMarkdown(text: string, options: ScanOptions = {}): MarkdownS
   const result: MarkdownScan = { fences: [], indentedCode: [], codeSpans: [], headings: [] };
   if (src.length === 0) return result;
   const md = markdownIt();
-  const col: Collector = { blocks: [], inlineState: null, spans: [], headings: [] };
+  const col: Collector = { blocks: [], inlineState: null, spans: [], headings: [], inlines: [] };
   const env: ScanEnv = { dewmark: col };
   const tokens: Token[] = [];
   md.block.parse(src, md, env, tokens);
@@ -169,8 +169,7 @@ export function scanMarkdown(text: string, options: ScanOptions = {}): MarkdownS
     result.headings.push({ level: h.level, text: textOut, span: { start: h.start + base, end: h.end + base } });
   }
 
-  for (const token of tokens) {
-    if (token.type !== 'inline') continue;
+  for (const token of col.inlines) {
     const map = (token.meta as { dewmarkMap?: InlineMap } | null)?.dewmarkMap;
     if (!map || (options.inlineFilter && !options.inlineFilter(token.content))) continue;
     const state = new md.inline.State(token.content, md, env, []);
