@@ -28,9 +28,10 @@ export function fmtPa(p: number): string {
   return Math.abs(p) < 10_000 ? `${fmtNum(p, 4)} Pa` : `${fmtNum(p / 1000, 6)} kPa`;
 }
 
-/** A humidity ratio in g/kg. */
+/** A humidity ratio in g/kg (in kg/kg when it is too large to scale, e.g. 1e308). */
 export function fmtW(w: number): string {
-  return `${fmtNum(w * 1000, 4)} g/kg`;
+  const g = w * 1000;
+  return Number.isFinite(g) || !Number.isFinite(w) ? `${fmtNum(g, 4)} g/kg` : `${fmtNum(w, 4)} kg/kg`;
 }
 
 /** An enthalpy in kJ/kg. */

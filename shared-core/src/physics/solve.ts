@@ -135,7 +135,9 @@ function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
       message:
         s.w === 0
           ? 'Bone-dry air has no dew point (reported as −Infinity).'
-          : `The dew point ${fmtT(s.dp)} is below −100 °C: extrapolated from the ice equation.`,
+          : s.dp === Number.NEGATIVE_INFINITY
+            ? `The humidity ratio ${fmtW(s.w)} at ${fmtPa(s.p)} gives a vapour pressure too small to have a dew point (reported as −Infinity).`
+            : `The dew point ${fmtT(s.dp)} is below −100 °C: extrapolated from the ice equation.`,
       fix: 'Nothing to fix if the air is meant to be this dry.',
       keys: ['dp'],
     });
@@ -636,6 +638,15 @@ function fromRhH(rh: number, h: number, p: number, opts: SolveOptions | undefine
     return CP_DA * db + w * (H_FG0 + CP_WV * db) - h;
   };
   const fLo = f(T_MIN_C);
+  if (fLo === Number.POSITIVE_INFINITY) {
+    // rh·pws reaches p even at −100 °C: no temperature in range gives air at this rh.
+    throw problem(
+      'pressure-below-saturation',
+      `At ${fmtPa(p)}, air at ${fmtRh(rh)} would have a vapour pressure at or above the total pressure even at −100 °C (${fmtPa(rh * pwsAt(T_MIN_C))}).`,
+      'Check the pressure and its unit (101.325 kPa at sea level).',
+      keys,
+    );
+  }
   if (fLo > 0 && rootWithinRoundoff(f, T_MIN_C, fLo)) return stateAt(T_MIN_C, wAt(T_MIN_C), p, keys, opts, warnings);
   if (fLo > 0) {
     throw problem(
