@@ -137,7 +137,8 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
   });
   const total = mass.reduce((a, m) => a + m, 0);
   if (!(total > 0) || !Number.isFinite(total)) {
-    ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: the streams add to no flow at all; give at least one stream a positive amount`, span: spanUnion(...streams.map((s) => s.amountSpan)) });
+    const why = Number.isFinite(total) ? 'the streams add to no flow at all; give at least one stream a positive amount' : 'the stream flows are too large to add up; give realistic amounts';
+    ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: ${why}`, span: spanUnion(...streams.map((s) => s.amountSpan)) });
     return result;
   }
   const fractions = mass.map((m) => m / total);

@@ -197,6 +197,17 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
   // SHR is a share: given only when sensible and latent act in the same direction (0 ≤ SHR ≤ 1).
   const sameWay = sensible * latent >= 0 || Math.abs(dw) <= DW_STILL || Math.abs(latent) <= Math.max(1, 1e-3 * Math.abs(total));
   const shr = Math.abs(total) >= DH_STILL && sameWay ? sensible / total : null;
+  // A flow so large that a rate overflows (m=1e308kg/s) gives no figures, only an error.
+  if (massFlow !== null && ![massFlow, volumeFlow ?? 0, massFlow * total, massFlow * sensible, massFlow * latent, massFlow * dw, massFlow * coilPerKg].every(Number.isFinite)) {
+    ctx.report({
+      code: 'out-of-range',
+      severity: 'error',
+      message: `${what}: the dry-air flow ${flowProp ? `${flowProp.key}=${flowProp.q.quantity.number.text}${flowProp.q.unitText}` : `${formatSig(massFlow, 4)} kg/s`} is too large to compute the heat rates with; give a realistic flow`,
+      span: flowProp ? flowProp.q.quantity.span : stmt.from.span,
+    });
+    massFlow = null;
+    volumeFlow = null;
+  }
 
   const result: ProcessResult = {
     kind: 'process',
