@@ -2,7 +2,9 @@
  * Code actions. Quick fixes keyed on diagnostic codes — `missing-unit` on a temperature (add °C
  * or °F), `wb-above-db` (swap the two values), `claim-mismatch` (write the computed value),
  * `unknown-unit` with a suggestion (use it) — and one rewrite: convert a statement's written
- * values to the other unit system. Every edit replaces only the token it is about.
+ * values to the other unit system. Every edit replaces only the token it is about. A
+ * `stale-results-table` warning gets "refresh the table" (see `./resultsTables`, which also has
+ * the source actions that write the tables).
  */
 import { PROCESS_KEYS, SITE_KEYS, STATE_KEYS, type KeySpec } from '../evaluate/keys';
 import type { ClaimResult } from '../evaluate/types';
@@ -11,13 +13,14 @@ import type { Span } from '../text/types';
 import { deltaFromSI, displayUnit, formatInUnit, lookupUnit, toSI } from '../units';
 import type { Dimension, UnitDef, UnitSystem } from '../units/types';
 import { itemOf, overlaps, propsOf, statementAt, statementsIn } from './note';
+import { staleTableFix } from './resultsTables';
 import type { CancellationFlag, Edit, Note } from './types';
 
 /** One code action as plain data. */
 export interface FixAction {
   title: string;
-  /** `quickfix` fixes a diagnostic; `refactor` rewrites without one. */
-  kind: 'quickfix' | 'refactor';
+  /** `quickfix` fixes a diagnostic; `refactor` rewrites without one; `source` writes into the whole note (results tables). */
+  kind: 'quickfix' | 'refactor' | 'source';
   edits: Edit[];
   /** The diagnostic this action fixes, when it is a quick fix. */
   diagnostic?: CoreDiagnostic;
@@ -235,6 +238,9 @@ export function codeActions(note: Note, span: Span, token?: CancellationFlag): F
         break;
       case 'unknown-unit':
         out.push(...suggestedUnitFix(note, d));
+        break;
+      case 'stale-results-table':
+        out.push(...staleTableFix(note, d));
         break;
     }
   }

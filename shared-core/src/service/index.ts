@@ -19,6 +19,16 @@ export { definition, prepareRename, references, rename, renameProblem, type Defi
 export { codeActions, type FixAction } from './codeActions';
 export { countDiagnostics, noteDiagnostics } from './diagnostics';
 export { noteStatus, type NoteStatus } from './status';
+export {
+  countChanges,
+  resultsTableActions,
+  resultsTableEdits,
+  STALE_RESULTS_TABLE,
+  type TableChange,
+  type TableChangeKind,
+  type TablesPlan,
+  type TablesScope,
+} from './resultsTables';
 
 import { codeActions } from './codeActions';
 import { completions } from './completion';
@@ -27,6 +37,7 @@ import { hover } from './hover';
 import { inlayHints } from './inlayHints';
 import { definition, prepareRename, references, rename } from './navigation';
 import { analyzeText } from './note';
+import { resultsTableActions, resultsTableEdits } from './resultsTables';
 import { noteStatus } from './status';
 import { documentSymbols } from './symbols';
 
@@ -46,6 +57,8 @@ export function createLanguageService() {
     diagnostics: noteDiagnostics,
     countDiagnostics,
     noteStatus,
+    resultsTableEdits,
+    resultsTableActions,
   } as const;
 }
 

@@ -1,0 +1,253 @@
+/**
+ * The computed results of one ` ```air ` block as plain, already formatted data: the rows of its
+ * states and mixes, its processes and its problems (errors, warnings, failed claims), in the
+ * note's unit system. The Markdown preview's table and the results table written into a note are
+ * both drawn from this (see `./resultsTable`). Pure: analysis in, strings out.
+ */
+import type { Analysis, EvaluatedItem, ProcessKind, ProcessResult, StateResult } from '../evaluate/types';
+import type { AirRegion, CoreDiagnostic, Statement } from '../notation/ast';
+import type { Span } from '../text/types';
+import { displaySymbol, displayUnit, formatQuantity, lookupUnit } from '../units';
+import type { Dimension, UnitDef, UnitSystem } from '../units/types';
+
+/** A column of the states table: its key, the label shown, and the unit of its figures. */
+export interface ResultsColumn {
+  key: 'p' | 'db' | 'wb' | 'dp' | 'rh' | 'w' | 'h';
+  label: string;
+  unit: string;
+}
+
+/** One state or mix of a block. */
+export interface StateRowData {
+  name: string;
+  kind: 'state' | 'mix';
+  /** `ok`, `fog` (supersaturated, still computed) or `failed` (not computed: see the problems). */
+  status: 'ok' | 'fog' | 'failed';
+  /** What the name cell adds: the streams of a mix, `fog`, `not computed`; null for a plain state. */
+  detail: string | null;
+  /** One figure per column of {@link ResultsData.stateColumns}, `—` when there is none. */
+  values: string[];
+}
+
+/** One process of a block; rates with their unit (per kg of dry air when the flow is unknown). */
+export interface ProcessRowData {
+  name: string;
+  from: string;
+  to: string;
+  /** The kind in words (`cooling and dehumidifying`), `—` when unknown. */
+  kind: string;
+  total: string;
+  sensible: string;
+  latent: string;
+  shr: string;
+  water: string;
+  /** False when the figures are per kg of dry air (no flow was given). */
+  hasFlow: boolean;
+}
+
+/** An error or warning reported inside a block. */
+export interface ProblemData {
+  severity: 'error' | 'warning';
+  code: string;
+  /** The name of the statement it is about, when it has one. */
+  subject: string | null;
+  /** The message on one line. */
+  message: string;
+  /** The diagnostic's place in the note (for editors; the written table does not show it). */
+  span: Span;
+}
+
+/** Everything the results of one block show. */
+export interface ResultsData {
+  units: UnitSystem;
+  /** The columns of the states table (a pressure column only when the block's states differ in pressure). */
+  stateColumns: ResultsColumn[];
+  states: StateRowData[];
+  processes: ProcessRowData[];
+  problems: ProblemData[];
+  /** The pressure of every state of the block when they share one (`101.325 kPa`), else null. */
+  pressure: string | null;
+}
+
+/** The results of one fenced block, with the block. */
+export interface BlockResults {
+  region: AirRegion;
+  data: ResultsData;
+}
+
+/** Words for each kind of process. */
+const KIND_TEXT: Record<ProcessKind, string> = {
+  'sensible-heating': 'sensible heating',
+  'sensible-cooling': 'sensible cooling',
+  'cooling-dehumidifying': 'cooling and dehumidifying',
+  'heating-humidifying': 'heating and humidifying',
+  'heating-dehumidifying': 'heating and dehumidifying',
+  'cooling-humidifying': 'cooling and humidifying',
+  'evaporative-cooling': 'evaporative cooling',
+  humidifying: 'humidifying',
+  dehumidifying: 'dehumidifying',
+  'no-change': 'no change of state',
+};
+
+const NONE = '—';
+
+function figure(si: number | null | undefined, dimension: Dimension, system: UnitSystem): string {
+  if (si === null || si === undefined || !Number.isFinite(si)) return NONE;
+  return formatQuantity(si, dimension, system).valueText;
+}
+
+/** A difference in a unit, with its symbol: the scale converts, the datum offset does not apply. */
+function difference(si: number | null, dimension: Dimension, unit: UnitDef): string {
+  if (si === null || !Number.isFinite(si)) return NONE;
+  const asDelta: UnitDef = { ...unit, offset: 0 };
+  return formatQuantity(si, dimension, 'SI', { unit: asDelta }).text;
+}
+
+function symbolOf(dimension: Dimension, system: UnitSystem): string {
+  return displaySymbol(displayUnit(dimension, system));
+}
+
+/** The state-table columns for a unit system (with or without the pressure column). */
+export function stateColumns(system: UnitSystem, withPressure: boolean): ResultsColumn[] {
+  const t = symbolOf('temperature', system);
+  const cols: ResultsColumn[] = [
+    { key: 'db', label: 'db', unit: t },
+    { key: 'wb', label: 'wb', unit: t },
+    { key: 'dp', label: 'dp', unit: t },
+    { key: 'rh', label: 'rh', unit: '%' },
+    { key: 'w', label: 'w', unit: symbolOf('humidityRatio', system) },
+    { key: 'h', label: 'h', unit: symbolOf('enthalpy', system) },
+  ];
+  return withPressure ? [{ key: 'p', label: 'p', unit: symbolOf('pressure', system) }, ...cols] : cols;
+}
+
+/** A percentage at one decimal without a trailing `.0` (`25`, `33.3`). */
+function percent(fraction: number): string {
+  if (!Number.isFinite(fraction)) return NONE;
+  const t = (Math.round(fraction * 1000) / 10).toFixed(1);
+  return t.endsWith('.0') ? t.slice(0, -2) : t;
+}
+
+function stateRow(s: StateResult, cols: ResultsColumn[], system: UnitSystem): StateRowData {
+  const st = s.state;
+  const status = st === null ? 'failed' : st.fog ? 'fog' : 'ok';
+  const details: string[] = [];
+  if (s.kind === 'mix') {
+    const streams = (s.streams ?? []).map((x) => `${x.name} ${percent(x.fraction)} %`).join(' + ');
+    details.push(streams ? `mix: ${streams}` : 'mix');
+  }
+  if (status === 'fog') details.push('fog');
+  if (status === 'failed') details.push('not computed');
+  const values = cols.map((c) => {
+    if (c.key === 'p') return figure(s.pressure.pa, 'pressure', system);
+    if (!st) return NONE;
+    switch (c.key) {
+      case 'db':
+        return figure(st.db, 'temperature', system);
+      case 'wb':
+        return figure(st.wb, 'temperature', system);
+      case 'dp':
+        return figure(st.dp, 'temperature', system);
+      case 'rh':
+        return figure(st.rh, 'fraction', system);
+      case 'w':
+        return figure(st.w, 'humidityRatio', system);
+      case 'h':
+        return figure(st.h, 'enthalpy', system);
+    }
+  });
+  return { name: s.name, kind: s.kind, status, detail: details.length > 0 ? details.join('; ') : null, values };
+}
+
+function processRow(p: ProcessResult, system: UnitSystem): ProcessRowData {
+  const hasFlow = p.massFlowKgS !== null;
+  const power = displayUnit('power', system);
+  const perKg = displayUnit('enthalpy', system);
+  const rate = (w: number | null, perKgJ: number) => (hasFlow ? difference(w, 'power', power) : difference(perKgJ, 'enthalpy', perKg));
+  let water: string;
+  if (hasFlow) water = difference(p.waterKgS, 'massFlow', lookupUnit(system === 'SI' ? 'kg/h' : 'lb/h')!);
+  else water = difference(p.dw, 'humidityRatio', displayUnit('humidityRatio', system));
+  return {
+    name: p.name,
+    from: p.from,
+    to: p.to,
+    kind: p.processKind ? KIND_TEXT[p.processKind] : NONE,
+    total: rate(p.qTotalW, p.dhTotal),
+    sensible: rate(p.qSensibleW, p.dhSensible),
+    latent: rate(p.qLatentW, p.dhLatent),
+    shr: p.shr === null || !Number.isFinite(p.shr) ? NONE : fixed2(p.shr),
+    water,
+    hasFlow,
+  };
+}
+
+function fixed2(x: number): string {
+  const t = x.toFixed(2);
+  return /^-0\.0+$/.test(t) ? t.slice(1) : t;
+}
+
+function nameOf(statement: Statement): string | null {
+  return 'name' in statement && statement.name ? statement.name.text : null;
+}
+
+/** Index of the first element whose span (as `spanOf` gives it) starts at or after `offset`. */
+function firstAtOrAfter<T>(list: readonly T[], offset: number, spanOf: (x: T) => Span): number {
+  let lo = 0;
+  let hi = list.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (spanOf(list[mid]!).start < offset) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/** The results of the items, statements and diagnostics that lie in `span`, shown in `system`. */
+function resultsIn(analysis: Analysis, span: Span, system: UnitSystem): ResultsData {
+  const items: EvaluatedItem[] = [];
+  for (let i = firstAtOrAfter(analysis.items, span.start, (x) => x.statement.span); i < analysis.items.length; i++) {
+    const item = analysis.items[i]!;
+    if (item.statement.span.start > span.end) break;
+    items.push(item);
+  }
+  const stateItems = items.filter((i): i is StateResult => i.kind !== 'process');
+  const pressures = new Set(stateItems.map((s) => figure(s.pressure.pa, 'pressure', system)));
+  const cols = stateColumns(system, pressures.size > 1);
+  const statements = analysis.parsed.statements;
+  const problems: ProblemData[] = [];
+  for (let i = firstAtOrAfter(analysis.diagnostics, span.start, (x) => x.span); i < analysis.diagnostics.length; i++) {
+    const d: CoreDiagnostic = analysis.diagnostics[i]!;
+    if (d.span.start > span.end) break;
+    if (d.severity === 'info') continue;
+    let subject: string | null = null;
+    for (let k = firstAtOrAfter(statements, span.start, (x) => x.span); k < statements.length; k++) {
+      const s = statements[k]!;
+      if (s.span.start > d.span.start) break;
+      if (d.span.start <= s.span.end) subject = nameOf(s);
+    }
+    problems.push({ severity: d.severity, code: d.code, subject, message: d.message.replace(/\s+/g, ' ').trim(), span: d.span });
+  }
+  return {
+    units: system,
+    stateColumns: cols,
+    states: stateItems.map((s) => stateRow(s, cols, system)),
+    processes: items.filter((i): i is ProcessResult => i.kind === 'process').map((p) => processRow(p, system)),
+    problems,
+    pressure: pressures.size === 1 ? `${[...pressures][0]} ${symbolOf('pressure', system)}` : null,
+  };
+}
+
+/** The results of one fenced block (`region` from `analysis.parsed.regions`), in `system` (default: the note's). */
+export function blockResults(analysis: Analysis, region: AirRegion, system: UnitSystem = analysis.units): ResultsData {
+  return resultsIn(analysis, region.span, system);
+}
+
+/** The results of every fenced ` ```air ` block of a note, in document order (inline code spans have none). */
+export function allBlockResults(analysis: Analysis, system: UnitSystem = analysis.units): BlockResults[] {
+  return analysis.parsed.regions.filter((r) => r.origin === 'fence').map((region) => ({ region, data: resultsIn(analysis, region.span, system) }));
+}
+
+/** True when a block has nothing to show (no states, processes or problems). */
+export function isEmptyResults(data: ResultsData): boolean {
+  return data.states.length === 0 && data.processes.length === 0 && data.problems.length === 0;
+}
