@@ -153,6 +153,16 @@ describe('dewmark check', () => {
     expect(JSON.parse(serial.stdout)).toEqual(doc);
   });
 
+  it('reports a stale results table as a warning with its code, and its position on the start marker', () => {
+    const fixture = join(root, 'test', 'fixtures', 'diagnostics', 'stale-results-table.md');
+    const r = dewmark(['check', fixture]);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/stale-results-table\.md:12:1: warning\[stale-results-table\]: the results table below the air block at line 6 is out of date: .*Insert or Refresh Results Table/);
+    expect(r.out).toContain('1 file, 0 errors, 1 warning');
+    expect(dewmark(['check', '--max-warnings', '0', fixture]).code).toBe(1);
+    expect(dewmark(['check', join(root, 'test', 'fixtures', 'features', 'results-table.md')]).out).toContain('1 file, 0 errors, 0 warnings');
+  });
+
   it('--elevation sets the default pressure (notes without a site line)', () => {
     const note = ['```air', 'state A: db=20C rh=50%', '```', ''].join('\n');
     const r = dewmark(['eval', '--format', 'json', '--elevation', '1000m', '-'], { input: note });

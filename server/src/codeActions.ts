@@ -1,13 +1,31 @@
-/** `textDocument/codeAction`: quick fixes keyed on diagnostic codes, and the unit-system rewrite. */
-import { CodeActionKind, type CodeAction, type Diagnostic } from 'vscode-languageserver/node';
-import { codeActions } from '../../shared-core/src/service';
+/**
+ * `textDocument/codeAction`: quick fixes keyed on diagnostic codes, the unit-system rewrite, and
+ * the source actions that write the results tables (offered when the user asks for actions, or
+ * for source actions, not on every cursor move).
+ */
+import { CodeActionKind, CodeActionTriggerKind, type CodeAction, type Diagnostic } from 'vscode-languageserver/node';
+import { codeActions, resultsTableActions, type FixAction } from '../../shared-core/src/service';
 import type { ServerContext } from './context';
 import { toSpan, toTextEdits } from './convert';
 import { DIAGNOSTIC_SOURCE } from './protocol';
 import { noteForRequest, runSafe } from './safe';
 
+/** The kind of the source actions that write results tables. */
+export const RESULTS_TABLE_ACTION_KIND = `${CodeActionKind.Source}.dewmark.resultsTable`;
+
 /** The code-action kinds the server offers. */
-export const CODE_ACTION_KINDS = [CodeActionKind.QuickFix, CodeActionKind.RefactorRewrite];
+export const CODE_ACTION_KINDS = [CodeActionKind.QuickFix, CodeActionKind.RefactorRewrite, RESULTS_TABLE_ACTION_KIND];
+
+const KIND: Record<FixAction['kind'], string> = {
+  quickfix: CodeActionKind.QuickFix,
+  refactor: CodeActionKind.RefactorRewrite,
+  source: RESULTS_TABLE_ACTION_KIND,
+};
+
+/** True when `kind` is asked for by `only` (a kind matches itself and its sub-kinds). */
+function wanted(only: readonly string[] | undefined, kind: string): boolean {
+  return !only || only.some((o) => kind === o || kind.startsWith(`${o}.`));
+}
 
 function sameRange(a: Diagnostic, b: { start: { line: number; character: number }; end: { line: number; character: number } }): boolean {
   return (
@@ -26,11 +44,15 @@ export function registerCodeActions(ctx: ServerContext): void {
       if (!found) return null;
       const { doc } = found;
       const only = params.context.only;
-      const actions = codeActions(found.note, toSpan(doc, params.range), token);
+      const span = toSpan(doc, params.range);
+      const actions = codeActions(found.note, span, token);
+      // Writing tables formats every block: only when asked (invoked, or source actions requested).
+      const asked = params.context.triggerKind === CodeActionTriggerKind.Invoked || (only?.some((o) => wanted([o], RESULTS_TABLE_ACTION_KIND)) ?? false);
+      if (asked && wanted(only, RESULTS_TABLE_ACTION_KIND)) actions.push(...resultsTableActions(found.note, span, token));
       const out: CodeAction[] = [];
       for (const a of actions) {
-        const kind = a.kind === 'quickfix' ? CodeActionKind.QuickFix : CodeActionKind.RefactorRewrite;
-        if (only && !only.some((o) => kind === o || kind.startsWith(`${o}.`))) continue;
+        const kind = KIND[a.kind];
+        if (!wanted(only, kind)) continue;
         const action: CodeAction = { title: a.title, kind, edit: { changes: { [doc.uri]: toTextEdits(doc, a.edits) } } };
         if (a.preferred) action.isPreferred = true;
         if (a.diagnostic) {

@@ -21,6 +21,7 @@ import { registerHover } from './hover';
 import { registerInlayHints } from './inlayHints';
 import { registerNavigation } from './navigation';
 import { registerNoteStatus } from './noteStatus';
+import { EXECUTE_COMMANDS, registerResultsTable } from './resultsTable';
 import { CHECK_WORKSPACE_METHOD, NOTE_STATUS_METHOD } from './protocol';
 import { registerSymbols } from './symbols';
 
@@ -47,6 +48,7 @@ export function serverCapabilities(ctx: ServerContext): ServerCapabilities {
     referencesProvider: true,
     renameProvider: ctx.client.prepareRename ? { prepareProvider: true } : true,
     codeActionProvider: { codeActionKinds: CODE_ACTION_KINDS, resolveProvider: false },
+    executeCommandProvider: { commands: EXECUTE_COMMANDS },
     workspace: { workspaceFolders: { supported: true, changeNotifications: true } },
     experimental: { dewmark: { checkWorkspace: CHECK_WORKSPACE_METHOD, noteStatus: NOTE_STATUS_METHOD } },
   };
@@ -109,6 +111,7 @@ export function main(argv: readonly string[]): void {
   registerCodeActions(ctx);
   registerCheckWorkspace(ctx, diagnostics);
   registerNoteStatus(ctx);
+  registerResultsTable(ctx);
 
   notes.listen(connection);
   connection.listen();

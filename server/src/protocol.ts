@@ -63,3 +63,34 @@ export const SETTINGS_SECTION = 'dewmark';
 
 /** The `source` of every diagnostic the server reports. */
 export const DIAGNOSTIC_SOURCE = 'dewmark';
+
+/**
+ * `workspace/executeCommand` command that computes the results tables of a note: the edit that
+ * inserts or refreshes the Markdown table below one ` ```air ` block (the one at `position`) or
+ * below every block (`all`). The server only answers with the edit; the client applies it.
+ */
+export const RESULTS_TABLE_COMMAND = 'dewmark.server.resultsTables';
+
+/** The one argument of {@link RESULTS_TABLE_COMMAND}. */
+export interface ResultsTableParams {
+  textDocument: { uri: string };
+  /** The block at this position (in the block, or in its written table). */
+  position?: WirePosition;
+  /** Every block of the note (wins over `position`). */
+  all?: boolean;
+}
+
+/** Result of {@link RESULTS_TABLE_COMMAND} (null for a document that is not open). */
+export interface ResultsTableResult {
+  /** An LSP WorkspaceEdit (versioned when the client supports it); null when nothing changes. */
+  edit: unknown;
+  /** Blocks looked at (0 when `position` is in no fenced air block). */
+  blocks: number;
+  inserted: number;
+  refreshed: number;
+  unchanged: number;
+  /** Tables whose end marker is missing (left alone; their diagnostic says how to fix them). */
+  unterminated: number;
+  /** The document version the edit is for. */
+  version: number;
+}

@@ -36,10 +36,11 @@ describe('initialize', () => {
       expect(caps.definitionProvider).toBe(true);
       expect(caps.referencesProvider).toBe(true);
       expect(caps.renameProvider).toEqual({ prepareProvider: true });
-      expect(caps.codeActionProvider).toEqual({ codeActionKinds: ['quickfix', 'refactor.rewrite'], resolveProvider: false });
+      expect(caps.codeActionProvider).toEqual({ codeActionKinds: ['quickfix', 'refactor.rewrite', 'source.dewmark.resultsTable'], resolveProvider: false });
+      expect(caps.executeCommandProvider).toEqual({ commands: ['dewmark.server.resultsTables'] });
       expect(caps.diagnosticProvider).toEqual({ identifier: 'dewmark', interFileDependencies: false, workspaceDiagnostics: false });
       expect(caps.experimental).toEqual({ dewmark: { checkWorkspace: 'dewmark/checkWorkspace', noteStatus: 'dewmark/noteStatus' } });
-      for (const absent of ['semanticTokensProvider', 'documentFormattingProvider', 'signatureHelpProvider', 'foldingRangeProvider', 'executeCommandProvider', 'workspaceSymbolProvider']) {
+      for (const absent of ['semanticTokensProvider', 'documentFormattingProvider', 'signatureHelpProvider', 'foldingRangeProvider', 'workspaceSymbolProvider']) {
         expect(caps[absent], absent).toBeUndefined();
       }
       // The configuration change notification is registered dynamically once initialized.
