@@ -126,6 +126,7 @@ export const fields = {
       { command: 'dewmark.switchUnits', title: 'Switch Result Units (SI/IP)', category, icon: '$(symbol-ruler)' },
       { command: 'dewmark.checkWorkspace', title: 'Check All Notes in the Workspace', category, icon: '$(checklist)' },
       { command: 'dewmark.showChart', title: 'Show Psychrometric Chart', category, icon: '$(graph)' },
+      { command: 'dewmark.insertResultsTable', title: 'Insert or Refresh Results Table', category, icon: '$(table)' },
       { command: 'dewmark.restartServer', title: 'Restart Language Server', category, icon: '$(debug-restart)' },
       { command: 'dewmark.showLog', title: 'Show Server Log', category, icon: '$(output)' },
     ],
@@ -134,10 +135,14 @@ export const fields = {
         { command: 'dewmark.switchUnits', when: 'editorLangId == markdown' },
         { command: 'dewmark.checkWorkspace', when: 'workspaceFolderCount > 0' },
         { command: 'dewmark.showChart', when: 'editorLangId == markdown' },
+        { command: 'dewmark.insertResultsTable', when: 'editorLangId == markdown && !editorReadonly' },
         { command: 'dewmark.restartServer' },
         { command: 'dewmark.showLog' },
       ],
     },
+    // The Markdown preview calls the extension's extendMarkdownIt (client/src/preview.ts).
+    'markdown.markdownItPlugins': true,
+    'markdown.previewStyles': ['./client/media/preview.css'],
     languages: [
       {
         id: 'dewmark-air',

@@ -8,6 +8,7 @@ export const COMMANDS = {
   switchUnits: { id: 'dewmark.switchUnits', title: 'Switch Result Units (SI/IP)' },
   checkWorkspace: { id: 'dewmark.checkWorkspace', title: 'Check All Notes in the Workspace' },
   showChart: { id: 'dewmark.showChart', title: 'Show Psychrometric Chart' },
+  insertResultsTable: { id: 'dewmark.insertResultsTable', title: 'Insert or Refresh Results Table' },
   restartServer: { id: 'dewmark.restartServer', title: 'Restart Language Server' },
   showLog: { id: 'dewmark.showLog', title: 'Show Server Log' },
 } as const;

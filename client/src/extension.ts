@@ -1,8 +1,9 @@
 /**
  * The Dewmark VS Code extension: a thin client. It starts the bundled language server
  * (dist/server.js) over node IPC, restarts it if it dies, and adds the commands and the
- * status-bar item and the chart panel. Hovers, hints, diagnostics and fixes come from the server;
- * the chart is drawn by the pure core in the extension host (client/src/chart.ts).
+ * status-bar item and the chart panel. Hovers, hints, diagnostics, fixes and the results-table
+ * edits come from the server; the chart (client/src/chart.ts) and the Markdown preview's results
+ * (client/src/preview.ts, through `extendMarkdownIt`) are drawn by the pure core in the extension host.
  */
 import { existsSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -17,7 +18,16 @@ import {
   type LanguageClientOptions,
   type ServerOptions,
 } from 'vscode-languageclient/node';
-import { CHECK_WORKSPACE_METHOD, SETTINGS_SECTION, type CheckWorkspaceParams, type CheckWorkspaceResult } from '../../server/src/protocol';
+import {
+  CHECK_WORKSPACE_METHOD,
+  RESULTS_TABLE_COMMAND,
+  SETTINGS_SECTION,
+  type CheckWorkspaceParams,
+  type CheckWorkspaceResult,
+  type ResultsTableParams,
+  type ResultsTableResult,
+} from '../../server/src/protocol';
+import { readSettings, type ServiceSettings } from '../../shared-core/src/service';
 import type { ChartPanels } from './chart';
 import { COMMANDS, OUTPUT_CHANNEL } from './commands';
 import {
@@ -27,6 +37,7 @@ import {
   type NoteStatusParams,
   type NoteStatusResult,
 } from './noteStatus';
+import { dewmarkPreviewPlugin } from './preview';
 import { RestartPolicy } from './restartPolicy';
 
 /** When this module was loaded (for the activation-time marker). */
@@ -35,10 +46,37 @@ const loadedAt = performance.now();
 /** URI schemes whose Markdown documents the server reads (local, unsaved and virtual files). */
 export const DOCUMENT_SCHEMES = ['file', 'untitled', 'vscode-vfs'] as const;
 
-/** What `activate` returns: lets tests and other extensions wait for the server. */
+/** What `activate` returns: lets tests and other extensions wait for the server, and extends the Markdown preview. */
 export interface DewmarkApi {
   /** Resolves once the language server is running (rejects when it could not start). */
   ready(): Promise<void>;
+  /** Called by VS Code's Markdown preview (`markdown.markdownItPlugins`): adds the results tables. */
+  extendMarkdownIt<T extends object>(md: T): T;
+}
+
+/** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */
+const SETTING_KEYS = ['units', 'pressure', 'elevation', 'inlayHints.properties', 'precision', 'checkClaims', 'hover.secondaryUnits'];
+
+/** The service settings for a document (or the window's when there is none), as the server reads them. */
+export function documentSettings(uri: vscode.Uri | undefined): ServiceSettings {
+  const cfg = vscode.workspace.getConfiguration(SETTINGS_SECTION, uri);
+  const raw: Record<string, unknown> = {};
+  for (const key of SETTING_KEYS) raw[key] = cfg.get(key);
+  return readSettings(raw).settings;
+}
+
+/** The preview's `env.currentDocument`, when VS Code passes it. */
+function previewDocument(env: unknown): vscode.Uri | undefined {
+  const doc = (env as { currentDocument?: unknown } | null | undefined)?.currentDocument;
+  return doc instanceof vscode.Uri ? doc : undefined;
+}
+
+/** Adds the results tables to the preview's markdown-it (with the note's settings). */
+function extendPreview<T extends object>(md: T, output: vscode.LogOutputChannel): T {
+  return dewmarkPreviewPlugin(md, {
+    settings: (env) => documentSettings(previewDocument(env)),
+    onError: (err) => output.error(`the preview's results could not be computed: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`),
+  });
 }
 
 /** Env var naming a file where the extension writes its activation timings (tests and benchmarks). */
@@ -253,6 +291,57 @@ async function checkWorkspace(ctl: ServerController): Promise<void> {
   if (choice === 'Show Problems') await vscode.commands.executeCommand('workbench.actions.view.problems');
 }
 
+/**
+ * `Dewmark: Insert or Refresh Results Table`: asks the server for the edit that writes the results
+ * table below the air block at the cursor (every block when the cursor is in none) and applies it.
+ */
+async function insertResultsTable(ctl: ServerController): Promise<void> {
+  const editor = activeNote();
+  if (!editor) {
+    void vscode.window.showInformationMessage('Dewmark: open a Markdown note first; the results tables are written below its air blocks.');
+    return;
+  }
+  await ctl.ready();
+  const doc = editor.document;
+  const c2p = ctl.client.code2ProtocolConverter;
+  const ask = async (all: boolean): Promise<ResultsTableResult | null> => {
+    const params: ResultsTableParams = { textDocument: { uri: c2p.asUri(doc.uri) }, ...(all ? { all: true } : { position: c2p.asPosition(editor.selection.active) }) };
+    return ctl.client.sendRequest<ResultsTableResult | null>('workspace/executeCommand', { command: RESULTS_TABLE_COMMAND, arguments: [params] });
+  };
+  let r: ResultsTableResult | null = null;
+  // The server answers for the text it has; ask again if the note changed meanwhile.
+  for (let attempt = 0; attempt < 3; attempt++) {
+    r = await ask(false);
+    if (r && r.blocks === 0) r = await ask(true);
+    if (!r || r.version === doc.version) break;
+  }
+  if (!r) {
+    void vscode.window.showWarningMessage('Dewmark: the language server does not have this note open; try again in a moment.');
+    return;
+  }
+  if (r.blocks === 0) {
+    void vscode.window.showInformationMessage('Dewmark: this note has no ```air block to write a results table for.');
+    return;
+  }
+  if (r.edit) {
+    const edit = await ctl.client.protocol2CodeConverter.asWorkspaceEdit(r.edit as Parameters<typeof ctl.client.protocol2CodeConverter.asWorkspaceEdit>[0]);
+    if (!edit || !(await vscode.workspace.applyEdit(edit))) {
+      void vscode.window.showErrorMessage('Dewmark: could not write the results table (is the file read-only, or did it change meanwhile?).');
+      return;
+    }
+  }
+  const parts = [
+    r.inserted > 0 ? `${r.inserted} inserted` : '',
+    r.refreshed > 0 ? `${r.refreshed} refreshed` : '',
+    r.unchanged > 0 ? `${r.unchanged} already up to date` : '',
+  ].filter(Boolean);
+  const tables = r.blocks === 1 ? 'results table' : 'results tables';
+  vscode.window.setStatusBarMessage(`Dewmark: ${tables} ${parts.join(', ') || 'unchanged'}`, 5000);
+  if (r.unterminated > 0) {
+    void vscode.window.showWarningMessage(`Dewmark: ${r.unterminated === 1 ? 'a results table has' : `${r.unterminated} results tables have`} no end marker and ${r.unterminated === 1 ? 'was' : 'were'} left alone; see its warning in the Problems view.`);
+  }
+}
+
 function writeMarker(data: Record<string, number | string>): void {
   const path = process.env[ACTIVATION_MARKER_ENV];
   if (!path) return;
@@ -275,7 +364,7 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
     const message = `Dewmark: the bundled language server is missing (${serverModule}). Reinstall the extension, or run "npm run build" in a development checkout.`;
     output.error(message);
     void vscode.window.showErrorMessage(message);
-    return { ready: () => Promise.reject(new Error(message)) };
+    return { ready: () => Promise.reject(new Error(message)), extendMarkdownIt: (md) => extendPreview(md, output) };
   }
   const ctl = new ServerController(serverModule, output);
   controller = ctl;
@@ -314,6 +403,7 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
         charts.show(editor.document);
       }),
     ),
+    vscode.commands.registerCommand(COMMANDS.insertResultsTable.id, guard('writing the results table', () => insertResultsTable(ctl))),
     vscode.commands.registerCommand(COMMANDS.showLog.id, () => output.show(true)),
     { dispose: () => void ctl.client.stop() },
   );
@@ -327,7 +417,7 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
       writeMarker({ activateMs, sinceLoadMs, error: String(err) });
     },
   );
-  return { ready: () => ctl.ready() };
+  return { ready: () => ctl.ready(), extendMarkdownIt: (md) => extendPreview(md, output) };
 }
 
 /** Called by VS Code on shutdown: stops the server. */

@@ -115,6 +115,7 @@ describe('extension manifest', () => {
       manifest.icon,
       ...(manifest.contributes.grammars as { path: string }[]).map((g) => g.path.replace(/^\.\//, '')),
       ...(manifest.contributes.languages as { configuration: string }[]).map((l) => l.configuration.replace(/^\.\//, '')),
+      ...(manifest.contributes['markdown.previewStyles'] as string[]).map((p) => p.replace(/^\.\//, '')),
       'LICENSE',
       'CHANGELOG.md',
     ];
