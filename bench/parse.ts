@@ -3,14 +3,15 @@
  * 10 000 lines with 2 000 statements — goal ≤ 8 ms median (the evaluator has the rest of the
  * 20 ms budget). The note is an invented building's: zone sections with prose, headings, nested
  * lists, block quotes, tables, other code blocks, keyword and ordinary code spans, and `air`
- * fences. Prints median and p95; runnable alone: `node --import tsx bench/parse.ts`.
+ * fences. Prints median and p95 with the goal and the load average; runnable alone:
+ * `node --import tsx bench/parse.ts`.
  */
 import { spawnSync } from 'node:child_process';
-import { cpus, loadavg } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { extractRegions } from '../shared-core/src/markdown/regions';
 import { parseNote } from '../shared-core/src/notation/parse';
+import { goalRow, infoRow } from './goals';
 
 const GOAL_MS = 8;
 
@@ -163,15 +164,11 @@ async function measure(flags: string): Promise<void> {
   );
   const all = time(() => parseNote(note), 80);
   const md = time(() => extractRegions(note), 80);
-  const med = percentile(all.wall, 0.5);
-  const load = loadavg()[0] ?? 0;
-  console.log(
-    `  median ${med.toFixed(2)} ms, p95 ${percentile(all.wall, 0.95).toFixed(2)} ms, min ${(all.wall[0] ?? 0).toFixed(2)} ms over ${all.wall.length} runs (goal ≤ ${GOAL_MS} ms median) ${med <= GOAL_MS ? 'OK' : 'OVER GOAL'}`,
-  );
-  console.log(`  of which finding the air regions (extractRegions): median ${percentile(md.wall, 0.5).toFixed(2)} ms, min ${(md.wall[0] ?? 0).toFixed(2)} ms`);
-  console.log(
-    `  CPU time per parse: median ${percentile(all.cpu, 0.5).toFixed(2)} ms (includes GC threads); load average ${load.toFixed(2)} on ${cpus().length} cores${load > cpus().length ? ' — the machine is busy, wall times are inflated' : ''}`,
-  );
+  console.log(goalRow('  parseNote (median of 80)', percentile(all.wall, 0.5), 'ms', GOAL_MS));
+  console.log(infoRow('    p95', percentile(all.wall, 0.95), 'ms'));
+  console.log(infoRow('    min', all.wall[0] ?? null, 'ms'));
+  console.log(infoRow('    of which finding the air regions (median)', percentile(md.wall, 0.5), 'ms'));
+  console.log(infoRow('    CPU time per parse (median, GC threads included)', percentile(all.cpu, 0.5), 'ms'));
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
