@@ -46,8 +46,12 @@ const SYSTEMS: CompletionEntry[] = [
 /** Dimensions a mix stream's amount may have. */
 const STREAM_DIMENSIONS: Dimension[] = ['fraction', 'massFlow', 'volumeFlow'];
 
-const NUMBER = String.raw`[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?`;
+// Each digit has one place to go, and no digit or point may follow: a long run of digits (a
+// pasted 1e4-digit number) is matched in linear time instead of being split every possible way.
+const NUMBER = String.raw`[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?(?![\d.])`;
 const NAME = String.raw`[A-Za-z][A-Za-z0-9_-]*`;
+/** A name that starts a word (not the tail of a longer name: linear time on long words). */
+const WORD_NAME = String.raw`(?<![A-Za-z0-9_-])${NAME}`;
 
 /** `key=NUMBER unit-so-far` at the end of the text before the cursor. */
 const AFTER_NUMBER = new RegExp(String.raw`(?:^|\s)([A-Za-z_]+)=${NUMBER}(\S*)$`);
@@ -155,7 +159,7 @@ export function completions(note: Note, offset: number, token?: CancellationFlag
     const rest = mix[2]!;
     const stream = /(?:^|\+)\s*([A-Za-z][A-Za-z0-9_-]*|)$/.exec(rest);
     if (stream) return result(nameEntries(note, offset, self), stream[1]!);
-    const amount = new RegExp(String.raw`${NAME}\s+${NUMBER}(\S*)$`).exec(rest);
+    const amount = new RegExp(String.raw`${WORD_NAME}\s+${NUMBER}(\S*)$`).exec(rest);
     if (amount) return result(unitEntries(STREAM_DIMENSIONS), amount[1]!);
     const k = /\s([A-Za-z_]*)$/.exec(rest);
     return k ? result(keyEntries(MIX_KEYS, keysWritten(rest)), k[1]!) : null;
