@@ -158,16 +158,19 @@ export function targetAt(note: Note, offset: number): Target | undefined {
   return { kind: 'statement', statement };
 }
 
-/** The offset where the line holding `offset` ends (before `\r\n` or `\n`). */
+/** The offset where the line holding `offset` ends (before `\r\n`, `\n` or a lone `\r`, as the Markdown reader splits lines). */
 export function lineEnd(text: string, offset: number): number {
   const nl = text.indexOf('\n', offset);
   const end = nl < 0 ? text.length : nl;
-  return end > 0 && text.charCodeAt(end - 1) === 13 ? end - 1 : end;
+  for (let i = offset; i < end; i++) if (text.charCodeAt(i) === 13) return i;
+  return end;
 }
 
-/** The offset where the line holding `offset` starts. */
+/** The offset where the line holding `offset` starts (after `\n` or a lone `\r`). */
 export function lineStart(text: string, offset: number): number {
-  return text.lastIndexOf('\n', offset - 1) + 1;
+  const nl = text.lastIndexOf('\n', offset - 1) + 1;
+  for (let i = offset; i > nl; i--) if (text.charCodeAt(i - 1) === 13) return i;
+  return nl;
 }
 
 /** The 1-based line number of `offset` (for messages). */
