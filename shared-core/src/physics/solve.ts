@@ -129,7 +129,7 @@ function fogWarning(t: number, w: number, ws: number, keys: DefiningKey[]): Phys
 /** Warnings about a finished state: temperatures extrapolated below the range, no saturation possible. */
 function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
   if (s.fog) return;
-  if (s.dp < T_MIN_C) {
+  if (s.dp < T_MIN_C - RANGE_ROUNDOFF_K) {
     warnings.push({
       code: 'out-of-range',
       message:
@@ -142,7 +142,7 @@ function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
       keys: ['dp'],
     });
   }
-  if (s.wb < T_MIN_C) {
+  if (s.wb < T_MIN_C - RANGE_ROUNDOFF_K) {
     warnings.push({
       code: 'out-of-range',
       message: `The wet-bulb ${fmtT(s.wb)} is below −100 °C: extrapolated from the ice equation.`,
