@@ -39,7 +39,8 @@ export function fmtH(h: number): string {
   return `${fmtNum(h / 1000, 5)} kJ/kg`;
 }
 
-/** A relative humidity (fraction) as a percentage. */
+/** A relative humidity (fraction) as a percentage (as a fraction when it is too large to scale). */
 export function fmtRh(rh: number): string {
-  return `${fmtNum(rh * 100, 4)} %`;
+  const pct = rh * 100;
+  return Number.isFinite(pct) || !Number.isFinite(rh) ? `${fmtNum(pct, 4)} %` : `${fmtNum(rh, 4)} (as a fraction)`;
 }

@@ -170,6 +170,16 @@ export function solveState(input: Partial<Record<DefiningKey, number>>, p: numbe
   const warnings: PhysicsProblem[] = [];
   try {
     const state = solveOrThrow(input, p, options, warnings);
+    // Only absurd figures (a pressure of 1e-320 Pa, a humidity ratio of 1e308) overflow a property.
+    const overflow = FINITE_KEYS.find((k) => !Number.isFinite(state[k]));
+    if (overflow) {
+      throw problem(
+        'out-of-range',
+        `At ${fmtPa(p)} these figures give a ${overflow === 'v' ? 'specific volume' : overflow === 'h' ? 'enthalpy' : `property (${overflow})`} that is not a finite number.`,
+        'Check the pressure and the humidity ratio: they are far outside any real air (101.325 kPa at sea level).',
+        DEFINING_KEYS.filter((k) => input[k] !== undefined),
+      );
+    }
     stateWarnings(state, warnings);
     return { ok: true, state, warnings };
   } catch (e) {
@@ -177,6 +187,9 @@ export function solveState(input: Partial<Record<DefiningKey, number>>, p: numbe
     throw e;
   }
 }
+
+/** Properties of a state that are finite for any real air (dp and ws may be infinite, see MoistAirState). */
+const FINITE_KEYS = ['db', 'wb', 'rh', 'w', 'h', 'v', 'rho', 'pw', 'pws', 'mu'] as const;
 
 // Bits of the defining keys, in the fixed order of DEFINING_KEYS.
 const DB = 1;
