@@ -330,13 +330,13 @@ async function insertResultsTable(ctl: ServerController): Promise<void> {
       return;
     }
   }
-  const parts = [
-    r.inserted > 0 ? `${r.inserted} inserted` : '',
-    r.refreshed > 0 ? `${r.refreshed} refreshed` : '',
-    r.unchanged > 0 ? `${r.unchanged} already up to date` : '',
-  ].filter(Boolean);
-  const tables = r.blocks === 1 ? 'results table' : 'results tables';
-  vscode.window.setStatusBarMessage(`Dewmark: ${tables} ${parts.join(', ') || 'unchanged'}`, 5000);
+  let said: string;
+  if (r.blocks === 1) said = r.inserted ? 'results table inserted' : r.refreshed ? 'results table refreshed' : r.unchanged ? 'results table already up to date' : 'results table left alone';
+  else {
+    const parts = [r.inserted ? `${r.inserted} inserted` : '', r.refreshed ? `${r.refreshed} refreshed` : '', r.unchanged ? `${r.unchanged} already up to date` : ''].filter(Boolean);
+    said = `results tables: ${parts.join(', ') || 'none changed'}`;
+  }
+  vscode.window.setStatusBarMessage(`Dewmark: ${said}`, 5000);
   if (r.unterminated > 0) {
     void vscode.window.showWarningMessage(`Dewmark: ${r.unterminated === 1 ? 'a results table has' : `${r.unterminated} results tables have`} no end marker and ${r.unterminated === 1 ? 'was' : 'were'} left alone; see its warning in the Problems view.`);
   }

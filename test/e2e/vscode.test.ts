@@ -61,6 +61,36 @@ async function chartView(page: unknown): Promise<ChartView | null> {
   return null;
 }
 
+/** What the Markdown preview shows under the air blocks: each results box's rows, notice and style. */
+interface PreviewResults {
+  boxes: { rows: string[][]; notice: string | null; borderLeft: string; background: string }[];
+  /** The text of the tables the note itself holds (a written results table renders as one). */
+  noteTables: string[];
+  /** The preview body's theme class (vscode-light, vscode-dark…). */
+  theme: string;
+}
+
+/** The Markdown preview's content, from whichever frame holds it (null while none does). */
+async function previewResults(page: unknown): Promise<PreviewResults | null> {
+  const frames = (page as { frames(): PwFrame[] }).frames();
+  for (const f of frames) {
+    const v = (await f
+      .evaluate(
+        `(() => { if (!document.querySelector('.markdown-body, body.vscode-body')) return null;
+          const boxes = [...document.querySelectorAll('.dewmark-results')].map((b) => { const cs = getComputedStyle(b);
+            return { rows: [...b.querySelectorAll('tbody tr')].map((tr) => [...tr.children].map((c) => (c.textContent || '').trim())),
+              notice: b.querySelector('.dewmark-results-notice') ? b.querySelector('.dewmark-results-notice').textContent : null,
+              borderLeft: cs.borderLeftWidth + ' ' + cs.borderLeftStyle, background: cs.backgroundColor }; });
+          const noteTables = [...document.querySelectorAll('table')].filter((t) => !t.closest('.dewmark-results')).map((t) => t.textContent || '');
+          if (boxes.length === 0 && noteTables.length === 0 && !document.querySelector('pre')) return null;
+          return { boxes, noteTables, theme: document.body.className }; })()`,
+      )
+      .catch(() => null)) as PreviewResults | null;
+    if (v) return v;
+  }
+  return null;
+}
+
 const fixtureText = readFileSync(join(REPO_ROOT, 'test', 'fixtures', 'e2e', FIXTURE_NOTE), 'utf8');
 /** A second note, never opened: only "Check All Notes" reads it. */
 const CLOSED_NOTE = 'plant-room.md';
@@ -244,4 +274,94 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     expect(saved).toBe(unitsText.replace('units: IP', 'units: SI'));
     await wb.screenshot('units-line');
   }, 90_000);
+
+  it('shows the computed results under the air block in the Markdown preview, styled by the extension', async () => {
+    const wb = session.workbench;
+    // Room for the note and its preview in the screenshots.
+    await wb.runCommand('Notifications: Clear All Notifications');
+    // Both are open here (the Problems view from the check-all test, the Explorer from the start).
+    await wb.runCommand('View: Toggle Panel Visibility');
+    await wb.runCommand('View: Toggle Primary Side Bar Visibility');
+    await wb.openFile(FIXTURE_NOTE);
+    await wb.runCommand('Markdown: Open Preview to the Side');
+    const view = await wb.waitFor('the preview with a results table', async () => {
+      const v = await previewResults(wb.page);
+      return v && v.boxes.length === 1 && v.boxes[0]!.rows.some((r) => r[0] === 'OA') ? v : undefined;
+    }, { timeoutMs: 60_000 });
+    await wb.screenshot('preview-results');
+    const box = view.boxes[0]!;
+    // The extension's stylesheet (markdown.previewStyles) applies: the box's left rule.
+    expect(box.borderLeft).toBe('3px solid');
+    // Columns: state, db, wb, dp, rh, w, h (°C, %, g/kg, kJ/kg). Figures: ASHRAE HoF 2017 SI Ch.1 Example 1.
+    const oa = box.rows.find((r) => r[0] === 'OA')!;
+    const w = readFigure(`w ${oa[5]} g/kg`, 'w', 'g/kg')!;
+    const h = readFigure(`h ${oa[6]} kJ/kg`, 'h', 'kJ/kg')!;
+    expect(Math.abs(w.value - EXAMPLE_1.w.value)).toBeLessThanOrEqual(EXAMPLE_1.w.tol + w.halfStep + 1e-9);
+    expect(Math.abs(h.value - EXAMPLE_1.h.value)).toBeLessThanOrEqual(EXAMPLE_1.h.tol + h.halfStep + 1e-9);
+    // The preview shows the editor's text: the state typed in the chart test is there too.
+    expect(box.rows.map((r) => r[0])).toEqual(expect.arrayContaining(['OA', 'RA', 'LOG7', 'SA9']));
+
+    expect(view.theme).toContain('vscode-light');
+
+    // In a dark theme the same box takes the dark theme's colours (the preview's --vscode-* variables).
+    await wb.page.keyboard.press('Control+K');
+    await wb.page.keyboard.press('Control+T');
+    await wb.page.waitForFunction('window.__dm.quickInputOpen()', undefined, { timeout: 10_000 });
+    await wb.page.keyboard.insertText('Dark Modern');
+    await wb.waitFor('the theme picker to list Dark Modern', async () => ((await wb.page.evaluate('window.__dm.quickInputRows()')) as { label: string; focused: boolean }[]).some((r) => r.label.includes('Dark Modern') && r.focused));
+    await wb.page.keyboard.press('Enter');
+    const dark = await wb.waitFor('the preview in the dark theme', async () => {
+      const v = await previewResults(wb.page);
+      return v && v.theme.includes('vscode-dark') && v.boxes.length === 1 ? v : undefined;
+    });
+    expect(dark.boxes[0]!.background).not.toBe(box.background);
+    await wb.screenshot('preview-results-dark');
+  }, 120_000);
+
+  it('writes the results table below the block with the palette command, and warns when the note changes without refreshing it', async () => {
+    const wb = session.workbench;
+    await wb.clickWord('OA', { line: 'state OA' });
+    const before = await wb.editorText();
+    await wb.clickWord('OA', { line: 'state OA' });
+    await wb.runCommand('Dewmark: Insert or Refresh Results Table');
+    await wb.waitForEditorLine(/^<!-- dewmark-results [0-9a-f]{8}: generated from the air block above/);
+    const saved = await wb.saveAndRead(FIXTURE_NOTE);
+    // Only the table was added, right below the block's closing fence.
+    const table = /\n\n<!-- dewmark-results [0-9a-f]{8}: [^\n]*-->\n[\s\S]*?<!-- dewmark-results end -->/.exec(saved);
+    expect(table, saved).not.toBeNull();
+    expect(saved.slice(0, table!.index) + saved.slice(table!.index + table![0].length)).toBe(before);
+    expect(saved.slice(0, table!.index).endsWith('```')).toBe(true);
+    expect(table![0]).toMatch(/\n\| OA +\| +40\.0 \| +20\.0 \|/);
+    // The preview now shows the written table and no second copy.
+    await wb.waitFor('the preview to show the written table only', async () => {
+      const v = await previewResults(wb.page);
+      return v && v.boxes.length === 0 && v.noteTables.some((t) => t.includes('OA')) ? v : undefined;
+    });
+    await wb.screenshot('preview-written-table');
+
+    // A new state in the block: the table is stale (a warning on its marker, a notice in the preview).
+    await wb.clickWord('RA', { line: 'state RA:' });
+    await wb.page.keyboard.press('End');
+    await wb.page.keyboard.press('Enter');
+    await wb.page.keyboard.insertText('state SB: db=16C rh=85%');
+    const rows = await wb.waitForProblem('stale-results-table');
+    const row = rows.find((r) => r.text.includes('stale-results-table') || r.ariaLabel.includes('stale-results-table'))!;
+    expect(row.severity).toBe('warning');
+    expect(`${row.text} ${row.ariaLabel}`).toContain('Insert or Refresh Results Table');
+    const stale = await wb.waitFor('the preview\'s stale-table notice', async () => {
+      const v = await previewResults(wb.page);
+      return v && v.boxes.length === 1 && v.boxes[0]!.notice ? v : undefined;
+    });
+    expect(stale.boxes[0]!.rows.map((r) => r[0])).toContain('SB');
+    await wb.screenshot('stale-results-table');
+
+    // Refreshing rewrites the table and the warning goes.
+    await wb.clickWord('SB', { line: 'state SB' });
+    await wb.runCommand('Dewmark: Insert or Refresh Results Table');
+    await wb.waitForEditorLine(/^\| SB +\| +16\.0 \|/);
+    await wb.waitFor('the stale warning to go', async () => !(await wb.problems()).some((r) => r.text.includes('stale-results-table') || r.ariaLabel.includes('stale-results-table')));
+    const refreshed = await wb.saveAndRead(FIXTURE_NOTE);
+    expect(refreshed.match(/<!-- dewmark-results [0-9a-f]{8}:/g)).toHaveLength(1);
+    expect(refreshed.match(/<!-- dewmark-results end -->/g)).toHaveLength(1);
+  }, 120_000);
 });
