@@ -718,11 +718,19 @@ class StatementParser {
       this.report('bad-number', `'${this.text.slice(start, n.end)}' is too large: write a finite number,${example || ' e.g. 1.2e3'}`, start, t.end);
       return null;
     }
+    const resolution = resolutionOf(n.fractionDigits, n.exponent);
+    if (!Number.isFinite(resolution)) {
+      // A finite value with a huge exponent (0e400): its last digit stands for more than a double holds.
+      const t = this.rawToken();
+      this.consume(t.end);
+      this.report('bad-number', `'${this.text.slice(start, n.end)}' has an exponent too large to compute with: write the number without it,${example || ' e.g. 0'}`, start, t.end);
+      return null;
+    }
     this.consume(n.end);
     return {
       value,
       text: n.written,
-      resolution: resolutionOf(n.fractionDigits, n.exponent),
+      resolution,
       span: this.span(start, n.end),
     };
   }
