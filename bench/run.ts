@@ -16,6 +16,7 @@ const suites: [file: string, fn: string][] = [
   ['notes.ts', 'benchNotes'],
   ['server.ts', 'benchServer'],
   ['extension.ts', 'benchExtension'],
+  ['robustness.ts', 'benchRobustness'],
 ];
 
 const only = process.argv.slice(2);
