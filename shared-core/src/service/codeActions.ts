@@ -166,6 +166,8 @@ function convertQuantity(q: QuantityNode, spec: KeySpec | null, dimension: Dimen
   if (q.unit && unit.system === system) return null;
   const target = displayUnit(dimension, system);
   const si = toSI(q.number.value, unit);
+  // A value that overflows in the other unit (1e308 kg/s in lb/h) is left as written.
+  if (!Number.isFinite((si - target.offset) / target.scale)) return null;
   let newText = convertedText(si, target);
   let span = valueSpan(q);
   const t = q.tolerance;
