@@ -12,7 +12,7 @@ import type { Note } from './types';
 export interface NoteStatus {
   units: 'SI' | 'IP';
   unitsSource: 'note' | 'setting';
-  /** The `SI`/`IP` word of the note's first `units:` line, when it has one. */
+  /** The `SI`/`IP` word of the `units:` line that sets the note's units (its first valid one), when it has one. */
   unitsSpan: Span | null;
   /** A short label: "101.325 kPa", "site 83.4 kPa". */
   pressureLabel: string;
@@ -23,7 +23,8 @@ export interface NoteStatus {
 /** The status of a note: its units and the pressure its first state (or the settings) use. */
 export function noteStatus(note: Note): NoteStatus {
   const a = note.analysis;
-  const unitsLine = a.parsed.statements.find((s) => s.keyword === 'units');
+  // The evaluator takes the first units: line that names SI or IP; an invalid one before it is skipped.
+  const unitsLine = a.parsed.statements.find((s) => s.keyword === 'units' && (s.system?.text === 'SI' || s.system?.text === 'IP'));
   const unitsSpan = unitsLine?.keyword === 'units' && unitsLine.system ? unitsLine.system.span : null;
   const first = a.items.find((i): i is StateResult => i.kind !== 'process');
   let pressureLabel: string;
