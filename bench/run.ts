@@ -14,6 +14,7 @@ const suites: [file: string, fn: string][] = [
   ['engine.ts', 'benchEngine'],
   ['parse.ts', 'benchParse'],
   ['notes.ts', 'benchNotes'],
+  ['preview.ts', 'benchPreview'],
   ['server.ts', 'benchServer'],
   ['extension.ts', 'benchExtension'],
   ['robustness.ts', 'benchRobustness'],

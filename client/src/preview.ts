@@ -75,8 +75,17 @@ function htmlByLine(src: string, settings: ServiceSettings): Map<number, string>
   return out;
 }
 
+/** The HTML of results without a notice, by their (reused, read-only) data. */
+const htmlByData = new WeakMap<ResultsData, string>();
+
 function html(data: ResultsData, notice: string | undefined): string {
-  return `${resultsTableHtml(data, notice ? { notice } : {})}\n`;
+  if (notice) return `${resultsTableHtml(data, { notice })}\n`;
+  let out = htmlByData.get(data);
+  if (out === undefined) {
+    out = `${resultsTableHtml(data)}\n`;
+    htmlByData.set(data, out);
+  }
+  return out;
 }
 
 /**

@@ -2,7 +2,9 @@
  * The computed results of one ` ```air ` block as plain, already formatted data: the rows of its
  * states and mixes, its processes and its problems (errors, warnings, failed claims), in the
  * note's unit system. The Markdown preview's table and the results table written into a note are
- * both drawn from this (see `./resultsTable`). Pure: analysis in, strings out.
+ * both drawn from this (see `./resultsTable`). Pure: analysis in, strings out. The data holds no
+ * source positions, so equal results give equal data, and formatted results are reused (treat
+ * the returned objects as read-only).
  */
 import type { Analysis, EvaluatedItem, ProcessKind, ProcessResult, StateResult } from '../evaluate/types';
 import type { AirRegion, CoreDiagnostic, Statement } from '../notation/ast';
@@ -53,8 +55,6 @@ export interface ProblemData {
   subject: string | null;
   /** The message on one line. */
   message: string;
-  /** The diagnostic's place in the note (for editors; the written table does not show it). */
-  span: Span;
 }
 
 /** Everything the results of one block show. */
@@ -202,6 +202,34 @@ function firstAtOrAfter<T>(list: readonly T[], offset: number, spanOf: (x: T) =>
   return lo;
 }
 
+/**
+ * Everything the shown results of some items depend on, as one string: the unit system, each
+ * item's figures at full precision, and the problems. Equal keys give equal results, so the
+ * formatted results can be reused from one analysis to the next (the editor analyses the note on
+ * every keystroke, and formatting is the dear part).
+ */
+function resultsKey(system: UnitSystem, items: readonly EvaluatedItem[], problems: readonly ProblemData[]): string {
+  const parts: (string | number | null | undefined | boolean)[] = [system];
+  for (const item of items) {
+    if (item.kind === 'process') {
+      const p = item;
+      parts.push('P', p.name, p.from, p.to, p.processKind, p.massFlowKgS, p.qTotalW, p.qSensibleW, p.qLatentW, p.dhTotal, p.dhSensible, p.dhLatent, p.shr, p.waterKgS, p.dw);
+    } else {
+      const st = item.state;
+      parts.push(item.kind, item.name, item.pressure.pa);
+      if (st) parts.push(st.db, st.wb, st.dp, st.rh, st.w, st.h, st.fog);
+      else parts.push('-');
+      for (const x of item.streams ?? []) parts.push(x.name, x.fraction);
+    }
+  }
+  for (const p of problems) parts.push('!', p.severity, p.code, p.subject, p.message);
+  return parts.join('\u0001');
+}
+
+/** Formatted results by {@link resultsKey} (bounded; the oldest entries go first). */
+const formatted = new Map<string, ResultsData>();
+const FORMATTED_MAX = 4096;
+
 /** The results of the items, statements and diagnostics that lie in `span`, shown in `system`. */
 function resultsIn(analysis: Analysis, span: Span, system: UnitSystem): ResultsData {
   const items: EvaluatedItem[] = [];
@@ -210,9 +238,6 @@ function resultsIn(analysis: Analysis, span: Span, system: UnitSystem): ResultsD
     if (item.statement.span.start > span.end) break;
     items.push(item);
   }
-  const stateItems = items.filter((i): i is StateResult => i.kind !== 'process');
-  const pressures = new Set(stateItems.map((s) => figure(s.pressure.pa, 'pressure', system)));
-  const cols = stateColumns(system, pressures.size > 1);
   const statements = analysis.parsed.statements;
   const problems: ProblemData[] = [];
   for (let i = firstAtOrAfter(analysis.diagnostics, span.start, (x) => x.span); i < analysis.diagnostics.length; i++) {
@@ -225,8 +250,21 @@ function resultsIn(analysis: Analysis, span: Span, system: UnitSystem): ResultsD
       if (s.span.start > d.span.start) break;
       if (d.span.start <= s.span.end) subject = nameOf(s);
     }
-    problems.push({ severity: d.severity, code: d.code, subject, message: d.message.replace(/\s+/g, ' ').trim(), span: d.span });
+    problems.push({ severity: d.severity, code: d.code, subject, message: d.message.replace(/\s+/g, ' ').trim() });
   }
+  const key = resultsKey(system, items, problems);
+  const known = formatted.get(key);
+  if (known) return known;
+  const data = formatResults(system, items, problems);
+  if (formatted.size >= FORMATTED_MAX) formatted.delete(formatted.keys().next().value!);
+  formatted.set(key, data);
+  return data;
+}
+
+function formatResults(system: UnitSystem, items: readonly EvaluatedItem[], problems: ProblemData[]): ResultsData {
+  const stateItems = items.filter((i): i is StateResult => i.kind !== 'process');
+  const pressures = new Set(stateItems.map((s) => figure(s.pressure.pa, 'pressure', system)));
+  const cols = stateColumns(system, pressures.size > 1);
   return {
     units: system,
     stateColumns: cols,

@@ -15,7 +15,7 @@ import type { Analysis } from '../evaluate/types';
 import type { AirRegion, CoreDiagnostic } from '../notation/ast';
 import type { Span } from '../text/types';
 import type { UnitSystem } from '../units/types';
-import { blockResults } from './blockResults';
+import { blockResults, type ResultsData } from './blockResults';
 import { resultsTableMarkdown } from './resultsTable';
 
 /** The stable code of the diagnostic for a written results table that no longer matches its block. */
@@ -182,10 +182,34 @@ export function tableSlots(text: string, regions: readonly AirRegion[]): TableSl
   return out;
 }
 
+/** A fresh table: its body lines, their normalized form, and the checksum its start marker carries. */
+interface Fresh {
+  lines: string[];
+  /** The body as the command writes it, blank lines around, joined by `\n`. */
+  raw: string;
+  normalized: string;
+  hash: string;
+}
+
+/** Fresh tables by their (reused, read-only) results data. */
+const freshByData = new WeakMap<ResultsData, Fresh>();
+
+function fresh(analysis: Analysis, region: AirRegion, system?: UnitSystem): Fresh {
+  const data = blockResults(analysis, region, system);
+  let f = freshByData.get(data);
+  if (!f) {
+    const lines = resultsTableMarkdown(data);
+    const normalized = normalizeBody(lines);
+    f = { lines, raw: ['', ...lines, ''].join('\n'), normalized, hash: checksum(normalized) };
+    freshByData.set(data, f);
+  }
+  return f;
+}
+
 /** The body lines of a fresh table for `region`, and the checksum its start marker carries. */
 export function freshTable(analysis: Analysis, region: AirRegion, system?: UnitSystem): { lines: string[]; hash: string } {
-  const lines = resultsTableMarkdown(blockResults(analysis, region, system));
-  return { lines, hash: checksum(normalizeBody(lines)) };
+  const f = fresh(analysis, region, system);
+  return { lines: [...f.lines], hash: f.hash };
 }
 
 /** How a written table compares with a fresh one. */
@@ -194,9 +218,10 @@ export type TableState = 'fresh' | 'results-changed' | 'edited' | 'checksum' | '
 /** Compares a written table with what the block computes now. */
 export function tableState(analysis: Analysis, table: WrittenTable, system?: UnitSystem): TableState {
   if (!table.end) return 'unterminated';
-  const fresh = freshTable(analysis, table.region, system);
-  const written = normalizeBody(table.body);
-  if (written === normalizeBody(fresh.lines)) return table.writtenHash === fresh.hash ? 'fresh' : 'checksum';
+  const now = fresh(analysis, table.region, system);
+  // As written by the command (the usual case), or else after a formatter's realignment.
+  const written = table.body.join('\n') === now.raw ? now.normalized : normalizeBody(table.body);
+  if (written === now.normalized) return table.writtenHash === now.hash ? 'fresh' : 'checksum';
   return checksum(written) === table.writtenHash ? 'results-changed' : 'edited';
 }
 
