@@ -48,7 +48,7 @@ export interface FuzzConfig {
 }
 
 /** CI defaults: a few thousand notes, a few hundred edit sequences (about a minute on two cores). */
-export const CI_DEFAULTS = { notes: 4000, editSequences: 800, protocolEdits: 300 } as const;
+export const CI_DEFAULTS = { notes: 4000, editSequences: 800, protocolEdits: 500 } as const;
 
 function envInt(name: string): number | null {
   const raw = process.env[name];
