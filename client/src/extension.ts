@@ -369,6 +369,13 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
   const ctl = new ServerController(serverModule, output);
   controller = ctl;
   const refreshStatus = createStatusBar(ctl, context);
+  // The preview caches its rendering per document version: redraw it when a Dewmark setting
+  // (units, pressure…) changes the results it shows.
+  context.subscriptions.push(
+    vscode.workspace.onDidChangeConfiguration((e) => {
+      if (e.affectsConfiguration(SETTINGS_SECTION)) void vscode.commands.executeCommand('markdown.preview.refresh').then(undefined, () => undefined);
+    }),
+  );
   // The chart code (and the core it draws with) is evaluated on first use, not at activation.
   let charts: ChartPanels | undefined;
   context.subscriptions.push({ dispose: () => charts?.dispose() });

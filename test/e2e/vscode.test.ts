@@ -316,6 +316,17 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     });
     expect(dark.boxes[0]!.background).not.toBe(box.background);
     await wb.screenshot('preview-results-dark');
+
+    // The note has no units: line, so switching units changes the setting: the preview follows.
+    await wb.clickWord('OA', { line: 'state OA' });
+    await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
+    const ip = await wb.waitFor('the preview\'s results in °F', async () => {
+      const v = await previewResults(wb.page);
+      return v && v.boxes[0]?.rows.some((r) => r[0] === 'OA' && r[1] === '104.0') ? v : undefined;
+    });
+    expect(ip.boxes).toHaveLength(1); // 40 °C = 104 °F (by definition of the Fahrenheit scale)
+    await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
+    await wb.waitFor('the preview\'s results in °C again', async () => (await previewResults(wb.page))?.boxes[0]?.rows.some((r) => r[0] === 'OA' && r[1] === '40.0'));
   }, 120_000);
 
   it('writes the results table below the block with the palette command, and warns when the note changes without refreshing it', async () => {
