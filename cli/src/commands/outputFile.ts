@@ -2,8 +2,8 @@
  * What the `report` and `chart` commands share: reading exactly one note, and writing exactly the
  * output path given — never the note itself, never a Markdown file.
  */
-import { statSync, writeFileSync } from 'node:fs';
-import { resolve } from 'node:path';
+import { lstatSync, readlinkSync, realpathSync, statSync, writeFileSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
 import { analyzeNote, type Analysis } from '../core';
 import { STDIN_PATH, collectInputs, decodeText, readInput } from '../files';
 import type { CliIO } from '../run';
@@ -50,10 +50,31 @@ export function checkOutputPath(output: string | undefined, input: { abs: string
     }
     if (same) throw new UsageError(`refusing to write the ${what} over the note '${input.path}' itself; give another path with -o, e.g. ${example}`);
   }
-  if (MARKDOWN.test(abs)) {
-    throw new UsageError(`refusing to write the ${what} to '${output}': it is a Markdown file name, and dewmark never overwrites notes; use a name such as ${example}`);
+  const real = writtenPath(abs);
+  if (MARKDOWN.test(abs) || MARKDOWN.test(real)) {
+    const via = MARKDOWN.test(abs) ? '' : ` (a link to '${real}')`;
+    throw new UsageError(`refusing to write the ${what} to '${output}'${via}: it is a Markdown file name, and dewmark never overwrites notes; use a name such as ${example}`);
   }
   return abs;
+}
+
+/** The file a write to `abs` would change: through symbolic links, also dangling ones (whose target it would create). */
+function writtenPath(abs: string): string {
+  try {
+    return realpathSync(abs);
+  } catch {
+    // Does not exist, or a link to nothing: follow the links by hand (at most a few).
+    let p = abs;
+    for (let i = 0; i < 8; i++) {
+      try {
+        if (!lstatSync(p).isSymbolicLink()) return p;
+        p = resolve(dirname(p), readlinkSync(p));
+      } catch {
+        return p;
+      }
+    }
+    return p;
+  }
 }
 
 /** Reads exactly one note (a file or `-` for standard input) and analyses it; throws {@link UsageError}. */
