@@ -76,4 +76,19 @@ describe('inline hints', () => {
   it('gives only the statements in the requested range, and none for a state that failed', () => {
     check(air('state A: db=24C rh=50%', '|state B: db=20C wb=25C', 'state C: db=30C rh=40%|', 'state D: db=10C rh=40%'), [{ after: 'rh=40%' }]);
   });
+
+  it('shows a process enthalpy change in Btu/lb by scale alone, without the datum offset', () => {
+    // Independent computation from ASHRAE HoF 2017 SI Ch.1 eq 32, h = 1.006 t + W (2501 + 1.86 t):
+    // A (30 °C, 10 g/kg) 55.748 kJ/kg, B (15 °C, 10 g/kg) 40.379 kJ/kg, so Δh = −15.369 kJ/kg
+    // = −6.608 Btu/lb (1 Btu/lb = 2.326 kJ/kg, NIST SP 811). A difference takes no datum shift:
+    // with it, the figure would read +1.08.
+    const hints = check(air('units: IP', 'state A: db=30C w=10g/kg', 'state B: db=15C w=10g/kg', 'process P: A -> B'), [
+      { after: 'w=10g/kg' },
+      { after: 'w=10g/kg' },
+      { after: 'A -> B', contains: ['Δh '] },
+    ]);
+    const m = /Δh (-?[0-9.]+) Btu\/lb/.exec(hints[2]!.label);
+    expect(m, hints[2]!.label).not.toBeNull();
+    expect(near(Number(m![1]), -6.608, 0.006)).toBe(true);
+  });
 });

@@ -9,7 +9,7 @@
 import type { Analysis, EvaluatedItem, ProcessKind, ProcessResult, StateResult } from '../evaluate/types';
 import type { AirRegion, CoreDiagnostic, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
-import { displaySymbol, displayUnit, formatQuantity, lookupUnit } from '../units';
+import { displaySymbol, displayUnit, formatDifference, formatQuantity, lookupUnit } from '../units';
 import type { Dimension, UnitDef, UnitSystem } from '../units/types';
 
 /** A column of the states table: its key, the label shown, and the unit of its figures. */
@@ -99,8 +99,7 @@ function figure(si: number | null | undefined, dimension: Dimension, system: Uni
 /** A difference in a unit, with its symbol: the scale converts, the datum offset does not apply. */
 function difference(si: number | null, dimension: Dimension, unit: UnitDef): string {
   if (si === null || !Number.isFinite(si)) return NONE;
-  const asDelta: UnitDef = { ...unit, offset: 0 };
-  return formatQuantity(si, dimension, 'SI', { unit: asDelta }).text;
+  return formatDifference(si, dimension, 'SI', { unit }).text;
 }
 
 function symbolOf(dimension: Dimension, system: UnitSystem): string {

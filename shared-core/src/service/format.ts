@@ -5,7 +5,7 @@
  */
 import type { MoistAirState } from '../physics/types';
 import type { ProcessKind } from '../evaluate/types';
-import { formatQuantity, lookupUnit } from '../units';
+import { formatDifference, formatQuantity, lookupUnit } from '../units';
 import type { Dimension, UnitDef, UnitSystem } from '../units/types';
 import type { HintKey, Note } from './types';
 
@@ -59,6 +59,14 @@ export function show(note: Note, si: number, dimension: Dimension, system: UnitS
   const extra = note.settings.extraDigits;
   if (extra <= 0 || !Number.isFinite(si)) return first.text;
   return formatQuantity(si, dimension, system, { ...opts, digits: decimalsIn(first.valueText) + extra }).text;
+}
+
+/** An SI difference (Δh, Δt) shown in `system`: scale only, no datum offset. */
+export function showDifference(note: Note, siDelta: number, dimension: Dimension, system: UnitSystem): string {
+  const first = formatDifference(siDelta, dimension, system);
+  const extra = note.settings.extraDigits;
+  if (extra <= 0 || !Number.isFinite(siDelta)) return first.text;
+  return formatDifference(siDelta, dimension, system, { digits: decimalsIn(first.valueText) + extra }).text;
 }
 
 /** A water rate (condensate or humidifier water) in kg/h or lb/h. */

@@ -20,6 +20,7 @@ import {
   otherSystem,
   plain,
   show,
+  showDifference,
   showWaterRate,
 } from './format';
 import { itemOf, overlaps, propsOf, targetAt } from './note';
@@ -204,7 +205,7 @@ function processHover(note: Note, item: ProcessResult): string {
     rows.push(['dry-air flow', 'not given (add `m=` or `q=` for heat rates)']);
   }
   rows.push(['sensible heat ratio', item.shr === null ? '— (no net heat)' : plain(item.shr, 2 + note.settings.extraDigits)]);
-  rows.push(['Δh per kg dry air', signed(item.dhTotal, show(note, Math.abs(item.dhTotal), 'enthalpy', system))]);
+  rows.push(['Δh per kg dry air', signed(item.dhTotal, showDifference(note, Math.abs(item.dhTotal), 'enthalpy', system))]);
   const perKgW = show(note, Math.abs(item.dw), 'humidityRatio', system);
   rows.push(['Δw', `${signed(item.dw, perKgW)}${item.dw < 0 ? ' (removed)' : item.dw > 0 ? ' (added)' : ''}`]);
   if (item.waterKgS !== null) {

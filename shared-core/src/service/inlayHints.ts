@@ -8,7 +8,7 @@ import type { ProcessResult, StateResult } from '../evaluate/types';
 import type { Statement } from '../notation/ast';
 import type { Span } from '../text/types';
 import { lookupUnit } from '../units';
-import { PROCESS_KIND_TEXT, autoHintKeys, plain, rowOf, show, showWaterRate } from './format';
+import { PROCESS_KIND_TEXT, autoHintKeys, plain, rowOf, show, showDifference, showWaterRate } from './format';
 import { itemOf, lineEnd, propsOf, regionAt, statementsIn } from './note';
 import type { CancellationFlag, HintKey, Note } from './types';
 
@@ -61,7 +61,7 @@ function processLabel(note: Note, item: ProcessResult): { label: string; failed:
   if (item.qTotalW !== null) {
     parts.push(`${show(note, Math.abs(item.qTotalW), 'power', system)} ${item.qTotalW >= 0 ? 'added' : 'removed'}`);
   } else {
-    parts.push(`Δh ${show(note, item.dhTotal, 'enthalpy', system)}`);
+    parts.push(`Δh ${showDifference(note, item.dhTotal, 'enthalpy', system)}`);
   }
   if (item.shr !== null) parts.push(`SHR ${plain(item.shr, 2 + note.settings.extraDigits)}`);
   if (item.waterKgS !== null && item.waterKgS < 0) parts.push(`${showWaterRate(note, -item.waterKgS, system)} condensate`);

@@ -438,6 +438,22 @@ export function formatQuantity(
 }
 
 /**
+ * Formats a difference (a change of enthalpy, a temperature rise) like {@link formatQuantity}, but
+ * converted by the unit's scale alone: a datum offset (°F, Btu/lb) does not apply to a difference,
+ * so a Δh of −22.47 kJ/kg is −9.66 Btu/lb, never −1.97.
+ */
+export function formatDifference(
+  siDelta: number,
+  dimension: Dimension,
+  system: UnitSystem,
+  opts: { digits?: number; unit?: UnitDef } = {},
+): FormattedQuantity {
+  const unit = opts.unit ?? displayUnit(dimension, system);
+  const formatted = formatQuantity(siDelta, dimension, system, { ...opts, unit: { ...unit, offset: 0 } });
+  return { ...formatted, unit };
+}
+
+/**
  * Formats an SI value in `unit` in notation form — the number immediately followed by the symbol
  * (`49.6%`, `9.31g/kg`, `75.2F`). Used to show a computed value beside a claim: pass the claim's
  * `resolution` (place value of its last written digit, e.g. 0.01 for `9.30`) and the symbol as the
