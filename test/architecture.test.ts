@@ -2,11 +2,13 @@
  * Architecture invariants that a test can check (see ARCHITECTURE.md):
  * - shared-core imports nothing from editor or protocol packages;
  * - the engine's layers depend one way: units ← physics ← evaluate; the parser knows no physics;
- * - no dynamic code evaluation anywhere in shipped sources;
+ * - no dynamic code evaluation anywhere in shipped sources, nor in the bundles built from them
+ *   (dist/, third-party code included: the bundles are what runs);
  * - shipped code never imports the test oracle (psychrolib).
  */
 import { describe, expect, it } from 'vitest';
-import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 
 const root = join(__dirname, '..');
@@ -40,6 +42,25 @@ function importsOf(file: string): string[] {
 }
 
 const shipped = ['shared-core/src', 'server/src', 'client/src', 'cli/src'];
+
+/** Ways to run text as code: eval, the Function constructor, the vm module, setTimeout/setInterval with a string. */
+const DYNAMIC_CODE: [string, RegExp][] = [
+  ['eval(', /(?<![.\w$])eval\s*\(/],
+  ['new Function(', /\bnew\s+Function\s*\(/],
+  ['Function(', /(?<![.\w$])Function\s*\(\s*['"`]/],
+  ['the vm module', /require\(\s*['"](node:)?vm['"]\s*\)|from\s+['"](node:)?vm['"]/],
+  ['setTimeout/setInterval with a string', /\bset(Timeout|Interval)\(\s*['"`]/],
+];
+
+/** The bundles that ship (the .vsix and the CLI), built first when they are missing. */
+function bundles(): string[] {
+  const names = ['dist/cli.js', 'dist/server.js', 'dist/client.js'];
+  if (!names.every((n) => existsSync(join(root, n)))) {
+    const b = spawnSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, encoding: 'utf8' });
+    if (b.status !== 0) throw new Error(`build failed: ${b.stderr}`);
+  }
+  return names.map((n) => join(root, n));
+}
 
 describe('architecture invariants', () => {
   it('shared-core has sources to check (the scan itself can fail)', () => {
@@ -87,9 +108,30 @@ describe('architecture invariants', () => {
     for (const dir of shipped) {
       for (const f of sourcesUnder(dir)) {
         const text = readFileSync(f, 'utf8');
-        if (/\beval\s*\(|\bnew\s+Function\s*\(/.test(text)) bad.push(`${relative(root, f)} evaluates code`);
+        for (const [what, re] of DYNAMIC_CODE) if (re.test(text)) bad.push(`${relative(root, f)} uses ${what}`);
         if (importsOf(f).some((s) => s === 'psychrolib')) bad.push(`${relative(root, f)} imports the test oracle psychrolib`);
       }
+    }
+    expect(bad).toEqual([]);
+  });
+
+  it('the dynamic-code patterns find what they look for (the scans can fail)', () => {
+    const samples = ['x = eval("1")', 'f = new Function("a", "return a")', 'g = Function("return this")', "const vm = require('node:vm')", "setTimeout('alert(1)', 5)"];
+    expect(samples.map((t) => DYNAMIC_CODE.some(([, re]) => re.test(t)))).toEqual([true, true, true, true, true]);
+    const innocent = ['obj.eval(x)', 'isFunction(y)', 'typeof f === "function"', 'setTimeout(() => done(), 5)', 'medieval(3)'];
+    expect(innocent.map((t) => DYNAMIC_CODE.some(([, re]) => re.test(t)))).toEqual([false, false, false, false, false]);
+  });
+
+  it('no dynamic code evaluation in the built bundles either, third-party code included', () => {
+    const bad: string[] = [];
+    for (const f of bundles()) {
+      const text = readFileSync(f, 'utf8');
+      expect(text.length, `${relative(root, f)} is a real bundle`).toBeGreaterThan(10_000);
+      for (const [what, re] of DYNAMIC_CODE) {
+        const m = re.exec(text);
+        if (m) bad.push(`${relative(root, f)} uses ${what} near: ${text.slice(Math.max(0, m.index - 60), m.index + 60)}`);
+      }
+      if (/psychrolib|GetTWetBulbFromHumRatio/.test(text)) bad.push(`${relative(root, f)} contains the test oracle`);
     }
     expect(bad).toEqual([]);
   });
