@@ -158,7 +158,7 @@ function toleranceText(delta: number): string {
  * The edit that rewrites one written quantity in `system`, or null when it is already in that
  * system, has no unit of a system (%), or cannot be read.
  */
-function convertQuantity(q: QuantityNode, spec: KeySpec | null, dimension: Dimension, system: UnitSystem, claim: ClaimResult | undefined): Edit | null {
+function convertQuantity(q: QuantityNode, spec: KeySpec | null, dimension: Dimension, system: UnitSystem, claim: ClaimResult | undefined, after = ''): Edit | null {
   let unit: UnitDef | undefined;
   if (q.unit) unit = lookupUnit(q.unit.text);
   else if (spec?.bare === 'si' && dimension === 'humidityRatio') unit = lookupUnit('kg/kg');
@@ -166,8 +166,11 @@ function convertQuantity(q: QuantityNode, spec: KeySpec | null, dimension: Dimen
   if (q.unit && unit.system === system) return null;
   const target = displayUnit(dimension, system);
   const si = toSI(q.number.value, unit);
-  // A value that overflows in the other unit (1e308 kg/s in lb/h) is left as written.
-  if (!Number.isFinite((si - target.offset) / target.scale)) return null;
+  // A value that overflows in the other unit (1e308 kg/s in lb/h), or whose rounded figure could
+  // overflow when read back (beyond 1e300 in SI), is left as written.
+  if (!(Math.abs(si) <= 1e300) || !Number.isFinite((si - target.offset) / target.scale)) return null;
+  // A tolerance follows that could not be read (`0C±NaN`): a band added here would double it.
+  if (!q.tolerance && (after.startsWith('±') || after.startsWith('+-'))) return null;
   let newText = convertedText(si, target);
   let span = valueSpan(q);
   const t = q.tolerance;
@@ -194,14 +197,14 @@ function convertStatement(note: Note, statement: Statement, system: UnitSystem):
       const q = stream.amount;
       const unit = q?.unit ? lookupUnit(q.unit.text) : undefined;
       if (!q || !unit) continue;
-      const e = convertQuantity(q, null, unit.dimension, system, undefined);
+      const e = convertQuantity(q, null, unit.dimension, system, undefined, note.text.slice(q.span.end, q.span.end + 2));
       if (e) edits.push(e);
     }
   }
   for (const prop of propsOf(statement)) {
     const spec = specOf(statement, prop.key);
     if (!prop.value || !spec) continue;
-    const e = convertQuantity(prop.value, spec, spec.dimension, system, claims.get(prop));
+    const e = convertQuantity(prop.value, spec, spec.dimension, system, claims.get(prop), note.text.slice(prop.value.span.end, prop.value.span.end + 2));
     if (e) edits.push(e);
   }
   return edits;
