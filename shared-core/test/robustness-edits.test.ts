@@ -8,7 +8,7 @@
  * - applying it twice is harmless: asked again after it was applied, the same fix is either not
  *   offered or changes nothing; rename there and back, and the units switch twice, give the
  *   original text byte for byte; the tables written once are current the second time.
- * The unit-system rewrite keeps the state within the rounding of the display precision.
+ * The unit-system rewrite keeps every written value within the rounding of its new last digit.
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
@@ -25,10 +25,12 @@ import {
   type Note,
   type ServiceSettings,
 } from '../src/service';
-import type { Statement } from '../src/notation/ast';
-import type { StateResult } from '../src/evaluate/types';
+import type { QuantityNode, Statement } from '../src/notation/ast';
+import { lookupUnit, toSI } from '../src/units';
 
 const cfg = fuzzConfig();
+/** Statement keywords: never valid names (a note may still write one, and rename will not write it back). */
+const KEYWORDS = ['site', 'units', 'state', 'mix', 'process'];
 /** Notes for the edit properties (each note is tried with every action it offers). */
 const RUNS = Math.max(200, Math.round(cfg.notes / 5));
 
@@ -164,16 +166,40 @@ function applyAndCheck(n: Note, s: ServiceSettings, action: FixAction, counts: R
 }
 
 /**
- * The unit-system rewrite keeps the state: db within 0.06 K (0.1 °F shown), W within 0.06 g/kg
- * and 1.5 % (0.1 gr/lb shown, 0.0143 g/kg, plus what the rounded temperatures move it by).
+ * The unit-system rewrite keeps every written value: converted back to SI, each new figure is
+ * within half a unit of its own last written digit of the old one (flows and powers: of their
+ * fourth significant figure), since the factors are exact (e.g. °F = °C × 9/5 + 32 by definition)
+ * and the new text is only rounded.
  */
+const FLOW_LIKE = new Set(['massFlow', 'volumeFlow', 'power']);
+
 function checkConversion(n: Note, m: Note, stmt: Statement, i: number, what: string): void {
-  if (stmt.keyword !== 'state') return;
-  const a = n.analysis.items.find((x) => x.statement === stmt) as StateResult | undefined;
-  const b = m.analysis.items.find((x) => x.statement === m.analysis.parsed.statements[i]) as StateResult | undefined;
-  if (!a?.state || !b?.state) return;
-  expect(Math.abs(a.state.db - b.state.db), `${what}: db after conversion`).toBeLessThanOrEqual(0.06);
-  expect(Math.abs(a.state.w - b.state.w), `${what}: W after conversion`).toBeLessThanOrEqual(6e-5 + 0.015 * a.state.w);
+  const next = m.analysis.parsed.statements[i]!;
+  const quantities = (st: Statement): { key: string; q: QuantityNode }[] => {
+    const out: { key: string; q: QuantityNode }[] = [];
+    if (st.keyword === 'mix') for (const x of st.streams) if (x.amount) out.push({ key: `stream ${x.name.text}`, q: x.amount });
+    if (st.keyword !== 'units') for (const p of st.props) if (p.value) out.push({ key: p.key, q: p.value });
+    return out;
+  };
+  const before = quantities(stmt);
+  const after = quantities(next);
+  expect(after.length, `${what}: same quantities`).toBe(before.length);
+  for (const [k, { key, q }] of before.entries()) {
+    const r = after[k]!.q;
+    const unitOf = (x: QuantityNode) => (x.unit ? lookupUnit(x.unit.text) : key === 'w' || key === 'shr' ? lookupUnit(key === 'w' ? 'kg/kg' : '%') : undefined);
+    const u0 = unitOf(q);
+    const u1 = unitOf(r);
+    if (!u0 || !u1 || u0.dimension !== u1.dimension) continue;
+    if (q.number.text === r.number.text && q.unit?.text === r.unit?.text) continue; // left as written
+    const scale1 = key === 'shr' && !r.unit ? 1 : u1.scale;
+    const v0 = key === 'shr' && !q.unit ? q.number.value : toSI(q.number.value, u0);
+    const v1 = key === 'shr' && !r.unit ? r.number.value : toSI(r.number.value, u1);
+    // Flows and powers are written to four significant figures (10170cfm stands for 1017×10).
+    const shown = Math.abs(r.number.value);
+    const resolution = FLOW_LIKE.has(u1.dimension) && shown > 0 ? Math.max(r.number.resolution, 10 ** (Math.floor(Math.log10(shown)) - 3)) : r.number.resolution;
+    const band = 0.5 * resolution * scale1 * (1 + 1e-9) + 1e-12 * Math.abs(v0);
+    expect(Math.abs(v1 - v0), `${what}: ${key} ${q.number.text}${q.unit?.text ?? ''} → ${r.number.text}${r.unit?.text ?? ''}`).toBeLessThanOrEqual(band);
+  }
 }
 
 describe('edits lose nothing', () => {
@@ -210,7 +236,7 @@ describe('edits lose nothing', () => {
         // Names of well-formed heads (`state NAME:`): in a head without its colon (`state A =`) a
         // name and a key look alike, so a renamed name may be read as a key there.
         const names = n.analysis.parsed.statements.flatMap((st) =>
-          'name' in st && st.name && /^[A-Za-z][A-Za-z0-9_-]*$/.test(st.name.text) && /^\s*:/.test(text.slice(st.name.span.end)) ? [st.name] : [],
+          'name' in st && st.name && /^[A-Za-z][A-Za-z0-9_-]*$/.test(st.name.text) && !KEYWORDS.includes(st.name.text) && /^\s*:/.test(text.slice(st.name.span.end)) ? [st.name] : [],
         );
         if (names.length === 0) return;
         const target = names[pick % names.length]!;
