@@ -43,12 +43,14 @@ export class EvalContext {
   unitsSpan: Span | null = null;
   /** The pressure that applies to the statements from here on. */
   site: PressureBasis;
-  private readonly lines: LineIndex | null;
+  /** The note's text (for line numbers in messages), and its line index once a message needs it. */
+  private readonly text: string | undefined;
+  private lines: LineIndex | null = null;
 
   constructor(settings: EvaluateSettings, text: string | undefined) {
     this.settings = settings;
     this.units = settings.units;
-    this.lines = typeof text === 'string' ? new LineIndex(text) : null;
+    this.text = typeof text === 'string' ? text : undefined;
     const origin = settings.pressureOrigin === 'default' ? 'default' : settings.pressureOrigin;
     this.site = {
       pa: settings.pressurePa,
@@ -66,8 +68,9 @@ export class EvalContext {
 
   /** "line 12" when the source text is known, else "" (messages read well either way). */
   lineWord(span: Span): string {
-    if (!this.lines) return '';
+    if (this.text === undefined) return '';
     try {
+      this.lines ??= new LineIndex(this.text);
       return `line ${this.lines.lineCol(span.start).line}`;
     } catch {
       return '';

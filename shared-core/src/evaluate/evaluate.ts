@@ -3,7 +3,7 @@
  * statement is evaluated inside a guard, and a failure becomes a diagnostic on that statement.
  */
 import type { CoreDiagnostic, ParsedNote, Statement } from '../notation/ast';
-import type { Analysis, EvaluateSettings, EvaluatedItem } from './types';
+import type { Analysis, EvaluateSettings } from './types';
 import { EvalContext, type NameDef } from './context';
 import { SITE_KEYS } from './keys';
 import { evaluateMix } from './mix';
@@ -13,9 +13,8 @@ import { readProps } from './props';
 import { resolveSettings } from './settings';
 import { evaluateState } from './state';
 
-/** Every name a statement defines, found before evaluation (for `used-before-defined`). */
-function prescan(statements: Statement[]): Map<string, NameDef[]> {
-  const defs = new Map<string, NameDef[]>();
+/** Every name a statement defines, found before evaluation (for `used-before-defined`), into `defs`. */
+function prescan(statements: Statement[], defs: Map<string, NameDef[]>): void {
   statements.forEach((s, i) => {
     if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process') && s.name) {
       const d: NameDef = { name: s.name.text, span: s.name.span, statementIndex: i, keyword: s.keyword };
@@ -24,7 +23,6 @@ function prescan(statements: Statement[]): Map<string, NameDef[]> {
       else defs.set(d.name, [d]);
     }
   });
-  return defs;
 }
 
 function evaluateSite(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'site' }>): void {
@@ -84,7 +82,7 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
   const resolved = resolveSettings(settings);
   const ctx = new EvalContext(resolved, text);
   const statements = Array.isArray(parsed?.statements) ? parsed.statements : [];
-  for (const [k, v] of prescan(statements)) ctx.allDefs.set(k, v);
+  prescan(statements, ctx.allDefs);
 
   statements.forEach((stmt, index) => {
     try {
@@ -131,14 +129,13 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
     .sort((x, y) => x.d.span.start - y.d.span.start || x.d.span.end - y.d.span.end || x.i - y.i)
     .map((x) => x.d);
 
-  const byName = new Map<string, EvaluatedItem>(ctx.byName);
   return {
     parsed,
     units: ctx.units,
     unitsSource: ctx.unitsSource,
     settings: resolved,
     items: ctx.items,
-    byName,
+    byName: ctx.byName,
     references: ctx.references,
     diagnostics,
   };
