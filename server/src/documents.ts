@@ -1,11 +1,14 @@
 /**
  * Open documents (incremental sync) and one cached analysis per uri + version + settings
  * generation. A change drops the document's analysis; the next request or diagnostics run
- * computes it again from the synchronised text (never from disk).
+ * computes it again from the synchronised text (never from disk), through the document's own
+ * analyzer, which reuses what the edit did not touch (same result as a fresh analysis).
  */
 import { TextDocuments, type Connection } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { analyzeText, type Note } from '../../shared-core/src/service';
+import { createAnalyzer, type Analyzer } from '../../shared-core/src/evaluate';
+import type { Note } from '../../shared-core/src/service';
+import { analyzeTextWith } from '../../shared-core/src/service/note';
 import type { Configuration } from './configuration';
 
 /** A document with its analysis. */
@@ -25,11 +28,14 @@ export class NoteStore {
   /** The synchronised documents (listen() wires them to the connection). */
   readonly documents = new TextDocuments(TextDocument);
   private readonly cache = new Map<string, CacheEntry>();
+  /** One analyzer per open document: it keeps the document's previous analysis to reuse. */
+  private readonly analyzers = new Map<string, Analyzer>();
 
   constructor(private readonly config: Configuration) {
     this.documents.onDidChangeContent((e) => this.cache.delete(e.document.uri));
     this.documents.onDidClose((e) => {
       this.cache.delete(e.document.uri);
+      this.analyzers.delete(e.document.uri);
       this.config.forget(e.document.uri);
     });
     this.config.onDidChange(() => this.cache.clear());
@@ -62,7 +68,12 @@ export class NoteStore {
     if (!doc) return null;
     const again = this.cache.get(uri);
     if (again && again.version === doc.version && again.generation === generation) return { doc, note: again.note };
-    const note = analyzeText(doc.getText(), settings);
+    let analyzer = this.analyzers.get(uri);
+    if (!analyzer) {
+      analyzer = createAnalyzer();
+      this.analyzers.set(uri, analyzer);
+    }
+    const note = analyzeTextWith(analyzer, doc.getText(), settings);
     if (generation === this.config.generation) this.cache.set(uri, { version: doc.version, generation, note });
     return { doc, note };
   }

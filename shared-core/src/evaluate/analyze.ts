@@ -10,7 +10,14 @@ import type { Analysis, EvaluateSettings } from './types';
  * messages; then checks the results tables written below its blocks (`stale-results-table`).
  */
 export function analyzeNote(text: string, settings?: Partial<EvaluateSettings>): Analysis {
-  const analysis = evaluate(parseNote(text), settings, text);
+  return finishAnalysis(evaluate(parseNote(text), settings, text), text);
+}
+
+/**
+ * The checks that follow evaluation (the written results tables), added to `analysis` in
+ * document order; shared by {@link analyzeNote} and the incremental analyzer.
+ */
+export function finishAnalysis(analysis: Analysis, text: string): Analysis {
   const stale = staleTableDiagnostics(analysis, text);
   if (stale.length > 0) analysis.diagnostics = mergeInOrder(analysis.diagnostics, stale);
   return analysis;

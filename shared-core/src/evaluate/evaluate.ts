@@ -2,8 +2,8 @@
  * The evaluator: a second pass over the parsed note, in document order. It never throws: every
  * statement is evaluated inside a guard, and a failure becomes a diagnostic on that statement.
  */
-import type { CoreDiagnostic, ParsedNote, Statement } from '../notation/ast';
-import type { Analysis, EvaluateSettings } from './types';
+import type { CoreDiagnostic, ParsedNote, Statement, StateStatement } from '../notation/ast';
+import type { Analysis, EvaluateSettings, PressureBasis, StateResult } from './types';
 import { EvalContext, type NameDef } from './context';
 import { SITE_KEYS } from './keys';
 import { evaluateMix } from './mix';
@@ -75,12 +75,34 @@ function evaluateUnits(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'un
 }
 
 /**
- * Evaluates a parsed note. Statements are taken in document order; the note's `units:` line wins
- * over `settings.units`. Pass the note's `text` to get line numbers in messages.
+ * What an analyzer that keeps its previous run hands to {@link evaluate} (see `analyzer.ts`): a
+ * way to take a state's previous result over, and the solver to use. The analysis is the same
+ * with or without it.
  */
-export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings>, text?: string): Analysis {
+export interface EvaluateReuse {
+  /**
+   * The result of state statement `index`: `compute()` (which evaluates it and reports its
+   * diagnostics), or the previous run's result and diagnostics when nothing it depends on changed.
+   */
+  state(ctx: EvalContext, stmt: StateStatement, index: number, compute: () => StateResult): StateResult;
+  /** The state solver (a memoizing wrapper of the engine's `solveState`). */
+  solve: EvalContext['solve'];
+  /** The previous run's pressure basis equal to `basis` when there is one (else `basis`). */
+  basis(basis: PressureBasis): PressureBasis;
+}
+
+/**
+ * Evaluates a parsed note. Statements are taken in document order; the note's `units:` line wins
+ * over `settings.units`. Pass the note's `text` to get line numbers in messages. `reuse` is for
+ * an analyzer that keeps its previous run (`createAnalyzer`); the result does not depend on it.
+ */
+export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings>, text?: string, reuse?: EvaluateReuse): Analysis {
   const resolved = resolveSettings(settings);
   const ctx = new EvalContext(resolved, text);
+  if (reuse) {
+    ctx.solve = reuse.solve;
+    ctx.site = reuse.basis(ctx.site);
+  }
   const statements = Array.isArray(parsed?.statements) ? parsed.statements : [];
   prescan(statements, ctx.allDefs);
 
@@ -89,6 +111,7 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
       switch (stmt.keyword) {
         case 'site':
           evaluateSite(ctx, stmt);
+          if (reuse) ctx.site = reuse.basis(ctx.site);
           break;
         case 'units':
           evaluateUnits(ctx, stmt);
@@ -99,7 +122,12 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
           // would only add a second diagnostic for the same line.
           if (!stmt.name) break;
           const owner = stmt.name ? ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: stmt.keyword }, stmt.name) : false;
-          const item = stmt.keyword === 'state' ? evaluateState(ctx, stmt, owner) : evaluateMix(ctx, stmt, index, owner);
+          const item =
+            stmt.keyword === 'mix'
+              ? evaluateMix(ctx, stmt, index, owner)
+              : reuse
+                ? reuse.state(ctx, stmt, index, () => evaluateState(ctx, stmt, owner))
+                : evaluateState(ctx, stmt, owner);
           if (stmt.name) ctx.addItem(item, owner);
           break;
         }

@@ -177,7 +177,7 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
 
   let solved: ReturnType<typeof solveState>;
   try {
-    solved = solveState({ w, h }, pressure.pa, { allowFog: true });
+    solved = ctx.solve({ w, h }, pressure.pa, { allowFog: true });
   } catch (err) {
     solved = { ok: false, problem: { code: 'no-solution', message: `the engine failed (${err instanceof Error ? err.message : String(err)})`, fix: 'check the streams', keys: [] } };
   }

@@ -164,7 +164,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
     const input: Partial<Record<DefiningKey, number>> = { [a.key]: a.q.si, [b.key]: b.q.si };
     let solved: ReturnType<typeof solveState>;
     try {
-      solved = solveState(input, pressure.pa, { allowFog: true });
+      solved = ctx.solve(input, pressure.pa, { allowFog: true });
     } catch (err) {
       // The engine promises not to throw; if it does, report it as a problem and go on.
       solved = { ok: false, problem: { code: 'no-solution', message: `the engine failed (${err instanceof Error ? err.message : String(err)})`, fix: 'check the figures', keys: [a.key as DefiningKey, b.key as DefiningKey] } };

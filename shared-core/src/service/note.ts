@@ -3,6 +3,7 @@
  * an offset (binary search over document order), and the evaluated item of a statement.
  */
 import { analyzeNote } from '../evaluate';
+import type { Analyzer } from '../evaluate/analyzer';
 import type { EvaluatedItem } from '../evaluate/types';
 import type {
   AirRegion,
@@ -19,6 +20,14 @@ import type { Note, ServiceSettings } from './types';
 /** Parses and evaluates `text` once with the service settings; every feature reads the result. */
 export function analyzeText(text: string, settings: ServiceSettings): Note {
   return { text, analysis: analyzeNote(text, toEvaluateSettings(settings)), settings };
+}
+
+/**
+ * {@link analyzeText} through an analyzer that keeps its previous run (`createAnalyzer`, one per
+ * open document): the same note, with less work after a small edit.
+ */
+export function analyzeTextWith(analyzer: Analyzer, text: string, settings: ServiceSettings): Note {
+  return { text, analysis: analyzer.analyze(text, toEvaluateSettings(settings)), settings };
 }
 
 /** True when `offset` lies in `span` or touches its end (a cursor just after a word is on it). */

@@ -1,0 +1,211 @@
+/**
+ * The incremental analyzer: {@link createAnalyzer} returns an object that the caller keeps (one
+ * per open document — the language server does), whose `analyze(text, settings)` gives exactly
+ * what `analyzeNote(text, settings)` gives while reusing its previous run:
+ * - the parser reuses the statements the edit did not touch (`notation/incremental.ts`);
+ * - a `state` statement taken over from the previous parse, under the same pressure basis and
+ *   settings, takes its previous result and diagnostics over (moved with the statement when the
+ *   edit changed the length of the text before it) instead of being evaluated again: its result
+ *   depends on nothing else (mixes and processes, which depend on other statements, are evaluated
+ *   every time);
+ * - state solves are memoized by their inputs (defining keys, values, pressure, options), keeping
+ *   the entries the last run used.
+ * The same text with the same settings returns the previous analysis object itself. Results are
+ * shared with the previous analysis where they are equal, so neither may be mutated by callers.
+ * Everything that must stay stateless (the CLI, tests) uses `analyzeNote`.
+ */
+import { solveState } from '../physics';
+import type { SolveOptions, SolveResult } from '../physics/types';
+import type { CoreDiagnostic, StateStatement, Statement } from '../notation/ast';
+import { createNoteParser } from '../notation/incremental';
+import type { Span } from '../text/types';
+import { finishAnalysis } from './analyze';
+import type { EvalContext } from './context';
+import { evaluate, type EvaluateReuse } from './evaluate';
+import { resolveSettings } from './settings';
+import type { Analysis, ClaimResult, EvaluateSettings, PressureBasis, StateResult } from './types';
+
+/** An analyzer that keeps its last run (see the module comment). */
+export interface Analyzer {
+  /** Parses and evaluates `text`: the same result as `analyzeNote(text, settings)`. Never throws. */
+  analyze(text: string, settings?: Partial<EvaluateSettings>): Analysis;
+  /** Forgets the previous run (the next analysis starts from scratch). */
+  reset(): void;
+}
+
+/** A state's evaluation as the previous run left it. */
+interface StateEntry {
+  statement: StateStatement;
+  result: StateResult;
+  /** The diagnostics its evaluation reported, in order. */
+  diagnostics: CoreDiagnostic[];
+  /** The pressure basis in force when it was evaluated. */
+  site: PressureBasis;
+}
+
+/** Creates an analyzer that reuses its previous run for the next text. */
+export function createAnalyzer(): Analyzer {
+  const parser = createNoteParser();
+  let last: { text: string; settings: EvaluateSettings; analysis: Analysis } | null = null;
+  let states = new Map<Statement, StateEntry>();
+  let solves = new Map<string, SolveResult>();
+  let bases: PressureBasis[] = [];
+  return {
+    analyze(text: string, settings?: Partial<EvaluateSettings>): Analysis {
+      const resolved = resolveSettings(settings);
+      if (last && last.text === text && sameSettings(last.settings, resolved)) return last.analysis;
+      if (!last || !sameSettings(last.settings, resolved)) {
+        states = new Map();
+        bases = [];
+      }
+      const { parsed, origins, deltas } = parser.parse(text);
+      const reuse = new Reuse(states, solves, bases, origins, deltas);
+      const analysis = finishAnalysis(evaluate(parsed, settings, text, reuse), text);
+      states = reuse.nextStates;
+      solves = reuse.nextSolves;
+      bases = reuse.nextBases;
+      last = { text, settings: resolved, analysis };
+      return analysis;
+    },
+    reset(): void {
+      parser.reset();
+      last = null;
+      states = new Map();
+      solves = new Map();
+      bases = [];
+    },
+  };
+}
+
+function sameSettings(a: EvaluateSettings, b: EvaluateSettings): boolean {
+  return a.units === b.units && Object.is(a.pressurePa, b.pressurePa) && a.pressureOrigin === b.pressureOrigin && a.checkClaims === b.checkClaims;
+}
+
+function sameSpan(a: Span | null, b: Span | null): boolean {
+  return a === b || (a !== null && b !== null && a.start === b.start && a.end === b.end);
+}
+
+function sameBasis(a: PressureBasis, b: PressureBasis): boolean {
+  return (
+    a === b ||
+    (Object.is(a.pa, b.pa) && a.source === b.source && Object.is(a.elevationM, b.elevationM) && a.describe === b.describe && sameSpan(a.span, b.span))
+  );
+}
+
+/** A number as a memo key: exact (the shortest text that reads back as the same double), −0 kept apart. */
+function numKey(v: number): string {
+  return Object.is(v, -0) ? '-0' : String(v);
+}
+
+/** The reuse hooks of one run: reads the previous run's memo, fills the next one. */
+class Reuse implements EvaluateReuse {
+  readonly nextStates = new Map<Statement, StateEntry>();
+  readonly nextSolves = new Map<string, SolveResult>();
+  readonly nextBases: PressureBasis[] = [];
+
+  constructor(
+    private readonly prevStates: ReadonlyMap<Statement, StateEntry>,
+    private readonly prevSolves: ReadonlyMap<string, SolveResult>,
+    private readonly prevBases: readonly PressureBasis[],
+    private readonly origins: readonly (Statement | null)[],
+    private readonly deltas: readonly number[],
+  ) {}
+
+  /** The previous run's basis equal to `b` (so that results under it can be taken over as they are). */
+  basis(b: PressureBasis): PressureBasis {
+    // A note holds a handful of site lines: a linear search is enough.
+    const same = this.prevBases.find((x) => sameBasis(x, b)) ?? this.nextBases.find((x) => sameBasis(x, b));
+    const out = same ?? b;
+    if (!this.nextBases.includes(out)) this.nextBases.push(out);
+    return out;
+  }
+
+  readonly solve = (input: Parameters<typeof solveState>[0], p: number, options?: SolveOptions): SolveResult => {
+    let key = `${numKey(p)}|${options?.allowFog === true ? 1 : 0}`;
+    for (const k in input) key += `|${k}=${numKey(input[k as keyof typeof input] as number)}`;
+    let r = this.nextSolves.get(key) ?? this.prevSolves.get(key);
+    if (!r) r = solveState(input, p, options);
+    this.nextSolves.set(key, r);
+    return r;
+  };
+
+  state(ctx: EvalContext, stmt: StateStatement, index: number, compute: () => StateResult): StateResult {
+    const origin = this.origins[index];
+    const entry = origin ? this.prevStates.get(origin) : undefined;
+    if (entry && sameBasis(entry.site, ctx.site)) {
+      const delta = this.deltas[index] ?? 0;
+      if (delta === 0 && stmt === entry.statement && entry.site === ctx.site) {
+        // Unchanged, under the very same basis: the entry as it is.
+        for (const d of entry.diagnostics) ctx.report(d);
+        this.nextStates.set(stmt, entry);
+        return entry.result;
+      }
+      const moved = relocate(entry, stmt, delta, ctx.site);
+      if (moved) {
+        for (const d of moved.diagnostics) ctx.report(d);
+        this.nextStates.set(stmt, { statement: stmt, result: moved.result, diagnostics: moved.diagnostics, site: ctx.site });
+        return moved.result;
+      }
+    }
+    const before = ctx.diagnostics.length;
+    const result = compute();
+    this.nextStates.set(stmt, { statement: stmt, result, diagnostics: ctx.diagnostics.slice(before), site: ctx.site });
+    return result;
+  }
+}
+
+/**
+ * The previous result and diagnostics of `entry` for `stmt`, which is the entry's statement moved
+ * by `d` (or the same object when `d` is 0), under the pressure basis `site`. Spans inside the
+ * old statement move with it; those outside it (the site line) stay. Null when the result holds
+ * something this cannot map (then the state is evaluated again).
+ */
+function relocate(entry: StateEntry, stmt: StateStatement, d: number, site: PressureBasis): { result: StateResult; diagnostics: CoreDiagnostic[] } | null {
+  const old = entry.result;
+  const onSite = old.pressure === entry.site;
+  if (d === 0 && stmt === entry.statement) {
+    return { result: onSite ? { ...old, pressure: site } : old, diagnostics: entry.diagnostics };
+  }
+  const from = entry.statement;
+  if (from.props.length !== stmt.props.length) return null;
+  const within = from.span;
+  let failed = false;
+  const move = (s: Span): Span => {
+    if (s.start >= within.start && s.end <= within.end) return { start: s.start + d, end: s.end + d };
+    if (s.end < within.start || s.start > within.end) return s;
+    failed = true;
+    return s;
+  };
+  const claims: ClaimResult[] = [];
+  for (const c of old.claims) {
+    const i = from.props.indexOf(c.prop);
+    if (i < 0) return null;
+    claims.push({ ...c, prop: stmt.props[i]! });
+  }
+  let pressure: PressureBasis = site;
+  if (!onSite) pressure = old.pressure.span ? { ...old.pressure, span: move(old.pressure.span) } : { ...old.pressure };
+  const result: StateResult = { ...old, statement: stmt, pressure, defining: [...old.defining], claims };
+  const diagnostics = entry.diagnostics.map((x) => moveDiagnostic(x, move));
+  return failed ? null : { result, diagnostics };
+}
+
+function isSpan(v: unknown): v is Span {
+  if (v === null || typeof v !== 'object' || Array.isArray(v)) return false;
+  const o = v as Record<string, unknown>;
+  return typeof o.start === 'number' && typeof o.end === 'number' && Object.keys(o).length === 2;
+}
+
+/** A copy of a diagnostic with its span, related spans and any span in its data moved by `move`. */
+function moveDiagnostic(x: CoreDiagnostic, move: (s: Span) => Span): CoreDiagnostic {
+  const out: CoreDiagnostic = { ...x, span: move(x.span) };
+  if (x.related) out.related = x.related.map((r) => ({ ...r, span: move(r.span) }));
+  if (x.data) {
+    const data: Record<string, unknown> = {};
+    for (const k of Object.keys(x.data)) {
+      const v = x.data[k];
+      data[k] = isSpan(v) ? move(v) : v;
+    }
+    out.data = data;
+  }
+  return out;
+}

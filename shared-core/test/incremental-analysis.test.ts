@@ -1,0 +1,207 @@
+/**
+ * The incremental parser and analyzer (createNoteParser, createAnalyzer) against a fresh parse
+ * and analysis: for random notes and random sequences of edits (typed characters, deletions,
+ * pasted statements, line breaks, backticks and tildes that open or close fences, container
+ * markers, CRLF, settings changes between edits), every step's result is deep-equal to
+ * parseNote / analyzeNote of the same text (fast-check, fixed seeds). A few fixed edits also
+ * check that the reuse really happens (a state before the edit keeps its result object), so that
+ * an analyzer that recomputed everything would not pass for the wrong reason.
+ */
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { analyzeNote, createAnalyzer, type EvaluateSettings } from '../src/evaluate';
+import { createNoteParser, findEdit } from '../src/notation/incremental';
+import { parseNote } from '../src/notation/parse';
+
+const name = fc.constantFrom('OA', 'RA', 'MA', 'SA', 'C1', 'H1', 'Zone𝔸');
+const claim = fc.constantFrom('', ' w=7.3g/kg', ' h=50kJ/kg', ' rh=50%±2', ' dp=10C', ' v=0.85m3/kg', ' wb=18.0C');
+const pair = fc.constantFrom('db=24C rh=50%', 'db=30C wb=20C', 'db=12C dp=5C', 'db=18C w=8g/kg', 'db=20C h=45kJ/kg', 'db=40C rh=120%', 'db=20C wb=25C', 'db=20 rh=50%', 'dp=5C w=9g/kg', 'db=75F rh=40%');
+const statement = fc.oneof(
+  { weight: 5, arbitrary: fc.tuple(name, pair, claim, fc.constantFrom('', ' p=90kPa', ' elev=1500m')).map(([n, p, c, o]) => `state ${n}: ${p}${c}${o}`) },
+  { weight: 2, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 30% + ${b} 70%`) },
+  { weight: 1, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 1.2kg/s + ${b} 800L/s db=22C`) },
+  { weight: 2, arbitrary: fc.tuple(name, name, name).map(([p, a, b]) => `process ${p}: ${a} -> ${b} m=2kg/s q_total=-30kW`) },
+  { weight: 1, arbitrary: fc.constantFrom('site: elev=1600m', 'site: p=84.5kPa', 'units: IP', 'units: SI', 'state : db=', 'stat X: db=1C', '# a comment', '', '~~', '``', '~ a tilde', '  indented') },
+);
+const fence = fc.tuple(fc.constantFrom('```air', '~~~air', '> ```air', '- ```air', '```js'), fc.array(statement, { maxLength: 7 }), fc.boolean()).map(([open, body, closed]) => {
+  const prefix = open.startsWith('> ') ? '> ' : open.startsWith('- ') ? '  ' : '';
+  const lines = [open, ...body.map((b) => prefix + b)];
+  if (closed) lines.push(prefix + (open.includes('~') ? '~~~' : '```'));
+  return lines.join('\n');
+});
+const prose = fc.oneof(
+  fc.constantFrom('# Plant room', 'Some prose.', '', '- a list item', '> quoted', '| a | b |\n|---|---|\n| 1 | 2 |', '    indented code'),
+  statement.map((s) => `The design point is \`${s}\` as agreed.`),
+);
+const note = fc.tuple(fc.array(fc.oneof({ weight: 2, arbitrary: fence }, { weight: 2, arbitrary: prose }), { minLength: 1, maxLength: 8 }), fc.constantFrom('\n', '\r\n')).map(([parts, eol]) => parts.join('\n\n').replace(/\n/g, eol) + eol);
+
+/** What an edit inserts: characters, statements, structure. */
+const insert = fc.oneof(
+  { weight: 4, arbitrary: fc.constantFrom('1', '5', '0', '.', '-', 'C', 'F', '%', 'a', ' ', '=', '#', ':', '+', '±2', 'g/kg') },
+  { weight: 2, arbitrary: fc.constantFrom('`', '``', '```', '~', '~~~', '\n', '\r\n', '\r', '\t', '> ', '- ', '\n```air\n', '\n```\n', '\uD83D\uDE00', '\u0000') },
+  { weight: 2, arbitrary: statement.map((s) => `\n${s}\n`) },
+  { weight: 1, arbitrary: fc.constantFrom(' w=9g/kg', ' p=95kPa', 'site: p=80kPa\n', '`state Q: db=1C rh=5%`') },
+  { weight: 2, arbitrary: fc.constant('') },
+);
+
+/** One edit: where (a fraction of the text, or a place inside a statement line), how much to delete, what to insert, and the settings of the next analysis. */
+const edit = fc.record({
+  at: fc.double({ min: 0, max: 1, noNaN: true }),
+  inStatement: fc.constantFrom<Place>('anywhere', 'statement', 'statement', 'line'),
+  del: fc.integer({ min: 0, max: 4 }),
+  ins: insert,
+  settings: fc.integer({ min: 0, max: 9 }),
+});
+
+const SETTINGS: (Partial<EvaluateSettings> | undefined)[] = [undefined, { units: 'IP' }, { checkClaims: false }, { pressurePa: 90_000, pressureOrigin: 'setting' }];
+
+/** The settings of a step: mostly the sequence's own, sometimes another (as when the user changes them). */
+function settingsFor(base: number, n: number): Partial<EvaluateSettings> | undefined {
+  return n < 8 ? SETTINGS[base % SETTINGS.length] : SETTINGS[n % SETTINGS.length];
+}
+
+/** Where an edit goes: anywhere in the text, into a statement line (where typing usually happens), or into any non-blank line. */
+type Place = 'anywhere' | 'statement' | 'line';
+
+/** Applies an edit at the place it names. */
+function apply(text: string, e: { at: number; inStatement: Place; del: number; ins: string }): string {
+  let pos = Math.floor(e.at * (text.length + 1));
+  if (e.inStatement !== 'anywhere') {
+    const lines = [...text.matchAll(e.inStatement === 'statement' ? /(?:state|mix|process|site)[^\n\r]*/g : /[^\n\r]+/g)];
+    if (lines.length > 0) {
+      const m = lines[Math.floor(e.at * lines.length) % lines.length]!;
+      pos = m.index + Math.floor(((e.at * 7919) % 1) * (m[0].length + 1));
+    }
+  }
+  return text.slice(0, pos) + e.ins + text.slice(pos + e.del);
+}
+
+describe('incremental parse', () => {
+  it('equals parseNote after every edit of random edit sequences', () => {
+    fc.assert(
+      fc.property(note, fc.array(edit, { minLength: 1, maxLength: 25 }), (start, edits) => {
+        const parser = createNoteParser();
+        let text = start;
+        expect(parser.parse(text).parsed).toStrictEqual(parseNote(text));
+        for (const e of edits) {
+          text = apply(text, e);
+          const r = parser.parse(text);
+          expect(r.parsed).toStrictEqual(parseNote(text));
+          expect(r.origins.length).toBe(r.parsed.statements.length);
+          expect(r.deltas.length).toBe(r.parsed.statements.length);
+        }
+      }),
+      { seed: 4242, numRuns: 300 },
+    );
+  });
+
+  it('finds the changed range of two texts', () => {
+    fc.assert(
+      fc.property(fc.string({ maxLength: 200 }), fc.string({ maxLength: 200 }), (a, b) => {
+        const e = findEdit(a, b);
+        expect(a.slice(0, e.start)).toBe(b.slice(0, e.start));
+        expect(a.slice(e.oldEnd)).toBe(b.slice(e.newEnd));
+        expect(b.slice(0, e.start) + b.slice(e.start, e.newEnd) + b.slice(e.newEnd)).toBe(b);
+        expect(e.delta).toBe(b.length - a.length);
+        expect(e.start).toBeLessThanOrEqual(Math.min(e.oldEnd, e.newEnd));
+      }),
+      { seed: 99, numRuns: 2000 },
+    );
+    // Long texts go through the halving search.
+    const long = 'x'.repeat(100_000);
+    expect(findEdit(long, `${long.slice(0, 54_321)}y${long.slice(54_322)}`)).toEqual({ start: 54_321, oldEnd: 54_322, newEnd: 54_322, delta: 0 });
+  });
+
+  it('sees a fence line that an edit turns into a closing fence, or out of its container', () => {
+    // [note, line before, line after, the state names read after the edit]
+    const cases: [string, string, string, string[]][] = [
+      ['~~~air\nstate A: db=24C rh=50%\n~~\nstate B: db=30C wb=20C\n~~~\n', '~~', '~~~', ['A']],
+      ['```air\nstate A: db=24C rh=50%\n``\nstate B: db=30C wb=20C\n```\n', '``', '```', ['A']],
+      ['> ```air\n> state A: db=24C rh=50%\n> ``\n> state B: db=30C wb=20C\n> ```\n', '> ``', '> ```', ['A']],
+      ['> ```air\n> state A: db=24C rh=50%\n> state B: db=30C wb=20C\n> ```\n', '> state B', 'state B', ['A']],
+      ['- ```air\n  state A: db=24C rh=50%\n  state B: db=30C wb=20C\n  ```\n', '  state B', 'state B', ['A']],
+    ];
+    for (const [text, from, to, names] of cases) {
+      const parser = createNoteParser();
+      const analyzer = createAnalyzer();
+      parser.parse(text);
+      analyzer.analyze(text);
+      const edited = text.replace(`\n${from}`, `\n${to}`);
+      expect(edited).not.toBe(text);
+      expect(parser.parse(edited).parsed).toStrictEqual(parseNote(edited));
+      expect(analyzer.analyze(edited)).toStrictEqual(analyzeNote(edited));
+      expect(parseNote(edited).statements.map((st) => ('name' in st ? st.name?.text : null))).toEqual(names);
+    }
+  });
+
+  it('reuses the statements an edit inside a fence line does not touch', () => {
+    const text = '```air\nstate A: db=24C rh=50%\nstate B: db=30C wb=20C\nstate C: db=12C dp=5C\n```\n';
+    const parser = createNoteParser();
+    const first = parser.parse(text).parsed;
+    const edited = text.replace('wb=20C', 'wb=21C');
+    const second = parser.parse(edited);
+    expect(second.parsed).toStrictEqual(parseNote(edited));
+    expect(second.parsed.statements[0]).toBe(first.statements[0]);
+    expect(second.origins[1]).toBeNull();
+    expect(second.parsed.statements[2]).toBe(first.statements[2]);
+    // One character longer: the statement after the edit is a moved copy of the old one.
+    const longer = text.replace('wb=20C', 'wb=20.5C');
+    const third = parser.parse(longer);
+    expect(third.parsed).toStrictEqual(parseNote(longer));
+    expect(third.origins[2]).toBe(second.parsed.statements[2]);
+    expect(third.deltas[2]).toBe(2);
+  });
+});
+
+describe('incremental analysis (createAnalyzer)', () => {
+  it('equals analyzeNote after every edit of random edit sequences, settings changes included', () => {
+    fc.assert(
+      fc.property(note, fc.integer({ min: 0, max: 3 }), fc.array(edit, { minLength: 1, maxLength: 20 }), (start, base, edits) => {
+        const analyzer = createAnalyzer();
+        let text = start;
+        expect(analyzer.analyze(text, SETTINGS[base])).toStrictEqual(analyzeNote(text, SETTINGS[base]));
+        for (const e of edits) {
+          text = apply(text, e);
+          const settings = settingsFor(base, e.settings);
+          expect(analyzer.analyze(text, settings)).toStrictEqual(analyzeNote(text, settings));
+        }
+      }),
+      { seed: 2718, numRuns: 250 },
+    );
+  });
+
+  it('takes a state before the edit over as it was, and moves one after it', () => {
+    const text = '```air\nsite: elev=1200m\nstate A: db=24C rh=50% w=9g/kg\nstate B: db=30C wb=20C\nmix M: A 30% + B 70%\nstate C: db=12C dp=5C rh=60%\n```\n';
+    const analyzer = createAnalyzer();
+    const first = analyzer.analyze(text);
+    // The same text again is the same analysis.
+    expect(analyzer.analyze(text)).toBe(first);
+    const edited = text.replace('wb=20C', 'wb=19.5C');
+    const second = analyzer.analyze(edited);
+    expect(second).toStrictEqual(analyzeNote(edited));
+    const a1 = first.byName.get('A');
+    const a2 = second.byName.get('A');
+    expect(a2).toBe(a1);
+    // C moved by two characters: a new result with the same state, its claim on the moved statement.
+    const c1 = first.byName.get('C');
+    const c2 = second.byName.get('C');
+    expect(c2).not.toBe(c1);
+    expect(c2?.kind === 'state' && c1?.kind === 'state' && c2.state === c1.state).toBe(true);
+    expect(c2?.statement).toBe(second.parsed.statements[4]);
+    // A settings change is evaluated afresh (and still equal).
+    const ip = analyzer.analyze(edited, { units: 'IP' });
+    expect(ip).toStrictEqual(analyzeNote(edited, { units: 'IP' }));
+    expect(ip.byName.get('A')).not.toBe(a2);
+  });
+
+  it('re-evaluates a state when the site line above it changes', () => {
+    const text = '```air\nsite: elev=1200m\nstate A: db=24C rh=50% w=9.9g/kg\n```\n';
+    const analyzer = createAnalyzer();
+    analyzer.analyze(text);
+    const edited = text.replace('elev=1200m', 'elev=1300m');
+    const r = analyzer.analyze(edited);
+    expect(r).toStrictEqual(analyzeNote(edited));
+    const a = r.byName.get('A');
+    expect(a?.kind === 'state' ? a.pressure.elevationM : null).toBe(1300);
+  });
+});
