@@ -107,8 +107,17 @@ export const fields = {
           scope: 'resource',
           markdownDescription: 'Also show every figure of a hover in the other unit system.',
         },
-        'dewmark.trace.server': {
+        'dewmark.maxNoteSizeKB': {
           order: 8,
+          type: 'integer',
+          minimum: 0,
+          default: 2048,
+          scope: 'resource',
+          markdownDescription:
+            'Notes longer than this many KB (1 KB = 1024 characters) are not evaluated as you type: they get one information message saying so, and no hints, hovers, chart or problems. Keeps the editor responsive on huge files; `dewmark check` on the command line evaluates any note. 0: no limit.',
+        },
+        'dewmark.trace.server': {
+          order: 9,
           type: 'string',
           enum: ['off', 'messages', 'verbose'],
           enumDescriptions: ['No trace.', 'Each message\'s name.', 'Each message with its content.'],

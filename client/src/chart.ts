@@ -13,7 +13,7 @@ import { analyzeText, readSettings } from '../../shared-core/src/service';
 import { SETTINGS_SECTION } from '../../server/src/protocol';
 
 /** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */
-const SETTING_KEYS = ['units', 'pressure', 'elevation', 'inlayHints.properties', 'precision', 'checkClaims', 'hover.secondaryUnits'];
+const SETTING_KEYS = ['units', 'pressure', 'elevation', 'inlayHints.properties', 'precision', 'checkClaims', 'hover.secondaryUnits', 'maxNoteSizeKB'];
 
 /** The settings section for a document, as the plain object the server would receive. */
 function settingsFor(uri: vscode.Uri): Record<string, unknown> {
@@ -28,6 +28,10 @@ function chartSvg(doc: vscode.TextDocument, nonce: string): string {
   const text = doc.getText();
   const { settings } = readSettings(settingsFor(doc.uri));
   const note = analyzeText(text, settings);
+  if (note.limited) {
+    // Over the dewmark.maxNoteSizeKB limit: not evaluated, so nothing to draw; say why.
+    return `<p role="status">This note is larger than dewmark.maxNoteSizeKB (${settings.maxNoteKB} KB), so it is not evaluated as you type and has no chart here. Use <code>dewmark chart</code> on the command line, or raise the setting.</p>`;
+  }
   return renderChart(note.analysis, { source: text, title: basename(doc.uri.path), styleNonce: nonce });
 }
 

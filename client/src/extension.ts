@@ -55,7 +55,7 @@ export interface DewmarkApi {
 }
 
 /** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */
-const SETTING_KEYS = ['units', 'pressure', 'elevation', 'inlayHints.properties', 'precision', 'checkClaims', 'hover.secondaryUnits'];
+const SETTING_KEYS = ['units', 'pressure', 'elevation', 'inlayHints.properties', 'precision', 'checkClaims', 'hover.secondaryUnits', 'maxNoteSizeKB'];
 
 /** The service settings for a document (or the window's when there is none), as the server reads them. */
 export function documentSettings(uri: vscode.Uri | undefined): ServiceSettings {

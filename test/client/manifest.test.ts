@@ -37,6 +37,7 @@ const changed: Record<string, unknown> = {
   'dewmark.precision': 2,
   'dewmark.checkClaims': false,
   'dewmark.hover.secondaryUnits': true,
+  'dewmark.maxNoteSizeKB': 512,
 };
 
 /** Nests `{ 'a.b': v }` the way VS Code hands a section to `workspace/configuration`. */

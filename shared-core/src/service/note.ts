@@ -14,11 +14,16 @@ import type {
 } from '../notation/ast';
 import { LineIndex } from '../text/lineIndex';
 import type { Span } from '../text/types';
+import { limitedNote, overLimit } from './limits';
 import { toEvaluateSettings } from './settings';
 import type { Note, ServiceSettings } from './types';
 
-/** Parses and evaluates `text` once with the service settings; every feature reads the result. */
+/**
+ * Parses and evaluates `text` once with the service settings; every feature reads the result. A
+ * note over the size limit is not evaluated (see `./limits`).
+ */
 export function analyzeText(text: string, settings: ServiceSettings): Note {
+  if (overLimit(text, settings)) return limitedNote(text, settings);
   return { text, analysis: analyzeNote(text, toEvaluateSettings(settings)), settings };
 }
 
@@ -27,6 +32,10 @@ export function analyzeText(text: string, settings: ServiceSettings): Note {
  * open document): the same note, with less work after a small edit.
  */
 export function analyzeTextWith(analyzer: Analyzer, text: string, settings: ServiceSettings): Note {
+  if (overLimit(text, settings)) {
+    analyzer.reset(); // nothing to reuse, and no need to keep the last run of a smaller text
+    return limitedNote(text, settings);
+  }
   return { text, analysis: analyzer.analyze(text, toEvaluateSettings(settings)), settings };
 }
 

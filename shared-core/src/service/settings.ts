@@ -14,6 +14,13 @@ const SEA_LEVEL_PA = 101_325;
 /** Largest number of extra decimals the `precision` setting accepts. */
 export const MAX_EXTRA_DIGITS = 4;
 
+/**
+ * Default of `maxNoteSizeKB`: 2 MB of text. On a two-core machine a note of that size takes under
+ * a second to evaluate after an edit (bench/robustness.ts); calculation notes are rarely a
+ * hundredth of it.
+ */
+export const DEFAULT_MAX_NOTE_KB = 2048;
+
 /** The settings used when the client offers none: SI, 101.325 kPa, automatic hints, claims checked. */
 export const DEFAULT_SERVICE_SETTINGS: Readonly<ServiceSettings> = Object.freeze({
   units: 'SI',
@@ -22,6 +29,7 @@ export const DEFAULT_SERVICE_SETTINGS: Readonly<ServiceSettings> = Object.freeze
   extraDigits: 0,
   checkClaims: true,
   secondaryUnits: false,
+  maxNoteKB: DEFAULT_MAX_NOTE_KB,
 });
 
 /** Reads `obj.a.b` or a flat `obj['a.b']` (clients differ in how they nest dotted settings). */
@@ -136,7 +144,14 @@ export function readSettings(raw: unknown): { settings: ServiceSettings; problem
   if (typeof su === 'boolean') secondaryUnits = su;
   else if (su !== undefined && su !== null) problems.push(`dewmark.hover.secondaryUnits must be true or false, not ${JSON.stringify(su)}; false is used.`);
 
-  return { settings: { units, site, hintProperties, extraDigits, checkClaims, secondaryUnits }, problems };
+  let maxNoteKB = d.maxNoteKB;
+  const mk = pick(obj, 'maxNoteSizeKB');
+  if (typeof mk === 'number' && Number.isInteger(mk) && mk >= 0) maxNoteKB = mk;
+  else if (mk !== undefined && mk !== null) {
+    problems.push(`dewmark.maxNoteSizeKB must be a whole number of KB (0 for no limit), not ${JSON.stringify(mk)}; ${d.maxNoteKB} is used.`);
+  }
+
+  return { settings: { units, site, hintProperties, extraDigits, checkClaims, secondaryUnits, maxNoteKB }, problems };
 }
 
 /** The evaluator settings that the service settings imply (default pressure and where it came from). */

@@ -31,6 +31,11 @@ export interface ServiceSettings {
   checkClaims: boolean;
   /** Whether hovers also show every figure in the other unit system. */
   secondaryUnits: boolean;
+  /**
+   * Notes longer than this many KB (1024 characters each) are not evaluated in the editor: they get
+   * one info diagnostic saying so, and no hints or hovers (0 = no limit). See `./limits`.
+   */
+  maxNoteKB: number;
 }
 
 /** A cancellation signal (structurally compatible with an LSP cancellation token). */
@@ -43,6 +48,8 @@ export interface Note {
   text: string;
   analysis: Analysis;
   settings: ServiceSettings;
+  /** Set when the note is longer than `settings.maxNoteKB`: it was not evaluated (its analysis is empty). */
+  limited?: { chars: number; limitChars: number };
 }
 
 /** A replacement of one span of the document. */
