@@ -13,7 +13,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { applyEdits } from './service-helpers';
-import { fuzzConfig, note as anyNote, settings as anySettings, timeoutFor } from './robustness-generators';
+import { fuzzConfig, note as anyNote, settings as someSettings, timeoutFor } from './robustness-generators';
 import {
   analyzeText,
   codeActions,
@@ -80,6 +80,8 @@ const fixableNote = fc
     return (head + parts.join('\n\nProse between the blocks.\n\n') + '\n').split('\n').join(eol);
   });
 const notes = fc.oneof({ weight: 4, arbitrary: fixableNote }, { weight: 1, arbitrary: anyNote });
+/** Any settings, without a size limit (an edit that grows a note past a tiny limit would empty its analysis). */
+const anySettings = someSettings.map((s): ServiceSettings => ({ ...s, maxNoteKB: 0 }));
 
 // ---------------------------------------------------------------------------------------------
 // Checks

@@ -306,6 +306,8 @@ export const settings: fc.Arbitrary<ServiceSettings> = fc.record({
   extraDigits: fc.integer({ min: 0, max: 4 }),
   checkClaims: fc.boolean(),
   secondaryUnits: fc.boolean(),
+  // Mostly the default; sometimes no limit, or one so small that the note is over it.
+  maxNoteKB: fc.oneof({ weight: 8, arbitrary: fc.constant(2048) }, { weight: 1, arbitrary: fc.constantFrom(0, 1, 4) }),
 });
 
 // ---------------------------------------------------------------------------------------------
