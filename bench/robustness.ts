@@ -6,7 +6,8 @@
  * For each: parse + evaluate time, then the features an editor asks for while typing (diagnostics,
  * inlay hints for a 60-line window, hover, completion, outline); through a spawned server the
  * open → first diagnostics time, a one-character didChange → its diagnostics, and how long a
- * hover sent right after that change waits (the server must answer, never block for long).
+ * hover sent right after that change waits (the server must answer, never block for long), with
+ * the default size limit (notes over 2 MB get one info diagnostic instead) and with it off.
  * Also the fuzzing throughput (random notes per second through every feature).
  * Figures are printed, not asserted. Run alone: `node --import tsx bench/robustness.ts` (after
  * `npm run build`).
@@ -101,13 +102,14 @@ function size(text: string): string {
   return bytes >= 1024 * 1024 ? `${(bytes / 1024 / 1024).toFixed(2)} MB` : `${(bytes / 1024).toFixed(0)} KB`;
 }
 
-/** Parse + evaluate and each feature in memory: medians of a few rounds. */
+/** Parse + evaluate and each feature in memory (size limit off: the engine's own cost), medians of a few rounds. */
 function inMemory(n: BigNote): void {
   const rounds = 3;
   const analyse: number[] = [];
-  let note = analyzeText(n.text, DEFAULT_SERVICE_SETTINGS);
+  const settings = { ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 0 };
+  let note = analyzeText(n.text, settings);
   for (let i = 0; i < rounds; i++) {
-    const r = time(() => analyzeText(n.text, DEFAULT_SERVICE_SETTINGS));
+    const r = time(() => analyzeText(n.text, settings));
     analyse.push(r.ms);
     note = r.value;
   }
@@ -133,11 +135,14 @@ function inMemory(n: BigNote): void {
   );
 }
 
-/** Through the spawned server: open → diagnostics, one edit → diagnostics, a hover sent right after the edit. */
-async function throughServer(n: BigNote): Promise<void> {
+/**
+ * Through the spawned server: open → diagnostics, one edit → diagnostics, a hover sent right after
+ * the edit. `limitKB` is the dewmark.maxNoteSizeKB setting (undefined: the default, 2048; 0: none).
+ */
+async function throughServer(n: BigNote, limitKB?: number): Promise<void> {
   const s = startServer();
   try {
-    await s.initialize(PUSH_ONLY_CAPABILITIES);
+    await s.initialize(PUSH_ONLY_CAPABILITIES, limitKB === undefined ? {} : { initializationOptions: { dewmark: { maxNoteSizeKB: limitKB } } });
     const uri = `file:///bench/robustness-${n.label.replace(/\W+/g, '-')}.md`;
     let t0 = process.hrtime.bigint();
     await s.open(uri, n.text, 1);
@@ -165,8 +170,9 @@ async function throughServer(n: BigNote): Promise<void> {
       edits.push(ms(t0));
       await hv;
     }
+    const limited = first.diagnostics.some((d) => d.code === 'note-too-large');
     console.log(
-      `${n.label.padEnd(20)} server: open → ${first.diagnostics.length} diagnostics ${openMs.toFixed(0)} ms; ` +
+      `${n.label.padEnd(20)} server${limitKB === 0 ? ' (no limit)' : ''}: ${limited ? 'over the limit (note-too-large), ' : ''}open → ${first.diagnostics.length} diagnostics ${openMs.toFixed(0)} ms; ` +
         `1-char edit → diagnostics ${median(edits).toFixed(0)} ms (median of 6); hover sent after the edit answered in ${median(hovers).toFixed(0)} ms`,
     );
     await s.shutdown();
@@ -199,10 +205,12 @@ function fuzzThroughput(): void {
 export async function benchRobustness(): Promise<void> {
   fuzzThroughput();
   const big = notes();
-  console.log('in memory (medians of 3 analyses, 5 feature calls):');
+  console.log('in memory, size limit off (medians of 3 analyses, 5 feature calls):');
   for (const n of big) inMemory(n);
-  console.log('through the server (stdio):');
+  console.log('through the server (stdio), default dewmark.maxNoteSizeKB (2048):');
   for (const n of big) await throughServer(n);
+  console.log('through the server with the limit off (dewmark.maxNoteSizeKB = 0), for comparison:');
+  for (const n of big) await throughServer(n, 0);
 }
 
 if (process.argv[1] && /bench[\\/]robustness\.ts$/.test(process.argv[1])) {
