@@ -25,7 +25,9 @@ import {
   timeSummary,
   zeroCounts,
 } from './robustness-generators';
-import { codeActions, rename, type ServiceSettings } from '../src/service';
+import { codeActions, noteDiagnostics, rename, type Note, type ServiceSettings } from '../src/service';
+import { analyzeTextWith } from '../src/service/note';
+import { createAnalyzer } from '../src/evaluate';
 
 const cfg = fuzzConfig();
 /** A note counts as slow only when the fastest of three re-runs takes longer than this. */
@@ -131,18 +133,33 @@ function applyStep(text: string, s: ServiceSettings, e: EditStep): string {
   return 'edits' in r ? applyEdits(text, r.edits) : text;
 }
 
+/** What two analyses of one text must agree on: diagnostics, and each item's name, kind, span, state and claims. */
+function essence(n: Note): unknown {
+  return {
+    diagnostics: noteDiagnostics(n),
+    units: n.analysis.units,
+    items: n.analysis.items.map((i) => ({ ...i, statement: i.statement.span })),
+    statements: n.analysis.parsed.statements.length,
+  };
+}
+
 describe('fuzzing: random edit sequences', () => {
-  it(`${cfg.editSequences} edit sequences through the in-memory service (seed ${cfg.seed})`, () => {
+  it(`${cfg.editSequences} edit sequences through the in-memory service, as the server runs it (seed ${cfg.seed})`, () => {
     log(`seed ${cfg.seed}, ${cfg.editSequences} edit sequences`);
     let analyses = 0;
     const t0 = now();
     fc.assert(
       fc.property(note, settings, fc.array(step, { minLength: 1, maxLength: 20 }), (start, s, steps) => {
+        // The server analyses each open document with its own incremental analyzer: after every
+        // edit its result must be the fresh analysis of the same text.
+        const analyzer = createAnalyzer();
+        analyzeTextWith(analyzer, start, s);
         let text = start;
         for (const e of steps) {
           text = applyStep(text, s, e);
           const at = text.length === 0 ? 0 : e.at % (text.length + 1);
-          checkNote(text, s, [at, Math.max(0, at - 1), at + 1]);
+          const fresh = checkNote(text, s, [at, Math.max(0, at - 1), at + 1]);
+          expect(essence(analyzeTextWith(analyzer, text, s))).toEqual(essence(fresh));
           analyses++;
         }
       }),
