@@ -122,7 +122,10 @@ class Reuse implements EvaluateReuse {
 
   readonly solve = (input: Parameters<typeof solveState>[0], p: number, options?: SolveOptions): SolveResult => {
     let key = `${numKey(p)}|${options?.allowFog === true ? 1 : 0}`;
-    for (const k in input) key += `|${k}=${numKey(input[k as keyof typeof input] as number)}`;
+    for (const k in input) {
+      const v = input[k as keyof typeof input];
+      if (v !== undefined) key += `|${k}=${numKey(v)}`;
+    }
     let r = this.nextSolves.get(key) ?? this.prevSolves.get(key);
     if (!r) r = solveState(input, p, options);
     this.nextSolves.set(key, r);

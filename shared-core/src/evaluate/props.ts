@@ -50,7 +50,13 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
       unknownKeys++;
       continue;
     }
-    const first = seen.find((p) => p.key === prop.key);
+    let first: PropertyNode | undefined;
+    for (const p of seen) {
+      if (p.key === prop.key) {
+        first = p;
+        break;
+      }
+    }
     if (first) {
       ctx.report({
         code: 'duplicate-key',

@@ -109,6 +109,28 @@ export function stateClaims(ctx: EvalContext, claimsProps: ReadProp[], s: MoistA
   return out;
 }
 
+const NONE: ReadProp[] = [];
+const ALLOW_FOG = Object.freeze({ allowFog: true });
+
+function isPressureProp(p: ReadProp): boolean {
+  return p.key === 'p' || p.key === 'elev';
+}
+
+function isDefiningProp(p: ReadProp): boolean {
+  return isDefiningKey(p.key);
+}
+
+/**
+ * The solver's input for a defining pair, always with the same six fields (absent ones
+ * undefined), so that every pair gives the solver an object of one shape.
+ */
+function pairInput(ka: DefiningKey, va: number, kb: DefiningKey, vb: number): Partial<Record<DefiningKey, number>> {
+  const input: Record<DefiningKey, number | undefined> = { db: undefined, wb: undefined, dp: undefined, rh: undefined, w: undefined, h: undefined };
+  input[ka] = va;
+  input[kb] = vb;
+  return input as Partial<Record<DefiningKey, number>>;
+}
+
 /** Evaluates one `state` statement; always returns a result (with `state: null` when it failed). */
 export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boolean): StateResult {
   const name = stmt.name?.text ?? '';
@@ -118,8 +140,8 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
 
   // Pressure: the state's own p= / elev=, else the site pressure.
   let pressure: PressureBasis = ctx.site;
-  let pressureFailed = broken.includes('p') || broken.includes('elev');
-  const override = props.filter((p) => p.key === 'p' || p.key === 'elev');
+  let pressureFailed = broken.length > 0 && (broken.includes('p') || broken.includes('elev'));
+  const override = props.some(isPressureProp) ? props.filter(isPressureProp) : NONE;
   if (override.length > 0) {
     const basis = pressureFromProps(ctx, override, 'override', `${what} own pressure`);
     if (basis) pressure = basis;
@@ -127,12 +149,12 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
   }
 
   const result: StateResult = { kind: 'state', name, statement: stmt, state: null, pressure, defining: [], claims: [] };
-  const defs = props.filter((p) => isDefiningKey(p.key));
-  const brokenDefining = broken.filter((k) => isDefiningKey(k));
+  const defs = props.filter(isDefiningProp);
   if (pressureFailed) return result;
 
   if (defs.length < 2) {
     // A property that could not be read (bad unit, unknown key) already explains the shortfall.
+    const brokenDefining = broken.filter((k) => isDefiningKey(k));
     if (defs.length + brokenDefining.length + unknownKeys >= 2) return result;
     const has = defs.length === 1 ? `only ${writtenList(defs)}` : 'no defining property';
     const hasV = props.some((p) => p.key === 'v');
@@ -145,7 +167,9 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
     return result;
   }
 
-  const spansByKey = new Map<string, Span>(props.map((p) => [p.key, p.prop.span]));
+  // The span of each written key, for messages (built only when one is reported).
+  let spanMap: Map<string, Span> | null = null;
+  const spansByKey = (): Map<string, Span> => (spanMap ??= new Map<string, Span>(props.map((p) => [p.key, p.prop.span])));
   const candidates = candidatePairs(defs);
   if (candidates.length === 0) {
     const a = defs[0]!;
@@ -154,17 +178,17 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
       code: 'dependent-pair',
       severity: 'error',
       message: `${what}: ${writtenList(defs)} fix the same thing (the moisture content) twice, so the state is not fixed; add ${thirdKindFor(a.key as DefiningKey, b.key as DefiningKey)}`,
-      span: spanOf(spansByKey, defs),
+      span: spanOf(spansByKey(), defs),
     });
     return result;
   }
 
   let lastDependent: PhysicsProblem | null = null;
   for (const [a, b] of candidates) {
-    const input: Partial<Record<DefiningKey, number>> = { [a.key]: a.q.si, [b.key]: b.q.si };
+    const input = pairInput(a.key as DefiningKey, a.q.si, b.key as DefiningKey, b.q.si);
     let solved: ReturnType<typeof solveState>;
     try {
-      solved = ctx.solve(input, pressure.pa, { allowFog: true });
+      solved = ctx.solve(input, pressure.pa, ALLOW_FOG);
     } catch (err) {
       // The engine promises not to throw; if it does, report it as a problem and go on.
       solved = { ok: false, problem: { code: 'no-solution', message: `the engine failed (${err instanceof Error ? err.message : String(err)})`, fix: 'check the figures', keys: [a.key as DefiningKey, b.key as DefiningKey] } };
@@ -174,7 +198,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
         lastDependent = solved.problem;
         continue;
       }
-      ctx.report(problemDiagnostic(solved.problem, 'error', spansByKey, spanOf(spansByKey, [a, b]), what, pressureRelated(solved.problem, pressure)));
+      ctx.report(problemDiagnostic(solved.problem, 'error', spansByKey(), spanOf(spansByKey(), [a, b]), what, pressureRelated(solved.problem, pressure)));
       return result;
     }
     if (!stateFinite(solved.state)) {
@@ -191,11 +215,11 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
                 ? `Dewmark needs a state that can be saturated: lower the dry-bulb below the boiling point at ${pressureWord(pressure)}, or raise the pressure`
                 : 'Dewmark needs every property finite: give a humidity ratio above zero'
             }`,
-            span: spanOf(spansByKey, [a, b]),
+            span: spanOf(spansByKey(), [a, b]),
           });
         }
       } else {
-        ctx.report({ code: 'out-of-range', severity: 'error', message: `${what}: ${writtenList([a, b])} give a state with a property that has no finite value; check the figures`, span: spanOf(spansByKey, [a, b]) });
+        ctx.report({ code: 'out-of-range', severity: 'error', message: `${what}: ${writtenList([a, b])} give a state with a property that has no finite value; check the figures`, span: spanOf(spansByKey(), [a, b]) });
       }
       return result;
     }
@@ -204,14 +228,14 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
     let illReported = false;
     for (const w of solved.warnings) {
       if (w.code === 'ill-conditioned') illReported = true;
-      ctx.report(problemDiagnostic(w, 'warning', spansByKey, spanOf(spansByKey, [a, b]), what));
+      ctx.report(problemDiagnostic(w, 'warning', spansByKey(), spanOf(spansByKey(), [a, b]), what));
     }
     if (!illReported && isIllConditionedPair(a.key as DefiningKey, b.key as DefiningKey)) {
       ctx.report({
         code: 'ill-conditioned',
         severity: 'warning',
         message: `${what}: ${writtenList([a, b])} are nearly parallel on the chart, so small changes in either move the state a lot; define it with db, dp, rh or w instead`,
-        span: spanOf(spansByKey, [a, b]),
+        span: spanOf(spansByKey(), [a, b]),
       });
     }
     const claimsProps = props.filter((p) => p !== a && p !== b && p.key !== 'p' && p.key !== 'elev');
@@ -219,7 +243,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
     return result;
   }
   if (lastDependent) {
-    ctx.report(problemDiagnostic(lastDependent, 'error', spansByKey, spanOf(spansByKey, defs), what));
+    ctx.report(problemDiagnostic(lastDependent, 'error', spansByKey(), spanOf(spansByKey(), defs), what));
   }
   return result;
 }
