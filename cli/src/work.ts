@@ -3,7 +3,7 @@
  * thread or in worker threads (many files are checked in parallel on a multi-core machine).
  */
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
-import { availableParallelism } from 'node:os';
+import { availableParallelism, loadavg } from 'node:os';
 import type { EvaluateSettings } from './core';
 import { analyzeNote } from './core';
 import { STDIN_PATH, decodeText, readInput, type Input } from './files';
@@ -71,42 +71,78 @@ export function runTask(task: Task, mode: Mode, settings: Partial<EvaluateSettin
   }
 }
 
+/** What a worker thread is started with. */
 interface WorkerJob {
   dewmarkWorker: true;
-  tasks: Task[];
   mode: Mode;
   settings: Partial<EvaluateSettings>;
 }
 
-/** In a worker thread started by {@link runTasks}: does the job and posts the results. Returns true when it was one. */
+/** A batch of tasks sent to a worker (its results come back with the same `start`). */
+interface Batch {
+  start: number;
+  tasks: Task[];
+}
+
+/** In a worker thread started by {@link runTasks}: does the batches it is sent and posts their results. Returns true when it was one. */
 export function workerMain(): boolean {
   if (isMainThread || !parentPort) return false;
   const job = workerData as WorkerJob | undefined;
   if (!job || job.dewmarkWorker !== true) return false;
-  parentPort.postMessage(job.tasks.map((t) => runTask(t, job.mode, job.settings)));
+  const port = parentPort;
+  port.on('message', (batch: Batch | null) => {
+    if (batch === null) {
+      port.close();
+      return;
+    }
+    port.postMessage({ start: batch.start, results: batch.tasks.map((t) => runTask(t, job.mode, job.settings)) });
+  });
   return true;
 }
 
-/** Files below which everything runs in the main thread (starting workers costs more). */
+/** Files below which everything runs in the main thread (starting a worker costs more). */
 const PARALLEL_FROM = 64;
 
-/** How many worker threads to use for `n` files (0: run in the main thread). */
+/** At most this many worker threads (besides the main thread, which works too). */
+const MAX_WORKERS = 3;
+
+/**
+ * How many worker threads to use for `n` files besides the main thread (0: the main thread
+ * alone). A worker costs a start-up and a cold JIT of its own (about half a second of CPU), which
+ * pays only when a core is free for it: so one core is left to the main thread, and cores the
+ * load average shows busy with other work are not counted (a 2-core machine starts one worker
+ * when it is otherwise idle, none when it is busy). `DEWMARK_WORKERS=0` keeps everything in one
+ * thread; another whole number sets the count.
+ */
 export function workerCount(n: number): number {
-  if (n < PARALLEL_FROM || process.env.DEWMARK_WORKERS === '0') return 0;
+  const forced = process.env.DEWMARK_WORKERS;
+  if (forced === '0' || n < PARALLEL_FROM) return 0;
   // Workers run this same bundle; from TypeScript sources (no bundle) everything stays in one thread.
   if (typeof __filename !== 'string' || !__filename.endsWith('.js')) return 0;
+  const byFiles = Math.floor(n / PARALLEL_FROM) - 1;
+  if (forced !== undefined && /^[1-9][0-9]?$/.test(forced)) return Math.max(0, Math.min(Number(forced), byFiles + 1));
   let cores = 1;
+  let load = 0;
   try {
     cores = availableParallelism();
+    load = loadavg()[0] ?? 0; // 0 where the system has no load average (Windows)
   } catch {
     cores = 1;
   }
-  return Math.max(0, Math.min(4, cores, Math.ceil(n / PARALLEL_FROM)));
+  const free = Math.floor(cores - load - 0.5);
+  return Math.max(0, Math.min(MAX_WORKERS, cores - 1, free, byFiles));
+}
+
+/** Tasks per batch: small enough to share the work out evenly, large enough that messages are few. */
+function batchSize(n: number, threads: number): number {
+  return Math.max(4, Math.min(32, Math.ceil(n / (threads * 8))));
 }
 
 /**
- * Runs the tasks in order and calls `onResult` for each, in input order. With several files and
- * cores the work is split into contiguous chunks, one per worker thread.
+ * Runs the tasks and calls `onResult` for each, in input order. With many files and several
+ * cores, worker threads and the main thread take batches of files from one queue as they become
+ * free (a worker that is slow to start, or a busy core, simply takes fewer). A worker that fails
+ * to start or dies has its batch done in the main thread.
  */
 export async function runTasks(
   tasks: Task[],
@@ -116,40 +152,81 @@ export async function runTasks(
   onProgress?: (done: number) => void,
 ): Promise<void> {
   const k = workerCount(tasks.length);
-  if (k <= 1) {
+  if (k === 0) {
     tasks.forEach((t, i) => {
       onResult(t, runTask(t, mode, settings));
       if (onProgress && (i % 10 === 9 || i === tasks.length - 1)) onProgress(i + 1);
     });
     return;
   }
-  const size = Math.ceil(tasks.length / k);
-  const chunks: Task[][] = [];
-  for (let i = 0; i < tasks.length; i += size) chunks.push(tasks.slice(i, i + size));
+  const size = batchSize(tasks.length, k + 1);
+  const results: (TaskResult | undefined)[] = new Array<TaskResult | undefined>(tasks.length);
+  let next = 0;
+  let emitted = 0;
   let done = 0;
-  const results = await Promise.all(
-    chunks.map(
-      (chunk) =>
-        new Promise<TaskResult[]>((resolve) => {
-          const job: WorkerJob = { dewmarkWorker: true, tasks: chunk, mode, settings };
-          let settled = false;
-          const w = new Worker(__filename, { workerData: job });
-          w.once('message', (r: TaskResult[]) => {
-            settled = true;
-            done += chunk.length;
-            onProgress?.(done);
-            resolve(r);
-          });
-          const fallback = () => {
-            // A worker that fails to start or dies: do its chunk here instead.
-            if (settled) return;
-            settled = true;
-            resolve(chunk.map((t) => runTask(t, mode, settings)));
-          };
-          w.once('error', fallback);
-          w.once('exit', fallback);
-        }),
-    ),
+  const take = (): Batch | null => {
+    if (next >= tasks.length) return null;
+    const start = next;
+    next = Math.min(tasks.length, next + size);
+    return { start, tasks: tasks.slice(start, next) };
+  };
+  const store = (start: number, rs: TaskResult[]): void => {
+    rs.forEach((r, i) => (results[start + i] = r));
+    done += rs.length;
+    onProgress?.(done);
+    while (emitted < tasks.length && results[emitted] !== undefined) {
+      onResult(tasks[emitted]!, results[emitted]!);
+      results[emitted] = undefined;
+      emitted++;
+    }
+  };
+  const runHere = (b: Batch): void => store(b.start, b.tasks.map((t) => runTask(t, mode, settings)));
+
+  const workers = Array.from(
+    { length: k },
+    () =>
+      new Promise<void>((resolve) => {
+        const job: WorkerJob = { dewmarkWorker: true, mode, settings };
+        // Batches sent and not yet answered: two, so that a worker never waits for the next one.
+        const inflight: Batch[] = [];
+        let finished = false;
+        const w = new Worker(__filename, { workerData: job });
+        const fill = (): void => {
+          while (inflight.length < 2) {
+            const b = take();
+            if (!b) break;
+            inflight.push(b);
+            w.postMessage(b);
+          }
+          if (inflight.length === 0 && !finished) {
+            finished = true;
+            w.postMessage(null);
+            resolve();
+          }
+        };
+        w.on('message', (m: { start: number; results: TaskResult[] }) => {
+          const i = inflight.findIndex((b) => b.start === m.start);
+          if (i >= 0) inflight.splice(i, 1);
+          store(m.start, m.results);
+          fill();
+        });
+        const fail = (): void => {
+          // A worker that fails to start or dies: its batches are done here, and it takes no more.
+          if (finished) return;
+          finished = true;
+          for (const b of inflight.splice(0)) runHere(b);
+          resolve();
+        };
+        w.once('error', fail);
+        w.once('exit', fail);
+        w.once('online', fill);
+      }),
   );
-  results.forEach((rs, c) => rs.forEach((r, i) => onResult(chunks[c]![i]!, r)));
+  // The main thread takes batches too, yielding between them so that workers' results and
+  // requests for more are handled promptly.
+  for (let b = take(); b; b = take()) {
+    runHere(b);
+    await new Promise<void>((r) => setImmediate(r));
+  }
+  await Promise.all(workers);
 }
