@@ -300,3 +300,16 @@ describe('properties', () => {
     expect(normalizeBody(['', '|  a  |  b |', '| :---- | ---: |', '  text  here '])).toBe('|a|b|\n|:-|-:|\ntext here');
   });
 });
+
+describe('a note that starts with a byte-order mark', () => {
+  it('writes no BOM into the table lines, and writing twice changes nothing', () => {
+    // Found by the robustness fuzzing (edits property, some seeds): the BOM was taken as part of
+    // the first block's container prefix and copied onto every table line.
+    for (const text of ['\uFEFF- ```air\n  ```\n\n   ```air\n```', '\uFEFF```air\nstate A: db=20C rh=50%\n```\n']) {
+      const once = writeAll(text).after;
+      expect(once.indexOf('\uFEFF', 1), JSON.stringify(once)).toBe(-1);
+      expect(writeAll(once).edits).toEqual([]);
+    }
+  });
+});
+

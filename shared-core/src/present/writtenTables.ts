@@ -143,7 +143,12 @@ export function tableSlots(text: string, regions: readonly AirRegion[]): TableSl
   fences.forEach((region, i) => {
     if (!closedFence(text, region)) return;
     const firstLineStart = text.lastIndexOf('\n', region.span.start - 1) + 1;
-    const prefix = text.slice(firstLineStart, region.span.start).replace(/[^>\s]/g, ' ');
+    // The container prefix as columns: quote markers and blanks kept, list markers blanked. A BOM
+    // before the first line is not a column (and `\s` would keep it), so it is dropped.
+    const prefix = text
+      .slice(firstLineStart, region.span.start)
+      .replace(/^\uFEFF/, '')
+      .replace(/[^> \t]/g, ' ');
     const slot: TableSlot = { region, insertAt: region.span.end, prefix, table: null };
     out.push(slot);
     const limit = fences[i + 1]?.span.start ?? text.length;
