@@ -108,6 +108,13 @@ describe('mix problems', () => {
     expect(d[0]!.message).toContain('90 %');
     expect(stateResult(a, 'MA').state).toBeNull();
   });
+  it('a wrong sum is reported even when a stream could not be computed', () => {
+    const a = analyse(fence('state OA: db=35C wb=40C', 'state RA: db=24C rh=50%', 'mix MA: OA 30% + RA 60%'));
+    expect(withCode(a, 'wb-above-db')).toHaveLength(1);
+    const d = withCode(a, 'mix-fractions');
+    expect(d).toHaveLength(1);
+    expect(d[0]!.message).toContain('90 %');
+  });
   it('rounded thirds add up within half a unit of each last digit', () => {
     const a = analyse(fence('state A: db=10C rh=80%', 'state B: db=20C rh=50%', 'state C: db=30C rh=30%', 'mix M: A 33.3% + B 33.3% + C 33.3%'));
     expect(withCode(a, 'mix-fractions')).toEqual([]);

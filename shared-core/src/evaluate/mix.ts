@@ -61,6 +61,10 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
 
   // Read every stream: its name (a computed state defined above) and its amount.
   const streams: StreamRead[] = [];
+  // Every amount that could be read, whether or not its state could: the fractions are checked
+  // even when a stream's state failed, so a wrong sum is not hidden behind another error.
+  const amounts: { name: string; amountSpan: Span; kind: AmountKind; si: number; halfResolution: number }[] = [];
+  let amountFailed = false;
   let failed = false;
   for (const s of stmt.streams) {
     const ref = ctx.resolve(s.name, stmt, index);
@@ -86,8 +90,10 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     const amount = readAmount(ctx, s.amount, s.span, s.name.text, what);
     if (!amount) {
       failed = true;
+      amountFailed = true;
       continue;
     }
+    amounts.push({ name: s.name.text, amountSpan: amount.span, kind: amount.kind, si: amount.si, halfResolution: amount.halfResolution });
     if (state) streams.push({ name: s.name.text, span: s.span, amountSpan: amount.span, kind: amount.kind, si: amount.si, halfResolution: amount.halfResolution, state });
   }
 
@@ -107,13 +113,11 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     });
     return result;
   }
-  if (failed || streams.length === 0) return result;
-
   // Fractions must add to 100 % (within half a unit of the last digit of each).
-  if (kinds.has('fraction')) {
-    const sum = streams.reduce((a, s) => a + s.si, 0);
-    const slack = streams.reduce((a, s) => a + s.halfResolution, 0) + 1e-9;
-    const negative = streams.find((s) => s.si < 0);
+  if (!amountFailed && amounts.length > 0 && amounts.every((a) => a.kind === 'fraction')) {
+    const sum = amounts.reduce((a, s) => a + s.si, 0);
+    const slack = amounts.reduce((a, s) => a + s.halfResolution, 0) + 1e-9;
+    const negative = amounts.find((s) => s.si < 0);
     if (negative) {
       ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: the fraction of ${negative.name} is negative; fractions are between 0 % and 100 %`, span: negative.amountSpan });
       return result;
@@ -123,12 +127,13 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
         code: 'mix-fractions',
         severity: 'error',
         message: `${what}: the fractions add to ${formatSig(sum * 100, 6)} %, not 100 %; change them so they add to 100 % (the fractions are of dry-air mass)`,
-        span: spanUnion(...streams.map((s) => s.amountSpan)),
+        span: spanUnion(...amounts.map((s) => s.amountSpan)),
         data: { sumPct: sum * 100 },
       });
       return result;
     }
   }
+  if (failed || streams.length === 0) return result;
 
   // Dry-air mass flow of each stream (or its fraction when amounts are fractions).
   const mass: number[] = streams.map((s) => {
