@@ -78,6 +78,16 @@ describe('architecture invariants', () => {
     expect(bad).toEqual([]);
   });
 
+  it('the other packages reach the core only through its package name', () => {
+    const bad: string[] = [];
+    for (const dir of ['server/src', 'client/src', 'cli/src']) {
+      for (const f of sourcesUnder(dir)) {
+        for (const s of importsOf(f)) if (/shared-core\//.test(s)) bad.push(`${relative(root, f)} imports ${s}; use @dewmark/core/…`);
+      }
+    }
+    expect(bad).toEqual([]);
+  });
+
   it('units and physics do not depend on the notation, evaluator or service', () => {
     const bad: string[] = [];
     for (const layer of ['units', 'physics']) {

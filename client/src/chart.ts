@@ -8,8 +8,8 @@
 import { randomBytes } from 'node:crypto';
 import { basename } from 'node:path';
 import * as vscode from 'vscode';
-import { chartWebviewHtml, renderChart, type ChartUpdateMessage } from '../../shared-core/src/chart';
-import { analyzeText, readSettings } from '../../shared-core/src/service';
+import { chartWebviewHtml, renderChart, type ChartUpdateMessage } from '@dewmark/core/chart';
+import { analyzeText, readSettings } from '@dewmark/core/service';
 import { SETTINGS_SECTION } from '../../server/src/protocol';
 
 /** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */

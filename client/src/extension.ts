@@ -27,7 +27,7 @@ import {
   type ResultsTableParams,
   type ResultsTableResult,
 } from '../../server/src/protocol';
-import { readSettings, type ServiceSettings } from '../../shared-core/src/service';
+import { readSettings, type ServiceSettings } from '@dewmark/core/service';
 import type { ChartPanels } from './chart';
 import { COMMANDS, OUTPUT_CHANNEL } from './commands';
 import {

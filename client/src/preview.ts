@@ -10,11 +10,11 @@
  * No VS Code API here (the extension passes the settings in), so the plugin runs under plain
  * markdown-it in tests.
  */
-import { analyzeText, DEFAULT_SERVICE_SETTINGS, type ServiceSettings } from '../../shared-core/src/service';
-import { allBlockResults, type ResultsData } from '../../shared-core/src/present/blockResults';
-import { resultsTableHtml } from '../../shared-core/src/present/resultsTable';
-import { RESULTS_COMMAND_TITLE, tableSlots, tableState } from '../../shared-core/src/present/writtenTables';
-import { LineIndex } from '../../shared-core/src/text/lineIndex';
+import { analyzeText, DEFAULT_SERVICE_SETTINGS, type ServiceSettings } from '@dewmark/core/service';
+import { allBlockResults, type ResultsData } from '@dewmark/core/present/blockResults';
+import { resultsTableHtml } from '@dewmark/core/present/resultsTable';
+import { RESULTS_COMMAND_TITLE, tableSlots, tableState } from '@dewmark/core/present/writtenTables';
+import { LineIndex } from '@dewmark/core/text/lineIndex';
 
 /** The parts of a markdown-it token the plugin reads and writes. */
 interface TokenLike {

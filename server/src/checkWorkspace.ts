@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { type CancellationToken, type WorkDoneProgressReporter } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { analyzeText, countDiagnostics } from '../../shared-core/src/service';
+import { analyzeText, countDiagnostics } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import type { Diagnostics } from './diagnostics';
 import { toLspDiagnostics } from './diagnostics';

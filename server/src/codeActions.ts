@@ -4,7 +4,7 @@
  * for source actions, not on every cursor move).
  */
 import { CodeActionKind, CodeActionTriggerKind, type CodeAction, type Diagnostic } from 'vscode-languageserver/node';
-import { codeActions, resultsTableActions, type FixAction } from '../../shared-core/src/service';
+import { codeActions, resultsTableActions, type FixAction } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toSpan, toTextEdits } from './convert';
 import { DIAGNOSTIC_SOURCE } from './protocol';

@@ -1,6 +1,6 @@
 /** `textDocument/completion`: keywords, property keys, units after a number, earlier state names. */
 import { CompletionItemKind, MarkupKind, type CompletionItem, type CompletionList } from 'vscode-languageserver/node';
-import { completions, type CompletionEntry } from '../../shared-core/src/service';
+import { completions, type CompletionEntry } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toRange } from './convert';
 import { noteForRequest, runSafe } from './safe';

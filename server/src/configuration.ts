@@ -11,7 +11,7 @@ import {
   type Connection,
   type InitializeParams,
 } from 'vscode-languageserver/node';
-import { DEFAULT_SERVICE_SETTINGS, readSettings, type ServiceSettings } from '../../shared-core/src/service';
+import { DEFAULT_SERVICE_SETTINGS, readSettings, type ServiceSettings } from '@dewmark/core/service';
 import { SETTINGS_SECTION } from './protocol';
 
 /** Per-document settings with change notification. */

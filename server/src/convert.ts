@@ -1,7 +1,7 @@
 /** Conversions between the core's UTF-16 offsets and LSP positions and ranges. */
 import type { Range, TextEdit } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
-import type { Edit, Span } from '../../shared-core/src/service';
+import type { Edit, Span } from '@dewmark/core/service';
 
 /** The LSP range of a span of `doc`. */
 export function toRange(doc: TextDocument, span: Span): Range {

@@ -10,7 +10,7 @@ import {
   type DocumentDiagnosticReport,
 } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
-import { noteDiagnostics, type CoreDiagnostic, type Note } from '../../shared-core/src/service';
+import { noteDiagnostics, type CoreDiagnostic, type Note } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toRange } from './convert';
 import { DIAGNOSTIC_SOURCE } from './protocol';

@@ -6,9 +6,9 @@
  */
 import { TextDocuments, type Connection } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { createAnalyzer, type Analyzer } from '../../shared-core/src/evaluate';
-import type { Note } from '../../shared-core/src/service';
-import { analyzeTextWith } from '../../shared-core/src/service/note';
+import { createAnalyzer, type Analyzer } from '@dewmark/core/evaluate';
+import type { Note } from '@dewmark/core/service';
+import { analyzeTextWith } from '@dewmark/core/service/note';
 import type { Configuration } from './configuration';
 
 /** A document with its analysis. */

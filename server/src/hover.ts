@@ -1,6 +1,6 @@
 /** `textDocument/hover`: the service's Markdown for the name, key, unit or statement under the cursor. */
 import { MarkupKind, type Hover } from 'vscode-languageserver/node';
-import { hover } from '../../shared-core/src/service';
+import { hover } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toRange } from './convert';
 import { noteForRequest, runSafe } from './safe';

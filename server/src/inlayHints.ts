@@ -1,6 +1,6 @@
 /** `textDocument/inlayHint`: computed properties after each statement in the requested range. */
 import { MarkupKind, type InlayHint } from 'vscode-languageserver/node';
-import { inlayHints } from '../../shared-core/src/service';
+import { inlayHints } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toSpan } from './convert';
 import { noteForRequest, runSafe } from './safe';

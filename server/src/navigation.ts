@@ -6,7 +6,7 @@ import {
   type Range,
   type WorkspaceEdit,
 } from 'vscode-languageserver/node';
-import { definition, prepareRename, references, rename } from '../../shared-core/src/service';
+import { definition, prepareRename, references, rename } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toRange, toTextEdits } from './convert';
 import { noteForRequest, runSafe } from './safe';

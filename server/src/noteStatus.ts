@@ -1,5 +1,5 @@
 /** The custom `dewmark/noteStatus` request: a note's unit system and pressure basis for a status bar. */
-import { noteStatus } from '../../shared-core/src/service';
+import { noteStatus } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toRange } from './convert';
 import { NOTE_STATUS_METHOD, type NoteStatusParams, type NoteStatusResult } from './protocol';

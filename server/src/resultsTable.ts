@@ -4,7 +4,7 @@
  * with the edit and never applies or writes anything itself.
  */
 import { ErrorCodes, ResponseError, type WorkspaceEdit } from 'vscode-languageserver/node';
-import { countChanges, resultsTableEdits } from '../../shared-core/src/service';
+import { countChanges, resultsTableEdits } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toTextEdits } from './convert';
 import { RESULTS_TABLE_COMMAND, type ResultsTableParams, type ResultsTableResult } from './protocol';

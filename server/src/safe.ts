@@ -11,7 +11,7 @@ import {
   type Connection,
 } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
-import type { Note } from '../../shared-core/src/service';
+import type { Note } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 
 /** The answer to a cancelled request. */

@@ -1,7 +1,7 @@
 /** `textDocument/documentSymbol`: states, mixes and processes under the Markdown headings. */
 import { SymbolKind, type DocumentSymbol, type SymbolInformation } from 'vscode-languageserver/node';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
-import { documentSymbols, type OutlineSymbol } from '../../shared-core/src/service';
+import { documentSymbols, type OutlineSymbol } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toRange } from './convert';
 import { noteForRequest, runSafe } from './safe';

@@ -1,6 +1,6 @@
 /** `dewmark chart NOTE.md -o chart.svg`: the psychrometric chart of one note as a standalone SVG file. */
 import type { Command } from 'commander';
-import { renderChart } from '../../../shared-core/src/chart';
+import { renderChart } from '@dewmark/core/chart';
 import type { CliIO } from '../run';
 import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, type WriteOptions } from './outputFile';
 
