@@ -21,7 +21,7 @@ const statement = fc.oneof(
   { weight: 2, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 30% + ${b} 70%`) },
   { weight: 1, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 1.2kg/s + ${b} 800L/s db=22C`) },
   { weight: 2, arbitrary: fc.tuple(name, name, name).map(([p, a, b]) => `process ${p}: ${a} -> ${b} m=2kg/s q_total=-30kW`) },
-  { weight: 1, arbitrary: fc.constantFrom('site: elev=1600m', 'site: p=84.5kPa', 'units: IP', 'units: SI', 'state : db=', 'stat X: db=1C', '# a comment', '', '~~', '``', '~ a tilde', '  indented') },
+  { weight: 1, arbitrary: fc.constantFrom('site: elev=1600m', 'site: p=84.5kPa', 'units: IP', 'units: SI', 'state : db=', 'stat X: db=1C', '# a comment', '', '~~', '``', '~ a tilde', '  indented', 'process PX: OA -> m=1kg/s p=1', 'process PY: -> SA', 'mix MX:', 'mix MY: OA 50% + NOPE 50%', 'process PZ: OA -> SA x=1') },
 );
 const fence = fc.tuple(fc.constantFrom('```air', '~~~air', '> ```air', '- ```air', '```js'), fc.array(statement, { maxLength: 7 }), fc.boolean()).map(([open, body, closed]) => {
   const prefix = open.startsWith('> ') ? '> ' : open.startsWith('- ') ? '  ' : '';
@@ -29,11 +29,16 @@ const fence = fc.tuple(fc.constantFrom('```air', '~~~air', '> ```air', '- ```air
   if (closed) lines.push(prefix + (open.includes('~') ? '~~~' : '```'));
   return lines.join('\n');
 });
+/** A block whose mixes and processes refer to states defined above them (so that their results depend on those states). */
+const plant = fc.tuple(fc.constantFrom('', 'site: elev=800m\n'), fc.integer({ min: 18, max: 34 }), fc.integer({ min: 20, max: 80 }), fc.integer({ min: 5, max: 30 })).map(
+  ([site, db, rh, oa]) =>
+    `\`\`\`air\n${site}state OA: db=${db}C rh=${rh}%\nstate RA: db=24C rh=50% w=9.3g/kg\nmix MA: OA ${oa}% + RA ${100 - oa}% db=25C\nstate SA: db=13C rh=90%\nprocess CC: MA -> SA m=2kg/s q_total=-40kW\nmix MB: OA 0.5kg/s + MA 1.5kg/s\nprocess HC: SA -> OA q=1.2m3/s\n\`\`\``,
+);
 const prose = fc.oneof(
   fc.constantFrom('# Plant room', 'Some prose.', '', '- a list item', '> quoted', '| a | b |\n|---|---|\n| 1 | 2 |', '    indented code'),
   statement.map((s) => `The design point is \`${s}\` as agreed.`),
 );
-const note = fc.tuple(fc.array(fc.oneof({ weight: 2, arbitrary: fence }, { weight: 2, arbitrary: prose }), { minLength: 1, maxLength: 8 }), fc.constantFrom('\n', '\r\n')).map(([parts, eol]) => parts.join('\n\n').replace(/\n/g, eol) + eol);
+const note = fc.tuple(fc.array(fc.oneof({ weight: 2, arbitrary: fence }, { weight: 2, arbitrary: plant }, { weight: 2, arbitrary: prose }), { minLength: 1, maxLength: 8 }), fc.constantFrom('\n', '\r\n')).map(([parts, eol]) => parts.join('\n\n').replace(/\n/g, eol) + eol);
 
 /** What an edit inserts: characters, statements, structure. */
 const insert = fc.oneof(
@@ -192,6 +197,19 @@ describe('incremental analysis (createAnalyzer)', () => {
     const ip = analyzer.analyze(edited, { units: 'IP' });
     expect(ip).toStrictEqual(analyzeNote(edited, { units: 'IP' }));
     expect(ip.byName.get('A')).not.toBe(a2);
+  });
+
+  it('re-evaluates a process when the flow of the mix it starts from changes but not its state', () => {
+    const text = '```air\nstate OA: db=30C rh=40%\nstate RA: db=24C rh=50%\nmix MB: OA 0.5kg/s + RA 1.5kg/s\nstate SA: db=13C rh=90%\nprocess CC: MB -> SA\n```\n';
+    const analyzer = createAnalyzer();
+    const first = analyzer.analyze(text);
+    // Both flows doubled: the same mixed state, twice the dry-air flow through the coil.
+    const edited = text.replace('OA 0.5kg/s + RA 1.5kg/s', 'OA 1.0kg/s + RA 3.0kg/s');
+    const second = analyzer.analyze(edited);
+    expect(second).toStrictEqual(analyzeNote(edited));
+    const q1 = first.byName.get('CC');
+    const q2 = second.byName.get('CC');
+    expect(q1?.kind === 'process' && q2?.kind === 'process' ? q2.massFlowKgS! / q1.massFlowKgS! : null).toBeCloseTo(2, 12);
   });
 
   it('re-evaluates a state when the site line above it changes', () => {

@@ -16,14 +16,14 @@
  */
 import { solveState } from '../physics';
 import type { SolveOptions, SolveResult } from '../physics/types';
-import type { CoreDiagnostic, StateStatement, Statement } from '../notation/ast';
+import type { CoreDiagnostic, MixStatement, NameNode, ProcessStatement, StateStatement, Statement } from '../notation/ast';
 import { createNoteParser } from '../notation/incremental';
 import type { Span } from '../text/types';
 import { finishAnalysis } from './analyze';
 import type { EvalContext } from './context';
 import { evaluate, type EvaluateReuse } from './evaluate';
 import { resolveSettings } from './settings';
-import type { Analysis, ClaimResult, EvaluateSettings, PressureBasis, StateResult } from './types';
+import type { Analysis, ClaimResult, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from './types';
 
 /** An analyzer that keeps its last run (see the module comment). */
 export interface Analyzer {
@@ -43,11 +43,22 @@ interface StateEntry {
   site: PressureBasis;
 }
 
+/** A mix's or process's evaluation as the previous run left it (only when every name it refers to resolved). */
+interface DependentEntry {
+  statement: MixStatement | ProcessStatement;
+  result: EvaluatedItem | null;
+  diagnostics: CoreDiagnostic[];
+  site: PressureBasis;
+  /** The items its names resolved to, in the order it resolved them. */
+  deps: EvaluatedItem[];
+}
+
 /** Creates an analyzer that reuses its previous run for the next text. */
 export function createAnalyzer(): Analyzer {
   const parser = createNoteParser();
   let last: { text: string; settings: EvaluateSettings; analysis: Analysis } | null = null;
   let states = new Map<Statement, StateEntry>();
+  let dependents = new Map<Statement, DependentEntry>();
   let solves = new Map<string, SolveResult>();
   let bases: PressureBasis[] = [];
   return {
@@ -56,12 +67,14 @@ export function createAnalyzer(): Analyzer {
       if (last && last.text === text && sameSettings(last.settings, resolved)) return last.analysis;
       if (!last || !sameSettings(last.settings, resolved)) {
         states = new Map();
+        dependents = new Map();
         bases = [];
       }
       const { parsed, origins, deltas } = parser.parse(text);
-      const reuse = new Reuse(states, solves, bases, origins, deltas);
+      const reuse = new Reuse(states, dependents, solves, bases, origins, deltas);
       const analysis = finishAnalysis(evaluate(parsed, settings, text, reuse), text);
       states = reuse.nextStates;
+      dependents = reuse.nextDependents;
       solves = reuse.nextSolves;
       bases = reuse.nextBases;
       last = { text, settings: resolved, analysis };
@@ -71,6 +84,7 @@ export function createAnalyzer(): Analyzer {
       parser.reset();
       last = null;
       states = new Map();
+      dependents = new Map();
       solves = new Map();
       bases = [];
     },
@@ -100,11 +114,13 @@ function numKey(v: number): string {
 /** The reuse hooks of one run: reads the previous run's memo, fills the next one. */
 class Reuse implements EvaluateReuse {
   readonly nextStates = new Map<Statement, StateEntry>();
+  readonly nextDependents = new Map<Statement, DependentEntry>();
   readonly nextSolves = new Map<string, SolveResult>();
   readonly nextBases: PressureBasis[] = [];
 
   constructor(
     private readonly prevStates: ReadonlyMap<Statement, StateEntry>,
+    private readonly prevDependents: ReadonlyMap<Statement, DependentEntry>,
     private readonly prevSolves: ReadonlyMap<string, SolveResult>,
     private readonly prevBases: readonly PressureBasis[],
     private readonly origins: readonly (Statement | null)[],
@@ -155,6 +171,107 @@ class Reuse implements EvaluateReuse {
     this.nextStates.set(stmt, { statement: stmt, result, diagnostics: ctx.diagnostics.slice(before), site: ctx.site });
     return result;
   }
+
+  dependent<T extends EvaluatedItem | null>(ctx: EvalContext, stmt: MixStatement | ProcessStatement, index: number, compute: () => T): T {
+    const origin = this.origins[index];
+    const entry = origin ? this.prevDependents.get(origin) : undefined;
+    if (entry && sameBasis(entry.site, ctx.site)) {
+      const deps = currentDeps(ctx, entry, index);
+      const refs = deps ? names(stmt) : null;
+      const moved = refs && refs.length === entry.deps.length ? relocateDependent(entry, stmt, this.deltas[index] ?? 0, ctx.site) : null;
+      if (deps && refs && moved) {
+        // What its evaluation did: resolve each name (a reference each), report its diagnostics.
+        for (const n of refs) ctx.references.push({ name: n.text, span: n.span, statement: stmt });
+        for (const d of moved.diagnostics) ctx.report(d);
+        const unchanged = stmt === entry.statement && moved.result === entry.result && entry.site === ctx.site && deps.every((x, i) => x === entry.deps[i]);
+        this.nextDependents.set(stmt, unchanged ? entry : { statement: stmt, result: moved.result, diagnostics: moved.diagnostics, site: ctx.site, deps });
+        return moved.result as T;
+      }
+    }
+    const before = ctx.diagnostics.length;
+    const refsBefore = ctx.references.length;
+    const result = compute();
+    // Kept for the next run only when every name resolved to a computed item.
+    const deps: EvaluatedItem[] = [];
+    for (let i = refsBefore; i < ctx.references.length; i++) {
+      const reg = ctx.registered.get(ctx.references[i]!.name);
+      if (!reg || reg.def.statementIndex >= index || !reg.item) return result;
+      deps.push(reg.item);
+    }
+    this.nextDependents.set(stmt, { statement: stmt, result, diagnostics: ctx.diagnostics.slice(before), site: ctx.site, deps });
+    return result;
+  }
+}
+
+/** The names a mix or process resolves, in the order its evaluation resolves them. */
+function names(stmt: MixStatement | ProcessStatement): NameNode[] {
+  if (stmt.keyword === 'mix') return stmt.streams.map((s) => s.name);
+  return stmt.from && stmt.to ? [stmt.from, stmt.to] : [];
+}
+
+/**
+ * The items the entry's names resolve to now, when each gives its evaluation exactly what it read
+ * before (the same kind, name, state and pressure objects, the same flow); else null.
+ */
+function currentDeps(ctx: EvalContext, entry: DependentEntry, index: number): EvaluatedItem[] | null {
+  const out: EvaluatedItem[] = [];
+  for (const old of entry.deps) {
+    const reg = ctx.registered.get(old.name);
+    const cur = reg && reg.def.statementIndex < index ? reg.item : null;
+    if (!cur || !readsTheSame(cur, old)) return null;
+    out.push(cur);
+  }
+  return out;
+}
+
+function readsTheSame(a: EvaluatedItem, b: EvaluatedItem): boolean {
+  if (a === b) return true;
+  if (a.kind === 'process' || b.kind === 'process') return false;
+  return a.kind === b.kind && a.name === b.name && a.state === b.state && a.pressure === b.pressure && Object.is(a.massFlowKgS, b.massFlowKgS);
+}
+
+/**
+ * The previous result and diagnostics of a mix or process for `stmt` (its old statement moved by
+ * `d`). Every span must lie inside the old statement (one pointing elsewhere, such as a related
+ * definition, makes it evaluate again). Null when something cannot be mapped.
+ */
+function relocateDependent(entry: DependentEntry, stmt: MixStatement | ProcessStatement, d: number, site: PressureBasis): { result: EvaluatedItem | null; diagnostics: CoreDiagnostic[] } | null {
+  const from = entry.statement;
+  if (from.keyword !== stmt.keyword || from.props.length !== stmt.props.length) return null;
+  const within = from.span;
+  let failed = false;
+  const move = (s: Span): Span => {
+    if (s.start >= within.start && s.end <= within.end) return d === 0 ? s : { start: s.start + d, end: s.end + d };
+    failed = true;
+    return s;
+  };
+  const same = d === 0 && stmt === from;
+  if (same && !entry.diagnostics.every((x) => diagnosticInside(x, within))) return null;
+  const diagnostics = same ? entry.diagnostics : entry.diagnostics.map((x) => moveDiagnostic(x, move));
+  const old = entry.result;
+  let result: EvaluatedItem | null = null;
+  if (same && (!old || old.kind === 'process' || old.pressure !== entry.site || site === entry.site)) {
+    // Not moved, nothing to map: the old result as it is.
+    result = old;
+  } else if (old) {
+    const claims: ClaimResult[] = [];
+    for (const c of old.claims) {
+      const i = from.props.indexOf(c.prop);
+      if (i < 0) return null;
+      claims.push({ key: c.key, prop: stmt.props[i]!, writtenSI: c.writtenSI, computedSI: c.computedSI, toleranceSI: c.toleranceSI, pass: c.pass, computedText: c.computedText });
+    }
+    if (old.kind === 'process') {
+      if (stmt.keyword !== 'process') return null;
+      result = { ...old, statement: stmt, claims };
+    } else {
+      if (stmt.keyword !== 'mix' || old.kind !== 'mix') return null;
+      // The pressure is the site's (when it failed early), a stream's (the same object now), or
+      // a mean basis of its own (no span).
+      if (old.pressure !== entry.site && old.pressure.span !== null && !entry.deps.some((x) => x.kind !== 'process' && x.pressure === old.pressure)) return null;
+      result = { ...old, statement: stmt, pressure: old.pressure === entry.site ? site : old.pressure, claims };
+    }
+  }
+  return failed ? null : { result, diagnostics };
 }
 
 /**
@@ -183,13 +300,28 @@ function relocate(entry: StateEntry, stmt: StateStatement, d: number, site: Pres
   for (const c of old.claims) {
     const i = from.props.indexOf(c.prop);
     if (i < 0) return null;
-    claims.push({ ...c, prop: stmt.props[i]! });
+    // The shape the evaluator builds (checkClaim), key order included.
+    claims.push({ key: c.key, prop: stmt.props[i]!, writtenSI: c.writtenSI, computedSI: c.computedSI, toleranceSI: c.toleranceSI, pass: c.pass, computedText: c.computedText });
   }
   let pressure: PressureBasis = site;
   if (!onSite) pressure = old.pressure.span ? { ...old.pressure, span: move(old.pressure.span) } : { ...old.pressure };
-  const result: StateResult = { ...old, statement: stmt, pressure, defining: [...old.defining], claims };
+  if (old.kind !== 'state' || old.streams !== undefined || old.massFlowKgS !== undefined) return null;
+  // The shape evaluateState builds, key order included (the arrays are shared: results are not mutated).
+  const result: StateResult = { kind: 'state', name: old.name, statement: stmt, state: old.state, pressure, defining: old.defining, claims };
   const diagnostics = entry.diagnostics.map((x) => moveDiagnostic(x, move));
   return failed ? null : { result, diagnostics };
+}
+
+function inside(s: Span, within: Span): boolean {
+  return s.start >= within.start && s.end <= within.end;
+}
+
+/** Whether every span of a diagnostic (its own, related ones, any in its data) lies inside `within`. */
+function diagnosticInside(x: CoreDiagnostic, within: Span): boolean {
+  if (!inside(x.span, within)) return false;
+  if (x.related && !x.related.every((r) => inside(r.span, within))) return false;
+  if (x.data) for (const v of Object.values(x.data)) if (isSpan(v) && !inside(v, within)) return false;
+  return true;
 }
 
 function isSpan(v: unknown): v is Span {

@@ -2,8 +2,8 @@
  * The evaluator: a second pass over the parsed note, in document order. It never throws: every
  * statement is evaluated inside a guard, and a failure becomes a diagnostic on that statement.
  */
-import type { CoreDiagnostic, ParsedNote, Statement, StateStatement } from '../notation/ast';
-import type { Analysis, EvaluateSettings, PressureBasis, StateResult } from './types';
+import type { CoreDiagnostic, MixStatement, ParsedNote, ProcessStatement, Statement, StateStatement } from '../notation/ast';
+import type { Analysis, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from './types';
 import { EvalContext, type NameDef } from './context';
 import { SITE_KEYS } from './keys';
 import { evaluateMix } from './mix';
@@ -85,6 +85,12 @@ export interface EvaluateReuse {
    * diagnostics), or the previous run's result and diagnostics when nothing it depends on changed.
    */
   state(ctx: EvalContext, stmt: StateStatement, index: number, compute: () => StateResult): StateResult;
+  /**
+   * The result of mix or process statement `index`, which refers to other statements: `compute()`,
+   * or the previous run's when the statement and everything it read of the states it names are
+   * unchanged.
+   */
+  dependent<T extends EvaluatedItem | null>(ctx: EvalContext, stmt: MixStatement | ProcessStatement, index: number, compute: () => T): T;
   /** The state solver (a memoizing wrapper of the engine's `solveState`). */
   solve: EvalContext['solve'];
   /** The previous run's pressure basis equal to `basis` when there is one (else `basis`). */
@@ -122,19 +128,16 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
           // would only add a second diagnostic for the same line.
           if (!stmt.name) break;
           const owner = stmt.name ? ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: stmt.keyword }, stmt.name) : false;
-          const item =
-            stmt.keyword === 'mix'
-              ? evaluateMix(ctx, stmt, index, owner)
-              : reuse
-                ? reuse.state(ctx, stmt, index, () => evaluateState(ctx, stmt, owner))
-                : evaluateState(ctx, stmt, owner);
+          let item: StateResult;
+          if (stmt.keyword === 'mix') item = reuse ? reuse.dependent(ctx, stmt, index, () => evaluateMix(ctx, stmt, index, owner)) : evaluateMix(ctx, stmt, index, owner);
+          else item = reuse ? reuse.state(ctx, stmt, index, () => evaluateState(ctx, stmt, owner)) : evaluateState(ctx, stmt, owner);
           if (stmt.name) ctx.addItem(item, owner);
           break;
         }
         case 'process': {
           if (!stmt.name) break;
           const owner = stmt.name ? ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'process' }, stmt.name) : false;
-          const item = evaluateProcess(ctx, stmt, index);
+          const item = reuse ? reuse.dependent(ctx, stmt, index, () => evaluateProcess(ctx, stmt, index)) : evaluateProcess(ctx, stmt, index);
           if (item && stmt.name) ctx.addItem(item, owner);
           break;
         }
