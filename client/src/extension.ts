@@ -18,6 +18,7 @@ import {
   type LanguageClientOptions,
   type ServerOptions,
 } from 'vscode-languageclient/node';
+import { SERVER_EXEC_ARGV } from '../../server/src/nodeOptions';
 import {
   CHECK_WORKSPACE_METHOD,
   RESULTS_TABLE_COMMAND,
@@ -89,9 +90,10 @@ class ServerController {
   private starting: Promise<void>;
 
   constructor(serverModule: string, output: vscode.LogOutputChannel) {
+    // The Node options bound the server's heap slack (server/src/nodeOptions.ts says why).
     const serverOptions: ServerOptions = {
-      run: { module: serverModule, transport: TransportKind.ipc },
-      debug: { module: serverModule, transport: TransportKind.ipc, options: { execArgv: ['--nolazy', '--inspect=6019'] } },
+      run: { module: serverModule, transport: TransportKind.ipc, options: { execArgv: [...SERVER_EXEC_ARGV] } },
+      debug: { module: serverModule, transport: TransportKind.ipc, options: { execArgv: [...SERVER_EXEC_ARGV, '--nolazy', '--inspect=6019'] } },
     };
     const clientOptions: LanguageClientOptions = {
       documentSelector: DOCUMENT_SCHEMES.map((scheme) => ({ language: 'markdown', scheme })),
