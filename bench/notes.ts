@@ -9,7 +9,7 @@ import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { analyzeNote } from '../shared-core/src/evaluate';
+import { analyzeNote, createAnalyzer } from '../shared-core/src/evaluate';
 import { enthalpy, humRatioFromRelHum, stdAtmPressure } from '../shared-core/src/physics';
 import { goalRow, infoRow, median } from './goals';
 
@@ -115,6 +115,15 @@ export async function benchNotes(): Promise<void> {
   // CPU time of this process per run: less sensitive than wall time to other work on the machine
   // (it still includes the garbage collector's helper threads).
   console.log(infoRow('  CPU time per run (median)', median(full.cpu), 'ms'));
+  // What the language server runs per edit: the document's analyzer after a one-digit edit in a
+  // state line in the middle (the result is the same as a fresh analysis; see createAnalyzer).
+  const target = big.indexOf('db=', big.length >> 1) + 4;
+  const analyzer = createAnalyzer();
+  analyzer.analyze(big);
+  let k = 0;
+  const edited = () => `${big.slice(0, target)}${k++ % 10}${big.slice(target + 1)}`;
+  const inc = time(() => analyzer.analyze(edited()), 31, 15);
+  console.log(infoRow('  incremental, one digit replaced (createAnalyzer)', median(inc.wall), 'ms'));
   // Worst case: every claim stale, so every state carries a warning with its message.
   const stale = generateNote(2000, 10_000, 1, 1);
   const staleRuns = time(() => analyzeNote(stale), 15, 3);
