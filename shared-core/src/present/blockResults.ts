@@ -75,8 +75,8 @@ export interface BlockResults {
   data: ResultsData;
 }
 
-/** Words for each kind of process. */
-const KIND_TEXT: Record<ProcessKind, string> = {
+/** Words for each kind of process (hovers, hints, preview and written tables). */
+export const PROCESS_KIND_TEXT: Record<ProcessKind, string> = {
   'sensible-heating': 'sensible heating',
   'sensible-cooling': 'sensible cooling',
   'cooling-dehumidifying': 'cooling and dehumidifying',
@@ -170,7 +170,7 @@ function processRow(p: ProcessResult, system: UnitSystem): ProcessRowData {
     name: p.name,
     from: p.from,
     to: p.to,
-    kind: p.processKind ? KIND_TEXT[p.processKind] : NONE,
+    kind: p.processKind ? PROCESS_KIND_TEXT[p.processKind] : NONE,
     total: rate(p.qTotalW, p.dhTotal),
     sensible: rate(p.qSensibleW, p.dhSensible),
     latent: rate(p.qLatentW, p.dhLatent),

@@ -87,19 +87,7 @@ export function autoHintKeys(written: ReadonlySet<string>): HintKey[] {
   return keys;
 }
 
-/** Words for each kind of process. */
-export const PROCESS_KIND_TEXT: Record<ProcessKind, string> = {
-  'sensible-heating': 'sensible heating',
-  'sensible-cooling': 'sensible cooling',
-  'cooling-dehumidifying': 'cooling and dehumidifying',
-  'heating-humidifying': 'heating and humidifying',
-  'heating-dehumidifying': 'heating and dehumidifying',
-  'cooling-humidifying': 'cooling and humidifying',
-  'evaporative-cooling': 'evaporative cooling',
-  humidifying: 'humidifying',
-  dehumidifying: 'dehumidifying',
-  'no-change': 'no change of state',
-};
+export { PROCESS_KIND_TEXT } from '../present/blockResults';
 
 /** The method line of every state hover. */
 export const METHOD_LINE = 'Method: ASHRAE Handbook—Fundamentals Ch. 1, ideal-gas; ice below 0 °C.';
