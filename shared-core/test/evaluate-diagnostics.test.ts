@@ -50,6 +50,7 @@ const cases: [string, string[], Expected][] = [
   ['underspecified', ['state A: db=24C'], { code: 'underspecified', severity: 'error', span: 'A' }],
   ['empty site', ['site:'], { code: 'underspecified', severity: 'error', span: 'site' }],
   ['duplicate name', ['state A: db=24C rh=50%', 'state A: db=25C rh=50%'], { code: 'duplicate-name', severity: 'error', span: 'A' }],
+  ['unknown one-letter name: no guess, says how to define it', ['state A: db=24C rh=50%', 'mix M: Z 50% + A 50%'], { code: 'unknown-name', severity: 'error', span: 'Z', says: ['define it with a state line above'] }],
   ['unknown name with did-you-mean', ['state OA: db=24C rh=50%', 'state RA: db=24C rh=50%', 'mix MA: OX 50% + RA 50%'], { code: 'unknown-name', severity: 'error', span: 'OX', says: ["did you mean 'OA'"] }],
   ['used before defined', ['state RA: db=24C rh=50%', 'mix MA: OA 50% + RA 50%', 'state OA: db=30C rh=40%'], { code: 'used-before-defined', severity: 'error', span: 'OA', says: ['line 6'] }],
   ['mix fractions', ['state OA: db=24C rh=50%', 'state RA: db=24C rh=50%', 'mix MA: OA 50% + RA 40%'], { code: 'mix-fractions', severity: 'error', span: '50% + RA 40%', says: ['90 %'] }],

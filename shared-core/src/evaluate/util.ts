@@ -34,7 +34,9 @@ export function editDistance(a: string, b: string): number {
 
 /**
  * The candidate closest to `word`, when it is close enough to be a plausible typo: an exact match
- * ignoring case, else an edit distance of at most 1 for short words and 2 for longer ones.
+ * ignoring case, else an edit distance of at most 1 for short words and 2 for longer ones. A
+ * one-character word gets no guess beyond case (replacing its only character is no typo: `Z` is
+ * not a misspelt `A`).
  */
 export function closest(word: string, candidates: Iterable<string>): string | null {
   let best: string | null = null;
@@ -49,7 +51,7 @@ export function closest(word: string, candidates: Iterable<string>): string | nu
       best = c;
     }
   }
-  const limit = word.length <= 3 ? 1 : 2;
+  const limit = word.length <= 1 ? 0 : word.length <= 3 ? 1 : 2;
   return best !== null && bestD <= limit ? best : null;
 }
 
