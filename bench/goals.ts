@@ -45,3 +45,21 @@ export function percentile(xs: readonly number[], p: number): number {
   const s = [...xs].sort((a, b) => a - b);
   return s[Math.min(s.length - 1, Math.floor(p * s.length))]!;
 }
+
+/** Times `f` after `warmup` calls: wall-clock and CPU milliseconds per call, each sorted ascending. */
+export function timeRuns(f: () => unknown, runs: number, warmup: number): { wall: number[]; cpu: number[] } {
+  for (let i = 0; i < warmup; i++) f();
+  const wall: number[] = [];
+  const cpu: number[] = [];
+  for (let i = 0; i < runs; i++) {
+    const c0 = process.cpuUsage();
+    const t0 = performance.now();
+    f();
+    wall.push(performance.now() - t0);
+    const c = process.cpuUsage(c0);
+    cpu.push((c.user + c.system) / 1000);
+  }
+  wall.sort((a, b) => a - b);
+  cpu.sort((a, b) => a - b);
+  return { wall, cpu };
+}

@@ -11,7 +11,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { analyzeNote, createAnalyzer } from '../shared-core/src/evaluate';
 import { enthalpy, humRatioFromRelHum, stdAtmPressure } from '../shared-core/src/physics';
-import { goalRow, infoRow, median } from './goals';
+import { goalRow, infoRow, median, timeRuns } from './goals';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -69,21 +69,6 @@ export function generateNote(statements: number, lines: number, seed = 1, staleE
   return out.join('\n');
 }
 
-/** Times `f` (after `warmup` calls): wall and CPU milliseconds per call. */
-function time(f: () => unknown, runs: number, warmup: number): { wall: number[]; cpu: number[] } {
-  for (let i = 0; i < warmup; i++) f();
-  const wall: number[] = [];
-  const cpu: number[] = [];
-  for (let i = 0; i < runs; i++) {
-    const c0 = process.cpuUsage();
-    const t0 = performance.now();
-    f();
-    wall.push(performance.now() - t0);
-    const c = process.cpuUsage(c0);
-    cpu.push((c.user + c.system) / 1000);
-  }
-  return { wall, cpu };
-}
 
 /** Runs `dewmark check` on `dir` `runs` times; wall-clock ms of each run and the summary line. */
 function timeCheck(dir: string, runs: number, env: NodeJS.ProcessEnv): { ms: number[]; summary: string } {
@@ -108,7 +93,7 @@ export async function benchNotes(): Promise<void> {
   const statementCount = check.parsed.statements.length;
   console.log(`parse+evaluate: ${lineCount} lines, ${statementCount} statements, ${check.items.length} results, ${check.diagnostics.length} diagnostics`);
   // Warm-up first: the editor and the CLI run warmed code too.
-  const full = time(() => analyzeNote(big), 31, 15);
+  const full = timeRuns(() => analyzeNote(big), 31, 15);
   console.log(goalRow('parse+evaluate from scratch (median of 31)', median(full.wall), 'ms', 20));
   console.log(infoRow('  min', Math.min(...full.wall), 'ms'));
   console.log(infoRow('  max', Math.max(...full.wall), 'ms'));
@@ -122,11 +107,11 @@ export async function benchNotes(): Promise<void> {
   analyzer.analyze(big);
   let k = 0;
   const edited = () => `${big.slice(0, target)}${k++ % 10}${big.slice(target + 1)}`;
-  const inc = time(() => analyzer.analyze(edited()), 31, 15);
+  const inc = timeRuns(() => analyzer.analyze(edited()), 31, 15);
   console.log(infoRow('  incremental, one digit replaced (createAnalyzer)', median(inc.wall), 'ms'));
   // Worst case: every claim stale, so every state carries a warning with its message.
   const stale = generateNote(2000, 10_000, 1, 1);
-  const staleRuns = time(() => analyzeNote(stale), 15, 3);
+  const staleRuns = timeRuns(() => analyzeNote(stale), 15, 3);
   console.log(infoRow(`  every claim stale (${analyzeNote(stale).diagnostics.length} diagnostics), median`, median(staleRuns.wall), 'ms'));
 
   // 2. `dewmark check` as a real process on 1000 notes of 200 statements.

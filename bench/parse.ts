@@ -11,7 +11,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { extractRegions } from '../shared-core/src/markdown/regions';
 import { parseNote } from '../shared-core/src/notation/parse';
-import { goalRow, infoRow } from './goals';
+import { goalRow, infoRow, timeRuns } from './goals';
 
 const GOAL_MS = 8;
 
@@ -115,23 +115,6 @@ function percentile(sorted: number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))] as number;
 }
 
-/** Wall-clock and CPU milliseconds of `runs` calls of `f`, after a warm-up. */
-function time(f: () => unknown, runs: number): { wall: number[]; cpu: number[] } {
-  for (let i = 0; i < 15; i++) f();
-  const wall: number[] = [];
-  const cpu: number[] = [];
-  for (let i = 0; i < runs; i++) {
-    const c0 = process.cpuUsage();
-    const t0 = performance.now();
-    f();
-    wall.push(performance.now() - t0);
-    const c = process.cpuUsage(c0);
-    cpu.push((c.user + c.system) / 1000);
-  }
-  wall.sort((a, b) => a - b);
-  cpu.sort((a, b) => a - b);
-  return { wall, cpu };
-}
 
 /** Flag of the child run that measures with a larger young generation (see benchParse). */
 const CHILD_FLAG = '--young-generation-run';
@@ -162,8 +145,8 @@ async function measure(flags: string): Promise<void> {
   console.log(
     `parseNote (${flags}): ${lineCount} lines, ${(note.length / 1024).toFixed(0)} KiB, ${first.regions.length} regions, ${first.statements.length} statements, ${first.diagnostics.length} syntax diagnostics`,
   );
-  const all = time(() => parseNote(note), 80);
-  const md = time(() => extractRegions(note), 80);
+  const all = timeRuns(() => parseNote(note), 80, 15);
+  const md = timeRuns(() => extractRegions(note), 80, 15);
   console.log(goalRow('  parseNote (median of 80)', percentile(all.wall, 0.5), 'ms', GOAL_MS));
   console.log(infoRow('    p95', percentile(all.wall, 0.95), 'ms'));
   console.log(infoRow('    min', all.wall[0] ?? null, 'ms'));

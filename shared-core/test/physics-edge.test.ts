@@ -23,19 +23,10 @@ import {
 import { humRatioEq33 } from '../src/physics/wetbulb';
 import { SWITCH_C } from '../src/physics/saturation';
 import { si } from './data/psychrolib-oracle';
+import { codeOf } from './data/physics-helpers';
 
 const PSI_PA = 6894.757293168;
 const toC = (f: number): number => (f - 32) / 1.8;
-
-function codeOf(f: () => unknown): PhysicsCode | 'no error' {
-  try {
-    f();
-    return 'no error';
-  } catch (e) {
-    if (e instanceof PsychroError) return e.code;
-    throw e;
-  }
-}
 
 describe('where PsychroLib is wrong, the engine is right (reference list, "edge" cases)', () => {
   // EDGE-SI-WB-ABOVE-BOILING (observed by running npm psychrolib 1.1.1): PsychroLib bisects on

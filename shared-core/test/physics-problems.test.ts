@@ -35,6 +35,7 @@ import {
   type SolveOptions,
 } from '../src/physics';
 import { findRoot } from '../src/physics/roots';
+import { codeOf } from './data/physics-helpers';
 
 const ALL_CODES: PhysicsCode[] = [
   'out-of-range',
@@ -60,16 +61,6 @@ function problemOf(input: Input, p = 101325, opts?: SolveOptions) {
   const r = solveState(input, p, opts);
   if (r.ok) throw new Error(`expected a problem for ${JSON.stringify(input)} at ${p} Pa, got a state`);
   return r.problem;
-}
-
-function codeOf(f: () => unknown): PhysicsCode | 'no error' {
-  try {
-    f();
-    return 'no error';
-  } catch (e) {
-    if (e instanceof PsychroError) return e.code;
-    throw e;
-  }
 }
 
 /** Every numeric field is a number, not NaN; only the documented infinities occur. */
