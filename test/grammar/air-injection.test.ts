@@ -166,6 +166,15 @@ describe('air injection grammar', () => {
     for (const t of lines[9] ?? []) expect(t.scopes.join(' '), t.text).not.toMatch(/\.air\b/);
   });
 
+  it('a number with thousands separators is one number token', async () => {
+    const tokenize = await tokenizer(standInHost);
+    const lines = tokenize(['```air', 'process CC: MA -> OFF q=8,745cfm q_total=169,100Btu/h', '```'].join('\n'));
+    expect(scopesOf(lines, 1, '8,745')).toContain('constant.numeric.air');
+    expect(scopesOf(lines, 1, 'cfm')).toContain('keyword.other.unit.air');
+    expect(scopesOf(lines, 1, '169,100')).toContain('constant.numeric.air');
+    expect(scopesOf(lines, 1, 'Btu/h')).toContain('keyword.other.unit.air');
+  });
+
   const haveVscodeMarkdown = existsSync(vscodeHost);
   const ci = process.env.CI === 'true' || process.env.CI === '1';
   it.skipIf(!haveVscodeMarkdown && !ci)(

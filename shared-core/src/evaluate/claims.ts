@@ -4,6 +4,7 @@ import type { ClaimResult } from './types';
 import type { ResolvedQuantity } from './quantity';
 import { formatInUnit } from '../units';
 import { formatAtResolution } from './util';
+import { withThousandsSeparators } from '../notation/number';
 
 /** Relative slack added to every band so that a value exactly on the edge passes despite rounding. */
 const EDGE_SLACK = 1e-9;
@@ -13,9 +14,9 @@ const EDGE_SLACK = 1e-9;
  * unit's display precision, without the unit (`rh=50%` → `49.6`).
  */
 export function computedNumberText(computedSI: number, q: ResolvedQuantity): string {
-  if (!q.unit) return formatAtResolution(computedSI, q.quantity.number.resolution);
-  const text = formatInUnit(computedSI, q.unit, q.quantity.number.resolution, '');
-  return text;
+  const text = q.unit ? formatInUnit(computedSI, q.unit, q.quantity.number.resolution, '') : formatAtResolution(computedSI, q.quantity.number.resolution);
+  // Written with thousands separators (`169,100`): the replacement keeps them (`171,420`).
+  return q.quantity.number.text.includes(',') ? withThousandsSeparators(text) : text;
 }
 
 /** Whether the written value agrees with the computed one within the band. */
@@ -68,7 +69,12 @@ export function checkClaim(
   };
   if (typeof context === 'function') context = context();
   const written = `${key}=${q.quantity.number.text}${q.unitText}`;
-  const band = q.explicitTolerance ? 'outside its written tolerance' : 'more than half a unit of its last digit away';
+  const digitBand = (q.quantity.number.resolution / 2) * Math.abs(q.unit?.scale ?? 1);
+  const band = q.explicitTolerance
+    ? 'outside its written tolerance'
+    : q.toleranceSI > digitBand * (1 + 1e-9)
+      ? 'more than half a unit of its last significant digit away (trailing zeros of a whole number do not count)'
+      : 'more than half a unit of its last digit away';
   const diagnostic: CoreDiagnostic = {
     code: 'claim-mismatch',
     severity: 'warning',

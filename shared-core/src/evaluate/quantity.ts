@@ -7,6 +7,7 @@ import { lookupUnit, suggestUnit } from '../units';
 import type { Dimension, UnitDef } from '../units/types';
 import type { CoreDiagnostic, PropertyNode, QuantityNode } from '../notation/ast';
 import type { KeySpec } from './keys';
+import { significantResolution } from '../notation/number';
 
 /** A quantity converted for its key. */
 export interface ResolvedQuantity {
@@ -138,8 +139,8 @@ export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan
     si = unitToSI(q.number.value, def);
     scale = def.scale;
   }
-  // Tolerance: half a unit of the last written digit, or the explicit ± figure.
-  let toleranceSI = (q.number.resolution / 2) * Math.abs(scale);
+  // Tolerance: half a unit of the last significant digit, or the explicit ± figure.
+  let toleranceSI = (claimResolution(q, spec.dimension) / 2) * Math.abs(scale);
   let explicitTolerance = false;
   if (q.tolerance) {
     const t = q.tolerance;
@@ -184,6 +185,18 @@ export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan
     };
   }
   return { ok: true, value: { si, unit, unitText, toleranceSI, explicitTolerance, quantity: q } };
+}
+
+/**
+ * The place value of the last significant digit of a written figure, whose half is a claim's
+ * default band. Trailing zeros of a whole number are not significant unless marked (see
+ * {@link significantResolution}), except in temperatures — a point on a scale whose zero is
+ * arbitrary, so `20C` and `120F` are read to the degree — and percentages, read to 1 % at least
+ * (`rh=50%`, `rh=100%`).
+ */
+export function claimResolution(q: QuantityNode, dimension: Dimension): number {
+  if (dimension === 'temperature' || dimension === 'fraction') return q.number.resolution;
+  return significantResolution(q.number.text, q.number.resolution);
 }
 
 /** `db=24C` as written, for messages. */

@@ -1,8 +1,10 @@
 /**
  * Numbers of the notation as written: optional sign, digits, optional fraction, optional exponent
- * (`24`, `-5`, `9.30`, `.5`, `5.`, `1.2e3`, `1E-4`). Scanning works on the document text in place;
- * the value comes from the written digits (never guessed), and the resolution is the place value
- * of the last written digit.
+ * (`24`, `-5`, `9.30`, `.5`, `5.`, `1.2e3`, `1E-4`), and thousands separators in the whole part
+ * where they cannot be anything else: a first group of one to three digits (not starting with 0)
+ * and then groups of exactly three after each comma (`8,745`, `169,100`, `1,234,567.5`). Scanning
+ * works on the document text in place; the value comes from the written digits (never guessed),
+ * and the resolution is the place value of the last written digit.
  */
 
 /** A number found at a position, before any check of its value. */
@@ -24,6 +26,17 @@ const EXACT_POW10: readonly number[] = Array.from({ length: 23 }, (_, i) => Numb
 
 function isDigit(c: number): boolean {
   return c >= 0x30 && c <= 0x39;
+}
+
+/** Exactly three digits at `pos`, not followed by a fourth. */
+function isThreeDigits(text: string, pos: number, end: number): boolean {
+  return (
+    pos + 2 < end &&
+    isDigit(text.charCodeAt(pos)) &&
+    isDigit(text.charCodeAt(pos + 1)) &&
+    isDigit(text.charCodeAt(pos + 2)) &&
+    !(pos + 3 < end && isDigit(text.charCodeAt(pos + 3)))
+  );
 }
 
 /** Whether a number can start at `pos` (a digit, or a sign or point followed by one). */
@@ -54,10 +67,22 @@ export function scanNumber(text: string, pos: number, end: number): ScannedNumbe
   // The digits as an integer (exact while there are at most 15 of them).
   let mantissa = 0;
   let digits = 0;
+  const first = pos;
   while (pos < end && isDigit((c = text.charCodeAt(pos)))) {
     mantissa = mantissa * 10 + (c - 0x30);
     digits++;
     pos++;
+  }
+  // Thousands separators: only after a first group of 1–3 digits that does not start with 0, and
+  // only groups of exactly three digits (anything else is left to the caller to report).
+  let grouped = false;
+  if (digits >= 1 && digits <= 3 && text.charCodeAt(first) !== 0x30) {
+    while (pos < end && text.charCodeAt(pos) === 0x2c && isThreeDigits(text, pos + 1, end)) {
+      for (let i = 1; i <= 3; i++) mantissa = mantissa * 10 + (text.charCodeAt(pos + i) - 0x30);
+      digits += 3;
+      pos += 4;
+      grouped = true;
+    }
   }
   let fractionDigits = 0;
   if (pos < end && text.charCodeAt(pos) === 0x2e) {
@@ -101,7 +126,8 @@ export function scanNumber(text: string, pos: number, end: number): ScannedNumbe
     const magnitude = k >= 0 ? mantissa * (EXACT_POW10[k] as number) : mantissa / (EXACT_POW10[-k] as number);
     value = negative ? -magnitude : magnitude;
   } else {
-    value = Number(text.charCodeAt(start) === 0x2212 ? '-' + written.slice(1) : written);
+    const plain = grouped ? written.replace(/,/g, '') : written;
+    value = Number(text.charCodeAt(start) === 0x2212 ? '-' + plain.slice(1) : plain);
   }
   return { end: pos, written, value, fractionDigits, exponent };
 }
@@ -115,3 +141,40 @@ export function resolutionOf(fractionDigits: number, exponent: number): number {
 const POW10_LIMIT = 30;
 /** 1e-30 … 1e30, each built from its decimal text: the double nearest to the power of ten (so 0.01, not 10 ** -2). */
 const POW10: readonly number[] = Array.from({ length: 2 * POW10_LIMIT + 1 }, (_, i) => Number(`1e${i - POW10_LIMIT}`));
+
+/**
+ * Place value of the last *significant* written digit, the usual engineering reading of a figure:
+ * trailing zeros of a whole number written without a decimal point or exponent are not
+ * significant (`39700` → 100, `169,100` → 100), but at least two significant digits are read
+ * (`1000` → 100, `500` → 10, `50` → 1): a single one would accept ±25 % or more. A decimal point
+ * (`39700.`), a fraction (`39700.0`) or an exponent (`3.970e4`) marks every written digit as
+ * significant, and the result is then {@link resolutionOf}'s. `written` is the number's text.
+ */
+export function significantResolution(written: string, resolution: number): number {
+  let digits = 0;
+  let zeros = 0;
+  for (let i = 0; i < written.length; i++) {
+    const c = written.charCodeAt(i);
+    if (isDigit(c)) {
+      if (digits > 0 || c !== 0x30) digits++;
+      zeros = c === 0x30 ? zeros + 1 : 0;
+    } else if (c !== 0x2c && c !== 0x2b && c !== 0x2d && c !== 0x2212) {
+      return resolution; // a point or an exponent: every digit counts
+    }
+  }
+  const dropped = Math.min(zeros, Math.max(0, digits - 2));
+  return dropped === 0 ? resolution : resolution * (POW10[dropped + POW10_LIMIT] as number);
+}
+
+/**
+ * A number's text with thousands separators in its whole part, in the form {@link scanNumber}
+ * reads back to the same value (`277262` → `277,262`, `-1234.5` → `-1,234.5`). Text with an
+ * exponent or already grouped is returned unchanged.
+ */
+export function withThousandsSeparators(text: string): string {
+  if (/[eE,]/.test(text)) return text;
+  const m = /^([+\-\u2212]?)([0-9]+)(.*)$/.exec(text);
+  if (!m) return text;
+  const [, sign = '', whole = '', rest = ''] = m;
+  return `${sign}${whole.replace(/\B(?=(\d{3})+(?!\d))/g, ',')}${rest}`;
+}

@@ -701,8 +701,7 @@ class StatementParser {
       const t = this.rawToken();
       this.consume(t.end);
       const shown = this.slice(t);
-      const fixed = shown.replace(/,/, '.');
-      this.report('bad-number', `'${shown}' is not a number: use a decimal point, not a comma (${fixed}), and no thousands separators`, t.start, t.end);
+      this.report('bad-number', commaMessage(shown), t.start, t.end);
       return null;
     }
     if (next === 0x2e || isDigit(next)) {
@@ -821,6 +820,24 @@ class StatementParser {
     }
     return { number, unit, span: this.span(start, unit ? unit.span.end : number.span.end) };
   }
+}
+
+/**
+ * The message for a number with a comma that is not a thousands separator. A decimal point is
+ * proposed only where the comma can be nothing else: one comma followed by one or two digits
+ * (`24,5`, `0,75`) or after a zero whole part (`0,0093`). Otherwise no figure is proposed, since a
+ * guess could change its magnitude (`1234,567` may be 1234.567 or 1,234,567; `1,2345` 12,345).
+ */
+function commaMessage(shown: string): string {
+  const m = /^[+\-\u2212]?[0-9]*(?:[.,][0-9]*)*/.exec(shown);
+  const numeric = m ? m[0] : shown;
+  const commas = numeric.split(',').length - 1;
+  const after = /,([0-9]*)$/.exec(numeric)?.[1] ?? '';
+  const whole = numeric.replace(/^[+\-\u2212]/, '').split(',')[0] ?? '';
+  if (commas === 1 && !numeric.includes('.') && after.length > 0 && (after.length < 3 || /^0*$/.test(whole))) {
+    return `'${shown}' is not a number: use a decimal point, not a comma (${shown.replace(',', '.')}); a comma is read only as a thousands separator (8,745)`;
+  }
+  return `'${shown}' is not a number: a comma is read only as a thousands separator, between groups of three digits after a first group of one to three (8,745 or 1,234,567.5); for a decimal fraction write a point (24.5)`;
 }
 
 function exampleFor(key: string): string {
