@@ -69,11 +69,17 @@ export function summaryLine(files: number, c: Counts, unreadable = 0): string {
   return parts.join(', ');
 }
 
-/** Rounds to `decimals` places; null stays null (never NaN or Infinity in the JSON). */
-function r(x: number | null | undefined, decimals: number): number | null {
+/** Significant digits of every figure in the JSON: beyond the engine's accuracy, clear of binary noise. */
+export const JSON_SIGNIFICANT_DIGITS = 12;
+
+/**
+ * A figure for the JSON at {@link JSON_SIGNIFICANT_DIGITS} significant digits — never a fixed
+ * number of decimals, which would leave a −60 °C dew-point state's humidity ratio (3.3e-6 kg/kg)
+ * with two; null stays null (never NaN or Infinity in the JSON).
+ */
+function r(x: number | null | undefined): number | null {
   if (x === null || x === undefined || !Number.isFinite(x)) return null;
-  const f = 10 ** decimals;
-  const v = Math.round(x * f) / f;
+  const v = Number(x.toPrecision(JSON_SIGNIFICANT_DIGITS));
   return Object.is(v, -0) ? 0 : v;
 }
 
@@ -90,21 +96,21 @@ export function stateJson(f: FileResult, s: StateResult): Record<string, unknown
     line: lineOf(f, s),
     kind: s.kind,
     ok: st !== null,
-    p_kPa: r(s.pressure.pa / 1000, 4),
-    db_C: r(st?.db, 3),
-    wb_C: r(st?.wb, 3),
-    dp_C: r(st?.dp, 3),
-    rh_pct: r(st ? st.rh * 100 : null, 3),
-    w_kgkg: r(st?.w, 7),
-    h_kJkg: r(st ? st.h / 1000 : null, 3),
-    v_m3kg: r(st?.v, 5),
-    rho_kgm3: r(st?.rho, 5),
+    p_kPa: r(s.pressure.pa / 1000),
+    db_C: r(st?.db),
+    wb_C: r(st?.wb),
+    dp_C: r(st?.dp),
+    rh_pct: r(st ? st.rh * 100 : null),
+    w_kgkg: r(st?.w),
+    h_kJkg: r(st ? st.h / 1000 : null),
+    v_m3kg: r(st?.v),
+    rho_kgm3: r(st?.rho),
     defining: [...s.defining],
     pressure: s.pressure.describe,
   };
   if (s.kind === 'mix') {
-    out.streams = (s.streams ?? []).map((x) => ({ name: x.name, fraction: r(x.fraction, 6), m_kgs: r(x.massFlowKgS, 6) }));
-    out.m_kgs = r(s.massFlowKgS ?? null, 6);
+    out.streams = (s.streams ?? []).map((x) => ({ name: x.name, fraction: r(x.fraction), m_kgs: r(x.massFlowKgS) }));
+    out.m_kgs = r(s.massFlowKgS ?? null);
   }
   if (s.claims.length > 0) out.claims = s.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
   return out;
@@ -118,17 +124,17 @@ export function processJson(f: FileResult, p: ProcessResult): Record<string, unk
     kind: p.processKind,
     from: p.from,
     to: p.to,
-    m_kgs: r(p.massFlowKgS, 5),
-    q_total_kW: r(p.qTotalW === null ? null : p.qTotalW / 1000, 3),
-    q_sensible_kW: r(p.qSensibleW === null ? null : p.qSensibleW / 1000, 3),
-    q_latent_kW: r(p.qLatentW === null ? null : p.qLatentW / 1000, 3),
-    shr: r(p.shr, 4),
-    water_kgh: r(p.waterKgS === null ? null : p.waterKgS * 3600, 3),
-    q_coil_kW: r(p.qCoilW === null ? null : p.qCoilW / 1000, 3),
-    v_m3s: r(p.volumeFlowM3S, 5),
-    dh_kJkg: r(p.dhTotal / 1000, 4),
-    dw_kgkg: r(p.dw, 7),
-    adp_C: r(p.apparatusDewPointC ?? null, 2),
+    m_kgs: r(p.massFlowKgS),
+    q_total_kW: r(p.qTotalW === null ? null : p.qTotalW / 1000),
+    q_sensible_kW: r(p.qSensibleW === null ? null : p.qSensibleW / 1000),
+    q_latent_kW: r(p.qLatentW === null ? null : p.qLatentW / 1000),
+    shr: r(p.shr),
+    water_kgh: r(p.waterKgS === null ? null : p.waterKgS * 3600),
+    q_coil_kW: r(p.qCoilW === null ? null : p.qCoilW / 1000),
+    v_m3s: r(p.volumeFlowM3S),
+    dh_kJkg: r(p.dhTotal / 1000),
+    dw_kgkg: r(p.dw),
+    adp_C: r(p.apparatusDewPointC ?? null),
   };
   if (p.claims.length > 0) out.claims = p.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
   return out;
