@@ -9,7 +9,7 @@ import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { analyzeNote, createAnalyzer } from '../shared-core/src/evaluate';
+import { analyzeNote, createAnalyzer } from '../shared-core/src/analyze';
 import { enthalpy, humRatioFromRelHum, stdAtmPressure } from '../shared-core/src/physics';
 import { goalRow, infoRow, median, timeRuns } from './goals';
 

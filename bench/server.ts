@@ -1,7 +1,7 @@
 /**
  * Language-server benchmark through the real protocol (driven with vscode-jsonrpc) on a generated
  * 10,000-line note with 2,000 statements, for the server started two ways: as the VS Code client
- * starts it (dist/server.js over node IPC with the client's Node options, server/src/nodeOptions.ts)
+ * starts it (dist/server.js over node IPC with the client's Node options, protocol/src/nodeOptions.ts)
  * and as other editors start it (`dewmark-language-server --stdio`, no Node options):
  * - cold start: spawn → initialize → didOpen → first diagnostics (goal ≤ 300 ms);
  * - a one-character didChange → the new diagnostics of that version (goal ≤ 20 ms median), for a
@@ -19,7 +19,7 @@ import { spawn } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { createMessageConnection, IPCMessageReader, IPCMessageWriter } from 'vscode-jsonrpc/node';
-import { SERVER_EXEC_ARGV } from '../server/src/nodeOptions';
+import { SERVER_EXEC_ARGV } from '../protocol/src/nodeOptions';
 import { PUSH_ONLY_CAPABILITIES, repoRoot, Session, startServer, type Position } from '../test/protocol/harness';
 import { goalRow, infoRow, median, percentile } from './goals';
 

@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { readdirSync, readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { basename, join } from 'node:path';
-import { analyzeNote } from '../shared-core/src/evaluate';
+import { analyzeNote } from '../shared-core/src/analyze';
 import type { Analysis, ProcessResult, StateResult } from '../shared-core/src/evaluate/types';
 import { evalFileJson, fileResult } from '../cli/src/output';
 

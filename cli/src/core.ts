@@ -1,12 +1,11 @@
 /**
- * The parts of the core the CLI uses, in one place. Imported from the core's modules directly
- * (the core has one package entry point, `@dewmark/core`; this adapter keeps the CLI to the
- * evaluator, the units and the line index).
+ * The parts of the core the CLI uses, in one place: the analysis, the evaluator's result types,
+ * the units and the line index, each from its layer's entry point (`@dewmark/core/<layer>`).
  */
-export { analyzeNote } from '@dewmark/core/evaluate';
-export type { Analysis, EvaluateSettings, ProcessResult, StateResult } from '@dewmark/core/evaluate/types';
-export type { CoreDiagnostic } from '@dewmark/core/notation/ast';
-export { LineIndex } from '@dewmark/core/text/lineIndex';
+export { analyzeNote } from '@dewmark/core/analyze';
+export type { Analysis, EvaluateSettings, ProcessResult, StateResult } from '@dewmark/core/evaluate';
+export type { CoreDiagnostic } from '@dewmark/core/notation';
+export { LineIndex } from '@dewmark/core/text';
 export { displayUnit, displaySymbol, formatQuantity, lookupUnit, toSI } from '@dewmark/core/units';
 export { stdAtmPressure } from '@dewmark/core/physics';
-export type { Dimension, UnitSystem } from '@dewmark/core/units/types';
+export type { Dimension, UnitSystem } from '@dewmark/core/units';

@@ -3,7 +3,7 @@
  * notes (or more warnings than --max-warnings), 2 usage or I/O problems.
  */
 import { Command, CommanderError, Option } from 'commander';
-import { STDIN_PATH, collectInputs, decodeText, readStdin } from './files';
+import { STDIN_PATH, collectInputs, decodeText } from '@dewmark/files';
 import { summaryLine, type Counts } from './output';
 import { runTasks, type FileOutput, type Mode, type Task } from './work';
 import { UsageError, toSettings, type RawEvalOptions } from './settings';
@@ -245,4 +245,11 @@ export function processIO(): CliIO {
     stdin: () => (stdinBytes ??= readStdin()),
     stderrIsTTY: process.stderr.isTTY === true,
   };
+}
+
+/** Reads all of standard input as bytes. */
+export async function readStdin(): Promise<Uint8Array> {
+  const chunks: Buffer[] = [];
+  for await (const chunk of process.stdin) chunks.push(typeof chunk === 'string' ? Buffer.from(chunk) : (chunk as Buffer));
+  return Buffer.concat(chunks);
 }

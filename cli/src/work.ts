@@ -6,7 +6,7 @@ import { Worker, isMainThread, parentPort, workerData } from 'node:worker_thread
 import { availableParallelism, loadavg } from 'node:os';
 import type { EvaluateSettings } from './core';
 import { analyzeNote } from './core';
-import { STDIN_PATH, decodeText, readInput, type Input } from './files';
+import { STDIN_PATH, decodeText, readInput, type Input } from '@dewmark/files';
 import type { Counts } from './output';
 import { countDiagnostics, diagnosticJson, diagnosticLine, evalFileJson, fileResult, processesTable, statesTable } from './output';
 

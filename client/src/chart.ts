@@ -10,7 +10,7 @@ import { basename } from 'node:path';
 import * as vscode from 'vscode';
 import { chartWebviewHtml, renderChart, type ChartUpdateMessage } from '@dewmark/core/chart';
 import { analyzeText, readSettings } from '@dewmark/core/service';
-import { SETTINGS_SECTION } from '../../server/src/protocol';
+import { SETTINGS_SECTION } from '@dewmark/protocol';
 
 /** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */
 const SETTING_KEYS = ['units', 'pressure', 'elevation', 'inlayHints.properties', 'precision', 'checkClaims', 'hover.secondaryUnits', 'maxNoteSizeKB'];

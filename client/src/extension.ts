@@ -18,16 +18,16 @@ import {
   type LanguageClientOptions,
   type ServerOptions,
 } from 'vscode-languageclient/node';
-import { SERVER_EXEC_ARGV } from '../../server/src/nodeOptions';
 import {
   CHECK_WORKSPACE_METHOD,
   RESULTS_TABLE_COMMAND,
+  SERVER_EXEC_ARGV,
   SETTINGS_SECTION,
   type CheckWorkspaceParams,
   type CheckWorkspaceResult,
   type ResultsTableParams,
   type ResultsTableResult,
-} from '../../server/src/protocol';
+} from '@dewmark/protocol';
 import { readSettings, type ServiceSettings } from '@dewmark/core/service';
 import type { ChartPanels } from './chart';
 import { COMMANDS, OUTPUT_CHANNEL } from './commands';
@@ -90,7 +90,7 @@ class ServerController {
   private starting: Promise<void>;
 
   constructor(serverModule: string, output: vscode.LogOutputChannel) {
-    // The Node options bound the server's heap slack (server/src/nodeOptions.ts says why).
+    // The Node options bound the server's heap slack (@dewmark/protocol, nodeOptions.ts, says why).
     const serverOptions: ServerOptions = {
       run: { module: serverModule, transport: TransportKind.ipc, options: { execArgv: [...SERVER_EXEC_ARGV] } },
       debug: { module: serverModule, transport: TransportKind.ipc, options: { execArgv: [...SERVER_EXEC_ARGV, '--nolazy', '--inspect=6019'] } },

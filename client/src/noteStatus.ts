@@ -1,14 +1,14 @@
 /**
  * What the status bar shows for the active note: its unit system and pressure basis. The server
- * answers the `dewmark/noteStatus` request (server/src/protocol.ts) and lists it under
+ * answers the `dewmark/noteStatus` request (@dewmark/protocol) and lists it under
  * `capabilities.experimental.dewmark.noteStatus`; a server without it (an older build, or one
  * that failed to start) leaves the client to say what the settings alone imply, and to say that
  * the note's own `units:`/`site:` lines were not read. Pure: no editor API.
  */
 
-import type { NoteStatusResult } from '../../server/src/protocol';
+import type { NoteStatusResult } from '@dewmark/protocol';
 
-export type { NoteStatusParams, NoteStatusResult } from '../../server/src/protocol';
+export type { NoteStatusParams, NoteStatusResult } from '@dewmark/protocol';
 
 /** The slice of `dewmark.*` settings the fallback status reads. */
 export interface StatusSettings {

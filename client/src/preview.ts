@@ -11,10 +11,8 @@
  * markdown-it in tests.
  */
 import { analyzeText, DEFAULT_SERVICE_SETTINGS, type ServiceSettings } from '@dewmark/core/service';
-import { allBlockResults, type ResultsData } from '@dewmark/core/present/blockResults';
-import { resultsTableHtml } from '@dewmark/core/present/resultsTable';
-import { RESULTS_COMMAND_TITLE, tableSlots, tableState } from '@dewmark/core/present/writtenTables';
-import { LineIndex } from '@dewmark/core/text/lineIndex';
+import { allBlockResults, RESULTS_COMMAND_TITLE, resultsTableHtml, tableSlots, tableState, type ResultsData } from '@dewmark/core/present';
+import { LineIndex } from '@dewmark/core/text';
 
 /** The parts of a markdown-it token the plugin reads and writes. */
 interface TokenLike {

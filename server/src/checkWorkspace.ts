@@ -17,7 +17,7 @@ import {
   type CheckedNote,
   type CheckWorkspaceParams,
   type CheckWorkspaceResult,
-} from './protocol';
+} from '@dewmark/protocol';
 import { cancelled, runSafe } from './safe';
 
 /** Folders never searched for notes. */

@@ -7,7 +7,7 @@ import { CodeActionKind, CodeActionTriggerKind, type CodeAction, type Diagnostic
 import { codeActions, resultsTableActions, type FixAction } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toSpan, toTextEdits } from './convert';
-import { DIAGNOSTIC_SOURCE } from './protocol';
+import { DIAGNOSTIC_SOURCE } from '@dewmark/protocol';
 import { noteForRequest, runSafe } from './safe';
 
 /** The kind of the source actions that write results tables. */

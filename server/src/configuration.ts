@@ -12,7 +12,7 @@ import {
   type InitializeParams,
 } from 'vscode-languageserver/node';
 import { DEFAULT_SERVICE_SETTINGS, readSettings, type ServiceSettings } from '@dewmark/core/service';
-import { SETTINGS_SECTION } from './protocol';
+import { SETTINGS_SECTION } from '@dewmark/protocol';
 
 /** Per-document settings with change notification. */
 export class Configuration {

@@ -13,7 +13,7 @@ import type { TextDocument } from 'vscode-languageserver-textdocument';
 import { noteDiagnostics, type CoreDiagnostic, type Note } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toRange } from './convert';
-import { DIAGNOSTIC_SOURCE } from './protocol';
+import { DIAGNOSTIC_SOURCE } from '@dewmark/protocol';
 import { noteForRequest, runSafe } from './safe';
 
 const SEVERITY: Record<CoreDiagnostic['severity'], DiagnosticSeverity> = {

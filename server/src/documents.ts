@@ -6,9 +6,8 @@
  */
 import { TextDocuments, type Connection } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { createAnalyzer, type Analyzer } from '@dewmark/core/evaluate';
-import type { Note } from '@dewmark/core/service';
-import { analyzeTextWith } from '@dewmark/core/service/note';
+import { createAnalyzer, type Analyzer } from '@dewmark/core/analyze';
+import { analyzeTextWith, type Note } from '@dewmark/core/service';
 import type { Configuration } from './configuration';
 
 /** A document with its analysis. */

@@ -22,7 +22,7 @@ import { registerInlayHints } from './inlayHints';
 import { registerNavigation } from './navigation';
 import { registerNoteStatus } from './noteStatus';
 import { EXECUTE_COMMANDS, registerResultsTable } from './resultsTable';
-import { CHECK_WORKSPACE_METHOD, NOTE_STATUS_METHOD } from './protocol';
+import { CHECK_WORKSPACE_METHOD, NOTE_STATUS_METHOD } from '@dewmark/protocol';
 import { registerSymbols } from './symbols';
 
 const USAGE = `Usage: dewmark-language-server --stdio | --node-ipc | --socket=PORT | --pipe=NAME

@@ -2,7 +2,7 @@
 import { noteStatus } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toRange } from './convert';
-import { NOTE_STATUS_METHOD, type NoteStatusParams, type NoteStatusResult } from './protocol';
+import { NOTE_STATUS_METHOD, type NoteStatusParams, type NoteStatusResult } from '@dewmark/protocol';
 import { noteForRequest, runSafe } from './safe';
 import type { CancellationToken } from 'vscode-languageserver/node';
 

@@ -7,7 +7,7 @@ import { ErrorCodes, ResponseError, type WorkspaceEdit } from 'vscode-languagese
 import { countChanges, resultsTableEdits } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toTextEdits } from './convert';
-import { RESULTS_TABLE_COMMAND, type ResultsTableParams, type ResultsTableResult } from './protocol';
+import { RESULTS_TABLE_COMMAND, type ResultsTableParams, type ResultsTableResult } from '@dewmark/protocol';
 import { noteForRequest, runSafe } from './safe';
 
 /** The commands this server executes. */

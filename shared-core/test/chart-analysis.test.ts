@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { chartDataFromAnalysis, chartLayout, renderChart, toPixel } from '../src/chart';
-import { analyzeNote } from '../src/evaluate';
+import { analyzeNote } from '../src/analyze';
 import type { StateResult } from '../src/evaluate/types';
 import { stdAtmPressure } from '../src/physics';
 import { elements } from './chart-helpers';

@@ -4,7 +4,7 @@
  */
 import { expect } from 'vitest';
 import { createRequire } from 'node:module';
-import { analyzeNote } from '../src/evaluate';
+import { analyzeNote } from '../src/analyze';
 import type { Analysis, EvaluateSettings, ProcessResult, StateResult } from '../src/evaluate/types';
 import type { CoreDiagnostic } from '../src/notation/ast';
 

@@ -9,7 +9,8 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { analyzeNote, createAnalyzer, type EvaluateSettings } from '../src/evaluate';
+import { analyzeNote, createAnalyzer } from '../src/analyze';
+import type { EvaluateSettings } from '../src/evaluate';
 import { createNoteParser, findEdit } from '../src/notation/incremental';
 import { parseNote } from '../src/notation/parse';
 

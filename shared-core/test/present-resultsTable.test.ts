@@ -5,7 +5,7 @@
  */
 import MarkdownIt from 'markdown-it';
 import { describe, expect, it } from 'vitest';
-import { analyzeNote } from '../src/evaluate';
+import { analyzeNote } from '../src/analyze';
 import { allBlockResults, blockResults, isEmptyResults } from '../src/present/blockResults';
 import { escapeHtml, escapeMarkdown, resultsTableHtml, resultsTableMarkdown } from '../src/present/resultsTable';
 

@@ -27,7 +27,7 @@ import {
 } from './robustness-generators';
 import { codeActions, noteDiagnostics, rename, type Note, type ServiceSettings } from '../src/service';
 import { analyzeTextWith } from '../src/service/note';
-import { createAnalyzer } from '../src/evaluate';
+import { createAnalyzer } from '../src/analyze';
 
 const cfg = fuzzConfig();
 /** A note counts as slow only when the fastest of three re-runs takes longer than this. */

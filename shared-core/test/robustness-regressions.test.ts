@@ -6,7 +6,8 @@
  * what is wrong, and that a feature still gives its usual answer.
  */
 import { describe, expect, it } from 'vitest';
-import { allFinite, analyzeNote } from '../src/evaluate';
+import { analyzeNote } from '../src/analyze';
+import { allFinite } from '../src/evaluate';
 import { solveState } from '../src/physics';
 import { analyzeText, completions, DEFAULT_SERVICE_SETTINGS, inlayHints } from '../src/service';
 

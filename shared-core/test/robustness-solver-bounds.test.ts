@@ -18,8 +18,9 @@ const NOTE = ['```air', 'state A: db=24C rh=50%', 'state B: wb=18C rh=40%', 'sta
 
 async function freshEngine() {
   const physics = await import('../src/physics');
-  const evaluate = await import('../src/evaluate');
-  return { physics, evaluate };
+  const { allFinite } = await import('../src/evaluate');
+  const { analyzeNote } = await import('../src/analyze');
+  return { physics, evaluate: { allFinite, analyzeNote } };
 }
 
 describe('a solver that hits its bound reports no-convergence', () => {

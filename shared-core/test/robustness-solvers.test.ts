@@ -25,7 +25,8 @@ import {
 import { rootInfo } from '../src/physics/roots';
 import { satTempDeriv } from '../src/physics/saturation';
 import { wetBulbInfo } from '../src/physics/wetbulb';
-import { analyzeNote, allFinite } from '../src/evaluate';
+import { analyzeNote } from '../src/analyze';
+import { allFinite } from '../src/evaluate';
 
 /** Every code the engine documents (physics/types.ts PhysicsCode). */
 const CODES: readonly PhysicsCode[] = [

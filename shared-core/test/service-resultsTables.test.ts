@@ -7,7 +7,7 @@
 import fc from 'fast-check';
 import MarkdownIt from 'markdown-it';
 import { describe, expect, it } from 'vitest';
-import { analyzeNote } from '../src/evaluate';
+import { analyzeNote } from '../src/analyze';
 import {
   checksum,
   normalizeBody,

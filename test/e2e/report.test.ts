@@ -14,7 +14,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { run, type CliIO } from '../../cli/src/run';
-import { analyzeNote } from '../../shared-core/src/evaluate';
+import { analyzeNote } from '../../shared-core/src/analyze';
 import { chartDataFromAnalysis, chartLayout, chartWebviewHtml, renderChart, toPixel } from '../../shared-core/src/chart';
 import { artifactsDir, requireTool, skipWithout } from './lib/tools';
 import { CHROMIUM_ARGS, loadPlaywright } from './lib/codeServer';

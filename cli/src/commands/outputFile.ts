@@ -5,7 +5,7 @@
 import { lstatSync, readlinkSync, realpathSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { analyzeNote, type Analysis } from '../core';
-import { STDIN_PATH, collectInputs, decodeText, readInput } from '../files';
+import { STDIN_PATH, collectInputs, decodeText, readInput } from '@dewmark/files';
 import type { CliIO } from '../run';
 import { UsageError, toSettings, type RawEvalOptions } from '../settings';
 

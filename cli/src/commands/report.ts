@@ -7,7 +7,7 @@
 import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
 import { renderChart } from '@dewmark/core/chart';
-import type { ClaimResult, PressureBasis } from '@dewmark/core/evaluate/types';
+import type { ClaimResult, PressureBasis } from '@dewmark/core/evaluate';
 import { LineIndex, displaySymbol, displayUnit, formatQuantity, type Analysis, type CoreDiagnostic, type Dimension, type ProcessResult, type StateResult, type UnitSystem } from '../core';
 import type { CliIO } from '../run';
 import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, type WriteOptions } from './outputFile';

@@ -75,7 +75,7 @@ function evaluateUnits(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'un
 }
 
 /**
- * What an analyzer that keeps its previous run hands to {@link evaluate} (see `analyzer.ts`): a
+ * What an analyzer that keeps its previous run hands to {@link evaluate} (see `analyze/analyzer.ts`): a
  * way to take a state's previous result over, and the solver to use. The analysis is the same
  * with or without it.
  */

@@ -32,11 +32,6 @@ export function unitToSI(value: number, unit: UnitDef): number {
   return value * unit.scale + unit.offset;
 }
 
-/** Converts an SI value to `unit` (the inverse of {@link unitToSI}). */
-export function unitFromSI(si: number, unit: UnitDef): number {
-  return (si - unit.offset) / unit.scale;
-}
-
 /** Calls the units module's suggestion and keeps a symbol string, whatever shape it returns. */
 export function suggestSymbol(text: string, dimensions?: Dimension[]): string | null {
   let r: unknown;

@@ -3,12 +3,15 @@
  * and code spans whose content starts with a statement keyword (`state `, `mix `, `process `,
  * `site:`, `units:` — the keyword followed by whitespace or `:`). Everything else is prose.
  */
-import type { AirRegion, HeadingNode, Keyword } from '../notation/ast';
 import type { Span } from '../text/types';
 import { scanMarkdown } from './scan';
+import type { AirRegion, HeadingNode } from './types';
 
 /** The statement keywords, in the order the docs list them. */
-export const STATEMENT_KEYWORDS: readonly Keyword[] = ['site', 'units', 'state', 'mix', 'process'];
+export const STATEMENT_KEYWORDS = ['site', 'units', 'state', 'mix', 'process'] as const;
+
+/** A statement keyword, as written. */
+export type Keyword = (typeof STATEMENT_KEYWORDS)[number];
 
 /** A ` ```air ` fence. */
 export interface FenceRegion extends AirRegion {

@@ -15,8 +15,8 @@
  * is not all spaces.
  */
 import type { Token } from 'markdown-it';
-import type { HeadingNode } from '../notation/ast';
 import type { Span } from '../text/types';
+import type { HeadingNode } from './types';
 import { createMarkdownIt, type Collector, type InlineMap, type ScanEnv } from './markdownIt';
 
 /** A fenced code block (backticks or tildes), closed or running to the end of its container. */

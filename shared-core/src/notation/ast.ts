@@ -4,13 +4,12 @@
  * (UTF-16 offsets into the whole Markdown document). The tree knows nothing of physics or units:
  * unit symbols are kept as written and resolved by the evaluator.
  */
+import type { Keyword } from '../markdown/regions';
+import type { AirRegion, HeadingNode, StatementOrigin } from '../markdown/types';
 import type { Span } from '../text/types';
 
-/** The statement keywords, as written. */
-export type Keyword = 'site' | 'units' | 'state' | 'mix' | 'process';
-
-/** Where a statement was found in the Markdown. */
-export type StatementOrigin = 'fence' | 'inline';
+// The regions, headings and keywords are found by the Markdown layer below; the tree carries them.
+export type { AirRegion, HeadingNode, Keyword, StatementOrigin };
 
 /** A number as written, with its value and its precision (for claims). */
 export interface NumberNode {
@@ -137,23 +136,6 @@ export interface CoreDiagnostic {
   related?: { span: Span; message: string }[];
   /** Plain data a quick fix needs (e.g. the computed value for a stale claim). */
   data?: Record<string, unknown>;
-}
-
-/** A region of the document that holds statements. */
-export interface AirRegion {
-  origin: StatementOrigin;
-  /** The whole construct: the fence from its opening to closing line, or the code span with its backticks. */
-  span: Span;
-  /** The content: the fenced block's body, or the code span's content. */
-  contentSpan: Span;
-}
-
-/** An ATX or setext Markdown heading (for the outline). */
-export interface HeadingNode {
-  level: number;
-  /** The heading's text, trimmed, without the `#` marks. */
-  text: string;
-  span: Span;
 }
 
 /** What the parser returns for one document. */

@@ -5,7 +5,7 @@
  * diagnostic (code `note-too-large`) that says so, how large it is and what to do; every other
  * feature finds nothing in it. The command line has no limit (`dewmark check` evaluates any note).
  */
-import { analyzeNote } from '../evaluate';
+import { analyzeNote } from '../analyze';
 import type { CoreDiagnostic } from '../notation/ast';
 import { toEvaluateSettings } from './settings';
 import type { Note, ServiceSettings } from './types';

@@ -2,8 +2,8 @@
  * One analysed note and the lookups every feature shares: the statement, region and syntax node at
  * an offset (binary search over document order), and the evaluated item of a statement.
  */
-import { analyzeNote } from '../evaluate';
-import type { Analyzer } from '../evaluate/analyzer';
+import { analyzeNote } from '../analyze';
+import type { Analyzer } from '../analyze';
 import type { EvaluatedItem } from '../evaluate/types';
 import type {
   AirRegion,

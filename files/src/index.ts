@@ -207,10 +207,3 @@ export function readInput(input: Input): ReadOutcome {
   }
   return decodeText(bytes, input.display);
 }
-
-/** Reads all of standard input as bytes. */
-export async function readStdin(): Promise<Uint8Array> {
-  const chunks: Buffer[] = [];
-  for await (const chunk of process.stdin) chunks.push(typeof chunk === 'string' ? Buffer.from(chunk) : (chunk as Buffer));
-  return Buffer.concat(chunks);
-}

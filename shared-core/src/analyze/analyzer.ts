@@ -20,10 +20,10 @@ import type { CoreDiagnostic, MixStatement, NameNode, ProcessStatement, StateSta
 import { createNoteParser } from '../notation/incremental';
 import type { Span } from '../text/types';
 import { finishAnalysis } from './analyze';
-import type { EvalContext } from './context';
-import { evaluate, type EvaluateReuse } from './evaluate';
-import { resolveSettings } from './settings';
-import type { Analysis, ClaimResult, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from './types';
+import type { EvalContext } from '../evaluate/context';
+import { evaluate, type EvaluateReuse } from '../evaluate/evaluate';
+import { resolveSettings } from '../evaluate/settings';
+import type { Analysis, ClaimResult, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from '../evaluate/types';
 
 /** An analyzer that keeps its last run (see the module comment). */
 export interface Analyzer {

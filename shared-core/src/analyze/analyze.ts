@@ -2,8 +2,8 @@
 import { parseNote } from '../notation/parse';
 import type { CoreDiagnostic } from '../notation/ast';
 import { staleTableDiagnostics } from '../present/writtenTables';
-import { evaluate } from './evaluate';
-import type { Analysis, EvaluateSettings } from './types';
+import { evaluate } from '../evaluate/evaluate';
+import type { Analysis, EvaluateSettings } from '../evaluate/types';
 
 /**
  * Parses a Markdown note and evaluates it (`parseNote` + {@link evaluate}), with line numbers in

@@ -94,3 +94,5 @@ export interface ResultsTableResult {
   /** The document version the edit is for. */
   version: number;
 }
+
+export { SERVER_EXEC_ARGV } from './nodeOptions';

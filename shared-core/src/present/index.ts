@@ -1,0 +1,7 @@
+/**
+ * Results of each air block as formatted data, the HTML (Markdown preview) and Markdown tables
+ * made from it, and the tables written into a note (markers, checksum, stale check).
+ */
+export { allBlockResults, blockResults, isEmptyResults, type BlockResults, type ResultsData } from './blockResults';
+export { resultsTableHtml, resultsTableMarkdown, type HtmlOptions } from './resultsTable';
+export { RESULTS_COMMAND_TITLE, STALE_RESULTS_TABLE, tableSlots, tableState, type TableSlot, type TableState, type WrittenTable } from './writtenTables';
