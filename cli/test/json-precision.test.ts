@@ -5,7 +5,7 @@
  */
 import { createRequire } from 'node:module';
 import { describe, expect, it } from 'vitest';
-import { analyzeNote } from '../../shared-core/src/evaluate';
+import { analyzeNote } from '../../shared-core/src/analyze';
 import type { ProcessResult, StateResult } from '../../shared-core/src/evaluate/types';
 import { evalFileJson, fileResult, JSON_SIGNIFICANT_DIGITS } from '../src/output';
 
