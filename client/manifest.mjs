@@ -29,8 +29,17 @@ const HINT_KEYS = [
 
 const category = 'Dewmark';
 
+/** The project's own web address (the security contact is a mailbox on the same domain). */
+export const HOMEPAGE = 'https://dewmark.dev';
+
 /** Top-level manifest fields this script owns. */
 export const fields = {
+  homepage: HOMEPAGE,
+  repository: { type: 'git', url: 'git+https://github.com/dewmark/dewmark.git' },
+  bugs: { url: 'https://github.com/dewmark/dewmark/issues' },
+  // The npm package (`npm i dewmark`): the two commands and their bundles. The .vsix is packed by
+  // .vscodeignore instead (vsce reads that first), from the same manifest and version.
+  files: ['bin/', 'dist/cli.js', 'dist/server.js', 'dist/THIRD-PARTY-NOTICES.md', 'README.md', 'CHANGELOG.md', 'SECURITY.md', 'LICENSE'],
   main: './dist/client.js',
   icon: 'images/icon.png',
   galleryBanner: { color: '#0b2f45', theme: 'dark' },
@@ -41,7 +50,11 @@ export const fields = {
   activationEvents: ['onLanguage:markdown'],
   capabilities: {
     untrustedWorkspaces: { supported: true },
-    virtualWorkspaces: true,
+    virtualWorkspaces: {
+      supported: 'limited',
+      description:
+        'In a virtual workspace the open notes get every feature; Check All Notes in the Workspace reads local folders only.',
+    },
   },
   contributes: {
     configuration: {

@@ -2,13 +2,17 @@
 /**
  * `npm run package`: bundles the extension (npm run build) and packs it with @vscode/vsce into
  * dewmark-<version>.vsix at the repository root, then prints its size and contents. The manifest
- * is the root package.json; .vscodeignore keeps the package to the two bundles, the grammar, the
- * icon and the documents (no node_modules: `--no-dependencies`).
+ * is the root package.json, which is also the npm package's: its `files` list is the npm
+ * package's contents, and vsce refuses a `files` list beside a .vscodeignore. So the files that
+ * client/vsix.vscodeignore lets in (the two editor bundles, the grammar, the icon, the documents)
+ * are copied into a staging folder with the manifest minus `files`, and vsce packs that folder
+ * (no node_modules: `--no-dependencies`). Same manifest, same version as the npm package.
  *
  *   node client/package-vsix.mjs [--no-build] [--out FILE]
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, readFileSync, statSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -20,8 +24,8 @@ const out = outIdx >= 0 && args[outIdx + 1] ? resolve(args[outIdx + 1]) : join(r
 /** Goal for the package size (issue: ≤ 1 MB). */
 const SIZE_GOAL = 1024 * 1024;
 
-function run(cmd, argv) {
-  const r = spawnSync(cmd, argv, { cwd: root, stdio: 'inherit' });
+function run(cmd, argv, cwd = root) {
+  const r = spawnSync(cmd, argv, { cwd, stdio: 'inherit' });
   if (r.error) throw r.error;
   if (r.status !== 0) {
     console.error(`package: '${cmd} ${argv.join(' ')}' exited with ${r.status}`);
@@ -44,12 +48,35 @@ for (const f of ['dist/client.js', 'dist/server.js']) {
 }
 
 const vsce = join(root, 'node_modules', '@vscode', 'vsce', 'vsce');
-const vsceArgs = [vsce, 'package', '--no-dependencies', '--out', out];
-// No public repository is recorded yet; README links are packed as they are.
-if (!manifest.repository) vsceArgs.push('--allow-missing-repository', '--no-rewrite-relative-links');
-run(process.execPath, vsceArgs);
-
-const size = statSync(out).size;
-const list = spawnSync(process.execPath, [vsce, 'ls', '--no-dependencies'], { cwd: root, encoding: 'utf8' });
+const ignoreFile = join(root, 'client', 'vsix.vscodeignore');
+const ignoreText = readFileSync(ignoreFile, 'utf8');
+/** The files the .vsix holds: the `!path` lines of client/vsix.vscodeignore (plain paths, no globs). */
+const packed = ignoreText
+  .split('\n')
+  .map((l) => l.trim())
+  .filter((l) => l.startsWith('!'))
+  .map((l) => l.slice(1));
+const stage = mkdtempSync(join(tmpdir(), 'dewmark-vsix-'));
+let size = 0;
+let list;
+try {
+  for (const f of packed) {
+    if (f === 'package.json') continue;
+    if (!existsSync(join(root, f))) {
+      console.error(`package: ${f} (named in client/vsix.vscodeignore) is missing.`);
+      process.exit(1);
+    }
+    mkdirSync(dirname(join(stage, f)), { recursive: true });
+    copyFileSync(join(root, f), join(stage, f));
+  }
+  const { files: _npmFiles, ...vsixManifest } = manifest;
+  writeFileSync(join(stage, 'package.json'), `${JSON.stringify(vsixManifest, null, 2)}\n`);
+  writeFileSync(join(stage, '.vscodeignore'), ignoreText);
+  run(process.execPath, [vsce, 'package', '--no-dependencies', '--out', out], stage);
+  size = statSync(out).size;
+  list = spawnSync(process.execPath, [vsce, 'ls', '--no-dependencies'], { cwd: stage, encoding: 'utf8' });
+} finally {
+  rmSync(stage, { recursive: true, force: true });
+}
 console.log(`package: ${relative(process.cwd(), out) || out}: ${(size / 1024).toFixed(1)} KiB (goal ≤ ${SIZE_GOAL / 1024} KiB: ${size <= SIZE_GOAL ? 'met' : 'NOT met'})`);
 if (list.status === 0) console.log(`package: files:\n${list.stdout.trim().split('\n').map((l) => `  ${l}`).join('\n')}`);

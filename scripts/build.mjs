@@ -1,11 +1,17 @@
 // Bundles the command-line tool, and the language server and VS Code client when their sources
-// exist, into single CommonJS files under dist/ that need no node_modules at run time.
+// exist, into single CommonJS files under dist/ that need no node_modules at run time, and writes
+// dist/THIRD-PARTY-NOTICES.md with the licence of every third-party package bundled into them.
+// Everything it says goes to stderr, so that `npm pack --json` (which runs it) prints only JSON.
 import { build } from 'esbuild';
-import { existsSync, readFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
+import { thirdPartyNotices } from './notices.mjs';
 import { fileURLToPath } from 'node:url';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+// `--outdir DIR` writes the bundles and notices to DIR instead of dist/ (the package test uses it).
+const outdirArg = process.argv.indexOf('--outdir');
+const outdir = outdirArg >= 0 && process.argv[outdirArg + 1] ? resolve(process.argv[outdirArg + 1]) : join(root, 'dist');
 const pkg = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8'));
 
 /** Settings every bundle shares. */
@@ -15,11 +21,16 @@ const common = {
   format: 'cjs',
   target: 'node20',
   sourcemap: false,
+  // Licence comments are not kept inline; every bundled package's licence text is collected from
+  // the metafile into dist/THIRD-PARTY-NOTICES.md instead (complete, and one copy per package).
   legalComments: 'none',
+  metafile: true,
   logLevel: 'warning',
   // ES-module dependencies bundled into CommonJS may read import.meta.url (fdir does, for
   // createRequire); give them the bundle's own file URL.
-  banner: { js: "var __bundleMetaUrl = require('url').pathToFileURL(__filename).href;" },
+  banner: {
+    js: "// Third-party licences: THIRD-PARTY-NOTICES.md beside this file.\nvar __bundleMetaUrl = require('url').pathToFileURL(__filename).href;",
+  },
   define: { __DEWMARK_VERSION__: JSON.stringify(pkg.version), 'import.meta.url': '__bundleMetaUrl' },
 };
 
@@ -36,6 +47,8 @@ const targets = [
 const lenient = process.env.npm_lifecycle_event === 'prepare';
 
 let failed = 0;
+/** Bundle file name → metafile, for the notices. */
+const metafiles = new Map();
 for (const t of targets) {
   const entry = join(root, t.entry);
   if (!existsSync(entry)) {
@@ -47,11 +60,22 @@ for (const t of targets) {
   }
   try {
     const minify = t.minify ? { minifyWhitespace: true, minifySyntax: true } : {};
-    await build({ ...common, ...minify, entryPoints: [entry], outfile: join(root, t.out), external: t.external ?? [] });
-    console.log(`built ${t.out}`);
+    const result = await build({ ...common, ...minify, entryPoints: [entry], outfile: join(outdir, t.out.replace(/^dist\//, '')), external: t.external ?? [] });
+    metafiles.set(t.out.replace(/^dist\//, ''), result.metafile);
+    console.error(`built ${t.out}`);
   } catch (err) {
     failed++;
     console.error(`build: ${t.out} failed${err instanceof Error && !err.message.includes('Build failed') ? `: ${err.message}` : ''}`);
+  }
+}
+if (failed === 0) {
+  try {
+    const { text, packages } = thirdPartyNotices(root, metafiles);
+    writeFileSync(join(outdir, 'THIRD-PARTY-NOTICES.md'), text);
+    console.error(`built dist/THIRD-PARTY-NOTICES.md (${packages} packages)`);
+  } catch (err) {
+    failed++;
+    console.error(`build: dist/THIRD-PARTY-NOTICES.md: ${err instanceof Error ? err.message : String(err)}`);
   }
 }
 if (failed > 0) {

@@ -2,7 +2,7 @@
  * The extension manifest (root package.json) agrees with the code: the commands contributed are
  * exactly the ones the client registers, every setting is one the server reads (its default gives
  * the server's defaults, and a changed value changes what the server uses), and every file the
- * manifest names is packed by .vscodeignore.
+ * manifest names is packed by client/vsix.vscodeignore.
  */
 import { describe, expect, it } from 'vitest';
 import { existsSync, readFileSync } from 'node:fs';
@@ -64,7 +64,20 @@ describe('extension manifest', () => {
     expect(manifest.engines.vscode).toBe('^1.91.0');
     // dist/client.js is a CommonJS bundle: VS Code requires it, which fails in a "type": "module" package.
     expect(manifest.type ?? 'commonjs', 'the root package must stay CommonJS').toBe('commonjs');
-    expect(manifest.capabilities).toEqual({ untrustedWorkspaces: { supported: true }, virtualWorkspaces: true });
+    expect(manifest.capabilities.untrustedWorkspaces).toEqual({ supported: true });
+    // Virtual workspaces: open notes get everything, but Check All reads local folders only.
+    expect(manifest.capabilities.virtualWorkspaces.supported).toBe('limited');
+    expect(manifest.capabilities.virtualWorkspaces.description).toMatch(/Check All/);
+  });
+
+  it('names where the project lives, and is publishable to npm', () => {
+    expect(manifest.private, 'the root package is the npm package "dewmark"').toBeUndefined();
+    expect(manifest.repository.url).toMatch(/^git\+https:\/\//);
+    expect(manifest.homepage).toMatch(/^https:\/\//);
+    expect(manifest.bugs.url).toMatch(/^https:\/\//);
+    // vsce refuses a root .vscodeignore beside the npm `files` list; the .vsix list lives in client/.
+    expect(existsSync(join(root, '.vscodeignore'))).toBe(false);
+    expect(manifest.files).not.toContain('dist/client.js');
   });
 
   it('contributes exactly the commands the client registers, under the Dewmark category', () => {
@@ -108,7 +121,7 @@ describe('extension manifest', () => {
   });
 
   it('packs every file the manifest names, and nothing from node_modules', () => {
-    const ignore = readFileSync(join(root, '.vscodeignore'), 'utf8').split('\n').map((l) => l.trim());
+    const ignore = readFileSync(join(root, 'client', 'vsix.vscodeignore'), 'utf8').split('\n').map((l) => l.trim());
     expect(ignore).toContain('**');
     const named = [
       manifest.main.replace(/^\.\//, ''),
