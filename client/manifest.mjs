@@ -39,7 +39,7 @@ export const fields = {
   bugs: { url: 'https://github.com/dewmark/dewmark/issues' },
   // The npm package (`npm i dewmark`): the two commands and their bundles. The .vsix is packed by
   // .vscodeignore instead (vsce reads that first), from the same manifest and version.
-  files: ['bin/', 'dist/cli.js', 'dist/server.js', 'dist/THIRD-PARTY-NOTICES.md', 'README.md', 'CHANGELOG.md', 'SECURITY.md', 'LICENSE'],
+  files: ['bin/', 'dist/cli.js', 'dist/server.js', 'dist/THIRD-PARTY-NOTICES.md', 'README.md', 'CHANGELOG.md', 'SECURITY.md', 'LICENSE', 'ci/', 'action.yml', '.pre-commit-hooks.yaml'],
   main: './dist/client.js',
   icon: 'images/icon.png',
   galleryBanner: { color: '#0b2f45', theme: 'dark' },

@@ -1,6 +1,7 @@
 /** What `dewmark` prints: diagnostic lines, the JSON documents, and the terminal tables. */
 import type { Analysis, CoreDiagnostic, Dimension, ProcessResult, StateResult, UnitSystem } from './core';
 import { LineIndex, displaySymbol, displayUnit, formatQuantity, lookupUnit } from './core';
+import { safeLinePath, safeText } from './sanitize';
 
 /** One checked or evaluated file. */
 export interface FileResult {
@@ -36,7 +37,7 @@ export function diagnosticJson(f: FileResult, d: CoreDiagnostic): DiagnosticJson
 /** `path:line:col: severity[code]: message` (the form CI problem matchers read). */
 export function diagnosticLine(f: FileResult, d: CoreDiagnostic): string {
   const j = diagnosticJson(f, d);
-  return `${f.path}:${j.line}:${j.column}: ${j.severity}[${j.code}]: ${j.message.replace(/\s*\n\s*/g, ' ')}`;
+  return `${safeLinePath(f.path)}:${j.line}:${j.column}: ${j.severity}[${j.code}]: ${safeText(j.message.replace(/\s*\n\s*/g, ' '))}`;
 }
 
 /** Counts of diagnostics by severity. */

@@ -9,6 +9,10 @@ import { runTasks, type FileOutput, type Mode, type Task } from './work';
 import { UsageError, toSettings, type RawEvalOptions } from './settings';
 import { registerChart } from './commands/chart';
 import { registerReport } from './commands/report';
+import type { DiagnosticJson } from './output';
+import { githubAnnotations } from './formats/github';
+import { sarifLog } from './formats/sarif';
+import { safeText } from './sanitize';
 
 declare const __DEWMARK_VERSION__: string | undefined;
 
@@ -52,7 +56,7 @@ async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mo
   const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false });
   const totals: Totals = { files: 0, counts: { errors: 0, warnings: 0, infos: 0 }, ioProblems: 0 };
   for (const p of problems) {
-    io.err(`dewmark: ${p.message}\n`);
+    io.err(`dewmark: ${safeText(p.message)}\n`);
     totals.ioProblems++;
   }
   const tasks: Task[] = [];
@@ -64,7 +68,7 @@ async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mo
     const read = decodeText(await io.stdin(), STDIN_PATH);
     if (read.ok) tasks.push({ input, text: read.text });
     else {
-      io.err(`dewmark: ${read.message}\n`);
+      io.err(`dewmark: ${safeText(read.message)}\n`);
       totals.ioProblems++;
     }
   }
@@ -76,7 +80,7 @@ async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mo
     (_task, r) => {
       if (!r.ok) {
         if (progress) io.err('\r\x1b[K');
-        io.err(`dewmark: ${r.message}\n`);
+        io.err(`dewmark: ${safeText(r.message)}\n`);
         totals.ioProblems++;
         return;
       }
@@ -90,7 +94,7 @@ async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mo
   );
   if (progress) io.err('\r\x1b[K');
   if (inputs.length === 0 && problems.length === 0) {
-    io.err(`dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${p}'`).join(', ') : 'the current folder'}\n`);
+    io.err(`dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}\n`);
     totals.ioProblems++;
   }
   return totals;
@@ -128,20 +132,28 @@ class OutBuffer {
   }
 }
 
+/** Output formats of `check`. */
+const CHECK_FORMATS = ['text', 'json', 'github', 'sarif'] as const;
+
 async function runCheck(paths: string[], opts: CommonOptions, io: CliIO): Promise<number> {
   const format = opts.format ?? 'text';
-  if (format !== 'text' && format !== 'json') throw new UsageError(`--format must be text or json for check, not '${format}'`);
+  if (!(CHECK_FORMATS as readonly string[]).includes(format)) throw new UsageError(`--format must be ${CHECK_FORMATS.join(', ')} for check, not '${safeText(format)}'`);
   const maxWarnings = maxWarningsOf(opts);
   const out = new OutBuffer(io);
   const jsonFiles: unknown[] = [];
-  const t = await analyse(paths, opts, io, format === 'json' ? 'check-json' : 'check-text', (f) => {
-    if (format === 'json') jsonFiles.push(f.json);
-    else if (f.text) out.push(f.text);
+  const t = await analyse(paths, opts, io, format === 'text' ? 'check-text' : 'check-json', (f) => {
+    if (format === 'json' || format === 'sarif') jsonFiles.push(f.json);
+    else if (format === 'github') {
+      const j = f.json as { path: string; diagnostics: DiagnosticJson[] };
+      out.push(githubAnnotations(j.path, j.diagnostics));
+    } else if (f.text) out.push(f.text);
   });
   const c = t.counts;
   if (format === 'json') {
     const doc = { files: jsonFiles, summary: { files: t.files, errors: c.errors, warnings: c.warnings, infos: c.infos, unreadable: t.ioProblems } };
     out.push(`${JSON.stringify(doc, null, 2)}\n`);
+  } else if (format === 'sarif') {
+    out.push(`${JSON.stringify(sarifLog(jsonFiles as { path: string; diagnostics: DiagnosticJson[] }[], VERSION, io.cwd), null, 2)}\n`);
   } else {
     out.push(`${summaryLine(t.files, c, t.ioProblems)}\n`);
     if (maxWarnings !== null && c.warnings > maxWarnings) out.push(`too many warnings: ${c.warnings} (at most ${maxWarnings} allowed by --max-warnings)\n`);
@@ -174,6 +186,19 @@ function addCommon(cmd: Command): Command {
     .option('--no-gitignore', 'also read files that .gitignore excludes when walking folders');
 }
 
+/**
+ * Where commander writes. Its error messages quote the arguments given, so they are made safe:
+ * an argument holding a newline or an escape sequence cannot start a line of its own.
+ */
+function outputOf(io: CliIO) {
+  return {
+    writeOut: (s: string) => io.out(s),
+    writeErr: (s: string) => io.err(s),
+    // Commander's own second line is a "(Did you mean …?)"; any other line break came from an argument.
+    outputError: (s: string, write: (s: string) => void) => write(`${s.replace(/\n+$/, '').split(/\n(?=\(Did you mean )/).map(safeText).join('\n')}\n`),
+  };
+}
+
 /** Builds the command tree; `onResult` receives each command's exit code. */
 function program(io: CliIO, onResult: (code: number) => void): Command {
   const prog = new Command('dewmark')
@@ -183,14 +208,14 @@ function program(io: CliIO, onResult: (code: number) => void): Command {
     .showHelpAfterError('(run dewmark --help for the commands and options)')
     .showSuggestionAfterError(true)
     .exitOverride()
-    .configureOutput({ writeOut: (s) => io.out(s), writeErr: (s) => io.err(s) });
+    .configureOutput(outputOf(io));
 
   addCommon(
     prog
       .command('check')
       .description('check notes and print each problem as path:line:col: severity[code]: message')
       .argument('[paths...]', 'Markdown files, folders (recursive) or glob patterns; - for standard input (default: the current folder)')
-      .option('--format <format>', 'text or json', 'text')
+      .option('--format <format>', 'text, json, github (workflow annotations) or sarif (SARIF 2.1.0 for code scanning)', 'text')
       .option('--max-warnings <n>', 'exit 1 when there are more warnings than this'),
   ).action(async (paths: string[], opts: CommonOptions) => onResult(await runCheck(paths, opts, io)));
 
@@ -204,7 +229,7 @@ function program(io: CliIO, onResult: (code: number) => void): Command {
 
   registerReport(prog, io, onResult, addCommon, VERSION);
   registerChart(prog, io, onResult, addCommon);
-  for (const c of prog.commands) c.exitOverride().configureOutput({ writeOut: (s) => io.out(s), writeErr: (s) => io.err(s) }).showHelpAfterError(`(run dewmark ${c.name()} --help for its options)`).showSuggestionAfterError(true);
+  for (const c of prog.commands) c.exitOverride().configureOutput(outputOf(io)).showHelpAfterError(`(run dewmark ${c.name()} --help for its options)`).showSuggestionAfterError(true);
   return prog;
 }
 
@@ -226,7 +251,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
       return 2; // commander has printed the message
     }
     if (err instanceof UsageError) {
-      io.err(`dewmark: ${err.message}\n`);
+      io.err(`dewmark: ${safeText(err.message)}\n`);
       return 2;
     }
     io.err(`dewmark: unexpected failure: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}\n`);

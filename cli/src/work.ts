@@ -8,6 +8,7 @@ import type { EvaluateSettings } from './core';
 import { analyzeNote } from './core';
 import { STDIN_PATH, decodeText, readInput, type Input } from '@dewmark/files';
 import type { Counts } from './output';
+import { safeLinePath } from './sanitize';
 import { countDiagnostics, diagnosticJson, diagnosticLine, evalFileJson, fileResult, processesTable, statesTable } from './output';
 
 /** What is produced for each file. */
@@ -44,7 +45,7 @@ export function renderFile(mode: Mode, display: string, text: string, settings: 
     case 'eval-json':
       return { text: '', json: evalFileJson(f), counts };
     case 'eval-table': {
-      let t = `${f.path}  (results in ${f.analysis.units}${f.analysis.unitsSource === 'note' ? ', from the note' : ''})\n\n`;
+      let t = `${safeLinePath(f.path)}  (results in ${f.analysis.units}${f.analysis.unitsSource === 'note' ? ', from the note' : ''})\n\n`;
       const st = statesTable(f);
       const pr = processesTable(f);
       if (st) t += `States\n${st}\n\n`;
