@@ -16,12 +16,12 @@
  */
 import { solveState } from '../physics';
 import type { SolveOptions, SolveResult } from '../physics/types';
-import type { CoreDiagnostic, MixStatement, NameNode, ProcessStatement, StateStatement, Statement } from '../notation/ast';
+import type { CoreDiagnostic, NameNode, StateStatement, Statement } from '../notation/ast';
 import { createNoteParser } from '../notation/incremental';
 import type { Span } from '../text/types';
 import { finishAnalysis } from './analyze';
 import type { EvalContext } from '../evaluate/context';
-import { evaluate, type EvaluateReuse } from '../evaluate/evaluate';
+import { evaluate, type DependentStatement, type EvaluateReuse } from '../evaluate/evaluate';
 import { resolveSettings } from '../evaluate/settings';
 import type { Analysis, ClaimResult, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from '../evaluate/types';
 
@@ -45,7 +45,7 @@ interface StateEntry {
 
 /** A mix's or process's evaluation as the previous run left it (only when every name it refers to resolved). */
 interface DependentEntry {
-  statement: MixStatement | ProcessStatement;
+  statement: DependentStatement;
   result: EvaluatedItem | null;
   diagnostics: CoreDiagnostic[];
   site: PressureBasis;
@@ -172,7 +172,7 @@ class Reuse implements EvaluateReuse {
     return result;
   }
 
-  dependent<T extends EvaluatedItem | null>(ctx: EvalContext, stmt: MixStatement | ProcessStatement, index: number, compute: () => T): T {
+  dependent<T extends EvaluatedItem | null>(ctx: EvalContext, stmt: DependentStatement, index: number, compute: () => T): T {
     const origin = this.origins[index];
     const entry = origin ? this.prevDependents.get(origin) : undefined;
     if (entry && sameBasis(entry.site, ctx.site)) {
@@ -203,10 +203,17 @@ class Reuse implements EvaluateReuse {
   }
 }
 
-/** The names a mix or process resolves, in the order its evaluation resolves them. */
-function names(stmt: MixStatement | ProcessStatement): NameNode[] {
-  if (stmt.keyword === 'mix') return stmt.streams.map((s) => s.name);
-  return stmt.from && stmt.to ? [stmt.from, stmt.to] : [];
+/**
+ * The names a dependent statement resolves, in the order its evaluation resolves them: the
+ * references in its properties (one each, in written order), then a mix's streams or a process's
+ * two states.
+ */
+function names(stmt: DependentStatement): NameNode[] {
+  const out: NameNode[] = [];
+  for (const p of stmt.props) if (p.ref) out.push(p.ref.state);
+  if (stmt.keyword === 'mix') for (const s of stmt.streams) out.push(s.name);
+  else if (stmt.keyword === 'process' && stmt.from && stmt.to) out.push(stmt.from, stmt.to);
+  return out;
 }
 
 /**
@@ -235,7 +242,7 @@ function readsTheSame(a: EvaluatedItem, b: EvaluatedItem): boolean {
  * `d`). Every span must lie inside the old statement (one pointing elsewhere, such as a related
  * definition, makes it evaluate again). Null when something cannot be mapped.
  */
-function relocateDependent(entry: DependentEntry, stmt: MixStatement | ProcessStatement, d: number, site: PressureBasis): { result: EvaluatedItem | null; diagnostics: CoreDiagnostic[] } | null {
+function relocateDependent(entry: DependentEntry, stmt: DependentStatement, d: number, site: PressureBasis): { result: EvaluatedItem | null; diagnostics: CoreDiagnostic[] } | null {
   const from = entry.statement;
   if (from.keyword !== stmt.keyword || from.props.length !== stmt.props.length) return null;
   const within = from.span;
@@ -263,6 +270,11 @@ function relocateDependent(entry: DependentEntry, stmt: MixStatement | ProcessSt
     if (old.kind === 'process') {
       if (stmt.keyword !== 'process') return null;
       result = { ...old, statement: stmt, claims };
+    } else if (old.kind === 'state') {
+      if (stmt.keyword !== 'state') return null;
+      // The pressure is the site's, or the state's own override (a span inside the statement).
+      const pressure = old.pressure === entry.site ? site : old.pressure.span ? { ...old.pressure, span: move(old.pressure.span) } : old.pressure;
+      result = { ...old, statement: stmt, pressure, claims };
     } else {
       if (stmt.keyword !== 'mix' || old.kind !== 'mix') return null;
       // The pressure is the site's (when it failed early), a stream's (the same object now), or

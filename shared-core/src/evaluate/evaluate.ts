@@ -13,6 +13,14 @@ import { readProps } from './props';
 import { resolveSettings } from './settings';
 import { evaluateState } from './state';
 
+/** A statement whose result depends on other statements. */
+export type DependentStatement = MixStatement | ProcessStatement | StateStatement;
+
+/** True when a statement takes a property from another state (`w=OA.w`). */
+export function hasReferences(stmt: Statement): boolean {
+  return stmt.keyword !== 'units' && stmt.props.some((p) => p.ref !== undefined);
+}
+
 /** Every name a statement defines, found before evaluation (for `used-before-defined`), into `defs`. */
 function prescan(statements: Statement[], defs: Map<string, NameDef[]>): void {
   statements.forEach((s, i) => {
@@ -25,8 +33,8 @@ function prescan(statements: Statement[], defs: Map<string, NameDef[]>): void {
   });
 }
 
-function evaluateSite(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'site' }>): void {
-  const { props, broken } = readProps(ctx, stmt.props, SITE_KEYS, 'site:');
+function evaluateSite(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'site' }>, index: number): void {
+  const { props, broken } = readProps(ctx, stmt.props, SITE_KEYS, 'site:', { statement: stmt, index, allowed: false });
   if (props.length === 0) {
     if (broken.length === 0 && stmt.props.length === 0) {
       ctx.report({
@@ -86,11 +94,12 @@ export interface EvaluateReuse {
    */
   state(ctx: EvalContext, stmt: StateStatement, index: number, compute: () => StateResult): StateResult;
   /**
-   * The result of mix or process statement `index`, which refers to other statements: `compute()`,
+   * The result of statement `index` that refers to other statements (a mix, a process, a state
+   * with references): `compute()`,
    * or the previous run's when the statement and everything it read of the states it names are
    * unchanged.
    */
-  dependent<T extends EvaluatedItem | null>(ctx: EvalContext, stmt: MixStatement | ProcessStatement, index: number, compute: () => T): T;
+  dependent<T extends EvaluatedItem | null>(ctx: EvalContext, stmt: DependentStatement, index: number, compute: () => T): T;
   /** The state solver (a memoizing wrapper of the engine's `solveState`). */
   solve: EvalContext['solve'];
   /** The previous run's pressure basis equal to `basis` when there is one (else `basis`). */
@@ -116,7 +125,7 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
     try {
       switch (stmt.keyword) {
         case 'site':
-          evaluateSite(ctx, stmt);
+          evaluateSite(ctx, stmt, index);
           if (reuse) ctx.site = reuse.basis(ctx.site);
           break;
         case 'units':
@@ -130,7 +139,10 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
           const owner = stmt.name ? ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: stmt.keyword }, stmt.name) : false;
           let item: StateResult;
           if (stmt.keyword === 'mix') item = reuse ? reuse.dependent(ctx, stmt, index, () => evaluateMix(ctx, stmt, index, owner)) : evaluateMix(ctx, stmt, index, owner);
-          else item = reuse ? reuse.state(ctx, stmt, index, () => evaluateState(ctx, stmt, owner)) : evaluateState(ctx, stmt, owner);
+          else if (!reuse) item = evaluateState(ctx, stmt, index, owner);
+          // A state with references depends on the states it names, like a mix.
+          else if (hasReferences(stmt)) item = reuse.dependent(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
+          else item = reuse.state(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
           if (stmt.name) ctx.addItem(item, owner);
           break;
         }

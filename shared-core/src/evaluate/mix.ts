@@ -52,7 +52,7 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     streams: [],
     massFlowKgS: null,
   };
-  const claimProps = readProps(ctx, stmt.props, MIX_KEYS, what);
+  const claimProps = readProps(ctx, stmt.props, MIX_KEYS, what, { statement: stmt, index, allowed: false });
 
   if (stmt.streams.length === 0) {
     ctx.report({ code: 'underspecified', severity: 'error', message: `${what} has no streams; write them like mix ${name || 'MA'}: OA 25% + RA 75%`, span: fallback });

@@ -136,7 +136,7 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
   const name = stmt.name?.text ?? '';
   const what = name ? `process ${name}` : 'this process';
   const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
-  const { props } = readProps(ctx, stmt.props, PROCESS_KEYS, what);
+  const { props } = readProps(ctx, stmt.props, PROCESS_KEYS, what, { statement: stmt, index, allowed: false });
   if (!stmt.from || !stmt.to) return null; // the parser reported the syntax
   const from = endpoint(ctx, stmt, index, 'from', what);
   const to = endpoint(ctx, stmt, index, 'to', what);

@@ -5,13 +5,17 @@ import type { KeySpec } from './keys';
 import type { ResolvedQuantity } from './quantity';
 import { readQuantity } from './quantity';
 import { closest } from './util';
+import { readReference, type ReadRef, type RefSite } from './refs';
 
 /** A property whose key is known and whose value was read. */
 export interface ReadProp {
   key: string;
   spec: KeySpec;
   prop: PropertyNode;
+  /** The value in SI; for a reference, its value now (the quantity's text is the written reference). */
   q: ResolvedQuantity;
+  /** Set when the value is another state's property (`w=OA.w`). */
+  ref?: ReadRef;
 }
 
 /** The outcome of reading a statement's properties. */
@@ -27,9 +31,11 @@ export interface ReadProps {
 /**
  * Reads `props` against `table`: `unknown-key` (with a suggestion), `duplicate-key` for a key
  * written twice (the first one counts), and the unit diagnostics of {@link readQuantity}.
+ * A reference value (`w=OA.w`) is read against `refs` (see `./refs`): the statement it is in and
+ * whether that statement takes references.
  * @param what  the statement, for messages ("state OA", "site").
  */
-export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readonly<Record<string, KeySpec>>, what: string): ReadProps {
+export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readonly<Record<string, KeySpec>>, what: string, refs: RefSite): ReadProps {
   const out: ReadProp[] = [];
   const broken: string[] = [];
   let unknownKeys = 0;
@@ -47,6 +53,8 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
         span: prop.keySpan,
         data: suggestion ? { key: prop.key, suggestion } : { key: prop.key },
       });
+      // A reference after an unknown key is still a use of the name (rename follows it).
+      if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement: refs.statement });
       unknownKeys++;
       continue;
     }
@@ -58,6 +66,7 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
       }
     }
     if (first) {
+      if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement: refs.statement });
       ctx.report({
         code: 'duplicate-key',
         severity: 'error',
@@ -68,6 +77,15 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
       continue;
     }
     seen.push(prop);
+    if (prop.ref) {
+      const r = readReference(ctx, prop, prop.ref, spec, refs, what);
+      if (!r) {
+        broken.push(prop.key);
+        continue;
+      }
+      out.push({ key: prop.key, spec, prop, q: r.q, ref: r.ref });
+      continue;
+    }
     if (prop.value === null) {
       // The parser has reported the syntax error already.
       broken.push(prop.key);

@@ -17,8 +17,9 @@ import type { EvalContext } from './context';
 import { DEFINING_KEYS, STATE_KEYS, isDefiningKey, isDependentPair, isIllConditionedPair, thirdKindFor } from './keys';
 import { pressureFromProps } from './pressure';
 import { problemDiagnostic } from './problems';
-import type { ReadProp } from './props';
+import type { ReadProp, ReadProps } from './props';
 import { readProps } from './props';
+import { sourcesOf } from './refs';
 import { checkClaim } from './claims';
 import type { ClaimResult, PressureBasis, StateResult } from './types';
 
@@ -131,31 +132,59 @@ function pairInput(ka: DefiningKey, va: number, kb: DefiningKey, vb: number): Pa
   return input as Partial<Record<DefiningKey, number>>;
 }
 
-/** Evaluates one `state` statement; always returns a result (with `state: null` when it failed). */
-export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boolean): StateResult {
+/**
+ * Evaluates one `state` statement; always returns a result (with `state: null` when it failed).
+ * The steps: read the properties (references resolved), the pressure, the defining pair, the
+ * solve, the claims.
+ */
+export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: number, owner: boolean): StateResult {
+  void owner;
   const name = stmt.name?.text ?? '';
   const what = name ? `state ${name}` : 'this state';
   const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
-  const { props, broken, unknownKeys } = readProps(ctx, stmt.props, STATE_KEYS, what);
+  const read = readProps(ctx, stmt.props, STATE_KEYS, what, { statement: stmt, index, allowed: true });
+  const { props } = read;
+  const { pressure, failed } = statePressure(ctx, props, read.broken, what);
+  const result: StateResult = { kind: 'state', name, statement: stmt, state: null, pressure, defining: [], claims: [] };
+  const sources = sourcesOf(props);
+  if (sources) result.sources = sources;
+  if (failed) return result;
+  const candidates = definingCandidates(ctx, props, read, what, fallback);
+  if (!candidates) return result;
+  const solved = solveFirstPair(ctx, candidates, pressure, what);
+  if (!solved) return result;
+  const { a, b, state } = solved;
+  result.state = state;
+  result.defining = [a.key as DefiningKey, b.key as DefiningKey];
+  const claimsProps = props.filter((p) => p !== a && p !== b && p.key !== 'p' && p.key !== 'elev');
+  if (claimsProps.length > 0) result.claims = stateClaims(ctx, claimsProps, state, () => `from ${writtenList([a, b])} at ${pressureWord(pressure)}`);
+  return result;
+}
 
-  // Pressure: the state's own p= / elev=, else the site pressure.
+/** The pressure of a state: its own p= / elev=, else the site pressure; `failed` when the override could not be read. */
+function statePressure(ctx: EvalContext, props: ReadProp[], broken: string[], what: string): { pressure: PressureBasis; failed: boolean } {
   let pressure: PressureBasis = ctx.site;
-  let pressureFailed = broken.length > 0 && (broken.includes('p') || broken.includes('elev'));
+  let failed = broken.length > 0 && (broken.includes('p') || broken.includes('elev'));
   const override = props.some(isPressureProp) ? props.filter(isPressureProp) : NONE;
   if (override.length > 0) {
     const basis = pressureFromProps(ctx, override, 'override', `${what} own pressure`);
     if (basis) pressure = basis;
-    else pressureFailed = true;
+    else failed = true;
   }
+  return { pressure, failed };
+}
 
-  const result: StateResult = { kind: 'state', name, statement: stmt, state: null, pressure, defining: [], claims: [] };
+/**
+ * The candidate defining pairs in order of preference, or null after a diagnostic (too few
+ * properties, a dependent pair). A reference always defines: only pairs holding every reference
+ * are candidates, so at most two references fit on one state.
+ */
+function definingCandidates(ctx: EvalContext, props: ReadProp[], read: ReadProps, what: string, fallback: Span): [ReadProp, ReadProp][] | null {
   const defs = props.filter(isDefiningProp);
-  if (pressureFailed) return result;
-
   if (defs.length < 2) {
     // A property that could not be read (bad unit, unknown key) already explains the shortfall.
-    const brokenDefining = broken.filter((k) => isDefiningKey(k));
-    if (defs.length + brokenDefining.length + unknownKeys >= 2) return result;
+    const brokenDefining = read.broken.filter((k) => isDefiningKey(k));
+    if (defs.length + brokenDefining.length + read.unknownKeys >= 2) return null;
     const has = defs.length === 1 ? `only ${writtenList(defs)}` : 'no defining property';
     const hasV = props.some((p) => p.key === 'v');
     ctx.report({
@@ -164,26 +193,44 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
       message: `${what} has ${has}: two independent properties fix a state; add ${defs.length === 1 ? 'one more' : 'two'} of ${orList(DEFINING_KEYS.filter((k) => !defs.some((d) => d.key === k)))} (e.g. ${defs[0]?.key === 'db' ? 'rh=50%' : 'db=24C rh=50%'})${hasV ? '; v is checked as a claim but cannot define a state' : ''}`,
       span: fallback,
     });
-    return result;
+    return null;
   }
-
-  // The span of each written key, for messages (built only when one is reported).
-  let spanMap: Map<string, Span> | null = null;
-  const spansByKey = (): Map<string, Span> => (spanMap ??= new Map<string, Span>(props.map((p) => [p.key, p.prop.span])));
-  const candidates = candidatePairs(defs);
+  const refs = defs.filter((d) => d.ref);
+  if (refs.length > 2) {
+    ctx.report({
+      code: 'bad-reference',
+      severity: 'error',
+      message: `${what}: ${writtenList(refs)} are ${refs.length} properties taken from other states, but two fix a state and a reference always defines; write the others as figures (claims)`,
+      span: spanOf(new Map(), refs.slice(2)),
+    });
+    return null;
+  }
+  let candidates = candidatePairs(defs);
+  if (refs.length > 0) candidates = candidates.filter(([a, b]) => refs.every((r) => r === a || r === b));
   if (candidates.length === 0) {
-    const a = defs[0]!;
-    const b = defs[1]!;
+    const [a, b] = refs.length === 2 ? [refs[0]!, refs[1]!] : [defs[0]!, defs[1]!];
+    const pair = refs.length === 2 ? refs : defs;
     ctx.report({
       code: 'dependent-pair',
       severity: 'error',
-      message: `${what}: ${writtenList(defs)} fix the same thing (the moisture content) twice, so the state is not fixed; add ${thirdKindFor(a.key as DefiningKey, b.key as DefiningKey)}`,
-      span: spanOf(spansByKey(), defs),
+      message: `${what}: ${writtenList(pair)} fix the same thing (the moisture content) twice, so the state is not fixed; add ${thirdKindFor(a.key as DefiningKey, b.key as DefiningKey)}${refs.length > 0 ? ' (a reference always defines)' : ''}`,
+      span: spanOf(new Map(), pair),
     });
-    return result;
+    return null;
   }
+  return candidates;
+}
 
-  let lastDependent: PhysicsProblem | null = null;
+/**
+ * Solves the first candidate pair that is not dependent at the state's pressure (reporting the
+ * engine's warnings, and its problem when the pair gives no state); null when none gives one.
+ */
+function solveFirstPair(ctx: EvalContext, candidates: [ReadProp, ReadProp][], pressure: PressureBasis, what: string): { a: ReadProp; b: ReadProp; state: MoistAirState } | null {
+  // The span of each written key, for messages (built only when one is reported).
+  let spanMap: Map<string, Span> | null = null;
+  const all = new Set<ReadProp>(candidates.flat());
+  const spansByKey = (): Map<string, Span> => (spanMap ??= new Map<string, Span>([...all].map((p) => [p.key, p.prop.span])));
+  let lastDependent: { problem: PhysicsProblem; pair: ReadProp[] } | null = null;
   for (const [a, b] of candidates) {
     const input = pairInput(a.key as DefiningKey, a.q.si, b.key as DefiningKey, b.q.si);
     let solved: ReturnType<typeof solveState>;
@@ -195,36 +242,16 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
     }
     if (!solved.ok) {
       if (solved.problem.code === 'dependent-pair') {
-        lastDependent = solved.problem;
+        lastDependent = { problem: solved.problem, pair: [a, b] };
         continue;
       }
       ctx.report(problemDiagnostic(solved.problem, 'error', spansByKey(), spanOf(spansByKey(), [a, b]), what, pressureRelated(solved.problem, pressure)));
-      return result;
+      return null;
     }
     if (!stateFinite(solved.state)) {
-      // A property without a finite value (bone-dry air has no dew point; air above the boiling
-      // point cannot be saturated): the engine explains it in a warning, reported here as the error.
-      const why = solved.warnings.filter((w) => w.code === 'out-of-range' || w.code === 'pressure-below-saturation');
-      if (why.length > 0) {
-        for (const w of why) {
-          ctx.report({
-            code: w.code,
-            severity: 'error',
-            message: `${what}: ${w.message} ${
-              w.code === 'pressure-below-saturation'
-                ? `Dewmark needs a state that can be saturated: lower the dry-bulb below the boiling point at ${pressureWord(pressure)}, or raise the pressure`
-                : 'Dewmark needs every property finite: give a humidity ratio above zero'
-            }`,
-            span: spanOf(spansByKey(), [a, b]),
-          });
-        }
-      } else {
-        ctx.report({ code: 'out-of-range', severity: 'error', message: `${what}: ${writtenList([a, b])} give a state with a property that has no finite value; check the figures`, span: spanOf(spansByKey(), [a, b]) });
-      }
-      return result;
+      reportNotFinite(ctx, solved.warnings, a, b, spanOf(spansByKey(), [a, b]), pressure, what);
+      return null;
     }
-    result.state = solved.state;
-    result.defining = [a.key as DefiningKey, b.key as DefiningKey];
     let illReported = false;
     for (const w of solved.warnings) {
       if (w.code === 'ill-conditioned') illReported = true;
@@ -238,14 +265,36 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, owner: boo
         span: spanOf(spansByKey(), [a, b]),
       });
     }
-    const claimsProps = props.filter((p) => p !== a && p !== b && p.key !== 'p' && p.key !== 'elev');
-    if (claimsProps.length > 0) result.claims = stateClaims(ctx, claimsProps, solved.state, () => `from ${writtenList([a, b])} at ${pressureWord(pressure)}`);
-    return result;
+    return { a, b, state: solved.state };
   }
   if (lastDependent) {
-    ctx.report(problemDiagnostic(lastDependent, 'error', spansByKey(), spanOf(spansByKey(), defs), what));
+    ctx.report(problemDiagnostic(lastDependent.problem, 'error', spansByKey(), spanOf(spansByKey(), [...all]), what));
   }
-  return result;
+  return null;
+}
+
+/**
+ * A state with a property without a finite value (bone-dry air has no dew point; air above the
+ * boiling point cannot be saturated): the engine explains it in a warning, reported as the error.
+ */
+function reportNotFinite(ctx: EvalContext, warnings: readonly PhysicsProblem[], a: ReadProp, b: ReadProp, span: Span, pressure: PressureBasis, what: string): void {
+  const why = warnings.filter((w) => w.code === 'out-of-range' || w.code === 'pressure-below-saturation');
+  if (why.length === 0) {
+    ctx.report({ code: 'out-of-range', severity: 'error', message: `${what}: ${writtenList([a, b])} give a state with a property that has no finite value; check the figures`, span });
+    return;
+  }
+  for (const w of why) {
+    ctx.report({
+      code: w.code,
+      severity: 'error',
+      message: `${what}: ${w.message} ${
+        w.code === 'pressure-below-saturation'
+          ? `Dewmark needs a state that can be saturated: lower the dry-bulb below the boiling point at ${pressureWord(pressure)}, or raise the pressure`
+          : 'Dewmark needs every property finite: give a humidity ratio above zero'
+      }`,
+      span,
+    });
+  }
 }
 
 /** "83.5 kPa" style text for the pressure a result used. */

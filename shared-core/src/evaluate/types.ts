@@ -74,6 +74,29 @@ export interface StateResult {
   streams?: { name: string; fraction: number; massFlowKgS: number | null }[];
   /** For a mix: total dry-air mass flow, kg/s, when the streams were given as flows. */
   massFlowKgS?: number | null;
+  /**
+   * The properties taken from states above (`w=OA.w`, `db=OFF.db+0.8K`), in written order;
+   * present only when the statement has references.
+   */
+  sources?: PropertySource[];
+  /**
+   * The statement that defines this state from another (a `supply` from its room state, a
+   * process or heat recovery from its entering state), for hovers: "from RA via SA".
+   */
+  definedBy?: { statement: string; name: string; from: string };
+}
+
+/** A property of a state taken from another state's property: `w=OA.w`, `db=OFF.db+0.8K`. */
+export interface PropertySource {
+  /** The key it sets here. */
+  key: string;
+  /** The state it comes from, and that state's property. */
+  from: string;
+  fromKey: string;
+  /** The difference added, SI (K, kg/kg, J/kg); 0 when none was written. */
+  offsetSI: number;
+  /** The value used, SI. */
+  valueSI: number;
 }
 
 /** The kind of process, named from the direction of temperature and moisture change. */

@@ -47,13 +47,32 @@ export interface QuantityNode {
   span: Span;
 }
 
+/**
+ * A property taken from a state above: `OA.w`, `OFF.db+0.8K`, `RA.db-2F`. The offset is a signed
+ * difference (`+`/`-` only; no other arithmetic), its number carrying the sign as written.
+ */
+export interface PropertyRefNode {
+  /** The state (or mix, supply…) named before the dot. */
+  state: NameNode;
+  /** The property key after the dot, as written. */
+  key: { text: string; span: Span };
+  /** `+0.8K`: the difference added to the referenced value, or null. */
+  offset: QuantityNode | null;
+  span: Span;
+}
+
 /** `key=value` inside a statement. */
 export interface PropertyNode {
   key: string;
   keySpan: Span;
-  /** Null when nothing usable follows the `=` (a syntax diagnostic is reported). */
+  /**
+   * Null when nothing usable follows the `=` (a syntax diagnostic is reported), and for a
+   * reference (then {@link ref} is set).
+   */
   value: QuantityNode | null;
   span: Span;
+  /** `key=NAME.key[±difference]`: the value is another state's property (present only then). */
+  ref?: PropertyRefNode;
 }
 
 /** A state name (definition or reference). */

@@ -175,6 +175,15 @@ function shiftProps(props: PropertyNode[], d: number): PropertyNode[] {
   for (let i = 0; i < props.length; i++) {
     const p = props[i]!;
     out[i] = { key: p.key, keySpan: shiftSpan(p.keySpan, d), value: shiftQuantity(p.value, d), span: shiftSpan(p.span, d) };
+    if (p.ref) {
+      const r = p.ref;
+      out[i]!.ref = {
+        state: shiftName(r.state, d)!,
+        key: { text: r.key.text, span: shiftSpan(r.key.span, d) },
+        offset: shiftQuantity(r.offset, d),
+        span: shiftSpan(r.span, d),
+      };
+    }
   }
   return out;
 }

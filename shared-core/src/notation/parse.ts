@@ -13,6 +13,7 @@
  *     state NAME: KEY=VALUE …                 mix NAME: NAME AMOUNT + NAME AMOUNT [+ …] [KEY=VALUE …]
  *     process NAME: NAME -> NAME [KEY=VALUE …]        (`→` works as well as `->`)
  *     VALUE, AMOUNT:  NUMBER[UNIT][±NUMBER[UNIT]]     (`+-` works as well as `±`)
+ *     VALUE:   NAME.KEY[(+|-)NUMBER UNIT]          another state's property (`OA.w`, `OFF.db+0.8K`)
  *     NUMBER:  [+|-|−] digits [. digits] [e|E [+|-] digits]    (`.5` and `5.` too)
  *     NAME:    a letter, then letters, digits, `_` or `-`
  *     KEY:     a letter or `_`, then letters, digits or `_`
@@ -36,6 +37,7 @@ import type {
   ParsedNote,
   ProcessStatement,
   PropertyNode,
+  PropertyRefNode,
   QuantityNode,
   SiteStatement,
   Statement,
@@ -601,6 +603,15 @@ class StatementParser {
         const keySpan = this.span(start, keyEnd);
         if (this.charAt(p) === 0x3d) {
           this.consume(p + 1);
+          const ref = this.propertyRef(key);
+          if (ref === 'reported') {
+            props.push({ key, keySpan, value: null, span: this.span(start, this.lastEnd) });
+            continue;
+          }
+          if (ref) {
+            props.push({ key, keySpan, value: null, span: this.span(start, ref.span.end), ref });
+            continue;
+          }
           const value = this.value(key, keySpan);
           props.push({ key, keySpan, value, span: this.span(start, value ? value.span.end : p + 1) });
           continue;
@@ -645,10 +656,83 @@ class StatementParser {
       const word = this.slice(t);
       const lower = word.toLowerCase().replace(/^[+\-−]/, '');
       const why = lower === 'nan' || lower.startsWith('inf') ? `'${word}' is not a finite number` : `'${word}' is not a number`;
-      this.report('bad-number', `${why}: write ${key}= followed by a decimal number and its unit, e.g. ${exampleFor(key)}`, t.start, t.end);
+      const nameLike = letterAt(this.text, t.start, t.end) > 0 && !/[.=]/.test(word);
+      const orRef = nameLike ? `, or another state's property: ${key}=${word}.${refKeyFor(key)}` : '';
+      this.report('bad-number', `${why}: write ${key}= followed by a decimal number and its unit, e.g. ${exampleFor(key)}${orRef}`, t.start, t.end);
       return null;
     }
     return this.quantity('prop', key);
+  }
+
+  /**
+   * `NAME.KEY[+DIFFERENCE]` at the cursor, right after `key=`: another state's property, optionally
+   * shifted by a signed difference. Null when the value is not written as a reference (a name
+   * followed by a dot); `'reported'` when a malformed reference was reported and skipped.
+   */
+  private propertyRef(key: string): PropertyRefNode | 'reported' | null {
+    if (this.peek() < 0) return null;
+    const start = this.pos;
+    const first = letterAt(this.text, start, this.end);
+    if (first === 0) return null;
+    let p = start + first;
+    while (p < this.end) {
+      const c = this.text.charCodeAt(p);
+      if (isDigit(c) || c === 0x5f || c === 0x2d) {
+        p++;
+        continue;
+      }
+      const l = letterAt(this.text, p, this.end);
+      if (l === 0) break;
+      p += l;
+    }
+    if (this.charAt(p) !== 0x2e) return null;
+    const state: NameNode = { text: this.text.slice(start, p), span: this.span(start, p) };
+    const keyStart = p + 1;
+    let q = keyStart;
+    if (q < this.end && isKeyStart(this.text.charCodeAt(q))) {
+      q++;
+      while (q < this.end && isKeyChar(this.text.charCodeAt(q))) q++;
+    }
+    if (q === keyStart) {
+      const t = this.rawToken();
+      this.consume(t.end);
+      this.report(
+        'missing-value',
+        `'${this.slice(t)}' names no property after the dot: write ${key}=${state.text}.${refKeyFor(key)} (a property of ${state.text})`,
+        t.start,
+        t.end,
+      );
+      return 'reported';
+    }
+    this.consume(q);
+    const refKey = { text: this.text.slice(keyStart, q), span: this.span(keyStart, q) };
+    let offset: QuantityNode | null = null;
+    const c = this.charAt(q);
+    if ((c === 0x2b || c === 0x2d || c === 0x2212) && startsNumber(this.text, q, this.end)) {
+      offset = this.quantity('prop', key);
+      if (!offset) return 'reported'; // a malformed number
+    } else if (c === 0x2b || c === 0x2d || c === 0x2212) {
+      // `OA.db+` or `OA.db+x`: a sign without a number.
+      const t = this.rawToken();
+      this.consume(t.end);
+      this.report('missing-value', `'${this.slice(t)}' needs a difference after the sign: write ${key}=${state.text}.${refKey.text}+${differenceExample(refKey.text)} (+ or − a difference with its unit)`, t.start, t.end);
+      return 'reported';
+    }
+    const end = offset ? offset.span.end : q;
+    const after = this.charAt(this.pos);
+    if (this.pos < this.end && !isWs(after) && after !== 0x23) {
+      // Something glued on (`OA.w*2`, `OA.w.x`): only + or − a difference may follow.
+      const t = this.rawToken();
+      this.consume(t.end);
+      this.report(
+        'syntax',
+        `'${this.text.slice(start, t.end)}' is not a property reference: write ${state.text}.${refKey.text}, or add or subtract a difference with its unit (${state.text}.${refKey.text}+${differenceExample(refKey.text)}); no other arithmetic`,
+        start,
+        t.end,
+      );
+      return 'reported';
+    }
+    return { state, key: refKey, offset, span: this.span(start, end) };
   }
 
   /** NUMBER[UNIT][±NUMBER[UNIT]] at the cursor (which starts a number). */
@@ -838,6 +922,16 @@ function commaMessage(shown: string): string {
     return `'${shown}' is not a number: use a decimal point, not a comma (${shown.replace(',', '.')}); a comma is read only as a thousands separator (8,745)`;
   }
   return `'${shown}' is not a number: a comma is read only as a thousands separator, between groups of three digits after a first group of one to three (8,745 or 1,234,567.5); for a decimal fraction write a point (24.5)`;
+}
+
+/** The key a reference from `key` most likely names (`w` → `w`; a process key → `db`). */
+function refKeyFor(key: string): string {
+  return ['db', 'wb', 'dp', 'rh', 'w', 'h'].includes(key) ? key : 'db';
+}
+
+/** A difference for a reference's example (`0.8K` for a temperature, `0.5g/kg` for w…). */
+function differenceExample(key: string): string {
+  return key === 'w' ? '0.5g/kg' : key === 'h' ? '2kJ/kg' : '0.8K';
 }
 
 function exampleFor(key: string): string {

@@ -1,0 +1,185 @@
+/**
+ * References between states: a property value written as another state's property (`w=OA.w`,
+ * `db=OFF.db`), optionally shifted by a signed difference (`db=OFF.db+0.8K`, `w=RA.w-0.5g/kg`).
+ *
+ * A reference is a defining input: its value is the referenced state's computed property (plus
+ * the difference), so a change upstream flows into every state below that names it. The state it
+ * names must be defined above (document order), which makes cycles impossible by construction.
+ * Only the defining properties can be referenced and set (db wb dp rh w h), each from a property
+ * of the same kind (a temperature from a temperature…). Differences: temperatures in K or °F (a
+ * difference of 1 °F is 5/9 K; °C is not accepted, as it reads like a temperature), humidity
+ * ratios and enthalpies in any of their units taken as a difference (scale only, no datum).
+ */
+import type { PropertyNode, PropertyRefNode, QuantityNode, Statement } from '../notation/ast';
+import type { DefiningKey } from '../physics/types';
+import type { Dimension } from '../units/types';
+import type { EvalContext } from './context';
+import { DEFINING_KEYS, STATE_KEYS, isDefiningKey, type KeySpec } from './keys';
+import { dependencyInfo } from './mix';
+import type { ResolvedQuantity } from './quantity';
+import { dimensionWords, findUnit } from './quantity';
+import type { PropertySource, StateResult } from './types';
+
+/**
+ * Where a reference is read: the statement and its index (for `used-before-defined`), and whether
+ * the statement takes references at all (a mix's claims or a process's figures do not).
+ */
+export interface RefSite {
+  statement: Statement;
+  index: number;
+  allowed: boolean;
+}
+
+/** A reference as read: the item it names, its key, and the value it gives. */
+export interface ReadRef {
+  item: StateResult;
+  fromKey: DefiningKey;
+  offsetSI: number;
+}
+
+/** Difference units accepted per dimension (the key's own units, except temperature). */
+const TEMPERATURE_DIFFERENCE: Readonly<Record<string, number>> = { K: 1, F: 5 / 9, '°F': 5 / 9 };
+const DIFFERENCE_EXAMPLE: Partial<Record<Dimension, string>> = {
+  temperature: '+0.8K or +1.5F',
+  humidityRatio: '+0.5g/kg',
+  enthalpy: '+2kJ/kg',
+};
+
+/** The written reference (`OA.w+0.5g/kg`). */
+export function refText(ref: PropertyRefNode): string {
+  return `${ref.state.text}.${ref.key.text}${ref.offset ? `${ref.offset.number.text}${ref.offset.unit?.text ?? ''}` : ''}`;
+}
+
+/** The value of a defining property of a computed state, SI. */
+function definingValue(item: StateResult, key: DefiningKey): number {
+  const s = item.state!;
+  return s[key];
+}
+
+function bad(ctx: EvalContext, message: string, span: PropertyNode['span']): null {
+  ctx.report({ code: 'bad-reference', severity: 'error', message, span });
+  return null;
+}
+
+/** The difference of a reference in SI (K, kg/kg, J/kg), or null after a diagnostic. */
+function readOffset(ctx: EvalContext, q: QuantityNode, spec: KeySpec, written: string): number | null {
+  const example = DIFFERENCE_EXAMPLE[spec.dimension];
+  if (q.tolerance) return bad(ctx, `${written}: a reference takes no tolerance; remove '${q.tolerance.number.text}' after the difference`, q.tolerance.span);
+  if (!example) return bad(ctx, `${written}: ${spec.title} cannot be shifted by a difference; refer to the property as it is (remove '${q.number.text}${q.unit?.text ?? ''}')`, q.span);
+  if (!q.unit) {
+    ctx.report({
+      code: 'missing-unit',
+      severity: 'error',
+      message: `${written}: the difference ${q.number.text} has no unit; write it with one, e.g. ${example}`,
+      span: q.number.span,
+    });
+    return null;
+  }
+  const u = q.unit.text;
+  if (spec.dimension === 'temperature') {
+    const scale = TEMPERATURE_DIFFERENCE[u];
+    if (scale === undefined) {
+      const celsius = u === 'C' || u === '°C';
+      return bad(
+        ctx,
+        celsius
+          ? `${written}: write a temperature difference in K (${q.number.text}K; a difference of 1 °C is 1 K) or °F (${q.number.text}F), so it cannot be read as a temperature`
+          : `${written}: '${u}' is not a temperature difference unit; write the difference in K or °F, e.g. ${example}`,
+        q.unit.span,
+      );
+    }
+    return q.number.value * scale;
+  }
+  const def = findUnit(u);
+  if (!def || def.dimension !== spec.dimension) {
+    return bad(ctx, `${written}: '${u}' is not a unit of ${spec.title}; write the difference in one, e.g. ${example}`, q.unit.span);
+  }
+  return q.number.value * def.scale;
+}
+
+/**
+ * Reads a reference value for `prop` (whose key has `spec`): resolves the state it names (a
+ * reference for rename and go-to-definition even when something else is wrong), checks the keys
+ * and the difference, and returns the value in SI as a quantity, or null after a diagnostic.
+ */
+export function readReference(
+  ctx: EvalContext,
+  prop: PropertyNode,
+  ref: PropertyRefNode,
+  spec: KeySpec,
+  site: RefSite,
+  what: string,
+): { q: ResolvedQuantity; ref: ReadRef } | null {
+  const written = `${prop.key}=${refText(ref)}`;
+  if (!site.allowed) {
+    // Still a use of the name (rename and find-references follow it), but not a value here.
+    ctx.references.push({ name: ref.state.text, span: ref.state.span, statement: site.statement });
+    return bad(ctx, `${what} takes figures only: ${written} cannot be used here; references define state properties (in state and supply lines). Write the figure itself`, ref.span);
+  }
+  const outcome = ctx.resolve(ref.state, site.statement, site.index);
+  if (!isDefiningKey(prop.key)) {
+    return bad(ctx, `${written}: only ${DEFINING_KEYS.join(', ')} can be taken from another state; write ${prop.key}= as a figure`, prop.keySpan);
+  }
+  const fromKey = ref.key.text;
+  if (!isDefiningKey(fromKey)) {
+    const known = STATE_KEYS[fromKey];
+    return bad(
+      ctx,
+      `${written}: '${fromKey}' ${known ? 'cannot be referenced' : `is not a property of ${ref.state.text}`}; a reference names one of ${DEFINING_KEYS.join(', ')} (e.g. ${prop.key}=${ref.state.text}.${prop.key})`,
+      ref.key.span,
+    );
+  }
+  const fromSpec = STATE_KEYS[fromKey]!;
+  if (fromSpec.dimension !== spec.dimension) {
+    return bad(
+      ctx,
+      `${written}: ${ref.state.text}.${fromKey} is ${dimensionWords(fromSpec.dimension)}, but ${prop.key} is ${dimensionWords(spec.dimension)}; refer to a property of the same kind (e.g. ${prop.key}=${ref.state.text}.${prop.key})`,
+      ref.key.span,
+    );
+  }
+  let offsetSI = 0;
+  if (ref.offset) {
+    const o = readOffset(ctx, ref.offset, spec, written);
+    if (o === null) return null;
+    offsetSI = o;
+  }
+  if (!outcome.ok) {
+    if (outcome.failed) ctx.report(dependencyInfo(what, ref.state.text, ref.state.span, outcome.def.span));
+    return null;
+  }
+  const item = outcome.item;
+  if (item.kind === 'process') {
+    ctx.report({
+      code: 'not-a-state',
+      severity: 'error',
+      message: `'${ref.state.text}' is a process, not a state; ${written} must name a state (or mix) defined above`,
+      span: ref.state.span,
+      related: [{ span: outcome.def.span, message: `process ${ref.state.text}` }],
+    });
+    return null;
+  }
+  if (item.state === null) {
+    ctx.report(dependencyInfo(what, ref.state.text, ref.state.span, outcome.def.span));
+    return null;
+  }
+  const si = definingValue(item, fromKey) + offsetSI;
+  if (!Number.isFinite(si)) {
+    return bad(ctx, `${written}: ${ref.state.text}.${fromKey} has no finite value (bone-dry air has no dew point); refer to another property`, ref.span);
+  }
+  // The reference stands in for a written figure: its text is the reference, its band zero.
+  const quantity: QuantityNode = { number: { value: si, text: refText(ref), resolution: 0, span: ref.span }, unit: null, tolerance: null, span: ref.span };
+  return {
+    q: { si, unit: null, unitText: '', toleranceSI: 0, explicitTolerance: false, quantity },
+    ref: { item, fromKey, offsetSI },
+  };
+}
+
+/** The sources of a state's referenced properties, for its result. */
+export function sourcesOf(props: { key: string; q: ResolvedQuantity; ref?: ReadRef }[]): PropertySource[] | undefined {
+  let out: PropertySource[] | undefined;
+  for (const p of props) {
+    if (!p.ref) continue;
+    (out ??= []).push({ key: p.key, from: p.ref.item.name, fromKey: p.ref.fromKey, offsetSI: p.ref.offsetSI, valueSI: p.q.si });
+  }
+  return out;
+}
