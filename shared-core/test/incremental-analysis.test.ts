@@ -22,6 +22,8 @@ const statement = fc.oneof(
   { weight: 2, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 30% + ${b} 70%`) },
   { weight: 1, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 1.2kg/s + ${b} 800L/s db=22C`) },
   { weight: 2, arbitrary: fc.tuple(name, name, name).map(([p, a, b]) => `process ${p}: ${a} -> ${b} m=2kg/s q_total=-30kW`) },
+  // References between states: defining, shifted, a claim beside them, pressure overrides, broken ones.
+  { weight: 2, arbitrary: fc.tuple(name, name, fc.constantFrom('db=24C w=X.w', 'db=X.db+0.8K w=X.w', 'w=X.w db=20C rh=50%', 'db=X.db-1.8F rh=60% p=90kPa', 'h=X.h+2kJ/kg db=30C', 'dp=X.dp w=X.w', 'db=X.db w=X.db', 'db=X.', 'db=X.db*2 rh=5%')).map(([n, r, body]) => `state ${n}: ${body.replace(/X\./g, `${r}.`)}`) },
   { weight: 1, arbitrary: fc.constantFrom('site: elev=1600m', 'site: p=84.5kPa', 'units: IP', 'units: SI', 'state : db=', 'stat X: db=1C', '# a comment', '', '~~', '``', '~ a tilde', '  indented', 'process PX: OA -> m=1kg/s p=1', 'process PY: -> SA', 'mix MX:', 'mix MY: OA 50% + NOPE 50%', 'process PZ: OA -> SA x=1') },
 );
 const fence = fc.tuple(fc.constantFrom('```air', '~~~air', '> ```air', '- ```air', '```js'), fc.array(statement, { maxLength: 7 }), fc.boolean()).map(([open, body, closed]) => {
@@ -33,7 +35,7 @@ const fence = fc.tuple(fc.constantFrom('```air', '~~~air', '> ```air', '- ```air
 /** A block whose mixes and processes refer to states defined above them (so that their results depend on those states). */
 const plant = fc.tuple(fc.constantFrom('', 'site: elev=800m\n'), fc.integer({ min: 18, max: 34 }), fc.integer({ min: 20, max: 80 }), fc.integer({ min: 5, max: 30 })).map(
   ([site, db, rh, oa]) =>
-    `\`\`\`air\n${site}state OA: db=${db}C rh=${rh}%\nstate RA: db=24C rh=50% w=9.3g/kg\nmix MA: OA ${oa}% + RA ${100 - oa}% db=25C\nstate SA: db=13C rh=90%\nprocess CC: MA -> SA m=2kg/s q_total=-40kW\nmix MB: OA 0.5kg/s + MA 1.5kg/s\nprocess HC: SA -> OA q=1.2m3/s\n\`\`\``,
+    `\`\`\`air\n${site}state OA: db=${db}C rh=${rh}%\nstate RA: db=24C rh=50% w=9.3g/kg\nmix MA: OA ${oa}% + RA ${100 - oa}% db=25C\nstate SA: db=13C rh=90%\nprocess CC: MA -> SA m=2kg/s q_total=-40kW\nmix MB: OA 0.5kg/s + MA 1.5kg/s\nprocess HC: SA -> OA q=1.2m3/s\nstate PH: db=OA.db+5K w=OA.w h=60kJ/kg\nstate SB: db=MA.db+0.8K w=MA.w\n\`\`\``,
 );
 const prose = fc.oneof(
   fc.constantFrom('# Plant room', 'Some prose.', '', '- a list item', '> quoted', '| a | b |\n|---|---|\n| 1 | 2 |', '    indented code'),
@@ -46,7 +48,7 @@ const insert = fc.oneof(
   { weight: 4, arbitrary: fc.constantFrom('1', '5', '0', '.', '-', 'C', 'F', '%', 'a', ' ', '=', '#', ':', '+', '±2', 'g/kg') },
   { weight: 2, arbitrary: fc.constantFrom('`', '``', '```', '~', '~~~', '\n', '\r\n', '\r', '\t', '> ', '- ', '\n```air\n', '\n```\n', '\uD83D\uDE00', '\u0000') },
   { weight: 2, arbitrary: statement.map((s) => `\n${s}\n`) },
-  { weight: 1, arbitrary: fc.constantFrom(' w=9g/kg', ' p=95kPa', 'site: p=80kPa\n', '`state Q: db=1C rh=5%`') },
+  { weight: 1, arbitrary: fc.constantFrom(' w=9g/kg', ' p=95kPa', 'site: p=80kPa\n', '`state Q: db=1C rh=5%`', ' w=OA.w', ' db=RA.db+1K', '.w', 'OA.', '+0.5K') },
   { weight: 2, arbitrary: fc.constant('') },
 );
 
@@ -174,6 +176,23 @@ describe('incremental analysis (createAnalyzer)', () => {
       }),
       { seed: 2718, numRuns: 250 },
     );
+  });
+
+  it('re-evaluates a state with references when the state it names changes, and reuses it when not', () => {
+    const text = '```air\nstate OA: db=30C rh=40%\nstate PH: db=OA.db+5K w=OA.w\nstate RA: db=24C rh=50%\n```\n';
+    const analyzer = createAnalyzer();
+    const first = analyzer.analyze(text);
+    // An edit below: PH is taken over as it was.
+    const below = text.replace('rh=50%', 'rh=55%');
+    const second = analyzer.analyze(below);
+    expect(second).toStrictEqual(analyzeNote(below));
+    expect(second.byName.get('PH')).toBe(first.byName.get('PH'));
+    // An edit of OA: PH follows it (no stale result).
+    const upstream = below.replace('db=30C', 'db=31C');
+    const third = analyzer.analyze(upstream);
+    expect(third).toStrictEqual(analyzeNote(upstream));
+    const ph = third.byName.get('PH');
+    expect(ph?.kind === 'state' && ph.state?.db).toBe(36);
   });
 
   it('takes a state before the edit over as it was, and moves one after it', () => {

@@ -102,6 +102,44 @@ function nameEntries(note: Note, before: number, except: string | null): Complet
   return out;
 }
 
+/** A difference for the completion text of a reference to each key (none for rh). */
+const DIFFERENCE_EXAMPLE: Readonly<Record<string, string>> = { db: '+0.8K', wb: '+0.8K', dp: '+0.8K', w: '+0.5g/kg', h: '+2kJ/kg' };
+
+/** Keys a reference can set and name (the defining properties). */
+const REFERENCE_KEYS: readonly string[] = ['db', 'wb', 'dp', 'rh', 'w', 'h'];
+
+/** `key=NAME-so-far` or `key=NAME.key-so-far` at the end of the text before the cursor. */
+const REF_SO_FAR = new RegExp(String.raw`(?:^|\s)([A-Za-z_][A-Za-z0-9_]*)=(${NAME})?(?:\.([A-Za-z_]*))?$`);
+
+/** The states and mixes above, each as `NAME.key` for the key being written (`w=` → `OA.w`). */
+function refNameEntries(note: Note, before: number, except: string | null, key: string): CompletionEntry[] {
+  const sys = note.analysis.units;
+  const dim = STATE_KEYS[key]!.dimension;
+  return nameEntries(note, before, except).map((e) => {
+    const item = note.analysis.byName.get(e.label);
+    const value = item && item.kind !== 'process' && item.state ? ` = ${show(note, item.state[key as 'db'], dim, sys)}` : '';
+    return { ...e, label: `${e.label}.${key}`, insertText: `${e.label}.${key}`, filterText: `${e.label}.${key}`, detail: `${key} of ${e.label}${value}`, documentation: `Takes ${key} from ${e.label} (a reference: it follows every change of ${e.label}).` };
+  });
+}
+
+/** The keys of state `name` a reference can take, with their values now. */
+function refKeyEntries(note: Note, before: number, name: string, key: string): CompletionEntry[] {
+  const item = note.analysis.byName.get(name);
+  if (!item || item.kind === 'process' || item.statement.span.start >= before) return [];
+  const sys = note.analysis.units;
+  const dim = STATE_KEYS[key]!.dimension;
+  // Only keys of the same kind as the one being set (db, wb, dp for a temperature).
+  return REFERENCE_KEYS
+    .filter((k) => STATE_KEYS[k]!.dimension === dim)
+    .map((k) => ({
+      label: k,
+      kind: 'key' as const,
+      insertText: k,
+      detail: `${STATE_KEYS[k]!.title} of ${name}${item.state ? ` = ${show(note, item.state[k as 'db'], dim, sys)}` : ''}`,
+      documentation: `\`${key}=${name}.${k}\` takes ${STATE_KEYS[k]!.title} from ${name}; ${DIFFERENCE_EXAMPLE[k] ? `add a difference with + or − and a unit where it helps (e.g. \`${key}=${name}.${k}${DIFFERENCE_EXAMPLE[k]}\`).` : 'it takes no difference.'}`,
+    }));
+}
+
 /** The keys already written in the statement text before the cursor. */
 function keysWritten(text: string): Set<string> {
   const out = new Set<string>();
@@ -148,6 +186,13 @@ export function completions(note: Note, offset: number, token?: CancellationFlag
 
   const state = new RegExp(String.raw`^\s*state\s+(${NAME})?\s*:(.*)$`).exec(before);
   if (state) {
+    // A property taken from a state above: `w=O` offers `OA.w`, `w=OA.` the keys of OA.
+    const ref = REF_SO_FAR.exec(state[2]!);
+    if (ref && REFERENCE_KEYS.includes(ref[1]!)) {
+      const [, key, stateName, dot] = ref;
+      if (dot === undefined) return result(refNameEntries(note, offset, state[1] ?? null, key!), stateName ?? '');
+      return result(refKeyEntries(note, offset, stateName!, key!), dot);
+    }
     const rest = state[2]!;
     const k = KEY_SO_FAR.exec(rest);
     return k ? result(keyEntries(STATE_KEYS, keysWritten(rest)), k[1]!) : null;

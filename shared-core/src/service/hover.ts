@@ -5,8 +5,8 @@
  * it means in a line or two. Results end with a one-line caution.
  */
 import { PROCESS_KEYS, SITE_KEYS, STATE_KEYS } from '../evaluate/keys';
-import type { ClaimResult, EvaluatedItem, ProcessResult, StateResult } from '../evaluate/types';
-import type { PropertyNode, Statement } from '../notation/ast';
+import type { ClaimResult, EvaluatedItem, ProcessResult, PropertySource, StateResult } from '../evaluate/types';
+import type { PropertyNode, PropertyRefNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
 import { baseUnit, deltaFromSI, describeUnit, displaySymbol, lookupUnit } from '../units';
 import type { Dimension, UnitSystem } from '../units/types';
@@ -114,11 +114,39 @@ function problemsOf(note: Note, statement: Statement): string[] {
     .map((d) => `- ${md(d.message)}`);
 }
 
+/** The dimension of a defining key (the kind a reference's difference is in). */
+const SOURCE_DIMENSION: Readonly<Record<string, Dimension>> = { db: 'temperature', wb: 'temperature', dp: 'temperature', rh: 'fraction', w: 'humidityRatio', h: 'enthalpy' };
+
+/** How a state came from another: ` (from RA via SA)` when a statement defined it from one, else ''. */
+function viaText(note: Note, name: string): string {
+  const item = note.analysis.byName.get(name);
+  if (!item || item.kind === 'process' || !item.definedBy) return '';
+  return ` (from ${md(item.definedBy.from)} via ${md(item.definedBy.name)})`;
+}
+
+/** `w from OA`, `db from OFF + 0.8 K` (and how OFF came about, when a statement defined it from another state). */
+function sourceText(note: Note, src: PropertySource, system: UnitSystem): string {
+  const dim = SOURCE_DIMENSION[src.fromKey];
+  let offset = '';
+  if (src.offsetSI !== 0 && dim) offset = ` ${src.offsetSI < 0 ? '−' : '+'} ${showDifference(note, Math.abs(src.offsetSI), dim, system)}`;
+  const from = src.fromKey === src.key ? md(src.from) : `${md(src.from)}.${src.fromKey}`;
+  return `${src.key} from ${from}${offset}${viaText(note, src.from)}`;
+}
+
+/** The lines saying where a state's referenced properties came from. */
+function sourcesBlock(note: Note, item: StateResult, system: UnitSystem): string[] {
+  const lines: string[] = [];
+  if (item.definedBy) lines.push(`Defined by ${md(item.definedBy.statement)} ${md(item.definedBy.name)} from ${md(item.definedBy.from)}${viaText(note, item.definedBy.from)}.`);
+  if (item.sources && item.sources.length > 0) lines.push(`Taken from states above: ${item.sources.map((s) => sourceText(note, s, system)).join('; ')}.`);
+  return lines;
+}
+
 function stateTable(note: Note, item: StateResult, system: UnitSystem): string[] {
   const state = item.state!;
   const secondary = note.settings.secondaryUnits ? otherSystem(system) : null;
   // A mix's w and h come from the balance, not from the note: nothing is marked as given.
   const given = new Set<string>(item.kind === 'state' ? item.defining : []);
+  const sources = new Map((item.sources ?? []).map((s) => [s.key, s]));
   const claims = new Map(item.claims.map((c) => [c.key, c]));
   const head = secondary ? `| property | | ${system} | ${secondary} | |` : '| property | | value | |';
   const rule = secondary ? '|---|---|--:|--:|---|' : '|---|---|--:|---|';
@@ -127,7 +155,8 @@ function stateTable(note: Note, item: StateResult, system: UnitSystem): string[]
     const label = r.special?.(state) ?? r.label;
     const si = r.value(state);
     const claim = claims.get(r.key);
-    let mark = given.has(r.key) ? 'given' : '';
+    const source = sources.get(r.key);
+    let mark = source ? `from ${md(source.from)}` : given.has(r.key) ? 'given' : '';
     if (claim && note.settings.checkClaims) mark = claim.pass ? 'claim ✓' : `claim ✗ (${md(written(note, claim.prop))})`;
     const cells = [label, `\`${r.key}\``, show(note, si, r.dimension, system)];
     if (secondary) cells.push(show(note, si, r.dimension, secondary));
@@ -162,6 +191,8 @@ function stateHover(note: Note, item: StateResult): string {
     return out.join('\n');
   }
   out.push('', ...stateTable(note, item, system));
+  const sources = sourcesBlock(note, item, system);
+  if (sources.length > 0) out.push('', ...sources);
   out.push('', pressureLine(note, item, system), '', datumLine(system));
   if (note.settings.secondaryUnits) out.push(datumLine(otherSystem(system)));
   const claims = claimsBlock(note, item, system);
@@ -250,6 +281,26 @@ function statementHover(note: Note, statement: Statement, span: Span): HoverInfo
   return { markdown: [head, '', ...problems].join('\n'), span };
 }
 
+/**
+ * On `.w` of `w=OA.w` (or its difference): where the value comes from and what it is now, then
+ * the hover of the state it names.
+ */
+function propertyRefHover(note: Note, statement: Statement, prop: PropertyNode, ref: PropertyRefNode, span: Span): HoverInfo {
+  const system = note.analysis.units;
+  const item = itemOf(note, statement);
+  const src = item && item.kind !== 'process' ? item.sources?.find((s) => s.key === prop.key) : undefined;
+  const written = code(note.text.slice(prop.span.start, prop.span.end));
+  const dim = SOURCE_DIMENSION[prop.key];
+  if (!src || !dim) {
+    const problems = problemsOf(note, statement);
+    return { markdown: [`${written} — not taken: the reference could not be used`, '', ...problems].join('\n'), span };
+  }
+  const lines = [`${written} — ${sourceText(note, src, system)}: ${show(note, src.valueSI, dim, system)}`];
+  const from = note.analysis.byName.get(src.from);
+  if (from) lines.push('', '---', '', itemHover(note, from));
+  return { markdown: lines.join('\n'), span };
+}
+
 /** The hover at `offset`, or null where there is nothing to say. */
 export function hover(note: Note, offset: number, token?: CancellationFlag): HoverInfo | null {
   if (token?.isCancellationRequested) return null;
@@ -289,6 +340,8 @@ export function hover(note: Note, offset: number, token?: CancellationFlag): Hov
     }
     case 'value':
       return statementHover(note, target.statement, target.span);
+    case 'propertyRef':
+      return propertyRefHover(note, target.statement, target.prop, target.ref, target.span);
     case 'statement':
       return statementHover(note, target.statement, target.statement.span);
   }

@@ -25,6 +25,8 @@ const RESERVED: readonly Keyword[] = ['site', 'units', 'state', 'mix', 'process'
 function nameAt(note: Note, offset: number): NameNode | undefined {
   const t = targetAt(note, offset);
   if (t?.kind === 'definition' || t?.kind === 'reference') return t.name;
+  // On the `.w` of `OA.w`: the state it names.
+  if (t?.kind === 'propertyRef') return t.ref.state;
   return undefined;
 }
 

@@ -9,6 +9,7 @@ import type {
   AirRegion,
   NameNode,
   PropertyNode,
+  PropertyRefNode,
   Statement,
   UnitNode,
 } from '../notation/ast';
@@ -129,14 +130,18 @@ export type Target =
   | { kind: 'key'; statement: Statement; prop: PropertyNode; span: Span }
   | { kind: 'unit'; statement: Statement; unit: UnitNode; prop: PropertyNode | null }
   | { kind: 'value'; statement: Statement; prop: PropertyNode; span: Span }
+  /** The `.key` (or difference) part of a property reference `OA.w+…` (its name part is a `reference`). */
+  | { kind: 'propertyRef'; statement: Statement; prop: PropertyNode; ref: PropertyRefNode; span: Span }
   | { kind: 'system'; statement: Statement; name: NameNode }
   | { kind: 'statement'; statement: Statement };
 
-/** The names a statement refers to (mix streams, process ends). */
+/** The names a statement refers to (mix streams, process ends, the states of property references). */
 export function referencesOf(statement: Statement): NameNode[] {
-  if (statement.keyword === 'mix') return statement.streams.map((s) => s.name);
-  if (statement.keyword === 'process') return [statement.from, statement.to].filter((n): n is NameNode => n !== null);
-  return [];
+  const out: NameNode[] = [];
+  if (statement.keyword === 'mix') for (const s of statement.streams) out.push(s.name);
+  if (statement.keyword === 'process') for (const n of [statement.from, statement.to]) if (n) out.push(n);
+  if (statement.keyword !== 'units') for (const p of statement.props) if (p.ref) out.push(p.ref.state);
+  return out;
 }
 
 /** The properties written in a statement (for a mix: its claims; for a process: flow and claims). */
@@ -168,6 +173,11 @@ export function targetAt(note: Note, offset: number): Target | undefined {
   for (const prop of propsOf(statement)) {
     if (!touches(prop.span, offset)) continue;
     if (touches(prop.keySpan, offset)) return { kind: 'key', statement, prop, span: prop.keySpan };
+    if (prop.ref) {
+      const ref = prop.ref;
+      if (ref.offset?.unit && touches(ref.offset.unit.span, offset)) return { kind: 'unit', statement, unit: ref.offset.unit, prop };
+      return { kind: 'propertyRef', statement, prop, ref, span: { start: ref.state.span.end, end: ref.span.end } };
+    }
     const v = prop.value;
     if (v?.unit && touches(v.unit.span, offset)) return { kind: 'unit', statement, unit: v.unit, prop };
     if (v?.tolerance?.unit && touches(v.tolerance.unit.span, offset)) return { kind: 'unit', statement, unit: v.tolerance.unit, prop };
