@@ -175,6 +175,18 @@ describe('air injection grammar', () => {
     expect(scopesOf(lines, 1, 'Btu/h')).toContain('keyword.other.unit.air');
   });
 
+  it('a property reference: the state, the dot, the key and a signed difference with its unit', async () => {
+    const tokenize = await tokenizer(standInHost);
+    const lines = tokenize(['```air', 'state PH: db=OA.dp+8K w=AHU-3.w', '```'].join('\n'));
+    expect(scopesOf(lines, 1, 'OA')).toContain('variable.other.state.air');
+    expect(scopesOf(lines, 1, 'AHU-3')).toContain('variable.other.state.air');
+    expect(scopesOf(lines, 1, 'db').join(' ')).toContain('support.type.property-name.air');
+    expect(scopesOf(lines, 1, 'dp').join(' ')).toContain('variable.other.property.air');
+    expect(scopesOf(lines, 1, '.')).toContain('punctuation.accessor.air');
+    expect(scopesOf(lines, 1, '+8')).toContain('constant.numeric.air');
+    expect(scopesOf(lines, 1, 'K')).toContain('keyword.other.unit.air');
+  });
+
   const haveVscodeMarkdown = existsSync(vscodeHost);
   const ci = process.env.CI === 'true' || process.env.CI === '1';
   it.skipIf(!haveVscodeMarkdown && !ci)(

@@ -271,3 +271,35 @@ describe('settings, cancellation and custom requests', () => {
     expect(cursors('ab|c\nd|e')).toEqual({ text: 'abc\nde', at: [{ line: 0, character: 2 }, { line: 1, character: 1 }] });
   });
 });
+
+describe('property references through the protocol', () => {
+  const REFS = 'file:///work-notes/refs.md';
+  // Line numbers of the note below (0-based).
+  const TEXT = ['```air', 'state OA: db=40C wb=20C', 'state PH: db=OA.db+2K w=OA.w', 'state X: db=20C w=', '```', ''].join('\n');
+
+  it('hovers on OA.w with where the value came from, goes to OA, renames into the reference, completes NAME.key', async () => {
+    await s.open(REFS, TEXT);
+    // ASHRAE HoF 2017 SI Ch.1 Example 1 (see EX1 above): W of OA is 6.5 g/kg ±0.1.
+    const h = await s.request<{ contents: { value: string } }>('textDocument/hover', { textDocument: { uri: REFS }, position: { line: 2, character: 'state PH: db=OA.db+2K w=OA.'.length } });
+    const head = /^`w=OA\.w` — w from OA: (\d+\.\d+) g\/kg$/.exec(h.contents.value.split('\n')[0]!);
+    expect(head, h.contents.value).not.toBeNull();
+    expect(within(Number(head![1]), EX1.w)).toBe(true);
+
+    const def = await s.request<{ uri: string; range: Range }>('textDocument/definition', { textDocument: { uri: REFS }, position: { line: 2, character: 'state PH: db=OA.d'.length } });
+    expect(def).toEqual({ uri: REFS, range: { start: { line: 1, character: 6 }, end: { line: 1, character: 8 } } });
+
+    const edit = await s.request<{ documentChanges: { edits: { range: Range; newText: string }[] }[] }>('textDocument/rename', {
+      textDocument: { uri: REFS },
+      position: { line: 1, character: 7 },
+      newName: 'OUT',
+    });
+    expect(edit.documentChanges[0]!.edits.map((e) => [e.range.start.line, e.range.start.character])).toEqual([
+      [1, 6],
+      [2, 13],
+      [2, 24],
+    ]);
+
+    const names = await s.request<{ items: { label: string }[] }>('textDocument/completion', { textDocument: { uri: REFS }, position: { line: 3, character: 'state X: db=20C w='.length } });
+    expect(names.items.map((i) => i.label)).toEqual(['OA.w', 'PH.w']);
+  });
+});

@@ -8,7 +8,7 @@ import { PROCESS_KEYS, SITE_KEYS, STATE_KEYS } from '../evaluate/keys';
 import type { ClaimResult, EvaluatedItem, ProcessResult, PropertySource, StateResult } from '../evaluate/types';
 import type { PropertyNode, PropertyRefNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
-import { baseUnit, deltaFromSI, describeUnit, displaySymbol, lookupUnit } from '../units';
+import { baseUnit, deltaFromSI, describeUnit, displaySymbol, formatDifference, lookupUnit } from '../units';
 import type { Dimension, UnitSystem } from '../units/types';
 import {
   CAUTION_LINE,
@@ -128,7 +128,11 @@ function viaText(note: Note, name: string): string {
 function sourceText(note: Note, src: PropertySource, system: UnitSystem): string {
   const dim = SOURCE_DIMENSION[src.fromKey];
   let offset = '';
-  if (src.offsetSI !== 0 && dim) offset = ` ${src.offsetSI < 0 ? '−' : '+'} ${showDifference(note, Math.abs(src.offsetSI), dim, system)}`;
+  if (src.offsetSI !== 0 && dim) {
+    // A temperature difference in SI is in kelvin (a °C figure would read as a temperature).
+    const text = dim === 'temperature' && system === 'SI' ? formatDifference(Math.abs(src.offsetSI), dim, system, { unit: lookupUnit('K')! }).text : showDifference(note, Math.abs(src.offsetSI), dim, system);
+    offset = ` ${src.offsetSI < 0 ? '−' : '+'} ${text}`;
+  }
   const from = src.fromKey === src.key ? md(src.from) : `${md(src.from)}.${src.fromKey}`;
   return `${src.key} from ${from}${offset}${viaText(note, src.from)}`;
 }
