@@ -114,7 +114,7 @@ export function stateJson(f: FileResult, s: StateResult): Record<string, unknown
     out.m_kgs = r(s.massFlowKgS ?? null);
   }
   // Properties taken from states above: the offset in SI (K, kg/kg, J/kg).
-  if (s.sources) out.sources = s.sources.map((x) => ({ key: x.key, from: x.from, fromKey: x.fromKey, offset: r(x.offsetSI, 7) }));
+  if (s.sources) out.sources = s.sources.map((x) => ({ key: x.key, from: x.from, fromKey: x.fromKey, offset: r(x.offsetSI) }));
   if (s.claims.length > 0) out.claims = s.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
   return out;
 }
