@@ -12,7 +12,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { analyzeNote, createAnalyzer } from '../src/evaluate';
+import { analyzeNote, createAnalyzer } from '../src/analyze';
 import type { Analysis, ProcessResult, StateResult } from '../src/evaluate/types';
 
 interface Inputs {
