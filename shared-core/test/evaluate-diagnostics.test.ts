@@ -34,7 +34,7 @@ const cases: [string, string[], Expected][] = [
   ['negative w', ['state A: db=20C w=-1g/kg'], { code: 'negative-humidity-ratio', severity: 'error', span: 'w=-1g/kg' }],
   ['enthalpy below bone-dry air', ['state A: db=30C h=10kJ/kg'], { code: 'enthalpy-too-low', severity: 'error', span: 'db=30C h=10kJ/kg' }],
   ['wet-bulb far below dry-bulb', ['state A: db=40C wb=5C'], { code: 'wb-too-low', severity: 'error', span: 'db=40C wb=5C' }],
-  ['pressure below saturation', ['state A: db=90C rh=50% p=50kPa'], { code: 'pressure-below-saturation', severity: 'error', span: 'db=90C rh=50%' }],
+  ['pressure below saturation', ['state A: db=90C rh=80% p=50kPa'], { code: 'pressure-below-saturation', severity: 'error', span: 'db=90C rh=80%' }],
   ['temperature outside −100…200 °C', ['state A: db=250C rh=1%'], { code: 'out-of-range', severity: 'error', span: 'db=250C' }],
   ['elevation outside the standard atmosphere', ['site: elev=20000m'], { code: 'out-of-range', severity: 'error', span: '20000m' }],
   ['wb with h (ill-conditioned)', ['state A: wb=17C h=47.5kJ/kg'], { code: 'ill-conditioned', severity: 'warning', span: 'wb=17C h=47.5kJ/kg' }],

@@ -14,7 +14,7 @@
  * shared with the previous analysis where they are equal, so neither may be mutated by callers.
  * Everything that must stay stateless (the CLI, tests) uses `analyzeNote`.
  */
-import { solveState } from '../physics';
+import { solveForNote } from './solve';
 import type { SolveOptions, SolveResult } from '../physics/types';
 import type { CoreDiagnostic, NameNode, StateStatement, Statement } from '../notation/ast';
 import { createNoteParser } from '../notation/incremental';
@@ -136,14 +136,14 @@ class Reuse implements EvaluateReuse {
     return out;
   }
 
-  readonly solve = (input: Parameters<typeof solveState>[0], p: number, options?: SolveOptions): SolveResult => {
+  readonly solve = (input: Parameters<typeof solveForNote>[0], p: number, options?: SolveOptions): SolveResult => {
     let key = `${numKey(p)}|${options?.allowFog === true ? 1 : 0}`;
     for (const k in input) {
       const v = input[k as keyof typeof input];
       if (v !== undefined) key += `|${k}=${numKey(v)}`;
     }
     let r = this.nextSolves.get(key) ?? this.prevSolves.get(key);
-    if (!r) r = solveState(input, p, options);
+    if (!r) r = solveForNote(input, p, options);
     this.nextSolves.set(key, r);
     return r;
   };

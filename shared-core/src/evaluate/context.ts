@@ -3,7 +3,7 @@ import type { CoreDiagnostic, NameNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
 import type { UnitSystem } from '../units/types';
 import { LineIndex } from '../text/lineIndex';
-import { solveState } from '../physics';
+import { solveForNote } from './solve';
 import type { EvaluateSettings, EvaluatedItem, PressureBasis } from './types';
 import { closest, formatSig } from './util';
 
@@ -45,10 +45,10 @@ export class EvalContext {
   /** The pressure that applies to the statements from here on. */
   site: PressureBasis;
   /**
-   * The state solver the statements use: the engine's `solveState`, or a memoizing wrapper of it
-   * when an analyzer reuses its previous run (same results either way).
+   * The state solver the statements use: {@link solveForNote}, or a memoizing wrapper of it when
+   * an analyzer reuses its previous run (same results either way).
    */
-  solve: typeof solveState = solveState;
+  solve: typeof solveForNote = solveForNote;
   /** The note's text (for line numbers in messages), and its line index once a message needs it. */
   private readonly text: string | undefined;
   private lines: LineIndex | null = null;
