@@ -37,7 +37,9 @@ function stateLabel(note: Note, item: StateResult): { label: string; failed: boo
     if (writtenKeys.has(key)) continue;
     const row = rowOf(key);
     if (!row) continue;
-    parts.push(`${key} ${show(note, row.value(state), row.dimension, system)}`);
+    // Below the triple point the dew point is a frost point (over ice), as the hover says.
+    const shownKey = key === 'dp' && state.dpFrost ? 'fp' : key;
+    parts.push(`${shownKey} ${show(note, row.value(state), row.dimension, system)}`);
   }
   let failed = false;
   if (note.settings.checkClaims) {
@@ -51,7 +53,7 @@ function stateLabel(note: Note, item: StateResult): { label: string; failed: boo
     }
   }
   if (state.fog) parts.push('fog');
-  return parts.length > 0 ? { label: parts.join(' · '), failed } : null;
+  return parts.length > 0 ? { label: joinFigures(parts), failed } : null;
 }
 
 function processLabel(note: Note, item: ProcessResult): { label: string; failed: boolean } {
@@ -74,7 +76,19 @@ function processLabel(note: Note, item: ProcessResult): { label: string; failed:
       parts.push(`✗ ${c.key} is ${c.computedText}`);
     }
   }
-  return { label: parts.join(' · '), failed };
+  return { label: joinFigures(parts), failed };
+}
+
+/** A no-break space: keeps a figure's key, number and unit on one line when the editor wraps. */
+const NBSP = '\u00a0';
+
+/**
+ * The parts of a hint as one label: the spaces inside each part (`dp 12.9 °C`, `98.1 kW removed`)
+ * become no-break spaces and the parts are joined with ` · `, so a wrapped line can break only
+ * between figures, never inside a number or between a number and its unit.
+ */
+export function joinFigures(parts: readonly string[]): string {
+  return parts.map((p) => p.replace(/ /g, NBSP)).join(' · ');
 }
 
 /** Where a statement's hint goes: the end of its line in a fence, after the closing backtick inline. */
