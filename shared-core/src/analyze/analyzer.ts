@@ -14,7 +14,7 @@
  * shared with the previous analysis where they are equal, so neither may be mutated by callers.
  * Everything that must stay stateless (the CLI, tests) uses `analyzeNote`.
  */
-import { solveForNote } from './solve';
+import { solveForNote } from '../evaluate/solve';
 import type { SolveOptions, SolveResult } from '../physics/types';
 import type { CoreDiagnostic, NameNode, StateStatement, Statement } from '../notation/ast';
 import { createNoteParser } from '../notation/incremental';
