@@ -75,7 +75,7 @@ describe('Neovim as the LSP client', () => {
 
     const hints = inlayHintLabels(run.step('inlayHints').result);
     expect(hints).toHaveLength(3);
-    expect(hints[0]).toMatch(/^rh [\d.]+ % · w [\d.]+ g\/kg · h [\d.]+ kJ\/kg · dp [\d.]+ °C$/);
+    expect(hints[0]).toMatch(/^rh\u00a0[\d.]+\u00a0% · w\u00a0[\d.]+\u00a0g\/kg · h\u00a0[\d.]+\u00a0kJ\/kg · dp\u00a0[\d.]+\u00a0°C$/);
     expect(run.report.serverExit?.code ?? 0).toBe(0);
   });
 
