@@ -3,7 +3,7 @@
  * notes (or more warnings than --max-warnings), 2 usage or I/O problems.
  */
 import { Command, CommanderError, Option } from 'commander';
-import { STDIN_PATH, collectInputs, decodeText } from '@dewmark/files';
+import { STDIN_PATH, collectInputs, decodeText, explainEmpty } from '@dewmark/files';
 import { summaryLine, type Counts } from './output';
 import { runTasks, type FileOutput, type Mode, type Task } from './work';
 import { UsageError, toSettings, type RawEvalOptions } from './settings';
@@ -37,6 +37,7 @@ interface CommonOptions extends RawEvalOptions {
   format?: string;
   maxWarnings?: string;
   gitignore?: boolean;
+  exclude?: string[];
 }
 
 /** Per-file totals kept while files stream through (analyses are not kept, to spare memory). */
@@ -53,7 +54,7 @@ interface Totals {
  */
 async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mode, onFile: (out: FileOutput) => void): Promise<Totals> {
   const settings = toSettings(opts);
-  const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false });
+  const { inputs, problems, empty } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false, exclude: opts.exclude ?? [] });
   const totals: Totals = { files: 0, counts: { errors: 0, warnings: 0, infos: 0 }, ioProblems: 0 };
   for (const p of problems) {
     io.err(`dewmark: ${safeText(p.message)}\n`);
@@ -94,7 +95,8 @@ async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mo
   );
   if (progress) io.err('\r\x1b[K');
   if (inputs.length === 0 && problems.length === 0) {
-    io.err(`dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}\n`);
+    const why = explainEmpty(empty).map(safeText);
+    io.err(`dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}${why.length > 0 ? `; ${why.join('; ')}` : ''}\n`);
     totals.ioProblems++;
   }
   return totals;
@@ -183,7 +185,12 @@ function addCommon(cmd: Command): Command {
     .addOption(new Option('--pressure <value>', 'default barometric pressure with its unit, e.g. 84.5kPa (a note\'s site: line wins)').conflicts('elevation'))
     .addOption(new Option('--elevation <value>', 'default site elevation with its unit, e.g. 1600m (standard atmosphere)'))
     .option('--no-claims', 'do not compare written claims with computed values')
-    .option('--no-gitignore', 'also read files that .gitignore excludes when walking folders');
+    .option('--no-gitignore', 'also read files that .gitignore or .git/info/exclude leave out of folders and globs')
+    .addOption(
+      new Option('--exclude <pattern>', 'leave files and folders matching this glob out of folders and globs (repeatable; a bare name matches at any depth)').argParser(
+        (value: string, previous: string[] | undefined) => [...(previous ?? []), value],
+      ),
+    );
 }
 
 /**

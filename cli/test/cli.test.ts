@@ -102,10 +102,37 @@ describe('dewmark check', () => {
     expect(all.out).toContain('generated.md');
   });
 
-  it('globs', () => {
+  it('globs keep the Markdown files that match, honouring .gitignore like folder walks', () => {
+    // Globs used to read what .gitignore leaves out (notes/build/generated.md) while folder walks did not.
     const r = dewmark(['check', '--format', 'json', 'notes/**/*.md']);
     const doc = JSON.parse(r.out);
-    expect(doc.files.map((f: { path: string }) => f.path).sort()).toEqual(['notes/a.md', 'notes/build/generated.md', 'notes/deep/b.md']);
+    expect(doc.files.map((f: { path: string }) => f.path).sort()).toEqual(['notes/a.md', 'notes/deep/b.md']);
+    const all = dewmark(['check', '--format', 'json', '--no-gitignore', 'notes/**/*.md']);
+    expect(JSON.parse(all.out).files.map((f: { path: string }) => f.path).sort()).toEqual(['notes/a.md', 'notes/build/generated.md', 'notes/deep/b.md']);
+    // Only Markdown files: notes/deep/skip.txt matches notes/**/* but is not read.
+    const star = dewmark(['check', '--format', 'json', 'notes/**/*']);
+    expect(JSON.parse(star.out).files.map((f: { path: string }) => f.path).sort()).toEqual(['notes/a.md', 'notes/deep/b.md']);
+  });
+
+  it('--exclude leaves matching files and folders out of folders and globs (repeatable)', () => {
+    const r = dewmark(['check', '--format', 'json', '--exclude', 'deep', '--exclude', 'bad.md', '.']);
+    const paths = JSON.parse(r.out).files.map((f: { path: string }) => f.path);
+    expect(paths).toContain('notes/a.md');
+    expect(paths).not.toContain('notes/deep/b.md');
+    expect(paths).not.toContain('bad.md');
+    expect(paths).toContain('good.md');
+  });
+
+  it('a folder where nothing is left says what was left out', () => {
+    const r = dewmark(['check', '--exclude', '*.md', 'notes']);
+    expect(r.code).toBe(2);
+    expect(r.err).toContain("dewmark: no Markdown files (.md, .markdown) found in 'notes'; in 'notes': folders and Markdown files: 1 left out by .gitignore or .git/info/exclude (--no-gitignore reads it), 2 left out by --exclude");
+  });
+
+  it('a glob that matches only other files says so', () => {
+    const r = dewmark(['check', 'notes/**/*.txt']);
+    expect(r.code).toBe(2);
+    expect(r.err).toContain("the pattern 'notes/**/*.txt' matches 1 file, none of them Markdown (.md, .markdown)");
   });
 
   it('a missing file is exit 2 with a clear message', () => {

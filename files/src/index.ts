@@ -1,160 +1,27 @@
 /**
- * Which files `dewmark` reads: paths, folders (recursive, `.gitignore` honoured), glob patterns
- * and `-` for standard input; and reading them as UTF-8 text with clear errors for missing,
- * unreadable, binary and non-UTF-8 files.
+ * `@dewmark/files` (Node only): which files are notes — paths, folders (recursive), globs, `-`
+ * for standard input, ignore files, `--exclude` (see `select.ts`) — and reading them as UTF-8
+ * text with clear errors for missing, unreadable, binary and non-UTF-8 files. The command line
+ * and the language server's "check all notes" both use it, so they read the same notes the same way.
  */
-import { readdirSync, readFileSync, statSync, existsSync } from 'node:fs';
-import { join, relative, resolve, sep } from 'node:path';
-import ignore, { type Ignore } from 'ignore';
-import { globSync, isDynamicPattern } from 'tinyglobby';
+import { readFileSync } from 'node:fs';
+import type { Input } from './select';
 
-/** The name standard input is reported under. */
-export const STDIN_PATH = '<stdin>';
-
-/** File name endings taken from folders and globs. */
-const MARKDOWN = /\.(md|markdown)$/i;
-
-/** Folders never walked into. */
-const SKIP_DIRS = new Set(['node_modules', '.git', '.hg', '.svn']);
-
-/** One input: a file path as the user will read it, or standard input. */
-export interface Input {
-  /** Path as printed (relative to the working directory where possible), or `<stdin>`. */
-  display: string;
-  /** Absolute path; null for standard input. */
-  abs: string | null;
-}
-
-/** A problem finding or reading an input (exit code 2). */
-export interface InputProblem {
-  display: string;
-  message: string;
-}
-
-/** Options for {@link collectInputs}. */
-export interface CollectOptions {
-  cwd: string;
-  /** Honour `.gitignore` files when walking folders. Default true. */
-  gitignore?: boolean;
-}
-
-function displayOf(abs: string, cwd: string): string {
-  const rel = relative(cwd, abs);
-  const shown = rel === '' ? '.' : rel.startsWith('..') ? abs : rel;
-  return sep === '\\' ? shown.replace(/\\/g, '/') : shown;
-}
-
-/** Walks `dir` for Markdown files, honouring the `.gitignore` files found on the way. */
-function walk(dir: string, root: string, rules: { base: string; ig: Ignore }[], useIgnore: boolean, out: string[]): void {
-  let entries: import('node:fs').Dirent[];
-  try {
-    entries = readdirSync(dir, { withFileTypes: true });
-  } catch {
-    return;
-  }
-  let local = rules;
-  if (useIgnore && entries.some((e) => e.name === '.gitignore' && e.isFile())) {
-    try {
-      const ig = ignore().add(readFileSync(join(dir, '.gitignore'), 'utf8'));
-      local = [...rules, { base: dir, ig }];
-    } catch {
-      // an unreadable .gitignore is ignored
-    }
-  }
-  entries.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
-  for (const e of entries) {
-    const abs = join(dir, e.name);
-    const isDir = e.isDirectory();
-    if (isDir && SKIP_DIRS.has(e.name)) continue;
-    if (useIgnore && isIgnored(abs, isDir, local)) continue;
-    if (isDir) walk(abs, root, local, useIgnore, out);
-    else if (e.isFile() && MARKDOWN.test(e.name)) out.push(abs);
-  }
-}
-
-function isIgnored(abs: string, isDir: boolean, rules: { base: string; ig: Ignore }[]): boolean {
-  for (const { base, ig } of rules) {
-    let rel = relative(base, abs);
-    if (rel === '' || rel.startsWith('..')) continue;
-    if (sep === '\\') rel = rel.replace(/\\/g, '/');
-    if (ig.ignores(isDir ? `${rel}/` : rel)) return true;
-  }
-  return false;
-}
-
-/** The `.gitignore` rules that apply above a folder given on the command line (up to the repository root). */
-function ancestorRules(dir: string): { base: string; ig: Ignore }[] {
-  const chain: string[] = [];
-  let cur = resolve(dir);
-  for (let i = 0; i < 64; i++) {
-    chain.unshift(cur);
-    if (existsSync(join(cur, '.git'))) break;
-    const parent = resolve(cur, '..');
-    if (parent === cur) return []; // not inside a repository: only the folder's own rules apply
-    cur = parent;
-  }
-  const rules: { base: string; ig: Ignore }[] = [];
-  for (const d of chain.slice(0, -1)) {
-    try {
-      rules.push({ base: d, ig: ignore().add(readFileSync(join(d, '.gitignore'), 'utf8')) });
-    } catch {
-      // none there
-    }
-  }
-  return rules;
-}
-
-/**
- * Turns command-line arguments into inputs, in order, without duplicates. A missing path or a
- * glob that matches nothing is a problem (reported, and the run exits 2).
- */
-export function collectInputs(args: string[], opts: CollectOptions): { inputs: Input[]; problems: InputProblem[] } {
-  const inputs: Input[] = [];
-  const problems: InputProblem[] = [];
-  const seen = new Set<string>();
-  const useIgnore = opts.gitignore !== false;
-  const add = (abs: string) => {
-    if (seen.has(abs)) return;
-    seen.add(abs);
-    inputs.push({ display: displayOf(abs, opts.cwd), abs });
-  };
-  let stdinTaken = false;
-  for (const arg of args.length > 0 ? args : ['.']) {
-    if (arg === '-') {
-      if (!stdinTaken) inputs.push({ display: STDIN_PATH, abs: null });
-      stdinTaken = true;
-      continue;
-    }
-    const abs = resolve(opts.cwd, arg);
-    let st: import('node:fs').Stats | null = null;
-    try {
-      st = statSync(abs);
-    } catch {
-      st = null;
-    }
-    if (st?.isDirectory()) {
-      const found: string[] = [];
-      walk(abs, abs, useIgnore ? ancestorRules(abs) : [], useIgnore, found);
-      for (const f of found) add(f);
-      continue;
-    }
-    if (st) {
-      add(abs);
-      continue;
-    }
-    if (isDynamicPattern(arg)) {
-      const matches = globSync(arg, { cwd: opts.cwd, absolute: true, onlyFiles: true, ignore: ['**/node_modules/**', '**/.git/**'] }).sort();
-      if (matches.length === 0) {
-        problems.push({ display: arg, message: `no files match the pattern '${arg}'` });
-        continue;
-      }
-      for (const m of matches) add(resolve(m));
-      continue;
-    }
-    problems.push({ display: arg, message: `cannot read '${arg}': no such file or folder` });
-  }
-  return { inputs, problems };
-}
+export {
+  collectInputs,
+  describeLeftOut,
+  explainEmpty,
+  MARKDOWN,
+  selectInputs,
+  STDIN_PATH,
+  type CollectOptions,
+  type EmptyArgument,
+  type Input,
+  type InputProblem,
+  type LeftOut,
+  type LeftOutReason,
+  type Selection,
+} from './select';
 
 /** Outcome of reading one input. */
 export type ReadOutcome = { ok: true; text: string } | { ok: false; message: string };

@@ -20,14 +20,18 @@ export interface CheckedNote {
   statements: number;
 }
 
-/** Result of {@link CHECK_WORKSPACE_METHOD}: the notes that hold statements, and the totals. */
+/**
+ * Result of {@link CHECK_WORKSPACE_METHOD}: the notes that hold statements or problems (a fence
+ * whose only line does not parse has no statement but an error), and the totals. The files are
+ * the ones `dewmark check <folder>` reads for each workspace folder, so the totals agree.
+ */
 export interface CheckWorkspaceResult {
   notes: CheckedNote[];
   /** Markdown files read, including those without statements. */
   filesRead: number;
   errors: number;
   warnings: number;
-  /** Files that could not be read, with the reason. */
+  /** Files that could not be read (binary, not UTF-8, …), with the reason. */
   unreadable: { uri: string; reason: string }[];
 }
 

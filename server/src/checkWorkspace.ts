@@ -1,14 +1,15 @@
 /**
  * The custom `dewmark/checkWorkspace` request: reads every Markdown note under the workspace
- * folders (reading only; nothing is written), analyses it, and pushes its diagnostics. Reports
- * work-done progress and stops between files when cancelled.
+ * folders (reading only; nothing is written), analyses it, and pushes its diagnostics. The notes
+ * are the ones `dewmark check <folder>` reads (`@dewmark/files`: .gitignore and
+ * .git/info/exclude honoured, node_modules and hidden folders left out, links not followed), read
+ * the same way. Reports work-done progress and stops between folders and files when cancelled.
  */
-import { readdir, readFile } from 'node:fs/promises';
-import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { type CancellationToken, type WorkDoneProgressReporter } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { analyzeText, countDiagnostics } from '@dewmark/core/service';
+import { analyzeText, countDiagnostics, noteDiagnostics } from '@dewmark/core/service';
+import { readInput, selectInputs } from '@dewmark/files';
 import type { ServerContext } from './context';
 import type { Diagnostics } from './diagnostics';
 import { toLspDiagnostics } from './diagnostics';
@@ -20,24 +21,22 @@ import {
 } from '@dewmark/protocol';
 import { cancelled, runSafe } from './safe';
 
-/** Folders never searched for notes. */
-const SKIPPED_DIRS = new Set(['node_modules', '.git', '.hg', '.svn', 'dist', 'out']);
+/** Folders read between two turns of the event loop while looking for notes (requests go on meanwhile). */
+const FOLDERS_PER_TURN = 16;
 
-/** Markdown files under `dir`, depth first, in name order. */
-async function markdownFiles(dir: string, out: string[], token: CancellationToken): Promise<void> {
-  if (token.isCancellationRequested) return;
-  let entries;
-  try {
-    entries = await readdir(dir, { withFileTypes: true });
-  } catch {
-    return;
-  }
-  entries.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
-  for (const e of entries) {
-    if (e.isDirectory()) {
-      if (!SKIPPED_DIRS.has(e.name) && !e.name.startsWith('.')) await markdownFiles(join(dir, e.name), out, token);
-    } else if (e.isFile() && /\.(md|markdown)$/i.test(e.name)) {
-      out.push(join(dir, e.name));
+/** The notes under the workspace folders, in order; `null` when cancelled. */
+async function notesUnder(folders: string[], token: CancellationToken): Promise<{ files: string[]; problems: { path: string; message: string }[] } | null> {
+  if (folders.length === 0) return { files: [], problems: [] };
+  const steps = selectInputs(folders, { cwd: folders[0]! });
+  for (let n = 1; ; n++) {
+    const step = steps.next();
+    if (step.done) {
+      const files = step.value.inputs.flatMap((i) => (i.abs === null ? [] : [i.abs]));
+      return { files, problems: step.value.problems.map((p) => ({ path: p.display, message: p.message })) };
+    }
+    if (n % FOLDERS_PER_TURN === 0) {
+      await new Promise((r) => setImmediate(r));
+      if (token.isCancellationRequested) return null;
     }
   }
 }
@@ -52,12 +51,14 @@ export function registerCheckWorkspace(ctx: ServerContext, diagnostics: Diagnost
       else progress = ctx.connection.window.attachWorkDoneProgress(undefined);
       progress.begin('Dewmark: checking notes', 0, 'finding Markdown files', false);
       try {
-        const files: string[] = [];
-        for (const folder of ctx.folders) {
-          if (!folder.startsWith('file:')) continue;
-          await markdownFiles(fileURLToPath(folder), files, token);
-        }
+        const found = await notesUnder(
+          ctx.folders.filter((f) => f.startsWith('file:')).map((f) => fileURLToPath(f)),
+          token,
+        );
+        if (found === null) throw cancelled();
+        const files = found.files;
         const result: CheckWorkspaceResult = { notes: [], filesRead: 0, errors: 0, warnings: 0, unreadable: [] };
+        for (const p of found.problems) result.unreadable.push({ uri: pathToFileURL(p.path).href, reason: p.message });
         for (let i = 0; i < files.length; i++) {
           if (token.isCancellationRequested) throw cancelled();
           const path = files[i]!;
@@ -69,18 +70,18 @@ export function registerCheckWorkspace(ctx: ServerContext, diagnostics: Diagnost
           if (open) {
             ({ doc, note } = open);
           } else {
-            let text: string;
-            try {
-              text = await readFile(path, 'utf8');
-            } catch (err) {
-              result.unreadable.push({ uri, reason: err instanceof Error ? err.message : String(err) });
+            const read = readInput({ display: path, abs: path });
+            if (!read.ok) {
+              result.unreadable.push({ uri, reason: read.message });
               continue;
             }
-            doc = TextDocument.create(uri, 'markdown', 0, text);
-            note = analyzeText(text, await ctx.config.get(uri));
+            doc = TextDocument.create(uri, 'markdown', 0, read.text);
+            note = analyzeText(read.text, await ctx.config.get(uri));
           }
           result.filesRead++;
-          if (note.analysis.parsed.statements.length === 0) continue;
+          // A file without statements and without problems is prose; one with a problem but no
+          // statement (a fence whose only line does not parse) is a note, as for `dewmark check`.
+          if (note.analysis.parsed.statements.length === 0 && noteDiagnostics(note).length === 0) continue;
           const checked: CheckedNote = { uri, ...countDiagnostics(note), statements: note.analysis.parsed.statements.length };
           result.notes.push(checked);
           result.errors += checked.errors;

@@ -23,6 +23,7 @@ export interface AnalysedNote {
 export interface WriteOptions extends RawEvalOptions {
   output?: string;
   gitignore?: boolean;
+  exclude?: string[];
 }
 
 /** Markdown endings that a generated file must never be written to. */
@@ -83,7 +84,7 @@ export async function readOneNote(paths: string[], opts: WriteOptions, io: CliIO
     throw new UsageError(`${command} takes exactly one note (got ${paths.length === 0 ? 'none' : paths.length}), e.g. dewmark ${command} notes/ahu.md -o …`);
   }
   const settings = toSettings(opts);
-  const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false });
+  const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false, exclude: opts.exclude ?? [] });
   if (problems.length > 0) throw new UsageError(problems.map((p) => p.message).join('; '));
   if (inputs.length !== 1) {
     throw new UsageError(`${command} takes exactly one note, but '${paths[0]}' names ${inputs.length === 0 ? 'no Markdown file' : `${inputs.length} files`}; name one file`);
