@@ -107,8 +107,8 @@ describe('npm package', () => {
 
   it('the notices carry the licence text of every bundled package', () => {
     const notices = readFileSync(join(stage, 'dist', 'THIRD-PARTY-NOTICES.md'), 'utf8');
-    // Packages the CLI and server bundles are known to include (cli/package.json, server/package.json dependencies).
-    for (const name of ['commander', 'ignore', 'tinyglobby', 'markdown-it', 'vscode-languageserver', 'vscode-jsonrpc']) {
+    // Packages the CLI and server bundles are known to include (cli/, files/ and server/package.json dependencies).
+    for (const name of ['commander', 'ignore', 'picomatch', 'markdown-it', 'vscode-languageserver', 'vscode-jsonrpc']) {
       expect(notices, name).toMatch(new RegExp(`^## ${name.replace(/[.]/g, '\\.')} \\d`, 'm'));
     }
     expect(notices).toContain('Permission is hereby granted, free of charge');
