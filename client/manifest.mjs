@@ -15,7 +15,11 @@ import { isDeepStrictEqual } from 'node:util';
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const manifestPath = join(root, 'package.json');
 
-/** Hint keys the server accepts in dewmark.inlayHints.properties (shared-core/src/service/types.ts HINT_KEYS). */
+/**
+ * Hint keys the server accepts in dewmark.inlayHints.properties, with their descriptions: the rows of
+ * the key table (shared-core/src/vocabulary/keys.ts) marked `hint`. A plain script cannot import the
+ * TypeScript table, so test/client/manifest.test.ts holds this copy to it (keys, order, wording).
+ */
 const HINT_KEYS = [
   ['db', 'dry-bulb temperature'],
   ['wb', 'thermodynamic wet-bulb temperature'],

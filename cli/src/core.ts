@@ -9,3 +9,4 @@ export { LineIndex } from '@dewmark/core/text';
 export { displayUnit, displaySymbol, formatQuantity, lookupUnit, toSI } from '@dewmark/core/units';
 export { stdAtmPressure } from '@dewmark/core/physics';
 export type { Dimension, UnitSystem } from '@dewmark/core/units';
+export { jsonFigure, jsonName } from '@dewmark/core/vocabulary';

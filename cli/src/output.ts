@@ -1,6 +1,6 @@
 /** What `dewmark` prints: diagnostic lines, the JSON documents, and the terminal tables. */
 import type { Analysis, CoreDiagnostic, Dimension, ProcessResult, StateResult, UnitSystem } from './core';
-import { LineIndex, displaySymbol, displayUnit, formatQuantity, lookupUnit } from './core';
+import { LineIndex, displaySymbol, displayUnit, formatQuantity, jsonFigure, jsonName, lookupUnit } from './core';
 import { safeLinePath, safeText } from './sanitize';
 
 /** One checked or evaluated file. */
@@ -97,27 +97,24 @@ export function stateJson(f: FileResult, s: StateResult): Record<string, unknown
     line: lineOf(f, s),
     kind: s.kind,
     ok: st !== null,
-    p_kPa: r(s.pressure.pa / 1000),
-    db_C: r(st?.db),
-    wb_C: r(st?.wb),
-    dp_C: r(st?.dp),
-    rh_pct: r(st ? st.rh * 100 : null),
-    w_kgkg: r(st?.w),
-    h_kJkg: r(st ? st.h / 1000 : null),
-    v_m3kg: r(st?.v),
-    rho_kgm3: r(st?.rho),
-    defining: [...s.defining],
-    pressure: s.pressure.describe,
   };
+  // Field names and units come from the key table.
+  out[jsonName('p')] = r(jsonFigure('p', s.pressure.pa));
+  for (const key of STATE_JSON_KEYS) out[jsonName(key)] = r(jsonFigure(key, st?.[key]));
+  out.defining = [...s.defining];
+  out.pressure = s.pressure.describe;
   if (s.kind === 'mix') {
-    out.streams = (s.streams ?? []).map((x) => ({ name: x.name, fraction: r(x.fraction), m_kgs: r(x.massFlowKgS) }));
-    out.m_kgs = r(s.massFlowKgS ?? null);
+    out.streams = (s.streams ?? []).map((x) => ({ name: x.name, fraction: r(x.fraction), [jsonName('m')]: r(jsonFigure('m', x.massFlowKgS)) }));
+    out[jsonName('m')] = r(jsonFigure('m', s.massFlowKgS ?? null));
   }
   // Properties taken from states above: the offset in SI (K, kg/kg, J/kg).
   if (s.sources) out.sources = s.sources.map((x) => ({ key: x.key, from: x.from, fromKey: x.fromKey, offset: r(x.offsetSI) }));
   if (s.claims.length > 0) out.claims = s.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
   return out;
 }
+
+/** The computed properties of a state in its JSON, in order (each a field of the computed state). */
+const STATE_JSON_KEYS = ['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'rho'] as const;
 
 /** A process in the JSON shape (heat rates in kW and water in kg/h, positive = added to the air). */
 export function processJson(f: FileResult, p: ProcessResult): Record<string, unknown> {
@@ -127,18 +124,22 @@ export function processJson(f: FileResult, p: ProcessResult): Record<string, unk
     kind: p.processKind,
     from: p.from,
     to: p.to,
-    m_kgs: r(p.massFlowKgS),
-    q_total_kW: r(p.qTotalW === null ? null : p.qTotalW / 1000),
-    q_sensible_kW: r(p.qSensibleW === null ? null : p.qSensibleW / 1000),
-    q_latent_kW: r(p.qLatentW === null ? null : p.qLatentW / 1000),
-    shr: r(p.shr),
-    water_kgh: r(p.waterKgS === null ? null : p.waterKgS * 3600),
-    q_coil_kW: r(p.qCoilW === null ? null : p.qCoilW / 1000),
-    v_m3s: r(p.volumeFlowM3S),
-    dh_kJkg: r(p.dhTotal / 1000),
-    dw_kgkg: r(p.dw),
-    adp_C: r(p.apparatusDewPointC ?? null),
   };
+  // The keys' fields (names and units from the key table), then the figures no key writes.
+  const keyed = [
+    ['m', p.massFlowKgS],
+    ['q_total', p.qTotalW],
+    ['q_sensible', p.qSensibleW],
+    ['q_latent', p.qLatentW],
+    ['shr', p.shr],
+    ['water', p.waterKgS],
+    ['q_coil', p.qCoilW],
+    ['q', p.volumeFlowM3S],
+  ] as const;
+  for (const [key, si] of keyed) out[jsonName(key)] = r(jsonFigure(key, si));
+  out.dh_kJkg = r(p.dhTotal / 1000);
+  out.dw_kgkg = r(p.dw);
+  out.adp_C = r(p.apparatusDewPointC ?? null);
   if (p.claims.length > 0) out.claims = p.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
   return out;
 }

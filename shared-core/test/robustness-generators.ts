@@ -30,6 +30,7 @@ import {
   type Span,
 } from '../src/service';
 import { allFinite } from '../src/evaluate';
+import { keysOf } from '../src/vocabulary/keys';
 
 // ---------------------------------------------------------------------------------------------
 // Configuration
@@ -147,8 +148,9 @@ const UNITS_BY_KEY: Record<string, string[]> = {
   shr: ['', '%'],
   water: ['kg/h', 'kg/s', 'lb/h'],
 };
-const STATE_KEYS = ['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'p', 'elev'];
-const PROCESS_KEYS = ['m', 'q', 'q_total', 'q_sensible', 'q_latent', 'q_coil', 'shr', 'water'];
+/** The keys of a state line, from the key table. */
+const STATE_KEYS = Object.keys(keysOf('state'));
+const PROCESS_KEYS = Object.keys(keysOf('process'));
 const WRONG_UNITS = ['degC', 'C°', 'kpa', 'KPA', 'g', 'kg', '%%', 'lb', 'BTU', 'cfm/s', '℃', '°', 'C😀', '\u0301', 'kJ/kg/kg', 'mm', 'Pa2', ''];
 const WRONG_KEYS = ['DB', 'Db', 'rH', 'wet', 't', 'T', 'wbb', '', '😀', 'q-total', '_', 'db db'];
 

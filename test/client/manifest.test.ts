@@ -10,6 +10,7 @@ import { join } from 'node:path';
 import { COMMAND_CATEGORY, COMMANDS } from '../../client/src/commands';
 import { DEFAULT_SERVICE_SETTINGS, readSettings } from '../../shared-core/src/service/settings';
 import { HINT_KEYS } from '../../shared-core/src/service/types';
+import { keySpec } from '../../shared-core/src/vocabulary/keys';
 // @ts-expect-error -- a plain ES module without type declarations
 import { fields, scripts } from '../../client/manifest.mjs';
 
@@ -20,7 +21,7 @@ interface SettingSchema {
   type: string;
   default: unknown;
   enum?: string[];
-  items?: { enum?: string[] };
+  items?: { enum?: string[]; enumDescriptions?: string[] };
   markdownDescription?: string;
   description?: string;
   minimum?: number;
@@ -115,6 +116,9 @@ describe('extension manifest', () => {
 
   it('enumerates the hint keys and unit systems the server accepts', () => {
     expect(properties['dewmark.inlayHints.properties']!.items!.enum).toEqual([...HINT_KEYS]);
+    // The descriptions are the key table's too (client/manifest.mjs cannot import TypeScript, so it
+    // keeps a copy that this test holds to the table).
+    expect(properties['dewmark.inlayHints.properties']!.items!.enumDescriptions).toEqual(HINT_KEYS.map((k) => keySpec(k).hint));
     expect(properties['dewmark.units']!.enum).toEqual(['SI', 'IP']);
     const { problems } = readSettings(section({ 'dewmark.precision': properties['dewmark.precision']!.maximum! + 1 }));
     expect(problems.length, 'the manifest maximum of dewmark.precision is the server maximum').toBe(1);

@@ -1,67 +1,21 @@
-/** The property keys of each statement: what they measure, how a bare number reads, examples. */
-import type { Dimension } from '../units/types';
+/** The keys each statement takes (views of the one key table, `../vocabulary/keys`) and the rules on defining pairs. */
 import type { DefiningKey } from '../physics/types';
 
-/** How a number written without a unit is read for a key. */
-export type BareRule =
-  /** A bare number is an error (`missing-unit`). */
-  | 'error'
-  /** A bare number is already in the SI base of the dimension (w in kg/kg, shr as a fraction). */
-  | 'si';
+import { keysOf } from '../vocabulary/keys';
 
-/** What the evaluator knows about one key. */
-export interface KeySpec {
-  key: string;
-  dimension: Dimension;
-  title: string;
-  bare: BareRule;
-  /** Examples for messages (`24C or 75F`). */
-  example: string;
-}
+export type { BareRule, KeySpec } from '../vocabulary/keys';
 
-const T = (key: string, title: string): KeySpec => ({ key, dimension: 'temperature', title, bare: 'error', example: `${key}=24C or ${key}=75F` });
-
-/** Keys of `state` (and the claims after a `mix`). */
-export const STATE_KEYS: Readonly<Record<string, KeySpec>> = {
-  db: T('db', 'dry-bulb temperature'),
-  wb: T('wb', 'wet-bulb temperature'),
-  dp: T('dp', 'dew-point temperature'),
-  rh: { key: 'rh', dimension: 'fraction', title: 'relative humidity', bare: 'error', example: 'rh=50%' },
-  w: { key: 'w', dimension: 'humidityRatio', title: 'humidity ratio', bare: 'si', example: 'w=9.3g/kg or w=0.0093' },
-  h: { key: 'h', dimension: 'enthalpy', title: 'specific enthalpy', bare: 'error', example: 'h=47.8kJ/kg or h=20.5Btu/lb' },
-  v: { key: 'v', dimension: 'specificVolume', title: 'specific volume', bare: 'error', example: 'v=0.854m3/kg or v=13.7ft3/lb' },
-  p: { key: 'p', dimension: 'pressure', title: 'pressure', bare: 'error', example: 'p=84kPa or p=12.2psia' },
-  elev: { key: 'elev', dimension: 'length', title: 'elevation', bare: 'error', example: 'elev=1600m or elev=5250ft' },
-};
+/** Keys of `state` (and the claims after a `mix`): the rows of the key table written in a state. */
+export const STATE_KEYS = keysOf('state');
 
 /** Keys of `site:`. */
-export const SITE_KEYS: Readonly<Record<string, KeySpec>> = {
-  p: STATE_KEYS.p!,
-  elev: STATE_KEYS.elev!,
-};
+export const SITE_KEYS = keysOf('site');
 
 /** Keys that may follow a `mix` (claims about the mixed state). */
-export const MIX_KEYS: Readonly<Record<string, KeySpec>> = {
-  db: STATE_KEYS.db!,
-  wb: STATE_KEYS.wb!,
-  dp: STATE_KEYS.dp!,
-  rh: STATE_KEYS.rh!,
-  w: STATE_KEYS.w!,
-  h: STATE_KEYS.h!,
-  v: STATE_KEYS.v!,
-};
+export const MIX_KEYS = keysOf('mix');
 
 /** Keys of `process`: the flow (`m=`, `q=`) and the claims about its results. */
-export const PROCESS_KEYS: Readonly<Record<string, KeySpec>> = {
-  m: { key: 'm', dimension: 'massFlow', title: 'dry-air mass flow', bare: 'error', example: 'm=5.6kg/s or m=44000lb/h' },
-  q: { key: 'q', dimension: 'volumeFlow', title: 'volume flow at the entering state', bare: 'error', example: 'q=4.8m3/s, q=4800L/s or q=10000cfm' },
-  q_total: { key: 'q_total', dimension: 'power', title: 'total heat rate', bare: 'error', example: 'q_total=98kW' },
-  q_sensible: { key: 'q_sensible', dimension: 'power', title: 'sensible heat rate', bare: 'error', example: 'q_sensible=72kW' },
-  q_latent: { key: 'q_latent', dimension: 'power', title: 'latent heat rate', bare: 'error', example: 'q_latent=26kW' },
-  q_coil: { key: 'q_coil', dimension: 'power', title: 'coil or heater duty (including the water)', bare: 'error', example: 'q_coil=97kW' },
-  shr: { key: 'shr', dimension: 'fraction', title: 'sensible heat ratio', bare: 'si', example: 'shr=0.73' },
-  water: { key: 'water', dimension: 'massFlow', title: 'water added or condensate removed', bare: 'error', example: 'water=38kg/h' },
-};
+export const PROCESS_KEYS = keysOf('process');
 
 /** The state keys that can define a state (v is a claim only; p and elev set the pressure). */
 export const DEFINING_KEYS: readonly DefiningKey[] = ['db', 'wb', 'dp', 'rh', 'w', 'h'];

@@ -9,6 +9,9 @@ import type { CoreDiagnostic, PropertyNode, QuantityNode } from '../notation/ast
 import type { KeySpec } from './keys';
 import { significantResolution } from '../notation/number';
 
+/** What reading a quantity needs to know of its key (a key-table row, or a mix stream's amount). */
+export type QuantitySpec = Pick<KeySpec, 'key' | 'dimension' | 'title' | 'bare' | 'example'>;
+
 /** A quantity converted for its key. */
 export interface ResolvedQuantity {
   /** The written value in the SI base of the key's dimension. */
@@ -90,7 +93,7 @@ export function dimensionWords(d: Dimension): string {
  * `missing-unit` (a bare number where a unit is needed), `unknown-unit` (not a unit, or a unit of
  * another dimension, with a suggestion), `syntax` for a negative explicit tolerance.
  */
-export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan'] }, q: QuantityNode, spec: KeySpec): QuantityOutcome {
+export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan'] }, q: QuantityNode, spec: QuantitySpec): QuantityOutcome {
   let unit: UnitDef | null = null;
   let unitText = '';
   let si: number;
@@ -199,7 +202,7 @@ function whereText(key: string, q: QuantityNode): string {
   return `${key}=${q.number.text}${q.unit?.text ?? ''}`;
 }
 
-function missingUnitMessage(spec: KeySpec, numText: string, value: number): string {
+function missingUnitMessage(spec: QuantitySpec, numText: string, value: number): string {
   switch (spec.dimension) {
     case 'temperature':
       return `${spec.key}=${numText} has no unit: Dewmark does not guess between °C and °F; write ${spec.key}=${numText}C or ${spec.key}=${numText}F`;

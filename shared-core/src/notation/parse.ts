@@ -50,6 +50,7 @@ import type {
 import type { Span } from '../text/types';
 import { extractRegions, type ExtractedRegion } from '../markdown/regions';
 import { resolutionOf, scanNumber, startsNumber } from './number';
+import { findKey } from '../vocabulary/keys';
 
 /** The diagnostic codes the parser reports, each with what it means. */
 export const SYNTAX_CODES = {
@@ -934,31 +935,9 @@ function differenceExample(key: string): string {
   return key === 'w' ? '0.5g/kg' : key === 'h' ? '2kJ/kg' : '0.8K';
 }
 
+/** The first example of a key from the key table (`db=24C`, `shr=0.73`); `key=24C` for a key the table lacks. */
 function exampleFor(key: string): string {
-  switch (key) {
-    case 'db':
-    case 'wb':
-    case 'dp':
-      return `${key}=24C`;
-    case 'rh':
-      return 'rh=50%';
-    case 'w':
-      return 'w=9.3g/kg';
-    case 'h':
-      return 'h=47.8kJ/kg';
-    case 'v':
-      return 'v=0.85m3/kg';
-    case 'p':
-      return 'p=101.325kPa';
-    case 'elev':
-      return 'elev=1600m';
-    case 'm':
-      return 'm=5.6kg/s';
-    case 'q':
-      return 'q=4.8m3/s';
-    default:
-      return `${key}=24C`;
-  }
+  return findKey(key)?.examples[0] ?? `${key}=24C`;
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -11,10 +11,11 @@ import type { AirRegion, CoreDiagnostic, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
 import { displaySymbol, displayUnit, formatDifference, formatQuantity, lookupUnit } from '../units';
 import type { Dimension, UnitDef, UnitSystem } from '../units/types';
+import type { KeyName } from '../vocabulary/keys';
 
-/** A column of the states table: its key, the label shown, and the unit of its figures. */
+/** A column of the states table: its key (a row of the key table), the label shown, and the unit of its figures. */
 export interface ResultsColumn {
-  key: 'p' | 'db' | 'wb' | 'dp' | 'rh' | 'w' | 'h';
+  key: Extract<KeyName, 'p' | 'db' | 'wb' | 'dp' | 'rh' | 'w' | 'h'>;
   label: string;
   unit: string;
 }

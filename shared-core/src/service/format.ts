@@ -8,10 +8,11 @@ import type { ProcessKind } from '../evaluate/types';
 import { formatDifference, formatQuantity, lookupUnit } from '../units';
 import type { Dimension, UnitDef, UnitSystem } from '../units/types';
 import type { HintKey, Note } from './types';
+import { ROW_KEYS, keySpec, type RowKey } from '../vocabulary/keys';
 
 /** A property shown for a state: its key, label, dimension and where it is in a computed state. */
 export interface PropertyRow {
-  key: string;
+  key: RowKey;
   label: string;
   dimension: Dimension;
   value: (s: MoistAirState) => number;
@@ -19,19 +20,20 @@ export interface PropertyRow {
   special?: (s: MoistAirState) => string | null;
 }
 
-/** Every property of a computed state, in the order the hover table lists them. */
-export const STATE_ROWS: readonly PropertyRow[] = [
-  { key: 'db', label: 'dry-bulb', dimension: 'temperature', value: (s) => s.db },
-  { key: 'wb', label: 'wet-bulb', dimension: 'temperature', value: (s) => s.wb, special: (s) => (s.wbIce ? 'wet-bulb (over ice)' : null) },
-  { key: 'dp', label: 'dew point', dimension: 'temperature', value: (s) => s.dp, special: (s) => (s.dpFrost ? 'frost point' : null) },
-  { key: 'rh', label: 'relative humidity', dimension: 'fraction', value: (s) => s.rh },
-  { key: 'w', label: 'humidity ratio', dimension: 'humidityRatio', value: (s) => s.w },
-  { key: 'h', label: 'enthalpy', dimension: 'enthalpy', value: (s) => s.h },
-  { key: 'v', label: 'specific volume', dimension: 'specificVolume', value: (s) => s.v },
-  { key: 'rho', label: 'density (moist air)', dimension: 'density', value: (s) => s.rho },
-  { key: 'pw', label: 'vapour pressure', dimension: 'pressure', value: (s) => s.pw },
-  { key: 'mu', label: 'degree of saturation', dimension: 'fraction', value: (s) => s.mu },
-];
+/** The labels of the special cases: wet-bulb over ice, frost point. */
+const SPECIAL: Partial<Record<RowKey, (s: MoistAirState) => string | null>> = {
+  wb: (s) => (s.wbIce ? 'wet-bulb (over ice)' : null),
+  dp: (s) => (s.dpFrost ? 'frost point' : null),
+};
+
+/** Every property of a computed state, in the order the hover table lists them (the key table's rows). */
+export const STATE_ROWS: readonly PropertyRow[] = ROW_KEYS.map((key) => {
+  const spec = keySpec(key);
+  const row: PropertyRow = { key, label: spec.row!, dimension: spec.dimension, value: (s) => s[key] };
+  const special = SPECIAL[key];
+  if (special) row.special = special;
+  return row;
+});
 
 /** The row of a key shown in hints and hovers. */
 export function rowOf(key: string): PropertyRow | undefined {

@@ -4,7 +4,7 @@
  * result; on a process its kind, flows and duties; on a key, unit, keyword or `units:` word what
  * it means in a line or two. Results end with a one-line caution.
  */
-import { PROCESS_KEYS, SITE_KEYS, STATE_KEYS } from '../evaluate/keys';
+import { findKey } from '../vocabulary/keys';
 import type { ClaimResult, EvaluatedItem, ProcessResult, PropertySource, StateResult } from '../evaluate/types';
 import type { PropertyNode, PropertyRefNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
@@ -43,29 +43,8 @@ const KEYWORD_TEXT: Record<Statement['keyword'], string> = {
     '`process NAME: A -> B [m=… | q=…]` a process between two named states at one dry-air flow: heat rates, sensible heat ratio, moisture added or removed, and the kind of process.',
 };
 
-/** What each property key means, in one line (units accepted follow from the units table). */
-const KEY_TEXT: Record<string, string> = {
-  db: 'dry-bulb temperature',
-  wb: 'thermodynamic wet-bulb temperature (over ice below 0 °C)',
-  dp: 'dew-point temperature (frost point below 0 °C)',
-  rh: 'relative humidity, in % (a bare number is an error: 50 or 0.5 would be ambiguous)',
-  w: 'humidity ratio: mass of water vapour per mass of dry air (a bare number is kg/kg)',
-  h: 'specific enthalpy per mass of dry air (SI datum dry air 0 at 0 °C; IP datum 0 °F)',
-  v: 'specific volume per mass of dry air (a claim only; it does not define a state)',
-  p: 'barometric (absolute) pressure',
-  elev: 'site elevation; the pressure follows from the standard atmosphere',
-  m: 'dry-air mass flow through the process',
-  q: 'volume flow of air at the entering state',
-  q_total: 'claim: total heat rate of the process',
-  q_sensible: 'claim: sensible heat rate',
-  q_latent: 'claim: latent heat rate',
-  q_coil: 'claim: coil or heater duty, including the enthalpy of the water leaving or entering',
-  shr: 'claim: sensible heat ratio (sensible / total); a bare number is a fraction',
-  water: 'claim: water added (humidifier) or removed (condensate), as a mass flow',
-};
-
 function keyDimension(key: string): Dimension | undefined {
-  return (STATE_KEYS[key] ?? PROCESS_KEYS[key] ?? SITE_KEYS[key])?.dimension;
+  return findKey(key)?.dimension;
 }
 
 /** The written text of a property (`rh=45%`). */
@@ -327,7 +306,9 @@ export function hover(note: Note, offset: number, token?: CancellationFlag): Hov
     }
     case 'key': {
       const key = target.prop.key;
-      const text = KEY_TEXT[key];
+      const spec = findKey(key);
+      // A computed property (rho, pw, mu) is not a key that can be written: no hover on it.
+      const text = spec && spec.in.length > 0 ? spec.description : undefined;
       if (!text) return null;
       return { markdown: `\`${md(key)}\` — ${text}.`, span: target.span };
     }

@@ -6,11 +6,9 @@ import type { Analysis } from '../evaluate/types';
 import type { Span } from '../text/types';
 import type { UnitSystem } from '../units/types';
 
-/** A property that the inline hints may show after a state or mix. */
-export type HintKey = 'db' | 'wb' | 'dp' | 'rh' | 'w' | 'h' | 'v' | 'rho';
-
-/** Every key the inline hints accept, in the order they are shown. */
-export const HINT_KEYS: readonly HintKey[] = ['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'rho'];
+/** The properties the inline hints may show, in order: the key table's rows marked `hint`. */
+export { HINT_KEYS, type HintKey } from '../vocabulary/keys';
+import type { HintKey } from '../vocabulary/keys';
 
 /** The default pressure for notes without a `site:` line: a pressure, or an elevation to convert. */
 export type DefaultSite =

@@ -1,0 +1,258 @@
+/**
+ * The one table of the notation's keys: every key that may be written after a statement
+ * (`db=`, `p=`, `q_total=`…) and every computed property that is shown without being written
+ * (`rho`, `pw`, `mu`). Each row says what the key is, where it may be written, what it measures,
+ * how a bare number reads, an example, its field in `dewmark eval --format json`, and where hovers
+ * and inline hints show it. The evaluator's per-statement key sets, the parser's examples, hovers,
+ * hints, completion, the CLI's JSON and the editor setting's list all read this table.
+ *
+ * Adding a key is adding one row here (and the code that computes or reads its figure).
+ *
+ * Pure data: the parser imports it for its example text only and still reads no unit; the
+ * dimension names are the units module's type, nothing more.
+ */
+import type { Dimension } from '../units/types';
+
+/** How a number written without a unit is read for a key. */
+export type BareRule =
+  /** A bare number is an error (`missing-unit`). */
+  | 'error'
+  /** A bare number is already in the SI base of the dimension (w in kg/kg, shr as a fraction). */
+  | 'si';
+
+/** The statements a key may be written in. */
+export type KeyStatement = 'state' | 'mix' | 'site' | 'process';
+
+/**
+ * What a key is:
+ * - `property`: a property of moist air (defines a state, or is a claim about it);
+ * - `pressure`: sets the pressure of a state or of the statements after `site:`;
+ * - `flow`: the dry-air flow of a process;
+ * - `process-claim`: a claim about a process's results;
+ * - `computed`: shown in hovers, hints or the JSON, never written.
+ */
+export type KeyKind = 'property' | 'pressure' | 'flow' | 'process-claim' | 'computed';
+
+/** One row of the key table. */
+export interface KeySpec {
+  key: string;
+  kind: KeyKind;
+  /** The statements it may be written in (none for a computed property). */
+  in: readonly KeyStatement[];
+  /** What it measures: the units it accepts are the units of this dimension. */
+  dimension: Dimension;
+  /** How a bare number reads (always `error` for a computed property). */
+  bare: BareRule;
+  /** What it is, in a few words, for messages and completion (`dry-bulb temperature`). */
+  title: string;
+  /** One line on what it means, for a hover on the key. */
+  description: string;
+  /** Examples, each `key=value` that the notation accepts (every one is checked by a test); empty for a computed property. */
+  examples: readonly string[];
+  /** The examples in one phrase for messages: `db=24C or db=75F`. */
+  example: string;
+  /** The label of its row in a state's hover table (rows in table order); absent when the hover has no row for it. */
+  row?: string;
+  /** The inline hints may show it (setting `dewmark.inlayHints.properties`): the setting's description of it. */
+  hint?: string;
+  /**
+   * Its field in the JSON of `dewmark eval`: the name and the conversion from the SI base (times
+   * `times`, over `over`; 1 when absent). The CLI decides the digits.
+   */
+  json?: { name: string; times?: number; over?: number };
+}
+
+/** `a`, `a or b`, `a, b or c`. */
+function alternatives(list: readonly string[]): string {
+  if (list.length <= 1) return list[0] ?? '';
+  return `${list.slice(0, -1).join(', ')} or ${list[list.length - 1]}`;
+}
+
+const STATE_AND_MIX = ['state', 'mix'] as const;
+
+/**
+ * Every key, in the order of completion lists, hover rows and hint keys. One row per key; the
+ * `examples` phrase is filled in from the list.
+ */
+const ROWS = [
+  // --- properties of moist air (state lines; claims after a mix) ---
+  {
+    key: 'db', kind: 'property', in: STATE_AND_MIX, dimension: 'temperature', bare: 'error',
+    title: 'dry-bulb temperature', description: 'dry-bulb temperature',
+    examples: ['db=24C', 'db=75F'], row: 'dry-bulb', hint: 'dry-bulb temperature',
+    json: { name: 'db_C' },
+  },
+  {
+    key: 'wb', kind: 'property', in: STATE_AND_MIX, dimension: 'temperature', bare: 'error',
+    title: 'wet-bulb temperature', description: 'thermodynamic wet-bulb temperature (over ice below 0 °C)',
+    examples: ['wb=24C', 'wb=75F'], row: 'wet-bulb', hint: 'thermodynamic wet-bulb temperature',
+    json: { name: 'wb_C' },
+  },
+  {
+    key: 'dp', kind: 'property', in: STATE_AND_MIX, dimension: 'temperature', bare: 'error',
+    title: 'dew-point temperature', description: 'dew-point temperature (frost point below 0 °C)',
+    examples: ['dp=24C', 'dp=75F'], row: 'dew point', hint: 'dew-point temperature',
+    json: { name: 'dp_C' },
+  },
+  {
+    key: 'rh', kind: 'property', in: STATE_AND_MIX, dimension: 'fraction', bare: 'error',
+    title: 'relative humidity', description: 'relative humidity, in % (a bare number is an error: 50 or 0.5 would be ambiguous)',
+    examples: ['rh=50%'], row: 'relative humidity', hint: 'relative humidity',
+    json: { name: 'rh_pct', times: 100 },
+  },
+  {
+    key: 'w', kind: 'property', in: STATE_AND_MIX, dimension: 'humidityRatio', bare: 'si',
+    title: 'humidity ratio', description: 'humidity ratio: mass of water vapour per mass of dry air (a bare number is kg/kg)',
+    examples: ['w=9.3g/kg', 'w=0.0093'], row: 'humidity ratio', hint: 'humidity ratio',
+    json: { name: 'w_kgkg' },
+  },
+  {
+    key: 'h', kind: 'property', in: STATE_AND_MIX, dimension: 'enthalpy', bare: 'error',
+    title: 'specific enthalpy', description: 'specific enthalpy per mass of dry air (SI datum dry air 0 at 0 °C; IP datum 0 °F)',
+    examples: ['h=47.8kJ/kg', 'h=20.5Btu/lb'], row: 'enthalpy', hint: 'specific enthalpy per mass of dry air',
+    json: { name: 'h_kJkg', over: 1000 },
+  },
+  {
+    key: 'v', kind: 'property', in: STATE_AND_MIX, dimension: 'specificVolume', bare: 'error',
+    title: 'specific volume', description: 'specific volume per mass of dry air (a claim only; it does not define a state)',
+    examples: ['v=0.854m3/kg', 'v=13.7ft3/lb'], row: 'specific volume', hint: 'specific volume per mass of dry air',
+    json: { name: 'v_m3kg' },
+  },
+  // --- computed only (shown, never written) ---
+  {
+    key: 'rho', kind: 'computed', in: [], dimension: 'density', bare: 'error',
+    title: 'density of the moist air', description: 'density of the moist air, (1 + W) / v',
+    examples: [], row: 'density (moist air)', hint: 'density of the moist air',
+    json: { name: 'rho_kgm3' },
+  },
+  {
+    key: 'pw', kind: 'computed', in: [], dimension: 'pressure', bare: 'error',
+    title: 'partial pressure of water vapour', description: 'partial pressure of the water vapour in the air',
+    examples: [], row: 'vapour pressure',
+  },
+  {
+    key: 'mu', kind: 'computed', in: [], dimension: 'fraction', bare: 'error',
+    title: 'degree of saturation', description: 'degree of saturation: W divided by W at saturation at the same dry-bulb and pressure',
+    examples: [], row: 'degree of saturation',
+  },
+  // --- pressure (site lines and state lines) ---
+  {
+    key: 'p', kind: 'pressure', in: ['state', 'site'], dimension: 'pressure', bare: 'error',
+    title: 'pressure', description: 'barometric (absolute) pressure',
+    examples: ['p=84kPa', 'p=12.2psia'],
+    json: { name: 'p_kPa', over: 1000 },
+  },
+  {
+    key: 'elev', kind: 'pressure', in: ['state', 'site'], dimension: 'length', bare: 'error',
+    title: 'elevation', description: 'site elevation; the pressure follows from the standard atmosphere',
+    examples: ['elev=1600m', 'elev=5250ft'],
+  },
+  // --- processes: the flow, and claims about the results ---
+  {
+    key: 'm', kind: 'flow', in: ['process'], dimension: 'massFlow', bare: 'error',
+    title: 'dry-air mass flow', description: 'dry-air mass flow through the process',
+    examples: ['m=5.6kg/s', 'm=44000lb/h'],
+    json: { name: 'm_kgs' },
+  },
+  {
+    key: 'q', kind: 'flow', in: ['process'], dimension: 'volumeFlow', bare: 'error',
+    title: 'volume flow at the entering state', description: 'volume flow of air at the entering state',
+    examples: ['q=4.8m3/s', 'q=4800L/s', 'q=10000cfm'],
+    json: { name: 'v_m3s' },
+  },
+  {
+    key: 'q_total', kind: 'process-claim', in: ['process'], dimension: 'power', bare: 'error',
+    title: 'total heat rate', description: 'claim: total heat rate of the process',
+    examples: ['q_total=98kW'],
+    json: { name: 'q_total_kW', over: 1000 },
+  },
+  {
+    key: 'q_sensible', kind: 'process-claim', in: ['process'], dimension: 'power', bare: 'error',
+    title: 'sensible heat rate', description: 'claim: sensible heat rate',
+    examples: ['q_sensible=72kW'],
+    json: { name: 'q_sensible_kW', over: 1000 },
+  },
+  {
+    key: 'q_latent', kind: 'process-claim', in: ['process'], dimension: 'power', bare: 'error',
+    title: 'latent heat rate', description: 'claim: latent heat rate',
+    examples: ['q_latent=26kW'],
+    json: { name: 'q_latent_kW', over: 1000 },
+  },
+  {
+    key: 'q_coil', kind: 'process-claim', in: ['process'], dimension: 'power', bare: 'error',
+    title: 'coil or heater duty (including the water)', description: 'claim: coil or heater duty, including the enthalpy of the water leaving or entering',
+    examples: ['q_coil=97kW'],
+    json: { name: 'q_coil_kW', over: 1000 },
+  },
+  {
+    key: 'shr', kind: 'process-claim', in: ['process'], dimension: 'fraction', bare: 'si',
+    title: 'sensible heat ratio', description: 'claim: sensible heat ratio (sensible / total); a bare number is a fraction',
+    examples: ['shr=0.73'],
+    json: { name: 'shr' },
+  },
+  {
+    key: 'water', kind: 'process-claim', in: ['process'], dimension: 'massFlow', bare: 'error',
+    title: 'water added or condensate removed', description: 'claim: water added (humidifier) or removed (condensate), as a mass flow',
+    examples: ['water=38kg/h'],
+    json: { name: 'water_kgh', times: 3600 },
+  },
+] as const satisfies readonly Omit<KeySpec, 'example'>[];
+
+type Row = (typeof ROWS)[number];
+
+/** Every key of the table. */
+export type KeyName = Row['key'];
+
+/** A property that the inline hints may show after a state or mix. */
+export type HintKey = Extract<Row, { hint: string }>['key'];
+
+/** A computed property with a row in the state hover (its figure is the state's field of that name). */
+export type RowKey = Extract<Row, { row: string }>['key'];
+
+/** A key with a field in the JSON of `dewmark eval`. */
+export type JsonKey = Extract<Row, { json: object }>['key'];
+
+/** Every key, in table order. */
+export const KEYS: readonly KeySpec[] = ROWS.map((r) => Object.freeze({ ...r, example: alternatives(r.examples) }));
+
+const byKey = new Map<string, KeySpec>(KEYS.map((k) => [k.key, k]));
+
+/** The row of a key (typed: a key the table lacks is a compile error). */
+export function keySpec(key: KeyName): KeySpec {
+  return byKey.get(key)!;
+}
+
+/** The row of a written key, or undefined when the table has no such key. */
+export function findKey(key: string): KeySpec | undefined {
+  return byKey.get(key);
+}
+
+/** The keys a statement takes, by key, in table order. */
+export function keysOf(statement: KeyStatement): Readonly<Record<string, KeySpec>> {
+  const out: Record<string, KeySpec> = {};
+  for (const k of KEYS) if (k.in.includes(statement)) out[k.key] = k;
+  return Object.freeze(out);
+}
+
+/** Every key the inline hints accept, in the order they are shown. */
+export const HINT_KEYS: readonly HintKey[] = KEYS.filter((k) => k.hint !== undefined).map((k) => k.key as HintKey);
+
+/** The rows of a state's hover table, in order. */
+export const ROW_KEYS: readonly RowKey[] = KEYS.filter((k) => k.row !== undefined).map((k) => k.key as RowKey);
+
+/** The first example of a key (`db=24C`), for short messages; a neutral one for a key the table lacks. */
+export function firstExample(key: string): string {
+  return byKey.get(key)?.examples[0] ?? 'db=24C';
+}
+
+/** A figure in the unit of a key's JSON field (`h` in kJ/kg, `rh` in %); null for a missing or non-finite figure. */
+export function jsonFigure(key: JsonKey, si: number | null | undefined): number | null {
+  const json: NonNullable<KeySpec['json']> = keySpec(key).json!;
+  if (si === null || si === undefined || !Number.isFinite(si)) return null;
+  return (si * (json.times ?? 1)) / (json.over ?? 1);
+}
+
+/** The JSON field name of a key. */
+export function jsonName(key: JsonKey): string {
+  return keySpec(key).json!.name;
+}

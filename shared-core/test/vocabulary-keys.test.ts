@@ -1,0 +1,106 @@
+/**
+ * The key table (`src/vocabulary/keys.ts`) is the one home of every key: each example it gives
+ * parses, is evaluated without a key or unit problem, and is written in a unit of the key's own
+ * dimension; the per-statement key sets, hint keys, hover rows and parser messages are read from
+ * it (so a message can no longer suggest `shr=24C`).
+ */
+import { describe, expect, it } from 'vitest';
+import { analyzeNote } from '../src/analyze';
+import { MIX_KEYS, PROCESS_KEYS, SITE_KEYS, STATE_KEYS } from '../src/evaluate/keys';
+import { parseNote } from '../src/notation/parse';
+import type { PropertyNode, Statement } from '../src/notation/ast';
+import { STATE_ROWS } from '../src/service/format';
+import { HINT_KEYS } from '../src/service/types';
+import { lookupUnit } from '../src/units';
+import { KEYS, type KeySpec, type KeyStatement } from '../src/vocabulary/keys';
+
+/** A note that writes `example` where a key of `statement` goes (A and B are defined states). */
+function noteWith(statement: KeyStatement, example: string): string {
+  const pair = /^(db|rh)=/.test(example) ? 'wb=17C dp=12C' : 'db=24C rh=50%';
+  const line = {
+    state: `state X: ${pair} ${example}`,
+    mix: `mix X: A 40% + B 60% ${example}`,
+    site: `site: ${example}`,
+    process: `process X: A -> B ${example}`,
+  }[statement];
+  // The flow keys need no flow beside them; the other process keys get one.
+  const flow = statement === 'process' && !/^(m|q)=/.test(example) ? ' m=2kg/s' : '';
+  return ['```air', 'state A: db=30C rh=40%', 'state B: db=20C rh=50%', `${line}${flow}`, '```', ''].join('\n');
+}
+
+function propsOf(st: Statement): PropertyNode[] {
+  return 'props' in st ? st.props : [];
+}
+
+const written = KEYS.flatMap((k) => k.in.flatMap((statement) => k.examples.map((example) => [k.key, statement, example, k] as const)));
+
+describe('the key table', () => {
+  it('has one row per key, and every key that can be written has examples', () => {
+    const keys = KEYS.map((k) => k.key);
+    expect(new Set(keys).size).toBe(keys.length);
+    for (const k of KEYS) {
+      if (k.kind === 'computed') expect(k.in, k.key).toEqual([]);
+      else expect(k.examples.length, `${k.key} has an example`).toBeGreaterThan(0);
+      for (const e of k.examples) expect(e.startsWith(`${k.key}=`), e).toBe(true);
+    }
+    expect(written.length).toBeGreaterThan(20);
+  });
+
+  it.each(written)("%s: the example in a %s line, '%s', parses with a unit of the key's dimension", (key, statement, example, spec: KeySpec) => {
+    const parsed = parseNote(noteWith(statement, example));
+    expect(parsed.diagnostics).toEqual([]);
+    const st = parsed.statements[2]!;
+    const prop = propsOf(st).find((p) => p.key === key);
+    expect(prop?.value, `${example} is read as a value of ${key}`).toBeTruthy();
+    const unit = prop!.value!.unit;
+    if (unit === null) expect(spec.bare, `${example} has no unit, so a bare number must be allowed`).toBe('si');
+    else expect(lookupUnit(unit.text)?.dimension, `${unit.text} measures ${spec.dimension}`).toBe(spec.dimension);
+  });
+
+  it.each(written)('%s: the example in a %s line, %s, is evaluated without a key or unit problem', (_key, statement, example) => {
+    const a = analyzeNote(noteWith(statement, example));
+    const codes = a.diagnostics.map((d) => d.code);
+    for (const bad of ['unknown-key', 'unknown-unit', 'missing-unit', 'duplicate-key', 'syntax']) expect(codes, example).not.toContain(bad);
+  });
+
+  it('gives each statement the keys it takes, in table order', () => {
+    expect(Object.keys(STATE_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'p', 'elev']);
+    expect(Object.keys(MIX_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v']);
+    expect(Object.keys(SITE_KEYS)).toEqual(['p', 'elev']);
+    expect(Object.keys(PROCESS_KEYS)).toEqual(['m', 'q', 'q_total', 'q_sensible', 'q_latent', 'q_coil', 'shr', 'water']);
+  });
+
+  it('gives the hint keys and the hover rows in their order', () => {
+    expect([...HINT_KEYS]).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'rho']);
+    expect(STATE_ROWS.map((r) => [r.key, r.label, r.dimension])).toEqual([
+      ['db', 'dry-bulb', 'temperature'],
+      ['wb', 'wet-bulb', 'temperature'],
+      ['dp', 'dew point', 'temperature'],
+      ['rh', 'relative humidity', 'fraction'],
+      ['w', 'humidity ratio', 'humidityRatio'],
+      ['h', 'enthalpy', 'enthalpy'],
+      ['v', 'specific volume', 'specificVolume'],
+      ['rho', 'density (moist air)', 'density'],
+      ['pw', 'vapour pressure', 'pressure'],
+      ['mu', 'degree of saturation', 'fraction'],
+    ]);
+  });
+});
+
+describe("the parser's examples come from the table", () => {
+  const message = (line: string) => parseNote(['```air', line, '```', ''].join('\n')).diagnostics.map((d) => d.message);
+
+  // These said "e.g. shr=24C" and "e.g. water=24C": the parser kept its own list, which lacked them.
+  it.each([
+    ['process P: A -> B shr=', 'e.g. shr=0.73'],
+    ['process P: A -> B m=2kg/s water=', 'e.g. water=38kg/h'],
+    ['process P: A -> B m=2kg/s q_total=abc', 'e.g. q_total=98kW'],
+    ['state S: db=24C rh=50% v=', 'e.g. v=0.854m3/kg'],
+    ['state S: db=24C h=', 'e.g. h=47.8kJ/kg'],
+  ])('%s → %s', (line, says) => {
+    const got = message(line);
+    expect(got.length).toBe(1);
+    expect(got[0]).toContain(says);
+    expect(got[0]).not.toMatch(/=24C\b/);
+  });
+});
