@@ -19,6 +19,7 @@ import { Diagnostics } from './diagnostics';
 import { NoteStore } from './documents';
 import { registerHover } from './hover';
 import { registerInlayHints } from './inlayHints';
+import { ShutdownGate } from './lifecycle';
 import { registerNavigation } from './navigation';
 import { registerNoteStatus } from './noteStatus';
 import { EXECUTE_COMMANDS, registerResultsTable } from './resultsTable';
@@ -71,7 +72,9 @@ export function main(argv: readonly string[]): void {
     return;
   }
 
-  const connection = createConnection();
+  const gate = new ShutdownGate();
+  const connection = createConnection(gate.options);
+  gate.register(connection);
   const config = new Configuration(connection);
   const notes = new NoteStore(config);
   const ctx: ServerContext = {

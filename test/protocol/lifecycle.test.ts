@@ -66,6 +66,33 @@ describe('initialize', () => {
     }
   });
 
+  it('answers requests after shutdown with InvalidRequest, then exits 0 on exit (LSP 3.17)', async () => {
+    const s = startServer();
+    try {
+      await s.initialize(PUSH_ONLY_CAPABILITIES);
+      const uri = 'file:///life/after-shutdown.md';
+      await s.open(uri, '```air\nstate RA: db=24C rh=50%\n```\n');
+      expect(await s.request('shutdown', undefined)).toBeNull();
+      for (const [method, params] of [
+        ['textDocument/hover', { textDocument: { uri }, position: { line: 1, character: 7 } }],
+        ['textDocument/documentSymbol', { textDocument: { uri } }],
+        ['shutdown', undefined],
+      ] as const) {
+        const err = await s.request(method, params).then(
+          () => null,
+          (e: { code?: number; message?: string }) => e,
+        );
+        expect(err?.code, method).toBe(-32600); // InvalidRequest
+        expect(err?.message).toContain(`'${method}' is not accepted after 'shutdown'`);
+      }
+      const exited = new Promise<number | null>((resolve) => s.proc.on('exit', (code) => resolve(code)));
+      await s.connection.sendNotification('exit');
+      expect(await exited).toBe(0);
+    } finally {
+      s.kill();
+    }
+  });
+
   it('exits with code 1 on exit without shutdown (LSP 3.17 exit notification)', async () => {
     const s = startServer();
     try {
