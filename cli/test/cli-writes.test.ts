@@ -61,6 +61,12 @@ beforeAll(() => {
   symlinkSync('other.md', join(dir, 'to-other.html'));
   symlinkSync('not-there.md', join(dir, 'to-nothing.svg'));
   symlinkSync('out', join(dir, 'outlink'));
+  // Chains of 12 links (more than a hand-written walk of 8 followed): to a note that does not
+  // exist yet (a write would create it), to an existing note, and a loop.
+  for (let i = 0; i < 12; i++) symlinkSync(i === 11 ? 'created-by-chain.md' : `chain${i + 1}.svg`, join(dir, `chain${i}.svg`));
+  for (let i = 0; i < 12; i++) symlinkSync(i === 11 ? 'other.md' : `old-chain${i + 1}.html`, join(dir, `old-chain${i}.html`));
+  symlinkSync('loop-b.svg', join(dir, 'loop-a.svg'));
+  symlinkSync('loop-a.svg', join(dir, 'loop-b.svg'));
 }, 120_000);
 
 afterAll(() => {
@@ -135,6 +141,11 @@ describe('refusals write nothing (exit 2, with the reason)', () => {
     [['report', 'note.md', '-o', 'to-other.html'], /a link to .*other\.md.*Markdown/],
     [['chart', 'note.md', '-o', 'to-nothing.svg'], /a link to .*not-there\.md.*Markdown/],
     [['report', '-', '-o', 'piped.md'], /Markdown file name/],
+    // Every Markdown-family ending, in any case (a new file or an existing note).
+    ...['notes.mdwn', 'notes.mkdown', 'page.mdx', 'analysis.qmd', 'analysis.Rmd', 'x.MDTXT', 'book.livemd'].map((o) => [['chart', 'note.md', '-o', o], /Markdown file name/] as [string[], RegExp]),
+    [['chart', 'note.md', '-o', 'chain0.svg'], /a link to .*created-by-chain\.md.*Markdown/],
+    [['report', 'note.md', '-o', 'old-chain0.html'], /a link to .*other\.md.*Markdown/],
+    [['chart', 'note.md', '-o', 'loop-a.svg'], /more than 40 symbolic links \(or a loop of them\)/],
     [['chart', 'note.md', '-o', 'out'], /it is a folder/],
     [['chart', 'note.md', '-o', 'missing-folder/chart.svg'], /its folder does not exist/],
     [['report', 'note.md', 'other.md', '-o', 'two.html'], /too many arguments/],

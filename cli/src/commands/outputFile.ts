@@ -3,7 +3,7 @@
  * output path given — never the note itself, never a Markdown file.
  */
 import { lstatSync, readlinkSync, realpathSync, statSync, writeFileSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
+import { basename, dirname, join, resolve } from 'node:path';
 import { analyzeNote, type Analysis } from '../core';
 import { STDIN_PATH, collectInputs, decodeText, readInput } from '@dewmark/files';
 import type { CliIO } from '../run';
@@ -26,8 +26,26 @@ export interface WriteOptions extends RawEvalOptions {
   exclude?: string[];
 }
 
-/** Markdown endings that a generated file must never be written to. */
-const MARKDOWN = /\.(md|markdown|mdown|mkd|mkdn)$/i;
+/**
+ * The one list of Markdown-family file endings (lower case, without the dot) that a generated file
+ * must never be written to: Markdown's own, its common spellings, and the formats built on it
+ * (MDX, Quarto, R Markdown, Livebook).
+ */
+export const MARKDOWN_FAMILY_EXTENSIONS: readonly string[] = [
+  'md', 'markdown', 'mdown', 'mkd', 'mkdn', 'mkdown', 'mdwn', 'mdtxt', 'mdtext', 'markdn', 'mdx', 'qmd', 'rmd', 'livemd',
+];
+
+const MARKDOWN_FAMILY = new Set(MARKDOWN_FAMILY_EXTENSIONS);
+
+/** Whether a file name ends in a Markdown-family extension (any letter case). */
+export function isMarkdownFamilyName(path: string): boolean {
+  const name = basename(path);
+  const dot = name.lastIndexOf('.');
+  return dot > 0 && MARKDOWN_FAMILY.has(name.slice(dot + 1).toLowerCase());
+}
+
+/** The most symbolic links one path may pass through (Linux's own limit, MAXSYMLINKS). */
+const MAX_LINKS = 40;
 
 /**
  * Checks the output path against the input: refuses a missing `-o`, the note itself (same path,
@@ -51,31 +69,50 @@ export function checkOutputPath(output: string | undefined, input: { abs: string
     }
     if (same) throw new UsageError(`refusing to write the ${what} over the note '${input.path}' itself; give another path with -o, e.g. ${example}`);
   }
-  const real = writtenPath(abs);
-  if (MARKDOWN.test(abs) || MARKDOWN.test(real)) {
-    const via = MARKDOWN.test(abs) ? '' : ` (a link to '${real}')`;
+  const real = writtenPath(abs, output);
+  if (isMarkdownFamilyName(abs) || isMarkdownFamilyName(real)) {
+    const via = isMarkdownFamilyName(abs) ? '' : ` (a link to '${real}')`;
     throw new UsageError(`refusing to write the ${what} to '${output}'${via}: it is a Markdown file name, and dewmark never overwrites notes; use a name such as ${example}`);
   }
   return abs;
 }
 
-/** The file a write to `abs` would change: through symbolic links, also dangling ones (whose target it would create). */
-function writtenPath(abs: string): string {
+/**
+ * The file a write to `abs` would change, resolved the way the kernel opens it: an existing path
+ * through `realpath` itself; otherwise its folder through `realpath` and the last name followed
+ * while it is a link to nothing yet (a write creates that link's target), as far as the kernel
+ * would follow (refused beyond, as the kernel's open would fail).
+ */
+function writtenPath(abs: string, shown: string): string {
   try {
-    return realpathSync(abs);
-  } catch {
-    // Does not exist, or a link to nothing: follow the links by hand (at most a few).
-    let p = abs;
-    for (let i = 0; i < 8; i++) {
-      try {
-        if (!lstatSync(p).isSymbolicLink()) return p;
-        p = resolve(dirname(p), readlinkSync(p));
-      } catch {
-        return p;
-      }
-    }
-    return p;
+    return realpathSync.native(abs);
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'ELOOP') throw tooManyLinks(shown);
   }
+  let p = abs;
+  for (let hops = 0; hops <= MAX_LINKS; hops++) {
+    let dir: string;
+    try {
+      dir = realpathSync.native(dirname(p));
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code === 'ELOOP') throw tooManyLinks(shown);
+      return p; // its folder does not exist: the write fails and creates nothing
+    }
+    const full = join(dir, basename(p));
+    let link: string;
+    try {
+      if (!lstatSync(full).isSymbolicLink()) return full;
+      link = readlinkSync(full);
+    } catch {
+      return full; // nothing there yet: the write creates exactly this file
+    }
+    p = resolve(dir, link);
+  }
+  throw tooManyLinks(shown);
+}
+
+function tooManyLinks(shown: string): UsageError {
+  return new UsageError(`refusing to write to '${shown}': it leads through more than ${MAX_LINKS} symbolic links (or a loop of them); give the path of a plain file with -o`);
 }
 
 /** Reads exactly one note (a file or `-` for standard input) and analyses it; throws {@link UsageError}. */
