@@ -276,6 +276,9 @@ async function checkWorkspace(ctl: ServerController): Promise<void> {
         let text = `Dewmark: checked ${plural(r.notes.length, 'note')} with statements (${plural(r.filesRead, 'Markdown file')} read): ${plural(r.errors, 'error')}, ${plural(r.warnings, 'warning')}.`;
         if (r.unreadable.length > 0) text += ` ${plural(r.unreadable.length, 'file')} could not be read (see Output → Dewmark).`;
         for (const u of r.unreadable) ctl.client.warn(`could not read ${u.uri}: ${u.reason}`);
+        const skipped = r.skippedFolders ?? [];
+        if (skipped.length > 0) text += ` ${plural(skipped.length, 'workspace folder')} skipped (see Output → Dewmark).`;
+        for (const f of skipped) ctl.client.warn(`skipped the workspace folder ${f.uri}: ${f.reason}`);
         return text;
       } catch (err) {
         if (token.isCancellationRequested) return null;

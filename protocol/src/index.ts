@@ -33,6 +33,8 @@ export interface CheckWorkspaceResult {
   warnings: number;
   /** Files that could not be read (binary, not UTF-8, …), with the reason. */
   unreadable: { uri: string; reason: string }[];
+  /** Workspace folders not searched (not on this machine's file system), with the reason. */
+  skippedFolders: { uri: string; reason: string }[];
 }
 
 /** Method of the note-status request: unit system and pressure basis of one open note. */

@@ -41,6 +41,20 @@ async function notesUnder(folders: string[], token: CancellationToken): Promise<
   }
 }
 
+/**
+ * The local path of a workspace folder, or why it is skipped: only `file:` URIs of this machine
+ * can be read (not another host's `file://host/…`, not a virtual or remote scheme).
+ */
+export function localFolderPath(uri: string): string | { reason: string } {
+  const scheme = /^([a-z][a-z0-9+.-]*):/i.exec(uri)?.[1]?.toLowerCase();
+  if (scheme !== 'file') return { reason: `not a folder on this machine's disk (${scheme ? `'${scheme}:'` : 'no'} scheme); only file: folders are checked` };
+  try {
+    return fileURLToPath(uri);
+  } catch (err) {
+    return { reason: `not a local path (${err instanceof Error ? err.message : String(err)}); only folders on this machine are checked` };
+  }
+}
+
 /** Registers the check-all request. */
 export function registerCheckWorkspace(ctx: ServerContext, diagnostics: Diagnostics): void {
   ctx.connection.onRequest(CHECK_WORKSPACE_METHOD, (params: CheckWorkspaceParams | undefined, token: CancellationToken) =>
@@ -51,13 +65,16 @@ export function registerCheckWorkspace(ctx: ServerContext, diagnostics: Diagnost
       else progress = ctx.connection.window.attachWorkDoneProgress(undefined);
       progress.begin('Dewmark: checking notes', 0, 'finding Markdown files', false);
       try {
-        const found = await notesUnder(
-          ctx.folders.filter((f) => f.startsWith('file:')).map((f) => fileURLToPath(f)),
-          token,
-        );
+        const result: CheckWorkspaceResult = { notes: [], filesRead: 0, errors: 0, warnings: 0, unreadable: [], skippedFolders: [] };
+        const local: string[] = [];
+        for (const folder of ctx.folders) {
+          const path = localFolderPath(folder);
+          if (typeof path === 'string') local.push(path);
+          else result.skippedFolders.push({ uri: folder, reason: path.reason });
+        }
+        const found = await notesUnder(local, token);
         if (found === null) throw cancelled();
         const files = found.files;
-        const result: CheckWorkspaceResult = { notes: [], filesRead: 0, errors: 0, warnings: 0, unreadable: [] };
         for (const p of found.problems) result.unreadable.push({ uri: pathToFileURL(p.path).href, reason: p.message });
         for (let i = 0; i < files.length; i++) {
           if (token.isCancellationRequested) throw cancelled();

@@ -97,3 +97,27 @@ describe('check all notes in the workspace', () => {
     }
   });
 });
+
+describe('check all with folders that are not on this machine', () => {
+  it('skips a file://host/… folder and a virtual folder (saying why) and checks the rest', async () => {
+    const root = mkdtempSync(join(tmpdir(), 'dewmark-ws-odd-'));
+    dirs.push(root);
+    writeFileSync(join(root, 'ahu.md'), '```air\nstate A: db=24 rh=50%\n```\n');
+    const s = startServer();
+    try {
+      const local = pathToFileURL(root).href;
+      const folders = ['file://fileserver/share/notes', 'vscode-vfs://github/owner/repo', local];
+      await s.initialize(FULL_CAPABILITIES, { workspaceFolders: folders.map((uri, i) => ({ uri, name: `f${i}` })) });
+      const result = await s.request<{ notes: { uri: string }[]; filesRead: number; errors: number; skippedFolders: { uri: string; reason: string }[] }>('dewmark/checkWorkspace', {});
+      expect(result.filesRead).toBe(1);
+      expect(result.notes.map((n) => n.uri)).toEqual([`${local}/ahu.md`]);
+      expect(result.errors).toBe(1); // missing-unit
+      expect(result.skippedFolders.map((f) => f.uri)).toEqual(folders.slice(0, 2));
+      expect(result.skippedFolders[0]!.reason).toMatch(/not a local path .*only folders on this machine are checked/);
+      expect(result.skippedFolders[1]!.reason).toContain("not a folder on this machine's disk ('vscode-vfs:' scheme)");
+      expect(await s.shutdown()).toBe(0);
+    } finally {
+      s.kill();
+    }
+  });
+});
