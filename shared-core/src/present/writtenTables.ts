@@ -35,6 +35,24 @@ const END_RE = /^<!--\s*dewmark-results\s+end\s*-->\s*$/;
 /** Any line that mentions the marker word in a comment (a damaged or foreign marker). */
 const ANY_MARKER_RE = /^<!--\s*dewmark-results\b/;
 const FENCE_RE = /^ {0,3}(`{3,}|~{3,})/;
+/** A line that opens a list item (CommonMark bullet or ordered marker), up to three columns in. */
+const LIST_ITEM_RE = /^( {0,3})([-+*]|\d{1,9}[.)])(?:[ \t]|$)/;
+
+/**
+ * Columns of leading indentation (a tab to the next multiple of four). A marker indented four
+ * columns or more is in an indented code block (or a paragraph), not an HTML comment of the
+ * container: it does not count.
+ */
+function indentColumns(s: string): number {
+  let col = 0;
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c === 32) col++;
+    else if (c === 9) col += 4 - (col % 4);
+    else break;
+  }
+  return col;
+}
 
 /** The start marker for a table whose normalized contents have checksum `hash`. */
 export function resultsStartMarker(hash: string): string {
@@ -170,17 +188,23 @@ export function tableSlots(text: string, regions: readonly AirRegion[]): TableSl
     const table: WrittenTable = { region, start: { start: first.offset, end: first.offset + startText.length }, end: null, writtenHash: m[1]!, body: [] };
     slot.table = table;
     const body: string[] = [];
+    // The smallest content column of a list item opened inside the table: a line indented that
+    // far may belong to the item, so a marker there is not in the fence's container.
+    let listColumn = Infinity;
     for (line = lineAt(text, line.next); line.start < text.length && line.start < limit; line = lineAt(text, line.next)) {
       const c = inside(text, line, prefix);
       if (!c) return;
       const t = c.content.trim();
-      if (END_RE.test(t)) {
+      const indent = indentColumns(c.content);
+      if (END_RE.test(t) && indent < 4 && indent < listColumn) {
         const at = c.offset + c.content.indexOf('<');
         table.end = { start: at, end: at + t.length };
         table.body = body;
         return;
       }
       if (ANY_MARKER_RE.test(t) || FENCE_RE.test(c.content)) return;
+      const item = LIST_ITEM_RE.exec(c.content);
+      if (item) listColumn = Math.min(listColumn, indent + item[2]!.length + 1);
       body.push(c.content);
     }
   });
@@ -230,10 +254,23 @@ export function tableState(analysis: Analysis, table: WrittenTable, system?: Uni
   return checksum(written) === table.writtenHash ? 'results-changed' : 'edited';
 }
 
-function lineNo(text: string, offset: number): number {
-  let n = 1;
-  for (let i = text.indexOf('\n'); i >= 0 && i < offset; i = text.indexOf('\n', i + 1)) n++;
-  return n;
+/**
+ * 1-based line numbers of increasing offsets, counted by one cursor moving forward through the
+ * text (so numbering every table of a note costs one pass, not one pass per table).
+ */
+class ForwardLines {
+  private at = 0;
+  private line = 1;
+  constructor(private readonly text: string) {}
+
+  /** The line of `offset`; offsets must not decrease between calls. */
+  of(offset: number): number {
+    for (let i = this.text.indexOf('\n', this.at); i >= 0 && i < offset; i = this.text.indexOf('\n', i + 1)) {
+      this.line++;
+      this.at = i + 1;
+    }
+    return this.line;
+  }
 }
 
 const RUN = `Run "${RESULTS_COMMAND_TITLE}" (or the code action "Refresh the results table") to rewrite it`;
@@ -245,12 +282,13 @@ const RUN = `Run "${RESULTS_COMMAND_TITLE}" (or the code action "Refresh the res
 export function staleTableDiagnostics(analysis: Analysis, text: string): CoreDiagnostic[] {
   if (!text.includes(RESULTS_MARKER_WORD)) return [];
   const out: CoreDiagnostic[] = [];
+  const lines = new ForwardLines(text);
   for (const slot of tableSlots(text, analysis.parsed.regions)) {
     const table = slot.table;
     if (!table) continue;
     const state = tableState(analysis, table);
     if (state === 'fresh') continue;
-    const where = `the results table below the air block at line ${lineNo(text, slot.region.span.start)}`;
+    const where = `the results table below the air block at line ${lines.of(slot.region.span.start)}`;
     let message: string;
     switch (state) {
       case 'unterminated':
