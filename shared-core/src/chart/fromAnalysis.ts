@@ -16,21 +16,50 @@ export interface FromAnalysisOptions {
   title?: string;
 }
 
-/** 1-based line of a UTF-16 offset in `text`. */
-function lineOf(text: string | undefined, offset: number): number | undefined {
-  if (text === undefined) return undefined;
-  let line = 1;
-  const end = Math.min(offset, text.length);
-  for (let i = 0; i < end; i++) if (text.charCodeAt(i) === 10) line++;
-  return line;
+/** 1-based lines of offsets in a note: the `\n` positions found once, each look-up a binary search. */
+function lineFinder(text: string | undefined): (offset: number) => number | undefined {
+  if (text === undefined) return () => undefined;
+  const breaks: number[] = [];
+  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) breaks.push(i);
+  return (offset) => {
+    const end = Math.min(offset, text.length);
+    // The number of line breaks before `end`.
+    let lo = 0;
+    let hi = breaks.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (breaks[mid]! < end) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo + 1;
+  };
+}
+
+/**
+ * The diagnostics inside a statement's span: a binary search into the note's diagnostics (in
+ * document order), then only those that start inside the span are looked at.
+ */
+function diagnosticFinder(analysis: Analysis): (span: Span) => CoreDiagnostic[] {
+  const all = analysis.diagnostics;
+  let sorted = true;
+  for (let i = 1; i < all.length && sorted; i++) if (all[i - 1]!.span.start > all[i]!.span.start) sorted = false;
+  if (!sorted) return (span) => all.filter((d) => within(d.span, span));
+  return (span) => {
+    let lo = 0;
+    let hi = all.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (all[mid]!.span.start < span.start) lo = mid + 1;
+      else hi = mid;
+    }
+    const out: CoreDiagnostic[] = [];
+    for (let i = lo; i < all.length && all[i]!.span.start <= span.end; i++) if (within(all[i]!.span, span)) out.push(all[i]!);
+    return out;
+  };
 }
 
 function within(inner: Span, outer: Span): boolean {
   return inner.start >= outer.start && inner.end <= outer.end;
-}
-
-function diagnosticsOf(analysis: Analysis, span: Span): CoreDiagnostic[] {
-  return analysis.diagnostics.filter((d) => within(d.span, span));
 }
 
 /**
@@ -70,11 +99,12 @@ export function chartDataFromAnalysis(analysis: Analysis, options: FromAnalysisO
   const mixes: ChartMix[] = [];
   const processes: ChartProcess[] = [];
   const infeasible: ChartInfeasible[] = [];
-  const src = options.source;
+  const lineOf = lineFinder(options.source);
+  const diagnosticsOf = diagnosticFinder(analysis);
   for (const item of analysis.items) {
     const span = item.statement.span;
-    const line = lineOf(src, span.start);
-    const diags = diagnosticsOf(analysis, span);
+    const line = lineOf(span.start);
+    const diags = diagnosticsOf(span);
     if (item.kind === 'process') {
       const pr = item as ProcessResult;
       processes.push({
@@ -126,7 +156,7 @@ export function chartDataFromAnalysis(analysis: Analysis, options: FromAnalysisO
   const evaluated = new Set(analysis.items.filter((i) => i.kind === 'process').map((i) => i.statement.span.start));
   for (const st of analysis.parsed.statements) {
     if (st.keyword !== 'process' || evaluated.has(st.span.start) || !st.name || !st.from || !st.to) continue;
-    const line = lineOf(src, st.span.start);
+    const line = lineOf(st.span.start);
     processes.push({ name: st.name.text, from: st.from.text, to: st.to.text, flagged: true, ...(line !== undefined ? { line } : {}) });
   }
   const pressure = notePressure(analysis);

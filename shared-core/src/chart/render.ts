@@ -15,7 +15,8 @@ import {
   type ChartCurve,
 } from './curves';
 import { chartLayout, chartUnits, niceStep, stepsIn, toPixel } from './layout';
-import { placeLabels, textWidth, type Box } from './labels';
+import { Grid } from './grid';
+import { NEAR_LIMIT, placeLabels, textWidth, type Box, type PlacedLabel, type PlacementStats } from './labels';
 import { chartCss } from './style';
 import type { ChartData, ChartFamilies, ChartLayout, ChartOptions, ChartPoint, Pixel } from './types';
 
@@ -60,26 +61,17 @@ interface Ctx {
   out: string[];
 }
 
-/** Label of a family line at one end of its visible part; skipped when it would collide. */
-function familyLabel(
-  ctx: Ctx,
-  taken: Box[],
-  text: string,
-  cls: string,
-  at: Pixel,
-  anchor: 'start' | 'end' | 'middle',
-  dy: number,
-): boolean {
+/** Whether a family line's label fits at `at` (inside the plot, clear of the others); takes its place if so. */
+function familyLabelFits(layout: ChartLayout, taken: Box[], text: string, at: Pixel, anchor: 'start' | 'end' | 'middle', dy: number): boolean {
   const w = textWidth(text, 10);
   const x0 = anchor === 'start' ? at.x : anchor === 'end' ? at.x - w : at.x - w / 2;
   const box: Box = { x: x0 - 2, y: at.y + dy - 9, w: w + 4, h: 12 };
-  const { plot } = ctx.layout;
+  const { plot } = layout;
   if (box.x < plot.left || box.x + box.w > plot.right || box.y < plot.top || box.y + box.h > plot.bottom) return false;
   for (const t of taken) {
     if (box.x < t.x + t.w && t.x < box.x + box.w && box.y < t.y + t.h && t.y < box.y + box.h) return false;
   }
   taken.push(box);
-  ctx.out.push(`<text class="dmc-lbl ${cls}" x="${n(at.x)}" y="${n(at.y + dy)}" text-anchor="${anchor}">${escapeXml(text)}</text>`);
   return true;
 }
 
@@ -289,17 +281,69 @@ function legend(ctx: Ctx, y: number): void {
 
 const ALL_FAMILIES: ChartFamilies = { rh: true, wetBulb: true, enthalpy: true, volume: true };
 
-/**
- * Renders a chart from plain data (SI). Returns one `<svg>` element as text, with its own
- * stylesheet, `<title>` and `<desc>`. Markers carry `data-name`, `data-kind`, `data-db` (°C) and
- * `data-w` (kg/kg) so tests and hosts can find them.
- */
-export function renderChartFromData(data: ChartData, options: ChartOptions = {}): string {
+/** A process arrow as drawn: from just outside one marker to just outside the other. */
+interface Arrow {
+  process: ChartData['processes'][number];
+  start: Pixel;
+  tip: Pixel;
+  /** Where the head meets the shaft. */
+  base: Pixel;
+  ux: number;
+  uy: number;
+}
+
+/** Everything the chart measures before anything is placed: sizes, curves and pixel positions. */
+interface Measured {
+  data: ChartData;
+  /** The layout with the full height (plot, legend, captions and flags). */
+  layout: ChartLayout;
+  id: string;
+  title: string;
+  nonce: string;
+  captions: string[];
+  flags: string[];
+  legendY: number;
+  captionY: number;
+  flagsY: number;
+  sat: ChartCurve;
+  vLines: ChartCurve[];
+  hLines: ChartCurve[];
+  wbLines: ChartCurve[];
+  rh: ChartCurve[];
+  /** Each plotted point once (the first of a name), with its pixel. */
+  plotted: { p: ChartPoint; px: Pixel }[];
+  /** Mixing line runs, by mix name. */
+  mixRuns: { name: string; run: Pixel[] }[];
+  arrows: Arrow[];
+  /** The mixing lines and arrows as straight pieces (labels keep off them). */
+  segments: [Pixel, Pixel][];
+  /** One name per pair of states joined by arrows ("CC, CC_sched"), placed beside the first arrow. */
+  arrowNames: { text: string; start: Pixel; tip: Pixel }[];
+}
+
+/** A family line's label as placed. */
+interface FamilyText {
+  text: string;
+  cls: string;
+  at: Pixel;
+  anchor: 'start' | 'end' | 'middle';
+  dy: number;
+}
+
+/** Where every label went. */
+interface Placed {
+  family: FamilyText[];
+  tags: PlacedLabel[];
+  markers: Box[];
+  names: { text: string; box: Box }[];
+}
+
+/** Measure: the layout and its height, the curves, and every point, line and arrow in pixels. */
+function measureChart(data: ChartData, options: ChartOptions): Measured {
   const layout = chartLayout(data, options);
   const id = (options.idPrefix ?? 'dmc').replace(/[^A-Za-z0-9_-]/g, '') || 'dmc';
   const families = { ...ALL_FAMILIES, ...(options.families ?? {}) };
   const { plot } = layout;
-  const u = chartUnits(data.units);
 
   // Caption block below the plot: legend, caption lines, flagged items.
   const captions = captionLines(data).flatMap((l) => wrap(l, Math.floor((layout.width - plot.left - 20) / 6)));
@@ -311,103 +355,29 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
   y += captions.length * 15;
   const flagsY = y + 6;
   if (flags.length > 0) y = flagsY + 16 + flags.length * 15;
-  const height = Math.ceil(y + 12);
-  const full: ChartLayout = { ...layout, height };
+  const full: ChartLayout = { ...layout, height: Math.ceil(y + 12) };
 
-  const ctx: Ctx = { layout: full, id, out: [] };
-  const out = ctx.out;
-  const title = options.title ?? data.title ?? 'Psychrometric chart';
-  out.push(
-    `<svg xmlns="http://www.w3.org/2000/svg" class="dmc" role="img" aria-labelledby="${id}-title ${id}-desc" width="${full.width}" height="${height}" viewBox="0 0 ${full.width} ${height}" data-pressure-pa="${n(data.pressurePa)}" data-units="${data.units}" data-db-min="${layout.range.dbMin}" data-db-max="${layout.range.dbMax}" data-w-min="${layout.range.wMin}" data-w-max="${layout.range.wMax}" data-plot="${plot.left} ${plot.top} ${plot.right} ${plot.bottom}">`,
-  );
-  out.push(`<title id="${id}-title">${escapeXml(title)}</title>`);
-  out.push(`<desc id="${id}-desc">${escapeXml(describe(data, layout))}</desc>`);
-  const nonce = options.styleNonce && /^[A-Za-z0-9+/=_-]+$/.test(options.styleNonce) ? ` nonce="${options.styleNonce}"` : '';
-  out.push(`<style${nonce}>${chartCss()}</style>`);
-  out.push(`<defs><clipPath id="${id}-clip"><rect x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/></clipPath></defs>`);
-  out.push(`<rect class="dmc-page" x="0" y="0" width="${full.width}" height="${height}"/>`);
-  out.push(`<text class="dmc-heading" x="${n(plot.left)}" y="24">${escapeXml(title)}</text>`);
-  out.push(
-    `<text class="dmc-sub" x="${n(plot.left)}" y="41">${escapeXml(`${formatQuantity(data.pressurePa, 'pressure', data.units).text} \u00b7 ${data.units} \u00b7 dry-bulb against humidity ratio`)}</text>`,
-  );
-  out.push(`<rect class="dmc-panel" x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/>`);
-
-  const sat = saturationCurve(layout);
-  out.push(`<g clip-path="url(#${id}-clip)">`);
-  fogRegion(ctx, sat);
-  out.push('</g>');
-  axes(ctx);
-
-  const vLines = families.volume ? volumeLines(layout) : [];
-  const hLines = families.enthalpy ? enthalpyLines(layout) : [];
-  const wbLines = families.wetBulb ? wetBulbLines(layout) : [];
-  const rh = families.rh ? rhCurves(layout) : [];
-  out.push(`<g class="dmc-lines" clip-path="url(#${id}-clip)">`);
-  drawCurves(ctx, vLines, () => 'dmc-v');
-  drawCurves(ctx, hLines, () => 'dmc-h');
-  drawCurves(ctx, wbLines, () => 'dmc-wb');
-  drawCurves(ctx, rh, (c) => `dmc-rh dmc-rh-${c.value}`);
-  drawCurves(ctx, [sat], () => 'dmc-sat');
-  out.push('</g>');
-
-  // Line labels: rh and saturation at their upper end, wet-bulb at saturation (in the fog
-  // region), enthalpy at their lower-right end, volume above the dry-bulb axis.
-  const taken: Box[] = [];
-  out.push('<g class="dmc-line-labels">');
-  const upperEnd = (c: ChartCurve, text: string, cls: string): void => {
-    const p = lastPoint(c);
-    if (!p) return;
-    if (p.y <= plot.top + 1) {
-      // Exits through the top: beside the curve just below the edge, or further down the curve.
-      for (const q of [p, ...pointsBack(c, [22, 44, 66])]) {
-        if (familyLabel(ctx, taken, text, cls, { x: q.x + 4, y: Math.max(q.y, plot.top) }, 'start', 12)) return;
-      }
-    } else {
-      for (const q of [p, ...pointsBack(c, [30, 60])]) {
-        if (familyLabel(ctx, taken, text, cls, { x: Math.min(q.x, plot.right) - 4, y: q.y }, 'end', -4)) return;
-      }
-    }
-  };
-  upperEnd(sat, '100%', 'dmc-lbl-sat');
-  for (const c of rh) upperEnd(c, `${c.value}%`, 'dmc-lbl-rh');
-  for (const c of wbLines) {
-    const p = firstPoint(c);
-    if (p && p.x > plot.left + 1 && p.y > plot.top + 1) familyLabel(ctx, taken, label(c.value), 'dmc-lbl-wb', { x: p.x - 3, y: p.y }, 'end', -3);
-  }
-  for (const c of hLines) {
-    const p = lastPoint(c);
-    if (!p) continue;
-    if (p.x >= plot.right - 1) familyLabel(ctx, taken, label(c.value), 'dmc-lbl-h', { x: plot.right - 4, y: p.y }, 'end', 12);
-    else if (p.y >= plot.bottom - 1) familyLabel(ctx, taken, label(c.value), 'dmc-lbl-h', { x: p.x + 3, y: plot.bottom }, 'start', -4);
-  }
-  for (const c of vLines) {
-    const p = lastPoint(c);
-    if (p && p.y >= plot.bottom - 1) familyLabel(ctx, taken, label(c.value), 'dmc-lbl-v', { x: p.x - 3, y: plot.bottom }, 'end', -16);
-  }
-  out.push('</g>');
-
-  // Mixing lines, processes, points and their labels.
   const pos = new Map<string, { p: ChartPoint; px: Pixel }>();
   for (const p of data.points) {
     if (!pos.has(p.name)) pos.set(p.name, { p, px: toPixel(layout, p.db, p.w) });
   }
   const segments: [Pixel, Pixel][] = [];
-  /** Process names to place once the state tags are placed. */
-  const nameRequests: { key: string; text: string; start: Pixel; tip: Pixel }[] = [];
-  out.push(`<g class="dmc-overlay" clip-path="url(#${id}-clip)">`);
+  const mixRuns: { name: string; run: Pixel[] }[] = [];
   for (const m of data.mixes) {
     const mixed = pos.get(m.name);
     const streams = m.streams.map((s) => pos.get(s));
     if (!mixed || streams.some((s) => !s)) continue;
     const ends = streams.length === 2 ? [[streams[0]!, streams[1]!]] : streams.map((s) => [s!, mixed]);
     for (const [a, b] of ends) {
-      const runs = mixingLine(layout, a!.p, b!.p);
-      for (const run of runs) {
-        out.push(`<path class="dmc-mixline" data-mix="${escapeXml(m.name)}" d="${pathOf(run)}"/>`);
+      for (const run of mixingLine(layout, a!.p, b!.p)) {
+        mixRuns.push({ name: m.name, run });
         for (let i = 1; i < run.length; i++) segments.push([run[i - 1]!, run[i]!]);
       }
     }
   }
+  const arrows: Arrow[] = [];
+  const arrowNames: { text: string; start: Pixel; tip: Pixel }[] = [];
+  const nameOfPair = new Map<string, { text: string; start: Pixel; tip: Pixel }>();
   for (const pr of data.processes) {
     const a = pos.get(pr.from);
     const b = pos.get(pr.to);
@@ -422,39 +392,209 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
     const start = len > 2 * gap + 4 ? { x: a.px.x + ux * gap, y: a.px.y + uy * gap } : a.px;
     const tip = len > 2 * gap + 4 ? { x: b.px.x - ux * gap, y: b.px.y - uy * gap } : b.px;
     const head = 10;
-    const base = { x: tip.x - ux * head, y: tip.y - uy * head };
+    arrows.push({ process: pr, start, tip, base: { x: tip.x - ux * head, y: tip.y - uy * head }, ux, uy });
+    // Processes between the same two states share one arrow name ("CC, CC_sched").
+    const key = `${pr.from}\u0000${pr.to}`;
+    const same = nameOfPair.get(key);
+    if (same) same.text += `, ${pr.name}`;
+    else {
+      const entry = { text: pr.name, start, tip };
+      nameOfPair.set(key, entry);
+      arrowNames.push(entry);
+    }
+    segments.push([start, tip]);
+  }
+  return {
+    data,
+    layout: full,
+    id,
+    title: options.title ?? data.title ?? 'Psychrometric chart',
+    nonce: options.styleNonce && /^[A-Za-z0-9+/=_-]+$/.test(options.styleNonce) ? ` nonce="${options.styleNonce}"` : '',
+    captions,
+    flags,
+    legendY,
+    captionY,
+    flagsY,
+    sat: saturationCurve(layout),
+    vLines: families.volume ? volumeLines(layout) : [],
+    hLines: families.enthalpy ? enthalpyLines(layout) : [],
+    wbLines: families.wetBulb ? wetBulbLines(layout) : [],
+    rh: families.rh ? rhCurves(layout) : [],
+    plotted: [...pos.values()],
+    mixRuns,
+    arrows,
+    segments,
+    arrowNames,
+  };
+}
+
+/** The text of a state's tag. */
+function tagText(p: ChartPoint): string {
+  return p.fog ? `${p.name} \u00b7 fog` : p.name;
+}
+
+/**
+ * Place: the family lines' labels (rh and saturation at their upper end, wet-bulb at saturation,
+ * enthalpy at their lower-right end, volume above the dry-bulb axis), then the state tags, then
+ * the process names beside their arrows, clear of the tags, the points and each other.
+ */
+function placeChart(m: Measured, stats?: PlacementStats): Placed {
+  const { plot } = m.layout;
+  const family: FamilyText[] = [];
+  const taken: Box[] = [];
+  const tryLabel = (text: string, cls: string, at: Pixel, anchor: FamilyText['anchor'], dy: number): boolean => {
+    if (!familyLabelFits(m.layout, taken, text, at, anchor, dy)) return false;
+    family.push({ text, cls, at, anchor, dy });
+    return true;
+  };
+  const upperEnd = (c: ChartCurve, text: string, cls: string): void => {
+    const p = lastPoint(c);
+    if (!p) return;
+    if (p.y <= plot.top + 1) {
+      // Exits through the top: beside the curve just below the edge, or further down the curve.
+      for (const q of [p, ...pointsBack(c, [22, 44, 66])]) {
+        if (tryLabel(text, cls, { x: q.x + 4, y: Math.max(q.y, plot.top) }, 'start', 12)) return;
+      }
+    } else {
+      for (const q of [p, ...pointsBack(c, [30, 60])]) {
+        if (tryLabel(text, cls, { x: Math.min(q.x, plot.right) - 4, y: q.y }, 'end', -4)) return;
+      }
+    }
+  };
+  upperEnd(m.sat, '100%', 'dmc-lbl-sat');
+  for (const c of m.rh) upperEnd(c, `${c.value}%`, 'dmc-lbl-rh');
+  for (const c of m.wbLines) {
+    const p = firstPoint(c);
+    if (p && p.x > plot.left + 1 && p.y > plot.top + 1) tryLabel(label(c.value), 'dmc-lbl-wb', { x: p.x - 3, y: p.y }, 'end', -3);
+  }
+  for (const c of m.hLines) {
+    const p = lastPoint(c);
+    if (!p) continue;
+    if (p.x >= plot.right - 1) tryLabel(label(c.value), 'dmc-lbl-h', { x: plot.right - 4, y: p.y }, 'end', 12);
+    else if (p.y >= plot.bottom - 1) tryLabel(label(c.value), 'dmc-lbl-h', { x: p.x + 3, y: plot.bottom }, 'start', -4);
+  }
+  for (const c of m.vLines) {
+    const p = lastPoint(c);
+    if (p && p.y >= plot.bottom - 1) tryLabel(label(c.value), 'dmc-lbl-v', { x: p.x - 3, y: plot.bottom }, 'end', -16);
+  }
+
+  const markers: Box[] = m.plotted.map(({ px }) => ({ x: px.x - MARKER_RADIUS - 2, y: px.y - MARKER_RADIUS - 2, w: 2 * MARKER_RADIUS + 4, h: 2 * MARKER_RADIUS + 4 }));
+  const tags = placeLabels(
+    m.plotted.map(({ p, px }) => ({ anchor: px, width: textWidth(tagText(p), 11) + 12, height: 18 })),
+    markers,
+    m.segments,
+    plot,
+    stats,
+  );
+
+  const blocked = new Grid(plot, stats);
+  const blockedBoxes: Box[] = [];
+  const block = (b: Box): void => {
+    blockedBoxes.push(b);
+    blocked.addBox(b);
+  };
+  for (const b of markers) block(b);
+  for (const t of tags) block(t.box);
+  const names: { text: string; box: Box }[] = [];
+  for (const r of m.arrowNames) {
+    const dx = r.tip.x - r.start.x;
+    const dy = r.tip.y - r.start.y;
+    const len = Math.hypot(dx, dy) || 1;
+    const w = textWidth(r.text, 10.5);
+    let chosen: Box | null = null;
+    for (const [t, off] of [[0.5, 12], [0.35, 12], [0.65, 12], [0.2, 12], [0.8, 12], [0.5, 24], [0.5, 38], [0.5, 54]] as const) {
+      for (const side of [1, -1]) {
+        const cx = r.start.x + dx * t + (side * dy * off) / len;
+        const cy = r.start.y + dy * t - (side * dx * off) / len;
+        const box: Box = { x: cx - w / 2, y: cy - 7, w, h: 13 };
+        if (stats) stats.candidates++;
+        const inside = box.x >= plot.left && box.y >= plot.top && box.x + box.w <= plot.right && box.y + box.h <= plot.bottom;
+        if (!inside) continue;
+        // A spot with more boxes near it than the look-up weighs is taken (it is crowded).
+        const near = blocked.near(box, NEAR_LIMIT);
+        const free = !near.crowded && near.items.every((i) => {
+          const b = blockedBoxes[i]!;
+          return box.x >= b.x + b.w || b.x >= box.x + box.w || box.y >= b.y + b.h || b.y >= box.y + box.h;
+        });
+        if (free) {
+          chosen = box;
+          break;
+        }
+      }
+      if (chosen) break;
+    }
+    if (!chosen) {
+      const cx = r.start.x + dx / 2 + (dy * 12) / len;
+      const cy = r.start.y + dy / 2 - (dx * 12) / len;
+      chosen = { x: cx - w / 2, y: cy - 7, w, h: 13 };
+    }
+    block(chosen);
+    names.push({ text: r.text, box: chosen });
+  }
+  return { family, tags, markers, names };
+}
+
+/** Draw: the SVG text of a measured and placed chart. */
+function drawChart(m: Measured, placed: Placed): string {
+  const { data, layout: full, id } = m;
+  const { plot } = full;
+  const height = full.height;
+  const ctx: Ctx = { layout: full, id, out: [] };
+  const out = ctx.out;
+  const range = full.range;
+  out.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" class="dmc" role="img" aria-labelledby="${id}-title ${id}-desc" width="${full.width}" height="${height}" viewBox="0 0 ${full.width} ${height}" data-pressure-pa="${n(data.pressurePa)}" data-units="${data.units}" data-db-min="${range.dbMin}" data-db-max="${range.dbMax}" data-w-min="${range.wMin}" data-w-max="${range.wMax}" data-plot="${plot.left} ${plot.top} ${plot.right} ${plot.bottom}">`,
+  );
+  out.push(`<title id="${id}-title">${escapeXml(m.title)}</title>`);
+  out.push(`<desc id="${id}-desc">${escapeXml(describe(data, full))}</desc>`);
+  out.push(`<style${m.nonce}>${chartCss()}</style>`);
+  out.push(`<defs><clipPath id="${id}-clip"><rect x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/></clipPath></defs>`);
+  out.push(`<rect class="dmc-page" x="0" y="0" width="${full.width}" height="${height}"/>`);
+  out.push(`<text class="dmc-heading" x="${n(plot.left)}" y="24">${escapeXml(m.title)}</text>`);
+  out.push(
+    `<text class="dmc-sub" x="${n(plot.left)}" y="41">${escapeXml(`${formatQuantity(data.pressurePa, 'pressure', data.units).text} \u00b7 ${data.units} \u00b7 dry-bulb against humidity ratio`)}</text>`,
+  );
+  out.push(`<rect class="dmc-panel" x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/>`);
+
+  out.push(`<g clip-path="url(#${id}-clip)">`);
+  fogRegion(ctx, m.sat);
+  out.push('</g>');
+  axes(ctx);
+
+  out.push(`<g class="dmc-lines" clip-path="url(#${id}-clip)">`);
+  drawCurves(ctx, m.vLines, () => 'dmc-v');
+  drawCurves(ctx, m.hLines, () => 'dmc-h');
+  drawCurves(ctx, m.wbLines, () => 'dmc-wb');
+  drawCurves(ctx, m.rh, (c) => `dmc-rh dmc-rh-${c.value}`);
+  drawCurves(ctx, [m.sat], () => 'dmc-sat');
+  out.push('</g>');
+
+  out.push('<g class="dmc-line-labels">');
+  for (const f of placed.family) {
+    out.push(`<text class="dmc-lbl ${f.cls}" x="${n(f.at.x)}" y="${n(f.at.y + f.dy)}" text-anchor="${f.anchor}">${escapeXml(f.text)}</text>`);
+  }
+  out.push('</g>');
+
+  out.push(`<g class="dmc-overlay" clip-path="url(#${id}-clip)">`);
+  for (const r of m.mixRuns) out.push(`<path class="dmc-mixline" data-mix="${escapeXml(r.name)}" d="${pathOf(r.run)}"/>`);
+  for (const { process: pr, start, tip, base, ux, uy } of m.arrows) {
     const flagged = pr.flagged ? ' dmc-flagged' : '';
     out.push(`<g class="dmc-process-group" data-process="${escapeXml(pr.name)}" data-from="${escapeXml(pr.from)}" data-to="${escapeXml(pr.to)}">`);
     out.push(`<path class="dmc-process${flagged}" d="M${n(start.x)} ${n(start.y)}L${n(base.x)} ${n(base.y)}"/>`);
     out.push(
       `<path class="${pr.flagged ? 'dmc-arrow-flag' : 'dmc-arrow'}" d="M${n(tip.x)} ${n(tip.y)}L${n(base.x - uy * 4.5)} ${n(base.y + ux * 4.5)}L${n(base.x + uy * 4.5)} ${n(base.y - ux * 4.5)}Z"/>`,
     );
-    // Processes between the same two states share one arrow name ("CC, CC_sched").
-    const key = `${pr.from}\u0000${pr.to}`;
-    const same = nameRequests.find((r) => r.key === key);
-    if (same) same.text += `, ${pr.name}`;
-    else nameRequests.push({ key, text: pr.name, start, tip });
     out.push('</g>');
-    segments.push([start, tip]);
   }
   out.push('</g>');
 
-  const plotted = [...pos.values()];
-  const tagText = (p: ChartPoint): string => (p.fog ? `${p.name} \u00b7 fog` : p.name);
-  const markers: Box[] = plotted.map(({ px }) => ({ x: px.x - MARKER_RADIUS - 2, y: px.y - MARKER_RADIUS - 2, w: 2 * MARKER_RADIUS + 4, h: 2 * MARKER_RADIUS + 4 }));
-  const placed = placeLabels(
-    plotted.map(({ p, px }) => ({ anchor: px, width: textWidth(tagText(p), 11) + 12, height: 18 })),
-    markers,
-    segments,
-    plot,
-  );
   out.push('<g class="dmc-points">');
-  plotted.forEach(({ p, px }, i) => {
+  m.plotted.forEach(({ p, px }, i) => {
     const kind = pointClass(p);
     const where = positionText(p, data.units);
     out.push(`<g class="dmc-point" data-name="${escapeXml(p.name)}">`);
     out.push(`<title>${escapeXml(`${p.kind === 'mix' ? 'mix' : 'state'} ${p.name}: ${where}${p.fog ? ' \u2014 fog region (infeasible as vapour)' : ''}`)}</title>`);
-    const lp = placed[i]!;
+    const lp = placed.tags[i]!;
     if (lp.leader) {
       const bx = Math.max(lp.box.x, Math.min(px.x, lp.box.x + lp.box.w));
       const by = Math.max(lp.box.y, Math.min(px.y, lp.box.y + lp.box.h));
@@ -477,51 +617,35 @@ export function renderChartFromData(data: ChartData, options: ChartOptions = {})
   });
   out.push('</g>');
 
-  // Process names beside their arrows, clear of the tags, the points and each other.
-  const blocked: Box[] = [...markers, ...placed.map((l) => l.box)];
   out.push('<g class="dmc-process-names">');
-  for (const r of nameRequests) {
-    const dx = r.tip.x - r.start.x;
-    const dy = r.tip.y - r.start.y;
-    const len = Math.hypot(dx, dy) || 1;
-    const w = textWidth(r.text, 10.5);
-    let chosen: Box | null = null;
-    for (const [t, off] of [[0.5, 12], [0.35, 12], [0.65, 12], [0.2, 12], [0.8, 12], [0.5, 24], [0.5, 38], [0.5, 54]] as const) {
-      for (const side of [1, -1]) {
-        const cx = r.start.x + dx * t + (side * dy * off) / len;
-        const cy = r.start.y + dy * t - (side * dx * off) / len;
-        const box: Box = { x: cx - w / 2, y: cy - 7, w, h: 13 };
-        const inside = box.x >= plot.left && box.y >= plot.top && box.x + box.w <= plot.right && box.y + box.h <= plot.bottom;
-        const free = blocked.every((b) => box.x >= b.x + b.w || b.x >= box.x + box.w || box.y >= b.y + b.h || b.y >= box.y + box.h);
-        if (inside && free) {
-          chosen = box;
-          break;
-        }
-      }
-      if (chosen) break;
-    }
-    if (!chosen) {
-      const cx = r.start.x + dx / 2 + (dy * 12) / len;
-      const cy = r.start.y + dy / 2 - (dx * 12) / len;
-      chosen = { x: cx - w / 2, y: cy - 7, w, h: 13 };
-    }
-    blocked.push(chosen);
-    out.push(`<text class="dmc-process-name" x="${n(chosen.x + chosen.w / 2)}" y="${n(chosen.y + 10)}" text-anchor="middle">${escapeXml(r.text)}</text>`);
+  for (const { text, box } of placed.names) {
+    out.push(`<text class="dmc-process-name" x="${n(box.x + box.w / 2)}" y="${n(box.y + 10)}" text-anchor="middle">${escapeXml(text)}</text>`);
   }
   out.push('</g>');
 
-  legend(ctx, legendY);
-  captions.forEach((line, i) => {
-    out.push(`<text class="dmc-caption" data-caption="${i}" x="${n(plot.left)}" y="${n(captionY + i * 15)}">${escapeXml(line)}</text>`);
+  legend(ctx, m.legendY);
+  m.captions.forEach((line, i) => {
+    out.push(`<text class="dmc-caption" data-caption="${i}" x="${n(plot.left)}" y="${n(m.captionY + i * 15)}">${escapeXml(line)}</text>`);
   });
-  if (flags.length > 0) {
-    out.push(`<g class="dmc-flags"><text class="dmc-flag-title" x="${n(plot.left)}" y="${n(flagsY + 4)}">Flagged</text>`);
-    flags.forEach((line, i) => {
-      out.push(`<text class="dmc-flag-item" x="${n(plot.left + 12)}" y="${n(flagsY + 20 + i * 15)}">${escapeXml(line)}</text>`);
+  if (m.flags.length > 0) {
+    out.push(`<g class="dmc-flags"><text class="dmc-flag-title" x="${n(plot.left)}" y="${n(m.flagsY + 4)}">Flagged</text>`);
+    m.flags.forEach((line, i) => {
+      out.push(`<text class="dmc-flag-item" x="${n(plot.left + 12)}" y="${n(m.flagsY + 20 + i * 15)}">${escapeXml(line)}</text>`);
     });
     out.push('</g>');
   }
-  void u;
   out.push('</svg>');
   return out.join('\n');
+}
+
+/**
+ * Renders a chart from plain data (SI). Returns one `<svg>` element as text, with its own
+ * stylesheet, `<title>` and `<desc>`. Markers carry `data-name`, `data-kind`, `data-db` (°C) and
+ * `data-w` (kg/kg) so tests and hosts can find them. Three steps: measure (layout, curves,
+ * pixels), place (labels, near-linear), draw (the SVG text). `stats`, when given, counts the
+ * placement's work (for the cost tests and the benchmark).
+ */
+export function renderChartFromData(data: ChartData, options: ChartOptions = {}, stats?: PlacementStats): string {
+  const measured = measureChart(data, options);
+  return drawChart(measured, placeChart(measured, stats));
 }
