@@ -3,10 +3,10 @@
  * notes (or more warnings than --max-warnings), 2 usage or I/O problems.
  */
 import { Command, CommanderError, Option } from 'commander';
-import { STDIN_PATH, collectInputs, decodeText, explainEmpty } from '@dewmark/files';
+import { BINARY_SNIFF, DEFAULT_MAX_NOTE_BYTES, DEFAULT_MAX_NOTE_MB, STDIN_PATH, collectInputs, decodeText, explainEmpty } from '@dewmark/files';
 import { summaryLine, type Counts } from './output';
 import { runTasks, type FileOutput, type Mode, type Task } from './work';
-import { UsageError, toSettings, type RawEvalOptions } from './settings';
+import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from './settings';
 import { registerChart } from './commands/chart';
 import { registerReport } from './commands/report';
 import type { DiagnosticJson } from './output';
@@ -24,8 +24,8 @@ export interface CliIO {
   cwd: string;
   out: (text: string) => void;
   err: (text: string) => void;
-  /** Standard input as bytes (read only when `-` is given). */
-  stdin: () => Promise<Uint8Array>;
+  /** Standard input as bytes (read only when `-` is given), at most `maxBytes` + 1 of them. */
+  stdin: (maxBytes?: number) => Promise<Uint8Array>;
   /** Whether stderr is a terminal (progress is shown only then). */
   stderrIsTTY: boolean;
 }
@@ -54,6 +54,7 @@ interface Totals {
  */
 async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mode, onFile: (out: FileOutput) => void): Promise<Totals> {
   const settings = toSettings(opts);
+  const maxBytes = maxNoteBytes(opts);
   const { inputs, problems, empty } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false, exclude: opts.exclude ?? [] });
   const totals: Totals = { files: 0, counts: { errors: 0, warnings: 0, infos: 0 }, ioProblems: 0 };
   for (const p of problems) {
@@ -63,10 +64,10 @@ async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mo
   const tasks: Task[] = [];
   for (const input of inputs) {
     if (input.abs !== null) {
-      tasks.push({ input });
+      tasks.push({ input, maxBytes });
       continue;
     }
-    const read = decodeText(await io.stdin(), STDIN_PATH);
+    const read = decodeText(await io.stdin(maxBytes), STDIN_PATH, maxBytes);
     if (read.ok) tasks.push({ input, text: read.text });
     else {
       io.err(`dewmark: ${safeText(read.message)}\n`);
@@ -185,6 +186,7 @@ function addCommon(cmd: Command): Command {
     .addOption(new Option('--pressure <value>', 'default barometric pressure with its unit, e.g. 84.5kPa (a note\'s site: line wins)').conflicts('elevation'))
     .addOption(new Option('--elevation <value>', 'default site elevation with its unit, e.g. 1600m (standard atmosphere)'))
     .option('--no-claims', 'do not compare written claims with computed values')
+    .addOption(new Option('--max-note-size <MB>', `the most one note may be, in MB (default ${DEFAULT_MAX_NOTE_MB}); a larger file is not read (exit 2)`))
     .option('--no-gitignore', 'also read files that .gitignore or .git/info/exclude leave out of folders and globs')
     .addOption(
       new Option('--exclude <pattern>', 'leave files and folders matching this glob out of folders and globs (repeatable; a bare name matches at any depth)').argParser(
@@ -274,14 +276,25 @@ export function processIO(): CliIO {
     cwd: process.cwd(),
     out: (t) => process.stdout.write(t),
     err: (t) => process.stderr.write(t),
-    stdin: () => (stdinBytes ??= readStdin()),
+    stdin: (maxBytes) => (stdinBytes ??= readStdin(maxBytes)),
     stderrIsTTY: process.stderr.isTTY === true,
   };
 }
 
-/** Reads all of standard input as bytes. */
-export async function readStdin(): Promise<Uint8Array> {
+/**
+ * Reads standard input as bytes, stopping early: after the first bytes when they hold a NUL
+ * (binary: no need to read on), and past `maxBytes` (the caller's `decodeText` then says it is
+ * too large). So `dewmark check - < /dev/zero` ends at once.
+ */
+export async function readStdin(maxBytes: number = DEFAULT_MAX_NOTE_BYTES): Promise<Uint8Array> {
   const chunks: Buffer[] = [];
-  for await (const chunk of process.stdin) chunks.push(typeof chunk === 'string' ? Buffer.from(chunk) : (chunk as Buffer));
-  return Buffer.concat(chunks);
+  let total = 0;
+  for await (const chunk of process.stdin) {
+    const b = typeof chunk === 'string' ? Buffer.from(chunk) : (chunk as Buffer);
+    chunks.push(b);
+    const sniffed = total < BINARY_SNIFF && b.subarray(0, BINARY_SNIFF - total).includes(0);
+    total += b.length;
+    if (sniffed || total > maxBytes) break;
+  }
+  return Buffer.concat(chunks, total);
 }

@@ -1,6 +1,7 @@
 /** Reading the CLI's evaluation options (`--units`, `--pressure`, `--elevation`, `--no-claims`). */
 import type { EvaluateSettings, UnitSystem } from './core';
 import { lookupUnit, stdAtmPressure, toSI } from './core';
+import { DEFAULT_MAX_NOTE_BYTES } from '@dewmark/files';
 
 /** A usage error: the message says what is wrong with which option and how to write it. */
 export class UsageError extends Error {
@@ -16,6 +17,19 @@ export interface RawEvalOptions {
   pressure?: string;
   elevation?: string;
   claims?: boolean;
+  /** `--max-note-size`: the most one note may be, in MB. */
+  maxNoteSize?: string;
+}
+
+/** The most bytes one note may be: `--max-note-size` (MB), or the default. Throws {@link UsageError}. */
+export function maxNoteBytes(o: RawEvalOptions): number {
+  if (o.maxNoteSize === undefined) return DEFAULT_MAX_NOTE_BYTES;
+  const text = o.maxNoteSize.trim().replace(/\s*MB$/i, '');
+  const v = /^(\d+(\.\d+)?)$/.test(text) ? Number(text) : NaN;
+  if (!(v > 0) || v > 1_000_000) {
+    throw new UsageError(`--max-note-size must be a size in MB greater than 0, e.g. --max-note-size 64 (got '${o.maxNoteSize}')`);
+  }
+  return Math.floor(v * 1024 * 1024);
 }
 
 /** Splits `84.5kPa` / `1600 m` into the number and the unit. */

@@ -25,6 +25,8 @@ export interface FileOutput {
 export interface Task {
   input: Input;
   text?: string;
+  /** The most bytes the file may be (--max-note-size); the default when absent. */
+  maxBytes?: number;
 }
 
 /** The outcome of one task. */
@@ -63,7 +65,7 @@ export function renderFile(mode: Mode, display: string, text: string, settings: 
 
 /** Reads (unless the text is given) and renders one task; never throws. */
 export function runTask(task: Task, mode: Mode, settings: Partial<EvaluateSettings>): TaskResult {
-  const read = task.text !== undefined ? { ok: true as const, text: task.text } : task.input.abs === null ? decodeText(new Uint8Array(), STDIN_PATH) : readInput(task.input);
+  const read = task.text !== undefined ? { ok: true as const, text: task.text } : task.input.abs === null ? decodeText(new Uint8Array(), STDIN_PATH) : readInput(task.input, task.maxBytes);
   if (!read.ok) return { ok: false, message: read.message };
   try {
     return { ok: true, out: renderFile(mode, task.input.display, read.text, settings) };

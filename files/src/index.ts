@@ -1,10 +1,10 @@
 /**
  * `@dewmark/files` (Node only): which files are notes — paths, folders (recursive), globs, `-`
  * for standard input, ignore files, `--exclude` (see `select.ts`) — and reading them as UTF-8
- * text with clear errors for missing, unreadable, binary and non-UTF-8 files. The command line
+ * text with clear errors for missing, unreadable, binary, non-UTF-8 and too large files. The command line
  * and the language server's "check all notes" both use it, so they read the same notes the same way.
  */
-import { readFileSync } from 'node:fs';
+import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
 import type { Input } from './select';
 
 export {
@@ -27,12 +27,40 @@ export {
 export type ReadOutcome = { ok: true; text: string } | { ok: false; message: string };
 
 /** Bytes looked at for a NUL byte when deciding whether a file is binary. */
-const BINARY_SNIFF = 8000;
+export const BINARY_SNIFF = 8000;
 
-/** Decodes bytes as UTF-8 text; a NUL byte means binary, an invalid sequence means not UTF-8. */
-export function decodeText(bytes: Uint8Array, display: string): ReadOutcome {
+/** The most one note may be by default, MB (raised with --max-note-size). */
+export const DEFAULT_MAX_NOTE_MB = 8;
+
+/** The default most bytes one note may be. */
+export const DEFAULT_MAX_NOTE_BYTES = DEFAULT_MAX_NOTE_MB * 1024 * 1024;
+
+function mb(bytes: number): string {
+  const v = bytes / 1024 / 1024;
+  return `${v >= 10 ? Math.round(v) : Number(v.toFixed(1))} MB`;
+}
+
+function binary(display: string): ReadOutcome {
+  return { ok: false, message: `'${display}' is a binary file, not a Markdown note; leave it out of the paths or globs` };
+}
+
+/** The message for a note over the size limit (`size` when known: a regular file). */
+function tooLarge(display: string, size: number | null, maxBytes: number): ReadOutcome {
+  const is = size === null ? `goes on past ${mb(maxBytes)}` : `is ${mb(size)}`;
+  return {
+    ok: false,
+    message: `'${display}' ${is}, more than the ${mb(maxBytes)} one note may be (so reading it cannot exhaust memory); split the note, or raise the limit with --max-note-size <MB>, e.g. --max-note-size ${Math.max(DEFAULT_MAX_NOTE_MB * 2, Math.ceil((size ?? 2 * maxBytes) / 1024 / 1024) + 1)}`,
+  };
+}
+
+/**
+ * Decodes bytes as UTF-8 text; a NUL byte in the first 8000 means binary, more than `maxBytes`
+ * is too large (checked in that order), an invalid sequence means not UTF-8.
+ */
+export function decodeText(bytes: Uint8Array, display: string, maxBytes: number = DEFAULT_MAX_NOTE_BYTES): ReadOutcome {
   const sniff = bytes.subarray(0, Math.min(bytes.length, BINARY_SNIFF));
-  if (sniff.includes(0)) return { ok: false, message: `'${display}' is a binary file, not a Markdown note; leave it out of the paths or globs` };
+  if (sniff.includes(0)) return binary(display);
+  if (bytes.length > maxBytes) return tooLarge(display, null, maxBytes);
   try {
     return { ok: true, text: new TextDecoder('utf-8', { fatal: true }).decode(bytes) };
   } catch {
@@ -61,16 +89,66 @@ export function firstInvalidUtf8(b: Uint8Array): number {
   return i;
 }
 
-/** Reads a file input as text (standard input is read by the caller). */
-export function readInput(input: Input): ReadOutcome {
+/** Bytes read per call when the size is not known in advance (a device, a pipe). */
+const CHUNK = 1 << 16;
+
+/**
+ * Reads a file input as text (standard input is read by the caller), never more than `maxBytes`
+ * + 1 bytes: the first bytes are sniffed for binary content before anything else is read, a
+ * regular file's size is checked before its contents are read, and a device or pipe (which has
+ * no size: `/dev/zero`, a FIFO) is read in chunks only up to the limit.
+ */
+export function readInput(input: Input, maxBytes: number = DEFAULT_MAX_NOTE_BYTES): ReadOutcome {
   if (input.abs === null) return { ok: false, message: 'standard input must be read by the caller' };
-  let bytes: Buffer;
+  let fd: number;
   try {
-    bytes = readFileSync(input.abs);
+    fd = openSync(input.abs, 'r');
   } catch (err) {
-    const code = (err as NodeJS.ErrnoException).code;
-    const why = code === 'EACCES' ? 'permission denied' : code === 'EISDIR' ? 'it is a folder' : code === 'ENOENT' ? 'no such file' : (err as Error).message;
-    return { ok: false, message: `cannot read '${input.display}': ${why}` };
+    return cannotRead(input.display, err);
   }
-  return decodeText(bytes, input.display);
+  try {
+    const st = fstatSync(fd);
+    if (st.isDirectory()) return { ok: false, message: `cannot read '${input.display}': it is a folder` };
+    const head = Buffer.allocUnsafe(BINARY_SNIFF);
+    let got = 0;
+    while (got < BINARY_SNIFF) {
+      const n = readSync(fd, head, got, BINARY_SNIFF - got, null);
+      if (n === 0) break;
+      got += n;
+    }
+    if (head.subarray(0, got).includes(0)) return binary(input.display);
+    if (st.isFile() && st.size > maxBytes) return tooLarge(input.display, st.size, maxBytes);
+    if (got < BINARY_SNIFF) return decodeText(head.subarray(0, got), input.display, maxBytes);
+    // The rest: into one buffer of the known size for a regular file, else chunk by chunk.
+    const chunks: Buffer[] = [head];
+    let total = got;
+    let size = st.isFile() ? Math.max(CHUNK, st.size - got + 1) : CHUNK;
+    for (;;) {
+      const room = Math.min(size, maxBytes + 1 - total);
+      if (room <= 0) break;
+      const buf = Buffer.allocUnsafe(room);
+      let filled = 0;
+      while (filled < room) {
+        const n = readSync(fd, buf, filled, room - filled, null);
+        if (n === 0) break;
+        filled += n;
+      }
+      chunks.push(filled === room ? buf : buf.subarray(0, filled));
+      total += filled;
+      if (filled < room) break;
+      size = CHUNK;
+    }
+    if (total > maxBytes) return tooLarge(input.display, st.isFile() ? Math.max(st.size, total) : null, maxBytes);
+    return decodeText(chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, total), input.display, maxBytes);
+  } catch (err) {
+    return cannotRead(input.display, err);
+  } finally {
+    closeSync(fd);
+  }
+}
+
+function cannotRead(display: string, err: unknown): ReadOutcome {
+  const code = (err as NodeJS.ErrnoException).code;
+  const why = code === 'EACCES' ? 'permission denied' : code === 'EISDIR' ? 'it is a folder' : code === 'ENOENT' ? 'no such file' : (err as Error).message;
+  return { ok: false, message: `cannot read '${display}': ${why}` };
 }

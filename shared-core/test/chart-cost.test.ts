@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { chartDataFromAnalysis, renderChartFromData, type ChartData, type ChartPoint } from '../src/chart';
-import { analyzeNote } from '../src/evaluate';
+import { analyzeNote } from '../src/analyze';
 
 const P0 = 101_325; // ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0
 

@@ -5,7 +5,7 @@
  * the note, not one per table (work counted as string searches, never timed).
  */
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { analyzeNote } from '../src/evaluate';
+import { analyzeNote } from '../src/analyze';
 import { RESULTS_END_MARKER, STALE_RESULTS_TABLE, staleTableDiagnostics } from '../src/present/writtenTables';
 import { noteDiagnostics, resultsTableEdits } from '../src/service';
 import { applyEdits, noteOf } from './service-helpers';

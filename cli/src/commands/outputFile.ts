@@ -7,7 +7,7 @@ import { basename, dirname, join, resolve } from 'node:path';
 import { analyzeNote, type Analysis } from '../core';
 import { STDIN_PATH, collectInputs, decodeText, readInput } from '@dewmark/files';
 import type { CliIO } from '../run';
-import { UsageError, toSettings, type RawEvalOptions } from '../settings';
+import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from '../settings';
 
 /** One note read and analysed. */
 export interface AnalysedNote {
@@ -121,13 +121,14 @@ export async function readOneNote(paths: string[], opts: WriteOptions, io: CliIO
     throw new UsageError(`${command} takes exactly one note (got ${paths.length === 0 ? 'none' : paths.length}), e.g. dewmark ${command} notes/ahu.md -o …`);
   }
   const settings = toSettings(opts);
+  const maxBytes = maxNoteBytes(opts);
   const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false, exclude: opts.exclude ?? [] });
   if (problems.length > 0) throw new UsageError(problems.map((p) => p.message).join('; '));
   if (inputs.length !== 1) {
     throw new UsageError(`${command} takes exactly one note, but '${paths[0]}' names ${inputs.length === 0 ? 'no Markdown file' : `${inputs.length} files`}; name one file`);
   }
   const input = inputs[0]!;
-  const read = input.abs === null ? decodeText(await io.stdin(), STDIN_PATH) : readInput(input);
+  const read = input.abs === null ? decodeText(await io.stdin(maxBytes), STDIN_PATH, maxBytes) : readInput(input, maxBytes);
   if (!read.ok) throw new UsageError(read.message);
   return { path: input.display, abs: input.abs, text: read.text, analysis: analyzeNote(read.text, settings) };
 }
