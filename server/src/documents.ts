@@ -3,11 +3,16 @@
  * generation. A change drops the document's analysis; the next request or diagnostics run
  * computes it again from the synchronised text (never from disk), through the document's own
  * analyzer, which reuses what the edit did not touch (same result as a fresh analysis).
+ *
+ * A long analysis runs in slices of a few milliseconds with the event loop free in between, so
+ * other documents' requests, cancellations and edits are served while it runs; requests for the
+ * same version share one run, and a run whose document changed is dropped for the new text.
  */
+import { performance } from 'node:perf_hooks';
 import { TextDocuments, type Connection } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
 import { createAnalyzer, type Analyzer } from '@dewmark/core/analyze';
-import { analyzeTextWith, type Note } from '@dewmark/core/service';
+import { analyzeTextSteps, type Note } from '@dewmark/core/service';
 import type { Configuration } from './configuration';
 
 /** A document with its analysis. */
@@ -22,6 +27,21 @@ interface CacheEntry {
   note: Note;
 }
 
+/** An analysis in progress. */
+interface Running {
+  version: number;
+  generation: number;
+  result: Promise<NoteDocument | null>;
+}
+
+/** Work done before the event loop is given a turn, ms (short enough that a keystroke's request is not kept waiting). */
+const SLICE_MS = 8;
+
+/** The next turn of the event loop (I/O, timers and other requests first). */
+function nextTurn(): Promise<void> {
+  return new Promise((resolve) => setImmediate(resolve));
+}
+
 /** The open documents and their analyses. */
 export class NoteStore {
   /** The synchronised documents (listen() wires them to the connection). */
@@ -29,12 +49,14 @@ export class NoteStore {
   private readonly cache = new Map<string, CacheEntry>();
   /** One analyzer per open document: it keeps the document's previous analysis to reuse. */
   private readonly analyzers = new Map<string, Analyzer>();
+  private readonly running = new Map<string, Running>();
 
   constructor(private readonly config: Configuration) {
     this.documents.onDidChangeContent((e) => this.cache.delete(e.document.uri));
     this.documents.onDidClose((e) => {
       this.cache.delete(e.document.uri);
       this.analyzers.delete(e.document.uri);
+      this.running.delete(e.document.uri);
       this.config.forget(e.document.uri);
     });
     this.config.onDidChange(() => this.cache.clear());
@@ -67,13 +89,40 @@ export class NoteStore {
     if (!doc) return null;
     const again = this.cache.get(uri);
     if (again && again.version === doc.version && again.generation === generation) return { doc, note: again.note };
+    const busy = this.running.get(uri);
+    if (busy && busy.version === doc.version && busy.generation === generation) return busy.result;
+    const run: Running = { version: doc.version, generation, result: Promise.resolve(null) };
+    run.result = this.analyze(uri, doc, settings, run);
+    this.running.set(uri, run);
+    return run.result;
+  }
+
+  /** Runs the analysis of `doc` in slices; null when the document closed meanwhile. */
+  private async analyze(uri: string, doc: TextDocument, settings: Awaited<ReturnType<Configuration['get']>>, run: Running): Promise<NoteDocument | null> {
     let analyzer = this.analyzers.get(uri);
     if (!analyzer) {
       analyzer = createAnalyzer();
       this.analyzers.set(uri, analyzer);
     }
-    const note = analyzeTextWith(analyzer, doc.getText(), settings);
-    if (generation === this.config.generation) this.cache.set(uri, { version: doc.version, generation, note });
-    return { doc, note };
+    const steps = analyzeTextSteps(analyzer, doc.getText(), settings);
+    try {
+      for (;;) {
+        const until = performance.now() + SLICE_MS;
+        let r = steps.next();
+        while (!r.done && performance.now() < until) r = steps.next();
+        if (r.done) {
+          if (run.generation === this.config.generation) this.cache.set(uri, { version: run.version, generation: run.generation, note: r.value });
+          return { doc, note: r.value };
+        }
+        await nextTurn();
+        // Dropped when it is no longer the run for this document (changed, closed, settings changed).
+        if (this.running.get(uri) !== run || this.documents.get(uri)?.version !== run.version || this.config.generation !== run.generation) {
+          if (this.running.get(uri) === run) this.running.delete(uri);
+          return this.get(uri);
+        }
+      }
+    } finally {
+      if (this.running.get(uri) === run) this.running.delete(uri);
+    }
   }
 }

@@ -50,7 +50,19 @@ export async function noteForRequest(
   const before = ctx.notes.document(uri);
   if (!before) return null;
   const version = before.version;
-  const found = await ctx.notes.get(uri);
+  // A cancellation answers at once, also while a long analysis runs (it goes on for later requests).
+  let stop: { dispose(): void } | undefined;
+  const cancel = new Promise<'cancelled'>((resolve) => {
+    stop = token.onCancellationRequested(() => resolve('cancelled'));
+  });
+  let found: Awaited<ReturnType<ServerContext['notes']['get']>>;
+  try {
+    const first = await Promise.race([ctx.notes.get(uri), cancel]);
+    if (first === 'cancelled') throw cancelled();
+    found = first;
+  } finally {
+    stop?.dispose();
+  }
   if (token.isCancellationRequested) throw cancelled();
   if (!found) return null;
   if (found.doc.version !== version) {

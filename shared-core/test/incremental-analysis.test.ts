@@ -243,3 +243,42 @@ describe('incremental analysis (createAnalyzer)', () => {
     expect(a?.kind === 'state' ? a.pressure.elevationM : null).toBe(1300);
   });
 });
+
+describe('analysis in steps (what the language server drives between other requests)', () => {
+  it('equals analyzeNote, also after runs abandoned half-way (the text changed while it ran)', () => {
+    fc.assert(
+      fc.property(note, fc.integer({ min: 0, max: 3 }), fc.array(fc.tuple(edit, edit, fc.integer({ min: 0, max: 2 })), { minLength: 1, maxLength: 12 }), (start, base, steps) => {
+        const analyzer = createAnalyzer();
+        let text = start;
+        for (const [e, abandoned, pauses] of steps) {
+          // A run for an intermediate text, stopped after `pauses` pauses (0: right after it started).
+          const run = analyzer.analyzeSteps(apply(text, abandoned), SETTINGS[base]);
+          for (let i = 0; i <= pauses; i++) if (run.next().done) break;
+          text = apply(text, e);
+          const settings = settingsFor(base, e.settings);
+          const steps2 = analyzer.analyzeSteps(text, settings);
+          let r = steps2.next();
+          while (!r.done) r = steps2.next();
+          expect(r.value).toStrictEqual(analyzeNote(text, settings));
+        }
+      }),
+      { seed: 31337, numRuns: 60 },
+    );
+  });
+
+  it('pauses every few hundred statements of a long note', () => {
+    const lines = ['```air'];
+    for (let i = 0; i < 1000; i++) lines.push(`state S${i}: db=${20 + (i % 9)}C rh=${30 + (i % 40)}%`);
+    const text = `${lines.join('\n')}\n\`\`\`\n`;
+    const run = createAnalyzer().analyzeSteps(text);
+    let pauses = 0;
+    let r = run.next();
+    while (!r.done) {
+      pauses++;
+      r = run.next();
+    }
+    // One after parsing, then one per 256 statements evaluated (after 256, 512 and 768).
+    expect(pauses).toBe(4);
+    expect(r.value).toStrictEqual(analyzeNote(text));
+  });
+});

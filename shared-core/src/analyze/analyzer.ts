@@ -21,7 +21,7 @@ import { createNoteParser } from '../notation/incremental';
 import type { Span } from '../text/types';
 import { finishAnalysis } from './analyze';
 import type { EvalContext } from '../evaluate/context';
-import { evaluate, type DependentStatement, type EvaluateReuse } from '../evaluate/evaluate';
+import { evaluateSteps, type DependentStatement, type EvaluateReuse } from '../evaluate/evaluate';
 import { resolveSettings } from '../evaluate/settings';
 import type { Analysis, ClaimResult, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from '../evaluate/types';
 
@@ -29,6 +29,12 @@ import type { Analysis, ClaimResult, EvaluateSettings, EvaluatedItem, PressureBa
 export interface Analyzer {
   /** Parses and evaluates `text`: the same result as `analyzeNote(text, settings)`. Never throws. */
   analyze(text: string, settings?: Partial<EvaluateSettings>): Analysis;
+  /**
+   * {@link Analyzer.analyze} in steps: pauses after parsing and every few hundred statements,
+   * and returns the same analysis. A run that is not driven to its end changes nothing (the
+   * next run reuses the last finished one); only one run may be in progress at a time.
+   */
+  analyzeSteps(text: string, settings?: Partial<EvaluateSettings>): Generator<void, Analysis, void>;
   /** Forgets the previous run (the next analysis starts from scratch). */
   reset(): void;
 }
@@ -61,25 +67,30 @@ export function createAnalyzer(): Analyzer {
   let dependents = new Map<Statement, DependentEntry>();
   let solves = new Map<string, SolveResult>();
   let bases: PressureBasis[] = [];
+  function* analyzeSteps(text: string, settings?: Partial<EvaluateSettings>): Generator<void, Analysis, void> {
+    const resolved = resolveSettings(settings);
+    if (last && last.text === text && sameSettings(last.settings, resolved)) return last.analysis;
+    const fresh = !last || !sameSettings(last.settings, resolved);
+    const { parsed, origins, deltas } = parser.parse(text);
+    yield;
+    const reuse = fresh ? new Reuse(new Map(), new Map(), solves, [], origins, deltas) : new Reuse(states, dependents, solves, bases, origins, deltas);
+    const analysis = finishAnalysis(yield* evaluateSteps(parsed, settings, text, reuse), text);
+    states = reuse.nextStates;
+    dependents = reuse.nextDependents;
+    solves = reuse.nextSolves;
+    bases = reuse.nextBases;
+    last = { text, settings: resolved, analysis };
+    return analysis;
+  }
   return {
     analyze(text: string, settings?: Partial<EvaluateSettings>): Analysis {
-      const resolved = resolveSettings(settings);
-      if (last && last.text === text && sameSettings(last.settings, resolved)) return last.analysis;
-      if (!last || !sameSettings(last.settings, resolved)) {
-        states = new Map();
-        dependents = new Map();
-        bases = [];
+      const steps = analyzeSteps(text, settings);
+      for (;;) {
+        const r = steps.next();
+        if (r.done) return r.value;
       }
-      const { parsed, origins, deltas } = parser.parse(text);
-      const reuse = new Reuse(states, dependents, solves, bases, origins, deltas);
-      const analysis = finishAnalysis(evaluate(parsed, settings, text, reuse), text);
-      states = reuse.nextStates;
-      dependents = reuse.nextDependents;
-      solves = reuse.nextSolves;
-      bases = reuse.nextBases;
-      last = { text, settings: resolved, analysis };
-      return analysis;
     },
+    analyzeSteps,
     reset(): void {
       parser.reset();
       last = null;

@@ -112,6 +112,22 @@ export interface EvaluateReuse {
  * an analyzer that keeps its previous run (`createAnalyzer`); the result does not depend on it.
  */
 export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings>, text?: string, reuse?: EvaluateReuse): Analysis {
+  const steps = evaluateSteps(parsed, settings, text, reuse);
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+  }
+}
+
+/** Statements evaluated between two pauses of {@link evaluateSteps}. */
+export const STATEMENTS_PER_STEP = 256;
+
+/**
+ * {@link evaluate} in steps: a generator that pauses after every {@link STATEMENTS_PER_STEP}
+ * statements (so a caller, the language server, can serve other work in between) and returns
+ * the analysis. Driven to the end it is exactly `evaluate`.
+ */
+export function* evaluateSteps(parsed: ParsedNote, settings?: Partial<EvaluateSettings>, text?: string, reuse?: EvaluateReuse): Generator<void, Analysis, void> {
   const resolved = resolveSettings(settings);
   const ctx = new EvalContext(resolved, text);
   if (reuse) {
@@ -121,7 +137,9 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
   const statements = Array.isArray(parsed?.statements) ? parsed.statements : [];
   prescan(statements, ctx.allDefs);
 
-  statements.forEach((stmt, index) => {
+  for (let index = 0; index < statements.length; index++) {
+    if (index > 0 && index % STATEMENTS_PER_STEP === 0) yield;
+    const stmt = statements[index]!;
     try {
       switch (stmt.keyword) {
         case 'site':
@@ -164,7 +182,7 @@ export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings
         span: (stmt as Statement).span ?? { start: 0, end: 0 },
       });
     }
-  });
+  }
 
   const parseDiagnostics: CoreDiagnostic[] = Array.isArray(parsed?.diagnostics) ? parsed.diagnostics : [];
   const diagnostics = [...parseDiagnostics, ...ctx.diagnostics]

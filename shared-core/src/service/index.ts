@@ -10,7 +10,7 @@ export { HINT_KEYS } from './types';
 export type { Span } from '../text/types';
 export type { CoreDiagnostic } from '../notation/ast';
 export { DEFAULT_SERVICE_SETTINGS, readSettings, toEvaluateSettings } from './settings';
-export { analyzeText, analyzeTextWith } from './note';
+export { analyzeText, analyzeTextSteps, analyzeTextWith } from './note';
 export { hover, type HoverInfo } from './hover';
 export { inlayHints, type HintItem } from './inlayHints';
 export { completions, type CompletionEntry, type CompletionResult } from './completion';

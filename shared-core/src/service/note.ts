@@ -40,6 +40,18 @@ export function analyzeTextWith(analyzer: Analyzer, text: string, settings: Serv
   return { text, analysis: analyzer.analyze(text, toEvaluateSettings(settings)), settings };
 }
 
+/**
+ * {@link analyzeTextWith} in steps (see `Analyzer.analyzeSteps`): pauses now and then, returns
+ * the same note. A run not driven to its end changes nothing.
+ */
+export function* analyzeTextSteps(analyzer: Analyzer, text: string, settings: ServiceSettings): Generator<void, Note, void> {
+  if (overLimit(text, settings)) {
+    analyzer.reset();
+    return limitedNote(text, settings);
+  }
+  return { text, analysis: yield* analyzer.analyzeSteps(text, toEvaluateSettings(settings)), settings };
+}
+
 /** True when `offset` lies in `span` or touches its end (a cursor just after a word is on it). */
 export function touches(span: Span, offset: number): boolean {
   return span.start <= offset && offset <= span.end;
