@@ -18,6 +18,7 @@ const suites: [file: string, fn: string][] = [
   ['server.ts', 'benchServer'],
   ['extension.ts', 'benchExtension'],
   ['robustness.ts', 'benchRobustness'],
+  ['hostile.ts', 'benchHostile'],
 ];
 
 const only = process.argv.slice(2);
