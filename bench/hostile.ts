@@ -40,7 +40,7 @@ function rng(seed: number): () => number {
 }
 
 async function staleTables(): Promise<void> {
-  const { analyzeNote } = await import('../shared-core/src/evaluate');
+  const { analyzeNote } = await import('../shared-core/src/analyze');
   const { staleTableDiagnostics } = await import('../shared-core/src/present/writtenTables');
   const parts: string[] = [];
   for (let i = 0; i < 20_000; i++) {
