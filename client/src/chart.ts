@@ -10,6 +10,7 @@ import { basename } from 'node:path';
 import * as vscode from 'vscode';
 import { chartWebviewHtml, renderChart, type ChartUpdateMessage } from '@dewmark/core/chart';
 import { analyzeText, readSettings } from '@dewmark/core/service';
+import { HOST_MAX_NOTE_KB, hostBounded } from './hostLimit';
 import { SETTINGS_SECTION } from '@dewmark/protocol';
 
 /** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */
@@ -26,11 +27,11 @@ function settingsFor(uri: vscode.Uri): Record<string, unknown> {
 /** The chart SVG of a document, drawn with `nonce` on its style element. */
 function chartSvg(doc: vscode.TextDocument, nonce: string): string {
   const text = doc.getText();
-  const { settings } = readSettings(settingsFor(doc.uri));
+  const settings = hostBounded(readSettings(settingsFor(doc.uri)).settings);
   const note = analyzeText(text, settings);
   if (note.limited) {
     // Over the dewmark.maxNoteSizeKB limit: not evaluated, so nothing to draw; say why.
-    return `<p role="status">This note is larger than dewmark.maxNoteSizeKB (${settings.maxNoteKB} KB), so it is not evaluated as you type and has no chart here. Use <code>dewmark chart</code> on the command line, or raise the setting.</p>`;
+    return `<p role="status">This note is larger than ${settings.maxNoteKB} KB (dewmark.maxNoteSizeKB; at most ${HOST_MAX_NOTE_KB} KB inside VS Code), so it is not evaluated as you type and has no chart here. Use <code>dewmark chart</code> on the command line${settings.maxNoteKB < HOST_MAX_NOTE_KB ? ', or raise the setting' : ''}.</p>`;
   }
   return renderChart(note.analysis, { source: text, title: basename(doc.uri.path), styleNonce: nonce });
 }

@@ -5,7 +5,9 @@
  * the same settings the language server uses; the HTML comes from the core's escaped builder
  * (`shared-core/src/present/resultsTable`). A block followed by an up-to-date written results
  * table gets nothing more (the written table shows the same figures); a stale one gets the live
- * table with a notice. A note without air blocks is left exactly as markdown-it renders it.
+ * table with a notice. A note without air blocks is left exactly as markdown-it renders it. A note
+ * over the size limit (`dewmark.maxNoteSizeKB`, bounded for the extension host: ./hostLimit) is
+ * not evaluated here and gets no tables.
  *
  * No VS Code API here (the extension passes the settings in), so the plugin runs under plain
  * markdown-it in tests.
@@ -13,6 +15,7 @@
 import { analyzeText, DEFAULT_SERVICE_SETTINGS, type ServiceSettings } from '@dewmark/core/service';
 import { allBlockResults, RESULTS_COMMAND_TITLE, resultsTableHtml, tableSlots, tableState, type ResultsData } from '@dewmark/core/present';
 import { LineIndex } from '@dewmark/core/text';
+import { hostBounded } from './hostLimit';
 
 /** The parts of a markdown-it token the plugin reads and writes. */
 interface TokenLike {
@@ -100,7 +103,7 @@ export function dewmarkPreviewPlugin<T extends object>(md: T, opts: PreviewOptio
     if (fences.length === 0) return;
     let byLine: Map<number, string>;
     try {
-      const settings = opts.settings?.(state.env) ?? DEFAULT_SERVICE_SETTINGS;
+      const settings = hostBounded(opts.settings?.(state.env) ?? DEFAULT_SERVICE_SETTINGS);
       const key = JSON.stringify(settings);
       if (last && last.src === state.src && last.key === key) byLine = last.html;
       else {

@@ -10,6 +10,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { COMMAND_CATEGORY, COMMANDS } from '../../client/src/commands';
 import { dewmarkPreviewPlugin } from '../../client/src/preview';
+import { HOST_MAX_NOTE_KB, hostBounded } from '../../client/src/hostLimit';
 import { analyzeText, DEFAULT_SERVICE_SETTINGS, resultsTableEdits } from '../../shared-core/src/service';
 import { RESULTS_COMMAND_TITLE } from '../../shared-core/src/present/writtenTables';
 
@@ -153,5 +154,33 @@ for (const [label, MarkdownIt] of versions) {
 describe('names', () => {
   it('the messages name the command as the palette shows it', () => {
     expect(RESULTS_COMMAND_TITLE).toBe(`${COMMAND_CATEGORY}: ${COMMANDS.insertResultsTable.title}`);
+  });
+});
+
+describe('the extension host never evaluates an unbounded note', () => {
+  const MarkdownIt = versions[1]![1];
+  it('the preview follows dewmark.maxNoteSizeKB: a note over it gets no tables (not evaluated)', () => {
+    const padded = `${NOTE}\n${'Prose of the plant room, repeated to pass one KB. '.repeat(30)}\n`;
+    expect(padded.length).toBeGreaterThan(1024);
+    const at = (kb: number) => resultBlocks(dewmarkPreviewPlugin(new MarkdownIt(), { settings: () => ({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: kb }) }).render(padded));
+    expect(at(1)).toEqual([]);
+    expect(at(4)).toHaveLength(2);
+  });
+
+  it('the setting 0 ("no limit") still leaves the preview and chart bounded inside VS Code', () => {
+    expect(hostBounded({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 0 }).maxNoteKB).toBe(HOST_MAX_NOTE_KB);
+    expect(hostBounded({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 10 * HOST_MAX_NOTE_KB }).maxNoteKB).toBe(HOST_MAX_NOTE_KB);
+    expect(hostBounded({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 512 }).maxNoteKB).toBe(512);
+    // One character over the host bound is not evaluated by the preview, whatever the setting.
+    const over = `${NOTE}${'x'.repeat(HOST_MAX_NOTE_KB * 1024 - NOTE.length + 1)}`;
+    let rendered = 0;
+    const md = dewmarkPreviewPlugin({ core: { ruler: { push: (_n: string, rule: (s: unknown) => void) => {
+      // A hand-made core state with one air fence: the plugin adds a token only when it evaluated the note.
+      const tokens = [{ type: 'fence', info: 'air', map: [2, 5] as [number, number], level: 0, content: '', block: true }];
+      rule({ src: over, env: {}, tokens, Token: class { type = 'html_block'; info = ''; map = null; level = 0; content = ''; block = true; constructor() { rendered++; } } });
+      expect(tokens).toHaveLength(1);
+    } } } }, { settings: () => ({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 0 }) });
+    expect(md).toBeTruthy();
+    expect(rendered).toBe(0);
   });
 });
