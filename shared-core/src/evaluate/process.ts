@@ -23,6 +23,7 @@ import { readProps } from './props';
 import { checkClaim } from './claims';
 import type { ClaimResult, ProcessKind, ProcessResult, StateResult } from './types';
 import { formatSig } from './util';
+import { moistureUnchanged } from './resolution';
 
 /** Specific heat of dry air, kJ/(kg·K) as J/(kg·K) (ASHRAE HoF 2017 SI Ch.1 eq 32). */
 const CP_DRY_AIR = 1006;
@@ -55,9 +56,8 @@ export function waterEnthalpy(tC: number, added: boolean): number {
 }
 
 /** Names the process from the directions of the dry-bulb and humidity-ratio changes. */
-export function processKindOf(a: MoistAirState, b: MoistAirState, coilPerKg: number, sensiblePerKg: number): ProcessKind {
+export function processKindOf(a: MoistAirState, b: MoistAirState, coilPerKg: number, sensiblePerKg: number, dw = b.w - a.w): ProcessKind {
   const dt = b.db - a.db;
-  const dw = b.w - a.w;
   const tUp = dt > DT_STILL;
   const tDown = dt < -DT_STILL;
   const wUp = dw > DW_STILL;
@@ -189,11 +189,17 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
     volumeFlow = massFlow * a.v;
   }
 
-  const { total, sensible, latent } = splitSensibleLatent(a, b);
-  const dw = b.w - a.w;
+  let { total, sensible, latent } = splitSensibleLatent(a, b);
+  // Rounding is not physics: a Δw the written states cannot resolve is no moisture change.
+  const unchanged = moistureUnchanged(ctx, from, to);
+  if (unchanged) {
+    total = sensible;
+    latent = 0;
+  }
+  const dw = unchanged ? 0 : b.w - a.w;
   const hWater = waterEnthalpy(b.db, dw > 0);
   const coilPerKg = total - dw * hWater;
-  const kind = processKindOf(a, b, coilPerKg, sensible);
+  const kind = processKindOf(a, b, coilPerKg, sensible, dw);
   // SHR is a share: given only when sensible and latent act in the same direction (0 ≤ SHR ≤ 1).
   const sameWay = sensible * latent >= 0 || Math.abs(dw) <= DW_STILL || Math.abs(latent) <= Math.max(1, 1e-3 * Math.abs(total));
   const shr = Math.abs(total) >= DH_STILL && sameWay ? sensible / total : null;
@@ -231,6 +237,7 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
     claims: [],
     apparatusDewPointC: null,
   };
+  if (unchanged) result.moistureUnchanged = true;
 
   // Moisture removed: the coil line must reach the saturation curve (an apparatus dew point).
   if (dw < -DW_STILL) {

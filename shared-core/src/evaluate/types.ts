@@ -149,6 +149,11 @@ export interface ProcessResult {
    * saturation curve (apparatus dew point), °C; null when it does not or moisture is not removed.
    */
   apparatusDewPointC?: number | null;
+  /**
+   * True when the two states' humidity ratios differ by less than their written figures can
+   * resolve (see `resolution.ts`): `dw`, the latent heat and the water are then 0 and the SHR 1.
+   */
+  moistureUnchanged?: boolean;
 }
 
 /** Result of one statement (site/units statements have no result of their own). */

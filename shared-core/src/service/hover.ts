@@ -214,15 +214,19 @@ function processHover(note: Note, item: ProcessResult): string {
     rows.push(['dry-air flow', flow]);
     rows.push(['total heat', heat(note, item.qTotalW, system)]);
     rows.push(['sensible heat', heat(note, item.qSensibleW, system)]);
-    rows.push(['latent heat', heat(note, item.qLatentW, system)]);
+    if (!item.moistureUnchanged) rows.push(['latent heat', heat(note, item.qLatentW, system)]);
   } else {
     rows.push(['dry-air flow', 'not given (add `m=` or `q=` for heat rates)']);
   }
   rows.push(['sensible heat ratio', item.shr === null ? '— (no net heat)' : plain(item.shr, 2 + note.settings.extraDigits)]);
   rows.push(['Δh per kg dry air', signed(item.dhTotal, showDifference(note, Math.abs(item.dhTotal), 'enthalpy', system))]);
   const perKgW = show(note, Math.abs(item.dw), 'humidityRatio', system);
-  rows.push(['Δw', `${signed(item.dw, perKgW)}${item.dw < 0 ? ' (removed)' : item.dw > 0 ? ' (added)' : ''}`]);
-  if (item.waterKgS !== null) {
+  if (item.moistureUnchanged) {
+    rows.push(['Δw', 'no moisture change (the two humidity ratios differ by less than their written figures resolve)']);
+  } else {
+    rows.push(['Δw', `${signed(item.dw, perKgW)}${item.dw < 0 ? ' (removed)' : item.dw > 0 ? ' (added)' : ''}`]);
+  }
+  if (item.waterKgS !== null && !item.moistureUnchanged) {
     const rate = showWaterRate(note, Math.abs(item.waterKgS), system);
     rows.push([item.waterKgS < 0 ? 'condensate' : 'water added', item.waterKgS === 0 ? '—' : rate]);
   }
