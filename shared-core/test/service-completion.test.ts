@@ -58,7 +58,8 @@ describe('completion', () => {
     const states = ['state OA: db=33C wb=23C', 'state RA: db=24C rh=50%'];
     check(air(...states, 'mix MA: |', 'state LATER: db=20C rh=50%'), { exactly: ['OA', 'RA'] });
     check(air(...states, 'mix MA: OA 25% + R|'), { includes: ['RA'], replaces: 'R' });
-    check(air(...states, 'mix MA: OA 25% + RA 75%', 'process CC: MA -> |'), { exactly: ['OA', 'RA', 'MA'] });
+    check(air(...states, 'mix MA: OA 25% + RA 75%', 'process CC: MA -> |'), { exactly: ['OA', 'RA'] }); // not MA itself
+    check(air(...states, 'mix MA: OA 25% + RA 75%', 'process CC: |'), { exactly: ['OA', 'RA', 'MA'] });
     check(air(...states, 'process CC: OA -> RA |'), { includes: ['m', 'q', 'q_total', 'shr'] });
   });
 

@@ -140,6 +140,12 @@ function refKeyEntries(note: Note, before: number, name: string, key: string): C
     }));
 }
 
+/** The entries with a space put before them, for a cursor right after the statement's `:`. */
+function afterColon(items: CompletionEntry[], rest: string, typed: string): CompletionEntry[] {
+  if (rest.length !== typed.length) return items;
+  return items.map((e) => ({ ...e, insertText: ` ${e.insertText}` }));
+}
+
 /** The keys already written in the statement text before the cursor. */
 function keysWritten(text: string): Set<string> {
   const out = new Set<string>();
@@ -181,7 +187,7 @@ export function completions(note: Note, offset: number, token?: CancellationFlag
   const site = /^\s*site:(.*)$/.exec(before);
   if (site) {
     const k = KEY_SO_FAR.exec(site[1]!);
-    return k ? result(keyEntries(SITE_KEYS, keysWritten(site[1]!)), k[1]!) : null;
+    return k ? result(afterColon(keyEntries(SITE_KEYS, keysWritten(site[1]!)), site[1]!, k[1]!), k[1]!) : null;
   }
 
   const state = new RegExp(String.raw`^\s*state\s+(${NAME})?\s*:(.*)$`).exec(before);
@@ -195,7 +201,7 @@ export function completions(note: Note, offset: number, token?: CancellationFlag
     }
     const rest = state[2]!;
     const k = KEY_SO_FAR.exec(rest);
-    return k ? result(keyEntries(STATE_KEYS, keysWritten(rest)), k[1]!) : null;
+    return k ? result(afterColon(keyEntries(STATE_KEYS, keysWritten(rest)), rest, k[1]!), k[1]!) : null;
   }
 
   const mix = new RegExp(String.raw`^\s*mix\s+(${NAME})?\s*:(.*)$`).exec(before);
@@ -203,7 +209,7 @@ export function completions(note: Note, offset: number, token?: CancellationFlag
     const self = mix[1] ?? null;
     const rest = mix[2]!;
     const stream = /(?:^|\+)\s*([A-Za-z][A-Za-z0-9_-]*|)$/.exec(rest);
-    if (stream) return result(nameEntries(note, offset, self), stream[1]!);
+    if (stream) return result(afterColon(nameEntries(note, offset, self), rest, stream[1]!), stream[1]!);
     const amount = new RegExp(String.raw`${WORD_NAME}\s+${NUMBER}(\S*)$`).exec(rest);
     if (amount) return result(unitEntries(STREAM_DIMENSIONS), amount[1]!);
     const k = /\s([A-Za-z_]*)$/.exec(rest);
@@ -216,7 +222,11 @@ export function completions(note: Note, offset: number, token?: CancellationFlag
     const rest = proc[2]!;
     const end = /(?:^|->)\s*([A-Za-z][A-Za-z0-9_]*|)$/.exec(rest);
     if (end && !/->.*->/.test(rest) && !new RegExp(String.raw`->\s*${NAME}\s`).test(rest)) {
-      return result(nameEntries(note, offset, self), end[1]!);
+      // After `MA ->` the leaving state is another one: MA itself is not offered.
+      const fromName = rest.includes('->') ? new RegExp(String.raw`^\s*(${NAME})\s*->`).exec(rest)?.[1] : undefined;
+      const names = nameEntries(note, offset, self).filter((e) => e.label !== fromName);
+      const glued = rest.endsWith(`->${end[1]!}`) ? names.map((e) => ({ ...e, insertText: ` ${e.insertText}` })) : names;
+      return result(afterColon(glued, rest, end[1]!), end[1]!);
     }
     if (rest.includes('->')) {
       const k = /\s([A-Za-z_]*)$/.exec(rest);

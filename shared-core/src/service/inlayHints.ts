@@ -100,11 +100,37 @@ function hintOffset(note: Note, statement: Statement): number {
   return lineEnd(note.text, statement.span.end);
 }
 
+/**
+ * The starts of the parser's errors, ascending: a statement with one inside it is incomplete or
+ * malformed as written (`mix M2: OA 1m3/s +`), so it gets no hint — its figures would be those of
+ * a statement the note does not say yet.
+ */
+function parseErrorStarts(note: Note): number[] {
+  return note.analysis.parsed.diagnostics
+    .filter((d) => d.severity === 'error')
+    .map((d) => d.span.start)
+    .sort((a, b) => a - b);
+}
+
+/** Whether an ascending list holds a value in [from, to]. */
+function anyWithin(sorted: readonly number[], from: number, to: number): boolean {
+  let lo = 0;
+  let hi = sorted.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (sorted[mid]! < from) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo < sorted.length && sorted[lo]! <= to;
+}
+
 /** The inline hints of the statements that overlap `span`, in document order. */
 export function inlayHints(note: Note, span: Span, token?: CancellationFlag): HintItem[] {
   const out: HintItem[] = [];
+  const errors = parseErrorStarts(note);
   for (const statement of statementsIn(note, span, true)) {
     if (token?.isCancellationRequested) break;
+    if (anyWithin(errors, statement.span.start, statement.span.end)) continue;
     const item = itemOf(note, statement);
     if (!item) continue;
     const r = item.kind === 'process' ? processLabel(note, item) : stateLabel(note, item);
