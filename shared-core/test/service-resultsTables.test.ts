@@ -80,7 +80,8 @@ describe('inserting results tables', () => {
     expect(a.parsed.statements.length).toBe(before.parsed.statements.length);
     expect(a.diagnostics.map((d) => d.code)).toEqual(before.diagnostics.map((d) => d.code));
     expect(after).toMatch(/\| MA \(mix: OA 30 % \+ RA 70 %\) +\| +-?\d/);
-    expect(after).toMatch(/\| HC: MA → PH \| heating/);
+    // PH's w=4.5g/kg is MA's 4.45 g/kg rounded: a preheat coil, no moisture change (docs/notation.md).
+    expect(after).toMatch(/\| HC: MA → PH \| sensible heating/);
   });
 
   it('writes Markdown that renders as tables, with the markers as HTML comments', () => {
