@@ -107,6 +107,15 @@ export function stateJson(f: FileResult, s: StateResult): Record<string, unknown
     out.streams = (s.streams ?? []).map((x) => ({ name: x.name, fraction: r(x.fraction), [jsonName('m')]: r(jsonFigure('m', x.massFlowKgS)) }));
     out[jsonName('m')] = r(jsonFigure('m', s.massFlowKgS ?? null));
   }
+  if (s.kind === 'supply') {
+    const f = s.supply;
+    out.room = f?.room ?? null;
+    out.q_sensible_kW = r(f ? f.qSensibleW / 1000 : null);
+    out.q_latent_kW = r(f ? f.qLatentW / 1000 : null);
+    out.shr = r(f?.shr ?? null);
+    out.m_kgs = r(s.massFlowKgS ?? null);
+    out.v_m3s = r(f?.volumeFlowM3S ?? null);
+  }
   // Properties taken from states above: the offset in SI (K, kg/kg, J/kg).
   if (s.sources) out.sources = s.sources.map((x) => ({ key: x.key, from: x.from, fromKey: x.fromKey, offset: r(x.offsetSI) }));
   if (s.claims.length > 0) out.claims = s.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
@@ -221,7 +230,11 @@ export function statesTable(f: FileResult): string | null {
       q(st?.w, 'humidityRatio', sys),
       q(st?.h, 'enthalpy', sys),
       q(st?.v, 'specificVolume', sys),
-      st === null ? 'not computed (see diagnostics)' : s.kind === 'mix' ? (s.streams ?? []).map((x) => `${x.name} ${(x.fraction * 100).toFixed(1)}%`).join(' + ') : s.defining.join('+'),
+      st === null ? 'not computed (see diagnostics)' : s.kind === 'mix'
+          ? (s.streams ?? []).map((x) => `${x.name} ${(x.fraction * 100).toFixed(1)}%`).join(' + ')
+          : s.kind === 'supply' && s.supply
+            ? `loads of ${s.supply.room}, ${q(s.massFlowKgS, 'massFlow', sys)}`
+            : s.defining.join('+'),
     ];
   });
   return renderTable(header, rows, [false, true, false, true, true, true, true, true, true, true, true, false]);

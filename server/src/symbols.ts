@@ -11,6 +11,7 @@ const KIND: Record<OutlineSymbol['kind'], SymbolKind> = {
   state: SymbolKind.Variable,
   mix: SymbolKind.Operator,
   process: SymbolKind.Function,
+  supply: SymbolKind.Variable,
   site: SymbolKind.Constant,
 };
 

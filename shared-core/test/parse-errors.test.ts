@@ -21,6 +21,8 @@ function summary(st: Statement): string {
       return `mix ${st.name?.text ?? '?'}: ${st.streams.map((s) => `${s.name.text} ${q(s.amount)}`).join(' + ')}${props ? ` | ${props}` : ''}`;
     case 'process':
       return `process ${st.name?.text ?? '?'}: ${st.from?.text ?? '?'} -> ${st.to?.text ?? '?'}${props ? ` | ${props}` : ''}`;
+    case 'supply':
+      return `supply ${st.name?.text ?? '?'}: ${st.room?.text ?? '?'}${props ? ` | ${props}` : ''}`;
   }
 }
 

@@ -24,6 +24,8 @@ function summary(st: Statement): string {
       return `mix ${st.name?.text ?? '?'}: ${st.streams.map((s) => `${s.name.text} ${q(s.amount)}`).join(' + ')}${tail(st.props)}`;
     case 'process':
       return `process ${st.name?.text ?? '?'}: ${st.from?.text ?? '?'} -> ${st.to?.text ?? '?'}${tail(st.props)}`;
+    case 'supply':
+      return `supply ${st.name?.text ?? '?'}: ${st.room?.text ?? '?'}${tail(st.props)}`;
   }
 }
 

@@ -224,6 +224,7 @@ function names(stmt: DependentStatement): NameNode[] {
   for (const p of stmt.props) if (p.ref) out.push(p.ref.state);
   if (stmt.keyword === 'mix') for (const s of stmt.streams) out.push(s.name);
   else if (stmt.keyword === 'process' && stmt.from && stmt.to) out.push(stmt.from, stmt.to);
+  else if (stmt.keyword === 'supply' && stmt.room) out.push(stmt.room);
   return out;
 }
 
@@ -281,8 +282,8 @@ function relocateDependent(entry: DependentEntry, stmt: DependentStatement, d: n
     if (old.kind === 'process') {
       if (stmt.keyword !== 'process') return null;
       result = { ...old, statement: stmt, claims };
-    } else if (old.kind === 'state') {
-      if (stmt.keyword !== 'state') return null;
+    } else if (old.kind === 'state' || old.kind === 'supply') {
+      if (stmt.keyword !== old.kind) return null;
       // The pressure is the site's, or the state's own override (a span inside the statement).
       const pressure = old.pressure === entry.site ? site : old.pressure.span ? { ...old.pressure, span: move(old.pressure.span) } : old.pressure;
       result = { ...old, statement: stmt, pressure, claims };

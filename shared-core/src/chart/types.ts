@@ -7,7 +7,7 @@ import type { UnitSystem } from '../units/types';
 /** One plotted state (from a `state` or a `mix` statement). */
 export interface ChartPoint {
   name: string;
-  kind: 'state' | 'mix';
+  kind: 'state' | 'mix' | 'supply';
   /** Dry-bulb, °C. */
   db: number;
   /** Humidity ratio, kg/kg (for a fog state: the total water). */

@@ -12,7 +12,7 @@ export interface NameDef {
   name: string;
   span: Span;
   statementIndex: number;
-  keyword: 'state' | 'mix' | 'process';
+  keyword: 'state' | 'mix' | 'process' | 'supply';
 }
 
 /** A registered name: where it was first defined and, once evaluated, its result. */

@@ -2,7 +2,7 @@
  * The evaluator: a second pass over the parsed note, in document order. It never throws: every
  * statement is evaluated inside a guard, and a failure becomes a diagnostic on that statement.
  */
-import type { CoreDiagnostic, MixStatement, ParsedNote, ProcessStatement, Statement, StateStatement } from '../notation/ast';
+import type { CoreDiagnostic, MixStatement, ParsedNote, ProcessStatement, Statement, StateStatement, SupplyStatement } from '../notation/ast';
 import type { Analysis, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from './types';
 import { EvalContext, type NameDef } from './context';
 import { SITE_KEYS } from './keys';
@@ -12,9 +12,10 @@ import { evaluateProcess } from './process';
 import { readProps } from './props';
 import { resolveSettings } from './settings';
 import { evaluateState } from './state';
+import { evaluateSupply } from './supply';
 
 /** A statement whose result depends on other statements. */
-export type DependentStatement = MixStatement | ProcessStatement | StateStatement;
+export type DependentStatement = MixStatement | ProcessStatement | StateStatement | SupplyStatement;
 
 /** True when a statement takes a property from another state (`w=OA.w`). */
 export function hasReferences(stmt: Statement): boolean {
@@ -24,7 +25,7 @@ export function hasReferences(stmt: Statement): boolean {
 /** Every name a statement defines, found before evaluation (for `used-before-defined`), into `defs`. */
 function prescan(statements: Statement[], defs: Map<string, NameDef[]>): void {
   statements.forEach((s, i) => {
-    if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process') && s.name) {
+    if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process' || s.keyword === 'supply') && s.name) {
       const d: NameDef = { name: s.name.text, span: s.name.span, statementIndex: i, keyword: s.keyword };
       const list = defs.get(d.name);
       if (list) list.push(d);
@@ -162,6 +163,13 @@ export function* evaluateSteps(parsed: ParsedNote, settings?: Partial<EvaluateSe
           else if (hasReferences(stmt)) item = reuse.dependent(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
           else item = reuse.state(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
           if (stmt.name) ctx.addItem(item, owner);
+          break;
+        }
+        case 'supply': {
+          if (!stmt.name) break;
+          const owner = ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'supply' }, stmt.name);
+          const item = reuse ? reuse.dependent(ctx, stmt, index, () => evaluateSupply(ctx, stmt, index)) : evaluateSupply(ctx, stmt, index);
+          ctx.addItem(item, owner);
           break;
         }
         case 'process': {

@@ -184,7 +184,7 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
       volumeFlow = flowProp.q.si;
       massFlow = volumeFlow / a.v;
     }
-  } else if (from.kind === 'mix' && typeof from.massFlowKgS === 'number' && from.massFlowKgS > 0) {
+  } else if ((from.kind === 'mix' || from.kind === 'supply') && typeof from.massFlowKgS === 'number' && from.massFlowKgS > 0) {
     massFlow = from.massFlowKgS;
     volumeFlow = massFlow * a.v;
   }

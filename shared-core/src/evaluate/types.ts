@@ -13,6 +13,7 @@ import type {
   PropertyNode,
   StateStatement,
   Statement,
+  SupplyStatement,
 } from '../notation/ast';
 
 /** Settings that an editor or the CLI hands to the evaluator (the note's own directives win). */
@@ -59,11 +60,11 @@ export interface ClaimResult {
   computedText: string;
 }
 
-/** A state (from `state`) or a mixed state (from `mix`). */
+/** A state (from `state`), a mixed state (from `mix`) or a supply state (from `supply`). */
 export interface StateResult {
-  kind: 'state' | 'mix';
+  kind: 'state' | 'mix' | 'supply';
   name: string;
-  statement: StateStatement | MixStatement;
+  statement: StateStatement | MixStatement | SupplyStatement;
   /** Null when the state could not be computed (its diagnostics say why). */
   state: MoistAirState | null;
   pressure: PressureBasis;
@@ -72,8 +73,13 @@ export interface StateResult {
   claims: ClaimResult[];
   /** For a mix: the streams with their dry-air mass fraction (0…1) and mass flow if known. */
   streams?: { name: string; fraction: number; massFlowKgS: number | null }[];
-  /** For a mix: total dry-air mass flow, kg/s, when the streams were given as flows. */
+  /**
+   * For a mix: total dry-air mass flow, kg/s, when the streams were given as flows; for a supply:
+   * its dry-air flow.
+   */
   massFlowKgS?: number | null;
+  /** For a supply: the room loads it absorbs and its flow. */
+  supply?: SupplyFigures;
   /**
    * The properties taken from states above (`w=OA.w`, `db=OFF.db+0.8K`), in written order;
    * present only when the statement has references.
@@ -84,6 +90,20 @@ export interface StateResult {
    * process or heat recovery from its entering state), for hovers: "from RA via SA".
    */
   definedBy?: { statement: string; name: string; from: string };
+}
+
+/** What a `supply` carries (SI; loads positive = heat gained by the air in the room). */
+export interface SupplyFigures {
+  /** The room state it serves. */
+  room: string;
+  qSensibleW: number;
+  qLatentW: number;
+  /** Room sensible heat ratio Q_s / (Q_s + Q_l); null when undefined (total ~0, opposite signs). */
+  shr: number | null;
+  /** Volume flow at the supply state, m³/s (the dry-air flow is the result's massFlowKgS). */
+  volumeFlowM3S: number;
+  /** Which figure was given: the supply dry-bulb, the mass flow or the volume flow. */
+  given: 'db' | 'm' | 'q';
 }
 
 /** A property of a state taken from another state's property: `w=OA.w`, `db=OFF.db+0.8K`. */

@@ -8,7 +8,7 @@ import { scanMarkdown } from './scan';
 import type { AirRegion, HeadingNode } from './types';
 
 /** The statement keywords, in the order the docs list them. */
-export const STATEMENT_KEYWORDS = ['site', 'units', 'state', 'mix', 'process'] as const;
+export const STATEMENT_KEYWORDS = ['site', 'units', 'state', 'mix', 'process', 'supply'] as const;
 
 /** A statement keyword, as written. */
 export type Keyword = (typeof STATEMENT_KEYWORDS)[number];

@@ -135,13 +135,26 @@ export interface ProcessStatement extends StatementBase {
   props: PropertyNode[];
 }
 
+/**
+ * `supply NAME: ROOM q_sensible=… q_latent=… (db=… | m=… | q=…) [claims]`: the supply state and
+ * dry-air flow that absorb the loads of the room state ROOM.
+ */
+export interface SupplyStatement extends StatementBase {
+  keyword: 'supply';
+  name: NameNode | null;
+  /** The room state the supply air serves. */
+  room: NameNode | null;
+  props: PropertyNode[];
+}
+
 /** Any statement. */
 export type Statement =
   | SiteStatement
   | UnitsStatement
   | StateStatement
   | MixStatement
-  | ProcessStatement;
+  | ProcessStatement
+  | SupplyStatement;
 
 /** A diagnostic as the core reports it (LSP-free). */
 export interface CoreDiagnostic {

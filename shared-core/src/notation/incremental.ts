@@ -205,6 +205,8 @@ export function shiftStatement(s: Statement, d: number): Statement {
       return { keyword: 'state', keywordSpan, origin: s.origin, span, name: shiftName(s.name, d), props: shiftProps(s.props, d) };
     case 'mix':
       return { keyword: 'mix', keywordSpan, origin: s.origin, span, name: shiftName(s.name, d), streams: shiftStreams(s.streams, d), props: shiftProps(s.props, d) };
+    case 'supply':
+      return { keyword: 'supply', keywordSpan, origin: s.origin, span, name: shiftName(s.name, d), room: shiftName(s.room, d), props: shiftProps(s.props, d) };
     case 'process':
       return {
         keyword: 'process',

@@ -12,6 +12,7 @@
  *     site: KEY=VALUE …                       units: WORD
  *     state NAME: KEY=VALUE …                 mix NAME: NAME AMOUNT + NAME AMOUNT [+ …] [KEY=VALUE …]
  *     process NAME: NAME -> NAME [KEY=VALUE …]        (`→` works as well as `->`)
+ *     supply NAME: NAME KEY=VALUE …                    (the room state, then loads and db, m or q)
  *     VALUE, AMOUNT:  NUMBER[UNIT][±NUMBER[UNIT]]     (`+-` works as well as `±`)
  *     VALUE:   NAME.KEY[(+|-)NUMBER UNIT]          another state's property (`OA.w`, `OFF.db+0.8K`)
  *     NUMBER:  [+|-|−] digits [. digits] [e|E [+|-] digits]    (`.5` and `5.` too)
@@ -43,12 +44,13 @@ import type {
   Statement,
   StatementOrigin,
   StateStatement,
+  SupplyStatement,
   ToleranceNode,
   UnitNode,
   UnitsStatement,
 } from './ast';
 import type { Span } from '../text/types';
-import { extractRegions, type ExtractedRegion } from '../markdown/regions';
+import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
 import { resolutionOf, scanNumber, startsNumber } from './number';
 import { findKey } from '../vocabulary/keys';
 
@@ -82,7 +84,7 @@ export interface StatementParse {
   diagnostics: CoreDiagnostic[];
 }
 
-const KEYWORDS: readonly Keyword[] = ['site', 'units', 'state', 'mix', 'process'];
+const KEYWORDS: readonly Keyword[] = STATEMENT_KEYWORDS;
 
 // ---------------------------------------------------------------------------------------------
 // Character classes
@@ -170,7 +172,7 @@ function keywordAdvice(word: string): string {
     }
   }
   if (best && bestD === 2 && word.length >= 4) return `did you mean '${best}'?`;
-  return "a statement starts with 'site:', 'units:', 'state', 'mix' or 'process'; start a note line with '#'";
+  return "a statement starts with 'site:', 'units:', 'state', 'mix', 'process' or 'supply'; start a note line with '#'";
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -325,6 +327,8 @@ class StatementParser {
         return this.mix(keywordSpan);
       case 'process':
         return this.process(keywordSpan);
+      case 'supply':
+        return this.supply(keywordSpan);
     }
   }
 
@@ -400,6 +404,15 @@ class StatementParser {
     const to = arrow || this.nameAhead() ? this.referencedName("the leaving state after '->'", arrowExample, keywordSpan) : null;
     const props = this.props();
     return { keyword: 'process', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, from, to, props };
+  }
+
+  private supply(keywordSpan: Span): SupplyStatement {
+    const name = this.definedName('supply', keywordSpan, 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C');
+    const example = `supply ${name?.text ?? 'SA'}: RA q_sensible=41.5kW q_latent=8kW db=13.6C`;
+    this.colon(name ? `supply ${name.text}` : 'supply', example, keywordSpan.start, !name);
+    const room = this.referencedName('the room state the supply serves', example, keywordSpan);
+    const props = this.props();
+    return { keyword: 'supply', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, room, props };
   }
 
   /**

@@ -23,7 +23,7 @@ export interface ResultsColumn {
 /** One state or mix of a block. */
 export interface StateRowData {
   name: string;
-  kind: 'state' | 'mix';
+  kind: 'state' | 'mix' | 'supply';
   /** `ok`, `fog` (supersaturated, still computed) or `failed` (not computed: see the problems). */
   status: 'ok' | 'fog' | 'failed';
   /** What the name cell adds: the streams of a mix, `fog`, `not computed`; null for a plain state. */

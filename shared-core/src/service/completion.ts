@@ -4,7 +4,7 @@
  * (those of the key's dimension), and the names of states and mixes defined earlier where a mix
  * or process names its streams or ends.
  */
-import { MIX_KEYS, PROCESS_KEYS, SITE_KEYS, STATE_KEYS, type KeySpec } from '../evaluate/keys';
+import { MIX_KEYS, PROCESS_KEYS, SITE_KEYS, STATE_KEYS, SUPPLY_KEYS, type KeySpec } from '../evaluate/keys';
 import type { Span } from '../text/types';
 import { describeUnit, dimensionTitle, unitsOf } from '../units';
 import type { Dimension } from '../units/types';
@@ -34,6 +34,7 @@ const KEYWORDS: CompletionEntry[] = [
   { label: 'state', kind: 'keyword', insertText: 'state ', detail: 'a moist-air state: state NAME: db=… rh=…' },
   { label: 'mix', kind: 'keyword', insertText: 'mix ', detail: 'adiabatic mixing: mix NAME: A 30% + B 70%' },
   { label: 'process', kind: 'keyword', insertText: 'process ', detail: 'a process: process NAME: A -> B m=…' },
+  { label: 'supply', kind: 'keyword', insertText: 'supply ', detail: 'supply air from room loads: supply NAME: ROOM q_sensible=… q_latent=… db=…' },
   { label: 'site', kind: 'keyword', insertText: 'site: ', detail: 'pressure for what follows: site: elev=… or p=…' },
   { label: 'units', kind: 'keyword', insertText: 'units: ', detail: 'unit system of the results: units: SI or IP' },
 ];
@@ -180,7 +181,7 @@ export function completions(note: Note, offset: number, token?: CancellationFlag
   const afterNumber = AFTER_NUMBER.exec(before);
   if (afterNumber) {
     const key = afterNumber[1]!;
-    const spec = STATE_KEYS[key] ?? PROCESS_KEYS[key] ?? SITE_KEYS[key];
+    const spec = STATE_KEYS[key] ?? PROCESS_KEYS[key] ?? SITE_KEYS[key] ?? SUPPLY_KEYS[key];
     return spec ? result(unitEntries([spec.dimension]), afterNumber[2]!) : null;
   }
 
@@ -233,6 +234,23 @@ export function completions(note: Note, offset: number, token?: CancellationFlag
       return k ? result(keyEntries(PROCESS_KEYS, keysWritten(rest)), k[1]!) : null;
     }
     return null;
+  }
+
+  const supply = new RegExp(String.raw`^\s*supply\s+(${NAME})?\s*:(.*)$`).exec(before);
+  if (supply) {
+    const self = supply[1] ?? null;
+    const rest = supply[2]!;
+    // The room state first, then the loads, the supply dry-bulb or flow, and claims.
+    const room = /^\s*([A-Za-z][A-Za-z0-9_-]*|)$/.exec(rest);
+    if (room) return result(nameEntries(note, offset, self), room[1]!);
+    const ref = REF_SO_FAR.exec(rest);
+    if (ref && ref[1] === 'db') {
+      const [, key, stateName, dot] = ref;
+      if (dot === undefined) return result(refNameEntries(note, offset, self, key!), stateName ?? '');
+      return result(refKeyEntries(note, offset, stateName!, key!), dot);
+    }
+    const k = /\s([A-Za-z_]*)$/.exec(rest);
+    return k ? result(keyEntries(SUPPLY_KEYS, keysWritten(rest)), k[1]!) : null;
   }
   return null;
 }

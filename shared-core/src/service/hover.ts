@@ -39,6 +39,8 @@ const KEYWORD_TEXT: Record<Statement['keyword'], string> = {
   state:
     '`state NAME: …` a moist-air state. Two independent properties fix it; `p=`/`elev=` override the site pressure; every further property is a claim, computed and compared.',
   mix: '`mix NAME: A X + B Y …` adiabatic mixing of named states by dry-air mass fraction (`30%`), dry-air mass flow (`kg/s`, `lb/h`) or volume flow (`L/s`, `m3/s`, `cfm`) at each stream’s own state.',
+  supply:
+    '`supply NAME: ROOM q_sensible=… q_latent=… db=…` the supply state and dry-air flow that absorb the room’s sensible and latent gains; give the supply dry-bulb (`db=`) or the flow (`m=` or `q=` at the supply state) and the other follows.',
   process:
     '`process NAME: A -> B [m=… | q=…]` a process between two named states at one dry-air flow: heat rates, sensible heat ratio, moisture added or removed, and the kind of process.',
 };
@@ -150,6 +152,29 @@ function stateTable(note: Note, item: StateResult, system: UnitSystem): string[]
   return rows;
 }
 
+/** The head of a supply's hover: the room loads, the room SHR and the flow it takes to absorb them. */
+function supplyHead(note: Note, item: StateResult, system: UnitSystem): string[] {
+  const out = [`**supply ${md(item.name)}** — supply air for the loads of ${md((item.statement.keyword === 'supply' && item.statement.room?.text) || '?')}`];
+  const f = item.supply;
+  if (!f || item.massFlowKgS === undefined || item.massFlowKgS === null) return out;
+  const volumeUnit = system === 'SI' ? (f.volumeFlowM3S < 1 ? 'L/s' : 'm3/s') : 'cfm';
+  out.push(
+    '',
+    '| | |',
+    '|---|--:|',
+    `| room sensible gain | ${show(note, f.qSensibleW, 'power', system)} |`,
+    `| room latent gain | ${show(note, f.qLatentW, 'power', system)} |`,
+    `| room SHR | ${f.shr === null ? '—' : plain(f.shr, 2 + note.settings.extraDigits)} |`,
+    `| dry-air flow | ${show(note, item.massFlowKgS, 'massFlow', system)}${f.given === 'm' ? ' (given)' : ''} |`,
+    `| volume flow at ${md(item.name)} | ${show(note, f.volumeFlowM3S, 'volumeFlow', system, lookupUnit(volumeUnit))}${f.given === 'q' ? ' (given)' : ''} |`,
+    '',
+    `Found from the ${f.given === 'db' ? 'supply dry-bulb' : f.given === 'm' ? 'dry-air mass flow' : 'volume flow'} and the loads; a process from ${md(item.name)} to ${md(f.room)} at this flow gives the loads back (sensible with the moist-air cp at ${md(item.name)}'s W).`,
+    '',
+    'Supply state:',
+  );
+  return out;
+}
+
 function stateHover(note: Note, item: StateResult): string {
   const system = note.analysis.units;
   const out: string[] = [];
@@ -166,6 +191,8 @@ function stateHover(note: Note, item: StateResult): string {
       out.push('', `Total dry-air flow: ${show(note, item.massFlowKgS, 'massFlow', system)}`);
     }
     out.push('', 'Result:');
+  } else if (item.kind === 'supply') {
+    out.push(...supplyHead(note, item, system));
   } else {
     out.push(`**state ${md(item.name)}**`);
   }

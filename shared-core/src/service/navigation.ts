@@ -5,6 +5,7 @@
  */
 import type { EvaluatedItem } from '../evaluate/types';
 import type { Keyword, NameNode } from '../notation/ast';
+import { STATEMENT_KEYWORDS } from '../markdown/regions';
 import type { Span } from '../text/types';
 import { lineNumber, targetAt } from './note';
 import type { Edit, Note } from './types';
@@ -19,7 +20,7 @@ export interface DefinitionTarget {
 const NAME_RE = /^[A-Za-z][A-Za-z0-9_-]*$/;
 
 /** Words that cannot be names because they start statements. */
-const RESERVED: readonly Keyword[] = ['site', 'units', 'state', 'mix', 'process'];
+const RESERVED: readonly Keyword[] = STATEMENT_KEYWORDS;
 
 /** The name under the cursor (a definition or a reference), if any. */
 function nameAt(note: Note, offset: number): NameNode | undefined {
@@ -39,7 +40,7 @@ function occurrences(note: Note, name: string, includeDefinitions: boolean): Spa
   const spans: Span[] = [];
   if (includeDefinitions) {
     for (const s of note.analysis.parsed.statements) {
-      if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process') && s.name?.text === name) spans.push(s.name.span);
+      if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process' || s.keyword === 'supply') && s.name?.text === name) spans.push(s.name.span);
     }
   }
   for (const r of note.analysis.references) if (r.name === name) spans.push(r.span);

@@ -152,6 +152,7 @@ export function referencesOf(statement: Statement): NameNode[] {
   const out: NameNode[] = [];
   if (statement.keyword === 'mix') for (const s of statement.streams) out.push(s.name);
   if (statement.keyword === 'process') for (const n of [statement.from, statement.to]) if (n) out.push(n);
+  if (statement.keyword === 'supply' && statement.room) out.push(statement.room);
   if (statement.keyword !== 'units') for (const p of statement.props) if (p.ref) out.push(p.ref.state);
   return out;
 }
@@ -170,7 +171,7 @@ export function targetAt(note: Note, offset: number): Target | undefined {
     if (statement.system && touches(statement.system.span, offset)) return { kind: 'system', statement, name: statement.system };
     return { kind: 'statement', statement };
   }
-  if ((statement.keyword === 'state' || statement.keyword === 'mix' || statement.keyword === 'process') && statement.name) {
+  if ((statement.keyword === 'state' || statement.keyword === 'mix' || statement.keyword === 'process' || statement.keyword === 'supply') && statement.name) {
     if (touches(statement.name.span, offset)) return { kind: 'definition', statement, name: statement.name };
   }
   for (const ref of referencesOf(statement)) {

@@ -12,7 +12,7 @@ import type { CancellationFlag, Note } from './types';
 /** One entry of the outline. */
 export interface OutlineSymbol {
   name: string;
-  kind: 'heading' | 'state' | 'mix' | 'process' | 'site';
+  kind: 'heading' | 'state' | 'mix' | 'process' | 'supply' | 'site';
   detail: string;
   /** The whole construct (statement, or heading with its section). */
   span: Span;
