@@ -22,6 +22,8 @@ const statement = fc.oneof(
   { weight: 2, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 30% + ${b} 70%`) },
   { weight: 1, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 1.2kg/s + ${b} 800L/s db=22C`) },
   { weight: 2, arbitrary: fc.tuple(name, name, name).map(([p, a, b]) => `process ${p}: ${a} -> ${b} m=2kg/s q_total=-30kW`) },
+  // Supplies from room loads (by db, by flow, a reference, infeasible), and a process from one.
+  { weight: 2, arbitrary: fc.tuple(name, name, fc.constantFrom('db=13.6C', 'm=3.9kg/s', 'q=3.4m3/s shr=0.84', 'db=X.db+0.8K', 'db=26C', 'db=13C rh=90%')).map(([n, r, tail]) => `supply ${n}: ${r} q_sensible=41.5kW q_latent=8kW ${tail.replace(/X\./g, `${r}.`)}`) },
   // References between states: defining, shifted, a claim beside them, pressure overrides, broken ones.
   { weight: 2, arbitrary: fc.tuple(name, name, fc.constantFrom('db=24C w=X.w', 'db=X.db+0.8K w=X.w', 'w=X.w db=20C rh=50%', 'db=X.db-1.8F rh=60% p=90kPa', 'h=X.h+2kJ/kg db=30C', 'dp=X.dp w=X.w', 'db=X.db w=X.db', 'db=X.', 'db=X.db*2 rh=5%')).map(([n, r, body]) => `state ${n}: ${body.replace(/X\./g, `${r}.`)}`) },
   { weight: 1, arbitrary: fc.constantFrom('site: elev=1600m', 'site: p=84.5kPa', 'units: IP', 'units: SI', 'state : db=', 'stat X: db=1C', '# a comment', '', '~~', '``', '~ a tilde', '  indented', 'process PX: OA -> m=1kg/s p=1', 'process PY: -> SA', 'mix MX:', 'mix MY: OA 50% + NOPE 50%', 'process PZ: OA -> SA x=1') },
@@ -35,7 +37,7 @@ const fence = fc.tuple(fc.constantFrom('```air', '~~~air', '> ```air', '- ```air
 /** A block whose mixes and processes refer to states defined above them (so that their results depend on those states). */
 const plant = fc.tuple(fc.constantFrom('', 'site: elev=800m\n'), fc.integer({ min: 18, max: 34 }), fc.integer({ min: 20, max: 80 }), fc.integer({ min: 5, max: 30 })).map(
   ([site, db, rh, oa]) =>
-    `\`\`\`air\n${site}state OA: db=${db}C rh=${rh}%\nstate RA: db=24C rh=50% w=9.3g/kg\nmix MA: OA ${oa}% + RA ${100 - oa}% db=25C\nstate SA: db=13C rh=90%\nprocess CC: MA -> SA m=2kg/s q_total=-40kW\nmix MB: OA 0.5kg/s + MA 1.5kg/s\nprocess HC: SA -> OA q=1.2m3/s\nstate PH: db=OA.db+5K w=OA.w h=60kJ/kg\nstate SB: db=MA.db+0.8K w=MA.w\n\`\`\``,
+    `\`\`\`air\n${site}state OA: db=${db}C rh=${rh}%\nstate RA: db=24C rh=50% w=9.3g/kg\nmix MA: OA ${oa}% + RA ${100 - oa}% db=25C\nstate SA: db=13C rh=90%\nprocess CC: MA -> SA m=2kg/s q_total=-40kW\nmix MB: OA 0.5kg/s + MA 1.5kg/s\nprocess HC: SA -> OA q=1.2m3/s\nstate PH: db=OA.db+5K w=OA.w h=60kJ/kg\nstate SB: db=MA.db+0.8K w=MA.w\nsupply SU: RA q_sensible=30kW q_latent=5kW db=SB.db+0.5K\nprocess RM: SU -> RA q_total=35kW\n\`\`\``,
 );
 const prose = fc.oneof(
   fc.constantFrom('# Plant room', 'Some prose.', '', '- a list item', '> quoted', '| a | b |\n|---|---|\n| 1 | 2 |', '    indented code'),

@@ -192,6 +192,9 @@ const mixLine = fc
 const processLine = fc
   .tuple(name, name, name, fc.constantFrom(' -> ', '->', ' => ', ' - > ', ' -> -> ', ' → '), processProps)
   .map(([n, a, b, arrow, props]) => `process ${n}: ${a}${arrow}${b} ${props.join(' ')}`);
+const supplyLine = fc
+  .tuple(name, name, fc.array(property(['q_sensible', 'q_latent', 'db', 'm', 'q', 'shr', 'rh', 'w']), { minLength: 0, maxLength: 5 }))
+  .map(([n, r, props]) => `supply ${n}: ${r} ${props.join(' ')}`);
 const siteLine = fc.oneof(
   property(['p', 'elev']).map((p) => `site: ${p}`),
   fc.constantFrom('site:', 'site: p=1kPa', 'site: p=1MPa', 'site: p=1000kPa', 'site: elev=11000m', 'site: elev=-5000m', 'site: p=84kPa elev=1600m', 'site p=84kPa'),
@@ -207,9 +210,10 @@ export const statement: fc.Arbitrary<string> = fc
       { weight: 5, arbitrary: stateLine },
       { weight: 3, arbitrary: mixLine },
       { weight: 3, arbitrary: processLine },
+      { weight: 2, arbitrary: supplyLine },
       { weight: 1, arbitrary: siteLine },
       { weight: 1, arbitrary: unitsLine },
-      { weight: 1, arbitrary: fc.tuple(fc.constantFrom('state', 'mix', 'process', 'site:', 'units:'), garbage(40)).map(([k, g]) => `${k} ${g}`) },
+      { weight: 1, arbitrary: fc.tuple(fc.constantFrom('state', 'mix', 'process', 'supply', 'site:', 'units:'), garbage(40)).map(([k, g]) => `${k} ${g}`) },
     ),
     comment,
   )

@@ -133,3 +133,32 @@ describe('completion of references', () => {
     expect(labels(air('state OA: db=32C wb=22.5C', 'state X: db=20C w=NOPE.|'))).toBeNull();
   });
 });
+
+describe('supply in the editor', () => {
+  it('hover shows the room loads, the room SHR, the flow as mass and volume, then the supply state', () => {
+    const { text, offsets } = marked(air('state RA: db=24C rh=50%', 'supply S|A: RA q_sensible=41.5kW q_latent=8kW db=13.6C'));
+    const h = hover(noteOf(text), offsets[0]!)!.markdown;
+    expect(h).toContain('**supply SA** — supply air for the loads of RA');
+    expect(h).toContain('| room sensible gain | 41.5 kW |');
+    // Room SHR 41.5 / (41.5 + 8) = 0.838 (arithmetic).
+    expect(h).toContain('| room SHR | 0.84 |');
+    expect(h).toMatch(/\| dry-air flow \| 3\.91 kg\/s \|/);
+    expect(h).toMatch(/\| volume flow at SA \| 3\.22 m³\/s \|/);
+    expect(tableValue(h, 'db')).toBe(13.6);
+    const ip = hover(noteOf(text, { units: 'IP' }), offsets[0]!)!.markdown;
+    expect(ip).toMatch(/\| volume flow at SA \| [\d,]+ cfm \|/);
+  });
+
+  it('completion: the room state after the colon, then the supply keys', () => {
+    const names = completions(noteOf(marked(air('state RA: db=24C rh=50%', 'supply SA: |')).text), marked(air('state RA: db=24C rh=50%', 'supply SA: |')).offsets[0]!);
+    expect(names?.items.map((i) => i.label)).toEqual(['RA']);
+    const { text, offsets } = marked(air('state RA: db=24C rh=50%', 'supply SA: RA |'));
+    expect(completions(noteOf(text), offsets[0]!)?.items.map((i) => i.label)).toEqual(expect.arrayContaining(['q_sensible', 'q_latent', 'db', 'm', 'q', 'shr']));
+  });
+
+  it('rename of the room state follows into the supply line', () => {
+    const { text, offsets } = marked(air('state R|A: db=24C rh=50%', 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C'));
+    const r = rename(noteOf(text), offsets[0]!, 'ROOM-1');
+    expect('edits' in r && applyEdits(text, r.edits)).toContain('supply SA: ROOM-1 q_sensible');
+  });
+});

@@ -187,6 +187,15 @@ describe('air injection grammar', () => {
     expect(scopesOf(lines, 1, 'K')).toContain('keyword.other.unit.air');
   });
 
+  it('a supply line: keyword, the name it defines, the room state it names', async () => {
+    const tokenize = await tokenizer(standInHost);
+    const lines = tokenize(['```air', 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C', '```', 'In prose, `supply SB: RA q_sensible=1kW q_latent=0kW m=1kg/s` too.'].join('\n'));
+    expect(scopesOf(lines, 1, 'supply')).toContain('keyword.control.supply.air');
+    expect(scopesOf(lines, 1, 'SA')).toContain('entity.name.type.supply.air');
+    expect(scopesOf(lines, 1, 'RA')).toContain('variable.other.state.air');
+    expect(scopesOf(lines, 3, 'supply')).toContain('keyword.control.supply.air');
+  });
+
   const haveVscodeMarkdown = existsSync(vscodeHost);
   const ci = process.env.CI === 'true' || process.env.CI === '1';
   it.skipIf(!haveVscodeMarkdown && !ci)(
