@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../src/analyze';
-import { MIX_KEYS, PROCESS_KEYS, SITE_KEYS, STATE_KEYS } from '../src/evaluate/keys';
+import { MIX_KEYS, PROCESS_KEYS, SITE_KEYS, STATE_KEYS, SUPPLY_KEYS } from '../src/evaluate/keys';
 import { parseNote } from '../src/notation/parse';
 import type { PropertyNode, Statement } from '../src/notation/ast';
 import { STATE_ROWS } from '../src/service/format';
@@ -22,6 +22,8 @@ function noteWith(statement: KeyStatement, example: string): string {
     mix: `mix X: A 40% + B 60% ${example}`,
     site: `site: ${example}`,
     process: `process X: A -> B ${example}`,
+    // A supply needs both loads and its dry-bulb or flow; the example replaces the one of its key.
+    supply: `supply X: A ${['q_sensible=4kW', 'q_latent=1kW', /^(m|q)=/.test(example) ? '' : 'db=13C'].filter((x) => x && !x.startsWith(example.split('=')[0]! + '=')).join(' ')} ${example}`,
   }[statement];
   // The flow keys need no flow beside them; the other process keys get one.
   const flow = statement === 'process' && !/^(m|q)=/.test(example) ? ' m=2kg/s' : '';
@@ -68,6 +70,7 @@ describe('the key table', () => {
     expect(Object.keys(MIX_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v']);
     expect(Object.keys(SITE_KEYS)).toEqual(['p', 'elev']);
     expect(Object.keys(PROCESS_KEYS)).toEqual(['m', 'q', 'q_total', 'q_sensible', 'q_latent', 'q_coil', 'shr', 'water']);
+    expect(Object.keys(SUPPLY_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'm', 'q', 'q_sensible', 'q_latent', 'shr']);
   });
 
   it('gives the hint keys and the hover rows in their order', () => {

@@ -18,23 +18,10 @@ export const MIX_KEYS = keysOf('mix');
 export const PROCESS_KEYS = keysOf('process');
 
 /**
- * Keys of `supply`: the room loads, the supply dry-bulb or the flow (one of them defines the
- * rest), and claims about the supply state and the room SHR.
+ * Keys of `supply`: the room loads (q_sensible, q_latent), the supply dry-bulb or the flow (m, q at
+ * the supply state; one of them defines the rest), and claims about the supply state and the room SHR.
  */
-export const SUPPLY_KEYS: Readonly<Record<string, KeySpec>> = {
-  q_sensible: { key: 'q_sensible', dimension: 'power', title: 'room sensible heat gain', bare: 'error', example: 'q_sensible=41.5kW' },
-  q_latent: { key: 'q_latent', dimension: 'power', title: 'room latent heat gain', bare: 'error', example: 'q_latent=8kW' },
-  db: STATE_KEYS.db!,
-  m: { key: 'm', dimension: 'massFlow', title: 'dry-air mass flow of the supply', bare: 'error', example: 'm=3.9kg/s' },
-  q: { key: 'q', dimension: 'volumeFlow', title: 'volume flow at the supply state', bare: 'error', example: 'q=3.4m3/s or q=7200cfm' },
-  wb: STATE_KEYS.wb!,
-  dp: STATE_KEYS.dp!,
-  rh: STATE_KEYS.rh!,
-  w: STATE_KEYS.w!,
-  h: STATE_KEYS.h!,
-  v: STATE_KEYS.v!,
-  shr: { key: 'shr', dimension: 'fraction', title: 'room sensible heat ratio', bare: 'si', example: 'shr=0.84' },
-};
+export const SUPPLY_KEYS = keysOf('supply');
 
 /** The state keys that can define a state (v is a claim only; p and elev set the pressure). */
 export const DEFINING_KEYS: readonly DefiningKey[] = ['db', 'wb', 'dp', 'rh', 'w', 'h'];

@@ -21,7 +21,7 @@ export type BareRule =
   | 'si';
 
 /** The statements a key may be written in. */
-export type KeyStatement = 'state' | 'mix' | 'site' | 'process';
+export type KeyStatement = 'state' | 'mix' | 'site' | 'process' | 'supply';
 
 /**
  * What a key is:
@@ -68,7 +68,9 @@ function alternatives(list: readonly string[]): string {
   return `${list.slice(0, -1).join(', ')} or ${list[list.length - 1]}`;
 }
 
-const STATE_AND_MIX = ['state', 'mix'] as const;
+const STATE_AND_MIX = ['state', 'mix', 'supply'] as const;
+/** The loads of a supply are the same figures as a process's heat rates (gains of the air). */
+const PROCESS_AND_SUPPLY = ['process', 'supply'] as const;
 
 /**
  * Every key, in the order of completion lists, hover rows and hint keys. One row per key; the
@@ -149,13 +151,13 @@ const ROWS = [
   },
   // --- processes: the flow, and claims about the results ---
   {
-    key: 'm', kind: 'flow', in: ['process'], dimension: 'massFlow', bare: 'error',
+    key: 'm', kind: 'flow', in: PROCESS_AND_SUPPLY, dimension: 'massFlow', bare: 'error',
     title: 'dry-air mass flow', description: 'dry-air mass flow through the process',
     examples: ['m=5.6kg/s', 'm=44000lb/h'],
     json: { name: 'm_kgs' },
   },
   {
-    key: 'q', kind: 'flow', in: ['process'], dimension: 'volumeFlow', bare: 'error',
+    key: 'q', kind: 'flow', in: PROCESS_AND_SUPPLY, dimension: 'volumeFlow', bare: 'error',
     title: 'volume flow at the entering state', description: 'volume flow of air at the entering state',
     examples: ['q=4.8m3/s', 'q=4800L/s', 'q=10000cfm'],
     json: { name: 'v_m3s' },
@@ -167,13 +169,13 @@ const ROWS = [
     json: { name: 'q_total_kW', over: 1000 },
   },
   {
-    key: 'q_sensible', kind: 'process-claim', in: ['process'], dimension: 'power', bare: 'error',
+    key: 'q_sensible', kind: 'process-claim', in: PROCESS_AND_SUPPLY, dimension: 'power', bare: 'error',
     title: 'sensible heat rate', description: 'claim: sensible heat rate',
     examples: ['q_sensible=72kW'],
     json: { name: 'q_sensible_kW', over: 1000 },
   },
   {
-    key: 'q_latent', kind: 'process-claim', in: ['process'], dimension: 'power', bare: 'error',
+    key: 'q_latent', kind: 'process-claim', in: PROCESS_AND_SUPPLY, dimension: 'power', bare: 'error',
     title: 'latent heat rate', description: 'claim: latent heat rate',
     examples: ['q_latent=26kW'],
     json: { name: 'q_latent_kW', over: 1000 },
@@ -185,7 +187,7 @@ const ROWS = [
     json: { name: 'q_coil_kW', over: 1000 },
   },
   {
-    key: 'shr', kind: 'process-claim', in: ['process'], dimension: 'fraction', bare: 'si',
+    key: 'shr', kind: 'process-claim', in: PROCESS_AND_SUPPLY, dimension: 'fraction', bare: 'si',
     title: 'sensible heat ratio', description: 'claim: sensible heat ratio (sensible / total); a bare number is a fraction',
     examples: ['shr=0.73'],
     json: { name: 'shr' },
