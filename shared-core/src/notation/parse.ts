@@ -84,7 +84,8 @@ export interface StatementParse {
   diagnostics: CoreDiagnostic[];
 }
 
-const KEYWORDS: readonly Keyword[] = STATEMENT_KEYWORDS;
+/** The statement keywords (found by the Markdown layer, which needs them for code spans). */
+export const KEYWORDS: readonly Keyword[] = STATEMENT_KEYWORDS;
 
 // ---------------------------------------------------------------------------------------------
 // Character classes

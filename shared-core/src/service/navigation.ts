@@ -5,7 +5,7 @@
  */
 import type { EvaluatedItem } from '../evaluate/types';
 import type { Keyword, NameNode } from '../notation/ast';
-import { STATEMENT_KEYWORDS } from '../markdown/regions';
+import { KEYWORDS } from '../notation/parse';
 import type { Span } from '../text/types';
 import { lineNumber, targetAt } from './note';
 import type { Edit, Note } from './types';
@@ -20,7 +20,7 @@ export interface DefinitionTarget {
 const NAME_RE = /^[A-Za-z][A-Za-z0-9_-]*$/;
 
 /** Words that cannot be names because they start statements. */
-const RESERVED: readonly Keyword[] = STATEMENT_KEYWORDS;
+const RESERVED: readonly Keyword[] = KEYWORDS;
 
 /** The name under the cursor (a definition or a reference), if any. */
 function nameAt(note: Note, offset: number): NameNode | undefined {
