@@ -5,7 +5,8 @@ import type { UnitSystem } from '../units/types';
 import { LineIndex } from '../text/lineIndex';
 import { solveForNote } from './solve';
 import type { EvaluateSettings, EvaluatedItem, PressureBasis } from './types';
-import { closest, formatSig } from './util';
+import { formatSig } from './util';
+import { caseFoldedIndex, suggestName, type FoldedIndex } from '../text/suggest';
 
 /** One name definition found by the pre-scan (state, mix or process). */
 export interface NameDef {
@@ -52,6 +53,8 @@ export class EvalContext {
   /** The note's text (for line numbers in messages), and its line index once a message needs it. */
   private readonly text: string | undefined;
   private lines: LineIndex | null = null;
+  /** The defined names indexed for "did you mean", built at the first unknown name (one index for all of them). */
+  private nameIndex: FoldedIndex | null = null;
 
   constructor(settings: EvaluateSettings, text: string | undefined) {
     this.settings = settings;
@@ -145,7 +148,8 @@ export class EvalContext {
       });
       return { ok: false, failed: false };
     }
-    const suggestion = closest(ref.text, this.allDefs.keys());
+    this.nameIndex ??= caseFoldedIndex(this.allDefs.keys());
+    const suggestion = suggestName(ref.text, this.nameIndex);
     this.report({
       code: 'unknown-name',
       severity: 'error',

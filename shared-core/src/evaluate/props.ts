@@ -4,7 +4,7 @@ import type { EvalContext } from './context';
 import type { KeySpec } from './keys';
 import type { ResolvedQuantity } from './quantity';
 import { readQuantity } from './quantity';
-import { closest } from './util';
+import { suggestName } from '../text/suggest';
 import { readReference, type ReadRef, type RefSite } from './refs';
 
 /** A property whose key is known and whose value was read. */
@@ -45,7 +45,7 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
     const spec = Object.prototype.hasOwnProperty.call(table, prop.key) ? table[prop.key] : undefined;
     if (!spec) {
       const keys = Object.keys(table);
-      const suggestion = closest(prop.key, keys);
+      const suggestion = suggestName(prop.key, keys);
       ctx.report({
         code: 'unknown-key',
         severity: 'error',

@@ -1,4 +1,4 @@
-/** Small helpers of the evaluator: spans, suggestions, number formatting. */
+/** Small helpers of the evaluator: spans, number formatting (suggestions: `../text/suggest`). */
 import type { Span } from '../text/types';
 
 /** The smallest span that covers all the given spans (the first one when only one). */
@@ -11,48 +11,6 @@ export function spanUnion(...spans: Span[]): Span {
   }
   if (!Number.isFinite(start) || !Number.isFinite(end)) return { start: 0, end: 0 };
   return { start, end };
-}
-
-/** Levenshtein edit distance (case-sensitive), bounded work for short words. */
-export function editDistance(a: string, b: string): number {
-  if (a === b) return 0;
-  if (a.length === 0) return b.length;
-  if (b.length === 0) return a.length;
-  let prev = new Array<number>(b.length + 1);
-  let cur = new Array<number>(b.length + 1);
-  for (let j = 0; j <= b.length; j++) prev[j] = j;
-  for (let i = 1; i <= a.length; i++) {
-    cur[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
-      cur[j] = Math.min(prev[j]! + 1, cur[j - 1]! + 1, prev[j - 1]! + cost);
-    }
-    [prev, cur] = [cur, prev];
-  }
-  return prev[b.length]!;
-}
-
-/**
- * The candidate closest to `word`, when it is close enough to be a plausible typo: an exact match
- * ignoring case, else an edit distance of at most 1 for short words and 2 for longer ones. A
- * one-character word gets no guess beyond case (replacing its only character is no typo: `Z` is
- * not a misspelt `A`).
- */
-export function closest(word: string, candidates: Iterable<string>): string | null {
-  let best: string | null = null;
-  let bestD = Infinity;
-  const lower = word.toLowerCase();
-  for (const c of candidates) {
-    if (c === word) continue;
-    if (c.toLowerCase() === lower) return c;
-    const d = editDistance(lower, c.toLowerCase());
-    if (d < bestD) {
-      bestD = d;
-      best = c;
-    }
-  }
-  const limit = word.length <= 1 ? 0 : word.length <= 3 ? 1 : 2;
-  return best !== null && bestD <= limit ? best : null;
 }
 
 /** Number of decimals that shows a value to the given place value (0.01 → 2, 1 → 0, 100 → 0). */

@@ -53,6 +53,7 @@ import type { Span } from '../text/types';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
 import { resolutionOf, scanNumber, startsNumber } from './number';
 import { findKey } from '../vocabulary/keys';
+import { SuggestIndex } from '../text/suggest';
 
 /** The diagnostic codes the parser reports, each with what it means. */
 export const SYNTAX_CODES = {
@@ -132,40 +133,16 @@ function endsUnit(c: number): boolean {
 // ---------------------------------------------------------------------------------------------
 // Suggestions
 
-function editDistance(a: string, b: string): number {
-  const m = a.length;
-  const n = b.length;
-  if (Math.abs(m - n) > 2) return 3;
-  let prev2: number[] = [];
-  let prev = Array.from({ length: n + 1 }, (_, j) => j);
-  for (let i = 1; i <= m; i++) {
-    const cur = [i];
-    for (let j = 1; j <= n; j++) {
-      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
-      let v = Math.min((prev[j] as number) + 1, (cur[j - 1] as number) + 1, (prev[j - 1] as number) + cost);
-      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) v = Math.min(v, (prev2[j - 2] as number) + 1);
-      cur.push(v);
-    }
-    prev2 = prev;
-    prev = cur;
-  }
-  return prev[n] as number;
-}
+const KEYWORD_INDEX = new SuggestIndex(KEYWORDS);
 
 function keywordAdvice(word: string): string {
   const lower = word.toLowerCase();
   for (const kw of KEYWORDS) {
     if (lower === kw) return `keywords are lowercase: write '${kw}'`;
   }
-  let best: Keyword | null = null;
-  let bestD = 3;
-  for (const kw of KEYWORDS) {
-    const d = editDistance(lower, kw);
-    if (d < bestD) {
-      bestD = d;
-      best = kw;
-    }
-  }
+  const near = KEYWORD_INDEX.nearest(lower, 2);
+  const best: Keyword | null = near ? KEYWORDS[near.index]! : null;
+  const bestD = near ? near.distance : 3;
   if (best && bestD <= 1) return `did you mean '${best}'?`;
   for (const kw of KEYWORDS) {
     if (word.length > kw.length && word.startsWith(kw)) {

@@ -13,6 +13,7 @@
  * conventional inch of mercury = 3386.389 Pa.
  */
 import type { Dimension, UnitDef, UnitSystem } from './types';
+import { nearest } from '../text/suggest';
 
 export type { Dimension, UnitDef, UnitSystem } from './types';
 
@@ -508,23 +509,12 @@ function foldKey(text: string): string {
 /** Gauge and water-column pressures look like accepted symbols but are not: never suggest for them. */
 const NO_SUGGESTION = new Set(['psig', 'kpag', 'barg', 'pag', 'inwg', 'inwc', 'inh2o', 'inaq', 'mmh2o', 'mmwg', 'mmhg']);
 
-/** Optimal-string-alignment edit distance (insert, delete, substitute, swap neighbours). */
-function editDistance(a: string, b: string): number {
-  const rows = a.length + 1;
-  const cols = b.length + 1;
-  const d: number[] = new Array<number>(rows * cols).fill(0);
-  const at = (i: number, j: number): number => d[i * cols + j] ?? 0;
-  for (let i = 0; i < rows; i++) d[i * cols] = i;
-  for (let j = 0; j < cols; j++) d[j] = j;
-  for (let i = 1; i < rows; i++) {
-    for (let j = 1; j < cols; j++) {
-      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
-      let v = Math.min(at(i - 1, j) + 1, at(i, j - 1) + 1, at(i - 1, j - 1) + cost);
-      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) v = Math.min(v, at(i - 2, j - 2) + 1);
-      d[i * cols + j] = v;
-    }
-  }
-  return at(rows - 1, cols - 1);
+/** Every spelling of every unit folded for comparison (`foldKey` without `/`), with its unit, in table order. */
+let looseSpellings: { spec: UnitSpec; loose: string }[] | null = null;
+
+function spellingsFolded(): { spec: UnitSpec; loose: string }[] {
+  looseSpellings ??= SPECS.flatMap((spec) => [spec.symbol, ...spec.aliases].map((s) => ({ spec, loose: foldKey(s).replace(/\//g, '') })));
+  return looseSpellings;
 }
 
 /**
@@ -558,16 +548,8 @@ export function suggestUnit(text: string, dimensions?: readonly Dimension[]): st
 
   const limit = looseKey.length <= 3 ? 0 : looseKey.length <= 5 ? 1 : 2;
   if (limit === 0) return undefined;
-  let best: UnitSpec | undefined;
-  let bestDistance = limit + 1;
-  for (const spec of candidates) {
-    for (const s of [spec.symbol, ...spec.aliases]) {
-      const dist = editDistance(looseKey, loose(foldKey(s)));
-      if (dist < bestDistance) {
-        best = spec;
-        bestDistance = dist;
-      }
-    }
-  }
-  return best?.symbol;
+  // The nearest spelling of a unit of the wanted dimensions (ties: the unit listed first).
+  const spellings = spellingsFolded().filter((x) => candidates.includes(x.spec));
+  const near = nearest(looseKey, spellings.map((x) => x.loose), limit);
+  return near ? spellings[near.index]!.spec.symbol : undefined;
 }
