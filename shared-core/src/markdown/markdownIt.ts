@@ -2,6 +2,22 @@
  * The CommonMark parser behind {@link scanMarkdown}: markdown-it with its `commonmark` preset,
  * instrumented to keep exact source positions.
  *
+ * COPIED FROM MARKDOWN-IT ({@link MARKDOWN_IT_COPIED_FROM}; `shared-core/test/markdown-it-version.test.ts`
+ * fails when the installed version, or one of the functions below as it ships, changes — then
+ * compare each copy with the new source and update the copy, the version and the fingerprints):
+ * - `cutLine` repeats the column counting of `StateBlock.prototype.getLines`, to know where each
+ *   line's piece of a paragraph or code block starts in the source (markdown-it only returns the
+ *   joined text);
+ * - `isClosingFence` repeats the closing-fence test of the `fence` block rule, to know whether a
+ *   fence was closed (markdown-it does not say);
+ * - `FastBlockState`'s constructor repeats `StateBlock`'s line table (found with `indexOf`, in
+ *   typed arrays), its `getLines` calls markdown-it's own only for lines that may hold a code
+ *   span, and its `push` and `FastInlineState`'s `push`/`pushPending` repeat markdown-it's with
+ *   a `Token` made by plain assignment (`FastToken`, the same fields as markdown-it's `Token`
+ *   constructor). These are for speed: on a long note they were most of the parse time and
+ *   allocation (`npm run bench -- parse`).
+ * Everything else is markdown-it's own code, called through thin wrappers.
+ *
  * markdown-it reports only line numbers for blocks and nothing for inline tokens, so a few of its
  * rules are wrapped (the wrapped rule runs unchanged and decides; the wrapper only records):
  * - `fence` and `code` record, per body line, where the line's content starts once container
@@ -17,6 +33,12 @@
  * from the spec.
  */
 import MarkdownIt from 'markdown-it';
+
+/**
+ * The markdown-it version the copies listed above were taken from; the version test compares it
+ * with the installed one.
+ */
+export const MARKDOWN_IT_COPIED_FROM = '15.0.3';
 import type { Env, MarkdownIt as Md, StateBlock, StateInline, Token } from 'markdown-it';
 
 /** How a block's inline content string was cut from the source: one piece per source line. */
@@ -241,13 +263,29 @@ function recordBlock(
   });
 }
 
-/** Creates the instrumented markdown-it instance (see the module comment). */
+/**
+ * Creates the instrumented markdown-it instance (see the module comment): the commonmark preset
+ * with the rules that cannot move a code span switched off, the recording wrappers, the
+ * corrections where markdown-it departs from CommonMark, and the faster tokens.
+ */
 export function createMarkdownIt(): Md {
   const md = new MarkdownIt('commonmark', { maxNesting: MAX_NESTING });
   md.disable(['emphasis', 'entity', 'newline']);
   md.validateLink = () => true;
   md.normalizeLink = (url: string) => url;
+  recordCodeBlocks(md);
+  recordInlineText(md);
+  dropUnreadBlocks(md);
+  recordCodeSpans(md);
+  keepLookingForHtmlEnds(md);
+  hideIndentedQuoteMarkers(md);
+  continueParagraphsAfterReferences(md);
+  useFastTokens(md);
+  return md;
+}
 
+/** Fenced and indented code blocks: where each body line's content is, and whether a fence closed. */
+function recordCodeBlocks(md: Md): void {
   wrapBlock(md, 'fence', (orig) => (state, startLine, endLine, silent) => {
     const n = state.tokens.length;
     const ok = orig(state, startLine, endLine, silent);
@@ -274,26 +312,31 @@ export function createMarkdownIt(): Md {
     dropTokens(state, n);
     return ok;
   });
+}
 
-  const recordInline = (state: StateBlock, inlineIndex: number, begin: number, end: number): void => {
-    const token = state.tokens[inlineIndex];
-    if (!token || token.type !== 'inline') return;
-    if (token.content.indexOf('`') < 0) return; // no backtick, no code span: nothing to map
-    token.meta = { dewmarkMap: inlineMap(state, begin, end, state.blkIndent) };
-    collectorOf(state.env)?.inlines.push(token);
-  };
+/** Gives a paragraph's or setext heading's inline token its {@link InlineMap} when it may hold a code span. */
+function recordInline(state: StateBlock, inlineIndex: number, begin: number, end: number): void {
+  const token = state.tokens[inlineIndex];
+  if (!token || token.type !== 'inline') return;
+  if (token.content.indexOf('`') < 0) return; // no backtick, no code span: nothing to map
+  token.meta = { dewmarkMap: inlineMap(state, begin, end, state.blkIndent) };
+  collectorOf(state.env)?.inlines.push(token);
+}
 
-  const recordHeading = (state: StateBlock, openIndex: number, startLine: number, lastLine: number): void => {
-    const col = collectorOf(state.env);
-    const open = state.tokens[openIndex];
-    const inline = state.tokens[openIndex + 1];
-    if (!col || !open || !inline || open.type !== 'heading_open') return;
-    const start = (state.bMarks[startLine] as number) + (state.tShift[startLine] as number);
-    let end = state.eMarks[lastLine] as number;
-    while (end > start && isSpace(state.src.charCodeAt(end - 1))) end--;
-    col.headings.push({ level: Number(open.tag.slice(1)) || 1, token: inline, start, end });
-  };
+/** Records the heading whose `heading_open` token is at `openIndex` (for the outline). */
+function recordHeading(state: StateBlock, openIndex: number, startLine: number, lastLine: number): void {
+  const col = collectorOf(state.env);
+  const open = state.tokens[openIndex];
+  const inline = state.tokens[openIndex + 1];
+  if (!col || !open || !inline || open.type !== 'heading_open') return;
+  const start = (state.bMarks[startLine] as number) + (state.tShift[startLine] as number);
+  let end = state.eMarks[lastLine] as number;
+  while (end > start && isSpace(state.src.charCodeAt(end - 1))) end--;
+  col.headings.push({ level: Number(open.tag.slice(1)) || 1, token: inline, start, end });
+}
 
+/** Paragraphs and headings: how their inline text was cut from the source, and the headings themselves. */
+function recordInlineText(md: Md): void {
   wrapBlock(md, 'paragraph', (orig) => (state, startLine, endLine, silent) => {
     const n = state.tokens.length;
     const ok = orig(state, startLine, endLine, silent);
@@ -342,21 +385,22 @@ export function createMarkdownIt(): Md {
     dropTokens(state, n);
     return ok;
   });
+}
 
-  wrapBlock(md, 'html_block', (orig) => (state, startLine, endLine, silent) => {
-    const n = state.tokens.length;
-    const ok = orig(state, startLine, endLine, silent);
-    if (ok && !silent) dropTokens(state, n);
-    return ok;
-  });
+/** HTML blocks and thematic breaks hold no code span: their tokens are dropped at once. */
+function dropUnreadBlocks(md: Md): void {
+  for (const name of ['html_block', 'hr']) {
+    wrapBlock(md, name, (orig) => (state, startLine, endLine, silent) => {
+      const n = state.tokens.length;
+      const ok = orig(state, startLine, endLine, silent);
+      if (ok && !silent) dropTokens(state, n);
+      return ok;
+    });
+  }
+}
 
-  wrapBlock(md, 'hr', (orig) => (state, startLine, endLine, silent) => {
-    const n = state.tokens.length;
-    const ok = orig(state, startLine, endLine, silent);
-    if (ok && !silent) dropTokens(state, n);
-    return ok;
-  });
-
+/** Every code span of the top-level inline pass, as offsets in the inline content string. */
+function recordCodeSpans(md: Md): void {
   wrapInline(md, 'backticks', (orig) => (state, silent) => {
     const start = state.pos;
     const n = state.tokens.length;
@@ -370,11 +414,15 @@ export function createMarkdownIt(): Md {
     }
     return ok;
   });
+}
 
-  // markdown-it stops looking for HTML comments, processing instructions, declarations and CDATA
-  // for the rest of a paragraph once one of them had no end, even of another kind or found during
-  // a look-ahead past the current position (a link label scan); CommonMark has no such rule.
-  // Remember instead, per kind, the first position from which the end is known to be missing.
+/**
+ * markdown-it stops looking for HTML comments, processing instructions, declarations and CDATA
+ * for the rest of a paragraph once one of them had no end, even of another kind or found during
+ * a look-ahead past the current position (a link label scan); CommonMark has no such rule.
+ * Remember instead, per kind, the first position from which the end is known to be missing.
+ */
+function keepLookingForHtmlEnds(md: Md): void {
   const noEndFrom = new WeakMap<StateInline, Map<string, number>>();
   wrapInline(md, 'html_inline', (orig) => (state, silent) => {
     const pos = state.pos;
@@ -392,13 +440,17 @@ export function createMarkdownIt(): Md {
     }
     return ok;
   });
+}
 
-  // markdown-it departs from CommonMark around block quotes in two ways, both corrected here by
-  // hiding a line's first character from the block-quote rule while it runs (its indentation is
-  // pointed one whitespace earlier, so no block start is seen there and the line is lazy text):
-  // - a `>` after four or more columns of indentation is taken as a block-quote marker;
-  // - a lazy line of an outer quote reaches an inner one without its indentation, so a line like
-  //   `    # x` could end the inner quote as a heading.
+/**
+ * markdown-it departs from CommonMark around block quotes in two ways, both corrected here by
+ * hiding a line's first character from the block-quote rule while it runs (its indentation is
+ * pointed one whitespace earlier, so no block start is seen there and the line is lazy text):
+ * - a `>` after four or more columns of indentation is taken as a block-quote marker;
+ * - a lazy line of an outer quote reaches an inner one without its indentation, so a line like
+ *   `    # x` could end the inner quote as a heading.
+ */
+function hideIndentedQuoteMarkers(md: Md): void {
   wrapBlock(md, 'blockquote', (orig) => (state, startLine, endLine, silent) => {
     if (silent) return orig(state, startLine, endLine, silent);
     const hidden: number[] = [];
@@ -420,10 +472,14 @@ export function createMarkdownIt(): Md {
       for (let i = 0; i < hidden.length; i += 2) state.tShift[hidden[i] as number] = hidden[i + 1] as number;
     }
   });
+}
 
-  // CommonMark reads link reference definitions from the start of a paragraph, so the lines after
-  // them that would continue that paragraph (indented lines, `2.` lists, HTML that cannot
-  // interrupt a paragraph…) are still paragraph text; markdown-it starts a fresh block there.
+/**
+ * CommonMark reads link reference definitions from the start of a paragraph, so the lines after
+ * them that would continue that paragraph (indented lines, `2.` lists, HTML that cannot
+ * interrupt a paragraph…) are still paragraph text; markdown-it starts a fresh block there.
+ */
+function continueParagraphsAfterReferences(md: Md): void {
   const ruleFn = (name: string): BlockRule => {
     const rule = md.block.ruler.__rules__.find((r) => r.name === name);
     if (!rule) throw new Error(`markdown-it has no block rule '${name}'`);
@@ -448,9 +504,6 @@ export function createMarkdownIt(): Md {
     };
     return reference;
   });
-
-  useFastTokens(md);
-  return md;
 }
 
 /**
