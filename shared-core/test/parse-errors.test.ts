@@ -3,28 +3,8 @@
  * wrong and how to fix it, and recovery (what the parser still reads, and the next statement).
  */
 import { describe, expect, it } from 'vitest';
-import type { QuantityNode, Statement } from '../src/notation/ast';
 import { parseNote, SYNTAX_CODES } from '../src/notation/parse';
-
-const q = (v: QuantityNode | null): string => (v ? `${v.number.text}${v.unit?.text ?? ''}${v.tolerance ? `±${v.tolerance.number.text}${v.tolerance.unit?.text ?? ''}` : ''}` : '?');
-
-function summary(st: Statement): string {
-  const props = 'props' in st ? st.props.map((p) => `${p.key}=${q(p.value)}`).join(' ') : '';
-  switch (st.keyword) {
-    case 'units':
-      return `units: ${st.system?.text ?? '?'}`;
-    case 'site':
-      return `site: ${props}`;
-    case 'state':
-      return `state ${st.name?.text ?? '?'}: ${props}`;
-    case 'mix':
-      return `mix ${st.name?.text ?? '?'}: ${st.streams.map((s) => `${s.name.text} ${q(s.amount)}`).join(' + ')}${props ? ` | ${props}` : ''}`;
-    case 'process':
-      return `process ${st.name?.text ?? '?'}: ${st.from?.text ?? '?'} -> ${st.to?.text ?? '?'}${props ? ` | ${props}` : ''}`;
-    case 'supply':
-      return `supply ${st.name?.text ?? '?'}: ${st.room?.text ?? '?'}${props ? ` | ${props}` : ''}`;
-  }
-}
+import { statementText as summary } from './notation-helpers';
 
 /** [code, text of the marked range, a fragment the message must contain]. */
 type Diag = [code: keyof typeof SYNTAX_CODES, marked: string, says: string];

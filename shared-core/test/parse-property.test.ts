@@ -6,51 +6,9 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import type { ParsedNote, QuantityNode, Statement } from '../src/notation/ast';
-import type { Span } from '../src/text/types';
+import type { ParsedNote, Statement } from '../src/notation/ast';
 import { parseNote } from '../src/notation/parse';
-
-/** Every span in the result, with a label for the failure message. */
-function allSpans(p: ParsedNote): [string, Span][] {
-  const out: [string, Span][] = [];
-  const q = (label: string, v: QuantityNode | null) => {
-    if (!v) return;
-    out.push([`${label}.value`, v.span], [`${label}.number`, v.number.span]);
-    if (v.unit) out.push([`${label}.unit`, v.unit.span]);
-    if (v.tolerance) {
-      out.push([`${label}.tolerance`, v.tolerance.span], [`${label}.tolerance.number`, v.tolerance.number.span]);
-      if (v.tolerance.unit) out.push([`${label}.tolerance.unit`, v.tolerance.unit.span]);
-    }
-  };
-  p.regions.forEach((r, i) => {
-    out.push([`region ${i}`, r.span], [`region ${i} content`, r.contentSpan]);
-    const lines = (r as { lines?: Span[] }).lines ?? [];
-    lines.forEach((l, k) => out.push([`region ${i} line ${k}`, l]));
-  });
-  p.headings.forEach((h, i) => out.push([`heading ${i}`, h.span]));
-  p.diagnostics.forEach((d, i) => out.push([`diagnostic ${i} ${d.code}`, d.span]));
-  p.statements.forEach((s: Statement, i) => {
-    const at = `statement ${i}`;
-    out.push([at, s.span], [`${at} keyword`, s.keywordSpan]);
-    if ('name' in s && s.name) out.push([`${at} name`, s.name.span]);
-    if ('props' in s)
-      s.props.forEach((pr, k) => {
-        out.push([`${at} prop ${k}`, pr.span], [`${at} prop ${k} key`, pr.keySpan]);
-        q(`${at} prop ${k}`, pr.value);
-      });
-    if (s.keyword === 'units' && s.system) out.push([`${at} system`, s.system.span]);
-    if (s.keyword === 'process') {
-      if (s.from) out.push([`${at} from`, s.from.span]);
-      if (s.to) out.push([`${at} to`, s.to.span]);
-    }
-    if (s.keyword === 'mix')
-      s.streams.forEach((st, k) => {
-        out.push([`${at} stream ${k}`, st.span], [`${at} stream ${k} name`, st.name.span]);
-        q(`${at} stream ${k}`, st.amount);
-      });
-  });
-  return out;
-}
+import { noteSpans as allSpans } from './notation-helpers';
 
 function assertWellFormed(text: string, p: ParsedNote): void {
   for (const [label, s] of allSpans(p)) {

@@ -3,72 +3,21 @@
  * compact summary, the statement spans as text, and every node's span read back from the input.
  */
 import { describe, expect, it } from 'vitest';
-import type { PropertyNode, QuantityNode, Statement } from '../src/notation/ast';
+import type { Statement } from '../src/notation/ast';
 import { parseNote, parseStatementText } from '../src/notation/parse';
-
-const q = (v: QuantityNode | null): string =>
-  v ? `${v.number.text}${v.unit?.text ?? ''}${v.tolerance ? `±${v.tolerance.number.text}${v.tolerance.unit?.text ?? ''}` : ''}` : '?';
-const props = (ps: PropertyNode[]): string => ps.map((p) => `${p.key}=${q(p.value)}`).join(' ');
-const tail = (ps: PropertyNode[]): string => (ps.length ? ` | ${props(ps)}` : '');
-
-/** A statement in one line: `state RA: db=24C rh=50%±2`, `mix MA: OA 25% + RA 75% | db=26C`… */
-function summary(st: Statement): string {
-  switch (st.keyword) {
-    case 'site':
-      return `site: ${props(st.props)}`;
-    case 'units':
-      return `units: ${st.system?.text ?? '?'}`;
-    case 'state':
-      return `state ${st.name?.text ?? '?'}: ${props(st.props)}`;
-    case 'mix':
-      return `mix ${st.name?.text ?? '?'}: ${st.streams.map((s) => `${s.name.text} ${q(s.amount)}`).join(' + ')}${tail(st.props)}`;
-    case 'process':
-      return `process ${st.name?.text ?? '?'}: ${st.from?.text ?? '?'} -> ${st.to?.text ?? '?'}${tail(st.props)}`;
-    case 'supply':
-      return `supply ${st.name?.text ?? '?'}: ${st.room?.text ?? '?'}${tail(st.props)}`;
-  }
-}
+import { statementNodes, statementText as summary } from './notation-helpers';
 
 /** Every node's span must give back its own text; nested spans must lie inside their parents. */
 function verifySpans(md: string, st: Statement): void {
-  const cut = (s: { start: number; end: number }) => md.slice(s.start, s.end);
-  const inside = (s: { start: number; end: number }, outer: { start: number; end: number }) => {
-    expect(s.start).toBeGreaterThanOrEqual(outer.start);
-    expect(s.end).toBeLessThanOrEqual(outer.end);
-  };
-  expect(cut(st.keywordSpan)).toBe(st.keyword);
-  inside(st.keywordSpan, st.span);
-  const quantity = (v: QuantityNode | null, outer: { start: number; end: number }) => {
-    if (!v) return;
-    inside(v.span, outer);
-    expect(cut(v.number.span)).toBe(v.number.text);
-    if (v.unit) expect(cut(v.unit.span)).toBe(v.unit.text);
-    if (v.tolerance) {
-      expect(cut(v.tolerance.number.span)).toBe(v.tolerance.number.text);
-      if (v.tolerance.unit) expect(cut(v.tolerance.unit.span)).toBe(v.tolerance.unit.text);
-      expect(cut(v.tolerance.span)).toMatch(/^(±|\+-)/);
-    }
-  };
-  const propsOf = 'props' in st ? st.props : [];
-  for (const p of propsOf) {
-    inside(p.span, st.span);
-    expect(cut(p.keySpan)).toBe(p.key);
-    quantity(p.value, p.span);
-  }
-  const names = [
-    'name' in st ? st.name : null,
-    st.keyword === 'process' ? st.from : null,
-    st.keyword === 'process' ? st.to : null,
-    st.keyword === 'units' ? st.system : null,
-  ];
-  if (st.keyword === 'mix') {
-    for (const s of st.streams) {
-      inside(s.span, st.span);
-      names.push(s.name);
-      quantity(s.amount, s.span);
+  for (const n of statementNodes(st)) {
+    const text = md.slice(n.span.start, n.span.end);
+    if (n.text !== undefined) expect(text, n.label).toBe(n.text);
+    if (n.pattern) expect(text, n.label).toMatch(n.pattern);
+    if (n.parent) {
+      expect(n.span.start, n.label).toBeGreaterThanOrEqual(n.parent.start);
+      expect(n.span.end, n.label).toBeLessThanOrEqual(n.parent.end);
     }
   }
-  for (const n of names) if (n) expect(cut(n.span)).toBe(n.text);
 }
 
 /** Statements of `md` (summaries, in order), their span texts when given, and no diagnostics. */
