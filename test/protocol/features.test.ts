@@ -4,6 +4,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CancellationTokenSource } from 'vscode-jsonrpc/node';
+import type { NoteStatusResult } from '@dewmark/protocol';
 import { cursors, FULL_CAPABILITIES, positionOf, startServer, tableValue, type Position, type Range, type Session } from './harness';
 
 // ASHRAE HoF 2017 SI Ch.1 Example 1: 40 °C db, 20 °C wb at 101.325 kPa → W 0.0065 kg/kg (±0.0001),
@@ -264,7 +265,7 @@ describe('settings, cancellation and custom requests', () => {
   });
 
   it('answers dewmark/noteStatus with the units and the pressure basis', async () => {
-    const status = await s.request<{ units: string; unitsSource: string; pressureLabel: string }>('dewmark/noteStatus', { textDocument: { uri: URI } });
+    const status = await s.request<NoteStatusResult>('dewmark/noteStatus', { textDocument: { uri: URI } });
     expect(status).toMatchObject({ units: 'SI', unitsSource: 'setting', pressureLabel: 'site 101.325 kPa' });
   });
 

@@ -8,6 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
+import type { CheckWorkspaceResult } from '@dewmark/protocol';
 import { FULL_CAPABILITIES, PUSH_ONLY_CAPABILITIES, startServer, tableValue } from './harness';
 
 const dirs: string[] = [];
@@ -79,7 +80,7 @@ describe('check all notes in the workspace', () => {
     try {
       const folder = pathToFileURL(root).href;
       await s.initialize(FULL_CAPABILITIES, { workspaceFolders: [{ uri: folder, name: 'ws' }] });
-      const result = await s.request<{ notes: { uri: string; errors: number; warnings: number }[]; filesRead: number; errors: number; warnings: number }>('dewmark/checkWorkspace', {
+      const result = await s.request<CheckWorkspaceResult>('dewmark/checkWorkspace', {
         workDoneToken: 'check-1',
       });
       expect(result.filesRead).toBe(3);

@@ -4,6 +4,7 @@
  * `stale-results-table` diagnostic and its quick fix, for a full client and a push-only one.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { ResultsTableResult } from '@dewmark/protocol';
 import { FULL_CAPABILITIES, PUSH_ONLY_CAPABILITIES, positionOf, startServer, type Range, type Session } from './harness';
 
 const NOTE = [
@@ -30,15 +31,10 @@ interface TextEdit {
   range: Range;
   newText: string;
 }
-interface Result {
+/** The server's result (`@dewmark/protocol`), its `edit` typed as the text edits the server sends (versioned, or by URI). */
+type Result = Omit<ResultsTableResult, 'edit'> & {
   edit: { documentChanges?: { textDocument: { uri: string; version: number }; edits: TextEdit[] }[]; changes?: Record<string, TextEdit[]> } | null;
-  blocks: number;
-  inserted: number;
-  refreshed: number;
-  unchanged: number;
-  unterminated: number;
-  version: number;
-}
+};
 interface Action {
   title: string;
   kind: string;

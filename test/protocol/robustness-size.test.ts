@@ -5,6 +5,7 @@
  * single line is under the default and evaluated as usual. (Timings are in bench/robustness.ts.)
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { NoteStatusResult } from '@dewmark/protocol';
 import { FULL_CAPABILITIES, PUSH_ONLY_CAPABILITIES, startServer, type Range, type Session } from './harness';
 
 /** A note of about `chars` characters: blocks of states and mixes under headings (an invented campus). */
@@ -62,7 +63,7 @@ describe('notes over the size limit', () => {
     expect(await s.request('textDocument/inlayHint', { ...td, range: { start: { line: 0, character: 0 }, end: { line: 200, character: 0 } } })).toEqual([]);
     expect(await s.request('textDocument/documentSymbol', td)).toEqual([]);
     expect(await s.request('textDocument/codeAction', { ...td, range: { start: pos, end: pos }, context: { diagnostics: [] } })).toEqual([]);
-    const status = await s.request<{ units: string }>('dewmark/noteStatus', td);
+    const status = await s.request<NoteStatusResult>('dewmark/noteStatus', td);
     expect(status.units).toBe('SI');
     // Typing on: still one diagnostic, for the new version.
     await s.change(uri, 2, [{ range: { start: { line: 6, character: 0 }, end: { line: 6, character: 0 } }, text: 'x' }]);

@@ -12,6 +12,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { createMessageConnection, StreamMessageReader, StreamMessageWriter } from 'vscode-jsonrpc/node';
+import type { CheckWorkspaceResult } from '@dewmark/protocol';
 import { FULL_CAPABILITIES, repoRoot, serverBin, Session } from '../protocol/harness';
 import { AUDIT_PRELOAD as AUDIT, auditRecords, snapshot } from './audit';
 
@@ -85,7 +86,7 @@ describe('the language server under the audit', () => {
       expect(answers.filter((a) => a !== null).length).toBeGreaterThan(8);
       await s.change(uri, 2, [{ range: { start: { line: 3, character: 13 }, end: { line: 3, character: 15 } }, text: '35' }]);
       await s.connection.sendNotification('workspace/didChangeConfiguration', { settings: { dewmark: { units: 'IP' } } });
-      const checked = await s.request<{ filesRead: number; errors: number }>('dewmark/checkWorkspace', {});
+      const checked = await s.request<CheckWorkspaceResult>('dewmark/checkWorkspace', {});
       expect(checked.filesRead).toBe(2); // read, not written
       expect(checked.errors).toBeGreaterThan(0);
       await s.connection.sendNotification('textDocument/didClose', td);
