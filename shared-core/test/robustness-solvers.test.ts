@@ -11,7 +11,7 @@
  * pressures of the grid are the edges named by the engine's own range (−100…200 °C) and common
  * practice (1 kPa, a vacuum process; 1 MPa, a compressed-air receiver).
  */
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import {
   DEFINING_KEYS,
   PsychroError,
@@ -22,9 +22,8 @@ import {
   type MoistAirState,
   type PhysicsCode,
 } from '../src/physics';
-import { rootInfo } from '../src/physics/roots';
-import { satTempDeriv } from '../src/physics/saturation';
-import { wetBulbInfo } from '../src/physics/wetbulb';
+import { satTempDeriv, satTempFromLn, satTempRaw } from '../src/physics/saturation';
+import { wetBulbSolve } from '../src/physics/wetbulb';
 import { analyzeNote } from '../src/analyze';
 import { allFinite } from '../src/evaluate';
 
@@ -41,25 +40,45 @@ const TEMPS = [-100, -99.999, -60, -0.001, 0, 0.01, 0.02, 25, 99.97, 100, 150, 1
 /** Relative humidities from bone-dry to saturated, and a hair below saturation. */
 const RHS = [0, 1e-9, 0.01, 0.5, 0.999999, 1 - 1e-12, 1];
 
-/** Iterations the solves used, maximum over every call of a test (the scratch counters of each solver). */
-const seen = { sat: 0, wb: 0, root: 0 };
+/**
+ * Iterations of the bracketed root finder, maximum over every call while `counting` is set: each
+ * iteration evaluates the function once, so the module is wrapped to count the evaluations.
+ */
+const roots = vi.hoisted(() => ({ counting: false, most: 0 }));
+vi.mock('../src/physics/roots', async (importOriginal) => {
+  const real = await importOriginal<typeof import('../src/physics/roots')>();
+  return {
+    ...real,
+    findRoot: (f: (x: number) => number, ...rest: [number, number, number, number, number?, number?]) => {
+      let n = 0;
+      const x = real.findRoot((t) => (n++, f(t)), ...rest);
+      if (roots.counting) roots.most = Math.max(roots.most, n);
+      return x;
+    },
+  };
+});
+
+/** The states the grid tests solved (their saturation and wet-bulb solves are checked against a lower bound at the end). */
+const solved: MoistAirState[] = [];
 
 function solve(input: Partial<Record<DefiningKey, number>>, p: number, record = true): ReturnType<typeof solveState> {
-  satTempDeriv.iterations = 0;
-  wetBulbInfo.iterations = 0;
-  rootInfo.iterations = 0;
   let r: ReturnType<typeof solveState>;
+  roots.counting = record;
   try {
     r = solveState(input, p, { allowFog: true });
   } catch (err) {
     throw new Error(`solveState threw for ${JSON.stringify(input)} at ${p} Pa: ${String(err)}`);
+  } finally {
+    roots.counting = false;
   }
-  if (record) {
-    seen.sat = Math.max(seen.sat, satTempDeriv.iterations);
-    seen.wb = Math.max(seen.wb, wetBulbInfo.iterations);
-    seen.root = Math.max(seen.root, rootInfo.iterations);
-  }
+  if (record && r.ok) solved.push(r.state);
   return r;
+}
+
+/** Whether the solve `run(bound)` gives the same answer under `bound` as under its own bound (it converged within `bound`). */
+function convergesWithin(bound: number, run: (maxIter?: number) => number): boolean {
+  const full = run();
+  return Number.isNaN(full) || Object.is(run(bound), full);
 }
 
 /** Checks a solved state against the definitions of its properties (ASHRAE HoF 2017 SI Ch.1). */
@@ -263,18 +282,47 @@ describe('every solve at the edges returns a state or a typed problem', () => {
     }
   });
 
-  it('the iterative solves converge in few iterations at every edge (counted over all the tests above)', () => {
-    // Runs after the grid tests in this file; the counters are the solvers' own (satTempDeriv,
-    // wetBulbInfo, rootInfo). Hard bounds are 80, 100 and 200; convergence takes far fewer.
+  it('the iterative solves converge in few iterations at every edge (over the states of all the tests above)', () => {
+    // Runs after the grid tests in this file. Hard bounds are 80 (saturation inversion), 100
+    // (wet-bulb) and 200 (bracketed root); convergence takes far fewer: each saturation and
+    // wet-bulb solve of those states gives the same result under the lower bound, and the root
+    // finder (counted while the grid ran) used at most 120.
     const extra = solve({ wb: 30, rh: 0.2 }, 101_325);
     expect(extra.ok).toBe(true);
-    console.log(`[solvers] most iterations seen: saturation inversion ${seen.sat}, wet-bulb ${seen.wb}, bracketed root ${seen.root}`);
-    expect(seen.sat).toBeGreaterThan(0);
-    expect(seen.wb).toBeGreaterThan(0);
-    expect(seen.root).toBeGreaterThan(0);
-    expect(seen.sat).toBeLessThanOrEqual(20);
-    expect(seen.wb).toBeLessThanOrEqual(40);
-    expect(seen.root).toBeLessThanOrEqual(120);
+    expect(solved.length).toBeGreaterThan(500);
+    const slowSat: string[] = [];
+    const slowWb: string[] = [];
+    let wbSolves = 0;
+    for (const s of solved) {
+      for (const pw of [s.pw, s.pws]) {
+        if (pw > 0 && !convergesWithin(20, (bound) => satTempFromLn(Math.log(pw), bound))) slowSat.push(`pw ${pw} Pa`);
+      }
+      // The wet-bulb solve as wetBulbFromHumRatio starts it: from the dew point and its slopes.
+      if (!(s.pw > 0 && s.pws < s.p)) continue;
+      const dp = satTempRaw(s.pw);
+      const { d1, d2 } = satTempDeriv;
+      wbSolves++;
+      if (!convergesWithin(40, (bound) => wetBulbSolve(s.db, s.w, s.p, s.pw, dp, d1, d2, s.pws, bound))) slowWb.push(`db ${s.db} w ${s.w} p ${s.p}`);
+    }
+    console.log(`[solvers] ${solved.length} states; most bracketed-root iterations ${roots.most}`);
+    expect(wbSolves).toBeGreaterThan(300);
+    expect(slowSat).toEqual([]);
+    expect(slowWb).toEqual([]);
+    expect(roots.most).toBeGreaterThan(0);
+    expect(roots.most).toBeLessThanOrEqual(120);
+  });
+
+  it('the lower-bound check can fail: a solve cut short is told apart', () => {
+    // 24 °C, 50 % at sea level (a state of the grid's kind); no iteration allowed: not converged.
+    const r = solveState({ db: 24, rh: 0.5 }, 101_325);
+    if (!r.ok) throw new Error(r.problem.message);
+    const s = r.state;
+    const dp = satTempRaw(s.pw);
+    const { d1, d2 } = satTempDeriv;
+    const wb = (bound?: number) => wetBulbSolve(s.db, s.w, s.p, s.pw, dp, d1, d2, s.pws, bound);
+    expect(convergesWithin(0, wb)).toBe(false);
+    expect(convergesWithin(40, wb)).toBe(true);
+    expect(convergesWithin(0, (bound) => satTempFromLn(Math.log(s.pw), bound))).toBe(false);
   });
 });
 

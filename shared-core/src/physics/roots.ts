@@ -4,9 +4,6 @@
  * halves every three evaluations. Always bounded; never leaves the bracket.
  */
 
-/** Scratch result of {@link findRoot}: iterations used. */
-export const rootInfo = { iterations: 0 };
-
 /**
  * Root of f on [a, b] where f(a) and f(b) have opposite signs (or one is 0), to within `xtol`.
  * `fa`, `fb` are f(a), f(b). Returns NaN when `maxIter` is reached.
@@ -24,7 +21,6 @@ export function findRoot(
   if (fb === 0) return b;
   let side = 0;
   for (let i = 0; i < maxIter; i++) {
-    rootInfo.iterations = i + 1;
     let x = (a * fb - b * fa) / (fb - fa);
     // Every third step, or when the interpolation is not strictly inside, bisect.
     if (!(x > Math.min(a, b) && x < Math.max(a, b)) || i % 3 === 2) x = 0.5 * (a + b);

@@ -132,7 +132,7 @@ export function satVapPres(tC: number): number {
  * d(ln pws)/dT and d²(ln pws)/dT² at the last iterate (within 2e-3 K of the returned
  * temperature), on the branch it used.
  */
-export const satTempDeriv = { d1: 0, d2: 0, ice: false, iterations: 0 };
+export const satTempDeriv = { d1: 0, d2: 0, ice: false };
 
 const MAX_SAT_ITER = 80;
 
@@ -179,8 +179,11 @@ function guessInvT(y: number): number {
   return 0.004716631267717025 + u * (-0.0010564463114664938 + u * (1.7491470919235039e-6 + u * (-7.184624671311322e-7 + u * (-2.8042142705221276e-7 + u * -7.592484644638091e-8))));
 }
 
-/** As {@link satTempRaw}, from y = ln(pw) (saves a logarithm when the caller has it). */
-export function satTempFromLn(y: number): number {
+/**
+ * As {@link satTempRaw}, from y = ln(pw) (saves a logarithm when the caller has it). `maxIter`
+ * lowers the iteration bound (tests check the inversion converges well within it).
+ */
+export function satTempFromLn(y: number, maxIter = MAX_SAT_ITER): number {
   const ice = y < LN_PWS_TRIPLE;
   satTempDeriv.ice = ice;
   // Iterate in kelvin, keeping x = 1/T alongside T (the first guess gives x directly).
@@ -208,7 +211,7 @@ export function satTempFromLn(y: number): number {
     T = 0.5 * (lo + hi);
     x = 1 / T;
   }
-  for (let i = 0; i < MAX_SAT_ITER; i++) {
+  for (let i = 0; i < maxIter; i++) {
     const lnT = Math.log(T);
     let f: number;
     let d1: number;
@@ -237,13 +240,11 @@ export function satTempFromLn(y: number): number {
       // Slopes at the last iterate (within 2e-3 K of the root): only a starting aid for callers.
       satTempDeriv.d1 = d1;
       satTempDeriv.d2 = d2;
-      satTempDeriv.iterations = i + 1;
       return next - ZERO_C_K;
     }
     T = next;
     x = 1 / T;
   }
-  satTempDeriv.iterations = MAX_SAT_ITER;
   return Number.NaN;
 }
 

@@ -98,9 +98,6 @@ export function wRoundoff(wsStar: number): number {
   return 1e-9 * (wsStar + 4e-4);
 }
 
-/** Scratch outputs of {@link wetBulbSolve}: iterations of the last solve. */
-export const wetBulbInfo = { iterations: 0 };
-
 /**
  * Wet-bulb, °C, by safeguarded Halley/Newton steps on eq 33/35 (internal, inputs already checked).
  * `pw` is the vapour pressure, `dp` the dew point (−Infinity for bone-dry air), `dpD1`, `dpD2`
@@ -108,7 +105,8 @@ export const wetBulbInfo = { iterations: 0 };
  * `pwsDb` pws at the dry-bulb. The bracket is [dew point, min(db, boiling point at p)]; a step
  * that leaves it is replaced by bisection. Where the dry-bulb is above 0 °C and the dew point
  * below, eq 33 is used when it has a root at or above 0 °C, and eq 35 (ice) otherwise. Returns
- * NaN if the iteration bound is hit.
+ * NaN if the iteration bound is hit; `maxIter` lowers the bound (tests check the iteration
+ * converges well within it).
  */
 export function wetBulbSolve(
   db: number,
@@ -119,6 +117,7 @@ export function wetBulbSolve(
   dpD1: number,
   dpD2: number,
   pwsDb: number,
+  maxIter = MAX_WB_ITER,
 ): number {
   // Upper end: the dry-bulb, or the boiling point at p when the dry-bulb is above it (where the
   // saturation humidity ratio is infinite); the residual is +∞ there and is never evaluated.
@@ -131,7 +130,6 @@ export function wetBulbSolve(
   let lo = dp > WB_FLOOR_C ? dp : WB_FLOOR_C;
   if (lo >= hi) {
     // Saturated air (dp = db up to round-off) or air at its boiling point.
-    wetBulbInfo.iterations = 0;
     return hi < db ? hi : db;
   }
   const e = EPSILON * p;
@@ -184,7 +182,7 @@ export function wetBulbSolve(
     t = 0.5 * (lo + hi);
   }
 
-  for (let i = 0; i < MAX_WB_ITER; i++) {
+  for (let i = 0; i < maxIter; i++) {
     const T = t + ZERO_C_K;
     const x = 1 / T;
     const lnT = Math.log(T);
@@ -213,7 +211,6 @@ export function wetBulbSolve(
       const a = a0 - a1 * t;
       const g = a * ws - 1.006 * (db - t) - w * (dConst - d1 * t);
       if (g === 0) {
-        wetBulbInfo.iterations = i + 1;
         return t < lo0 ? lo0 : t > hi0 ? hi0 : t;
       }
       if (g < 0) lo = t;
@@ -232,19 +229,16 @@ export function wetBulbSolve(
       // The error after a small step is ~ (g''/2g')²·step³, except across the triple point,
       // where the slope of pws jumps (ice below, water above): no stop there.
       if (Math.abs(step) < WB_STEP_DONE && Math.abs(c) < 0.005 && t < SWITCH_C === next < SWITCH_C) {
-        wetBulbInfo.iterations = i + 1;
         // Within the bracket (a last step can overshoot it by round-off).
         return next < lo0 ? lo0 : next > hi0 ? hi0 : next;
       }
       if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
     }
     if (hi - lo < 1e-9) {
-      wetBulbInfo.iterations = i + 1;
       return next < lo0 ? lo0 : next > hi0 ? hi0 : next;
     }
     t = next;
   }
-  wetBulbInfo.iterations = MAX_WB_ITER;
   return Number.NaN;
 }
 
