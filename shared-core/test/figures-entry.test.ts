@@ -5,6 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import type { CoreDiagnostic } from '../src/notation/ast';
 import { parseNote } from '../src/notation/parse';
+import { analyzeNote } from '../src/analyze';
 import { significantResolution, withThousandsSeparators } from '../src/notation/number';
 import { codeActions, noteDiagnostics } from '../src/service';
 import { lookupUnit, toSI } from '../src/units';
@@ -218,5 +219,32 @@ describe('no suggestion changes a figure’s magnitude', () => {
     expect(newText).toMatch(/^\d{1,3}(,\d{3})+$/);
     const after = applyEdits(note, fix!.edits);
     expect(noteDiagnostics(noteOf(after)).filter((d) => d.code === 'claim-mismatch' && d.message.includes('q_total=') && d.message.includes('MA -> OFF'))).toEqual([]);
+  });
+});
+
+describe('volume flow: q= and its other names flow= and V=', () => {
+  const base = ['units: IP', 'state MA: db=80F wb=65F', 'state OFF: db=55F rh=90%'];
+  const processOf = (flow: string) => {
+    const a = analyzeNote(air(...base, `process CC: MA -> OFF ${flow}`));
+    return { a, p: a.items.find((i) => i.kind === 'process') as import('../src/evaluate/types').ProcessResult };
+  };
+
+  it('reads flow= and V= exactly as q=, and keeps q= working', () => {
+    const q = processOf('q=8,745cfm').p;
+    // 8745 cfm = 8745 × 0.3048³ / 60 m³/s = 4.1272 m³/s (exact unit definitions, NIST SP 811).
+    expect(Math.abs(q.volumeFlowM3S! - (8745 * 0.3048 ** 3) / 60)).toBeLessThan(1e-9);
+    for (const written of ['flow=8,745cfm', 'V=8,745cfm', 'flow=8745cfm']) {
+      const { a, p } = processOf(written);
+      expect(a.diagnostics, written).toEqual([]);
+      expect(p.massFlowKgS, written).toBe(q.massFlowKgS);
+      expect(p.qTotalW, written).toBe(q.qTotalW);
+    }
+  });
+
+  it('refuses two names for the one flow, and m= with flow=', () => {
+    expect(processOf('q=8745cfm flow=8745cfm').a.diagnostics.map((d) => d.code)).toEqual(['flow-conflict']);
+    const both = processOf('m=600lb/min V=8745cfm').a.diagnostics;
+    expect(both.map((d) => d.code)).toEqual(['flow-conflict']);
+    expect(both[0]!.message).toContain('m= and V=');
   });
 });

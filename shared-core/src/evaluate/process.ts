@@ -156,12 +156,23 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
 
   // Dry-air mass flow: m=, or q= at the entering state, or the entering mix's own flow.
   const m = props.find((p) => p.key === 'm');
-  const q = props.find((p) => p.key === 'q');
+  // The volume flow: q=, or its other names flow= and V= (one of them; a second is a conflict).
+  const volumes = props.filter((p) => p.key === 'q' || PROCESS_KEYS[p.key]?.aliasOf === 'q');
+  const q = volumes[0];
+  for (const extra of volumes.slice(1)) {
+    ctx.report({
+      code: 'flow-conflict',
+      severity: 'error',
+      message: `${what}: ${q!.key}= and ${extra.key}= both give the volume flow (${extra.key}= is another name for q=); keep one (${q!.key}= is used)`,
+      span: extra.prop.span,
+      related: [{ span: q!.prop.span, message: 'the flow used' }],
+    });
+  }
   if (m && q) {
     ctx.report({
       code: 'flow-conflict',
       severity: 'error',
-      message: `${what}: both m= and q= give the flow; keep one (m= is used)`,
+      message: `${what}: both m= and ${q.key}= give the flow; keep one (m= is used)`,
       span: q.prop.span,
       related: [{ span: m.prop.span, message: 'the flow used' }],
     });
@@ -258,7 +269,7 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
     }
   }
 
-  result.claims = processClaims(ctx, props.filter((p) => p.key !== 'm' && p.key !== 'q'), result, what);
+  result.claims = processClaims(ctx, props.filter((p) => PROCESS_KEYS[p.key]?.kind !== 'flow'), result, what);
   return result;
 }
 

@@ -60,6 +60,8 @@ export interface KeySpec {
    * `times`, over `over`; 1 when absent). The CLI decides the digits.
    */
   json?: { name: string; times?: number; over?: number };
+  /** Another name for the key `aliasOf`, read exactly as it is (`flow=` and `V=` for `q=`). */
+  aliasOf?: string;
 }
 
 /** `a`, `a or b`, `a, b or c`. */
@@ -161,6 +163,17 @@ const ROWS = [
     title: 'volume flow at the entering state', description: 'volume flow of air at the entering state',
     examples: ['q=4.8m3/s', 'q=4800L/s', 'q=10000cfm'],
     json: { name: 'v_m3s' },
+  },
+  // Names for the volume flow that cannot be read as a heat rate (q_total, q_sensible…): q= stays.
+  {
+    key: 'flow', kind: 'flow', in: ['process'], dimension: 'volumeFlow', bare: 'error', aliasOf: 'q',
+    title: 'volume flow at the entering state (same as q=)', description: 'volume flow of air at the entering state; another name for q=',
+    examples: ['flow=4.8m3/s', 'flow=8,745cfm'],
+  },
+  {
+    key: 'V', kind: 'flow', in: ['process'], dimension: 'volumeFlow', bare: 'error', aliasOf: 'q',
+    title: 'volume flow at the entering state (same as q=)', description: 'volume flow of air at the entering state; another name for q=',
+    examples: ['V=4.8m3/s', 'V=10000cfm'],
   },
   {
     key: 'q_total', kind: 'process-claim', in: ['process'], dimension: 'power', bare: 'error',
