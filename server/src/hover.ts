@@ -1,6 +1,6 @@
 /** `textDocument/hover`: the service's Markdown for the name, key, unit or statement under the cursor. */
 import { MarkupKind, type Hover } from 'vscode-languageserver/node';
-import { hover } from '@dewmark/core/service';
+import { hover, hoverPlainText } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toRange } from './convert';
 import { noteForRequest, runSafe } from './safe';
@@ -14,7 +14,8 @@ export function registerHover(ctx: ServerContext): void {
       const result = hover(found.note, found.doc.offsetAt(params.position), token);
       if (!result) return null;
       return {
-        contents: { kind: ctx.client.markdownHover ? MarkupKind.Markdown : MarkupKind.PlainText, value: result.markdown },
+        // A client that does not take Markdown gets aligned plain text, not raw pipes and asterisks.
+        contents: ctx.client.markdownHover ? { kind: MarkupKind.Markdown, value: result.markdown } : { kind: MarkupKind.PlainText, value: hoverPlainText(result.markdown) },
         range: toRange(found.doc, result.span),
       };
     }),

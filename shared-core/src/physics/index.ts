@@ -44,6 +44,6 @@ export {
   ELEV_MIN_M,
   ELEV_MAX_M,
 } from './properties';
-export { humRatioFromWetBulb, wetBulbFromHumRatio, dewPointFromHumRatio, WB_TOLERANCE_K } from './wetbulb';
+export { humRatioFromWetBulb, wetBulbFromHumRatio, dewPointFromHumRatio, iceWetBulbAlternative, WB_TOLERANCE_K } from './wetbulb';
 export { stateFromDbW } from './state';
 export { solveState, DEFINING_KEYS } from './solve';

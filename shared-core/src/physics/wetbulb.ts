@@ -307,3 +307,37 @@ export function dewPointFromHumRatio(w: number, p: number): number {
   return dp;
 }
 
+
+/**
+ * The other wet-bulb near 0 °C: where {@link wetBulbFromHumRatio} reports the root of eq 33 (a wick
+ * of liquid water, at or above 0 °C), eq 35 (a wick of ice) can have a root too, just below 0 °C.
+ * Returns that ice root, °C, or null when eq 35 has none below 0 °C (or the reported wet-bulb is
+ * already over ice). `wb` is the reported wet-bulb and `dp` the dew point; bisection, at most 80
+ * halvings of a bracket under 0.5 K wide, to 1e-9 K.
+ */
+export function iceWetBulbAlternative(db: number, w: number, p: number, wb: number, dp: number): number | null {
+  if (!(wb >= 0) || !(db > 0) || !(w >= 0)) return null;
+  // W from eq 35 rises with the wet-bulb; the root, if any, lies between the dew point and 0 °C.
+  const f = (t: number): number => {
+    const pws = Math.exp(lnPwsIce(t + ZERO_C_K));
+    if (!(pws < p)) return Number.NaN;
+    return humRatioEq33(db, t, (EPSILON * pws) / (p - pws)) - w;
+  };
+  let hi = -Number.MIN_VALUE;
+  const fHi = f(hi);
+  if (!(fHi > 0)) return null;
+  let lo = Math.max(Number.isFinite(dp) ? dp : -100, -100, -ICE_ROOT_WINDOW_K);
+  if (!(lo < hi)) return null;
+  if (!(f(lo) < 0)) return null;
+  for (let i = 0; i < 80 && hi - lo > 1e-9; i++) {
+    const mid = 0.5 * (lo + hi);
+    const fm = f(mid);
+    if (!Number.isFinite(fm)) return null;
+    if (fm > 0) hi = mid;
+    else lo = mid;
+  }
+  return 0.5 * (lo + hi);
+}
+
+/** How far below 0 °C the other (ice) root of a wet-bulb near 0 °C is looked for, K. */
+const ICE_ROOT_WINDOW_K = 5;

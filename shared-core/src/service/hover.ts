@@ -5,6 +5,7 @@
  * it means in a line or two. Results end with a one-line caution.
  */
 import { findKey } from '../vocabulary/keys';
+import { iceWetBulbAlternative } from '../physics';
 import type { ClaimResult, EvaluatedItem, ProcessResult, PropertySource, StateResult } from '../evaluate/types';
 import type { PropertyNode, PropertyRefNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
@@ -149,6 +150,14 @@ function stateTable(note: Note, item: StateResult, system: UnitSystem): string[]
     rows.push(`| ${cells.join(' | ')} |`);
   }
   if (state.fog) rows.push('', '⚠ Fog region: the air holds more water than saturated air can carry as vapour; w is the total water.');
+  // Near 0 °C both wick equations can solve: the one over water is reported, the other shown.
+  const iceWb = state.fog ? null : iceWetBulbAlternative(state.db, state.w, state.p, state.wb, state.dp);
+  if (iceWb !== null) {
+    rows.push(
+      '',
+      `Wet-bulb: over water (eq 33) ${show(note, state.wb, 'temperature', system)}, reported; over ice (eq 35) ${show(note, iceWb, 'temperature', system)} also solves near 0 °C.`,
+    );
+  }
   return rows;
 }
 

@@ -12,6 +12,7 @@ export type { CoreDiagnostic } from '../notation/ast';
 export { DEFAULT_SERVICE_SETTINGS, readSettings, toEvaluateSettings } from './settings';
 export { analyzeText, analyzeTextSteps, analyzeTextWith } from './note';
 export { hover, type HoverInfo } from './hover';
+export { hoverPlainText } from './plainText';
 export { inlayHints, type HintItem } from './inlayHints';
 export { completions, type CompletionEntry, type CompletionResult } from './completion';
 export { documentSymbols, type OutlineSymbol } from './symbols';
