@@ -1,6 +1,6 @@
 /**
  * The parts of the core the CLI uses, in one place: the analysis, the evaluator's result types,
- * the units and the line index, each from its layer's entry point (`@dewmark/core/<layer>`).
+ * the units, the line index and the results-table edits (for `fix`), each from its layer's entry point (`@dewmark/core/<layer>`).
  */
 export { analyzeNote } from '@dewmark/core/analyze';
 export type { Analysis, EvaluateSettings, ProcessResult, StateResult } from '@dewmark/core/evaluate';
@@ -8,5 +8,6 @@ export type { CoreDiagnostic } from '@dewmark/core/notation';
 export { LineIndex } from '@dewmark/core/text';
 export { displayUnit, displaySymbol, formatQuantity, lookupUnit, toSI } from '@dewmark/core/units';
 export { stdAtmPressure } from '@dewmark/core/physics';
+export { DEFAULT_SERVICE_SETTINGS, resultsTableEdits } from '@dewmark/core/service';
 export type { Dimension, UnitSystem } from '@dewmark/core/units';
 export { jsonFigure, jsonName } from '@dewmark/core/vocabulary';

@@ -9,6 +9,7 @@ import { runTasks, type FileOutput, type Mode, type Task } from './work';
 import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from './settings';
 import { registerChart } from './commands/chart';
 import { registerReport } from './commands/report';
+import { registerFix } from './commands/fix';
 import type { DiagnosticJson } from './output';
 import { githubAnnotations } from './formats/github';
 import { sarifLog } from './formats/sarif';
@@ -153,7 +154,8 @@ async function runCheck(paths: string[], opts: CommonOptions, io: CliIO): Promis
   });
   const c = t.counts;
   if (format === 'json') {
-    const doc = { files: jsonFiles, summary: { files: t.files, errors: c.errors, warnings: c.warnings, infos: c.infos, unreadable: t.ioProblems } };
+    const suppressed = jsonFiles.reduce<number>((n, f) => n + ((f as { suppressed?: unknown[] }).suppressed?.length ?? 0), 0);
+    const doc = { files: jsonFiles, summary: { files: t.files, errors: c.errors, warnings: c.warnings, infos: c.infos, suppressed, unreadable: t.ioProblems } };
     out.push(`${JSON.stringify(doc, null, 2)}\n`);
   } else if (format === 'sarif') {
     out.push(`${JSON.stringify(sarifLog(jsonFiles as { path: string; diagnostics: DiagnosticJson[] }[], VERSION, io.cwd), null, 2)}\n`);
@@ -225,7 +227,27 @@ function program(io: CliIO, onResult: (code: number) => void): Command {
       .description('check notes and print each problem as path:line:col: severity[code]: message')
       .argument('[paths...]', 'Markdown files, folders (recursive) or glob patterns; - for standard input (default: the current folder)')
       .option('--format <format>', 'text, json, github (workflow annotations) or sarif (SARIF 2.1.0 for code scanning)', 'text')
-      .option('--max-warnings <n>', 'exit 1 when there are more warnings than this'),
+      .option('--max-warnings <n>', 'exit 1 when there are more warnings than this')
+      .addHelpText(
+        'after',
+        `
+Exit codes:
+  0  no errors (and no more warnings than --max-warnings)
+  1  some note has an error, or more warnings than --max-warnings
+  2  a usage problem, or a file that cannot be read (missing, binary, not UTF-8)
+
+Examples:
+  dewmark check                               every .md/.markdown below the current folder
+  dewmark check docs/calcs --max-warnings 0   fail on stale claims too
+  dewmark check "notes/**/*.md" README.md     globs and files
+  dewmark check --format github docs/calcs    annotations in a GitHub Actions job
+  dewmark check --format sarif . > dewmark.sarif
+  cat note.md | dewmark check -               standard input
+
+A diagnostic is acknowledged in the note with an air comment on its line:
+  state RA: db=24C rh=50% w=11.0g/kg   # dewmark-ignore claim-mismatch -- measured
+Stale claims and results tables are rewritten by: dewmark fix --write`,
+      ),
   ).action(async (paths: string[], opts: CommonOptions) => onResult(await runCheck(paths, opts, io)));
 
   addCommon(
@@ -233,11 +255,26 @@ function program(io: CliIO, onResult: (code: number) => void): Command {
       .command('eval')
       .description('print the evaluated states, mixes and processes of notes')
       .argument('[paths...]', 'Markdown files, folders (recursive) or glob patterns; - for standard input (default: the current folder)')
-      .option('--format <format>', 'table or json', 'table'),
+      .option('--format <format>', 'table or json', 'table')
+      .addHelpText(
+        'after',
+        `
+Exit codes:
+  0  no errors
+  1  some note has an error (its states are shown as far as they can be computed)
+  2  a usage problem, or a file that cannot be read
+
+Examples:
+  dewmark eval notes/ahu-1.md                 tables in the note's unit system
+  dewmark eval --units IP notes/              IP for notes without a units: line
+  dewmark eval --elevation 1600m notes/       default site for notes without a site: line
+  dewmark eval --format json notes/ahu-1.md   SI figures with stable field names, for tools`,
+      ),
   ).action(async (paths: string[], opts: CommonOptions) => onResult(await runEvalCommand(paths, opts, io)));
 
   registerReport(prog, io, onResult, addCommon, VERSION);
   registerChart(prog, io, onResult, addCommon);
+  registerFix(prog, io, onResult, addCommon);
   for (const c of prog.commands) c.exitOverride().configureOutput(outputOf(io)).showHelpAfterError(`(run dewmark ${c.name()} --help for its options)`).showSuggestionAfterError(true);
   return prog;
 }

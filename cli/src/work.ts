@@ -42,8 +42,12 @@ export function renderFile(mode: Mode, display: string, text: string, settings: 
       for (const d of f.analysis.diagnostics) t += `${diagnosticLine(f, d)}\n`;
       return { text: t, json: null, counts };
     }
-    case 'check-json':
-      return { text: '', json: { path: f.path, diagnostics: f.analysis.diagnostics.map((d) => diagnosticJson(f, d)) }, counts };
+    case 'check-json': {
+      const json: Record<string, unknown> = { path: f.path, diagnostics: f.analysis.diagnostics.map((d) => diagnosticJson(f, d)) };
+      // Diagnostics acknowledged by ignore comments: reported, not counted.
+      if (f.analysis.suppressed) json.suppressed = f.analysis.suppressed.map((d) => ({ ...diagnosticJson(f, d), justification: d.justification, ignoreLine: f.lines.lineCol(d.suppressedBy.start).line }));
+      return { text: '', json, counts };
+    }
     case 'eval-json':
       return { text: '', json: evalFileJson(f), counts };
     case 'eval-table': {

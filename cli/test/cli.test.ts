@@ -76,7 +76,7 @@ describe('dewmark check', () => {
     const r = dewmark(['check', '--format', 'json', 'bad.md']);
     expect(r.code).toBe(1);
     const doc = JSON.parse(r.out);
-    expect(doc.summary).toEqual({ files: 1, errors: 1, warnings: 1, infos: 0, unreadable: 0 });
+    expect(doc.summary).toEqual({ files: 1, errors: 1, warnings: 1, infos: 0, suppressed: 0, unreadable: 0 });
     expect(doc.files[0].path).toBe('bad.md');
     expect(doc.files[0].diagnostics[0]).toMatchObject({ line: 4, column: 10, endLine: 4, endColumn: 23, severity: 'error', code: 'wb-above-db' });
   });
@@ -176,7 +176,7 @@ describe('dewmark check', () => {
     expect(r.code).toBe(1);
     const doc = JSON.parse(r.out);
     expect(doc.files.map((f: { path: string }) => f.path)).toEqual(Array.from({ length: 200 }, (_, i) => `many/n${String(i).padStart(3, '0')}.md`));
-    expect(doc.summary).toEqual({ files: 200, errors: 20, warnings: 20, infos: 0, unreadable: 0 });
+    expect(doc.summary).toEqual({ files: 200, errors: 20, warnings: 20, infos: 0, suppressed: 0, unreadable: 0 });
     const serial = spawnSync(process.execPath, [bin, 'check', '--format', 'json', 'many'], { cwd: dir, encoding: 'utf8', env: { ...process.env, DEWMARK_WORKERS: '0' } });
     expect(JSON.parse(serial.stdout)).toEqual(doc);
   });

@@ -15,6 +15,8 @@ export const CODES_HELP_URI = 'https://dewmark.dev/docs/notation#every-diagnosti
 export interface SarifFileInput {
   path: string;
   diagnostics: readonly DiagnosticJson[];
+  /** Diagnostics acknowledged by ignore comments (SARIF results with an in-source suppression). */
+  suppressed?: readonly (DiagnosticJson & { justification: string })[];
 }
 
 const LEVEL: Record<DiagnosticJson['severity'], 'error' | 'warning' | 'note'> = { error: 'error', warning: 'warning', info: 'note' };
@@ -32,7 +34,9 @@ export function sarifLog(files: readonly SarifFileInput[], version: string, cwd:
   const rules: Record<string, unknown>[] = [];
   const results: Record<string, unknown>[] = [];
   for (const f of files) {
-    for (const d of f.diagnostics) {
+    const all: (DiagnosticJson & { justification?: string })[] = [...f.diagnostics, ...(f.suppressed ?? [])];
+    const firstSuppressed = f.diagnostics.length;
+    for (const [i, d] of all.entries()) {
       let index = ruleIndex.get(d.code);
       if (index === undefined) {
         index = rules.length;
@@ -44,6 +48,7 @@ export function sarifLog(files: readonly SarifFileInput[], version: string, cwd:
         ruleIndex: index,
         level: LEVEL[d.severity],
         message: { text: d.message },
+        ...(i >= firstSuppressed ? { suppressions: [{ kind: 'inSource', ...(d.justification ? { justification: d.justification } : {}) }] } : {}),
         locations: [
           {
             physicalLocation: {

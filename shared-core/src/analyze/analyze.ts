@@ -3,6 +3,7 @@ import { parseNote } from '../notation/parse';
 import type { CoreDiagnostic } from '../notation/ast';
 import { staleTableDiagnostics } from '../present/writtenTables';
 import { evaluate } from '../evaluate/evaluate';
+import { applyDiagnosticPolicy } from './suppressions';
 import type { Analysis, EvaluateSettings } from '../evaluate/types';
 
 /**
@@ -15,11 +16,13 @@ export function analyzeNote(text: string, settings?: Partial<EvaluateSettings>):
 
 /**
  * The checks that follow evaluation (the written results tables), added to `analysis` in
- * document order; shared by {@link analyzeNote} and the incremental analyzer.
+ * document order, then the note's ignore comments and the project's rule severities
+ * (`./suppressions`); shared by {@link analyzeNote} and the incremental analyzer.
  */
 export function finishAnalysis(analysis: Analysis, text: string): Analysis {
   const stale = staleTableDiagnostics(analysis, text);
   if (stale.length > 0) analysis.diagnostics = mergeInOrder(analysis.diagnostics, stale);
+  applyDiagnosticPolicy(analysis, text);
   return analysis;
 }
 

@@ -69,7 +69,7 @@ export function createAnalyzer(): Analyzer {
   let bases: PressureBasis[] = [];
   function* analyzeSteps(text: string, settings?: Partial<EvaluateSettings>): Generator<void, Analysis, void> {
     const resolved = resolveSettings(settings);
-    if (last && last.text === text && sameSettings(last.settings, resolved)) return last.analysis;
+    if (last && last.text === text && sameSettings(last.settings, resolved) && sameRules(last.settings.rules, resolved.rules)) return last.analysis;
     const fresh = !last || !sameSettings(last.settings, resolved);
     const { parsed, origins, deltas } = parser.parse(text);
     yield;
@@ -104,6 +104,14 @@ export function createAnalyzer(): Analyzer {
 
 function sameSettings(a: EvaluateSettings, b: EvaluateSettings): boolean {
   return a.units === b.units && Object.is(a.pressurePa, b.pressurePa) && a.pressureOrigin === b.pressureOrigin && a.checkClaims === b.checkClaims;
+}
+
+/** Rule severities only change what `finishAnalysis` does with the diagnostics, not the evaluation. */
+function sameRules(a: EvaluateSettings['rules'], b: EvaluateSettings['rules']): boolean {
+  if (a === b) return true;
+  const ka = Object.keys(a ?? {});
+  if (ka.length !== Object.keys(b ?? {}).length) return false;
+  return ka.every((k) => a![k] === b?.[k]);
 }
 
 function sameSpan(a: Span | null, b: Span | null): boolean {

@@ -26,6 +26,19 @@ export interface EvaluateSettings {
   pressureOrigin: string;
   /** Whether written claims are compared. Default true. */
   checkClaims: boolean;
+  /** A diagnostic code's severity changed, or `off` to drop it (the project file's `rules`). */
+  rules?: Readonly<Record<string, RuleSetting>>;
+}
+
+/** What a project's `rules` may say about a diagnostic code. */
+export type RuleSetting = 'error' | 'warning' | 'info' | 'off';
+
+/** A diagnostic that an ignore comment in the note acknowledged (see `./suppressions`). */
+export interface SuppressedDiagnostic extends CoreDiagnostic {
+  /** The ignore comment that acknowledged it. */
+  suppressedBy: Span;
+  /** The comment's reason (after ` -- `), or empty. */
+  justification: string;
 }
 
 /** Where the pressure used for a state came from. */
@@ -193,6 +206,8 @@ export interface Analysis {
   byName: Map<string, EvaluatedItem>;
   /** Every name reference (mix streams, process from/to) with the name it points to. */
   references: { name: string; span: Span; statement: Statement }[];
-  /** Parse and evaluation diagnostics together, in document order. */
+  /** Parse and evaluation diagnostics together, in document order (less those acknowledged by ignore comments). */
   diagnostics: CoreDiagnostic[];
+  /** Diagnostics that ignore comments acknowledged, in document order; absent when there are none. */
+  suppressed?: SuppressedDiagnostic[];
 }
