@@ -43,7 +43,7 @@ export const fields = {
   bugs: { url: 'https://github.com/dewmark/dewmark/issues' },
   // The npm package (`npm i dewmark`): the two commands and their bundles. The .vsix is packed by
   // .vscodeignore instead (vsce reads that first), from the same manifest and version.
-  files: ['bin/', 'dist/cli.js', 'dist/server.js', 'dist/THIRD-PARTY-NOTICES.md', 'README.md', 'CHANGELOG.md', 'SECURITY.md', 'LICENSE', 'ci/', 'action.yml', '.pre-commit-hooks.yaml'],
+  files: ['bin/', 'dist/cli.js', 'dist/server.js', 'dist/THIRD-PARTY-NOTICES.md', 'README.md', 'CHANGELOG.md', 'SECURITY.md', 'LICENSE', 'ci/', 'action.yml', '.pre-commit-hooks.yaml', 'schema/'],
   main: './dist/client.js',
   icon: 'images/icon.png',
   galleryBanner: { color: '#0b2f45', theme: 'dark' },
@@ -57,7 +57,7 @@ export const fields = {
     virtualWorkspaces: {
       supported: 'limited',
       description:
-        'In a virtual workspace the open notes get every feature; Check All Notes in the Workspace reads local folders only.',
+        'In a virtual workspace the open notes get every feature; Check All Notes in the Workspace reads local folders only, and the project file dewmark.json is read only beside local notes.',
     },
   },
   contributes: {
@@ -166,6 +166,8 @@ export const fields = {
         { command: 'dewmark.showLog' },
       ],
     },
+    // The project file dewmark.json: the editor validates and completes it with the schema.
+    jsonValidation: [{ fileMatch: 'dewmark.json', url: './schema/dewmark.schema.json' }],
     // The Markdown preview calls the extension's extendMarkdownIt (client/src/preview.ts).
     'markdown.markdownItPlugins': true,
     'markdown.previewStyles': ['./client/media/preview.css'],

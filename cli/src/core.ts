@@ -8,6 +8,6 @@ export type { CoreDiagnostic } from '@dewmark/core/notation';
 export { LineIndex } from '@dewmark/core/text';
 export { displayUnit, displaySymbol, formatQuantity, lookupUnit, toSI } from '@dewmark/core/units';
 export { stdAtmPressure } from '@dewmark/core/physics';
-export { DEFAULT_SERVICE_SETTINGS, resultsTableEdits } from '@dewmark/core/service';
+export { DEFAULT_SERVICE_SETTINGS, findProjectConfig, readSettings, resultsTableEdits, toEvaluateSettings, type ConfigFileSystem, type ProjectConfig } from '@dewmark/core/service';
 export type { Dimension, UnitSystem } from '@dewmark/core/units';
 export { jsonFigure, jsonName } from '@dewmark/core/vocabulary';

@@ -10,6 +10,7 @@ import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from './set
 import { registerChart } from './commands/chart';
 import { registerReport } from './commands/report';
 import { registerFix } from './commands/fix';
+import { selectWithProjects } from './project';
 import type { DiagnosticJson } from './output';
 import { githubAnnotations } from './formats/github';
 import { sarifLog } from './formats/sarif';
@@ -62,14 +63,19 @@ async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mo
     io.err(`dewmark: ${safeText(p.message)}\n`);
     totals.ioProblems++;
   }
+  const project = selectWithProjects(inputs, io.cwd, settings);
+  for (const p of project.problems) {
+    io.err(`dewmark: ${safeText(p)}\n`);
+    totals.ioProblems++;
+  }
   const tasks: Task[] = [];
-  for (const input of inputs) {
+  for (const { input, settings: own } of project.tasks) {
     if (input.abs !== null) {
-      tasks.push({ input, maxBytes });
+      tasks.push({ input, maxBytes, settings: own });
       continue;
     }
     const read = decodeText(await io.stdin(maxBytes), STDIN_PATH, maxBytes);
-    if (read.ok) tasks.push({ input, text: read.text });
+    if (read.ok) tasks.push({ input, text: read.text, settings: own });
     else {
       io.err(`dewmark: ${safeText(read.message)}\n`);
       totals.ioProblems++;
@@ -96,6 +102,10 @@ async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mo
     progress ? (done) => io.err(`\rdewmark: checking ${done}/${tasks.length} files…`) : undefined,
   );
   if (progress) io.err('\r\x1b[K');
+  if (inputs.length > 0 && project.tasks.length === 0 && problems.length === 0) {
+    io.err(`dewmark: all ${inputs.length} Markdown file(s) found are left out by the include/exclude patterns of dewmark.json\n`);
+    totals.ioProblems++;
+  }
   if (inputs.length === 0 && problems.length === 0) {
     const why = explainEmpty(empty).map(safeText);
     io.err(`dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}${why.length > 0 ? `; ${why.join('; ')}` : ''}\n`);

@@ -27,6 +27,8 @@ export interface Task {
   text?: string;
   /** The most bytes the file may be (--max-note-size); the default when absent. */
   maxBytes?: number;
+  /** The note's own settings (its project file under the command-line options); else the run's. */
+  settings?: Partial<EvaluateSettings>;
 }
 
 /** The outcome of one task. */
@@ -72,7 +74,7 @@ export function runTask(task: Task, mode: Mode, settings: Partial<EvaluateSettin
   const read = task.text !== undefined ? { ok: true as const, text: task.text } : task.input.abs === null ? decodeText(new Uint8Array(), STDIN_PATH) : readInput(task.input, task.maxBytes);
   if (!read.ok) return { ok: false, message: read.message };
   try {
-    return { ok: true, out: renderFile(mode, task.input.display, read.text, settings) };
+    return { ok: true, out: renderFile(mode, task.input.display, read.text, task.settings ?? settings) };
   } catch (err) {
     return { ok: false, message: `'${task.input.display}' could not be checked (${err instanceof Error ? err.message : String(err)}); please report it with the note` };
   }

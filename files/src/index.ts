@@ -12,6 +12,7 @@ export {
   describeLeftOut,
   explainEmpty,
   MARKDOWN,
+  patternMatcher,
   selectInputs,
   STDIN_PATH,
   type CollectOptions,

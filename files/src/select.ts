@@ -191,6 +191,15 @@ function matcherOf(patterns: readonly string[], cwd: string, bareNames: boolean)
 }
 
 /**
+ * A matcher of absolute paths for a project file's `include`/`exclude` patterns, written relative
+ * to its folder `baseDir` (as `--exclude` patterns are to the working directory: a bare name
+ * matches at any depth).
+ */
+export function patternMatcher(patterns: readonly string[], baseDir: string): (abs: string) => boolean {
+  return matcherOf(patterns, baseDir, true);
+}
+
+/**
  * Turns arguments (paths, folders, globs, `-`) into inputs, in order, without duplicates. A
  * missing path or a glob that matches nothing is a problem (reported; the CLI exits 2). A
  * generator: it yields between folders (drive it with {@link collectInputs}, or step it and pause

@@ -1,25 +1,34 @@
 /**
  * Settings: fetched per document with `workspace/configuration` (scopeUri) when the client offers
  * it, otherwise taken from `didChangeConfiguration` pushes or `initializationOptions`, otherwise the
- * defaults (Neovim 0.7 offers none of these). Invalid values are reported once and replaced by
- * their defaults.
+ * defaults (Neovim 0.7 offers none of these). Over them, the nearest project file `dewmark.json`
+ * above a local note (`file:` URIs) sets what it names: the editor's settings fill only what it
+ * leaves open. Project files are re-read when the client reports one changed (watched files) and
+ * after a settings change. Invalid values are reported once and replaced by their defaults.
  */
+import { readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import {
   DidChangeConfigurationNotification,
+  DidChangeWatchedFilesNotification,
   MessageType,
   ShowMessageNotification,
   type Connection,
   type InitializeParams,
 } from 'vscode-languageserver/node';
-import { DEFAULT_SERVICE_SETTINGS, readSettings, type ServiceSettings } from '@dewmark/core/service';
+import { PROJECT_FILE, findProjectConfig, mergeSection, readSettings, type ConfigFileSystem, type ProjectConfig, type ServiceSettings } from '@dewmark/core/service';
 import { SETTINGS_SECTION } from '@dewmark/protocol';
 
 /** Per-document settings with change notification. */
 export class Configuration {
   private pullSupported = false;
   private dynamicChange = false;
-  /** Settings pushed by the client (or given at initialize), used when it cannot be asked. */
-  private pushed: ServiceSettings = DEFAULT_SERVICE_SETTINGS;
+  private watchFiles = false;
+  /** The settings section pushed by the client (or given at initialize), used when it cannot be asked. */
+  private pushed: unknown = null;
+  /** Project file texts read since the last change (null: none there), so each is read once. */
+  private readonly projectTexts = new Map<string, string | null>();
   private readonly perUri = new Map<string, Promise<ServiceSettings>>();
   private readonly reported = new Set<string>();
   private readonly listeners: (() => void)[] = [];
@@ -33,19 +42,30 @@ export class Configuration {
     const ws = params.capabilities.workspace;
     this.pullSupported = ws?.configuration === true;
     this.dynamicChange = ws?.didChangeConfiguration?.dynamicRegistration === true;
+    this.watchFiles = ws?.didChangeWatchedFiles?.dynamicRegistration === true;
     const init = params.initializationOptions as Record<string, unknown> | null | undefined;
     if (init && typeof init === 'object' && init[SETTINGS_SECTION] !== undefined) {
-      this.pushed = this.read(init[SETTINGS_SECTION]);
+      this.pushed = init[SETTINGS_SECTION];
+      this.read(this.pushed, null); // reports its problems now
     }
     this.connection.onDidChangeConfiguration((change) => {
       const settings = (change.settings ?? null) as Record<string, unknown> | null;
       if (settings && typeof settings === 'object' && settings[SETTINGS_SECTION] !== undefined) {
-        this.pushed = this.read(settings[SETTINGS_SECTION]);
+        this.pushed = settings[SETTINGS_SECTION];
       }
-      this.perUri.clear();
-      this.generation++;
-      for (const l of this.listeners) l();
+      this.changed();
     });
+    this.connection.onDidChangeWatchedFiles((change) => {
+      if (change.changes.some((c) => c.uri.endsWith(`/${PROJECT_FILE}`))) this.changed();
+    });
+  }
+
+  /** Forgets every document's settings and the project files read, and tells the listeners. */
+  private changed(): void {
+    this.perUri.clear();
+    this.projectTexts.clear();
+    this.generation++;
+    for (const l of this.listeners) l();
   }
 
   /** Registers for configuration changes once the client is initialized (when it allows dynamic registration). */
@@ -54,6 +74,11 @@ export class Configuration {
       void this.connection.client
         .register(DidChangeConfigurationNotification.type, { section: SETTINGS_SECTION })
         .catch((err: unknown) => this.connection.console.warn(`could not register for configuration changes: ${String(err)}`));
+    }
+    if (this.watchFiles) {
+      void this.connection.client
+        .register(DidChangeWatchedFilesNotification.type, { watchers: [{ globPattern: `**/${PROJECT_FILE}` }] })
+        .catch((err: unknown) => this.connection.console.warn(`could not watch ${PROJECT_FILE} files: ${String(err)}`));
     }
   }
 
@@ -64,21 +89,52 @@ export class Configuration {
 
   /** The settings for one document (asked once per document until the next change). */
   get(uri: string): Promise<ServiceSettings> {
-    if (!this.pullSupported) return Promise.resolve(this.pushed);
     let p = this.perUri.get(uri);
     if (!p) {
-      p = this.connection.workspace
-        .getConfiguration({ scopeUri: uri, section: SETTINGS_SECTION })
-        .then(
-          (raw: unknown) => (raw === null || raw === undefined ? this.pushed : this.read(raw)),
-          (err: unknown) => {
-            this.connection.console.warn(`workspace/configuration failed, using defaults: ${String(err)}`);
-            return this.pushed;
-          },
-        );
+      const section: Promise<unknown> = !this.pullSupported
+        ? Promise.resolve(this.pushed)
+        : this.connection.workspace.getConfiguration({ scopeUri: uri, section: SETTINGS_SECTION }).then(
+            (raw: unknown) => (raw === null || raw === undefined ? this.pushed : raw),
+            (err: unknown) => {
+              this.connection.console.warn(`workspace/configuration failed, using defaults: ${String(err)}`);
+              return this.pushed;
+            },
+          );
+      p = section.then((raw) => {
+        const project = this.projectFor(uri);
+        return this.read(mergeSection(raw as Record<string, unknown> | null, project), project);
+      });
       this.perUri.set(uri, p);
     }
     return p;
+  }
+
+  /** The nearest project file above a local note, or null (other schemes have none). */
+  private projectFor(uri: string): ProjectConfig | null {
+    if (!uri.startsWith('file:')) return null;
+    let dir: string;
+    try {
+      dir = dirname(fileURLToPath(uri));
+    } catch {
+      return null; // a file URI of another host
+    }
+    const fs: ConfigFileSystem = {
+      read: (path) => {
+        if (!this.projectTexts.has(path)) {
+          let text: string | null = null;
+          try {
+            text = readFileSync(path, 'utf8');
+          } catch {
+            text = null;
+          }
+          this.projectTexts.set(path, text);
+        }
+        return this.projectTexts.get(path)!;
+      },
+      parent: (d) => dirname(d),
+      join: (d, name) => join(d, name),
+    };
+    return findProjectConfig(dir, fs);
   }
 
   /** Forgets a closed document's settings. */
@@ -86,9 +142,10 @@ export class Configuration {
     this.perUri.delete(uri);
   }
 
-  private read(raw: unknown): ServiceSettings {
+  private read(raw: unknown, project: ProjectConfig | null): ServiceSettings {
     const { settings, problems } = readSettings(raw);
-    for (const problem of problems) {
+    const named = project ? [...project.problems.map((p) => `${project.path}: ${p}`), ...problems] : problems;
+    for (const problem of named) {
       if (this.reported.has(problem)) continue;
       this.reported.add(problem);
       // A notification (allowed even before the initialize result), and the log for later reading.

@@ -8,9 +8,10 @@ import { describe, expect, it } from 'vitest';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { COMMAND_CATEGORY, COMMANDS } from '../../client/src/commands';
-import { DEFAULT_SERVICE_SETTINGS, readSettings } from '../../shared-core/src/service/settings';
+import { DEFAULT_SERVICE_SETTINGS, readSettings, RULE_VALUES } from '../../shared-core/src/service/settings';
 import { HINT_KEYS } from '../../shared-core/src/service/types';
 import { keySpec } from '../../shared-core/src/vocabulary/keys';
+import { PROJECT_KEYS, SETTING_KEYS } from '../../shared-core/src/service/projectConfig';
 // @ts-expect-error -- a plain ES module without type declarations
 import { fields, scripts } from '../../client/manifest.mjs';
 
@@ -136,11 +137,26 @@ describe('extension manifest', () => {
       ...(manifest.contributes['markdown.previewStyles'] as string[]).map((p) => p.replace(/^\.\//, '')),
       'LICENSE',
       'CHANGELOG.md',
+      ...(manifest.contributes.jsonValidation as { url: string }[]).map((v) => v.url.replace(/^\.\//, '')),
     ];
     for (const f of named) {
       expect(ignore, f).toContain(`!${f}`);
       if (!f.startsWith('dist/')) expect(existsSync(join(root, f)), f).toBe(true);
     }
     expect(ignore.filter((l) => l.startsWith('!') && l.includes('node_modules'))).toEqual([]);
+  });
+
+  it('validates dewmark.json with a schema whose keys and values are the ones the project file and the server accept', () => {
+    expect(manifest.contributes.jsonValidation).toEqual([{ fileMatch: 'dewmark.json', url: './schema/dewmark.schema.json' }]);
+    expect(manifest.files).toContain('schema/');
+    const schema = JSON.parse(readFileSync(join(root, 'schema', 'dewmark.schema.json'), 'utf8')) as Record<string, any>;
+    expect(schema.additionalProperties).toBe(false);
+    expect(Object.keys(schema.properties).sort()).toEqual([...PROJECT_KEYS].sort());
+    expect(schema.properties.units.enum).toEqual(properties['dewmark.units']!.enum);
+    expect(schema.properties.inlayHints.properties.properties.items.enum).toEqual([...HINT_KEYS]);
+    expect(schema.properties.precision.maximum).toBe(properties['dewmark.precision']!.maximum);
+    expect(schema.properties.rules.additionalProperties.enum).toEqual([...RULE_VALUES]);
+    // Every editor-setting key of the project file is a contributed setting.
+    for (const key of SETTING_KEYS) expect(Object.keys(properties).some((k) => k === `dewmark.${key}` || k.startsWith(`dewmark.${key}.`)), key).toBe(true);
   });
 });

@@ -19,6 +19,7 @@ import { unifiedDiff } from '../diff';
 import { collectInputs, decodeText, readInput, type Input } from '@dewmark/files';
 import type { CliIO } from '../run';
 import { safeText } from '../sanitize';
+import { selectWithProjects } from '../project';
 import { UsageError, toSettings, type RawEvalOptions } from '../settings';
 
 /** The diagnostic codes `fix` repairs. */
@@ -27,6 +28,7 @@ export const FIXABLE_CODES = ['claim-mismatch', 'stale-results-table'] as const;
 interface FixOptions extends RawEvalOptions {
   write?: boolean;
   gitignore?: boolean;
+  exclude?: string[];
 }
 
 /** A replacement of `[start, end)` by `text`. */
@@ -102,7 +104,7 @@ function plural(n: number, word: string): string {
 export async function runFix(paths: string[], opts: FixOptions, io: CliIO): Promise<number> {
   const settings = toSettings(opts);
   if (opts.write && paths.includes('-')) throw new UsageError('fix --write cannot write to standard input; give the note as a file, or leave out --write to see the diff');
-  const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false });
+  const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false, exclude: opts.exclude ?? [] });
   let ioProblems = 0;
   for (const p of problems) {
     io.err(`dewmark: ${safeText(p.message)}\n`);
@@ -117,7 +119,12 @@ export async function runFix(paths: string[], opts: FixOptions, io: CliIO): Prom
   let tables = 0;
   let left = 0;
   let out = '';
-  for (const input of inputs) {
+  const project = selectWithProjects(inputs, io.cwd, settings);
+  for (const p of project.problems) {
+    io.err(`dewmark: ${safeText(p)}\n`);
+    ioProblems++;
+  }
+  for (const { input, settings: own } of project.tasks) {
     const read = await readNote(input, io);
     if (!read.ok) {
       io.err(`dewmark: ${safeText(read.message)}\n`);
@@ -127,7 +134,7 @@ export async function runFix(paths: string[], opts: FixOptions, io: CliIO): Prom
     // The decoder drops a byte-order mark; it is put back so the file changes only where edited.
     const hasBom = read.text.startsWith(BOM) || read.bom;
     const body = read.text.startsWith(BOM) ? read.text.slice(1) : read.text;
-    const r = fixText(body, settings);
+    const r = fixText(body, own);
     left += r.left;
     if (r.text === body) continue;
     changedFiles++;

@@ -9,7 +9,8 @@ export type { CancellationFlag, DefaultSite, Edit, HintKey, Note, ServiceSetting
 export { HINT_KEYS } from './types';
 export type { Span } from '../text/types';
 export type { CoreDiagnostic } from '../notation/ast';
-export { DEFAULT_SERVICE_SETTINGS, readSettings, toEvaluateSettings } from './settings';
+export { DEFAULT_SERVICE_SETTINGS, readSettings, RULE_VALUES, toEvaluateSettings } from './settings';
+export { findProjectConfig, mergeSection, parseProjectConfig, PROJECT_FILE, PROJECT_KEYS, SETTING_KEYS, type ConfigFileSystem, type ProjectConfig } from './projectConfig';
 export { analyzeText, analyzeTextSteps, analyzeTextWith } from './note';
 export { hover, type HoverInfo } from './hover';
 export { hoverPlainText } from './plainText';

@@ -2,7 +2,7 @@
  * Editor settings of the language service: defaults, validation of what a client sends (every
  * problem named, with the default used instead), and the evaluator settings they imply.
  */
-import type { EvaluateSettings } from '../evaluate/types';
+import type { EvaluateSettings, RuleSetting } from '../evaluate/types';
 import { stdAtmPressure } from '../physics';
 import { displaySymbol, lookupUnit, toSI } from '../units';
 import type { Dimension } from '../units/types';
@@ -151,7 +151,29 @@ export function readSettings(raw: unknown): { settings: ServiceSettings; problem
     problems.push(`dewmark.maxNoteSizeKB must be a whole number of KB (0 for no limit), not ${JSON.stringify(mk)}; ${d.maxNoteKB} is used.`);
   }
 
-  return { settings: { units, site, hintProperties, extraDigits, checkClaims, secondaryUnits, maxNoteKB }, problems };
+  const settings: ServiceSettings = { units, site, hintProperties, extraDigits, checkClaims, secondaryUnits, maxNoteKB };
+  const rules = readRules(pick(obj, 'rules'), problems);
+  if (rules) settings.rules = rules;
+  return { settings, problems };
+}
+
+/** What a rule may set a diagnostic code to. */
+export const RULE_VALUES: readonly RuleSetting[] = ['error', 'warning', 'info', 'off'];
+
+/** The `rules` object (diagnostic code → severity or off); each unusable entry is named and left out. */
+function readRules(raw: unknown, problems: string[]): Record<string, RuleSetting> | undefined {
+  if (raw === undefined || raw === null) return undefined;
+  if (typeof raw !== 'object' || Array.isArray(raw)) {
+    problems.push(`dewmark.rules must be an object of diagnostic codes, e.g. { "claim-mismatch": "error" }, not ${JSON.stringify(raw)}; it is ignored.`);
+    return undefined;
+  }
+  const out: Record<string, RuleSetting> = {};
+  for (const [code, value] of Object.entries(raw as Record<string, unknown>)) {
+    if (!/^[a-z0-9]+(?:-[a-z0-9]+)*$/.test(code)) problems.push(`dewmark.rules: "${code}" is not a diagnostic code (lower-case words joined by hyphens, e.g. claim-mismatch); it is ignored.`);
+    else if (typeof value !== 'string' || !(RULE_VALUES as readonly string[]).includes(value)) problems.push(`dewmark.rules.${code} must be one of ${RULE_VALUES.join(', ')}, not ${JSON.stringify(value)}; it is ignored.`);
+    else out[code] = value as RuleSetting;
+  }
+  return Object.keys(out).length > 0 ? out : undefined;
 }
 
 /** The evaluator settings that the service settings imply (default pressure and where it came from). */
@@ -166,5 +188,7 @@ export function toEvaluateSettings(s: ServiceSettings): EvaluateSettings {
     pressurePa = s.site.pa;
     pressureOrigin = `setting dewmark.pressure = ${s.site.written}, i.e.`;
   }
-  return { units: s.units, pressurePa, pressureOrigin, checkClaims: s.checkClaims };
+  const out: EvaluateSettings = { units: s.units, pressurePa, pressureOrigin, checkClaims: s.checkClaims };
+  if (s.rules) out.rules = s.rules;
+  return out;
 }

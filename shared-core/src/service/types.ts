@@ -2,7 +2,7 @@
  * Plain-data types of the language service. No editor or protocol types: offsets are UTF-16 code
  * units into the whole document, ranges are {@link Span}s, rich text is a Markdown string.
  */
-import type { Analysis } from '../evaluate/types';
+import type { Analysis, RuleSetting } from '../evaluate/types';
 import type { Span } from '../text/types';
 import type { UnitSystem } from '../units/types';
 
@@ -34,6 +34,8 @@ export interface ServiceSettings {
    * one info diagnostic saying so, and no hints or hovers (0 = no limit). See `./limits`.
    */
   maxNoteKB: number;
+  /** Severity per diagnostic code, or `off` (from the project file `dewmark.json`; see `./projectConfig`). */
+  rules?: Readonly<Record<string, RuleSetting>>;
 }
 
 /** A cancellation signal (structurally compatible with an LSP cancellation token). */

@@ -1,0 +1,92 @@
+/**
+ * The project file `dewmark.json` on the command line: for each note, the nearest one above it
+ * gives its settings (units, default site, claims, rules), and its `include` and `exclude`
+ * patterns choose which found notes are checked. Options given on the command line win over it.
+ * Each folder is looked at once, each project file read once.
+ */
+import { readFileSync } from 'node:fs';
+import { dirname, isAbsolute, join, relative, sep } from 'node:path';
+import { patternMatcher, type Input } from '@dewmark/files';
+import { findProjectConfig, readSettings, toEvaluateSettings, type ConfigFileSystem, type EvaluateSettings, type ProjectConfig } from './core';
+
+/** What the project files decide for the inputs. */
+export interface ProjectSelection {
+  /** The inputs to check, each with its settings (command-line options over its project file). */
+  tasks: { input: Input; settings: Partial<EvaluateSettings> }[];
+  /** Inputs left out by a project file's include/exclude. */
+  excluded: number;
+  /** Problems of the project files, each naming the file (exit code 2). */
+  problems: string[];
+}
+
+/** A path as the user reads it: relative to the working directory when below it. */
+function displayPath(abs: string, cwd: string): string {
+  const rel = relative(cwd, abs);
+  const shown = rel === '' || rel.startsWith('..') || isAbsolute(rel) ? abs : rel;
+  return sep === '\\' ? shown.replace(/\\/g, '/') : shown;
+}
+
+/** A project file's settings as evaluator settings (its problems are added to `problems`). */
+function settingsOf(config: ProjectConfig, cwd: string, problems: string[]): Partial<EvaluateSettings> {
+  const { settings, problems: own } = readSettings(config.section);
+  const shown = displayPath(config.path, cwd);
+  for (const p of [...config.problems, ...own]) problems.push(`${shown}: ${p.replace(/^dewmark\./, '')}`);
+  const out = toEvaluateSettings(settings);
+  if (settings.site.written !== 'default') out.pressureOrigin = `${shown}: ${settings.site.kind} ${settings.site.written}${settings.site.kind === 'elevation' ? ' (standard atmosphere):' : ', i.e.'}`;
+  return out;
+}
+
+/**
+ * Applies the project files to `inputs` (standard input takes the one above the working
+ * directory). `cli` holds only the options given on the command line.
+ */
+export function selectWithProjects(inputs: Input[], cwd: string, cli: Partial<EvaluateSettings>): ProjectSelection {
+  const texts = new Map<string, string | null>();
+  const fs: ConfigFileSystem = {
+    read(path) {
+      if (!texts.has(path)) {
+        let text: string | null = null;
+        try {
+          text = readFileSync(path, 'utf8');
+        } catch {
+          text = null;
+        }
+        texts.set(path, text);
+      }
+      return texts.get(path)!;
+    },
+    parent: (dir) => dirname(dir),
+    join: (dir, name) => join(dir, name),
+  };
+  const byDir = new Map<string, ProjectConfig | null>();
+  const perConfig = new Map<ProjectConfig, { settings: Partial<EvaluateSettings>; include: ((abs: string) => boolean) | null; exclude: ((abs: string) => boolean) | null }>();
+  const problems: string[] = [];
+  const out: ProjectSelection = { tasks: [], excluded: 0, problems };
+  for (const input of inputs) {
+    const dir = input.abs === null ? cwd : dirname(input.abs);
+    let config = byDir.get(dir);
+    if (config === undefined) {
+      config = findProjectConfig(dir, fs);
+      byDir.set(dir, config);
+    }
+    if (!config) {
+      out.tasks.push({ input, settings: cli });
+      continue;
+    }
+    let p = perConfig.get(config);
+    if (!p) {
+      p = {
+        settings: settingsOf(config, cwd, problems),
+        include: config.include.length > 0 ? patternMatcher(config.include, config.dir) : null,
+        exclude: config.exclude.length > 0 ? patternMatcher(config.exclude, config.dir) : null,
+      };
+      perConfig.set(config, p);
+    }
+    if (input.abs !== null && ((p.include && !p.include(input.abs)) || (p.exclude && p.exclude(input.abs)))) {
+      out.excluded++;
+      continue;
+    }
+    out.tasks.push({ input, settings: { ...p.settings, ...cli } });
+  }
+  return out;
+}
