@@ -1,6 +1,6 @@
 /** What `dewmark` prints: diagnostic lines, the JSON documents, and the terminal tables. */
 import type { Analysis, CoreDiagnostic, Dimension, ProcessResult, StateResult, UnitSystem } from './core';
-import { LineIndex, displaySymbol, displayUnit, formatQuantity, jsonFigure, jsonName, lookupUnit } from './core';
+import { LineIndex, displaySymbol, displayUnit, jsonFigure, jsonName, processRow, stateRow, waterUnit } from './core';
 import { safeLinePath, safeText } from './sanitize';
 
 /** One checked or evaluated file. */
@@ -185,17 +185,14 @@ export function renderTable(header: string[], rows: string[][], numeric: boolean
   return [fmt(header), widths.map((w) => '-'.repeat(w)).join('  '), ...rows.map(fmt)].join('\n');
 }
 
-/** SHR is shown as a plain ratio (0.73), not as %. */
-const FRACTION_ONE = { symbol: '', aliases: [], dimension: 'fraction' as const, system: 'both' as const, title: 'ratio', scale: 1, offset: 0 };
-
-function q(si: number | null | undefined, dim: Dimension, sys: UnitSystem, digits?: number): string {
-  if (si === null || si === undefined || !Number.isFinite(si)) return '—';
-  return formatQuantity(si, dim, sys, digits === undefined ? {} : { digits }).valueText;
-}
-
 function sym(dim: Dimension, sys: UnitSystem): string {
   return displaySymbol(displayUnit(dim, sys));
 }
+
+/*
+ * The tables are a thin renderer of the results rows (`@dewmark/core/present/rows`): every figure
+ * comes formatted from there, as in the preview, the hovers and the report.
+ */
 
 /** The states and mixes of a file as a table in the note's unit system. */
 export function statesTable(f: FileResult): string | null {
@@ -217,30 +214,31 @@ export function statesTable(f: FileResult): string | null {
     'from',
   ];
   const rows = states.map((s) => {
-    const st = s.state;
+    const row = stateRow(s, sys);
+    const v = row.figures;
     return [
       s.name,
       String(lineOf(f, s)),
       s.kind,
-      q(s.pressure.pa, 'pressure', sys),
-      q(st?.db, 'temperature', sys),
-      q(st?.wb, 'temperature', sys),
-      q(st?.dp, 'temperature', sys),
-      q(st?.rh, 'fraction', sys),
-      q(st?.w, 'humidityRatio', sys),
-      q(st?.h, 'enthalpy', sys),
-      q(st?.v, 'specificVolume', sys),
-      st === null ? 'not computed (see diagnostics)' : s.kind === 'mix'
-          ? (s.streams ?? []).map((x) => `${x.name} ${(x.fraction * 100).toFixed(1)}%`).join(' + ')
+      v.p.value,
+      v.db.value,
+      v.wb.value,
+      v.dp.value,
+      v.rh.value,
+      v.w.value,
+      v.h.value,
+      v.v.value,
+      row.status === 'failed' ? 'not computed (see diagnostics)' : s.kind === 'mix'
+          ? row.streams.map((x) => `${x.name} ${x.fraction.text}`).join(' + ')
           : s.kind === 'supply' && s.supply
-            ? `loads of ${s.supply.room}, ${q(s.massFlowKgS, 'massFlow', sys)}`
+            ? `loads of ${s.supply.room}, ${row.massFlow.value}`
             : s.defining.join('+'),
     ];
   });
   return renderTable(header, rows, [false, true, false, true, true, true, true, true, true, true, true, false]);
 }
 
-/** The processes of a file as a table in the note's unit system. */
+/** The processes of a file as a table in the note's unit system (heat and water only with a flow). */
 export function processesTable(f: FileResult): string | null {
   const sys = f.analysis.units;
   const procs = f.analysis.items.filter((i): i is ProcessResult => i.kind === 'process');
@@ -256,21 +254,25 @@ export function processesTable(f: FileResult): string | null {
     `sensible ${power}`,
     `latent ${power}`,
     'SHR',
-    `water ${sys === 'SI' ? 'kg/h' : 'lb/h'}`,
+    `water ${displaySymbol(waterUnit(sys))}`,
     `coil ${power}`,
   ];
-  const rows = procs.map((p) => [
-    p.name,
-    String(lineOf(f, p)),
-    `${p.from} -> ${p.to}`,
-    p.processKind ?? '—',
-    q(p.massFlowKgS, 'massFlow', sys),
-    q(p.qTotalW, 'power', sys),
-    q(p.qSensibleW, 'power', sys),
-    q(p.qLatentW, 'power', sys),
-    p.shr === null || !Number.isFinite(p.shr) ? '—' : formatQuantity(p.shr, 'fraction', sys, { unit: FRACTION_ONE, digits: 2 }).valueText,
-    p.waterKgS === null ? '—' : formatQuantity(p.waterKgS, 'massFlow', sys, { unit: lookupUnit(sys === 'SI' ? 'kg/h' : 'lb/h')!, digits: 1 }).valueText,
-    q(p.qCoilW, 'power', sys),
-  ]);
+  const rows = procs.map((p) => {
+    const row = processRow(p, sys);
+    const withFlow = (x: { value: string }) => (row.hasFlow ? x.value : '—');
+    return [
+      p.name,
+      String(lineOf(f, p)),
+      `${p.from} -> ${p.to}`,
+      row.kind,
+      row.massFlow.value,
+      withFlow(row.total),
+      withFlow(row.sensible),
+      withFlow(row.latent),
+      row.shr.value,
+      withFlow(row.water),
+      withFlow(row.coil),
+    ];
+  });
   return renderTable(header, rows, [false, true, false, false, true, true, true, true, true, true, true]);
 }

@@ -16,10 +16,11 @@ function row(lines: string[], name: string): string[] {
   return line.slice(1, -1).split(' | ').map((c) => c.trim());
 }
 
+/** The number at the start of a cell (figures are shown with the minus sign U+2212 and IP thousands commas). */
 function num(cell: string | undefined): number {
-  const m = /^-?\d+(\.\d+)?/.exec(cell ?? '');
+  const m = /^[-−]?[\d,]+(\.\d+)?/.exec(cell ?? '');
   if (!m) throw new Error(`no number in '${cell}'`);
-  return Number(m[0]);
+  return Number(m[0].replace('−', '-').replace(/,/g, ''));
 }
 
 const TWO_BLOCKS = [
@@ -54,7 +55,7 @@ describe('block results', () => {
       ['MA', 'mix', 'ok'],
       ['OFF', 'state', 'ok'],
     ]);
-    expect(blocks[1]!.data.states[0]!.detail).toBe('mix: OA 25 % + RA 75 %');
+    expect(blocks[1]!.data.states[0]!.detail).toBe('mix: OA 25.0 % + RA 75.0 %');
     expect(blocks[1]!.data.processes.map((p) => p.name)).toEqual(['CC', 'DRY']);
   });
 
@@ -93,10 +94,10 @@ describe('block results', () => {
     const lines = resultsTableMarkdown(blocks[1]!.data);
     const [, kind, total, sensible, latent, shr, water] = row(lines, 'CC');
     expect(kind).toBe('cooling and dehumidifying');
-    expect(total).toMatch(/^-\d+(\.\d+)? kW$/);
-    expect(sensible).toMatch(/^-\d+(\.\d+)? kW$/);
-    expect(latent).toMatch(/^-\d+(\.\d+)? kW$/);
-    expect(water).toMatch(/^-\d+(\.\d+)? kg\/h$/);
+    expect(total).toMatch(/^−\d+(\.\d+)? kW$/);
+    expect(sensible).toMatch(/^−\d+(\.\d+)? kW$/);
+    expect(latent).toMatch(/^−\d+(\.\d+)? kW$/);
+    expect(water).toMatch(/^−\d+(\.\d+)? kg\/h$/);
     expect(num(shr)).toBeGreaterThan(0);
     expect(num(shr)).toBeLessThan(1);
     // The figures are the engine's, rounded for display (kW at 3 significant figures, kg/h from kg/s × 3600).

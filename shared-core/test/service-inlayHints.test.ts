@@ -89,8 +89,9 @@ describe('inline hints', () => {
       { after: 'w=10g/kg' },
       { after: 'A -> B', contains: ['Δh '] },
     ]);
-    const m = /Δh[ \u00a0](-?[0-9.]+)[ \u00a0]Btu\/lb/.exec(hints[2]!.label);
+    // Shown with the display minus sign, U+2212.
+    const m = /Δh[ \u00a0](−?[0-9.]+)[ \u00a0]Btu\/lb/.exec(hints[2]!.label);
     expect(m, hints[2]!.label).not.toBeNull();
-    expect(near(Number(m![1]), -6.608, 0.006)).toBe(true);
+    expect(near(Number(m![1]!.replace('−', '-')), -6.608, 0.006)).toBe(true);
   });
 });

@@ -79,7 +79,7 @@ describe('inserting results tables', () => {
     const a = analyzeNote(after);
     expect(a.parsed.statements.length).toBe(before.parsed.statements.length);
     expect(a.diagnostics.map((d) => d.code)).toEqual(before.diagnostics.map((d) => d.code));
-    expect(after).toMatch(/\| MA \(mix: OA 30 % \+ RA 70 %\) +\| +-?\d/);
+    expect(after).toMatch(/\| MA \(mix: OA 30.0 % \+ RA 70.0 %\) +\| +−?\d/);
     // PH's w=4.5g/kg is MA's 4.45 g/kg rounded: a preheat coil, no moisture change (docs/notation.md).
     expect(after).toMatch(/\| HC: MA → PH \| sensible heating/);
   });

@@ -72,7 +72,7 @@ for (const [label, MarkdownIt] of versions) {
       expect(Math.abs(Number(oa![3]) - 6.5)).toBeLessThanOrEqual(0.105);
       expect(Math.abs(Number(oa![4]) - 56.7)).toBeLessThanOrEqual(0.105);
       // The mix in the second block uses OA and RA from the first.
-      expect(blocks[1]).toMatch(/MA mix: OA 25 % \+ RA 75 % \d+\.\d/);
+      expect(blocks[1]).toMatch(/MA mix: OA 25.0 % \+ RA 75.0 % \d+\.\d/);
       expect(blocks[1]).toMatch(/BAD not computed/);
       expect(blocks[1]).toMatch(/error wb-above-db .*wet-bulb 25 °C is above the dry-bulb 20 °C/);
       // Each table follows its own fence, before the next paragraph; the js fence gets none.

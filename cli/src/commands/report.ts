@@ -8,7 +8,7 @@ import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
 import { renderChart } from '@dewmark/core/chart';
 import type { ClaimResult, PressureBasis } from '@dewmark/core/evaluate';
-import { LineIndex, displaySymbol, displayUnit, formatQuantity, type Analysis, type CoreDiagnostic, type Dimension, type ProcessResult, type StateResult, type UnitSystem } from '../core';
+import { LineIndex, claimFigures, displaySymbol, displayUnit, figure, processRow, stateRow, waterUnit, type Analysis, type CoreDiagnostic, type Dimension, type ProcessResult, type StateResult, type UnitSystem } from '../core';
 import type { CliIO } from '../run';
 import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, type WriteOptions } from './outputFile';
 
@@ -39,15 +39,9 @@ export const CAUTION =
   'Design aid only. These figures are computed from the values written in the note; they do not replace engineering judgement. ' +
   'Verify them against the applicable codes and standards, and have the design reviewed by a licensed professional engineer before it is used for construction, purchase or commissioning.';
 
-function q(si: number | null | undefined, dim: Dimension, sys: UnitSystem): string {
-  if (si === null || si === undefined || !Number.isFinite(si)) return '—';
-  return formatQuantity(si, dim, sys).valueText;
-}
-
-/** `x` at `d` decimals, never "-0.00". */
-function fixed(x: number, d: number): string {
-  const t = x.toFixed(d);
-  return /^-0(\.0+)?$/.test(t) ? t.slice(1) : t;
+/** The badge beside a name that was not computed, or is in the fog region. */
+function badge(status: 'ok' | 'fog' | 'failed'): string {
+  return status === 'failed' ? ' <span class="badge err">not computed</span>' : status === 'fog' ? ' <span class="badge warn">fog</span>' : '';
 }
 
 function sym(dim: Dimension, sys: UnitSystem): string {
@@ -58,10 +52,17 @@ function lineOf(lines: LineIndex, text: string, offset: number): number {
   return lines.lineCol(Math.max(0, Math.min(offset, text.length))).line;
 }
 
+/** The claims of an item: each judged and shown in the unit it was written in (`shr ✗ 0.873`). */
 function claimsCell(claims: ClaimResult[]): string {
   if (claims.length === 0) return '';
   return claims
-    .map((c) => `<span class="claim ${c.pass ? 'pass' : 'fail'}" title="${escapeHtml(`${c.key}: written ${c.prop.value?.number.text ?? ''}${c.prop.value?.unit?.text ?? ''}, computed ${c.computedText}`)}">${escapeHtml(c.key)} ${c.pass ? '✓' : `✗ ${escapeHtml(c.computedText)}`}</span>`)
+    .map((c) => {
+      const f = claimFigures(c);
+      const computed = f ? f.computed.text : c.computedText;
+      const band = f ? ` (band ${f.band.text})` : '';
+      const title = `${c.key}: written ${c.prop.value?.number.text ?? ''}${c.prop.value?.unit?.text ?? ''}, computed ${computed}${band}`;
+      return `<span class="claim ${c.pass ? 'pass' : 'fail'}" title="${escapeHtml(title)}">${escapeHtml(c.key)} ${c.pass ? '✓' : `✗ ${escapeHtml(computed)}`}</span>`;
+    })
     .join(' ');
 }
 
@@ -78,19 +79,20 @@ function statesSection(a: Analysis, lines: LineIndex, text: string): string {
   const t = (d: Dimension) => escapeHtml(sym(d, sys));
   const header = ['name', 'line', `p (${t('pressure')})`, `dry-bulb (${t('temperature')})`, `wet-bulb (${t('temperature')})`, `dew point (${t('temperature')})`, 'rh (%)', `w (${t('humidityRatio')})`, `h (${t('enthalpy')})`, `v (${t('specificVolume')})`, 'fixed by', 'claims'];
   const rows = states.map((s) => {
-    const st = s.state;
+    const row = stateRow(s, sys);
+    const v = row.figures;
     return [
-      `<span class="name">${escapeHtml(s.name)}</span>${st === null ? ' <span class="badge err">not computed</span>' : st.fog ? ' <span class="badge warn">fog</span>' : ''}`,
+      `<span class="name">${escapeHtml(s.name)}</span>${badge(row.status)}`,
       String(lineOf(lines, text, s.statement.span.start)),
-      q(s.pressure.pa, 'pressure', sys),
-      q(st?.db, 'temperature', sys),
-      q(st?.wb, 'temperature', sys) + (st?.wbIce ? ' <span class="note" title="over ice">ice</span>' : ''),
-      q(st?.dp, 'temperature', sys) + (st?.dpFrost ? ' <span class="note" title="frost point">frost</span>' : ''),
-      q(st?.rh, 'fraction', sys),
-      q(st?.w, 'humidityRatio', sys),
-      q(st?.h, 'enthalpy', sys),
-      q(st?.v, 'specificVolume', sys),
-      st === null ? 'see diagnostics' : escapeHtml(s.defining.join(' + ')),
+      escapeHtml(v.p.value),
+      escapeHtml(v.db.value),
+      escapeHtml(v.wb.value) + (row.wbIce ? ' <span class="note" title="over ice">ice</span>' : ''),
+      escapeHtml(v.dp.value) + (row.dpFrost ? ' <span class="note" title="frost point">frost</span>' : ''),
+      escapeHtml(v.rh.value),
+      escapeHtml(v.w.value),
+      escapeHtml(v.h.value),
+      escapeHtml(v.v.value),
+      row.status === 'failed' ? 'see diagnostics' : escapeHtml(s.defining.join(' + ')),
       claimsCell(s.claims),
     ];
   });
@@ -104,16 +106,17 @@ function mixesSection(a: Analysis, lines: LineIndex, text: string): string {
   const t = (d: Dimension) => escapeHtml(sym(d, sys));
   const header = ['name', 'line', 'streams (dry-air mass fraction)', `dry-air flow (${t('massFlow')})`, `dry-bulb (${t('temperature')})`, 'rh (%)', `w (${t('humidityRatio')})`, `h (${t('enthalpy')})`, 'claims'];
   const rows = mixes.map((m) => {
-    const st = m.state;
+    const row = stateRow(m, sys);
+    const v = row.figures;
     return [
-      `<span class="name">${escapeHtml(m.name)}</span>${st === null ? ' <span class="badge err">not computed</span>' : st.fog ? ' <span class="badge warn">fog</span>' : ''}`,
+      `<span class="name">${escapeHtml(m.name)}</span>${badge(row.status)}`,
       String(lineOf(lines, text, m.statement.span.start)),
-      escapeHtml((m.streams ?? []).map((s) => `${s.name} ${(s.fraction * 100).toFixed(1)} %`).join(' + ')),
-      q(m.massFlowKgS ?? null, 'massFlow', sys),
-      q(st?.db, 'temperature', sys),
-      q(st?.rh, 'fraction', sys),
-      q(st?.w, 'humidityRatio', sys),
-      q(st?.h, 'enthalpy', sys),
+      escapeHtml(row.streams.map((s) => `${s.name} ${s.fraction.text}`).join(' + ')),
+      escapeHtml(row.massFlow.value),
+      escapeHtml(v.db.value),
+      escapeHtml(v.rh.value),
+      escapeHtml(v.w.value),
+      escapeHtml(v.h.value),
       claimsCell(m.claims),
     ];
   });
@@ -125,24 +128,27 @@ function processesSection(a: Analysis, lines: LineIndex, text: string): string {
   const procs = a.items.filter((i): i is ProcessResult => i.kind === 'process');
   if (procs.length === 0) return '<p class="none" id="processes-none">The note has no processes.</p>';
   const t = (d: Dimension) => escapeHtml(sym(d, sys));
-  const water = sys === 'SI' ? 'kg/h' : 'lb/h';
+  const water = escapeHtml(displaySymbol(waterUnit(sys)));
   const header = ['name', 'line', 'from → to', 'kind', `dry-air flow (${t('massFlow')})`, `total (${t('power')})`, `sensible (${t('power')})`, `latent (${t('power')})`, 'SHR', `water (${water})`, `Δh (${t('enthalpy')})`, 'claims'];
-  const rows = procs.map((p) => [
-    `<span class="name">${escapeHtml(p.name)}</span>`,
-    String(lineOf(lines, text, p.statement.span.start)),
-    `<span class="nowrap">${escapeHtml(p.from)} → ${escapeHtml(p.to)}</span>`,
-    escapeHtml((p.processKind ?? '—').replace(/-/g, ' ')),
-    q(p.massFlowKgS, 'massFlow', sys),
-    q(p.qTotalW, 'power', sys),
-    q(p.qSensibleW, 'power', sys),
-    q(p.qLatentW, 'power', sys),
-    p.shr === null || !Number.isFinite(p.shr) ? '—' : fixed(p.shr, 2),
-    // kg/h, or lb/h (1 lb = 0.45359237 kg exactly).
-    p.waterKgS === null || !Number.isFinite(p.waterKgS) ? '—' : fixed(sys === 'SI' ? p.waterKgS * 3600 : (p.waterKgS * 3600) / 0.45359237, 2),
-    // A difference: the datum offset cancels, so it is scaled only.
-    Number.isFinite(p.dhTotal) ? fixed(p.dhTotal / displayUnit('enthalpy', sys).scale, 2) : '—',
-    claimsCell(p.claims),
-  ]);
+  const rows = procs.map((p) => {
+    const row = processRow(p, sys);
+    // Heat and water rates need a flow; without one the table leaves them empty (Δh is per kg).
+    const withFlow = (x: { value: string }) => escapeHtml(row.hasFlow ? x.value : '—');
+    return [
+      `<span class="name">${escapeHtml(p.name)}</span>`,
+      String(lineOf(lines, text, p.statement.span.start)),
+      `<span class="nowrap">${escapeHtml(p.from)} → ${escapeHtml(p.to)}</span>`,
+      escapeHtml(row.kind),
+      escapeHtml(row.massFlow.value),
+      withFlow(row.total),
+      withFlow(row.sensible),
+      withFlow(row.latent),
+      escapeHtml(row.shr.value),
+      withFlow(row.water),
+      escapeHtml(row.dh.value),
+      claimsCell(p.claims),
+    ];
+  });
   return (
     table('processes', 'Processes (positive = heat or water added to the air)', header, rows, [false, true, false, false, true, true, true, true, true, true, true, false])
   );
@@ -168,17 +174,17 @@ function pressureSection(a: Analysis, lines: LineIndex, text: string): string {
   const bases = new Map<string, { basis: PressureBasis; names: string[] }>();
   for (const item of a.items) {
     if (item.kind === 'process') continue;
-    const key = `${Math.round(item.pressure.pa)}|${item.pressure.describe}`;
+    const key = `${Math.round(item.pressure.pa)}|${item.pressure.origin}`;
     const e = bases.get(key);
     if (e) e.names.push(item.name);
     else bases.set(key, { basis: item.pressure, names: [item.name] });
   }
-  const settingText = `${formatQuantity(a.settings.pressurePa, 'pressure', a.units).text} (${escapeHtml(a.settings.pressureOrigin)})`;
+  const settingText = `${figure(a.settings.pressurePa, 'pressure', a.units).text} (${escapeHtml(a.settings.pressureOrigin)})`;
   if (bases.size === 0) return `<p id="pressure-basis">No states; the default pressure would be ${settingText}.</p>`;
   const items = [...bases.values()].map(({ basis, names }) => {
-    const where = basis.span && !/\bline \d+/.test(basis.describe) ? `, line ${lineOf(lines, text, basis.span.start)}` : '';
+    const where = basis.span && !/\bline \d+/.test(basis.origin) ? `, line ${lineOf(lines, text, basis.span.start)}` : '';
     const elev = basis.elevationM !== null ? ' (elevation to pressure by the standard-atmosphere equation, ASHRAE HoF Ch. 1 eq 3)' : '';
-    return `<li><strong>${formatQuantity(basis.pa, 'pressure', a.units).text}</strong> — ${escapeHtml(basis.describe)}${escapeHtml(where)}${escapeHtml(elev)}; used by ${names.map((n) => `<span class="name">${escapeHtml(n)}</span>`).join(', ')}</li>`;
+    return `<li><strong>${figure(basis.pa, 'pressure', a.units).text}</strong> — ${escapeHtml(basis.origin)}${escapeHtml(where)}${escapeHtml(elev)}; used by ${names.map((n) => `<span class="name">${escapeHtml(n)}</span>`).join(', ')}</li>`;
   });
   return `<ul id="pressure-basis">${items.join('\n')}</ul><p class="small">Default when a note has no <code>site:</code> line: ${settingText}. The chart's curves are drawn for the pressure most states use.</p>`;
 }

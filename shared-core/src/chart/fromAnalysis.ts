@@ -85,7 +85,7 @@ function notePressure(analysis: Analysis): { pa: number; text: string } {
     const key = Math.round(s.pressure.pa);
     const c = counts.get(key);
     if (c) c.n++;
-    else counts.set(key, { n: 1, text: s.pressure.describe });
+    else counts.set(key, { n: 1, text: s.pressure.origin });
   }
   let best: [number, { n: number; text: string }] | undefined;
   for (const e of counts) if (!best || e[1].n > best[1].n) best = e;

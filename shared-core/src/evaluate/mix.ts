@@ -165,7 +165,7 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       message: `${what}: the streams are at different pressures (${kPaText(pMin)} to ${kPaText(pMax)}); the mix is computed at their mean, ${kPaText(pMean)}. Put all streams at one pressure (one site: line)`,
       span: spanUnion(...streams.map((s) => s.span)),
     });
-    pressure = { pa: pMean, source: first.source, span: null, elevationM: null, describe: `mean of the streams' pressures, ${kPaText(pMean)}` };
+    pressure = { pa: pMean, source: first.source, span: null, elevationM: null, describe: `mean of the streams' pressures, ${kPaText(pMean)}`, origin: "mean of the streams' pressures" };
   }
   result.pressure = pressure;
 

@@ -57,6 +57,7 @@ export function pressureFromProps(
       span: p.prop.span,
       elevationM: null,
       describe: `${label}: p=${p.q.quantity.number.text}${p.q.unitText}`,
+      origin: `${label}: p=${p.q.quantity.number.text}${p.q.unitText}`,
     };
   }
   if (elev) {
@@ -90,6 +91,7 @@ export function pressureFromProps(
       span: elev.prop.span,
       elevationM: z,
       describe: `${label}: elev=${elev.q.quantity.number.text}${elev.q.unitText} → ${kPaText(pa)} (standard atmosphere)`,
+      origin: `${label}: elev=${elev.q.quantity.number.text}${elev.q.unitText} (standard atmosphere)`,
     };
   }
   return null;

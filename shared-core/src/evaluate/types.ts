@@ -53,6 +53,12 @@ export interface PressureBasis {
   elevationM: number | null;
   /** A short human description: "site line 3: elev=1600m", "default 101.325 kPa". */
   describe: string;
+  /**
+   * Where it came from in words, without a figure (`site line 3: elev=1600m (standard
+   * atmosphere)`, `default (no site: line)`): what hovers, the chart and the report show beside
+   * the pressure, which they format in the note's units.
+   */
+  origin: string;
 }
 
 /** Keys a claim can be about (state properties plus process figures). */

@@ -1,17 +1,19 @@
 /**
  * The computed results of one ` ```air ` block as plain, already formatted data: the rows of its
  * states and mixes, its processes and its problems (errors, warnings, failed claims), in the
- * note's unit system. The Markdown preview's table and the results table written into a note are
+ * note's unit system. The figures come from the results rows (`./rows`); this module only picks
+ * the preview's columns from them. The Markdown preview's table and the results table written into a note are
  * both drawn from this (see `./resultsTable`). Pure: analysis in, strings out. The data holds no
  * source positions, so equal results give equal data, and formatted results are reused (treat
  * the returned objects as read-only).
  */
-import type { Analysis, EvaluatedItem, ProcessKind, ProcessResult, StateResult } from '../evaluate/types';
+import type { Analysis, EvaluatedItem, ProcessResult, StateResult } from '../evaluate/types';
 import type { AirRegion, CoreDiagnostic, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
-import { displaySymbol, displayUnit, formatDifference, formatQuantity, lookupUnit } from '../units';
-import type { Dimension, UnitDef, UnitSystem } from '../units/types';
+import { displaySymbol, displayUnit } from '../units';
+import type { Dimension, UnitSystem } from '../units/types';
 import type { KeyName } from '../vocabulary/keys';
+import { processRow, stateRow, type ProcessRow, type StateRow } from './rows';
 
 /** A column of the states table: its key (a row of the key table), the label shown, and the unit of its figures. */
 export interface ResultsColumn {
@@ -76,32 +78,7 @@ export interface BlockResults {
   data: ResultsData;
 }
 
-/** Words for each kind of process (hovers, hints, preview and written tables). */
-export const PROCESS_KIND_TEXT: Record<ProcessKind, string> = {
-  'sensible-heating': 'sensible heating',
-  'sensible-cooling': 'sensible cooling',
-  'cooling-dehumidifying': 'cooling and dehumidifying',
-  'heating-humidifying': 'heating and humidifying',
-  'heating-dehumidifying': 'heating and dehumidifying',
-  'cooling-humidifying': 'cooling and humidifying',
-  'evaporative-cooling': 'evaporative cooling',
-  humidifying: 'humidifying',
-  dehumidifying: 'dehumidifying',
-  'no-change': 'no change of state',
-};
-
-const NONE = '—';
-
-function figure(si: number | null | undefined, dimension: Dimension, system: UnitSystem): string {
-  if (si === null || si === undefined || !Number.isFinite(si)) return NONE;
-  return formatQuantity(si, dimension, system).valueText;
-}
-
-/** A difference in a unit, with its symbol: the scale converts, the datum offset does not apply. */
-function difference(si: number | null, dimension: Dimension, unit: UnitDef): string {
-  if (si === null || !Number.isFinite(si)) return NONE;
-  return formatDifference(si, dimension, 'SI', { unit }).text;
-}
+export { PROCESS_KIND_TEXT } from './rows';
 
 function symbolOf(dimension: Dimension, system: UnitSystem): string {
   return displaySymbol(displayUnit(dimension, system));
@@ -121,69 +98,38 @@ export function stateColumns(system: UnitSystem, withPressure: boolean): Results
   return withPressure ? [{ key: 'p', label: 'p', unit: symbolOf('pressure', system) }, ...cols] : cols;
 }
 
-/** A percentage at one decimal without a trailing `.0` (`25`, `33.3`). */
-function percent(fraction: number): string {
-  if (!Number.isFinite(fraction)) return NONE;
-  const t = (Math.round(fraction * 1000) / 10).toFixed(1);
-  return t.endsWith('.0') ? t.slice(0, -2) : t;
-}
-
-function stateRow(s: StateResult, cols: ResultsColumn[], system: UnitSystem): StateRowData {
-  const st = s.state;
-  const status = st === null ? 'failed' : st.fog ? 'fog' : 'ok';
+/** The preview's view of a state row: the columns' figures and the words beside the name. */
+function stateRowData(row: StateRow, cols: ResultsColumn[]): StateRowData {
   const details: string[] = [];
-  if (s.kind === 'mix') {
-    const streams = (s.streams ?? []).map((x) => `${x.name} ${percent(x.fraction)} %`).join(' + ');
+  if (row.kind === 'mix') {
+    const streams = row.streams.map((x) => `${x.name} ${x.fraction.text}`).join(' + ');
     details.push(streams ? `mix: ${streams}` : 'mix');
   }
-  if (status === 'fog') details.push('fog');
-  if (status === 'failed') details.push('not computed');
-  const values = cols.map((c) => {
-    if (c.key === 'p') return figure(s.pressure.pa, 'pressure', system);
-    if (!st) return NONE;
-    switch (c.key) {
-      case 'db':
-        return figure(st.db, 'temperature', system);
-      case 'wb':
-        return figure(st.wb, 'temperature', system);
-      case 'dp':
-        return figure(st.dp, 'temperature', system);
-      case 'rh':
-        return figure(st.rh, 'fraction', system);
-      case 'w':
-        return figure(st.w, 'humidityRatio', system);
-      case 'h':
-        return figure(st.h, 'enthalpy', system);
-    }
-  });
-  return { name: s.name, kind: s.kind, status, detail: details.length > 0 ? details.join('; ') : null, values };
-}
-
-function processRow(p: ProcessResult, system: UnitSystem): ProcessRowData {
-  const hasFlow = p.massFlowKgS !== null;
-  const power = displayUnit('power', system);
-  const perKg = displayUnit('enthalpy', system);
-  const rate = (w: number | null, perKgJ: number) => (hasFlow ? difference(w, 'power', power) : difference(perKgJ, 'enthalpy', perKg));
-  let water: string;
-  if (hasFlow) water = difference(p.waterKgS, 'massFlow', lookupUnit(system === 'SI' ? 'kg/h' : 'lb/h')!);
-  else water = difference(p.dw, 'humidityRatio', displayUnit('humidityRatio', system));
+  if (row.status === 'fog') details.push('fog');
+  if (row.status === 'failed') details.push('not computed');
   return {
-    name: p.name,
-    from: p.from,
-    to: p.to,
-    kind: p.processKind ? PROCESS_KIND_TEXT[p.processKind] : NONE,
-    total: rate(p.qTotalW, p.dhTotal),
-    sensible: rate(p.qSensibleW, p.dhSensible),
-    latent: rate(p.qLatentW, p.dhLatent),
-    shr: p.shr === null || !Number.isFinite(p.shr) ? NONE : fixed2(p.shr),
-    water,
-    hasFlow,
+    name: row.name,
+    kind: row.kind,
+    status: row.status,
+    detail: details.length > 0 ? details.join('; ') : null,
+    values: cols.map((c) => row.figures[c.key].value),
   };
 }
 
-function fixed2(x: number): string {
-  const t = x.toFixed(2);
-  return /^-0\.0+$/.test(t) ? t.slice(1) : t;
+/** The preview's view of a process row: figures with their units (per unit mass of dry air without a flow). */
+function processRowData(row: ProcessRow): ProcessRowData {
+  return {
+    name: row.name,
+    from: row.from,
+    to: row.to,
+    kind: row.kind,
+    total: row.total.text,
+    sensible: row.sensible.text,
+    latent: row.latent.text,
+    shr: row.shr.text,
+    water: row.water.text,
+    hasFlow: row.hasFlow,
+  };
 }
 
 function nameOf(statement: Statement): string | null {
@@ -262,16 +208,16 @@ function resultsIn(analysis: Analysis, span: Span, system: UnitSystem): ResultsD
 }
 
 function formatResults(system: UnitSystem, items: readonly EvaluatedItem[], problems: ProblemData[]): ResultsData {
-  const stateItems = items.filter((i): i is StateResult => i.kind !== 'process');
-  const pressures = new Set(stateItems.map((s) => figure(s.pressure.pa, 'pressure', system)));
+  const stateRows = items.filter((i): i is StateResult => i.kind !== 'process').map((s) => stateRow(s, system));
+  const pressures = new Set(stateRows.map((s) => s.figures.p.text));
   const cols = stateColumns(system, pressures.size > 1);
   return {
     units: system,
     stateColumns: cols,
-    states: stateItems.map((s) => stateRow(s, cols, system)),
-    processes: items.filter((i): i is ProcessResult => i.kind === 'process').map((p) => processRow(p, system)),
+    states: stateRows.map((s) => stateRowData(s, cols)),
+    processes: items.filter((i): i is ProcessResult => i.kind === 'process').map((p) => processRowData(processRow(p, system))),
     problems,
-    pressure: pressures.size === 1 ? `${[...pressures][0]} ${symbolOf('pressure', system)}` : null,
+    pressure: pressures.size === 1 ? [...pressures][0]! : null,
   };
 }
 

@@ -5,3 +5,20 @@
 export { allBlockResults, blockResults, isEmptyResults, type BlockResults, type ResultsData } from './blockResults';
 export { resultsTableHtml, resultsTableMarkdown, type HtmlOptions } from './resultsTable';
 export { RESULTS_COMMAND_TITLE, STALE_RESULTS_TABLE, tableSlots, tableState, type TableSlot, type TableState, type WrittenTable } from './writtenTables';
+export {
+  PROCESS_KIND_TEXT,
+  claimDimension,
+  claimFigures,
+  heatFigure,
+  processKindText,
+  processRow,
+  stateFigure,
+  stateRow,
+  waterFigure,
+  waterUnit,
+  type Figure,
+  type ProcessRow,
+  type RowOptions,
+  type StateFigureKey,
+  type StateRow,
+} from './rows';

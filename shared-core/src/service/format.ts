@@ -4,8 +4,9 @@
  * the method line, the datum lines and the caution footer.
  */
 import type { MoistAirState } from '../physics/types';
-import type { ProcessKind } from '../evaluate/types';
-import { formatDifference, formatQuantity, lookupUnit } from '../units';
+import type { ClaimResult } from '../evaluate/types';
+import { claimFigures, heatFigure, waterFigure } from '../present/rows';
+import { figure, ratioFigure } from '../units';
 import type { Dimension, UnitDef, UnitSystem } from '../units/types';
 import type { HintKey, Note } from './types';
 import { ROW_KEYS, keySpec, type RowKey } from '../vocabulary/keys';
@@ -45,41 +46,42 @@ export function otherSystem(system: UnitSystem): UnitSystem {
   return system === 'SI' ? 'IP' : 'SI';
 }
 
-/** The number of decimals in a formatted number (`47.81` → 2, `98` → 0). */
-function decimalsIn(valueText: string): number {
-  const dot = valueText.indexOf('.');
-  return dot < 0 ? 0 : valueText.length - dot - 1;
-}
-
 /**
  * An SI figure shown in `system` (or in `unit`), at the usual engineering precision plus the
- * note's extra decimals: `24.0 °C`, `9.31 g/kg`, `— °F` for a missing value.
+ * note's extra decimals: `24.0 °C`, `9.31 g/kg`, `— °F` for a missing value. The one formatter of
+ * the tables and the report too (`figure` in `units/`).
  */
 export function show(note: Note, si: number, dimension: Dimension, system: UnitSystem, unit?: UnitDef): string {
-  const opts = unit ? { unit } : {};
-  const first = formatQuantity(si, dimension, system, opts);
-  const extra = note.settings.extraDigits;
-  if (extra <= 0 || !Number.isFinite(si)) return first.text;
-  return formatQuantity(si, dimension, system, { ...opts, digits: decimalsIn(first.valueText) + extra }).text;
+  return figure(si, dimension, system, { unit, extraDigits: note.settings.extraDigits }).text;
 }
 
 /** An SI difference (Δh, Δt) shown in `system`: scale only, no datum offset. */
 export function showDifference(note: Note, siDelta: number, dimension: Dimension, system: UnitSystem): string {
-  const first = formatDifference(siDelta, dimension, system);
-  const extra = note.settings.extraDigits;
-  if (extra <= 0 || !Number.isFinite(siDelta)) return first.text;
-  return formatDifference(siDelta, dimension, system, { digits: decimalsIn(first.valueText) + extra }).text;
+  return figure(siDelta, dimension, system, { difference: true, extraDigits: note.settings.extraDigits }).text;
 }
 
-/** A water rate (condensate or humidifier water) in kg/h or lb/h. */
+/** A water rate (condensate or humidifier water) in kg/h or lb/h, as in the results tables. */
 export function showWaterRate(note: Note, kgPerS: number, system: UnitSystem): string {
-  return show(note, kgPerS, 'massFlow', system, lookupUnit(system === 'SI' ? 'kg/h' : 'lb/h'));
+  return waterFigure(kgPerS, system, { extraDigits: note.settings.extraDigits }).text;
 }
 
-/** A plain number at `decimals` places, never `-0`. */
-export function plain(x: number, decimals: number): string {
-  const t = x.toFixed(decimals);
-  return /^-0\.?0*$/.test(t) ? t.slice(1) : t;
+/** A heat rate in kW or Btu/h, as in the results tables. */
+export function showHeat(note: Note, w: number, system: UnitSystem): string {
+  return heatFigure(w, system, { extraDigits: note.settings.extraDigits }).text;
+}
+
+/** A sensible heat ratio, as in the results tables (`0.73`). */
+export function showRatio(note: Note, x: number | null): string {
+  return ratioFigure(x, note.settings.extraDigits).text;
+}
+
+/**
+ * A claim's computed value and band in the unit the engineer wrote it in (`shr=0.89` → `0.889`,
+ * `±0.005`), at the note's extra decimals; null for a key of no known dimension.
+ */
+export function showClaim(note: Note, claim: ClaimResult): { computed: string; band: string } | null {
+  const f = claimFigures(claim, { extraDigits: note.settings.extraDigits });
+  return f ? { computed: f.computed.text, band: f.band.text } : null;
 }
 
 /** The properties the automatic inline hints show: rh, w, h and dp (wb when dp is written). */
@@ -89,7 +91,7 @@ export function autoHintKeys(written: ReadonlySet<string>): HintKey[] {
   return keys;
 }
 
-export { PROCESS_KIND_TEXT } from '../present/blockResults';
+export { PROCESS_KIND_TEXT } from '../present/rows';
 
 /** The method line of every state hover. */
 export const METHOD_LINE = 'Method: ASHRAE Handbook—Fundamentals Ch. 1, ideal-gas; ice below 0 °C.';

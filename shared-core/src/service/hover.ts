@@ -9,7 +9,7 @@ import { iceWetBulbAlternative } from '../physics';
 import type { ClaimResult, EvaluatedItem, ProcessResult, PropertySource, StateResult } from '../evaluate/types';
 import type { PropertyNode, PropertyRefNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
-import { baseUnit, deltaFromSI, describeUnit, displaySymbol, formatDifference, lookupUnit } from '../units';
+import { describeUnit, figure, lookupUnit } from '../units';
 import type { Dimension, UnitSystem } from '../units/types';
 import {
   CAUTION_LINE,
@@ -19,9 +19,11 @@ import {
   datumLine,
   md,
   otherSystem,
-  plain,
   show,
+  showClaim,
   showDifference,
+  showHeat,
+  showRatio,
   showWaterRate,
 } from './format';
 import { itemOf, overlaps, propsOf, targetAt } from './note';
@@ -46,25 +48,19 @@ const KEYWORD_TEXT: Record<Statement['keyword'], string> = {
     '`process NAME: A -> B [m=… | q=…]` a process between two named states at one dry-air flow: heat rates, sensible heat ratio, moisture added or removed, and the kind of process.',
 };
 
-function keyDimension(key: string): Dimension | undefined {
-  return findKey(key)?.dimension;
-}
-
 /** The written text of a property (`rh=45%`). */
 function written(note: Note, prop: PropertyNode): string {
   return note.text.slice(prop.span.start, prop.span.end);
 }
 
-/** A claim's verdict in a few words: `✓ within ±0.5 %` or `✗ written 45%`. */
-function claimVerdict(note: Note, claim: ClaimResult, system: UnitSystem): string {
-  const dim = keyDimension(claim.key);
-  const unit = claim.prop.value?.unit ? lookupUnit(claim.prop.value.unit.text) : undefined;
-  let band = '';
-  if (dim) {
-    const u = unit ?? baseUnit(dim);
-    band = ` (band ±${Number(deltaFromSI(claim.toleranceSI, u).toPrecision(2))} ${displaySymbol(u)})`;
-  }
-  const computed = dim ? show(note, claim.computedSI, dim, system, unit) : claim.computedText;
+/**
+ * A claim's verdict in a few words, judged and reported in the unit the engineer wrote:
+ * `rh=45%` ✓ computed 45.2 % (band ±0.5 %), `shr=0.89` ✗ computed 0.873 (band ±0.005).
+ */
+function claimVerdict(note: Note, claim: ClaimResult): string {
+  const shown = showClaim(note, claim);
+  const computed = shown ? shown.computed : claim.computedText;
+  const band = shown ? ` (band ${shown.band})` : '';
   return claim.pass
     ? `${code(written(note, claim.prop))} ✓ computed ${computed}${band}`
     : `${code(written(note, claim.prop))} ✗ computed ${computed}${band} — stale claim`;
@@ -73,7 +69,7 @@ function claimVerdict(note: Note, claim: ClaimResult, system: UnitSystem): strin
 /** Keys that set the pressure or the flow rather than being claims. */
 const NOT_CLAIMS = new Set(['p', 'elev', 'm', 'q']);
 
-function claimsBlock(note: Note, item: EvaluatedItem, system: UnitSystem): string[] {
+function claimsBlock(note: Note, item: EvaluatedItem): string[] {
   const claims = item.claims;
   if (!note.settings.checkClaims) {
     const defining = new Set<string>(item.kind === 'process' ? [] : item.defining);
@@ -81,12 +77,12 @@ function claimsBlock(note: Note, item: EvaluatedItem, system: UnitSystem): strin
     return written ? ['Claims: not checked (setting dewmark.checkClaims is off).'] : [];
   }
   if (claims.length === 0) return [];
-  return ['Claims:', ...claims.map((c) => `- ${claimVerdict(note, c, system)}`)];
+  return ['Claims:', ...claims.map((c) => `- ${claimVerdict(note, c)}`)];
 }
 
 function pressureLine(note: Note, item: StateResult, system: UnitSystem): string {
   const p = show(note, item.pressure.pa, 'pressure', system);
-  return `Pressure: ${p} — ${md(item.pressure.describe)}`;
+  return `Pressure: ${p} — ${md(item.pressure.origin)}`;
 }
 
 /** Problems reported on a statement, for a hover on something that could not be computed. */
@@ -112,7 +108,7 @@ function sourceText(note: Note, src: PropertySource, system: UnitSystem): string
   let offset = '';
   if (src.offsetSI !== 0 && dim) {
     // A temperature difference in SI is in kelvin (a °C figure would read as a temperature).
-    const text = dim === 'temperature' && system === 'SI' ? formatDifference(Math.abs(src.offsetSI), dim, system, { unit: lookupUnit('K')! }).text : showDifference(note, Math.abs(src.offsetSI), dim, system);
+    const text = dim === 'temperature' && system === 'SI' ? figure(Math.abs(src.offsetSI), dim, system, { unit: lookupUnit('K')!, difference: true, extraDigits: note.settings.extraDigits }).text : showDifference(note, Math.abs(src.offsetSI), dim, system);
     offset = ` ${src.offsetSI < 0 ? '−' : '+'} ${text}`;
   }
   const from = src.fromKey === src.key ? md(src.from) : `${md(src.from)}.${src.fromKey}`;
@@ -173,7 +169,7 @@ function supplyHead(note: Note, item: StateResult, system: UnitSystem): string[]
     '|---|--:|',
     `| room sensible gain | ${show(note, f.qSensibleW, 'power', system)} |`,
     `| room latent gain | ${show(note, f.qLatentW, 'power', system)} |`,
-    `| room SHR | ${f.shr === null ? '—' : plain(f.shr, 2 + note.settings.extraDigits)} |`,
+    `| room SHR | ${f.shr === null ? '—' : showRatio(note, f.shr)} |`,
     `| dry-air flow | ${show(note, item.massFlowKgS, 'massFlow', system)}${f.given === 'm' ? ' (given)' : ''} |`,
     `| volume flow at ${md(item.name)} | ${show(note, f.volumeFlowM3S, 'volumeFlow', system, lookupUnit(volumeUnit))}${f.given === 'q' ? ' (given)' : ''} |`,
     '',
@@ -214,7 +210,7 @@ function stateHover(note: Note, item: StateResult): string {
   if (sources.length > 0) out.push('', ...sources);
   out.push('', pressureLine(note, item, system), '', datumLine(system));
   if (note.settings.secondaryUnits) out.push(datumLine(otherSystem(system)));
-  const claims = claimsBlock(note, item, system);
+  const claims = claimsBlock(note, item);
   if (claims.length > 0) out.push('', ...claims);
   out.push('', METHOD_LINE, '', '---', CAUTION_LINE);
   return out.join('\n');
@@ -234,7 +230,7 @@ function code(text: string): string {
 
 function heat(note: Note, w: number | null, system: UnitSystem): string {
   if (w === null) return '—';
-  const mag = show(note, Math.abs(w), 'power', system);
+  const mag = showHeat(note, Math.abs(w), system);
   if (Math.abs(w) < 1e-9) return mag;
   return `${mag} ${w > 0 ? 'added' : 'removed'}`;
 }
@@ -254,9 +250,9 @@ function processHover(note: Note, item: ProcessResult): string {
   } else {
     rows.push(['dry-air flow', 'not given (add `m=` or `q=` for heat rates)']);
   }
-  rows.push(['sensible heat ratio', item.shr === null ? '— (no net heat)' : plain(item.shr, 2 + note.settings.extraDigits)]);
+  rows.push(['sensible heat ratio', item.shr === null ? '— (no net heat)' : showRatio(note, item.shr)]);
   rows.push(['Δh per kg dry air', signed(item.dhTotal, showDifference(note, Math.abs(item.dhTotal), 'enthalpy', system))]);
-  const perKgW = show(note, Math.abs(item.dw), 'humidityRatio', system);
+  const perKgW = showDifference(note, Math.abs(item.dw), 'humidityRatio', system);
   if (item.moistureUnchanged) {
     rows.push(['Δw', 'no moisture change (the two humidity ratios differ by less than their written figures resolve)']);
   } else {
@@ -268,7 +264,7 @@ function processHover(note: Note, item: ProcessResult): string {
   }
   if (item.qCoilW !== null) rows.push(['coil duty incl. water', heat(note, item.qCoilW, system)]);
   out.push('| | |', '|---|--:|', ...rows.map(([a, b]) => `| ${a} | ${b} |`));
-  const claims = claimsBlock(note, item, system);
+  const claims = claimsBlock(note, item);
   if (claims.length > 0) out.push('', ...claims);
   out.push('', 'Heat rates are positive when heat is added to the air; steady flow, one dry-air flow.');
   out.push('', METHOD_LINE, '', '---', CAUTION_LINE);
@@ -290,7 +286,7 @@ function siteHover(note: Note, statement: Statement): string {
   const p = user.pressure;
   const lines = [`**site** — ${show(note, p.pa, 'pressure', system)} (${show(note, p.pa, 'pressure', otherSystem(system))}) for the statements after it`];
   if (p.elevationM !== null) lines.push('', `From the elevation ${show(note, p.elevationM, 'length', system)} by the standard atmosphere (ASHRAE Handbook—Fundamentals Ch. 1).`);
-  lines.push('', md(p.describe));
+  lines.push('', md(p.origin));
   return lines.join('\n');
 }
 

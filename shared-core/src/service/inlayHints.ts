@@ -7,8 +7,7 @@
 import type { ProcessResult, StateResult } from '../evaluate/types';
 import type { Statement } from '../notation/ast';
 import type { Span } from '../text/types';
-import { lookupUnit } from '../units';
-import { PROCESS_KIND_TEXT, autoHintKeys, plain, rowOf, show, showDifference, showWaterRate } from './format';
+import { PROCESS_KIND_TEXT, autoHintKeys, rowOf, show, showClaim, showDifference, showHeat, showRatio, showWaterRate } from './format';
 import { itemOf, lineEnd, propsOf, regionAt, statementsIn } from './note';
 import type { CancellationFlag, HintKey, Note } from './types';
 
@@ -46,10 +45,8 @@ function stateLabel(note: Note, item: StateResult): { label: string; failed: boo
     for (const c of item.claims) {
       if (c.pass) continue;
       failed = true;
-      const row = rowOf(c.key);
-      const unit = c.prop.value?.unit ? lookupUnit(c.prop.value.unit.text) : undefined;
-      const computed = row ? show(note, c.computedSI, row.dimension, system, unit) : c.computedText;
-      parts.push(`✗ ${c.key} is ${computed}`);
+      // In the unit the claim was written in, as the hover and the message say it.
+      parts.push(`✗ ${c.key} is ${showClaim(note, c)?.computed ?? c.computedText}`);
     }
   }
   if (state.fog) parts.push('fog');
@@ -61,11 +58,11 @@ function processLabel(note: Note, item: ProcessResult): { label: string; failed:
   const parts: string[] = [];
   if (item.processKind) parts.push(PROCESS_KIND_TEXT[item.processKind]);
   if (item.qTotalW !== null) {
-    parts.push(`${show(note, Math.abs(item.qTotalW), 'power', system)} ${item.qTotalW >= 0 ? 'added' : 'removed'}`);
+    parts.push(`${showHeat(note, Math.abs(item.qTotalW), system)} ${item.qTotalW >= 0 ? 'added' : 'removed'}`);
   } else {
     parts.push(`Δh ${showDifference(note, item.dhTotal, 'enthalpy', system)}`);
   }
-  if (item.shr !== null) parts.push(`SHR ${plain(item.shr, 2 + note.settings.extraDigits)}`);
+  if (item.shr !== null) parts.push(`SHR ${showRatio(note, item.shr)}`);
   if (item.waterKgS !== null && item.waterKgS < 0) parts.push(`${showWaterRate(note, -item.waterKgS, system)} condensate`);
   else if (item.waterKgS !== null && item.waterKgS > 0) parts.push(`${showWaterRate(note, item.waterKgS, system)} water`);
   let failed = false;
@@ -73,7 +70,7 @@ function processLabel(note: Note, item: ProcessResult): { label: string; failed:
     for (const c of item.claims) {
       if (c.pass) continue;
       failed = true;
-      parts.push(`✗ ${c.key} is ${c.computedText}`);
+      parts.push(`✗ ${c.key} is ${showClaim(note, c)?.computed ?? c.computedText}`);
     }
   }
   return { label: joinFigures(parts), failed };

@@ -32,7 +32,7 @@ export function noteStatus(note: Note): NoteStatus {
   if (first) {
     const p = show(note, first.pressure.pa, 'pressure', a.units);
     pressureLabel = first.pressure.source === 'site' ? `site ${p}` : first.pressure.source === 'override' ? `${p} (own)` : p;
-    pressureDescribe = `The first state, ${first.name}, is at ${p}: ${first.pressure.describe}.`;
+    pressureDescribe = `The first state, ${first.name}, is at ${p}: ${first.pressure.origin}.`;
   } else {
     const e = toEvaluateSettings(note.settings);
     pressureLabel = show(note, e.pressurePa, 'pressure', a.units);

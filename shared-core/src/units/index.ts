@@ -357,12 +357,21 @@ function roundDecimal(x: number, decimals: number): number {
   return x < 0 && r !== 0 ? -r : r;
 }
 
-/** Text of `x` at `decimals` places; never "-0", and `—` for a non-finite number. */
+/**
+ * The minus sign of every figure shown to people (hints, hovers, tables, reports, messages, the
+ * chart): U+2212, the typographic minus, as the engine's messages and the chart's labels already
+ * wrote it. Text written as notation (a claim's replacement, `formatInUnit`) keeps the ASCII
+ * hyphen-minus the writer types; the parser reads both.
+ */
+export const MINUS = '\u2212';
+
+/** Text of `x` at `decimals` places with the display minus; never "-0", and `—` for a non-finite number. */
 function numberText(x: number, decimals: number): string {
   if (!Number.isFinite(x)) return NO_VALUE;
   const r = roundDecimal(x, decimals);
   if (r === 0) return (0).toFixed(Math.max(0, decimals));
-  return r.toFixed(Math.max(0, Math.min(100, decimals)));
+  const t = r.toFixed(Math.max(0, Math.min(100, decimals)));
+  return r < 0 ? MINUS + t.slice(1) : t;
 }
 
 /** Default number of decimals (may be negative: rounding to tens…) for `value` in `unit`. */
@@ -469,7 +478,172 @@ export function formatInUnit(si: number, unit: UnitDef, resolution?: number, wri
   if (resolution !== undefined && Number.isFinite(resolution) && resolution > 0) {
     decimals = Math.max(decimals, Math.min(12, decimalsOf(resolution)));
   }
-  return `${numberText(value, decimals)}${written ?? unit.symbol}`;
+  // Notation text: the ASCII minus the writer types.
+  return `${numberText(value, decimals).replace(MINUS, '-')}${written ?? unit.symbol}`;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Figures: the one formatter of every figure shown to people
+// ---------------------------------------------------------------------------------------------
+
+/**
+ * A figure as shown: the number, the unit it is shown in, and both together. Hints, hovers, the
+ * preview and Markdown tables, the terminal tables of `dewmark eval` and the HTML report all take
+ * their figures from {@link figure} (through the results rows of `present/rows`), so one figure
+ * reads the same everywhere.
+ */
+export interface Figure {
+  /** The number alone (`24.0`, `0.0033`, `−5.2`, `39,700`), or `—` when there is none. */
+  value: string;
+  /** The unit as displayed (`°C`, `g/kg`, `Btu/h`); '' for a plain ratio or a bare claim. */
+  unit: string;
+  /** Number, a space and the unit (`24.0 °C`); the number alone when the unit is ''. */
+  text: string;
+  /** Decimal places shown (0 when rounded to tens or more). */
+  decimals: number;
+}
+
+/** Options of {@link figure}. */
+export interface FigureOptions {
+  /** Show it in this unit instead of the unit system's display unit. */
+  unit?: UnitDef;
+  /** Decimals added to the usual precision (the editor setting `dewmark.extraDigits`), 0 by default. */
+  extraDigits?: number;
+  /**
+   * A difference, or a rate that comes from one (Δh, a heat rate, water added): converted by the
+   * unit's scale alone (no datum offset), and never stretched to significant figures, since below
+   * the resolution of its inputs a difference is noise, not a value.
+   */
+  difference?: boolean;
+}
+
+/**
+ * Dimensions whose zero is physical (no air, no water, no flow): a small non-zero value of these is
+ * shown to {@link MIN_SIGNIFICANT} significant figures rather than rounded to zero by the unit's
+ * fixed decimals. Temperatures and enthalpies are not among them: their zero is a datum, and a
+ * tenth of a degree is their resolution whatever the value.
+ */
+const KEEPS_SIGNIFICANT: ReadonlySet<Dimension> = new Set<Dimension>(['humidityRatio', 'fraction', 'pressure', 'massFlow', 'volumeFlow', 'power', 'density', 'specificVolume']);
+
+/** Significant figures a small non-zero figure keeps (a −60 °C dew point: w 0.0033 g/kg, not 0.00). */
+export const MIN_SIGNIFICANT = 2;
+
+/** Decimals that show `value` (non-zero) to `figures` significant figures. */
+function decimalsForSignificant(value: number, figures: number): number {
+  const washed = Number(Math.abs(value).toPrecision(15));
+  return figures - 1 - Math.floor(Math.log10(washed));
+}
+
+/** `12345.6` → `12,345.6`: thousands separated by commas (IP figures, as US engineering documents write them). */
+function groupThousands(text: string): string {
+  const m = /^(\D*)(\d{4,})(.*)$/.exec(text);
+  if (!m) return text;
+  return `${m[1]}${m[2]!.replace(/\B(?=(\d{3})+$)/g, ',')}${m[3]}`;
+}
+
+function clampDecimals(d: number): number {
+  return Math.max(-15, Math.min(12, d));
+}
+
+/** Builds a figure from the number text and the unit shown. */
+function makeFigure(value: string, unit: string, decimals: number): Figure {
+  return { value, unit, text: unit ? `${value} ${unit}` : value, decimals: Math.max(0, decimals) };
+}
+
+/** The figure of nothing (a property that could not be computed). */
+export function noFigure(unit = ''): Figure {
+  return makeFigure(NO_VALUE, unit, 0);
+}
+
+/**
+ * An SI value as shown to people in `system`'s display unit (or `opts.unit`):
+ * - at the unit's engineering precision (see {@link formatQuantity} for the table), plus
+ *   `opts.extraDigits` decimals;
+ * - a small non-zero absolute value of a quantity whose zero is physical (humidity ratio, rh,
+ *   pressures, flows, heat rates) keeps {@link MIN_SIGNIFICANT} significant figures where the fixed
+ *   decimals would round it away (`0.0033 g/kg`, not `0.00`); differences never do;
+ * - negative numbers carry {@link MINUS} (U+2212); "-0" is never shown;
+ * - in IP, thousands are separated by commas (`39,700 Btu/h`, `8,745 cfm`); SI figures are not
+ *   grouped (a comma is the decimal sign in much of the SI world);
+ * - a missing or non-finite value shows `—`.
+ */
+export function figure(si: number | null | undefined, dimension: Dimension, system: UnitSystem, opts: FigureOptions = {}): Figure {
+  const unit = opts.unit ?? displayUnit(dimension, system);
+  if (unit.dimension !== dimension) throw new RangeError(`figure: unit ${unit.symbol} measures ${unit.dimension}, not ${dimension}`);
+  const shown = displaySymbol(unit);
+  if (si === null || si === undefined || !Number.isFinite(si)) return noFigure(shown);
+  const spec = specOf(unit);
+  const value = opts.difference ? si / unit.scale : fromSI(si, unit);
+  if (!Number.isFinite(value)) return noFigure(shown);
+  let decimals = defaultDecimals(spec, value);
+  if (!opts.difference && value !== 0 && KEEPS_SIGNIFICANT.has(dimension)) {
+    decimals = Math.max(decimals, decimalsForSignificant(value, MIN_SIGNIFICANT));
+  }
+  const extra = opts.extraDigits !== undefined && Number.isFinite(opts.extraDigits) ? Math.max(0, Math.floor(opts.extraDigits)) : 0;
+  if (extra > 0) decimals = Math.max(0, decimals) + extra;
+  decimals = clampDecimals(decimals);
+  let text = numberText(value, decimals);
+  if (system === 'IP') text = groupThousands(text);
+  return makeFigure(text, shown, decimals);
+}
+
+/** A plain ratio (the sensible heat ratio): two decimals plus `extraDigits`, no unit. */
+export function ratioFigure(x: number | null | undefined, extraDigits = 0): Figure {
+  if (x === null || x === undefined || !Number.isFinite(x)) return noFigure();
+  const decimals = 2 + Math.max(0, Math.floor(Number.isFinite(extraDigits) ? extraDigits : 0));
+  return makeFigure(numberText(x, decimals), '', decimals);
+}
+
+/**
+ * A computed value shown in the unit a claim was written in (`rh=45%` → `49.6 %`, `db=75F` →
+ * `75.2 °F`, a bare `shr=0.89` → `0.889`, a bare `w=0.0093` → `0.00931`): at the finer of the
+ * written precision (`resolution`, the place value of the last written digit) and the usual
+ * precision of that unit. `written` null means a bare number, read in the SI base of `dimension`;
+ * its usual precision is the SI display unit's, carried over to the base (`%` at 0.1 is a
+ * fraction at 0.001).
+ */
+export function claimFigure(
+  si: number,
+  dimension: Dimension,
+  written: UnitDef | null,
+  resolution: number | undefined,
+  extraDigits = 0,
+): Figure {
+  const inUnit = written && written.dimension === dimension ? written : null;
+  let shown: string;
+  let value: number;
+  let decimals: number;
+  if (inUnit) {
+    shown = displaySymbol(inUnit);
+    value = Number.isFinite(si) ? fromSI(si, inUnit) : NaN;
+    decimals = defaultDecimals(specOf(inUnit), value);
+  } else {
+    const display = displayUnit(dimension, 'SI');
+    shown = '';
+    value = si;
+    const inDisplay = Number.isFinite(si) ? fromSI(si, display) : NaN;
+    decimals = defaultDecimals(specOf(display), inDisplay) + Math.round(-Math.log10(display.scale));
+  }
+  if (!Number.isFinite(value)) return noFigure(shown);
+  if (value !== 0 && KEEPS_SIGNIFICANT.has(dimension)) decimals = Math.max(decimals, decimalsForSignificant(value, MIN_SIGNIFICANT));
+  if (resolution !== undefined && Number.isFinite(resolution) && resolution > 0) decimals = Math.max(decimals, decimalsOf(resolution));
+  if (extraDigits > 0) decimals = Math.max(0, decimals) + Math.floor(extraDigits);
+  decimals = clampDecimals(decimals);
+  return makeFigure(numberText(value, decimals), shown, decimals);
+}
+
+/**
+ * The half-width of a claim's band in the unit it was written in (`±0.5 °C`, `±0.005` for a bare
+ * ratio): a difference, so scale only; two significant figures at most.
+ */
+export function bandFigure(toleranceSI: number, written: UnitDef | null): Figure {
+  const scale = written ? written.scale : 1;
+  const shown = written ? displaySymbol(written) : '';
+  const t = toleranceSI / scale;
+  if (!Number.isFinite(t)) return noFigure(shown);
+  const r = Number(t.toPrecision(2));
+  const decimals = Math.max(0, Math.min(12, decimalsOf(r)));
+  return makeFigure(`±${numberText(r, decimals)}`, shown, decimals);
 }
 
 // ---------------------------------------------------------------------------------------------
