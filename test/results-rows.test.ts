@@ -49,7 +49,8 @@ function surfaces(text: string, settings: Partial<ServiceSettings> = {}) {
     const item = a.items.find((i) => i.name === name)!;
     const h = inlayHints(note, { start: 0, end: text.length }).find((x) => x.offset >= item.statement.span.end && x.offset <= text.indexOf('\n', item.statement.span.end) + 1);
     if (!h) throw new Error(`no hint on ${name}`);
-    return h.label;
+    // Figures are kept whole with no-break spaces; read them as spaces here.
+    return h.label.replace(/\u00a0/g, ' ');
   };
   return {
     note,
