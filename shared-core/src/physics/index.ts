@@ -47,3 +47,18 @@ export {
 export { humRatioFromWetBulb, wetBulbFromHumRatio, dewPointFromHumRatio, iceWetBulbAlternative, WB_TOLERANCE_K } from './wetbulb';
 export { stateFromDbW } from './state';
 export { solveState, DEFINING_KEYS } from './solve';
+export { fail as equipmentFailure, moistCp, type EquipmentOutcome, type EquipmentProblem } from './equipment';
+export { sensibleToDb, sensibleByDt, sensibleByDuty, fanHeatPerKg, fanTemperatureRise, fanLeaving, type FanOptions } from './sensible';
+export { coilFromAdp, apparatusDewPoint, type CoilResult } from './coil';
+export {
+  steamEnthalpy,
+  steamToW,
+  steamToRh,
+  adiabaticByEffectiveness,
+  adiabaticToDb,
+  adiabaticToRh,
+  saturationEffectiveness,
+  DEFAULT_STEAM_PRESSURE_PA,
+  type HumidifierResult,
+} from './humidifier';
+export { recoverBetween, type RecoveryStream, type RecoveryResult, type RecoveryWetting } from './recovery';
