@@ -21,6 +21,8 @@ const statement = fc.oneof(
   { weight: 5, arbitrary: fc.tuple(name, pair, claim, fc.constantFrom('', ' p=90kPa', ' elev=1500m')).map(([n, p, c, o]) => `state ${n}: ${p}${c}${o}`) },
   { weight: 2, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 30% + ${b} 70%`) },
   { weight: 1, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 1.2kg/s + ${b} 800L/s db=22C`) },
+  // Mixes by total and remainder (and near-misses of one).
+  { weight: 1, arbitrary: fc.tuple(name, name, name, fc.constantFrom('0.78kg/s + B rest total=3.9kg/s', '20% + B rest', '20% + B rest total=3.9kg/s', '0.6m3/s + B rest total=3.4m3/s', '4kg/s + B rest total=3.9kg/s', 'rest + B rest total=1kg/s', '1kg/s + B 2kg/s total=3kg/s')).map(([m, a, b, tail]) => `mix ${m}: ${a} ${tail.replace('B ', `${b} `)}`) },
   { weight: 2, arbitrary: fc.tuple(name, name, name).map(([p, a, b]) => `process ${p}: ${a} -> ${b} m=2kg/s q_total=-30kW`) },
   // Supplies from room loads (by db, by flow, a reference, infeasible), and a process from one.
   { weight: 2, arbitrary: fc.tuple(name, name, fc.constantFrom('db=13.6C', 'm=3.9kg/s', 'q=3.4m3/s shr=0.84', 'db=X.db+0.8K', 'db=26C', 'db=13C rh=90%')).map(([n, r, tail]) => `supply ${n}: ${r} q_sensible=41.5kW q_latent=8kW ${tail.replace(/X\./g, `${r}.`)}`) },

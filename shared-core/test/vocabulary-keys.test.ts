@@ -67,7 +67,7 @@ describe('the key table', () => {
 
   it('gives each statement the keys it takes, in table order', () => {
     expect(Object.keys(STATE_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'p', 'elev']);
-    expect(Object.keys(MIX_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v']);
+    expect(Object.keys(MIX_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'total']);
     expect(Object.keys(SITE_KEYS)).toEqual(['p', 'elev']);
     expect(Object.keys(PROCESS_KEYS)).toEqual(['m', 'q', 'flow', 'V', 'q_total', 'q_sensible', 'q_latent', 'q_coil', 'shr', 'water']);
     expect(Object.keys(SUPPLY_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'm', 'q', 'q_sensible', 'q_latent', 'shr']);

@@ -6,23 +6,37 @@
  * stream's own state (ṁ = V̇ / v, v per kg of dry air).
  */
 import { solveState } from '../physics';
-import type { CoreDiagnostic, MixStatement } from '../notation/ast';
+import type { CoreDiagnostic, MixStatement, PropertyNode } from '../notation/ast';
 import type { Span } from '../text/types';
 import { lookupUnit } from '../units';
 import type { EvalContext } from './context';
 import { MIX_KEYS } from './keys';
 import { problemDiagnostic } from './problems';
 import { readProps } from './props';
-import { dimensionWords, findUnit, readQuantity, suggestSymbol } from './quantity';
+import { dimensionWords, findUnit, readQuantity, suggestSymbol, type ResolvedQuantity } from './quantity';
+import { checkClaim } from './claims';
 import { kPaText } from './pressure';
 import { stateClaims, stateFinite } from './state';
-import type { PressureBasis, StateResult } from './types';
+import type { ClaimResult, PressureBasis, StateResult } from './types';
 import { formatSig, spanUnion } from './util';
 
 /** Streams whose pressures differ by more than this fraction get a `pressure-mismatch` warning. */
 const PRESSURE_SLACK = 1e-4;
 
 type AmountKind = 'fraction' | 'massFlow' | 'volumeFlow';
+
+/** A stream's amount as read (for `rest`, filled in from total= or 100 % once every amount is read). */
+interface Amount {
+  name: string;
+  amountSpan: Span;
+  kind: AmountKind;
+  /** Fraction 0…1, kg/s or m³/s. */
+  si: number;
+  /** Half a unit of the last written digit, in SI (0 for a rest). */
+  halfResolution: number;
+  /** Written as `rest`. */
+  rest: boolean;
+}
 
 interface StreamRead {
   name: string;
@@ -34,6 +48,15 @@ interface StreamRead {
   /** Half a unit of the last written digit (fractions), as a fraction. */
   halfResolution: number;
   state: StateResult;
+  amount: Amount;
+}
+
+/** `total=3.9kg/s` or `total=3.4m3/s`: the flow a mix's streams add up to. */
+interface Total {
+  kind: 'massFlow' | 'volumeFlow';
+  si: number;
+  prop: PropertyNode;
+  q: ResolvedQuantity;
 }
 
 /** Evaluates one `mix` statement; always returns a result (with `state: null` when it failed). */
@@ -52,7 +75,10 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     streams: [],
     massFlowKgS: null,
   };
-  const claimProps = readProps(ctx, stmt.props, MIX_KEYS, what, { statement: stmt, index, allowed: false });
+  // total= takes a mass or a volume flow, so it is read apart from the claims.
+  const totalProp = stmt.props.find((p) => p.key === 'total');
+  const claimProps = readProps(ctx, totalProp ? stmt.props.filter((p) => p.key !== 'total') : stmt.props, MIX_KEYS, what, { statement: stmt, index, allowed: false });
+  const total = totalProp ? readTotal(ctx, totalProp, what, stmt) : null;
 
   if (stmt.streams.length === 0) {
     ctx.report({ code: 'underspecified', severity: 'error', message: `${what} has no streams; write them like mix ${name || 'MA'}: OA 25% + RA 75%`, span: fallback });
@@ -63,7 +89,7 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
   const streams: StreamRead[] = [];
   // Every amount that could be read, whether or not its state could: the fractions are checked
   // even when a stream's state failed, so a wrong sum is not hidden behind another error.
-  const amounts: { name: string; amountSpan: Span; kind: AmountKind; si: number; halfResolution: number }[] = [];
+  const amounts: Amount[] = [];
   let amountFailed = false;
   let failed = false;
   for (const s of stmt.streams) {
@@ -87,18 +113,21 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       if (ref.failed) ctx.report(dependencyInfo(what, s.name.text, s.name.span, ref.def.span));
       failed = true;
     }
-    const amount = readAmount(ctx, s.amount, s.span, s.name.text, what);
-    if (!amount) {
+    const read = s.rest ? { kind: 'fraction' as const, si: 0, halfResolution: 0, span: s.rest } : readAmount(ctx, s.amount, s.span, s.name.text, what);
+    if (!read) {
       failed = true;
       amountFailed = true;
       continue;
     }
-    amounts.push({ name: s.name.text, amountSpan: amount.span, kind: amount.kind, si: amount.si, halfResolution: amount.halfResolution });
-    if (state) streams.push({ name: s.name.text, span: s.span, amountSpan: amount.span, kind: amount.kind, si: amount.si, halfResolution: amount.halfResolution, state });
+    const amount: Amount = { name: s.name.text, amountSpan: read.span, kind: read.kind, si: read.si, halfResolution: read.halfResolution, rest: s.rest !== undefined };
+    amounts.push(amount);
+    if (state) streams.push({ name: s.name.text, span: s.span, amountSpan: read.span, kind: read.kind, si: read.si, halfResolution: read.halfResolution, state, amount });
   }
+  if (totalProp && !total) return result;
+  // A rest stream takes what the others leave of total= (or of 100 %).
+  if (!amountFailed && !resolveRest(ctx, amounts, total, what)) return result;
 
   // Fractions and flows do not mix.
-  const kinds = new Set(streams.map((s) => s.kind));
   const allAmountKinds = new Set<AmountKind>();
   for (const s of stmt.streams) {
     const k = s.amount?.unit ? amountKindOf(s.amount.unit.text) : null;
@@ -133,6 +162,13 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       return result;
     }
   }
+  // Fractions with a total: dry-air mass flows.
+  if (!amountFailed && total && !applyTotal(ctx, amounts, total, what)) return result;
+  for (const s of streams) {
+    s.kind = s.amount.kind;
+    s.si = s.amount.si;
+  }
+  const kinds = new Set(streams.map((s) => s.kind));
   if (failed || streams.length === 0) return result;
 
   // Dry-air mass flow of each stream (or its fraction when amounts are fractions).
@@ -140,13 +176,13 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     if (s.kind === 'volumeFlow') return s.si / s.state.state!.v;
     return s.si;
   });
-  const total = mass.reduce((a, m) => a + m, 0);
-  if (!(total > 0) || !Number.isFinite(total)) {
-    const why = Number.isFinite(total) ? 'the streams add to no flow at all; give at least one stream a positive amount' : 'the stream flows are too large to add up; give realistic amounts';
+  const totalMass = mass.reduce((a, m) => a + m, 0);
+  if (!(totalMass > 0) || !Number.isFinite(totalMass)) {
+    const why = Number.isFinite(totalMass) ? 'the streams add to no flow at all; give at least one stream a positive amount' : 'the stream flows are too large to add up; give realistic amounts';
     ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: ${why}`, span: spanUnion(...streams.map((s) => s.amountSpan)) });
     return result;
   }
-  const fractions = mass.map((m) => m / total);
+  const fractions = mass.map((m) => m / totalMass);
   if (fractions.some((f) => f < 0)) {
     ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: a stream has a negative flow; flows are positive figures`, span: spanUnion(...streams.map((s) => s.amountSpan)) });
     return result;
@@ -178,7 +214,15 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
   });
   const flows = !kinds.has('fraction');
   result.streams = streams.map((s, i) => ({ name: s.name, fraction: fractions[i]!, massFlowKgS: flows ? mass[i]! : null }));
-  result.massFlowKgS = flows ? total : null;
+  result.massFlowKgS = flows ? totalMass : null;
+  // total= beside streams that are all given (no rest): a claim about their sum.
+  let totalClaim: ClaimResult | null = null;
+  if (total && flows && !amounts.some((a) => a.rest) && ctx.settings.checkClaims) {
+    const computed = total.kind === 'massFlow' ? totalMass : streams.reduce((a, s, i) => a + mass[i]! * s.state.state!.v, 0);
+    const { claim, diagnostic } = checkClaim('total', total.prop, total.q, computed, () => `as the sum of the streams' ${total.kind === 'massFlow' ? 'dry-air mass flows' : 'volume flows, each at its own state'}`);
+    totalClaim = claim;
+    if (diagnostic) ctx.report(diagnostic);
+  }
 
   let solved: ReturnType<typeof solveState>;
   try {
@@ -213,8 +257,111 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
   if (claimProps.props.length > 0) {
     result.claims = stateClaims(ctx, claimProps.props, solved.state, () => `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`);
   }
+  if (totalClaim) result.claims = [...result.claims, totalClaim];
   void owner;
   return result;
+}
+
+/** `total=`: a dry-air mass flow or a volume flow, positive; null after a diagnostic. */
+function readTotal(ctx: EvalContext, prop: PropertyNode, what: string, stmt: MixStatement): Total | null {
+  if (prop.ref) {
+    ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement: stmt });
+    ctx.report({ code: 'bad-reference', severity: 'error', message: `${what}: total= takes a figure, not a reference; write the total flow, e.g. total=3.9kg/s`, span: prop.ref.span });
+    return null;
+  }
+  const value = prop.value;
+  if (!value) return null; // the parser reported it
+  const kinds = 'a dry-air mass flow (kg/s, kg/h, lb/h) or a volume flow (m3/s, L/s, cfm)';
+  if (!value.unit) {
+    ctx.report({ code: 'missing-unit', severity: 'error', message: `${what}: total=${value.number.text} has no unit; the total is ${kinds}, e.g. total=${value.number.text}kg/s`, span: value.number.span });
+    return null;
+  }
+  const kind = amountKindOf(value.unit.text);
+  if (kind !== 'massFlow' && kind !== 'volumeFlow') {
+    const sug = kind ? null : suggestSymbol(value.unit.text, ['massFlow', 'volumeFlow']);
+    ctx.report({
+      code: 'unknown-unit',
+      severity: 'error',
+      message: `${what}: '${value.unit.text}' in total= is not a flow unit; the total is ${kinds}${sug ? ` (did you mean total=${value.number.text}${sug}?)` : ''}`,
+      span: value.unit.span,
+      data: sug ? { suggestion: sug } : {},
+    });
+    return null;
+  }
+  const r = readQuantity(prop, value, { ...MIX_KEYS.total!, dimension: kind });
+  if (!r.ok) {
+    ctx.report(r.diagnostic);
+    return null;
+  }
+  if (!(r.value.si > 0) || !Number.isFinite(r.value.si)) {
+    ctx.report({ code: 'out-of-range', severity: 'error', message: `${what}: total=${value.number.text}${value.unit.text} is not a positive flow; give the total as a positive figure`, span: value.span });
+    return null;
+  }
+  return { kind, si: r.value.si, prop, q: r.value };
+}
+
+/** "1.2 kg/s" or "0.9 m³/s" for messages. */
+function flowText(si: number, kind: AmountKind): string {
+  return kind === 'fraction' ? `${formatSig(si * 100, 4)} %` : kind === 'massFlow' ? `${formatSig(si, 4)} kg/s` : `${formatSig(si, 4)} m³/s`;
+}
+
+/**
+ * The amount of the `rest` stream: 100 % less the fractions given, or total= less the flows given
+ * (of the total's kind: mass flows against a mass total, volume flows against a volume total).
+ * False after a `mix-rest` error.
+ */
+function resolveRest(ctx: EvalContext, amounts: Amount[], total: Total | null, what: string): boolean {
+  const rests = amounts.filter((a) => a.rest);
+  if (rests.length === 0) return true;
+  const restError = (message: string, span: Span): false => {
+    ctx.report({ code: 'mix-rest', severity: 'error', message: `${what}: ${message}`, span });
+    return false;
+  };
+  if (rests.length > 1) return restError(`only one stream can be the rest (${rests.map((r) => `${r.name} rest`).join(', ')}); give the others an amount`, spanUnion(...rests.slice(1).map((r) => r.amountSpan)));
+  const rest = rests[0]!;
+  const given = amounts.filter((a) => !a.rest);
+  const sum = given.reduce((a, g) => a + g.si, 0);
+  const slack = given.reduce((a, g) => a + g.halfResolution, 0) + 1e-9;
+  if (given.every((g) => g.kind === 'fraction')) {
+    if (sum > 1 + slack) return restError(`the fractions given add to ${formatSig(sum * 100, 6)} %, which leaves nothing for ${rest.name} rest; make them add to less than 100 %`, spanUnion(...given.map((g) => g.amountSpan)));
+    rest.kind = 'fraction';
+    rest.si = Math.max(0, 1 - sum);
+    return true;
+  }
+  if (!total) return restError(`${rest.name} rest is what the other streams leave of the total: add total= after the streams (a mass flow such as total=3.9kg/s, or a volume flow such as total=3.4m3/s)`, rest.amountSpan);
+  const other = given.find((g) => g.kind !== total.kind);
+  if (other) {
+    return restError(
+      `the streams are given as ${other.kind === 'massFlow' ? 'mass flows' : 'volume flows'} but total= is a ${total.kind === 'massFlow' ? 'mass flow' : 'volume flow'}; give the total in the streams' kind so the rest can be taken from it`,
+      spanUnion(other.amountSpan, total.q.quantity.span),
+    );
+  }
+  const left = total.si - sum;
+  if (!(left > slack)) {
+    return restError(`the streams given add to ${flowText(sum, total.kind)}, which leaves ${left < -slack ? 'less than ' : ''}nothing of total=${total.q.quantity.number.text}${total.q.unitText} for ${rest.name}; make the total larger than the streams given`, spanUnion(rest.amountSpan, total.q.quantity.span));
+  }
+  rest.kind = total.kind;
+  rest.si = left;
+  return true;
+}
+
+/** Fractions with total= (a mass flow): each stream's dry-air mass flow. False after a `mix-rest` error. */
+function applyTotal(ctx: EvalContext, amounts: Amount[], total: Total, what: string): boolean {
+  if (amounts.length === 0 || !amounts.every((a) => a.kind === 'fraction')) return true;
+  if (total.kind !== 'massFlow') {
+    ctx.report({
+      code: 'mix-rest',
+      severity: 'error',
+      message: `${what}: with fractions, give total= as a dry-air mass flow (total=3.9kg/s): the fractions are of dry-air mass, so a volume total would need a state to convert at; or give the streams as volume flows`,
+      span: total.q.quantity.span,
+    });
+    return false;
+  }
+  for (const a of amounts) {
+    a.kind = 'massFlow';
+    a.si *= total.si;
+  }
+  return true;
 }
 
 function amountKindOf(unitText: string): AmountKind | null {

@@ -109,11 +109,14 @@ export interface StateStatement extends StatementBase {
   props: PropertyNode[];
 }
 
-/** One stream of a mix: `OA 25%`, `RA 1.2kg/s`, `OA 1000L/s`. */
+/** One stream of a mix: `OA 25%`, `RA 1.2kg/s`, `OA 1000L/s`, `RA rest`. */
 export interface MixStream {
   name: NameNode;
+  /** Null for a stream written without an amount (reported) and for a `rest` stream. */
   amount: QuantityNode | null;
   span: Span;
+  /** The word `rest`: this stream is what the others leave of `total=` (or of 100 %); present only then. */
+  rest?: Span;
 }
 
 /** `mix NAME: A X + B Y [+ …]`, optionally followed by claims `key=value` about the result. */

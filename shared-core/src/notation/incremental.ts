@@ -189,7 +189,11 @@ function shiftProps(props: PropertyNode[], d: number): PropertyNode[] {
 }
 
 function shiftStreams(streams: MixStream[], d: number): MixStream[] {
-  return streams.map((s) => ({ name: shiftName(s.name, d)!, amount: shiftQuantity(s.amount, d), span: shiftSpan(s.span, d) }));
+  return streams.map((s) =>
+    s.rest
+      ? { name: shiftName(s.name, d)!, amount: shiftQuantity(s.amount, d), span: shiftSpan(s.span, d), rest: shiftSpan(s.rest, d) }
+      : { name: shiftName(s.name, d)!, amount: shiftQuantity(s.amount, d), span: shiftSpan(s.span, d) },
+  );
 }
 
 /** A copy of a statement with every span moved by `d` (the shape the parser builds, key order included). */

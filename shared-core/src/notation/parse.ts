@@ -15,6 +15,7 @@
  *     supply NAME: NAME KEY=VALUE …                    (the room state, then loads and db, m or q)
  *     VALUE, AMOUNT:  NUMBER[UNIT][±NUMBER[UNIT]]     (`+-` works as well as `±`)
  *     VALUE:   NAME.KEY[(+|-)NUMBER UNIT]          another state's property (`OA.w`, `OFF.db+0.8K`)
+ *     AMOUNT:  also `rest` (one stream of a mix: what the others leave of total=, or of 100 %)
  *     NUMBER:  [+|-|−] digits [. digits] [e|E [+|-] digits]    (`.5` and `5.` too)
  *     NAME:    a letter, then letters, digits, `_` or `-`
  *     KEY:     a letter or `_`, then letters, digits or `_`
@@ -462,6 +463,13 @@ class StatementParser {
     return this.charAt(p) === 0x3d && this.charAt(p + 1) !== 0x3e; // `=>` is a mistyped arrow
   }
 
+  /** Whether the word `rest` (a stream's remainder) is at the cursor, as a word of its own. */
+  private restAhead(): boolean {
+    if (this.text.slice(this.pos, this.pos + 4) !== 'rest') return false;
+    const c = this.charAt(this.pos + 4);
+    return c < 0 || isWs(c) || c === 0x2b || c === 0x23;
+  }
+
   /** Whether a name-like token (not a `key=`) starts at the cursor. */
   private nameAhead(): boolean {
     const c = this.peek();
@@ -543,8 +551,13 @@ class StatementParser {
         break;
       }
       let amount: QuantityNode | null = null;
+      let rest: Span | null = null;
       if (this.peek() >= 0 && startsNumber(this.text, this.pos, this.end)) {
         amount = this.quantity('stream');
+      } else if (this.peek() >= 0 && this.restAhead()) {
+        // `RA rest`: the remainder of total= (or of 100 % with fractions).
+        rest = this.span(this.pos, this.pos + 4);
+        this.consume(this.pos + 4);
       } else if (name) {
         this.report(
           'missing-value',
@@ -553,7 +566,8 @@ class StatementParser {
           name.span.end,
         );
       }
-      if (name) streams.push({ name, amount, span: this.span(streamStart, Math.max(name.span.end, amount?.span.end ?? 0)) });
+      if (name && rest) streams.push({ name, amount, span: this.span(streamStart, rest.end), rest });
+      else if (name) streams.push({ name, amount, span: this.span(streamStart, Math.max(name.span.end, amount?.span.end ?? 0)) });
       expectStream = false;
       plusAt = -1;
     }

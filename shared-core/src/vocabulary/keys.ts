@@ -176,6 +176,11 @@ const ROWS = [
     examples: ['V=4.8m3/s', 'V=10000cfm'],
   },
   {
+    key: 'total', kind: 'flow', in: ['mix'], dimension: 'massFlow', bare: 'error',
+    title: 'total flow of the mix', description: 'the flow the streams add up to: a dry-air mass flow, or a volume flow (each stream at its own state); one stream may then be written as rest',
+    examples: ['total=3.9kg/s', 'total=31000lb/h'],
+  },
+  {
     key: 'q_total', kind: 'process-claim', in: ['process'], dimension: 'power', bare: 'error',
     title: 'total heat rate', description: 'claim: total heat rate of the process',
     examples: ['q_total=98kW'],
