@@ -11,6 +11,7 @@ import { registerChart } from './commands/chart';
 import { registerReport } from './commands/report';
 import { registerFix } from './commands/fix';
 import { selectWithProjects } from './project';
+import { registerDiff } from './commands/diff';
 import type { DiagnosticJson } from './output';
 import { githubAnnotations } from './formats/github';
 import { sarifLog } from './formats/sarif';
@@ -285,6 +286,7 @@ Examples:
   registerReport(prog, io, onResult, addCommon, VERSION);
   registerChart(prog, io, onResult, addCommon);
   registerFix(prog, io, onResult, addCommon);
+  registerDiff(prog, io, onResult, addCommon);
   for (const c of prog.commands) c.exitOverride().configureOutput(outputOf(io)).showHelpAfterError(`(run dewmark ${c.name()} --help for its options)`).showSuggestionAfterError(true);
   return prog;
 }
