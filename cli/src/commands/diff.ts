@@ -69,7 +69,7 @@ const STATE_FIGURES: readonly FigureOf<StateResult>[] = [
   ['w', (s, sys) => quantity(s.state?.w, 'humidityRatio', sys)],
   ['h', (s, sys) => quantity(s.state?.h, 'enthalpy', sys)],
   ['v', (s, sys) => quantity(s.state?.v, 'specificVolume', sys)],
-  ['m', (s, sys) => (s.kind === 'mix' ? quantity(s.massFlowKgS ?? null, 'massFlow', sys) : NONE)],
+  ['m', (s, sys) => (s.kind === 'state' ? NONE : quantity(s.massFlowKgS ?? null, 'massFlow', sys))],
 ];
 
 /** The figures compared for a process (heat and water: positive = added to the air). */
@@ -84,7 +84,7 @@ const PROCESS_FIGURES: readonly FigureOf<ProcessResult>[] = [
 ];
 
 /** What kind of statement an item is. */
-type ItemKind = 'state' | 'mix' | 'process';
+type ItemKind = 'state' | 'mix' | 'supply' | 'process';
 
 /** A statement's figures as displayed, with its claims. */
 interface ShownItem {
@@ -120,7 +120,7 @@ function shownItems(text: string, a: Analysis): Map<string, ShownItem> {
       computed: c.computedText,
     }));
     // A name given twice is a diagnostic of its own; the first statement of that name is compared.
-    if (!out.has(item.name)) out.set(item.name, { kind: item.kind === 'process' ? 'process' : item.kind, line, figures, claims });
+    if (!out.has(item.name)) out.set(item.name, { kind: item.kind, line, figures, claims });
   }
   return out;
 }
@@ -366,7 +366,7 @@ async function diffNotes(rev: string, paths: string[], opts: DiffOptions, io: Cl
   return { result: { revision: rev, commit, compared, files }, problems };
 }
 
-const KIND_WORD: Record<ItemKind, string> = { state: 'state', mix: 'mix', process: 'process' };
+const KIND_WORD: Record<ItemKind, string> = { state: 'state', mix: 'mix', supply: 'supply', process: 'process' };
 
 function verdict(side: { computed: string; pass: boolean } | null): string {
   return side === null ? 'absent' : `${side.pass ? 'pass' : 'FAIL'} (computed ${side.computed})`;
