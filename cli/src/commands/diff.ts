@@ -12,8 +12,7 @@ import { existsSync, realpathSync } from 'node:fs';
 import { isAbsolute, join, relative, sep } from 'node:path';
 import type { Command } from 'commander';
 import { MARKDOWN, collectInputs, decodeText, explainEmpty, readInput } from '@dewmark/files';
-import { formatDifference } from '@dewmark/core/units';
-import { analyzeNote, formatQuantity, lookupUnit, type Analysis, type Dimension, type EvaluateSettings, type ProcessResult, type StateResult, type UnitSystem } from '../core';
+import { analyzeNote, processRow, stateRow, type Analysis, type EvaluateSettings, type ProcessResult, type StateResult, type UnitSystem } from '../core';
 import { LineIndex } from '../core';
 import type { CliIO } from '../run';
 import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from '../settings';
@@ -40,48 +39,37 @@ interface Shown {
   text: string;
 }
 
-type FigureOf<T> = readonly [key: string, show: (item: T, sys: UnitSystem) => string];
-
 const NONE = '—';
 
-function quantity(si: number | null | undefined, dim: Dimension, sys: UnitSystem): string {
-  if (si === null || si === undefined || !Number.isFinite(si)) return NONE;
-  return formatQuantity(si, dim, sys).text;
-}
-
-/** A rate or difference (heat, water): the unit's datum offset does not apply. */
-function rate(si: number | null | undefined, dim: Dimension, sys: UnitSystem, unitSymbol?: string): string {
-  if (si === null || si === undefined || !Number.isFinite(si)) return NONE;
-  const unit = unitSymbol === undefined ? undefined : lookupUnit(unitSymbol);
-  return formatDifference(si, dim, sys, unit ? { unit } : {}).text;
-}
-
 /**
- * The figures compared for a state or mix, in the order they are listed: the keys of the results
- * tables (the same names a claim uses: `rh=50%` is about `rh`).
+ * The figures compared for a state, mix or supply, in the order they are listed, by the keys of
+ * the notation (the same names a claim uses: `rh=50%` is about `rh`), read from the one results
+ * row every table shows (`stateRow`).
  */
-const STATE_FIGURES: readonly FigureOf<StateResult>[] = [
-  ['p', (s, sys) => quantity(s.pressure.pa, 'pressure', sys)],
-  ['db', (s, sys) => quantity(s.state?.db, 'temperature', sys)],
-  ['wb', (s, sys) => quantity(s.state?.wb, 'temperature', sys)],
-  ['dp', (s, sys) => quantity(s.state?.dp, 'temperature', sys)],
-  ['rh', (s, sys) => quantity(s.state?.rh, 'fraction', sys)],
-  ['w', (s, sys) => quantity(s.state?.w, 'humidityRatio', sys)],
-  ['h', (s, sys) => quantity(s.state?.h, 'enthalpy', sys)],
-  ['v', (s, sys) => quantity(s.state?.v, 'specificVolume', sys)],
-  ['m', (s, sys) => (s.kind === 'state' ? NONE : quantity(s.massFlowKgS ?? null, 'massFlow', sys))],
-];
+const STATE_FIGURES = ['p', 'db', 'wb', 'dp', 'rh', 'w', 'h', 'v'] as const;
 
-/** The figures compared for a process (heat and water: positive = added to the air). */
-const PROCESS_FIGURES: readonly FigureOf<ProcessResult>[] = [
-  ['m', (p, sys) => quantity(p.massFlowKgS, 'massFlow', sys)],
-  ['q_total', (p, sys) => rate(p.massFlowKgS === null ? p.dhTotal : p.qTotalW, p.massFlowKgS === null ? 'enthalpy' : 'power', sys)],
-  ['q_sensible', (p, sys) => rate(p.massFlowKgS === null ? p.dhSensible : p.qSensibleW, p.massFlowKgS === null ? 'enthalpy' : 'power', sys)],
-  ['q_latent', (p, sys) => rate(p.massFlowKgS === null ? p.dhLatent : p.qLatentW, p.massFlowKgS === null ? 'enthalpy' : 'power', sys)],
-  ['shr', (p) => (p.shr === null || !Number.isFinite(p.shr) ? NONE : p.shr.toFixed(2))],
-  ['water', (p, sys) => (p.massFlowKgS === null ? rate(p.dw, 'humidityRatio', sys) : rate(p.waterKgS, 'massFlow', sys, sys === 'SI' ? 'kg/h' : 'lb/h'))],
-  ['q_coil', (p, sys) => rate(p.qCoilW, 'power', sys)],
-];
+/** The figures compared for a process (heat and water: positive = added to the air), from `processRow`. */
+const PROCESS_FIGURES = [
+  ['m', 'massFlow'],
+  ['q_total', 'total'],
+  ['q_sensible', 'sensible'],
+  ['q_latent', 'latent'],
+  ['shr', 'shr'],
+  ['water', 'water'],
+  ['q_coil', 'coil'],
+] as const;
+
+function stateShown(s: StateResult, sys: UnitSystem): Shown[] {
+  const row = stateRow(s, sys);
+  const out: Shown[] = STATE_FIGURES.map((key) => ({ key, text: row.figures[key].text }));
+  if (s.kind !== 'state') out.push({ key: 'm', text: row.massFlow.text });
+  return out;
+}
+
+function processShown(p: ProcessResult, sys: UnitSystem): Shown[] {
+  const row = processRow(p, sys);
+  return PROCESS_FIGURES.map(([key, field]) => ({ key, text: row[field].text }));
+}
 
 /** What kind of statement an item is. */
 type ItemKind = 'state' | 'mix' | 'supply' | 'process';
@@ -111,7 +99,7 @@ function shownItems(text: string, a: Analysis): Map<string, ShownItem> {
     const span = item.statement.name?.span ?? item.statement.span;
     const line = lines.lineCol(span.start).line;
     const figures: Shown[] =
-      item.kind === 'process' ? PROCESS_FIGURES.map(([key, show]) => ({ key, text: show(item, a.units) })) : STATE_FIGURES.map(([key, show]) => ({ key, text: show(item, a.units) }));
+      item.kind === 'process' ? processShown(item, a.units) : stateShown(item, a.units);
     const claims = item.claims.map((c) => ({
       key: c.key,
       written: text.slice(c.prop.span.start, c.prop.span.end).replace(/\s+/g, ' '),
