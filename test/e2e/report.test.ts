@@ -191,7 +191,7 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
     expect(rows.states!.find((r) => r[0]!.startsWith('BAD'))![0]).toContain('not computed');
     // The stale claim shows as failed beside the state, with the computed value, and as a diagnostic.
     const raClaims = rows.states!.find((r) => r[0] === 'RA')!.at(-1)!;
-    expect(raClaims).toMatch(/^w ✗ \d+\.\d+g\/kg$/);
+    expect(raClaims).toMatch(/^w ✗ \d+\.\d+\sg\/kg$/); // value and unit apart, as the one figure formatter writes them
     expect(rows.diagnostics!.some((r) => r[2] === 'claim-mismatch' && r[1] === 'warning')).toBe(true);
     expect(rows.mixes!.map((r) => r[0])).toEqual(['MA']);
     expect(rows.mixes![0]![2]).toBe('OA 30.0 % + RA 70.0 %');
