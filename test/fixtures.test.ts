@@ -12,6 +12,8 @@ import { basename, join } from 'node:path';
 import { analyzeNote } from '../shared-core/src/analyze';
 import type { Analysis, ProcessResult, StateResult } from '../shared-core/src/evaluate/types';
 import { evalFileJson, fileResult } from '../cli/src/output';
+import { DEFAULT_SERVICE_SETTINGS, analyzeText, noteDiagnostics, type ServiceSettings } from '../shared-core/src/service';
+import { codeSpec, isDiagnosticCode } from '../shared-core/src/vocabulary/codes';
 
 const here = join(__dirname, 'fixtures');
 
@@ -156,6 +158,16 @@ describe('diagnostic fixtures', () => {
   for (const file of notes('diagnostics')) {
     const code = basename(file, '.md');
     it(code, async () => {
+      if (isDiagnosticCode(code) && codeSpec(code).fixture === 'editor') {
+        // An editor-only code: the note through the editor service, with the settings of its first line.
+        const text = readFileSync(join(here, 'diagnostics', file), 'utf8');
+        const settings = JSON.parse(/^<!-- fixture settings: (\{.*\}) -->/.exec(text)?.[1] ?? '{}') as Partial<ServiceSettings>;
+        const diagnostics = noteDiagnostics(analyzeText(text, { ...DEFAULT_SERVICE_SETTINGS, ...settings }));
+        expect(diagnostics.filter((d) => d.code === code).length, `${code} reported`).toBeGreaterThanOrEqual(1);
+        const shown = diagnostics.map((d) => ({ code: d.code, severity: d.severity, message: d.message }));
+        await expect(`${JSON.stringify(shown, null, 2)}\n`).toMatchFileSnapshot(join(here, 'diagnostics', file.replace(/\.md$/, '.expected.json')));
+        return;
+      }
       const { analysis, json, text } = load('diagnostics', file);
       const hits = analysis.diagnostics.filter((d) => d.code === code);
       expect(hits.length, `${code} reported`).toBeGreaterThanOrEqual(1);

@@ -4,6 +4,7 @@
  * (UTF-16 offsets into the whole Markdown document). The tree knows nothing of physics or units:
  * unit symbols are kept as written and resolved by the evaluator.
  */
+import type { DiagnosticCode } from '../vocabulary/codes';
 import type { Keyword } from '../markdown/regions';
 import type { AirRegion, HeadingNode, StatementOrigin } from '../markdown/types';
 import type { Span } from '../text/types';
@@ -161,8 +162,8 @@ export type Statement =
 
 /** A diagnostic as the core reports it (LSP-free). */
 export interface CoreDiagnostic {
-  /** Stable code (`syntax`, `missing-unit`, `wb-above-db`…). */
-  code: string;
+  /** Stable code (`syntax`, `missing-unit`, `wb-above-db`…): a code of the registry (`vocabulary/codes`). */
+  code: DiagnosticCode;
   severity: 'error' | 'warning' | 'info';
   /** What is wrong, where, and how to fix it. */
   message: string;

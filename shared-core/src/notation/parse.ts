@@ -54,30 +54,16 @@ import type { Span } from '../text/types';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
 import { resolutionOf, scanNumber, startsNumber } from './number';
 import { findKey } from '../vocabulary/keys';
+import { CODES, DIAGNOSTIC_CODES, type CodeFrom } from '../vocabulary/codes';
 import { SuggestIndex } from '../text/suggest';
 
-/** The diagnostic codes the parser reports, each with what it means. */
-export const SYNTAX_CODES = {
-  /** A malformed statement not covered by a more specific code (stray token, comma, arrow…). */
-  syntax: 'malformed statement',
-  /** A fence line whose first word is not a statement keyword. */
-  'unknown-keyword': 'line does not start with site:, units:, state, mix or process',
-  /** A statement, stream or process end without its state name. */
-  'missing-name': 'a name is missing',
-  /** A name that does not follow the naming rule (a letter, then letters, digits, `_`, `-`). */
-  'bad-name': 'a name is not a valid name',
-  /** `state NAME` (or `site`, `units`…) without the `:` that ends its head. */
-  'missing-colon': 'the colon after the statement head is missing',
-  /** `key=` with nothing after it, a stream without amount, `units:` without a system… */
-  'missing-value': 'a value is missing',
-  /** A value that is not a finite decimal number (`1,5`, `NaN`, `1e999`, `abc`). */
-  'bad-number': 'a value is not a valid number',
-  /** A space between a number and its unit or tolerance (`24 C`): read as if written together. */
-  'value-spacing': 'a unit or tolerance is separated from its number',
-} as const;
+/** The diagnostic codes the parser reports, each with what it means (the registry's parser rows, `vocabulary/codes`). */
+export const SYNTAX_CODES = Object.freeze(
+  Object.fromEntries(DIAGNOSTIC_CODES.filter((c) => (CODES[c].from as readonly string[]).includes('parser')).map((c) => [c, CODES[c].meaning])),
+) as Readonly<Record<SyntaxCode, string>>;
 
 /** A diagnostic code of the parser. */
-export type SyntaxCode = keyof typeof SYNTAX_CODES;
+export type SyntaxCode = CodeFrom<'parser'>;
 
 /** What {@link parseStatementText} returns. */
 export interface StatementParse {

@@ -5,27 +5,13 @@
  * specific volume in m³ per kg dry air, density in kg moist air per m³,
  * relative humidity and degree of saturation as fractions (0…1).
  */
+import type { CodeFrom } from '../vocabulary/codes';
 
 /** Keys of the properties that can define a state (two of them fix it, with pressure). */
 export type DefiningKey = 'db' | 'wb' | 'dp' | 'rh' | 'w' | 'h';
 
-/** Stable error and warning codes of the engine (shared with the notation's diagnostics). */
-export type PhysicsCode =
-  | 'out-of-range' // a temperature outside −100…200 °C, or a pressure outside the engine's range
-  | 'wb-above-db'
-  | 'dp-above-db'
-  | 'rh-out-of-range'
-  | 'supersaturated' // humidity ratio above saturation at the dry-bulb (fog region)
-  | 'negative-humidity-ratio'
-  | 'enthalpy-too-low' // enthalpy below that of bone-dry air at the dry-bulb
-  | 'wb-too-low' // wet-bulb so far below the dry-bulb that the humidity ratio would be negative
-  | 'pressure-below-saturation' // total pressure at or below the saturation pressure that the state needs
-  | 'dependent-pair' // both properties fix the same thing (dp with w, dp with rh at unknown db…)
-  | 'underspecified' // fewer than two defining properties
-  | 'overspecified' // more than two defining properties handed to the solver
-  | 'ill-conditioned' // a warning: the pair is nearly parallel on the chart (wb with h)
-  | 'no-solution' // the pair admits no state (e.g. rh with h outside the range that the pair can reach)
-  | 'no-convergence'; // an iterative solve hit its bound (should never happen; reported, never looped)
+/** Stable error and warning codes of the engine: the registry's rows reported by the engine (`vocabulary/codes`). */
+export type PhysicsCode = CodeFrom<'engine'>;
 
 /** A typed failure of the engine: stable code, what is wrong, and what would fix it. */
 export interface PhysicsProblem {
