@@ -15,7 +15,7 @@
 export type Severity = 'error' | 'warning' | 'info';
 
 /** The part of Dewmark that reports a code. */
-export type CodeSource = 'parser' | 'evaluator' | 'engine' | 'results-table' | 'editor' | 'cli';
+export type CodeSource = 'parser' | 'evaluator' | 'engine' | 'results-table' | 'suppressions' | 'editor' | 'cli';
 
 /**
  * How a fixture produces the code:
@@ -80,6 +80,7 @@ export const CODES = {
   'claim-mismatch': { severity: 'warning', from: E, meaning: 'a claim outside its band; the computed value is shown', fixture: 'note' },
   'supply-infeasible': { severity: 'error', from: E, meaning: 'a supply state that cannot carry the room loads (the humidity ratio the latent load needs is negative or above saturation, the supply is not below the room for cooling, or the flow is not positive)', fixture: 'note' },
   'bad-reference': { severity: 'error', from: E, meaning: 'a property reference that cannot be used (a key that cannot be referenced, another kind, a wrong difference unit, a reference where only a figure goes)', fixture: 'note' },
+  'mix-rest': { severity: 'error', from: E, meaning: 'a mix by total and remainder that does not add up (more than one rest stream, a rest without total=, streams of another kind than the total, or streams that leave nothing for the rest)', fixture: 'note' },
   'internal-error': {
     severity: 'error',
     from: E,
@@ -107,8 +108,9 @@ export const CODES = {
     meaning: 'an iterative solve hit its bound (reported instead of looping)',
     fixture: { never: 'every solve converges well inside its bound for any input; only a lowered bound reaches it', test: 'shared-core/test/robustness-solver-bounds.test.ts' },
   },
-  // --- results tables, the editor ---
+  // --- results tables, ignore comments, the editor ---
   'stale-results-table': { severity: 'warning', from: ['results-table'], meaning: 'a results table written in the note no longer matches its block, was edited, or lost its end marker', fixture: 'note' },
+  'ignore-comment': { severity: 'warning', alsoAs: 'info', from: ['suppressions'], meaning: 'a # dewmark-ignore comment that names no code (warning) or acknowledges nothing where it stands (info)', fixture: 'note' },
   'note-too-large': { severity: 'info', from: ['editor'], meaning: 'the note is over the dewmark.maxNoteSizeKB setting, so the editor does not evaluate it as you type', fixture: 'editor' },
 } as const satisfies Record<string, CodeSpec>;
 
