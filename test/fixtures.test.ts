@@ -132,6 +132,29 @@ const sourced: Record<string, (a: Analysis) => void> = {
     near(proc(a, 'HUM').waterKgS, 2 * 0.003, { rel: 1e-9 }, 'water added');
     expect(proc(a, 'HUM').processKind).toBe('humidifying');
   },
+  'process-derived-chain.md': (a) => {
+    // Coil by ADP and bypass factor: adiabatic mixing of 10 % bypassed air with 90 % saturated at
+    // 11 °C (ASHRAE HoF 2017 SI Ch.1 mixing; saturated W from PsychroLib as oracle).
+    const ma = state(a, 'MA');
+    const ws = psy.GetHumRatioFromRelHum(11, 1, 101325);
+    const w2 = 0.1 * ma.w + 0.9 * ws;
+    const h2 = 0.1 * ma.h + 0.9 * psy.GetMoistAirEnthalpy(11, ws);
+    near(state(a, 'OFF').w, w2, { abs: 1e-8 }, 'OFF w');
+    near(state(a, 'OFF').db, (h2 - 2501000 * w2) / (1006 + 1860 * w2), { abs: 1e-4 }, 'OFF db (eq 32 inverted)');
+    // Fan: Δt = Δp v / (η (1.006 + 1.86 W)) with v from PsychroLib.
+    const off = state(a, 'OFF');
+    near(state(a, 'SA').db - off.db, (750 * psy.GetMoistAirVolume(off.db, off.w, 101325)) / (0.62 * (1006 + 1860 * off.w)), { abs: 1e-5 }, 'fan rise');
+    // Reheat by duty into the mix's 4 kg/s: Δh = 8 kW / 4 kg/s.
+    near(state(a, 'SA2').h - state(a, 'SA').h, 2000, { abs: 1e-6 }, 'reheat Δh');
+    // Recovery at equal flows: t₂ = −5 + 0.65 × 26 × C_exhaust/C_min… (C_min is the drier outdoor stream).
+    const c1 = 1006 + 1860 * state(a, 'WOA').w;
+    const c2 = 1006 + 1860 * state(a, 'WRA').w;
+    near(state(a, 'WOA2').db, -5 + (0.65 * Math.min(c1, c2) * 26) / c1, { abs: 1e-9 }, 'WOA2');
+    // Steam: h₂ = h₁ + ΔW (2501 + 1.86 t_sat) kJ/kg at 101.325 kPa.
+    const ph = state(a, 'PHOFF');
+    near(state(a, 'HUOFF').h, ph.h + (0.00565 - ph.w) * (2501000 + 1860 * 99.974), { abs: 1 }, 'steam balance');
+    expect(a.diagnostics.filter((d) => d.severity !== 'info')).toEqual([]);
+  },
   'results-table.md': (a) => {
     // Current results tables add no diagnostic; the pressure they state is the standard atmosphere
     // at 250 m (ASHRAE HoF 2017 SI Ch.1 eq 3: p = 101.325 (1 − 2.25577e−5 Z)^5.2559 kPa).

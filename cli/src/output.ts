@@ -118,6 +118,11 @@ export function stateJson(f: FileResult, s: StateResult): Record<string, unknown
   }
   // Properties taken from states above: the offset in SI (K, kg/kg, J/kg).
   if (s.sources) out.sources = s.sources.map((x) => ({ key: x.key, from: x.from, fromKey: x.fromKey, offset: r(x.offsetSI) }));
+  if (s.definedBy?.spec !== undefined) {
+    // A state a process or recovery defines: where it came from, and the flow it carries.
+    out.defined_by = { [s.definedBy.statement]: s.definedBy.name, from: s.definedBy.from, spec: s.definedBy.spec };
+    out.m_kgs = r(s.massFlowKgS ?? null);
+  }
   if (s.claims.length > 0) out.claims = s.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
   return out;
 }
@@ -149,6 +154,20 @@ export function processJson(f: FileResult, p: ProcessResult): Record<string, unk
   out.dh_kJkg = r(p.dhTotal / 1000);
   out.dw_kgkg = r(p.dw);
   out.adp_C = r(p.apparatusDewPointC ?? null);
+  if (p.bypassFactor !== null && p.bypassFactor !== undefined) out.bf = r(p.bypassFactor);
+  const e = p.equipment;
+  if (e) {
+    const eq: Record<string, unknown> = { form: e.form, spec: e.spec };
+    if (e.fanRiseK !== undefined) eq.fan_rise_K = r(e.fanRiseK);
+    if (e.dryCoil !== undefined) eq.dry_coil = e.dryCoil;
+    if (e.saturationEffectiveness !== undefined) eq.saturation_effectiveness = r(e.saturationEffectiveness);
+    if (e.steamTempC !== undefined) eq.steam_C = r(e.steamTempC);
+    if (e.steamEnthalpyJkg !== undefined) eq.steam_h_kJkg = r(e.steamEnthalpyJkg / 1000);
+    if (e.effSensible !== undefined) eq.eff_s = r(e.effSensible);
+    if (e.effLatent !== undefined) eq.eff_l = r(e.effLatent);
+    if (e.wetting !== undefined) eq.wetting = e.wetting === null ? null : { kind: e.wetting.kind, surface_C: r(e.wetting.surfaceC), dp_C: r(e.wetting.dewPointC), accepted: e.wetting.accepted };
+    out.equipment = eq;
+  }
   if (p.claims.length > 0) out.claims = p.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
   return out;
 }

@@ -27,9 +27,13 @@ export function statementText(st: Statement): string {
     case 'mix':
       return `mix ${st.name?.text ?? '?'}: ${st.streams.map((s) => `${s.name.text} ${quantityText(s.amount)}`).join(' + ')}${tail}`;
     case 'process':
-      return `process ${st.name?.text ?? '?'}: ${st.from?.text ?? '?'} -> ${st.to?.text ?? '?'}${tail}`;
+      return `process ${st.name?.text ?? '?'}: ${st.from?.text ?? '?'} -> ${st.to?.text ?? '?'}${st.words.map((w) => ` ${w.text}`).join('')}${tail}`;
     case 'supply':
       return `supply ${st.name?.text ?? '?'}: ${st.room?.text ?? '?'}${tail}`;
+    case 'recover': {
+      const own = (ps: typeof st.props): string => (ps.length ? ` | ${ps.map((p) => `${p.key}=${quantityText(p.value)}`).join(' ')}` : '');
+      return `recover ${st.name?.text ?? '?'}: ${st.streams.map((x) => `${x.from?.text ?? '?'} -> ${x.to?.text ?? '?'}${own(x.props)}`).join(', ')}${st.options.map((o) => ` ${o.key}=${o.word.text}`).join('')}`;
+    }
   }
 }
 
@@ -66,8 +70,20 @@ export function statementNodes(st: Statement, at = 'statement'): TreeNode[] {
   if (st.keyword === 'process') {
     name('from', st.from);
     name('to', st.to);
+    st.words.forEach((w, k) => name(`word ${k}`, w));
   }
   if (st.keyword === 'supply') name('room', st.room);
+  if (st.keyword === 'recover') {
+    st.streams.forEach((x, k) => {
+      out.push({ label: `${at} stream ${k}`, span: x.span, parent: st.span });
+      name(`stream ${k} from`, x.from);
+      name(`stream ${k} to`, x.to);
+    });
+    st.options.forEach((o, k) => {
+      out.push({ label: `${at} option ${k}`, span: o.span, parent: st.span }, { label: `${at} option ${k} key`, span: o.keySpan, text: o.key });
+      name(`option ${k} word`, o.word);
+    });
+  }
   if (st.keyword === 'mix') {
     st.streams.forEach((s, k) => {
       out.push({ label: `${at} stream ${k}`, span: s.span, parent: st.span });

@@ -40,7 +40,7 @@ describe('unknown statements', () => {
     check(
       ['the room is at 24C', 'db=24C rh=50%', 'state RA: db=24C'],
       [
-        ['unknown-keyword', 'the', "a statement starts with 'site:', 'units:', 'state', 'mix', 'process' or 'supply'"],
+        ['unknown-keyword', 'the', "a statement starts with 'site:', 'units:', 'state', 'mix', 'process', 'supply' or 'recover'"],
         ['unknown-keyword', 'db=24C', "start a note line with '#'"],
       ],
       ['state RA: db=24C'],

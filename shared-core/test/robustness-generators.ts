@@ -147,10 +147,23 @@ const UNITS_BY_KEY: Record<string, string[]> = {
   q_coil: ['kW'],
   shr: ['', '%'],
   water: ['kg/h', 'kg/s', 'lb/h'],
+  heat: ['kW', 'W', 'Btu/h'],
+  dt: ['K', 'C', 'F', ''],
+  dp_fan: ['Pa', 'kPa', 'inHg'],
+  eff: ['', '%'],
+  eff_motor: ['', '%'],
+  adp: ['C', 'F'],
+  bf: ['', '%'],
+  p_steam: ['kPa', 'Pa'],
+  eff_s: ['', '%'],
+  eff_l: ['', '%'],
 };
 /** The keys of a state line, from the key table. */
 const STATE_KEYS = Object.keys(keysOf('state'));
 const PROCESS_KEYS = Object.keys(keysOf('process'));
+/** Keys with which a process defines its leaving state (and the recover keys). */
+const DERIVE_KEYS = ['heat', 'dt', 'dp_fan', 'eff', 'eff_motor', 'adp', 'bf', 'p_steam', 'rh', 'w'];
+const RECOVER_KEYS = ['m', 'q', 'eff_s', 'eff_l', 'q_sensible', 'q_total'];
 const WRONG_UNITS = ['degC', 'C°', 'kpa', 'KPA', 'g', 'kg', '%%', 'lb', 'BTU', 'cfm/s', '℃', '°', 'C😀', '\u0301', 'kJ/kg/kg', 'mm', 'Pa2', ''];
 const WRONG_KEYS = ['DB', 'Db', 'rH', 'wet', 't', 'T', 'wbb', '', '😀', 'q-total', '_', 'db db'];
 
@@ -171,7 +184,10 @@ function property(keys: readonly string[]): fc.Arbitrary<string> {
 }
 
 const stateProps = fc.array(property(STATE_KEYS), { minLength: 0, maxLength: 5 });
-const processProps = fc.array(property([...PROCESS_KEYS, ...STATE_KEYS.slice(0, 2)]), { minLength: 0, maxLength: 4 });
+const processProps = fc.array(fc.oneof({ weight: 6, arbitrary: property([...PROCESS_KEYS, ...STATE_KEYS.slice(0, 2), ...DERIVE_KEYS]) }, { weight: 1, arbitrary: fc.constantFrom('steam', 'adiabatic', 'stem', 'fog=ok') }), {
+  minLength: 0,
+  maxLength: 4,
+});
 
 const stateLine = fc.tuple(name, stateProps, fc.constantFrom(': ', ':', ' : ', ' ', '::')).map(([n, props, colon]) => `state ${n}${colon}${props.join(' ')}`);
 /** Two figures that define a state, both in range (a valid statement most of the time). */
@@ -195,6 +211,35 @@ const processLine = fc
 const supplyLine = fc
   .tuple(name, name, fc.array(property(['q_sensible', 'q_latent', 'db', 'm', 'q', 'shr', 'rh', 'w']), { minLength: 0, maxLength: 5 }))
   .map(([n, r, props]) => `supply ${n}: ${r} ${props.join(' ')}`);
+/** A process that defines its leaving state, mostly with a usable specification. */
+const derivedLine = fc
+  .tuple(
+    name,
+    name,
+    fc.constantFrom('N1', 'N2', 'OFF', 'SA', 'X9'),
+    fc.constantFrom(
+      'heat=20kW m=2kg/s', 'heat=5kW', 'dt=+5K', 'dt=-30K', 'db=35C', 'db=13C rh=90%', 'db=13C w=8g/kg', 'rh=50%',
+      'dp_fan=750Pa eff=0.62', 'dp_fan=750Pa eff=0.62 eff_motor=0.9', 'dp_fan=750Pa', 'eff=1.5 dp_fan=1kPa',
+      'adp=11C bf=0.1', 'adp=11C', 'bf=1', 'adp=40C bf=0.1', 'steam w=8g/kg', 'steam rh=40% p_steam=200kPa', 'steam', 'steam w=1g/kg',
+      'adiabatic eff=0.85', 'adiabatic rh=60%', 'adiabatic db=-50C', 'heat=1kW adp=11C', 'steam adiabatic w=5g/kg', 'heat=1e308kW m=1e308kg/s',
+    ),
+    fc.array(property([...PROCESS_KEYS.slice(2), 'db', 'rh']), { maxLength: 2 }),
+  )
+  .map(([n, a, b, spec, claims]) => `process ${n}: ${a} -> ${b} ${spec} ${claims.join(' ')}`);
+/** A heat recovery, valid or not. */
+const recoverLine = fc
+  .tuple(
+    name,
+    name,
+    name,
+    fc.constantFrom('R1', 'OA2', 'X9'),
+    fc.constantFrom('R2', 'EA2', 'X9'),
+    fc.array(property(RECOVER_KEYS), { maxLength: 2 }),
+    fc.array(property(RECOVER_KEYS), { maxLength: 3 }),
+    fc.constantFrom(', ', ',', ' ', ', , ', ' , '),
+    fc.constantFrom('', ' fog=ok', ' fog=no', ' fog=', ' eff_s=0.7', ' eff_s=0.7 eff_l=0.6'),
+  )
+  .map(([n, a, b, a2, b2, p1, p2, comma, tail]) => `recover ${n}: ${a} -> ${a2} ${p1.join(' ')}${comma}${b} -> ${b2} ${p2.join(' ')}${tail}`);
 const siteLine = fc.oneof(
   property(['p', 'elev']).map((p) => `site: ${p}`),
   fc.constantFrom('site:', 'site: p=1kPa', 'site: p=1MPa', 'site: p=1000kPa', 'site: elev=11000m', 'site: elev=-5000m', 'site: p=84kPa elev=1600m', 'site p=84kPa'),
@@ -211,9 +256,11 @@ export const statement: fc.Arbitrary<string> = fc
       { weight: 3, arbitrary: mixLine },
       { weight: 3, arbitrary: processLine },
       { weight: 2, arbitrary: supplyLine },
+      { weight: 2, arbitrary: derivedLine },
+      { weight: 1, arbitrary: recoverLine },
       { weight: 1, arbitrary: siteLine },
       { weight: 1, arbitrary: unitsLine },
-      { weight: 1, arbitrary: fc.tuple(fc.constantFrom('state', 'mix', 'process', 'supply', 'site:', 'units:'), garbage(40)).map(([k, g]) => `${k} ${g}`) },
+      { weight: 1, arbitrary: fc.tuple(fc.constantFrom('state', 'mix', 'process', 'supply', 'recover', 'site:', 'units:'), garbage(40)).map(([k, g]) => `${k} ${g}`) },
     ),
     comment,
   )

@@ -32,7 +32,7 @@ function check(input: string, expected: Expected | null) {
 
 describe('completion', () => {
   it('offers the statement keywords at the start of a line', () => {
-    check(air('state A: db=24C rh=50%', '|'), { exactly: ['state', 'mix', 'process', 'supply', 'site', 'units'], replaces: '' });
+    check(air('state A: db=24C rh=50%', '|'), { exactly: ['state', 'mix', 'process', 'supply', 'recover', 'site', 'units'], replaces: '' });
     check(air('pro|'), { includes: ['process'], replaces: 'pro' });
   });
 

@@ -69,7 +69,8 @@ describe('the key table', () => {
     expect(Object.keys(STATE_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'p', 'elev']);
     expect(Object.keys(MIX_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'total']);
     expect(Object.keys(SITE_KEYS)).toEqual(['p', 'elev']);
-    expect(Object.keys(PROCESS_KEYS)).toEqual(['m', 'q', 'flow', 'V', 'q_total', 'q_sensible', 'q_latent', 'q_coil', 'shr', 'water']);
+    // A process also takes the leaving state's properties and the equipment keys (it may define its leaving state).
+    expect(Object.keys(PROCESS_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'm', 'q', 'flow', 'V', 'q_total', 'q_sensible', 'q_latent', 'q_coil', 'shr', 'water', 'heat', 'dt', 'dp_fan', 'eff', 'eff_motor', 'adp', 'bf', 'p_steam']);
     expect(Object.keys(SUPPLY_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'm', 'q', 'q_sensible', 'q_latent', 'shr']);
   });
 

@@ -68,7 +68,7 @@ function within(inner: Span, outer: Span): boolean {
  */
 function shortReason(d: CoreDiagnostic | undefined, fallback: string): string {
   let m = d?.message.trim() ?? '';
-  m = m.replace(/^(state|mix|process)\s+[^:]+:\s*/, '');
+  m = m.replace(/^(state|mix|process|recover)\s+[^:]+:\s*/, '');
   m = m.split(/(?<=[.!?;])\s+(?=[A-Z])/)[0] ?? m;
   if (!m) return fallback;
   return /[.!?]$/.test(m) ? m : `${m.replace(/;$/, '')}.`;
@@ -134,7 +134,7 @@ export function chartDataFromAnalysis(analysis: Analysis, options: FromAnalysisO
         ...(line !== undefined ? { line } : {}),
       });
       if (s.fog) {
-        const why = diags.find((d) => d.code === 'supersaturated');
+        const why = diags.find((d) => d.code === 'supersaturated' || d.code === 'recovery-condensation' || d.code === 'recovery-frost');
         infeasible.push({
           name: st.name,
           plotted: true,
@@ -155,9 +155,13 @@ export function chartDataFromAnalysis(analysis: Analysis, options: FromAnalysisO
   // A process whose states could not be computed has no result: list it as not drawn.
   const evaluated = new Set(analysis.items.filter((i) => i.kind === 'process').map((i) => i.statement.span.start));
   for (const st of analysis.parsed.statements) {
-    if (st.keyword !== 'process' || evaluated.has(st.span.start) || !st.name || !st.from || !st.to) continue;
+    if (evaluated.has(st.span.start) || !('name' in st) || !st.name) continue;
     const line = lineOf(st.span.start);
-    processes.push({ name: st.name.text, from: st.from.text, to: st.to.text, flagged: true, ...(line !== undefined ? { line } : {}) });
+    const ends = st.keyword === 'process' ? [st] : st.keyword === 'recover' ? st.streams : [];
+    for (const x of ends) {
+      if (!x.from || !x.to) continue;
+      processes.push({ name: st.name.text, from: x.from.text, to: x.to.text, flagged: true, ...(line !== undefined ? { line } : {}) });
+    }
   }
   const pressure = notePressure(analysis);
   return {

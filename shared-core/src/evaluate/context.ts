@@ -13,7 +13,7 @@ export interface NameDef {
   name: string;
   span: Span;
   statementIndex: number;
-  keyword: 'state' | 'mix' | 'process' | 'supply';
+  keyword: 'state' | 'mix' | 'process' | 'supply' | 'recover';
 }
 
 /** A registered name: where it was first defined and, once evaluated, its result. */

@@ -9,6 +9,8 @@ import { SITE_KEYS } from './keys';
 import { evaluateMix } from './mix';
 import { pressureFromProps } from './pressure';
 import { evaluateProcess } from './process';
+import { hasSpecification } from './derive';
+import { evaluateRecover } from './recover';
 import { readProps } from './props';
 import { resolveSettings } from './settings';
 import { evaluateState } from './state';
@@ -22,14 +24,28 @@ export function hasReferences(stmt: Statement): boolean {
   return stmt.keyword !== 'units' && stmt.props.some((p) => p.ref !== undefined);
 }
 
-/** Every name a statement defines, found before evaluation (for `used-before-defined`), into `defs`. */
-function prescan(statements: Statement[], defs: Map<string, NameDef[]>): void {
+/**
+ * Every name a statement defines, found before evaluation (for `used-before-defined`), into
+ * `defs`; and which process statements define their leaving state (a specification and a name
+ * not defined above), into `derives`. A `recover` defines both its leaving states.
+ */
+function prescan(statements: Statement[], defs: Map<string, NameDef[]>, derives: Set<number>): void {
+  const add = (name: string, span: NameDef['span'], i: number, keyword: NameDef['keyword']): void => {
+    const d: NameDef = { name, span, statementIndex: i, keyword };
+    const list = defs.get(d.name);
+    if (list) list.push(d);
+    else defs.set(d.name, [d]);
+  };
   statements.forEach((s, i) => {
-    if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process' || s.keyword === 'supply') && s.name) {
-      const d: NameDef = { name: s.name.text, span: s.name.span, statementIndex: i, keyword: s.keyword };
-      const list = defs.get(d.name);
-      if (list) list.push(d);
-      else defs.set(d.name, [d]);
+    if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process' || s.keyword === 'supply' || s.keyword === 'recover') && s.name) {
+      add(s.name.text, s.name.span, i, s.keyword);
+    }
+    if (s.keyword === 'process' && s.name && s.from && s.to && !defs.has(s.to.text) && hasSpecification(s)) {
+      derives.add(i);
+      add(s.to.text, s.to.span, i, 'process');
+    }
+    if (s.keyword === 'recover' && s.name) {
+      for (const x of s.streams) if (x.to) add(x.to.text, x.to.span, i, 'recover');
     }
   });
 }
@@ -136,7 +152,8 @@ export function* evaluateSteps(parsed: ParsedNote, settings?: Partial<EvaluateSe
     ctx.site = reuse.basis(ctx.site);
   }
   const statements = Array.isArray(parsed?.statements) ? parsed.statements : [];
-  prescan(statements, ctx.allDefs);
+  const derives = new Set<number>();
+  prescan(statements, ctx.allDefs, derives);
 
   for (let index = 0; index < statements.length; index++) {
     if (index > 0 && index % STATEMENTS_PER_STEP === 0) yield;
@@ -174,9 +191,35 @@ export function* evaluateSteps(parsed: ParsedNote, settings?: Partial<EvaluateSe
         }
         case 'process': {
           if (!stmt.name) break;
-          const owner = stmt.name ? ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'process' }, stmt.name) : false;
-          const item = reuse ? reuse.dependent(ctx, stmt, index, () => evaluateProcess(ctx, stmt, index)) : evaluateProcess(ctx, stmt, index);
-          if (item && stmt.name) ctx.addItem(item, owner);
+          const owner = ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'process' }, stmt.name);
+          if (derives.has(index) && stmt.to) {
+            // It defines its leaving state too (evaluated every time: it is cheap, and what it
+            // defines is new on every run).
+            const toOwner = ctx.define({ name: stmt.to.text, span: stmt.to.span, statementIndex: index, keyword: 'process' }, stmt.to);
+            const out = evaluateProcess(ctx, stmt, index, true);
+            // The name it defines is listed with the references (rename and find-references see it).
+            ctx.references.push({ name: stmt.to.text, span: stmt.to.span, statement: stmt });
+            if (out.leaving) ctx.addItem(out.leaving, toOwner);
+            if (out.process) ctx.addItem(out.process, owner);
+            break;
+          }
+          const item = reuse ? reuse.dependent(ctx, stmt, index, () => evaluateProcess(ctx, stmt, index).process) : evaluateProcess(ctx, stmt, index).process;
+          if (item) ctx.addItem(item, owner);
+          break;
+        }
+        case 'recover': {
+          if (!stmt.name) break;
+          const owner = ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'recover' }, stmt.name);
+          const toOwners = stmt.streams.map((x) => (x.to ? ctx.define({ name: x.to.text, span: x.to.span, statementIndex: index, keyword: 'recover' }, x.to) : false));
+          const out = evaluateRecover(ctx, stmt, index);
+          for (const x of stmt.streams) if (x.to) ctx.references.push({ name: x.to.text, span: x.to.span, statement: stmt });
+          out.leaving.forEach((l, k) => {
+            if (l) ctx.addItem(l, toOwners[k] ?? false);
+          });
+          // The exchanger is registered under its name by its first side; the second side is listed as well.
+          out.sides.forEach((side, k) => {
+            if (side) ctx.addItem(side, owner && k === 0);
+          });
           break;
         }
         default:

@@ -1,7 +1,7 @@
 /** The keys each statement takes (views of the one key table, `../vocabulary/keys`) and the rules on defining pairs. */
 import type { DefiningKey } from '../physics/types';
 
-import { keysOf } from '../vocabulary/keys';
+import { KEYS, findKey, keysOf, type KeySpec } from '../vocabulary/keys';
 
 export type { BareRule, KeySpec } from '../vocabulary/keys';
 
@@ -22,6 +22,23 @@ export const PROCESS_KEYS = keysOf('process');
  * the supply state; one of them defines the rest), and claims about the supply state and the room SHR.
  */
 export const SUPPLY_KEYS = keysOf('supply');
+
+/** The process keys that define a leaving state: the equipment keys and the leaving state's properties (see `derive.ts`). */
+export const DERIVE_KEY_NAMES: ReadonlySet<string> = new Set(KEYS.filter((k) => k.in.includes('process') && (k.kind === 'process-spec' || k.kind === 'property')).map((k) => k.key));
+
+/** The words a process may carry to name its equipment (`process HU: A -> B steam w=5.65g/kg`). */
+export const PROCESS_WORDS: Readonly<Record<string, string>> = {
+  steam: 'a steam humidifier: to a target w= or rh=',
+  adiabatic: 'an adiabatic (evaporative) humidifier or cooler: eff= (saturation effectiveness), or a target rh= or db=',
+};
+
+/** Keys of `recover` (heat recovery between two streams): per stream m=/q=, then the exchanger's (rows of the key table). */
+export const RECOVER_KEYS: Readonly<Record<string, KeySpec>> = Object.fromEntries(
+  ['m', 'q', 'eff_s', 'eff_l', 'q_sensible', 'q_total'].map((k) => [k, findKey(k)!]),
+);
+
+/** Word-valued options of `recover`: `fog=ok` acknowledges condensation or frost the design accepts. */
+export const RECOVER_WORDS: Readonly<Record<string, readonly string[]>> = { fog: ['ok'] };
 
 /** The state keys that can define a state (v is a claim only; p and elev set the pressure). */
 export const DEFINING_KEYS: readonly DefiningKey[] = ['db', 'wb', 'dp', 'rh', 'w', 'h'];

@@ -10,12 +10,12 @@
  * Coil or heater duty: Q = ṁ [Δh − (W_B − W_A) h_water(t_B)], the water leaving (condensate) or
  * entering (humidifier) as liquid at the leaving dry-bulb (frost below 0 °C for condensate).
  */
-import { condensateEnthalpy, liquidWaterEnthalpy, satHumRatio } from '../physics';
+import { apparatusDewPoint as coilLine, condensateEnthalpy, liquidWaterEnthalpy } from '../physics';
 import type { MoistAirState } from '../physics/types';
-import type { ProcessStatement } from '../notation/ast';
-import type { Span } from '../text/types';
+import type { ProcessStatement, RecoverStatement } from '../notation/ast';
 import type { EvalContext } from './context';
-import { PROCESS_KEYS } from './keys';
+import { deriveLeaving, isSpecOrFlow, specText } from './derive';
+import { DERIVE_KEY_NAMES, PROCESS_KEYS } from './keys';
 import { dependencyInfo } from './mix';
 import { kPaText } from './pressure';
 import type { ReadProp } from './props';
@@ -35,8 +35,6 @@ const DT_STILL = 0.05;
 const DW_STILL = 1e-5;
 /** Below this |Δh| the SHR is not defined, J/kg (one hundredth of a kJ/kg). */
 const DH_STILL = 10;
-/** Tolerance for reaching the saturation curve along the coil line, kg/kg. */
-const SAT_SLACK = 2e-5;
 
 /** Sensible and latent split per kg dry air (see the module comment). */
 export function splitSensibleLatent(a: MoistAirState, b: MoistAirState): { total: number; sensible: number; latent: number } {
@@ -71,90 +69,109 @@ export function processKindOf(a: MoistAirState, b: MoistAirState, coilPerKg: num
 }
 
 /**
- * For moisture removed: the apparatus dew point, the temperature where the straight line from A
- * through B, continued in the drying direction, meets the saturation curve — or null when it never
- * does before W reaches zero (no cooling surface can produce B from A).
+ * For moisture removed: the apparatus dew point, where the coil line from A through B, continued
+ * in the drying direction, meets the saturation curve (see `physics/coil.ts`); null when it never
+ * does before W reaches zero (no cooling surface can produce B from A). Kept here for callers of
+ * the evaluator's API.
  */
 export function apparatusDewPoint(a: MoistAirState, b: MoistAirState, p: number): number | null {
-  const dt = b.db - a.db;
-  const dw = b.w - a.w;
-  if (!(dw < 0)) return null;
-  // f(s) = W on the line − W at saturation, at t = a.db + s·dt. W is linear in s and the
-  // saturation humidity ratio is convex in t, so f is concave: one maximum, found by golden
-  // section, then the crossing by bisection.
-  const f = (s: number): number => {
-    const t = a.db + s * dt;
-    if (t < -100 || t > 200) return -Infinity;
-    try {
-      const ws = satHumRatio(t, p);
-      return Number.isFinite(ws) ? a.w + s * dw - ws : -Infinity;
-    } catch {
-      return -Infinity;
-    }
-  };
-  if (f(1) >= -SAT_SLACK) return b.db;
-  // Heating or constant temperature while drying: the line moves away from saturation.
-  if (!(dt < 0)) return null;
-  let hi = Math.min(a.w / -dw, (a.db + 100) / -dt);
-  if (!(hi > 1)) return null;
-  let lo = 1;
-  const g = (Math.sqrt(5) - 1) / 2;
-  let x1 = hi - g * (hi - lo);
-  let x2 = lo + g * (hi - lo);
-  let f1 = f(x1);
-  let f2 = f(x2);
-  for (let k = 0; k < 40 && hi - lo > 1e-4 * hi; k++) {
-    if (f1 < f2) {
-      lo = x1;
-      x1 = x2;
-      f1 = f2;
-      x2 = lo + g * (hi - lo);
-      f2 = f(x2);
-    } else {
-      hi = x2;
-      x2 = x1;
-      f2 = f1;
-      x1 = hi - g * (hi - lo);
-      f1 = f(x1);
-    }
-  }
-  const sMax = (lo + hi) / 2;
-  if (!(f(sMax) >= -SAT_SLACK)) return null;
-  // The first crossing lies between s = 1 (below saturation) and the maximum.
-  let below = 1;
-  let above = sMax;
-  for (let k = 0; k < 40 && above - below > 1e-7 * above; k++) {
-    const mid = (below + above) / 2;
-    if (f(mid) >= 0) above = mid;
-    else below = mid;
-  }
-  return a.db + above * dt;
+  return coilLine(a, b, p)?.adp ?? null;
 }
 
-/** Evaluates one `process` statement; null when it cannot be computed (diagnostics say why). */
-export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index: number): ProcessResult | null {
+/** What a process statement gives: the state it defines (if it defines one) and the process itself. */
+export interface ProcessOutcome {
+  leaving: StateResult | null;
+  process: ProcessResult | null;
+}
+
+/**
+ * Evaluates one `process` statement in its natural steps — resolve the two ends (or define the
+ * leaving state), the amounts (the dry-air flow), convert (the per-kg and rate figures), the
+ * balance check (a coil line must reach saturation), and the claims. `derives` is true when the
+ * statement defines its leaving state (the pre-scan decided: a specification and a new name).
+ */
+export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index: number, derives = false): ProcessOutcome {
+  const none: ProcessOutcome = { leaving: null, process: null };
   const name = stmt.name?.text ?? '';
   const what = name ? `process ${name}` : 'this process';
-  const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
   const { props } = readProps(ctx, stmt.props, PROCESS_KEYS, what, { statement: stmt, index, allowed: false });
-  if (!stmt.from || !stmt.to) return null; // the parser reported the syntax
-  const from = endpoint(ctx, stmt, index, 'from', what);
-  const to = endpoint(ctx, stmt, index, 'to', what);
-  if (!from || !to) return null;
-  const a = from.state!;
-  const b = to.state!;
+  if (!stmt.from || !stmt.to) return none; // the parser reported the syntax
 
-  if (Math.abs(from.pressure.pa - to.pressure.pa) > 1e-4 * from.pressure.pa) {
-    ctx.report({
-      code: 'pressure-mismatch',
-      severity: 'warning',
-      message: `${what}: ${from.name} is at ${kPaText(from.pressure.pa)} and ${to.name} at ${kPaText(to.pressure.pa)}; a process is taken at one pressure, so the figures are approximate. Put both states at one pressure`,
-      span: stmt.to.span,
-      related: [{ span: stmt.from.span, message: `${from.name}: ${from.pressure.describe}` }],
-    });
+  // 1. Resolve: the entering state, and the leaving one (or a note that a specification cannot apply).
+  const from = endpoint(ctx, stmt, index, 'from', what);
+  if (!derives) {
+    const to = endpoint(ctx, stmt, index, 'to', what);
+    specificationUnused(ctx, stmt, props, what);
+    if (!from || !to) return none;
+    const flow = processFlow(ctx, stmt, props, from, what);
+    const result = buildProcessResult(ctx, stmt, name, from, to, flow, what);
+    balanceCheck(ctx, stmt, result, from, to, what);
+    result.claims = processClaims(ctx, props.filter((p) => !isSpecOrFlow(p.prop)), result, what);
+    return { leaving: null, process: result };
+  }
+  if (!from) {
+    // The leaving state cannot be defined either; what uses it gets an unresolved-dependency note.
+    return none;
   }
 
-  // Dry-air mass flow: m=, or q= at the entering state, or the entering mix's own flow.
+  // 2. Amounts: the dry-air flow (a heater by duty needs it to define the leaving state).
+  const flow = processFlow(ctx, stmt, props, from, what);
+
+  // Define the leaving state from the specification.
+  const derivation = deriveLeaving(ctx, stmt, what, props, from, flow.massFlow);
+  if (!derivation) return none;
+  const leaving: StateResult = {
+    kind: 'state',
+    name: stmt.to.text,
+    statement: stmt,
+    state: derivation.state,
+    pressure: from.pressure,
+    defining: derivation.defining,
+    claims: derivation.claims,
+    massFlowKgS: flow.massFlow,
+    definedBy: { statement: 'process', name, from: from.name, spec: derivation.equipment.spec, nameSpan: stmt.to.span },
+  };
+
+  // 3. Convert, 4. balance, 5. claims.
+  const result = buildProcessResult(ctx, stmt, name, from, leaving, flow, what);
+  result.equipment = derivation.equipment;
+  if (derivation.equipment.form === 'coil' && derivation.adp) {
+    // The ADP and bypass factor as specified.
+    result.apparatusDewPointC = derivation.adp.adp;
+    result.bypassFactor = derivation.adp.bf;
+  } else {
+    balanceCheck(ctx, stmt, result, from, leaving, what);
+  }
+  result.claims = processClaims(ctx, props.filter((p) => !isSpecOrFlow(p.prop)), result, what);
+  return { leaving, process: result };
+}
+
+/** A specification on a process whose leaving state is already defined: it cannot apply (reported once). */
+function specificationUnused(ctx: EvalContext, stmt: ProcessStatement, props: ReadProp[], what: string): void {
+  const first = stmt.words[0] ?? props.find((p) => DERIVE_KEY_NAMES.has(p.key))?.prop;
+  if (!first || !stmt.to) return;
+  const def = ctx.allDefs.get(stmt.to.text)?.[0];
+  const where = def ? ctx.atLine(def.span) : '';
+  const spanOf = 'text' in first ? first.span : first.span;
+  ctx.report({
+    code: 'spec-conflict',
+    severity: 'error',
+    message: `${what}: ${stmt.to.text} is already defined${where}, so this process cannot define it from ${specText(stmt) || 'its specification'}. Give the leaving state a new name to have the process define it, or remove the specification to check the process between the two states`,
+    span: spanOf,
+    ...(def ? { related: [{ span: def.span, message: `${stmt.to.text} is defined here` }] } : {}),
+  });
+}
+
+/** The dry-air flow of a process, kg/s, and its volume at the entering state, m³/s. */
+export interface Flow {
+  massFlow: number | null;
+  volumeFlow: number | null;
+  prop: ReadProp | null;
+}
+
+/** Step 2: m=, or q= at the entering state, or the flow the entering state carries (a mix by flows, a state a process defined). */
+function processFlow(ctx: EvalContext, stmt: ProcessStatement, props: ReadProp[], from: StateResult, what: string): Flow {
+  const a = from.state!;
   const m = props.find((p) => p.key === 'm');
   // The volume flow: q=, or its other names flow= and V= (one of them; a second is a conflict).
   const volumes = props.filter((p) => p.key === 'q' || PROCESS_KEYS[p.key]?.aliasOf === 'q');
@@ -177,8 +194,6 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
       related: [{ span: m.prop.span, message: 'the flow used' }],
     });
   }
-  let massFlow: number | null = null;
-  let volumeFlow: number | null = null;
   const flowProp = m ?? q;
   if (flowProp) {
     if (!(flowProp.q.si > 0) || !Number.isFinite(flowProp.q.si)) {
@@ -188,21 +203,33 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
         message: `${what}: ${flowProp.key}=${flowProp.q.quantity.number.text}${flowProp.q.unitText} is not a positive flow; give the dry-air flow through the process as a positive figure`,
         span: flowProp.q.quantity.span,
       });
-    } else if (flowProp === m) {
-      massFlow = m.q.si;
-      volumeFlow = massFlow * a.v;
-    } else {
-      volumeFlow = flowProp.q.si;
-      massFlow = volumeFlow / a.v;
+      return { massFlow: null, volumeFlow: null, prop: flowProp };
     }
-  } else if ((from.kind === 'mix' || from.kind === 'supply') && typeof from.massFlowKgS === 'number' && from.massFlowKgS > 0) {
-    massFlow = from.massFlowKgS;
-    volumeFlow = massFlow * a.v;
+    if (flowProp === m) return { massFlow: m.q.si, volumeFlow: m.q.si * a.v, prop: m };
+    return { massFlow: flowProp.q.si / a.v, volumeFlow: flowProp.q.si, prop: flowProp };
   }
+  if (typeof from.massFlowKgS === 'number' && from.massFlowKgS > 0) return { massFlow: from.massFlowKgS, volumeFlow: from.massFlowKgS * a.v, prop: null };
+  return { massFlow: null, volumeFlow: null, prop: null };
+}
 
+/** Step 3: the figures of a process from A to B at a flow (per kg of dry air, and rates with a flow). */
+export function buildProcessResult(ctx: EvalContext, stmt: ProcessStatement | RecoverStatement, name: string, from: StateResult, to: StateResult, flow: Flow, what: string): ProcessResult {
+  const a = from.state!;
+  const b = to.state!;
+  if (Math.abs(from.pressure.pa - to.pressure.pa) > 1e-4 * from.pressure.pa && stmt.keyword === 'process' && stmt.to && stmt.from) {
+    ctx.report({
+      code: 'pressure-mismatch',
+      severity: 'warning',
+      message: `${what}: ${from.name} is at ${kPaText(from.pressure.pa)} and ${to.name} at ${kPaText(to.pressure.pa)}; a process is taken at one pressure, so the figures are approximate. Put both states at one pressure`,
+      span: stmt.to.span,
+      related: [{ span: stmt.from.span, message: `${from.name}: ${from.pressure.describe}` }],
+    });
+  }
+  let { massFlow, volumeFlow } = flow;
   let { total, sensible, latent } = splitSensibleLatent(a, b);
-  // Rounding is not physics: a Δw the written states cannot resolve is no moisture change.
-  const unchanged = moistureUnchanged(ctx, from, to);
+  // Rounding is not physics: a Δw the written states cannot resolve is no moisture change (not
+  // for a leaving state this statement defines: its W is computed, not written).
+  const unchanged = to.statement !== stmt && moistureUnchanged(ctx, from, to);
   if (unchanged) {
     total = sensible;
     latent = 0;
@@ -216,17 +243,17 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
   const shr = Math.abs(total) >= DH_STILL && sameWay ? sensible / total : null;
   // A flow so large that a rate overflows (m=1e308kg/s) gives no figures, only an error.
   if (massFlow !== null && ![massFlow, volumeFlow ?? 0, massFlow * total, massFlow * sensible, massFlow * latent, massFlow * dw, massFlow * coilPerKg].every(Number.isFinite)) {
+    const fp = flow.prop;
     ctx.report({
       code: 'out-of-range',
       severity: 'error',
-      message: `${what}: the dry-air flow ${flowProp ? `${flowProp.key}=${flowProp.q.quantity.number.text}${flowProp.q.unitText}` : `${formatSig(massFlow, 4)} kg/s`} is too large to compute the heat rates with; give a realistic flow`,
-      span: flowProp ? flowProp.q.quantity.span : stmt.from.span,
+      message: `${what}: the dry-air flow ${fp ? `${fp.key}=${fp.q.quantity.number.text}${fp.q.unitText}` : `${formatSig(massFlow, 4)} kg/s`} is too large to compute the heat rates with; give a realistic flow`,
+      span: fp ? fp.q.quantity.span : stmt.keywordSpan,
     });
     massFlow = null;
     volumeFlow = null;
   }
-
-  const result: ProcessResult = {
+  return {
     kind: 'process',
     name,
     statement: stmt,
@@ -247,30 +274,31 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
     qCoilW: massFlow === null ? null : massFlow * coilPerKg,
     claims: [],
     apparatusDewPointC: null,
+    ...(unchanged ? { moistureUnchanged: true } : {}),
   };
-  if (unchanged) result.moistureUnchanged = true;
+}
 
-  // Moisture removed: the coil line must reach the saturation curve (an apparatus dew point).
-  if (dw < -DW_STILL) {
-    const adp = apparatusDewPoint(a, b, (from.pressure.pa + to.pressure.pa) / 2);
-    result.apparatusDewPointC = adp;
-    if (adp === null) {
-      const heating = b.db - a.db > -DT_STILL;
-      ctx.report({
-        code: 'impossible-process',
-        severity: 'error',
-        message: heating
-          ? `${what}: moisture is removed (${formatSig(-dw * 1000, 3)} g/kg) while the air is ${b.db - a.db > DT_STILL ? 'heated' : 'kept at the same temperature'}; a coil can only dry air by cooling part of it below its dew point (${formatSig(a.dp, 3)} °C for ${from.name}), which lowers the dry-bulb. Check ${to.name}: its dry-bulb should be lower, or its humidity ratio higher`
-          : `${what}: ${to.name} is too dry for its temperature: the line from ${from.name} through ${to.name} never meets the saturation curve, so no coil surface temperature can give this state (coil air leaves between the entering state and saturation at the surface). Lower ${to.name}'s dry-bulb or raise its humidity ratio`,
-        span: stmt.to.span,
-        related: [{ span: stmt.from.span, message: `entering state ${from.name}` }],
-        data: { from: from.name, to: to.name },
-      });
-    }
-  }
-
-  result.claims = processClaims(ctx, props.filter((p) => PROCESS_KEYS[p.key]?.kind !== 'flow'), result, what);
-  return result;
+/** Step 4: moisture removed — the coil line must reach the saturation curve (an apparatus dew point). */
+function balanceCheck(ctx: EvalContext, stmt: ProcessStatement, result: ProcessResult, from: StateResult, to: StateResult, what: string): void {
+  const a = from.state!;
+  const b = to.state!;
+  const dw = result.dw;
+  if (!(dw < -DW_STILL) || !stmt.to || !stmt.from) return;
+  const line = coilLine(a, b, (from.pressure.pa + to.pressure.pa) / 2);
+  result.apparatusDewPointC = line?.adp ?? null;
+  result.bypassFactor = line?.bf ?? null;
+  if (line) return;
+  const heating = b.db - a.db > -DT_STILL;
+  ctx.report({
+    code: 'impossible-process',
+    severity: 'error',
+    message: heating
+      ? `${what}: moisture is removed (${formatSig(-dw * 1000, 3)} g/kg) while the air is ${b.db - a.db > DT_STILL ? 'heated' : 'kept at the same temperature'}; a coil can only dry air by cooling part of it below its dew point (${formatSig(a.dp, 3)} °C for ${from.name}), which lowers the dry-bulb. Check ${to.name}: its dry-bulb should be lower, or its humidity ratio higher`
+      : `${what}: ${to.name} is too dry for its temperature: the line from ${from.name} through ${to.name} never meets the saturation curve, so no coil surface temperature can give this state (coil air leaves between the entering state and saturation at the surface). Lower ${to.name}'s dry-bulb or raise its humidity ratio`,
+    span: stmt.to.span,
+    related: [{ span: stmt.from.span, message: `entering state ${from.name}` }],
+    data: { from: from.name, to: to.name },
+  });
 }
 
 function endpoint(ctx: EvalContext, stmt: ProcessStatement, index: number, end: 'from' | 'to', what: string): StateResult | null {

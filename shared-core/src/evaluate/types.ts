@@ -11,6 +11,7 @@ import type {
   ParsedNote,
   ProcessStatement,
   PropertyNode,
+  RecoverStatement,
   StateStatement,
   Statement,
   SupplyStatement,
@@ -79,11 +80,11 @@ export interface ClaimResult {
   computedText: string;
 }
 
-/** A state (from `state`), a mixed state (from `mix`) or a supply state (from `supply`). */
+/** A state (from `state`), a mixed state (from `mix`), a supply state (from `supply`), or a state a process or recovery defines. */
 export interface StateResult {
   kind: 'state' | 'mix' | 'supply';
   name: string;
-  statement: StateStatement | MixStatement | SupplyStatement;
+  statement: StateStatement | MixStatement | SupplyStatement | ProcessStatement | RecoverStatement;
   /** Null when the state could not be computed (its diagnostics say why). */
   state: MoistAirState | null;
   pressure: PressureBasis;
@@ -94,7 +95,7 @@ export interface StateResult {
   streams?: { name: string; fraction: number; massFlowKgS: number | null }[];
   /**
    * For a mix: total dry-air mass flow, kg/s, when the streams were given as flows; for a supply:
-   * its dry-air flow.
+   * its dry-air flow. For a state a process defines: the process's flow (null when it has none).
    */
   massFlowKgS?: number | null;
   /** For a supply: the room loads it absorbs and its flow. */
@@ -108,7 +109,15 @@ export interface StateResult {
    * The statement that defines this state from another (a `supply` from its room state, a
    * process or heat recovery from its entering state), for hovers: "from RA via SA".
    */
-  definedBy?: { statement: string; name: string; from: string };
+  definedBy?: {
+    statement: string;
+    name: string;
+    from: string;
+    /** For a process or heat recovery: its specification as written (`adp=11C bf=0.1`). */
+    spec?: string;
+    /** For a process or heat recovery: the defined name as written after `->` (its definition). */
+    nameSpan?: Span;
+  };
 }
 
 /** What a `supply` carries (SI; loads positive = heat gained by the air in the room). */
@@ -138,6 +147,27 @@ export interface PropertySource {
   valueSI: number;
 }
 
+/** What the equipment of a process that defines its leaving state was, and what it found. */
+export interface EquipmentResult {
+  /** `heater`, `fan`, `coil` (by ADP and bypass factor), `leaving` (by the leaving state's properties), `steam`, `adiabatic`, `recovery`. */
+  form: 'heater' | 'fan' | 'coil' | 'leaving' | 'steam' | 'adiabatic' | 'recovery';
+  /** The specification as written. */
+  spec: string;
+  /** Fan: temperature rise, K. */
+  fanRiseK?: number;
+  /** Coil by ADP: true when the ADP is at or above the entering dew point (no water condenses). */
+  dryCoil?: boolean;
+  /** Adiabatic humidifier: saturation effectiveness (0…1). */
+  saturationEffectiveness?: number | null;
+  /** Steam humidifier: supply temperature, °C, and enthalpy, J/kg. */
+  steamTempC?: number;
+  steamEnthalpyJkg?: number;
+  /** Heat recovery: effectivenesses, the other stream, and condensation or frost on this side. */
+  effSensible?: number;
+  effLatent?: number | null;
+  wetting?: { kind: 'condensation' | 'frost'; surfaceC: number; dewPointC: number; accepted: boolean } | null;
+}
+
 /** The kind of process, named from the direction of temperature and moisture change. */
 export type ProcessKind =
   | 'sensible-heating'
@@ -155,7 +185,7 @@ export type ProcessKind =
 export interface ProcessResult {
   kind: 'process';
   name: string;
-  statement: ProcessStatement;
+  statement: ProcessStatement | RecoverStatement;
   from: string;
   to: string;
   processKind: ProcessKind | null;
@@ -193,6 +223,10 @@ export interface ProcessResult {
    * resolve (see `resolution.ts`): `dw`, the latent heat and the water are then 0 and the SHR 1.
    */
   moistureUnchanged?: boolean;
+  /** With the apparatus dew point: the bypass factor that puts the leaving state on the coil line (contact factor 1 − bf). */
+  bypassFactor?: number | null;
+  /** For a process that defined its leaving state (or one side of a heat recovery): its equipment. */
+  equipment?: EquipmentResult;
 }
 
 /** Result of one statement (site/units statements have no result of their own). */

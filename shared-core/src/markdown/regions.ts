@@ -1,6 +1,6 @@
 /**
  * The air regions of a Markdown note: fenced code blocks whose info string's first word is `air`,
- * and code spans whose content starts with a statement keyword (`state `, `mix `, `process `,
+ * and code spans whose content starts with a statement keyword (`state `, `mix `, `process `, `recover `,
  * `site:`, `units:` — the keyword followed by whitespace or `:`). Everything else is prose.
  */
 import type { Span } from '../text/types';
@@ -8,7 +8,7 @@ import { scanMarkdown } from './scan';
 import type { AirRegion, HeadingNode } from './types';
 
 /** The statement keywords, in the order the docs list them. */
-export const STATEMENT_KEYWORDS = ['site', 'units', 'state', 'mix', 'process', 'supply'] as const;
+export const STATEMENT_KEYWORDS = ['site', 'units', 'state', 'mix', 'process', 'supply', 'recover'] as const;
 
 /** A statement keyword, as written. */
 export type Keyword = (typeof STATEMENT_KEYWORDS)[number];
@@ -45,7 +45,7 @@ export interface ExtractedNote {
   headings: HeadingNode[];
 }
 
-const KEYWORD_ANYWHERE = /state|mix|process|site|units/;
+const KEYWORD_ANYWHERE = /state|mix|process|recover|site|units/;
 
 /** Whether `content` starts with a statement keyword followed by whitespace or `:`. */
 export function startsWithKeyword(content: string): boolean {

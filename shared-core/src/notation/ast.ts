@@ -137,6 +137,36 @@ export interface ProcessStatement extends StatementBase {
   to: NameNode | null;
   /** `m=`/`q=` and any other `key=value` written after the arrow, in order. */
   props: PropertyNode[];
+  /** Bare words written among the properties (`steam`, `adiabatic`): the kind of equipment. */
+  words: NameNode[];
+}
+
+/** A word written as a value: `fog=ok`. */
+export interface WordPropertyNode {
+  key: string;
+  keySpan: Span;
+  word: NameNode;
+  span: Span;
+}
+
+/** One stream of a `recover`: `OA -> OA2 [m=… | q=…]`. */
+export interface RecoverStream {
+  from: NameNode | null;
+  to: NameNode | null;
+  /** The properties written after this stream (up to the comma), in order. */
+  props: PropertyNode[];
+  span: Span;
+}
+
+/** `recover NAME: A -> A2 [flow], B -> B2 [flow] eff_s=… [eff_l=…] [fog=ok]`: heat recovery between two streams. */
+export interface RecoverStatement extends StatementBase {
+  keyword: 'recover';
+  name: NameNode | null;
+  streams: RecoverStream[];
+  /** Every property written, in order (the streams' own, concatenated; the same nodes). */
+  props: PropertyNode[];
+  /** Word-valued options (`fog=ok`). */
+  options: WordPropertyNode[];
 }
 
 /**
@@ -158,7 +188,8 @@ export type Statement =
   | StateStatement
   | MixStatement
   | ProcessStatement
-  | SupplyStatement;
+  | SupplyStatement
+  | RecoverStatement;
 
 /** A diagnostic as the core reports it (LSP-free). */
 export interface CoreDiagnostic {

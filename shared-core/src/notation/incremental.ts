@@ -221,7 +221,21 @@ export function shiftStatement(s: Statement, d: number): Statement {
         from: shiftName(s.from, d),
         to: shiftName(s.to, d),
         props: shiftProps(s.props, d),
+        words: s.words.map((w) => shiftName(w, d)!),
       };
+    case 'recover': {
+      const streams = s.streams.map((x) => ({ from: shiftName(x.from, d), to: shiftName(x.to, d), props: shiftProps(x.props, d), span: shiftSpan(x.span, d) }));
+      return {
+        keyword: 'recover',
+        keywordSpan,
+        origin: s.origin,
+        span,
+        name: shiftName(s.name, d),
+        streams,
+        props: streams.flatMap((x) => x.props),
+        options: s.options.map((o) => ({ key: o.key, keySpan: shiftSpan(o.keySpan, d), word: shiftName(o.word, d)!, span: shiftSpan(o.span, d) })),
+      };
+    }
   }
 }
 

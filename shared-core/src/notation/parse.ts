@@ -11,8 +11,9 @@
  *
  *     site: KEY=VALUE …                       units: WORD
  *     state NAME: KEY=VALUE …                 mix NAME: NAME AMOUNT + NAME AMOUNT [+ …] [KEY=VALUE …]
- *     process NAME: NAME -> NAME [KEY=VALUE …]        (`→` works as well as `->`)
+ *     process NAME: NAME -> NAME [KEY=VALUE | WORD …]  (`→` works as well as `->`)
  *     supply NAME: NAME KEY=VALUE …                    (the room state, then loads and db, m or q)
+ *     recover NAME: NAME -> NAME [KEY=VALUE …], NAME -> NAME [KEY=VALUE | KEY=WORD …]
  *     VALUE, AMOUNT:  NUMBER[UNIT][±NUMBER[UNIT]]     (`+-` works as well as `±`)
  *     VALUE:   NAME.KEY[(+|-)NUMBER UNIT]          another state's property (`OA.w`, `OFF.db+0.8K`)
  *     AMOUNT:  also `rest` (one stream of a mix: what the others leave of total=, or of 100 %)
@@ -41,6 +42,9 @@ import type {
   PropertyNode,
   PropertyRefNode,
   QuantityNode,
+  RecoverStatement,
+  RecoverStream,
+  WordPropertyNode,
   SiteStatement,
   Statement,
   StatementOrigin,
@@ -137,7 +141,7 @@ function keywordAdvice(word: string): string {
     }
   }
   if (best && bestD === 2 && word.length >= 4) return `did you mean '${best}'?`;
-  return "a statement starts with 'site:', 'units:', 'state', 'mix', 'process' or 'supply'; start a note line with '#'";
+  return "a statement starts with 'site:', 'units:', 'state', 'mix', 'process', 'supply' or 'recover'; start a note line with '#'";
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -294,6 +298,8 @@ class StatementParser {
         return this.process(keywordSpan);
       case 'supply':
         return this.supply(keywordSpan);
+      case 'recover':
+        return this.recover(keywordSpan);
     }
   }
 
@@ -347,10 +353,18 @@ class StatementParser {
 
   private process(keywordSpan: Span): ProcessStatement {
     const name = this.definedName('process', keywordSpan, 'process CC: MA -> SA q=4.8m3/s');
-    const example = `process ${name?.text ?? 'CC'}: MA -> SA`;
-    this.colon(name ? `process ${name.text}` : 'process', example, keywordSpan.start, !name);
-    const from = this.referencedName('the entering state', example, keywordSpan);
-    const arrowExample = `process ${name?.text ?? 'CC'}: ${from?.text ?? 'MA'} -> SA`;
+    const self = name?.text ?? 'CC';
+    this.colon(name ? `process ${name.text}` : 'process', `process ${self}: MA -> SA`, keywordSpan.start, !name);
+    // Without an arrow, a following name is still read as the leaving state (the arrow is reported).
+    const { from, to } = this.arrowPair(keywordSpan, (f) => `process ${self}: ${f ?? 'MA'} -> SA`);
+    const words: NameNode[] = [];
+    const props = this.props({ words });
+    return { keyword: 'process', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, from, to, props, words };
+  }
+
+  /** `A -> B` of a process or a recover stream: the two names (null where missing, reported). */
+  private arrowPair(keywordSpan: Span, example: (from: string | null) => string): { from: NameNode | null; to: NameNode | null } {
+    const from = this.referencedName('the entering state', example(null), keywordSpan);
     let arrow = false;
     const c = this.peek();
     if (c >= 0 && this.isArrowAt(this.pos)) {
@@ -361,14 +375,44 @@ class StatementParser {
       this.consume(this.pos + 2);
       arrow = true;
     } else if (from || this.nameAhead()) {
-      // (With neither states nor arrow, the missing entering state was reported already.)
       const at = c >= 0 ? this.pos : this.lastEnd;
-      this.report('syntax', `missing '->' between the two states: write ${arrowExample}`, from ? from.span.start : at, from ? from.span.end : at);
+      this.report('syntax', `missing '->' between the two states: write ${example(from?.text ?? null)}`, from ? from.span.start : at, from ? from.span.end : at);
     }
-    // Without an arrow, a following name is still read as the leaving state (the arrow was reported).
-    const to = arrow || this.nameAhead() ? this.referencedName("the leaving state after '->'", arrowExample, keywordSpan) : null;
-    const props = this.props();
-    return { keyword: 'process', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, from, to, props };
+    const to = arrow || this.nameAhead() ? this.referencedName("the leaving state after '->'", example(from?.text ?? null), keywordSpan) : null;
+    return { from, to };
+  }
+
+  private recover(keywordSpan: Span): RecoverStatement {
+    const name = this.definedName('recover', keywordSpan, 'recover HX: OA -> OA2, EA -> EA2 eff_s=0.70');
+    const self = name?.text ?? 'HX';
+    this.colon(name ? `recover ${name.text}` : 'recover', `recover ${self}: OA -> OA2, EA -> EA2 eff_s=0.70`, keywordSpan.start, !name);
+    const streams: RecoverStream[] = [];
+    const props: PropertyNode[] = [];
+    const options: WordPropertyNode[] = [];
+    for (let k = 0; k < 2; k++) {
+      const start = this.peek() >= 0 ? this.pos : this.lastEnd;
+      const example = k === 0 ? (f: string | null) => `recover ${self}: ${f ?? 'OA'} -> OA2, EA -> EA2 eff_s=0.70` : (f: string | null) => `recover ${self}: OA -> OA2, ${f ?? 'EA'} -> EA2 eff_s=0.70`;
+      const { from, to } = this.arrowPair(keywordSpan, example);
+      const own = this.props({ stopAtComma: true, options });
+      props.push(...own);
+      streams.push({ from, to, props: own, span: this.span(start, Math.max(start, this.lastEnd)) });
+      if (k === 0) {
+        if (this.peek() === 0x2c) {
+          this.consume(this.pos + 1);
+        } else {
+          const at = this.peek() >= 0 ? this.pos : this.lastEnd;
+          this.report('syntax', `a recover statement takes two streams separated by a comma: write recover ${self}: OA -> OA2, EA -> EA2 eff_s=0.70`, at, at);
+          break;
+        }
+      }
+    }
+    // Anything after the second stream's properties (a third stream, a stray comma) is not read.
+    if (this.peek() >= 0) {
+      const extraStart = this.pos;
+      this.skipRest();
+      this.report('syntax', `unexpected '${this.text.slice(extraStart, this.lastEnd)}': a recover statement takes exactly two streams, OA -> OA2, EA -> EA2, then its properties`, extraStart, this.lastEnd);
+    }
+    return { keyword: 'recover', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, streams, props, options };
   }
 
   private supply(keywordSpan: Span): SupplyStatement {
@@ -568,12 +612,18 @@ class StatementParser {
 
   // --- properties -----------------------------------------------------------------------------
 
-  private props(): PropertyNode[] {
+  /**
+   * `key=value …` to the end of the statement. `words` collects bare words (`steam`) instead of
+   * reporting them; `stopAtComma` ends the list at a comma (a recover's first stream); `options`
+   * collects `key=word` (`fog=ok`) instead of reporting the word as a bad number.
+   */
+  private props(opts: { words?: NameNode[]; stopAtComma?: boolean; options?: WordPropertyNode[] } = {}): PropertyNode[] {
     const props: PropertyNode[] = [];
     for (;;) {
       const c = this.peek();
       if (c < 0) break;
       const start = this.pos;
+      if (c === 0x2c && opts.stopAtComma) break;
       if (c === 0x2c) {
         this.report('syntax', 'separate properties with spaces, not commas: write db=24C rh=50%', start, start + 1);
         this.consume(start + 1);
@@ -595,6 +645,11 @@ class StatementParser {
         const keySpan = this.span(start, keyEnd);
         if (this.charAt(p) === 0x3d) {
           this.consume(p + 1);
+          const word = opts.options ? this.wordValue() : null;
+          if (word) {
+            opts.options!.push({ key, keySpan, word, span: this.span(start, word.span.end) });
+            continue;
+          }
           const ref = this.propertyRef(key);
           if (ref === 'reported') {
             props.push({ key, keySpan, value: null, span: this.span(start, this.lastEnd) });
@@ -624,6 +679,10 @@ class StatementParser {
           props.push({ key, keySpan, value, span: this.span(start, value ? value.span.end : keyEnd) });
           continue;
         }
+        if (opts.words) {
+          opts.words.push({ text: key, span: keySpan });
+          continue;
+        }
         this.report('syntax', `'${key}' is not a property: write key=value, e.g. db=24C`, start, keyEnd);
         continue;
       }
@@ -632,6 +691,19 @@ class StatementParser {
       this.report('syntax', `unexpected '${this.slice(t)}': expected key=value, e.g. db=24C`, t.start, t.end);
     }
     return props;
+  }
+
+  /** A value that is a plain word of letters (`ok` in `fog=ok`), consumed; null (nothing consumed) otherwise. */
+  private wordValue(): NameNode | null {
+    const c = this.peek();
+    if (c < 0 || !isAsciiLetter(c)) return null;
+    let p = this.pos;
+    while (p < this.end && isAsciiLetter(this.text.charCodeAt(p))) p++;
+    const next = this.charAt(p);
+    if (p < this.end && !isWs(next) && next !== 0x23 && next !== 0x2c) return null;
+    const start = this.pos;
+    this.consume(p);
+    return { text: this.text.slice(start, p), span: this.span(start, p) };
   }
 
   /** The value after `key=`; null (with a diagnostic) when there is no usable number. */

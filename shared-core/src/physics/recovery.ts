@@ -20,6 +20,7 @@
  */
 import type { MoistAirState } from './types';
 import { solveState } from './solve';
+import { dewPointFromHumRatio } from './wetbulb';
 import { fail, moistCp, ok, type EquipmentOutcome } from './equipment';
 
 /** One stream through the exchanger. */
@@ -98,7 +99,8 @@ export function recoverBetween(s1: RecoveryStream, s2: RecoveryStream, effS: num
     const out = leaving[cooled];
     const otherIn = cooled === 0 ? b : a;
     const surfaceC = (out.db + otherIn.db) / 2;
-    const dewPointC = out.fog ? out.db : out.dp;
+    // A fog state's own dew point is its temperature; the water it carries condenses from its dew point.
+    const dewPointC = out.fog ? dewPointFromHumRatio(out.w, out.p) : out.dp;
     if (out.fog || dewPointC > surfaceC) {
       wetting = { stream: cooled, kind: surfaceC < 0 ? 'frost' : 'condensation', surfaceC, dewPointC };
     }

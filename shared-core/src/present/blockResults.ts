@@ -105,6 +105,7 @@ function stateRowData(row: StateRow, cols: ResultsColumn[]): StateRowData {
     const streams = row.streams.map((x) => `${x.name} ${x.fraction.text}`).join(' + ');
     details.push(streams ? `mix: ${streams}` : 'mix');
   }
+  if (row.origin) details.push(row.origin);
   if (row.status === 'fog') details.push('fog');
   if (row.status === 'failed') details.push('not computed');
   return {
@@ -122,7 +123,7 @@ function processRowData(row: ProcessRow): ProcessRowData {
     name: row.name,
     from: row.from,
     to: row.to,
-    kind: row.kind,
+    kind: row.kindWithAdp,
     total: row.total.text,
     sensible: row.sensible.text,
     latent: row.latent.text,
@@ -159,10 +160,10 @@ function resultsKey(system: UnitSystem, items: readonly EvaluatedItem[], problem
   for (const item of items) {
     if (item.kind === 'process') {
       const p = item;
-      parts.push('P', p.name, p.from, p.to, p.processKind, p.massFlowKgS, p.qTotalW, p.qSensibleW, p.qLatentW, p.dhTotal, p.dhSensible, p.dhLatent, p.shr, p.waterKgS, p.dw);
+      parts.push('P', p.name, p.from, p.to, p.processKind, p.massFlowKgS, p.qTotalW, p.qSensibleW, p.qLatentW, p.dhTotal, p.dhSensible, p.dhLatent, p.shr, p.waterKgS, p.dw, p.apparatusDewPointC);
     } else {
       const st = item.state;
-      parts.push(item.kind, item.name, item.pressure.pa);
+      parts.push(item.kind, item.name, item.pressure.pa, item.definedBy ? `${item.definedBy.from}>${item.definedBy.name}` : '');
       if (st) parts.push(st.db, st.wb, st.dp, st.rh, st.w, st.h, st.fog);
       else parts.push('-');
       for (const x of item.streams ?? []) parts.push(x.name, x.fraction);

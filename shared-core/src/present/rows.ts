@@ -74,6 +74,8 @@ export interface StateRow {
   streams: readonly { name: string; fraction: Figure; flow: Figure }[];
   /** For a mix given by flows: the total dry-air flow; `—` otherwise. */
   massFlow: Figure;
+  /** For a state a process or heat recovery defines: `from A via HX`; null otherwise. */
+  origin: string | null;
 }
 
 /** One process, every figure formatted (positive = added to the air). */
@@ -83,6 +85,8 @@ export interface ProcessRow {
   to: string;
   /** The kind in words (`cooling and dehumidifying`), `—` when unknown. */
   kind: string;
+  /** The kind with the apparatus dew point when there is one (`cooling and dehumidifying, ADP 9.4 °C`), for the results tables. */
+  kindWithAdp: string;
   /** False when no flow was given: the heat and water figures are then per unit mass of dry air. */
   hasFlow: boolean;
   massFlow: Figure;
@@ -152,6 +156,7 @@ export function stateRow(item: StateResult, system: UnitSystem, opts: RowOptions
     defining: item.defining,
     streams: (item.streams ?? []).map((s) => ({ name: s.name, fraction: figure(s.fraction, 'fraction', system, { extraDigits: opts.extraDigits }), flow: massFlow(s.massFlowKgS) })),
     massFlow: massFlow(item.massFlowKgS),
+    origin: item.definedBy ? `from ${item.definedBy.from} via ${item.definedBy.name}` : null,
   };
 }
 
@@ -162,11 +167,14 @@ export function processRow(p: ProcessResult, system: UnitSystem, opts: RowOption
   const perKg = (j: number): Figure => figure(j, 'enthalpy', system, { difference: true, extraDigits });
   const rate = (w: number | null, perKgJ: number): Figure => (hasFlow ? heatFigure(w, system, opts) : perKg(perKgJ));
   const dw = figure(p.dw, 'humidityRatio', system, { difference: true, extraDigits });
+  const adp = figure(p.apparatusDewPointC ?? null, 'temperature', system, { extraDigits });
+  const kind = processKindText(p.processKind);
   return {
     name: p.name,
     from: p.from,
     to: p.to,
-    kind: processKindText(p.processKind),
+    kind,
+    kindWithAdp: Number.isFinite(p.apparatusDewPointC ?? NaN) ? `${kind}, ADP ${adp.text}` : kind,
     hasFlow,
     massFlow: figure(p.massFlowKgS, 'massFlow', system, { extraDigits }),
     volumeFlow: figure(p.volumeFlowM3S, 'volumeFlow', system, { extraDigits }),
@@ -178,7 +186,7 @@ export function processRow(p: ProcessResult, system: UnitSystem, opts: RowOption
     coil: hasFlow ? heatFigure(p.qCoilW, system, opts) : noFigure(displaySymbol(displayUnit('power', system))),
     dh: perKg(p.dhTotal),
     dw,
-    adp: figure(p.apparatusDewPointC ?? null, 'temperature', system, { extraDigits }),
+    adp,
   };
 }
 

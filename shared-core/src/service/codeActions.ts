@@ -6,7 +6,7 @@
  * `stale-results-table` warning gets "refresh the table" (see `./resultsTables`, which also has
  * the source actions that write the tables).
  */
-import { PROCESS_KEYS, SITE_KEYS, STATE_KEYS, type KeySpec } from '../evaluate/keys';
+import { PROCESS_KEYS, RECOVER_KEYS, SITE_KEYS, STATE_KEYS, type KeySpec } from '../evaluate/keys';
 import type { ClaimResult } from '../evaluate/types';
 import type { CoreDiagnostic, PropertyNode, QuantityNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
@@ -39,6 +39,7 @@ const FLOW_LIKE = new Set<Dimension>(['massFlow', 'volumeFlow', 'power']);
 function specOf(statement: Statement, key: string): KeySpec | undefined {
   if (statement.keyword === 'site') return SITE_KEYS[key];
   if (statement.keyword === 'process') return PROCESS_KEYS[key];
+  if (statement.keyword === 'recover') return RECOVER_KEYS[key];
   return STATE_KEYS[key];
 }
 

@@ -35,6 +35,7 @@ const KEYWORDS: CompletionEntry[] = [
   { label: 'mix', kind: 'keyword', insertText: 'mix ', detail: 'adiabatic mixing: mix NAME: A 30% + B 70%' },
   { label: 'process', kind: 'keyword', insertText: 'process ', detail: 'a process: process NAME: A -> B m=…' },
   { label: 'supply', kind: 'keyword', insertText: 'supply ', detail: 'supply air from room loads: supply NAME: ROOM q_sensible=… q_latent=… db=…' },
+  { label: 'recover', kind: 'keyword', insertText: 'recover ', detail: 'heat recovery: recover NAME: A -> A2, B -> B2 eff_s=…' },
   { label: 'site', kind: 'keyword', insertText: 'site: ', detail: 'pressure for what follows: site: elev=… or p=…' },
   { label: 'units', kind: 'keyword', insertText: 'units: ', detail: 'unit system of the results: units: SI or IP' },
 ];

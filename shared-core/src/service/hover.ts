@@ -45,7 +45,9 @@ const KEYWORD_TEXT: Record<Statement['keyword'], string> = {
   supply:
     '`supply NAME: ROOM q_sensible=… q_latent=… db=…` the supply state and dry-air flow that absorb the room’s sensible and latent gains; give the supply dry-bulb (`db=`) or the flow (`m=` or `q=` at the supply state) and the other follows.',
   process:
-    '`process NAME: A -> B [m=… | q=…]` a process between two named states at one dry-air flow: heat rates, sensible heat ratio, moisture added or removed, and the kind of process.',
+    '`process NAME: A -> B [m=… | q=…]` a process between two named states at one dry-air flow: heat rates, sensible heat ratio, moisture added or removed, and the kind of process. When B is a new name, the process defines it from its specification (`heat=`, `dt=`, `db=`, `dp_fan=` with `eff=`, `adp=` with `bf=`, `steam`, `adiabatic`).',
+  recover:
+    '`recover NAME: A -> A2, B -> B2 eff_s=… [eff_l=…]` heat (and moisture) recovery between two streams, by effectiveness on the smaller capacity rate; defines both leaving states. `fog=ok` accepts condensation or frost on the cooled side.',
 };
 
 /** The written text of a property (`rh=45%`). */
@@ -118,7 +120,7 @@ function sourceText(note: Note, src: PropertySource, system: UnitSystem): string
 /** The lines saying where a state's referenced properties came from. */
 function sourcesBlock(note: Note, item: StateResult, system: UnitSystem): string[] {
   const lines: string[] = [];
-  if (item.definedBy) lines.push(`Defined by ${md(item.definedBy.statement)} ${md(item.definedBy.name)} from ${md(item.definedBy.from)}${viaText(note, item.definedBy.from)}.`);
+  if (item.definedBy) lines.push(`Defined by ${md(item.definedBy.statement)} ${md(item.definedBy.name)} from ${md(item.definedBy.from)}${viaText(note, item.definedBy.from)}${item.definedBy.spec ? ` (${code(item.definedBy.spec)})` : ''}.`);
   if (item.sources && item.sources.length > 0) lines.push(`Taken from states above: ${item.sources.map((s) => sourceText(note, s, system)).join('; ')}.`);
   return lines;
 }
@@ -216,6 +218,28 @@ function stateHover(note: Note, item: StateResult): string {
   return out.join('\n');
 }
 
+/** Rows for the equipment of a process that defined its leaving state, and the coil's ADP. */
+function equipmentRows(note: Note, item: ProcessResult, system: UnitSystem): [string, string][] {
+  const rows: [string, string][] = [];
+  const e = item.equipment;
+  if (item.apparatusDewPointC !== null && item.apparatusDewPointC !== undefined) {
+    rows.push(['apparatus dew point', show(note, item.apparatusDewPointC, 'temperature', system)]);
+    if (item.bypassFactor !== null && item.bypassFactor !== undefined) rows.push(['bypass factor (contact factor)', `${plain(item.bypassFactor, 3)} (${plain(1 - item.bypassFactor, 3)})`]);
+  }
+  if (!e) return rows;
+  if (e.fanRiseK !== undefined) rows.push(['fan temperature rise', showDifference(note, e.fanRiseK, 'temperature', system)]);
+  if (e.dryCoil) rows.push(['coil surface', 'dry (ADP at or above the entering dew point)']);
+  if (e.saturationEffectiveness !== undefined && e.saturationEffectiveness !== null) rows.push(['saturation effectiveness', plain(e.saturationEffectiveness, 3)]);
+  if (e.steamTempC !== undefined) rows.push(['steam supply', `saturated at ${show(note, e.steamTempC, 'temperature', system)}, h ${show(note, e.steamEnthalpyJkg ?? 0, 'enthalpy', system)}`]);
+  if (e.effSensible !== undefined) {
+    rows.push(['effectiveness', `sensible ${plain(e.effSensible, 2)}${e.effLatent !== null && e.effLatent !== undefined ? `, latent ${plain(e.effLatent, 2)}` : ''} (on the smaller capacity rate)`]);
+  }
+  if (e.wetting) {
+    rows.push([e.wetting.kind === 'frost' ? 'frost' : 'condensation', `surface about ${show(note, e.wetting.surfaceC, 'temperature', system)}, dew point ${show(note, e.wetting.dewPointC, 'temperature', system)}${e.wetting.accepted ? ' (accepted: fog=ok)' : ''}`]);
+  }
+  return rows;
+}
+
 /** A magnitude with the sign of `x` in front (`+1.2 …`, `−1.2 …`, none for zero). */
 function signed(x: number, magnitude: string): string {
   if (/^0(\.0*)? /.test(magnitude)) return magnitude;
@@ -235,10 +259,12 @@ function heat(note: Note, w: number | null, system: UnitSystem): string {
   return `${mag} ${w > 0 ? 'added' : 'removed'}`;
 }
 
-function processHover(note: Note, item: ProcessResult): string {
+function processHover(note: Note, item: ProcessResult, footer = true): string {
   const system = note.analysis.units;
   const kind = item.processKind ? PROCESS_KIND_TEXT[item.processKind] : 'kind unknown';
-  const out = [`**process ${md(item.name)}** — ${kind}, ${md(item.from)} → ${md(item.to)}`, ''];
+  const keyword = item.statement.keyword === 'recover' ? 'recover' : 'process';
+  const out = [`**${keyword} ${md(item.name)}** — ${kind}, ${md(item.from)} → ${md(item.to)}`, ''];
+  if (item.equipment) out.push(`Defines ${md(item.to)} from ${code(item.equipment.spec)}.`, '');
   const rows: [string, string][] = [];
   if (item.massFlowKgS !== null) {
     let flow = show(note, item.massFlowKgS, 'massFlow', system);
@@ -263,17 +289,27 @@ function processHover(note: Note, item: ProcessResult): string {
     rows.push([item.waterKgS < 0 ? 'condensate' : 'water added', item.waterKgS === 0 ? '—' : rate]);
   }
   if (item.qCoilW !== null) rows.push(['coil duty incl. water', heat(note, item.qCoilW, system)]);
+  rows.push(...equipmentRows(note, item, system));
   out.push('| | |', '|---|--:|', ...rows.map(([a, b]) => `| ${a} | ${b} |`));
   const claims = claimsBlock(note, item);
   if (claims.length > 0) out.push('', ...claims);
+  if (!footer) return out.join('\n');
   out.push('', 'Heat rates are positive when heat is added to the air; steady flow, one dry-air flow.');
   out.push('', METHOD_LINE, '', '---', CAUTION_LINE);
   return out.join('\n');
 }
 
+/** A heat recovery: both sides, one after the other, with one footer. */
+function recoverHover(note: Note, item: ProcessResult): string {
+  const sides = note.analysis.items.filter((i): i is ProcessResult => i.kind === 'process' && i.statement === item.statement);
+  if (sides.length < 2) return processHover(note, item);
+  return [...sides.slice(0, -1).map((x) => processHover(note, x, false)), processHover(note, sides[sides.length - 1]!)].join('\n\n');
+}
+
 /** The hover of an evaluated item (state, mix or process). */
 export function itemHover(note: Note, item: EvaluatedItem): string {
-  return item.kind === 'process' ? processHover(note, item) : stateHover(note, item);
+  if (item.kind === 'process') return item.statement.keyword === 'recover' ? recoverHover(note, item) : processHover(note, item);
+  return stateHover(note, item);
 }
 
 /** A site line: the pressure it sets, as the first state after it uses it. */

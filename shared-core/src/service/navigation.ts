@@ -40,7 +40,7 @@ function occurrences(note: Note, name: string, includeDefinitions: boolean): Spa
   const spans: Span[] = [];
   if (includeDefinitions) {
     for (const s of note.analysis.parsed.statements) {
-      if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process' || s.keyword === 'supply') && s.name?.text === name) spans.push(s.name.span);
+      if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process' || s.keyword === 'supply' || s.keyword === 'recover') && s.name?.text === name) spans.push(s.name.span);
     }
   }
   for (const r of note.analysis.references) if (r.name === name) spans.push(r.span);
@@ -52,7 +52,10 @@ export function definition(note: Note, offset: number): DefinitionTarget | null 
   const name = nameAt(note, offset);
   if (!name) return null;
   const item = definitionOf(note, name.text);
-  if (!item || !item.statement.name) return null;
+  if (!item) return null;
+  // A state a process or recovery defines: its name after '->'.
+  if (item.kind !== 'process' && item.definedBy?.nameSpan) return { nameSpan: item.definedBy.nameSpan, statementSpan: item.statement.span };
+  if (!item.statement.name) return null;
   return { nameSpan: item.statement.name.span, statementSpan: item.statement.span };
 }
 
@@ -82,8 +85,9 @@ export function renameProblem(note: Note, oldName: string, newName: string): str
   if ((RESERVED as readonly string[]).includes(newName)) return `"${newName}" is a statement keyword and cannot be a name; choose another name.`;
   if (newName === oldName) return `The name is already "${newName}".`;
   const clash = definitionOf(note, newName);
-  if (clash?.statement.name) {
-    return `"${newName}" is already defined on line ${lineNumber(note.text, clash.statement.name.span.start)} (${clash.kind} ${newName}); choose a name that is not in use.`;
+  const clashSpan = clash && clash.kind !== 'process' && clash.definedBy?.nameSpan ? clash.definedBy.nameSpan : clash?.statement.name?.span;
+  if (clash && clashSpan) {
+    return `"${newName}" is already defined on line ${lineNumber(note.text, clashSpan.start)} (${clash.kind} ${newName}); choose a name that is not in use.`;
   }
   const used = note.analysis.references.find((r) => r.name === newName);
   if (used) {

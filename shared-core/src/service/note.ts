@@ -147,12 +147,13 @@ export type Target =
   | { kind: 'system'; statement: Statement; name: NameNode }
   | { kind: 'statement'; statement: Statement };
 
-/** The names a statement refers to (mix streams, process ends, the states of property references). */
+/** The names a statement refers to or defines after '->' (mix streams, process ends, recover streams, the states of property references). */
 export function referencesOf(statement: Statement): NameNode[] {
   const out: NameNode[] = [];
   if (statement.keyword === 'mix') for (const s of statement.streams) out.push(s.name);
   if (statement.keyword === 'process') for (const n of [statement.from, statement.to]) if (n) out.push(n);
   if (statement.keyword === 'supply' && statement.room) out.push(statement.room);
+  if (statement.keyword === 'recover') for (const x of statement.streams) for (const n of [x.from, x.to]) if (n) out.push(n);
   if (statement.keyword !== 'units') for (const p of statement.props) if (p.ref) out.push(p.ref.state);
   return out;
 }
@@ -171,7 +172,7 @@ export function targetAt(note: Note, offset: number): Target | undefined {
     if (statement.system && touches(statement.system.span, offset)) return { kind: 'system', statement, name: statement.system };
     return { kind: 'statement', statement };
   }
-  if ((statement.keyword === 'state' || statement.keyword === 'mix' || statement.keyword === 'process' || statement.keyword === 'supply') && statement.name) {
+  if ((statement.keyword === 'state' || statement.keyword === 'mix' || statement.keyword === 'process' || statement.keyword === 'supply' || statement.keyword === 'recover') && statement.name) {
     if (touches(statement.name.span, offset)) return { kind: 'definition', statement, name: statement.name };
   }
   for (const ref of referencesOf(statement)) {

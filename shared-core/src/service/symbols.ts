@@ -43,7 +43,7 @@ function statementSymbols(note: Note, token?: CancellationFlag): OutlineSymbol[]
     }
     out.push({
       name: statement.name.text,
-      kind: statement.keyword,
+      kind: statement.keyword === 'recover' ? 'process' : statement.keyword,
       detail,
       span: statement.span,
       selectionSpan: statement.name.span,

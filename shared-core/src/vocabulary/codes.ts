@@ -48,7 +48,7 @@ const XE = ['engine', 'evaluator'] as const;
 export const CODES = {
   // --- parser ---
   syntax: { severity: 'error', from: ['parser', 'evaluator'], meaning: 'the statement could not be read (a stray token, comma or arrow; also a negative tolerance)', fixture: 'note' },
-  'unknown-keyword': { severity: 'error', from: P, meaning: 'a fence line does not start with site:, units:, state, mix or process', fixture: 'note' },
+  'unknown-keyword': { severity: 'error', from: P, meaning: 'a fence line does not start with site:, units:, state, mix, process, supply or recover', fixture: 'note' },
   'missing-name': { severity: 'error', from: P, meaning: 'a statement, stream or process end has no name', fixture: 'note' },
   'bad-name': { severity: 'error', from: P, meaning: 'a name does not follow the naming rule (a letter, then letters, digits, _ or -)', fixture: 'note' },
   'missing-colon': { severity: 'error', from: P, meaning: "the ':' after the statement head is missing", fixture: 'note' },
@@ -81,6 +81,11 @@ export const CODES = {
   'supply-infeasible': { severity: 'error', from: E, meaning: 'a supply state that cannot carry the room loads (the humidity ratio the latent load needs is negative or above saturation, the supply is not below the room for cooling, or the flow is not positive)', fixture: 'note' },
   'bad-reference': { severity: 'error', from: E, meaning: 'a property reference that cannot be used (a key that cannot be referenced, another kind, a wrong difference unit, a reference where only a figure goes)', fixture: 'note' },
   'mix-rest': { severity: 'error', from: E, meaning: 'a mix by total and remainder that does not add up (more than one rest stream, a rest without total=, streams of another kind than the total, or streams that leave nothing for the rest)', fixture: 'note' },
+  'spec-missing': { severity: 'error', from: E, meaning: 'a process or recover specification lacks a key it needs (adp= without bf=, heat= without a flow, dp_fan= without eff=, steam without a target, recover without eff_s=)', fixture: 'note' },
+  'spec-conflict': { severity: 'error', from: E, meaning: 'specification keys that cannot go together (heat= with dt=, heat= with adp=), or a specification on a process whose leaving state is already defined', fixture: 'note' },
+  'spec-unreachable': { severity: 'error', from: E, meaning: 'a specification asks for a state the equipment cannot reach (steam to a lower humidity, an adiabatic humidifier beyond saturation…)', fixture: 'note' },
+  'recovery-condensation': { severity: 'warning', alsoAs: 'info', from: E, meaning: 'heat recovery condenses water on the side of the stream being cooled (info when fog=ok acknowledges it)', fixture: 'note' },
+  'recovery-frost': { severity: 'warning', alsoAs: 'info', from: E, meaning: 'heat recovery forms frost on the side of the stream being cooled (info when fog=ok acknowledges it)', fixture: 'note' },
   'internal-error': {
     severity: 'error',
     from: E,

@@ -29,9 +29,11 @@ export type KeyStatement = 'state' | 'mix' | 'site' | 'process' | 'supply';
  * - `pressure`: sets the pressure of a state or of the statements after `site:`;
  * - `flow`: the dry-air flow of a process;
  * - `process-claim`: a claim about a process's results;
+ * - `process-spec`: the specification of equipment with which a process (or `recover`) defines its
+ *   leaving state (`heat=`, `adp=`, `eff_s=`…);
  * - `computed`: shown in hovers, hints or the JSON, never written.
  */
-export type KeyKind = 'property' | 'pressure' | 'flow' | 'process-claim' | 'computed';
+export type KeyKind = 'property' | 'pressure' | 'flow' | 'process-claim' | 'process-spec' | 'computed';
 
 /** One row of the key table. */
 export interface KeySpec {
@@ -73,6 +75,8 @@ function alternatives(list: readonly string[]): string {
 const STATE_AND_MIX = ['state', 'mix', 'supply'] as const;
 /** The loads of a supply are the same figures as a process's heat rates (gains of the air). */
 const PROCESS_AND_SUPPLY = ['process', 'supply'] as const;
+/** Leaving-state properties may also be written on a process that defines its leaving state. */
+const STATE_MIX_PROCESS = ['state', 'mix', 'supply', 'process'] as const;
 
 /**
  * Every key, in the order of completion lists, hover rows and hint keys. One row per key; the
@@ -81,43 +85,43 @@ const PROCESS_AND_SUPPLY = ['process', 'supply'] as const;
 const ROWS = [
   // --- properties of moist air (state lines; claims after a mix) ---
   {
-    key: 'db', kind: 'property', in: STATE_AND_MIX, dimension: 'temperature', bare: 'error',
+    key: 'db', kind: 'property', in: STATE_MIX_PROCESS, dimension: 'temperature', bare: 'error',
     title: 'dry-bulb temperature', description: 'dry-bulb temperature',
     examples: ['db=24C', 'db=75F'], row: 'dry-bulb', hint: 'dry-bulb temperature',
     json: { name: 'db_C' },
   },
   {
-    key: 'wb', kind: 'property', in: STATE_AND_MIX, dimension: 'temperature', bare: 'error',
+    key: 'wb', kind: 'property', in: STATE_MIX_PROCESS, dimension: 'temperature', bare: 'error',
     title: 'wet-bulb temperature', description: 'thermodynamic wet-bulb temperature (over ice below 0 °C)',
     examples: ['wb=24C', 'wb=75F'], row: 'wet-bulb', hint: 'thermodynamic wet-bulb temperature',
     json: { name: 'wb_C' },
   },
   {
-    key: 'dp', kind: 'property', in: STATE_AND_MIX, dimension: 'temperature', bare: 'error',
+    key: 'dp', kind: 'property', in: STATE_MIX_PROCESS, dimension: 'temperature', bare: 'error',
     title: 'dew-point temperature', description: 'dew-point temperature (frost point below 0 °C)',
     examples: ['dp=24C', 'dp=75F'], row: 'dew point', hint: 'dew-point temperature',
     json: { name: 'dp_C' },
   },
   {
-    key: 'rh', kind: 'property', in: STATE_AND_MIX, dimension: 'fraction', bare: 'error',
+    key: 'rh', kind: 'property', in: STATE_MIX_PROCESS, dimension: 'fraction', bare: 'error',
     title: 'relative humidity', description: 'relative humidity, in % (a bare number is an error: 50 or 0.5 would be ambiguous)',
     examples: ['rh=50%'], row: 'relative humidity', hint: 'relative humidity',
     json: { name: 'rh_pct', times: 100 },
   },
   {
-    key: 'w', kind: 'property', in: STATE_AND_MIX, dimension: 'humidityRatio', bare: 'si',
+    key: 'w', kind: 'property', in: STATE_MIX_PROCESS, dimension: 'humidityRatio', bare: 'si',
     title: 'humidity ratio', description: 'humidity ratio: mass of water vapour per mass of dry air (a bare number is kg/kg)',
     examples: ['w=9.3g/kg', 'w=0.0093'], row: 'humidity ratio', hint: 'humidity ratio',
     json: { name: 'w_kgkg' },
   },
   {
-    key: 'h', kind: 'property', in: STATE_AND_MIX, dimension: 'enthalpy', bare: 'error',
+    key: 'h', kind: 'property', in: STATE_MIX_PROCESS, dimension: 'enthalpy', bare: 'error',
     title: 'specific enthalpy', description: 'specific enthalpy per mass of dry air (SI datum dry air 0 at 0 °C; IP datum 0 °F)',
     examples: ['h=47.8kJ/kg', 'h=20.5Btu/lb'], row: 'enthalpy', hint: 'specific enthalpy per mass of dry air',
     json: { name: 'h_kJkg', over: 1000 },
   },
   {
-    key: 'v', kind: 'property', in: STATE_AND_MIX, dimension: 'specificVolume', bare: 'error',
+    key: 'v', kind: 'property', in: STATE_MIX_PROCESS, dimension: 'specificVolume', bare: 'error',
     title: 'specific volume', description: 'specific volume per mass of dry air (a claim only; it does not define a state)',
     examples: ['v=0.854m3/kg', 'v=13.7ft3/lb'], row: 'specific volume', hint: 'specific volume per mass of dry air',
     json: { name: 'v_m3kg' },
@@ -215,6 +219,57 @@ const ROWS = [
     title: 'water added or condensate removed', description: 'claim: water added (humidifier) or removed (condensate), as a mass flow',
     examples: ['water=38kg/h'],
     json: { name: 'water_kgh', times: 3600 },
+  },
+  // --- equipment of a process that defines its leaving state (see evaluate/derive.ts), and of recover ---
+  {
+    key: 'heat', kind: 'process-spec', in: ['process'], dimension: 'power', bare: 'error',
+    title: 'heat added by a sensible heater', description: 'heat added to the air by a sensible heater (negative: removed); needs the flow',
+    examples: ['heat=20kW'],
+  },
+  {
+    key: 'dt', kind: 'process-spec', in: ['process'], dimension: 'temperature', bare: 'error',
+    title: 'temperature rise of a sensible heater', description: 'temperature rise of a sensible heater, a difference (K, °C or °F)',
+    examples: ['dt=5K', 'dt=9F'],
+  },
+  {
+    key: 'dp_fan', kind: 'process-spec', in: ['process'], dimension: 'pressure', bare: 'error',
+    title: 'fan total pressure rise', description: 'total pressure rise of a fan (with eff=)',
+    examples: ['dp_fan=750Pa'],
+  },
+  {
+    key: 'eff', kind: 'process-spec', in: ['process'], dimension: 'fraction', bare: 'si',
+    title: 'fan efficiency or saturation effectiveness', description: 'total efficiency of a fan (electrical input to air power), or the saturation effectiveness of an adiabatic humidifier',
+    examples: ['eff=0.62', 'eff=62%'],
+  },
+  {
+    key: 'eff_motor', kind: 'process-spec', in: ['process'], dimension: 'fraction', bare: 'si',
+    title: 'motor efficiency (motor outside the airstream)', description: 'motor efficiency of a fan whose motor is outside the airstream (only the shaft power heats the air)',
+    examples: ['eff_motor=0.92'],
+  },
+  {
+    key: 'adp', kind: 'process-spec', in: ['process'], dimension: 'temperature', bare: 'error',
+    title: 'apparatus dew point', description: 'apparatus dew point of a cooling coil (with bf=)',
+    examples: ['adp=11C'],
+  },
+  {
+    key: 'bf', kind: 'process-spec', in: ['process'], dimension: 'fraction', bare: 'si',
+    title: 'bypass factor', description: 'bypass factor of a cooling coil; the contact factor is 1 − bf',
+    examples: ['bf=0.1'],
+  },
+  {
+    key: 'p_steam', kind: 'process-spec', in: ['process'], dimension: 'pressure', bare: 'error',
+    title: 'steam supply pressure', description: 'absolute pressure of the saturated steam supply of a steam humidifier (default 101.325 kPa, 100 °C)',
+    examples: ['p_steam=200kPa'],
+  },
+  {
+    key: 'eff_s', kind: 'process-spec', in: [], dimension: 'fraction', bare: 'si',
+    title: 'sensible effectiveness', description: 'sensible effectiveness of a heat recovery, on the smaller capacity rate (recover lines)',
+    examples: ['eff_s=0.70'],
+  },
+  {
+    key: 'eff_l', kind: 'process-spec', in: [], dimension: 'fraction', bare: 'si',
+    title: 'latent effectiveness', description: 'latent effectiveness of a heat recovery, on the smaller dry-air flow (recover lines)',
+    examples: ['eff_l=0.60'],
   },
 ] as const satisfies readonly Omit<KeySpec, 'example'>[];
 
