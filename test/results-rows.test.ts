@@ -125,7 +125,10 @@ describe('one results row for every surface', () => {
     expect(cc.processKind).toBe('cooling-dehumidifying');
     expect(s.hintOn('CC').startsWith(words)).toBe(true);
     expect(s.hoverOn('CC')).toContain(`— ${words},`);
-    expect(markdownRow(s.markdown, 'CC')[1]).toBe(words);
+    // The written table puts the apparatus dew point beside the kind, as the hover shows it.
+    const adp = /^cooling and dehumidifying, ADP (.+)$/.exec(markdownRow(s.markdown, 'CC')[1]!);
+    expect(adp).not.toBeNull();
+    expect(s.hoverOn('CC')).toContain(`| apparatus dew point | ${adp![1]} |`);
     expect(terminalRow(s.processes, 'CC')[terminalHeader(s.processes).indexOf('kind')]).toBe(words);
     expect(reportRow(s.report, 'processes', 'CC')[reportHeader(s.report, 'processes').indexOf('kind')]).toBe(words);
   });

@@ -40,12 +40,13 @@ import type { DefiningKey } from '../physics/types';
 import type { CoreDiagnostic, ProcessStatement, PropertyNode } from '../notation/ast';
 import type { Span } from '../text/types';
 import type { EvalContext } from './context';
-import { DERIVE_KEY_NAMES, PROCESS_WORDS, isDefiningKey } from './keys';
+import { DERIVE_KEY_NAMES, PROCESS_KEYS, PROCESS_WORDS, isDefiningKey } from './keys';
 import { problemDiagnostic } from './problems';
 import type { ReadProp } from './props';
 import { candidatePairs, stateClaims, stateFinite, writtenList } from './state';
 import type { ClaimResult, EquipmentResult, StateResult } from './types';
-import { closest, spanUnion } from './util';
+import { suggestName } from '../text/suggest';
+import { spanUnion } from './util';
 
 /** Keys of the leaving state (defining or claims). */
 const STATE_KEY_SET: ReadonlySet<string> = new Set(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v']);
@@ -155,7 +156,7 @@ export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: st
   let word: { text: string; span: Span } | null = null;
   for (const w of stmt.words) {
     if (!Object.prototype.hasOwnProperty.call(PROCESS_WORDS, w.text)) {
-      const suggestion = closest(w.text, Object.keys(PROCESS_WORDS));
+      const suggestion = suggestName(w.text, Object.keys(PROCESS_WORDS));
       ctx.report({
         code: 'unknown-key',
         severity: 'error',
@@ -356,5 +357,5 @@ export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: st
 
 /** The props of a process that are not claims about its heat rates (flow, specification, leaving state). */
 export function isSpecOrFlow(p: PropertyNode): boolean {
-  return p.key === 'm' || p.key === 'q' || DERIVE_KEY_NAMES.has(p.key);
+  return PROCESS_KEYS[p.key]?.kind === 'flow' || DERIVE_KEY_NAMES.has(p.key);
 }

@@ -21,7 +21,8 @@ import { buildProcessResult } from './process';
 import type { ReadProp } from './props';
 import { readProps } from './props';
 import type { ClaimResult, ProcessResult, StateResult } from './types';
-import { closest, formatSig } from './util';
+import { suggestName } from '../text/suggest';
+import { formatSig } from './util';
 
 /** What a recover statement gives: the two leaving states and the two sides of the exchanger (null where they failed). */
 export interface RecoverOutcome {
@@ -45,7 +46,7 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
       fogOk = true;
       continue;
     }
-    const suggestion = allowed ? null : closest(o.key, [...Object.keys(RECOVER_KEYS), ...Object.keys(RECOVER_WORDS)]);
+    const suggestion = allowed ? null : suggestName(o.key, [...Object.keys(RECOVER_KEYS), ...Object.keys(RECOVER_WORDS)]);
     ctx.report({
       code: allowed ? 'bad-number' : 'unknown-key',
       severity: 'error',

@@ -9,7 +9,7 @@ import { iceWetBulbAlternative } from '../physics';
 import type { ClaimResult, EvaluatedItem, ProcessResult, PropertySource, StateResult } from '../evaluate/types';
 import type { PropertyNode, PropertyRefNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
-import { describeUnit, figure, lookupUnit } from '../units';
+import { describeUnit, figure, lookupUnit, ratioFigure } from '../units';
 import type { Dimension, UnitSystem } from '../units/types';
 import {
   CAUTION_LINE,
@@ -222,6 +222,8 @@ function stateHover(note: Note, item: StateResult): string {
 function equipmentRows(note: Note, item: ProcessResult, system: UnitSystem): [string, string][] {
   const rows: [string, string][] = [];
   const e = item.equipment;
+  // A plain ratio at `decimals` places (plus the note's extra digits), by the one figure formatter.
+  const plain = (x: number, decimals: number): string => ratioFigure(x, decimals - 2 + (note.settings.extraDigits ?? 0)).text;
   if (item.apparatusDewPointC !== null && item.apparatusDewPointC !== undefined) {
     rows.push(['apparatus dew point', show(note, item.apparatusDewPointC, 'temperature', system)]);
     if (item.bypassFactor !== null && item.bypassFactor !== undefined) rows.push(['bypass factor (contact factor)', `${plain(item.bypassFactor, 3)} (${plain(1 - item.bypassFactor, 3)})`]);
