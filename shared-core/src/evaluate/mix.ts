@@ -6,7 +6,7 @@
  * stream's own state (ṁ = V̇ / v, v per kg of dry air).
  */
 import { solveState } from '../physics';
-import type { CoreDiagnostic, MixStatement, PropertyNode } from '../notation/ast';
+import type { CoreDiagnostic, MixStatement, NameNode, PropertyNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
 import { lookupUnit } from '../units';
 import type { EvalContext } from './context';
@@ -429,3 +429,31 @@ export function dependencyInfo(what: string, ref: string, span: Span, defSpan: S
   };
 }
 
+
+/**
+ * The computed state (or mix) a statement takes in under `node`, or null after one diagnostic: an
+ * unknown or later name (reported by the context), a process name (`not-a-state`, ending with
+ * `usage`, which says what the statement expects there), or a state that failed (an info).
+ */
+export function enteringState(ctx: EvalContext, node: NameNode, stmt: Statement, index: number, what: string, usage: string): StateResult | null {
+  const ref = ctx.resolve(node, stmt, index);
+  if (!ref.ok) {
+    if (ref.failed) ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));
+    return null;
+  }
+  if (ref.item.kind === 'process') {
+    ctx.report({
+      code: 'not-a-state',
+      severity: 'error',
+      message: `'${node.text}' is a process, not a state; ${usage}`,
+      span: node.span,
+      related: [{ span: ref.def.span, message: `process ${node.text}` }],
+    });
+    return null;
+  }
+  if (ref.item.state === null) {
+    ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));
+    return null;
+  }
+  return ref.item;
+}

@@ -16,7 +16,7 @@ import type { ProcessStatement, RecoverStatement } from '../notation/ast';
 import type { EvalContext } from './context';
 import { deriveLeaving, isSpecOrFlow, specText } from './derive';
 import { DERIVE_KEY_NAMES, PROCESS_KEYS } from './keys';
-import { dependencyInfo } from './mix';
+import { dependencyInfo, enteringState } from './mix';
 import { kPaText } from './pressure';
 import type { ReadProp } from './props';
 import { readProps } from './props';
@@ -302,27 +302,7 @@ function balanceCheck(ctx: EvalContext, stmt: ProcessStatement, result: ProcessR
 }
 
 function endpoint(ctx: EvalContext, stmt: ProcessStatement, index: number, end: 'from' | 'to', what: string): StateResult | null {
-  const node = stmt[end]!;
-  const ref = ctx.resolve(node, stmt, index);
-  if (!ref.ok) {
-    if (ref.failed) ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));
-    return null;
-  }
-  if (ref.item.kind === 'process') {
-    ctx.report({
-      code: 'not-a-state',
-      severity: 'error',
-      message: `'${node.text}' is a process, not a state; a process goes from one state (or mix) to another`,
-      span: node.span,
-      related: [{ span: ref.def.span, message: `process ${node.text}` }],
-    });
-    return null;
-  }
-  if (ref.item.state === null) {
-    ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));
-    return null;
-  }
-  return ref.item;
+  return enteringState(ctx, stmt[end]!, stmt, index, what, 'a process goes from one state (or mix) to another');
 }
 
 /** The computed figure a process claim is compared with, SI, signed (positive = added to the air). */

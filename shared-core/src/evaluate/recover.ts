@@ -16,7 +16,7 @@ import type { Span } from '../text/types';
 import { checkClaim } from './claims';
 import type { EvalContext } from './context';
 import { RECOVER_KEYS, RECOVER_WORDS } from './keys';
-import { dependencyInfo } from './mix';
+import { dependencyInfo, enteringState } from './mix';
 import { buildProcessResult } from './process';
 import type { ReadProp } from './props';
 import { readProps } from './props';
@@ -161,27 +161,7 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
 }
 
 function entering(ctx: EvalContext, stmt: RecoverStatement, index: number, x: RecoverStream, what: string): StateResult | null {
-  const node = x.from!;
-  const ref = ctx.resolve(node, stmt, index);
-  if (!ref.ok) {
-    if (ref.failed) ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));
-    return null;
-  }
-  if (ref.item.kind === 'process') {
-    ctx.report({
-      code: 'not-a-state',
-      severity: 'error',
-      message: `'${node.text}' is a process, not a state; each stream of a recover goes from a state (or mix) to a new state`,
-      span: node.span,
-      related: [{ span: ref.def.span, message: `process ${node.text}` }],
-    });
-    return null;
-  }
-  if (ref.item.state === null) {
-    ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));
-    return null;
-  }
-  return ref.item;
+  return enteringState(ctx, x.from!, stmt, index, what, 'each stream of a recover goes from a state (or mix) to a new state');
 }
 
 /** A stream's dry-air flow: its m= or q= (at its entering state), or the flow its entering state carries. */

@@ -25,7 +25,7 @@ import { satHumRatio, specificVolume } from '../physics';
 import type { Span } from '../text/types';
 import type { EvalContext } from './context';
 import { SUPPLY_KEYS } from './keys';
-import { dependencyInfo } from './mix';
+import { dependencyInfo, enteringState } from './mix';
 import { kPaText } from './pressure';
 import { problemDiagnostic } from './problems';
 import type { ReadProp } from './props';
@@ -148,27 +148,7 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
 
 /** The room state the supply serves: a computed state or mix above, or null after a diagnostic. */
 function roomOf(ctx: EvalContext, stmt: SupplyStatement, index: number, what: string): StateResult | null {
-  const node = stmt.room!;
-  const ref = ctx.resolve(node, stmt, index);
-  if (!ref.ok) {
-    if (ref.failed) ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));
-    return null;
-  }
-  if (ref.item.kind === 'process') {
-    ctx.report({
-      code: 'not-a-state',
-      severity: 'error',
-      message: `'${node.text}' is a process, not a state; a supply names the room state it serves (state RA: db=24C rh=50%)`,
-      span: node.span,
-      related: [{ span: ref.def.span, message: `process ${node.text}` }],
-    });
-    return null;
-  }
-  if (ref.item.state === null) {
-    ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));
-    return null;
-  }
-  return ref.item;
+  return enteringState(ctx, stmt.room!, stmt, index, what, 'a supply names the room state it serves (state RA: db=24C rh=50%)');
 }
 
 /** `q_sensible=41.5kW` as written, for messages. */
