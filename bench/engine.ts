@@ -13,7 +13,8 @@ import { createRequire } from 'node:module';
 import { pathToFileURL } from 'node:url';
 
 type Engine = typeof import('../shared-core/src/physics');
-type Internals = typeof import('../shared-core/src/physics/wetbulb') & typeof import('../shared-core/src/physics/saturation');
+type Internals = typeof import('../shared-core/src/physics/wetbulb') &
+  typeof import('../shared-core/src/physics/saturation');
 
 interface PsychroLib {
   SI: number;
@@ -89,7 +90,7 @@ function fmt(x: number, digits = 0): string {
 }
 
 function fmtErr(x: number): string {
-  return x.toExponential(1).padStart(9) + ' K';
+  return `${x.toExponential(1).padStart(9)} K`;
 }
 
 /** Runs the engine benchmark and prints its figures. */
@@ -99,8 +100,12 @@ export async function benchEngine(): Promise<void> {
   // CommonJS transform puts a property getter on every cross-module call and makes the engine
   // about 3× slower than it ships.
   const E: Engine = await import('../shared-core/src/physics');
-  const I: Internals = { ...(await import('../shared-core/src/physics/wetbulb')), ...(await import('../shared-core/src/physics/saturation')) };
-  const { humRatioFromRelHum, humRatioFromWetBulb, satVapPres, solveState, wetBulbFromHumRatio, dewPointFromVapPres } = E;
+  const I: Internals = {
+    ...(await import('../shared-core/src/physics/wetbulb')),
+    ...(await import('../shared-core/src/physics/saturation')),
+  };
+  const { humRatioFromRelHum, humRatioFromWetBulb, satVapPres, solveState, wetBulbFromHumRatio, dewPointFromVapPres } =
+    E;
   const require = createRequire(import.meta.url);
   const psy = require('psychrolib') as PsychroLib;
   psy.SetUnitSystem(psy.SI);
@@ -147,7 +152,11 @@ export async function benchEngine(): Promise<void> {
     const e = Math.abs(o[1]! - ref[i]!);
     if (e > 0.01) {
       if (!Number.isFinite(s.state.ws)) aboveBoiling++;
-      else if (Math.abs(humRatioFromWetBulb(db[i]!, Math.min(o[1]!, db[i]!), p[i]!) - w[i]!) < 1e-5 || Math.abs(o[1]!) < 0.01) twoRoot++;
+      else if (
+        Math.abs(humRatioFromWetBulb(db[i]!, Math.min(o[1]!, db[i]!), p[i]!) - w[i]!) < 1e-5 ||
+        Math.abs(o[1]!) < 0.01
+      )
+        twoRoot++;
       else theirsWbErr = Math.max(theirsWbErr, e);
     } else theirsWbErr = Math.max(theirsWbErr, e);
   }
@@ -201,14 +210,19 @@ export async function benchEngine(): Promise<void> {
     },
   );
 
-  console.log(`moist-air engine vs PsychroLib: ${N} states (db −40…90 °C, rh 1…100 %, p 60…110 kPa), median of ${ROUNDS} rounds after ${WARMUP_ROUNDS} warm-up`);
+  console.log(
+    `moist-air engine vs PsychroLib: ${N} states (db −40…90 °C, rh 1…100 %, p 60…110 kPa), median of ${ROUNDS} rounds after ${WARMUP_ROUNDS} warm-up`,
+  );
   console.log('case                               engine ns  PsychroLib ns   ratio');
-  const row = (name: string, t: Timing) => console.log(`${name.padEnd(34)} ${fmt(t.ours)}  ${fmt(t.theirs, 0).padStart(13)}  ${fmt(t.theirs / t.ours, 1)}×`);
+  const row = (name: string, t: Timing) =>
+    console.log(`${name.padEnd(34)} ${fmt(t.ours)}  ${fmt(t.theirs, 0).padStart(13)}  ${fmt(t.theirs / t.ours, 1)}×`);
   row('(db, wb, p) → all properties', dbWb);
   row('(db, rh, p) → all incl. wet-bulb', dbRh);
   row('(db, w, p)  → wet-bulb', dbW);
   console.log('accuracy against bisection to 1e-12 K on the same equations (max |error|):');
-  console.log(`  wet-bulb  engine ${fmtErr(oursWbErr)} (target 1e-6 K)   PsychroLib ${fmtErr(theirsWbErr)} (its tolerance 1e-3 K)`);
+  console.log(
+    `  wet-bulb  engine ${fmtErr(oursWbErr)} (target 1e-6 K)   PsychroLib ${fmtErr(theirsWbErr)} (its tolerance 1e-3 K)`,
+  );
   console.log(`  dew point engine ${fmtErr(oursDpErr)}                   PsychroLib ${fmtErr(theirsDpErr)}`);
   console.log(
     `  PsychroLib wet-bulbs off by more than 0.01 K, left out above: ${aboveBoiling} at or above the boiling point (its bracket walks to the dry-bulb), ${twoRoot} in the band near 0 °C where eq 33 and eq 35 both have a root`,

@@ -46,7 +46,10 @@ function requireTimeMs(): number {
 }
 
 /** Activation timings in code-server, or the reason they could not be taken. */
-async function codeServerTimings(vsix: string, runs: number): Promise<{ activate: number[]; sinceLoad: number[]; ready: number[] } | string> {
+async function codeServerTimings(
+  vsix: string,
+  runs: number,
+): Promise<{ activate: number[]; sinceLoad: number[]; ready: number[] } | string> {
   const { missingTools } = await import('../test/e2e/lib/tools');
   const missing = missingTools('node24', 'code-server', 'chromium', 'playwright-core');
   if (missing) return `not measured in code-server: ${missing}`;
@@ -67,7 +70,12 @@ async function codeServerTimings(vsix: string, runs: number): Promise<{ activate
         'the activation marker with readyMs',
         () => {
           if (!existsSync(marker)) return undefined;
-          const m = JSON.parse(readFileSync(marker, 'utf8')) as { activateMs: number; sinceLoadMs: number; readyMs?: number; error?: string };
+          const m = JSON.parse(readFileSync(marker, 'utf8')) as {
+            activateMs: number;
+            sinceLoadMs: number;
+            readyMs?: number;
+            error?: string;
+          };
           if (m.error) throw new Error(`the server did not start: ${m.error}`);
           return m.readyMs !== undefined ? m : undefined;
         },
@@ -89,16 +97,27 @@ export async function benchExtension(): Promise<void> {
   const work = mkdtempSync(join(tmpdir(), 'dewmark-vsix-bench-'));
   try {
     const vsix = join(work, 'dewmark-bench.vsix');
-    const r = spawnSync(process.execPath, [join(root, 'client', 'package-vsix.mjs'), '--no-build', '--out', vsix], { cwd: root, encoding: 'utf8' });
+    const r = spawnSync(process.execPath, [join(root, 'client', 'package-vsix.mjs'), '--no-build', '--out', vsix], {
+      cwd: root,
+      encoding: 'utf8',
+    });
     if (r.status !== 0) throw new Error(`packaging failed:\n${r.stdout}\n${r.stderr}`);
     const size = statSync(vsix).size;
-    console.log(`vsix size            ${kib(size)}  (goal ≤ ${kib(SIZE_GOAL)}: ${size <= SIZE_GOAL ? 'met' : 'NOT met'})`);
+    console.log(
+      `vsix size            ${kib(size)}  (goal ≤ ${kib(SIZE_GOAL)}: ${size <= SIZE_GOAL ? 'met' : 'NOT met'})`,
+    );
     console.log(`  dist/client.js     ${kib(statSync(join(root, 'dist', 'client.js')).size)} unpacked`);
     console.log(`  dist/server.js     ${kib(statSync(join(root, 'dist', 'server.js')).size)} unpacked`);
 
-    console.log(`machine load         ${loadavg().map((x) => x.toFixed(1)).join(' / ')} (1/5/15-min load average; timings below are noisy when it exceeds the 2 cores)`);
+    console.log(
+      `machine load         ${loadavg()
+        .map((x) => x.toFixed(1))
+        .join(' / ')} (1/5/15-min load average; timings below are noisy when it exceeds the 2 cores)`,
+    );
     const loads = Array.from({ length: 7 }, requireTimeMs);
-    console.log(`require client.js    median ${median(loads).toFixed(1)} ms over ${loads.length} fresh Node ${process.version} processes (stand-in vscode module)`);
+    console.log(
+      `require client.js    median ${median(loads).toFixed(1)} ms over ${loads.length} fresh Node ${process.version} processes (stand-in vscode module)`,
+    );
 
     const runs = Math.max(1, Number(process.env.DEWMARK_BENCH_RUNS ?? 3));
     const t = await codeServerTimings(vsix, runs);
@@ -108,9 +127,15 @@ export async function benchExtension(): Promise<void> {
     }
     const a = median(t.activate);
     const each = (xs: number[]) => xs.map((x) => x.toFixed(1)).join(', ');
-    console.log(`activate()           median ${a.toFixed(1)} ms over ${runs} code-server run(s) [${each(t.activate)}]  (goal ≤ ${ACTIVATE_GOAL_MS} ms: ${a <= ACTIVATE_GOAL_MS ? 'met' : 'NOT met'})`);
-    console.log(`load → activate end  median ${median(t.sinceLoad).toFixed(1)} ms (from the bundle's first statement; includes the extension host's own work before it calls activate)`);
-    console.log(`server ready         median ${median(t.ready).toFixed(1)} ms after activate() (process start + initialize)`);
+    console.log(
+      `activate()           median ${a.toFixed(1)} ms over ${runs} code-server run(s) [${each(t.activate)}]  (goal ≤ ${ACTIVATE_GOAL_MS} ms: ${a <= ACTIVATE_GOAL_MS ? 'met' : 'NOT met'})`,
+    );
+    console.log(
+      `load → activate end  median ${median(t.sinceLoad).toFixed(1)} ms (from the bundle's first statement; includes the extension host's own work before it calls activate)`,
+    );
+    console.log(
+      `server ready         median ${median(t.ready).toFixed(1)} ms after activate() (process start + initialize)`,
+    );
   } finally {
     rmSync(work, { recursive: true, force: true });
   }

@@ -44,7 +44,9 @@ async function staleTables(): Promise<void> {
   const { staleTableDiagnostics } = await import('../shared-core/src/present/writtenTables');
   const parts: string[] = [];
   for (let i = 0; i < 20_000; i++) {
-    parts.push(`Zone ${i}:\n\n\`\`\`air\nstate Z${i}: db=${20 + (i % 5)}C rh=${40 + (i % 7)}%\n\`\`\`\n\n<!-- dewmark-results 00000000: generated from the air block above; refresh it, do not edit -->\n\n| state | db °C |\n|---|---|\n| Z${i} | 1 |\n\n<!-- dewmark-results end -->\n`);
+    parts.push(
+      `Zone ${i}:\n\n\`\`\`air\nstate Z${i}: db=${20 + (i % 5)}C rh=${40 + (i % 7)}%\n\`\`\`\n\n<!-- dewmark-results 00000000: generated from the air block above; refresh it, do not edit -->\n\n| state | db °C |\n|---|---|\n| Z${i} | 1 |\n\n<!-- dewmark-results end -->\n`,
+    );
   }
   const text = parts.join('\n');
   const analysis = analyzeNote(text.replace(/dewmark-results/g, 'dewmark-resultz'));
@@ -59,13 +61,23 @@ async function chart(): Promise<void> {
   for (const n of [8_000, 16_000]) {
     const random = rng(n);
     const points: Data['points'] = [];
-    for (let i = 0; i < n; i++) points.push({ name: `Z${i}`, kind: 'state', db: 5 + 30 * random(), w: 0.002 + 0.012 * random() });
+    for (let i = 0; i < n; i++)
+      points.push({ name: `Z${i}`, kind: 'state', db: 5 + 30 * random(), w: 0.002 + 0.012 * random() });
     const processes: Data['processes'] = [];
     for (let i = 0; i + 1 < n; i += 4) processes.push({ name: `P${i}`, from: `Z${i}`, to: `Z${i + 1}` });
     const stats = { visited: 0, candidates: 0 };
     let size = 0;
-    const s = seconds(() => (size = renderChartFromData({ pressurePa: 101_325, units: 'SI', points, mixes: [], processes, infeasible: [] }, {}, stats).length));
-    console.log(infoRow(`chart of ${n} states, ${processes.length} processes (${(size / 1e6).toFixed(1)} MB SVG)`, s, 's', 2));
+    const s = seconds(
+      () =>
+        (size = renderChartFromData(
+          { pressurePa: 101_325, units: 'SI', points, mixes: [], processes, infeasible: [] },
+          {},
+          stats,
+        ).length),
+    );
+    console.log(
+      infoRow(`chart of ${n} states, ${processes.length} processes (${(size / 1e6).toFixed(1)} MB SVG)`, s, 's', 2),
+    );
     console.log(infoRow(`  placement: grid entries visited per candidate`, stats.visited / stats.candidates, '', 1));
   }
 }
@@ -75,8 +87,15 @@ function peakRssMB(args: string[]): number | null {
   const dir = mkdtempSync(join(tmpdir(), 'dewmark-rss-'));
   try {
     const preload = join(dir, 'rss.cjs');
-    writeFileSync(preload, "process.on('exit', () => process.stderr.write(`[peak-rss ${process.resourceUsage().maxRSS}]\\n`));\n");
-    const r = spawnSync(process.execPath, ['--require', preload, cli, ...args], { encoding: 'utf8', maxBuffer: 1 << 30, env: { ...process.env, DEWMARK_WORKERS: '0' } });
+    writeFileSync(
+      preload,
+      "process.on('exit', () => process.stderr.write(`[peak-rss ${process.resourceUsage().maxRSS}]\\n`));\n",
+    );
+    const r = spawnSync(process.execPath, ['--require', preload, cli, ...args], {
+      encoding: 'utf8',
+      maxBuffer: 1 << 30,
+      env: { ...process.env, DEWMARK_WORKERS: '0' },
+    });
     const kb = Number(/\[peak-rss (\d+)\]/.exec(r.stderr)?.[1]);
     return Number.isFinite(kb) ? kb / 1024 : null;
   } finally {
@@ -113,7 +132,13 @@ function memoryPerByte(): void {
 /** Wall seconds of a whole process. */
 function runProcess(args: string[], input?: string): number {
   const t = process.hrtime.bigint();
-  const r = spawnSync(process.execPath, args, { encoding: 'utf8', maxBuffer: 1 << 30, input, stdio: ['pipe', 'ignore', 'pipe'], env: { ...process.env, DEWMARK_WORKERS: '0' } });
+  const r = spawnSync(process.execPath, args, {
+    encoding: 'utf8',
+    maxBuffer: 1 << 30,
+    input,
+    stdio: ['pipe', 'ignore', 'pipe'],
+    env: { ...process.env, DEWMARK_WORKERS: '0' },
+  });
   if (r.status !== 0 && r.status !== 1) throw new Error(`${args.join(' ')} failed: ${r.stderr}`);
   return Number(process.hrtime.bigint() - t) / 1e9;
 }
@@ -182,7 +207,7 @@ async function serverMemory(): Promise<void> {
   const lines = ['# Riverside campus (invented)', ''];
   for (let b = 0; b < 200; b++) {
     lines.push(`## Plant room ${b}`, '', '```air');
-    for (let k = 0; k < 8; k++) lines.push(`state R${b}_${k}: db=${18 + k}C rh=${40 + b % 30}%`);
+    for (let k = 0; k < 8; k++) lines.push(`state R${b}_${k}: db=${18 + k}C rh=${40 + (b % 30)}%`);
     lines.push('```', '');
   }
   const s = startServer();
@@ -193,12 +218,22 @@ async function serverMemory(): Promise<void> {
     await s.diagnosticsFor(uri, 1);
     const line = 5; // `state R0_0: db=18C …`: the digit after `db=1` is replaced back and forth
     for (let v = 2; v <= EDITS + 1; v++) {
-      await s.change(uri, v, [{ range: { start: { line, character: 16 }, end: { line, character: 17 } }, text: String(v % 10) }]);
+      await s.change(uri, v, [
+        { range: { start: { line, character: 16 }, end: { line, character: 17 } }, text: String(v % 10) },
+      ]);
       if (v % 50 === 0) await s.diagnosticsFor(uri, v);
     }
     await s.diagnosticsFor(uri, EDITS + 1);
     const pid = s.proc.pid;
-    console.log(goalRow(`server RSS after ${EDITS} edits of a ${lines.length}-line note (stdio, no V8 flags)`, pid ? rssOf(pid) : null, 'MB', 80, 1));
+    console.log(
+      goalRow(
+        `server RSS after ${EDITS} edits of a ${lines.length}-line note (stdio, no V8 flags)`,
+        pid ? rssOf(pid) : null,
+        'MB',
+        80,
+        1,
+      ),
+    );
     await s.shutdown();
   } finally {
     s.kill();

@@ -31,13 +31,31 @@ export function generateNote(statements: number, lines: number, seed = 1, staleE
   };
   const p = stdAtmPressure(1200);
   const wCoil = humRatioFromRelHum(12, 0.9, p);
-  const out: string[] = ['# Generated plant note', '', 'Prose that the reader skips.', '', '```air', 'site: elev=1200m', '```', ''];
+  const out: string[] = [
+    '# Generated plant note',
+    '',
+    'Prose that the reader skips.',
+    '',
+    '```air',
+    'site: elev=1200m',
+    '```',
+    '',
+  ];
   let made = 1;
   let block = 0;
   let states = 0;
   while (made < statements) {
     block++;
-    out.push(`## Block ${block}`, '', `Paragraph ${block} with \`inline code\` that is not a statement, and a table:`, '', '| a | b |', '|---|---|', '| 1 | 2 |', '');
+    out.push(
+      `## Block ${block}`,
+      '',
+      `Paragraph ${block} with \`inline code\` that is not a statement, and a table:`,
+      '',
+      '| a | b |',
+      '|---|---|',
+      '| 1 | 2 |',
+      '',
+    );
     out.push('```air');
     const n = Math.min(10, statements - made);
     const names: string[] = [];
@@ -65,10 +83,12 @@ export function generateNote(statements: number, lines: number, seed = 1, staleE
     }
     out.push('```', '');
   }
-  while (out.length < lines) out.push(out.length % 7 === 0 ? '' : 'More prose to reach the target length of the note, as a long calculation has.');
+  while (out.length < lines)
+    out.push(
+      out.length % 7 === 0 ? '' : 'More prose to reach the target length of the note, as a long calculation has.',
+    );
   return out.join('\n');
 }
-
 
 /** Runs `dewmark check` on `dir` `runs` times; wall-clock ms of each run and the summary line. */
 function timeCheck(dir: string, runs: number, env: NodeJS.ProcessEnv): { ms: number[]; summary: string } {
@@ -76,7 +96,11 @@ function timeCheck(dir: string, runs: number, env: NodeJS.ProcessEnv): { ms: num
   let summary = '';
   for (let i = 0; i < runs; i++) {
     const t0 = performance.now();
-    const r = spawnSync(process.execPath, [join(root, 'bin', 'dewmark.js'), 'check', dir], { encoding: 'utf8', maxBuffer: 1 << 28, env });
+    const r = spawnSync(process.execPath, [join(root, 'bin', 'dewmark.js'), 'check', dir], {
+      encoding: 'utf8',
+      maxBuffer: 1 << 28,
+      env,
+    });
     ms.push(performance.now() - t0);
     if (r.status === 2 || r.status === null) throw new Error(`dewmark check failed: ${r.stderr}`);
     summary = r.stdout.trim().split('\n').at(-1) ?? '';
@@ -91,7 +115,9 @@ export async function benchNotes(): Promise<void> {
   const lineCount = big.split('\n').length;
   const check = analyzeNote(big);
   const statementCount = check.parsed.statements.length;
-  console.log(`parse+evaluate: ${lineCount} lines, ${statementCount} statements, ${check.items.length} results, ${check.diagnostics.length} diagnostics`);
+  console.log(
+    `parse+evaluate: ${lineCount} lines, ${statementCount} statements, ${check.items.length} results, ${check.diagnostics.length} diagnostics`,
+  );
   // Warm-up first: the editor and the CLI run warmed code too.
   const full = timeRuns(() => analyzeNote(big), 31, 15);
   console.log(goalRow('parse+evaluate from scratch (median of 31)', median(full.wall), 'ms', 20));
@@ -112,7 +138,13 @@ export async function benchNotes(): Promise<void> {
   // Worst case: every claim stale, so every state carries a warning with its message.
   const stale = generateNote(2000, 10_000, 1, 1);
   const staleRuns = timeRuns(() => analyzeNote(stale), 15, 3);
-  console.log(infoRow(`  every claim stale (${analyzeNote(stale).diagnostics.length} diagnostics), median`, median(staleRuns.wall), 'ms'));
+  console.log(
+    infoRow(
+      `  every claim stale (${analyzeNote(stale).diagnostics.length} diagnostics), median`,
+      median(staleRuns.wall),
+      'ms',
+    ),
+  );
 
   // 2. `dewmark check` as a real process on 1000 notes of 200 statements.
   const cli = join(root, 'dist', 'cli.js');
@@ -122,7 +154,8 @@ export async function benchNotes(): Promise<void> {
   }
   const dir = mkdtempSync(join(tmpdir(), 'dewmark-bench-'));
   try {
-    for (let i = 0; i < 1000; i++) writeFileSync(join(dir, `note-${String(i).padStart(4, '0')}.md`), generateNote(200, 1000, i + 1));
+    for (let i = 0; i < 1000; i++)
+      writeFileSync(join(dir, `note-${String(i).padStart(4, '0')}.md`), generateNote(200, 1000, i + 1));
     const runs = timeCheck(dir, 5, process.env);
     console.log(`dewmark check: 1000 notes × 200 statements (${runs.summary})`);
     console.log(goalRow('dewmark check, as shipped (median of 5)', median(runs.ms) / 1000, 's', 2));

@@ -73,11 +73,15 @@ export function generateCalcNote(statements = 2000, lines = 10_000, seed = 7): s
       const kind = i % 9;
       if (kind === 0) out.push(`state ${z}_OA: db=${fixed(28, 35, 1)}C wb=${fixed(19, 24, 1)}C   # summer design`);
       else if (kind === 1) out.push(`state ${z}_RA: db=${fixed(22, 25, 1)}C rh=${Math.round(40 + rnd() * 15)}%±2`);
-      else if (kind === 2) out.push(`mix ${z}_MA: ${z}_OA ${Math.round(15 + rnd() * 20)}% + ${z}_RA ${Math.round(65 + rnd() * 20)}%`);
-      else if (kind === 3) out.push(`state ${z}_SA: db=${fixed(12, 14, 1)}C rh=${Math.round(88 + rnd() * 7)}% w=${fixed(8, 9.5, 2)}g/kg`);
+      else if (kind === 2)
+        out.push(`mix ${z}_MA: ${z}_OA ${Math.round(15 + rnd() * 20)}% + ${z}_RA ${Math.round(65 + rnd() * 20)}%`);
+      else if (kind === 3)
+        out.push(`state ${z}_SA: db=${fixed(12, 14, 1)}C rh=${Math.round(88 + rnd() * 7)}% w=${fixed(8, 9.5, 2)}g/kg`);
       else if (kind === 4) out.push(`process ${z}_CC: ${z}_MA -> ${z}_SA q=${fixed(0.5, 6, 2)}m3/s   # cooling coil`);
-      else if (kind === 5) out.push(`state ${z}_WO: db=${fixed(-8, 2, 1)}C rh=${Math.round(70 + rnd() * 20)}%   # winter outdoor`);
-      else if (kind === 6) out.push(`mix ${z}_WM: ${z}_WO ${fixed(300, 900, 0)}L/s + ${z}_RA ${fixed(1200, 3000, 0)}L/s`);
+      else if (kind === 5)
+        out.push(`state ${z}_WO: db=${fixed(-8, 2, 1)}C rh=${Math.round(70 + rnd() * 20)}%   # winter outdoor`);
+      else if (kind === 6)
+        out.push(`mix ${z}_WM: ${z}_WO ${fixed(300, 900, 0)}L/s + ${z}_RA ${fixed(1200, 3000, 0)}L/s`);
       else if (kind === 7) out.push(`state ${z}_HS: db=${fixed(28, 34, 1)}C w=${fixed(4, 6, 2)}g/kg`);
       else out.push(`process ${z}_HC: ${z}_WM → ${z}_HS m=${fixed(0.8, 3.5, 2)}kg/s q_total=${fixed(10, 60, 1)}kW`);
       made++;
@@ -115,7 +119,6 @@ function percentile(sorted: number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))] as number;
 }
 
-
 /** Flag of the child run that measures with a larger young generation (see benchParse). */
 const CHILD_FLAG = '--young-generation-run';
 
@@ -134,7 +137,10 @@ export async function benchParse(): Promise<void> {
     encoding: 'utf8',
   });
   if (child.status === 0) process.stdout.write(child.stdout);
-  else console.log(`  (the run with --max-semi-space-size=32 failed: ${child.stderr.trim().split('\n')[0] ?? child.status})`);
+  else
+    console.log(
+      `  (the run with --max-semi-space-size=32 failed: ${child.stderr.trim().split('\n')[0] ?? child.status})`,
+    );
 }
 
 async function measure(flags: string): Promise<void> {

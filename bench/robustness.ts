@@ -23,7 +23,14 @@ import {
   inlayHints,
   noteDiagnostics,
 } from '../shared-core/src/service';
-import { checkNote, note as noteArb, offsets, settings as settingsArb, spread, timeSummary } from '../shared-core/test/robustness-generators';
+import {
+  checkNote,
+  note as noteArb,
+  offsets,
+  settings as settingsArb,
+  spread,
+  timeSummary,
+} from '../shared-core/test/robustness-generators';
 import { PUSH_ONLY_CAPABILITIES, startServer, type Position, type Published } from '../test/protocol/harness';
 
 /** A big note and a cursor inside it (offset of a state name) for the per-request figures. */
@@ -119,7 +126,10 @@ function inMemory(n: BigNote): void {
   for (let k = 0; k < 60 && windowEnd >= 0; k++) windowEnd = n.text.indexOf('\n', windowEnd + 1);
   if (windowEnd < 0) windowEnd = n.text.length;
   // A one-line note has no 60-line window: ask for 4 KB around the cursor, as an editor would for a visible part.
-  const window = windowEnd - lineAt > 8192 ? { start: Math.max(0, n.cursor - 2048), end: n.cursor + 2048 } : { start: lineAt, end: windowEnd };
+  const window =
+    windowEnd - lineAt > 8192
+      ? { start: Math.max(0, n.cursor - 2048), end: n.cursor + 2048 }
+      : { start: lineAt, end: windowEnd };
   const feature = (f: () => unknown) => median([0, 1, 2, 3, 4].map(() => time(f).ms));
   const diag = feature(() => noteDiagnostics(note));
   const hints = feature(() => inlayHints(note, window));
@@ -143,7 +153,10 @@ function inMemory(n: BigNote): void {
 async function throughServer(n: BigNote, limitKB?: number): Promise<void> {
   const s = startServer();
   try {
-    await s.initialize(PUSH_ONLY_CAPABILITIES, limitKB === undefined ? {} : { initializationOptions: { dewmark: { maxNoteSizeKB: limitKB } } });
+    await s.initialize(
+      PUSH_ONLY_CAPABILITIES,
+      limitKB === undefined ? {} : { initializationOptions: { dewmark: { maxNoteSizeKB: limitKB } } },
+    );
     const uri = `file:///bench/robustness-${n.label.replace(/\W+/g, '-')}.md`;
     let t0 = process.hrtime.bigint();
     await s.open(uri, n.text, 1);
@@ -166,7 +179,9 @@ async function throughServer(n: BigNote, limitKB?: number): Promise<void> {
       await s.change(uri, version, [{ range: { start: editPos, end: { line, character: col + 2 } }, text: next }]);
       current = next;
       const th = process.hrtime.bigint();
-      const hv = s.request('textDocument/hover', { textDocument: { uri }, position: pos }).then(() => hovers.push(ms(th)));
+      const hv = s
+        .request('textDocument/hover', { textDocument: { uri }, position: pos })
+        .then(() => hovers.push(ms(th)));
       await s.diagnosticsFor(uri, version);
       edits.push(ms(t0));
       await hv;
@@ -211,9 +226,17 @@ function fuzzThroughput(): void {
 function suggestionAttacks(): void {
   const long = `N${'ab'.repeat(25_000)}`;
   const filler = Array.from({ length: 1200 }, (_, i) => `state F${i}: db=${20 + (i % 9)}C rh=${30 + (i % 40)}%`);
-  const longNote = ['```air', `state ${long}: db=24C rh=50%`, `process P: ${long.slice(0, -1)}x -> ${long}`, ...filler, '```', ''].join('\n');
+  const longNote = [
+    '```air',
+    `state ${long}: db=24C rh=50%`,
+    `process P: ${long.slice(0, -1)}x -> ${long}`,
+    ...filler,
+    '```',
+    '',
+  ].join('\n');
   const many: string[] = ['```air'];
-  for (let i = 0; i < 4000; i++) many.push(`state S${i}: db=${20 + (i % 9)}C rh=${30 + (i % 40)}%`, `process P${i}: Q${i}x -> S${i}`);
+  for (let i = 0; i < 4000; i++)
+    many.push(`state S${i}: db=${20 + (i % 9)}C rh=${30 + (i % 40)}%`, `process P${i}: Q${i}x -> S${i}`);
   many.push('```', '');
   const manyNote = many.join('\n');
   const settings = { ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 0 };
@@ -226,8 +249,9 @@ function suggestionAttacks(): void {
     const unknown = runs[0]!.value.analysis.diagnostics.filter((d) => d.code === 'unknown-name');
     const suggested = unknown.filter((d) => d.message.includes('did you mean')).length;
     console.log(
-      `did you mean: ${label.padEnd(20)} ${size(text).padStart(8)}  analyse ${median(runs.map((r) => r.ms)).toFixed(0).padStart(5)} ms (median of 3); ` +
-        `${unknown.length} unknown names, ${suggested} with a suggestion`,
+      `did you mean: ${label.padEnd(20)} ${size(text).padStart(8)}  analyse ${median(runs.map((r) => r.ms))
+        .toFixed(0)
+        .padStart(5)} ms (median of 3); ` + `${unknown.length} unknown names, ${suggested} with a suggestion`,
     );
   }
 }

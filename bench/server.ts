@@ -38,7 +38,10 @@ interface Launch {
 /** The server as the VS Code client starts it: dist/server.js forked with node IPC and the client's execArgv. */
 function startAsVsCode(): Session {
   const root = repoRoot();
-  const proc = spawn(process.execPath, [...SERVER_EXEC_ARGV, join(root, 'dist', 'server.js'), '--node-ipc'], { cwd: root, stdio: ['pipe', 'pipe', 'pipe', 'ipc'] });
+  const proc = spawn(process.execPath, [...SERVER_EXEC_ARGV, join(root, 'dist', 'server.js'), '--node-ipc'], {
+    cwd: root,
+    stdio: ['pipe', 'pipe', 'pipe', 'ipc'],
+  });
   return new Session(proc, createMessageConnection(new IPCMessageReader(proc), new IPCMessageWriter(proc)));
 }
 
@@ -55,7 +58,10 @@ export function generateNote(): { text: string; stateLines: number[]; lineCount:
   const proseLines = Math.floor((LINES - 2 - blocks * 16) / blocks);
   for (let b = 0; b < blocks; b++) {
     lines.push(`## Plant room ${b + 1}`, '');
-    for (let p = 0; p < proseLines; p++) lines.push(`Design note ${b + 1}.${p + 1}: the unit serves zone ${(b % 17) + 1}; figures below are checked on save.`);
+    for (let p = 0; p < proseLines; p++)
+      lines.push(
+        `Design note ${b + 1}.${p + 1}: the unit serves zone ${(b % 17) + 1}; figures below are checked on save.`,
+      );
     lines.push('', '```air');
     const n = (k: number) => `B${b}_${k}`;
     const db = 20 + (b % 15);
@@ -78,7 +84,7 @@ export function generateNote(): { text: string; stateLines: number[]; lineCount:
     lines.push('```', '');
   }
   while (lines.length < LINES) lines.push('Closing remarks on the plant.');
-  return { text: lines.join('\n') + '\n', stateLines, lineCount: lines.length };
+  return { text: `${lines.join('\n')}\n`, stateLines, lineCount: lines.length };
 }
 
 function rssMB(pid: number): number | null {
@@ -175,10 +181,15 @@ async function benchOne(launch: Launch, note: ReturnType<typeof generateNote>): 
     const lineText = text.split('\n')[line]!;
     const col = lineText.indexOf('db=') + 4; // second digit of the temperature
     const at = (c: number): Position => ({ line, character: c });
-    const replaced = await timeEdits(session, uri, 1, (i) => ({ range: { start: at(col), end: at(col + 1) }, text: String((Number(lineText[col]) + i + 1) % 10) }));
+    const replaced = await timeEdits(session, uri, 1, (i) => ({
+      range: { start: at(col), end: at(col + 1) },
+      text: String((Number(lineText[col]) + i + 1) % 10),
+    }));
     const rssAfterEdits = pid ? rssMB(pid) : null;
     const typed = await timeEdits(session, uri, replaced.version, (i) =>
-      i % 2 === 0 ? { range: { start: at(col + 1), end: at(col + 1) }, text: '5' } : { range: { start: at(col + 1), end: at(col + 2) }, text: '' },
+      i % 2 === 0
+        ? { range: { start: at(col + 1), end: at(col + 1) }, text: '5' }
+        : { range: { start: at(col + 1), end: at(col + 2) }, text: '' },
     );
     const rssAfterTyping = pid ? rssMB(pid) : null;
 
@@ -188,7 +199,10 @@ async function benchOne(launch: Launch, note: ReturnType<typeof generateNote>): 
       const l = stateLines[(i * 37) % stateLines.length]!;
       const position: Position = { line: l, character: 7 };
       const t0 = process.hrtime.bigint();
-      const h = await session.request<{ contents: { value: string } } | null>('textDocument/hover', { textDocument: { uri }, position });
+      const h = await session.request<{ contents: { value: string } } | null>('textDocument/hover', {
+        textDocument: { uri },
+        position,
+      });
       if (i >= 20) hovers.push(ms(t0));
       if (!h) throw new Error(`no hover at line ${l}`);
     }
@@ -200,7 +214,10 @@ async function benchOne(launch: Launch, note: ReturnType<typeof generateNote>): 
       const t0 = process.hrtime.bigint();
       const r = await session.request<unknown[]>('textDocument/inlayHint', {
         textDocument: { uri },
-        range: { start: { line: Math.max(0, start), character: 0 }, end: { line: Math.max(0, start) + 60, character: 0 } },
+        range: {
+          start: { line: Math.max(0, start), character: 0 },
+          end: { line: Math.max(0, start) + 60, character: 0 },
+        },
       });
       if (i >= 20) hints.push(ms(t0));
       if (!Array.isArray(r) || r.length === 0) throw new Error('no inlay hints in a range with statements');
@@ -220,7 +237,9 @@ async function benchOne(launch: Launch, note: ReturnType<typeof generateNote>): 
     console.log(goalRow(`  server RSS after ${EDITS} digits replaced`, rssAfterEdits, 'MB', 80, 1));
     console.log(goalRow(`  server RSS after ${EDITS} more typed/deleted`, rssAfterTyping, 'MB', 80, 1));
     console.log(goalRow('  server RSS after all the runs', rss, 'MB', 80, 1));
-    console.log(`  spread: hover p90 ${percentile(hovers, 0.9).toFixed(3)} ms, hints p90 ${percentile(hints, 0.9).toFixed(2)} ms, cold max ${Math.max(...colds).toFixed(1)} ms`);
+    console.log(
+      `  spread: hover p90 ${percentile(hovers, 0.9).toFixed(3)} ms, hints p90 ${percentile(hints, 0.9).toFixed(2)} ms, cold max ${Math.max(...colds).toFixed(1)} ms`,
+    );
     await session.shutdown();
   } finally {
     session.kill();

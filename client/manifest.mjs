@@ -43,13 +43,36 @@ export const fields = {
   bugs: { url: 'https://github.com/dewmark/dewmark/issues' },
   // The npm package (`npm i dewmark`): the two commands and their bundles. The .vsix is packed by
   // .vscodeignore instead (vsce reads that first), from the same manifest and version.
-  files: ['bin/', 'dist/cli.js', 'dist/server.js', 'dist/THIRD-PARTY-NOTICES.md', 'README.md', 'CHANGELOG.md', 'SECURITY.md', 'LICENSE', 'ci/', 'action.yml', '.pre-commit-hooks.yaml', 'schema/'],
+  files: [
+    'bin/',
+    'dist/cli.js',
+    'dist/server.js',
+    'dist/THIRD-PARTY-NOTICES.md',
+    'README.md',
+    'CHANGELOG.md',
+    'SECURITY.md',
+    'LICENSE',
+    'ci/',
+    'action.yml',
+    '.pre-commit-hooks.yaml',
+    'schema/',
+  ],
   main: './dist/client.js',
   icon: 'images/icon.png',
   galleryBanner: { color: '#0b2f45', theme: 'dark' },
   preview: true,
   categories: ['Linters', 'Programming Languages', 'Other'],
-  keywords: ['psychrometrics', 'moist air', 'HVAC', 'humidity', 'dew point', 'enthalpy', 'markdown', 'engineering', 'calculation notes'],
+  keywords: [
+    'psychrometrics',
+    'moist air',
+    'HVAC',
+    'humidity',
+    'dew point',
+    'enthalpy',
+    'markdown',
+    'engineering',
+    'calculation notes',
+  ],
   extensionKind: ['workspace'],
   activationEvents: ['onLanguage:markdown'],
   capabilities: {
@@ -68,11 +91,14 @@ export const fields = {
           order: 1,
           type: 'string',
           enum: ['SI', 'IP'],
-          enumDescriptions: ['SI: °C, kPa, kJ/kg (dry air h = 0 at 0 °C)', 'IP: °F, psia, Btu/lb (dry air h = 0 at 0 °F)'],
+          enumDescriptions: [
+            'SI: °C, kPa, kJ/kg (dry air h = 0 at 0 °C)',
+            'IP: °F, psia, Btu/lb (dry air h = 0 at 0 °F)',
+          ],
           default: 'SI',
           scope: 'resource',
           markdownDescription:
-            'Unit system of the results (hovers, inline hints, messages) in notes without a `units:` line. A note\'s own `units: SI` or `units: IP` line wins. Input may mix units freely.',
+            "Unit system of the results (hovers, inline hints, messages) in notes without a `units:` line. A note's own `units: SI` or `units: IP` line wins. Input may mix units freely.",
         },
         'dewmark.pressure': {
           order: 2,
@@ -107,7 +133,8 @@ export const fields = {
           maximum: 4,
           default: 0,
           scope: 'resource',
-          markdownDescription: 'Decimals shown beyond each quantity\'s usual engineering precision in hovers and inline hints (0 = the usual precision, up to 4).',
+          markdownDescription:
+            "Decimals shown beyond each quantity's usual engineering precision in hovers and inline hints (0 = the usual precision, up to 4).",
         },
         'dewmark.checkClaims': {
           order: 6,
@@ -115,7 +142,7 @@ export const fields = {
           default: true,
           scope: 'resource',
           markdownDescription:
-            'Compare every property written beyond a state\'s defining pair (a claim) with the computed value, and warn when they differ by more than the written precision.',
+            "Compare every property written beyond a state's defining pair (a claim) with the computed value, and warn when they differ by more than the written precision.",
         },
         'dewmark.hover.secondaryUnits': {
           order: 7,
@@ -137,10 +164,11 @@ export const fields = {
           order: 9,
           type: 'string',
           enum: ['off', 'messages', 'verbose'],
-          enumDescriptions: ['No trace.', 'Each message\'s name.', 'Each message with its content.'],
+          enumDescriptions: ['No trace.', "Each message's name.", 'Each message with its content.'],
           default: 'off',
           scope: 'window',
-          markdownDescription: 'Traces the messages between VS Code and the Dewmark language server into Output → Dewmark (for bug reports).',
+          markdownDescription:
+            'Traces the messages between VS Code and the Dewmark language server into Output → Dewmark (for bug reports).',
         },
       },
     },
@@ -202,9 +230,16 @@ function main() {
   const want = { ...manifest, ...fields, scripts: { ...(manifest.scripts ?? {}), ...scripts } };
 
   if (process.argv.includes('--check')) {
-    const wrong = [...Object.keys(fields).filter((k) => !isDeepStrictEqual(manifest[k], fields[k])), ...Object.keys(scripts).filter((k) => manifest.scripts?.[k] !== scripts[k]).map((k) => `scripts.${k}`)];
+    const wrong = [
+      ...Object.keys(fields).filter((k) => !isDeepStrictEqual(manifest[k], fields[k])),
+      ...Object.keys(scripts)
+        .filter((k) => manifest.scripts?.[k] !== scripts[k])
+        .map((k) => `scripts.${k}`),
+    ];
     if (wrong.length > 0) {
-      console.error(`package.json differs from client/manifest.mjs in: ${wrong.join(', ')}. Run: node client/manifest.mjs`);
+      console.error(
+        `package.json differs from client/manifest.mjs in: ${wrong.join(', ')}. Run: node client/manifest.mjs`,
+      );
       process.exit(1);
     }
     console.log('package.json holds the extension manifest fields of client/manifest.mjs');

@@ -11,7 +11,16 @@
  *   node client/package-vsix.mjs [--no-build] [--out FILE]
  */
 import { spawnSync } from 'node:child_process';
-import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import {
+  copyFileSync,
+  existsSync,
+  mkdirSync,
+  mkdtempSync,
+  readFileSync,
+  rmSync,
+  statSync,
+  writeFileSync,
+} from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -20,7 +29,8 @@ const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const manifest = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8'));
 const args = process.argv.slice(2);
 const outIdx = args.indexOf('--out');
-const out = outIdx >= 0 && args[outIdx + 1] ? resolve(args[outIdx + 1]) : join(root, `${manifest.name}-${manifest.version}.vsix`);
+const out =
+  outIdx >= 0 && args[outIdx + 1] ? resolve(args[outIdx + 1]) : join(root, `${manifest.name}-${manifest.version}.vsix`);
 /** Goal for the package size (issue: ≤ 1 MB). */
 const SIZE_GOAL = 1024 * 1024;
 
@@ -35,7 +45,9 @@ function run(cmd, argv, cwd = root) {
 
 if (!args.includes('--no-build')) {
   if (!existsSync(join(root, 'scripts', 'build.mjs'))) {
-    console.error('package: scripts/build.mjs is missing, so dist/ cannot be built; pass --no-build to pack an existing dist/.');
+    console.error(
+      'package: scripts/build.mjs is missing, so dist/ cannot be built; pass --no-build to pack an existing dist/.',
+    );
     process.exit(1);
   }
   run(process.execPath, [join(root, 'scripts', 'build.mjs')]);
@@ -78,5 +90,14 @@ try {
 } finally {
   rmSync(stage, { recursive: true, force: true });
 }
-console.log(`package: ${relative(process.cwd(), out) || out}: ${(size / 1024).toFixed(1)} KiB (goal ≤ ${SIZE_GOAL / 1024} KiB: ${size <= SIZE_GOAL ? 'met' : 'NOT met'})`);
-if (list.status === 0) console.log(`package: files:\n${list.stdout.trim().split('\n').map((l) => `  ${l}`).join('\n')}`);
+console.log(
+  `package: ${relative(process.cwd(), out) || out}: ${(size / 1024).toFixed(1)} KiB (goal ≤ ${SIZE_GOAL / 1024} KiB: ${size <= SIZE_GOAL ? 'met' : 'NOT met'})`,
+);
+if (list.status === 0)
+  console.log(
+    `package: files:\n${list.stdout
+      .trim()
+      .split('\n')
+      .map((l) => `  ${l}`)
+      .join('\n')}`,
+  );

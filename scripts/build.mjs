@@ -11,7 +11,8 @@ import { fileURLToPath } from 'node:url';
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 // `--outdir DIR` writes the bundles and notices to DIR instead of dist/ (the package test uses it).
 const outdirArg = process.argv.indexOf('--outdir');
-const outdir = outdirArg >= 0 && process.argv[outdirArg + 1] ? resolve(process.argv[outdirArg + 1]) : join(root, 'dist');
+const outdir =
+  outdirArg >= 0 && process.argv[outdirArg + 1] ? resolve(process.argv[outdirArg + 1]) : join(root, 'dist');
 const pkg = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8'));
 
 /** Settings every bundle shares. */
@@ -60,12 +61,20 @@ for (const t of targets) {
   }
   try {
     const minify = t.minify ? { minifyWhitespace: true, minifySyntax: true } : {};
-    const result = await build({ ...common, ...minify, entryPoints: [entry], outfile: join(outdir, t.out.replace(/^dist\//, '')), external: t.external ?? [] });
+    const result = await build({
+      ...common,
+      ...minify,
+      entryPoints: [entry],
+      outfile: join(outdir, t.out.replace(/^dist\//, '')),
+      external: t.external ?? [],
+    });
     metafiles.set(t.out.replace(/^dist\//, ''), result.metafile);
     console.error(`built ${t.out}`);
   } catch (err) {
     failed++;
-    console.error(`build: ${t.out} failed${err instanceof Error && !err.message.includes('Build failed') ? `: ${err.message}` : ''}`);
+    console.error(
+      `build: ${t.out} failed${err instanceof Error && !err.message.includes('Build failed') ? `: ${err.message}` : ''}`,
+    );
   }
 }
 if (failed === 0) {

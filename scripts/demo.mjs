@@ -34,7 +34,11 @@ rule('3. Checking both notes, as CI would');
 console.log('The meeting-room note has a DELIBERATE stale claim (rh=45%) and a DELIBERATE');
 console.log('infeasible state (wet-bulb above dry-bulb), so this check reports them and exits 1.\n');
 const code = dewmark(['check', 'examples']);
-console.log(code === 1 ? '\nAs intended: the check found the deliberate problems (exit 1).' : `\nUnexpected exit code ${code}: the examples should give exactly the deliberate problems.`);
+console.log(
+  code === 1
+    ? '\nAs intended: the check found the deliberate problems (exit 1).'
+    : `\nUnexpected exit code ${code}: the examples should give exactly the deliberate problems.`,
+);
 
 rule('4. The same check as JSON (first lines)');
 const r = spawnSync(process.execPath, [bin, 'check', '--format', 'json', 'examples'], { cwd: root, encoding: 'utf8' });

@@ -25,7 +25,16 @@ console.log(
 const build = spawnSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, stdio: 'inherit' });
 if (build.status !== 0) process.exit(build.status ?? 1);
 
-const files = ['shared-core/test/robustness-fuzz.test.ts', 'shared-core/test/robustness-edits.test.ts', 'test/protocol/robustness.test.ts'];
-const run = spawnSync(process.execPath, [join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', ...files], { cwd: root, env, stdio: 'inherit' });
-if (run.status !== 0) console.error(`fuzz: failed; repeat with DEWMARK_FUZZ_SEED=${env.DEWMARK_FUZZ_SEED} npm run fuzz`);
+const files = [
+  'shared-core/test/robustness-fuzz.test.ts',
+  'shared-core/test/robustness-edits.test.ts',
+  'test/protocol/robustness.test.ts',
+];
+const run = spawnSync(process.execPath, [join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', ...files], {
+  cwd: root,
+  env,
+  stdio: 'inherit',
+});
+if (run.status !== 0)
+  console.error(`fuzz: failed; repeat with DEWMARK_FUZZ_SEED=${env.DEWMARK_FUZZ_SEED} npm run fuzz`);
 process.exit(run.status ?? 1);

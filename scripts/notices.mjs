@@ -33,8 +33,11 @@ export function thirdPartyNotices(root, metafiles) {
   for (const [dir, bundles] of bundledPackages(metafiles)) {
     const abs = join(root, dir);
     const pkg = JSON.parse(readFileSync(join(abs, 'package.json'), 'utf8'));
-    const files = readdirSync(abs).filter((f) => LICENCE_FILE.test(f)).sort();
-    if (files.length === 0) throw new Error(`${pkg.name}@${pkg.version} (${dir}) is bundled but has no licence file to copy`);
+    const files = readdirSync(abs)
+      .filter((f) => LICENCE_FILE.test(f))
+      .sort();
+    if (files.length === 0)
+      throw new Error(`${pkg.name}@${pkg.version} (${dir}) is bundled but has no licence file to copy`);
     const licence = typeof pkg.license === 'string' ? pkg.license : (pkg.license?.type ?? 'see the text below');
     const texts = files.map((f) => readFileSync(join(abs, f), 'utf8').replace(/\r\n/g, '\n').trim());
     entries.push({ name: pkg.name, version: pkg.version, licence, bundles: [...bundles].sort(), texts });

@@ -89,7 +89,8 @@ function packageNames(): Map<string, string> {
 function nodeOf(path: string): string | null {
   const parts = path.split('/');
   // `shared-core/src/evaluate/mix.ts`, or `shared-core/src/evaluate` itself (an import of its index).
-  if (parts[0] === 'shared-core' && parts[1] === 'src') return parts.length > 3 || (parts.length === 3 && !parts[2]!.includes('.')) ? `${parts[2]}/` : null;
+  if (parts[0] === 'shared-core' && parts[1] === 'src')
+    return parts.length > 3 || (parts.length === 3 && !parts[2]!.includes('.')) ? `${parts[2]}/` : null;
   return (PACKAGE_DIRS as readonly string[]).includes(parts[0]!) ? `${parts[0]}/` : null;
 }
 
@@ -100,7 +101,9 @@ const CORE_NAME = '@dewmark/core';
 function targetOf(path: string, spec: string, names: Map<string, string>): { token: string } | { problem: string } {
   const from = nodeOf(path)!;
   if (spec.startsWith('.')) {
-    const to = relative(root, join(root, dirname(path), spec)).split('\\').join('/');
+    const to = relative(root, join(root, dirname(path), spec))
+      .split('\\')
+      .join('/');
     const target = nodeOf(to);
     if (target === null) return { problem: `${path} imports '${spec}', outside every package's sources` };
     if (target === from) return { token: from };
@@ -113,7 +116,8 @@ function targetOf(path: string, spec: string, names: Map<string, string>): { tok
   if (spec.startsWith(NODE) || BUILTINS.has(spec.split('/')[0]!)) return { token: NODE };
   if (spec === CORE_NAME || spec.startsWith(`${CORE_NAME}/`)) {
     const layer = spec.slice(CORE_NAME.length + 1);
-    if (!/^[a-z]+$/.test(layer)) return { problem: `${path} imports '${spec}'; import a layer by its entry point, '${CORE_NAME}/<layer>'` };
+    if (!/^[a-z]+$/.test(layer))
+      return { problem: `${path} imports '${spec}'; import a layer by its entry point, '${CORE_NAME}/<layer>'` };
     return { token: `${layer}/` };
   }
   const parts = spec.split('/');
@@ -128,19 +132,26 @@ interface Checked {
 }
 
 /** Checks the imports of `files` against `map`. */
-function checkImports(files: { path: string; text: string }[], map: DependencyMap, names: Map<string, string>): Checked {
+function checkImports(
+  files: { path: string; text: string }[],
+  map: DependencyMap,
+  names: Map<string, string>,
+): Checked {
   const violations: string[] = [];
   const used: DependencyMap = new Map();
   const nameToNode = new Map([...names].map(([dir, name]) => [name, dir]));
   for (const { path, text } of files) {
     const node = nodeOf(path);
     if (node === null) {
-      if (path.startsWith(`${CORE_SRC}/`)) violations.push(`${path} is in no layer of the core; put it in the layer it belongs to`);
+      if (path.startsWith(`${CORE_SRC}/`))
+        violations.push(`${path} is in no layer of the core; put it in the layer it belongs to`);
       continue;
     }
     const allowed = map.get(node);
     if (!allowed) {
-      violations.push(`${path}: '${node}' has no row in ARCHITECTURE.md's tables; add one saying what it does and imports`);
+      violations.push(
+        `${path}: '${node}' has no row in ARCHITECTURE.md's tables; add one saying what it does and imports`,
+      );
       continue;
     }
     for (const spec of importsOf(text)) {
@@ -152,7 +163,8 @@ function checkImports(files: { path: string; text: string }[], map: DependencyMa
       if (t.token === node || nameToNode.get(t.token) === node) continue;
       if (!used.has(node)) used.set(node, new Set());
       used.get(node)!.add(t.token);
-      if (!allowed.has(t.token)) violations.push(`${path} imports '${spec}', but ARCHITECTURE.md does not let '${node}' import '${t.token}'`);
+      if (!allowed.has(t.token))
+        violations.push(`${path} imports '${spec}', but ARCHITECTURE.md does not let '${node}' import '${t.token}'`);
     }
   }
   return { violations, used };
@@ -162,7 +174,9 @@ function checkImports(files: { path: string; text: string }[], map: DependencyMa
 function unusedEntries(map: DependencyMap, used: DependencyMap): string[] {
   const out: string[] = [];
   for (const [node, deps] of map) {
-    for (const d of deps) if (!used.get(node)?.has(d)) out.push(`ARCHITECTURE.md lets '${node}' import '${d}', but none of its files does; remove it from the table`);
+    for (const d of deps)
+      if (!used.get(node)?.has(d))
+        out.push(`ARCHITECTURE.md lets '${node}' import '${d}', but none of its files does; remove it from the table`);
   }
   return out;
 }
@@ -196,7 +210,9 @@ function findCycle(map: DependencyMap, names: Map<string, string>): string[] | n
 const shipped = [CORE_SRC, ...PACKAGE_DIRS.map((d) => `${d}/src`)];
 
 function shippedFiles(): { path: string; text: string }[] {
-  return shipped.flatMap((dir) => sourcesUnder(dir)).map((f) => ({ path: relative(root, f).split('\\').join('/'), text: readFileSync(f, 'utf8') }));
+  return shipped
+    .flatMap((dir) => sourcesUnder(dir))
+    .map((f) => ({ path: relative(root, f).split('\\').join('/'), text: readFileSync(f, 'utf8') }));
 }
 
 /** Ways to run text as code: eval, the Function constructor, the vm module, setTimeout/setInterval with a string. */
@@ -246,9 +262,21 @@ describe('the dependency map of ARCHITECTURE.md', () => {
   it('the core and the protocol import no Node module and no editor package; only the server knows LSP, only the client VS Code', () => {
     for (const [node, deps] of map) {
       const isCore = existsSync(join(root, CORE_SRC, node));
-      if (isCore || node === 'protocol/') expect([...deps].filter((d) => d === NODE || /^(vscode|@vscode\/)/.test(d)), node).toEqual([]);
-      if (node !== 'server/') expect([...deps].filter((d) => d.startsWith('vscode-languageserver')), node).toEqual([]);
-      if (node !== 'client/') expect([...deps].filter((d) => d === 'vscode' || d.startsWith('vscode-languageclient')), node).toEqual([]);
+      if (isCore || node === 'protocol/')
+        expect(
+          [...deps].filter((d) => d === NODE || /^(vscode|@vscode\/)/.test(d)),
+          node,
+        ).toEqual([]);
+      if (node !== 'server/')
+        expect(
+          [...deps].filter((d) => d.startsWith('vscode-languageserver')),
+          node,
+        ).toEqual([]);
+      if (node !== 'client/')
+        expect(
+          [...deps].filter((d) => d === 'vscode' || d.startsWith('vscode-languageclient')),
+          node,
+        ).toEqual([]);
     }
   });
 });
@@ -262,7 +290,8 @@ describe('each rule of the map can fail', () => {
     if (token === NODE) return 'node:fs';
     return names.get(token) ?? token;
   }
-  const fileIn = (node: string) => (existsSync(join(root, CORE_SRC, node)) ? `${CORE_SRC}/${node}made-up.ts` : `${node}src/made-up.ts`);
+  const fileIn = (node: string) =>
+    existsSync(join(root, CORE_SRC, node)) ? `${CORE_SRC}/${node}made-up.ts` : `${node}src/made-up.ts`;
 
   it('an import outside its row is reported, for every row and every other module, Node and an editor package', () => {
     const missed: string[] = [];
@@ -282,39 +311,65 @@ describe('each rule of the map can fail', () => {
   });
 
   it('each kind of import is seen: import type, export from, import(), require(), side-effect import', () => {
-    const kinds = ["import type { A } from 'vscode';", "export { b } from 'vscode';", "const c = await import('vscode');", "const d = require('vscode');", "import 'vscode';"];
-    for (const text of kinds) expect(checkImports([{ path: `${CORE_SRC}/units/made-up.ts`, text }], map, names).violations, text).toHaveLength(1);
+    const kinds = [
+      "import type { A } from 'vscode';",
+      "export { b } from 'vscode';",
+      "const c = await import('vscode');",
+      "const d = require('vscode');",
+      "import 'vscode';",
+    ];
+    for (const text of kinds)
+      expect(checkImports([{ path: `${CORE_SRC}/units/made-up.ts`, text }], map, names).violations, text).toHaveLength(
+        1,
+      );
     // Words that only look like imports are not.
     const innocent = "// import x from 'vscode'\nconst s = \"import y from 'vscode'\";\n";
     expect(checkImports([{ path: `${CORE_SRC}/units/made-up.ts`, text: innocent }], map, names).violations).toEqual([]);
   });
 
   it('a relative import into another package is reported, even where the dependency is allowed', () => {
-    const client = { path: 'client/src/made-up.ts', text: "import { SETTINGS_SECTION } from '../../protocol/src/index';\n" };
+    const client = {
+      path: 'client/src/made-up.ts',
+      text: "import { SETTINGS_SECTION } from '../../protocol/src/index';\n",
+    };
     expect(checkImports([client], map, names).violations).toEqual([
       "client/src/made-up.ts imports '../../protocol/src/index' by a relative path into another package; import '@dewmark/protocol' instead",
     ]);
-    const cli = { path: 'cli/src/made-up.ts', text: "import { parseNote } from '../../shared-core/src/notation/parse';\n" };
+    const cli = {
+      path: 'cli/src/made-up.ts',
+      text: "import { parseNote } from '../../shared-core/src/notation/parse';\n",
+    };
     expect(checkImports([cli], map, names).violations[0]).toContain("import '@dewmark/core/notation' instead");
   });
 
   it('a file inside a layer instead of its entry point is reported', () => {
-    const file = { path: 'cli/src/made-up.ts', text: "import type { Analysis } from '@dewmark/core/evaluate/types';\n" };
-    expect(checkImports([file], map, names).violations[0]).toContain("import a layer by its entry point, '@dewmark/core/<layer>'");
+    const file = {
+      path: 'cli/src/made-up.ts',
+      text: "import type { Analysis } from '@dewmark/core/evaluate/types';\n",
+    };
+    expect(checkImports([file], map, names).violations[0]).toContain(
+      "import a layer by its entry point, '@dewmark/core/<layer>'",
+    );
   });
 
   it('a folder without a row, or a core file in no layer, is reported', () => {
     const file = { path: `${CORE_SRC}/newlayer/made-up.ts`, text: "import { x } from '../text/index';\n" };
-    expect(checkImports([file], map, names).violations[0]).toContain("'newlayer/' has no row in ARCHITECTURE.md's tables");
+    expect(checkImports([file], map, names).violations[0]).toContain(
+      "'newlayer/' has no row in ARCHITECTURE.md's tables",
+    );
     const loose = { path: `${CORE_SRC}/index.ts`, text: "export { parseNote } from './notation/index';\n" };
-    expect(checkImports([loose], map, names).violations).toEqual([`${CORE_SRC}/index.ts is in no layer of the core; put it in the layer it belongs to`]);
+    expect(checkImports([loose], map, names).violations).toEqual([
+      `${CORE_SRC}/index.ts is in no layer of the core; put it in the layer it belongs to`,
+    ]);
   });
 
   it('a listed dependency nothing uses is reported', () => {
     const more: DependencyMap = new Map([...map].map(([n, d]) => [n, new Set(d)]));
     more.get('physics/')!.add('text/');
     const used = checkImports(shippedFiles(), more, names).used;
-    expect(unusedEntries(more, used)).toEqual(["ARCHITECTURE.md lets 'physics/' import 'text/', but none of its files does; remove it from the table"]);
+    expect(unusedEntries(more, used)).toEqual([
+      "ARCHITECTURE.md lets 'physics/' import 'text/', but none of its files does; remove it from the table",
+    ]);
   });
 
   it('a cycle is reported, also through a package name', () => {
@@ -330,7 +385,14 @@ describe('each rule of the map can fail', () => {
   });
 
   it('the table reader sees every row (a made-up table)', () => {
-    const doc = ['| module | does | imports |', '|---|---|---|', '| `a/` | x | nothing |', '| `b/` | y, with `code` in it | `a/`, `node:` |', '', 'text'].join('\n');
+    const doc = [
+      '| module | does | imports |',
+      '|---|---|---|',
+      '| `a/` | x | nothing |',
+      '| `b/` | y, with `code` in it | `a/`, `node:` |',
+      '',
+      'text',
+    ].join('\n');
     expect([...readMap(doc)].map(([n, d]) => [n, [...d]])).toEqual([
       ['a/', []],
       ['b/', ['a/', 'node:']],
@@ -349,9 +411,21 @@ describe('no dynamic code, no test oracle', () => {
   });
 
   it('the dynamic-code patterns find what they look for (the scans can fail)', () => {
-    const samples = ['x = eval("1")', 'f = new Function("a", "return a")', 'g = Function("return this")', "const vm = require('node:vm')", "setTimeout('alert(1)', 5)"];
+    const samples = [
+      'x = eval("1")',
+      'f = new Function("a", "return a")',
+      'g = Function("return this")',
+      "const vm = require('node:vm')",
+      "setTimeout('alert(1)', 5)",
+    ];
     expect(samples.map((t) => DYNAMIC_CODE.some(([, re]) => re.test(t)))).toEqual([true, true, true, true, true]);
-    const innocent = ['obj.eval(x)', 'isFunction(y)', 'typeof f === "function"', 'setTimeout(() => done(), 5)', 'medieval(3)'];
+    const innocent = [
+      'obj.eval(x)',
+      'isFunction(y)',
+      'typeof f === "function"',
+      'setTimeout(() => done(), 5)',
+      'medieval(3)',
+    ];
     expect(innocent.map((t) => DYNAMIC_CODE.some(([, re]) => re.test(t)))).toEqual([false, false, false, false, false]);
   });
 
@@ -362,7 +436,8 @@ describe('no dynamic code, no test oracle', () => {
       expect(text.length, `${relative(root, f)} is a real bundle`).toBeGreaterThan(10_000);
       for (const [what, re] of DYNAMIC_CODE) {
         const m = re.exec(text);
-        if (m) bad.push(`${relative(root, f)} uses ${what} near: ${text.slice(Math.max(0, m.index - 60), m.index + 60)}`);
+        if (m)
+          bad.push(`${relative(root, f)} uses ${what} near: ${text.slice(Math.max(0, m.index - 60), m.index + 60)}`);
       }
       if (/psychrolib|GetTWetBulbFromHumRatio/.test(text)) bad.push(`${relative(root, f)} contains the test oracle`);
     }

@@ -9,7 +9,13 @@ import { describe, expect, it } from 'vitest';
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { solveState } from '../shared-core/src/physics';
-import { CODES, DIAGNOSTIC_CODES, codeSpec, isDiagnosticCode, type DiagnosticCode } from '../shared-core/src/vocabulary/codes';
+import {
+  CODES,
+  DIAGNOSTIC_CODES,
+  codeSpec,
+  isDiagnosticCode,
+  type DiagnosticCode,
+} from '../shared-core/src/vocabulary/codes';
 
 const root = join(__dirname, '..');
 const fixtures = join(__dirname, 'fixtures');
@@ -24,7 +30,10 @@ function documentedCodes(): Map<string, string> {
       header = null;
       continue;
     }
-    const cells = line.split('|').slice(1, -1).map((c) => c.trim());
+    const cells = line
+      .split('|')
+      .slice(1, -1)
+      .map((c) => c.trim());
     if (header === null) {
       header = cells;
       continue;
@@ -49,7 +58,8 @@ describe('the diagnostic-code registry', () => {
     // The docs give the usual severity first; a code reported with a second one may name it after a comma.
     const [usual, ...others] = documented.get(code)!.split(/,\s*/);
     expect(usual, `the severity of '${code}' in the docs`).toBe(codeSpec(code).severity);
-    for (const other of others) expect(other, `the second severity of '${code}' in the docs`).toBe(codeSpec(code).alsoAs);
+    for (const other of others)
+      expect(other, `the second severity of '${code}' in the docs`).toBe(codeSpec(code).alsoAs);
   });
 
   it('the docs list no code the registry lacks', () => {
@@ -57,18 +67,27 @@ describe('the diagnostic-code registry', () => {
   });
 
   it('every fixture note is named after a registered code', () => {
-    const names = readdirSync(join(fixtures, 'diagnostics')).filter((f) => f.endsWith('.md')).map((f) => basename(f, '.md'));
+    const names = readdirSync(join(fixtures, 'diagnostics'))
+      .filter((f) => f.endsWith('.md'))
+      .map((f) => basename(f, '.md'));
     expect(names.filter((n) => !isDiagnosticCode(n))).toEqual([]);
     const engine = readdirSync(join(fixtures, 'engine')).map((f) => basename(f, '.json'));
-    expect(engine.filter((n) => !isDiagnosticCode(n) || codeSpec(n as DiagnosticCode).fixture !== 'engine')).toEqual([]);
+    expect(engine.filter((n) => !isDiagnosticCode(n) || codeSpec(n as DiagnosticCode).fixture !== 'engine')).toEqual(
+      [],
+    );
   });
 
   it.each(DIAGNOSTIC_CODES.map((c) => [c]))('%s has a fixture', (code) => {
     const kind = codeSpec(code).fixture;
     if (kind === 'note' || kind === 'editor') {
-      expect(existsSync(join(fixtures, 'diagnostics', `${code}.md`)), `test/fixtures/diagnostics/${code}.md`).toBe(true);
+      expect(existsSync(join(fixtures, 'diagnostics', `${code}.md`)), `test/fixtures/diagnostics/${code}.md`).toBe(
+        true,
+      );
     } else if (kind === 'engine') {
-      const f = JSON.parse(readFileSync(join(fixtures, 'engine', `${code}.json`), 'utf8')) as { input: Record<string, number>; pressurePa: number };
+      const f = JSON.parse(readFileSync(join(fixtures, 'engine', `${code}.json`), 'utf8')) as {
+        input: Record<string, number>;
+        pressurePa: number;
+      };
       const r = solveState(f.input as Parameters<typeof solveState>[0], f.pressurePa);
       expect(r.ok ? 'solved' : r.problem.code).toBe(code);
     } else {
@@ -80,6 +99,9 @@ describe('the diagnostic-code registry', () => {
   });
 
   it('only codes that report bugs have no fixture input', () => {
-    expect(DIAGNOSTIC_CODES.filter((c) => typeof CODES[c].fixture === 'object')).toEqual(['internal-error', 'no-convergence']);
+    expect(DIAGNOSTIC_CODES.filter((c) => typeof CODES[c].fixture === 'object')).toEqual([
+      'internal-error',
+      'no-convergence',
+    ]);
   });
 });

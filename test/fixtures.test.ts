@@ -12,7 +12,12 @@ import { basename, join } from 'node:path';
 import { analyzeNote } from '../shared-core/src/analyze';
 import type { Analysis, ProcessResult, StateResult } from '../shared-core/src/evaluate/types';
 import { evalFileJson, fileResult } from '../cli/src/output';
-import { DEFAULT_SERVICE_SETTINGS, analyzeText, noteDiagnostics, type ServiceSettings } from '../shared-core/src/service';
+import {
+  DEFAULT_SERVICE_SETTINGS,
+  analyzeText,
+  noteDiagnostics,
+  type ServiceSettings,
+} from '../shared-core/src/service';
 import { codeSpec, isDiagnosticCode } from '../shared-core/src/vocabulary/codes';
 
 const here = join(__dirname, 'fixtures');
@@ -42,14 +47,23 @@ function load(dir: string, file: string): { text: string; analysis: Analysis; js
   return { text, analysis, json: `${JSON.stringify(doc, null, 2)}\n` };
 }
 
-function near(actual: number | null | undefined, expected: number, tol: { abs?: number; rel?: number }, what: string): void {
+function near(
+  actual: number | null | undefined,
+  expected: number,
+  tol: { abs?: number; rel?: number },
+  what: string,
+): void {
   expect(actual, what).toBeTypeOf('number');
   const band = Math.max(tol.abs ?? 0, (tol.rel ?? 0) * Math.abs(expected));
-  expect(Math.abs((actual as number) - expected), `${what}: ${actual} vs ${expected} ±${band}`).toBeLessThanOrEqual(band);
+  expect(Math.abs((actual as number) - expected), `${what}: ${actual} vs ${expected} ±${band}`).toBeLessThanOrEqual(
+    band,
+  );
 }
 
-const state = (a: Analysis, name: string) => (a.items.find((i) => i.name === name && i.kind !== 'process') as StateResult).state!;
-const proc = (a: Analysis, name: string) => a.items.find((i) => i.name === name && i.kind === 'process') as ProcessResult;
+const state = (a: Analysis, name: string) =>
+  (a.items.find((i) => i.name === name && i.kind !== 'process') as StateResult).state!;
+const proc = (a: Analysis, name: string) =>
+  a.items.find((i) => i.name === name && i.kind === 'process') as ProcessResult;
 
 /** Sourced numeric checks per feature fixture. */
 const sourced: Record<string, (a: Analysis) => void> = {
@@ -143,7 +157,12 @@ const sourced: Record<string, (a: Analysis) => void> = {
     near(state(a, 'OFF').db, (h2 - 2501000 * w2) / (1006 + 1860 * w2), { abs: 1e-4 }, 'OFF db (eq 32 inverted)');
     // Fan: Δt = Δp v / (η (1.006 + 1.86 W)) with v from PsychroLib.
     const off = state(a, 'OFF');
-    near(state(a, 'SA').db - off.db, (750 * psy.GetMoistAirVolume(off.db, off.w, 101325)) / (0.62 * (1006 + 1860 * off.w)), { abs: 1e-5 }, 'fan rise');
+    near(
+      state(a, 'SA').db - off.db,
+      (750 * psy.GetMoistAirVolume(off.db, off.w, 101325)) / (0.62 * (1006 + 1860 * off.w)),
+      { abs: 1e-5 },
+      'fan rise',
+    );
     // Reheat by duty into the mix's 4 kg/s: Δh = 8 kW / 4 kg/s.
     near(state(a, 'SA2').h - state(a, 'SA').h, 2000, { abs: 1e-6 }, 'reheat Δh');
     // Recovery at equal flows: t₂ = −5 + 0.65 × 26 × C_exhaust/C_min… (C_min is the drier outdoor stream).
@@ -184,11 +203,15 @@ describe('diagnostic fixtures', () => {
       if (isDiagnosticCode(code) && codeSpec(code).fixture === 'editor') {
         // An editor-only code: the note through the editor service, with the settings of its first line.
         const text = readFileSync(join(here, 'diagnostics', file), 'utf8');
-        const settings = JSON.parse(/^<!-- fixture settings: (\{.*\}) -->/.exec(text)?.[1] ?? '{}') as Partial<ServiceSettings>;
+        const settings = JSON.parse(
+          /^<!-- fixture settings: (\{.*\}) -->/.exec(text)?.[1] ?? '{}',
+        ) as Partial<ServiceSettings>;
         const diagnostics = noteDiagnostics(analyzeText(text, { ...DEFAULT_SERVICE_SETTINGS, ...settings }));
         expect(diagnostics.filter((d) => d.code === code).length, `${code} reported`).toBeGreaterThanOrEqual(1);
         const shown = diagnostics.map((d) => ({ code: d.code, severity: d.severity, message: d.message }));
-        await expect(`${JSON.stringify(shown, null, 2)}\n`).toMatchFileSnapshot(join(here, 'diagnostics', file.replace(/\.md$/, '.expected.json')));
+        await expect(`${JSON.stringify(shown, null, 2)}\n`).toMatchFileSnapshot(
+          join(here, 'diagnostics', file.replace(/\.md$/, '.expected.json')),
+        );
         return;
       }
       const { analysis, json, text } = load('diagnostics', file);

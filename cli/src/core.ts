@@ -9,6 +9,14 @@ export { LineIndex } from '@dewmark/core/text';
 export { displayUnit, displaySymbol, figure, lookupUnit, toSI } from '@dewmark/core/units';
 export { claimFigures, processRow, stateRow, waterUnit } from '@dewmark/core/present';
 export { stdAtmPressure } from '@dewmark/core/physics';
-export { DEFAULT_SERVICE_SETTINGS, findProjectConfig, readSettings, resultsTableEdits, toEvaluateSettings, type ConfigFileSystem, type ProjectConfig } from '@dewmark/core/service';
+export {
+  DEFAULT_SERVICE_SETTINGS,
+  findProjectConfig,
+  readSettings,
+  resultsTableEdits,
+  toEvaluateSettings,
+  type ConfigFileSystem,
+  type ProjectConfig,
+} from '@dewmark/core/service';
 export type { Dimension, UnitSystem } from '@dewmark/core/units';
 export { jsonFigure, jsonName } from '@dewmark/core/vocabulary';

@@ -39,7 +39,8 @@ function editScript(a: string[], b: string[]): Op[] {
   for (let d = 0; d <= max && !found; d++) {
     trace.push(v.slice());
     for (let k = -d; k <= d; k += 2) {
-      let x = k === -d || (k !== d && v[offset + k - 1]! < v[offset + k + 1]!) ? v[offset + k + 1]! : v[offset + k - 1]! + 1;
+      let x =
+        k === -d || (k !== d && v[offset + k - 1]! < v[offset + k + 1]!) ? v[offset + k + 1]! : v[offset + k - 1]! + 1;
       let y = x - k;
       while (x < n && y < m && A[x] === B[y]) {
         x++;
@@ -78,7 +79,8 @@ function editScript(a: string[], b: string[]): Op[] {
   const ops: Op[] = [];
   for (let i = 0; i < head; i++) ops.push({ kind: ' ', line: a[i]!, a: i, b: i });
   ops.push(...middle);
-  for (let i = 0; i < tail; i++) ops.push({ kind: ' ', line: a[a.length - tail + i]!, a: a.length - tail + i, b: b.length - tail + i });
+  for (let i = 0; i < tail; i++)
+    ops.push({ kind: ' ', line: a[a.length - tail + i]!, a: a.length - tail + i, b: b.length - tail + i });
   return ops;
 }
 

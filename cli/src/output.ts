@@ -31,7 +31,15 @@ export function fileResult(path: string, text: string, analysis: Analysis): File
 export function diagnosticJson(f: FileResult, d: CoreDiagnostic): DiagnosticJson {
   const a = f.lines.lineCol(Math.max(0, Math.min(d.span.start, f.text.length)));
   const b = f.lines.lineCol(Math.max(0, Math.min(d.span.end, f.text.length)));
-  return { line: a.line, column: a.column, endLine: b.line, endColumn: b.column, severity: d.severity, code: d.code, message: d.message };
+  return {
+    line: a.line,
+    column: a.column,
+    endLine: b.line,
+    endColumn: b.column,
+    severity: d.severity,
+    code: d.code,
+    message: d.message,
+  };
 }
 
 /** `path:line:col: severity[code]: message` (the form CI problem matchers read). */
@@ -104,7 +112,11 @@ export function stateJson(f: FileResult, s: StateResult): Record<string, unknown
   out.defining = [...s.defining];
   out.pressure = s.pressure.describe;
   if (s.kind === 'mix') {
-    out.streams = (s.streams ?? []).map((x) => ({ name: x.name, fraction: r(x.fraction), [jsonName('m')]: r(jsonFigure('m', x.massFlowKgS)) }));
+    out.streams = (s.streams ?? []).map((x) => ({
+      name: x.name,
+      fraction: r(x.fraction),
+      [jsonName('m')]: r(jsonFigure('m', x.massFlowKgS)),
+    }));
     out[jsonName('m')] = r(jsonFigure('m', s.massFlowKgS ?? null));
   }
   if (s.kind === 'supply') {
@@ -117,7 +129,8 @@ export function stateJson(f: FileResult, s: StateResult): Record<string, unknown
     out.v_m3s = r(f?.volumeFlowM3S ?? null);
   }
   // Properties taken from states above: the offset in SI (K, kg/kg, J/kg).
-  if (s.sources) out.sources = s.sources.map((x) => ({ key: x.key, from: x.from, fromKey: x.fromKey, offset: r(x.offsetSI) }));
+  if (s.sources)
+    out.sources = s.sources.map((x) => ({ key: x.key, from: x.from, fromKey: x.fromKey, offset: r(x.offsetSI) }));
   if (s.definedBy?.spec !== undefined) {
     // A state a process or recovery defines: where it came from, and the flow it carries.
     out.defined_by = { [s.definedBy.statement]: s.definedBy.name, from: s.definedBy.from, spec: s.definedBy.spec };
@@ -165,7 +178,16 @@ export function processJson(f: FileResult, p: ProcessResult): Record<string, unk
     if (e.steamEnthalpyJkg !== undefined) eq.steam_h_kJkg = r(e.steamEnthalpyJkg / 1000);
     if (e.effSensible !== undefined) eq.eff_s = r(e.effSensible);
     if (e.effLatent !== undefined) eq.eff_l = r(e.effLatent);
-    if (e.wetting !== undefined) eq.wetting = e.wetting === null ? null : { kind: e.wetting.kind, surface_C: r(e.wetting.surfaceC), dp_C: r(e.wetting.dewPointC), accepted: e.wetting.accepted };
+    if (e.wetting !== undefined)
+      eq.wetting =
+        e.wetting === null
+          ? null
+          : {
+              kind: e.wetting.kind,
+              surface_C: r(e.wetting.surfaceC),
+              dp_C: r(e.wetting.dewPointC),
+              accepted: e.wetting.accepted,
+            };
     out.equipment = eq;
   }
   if (p.claims.length > 0) out.claims = p.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
@@ -247,7 +269,9 @@ export function statesTable(f: FileResult): string | null {
       v.w.value,
       v.h.value,
       v.v.value,
-      row.status === 'failed' ? 'not computed (see diagnostics)' : s.kind === 'mix'
+      row.status === 'failed'
+        ? 'not computed (see diagnostics)'
+        : s.kind === 'mix'
           ? row.streams.map((x) => `${x.name} ${x.fraction.text}`).join(' + ')
           : s.kind === 'supply' && s.supply
             ? `loads of ${s.supply.room}, ${row.massFlow.value}`

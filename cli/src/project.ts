@@ -7,7 +7,14 @@
 import { readFileSync } from 'node:fs';
 import { dirname, isAbsolute, join, relative, sep } from 'node:path';
 import { patternMatcher, type Input } from '@dewmark/files';
-import { findProjectConfig, readSettings, toEvaluateSettings, type ConfigFileSystem, type EvaluateSettings, type ProjectConfig } from './core';
+import {
+  findProjectConfig,
+  readSettings,
+  toEvaluateSettings,
+  type ConfigFileSystem,
+  type EvaluateSettings,
+  type ProjectConfig,
+} from './core';
 
 /** What the project files decide for the inputs. */
 export interface ProjectSelection {
@@ -32,7 +39,8 @@ function settingsOf(config: ProjectConfig, cwd: string, problems: string[]): Par
   const shown = displayPath(config.path, cwd);
   for (const p of [...config.problems, ...own]) problems.push(`${shown}: ${p.replace(/^dewmark\./, '')}`);
   const out = toEvaluateSettings(settings);
-  if (settings.site.written !== 'default') out.pressureOrigin = `${shown}: ${settings.site.kind} ${settings.site.written}${settings.site.kind === 'elevation' ? ' (standard atmosphere):' : ', i.e.'}`;
+  if (settings.site.written !== 'default')
+    out.pressureOrigin = `${shown}: ${settings.site.kind} ${settings.site.written}${settings.site.kind === 'elevation' ? ' (standard atmosphere):' : ', i.e.'}`;
   return out;
 }
 
@@ -59,7 +67,14 @@ export function selectWithProjects(inputs: Input[], cwd: string, cli: Partial<Ev
     join: (dir, name) => join(dir, name),
   };
   const byDir = new Map<string, ProjectConfig | null>();
-  const perConfig = new Map<ProjectConfig, { settings: Partial<EvaluateSettings>; include: ((abs: string) => boolean) | null; exclude: ((abs: string) => boolean) | null }>();
+  const perConfig = new Map<
+    ProjectConfig,
+    {
+      settings: Partial<EvaluateSettings>;
+      include: ((abs: string) => boolean) | null;
+      exclude: ((abs: string) => boolean) | null;
+    }
+  >();
   const problems: string[] = [];
   const out: ProjectSelection = { tasks: [], excluded: 0, problems };
   for (const input of inputs) {
@@ -82,7 +97,7 @@ export function selectWithProjects(inputs: Input[], cwd: string, cli: Partial<Ev
       };
       perConfig.set(config, p);
     }
-    if (input.abs !== null && ((p.include && !p.include(input.abs)) || (p.exclude && p.exclude(input.abs)))) {
+    if (input.abs !== null && ((p.include && !p.include(input.abs)) || p.exclude?.(input.abs))) {
       out.excluded++;
       continue;
     }

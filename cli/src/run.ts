@@ -3,7 +3,15 @@
  * notes (or more warnings than --max-warnings), 2 usage or I/O problems.
  */
 import { Command, CommanderError, Option } from 'commander';
-import { BINARY_SNIFF, DEFAULT_MAX_NOTE_BYTES, DEFAULT_MAX_NOTE_MB, STDIN_PATH, collectInputs, decodeText, explainEmpty } from '@dewmark/files';
+import {
+  BINARY_SNIFF,
+  DEFAULT_MAX_NOTE_BYTES,
+  DEFAULT_MAX_NOTE_MB,
+  STDIN_PATH,
+  collectInputs,
+  decodeText,
+  explainEmpty,
+} from '@dewmark/files';
 import { summaryLine, type Counts } from './output';
 import { runTasks, type FileOutput, type Mode, type Task } from './work';
 import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from './settings';
@@ -55,10 +63,20 @@ interface Totals {
  * order. Analyses are not kept (holding 1000 at once makes the garbage collector the slowest part
  * of a run); many files are spread over worker threads. I/O problems are printed and counted.
  */
-async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mode, onFile: (out: FileOutput) => void): Promise<Totals> {
+async function analyse(
+  paths: string[],
+  opts: CommonOptions,
+  io: CliIO,
+  mode: Mode,
+  onFile: (out: FileOutput) => void,
+): Promise<Totals> {
   const settings = toSettings(opts);
   const maxBytes = maxNoteBytes(opts);
-  const { inputs, problems, empty } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false, exclude: opts.exclude ?? [] });
+  const { inputs, problems, empty } = collectInputs(paths, {
+    cwd: io.cwd,
+    gitignore: opts.gitignore !== false,
+    exclude: opts.exclude ?? [],
+  });
   const totals: Totals = { files: 0, counts: { errors: 0, warnings: 0, infos: 0 }, ioProblems: 0 };
   for (const p of problems) {
     io.err(`dewmark: ${safeText(p.message)}\n`);
@@ -104,12 +122,16 @@ async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mo
   );
   if (progress) io.err('\r\x1b[K');
   if (inputs.length > 0 && project.tasks.length === 0 && problems.length === 0) {
-    io.err(`dewmark: all ${inputs.length} Markdown file(s) found are left out by the include/exclude patterns of dewmark.json\n`);
+    io.err(
+      `dewmark: all ${inputs.length} Markdown file(s) found are left out by the include/exclude patterns of dewmark.json\n`,
+    );
     totals.ioProblems++;
   }
   if (inputs.length === 0 && problems.length === 0) {
     const why = explainEmpty(empty).map(safeText);
-    io.err(`dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}${why.length > 0 ? `; ${why.join('; ')}` : ''}\n`);
+    io.err(
+      `dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}${why.length > 0 ? `; ${why.join('; ')}` : ''}\n`,
+    );
     totals.ioProblems++;
   }
   return totals;
@@ -118,7 +140,8 @@ async function analyse(paths: string[], opts: CommonOptions, io: CliIO, mode: Mo
 function maxWarningsOf(opts: CommonOptions): number | null {
   if (opts.maxWarnings === undefined) return null;
   const n = Number(opts.maxWarnings);
-  if (!Number.isInteger(n) || n < 0) throw new UsageError(`--max-warnings must be a whole number of 0 or more, not '${opts.maxWarnings}'`);
+  if (!Number.isInteger(n) || n < 0)
+    throw new UsageError(`--max-warnings must be a whole number of 0 or more, not '${opts.maxWarnings}'`);
   return n;
 }
 
@@ -152,7 +175,8 @@ const CHECK_FORMATS = ['text', 'json', 'github', 'sarif'] as const;
 
 async function runCheck(paths: string[], opts: CommonOptions, io: CliIO): Promise<number> {
   const format = opts.format ?? 'text';
-  if (!(CHECK_FORMATS as readonly string[]).includes(format)) throw new UsageError(`--format must be ${CHECK_FORMATS.join(', ')} for check, not '${safeText(format)}'`);
+  if (!(CHECK_FORMATS as readonly string[]).includes(format))
+    throw new UsageError(`--format must be ${CHECK_FORMATS.join(', ')} for check, not '${safeText(format)}'`);
   const maxWarnings = maxWarningsOf(opts);
   const out = new OutBuffer(io);
   const jsonFiles: unknown[] = [];
@@ -165,14 +189,30 @@ async function runCheck(paths: string[], opts: CommonOptions, io: CliIO): Promis
   });
   const c = t.counts;
   if (format === 'json') {
-    const suppressed = jsonFiles.reduce<number>((n, f) => n + ((f as { suppressed?: unknown[] }).suppressed?.length ?? 0), 0);
-    const doc = { files: jsonFiles, summary: { files: t.files, errors: c.errors, warnings: c.warnings, infos: c.infos, suppressed, unreadable: t.ioProblems } };
+    const suppressed = jsonFiles.reduce<number>(
+      (n, f) => n + ((f as { suppressed?: unknown[] }).suppressed?.length ?? 0),
+      0,
+    );
+    const doc = {
+      files: jsonFiles,
+      summary: {
+        files: t.files,
+        errors: c.errors,
+        warnings: c.warnings,
+        infos: c.infos,
+        suppressed,
+        unreadable: t.ioProblems,
+      },
+    };
     out.push(`${JSON.stringify(doc, null, 2)}\n`);
   } else if (format === 'sarif') {
-    out.push(`${JSON.stringify(sarifLog(jsonFiles as { path: string; diagnostics: DiagnosticJson[] }[], VERSION, io.cwd), null, 2)}\n`);
+    out.push(
+      `${JSON.stringify(sarifLog(jsonFiles as { path: string; diagnostics: DiagnosticJson[] }[], VERSION, io.cwd), null, 2)}\n`,
+    );
   } else {
     out.push(`${summaryLine(t.files, c, t.ioProblems)}\n`);
-    if (maxWarnings !== null && c.warnings > maxWarnings) out.push(`too many warnings: ${c.warnings} (at most ${maxWarnings} allowed by --max-warnings)\n`);
+    if (maxWarnings !== null && c.warnings > maxWarnings)
+      out.push(`too many warnings: ${c.warnings} (at most ${maxWarnings} allowed by --max-warnings)\n`);
   }
   out.flush();
   return exitCodeFor(t, maxWarnings);
@@ -180,7 +220,8 @@ async function runCheck(paths: string[], opts: CommonOptions, io: CliIO): Promis
 
 async function runEvalCommand(paths: string[], opts: CommonOptions, io: CliIO): Promise<number> {
   const format = opts.format ?? 'table';
-  if (format !== 'table' && format !== 'json') throw new UsageError(`--format must be table or json for eval, not '${format}'`);
+  if (format !== 'table' && format !== 'json')
+    throw new UsageError(`--format must be table or json for eval, not '${format}'`);
   const out = new OutBuffer(io);
   const jsonFiles: unknown[] = [];
   const t = await analyse(paths, opts, io, format === 'json' ? 'eval-json' : 'eval-table', (f) => {
@@ -196,15 +237,28 @@ async function runEvalCommand(paths: string[], opts: CommonOptions, io: CliIO): 
 function addCommon(cmd: Command): Command {
   return cmd
     .addOption(new Option('--units <system>', 'unit system for results when a note has no units: line (SI or IP)'))
-    .addOption(new Option('--pressure <value>', 'default barometric pressure with its unit, e.g. 84.5kPa (a note\'s site: line wins)').conflicts('elevation'))
-    .addOption(new Option('--elevation <value>', 'default site elevation with its unit, e.g. 1600m (standard atmosphere)'))
+    .addOption(
+      new Option(
+        '--pressure <value>',
+        "default barometric pressure with its unit, e.g. 84.5kPa (a note's site: line wins)",
+      ).conflicts('elevation'),
+    )
+    .addOption(
+      new Option('--elevation <value>', 'default site elevation with its unit, e.g. 1600m (standard atmosphere)'),
+    )
     .option('--no-claims', 'do not compare written claims with computed values')
-    .addOption(new Option('--max-note-size <MB>', `the most one note may be, in MB (default ${DEFAULT_MAX_NOTE_MB}); a larger file is not read (exit 2)`))
+    .addOption(
+      new Option(
+        '--max-note-size <MB>',
+        `the most one note may be, in MB (default ${DEFAULT_MAX_NOTE_MB}); a larger file is not read (exit 2)`,
+      ),
+    )
     .option('--no-gitignore', 'also read files that .gitignore or .git/info/exclude leave out of folders and globs')
     .addOption(
-      new Option('--exclude <pattern>', 'leave files and folders matching this glob out of folders and globs (repeatable; a bare name matches at any depth)').argParser(
-        (value: string, previous: string[] | undefined) => [...(previous ?? []), value],
-      ),
+      new Option(
+        '--exclude <pattern>',
+        'leave files and folders matching this glob out of folders and globs (repeatable; a bare name matches at any depth)',
+      ).argParser((value: string, previous: string[] | undefined) => [...(previous ?? []), value]),
     );
 }
 
@@ -217,7 +271,14 @@ function outputOf(io: CliIO) {
     writeOut: (s: string) => io.out(s),
     writeErr: (s: string) => io.err(s),
     // Commander's own second line is a "(Did you mean …?)"; any other line break came from an argument.
-    outputError: (s: string, write: (s: string) => void) => write(`${s.replace(/\n+$/, '').split(/\n(?=\(Did you mean )/).map(safeText).join('\n')}\n`),
+    outputError: (s: string, write: (s: string) => void) =>
+      write(
+        `${s
+          .replace(/\n+$/, '')
+          .split(/\n(?=\(Did you mean )/)
+          .map(safeText)
+          .join('\n')}\n`,
+      ),
   };
 }
 
@@ -236,8 +297,15 @@ function program(io: CliIO, onResult: (code: number) => void): Command {
     prog
       .command('check')
       .description('check notes and print each problem as path:line:col: severity[code]: message')
-      .argument('[paths...]', 'Markdown files, folders (recursive) or glob patterns; - for standard input (default: the current folder)')
-      .option('--format <format>', 'text, json, github (workflow annotations) or sarif (SARIF 2.1.0 for code scanning)', 'text')
+      .argument(
+        '[paths...]',
+        'Markdown files, folders (recursive) or glob patterns; - for standard input (default: the current folder)',
+      )
+      .option(
+        '--format <format>',
+        'text, json, github (workflow annotations) or sarif (SARIF 2.1.0 for code scanning)',
+        'text',
+      )
       .option('--max-warnings <n>', 'exit 1 when there are more warnings than this')
       .addHelpText(
         'after',
@@ -265,7 +333,10 @@ Stale claims and results tables are rewritten by: dewmark fix --write`,
     prog
       .command('eval')
       .description('print the evaluated states, mixes and processes of notes')
-      .argument('[paths...]', 'Markdown files, folders (recursive) or glob patterns; - for standard input (default: the current folder)')
+      .argument(
+        '[paths...]',
+        'Markdown files, folders (recursive) or glob patterns; - for standard input (default: the current folder)',
+      )
       .option('--format <format>', 'table or json', 'table')
       .addHelpText(
         'after',
@@ -287,7 +358,11 @@ Examples:
   registerChart(prog, io, onResult, addCommon);
   registerFix(prog, io, onResult, addCommon);
   registerDiff(prog, io, onResult, addCommon);
-  for (const c of prog.commands) c.exitOverride().configureOutput(outputOf(io)).showHelpAfterError(`(run dewmark ${c.name()} --help for its options)`).showSuggestionAfterError(true);
+  for (const c of prog.commands)
+    c.exitOverride()
+      .configureOutput(outputOf(io))
+      .showHelpAfterError(`(run dewmark ${c.name()} --help for its options)`)
+      .showSuggestionAfterError(true);
   return prog;
 }
 
@@ -305,7 +380,8 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     await prog.parseAsync(argv, { from: 'user' });
   } catch (err) {
     if (err instanceof CommanderError) {
-      if (err.code === 'commander.helpDisplayed' || err.code === 'commander.version' || err.code === 'commander.help') return 0;
+      if (err.code === 'commander.helpDisplayed' || err.code === 'commander.version' || err.code === 'commander.help')
+        return 0;
       return 2; // commander has printed the message
     }
     if (err instanceof UsageError) {

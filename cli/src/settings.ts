@@ -27,7 +27,9 @@ export function maxNoteBytes(o: RawEvalOptions): number {
   const text = o.maxNoteSize.trim().replace(/\s*MB$/i, '');
   const v = /^(\d+(\.\d+)?)$/.test(text) ? Number(text) : NaN;
   if (!(v > 0) || v > 1_000_000) {
-    throw new UsageError(`--max-note-size must be a size in MB greater than 0, e.g. --max-note-size 64 (got '${o.maxNoteSize}')`);
+    throw new UsageError(
+      `--max-note-size must be a size in MB greater than 0, e.g. --max-note-size 64 (got '${o.maxNoteSize}')`,
+    );
   }
   return Math.floor(v * 1024 * 1024);
 }
@@ -53,9 +55,13 @@ export function toSettings(o: RawEvalOptions): Partial<EvaluateSettings> {
   }
   if (o.pressure !== undefined) {
     const v = splitValue(o.pressure);
-    const unit = v && v.unit ? lookupUnit(v.unit) : undefined;
-    if (!v || !v.unit) throw new UsageError(`--pressure needs a value with a unit, e.g. --pressure 84.5kPa or --pressure 12.25psia (got '${o.pressure}')`);
-    if (!unit || unit.dimension !== 'pressure') throw new UsageError(`--pressure: '${v.unit}' is not a pressure unit; use kPa, Pa, hPa, bar, atm, psia or inHg`);
+    const unit = v?.unit ? lookupUnit(v.unit) : undefined;
+    if (!v?.unit)
+      throw new UsageError(
+        `--pressure needs a value with a unit, e.g. --pressure 84.5kPa or --pressure 12.25psia (got '${o.pressure}')`,
+      );
+    if (unit?.dimension !== 'pressure')
+      throw new UsageError(`--pressure: '${v.unit}' is not a pressure unit; use kPa, Pa, hPa, bar, atm, psia or inHg`);
     const pa = toSI(v.value, unit);
     if (!(pa > 0)) throw new UsageError(`--pressure must be a positive absolute pressure (got '${o.pressure}')`);
     s.pressurePa = pa;
@@ -63,9 +69,13 @@ export function toSettings(o: RawEvalOptions): Partial<EvaluateSettings> {
   }
   if (o.elevation !== undefined) {
     const v = splitValue(o.elevation);
-    const unit = v && v.unit ? lookupUnit(v.unit) : undefined;
-    if (!v || !v.unit) throw new UsageError(`--elevation needs a value with a unit, e.g. --elevation 1600m or --elevation 5250ft (got '${o.elevation}')`);
-    if (!unit || unit.dimension !== 'length') throw new UsageError(`--elevation: '${v.unit}' is not a length unit; use m or ft`);
+    const unit = v?.unit ? lookupUnit(v.unit) : undefined;
+    if (!v?.unit)
+      throw new UsageError(
+        `--elevation needs a value with a unit, e.g. --elevation 1600m or --elevation 5250ft (got '${o.elevation}')`,
+      );
+    if (unit?.dimension !== 'length')
+      throw new UsageError(`--elevation: '${v.unit}' is not a length unit; use m or ft`);
     const z = toSI(v.value, unit);
     let pa: number;
     try {

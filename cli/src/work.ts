@@ -9,7 +9,15 @@ import { analyzeNote } from './core';
 import { STDIN_PATH, decodeText, readInput, type Input } from '@dewmark/files';
 import type { Counts } from './output';
 import { safeLinePath } from './sanitize';
-import { countDiagnostics, diagnosticJson, diagnosticLine, evalFileJson, fileResult, processesTable, statesTable } from './output';
+import {
+  countDiagnostics,
+  diagnosticJson,
+  diagnosticLine,
+  evalFileJson,
+  fileResult,
+  processesTable,
+  statesTable,
+} from './output';
 
 /** What is produced for each file. */
 export type Mode = 'check-text' | 'check-json' | 'eval-table' | 'eval-json';
@@ -45,9 +53,17 @@ export function renderFile(mode: Mode, display: string, text: string, settings: 
       return { text: t, json: null, counts };
     }
     case 'check-json': {
-      const json: Record<string, unknown> = { path: f.path, diagnostics: f.analysis.diagnostics.map((d) => diagnosticJson(f, d)) };
+      const json: Record<string, unknown> = {
+        path: f.path,
+        diagnostics: f.analysis.diagnostics.map((d) => diagnosticJson(f, d)),
+      };
       // Diagnostics acknowledged by ignore comments: reported, not counted.
-      if (f.analysis.suppressed) json.suppressed = f.analysis.suppressed.map((d) => ({ ...diagnosticJson(f, d), justification: d.justification, ignoreLine: f.lines.lineCol(d.suppressedBy.start).line }));
+      if (f.analysis.suppressed)
+        json.suppressed = f.analysis.suppressed.map((d) => ({
+          ...diagnosticJson(f, d),
+          justification: d.justification,
+          ignoreLine: f.lines.lineCol(d.suppressedBy.start).line,
+        }));
       return { text: '', json, counts };
     }
     case 'eval-json':
@@ -71,12 +87,20 @@ export function renderFile(mode: Mode, display: string, text: string, settings: 
 
 /** Reads (unless the text is given) and renders one task; never throws. */
 export function runTask(task: Task, mode: Mode, settings: Partial<EvaluateSettings>): TaskResult {
-  const read = task.text !== undefined ? { ok: true as const, text: task.text } : task.input.abs === null ? decodeText(new Uint8Array(), STDIN_PATH) : readInput(task.input, task.maxBytes);
+  const read =
+    task.text !== undefined
+      ? { ok: true as const, text: task.text }
+      : task.input.abs === null
+        ? decodeText(new Uint8Array(), STDIN_PATH)
+        : readInput(task.input, task.maxBytes);
   if (!read.ok) return { ok: false, message: read.message };
   try {
     return { ok: true, out: renderFile(mode, task.input.display, read.text, task.settings ?? settings) };
   } catch (err) {
-    return { ok: false, message: `'${task.input.display}' could not be checked (${err instanceof Error ? err.message : String(err)}); please report it with the note` };
+    return {
+      ok: false,
+      message: `'${task.input.display}' could not be checked (${err instanceof Error ? err.message : String(err)}); please report it with the note`,
+    };
   }
 }
 
@@ -97,7 +121,7 @@ interface Batch {
 export function workerMain(): boolean {
   if (isMainThread || !parentPort) return false;
   const job = workerData as WorkerJob | undefined;
-  if (!job || job.dewmarkWorker !== true) return false;
+  if (job?.dewmarkWorker !== true) return false;
   const port = parentPort;
   port.on('message', (batch: Batch | null) => {
     if (batch === null) {
@@ -180,7 +204,9 @@ export async function runTasks(
     return { start, tasks: tasks.slice(start, next) };
   };
   const store = (start: number, rs: TaskResult[]): void => {
-    rs.forEach((r, i) => (results[start + i] = r));
+    rs.forEach((r, i) => {
+      results[start + i] = r;
+    });
     done += rs.length;
     onProgress?.(done);
     while (emitted < tasks.length && results[emitted] !== undefined) {
@@ -189,7 +215,11 @@ export async function runTasks(
       emitted++;
     }
   };
-  const runHere = (b: Batch): void => store(b.start, b.tasks.map((t) => runTask(t, mode, settings)));
+  const runHere = (b: Batch): void =>
+    store(
+      b.start,
+      b.tasks.map((t) => runTask(t, mode, settings)),
+    );
 
   const workers = Array.from(
     { length: k },

@@ -16,12 +16,25 @@ const bin = join(root, 'bin', 'dewmark.js');
 let dir = '';
 
 function dewmark(args: string[], cwd = dir) {
-  const r = spawnSync(process.execPath, [bin, ...args], { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', DEWMARK_WORKERS: '0' }, timeout: 60_000 });
+  const r = spawnSync(process.execPath, [bin, ...args], {
+    cwd,
+    encoding: 'utf8',
+    env: { ...process.env, NO_COLOR: '1', DEWMARK_WORKERS: '0' },
+    timeout: 60_000,
+  });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 
 // Invented notes. A stale claim (warning), a wet-bulb above its dry-bulb (error).
-const NOTE = ['# AHU-2, invented office', '', '```air', 'state RA: db=24C rh=50% w=11.0g/kg', 'state X: db=20C wb=25C', '```', ''].join('\n');
+const NOTE = [
+  '# AHU-2, invented office',
+  '',
+  '```air',
+  'state RA: db=24C rh=50% w=11.0g/kg',
+  'state X: db=20C wb=25C',
+  '```',
+  '',
+].join('\n');
 // A note whose text carries an escape sequence and a line break into a quoted name.
 const HOSTILE_NOTE = ['```air', 'state A: db=20C wb=25C', 'state B: \u001b[2Jdb=24C rh=50%', '```', ''].join('\n');
 const HOSTILE_NAME = 'x\n::error file=a.md::injected\u001b[2J.md';
@@ -54,8 +67,12 @@ describe('--format github', () => {
     expect(r.code).toBe(1);
     const lines = commandLines(r.out);
     expect(lines).toEqual([
-      expect.stringMatching(/^::warning file=notes\/ahu 2\.md,line=4,col=\d+,endLine=4,endColumn=\d+,title=dewmark claim-mismatch::stale claim w=11\.0g\/kg/),
-      expect.stringMatching(/^::error file=notes\/ahu 2\.md,line=5,col=\d+,endLine=5,endColumn=\d+,title=dewmark wb-above-db::state X: /),
+      expect.stringMatching(
+        /^::warning file=notes\/ahu 2\.md,line=4,col=\d+,endLine=4,endColumn=\d+,title=dewmark claim-mismatch::stale claim w=11\.0g\/kg/,
+      ),
+      expect.stringMatching(
+        /^::error file=notes\/ahu 2\.md,line=5,col=\d+,endLine=5,endColumn=\d+,title=dewmark wb-above-db::state X: /,
+      ),
     ]);
     // The `%` of "rh=50%" is escaped, as the workflow-command syntax requires.
     expect(lines[0]).toContain('rh=50%25');
@@ -71,7 +88,9 @@ describe('--format github', () => {
     for (const l of lines) expect(l).toMatch(/^::(error|warning) file=[^\n]*,title=dewmark [a-z-]+::/);
     expect(r.out + r.err).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f]/);
     expect(r.out).toContain('file=hostile/x\\n%3A%3Aerror file=a.md%3A%3Ainjected\\x1b[2J.md,');
-    expect(r.out).toContain("::error file=hostile/text.md,line=3,col=10,endLine=3,endColumn=20,title=dewmark syntax::unexpected '\\x1b[2Jdb=24C'");
+    expect(r.out).toContain(
+      "::error file=hostile/text.md,line=3,col=10,endLine=3,endColumn=20,title=dewmark syntax::unexpected '\\x1b[2Jdb=24C'",
+    );
   });
 });
 
@@ -109,7 +128,11 @@ describe('text output is sanitised', () => {
 
 describe('problem matcher', () => {
   const matcher = JSON.parse(readFileSync(join(root, 'ci', 'dewmark-problem-matcher.json'), 'utf8')) as {
-    problemMatcher: { owner: string; severity: string; pattern: { regexp: string; file: number; line: number; column: number; code: number; message: number }[] }[];
+    problemMatcher: {
+      owner: string;
+      severity: string;
+      pattern: { regexp: string; file: number; line: number; column: number; code: number; message: number }[];
+    }[];
   };
 
   /** What the matchers make of each line: the first matcher that matches, as the runner does. */
@@ -120,7 +143,14 @@ describe('problem matcher', () => {
         const p = m.pattern[0]!;
         const x = new RegExp(p.regexp).exec(line);
         if (!x) continue;
-        found.push({ severity: m.severity, file: x[p.file]!, line: Number(x[p.line]), column: Number(x[p.column]), code: x[p.code]!, message: x[p.message]! });
+        found.push({
+          severity: m.severity,
+          file: x[p.file]!,
+          line: Number(x[p.line]),
+          column: Number(x[p.column]),
+          code: x[p.code]!,
+          message: x[p.message]!,
+        });
         break;
       }
     }
@@ -129,8 +159,22 @@ describe('problem matcher', () => {
 
   it('reads every diagnostic line of real text output, with its severity, code and message, and nothing else', () => {
     const r = dewmark(['check', 'notes']);
-    const json = JSON.parse(dewmark(['check', '--format', 'json', 'notes']).out) as { files: { path: string; diagnostics: { line: number; column: number; severity: string; code: string; message: string }[] }[] };
-    const expected = json.files.flatMap((f) => f.diagnostics.map((d) => ({ severity: d.severity === 'info' ? 'notice' : d.severity, file: f.path, line: d.line, column: d.column, code: d.code, message: d.message })));
+    const json = JSON.parse(dewmark(['check', '--format', 'json', 'notes']).out) as {
+      files: {
+        path: string;
+        diagnostics: { line: number; column: number; severity: string; code: string; message: string }[];
+      }[];
+    };
+    const expected = json.files.flatMap((f) =>
+      f.diagnostics.map((d) => ({
+        severity: d.severity === 'info' ? 'notice' : d.severity,
+        file: f.path,
+        line: d.line,
+        column: d.column,
+        code: d.code,
+        message: d.message,
+      })),
+    );
     expect(expected.length).toBeGreaterThan(1);
     expect(read(r.out)).toEqual(expected);
     // The summary line is not a problem.
@@ -139,7 +183,16 @@ describe('problem matcher', () => {
 
   it('keeps a message that itself holds ":1:2: error[x]:" whole, and reads info lines as notices', () => {
     const line = 'notes/a.md:3:7: info[note-too-large]: see notes/b.md:1:2: error[x]: quoted';
-    expect(read(line)).toEqual([{ severity: 'notice', file: 'notes/a.md', line: 3, column: 7, code: 'note-too-large', message: 'see notes/b.md:1:2: error[x]: quoted' }]);
+    expect(read(line)).toEqual([
+      {
+        severity: 'notice',
+        file: 'notes/a.md',
+        line: 3,
+        column: 7,
+        code: 'note-too-large',
+        message: 'see notes/b.md:1:2: error[x]: quoted',
+      },
+    ]);
   });
 
   it('the generic gcc-style pattern does not read the severity of these lines (why this matcher exists)', () => {
@@ -156,27 +209,43 @@ describe('--format sarif', () => {
     if (!Array.isArray(log.runs)) p.push('runs must be an array (§3.13.4)');
     for (const [i, run] of (log.runs ?? []).entries()) {
       const driver = run?.tool?.driver;
-      if (typeof driver?.name !== 'string' || driver.name === '') p.push(`runs[${i}].tool.driver.name is required (§3.19.8)`);
+      if (typeof driver?.name !== 'string' || driver.name === '')
+        p.push(`runs[${i}].tool.driver.name is required (§3.19.8)`);
       const rules: any[] = driver?.rules ?? [];
       const ids = rules.map((r) => r.id);
       if (new Set(ids).size !== ids.length) p.push('rule ids must be unique (§3.49.3)');
-      if (run.columnKind !== undefined && !['utf16CodeUnits', 'unicodeCodePoints'].includes(run.columnKind)) p.push('columnKind value (§3.14.17)');
+      if (run.columnKind !== undefined && !['utf16CodeUnits', 'unicodeCodePoints'].includes(run.columnKind))
+        p.push('columnKind value (§3.14.17)');
       for (const [k, r] of (run.results ?? []).entries()) {
         const where = `runs[${i}].results[${k}]`;
-        if (typeof r.message?.text !== 'string' || r.message.text === '') p.push(`${where}.message.text is required (§3.27.11)`);
-        if (r.level !== undefined && !['none', 'note', 'warning', 'error'].includes(r.level)) p.push(`${where}.level (§3.27.10)`);
-        if (r.ruleIndex !== undefined && rules[r.ruleIndex]?.id !== r.ruleId) p.push(`${where}.ruleIndex must point at the rule of ruleId (§3.27.6)`);
+        if (typeof r.message?.text !== 'string' || r.message.text === '')
+          p.push(`${where}.message.text is required (§3.27.11)`);
+        if (r.level !== undefined && !['none', 'note', 'warning', 'error'].includes(r.level))
+          p.push(`${where}.level (§3.27.10)`);
+        if (r.ruleIndex !== undefined && rules[r.ruleIndex]?.id !== r.ruleId)
+          p.push(`${where}.ruleIndex must point at the rule of ruleId (§3.27.6)`);
         for (const loc of r.locations ?? []) {
           const region = loc.physicalLocation?.region;
           const uri = loc.physicalLocation?.artifactLocation?.uri;
-          if (typeof uri !== 'string' || /[\s]/.test(uri)) p.push(`${where} artifactLocation.uri must be a URI reference (§3.4.3)`);
-          if (loc.physicalLocation?.artifactLocation?.uriBaseId !== undefined && !run.originalUriBaseIds?.[loc.physicalLocation.artifactLocation.uriBaseId]) p.push(`${where} uriBaseId must be defined in originalUriBaseIds (§3.14.14)`);
-          if (!(region.startLine >= 1) || !(region.startColumn >= 1)) p.push(`${where} region lines and columns are 1-based (§3.30.5)`);
-          if (region.endLine < region.startLine || (region.endLine === region.startLine && region.endColumn < region.startColumn)) p.push(`${where} region ends before it starts (§3.30)`);
+          if (typeof uri !== 'string' || /[\s]/.test(uri))
+            p.push(`${where} artifactLocation.uri must be a URI reference (§3.4.3)`);
+          if (
+            loc.physicalLocation?.artifactLocation?.uriBaseId !== undefined &&
+            !run.originalUriBaseIds?.[loc.physicalLocation.artifactLocation.uriBaseId]
+          )
+            p.push(`${where} uriBaseId must be defined in originalUriBaseIds (§3.14.14)`);
+          if (!(region.startLine >= 1) || !(region.startColumn >= 1))
+            p.push(`${where} region lines and columns are 1-based (§3.30.5)`);
+          if (
+            region.endLine < region.startLine ||
+            (region.endLine === region.startLine && region.endColumn < region.startColumn)
+          )
+            p.push(`${where} region ends before it starts (§3.30)`);
         }
       }
       for (const [name, base] of Object.entries(run.originalUriBaseIds ?? {})) {
-        if (!String((base as any).uri).endsWith('/')) p.push(`originalUriBaseIds.${name}.uri must end with a slash (§3.14.14)`);
+        if (!String((base as any).uri).endsWith('/'))
+          p.push(`originalUriBaseIds.${name}.uri must end with a slash (§3.14.14)`);
       }
     }
     return p;
@@ -192,11 +261,20 @@ describe('--format sarif', () => {
     expect(run.tool.driver.rules.map((x: { id: string }) => x.id).sort()).toEqual(['claim-mismatch', 'wb-above-db']);
     const json = JSON.parse(dewmark(['check', '--format', 'json', 'notes']).out);
     const d = json.files[0].diagnostics;
-    expect(run.results.map((x: any) => [x.ruleId, x.level, x.locations[0].physicalLocation.region.startLine, x.locations[0].physicalLocation.region.startColumn, x.locations[0].physicalLocation.region.endColumn])).toEqual(
-      d.map((x: any) => [x.code, x.severity, x.line, x.column, x.endColumn]),
-    );
+    expect(
+      run.results.map((x: any) => [
+        x.ruleId,
+        x.level,
+        x.locations[0].physicalLocation.region.startLine,
+        x.locations[0].physicalLocation.region.startColumn,
+        x.locations[0].physicalLocation.region.endColumn,
+      ]),
+    ).toEqual(d.map((x: any) => [x.code, x.severity, x.line, x.column, x.endColumn]));
     // A space in the file name is percent-encoded in the URI, relative to the source root.
-    expect(run.results[0].locations[0].physicalLocation.artifactLocation).toEqual({ uri: 'notes/ahu%202.md', uriBaseId: '%SRCROOT%' });
+    expect(run.results[0].locations[0].physicalLocation.artifactLocation).toEqual({
+      uri: 'notes/ahu%202.md',
+      uriBaseId: '%SRCROOT%',
+    });
   });
 
   it('the structure check catches what it should (it is not a check that cannot fail)', () => {

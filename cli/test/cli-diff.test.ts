@@ -54,7 +54,11 @@ const EVAL_FIELD_KEY: Record<string, string> = {
 };
 
 function git(args: string[], cwd = repo): string {
-  return execFileSync('git', ['-c', 'user.name=Dewmark Test', '-c', 'user.email=test@example.invalid', '-c', 'commit.gpgsign=false', ...args], { cwd, encoding: 'utf8' });
+  return execFileSync(
+    'git',
+    ['-c', 'user.name=Dewmark Test', '-c', 'user.email=test@example.invalid', '-c', 'commit.gpgsign=false', ...args],
+    { cwd, encoding: 'utf8' },
+  );
 }
 
 interface Run {
@@ -129,12 +133,27 @@ describe('dewmark diff: an input edited upstream', () => {
     expect(parseFloat(maDb.new)).toBeCloseTo(27.3, 0);
     expect(maDb.old).toMatch(/°C$/);
     // The claims about the changed figures come with them, old and new verdicts.
-    expect(maDb.claims).toEqual([{ key: 'db', written: 'db=26.4C', line: 8, old: { computed: expect.any(String), pass: expect.any(Boolean) }, new: { computed: expect.any(String), pass: expect.any(Boolean) } }]);
+    expect(maDb.claims).toEqual([
+      {
+        key: 'db',
+        written: 'db=26.4C',
+        line: 8,
+        old: { computed: expect.any(String), pass: expect.any(Boolean) },
+        new: { computed: expect.any(String), pass: expect.any(Boolean) },
+      },
+    ]);
     expect(maDb.claims[0].old.computed).not.toBe(maDb.claims[0].new.computed);
     const ccTotal = byName.CC.figures.find((x: { key: string }) => x.key === 'q_total');
     expect(ccTotal.claims.map((c: { written: string }) => c.written)).toEqual(['q_total=-60kW']);
     expect(byName.OA.line).toBe(6);
-    expect(doc.summary).toEqual({ compared: 3, changed: 1, added: 0, deleted: 0, figures: f.items.reduce((n: number, i: { figures: unknown[] }) => n + i.figures.length, 0), problems: 0 });
+    expect(doc.summary).toEqual({
+      compared: 3,
+      changed: 1,
+      added: 0,
+      deleted: 0,
+      figures: f.items.reduce((n: number, i: { figures: unknown[] }) => n + i.figures.length, 0),
+      problems: 0,
+    });
     expect(doc.revision).toBe('HEAD');
     expect(doc.commit).toBe(git(['rev-parse', 'HEAD']).trim());
   });
@@ -145,7 +164,9 @@ describe('dewmark diff: an input edited upstream', () => {
     writeFileSync(join(repo, 'notes', 'ahu2.md'), note('35C'));
     const after = JSON.parse((await dewmark(['eval', '--format', 'json', 'notes/ahu2.md'])).out).files[0];
     const listed = JSON.parse((await dewmark(['diff', '--format', 'json'])).out).files[0].items;
-    const listedKeys = new Map<string, string[]>(listed.map((i: { name: string; figures: { key: string }[] }) => [i.name, i.figures.map((f) => f.key)]));
+    const listedKeys = new Map<string, string[]>(
+      listed.map((i: { name: string; figures: { key: string }[] }) => [i.name, i.figures.map((f) => f.key)]),
+    );
     let checked = 0;
     for (const group of ['states', 'processes'] as const) {
       for (const o of before[group]) {
@@ -176,9 +197,13 @@ describe('dewmark diff: an input edited upstream', () => {
       expect(r.out).toContain(`  ${it.kind} ${it.name} (line ${it.line})\n`);
       for (const fig of it.figures) expect(r.out).toContain(`    ${fig.key}: ${fig.old} → ${fig.new}\n`);
     }
-    expect(r.out).toMatch(/\n {6}claim db=26\.4C \(line 8\): (pass|FAIL) \(computed [^)]+\) → (pass|FAIL) \(computed [^)]+\)\n/);
+    expect(r.out).toMatch(
+      /\n {6}claim db=26\.4C \(line 8\): (pass|FAIL) \(computed [^)]+\) → (pass|FAIL) \(computed [^)]+\)\n/,
+    );
     expect(r.out).toMatch(/\n {6}claim q_total=-60kW \(line 10\): /);
-    expect(r.out.trimEnd().split('\n').at(-1)).toMatch(/^1 note changed, 0 added, 0 deleted, \d+ figures changed \(3 compared with HEAD [0-9a-f]{12}\)$/);
+    expect(r.out.trimEnd().split('\n').at(-1)).toMatch(
+      /^1 note changed, 0 added, 0 deleted, \d+ figures changed \(3 compared with HEAD [0-9a-f]{12}\)$/,
+    );
   });
 
   it('--exit-code gives 1 when a figure changed and 0 when none did', async () => {
@@ -194,7 +219,9 @@ describe('dewmark diff: what is not a change', () => {
     reset();
     const r = await dewmark(['diff']);
     expect(r.code).toBe(0);
-    expect(r.out).toMatch(/^0 notes changed, 0 added, 0 deleted, 0 figures changed \(3 compared with HEAD [0-9a-f]{12}\)\n$/);
+    expect(r.out).toMatch(
+      /^0 notes changed, 0 added, 0 deleted, 0 figures changed \(3 compared with HEAD [0-9a-f]{12}\)\n$/,
+    );
   });
 
   it('prints no note when only prose changed (same figures)', async () => {
@@ -218,7 +245,10 @@ describe('dewmark diff: notes and statements added or removed', () => {
     reset();
     unlinkSync(join(repo, 'notes', 'old.md'));
     writeFileSync(join(repo, 'notes', 'new.md'), OTHER);
-    writeFileSync(join(repo, 'notes', 'ahu2.md'), note('32C').replace('state ROOM2: db=22C rh=45%', 'state ROOM3: db=22C rh=45%'));
+    writeFileSync(
+      join(repo, 'notes', 'ahu2.md'),
+      note('32C').replace('state ROOM2: db=22C rh=45%', 'state ROOM3: db=22C rh=45%'),
+    );
     const r = await dewmark(['diff']);
     expect(r.code).toBe(0);
     expect(r.out).toContain('notes/new.md: added since HEAD\n');
@@ -227,7 +257,11 @@ describe('dewmark diff: notes and statements added or removed', () => {
     expect(r.out).toContain('  state ROOM2 (line 11): removed\n');
     const doc = JSON.parse((await dewmark(['diff', '--format', 'json'])).out);
     expect(doc.summary).toMatchObject({ changed: 1, added: 1, deleted: 1, figures: 0 });
-    expect(doc.files.find((f: { path: string }) => f.path === 'notes/old.md')).toEqual({ path: 'notes/old.md', status: 'deleted', items: [] });
+    expect(doc.files.find((f: { path: string }) => f.path === 'notes/old.md')).toEqual({
+      path: 'notes/old.md',
+      status: 'deleted',
+      items: [],
+    });
   });
 
   it('compares only the files after --, also a deleted one, from a subfolder', async () => {
@@ -277,7 +311,9 @@ describe('dewmark diff: bad input', () => {
   it('two operands without -- are a usage error that shows the right form', async () => {
     const r = await dewmark(['diff', 'HEAD', 'notes/ahu2.md']);
     expect(r.code).toBe(2);
-    expect(r.err).toBe("dewmark: dewmark diff takes one revision, then files after --: e.g. dewmark diff HEAD -- notes/ahu2.md\n");
+    expect(r.err).toBe(
+      'dewmark: dewmark diff takes one revision, then files after --: e.g. dewmark diff HEAD -- notes/ahu2.md\n',
+    );
   });
 
   it('outside a git repository is exit 2 saying so', async () => {

@@ -16,7 +16,12 @@ const bin = join(root, 'bin', 'dewmark.js');
 let dir = '';
 
 function dewmark(args: string[]): { code: number | null; out: string; err: string } {
-  const r = spawnSync(process.execPath, [bin, ...args], { cwd: dir, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 60_000 });
+  const r = spawnSync(process.execPath, [bin, ...args], {
+    cwd: dir,
+    encoding: 'utf8',
+    env: { ...process.env, NO_COLOR: '1' },
+    timeout: 60_000,
+  });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 
@@ -54,7 +59,9 @@ describe('inputs that could exhaust memory', () => {
   });
 
   it('--max-note-size lowers and raises the limit, for every command', () => {
-    expect(dewmark(['check', '--max-note-size', '1', 'two.md']).err).toContain("'two.md' is 2 MB, more than the 1 MB one note may be");
+    expect(dewmark(['check', '--max-note-size', '1', 'two.md']).err).toContain(
+      "'two.md' is 2 MB, more than the 1 MB one note may be",
+    );
     expect(dewmark(['eval', '--max-note-size', '1', 'two.md']).code).toBe(2);
     expect(dewmark(['chart', '--max-note-size', '1', 'two.md', '-o', 'two.svg']).code).toBe(2);
     const ok = dewmark(['check', '--max-note-size', '3', 'two.md']);
@@ -69,7 +76,10 @@ describe('inputs that could exhaust memory', () => {
   });
 
   it('standard input without end: stops taking bytes just past the limit (exit 2)', async () => {
-    const child = spawn(process.execPath, [bin, 'check', '--max-note-size', '1', '-'], { cwd: dir, stdio: ['pipe', 'pipe', 'pipe'] });
+    const child = spawn(process.execPath, [bin, 'check', '--max-note-size', '1', '-'], {
+      cwd: dir,
+      stdio: ['pipe', 'pipe', 'pipe'],
+    });
     let err = '';
     child.stderr.on('data', (d: Buffer) => (err += d.toString()));
     const chunk = Buffer.from('Prose without end, no statement in it. '.repeat(1700));
@@ -86,11 +96,12 @@ describe('inputs that could exhaust memory', () => {
     while (open && written < 64 * 1024 * 1024) {
       const ok = child.stdin.write(chunk);
       written += chunk.length;
-      if (!ok) await new Promise<void>((resolve) => {
-        const done = () => resolve();
-        child.stdin.once('drain', done);
-        void exited.then(done);
-      });
+      if (!ok)
+        await new Promise<void>((resolve) => {
+          const done = () => resolve();
+          child.stdin.once('drain', done);
+          void exited.then(done);
+        });
     }
     child.stdin.destroy();
     await exited;

@@ -17,7 +17,16 @@ const root = join(__dirname, '..', '..');
 const bin = join(root, 'bin', 'dewmark.js');
 let dir = '';
 
-const NOTE = ['# Level 2 meeting room', '', '```air', 'state OA: db=32C wb=23C', 'state RA: db=24C rh=50%', 'mix MA: OA 30% + RA 70%', '```', ''].join('\n');
+const NOTE = [
+  '# Level 2 meeting room',
+  '',
+  '```air',
+  'state OA: db=32C wb=23C',
+  'state RA: db=24C rh=50%',
+  'mix MA: OA 30% + RA 70%',
+  '```',
+  '',
+].join('\n');
 const BAD = ['```air', 'state X: db=20C wb=25C', '```', ''].join('\n');
 
 interface Run {
@@ -29,7 +38,13 @@ interface Run {
 
 /** Runs `dewmark …` under the audit preload; `writes` are the recorded attempts. */
 function dewmark(args: string[], input?: string): Run {
-  const r = spawnSync(process.execPath, ['--require', AUDIT_PRELOAD, bin, ...args], { cwd: dir, input, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 60_000 });
+  const r = spawnSync(process.execPath, ['--require', AUDIT_PRELOAD, bin, ...args], {
+    cwd: dir,
+    input,
+    encoding: 'utf8',
+    env: { ...process.env, NO_COLOR: '1' },
+    timeout: 60_000,
+  });
   expect(r.stderr, 'the preload ran').toContain('[io-audit-ready]');
   const err = r.stderr
     .split('\n')
@@ -63,8 +78,10 @@ beforeAll(() => {
   symlinkSync('out', join(dir, 'outlink'));
   // Chains of 12 links (more than a hand-written walk of 8 followed): to a note that does not
   // exist yet (a write would create it), to an existing note, and a loop.
-  for (let i = 0; i < 12; i++) symlinkSync(i === 11 ? 'created-by-chain.md' : `chain${i + 1}.svg`, join(dir, `chain${i}.svg`));
-  for (let i = 0; i < 12; i++) symlinkSync(i === 11 ? 'other.md' : `old-chain${i + 1}.html`, join(dir, `old-chain${i}.html`));
+  for (let i = 0; i < 12; i++)
+    symlinkSync(i === 11 ? 'created-by-chain.md' : `chain${i + 1}.svg`, join(dir, `chain${i}.svg`));
+  for (let i = 0; i < 12; i++)
+    symlinkSync(i === 11 ? 'other.md' : `old-chain${i + 1}.html`, join(dir, `old-chain${i}.html`));
   symlinkSync('loop-b.svg', join(dir, 'loop-a.svg'));
   symlinkSync('loop-a.svg', join(dir, 'loop-b.svg'));
 }, 120_000);
@@ -142,7 +159,9 @@ describe('refusals write nothing (exit 2, with the reason)', () => {
     [['chart', 'note.md', '-o', 'to-nothing.svg'], /a link to .*not-there\.md.*Markdown/],
     [['report', '-', '-o', 'piped.md'], /Markdown file name/],
     // Every Markdown-family ending, in any case (a new file or an existing note).
-    ...['notes.mdwn', 'notes.mkdown', 'page.mdx', 'analysis.qmd', 'analysis.Rmd', 'x.MDTXT', 'book.livemd'].map((o) => [['chart', 'note.md', '-o', o], /Markdown file name/] as [string[], RegExp]),
+    ...['notes.mdwn', 'notes.mkdown', 'page.mdx', 'analysis.qmd', 'analysis.Rmd', 'x.MDTXT', 'book.livemd'].map(
+      (o) => [['chart', 'note.md', '-o', o], /Markdown file name/] as [string[], RegExp],
+    ),
     [['chart', 'note.md', '-o', 'chain0.svg'], /a link to .*created-by-chain\.md.*Markdown/],
     [['report', 'note.md', '-o', 'old-chain0.html'], /a link to .*other\.md.*Markdown/],
     [['chart', 'note.md', '-o', 'loop-a.svg'], /more than 40 symbolic links \(or a loop of them\)/],

@@ -19,7 +19,10 @@ interface Run {
   err: string;
 }
 
-function dewmark(args: string[], opts: { cwd?: string; input?: string | Buffer; env?: Record<string, string> } = {}): Run {
+function dewmark(
+  args: string[],
+  opts: { cwd?: string; input?: string | Buffer; env?: Record<string, string> } = {},
+): Run {
   const r = spawnSync(process.execPath, [bin, ...args], {
     cwd: opts.cwd ?? dir,
     input: opts.input,
@@ -30,8 +33,22 @@ function dewmark(args: string[], opts: { cwd?: string; input?: string | Buffer; 
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 
-const GOOD = ['# Good note', '', '```air', 'site: elev=1600m', 'state RA: db=24C rh=50%', 'state OA: db=32C wb=16.5C', 'mix MA: OA 25% + RA 75%', 'state OFF: db=12C rh=92%', 'process CC: MA -> OFF m=4.6kg/s', '```', ''].join('\n');
-const BAD = ['# Bad note', '', '```air', 'state A: db=20C wb=25C', 'state B: db=24C w=9.3g/kg rh=80%', '```', ''].join('\n');
+const GOOD = [
+  '# Good note',
+  '',
+  '```air',
+  'site: elev=1600m',
+  'state RA: db=24C rh=50%',
+  'state OA: db=32C wb=16.5C',
+  'mix MA: OA 25% + RA 75%',
+  'state OFF: db=12C rh=92%',
+  'process CC: MA -> OFF m=4.6kg/s',
+  '```',
+  '',
+].join('\n');
+const BAD = ['# Bad note', '', '```air', 'state A: db=20C wb=25C', 'state B: db=24C w=9.3g/kg rh=80%', '```', ''].join(
+  '\n',
+);
 const WARN = ['# Warning only', '', '```air', 'state B: db=24C w=9.3g/kg rh=80%', '```', ''].join('\n');
 
 beforeAll(() => {
@@ -78,7 +95,14 @@ describe('dewmark check', () => {
     const doc = JSON.parse(r.out);
     expect(doc.summary).toEqual({ files: 1, errors: 1, warnings: 1, infos: 0, suppressed: 0, unreadable: 0 });
     expect(doc.files[0].path).toBe('bad.md');
-    expect(doc.files[0].diagnostics[0]).toMatchObject({ line: 4, column: 10, endLine: 4, endColumn: 23, severity: 'error', code: 'wb-above-db' });
+    expect(doc.files[0].diagnostics[0]).toMatchObject({
+      line: 4,
+      column: 10,
+      endLine: 4,
+      endColumn: 23,
+      severity: 'error',
+      code: 'wb-above-db',
+    });
   });
 
   it('columns are right with a byte-order mark and CRLF line ends', () => {
@@ -108,10 +132,18 @@ describe('dewmark check', () => {
     const doc = JSON.parse(r.out);
     expect(doc.files.map((f: { path: string }) => f.path).sort()).toEqual(['notes/a.md', 'notes/deep/b.md']);
     const all = dewmark(['check', '--format', 'json', '--no-gitignore', 'notes/**/*.md']);
-    expect(JSON.parse(all.out).files.map((f: { path: string }) => f.path).sort()).toEqual(['notes/a.md', 'notes/build/generated.md', 'notes/deep/b.md']);
+    expect(
+      JSON.parse(all.out)
+        .files.map((f: { path: string }) => f.path)
+        .sort(),
+    ).toEqual(['notes/a.md', 'notes/build/generated.md', 'notes/deep/b.md']);
     // Only Markdown files: notes/deep/skip.txt matches notes/**/* but is not read.
     const star = dewmark(['check', '--format', 'json', 'notes/**/*']);
-    expect(JSON.parse(star.out).files.map((f: { path: string }) => f.path).sort()).toEqual(['notes/a.md', 'notes/deep/b.md']);
+    expect(
+      JSON.parse(star.out)
+        .files.map((f: { path: string }) => f.path)
+        .sort(),
+    ).toEqual(['notes/a.md', 'notes/deep/b.md']);
   });
 
   it('--exclude leaves matching files and folders out of folders and globs (repeatable)', () => {
@@ -126,7 +158,9 @@ describe('dewmark check', () => {
   it('a folder where nothing is left says what was left out', () => {
     const r = dewmark(['check', '--exclude', '*.md', 'notes']);
     expect(r.code).toBe(2);
-    expect(r.err).toContain("dewmark: no Markdown files (.md, .markdown) found in 'notes'; in 'notes': folders and Markdown files: 1 left out by .gitignore or .git/info/exclude (--no-gitignore reads it), 2 left out by --exclude");
+    expect(r.err).toContain(
+      "dewmark: no Markdown files (.md, .markdown) found in 'notes'; in 'notes': folders and Markdown files: 1 left out by .gitignore or .git/info/exclude (--no-gitignore reads it), 2 left out by --exclude",
+    );
   });
 
   it('a glob that matches only other files says so', () => {
@@ -170,14 +204,21 @@ describe('dewmark check', () => {
   it('many files (checked in worker threads) keep their order and totals', () => {
     const many = join(dir, 'many');
     mkdirSync(many);
-    for (let i = 0; i < 200; i++) writeFileSync(join(many, `n${String(i).padStart(3, '0')}.md`), i % 10 === 3 ? BAD : GOOD);
+    for (let i = 0; i < 200; i++)
+      writeFileSync(join(many, `n${String(i).padStart(3, '0')}.md`), i % 10 === 3 ? BAD : GOOD);
     // Two workers whatever the machine's load (by default a busy machine gets none).
     const r = dewmark(['check', '--format', 'json', 'many'], { env: { DEWMARK_WORKERS: '2' } });
     expect(r.code).toBe(1);
     const doc = JSON.parse(r.out);
-    expect(doc.files.map((f: { path: string }) => f.path)).toEqual(Array.from({ length: 200 }, (_, i) => `many/n${String(i).padStart(3, '0')}.md`));
+    expect(doc.files.map((f: { path: string }) => f.path)).toEqual(
+      Array.from({ length: 200 }, (_, i) => `many/n${String(i).padStart(3, '0')}.md`),
+    );
     expect(doc.summary).toEqual({ files: 200, errors: 20, warnings: 20, infos: 0, suppressed: 0, unreadable: 0 });
-    const serial = spawnSync(process.execPath, [bin, 'check', '--format', 'json', 'many'], { cwd: dir, encoding: 'utf8', env: { ...process.env, DEWMARK_WORKERS: '0' } });
+    const serial = spawnSync(process.execPath, [bin, 'check', '--format', 'json', 'many'], {
+      cwd: dir,
+      encoding: 'utf8',
+      env: { ...process.env, DEWMARK_WORKERS: '0' },
+    });
     expect(JSON.parse(serial.stdout)).toEqual(doc);
   });
 
@@ -185,10 +226,14 @@ describe('dewmark check', () => {
     const fixture = join(root, 'test', 'fixtures', 'diagnostics', 'stale-results-table.md');
     const r = dewmark(['check', fixture]);
     expect(r.code).toBe(0);
-    expect(r.out).toMatch(/stale-results-table\.md:12:1: warning\[stale-results-table\]: the results table below the air block at line 6 is out of date: .*Insert or Refresh Results Table/);
+    expect(r.out).toMatch(
+      /stale-results-table\.md:12:1: warning\[stale-results-table\]: the results table below the air block at line 6 is out of date: .*Insert or Refresh Results Table/,
+    );
     expect(r.out).toContain('1 file, 0 errors, 1 warning');
     expect(dewmark(['check', '--max-warnings', '0', fixture]).code).toBe(1);
-    expect(dewmark(['check', join(root, 'test', 'fixtures', 'features', 'results-table.md')]).out).toContain('1 file, 0 errors, 0 warnings');
+    expect(dewmark(['check', join(root, 'test', 'fixtures', 'features', 'results-table.md')]).out).toContain(
+      '1 file, 0 errors, 0 warnings',
+    );
   });
 
   it('--elevation sets the default pressure (notes without a site line)', () => {
@@ -206,11 +251,13 @@ describe('dewmark eval', () => {
     const f = JSON.parse(r.out).files[0];
     expect(f.path).toBe('good.md');
     const ra = f.states.find((s: { name: string }) => s.name === 'RA');
-    for (const k of ['name', 'line', 'kind', 'p_kPa', 'db_C', 'wb_C', 'dp_C', 'rh_pct', 'w_kgkg', 'h_kJkg', 'v_m3kg']) expect(ra).toHaveProperty(k);
+    for (const k of ['name', 'line', 'kind', 'p_kPa', 'db_C', 'wb_C', 'dp_C', 'rh_pct', 'w_kgkg', 'h_kJkg', 'v_m3kg'])
+      expect(ra).toHaveProperty(k);
     expect(ra).toMatchObject({ name: 'RA', line: 5, kind: 'state', db_C: 24, rh_pct: 50 });
     expect(f.states.find((s: { name: string }) => s.name === 'MA').kind).toBe('mix');
     const cc = f.processes[0];
-    for (const k of ['name', 'line', 'm_kgs', 'q_total_kW', 'q_sensible_kW', 'q_latent_kW', 'shr', 'water_kgh']) expect(cc).toHaveProperty(k);
+    for (const k of ['name', 'line', 'm_kgs', 'q_total_kW', 'q_sensible_kW', 'q_latent_kW', 'shr', 'water_kgh'])
+      expect(cc).toHaveProperty(k);
     expect(cc).toMatchObject({ name: 'CC', line: 9, m_kgs: 4.6, kind: 'cooling-dehumidifying' });
     expect(cc.q_total_kW).toBeLessThan(0);
     expect(f.diagnostics).toEqual([]);

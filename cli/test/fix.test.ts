@@ -19,7 +19,13 @@ const bin = join(root, 'bin', 'dewmark.js');
 let dir = '';
 
 function dewmark(args: string[], input?: string) {
-  const r = spawnSync(process.execPath, [bin, ...args], { cwd: dir, input, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', DEWMARK_WORKERS: '0' }, timeout: 60_000 });
+  const r = spawnSync(process.execPath, [bin, ...args], {
+    cwd: dir,
+    input,
+    encoding: 'utf8',
+    env: { ...process.env, NO_COLOR: '1', DEWMARK_WORKERS: '0' },
+    timeout: 60_000,
+  });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 
@@ -27,19 +33,37 @@ function dewmark(args: string[], input?: string) {
 function proposed(file: string): string[] {
   const r = dewmark(['check', '--format', 'json', file]);
   const json = JSON.parse(r.out) as { files: { diagnostics: { code: string; message: string }[] }[] };
-  return json.files[0]!.diagnostics.filter((d) => d.code === 'claim-mismatch').map((d) => /update it to (\S+?)(?: or |$)/.exec(d.message)![1]!);
+  return json.files[0]!.diagnostics.filter((d) => d.code === 'claim-mismatch').map(
+    (d) => /update it to (\S+?)(?: or |$)/.exec(d.message)![1]!,
+  );
 }
 
 /** A note with its results tables written (as the editor command writes them). */
 function withTables(text: string): string {
-  const plan = resultsTableEdits({ text, analysis: analyzeNote(text), settings: DEFAULT_SERVICE_SETTINGS }, { kind: 'all' });
+  const plan = resultsTableEdits(
+    { text, analysis: analyzeNote(text), settings: DEFAULT_SERVICE_SETTINGS },
+    { kind: 'all' },
+  );
   let out = text;
-  for (const e of [...plan.edits].sort((a, b) => b.span.start - a.span.start)) out = out.slice(0, e.span.start) + e.newText + out.slice(e.span.end);
+  for (const e of [...plan.edits].sort((a, b) => b.span.start - a.span.start))
+    out = out.slice(0, e.span.start) + e.newText + out.slice(e.span.end);
   return out;
 }
 
 // Invented notes of an invented building.
-const STALE = ['# Larch Street clinic, AHU-3', '', 'Room design:', '', '```air', 'state RA: db=24C rh=50% w=11.0g/kg   # w written long ago', 'state OA: db=30C rh=40% dp=25.0C', '```', '', 'End of note.', ''].join('\r\n');
+const STALE = [
+  '# Larch Street clinic, AHU-3',
+  '',
+  'Room design:',
+  '',
+  '```air',
+  'state RA: db=24C rh=50% w=11.0g/kg   # w written long ago',
+  'state OA: db=30C rh=40% dp=25.0C',
+  '```',
+  '',
+  'End of note.',
+  '',
+].join('\r\n');
 
 beforeAll(() => {
   const b = spawnSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, encoding: 'utf8' });
@@ -80,7 +104,10 @@ describe('dewmark fix', () => {
     const r = dewmark(['fix', '--write', 'write.md']);
     expect(r.code, r.err).toBe(0);
     expect(r.out).toBe('');
-    const expected = Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(STALE.replace('w=11.0g/kg', `w=${figures[0]}`).replace('dp=25.0C', `dp=${figures[1]}`), 'utf8')]);
+    const expected = Buffer.concat([
+      Buffer.from([0xef, 0xbb, 0xbf]),
+      Buffer.from(STALE.replace('w=11.0g/kg', `w=${figures[0]}`).replace('dp=25.0C', `dp=${figures[1]}`), 'utf8'),
+    ]);
     expect(readFileSync(file).equals(expected)).toBe(true);
     const again = dewmark(['fix', '--write', 'write.md']);
     expect(again.code).toBe(0);
@@ -90,7 +117,9 @@ describe('dewmark fix', () => {
   });
 
   it('refreshes a results table that went stale, and only the text between its markers', () => {
-    const fresh = withTables(['# AHU-3 off-coil', '', '```air', 'state OFF: db=12C rh=92%', '```', '', 'After the table.', ''].join('\n'));
+    const fresh = withTables(
+      ['# AHU-3 off-coil', '', '```air', 'state OFF: db=12C rh=92%', '```', '', 'After the table.', ''].join('\n'),
+    );
     expect(fresh).toContain('dewmark-results');
     // The engineer changes the state and forgets the table.
     const stale = fresh.replace('rh=92%', 'rh=85%');
@@ -100,7 +129,11 @@ describe('dewmark fix', () => {
     expect(r.code, r.err).toBe(0);
     expect(r.err).toContain('fixed 0 stale claims and 1 results table in 1 file');
     const after = readFileSync(join(dir, 'table.md'), 'utf8');
-    expect(after).toBe(withTables(['# AHU-3 off-coil', '', '```air', 'state OFF: db=12C rh=85%', '```', '', 'After the table.', ''].join('\n')));
+    expect(after).toBe(
+      withTables(
+        ['# AHU-3 off-coil', '', '```air', 'state OFF: db=12C rh=85%', '```', '', 'After the table.', ''].join('\n'),
+      ),
+    );
     const start = stale.indexOf('<!-- dewmark-results');
     expect(after.slice(0, start)).toBe(stale.slice(0, start));
     expect(after.slice(after.lastIndexOf('-->') + 3)).toBe(stale.slice(stale.lastIndexOf('-->') + 3));
@@ -108,7 +141,9 @@ describe('dewmark fix', () => {
   });
 
   it('a rewritten claim that feeds a table: both in one run, and the result is already fixed', () => {
-    const note = withTables(['```air', 'state A: db=24C rh=50%', '```', ''].join('\n')).replace('rh=50%', 'rh=50% w=11.0g/kg').replace('db=24C', 'db=26C');
+    const note = withTables(['```air', 'state A: db=24C rh=50%', '```', ''].join('\n'))
+      .replace('rh=50%', 'rh=50% w=11.0g/kg')
+      .replace('db=24C', 'db=26C');
     writeFileSync(join(dir, 'both.md'), note);
     const r = dewmark(['fix', '--write', 'both.md']);
     expect(r.err).toContain('fixed 1 stale claim and 1 results table in 1 file');
@@ -173,10 +208,21 @@ describe('--help of check and eval', () => {
 
 describe('suppressed diagnostics on the command line', () => {
   it('check --format json lists them under suppressed (with the reason) and counts them apart; sarif marks them in-source', () => {
-    writeFileSync(join(dir, 'ack.md'), ['```air', 'state RA: db=24C rh=50% w=11.0g/kg   # dewmark-ignore claim-mismatch -- logged on site', 'state X: db=20C wb=25C', '```', ''].join('\n'));
+    writeFileSync(
+      join(dir, 'ack.md'),
+      [
+        '```air',
+        'state RA: db=24C rh=50% w=11.0g/kg   # dewmark-ignore claim-mismatch -- logged on site',
+        'state X: db=20C wb=25C',
+        '```',
+        '',
+      ].join('\n'),
+    );
     const json = JSON.parse(dewmark(['check', '--format', 'json', 'ack.md']).out);
     expect(json.files[0].diagnostics.map((d: { code: string }) => d.code)).toEqual(['wb-above-db']);
-    expect(json.files[0].suppressed).toEqual([expect.objectContaining({ code: 'claim-mismatch', line: 2, justification: 'logged on site', ignoreLine: 2 })]);
+    expect(json.files[0].suppressed).toEqual([
+      expect.objectContaining({ code: 'claim-mismatch', line: 2, justification: 'logged on site', ignoreLine: 2 }),
+    ]);
     expect(json.summary).toMatchObject({ errors: 1, warnings: 0, suppressed: 1 });
     const text = dewmark(['check', '--max-warnings', '0', 'ack.md']);
     expect(text.out).not.toContain('claim-mismatch');

@@ -18,7 +18,14 @@ interface Psy {
 const psy = createRequire(import.meta.url)('psychrolib') as Psy;
 psy.SetUnitSystem(psy.SI);
 
-const NOTE = ['```air', 'state DRY: db=20C dp=-60C', 'state ROOM: db=21C dp=-40C', 'process H: DRY -> ROOM m=0.5kg/s', '```', ''].join('\n');
+const NOTE = [
+  '```air',
+  'state DRY: db=20C dp=-60C',
+  'state ROOM: db=21C dp=-40C',
+  'process H: DRY -> ROOM m=0.5kg/s',
+  '```',
+  '',
+].join('\n');
 
 function doc() {
   const analysis = analyzeNote(NOTE);

@@ -16,7 +16,12 @@ const bin = join(root, 'bin', 'dewmark.js');
 let dir = '';
 
 function dewmark(args: string[], cwd = dir) {
-  const r = spawnSync(process.execPath, [bin, ...args], { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', DEWMARK_WORKERS: '0' }, timeout: 60_000 });
+  const r = spawnSync(process.execPath, [bin, ...args], {
+    cwd,
+    encoding: 'utf8',
+    env: { ...process.env, NO_COLOR: '1', DEWMARK_WORKERS: '0' },
+    timeout: 60_000,
+  });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 
@@ -27,7 +32,14 @@ function figures(states: Record<string, unknown>[] | undefined) {
 
 function json(args: string[], cwd = dir) {
   const r = dewmark(args, cwd);
-  return JSON.parse(r.out) as { files: { path: string; units?: string; states?: { name: string; p_kPa: number; db_C: number; pressure: string }[]; diagnostics: { code: string; severity: string }[] }[] };
+  return JSON.parse(r.out) as {
+    files: {
+      path: string;
+      units?: string;
+      states?: { name: string; p_kPa: number; db_C: number; pressure: string }[];
+      diagnostics: { code: string; severity: string }[];
+    }[];
+  };
 }
 
 // Invented notes: a room state with a stale claim, and an archived note with an error.
@@ -44,7 +56,10 @@ beforeAll(() => {
   const b = spawnSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, encoding: 'utf8' });
   if (b.status !== 0) throw new Error(`build failed: ${b.stderr}`);
   dir = mkdtempSync(join(tmpdir(), 'dewmark-project-'));
-  write('repo/dewmark.json', JSON.stringify({ units: 'IP', elevation: '1600 m', rules: { 'claim-mismatch': 'error' }, exclude: ['archive/**'] }));
+  write(
+    'repo/dewmark.json',
+    JSON.stringify({ units: 'IP', elevation: '1600 m', rules: { 'claim-mismatch': 'error' }, exclude: ['archive/**'] }),
+  );
   write('repo/calcs/room.md', ROOM);
   write('repo/archive/old.md', OLD);
   write('repo/calcs/sub/dewmark.json', JSON.stringify({ units: 'SI' }));
@@ -74,7 +89,8 @@ describe('dewmark.json on the command line', () => {
     expect(room.units).toBe('IP');
     expect(room.diagnostics.map((d) => `${d.code}:${d.severity}`)).toEqual(['claim-mismatch:error']);
     // The same note with the same settings given as options.
-    const same = json(['eval', '--format', 'json', '--units', 'IP', '--elevation', '1600m', 'plain/room.md'], dir).files[0]!;
+    const same = json(['eval', '--format', 'json', '--units', 'IP', '--elevation', '1600m', 'plain/room.md'], dir)
+      .files[0]!;
     expect(figures(room.states)).toEqual(figures(same.states));
     expect(room.states![0]!.pressure).toMatch(/^repo\/dewmark\.json: elevation 1600 m \(standard atmosphere\)/);
     expect(dewmark(['check', 'repo']).code).toBe(1);
@@ -91,7 +107,8 @@ describe('dewmark.json on the command line', () => {
   it('options given on the command line win over the project file', () => {
     const r = json(['eval', '--format', 'json', '--units', 'SI', 'repo/calcs/room.md']).files[0]!;
     expect(r.units).toBe('SI');
-    const onlyElevation = json(['eval', '--format', 'json', '--units', 'SI', '--elevation', '1600m', 'plain/room.md']).files[0]!;
+    const onlyElevation = json(['eval', '--format', 'json', '--units', 'SI', '--elevation', '1600m', 'plain/room.md'])
+      .files[0]!;
     expect(figures(r.states)).toEqual(figures(onlyElevation.states));
   });
 

@@ -14,7 +14,16 @@ import { HOST_MAX_NOTE_KB, hostBounded } from './hostLimit';
 import { SETTINGS_SECTION } from '@dewmark/protocol';
 
 /** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */
-const SETTING_KEYS = ['units', 'pressure', 'elevation', 'inlayHints.properties', 'precision', 'checkClaims', 'hover.secondaryUnits', 'maxNoteSizeKB'];
+const SETTING_KEYS = [
+  'units',
+  'pressure',
+  'elevation',
+  'inlayHints.properties',
+  'precision',
+  'checkClaims',
+  'hover.secondaryUnits',
+  'maxNoteSizeKB',
+];
 
 /** The settings section for a document, as the plain object the server would receive. */
 function settingsFor(uri: vscode.Uri): Record<string, unknown> {

@@ -56,7 +56,16 @@ export interface DewmarkApi {
 }
 
 /** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */
-const SETTING_KEYS = ['units', 'pressure', 'elevation', 'inlayHints.properties', 'precision', 'checkClaims', 'hover.secondaryUnits', 'maxNoteSizeKB'];
+const SETTING_KEYS = [
+  'units',
+  'pressure',
+  'elevation',
+  'inlayHints.properties',
+  'precision',
+  'checkClaims',
+  'hover.secondaryUnits',
+  'maxNoteSizeKB',
+];
 
 /** The service settings for a document (or the window's when there is none), as the server reads them. */
 export function documentSettings(uri: vscode.Uri | undefined): ServiceSettings {
@@ -76,7 +85,10 @@ function previewDocument(env: unknown): vscode.Uri | undefined {
 function extendPreview<T extends object>(md: T, output: vscode.LogOutputChannel): T {
   return dewmarkPreviewPlugin(md, {
     settings: (env) => documentSettings(previewDocument(env)),
-    onError: (err) => output.error(`the preview's results could not be computed: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`),
+    onError: (err) =>
+      output.error(
+        `the preview's results could not be computed: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`,
+      ),
   });
 }
 
@@ -93,7 +105,11 @@ class ServerController {
     // The Node options bound the server's heap slack (@dewmark/protocol, nodeOptions.ts, says why).
     const serverOptions: ServerOptions = {
       run: { module: serverModule, transport: TransportKind.ipc, options: { execArgv: [...SERVER_EXEC_ARGV] } },
-      debug: { module: serverModule, transport: TransportKind.ipc, options: { execArgv: [...SERVER_EXEC_ARGV, '--nolazy', '--inspect=6019'] } },
+      debug: {
+        module: serverModule,
+        transport: TransportKind.ipc,
+        options: { execArgv: [...SERVER_EXEC_ARGV, '--nolazy', '--inspect=6019'] },
+      },
     };
     const clientOptions: LanguageClientOptions = {
       documentSelector: DOCUMENT_SCHEMES.map((scheme) => ({ language: 'markdown', scheme })),
@@ -105,7 +121,10 @@ class ServerController {
         error: (error, _message, count) => {
           output.warn(`connection to the server: ${error.message}`);
           if ((count ?? 0) <= 3) return { action: ErrorAction.Continue, handled: true };
-          return { action: ErrorAction.Shutdown, message: `The connection to the Dewmark language server keeps failing (${error.message}); it was stopped. Run "Dewmark: Restart Language Server" to start it again.` };
+          return {
+            action: ErrorAction.Shutdown,
+            message: `The connection to the Dewmark language server keeps failing (${error.message}); it was stopped. Run "Dewmark: Restart Language Server" to start it again.`,
+          };
         },
         closed: () => {
           const d = this.policy.onCrash();
@@ -119,7 +138,11 @@ class ServerController {
               });
             }
           }
-          return { action: d.restart ? CloseAction.Restart : CloseAction.DoNotRestart, message: d.message, handled: true };
+          return {
+            action: d.restart ? CloseAction.Restart : CloseAction.DoNotRestart,
+            message: d.message,
+            handled: true,
+          };
         },
       },
     };
@@ -152,7 +175,10 @@ class ServerController {
 }
 
 /** The active note's status: from the server when it can say, else from the settings. */
-async function noteStatus(ctl: ServerController, doc: vscode.TextDocument): Promise<{ status: NoteStatusResult; fromServer: boolean }> {
+async function noteStatus(
+  ctl: ServerController,
+  doc: vscode.TextDocument,
+): Promise<{ status: NoteStatusResult; fromServer: boolean }> {
   const method = ctl.noteStatusMethod();
   if (method) {
     try {
@@ -164,7 +190,14 @@ async function noteStatus(ctl: ServerController, doc: vscode.TextDocument): Prom
     }
   }
   const cfg = vscode.workspace.getConfiguration(SETTINGS_SECTION, doc.uri);
-  return { status: statusFromSettings({ units: cfg.get('units'), pressure: cfg.get('pressure'), elevation: cfg.get('elevation') }), fromServer: false };
+  return {
+    status: statusFromSettings({
+      units: cfg.get('units'),
+      pressure: cfg.get('pressure'),
+      elevation: cfg.get('elevation'),
+    }),
+    fromServer: false,
+  };
 }
 
 function activeNote(): vscode.TextEditor | undefined {
@@ -220,7 +253,9 @@ function createStatusBar(ctl: ServerController, context: vscode.ExtensionContext
 async function switchUnits(ctl: ServerController, refreshStatus: () => void): Promise<void> {
   const editor = activeNote();
   if (!editor) {
-    void vscode.window.showInformationMessage('Dewmark: open a Markdown note first; the result units are switched for the active note.');
+    void vscode.window.showInformationMessage(
+      'Dewmark: open a Markdown note first; the result units are switched for the active note.',
+    );
     return;
   }
   const doc = editor.document;
@@ -228,13 +263,16 @@ async function switchUnits(ctl: ServerController, refreshStatus: () => void): Pr
   const other = status.units === 'SI' ? 'IP' : 'SI';
   if (status.unitsSource === 'note') {
     if (!status.unitsValueRange) {
-      void vscode.window.showInformationMessage(`Dewmark: this note sets its result units with a units: line; change it to "units: ${other}".`);
+      void vscode.window.showInformationMessage(
+        `Dewmark: this note sets its result units with a units: line; change it to "units: ${other}".`,
+      );
       return;
     }
     const r = status.unitsValueRange;
     const edit = new vscode.WorkspaceEdit();
     edit.replace(doc.uri, new vscode.Range(r.start.line, r.start.character, r.end.line, r.end.character), other);
-    if (!(await vscode.workspace.applyEdit(edit))) void vscode.window.showErrorMessage(`Dewmark: could not edit the note's units: line (is the file read-only?).`);
+    if (!(await vscode.workspace.applyEdit(edit)))
+      void vscode.window.showErrorMessage(`Dewmark: could not edit the note's units: line (is the file read-only?).`);
   } else {
     const cfg = vscode.workspace.getConfiguration(SETTINGS_SECTION, doc.uri);
     const where = cfg.inspect('units');
@@ -253,7 +291,9 @@ async function switchUnits(ctl: ServerController, refreshStatus: () => void): Pr
 /** `Dewmark: Check All Notes in the Workspace`, with the server's progress in a notification. */
 async function checkWorkspace(ctl: ServerController): Promise<void> {
   if (!vscode.workspace.workspaceFolders?.length) {
-    void vscode.window.showInformationMessage('Dewmark: open a folder first; "Check All Notes" reads every Markdown file of the workspace folders.');
+    void vscode.window.showInformationMessage(
+      'Dewmark: open a folder first; "Check All Notes" reads every Markdown file of the workspace folders.',
+    );
     return;
   }
   await ctl.ready();
@@ -274,10 +314,12 @@ async function checkWorkspace(ctl: ServerController): Promise<void> {
         const r = await ctl.client.sendRequest<CheckWorkspaceResult>(CHECK_WORKSPACE_METHOD, params, token);
         const plural = (n: number, w: string) => `${n} ${w}${n === 1 ? '' : 's'}`;
         let text = `Dewmark: checked ${plural(r.notes.length, 'note')} with statements (${plural(r.filesRead, 'Markdown file')} read): ${plural(r.errors, 'error')}, ${plural(r.warnings, 'warning')}.`;
-        if (r.unreadable.length > 0) text += ` ${plural(r.unreadable.length, 'file')} could not be read (see Output → Dewmark).`;
+        if (r.unreadable.length > 0)
+          text += ` ${plural(r.unreadable.length, 'file')} could not be read (see Output → Dewmark).`;
         for (const u of r.unreadable) ctl.client.warn(`could not read ${u.uri}: ${u.reason}`);
         const skipped = r.skippedFolders ?? [];
-        if (skipped.length > 0) text += ` ${plural(skipped.length, 'workspace folder')} skipped (see Output → Dewmark).`;
+        if (skipped.length > 0)
+          text += ` ${plural(skipped.length, 'workspace folder')} skipped (see Output → Dewmark).`;
         for (const f of skipped) ctl.client.warn(`skipped the workspace folder ${f.uri}: ${f.reason}`);
         return text;
       } catch (err) {
@@ -303,15 +345,23 @@ async function checkWorkspace(ctl: ServerController): Promise<void> {
 async function insertResultsTable(ctl: ServerController): Promise<void> {
   const editor = activeNote();
   if (!editor) {
-    void vscode.window.showInformationMessage('Dewmark: open a Markdown note first; the results tables are written below its air blocks.');
+    void vscode.window.showInformationMessage(
+      'Dewmark: open a Markdown note first; the results tables are written below its air blocks.',
+    );
     return;
   }
   await ctl.ready();
   const doc = editor.document;
   const c2p = ctl.client.code2ProtocolConverter;
   const ask = async (all: boolean): Promise<ResultsTableResult | null> => {
-    const params: ResultsTableParams = { textDocument: { uri: c2p.asUri(doc.uri) }, ...(all ? { all: true } : { position: c2p.asPosition(editor.selection.active) }) };
-    return ctl.client.sendRequest<ResultsTableResult | null>('workspace/executeCommand', { command: RESULTS_TABLE_COMMAND, arguments: [params] });
+    const params: ResultsTableParams = {
+      textDocument: { uri: c2p.asUri(doc.uri) },
+      ...(all ? { all: true } : { position: c2p.asPosition(editor.selection.active) }),
+    };
+    return ctl.client.sendRequest<ResultsTableResult | null>('workspace/executeCommand', {
+      command: RESULTS_TABLE_COMMAND,
+      arguments: [params],
+    });
   };
   let r: ResultsTableResult | null = null;
   // The server answers for the text it has; ask again if the note changed meanwhile.
@@ -321,7 +371,9 @@ async function insertResultsTable(ctl: ServerController): Promise<void> {
     if (!r || r.version === doc.version) break;
   }
   if (!r) {
-    void vscode.window.showWarningMessage('Dewmark: the language server does not have this note open; try again in a moment.');
+    void vscode.window.showWarningMessage(
+      'Dewmark: the language server does not have this note open; try again in a moment.',
+    );
     return;
   }
   if (r.blocks === 0) {
@@ -329,21 +381,38 @@ async function insertResultsTable(ctl: ServerController): Promise<void> {
     return;
   }
   if (r.edit) {
-    const edit = await ctl.client.protocol2CodeConverter.asWorkspaceEdit(r.edit as Parameters<typeof ctl.client.protocol2CodeConverter.asWorkspaceEdit>[0]);
+    const edit = await ctl.client.protocol2CodeConverter.asWorkspaceEdit(
+      r.edit as Parameters<typeof ctl.client.protocol2CodeConverter.asWorkspaceEdit>[0],
+    );
     if (!edit || !(await vscode.workspace.applyEdit(edit))) {
-      void vscode.window.showErrorMessage('Dewmark: could not write the results table (is the file read-only, or did it change meanwhile?).');
+      void vscode.window.showErrorMessage(
+        'Dewmark: could not write the results table (is the file read-only, or did it change meanwhile?).',
+      );
       return;
     }
   }
   let said: string;
-  if (r.blocks === 1) said = r.inserted ? 'results table inserted' : r.refreshed ? 'results table refreshed' : r.unchanged ? 'results table already up to date' : 'results table left alone';
+  if (r.blocks === 1)
+    said = r.inserted
+      ? 'results table inserted'
+      : r.refreshed
+        ? 'results table refreshed'
+        : r.unchanged
+          ? 'results table already up to date'
+          : 'results table left alone';
   else {
-    const parts = [r.inserted ? `${r.inserted} inserted` : '', r.refreshed ? `${r.refreshed} refreshed` : '', r.unchanged ? `${r.unchanged} already up to date` : ''].filter(Boolean);
+    const parts = [
+      r.inserted ? `${r.inserted} inserted` : '',
+      r.refreshed ? `${r.refreshed} refreshed` : '',
+      r.unchanged ? `${r.unchanged} already up to date` : '',
+    ].filter(Boolean);
     said = `results tables: ${parts.join(', ') || 'none changed'}`;
   }
   vscode.window.setStatusBarMessage(`Dewmark: ${said}`, 5000);
   if (r.unterminated > 0) {
-    void vscode.window.showWarningMessage(`Dewmark: ${r.unterminated === 1 ? 'a results table has' : `${r.unterminated} results tables have`} no end marker and ${r.unterminated === 1 ? 'was' : 'were'} left alone; see its warning in the Problems view.`);
+    void vscode.window.showWarningMessage(
+      `Dewmark: ${r.unterminated === 1 ? 'a results table has' : `${r.unterminated} results tables have`} no end marker and ${r.unterminated === 1 ? 'was' : 'were'} left alone; see its warning in the Problems view.`,
+    );
   }
 }
 
@@ -378,7 +447,8 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
   // (units, pressure…) changes the results it shows.
   context.subscriptions.push(
     vscode.workspace.onDidChangeConfiguration((e) => {
-      if (e.affectsConfiguration(SETTINGS_SECTION)) void vscode.commands.executeCommand('markdown.preview.refresh').then(undefined, () => undefined);
+      if (e.affectsConfiguration(SETTINGS_SECTION))
+        void vscode.commands.executeCommand('markdown.preview.refresh').then(undefined, () => undefined);
     }),
   );
   // The chart code (and the core it draws with) is evaluated on first use, not at activation.
@@ -394,8 +464,14 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
     }
   };
   context.subscriptions.push(
-    vscode.commands.registerCommand(COMMANDS.switchUnits.id, guard('switching units', () => switchUnits(ctl, refreshStatus))),
-    vscode.commands.registerCommand(COMMANDS.checkWorkspace.id, guard('checking the workspace', () => checkWorkspace(ctl))),
+    vscode.commands.registerCommand(
+      COMMANDS.switchUnits.id,
+      guard('switching units', () => switchUnits(ctl, refreshStatus)),
+    ),
+    vscode.commands.registerCommand(
+      COMMANDS.checkWorkspace.id,
+      guard('checking the workspace', () => checkWorkspace(ctl)),
+    ),
     vscode.commands.registerCommand(
       COMMANDS.restartServer.id,
       guard('restarting the server', async () => {
@@ -408,14 +484,19 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
       guard('showing the chart', async () => {
         const editor = activeNote();
         if (!editor) {
-          void vscode.window.showInformationMessage('Dewmark: open a Markdown note first; the chart shows the active note.');
+          void vscode.window.showInformationMessage(
+            'Dewmark: open a Markdown note first; the chart shows the active note.',
+          );
           return;
         }
         charts ??= new (await import('./chart')).ChartPanels(output);
         charts.show(editor.document);
       }),
     ),
-    vscode.commands.registerCommand(COMMANDS.insertResultsTable.id, guard('writing the results table', () => insertResultsTable(ctl))),
+    vscode.commands.registerCommand(
+      COMMANDS.insertResultsTable.id,
+      guard('writing the results table', () => insertResultsTable(ctl)),
+    ),
     vscode.commands.registerCommand(COMMANDS.showLog.id, () => output.show(true)),
     { dispose: () => void ctl.client.stop() },
   );

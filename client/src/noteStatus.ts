@@ -55,8 +55,7 @@ export function statusFromSettings(s: StatusSettings): NoteStatusResult {
 /** The status-bar text and tooltip for a note status. */
 export function statusView(status: NoteStatusResult, fromServer: boolean): StatusView {
   const other = status.units === 'SI' ? 'IP' : 'SI';
-  const unitsWhy =
-    status.unitsSource === 'note' ? "set by the note's units: line" : 'from the setting dewmark.units';
+  const unitsWhy = status.unitsSource === 'note' ? "set by the note's units: line" : 'from the setting dewmark.units';
   const lines = [
     `Dewmark: results in ${status.units} (${unitsWhy}).`,
     status.pressureDescribe,
@@ -64,6 +63,9 @@ export function statusView(status: NoteStatusResult, fromServer: boolean): Statu
       ? `Click to switch to ${other} (rewrites the note's units: line).`
       : `Click to switch to ${other} (changes the setting dewmark.units).`,
   ];
-  if (!fromServer) lines.push("The server did not report this note's own units: or site: lines; these figures come from the settings.");
+  if (!fromServer)
+    lines.push(
+      "The server did not report this note's own units: or site: lines; these figures come from the settings.",
+    );
   return { text: `$(symbol-ruler) ${status.units} · ${status.pressureLabel}`, tooltip: lines.join('\n'), other };
 }

@@ -13,7 +13,14 @@
  * markdown-it in tests.
  */
 import { analyzeText, DEFAULT_SERVICE_SETTINGS, type ServiceSettings } from '@dewmark/core/service';
-import { allBlockResults, RESULTS_COMMAND_TITLE, resultsTableHtml, tableSlots, tableState, type ResultsData } from '@dewmark/core/present';
+import {
+  allBlockResults,
+  RESULTS_COMMAND_TITLE,
+  resultsTableHtml,
+  tableSlots,
+  tableState,
+  type ResultsData,
+} from '@dewmark/core/present';
 import { LineIndex } from '@dewmark/core/text';
 import { hostBounded } from './hostLimit';
 
@@ -61,7 +68,8 @@ function htmlByLine(src: string, settings: ServiceSettings): Map<number, string>
   const note = analyzeText(src, settings);
   const lines = new LineIndex(src);
   const slots = new Map<number, ReturnType<typeof tableSlots>[number]>();
-  if (src.includes('dewmark-results')) for (const s of tableSlots(src, note.analysis.parsed.regions)) slots.set(s.region.span.start, s);
+  if (src.includes('dewmark-results'))
+    for (const s of tableSlots(src, note.analysis.parsed.regions)) slots.set(s.region.span.start, s);
   const out = new Map<number, string>();
   for (const { region, data } of allBlockResults(note.analysis)) {
     const table = slots.get(region.span.start)?.table ?? null;

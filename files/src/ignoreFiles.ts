@@ -90,7 +90,8 @@ export class IgnoreFiles {
     const cached = this.cache.get(dir);
     if (cached) return cached;
     const parent = dirname(dir);
-    const above = dir === this.floor || parent === dir || !dir.startsWith(this.floor) ? this.base : this.rulesFor(parent);
+    const above =
+      dir === this.floor || parent === dir || !dir.startsWith(this.floor) ? this.base : this.rulesFor(parent);
     const own = readRules(join(dir, '.gitignore'), dir, '.gitignore');
     const rules = own ? [...above, own] : above;
     this.cache.set(dir, rules);

@@ -42,7 +42,10 @@ function mb(bytes: number): string {
 }
 
 function binary(display: string): ReadOutcome {
-  return { ok: false, message: `'${display}' is a binary file, not a Markdown note; leave it out of the paths or globs` };
+  return {
+    ok: false,
+    message: `'${display}' is a binary file, not a Markdown note; leave it out of the paths or globs`,
+  };
 }
 
 /** The message for a note over the size limit (`size` when known: a regular file). */
@@ -66,7 +69,10 @@ export function decodeText(bytes: Uint8Array, display: string, maxBytes: number 
     return { ok: true, text: new TextDecoder('utf-8', { fatal: true }).decode(bytes) };
   } catch {
     const at = firstInvalidUtf8(bytes);
-    return { ok: false, message: `'${display}' is not valid UTF-8 text (first bad byte at offset ${at}); save it as UTF-8` };
+    return {
+      ok: false,
+      message: `'${display}' is not valid UTF-8 text (first bad byte at offset ${at}); save it as UTF-8`,
+    };
   }
 }
 
@@ -150,6 +156,13 @@ export function readInput(input: Input, maxBytes: number = DEFAULT_MAX_NOTE_BYTE
 
 function cannotRead(display: string, err: unknown): ReadOutcome {
   const code = (err as NodeJS.ErrnoException).code;
-  const why = code === 'EACCES' ? 'permission denied' : code === 'EISDIR' ? 'it is a folder' : code === 'ENOENT' ? 'no such file' : (err as Error).message;
+  const why =
+    code === 'EACCES'
+      ? 'permission denied'
+      : code === 'EISDIR'
+        ? 'it is a folder'
+        : code === 'ENOENT'
+          ? 'no such file'
+          : (err as Error).message;
   return { ok: false, message: `cannot read '${display}': ${why}` };
 }

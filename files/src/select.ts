@@ -94,9 +94,13 @@ function plural(n: number, word: string): string {
 export function describeLeftOut(leftOut: LeftOut): string {
   const parts: string[] = [];
   const n = leftOut['ignore-file'];
-  if (n > 0) parts.push(`${n} left out by .gitignore or .git/info/exclude (--no-gitignore reads ${n === 1 ? 'it' : 'them'})`);
+  if (n > 0)
+    parts.push(`${n} left out by .gitignore or .git/info/exclude (--no-gitignore reads ${n === 1 ? 'it' : 'them'})`);
   if (leftOut.exclude > 0) parts.push(`${leftOut.exclude} left out by --exclude`);
-  if (leftOut.hidden > 0) parts.push(`${leftOut.hidden} hidden (name starting with '.'; name ${leftOut.hidden === 1 ? 'it' : 'them'} to read ${leftOut.hidden === 1 ? 'it' : 'them'})`);
+  if (leftOut.hidden > 0)
+    parts.push(
+      `${leftOut.hidden} hidden (name starting with '.'; name ${leftOut.hidden === 1 ? 'it' : 'them'} to read ${leftOut.hidden === 1 ? 'it' : 'them'})`,
+    );
   if (leftOut.node_modules > 0) parts.push(`${leftOut.node_modules} in node_modules`);
   if (leftOut.symlink > 0) parts.push(`${plural(leftOut.symlink, 'symbolic link')} not followed`);
   return parts.length === 0 ? '' : `folders and Markdown files: ${parts.join(', ')}`;
@@ -179,14 +183,23 @@ function* walk(dir: string, w: Walk, depth = 0): Generator<void, void, void> {
  * `bareNames`, a pattern without a slash matches a name at any depth (`archive`, `*.draft.md`).
  */
 function matcherOf(patterns: readonly string[], cwd: string, bareNames: boolean): (abs: string) => boolean {
-  const cleaned = patterns.map((p) => toPosix(p).replace(/^\.\//, '').replace(/(.)\/+$/, '$1'));
+  const cleaned = patterns.map((p) =>
+    toPosix(p)
+      .replace(/^\.\//, '')
+      .replace(/(.)\/+$/, '$1'),
+  );
   const compile = (list: string[], options = {}) => (list.length > 0 ? picomatch(list, options) : null);
-  const names = bareNames ? compile(cleaned.filter((p) => !p.includes('/')), { basename: true }) : null;
+  const names = bareNames
+    ? compile(
+        cleaned.filter((p) => !p.includes('/')),
+        { basename: true },
+      )
+    : null;
   const rel = compile(cleaned.filter((p) => (!bareNames || p.includes('/')) && !isAbsolute(p)));
   const abs = compile(cleaned.filter((p) => isAbsolute(p)));
   return (path) => {
     const r = toPosix(relative(cwd, path));
-    return (names !== null && names(r)) || (rel !== null && rel(r)) || (abs !== null && abs(toPosix(path)));
+    return Boolean(names?.(r) || rel?.(r) || abs?.(toPosix(path)));
   };
 }
 

@@ -39,15 +39,34 @@ const NOTE = '```air\nstate A: db=24C rh=50%\n```\n';
 
 describe('folders', () => {
   it('are walked depth first in name order for .md and .markdown only, each file once', () => {
-    const root = tree({ 'b.md': NOTE, 'a.markdown': NOTE, 'c.txt': NOTE, 'sub/z.MD': NOTE, 'sub/deeper/y.md': NOTE, 'empty/': '' });
+    const root = tree({
+      'b.md': NOTE,
+      'a.markdown': NOTE,
+      'c.txt': NOTE,
+      'sub/z.MD': NOTE,
+      'sub/deeper/y.md': NOTE,
+      'empty/': '',
+    });
     expect(select(root, ['.', 'b.md', '.']).paths).toEqual(['a.markdown', 'b.md', 'sub/deeper/y.md', 'sub/z.MD']);
   });
 
   it('leave out node_modules and hidden folders and files, and say so when nothing is left', () => {
-    const root = tree({ 'node_modules/p/x.md': NOTE, '.github/t.md': NOTE, '.draft.md': NOTE, 'docs/node_modules/q.md': NOTE });
+    const root = tree({
+      'node_modules/p/x.md': NOTE,
+      '.github/t.md': NOTE,
+      '.draft.md': NOTE,
+      'docs/node_modules/q.md': NOTE,
+    });
     const r = select(root, ['.']);
     expect(r.paths).toEqual([]);
-    expect(r.empty).toEqual([{ arg: '.', kind: 'folder', leftOut: { 'ignore-file': 0, exclude: 0, hidden: 2, node_modules: 2, symlink: 0 }, notMarkdown: 0 }]);
+    expect(r.empty).toEqual([
+      {
+        arg: '.',
+        kind: 'folder',
+        leftOut: { 'ignore-file': 0, exclude: 0, hidden: 2, node_modules: 2, symlink: 0 },
+        notMarkdown: 0,
+      },
+    ]);
     expect(explainEmpty(r.empty)).toEqual([
       "in '.': folders and Markdown files: 2 hidden (name starting with '.'; name them to read them), 2 in node_modules",
     ]);
@@ -71,7 +90,14 @@ describe('folders', () => {
     expect(select(root, ['.']).paths).toEqual(['notes/a.md', 'notes/keep/c.draft.md']);
     // Walking a folder below the root still applies the root's rules and the exclude file.
     expect(select(join(root, 'notes'), ['.']).paths).toEqual(['a.md', 'keep/c.draft.md']);
-    expect(select(root, ['.'], { gitignore: false }).paths).toEqual(['notes/a.md', 'notes/b.draft.md', 'notes/build/gen.md', 'notes/keep/c.draft.md', 'notes/local.md', 'private/p.md']);
+    expect(select(root, ['.'], { gitignore: false }).paths).toEqual([
+      'notes/a.md',
+      'notes/b.draft.md',
+      'notes/build/gen.md',
+      'notes/keep/c.draft.md',
+      'notes/local.md',
+      'private/p.md',
+    ]);
     // As in git, what is inside an ignored folder stays ignored when the folder is named; the
     // message says so.
     const named = select(root, ['private', 'notes/build']);
@@ -83,7 +109,12 @@ describe('folders', () => {
   });
 
   it('outside a repository only the walked folder’s own .gitignore files apply', () => {
-    const outer = tree({ '.gitignore': 'inner/\n*.md\n', 'inner/a.md': NOTE, 'inner/.gitignore': 'b.md\n', 'inner/b.md': NOTE });
+    const outer = tree({
+      '.gitignore': 'inner/\n*.md\n',
+      'inner/a.md': NOTE,
+      'inner/.gitignore': 'b.md\n',
+      'inner/b.md': NOTE,
+    });
     expect(select(join(outer, 'inner'), ['.']).paths).toEqual(['a.md']);
   });
 
@@ -100,9 +131,23 @@ describe('folders', () => {
   });
 
   it('leave out what --exclude matches: a path, or a bare name at any depth', () => {
-    const root = tree({ 'a.md': NOTE, 'archive/old.md': NOTE, 'plant/archive/x.md': NOTE, 'plant/ahu.md': NOTE, 'plant/notes.scratch.md': NOTE });
-    expect(select(root, ['.'], { exclude: ['archive'] }).paths).toEqual(['a.md', 'plant/ahu.md', 'plant/notes.scratch.md']);
-    expect(select(root, ['.'], { exclude: ['plant/archive', '*.scratch.md'] }).paths).toEqual(['a.md', 'archive/old.md', 'plant/ahu.md']);
+    const root = tree({
+      'a.md': NOTE,
+      'archive/old.md': NOTE,
+      'plant/archive/x.md': NOTE,
+      'plant/ahu.md': NOTE,
+      'plant/notes.scratch.md': NOTE,
+    });
+    expect(select(root, ['.'], { exclude: ['archive'] }).paths).toEqual([
+      'a.md',
+      'plant/ahu.md',
+      'plant/notes.scratch.md',
+    ]);
+    expect(select(root, ['.'], { exclude: ['plant/archive', '*.scratch.md'] }).paths).toEqual([
+      'a.md',
+      'archive/old.md',
+      'plant/ahu.md',
+    ]);
     const r = select(root, ['plant'], { exclude: ['plant/**'] });
     expect(r.paths).toEqual([]);
     expect(explainEmpty(r.empty)).toEqual(["in 'plant': folders and Markdown files: 3 left out by --exclude"]);
@@ -143,7 +188,11 @@ describe('globs', () => {
 
   it('keep the matching Markdown files, leaving out what folder walks leave out', () => {
     expect(select(root, ['notes/**/*.md']).paths).toEqual(['notes/a.md', 'notes/deep/b.md']);
-    expect(select(root, ['notes/**/*.md'], { gitignore: false }).paths).toEqual(['notes/a.md', 'notes/build/generated.md', 'notes/deep/b.md']);
+    expect(select(root, ['notes/**/*.md'], { gitignore: false }).paths).toEqual([
+      'notes/a.md',
+      'notes/build/generated.md',
+      'notes/deep/b.md',
+    ]);
     expect(select(root, ['**/*.md'], { exclude: ['deep'] }).paths).toEqual(['notes/a.md', 'other/c.md']);
   });
 
@@ -174,7 +223,10 @@ describe('globs', () => {
 describe('files named on the command line, and standard input', () => {
   it('a named file is read whatever its name, ignore files and --exclude notwithstanding', () => {
     const root = tree({ '.git/': '', '.gitignore': '*.md\n', 'ignored.md': NOTE, 'notes.txt': NOTE });
-    expect(select(root, ['ignored.md', 'notes.txt'], { exclude: ['ignored.md'] }).paths).toEqual(['ignored.md', 'notes.txt']);
+    expect(select(root, ['ignored.md', 'notes.txt'], { exclude: ['ignored.md'] }).paths).toEqual([
+      'ignored.md',
+      'notes.txt',
+    ]);
   });
 
   it('- is standard input, once, in its place; a missing path is a problem', () => {

@@ -27,7 +27,10 @@ function wanted(only: readonly string[] | undefined, kind: string): boolean {
   return !only || only.some((o) => kind === o || kind.startsWith(`${o}.`));
 }
 
-function sameRange(a: Diagnostic, b: { start: { line: number; character: number }; end: { line: number; character: number } }): boolean {
+function sameRange(
+  a: Diagnostic,
+  b: { start: { line: number; character: number }; end: { line: number; character: number } },
+): boolean {
   return (
     a.range.start.line === b.start.line &&
     a.range.start.character === b.start.character &&
@@ -47,13 +50,20 @@ export function registerCodeActions(ctx: ServerContext): void {
       const span = toSpan(doc, params.range);
       const actions = codeActions(found.note, span, token);
       // Writing tables formats every block: only when asked (invoked, or source actions requested).
-      const asked = params.context.triggerKind === CodeActionTriggerKind.Invoked || (only?.some((o) => wanted([o], RESULTS_TABLE_ACTION_KIND)) ?? false);
-      if (asked && wanted(only, RESULTS_TABLE_ACTION_KIND)) actions.push(...resultsTableActions(found.note, span, token));
+      const asked =
+        params.context.triggerKind === CodeActionTriggerKind.Invoked ||
+        (only?.some((o) => wanted([o], RESULTS_TABLE_ACTION_KIND)) ?? false);
+      if (asked && wanted(only, RESULTS_TABLE_ACTION_KIND))
+        actions.push(...resultsTableActions(found.note, span, token));
       const out: CodeAction[] = [];
       for (const a of actions) {
         const kind = KIND[a.kind];
         if (!wanted(only, kind)) continue;
-        const action: CodeAction = { title: a.title, kind, edit: { changes: { [doc.uri]: toTextEdits(doc, a.edits) } } };
+        const action: CodeAction = {
+          title: a.title,
+          kind,
+          edit: { changes: { [doc.uri]: toTextEdits(doc, a.edits) } },
+        };
         if (a.preferred) action.isPreferred = true;
         if (a.diagnostic) {
           const fixes = a.diagnostic;

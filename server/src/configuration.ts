@@ -17,7 +17,15 @@ import {
   type Connection,
   type InitializeParams,
 } from 'vscode-languageserver/node';
-import { PROJECT_FILE, findProjectConfig, mergeSection, readSettings, type ConfigFileSystem, type ProjectConfig, type ServiceSettings } from '@dewmark/core/service';
+import {
+  PROJECT_FILE,
+  findProjectConfig,
+  mergeSection,
+  readSettings,
+  type ConfigFileSystem,
+  type ProjectConfig,
+  type ServiceSettings,
+} from '@dewmark/core/service';
 import { SETTINGS_SECTION } from '@dewmark/protocol';
 
 /** Per-document settings with change notification. */
@@ -73,7 +81,9 @@ export class Configuration {
     if (this.dynamicChange) {
       void this.connection.client
         .register(DidChangeConfigurationNotification.type, { section: SETTINGS_SECTION })
-        .catch((err: unknown) => this.connection.console.warn(`could not register for configuration changes: ${String(err)}`));
+        .catch((err: unknown) =>
+          this.connection.console.warn(`could not register for configuration changes: ${String(err)}`),
+        );
     }
     if (this.watchFiles) {
       void this.connection.client
@@ -149,7 +159,10 @@ export class Configuration {
       if (this.reported.has(problem)) continue;
       this.reported.add(problem);
       // A notification (allowed even before the initialize result), and the log for later reading.
-      void this.connection.sendNotification(ShowMessageNotification.type, { type: MessageType.Warning, message: `Dewmark settings: ${problem}` });
+      void this.connection.sendNotification(ShowMessageNotification.type, {
+        type: MessageType.Warning,
+        message: `Dewmark settings: ${problem}`,
+      });
       this.connection.console.warn(`settings: ${problem}`);
     }
     return settings;

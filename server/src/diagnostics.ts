@@ -88,7 +88,11 @@ export class Diagnostics {
         if (!found) return { kind: DocumentDiagnosticReportKind.Full, items: [] };
         const resultId = `${found.doc.version}.${config.generation}`;
         if (params.previousResultId === resultId) return { kind: DocumentDiagnosticReportKind.Unchanged, resultId };
-        return { kind: DocumentDiagnosticReportKind.Full, resultId, items: toLspDiagnostics(this.ctx, found.doc, found.note) };
+        return {
+          kind: DocumentDiagnosticReportKind.Full,
+          resultId,
+          items: toLspDiagnostics(this.ctx, found.doc, found.note),
+        };
       }),
     );
   }
@@ -123,7 +127,9 @@ export class Diagnostics {
         diagnostics: toLspDiagnostics(this.ctx, found.doc, found.note),
       });
     } catch (err) {
-      this.ctx.connection.console.error(`diagnostics for ${uri} failed: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`);
+      this.ctx.connection.console.error(
+        `diagnostics for ${uri} failed: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`,
+      );
     }
   }
 }

@@ -98,7 +98,12 @@ export class NoteStore {
   }
 
   /** Runs the analysis of `doc` in slices; null when the document closed meanwhile. */
-  private async analyze(uri: string, doc: TextDocument, settings: Awaited<ReturnType<Configuration['get']>>, run: Running): Promise<NoteDocument | null> {
+  private async analyze(
+    uri: string,
+    doc: TextDocument,
+    settings: Awaited<ReturnType<Configuration['get']>>,
+    run: Running,
+  ): Promise<NoteDocument | null> {
     let analyzer = this.analyzers.get(uri);
     if (!analyzer) {
       analyzer = createAnalyzer();
@@ -111,12 +116,17 @@ export class NoteStore {
         let r = steps.next();
         while (!r.done && performance.now() < until) r = steps.next();
         if (r.done) {
-          if (run.generation === this.config.generation) this.cache.set(uri, { version: run.version, generation: run.generation, note: r.value });
+          if (run.generation === this.config.generation)
+            this.cache.set(uri, { version: run.version, generation: run.generation, note: r.value });
           return { doc, note: r.value };
         }
         await nextTurn();
         // Dropped when it is no longer the run for this document (changed, closed, settings changed).
-        if (this.running.get(uri) !== run || this.documents.get(uri)?.version !== run.version || this.config.generation !== run.generation) {
+        if (
+          this.running.get(uri) !== run ||
+          this.documents.get(uri)?.version !== run.version ||
+          this.config.generation !== run.generation
+        ) {
           if (this.running.get(uri) === run) this.running.delete(uri);
           return this.get(uri);
         }

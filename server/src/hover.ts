@@ -15,7 +15,9 @@ export function registerHover(ctx: ServerContext): void {
       if (!result) return null;
       return {
         // A client that does not take Markdown gets aligned plain text, not raw pipes and asterisks.
-        contents: ctx.client.markdownHover ? { kind: MarkupKind.Markdown, value: result.markdown } : { kind: MarkupKind.PlainText, value: hoverPlainText(result.markdown) },
+        contents: ctx.client.markdownHover
+          ? { kind: MarkupKind.Markdown, value: result.markdown }
+          : { kind: MarkupKind.PlainText, value: hoverPlainText(result.markdown) },
         range: toRange(found.doc, result.span),
       };
     }),

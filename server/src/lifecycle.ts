@@ -27,7 +27,12 @@ export class ShutdownGate {
         const isRequest = typeof m.method === 'string' && m.id !== undefined && m.id !== null;
         if (!isRequest) return next(message);
         if (this.down) {
-          return next({ jsonrpc: m.jsonrpc, id: m.id, method: AFTER_SHUTDOWN_METHOD, params: { method: m.method } } as typeof message);
+          return next({
+            jsonrpc: m.jsonrpc,
+            id: m.id,
+            method: AFTER_SHUTDOWN_METHOD,
+            params: { method: m.method },
+          } as typeof message);
         }
         if (m.method === 'shutdown') this.down = true;
         return next(message);

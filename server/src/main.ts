@@ -65,7 +65,9 @@ export function main(argv: readonly string[]): void {
     process.stdout.write(`${SERVER_VERSION}\n`);
     return;
   }
-  const transport = argv.some((a) => a === '--stdio' || a === '--node-ipc' || a.startsWith('--socket') || a.startsWith('--pipe'));
+  const transport = argv.some(
+    (a) => a === '--stdio' || a === '--node-ipc' || a.startsWith('--socket') || a.startsWith('--pipe'),
+  );
   if (argv.includes('--help') || argv.includes('-h') || !transport) {
     (transport ? process.stdout : process.stderr).write(`${USAGE}\n`);
     if (!argv.includes('--help') && !argv.includes('-h')) process.exitCode = 2;
@@ -93,7 +95,10 @@ export function main(argv: readonly string[]): void {
     folderEvents = params.capabilities.workspace?.workspaceFolders === true;
     if (params.workspaceFolders) ctx.folders = params.workspaceFolders.map((f) => f.uri);
     else if (params.rootUri) ctx.folders = [params.rootUri];
-    return { capabilities: serverCapabilities(ctx), serverInfo: { name: 'dewmark-language-server', version: SERVER_VERSION } };
+    return {
+      capabilities: serverCapabilities(ctx),
+      serverInfo: { name: 'dewmark-language-server', version: SERVER_VERSION },
+    };
   });
   connection.onInitialized(() => {
     config.initialized();

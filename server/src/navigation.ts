@@ -1,11 +1,5 @@
 /** `textDocument/definition`, `references`, `prepareRename` and `rename` for state names. */
-import {
-  ErrorCodes,
-  ResponseError,
-  type Location,
-  type Range,
-  type WorkspaceEdit,
-} from 'vscode-languageserver/node';
+import { ErrorCodes, ResponseError, type Location, type Range, type WorkspaceEdit } from 'vscode-languageserver/node';
 import { definition, prepareRename, references, rename } from '@dewmark/core/service';
 import type { ServerContext } from './context';
 import { toRange, toTextEdits } from './convert';
@@ -34,14 +28,19 @@ export function registerNavigation(ctx: ServerContext): void {
   );
 
   connection.onPrepareRename((params, token) =>
-    runSafe(connection, 'textDocument/prepareRename', token, async (): Promise<{ range: Range; placeholder: string } | null> => {
-      const found = await noteForRequest(ctx, params.textDocument.uri, token);
-      if (!found) return null;
-      const r = prepareRename(found.note, found.doc.offsetAt(params.position));
-      if (!r) return null;
-      if ('error' in r) throw new ResponseError(ErrorCodes.InvalidRequest, r.error);
-      return { range: toRange(found.doc, r.span), placeholder: r.placeholder };
-    }),
+    runSafe(
+      connection,
+      'textDocument/prepareRename',
+      token,
+      async (): Promise<{ range: Range; placeholder: string } | null> => {
+        const found = await noteForRequest(ctx, params.textDocument.uri, token);
+        if (!found) return null;
+        const r = prepareRename(found.note, found.doc.offsetAt(params.position));
+        if (!r) return null;
+        if ('error' in r) throw new ResponseError(ErrorCodes.InvalidRequest, r.error);
+        return { range: toRange(found.doc, r.span), placeholder: r.placeholder };
+      },
+    ),
   );
 
   connection.onRenameRequest((params, token) =>

@@ -27,9 +27,18 @@ function toDocumentSymbol(doc: TextDocument, s: OutlineSymbol): DocumentSymbol {
   return out;
 }
 
-function flatten(doc: TextDocument, symbols: OutlineSymbol[], container: string | undefined, out: SymbolInformation[]): void {
+function flatten(
+  doc: TextDocument,
+  symbols: OutlineSymbol[],
+  container: string | undefined,
+  out: SymbolInformation[],
+): void {
   for (const s of symbols) {
-    const info: SymbolInformation = { name: s.name, kind: KIND[s.kind], location: { uri: doc.uri, range: toRange(doc, s.span) } };
+    const info: SymbolInformation = {
+      name: s.name,
+      kind: KIND[s.kind],
+      location: { uri: doc.uri, range: toRange(doc, s.span) },
+    };
     if (container !== undefined) info.containerName = container;
     out.push(info);
     flatten(doc, s.children, s.name, out);
@@ -39,14 +48,19 @@ function flatten(doc: TextDocument, symbols: OutlineSymbol[], container: string 
 /** Registers the document-symbol handler (hierarchical when the client supports it, flat otherwise). */
 export function registerSymbols(ctx: ServerContext): void {
   ctx.connection.onDocumentSymbol((params, token) =>
-    runSafe(ctx.connection, 'textDocument/documentSymbol', token, async (): Promise<DocumentSymbol[] | SymbolInformation[] | null> => {
-      const found = await noteForRequest(ctx, params.textDocument.uri, token);
-      if (!found) return null;
-      const symbols = documentSymbols(found.note, token);
-      if (ctx.client.hierarchicalSymbols) return symbols.map((s) => toDocumentSymbol(found.doc, s));
-      const flat: SymbolInformation[] = [];
-      flatten(found.doc, symbols, undefined, flat);
-      return flat;
-    }),
+    runSafe(
+      ctx.connection,
+      'textDocument/documentSymbol',
+      token,
+      async (): Promise<DocumentSymbol[] | SymbolInformation[] | null> => {
+        const found = await noteForRequest(ctx, params.textDocument.uri, token);
+        if (!found) return null;
+        const symbols = documentSymbols(found.note, token);
+        if (ctx.client.hierarchicalSymbols) return symbols.map((s) => toDocumentSymbol(found.doc, s));
+        const flat: SymbolInformation[] = [];
+        flatten(found.doc, symbols, undefined, flat);
+        return flat;
+      },
+    ),
   );
 }

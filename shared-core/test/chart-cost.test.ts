@@ -24,7 +24,9 @@ function counting<T extends object>(obj: T, keys: (keyof T)[], run: () => void):
   try {
     run();
   } finally {
-    keys.forEach((k, i) => ((obj as Record<keyof T, unknown>)[k] = saved[i]));
+    keys.forEach((k, i) => {
+      (obj as Record<keyof T, unknown>)[k] = saved[i];
+    });
   }
   return calls;
 }
@@ -32,9 +34,13 @@ function counting<T extends object>(obj: T, keys: (keyof T)[], run: () => void):
 /** Invented states spread over the chart (a fixed pseudo-random walk), every third pair joined by a process. */
 function spread(n: number): ChartData {
   let seed = 12345;
-  const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
+  const rnd = () => {
+    seed = (seed * 1103515245 + 12345) % 2147483648;
+    return seed / 2147483648;
+  };
   const points: ChartPoint[] = [];
-  for (let i = 0; i < n; i++) points.push({ name: `Z${i}`, kind: 'state', db: 5 + rnd() * 30, w: 0.002 + rnd() * 0.012 });
+  for (let i = 0; i < n; i++)
+    points.push({ name: `Z${i}`, kind: 'state', db: 5 + rnd() * 30, w: 0.002 + rnd() * 0.012 });
   const processes = [];
   for (let i = 0; i + 1 < n; i += 3) processes.push({ name: `P${i}`, from: `Z${i}`, to: `Z${i + 1}` });
   return { pressurePa: P0, units: 'SI', points, mixes: [], processes, infeasible: [] };
@@ -53,7 +59,16 @@ function pile(n: number): ChartData {
 describe('chart label placement is near-linear', () => {
   it('states spread over the chart (as densely at both sizes): doubling them at most about doubles the comparisons', () => {
     // The plot grows with the states (√2 each way), so each tag has as many neighbours at both sizes.
-    const work = (n: number) => counting(Math, ['min', 'max', 'hypot'], () => void renderChartFromData(spread(n), { width: Math.round(40 * Math.sqrt(n)), plotHeight: Math.round(22 * Math.sqrt(n)) }));
+    const work = (n: number) =>
+      counting(
+        Math,
+        ['min', 'max', 'hypot'],
+        () =>
+          void renderChartFromData(spread(n), {
+            width: Math.round(40 * Math.sqrt(n)),
+            plotHeight: Math.round(22 * Math.sqrt(n)),
+          }),
+      );
     const small = work(400);
     const large = work(800);
     expect(large / small).toBeLessThan(2.6);

@@ -4,14 +4,7 @@
  * figure), except where a test names a published source.
  */
 import { describe, expect, it } from 'vitest';
-import {
-  chartLayout,
-  fromPixel,
-  renderChartFromData,
-  toPixel,
-  type ChartData,
-  type ChartPoint,
-} from '../src/chart';
+import { chartLayout, fromPixel, renderChartFromData, toPixel, type ChartData, type ChartPoint } from '../src/chart';
 import { humRatioFromRelHum, humRatioFromWetBulb, satHumRatio, enthalpy, dbFromEnthalpy } from '../src/physics';
 import { curvePath, distanceToRuns, elements, maxTurnDegrees, parsePath } from './chart-helpers';
 
@@ -47,7 +40,7 @@ describe('the mapping', () => {
 
   it('is linear: equal steps of dry-bulb or humidity ratio are equal pixel steps', () => {
     const a = toPixel(layout, 10, 0.005);
-    const b = toPixel(layout, 20, 0.010);
+    const b = toPixel(layout, 20, 0.01);
     const c = toPixel(layout, 30, 0.015);
     expect(b.x - a.x).toBeCloseTo(c.x - b.x, 9);
     expect(b.y - a.y).toBeCloseTo(c.y - b.y, 9);
@@ -72,7 +65,9 @@ describe('the mapping', () => {
 describe('states lie on their curves', () => {
   it('a state at 50 % rh lies on the 50 % curve within a pixel (several dry-bulbs, two pressures)', () => {
     for (const p of [P0, 83_400]) {
-      const pts = [2, 12, 24, 31, 38].map((db, i) => state(`S${i}`, db, humRatioFromRelHum(db, 0.5, p), { pressurePa: p }));
+      const pts = [2, 12, 24, 31, 38].map((db, i) =>
+        state(`S${i}`, db, humRatioFromRelHum(db, 0.5, p), { pressurePa: p }),
+      );
       const svg = renderChartFromData(data(pts, { pressurePa: p }));
       const curve = curvePath(svg, 'rh', '50');
       for (const s of pts) expect(distanceToRuns(marker(svg, s.name), curve)).toBeLessThan(1);
@@ -111,9 +106,12 @@ describe('states lie on their curves', () => {
     const lay = chartLayout(data([]));
     const curve = curvePath(svg, 'saturation', '100');
     // Ws at 101.325 kPa: 5 °C 0.005425, 25 °C 0.020173 (ASHRAE HoF 2017 SI Ch.1 Table 2).
-    for (const [db, ws] of [[5, 0.005425], [25, 0.020173]] as const) {
+    for (const [db, ws] of [
+      [5, 0.005425],
+      [25, 0.020173],
+    ] as const) {
       const target = toPixel(lay, db, ws);
-      const tolPx = (ws * 0.005) * (lay.plot.bottom - lay.plot.top) / (lay.range.wMax - lay.range.wMin);
+      const tolPx = (ws * 0.005 * (lay.plot.bottom - lay.plot.top)) / (lay.range.wMax - lay.range.wMin);
       expect(distanceToRuns(target, curve)).toBeLessThanOrEqual(Math.max(tolPx, 0.5));
     }
   });
@@ -159,14 +157,23 @@ describe('states lie on their curves', () => {
 
 describe('smooth curves', () => {
   it('saturation and rh curves turn by less than 4° between segments, with segments no longer than 8 px', () => {
-    for (const d of [data([]), data([], { units: 'IP' }), data([state('hot', 80, 0.05)]), data([state('cold', -30, 0.0002)])]) {
+    for (const d of [
+      data([]),
+      data([], { units: 'IP' }),
+      data([state('hot', 80, 0.05)]),
+      data([state('cold', -30, 0.0002)]),
+    ]) {
       const svg = renderChartFromData(d);
-      const curves = [curvePath(svg, 'saturation', '100'), ...[10, 30, 50, 70, 90].map((v) => curvePath(svg, 'rh', String(v)))];
+      const curves = [
+        curvePath(svg, 'saturation', '100'),
+        ...[10, 30, 50, 70, 90].map((v) => curvePath(svg, 'rh', String(v))),
+      ];
       for (const runs of curves) {
         expect(runs.flat().length).toBeGreaterThan(20);
         expect(maxTurnDegrees(runs)).toBeLessThan(4);
         for (const run of runs) {
-          for (let i = 1; i < run.length; i++) expect(Math.hypot(run[i]!.x - run[i - 1]!.x, run[i]!.y - run[i - 1]!.y)).toBeLessThanOrEqual(8);
+          for (let i = 1; i < run.length; i++)
+            expect(Math.hypot(run[i]!.x - run[i - 1]!.x, run[i]!.y - run[i - 1]!.y)).toBeLessThanOrEqual(8);
         }
       }
     }
@@ -220,7 +227,12 @@ describe('the window fits the states', () => {
   });
 
   it('keeps labels of nearby states apart', () => {
-    const pts = [state('AA', 24, 0.0093), state('BB', 24.4, 0.0094), state('CC', 23.7, 0.0091), state('DD', 24.2, 0.0096)];
+    const pts = [
+      state('AA', 24, 0.0093),
+      state('BB', 24.4, 0.0094),
+      state('CC', 23.7, 0.0091),
+      state('DD', 24.2, 0.0096),
+    ];
     const svg = renderChartFromData(data(pts));
     const tags = elements(svg, 'rect', 'dmc-tag').map((a) => ({ x: +a.x!, y: +a.y!, w: +a.width!, h: +a.height! }));
     expect(tags).toHaveLength(4);

@@ -21,7 +21,11 @@ export function parsePath(d: string): Pixel[][] {
   const re = /([MLHVZ])([^MLHVZ]*)/g;
   let last: Pixel = { x: 0, y: 0 };
   for (let m = re.exec(d); m; m = re.exec(d)) {
-    const nums = m[2]!.trim().split(/[\s,]+/).filter(Boolean).map(Number);
+    const nums = m[2]!
+      .trim()
+      .split(/[\s,]+/)
+      .filter(Boolean)
+      .map(Number);
     switch (m[1]) {
       case 'M':
         if (cur.length > 1) runs.push(cur);

@@ -4,7 +4,15 @@
  * where a comment names the source.
  */
 import { describe, expect, it } from 'vitest';
-import { chartLayout, LIGHT_THEME, renderChartFromData, VSCODE_THEME_MAP, vscodeThemeCss, type ChartData, type ChartPoint } from '../src/chart';
+import {
+  chartLayout,
+  LIGHT_THEME,
+  renderChartFromData,
+  VSCODE_THEME_MAP,
+  vscodeThemeCss,
+  type ChartData,
+  type ChartPoint,
+} from '../src/chart';
 import { humRatioFromRelHum, satHumRatio } from '../src/physics';
 import { elements } from './chart-helpers';
 
@@ -19,7 +27,12 @@ function data(points: ChartPoint[], extra: Partial<ChartData> = {}): ChartData {
 }
 
 const typical = data(
-  [state('OA', 33, 0.0139), state('RA', 24, humRatioFromRelHum(24, 0.5, P0)), { name: 'MA', kind: 'mix', db: 26.2, w: 0.0104 }, state('SA', 13, 0.0089)],
+  [
+    state('OA', 33, 0.0139),
+    state('RA', 24, humRatioFromRelHum(24, 0.5, P0)),
+    { name: 'MA', kind: 'mix', db: 26.2, w: 0.0104 },
+    state('SA', 13, 0.0089),
+  ],
   {
     mixes: [{ name: 'MA', streams: ['OA', 'RA'] }],
     processes: [{ name: 'CC', from: 'MA', to: 'SA', kind: 'cooling-dehumidifying' }],
@@ -77,7 +90,7 @@ describe('axes', () => {
     expect(Math.abs(Number(zero[0]![1]) - x0)).toBeLessThan(0.01);
     const ten = [...svg.matchAll(/<text class="dmc-tick" data-axis="w" x="[\d.]+" y="([\d.]+)"[^>]*>10<\/text>/g)];
     expect(ten).toHaveLength(1);
-    const y10 = lay.plot.bottom - (0.010 / lay.range.wMax) * (lay.plot.bottom - lay.plot.top);
+    const y10 = lay.plot.bottom - (0.01 / lay.range.wMax) * (lay.plot.bottom - lay.plot.top);
     expect(Math.abs(Number(ten[0]![1]) - 3.5 - y10)).toBeLessThan(0.01);
   });
 
@@ -96,7 +109,12 @@ describe('no non-finite numbers, whatever the data', () => {
     ['hot dryer', data([state('D', 95, 0.08)])],
     ['very cold', data([state('F', -60, 0.00001)])],
     ['one state at the engine limit', data([state('L', 199, 0.001)])],
-    ['fog state', data([state('X', 20, satHumRatio(20, P0) * 1.3, { fog: true })], { infeasible: [{ name: 'X', plotted: true, reason: 'fog' }] })],
+    [
+      'fog state',
+      data([state('X', 20, satHumRatio(20, P0) * 1.3, { fog: true })], {
+        infeasible: [{ name: 'X', plotted: true, reason: 'fog' }],
+      }),
+    ],
   ];
   for (const [label, d] of cases) {
     it(`${label}: no NaN, Infinity or undefined in the SVG`, () => {
@@ -112,7 +130,9 @@ describe('no non-finite numbers, whatever the data', () => {
       } catch {
         hasSaturation = false; // above the boiling point: no saturated air at all
       }
-      expect(elements(svg, 'path').filter((a) => a['data-family'] === 'saturation')).toHaveLength(hasSaturation ? 1 : 0);
+      expect(elements(svg, 'path').filter((a) => a['data-family'] === 'saturation')).toHaveLength(
+        hasSaturation ? 1 : 0,
+      );
     });
   }
 });
@@ -148,7 +168,11 @@ describe('infeasible states', () => {
   });
 
   it('draws a flagged process dashed in the warning style', () => {
-    const s2 = renderChartFromData(data([state('A', 20, 0.006), state('B', 30, 0.004)], { processes: [{ name: 'P', from: 'A', to: 'B', flagged: true }] }));
+    const s2 = renderChartFromData(
+      data([state('A', 20, 0.006), state('B', 30, 0.004)], {
+        processes: [{ name: 'P', from: 'A', to: 'B', flagged: true }],
+      }),
+    );
     expect(elements(s2, 'path', 'dmc-process')[0]!.class).toContain('dmc-flagged');
     expect(s2).toContain('process P — drawn dashed');
   });
@@ -156,7 +180,9 @@ describe('infeasible states', () => {
 
 describe('caption and theming', () => {
   it('says which pressure the curves are for, and names states at another pressure', () => {
-    const d = data([state('A', 20, 0.006), state('B', 22, 0.007, { pressurePa: 83_000 })], { pressureText: 'site line 2: elev=0m' });
+    const d = data([state('A', 20, 0.006), state('B', 22, 0.007, { pressurePa: 83_000 })], {
+      pressureText: 'site line 2: elev=0m',
+    });
     const svg = renderChartFromData(d);
     expect(svg).toContain('Curves drawn for 101.325 kPa — site line 2: elev=0m;');
     expect(svg).toMatch(/B is at another pressure/);

@@ -2,14 +2,21 @@
 import { describe, expect, it } from 'vitest';
 import { chartWebviewHtml, renderChartFromData, type ChartData } from '../src/chart';
 
-const data: ChartData = { pressurePa: 101_325, units: 'SI', points: [{ name: 'RA', kind: 'state', db: 24, w: 0.0093 }], mixes: [], processes: [], infeasible: [] };
+const data: ChartData = {
+  pressurePa: 101_325,
+  units: 'SI',
+  points: [{ name: 'RA', kind: 'state', db: 24, w: 0.0093 }],
+  mixes: [],
+  processes: [],
+  infeasible: [],
+};
 const NONCE = 'a1B2c3D4e5F6g7H8i9J0kL';
 
 describe('chart webview page', () => {
   const svg = renderChartFromData(data, { styleNonce: NONCE });
   const html = chartWebviewHtml({ svg, nonce: NONCE, title: 'ahu <1>.md' });
 
-  it('forbids loading anything and allows only the nonce\'d style and script', () => {
+  it("forbids loading anything and allows only the nonce'd style and script", () => {
     const csp = /<meta http-equiv="Content-Security-Policy" content="([^"]*)">/.exec(html)?.[1] ?? '';
     expect(csp).toContain("default-src 'none'");
     expect(csp).toContain(`style-src 'nonce-${NONCE}'`);

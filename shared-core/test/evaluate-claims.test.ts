@@ -71,7 +71,11 @@ describe('claim-mismatch warnings', () => {
     expect(d).toHaveLength(1);
     expect(d[0]!.severity).toBe('warning');
     expect(spanText(src, d[0]!)).toBe('80');
-    const data = d[0]!.data as { computedText: string; replacement: string; replaceSpan: { start: number; end: number } };
+    const data = d[0]!.data as {
+      computedText: string;
+      replacement: string;
+      replaceSpan: { start: number; end: number };
+    };
     expect(data.computedText).toMatch(/^\d+\.\d%$/);
     expect(data.computedText).toBe(`${data.replacement}%`);
     expect(src.slice(data.replaceSpan.start, data.replaceSpan.end)).toBe('80');

@@ -28,7 +28,15 @@ describe('sensible heater', () => {
     expect(a.diagnostics).toEqual([]);
   });
   it('the flow of a mix by flows carries through the chain (HCOFF gets it, the next process uses it)', () => {
-    const a = analyse(fence('state OA: db=0C rh=80%', 'state RA: db=22C rh=40%', 'mix MA: OA 0.5kg/s + RA 1.5kg/s', 'process HC: MA -> HCOFF heat=20kW', 'process RH: HCOFF -> SA dt=+2K'));
+    const a = analyse(
+      fence(
+        'state OA: db=0C rh=80%',
+        'state RA: db=22C rh=40%',
+        'mix MA: OA 0.5kg/s + RA 1.5kg/s',
+        'process HC: MA -> HCOFF heat=20kW',
+        'process RH: HCOFF -> SA dt=+2K',
+      ),
+    );
     near(stateResult(a, 'HCOFF').massFlowKgS!, 2, { rel: 1e-12 }, 'flow carried');
     const ma = stateOf(a, 'MA');
     near(stateOf(a, 'HCOFF').db, tFromHW(ma.h + 10_000, ma.w), { abs: 1e-4 }, 'by the mix flow');
@@ -66,7 +74,13 @@ describe('fan', () => {
     expect(processOf(a, 'FAN').equipment?.form).toBe('fan');
   });
   it('eff_motor= (motor outside the airstream) scales the rise by the motor efficiency', () => {
-    const a = analyse(fence('state OFF: db=13C rh=90%', 'process F1: OFF -> S1 dp_fan=750Pa eff=62%', 'process F2: OFF -> S2 dp_fan=750Pa eff=0.62 eff_motor=0.9'));
+    const a = analyse(
+      fence(
+        'state OFF: db=13C rh=90%',
+        'process F1: OFF -> S1 dp_fan=750Pa eff=62%',
+        'process F2: OFF -> S2 dp_fan=750Pa eff=0.62 eff_motor=0.9',
+      ),
+    );
     near(stateOf(a, 'S2').db - 13, 0.9 * (stateOf(a, 'S1').db - 13), { abs: 1e-6 }, 'rise × η_motor');
   });
   it('a fan without its efficiency names the missing key', () => {
@@ -135,7 +149,11 @@ describe('humidifiers', () => {
     near(processOf(a, 'HU').equipment!.steamTempC!, 120.2, { abs: 0.1 }, 'from memory: 120.2 °C at 200 kPa');
   });
   it('steam without a target, and a misspelt word, are explained', () => {
-    const src = fence('state HC: db=20C rh=15%', 'process HU: HC -> HUOFF steam', 'process H2: HC -> H2OFF stem w=5g/kg');
+    const src = fence(
+      'state HC: db=20C rh=15%',
+      'process HU: HC -> HUOFF steam',
+      'process H2: HC -> H2OFF stem w=5g/kg',
+    );
     const a = analyse(src);
     expect(withCode(a, 'spec-missing')[0]!.message).toMatch(/w=.*rh=/);
     const u = withCode(a, 'unknown-key');
@@ -145,7 +163,13 @@ describe('humidifiers', () => {
   it('adiabatic eff=0.85 on the wet-bulb line; a target below the wet-bulb is unreachable', () => {
     const w1 = psy.GetHumRatioFromRelHum(35, 0.2, P);
     const wb = psy.GetTWetBulbFromHumRatio(35, w1, P);
-    const a = analyse(fence('state OA: db=35C rh=20%', 'process EC: OA -> ECOFF adiabatic eff=0.85', `process E2: OA -> E2OFF adiabatic db=${(wb - 1).toFixed(1)}C`));
+    const a = analyse(
+      fence(
+        'state OA: db=35C rh=20%',
+        'process EC: OA -> ECOFF adiabatic eff=0.85',
+        `process E2: OA -> E2OFF adiabatic db=${(wb - 1).toFixed(1)}C`,
+      ),
+    );
     const t2 = 35 - 0.85 * (35 - wb);
     near(stateOf(a, 'ECOFF').db, t2, { abs: 2e-3 }, 'db₂');
     near(stateOf(a, 'ECOFF').w, psy.GetHumRatioFromTWetBulb(t2, wb, P), { abs: 2e-6 }, 'W₂');
@@ -163,7 +187,9 @@ describe('specification conflicts', () => {
     expect(d[0]!.message).toMatch(/heat=.*adp=.*split/);
   });
   it('heat= with dt=', () => {
-    expect(withCode(analyse(fence('state MA: db=27C rh=50%', 'process P: MA -> X heat=5kW dt=3K m=1kg/s')), 'spec-conflict')).toHaveLength(1);
+    expect(
+      withCode(analyse(fence('state MA: db=27C rh=50%', 'process P: MA -> X heat=5kW dt=3K m=1kg/s')), 'spec-conflict'),
+    ).toHaveLength(1);
   });
   it('a specification on a process whose leaving state is already defined', () => {
     const src = fence('state MA: db=27C rh=50%', 'state X: db=30C rh=40%', 'process P: MA -> X heat=5kW m=1kg/s');
@@ -214,11 +240,25 @@ describe('recover', () => {
     expect(withCode(ok, 'recovery-frost')[0]!.severity).toBe('info');
   });
   it('condensation (above 0 °C) has its own code', () => {
-    const a = analyse(fence('state OA: db=5C rh=80%', 'state RA: db=22C rh=55%', 'recover HX: OA -> OA2 m=2kg/s, RA -> EA2 m=2kg/s eff_s=0.7'));
+    const a = analyse(
+      fence(
+        'state OA: db=5C rh=80%',
+        'state RA: db=22C rh=55%',
+        'recover HX: OA -> OA2 m=2kg/s, RA -> EA2 m=2kg/s eff_s=0.7',
+      ),
+    );
     expect(withCode(a, 'recovery-condensation')).toHaveLength(1);
   });
   it('flows from mixes, latent effectiveness, and the heat recovered as a claim', () => {
-    const a = analyse(fence('state OA: db=0C rh=80%', 'state RA: db=22C rh=40%', 'mix M1: OA 2kg/s + OA 0kg/s', 'mix M2: RA 1.6kg/s + RA 0kg/s', 'recover HX: M1 -> S2, M2 -> E2 eff_s=0.7 eff_l=0.6 q_sensible=25.1kW fog=ok'));
+    const a = analyse(
+      fence(
+        'state OA: db=0C rh=80%',
+        'state RA: db=22C rh=40%',
+        'mix M1: OA 2kg/s + OA 0kg/s',
+        'mix M2: RA 1.6kg/s + RA 0kg/s',
+        'recover HX: M1 -> S2, M2 -> E2 eff_s=0.7 eff_l=0.6 q_sensible=25.1kW fog=ok',
+      ),
+    );
     const oa = stateOf(a, 'M1');
     const ra = stateOf(a, 'M2');
     near(stateOf(a, 'S2').w, oa.w + (0.6 * 1.6 * (ra.w - oa.w)) / 2, { abs: 1e-12 }, 'W of the outdoor side');
@@ -227,7 +267,11 @@ describe('recover', () => {
     expect(withCode(a, 'claim-mismatch')).toEqual([]);
   });
   it('a missing effectiveness or flow, and a word other than fog=ok, are explained', () => {
-    const src = fence(...base, 'recover HX: OA -> OA2, RA -> EA2 m=1kg/s eff_s=0.7 fog=yes', 'recover H2: OA -> O3 m=1kg/s, RA -> E3 m=1kg/s');
+    const src = fence(
+      ...base,
+      'recover HX: OA -> OA2, RA -> EA2 m=1kg/s eff_s=0.7 fog=yes',
+      'recover H2: OA -> O3 m=1kg/s, RA -> E3 m=1kg/s',
+    );
     const a = analyse(src);
     const missing = withCode(a, 'spec-missing');
     expect(missing.map((d) => spanText(src, d))).toEqual(['OA', 'H2']);
@@ -240,7 +284,13 @@ describe('recover', () => {
 describe('propagation through a derived chain', () => {
   it('a changed outdoor state changes every derived state and flags the stale claim downstream', () => {
     const chain = (oa: string, claim = '') =>
-      fence(`state OA: ${oa}`, 'state RA: db=24C rh=50%', 'mix MA: OA 1kg/s + RA 3kg/s', `process CC: MA -> OFF adp=11C bf=0.1 ${claim}`, 'process FAN: OFF -> SA dp_fan=750Pa eff=0.62');
+      fence(
+        `state OA: ${oa}`,
+        'state RA: db=24C rh=50%',
+        'mix MA: OA 1kg/s + RA 3kg/s',
+        `process CC: MA -> OFF adp=11C bf=0.1 ${claim}`,
+        'process FAN: OFF -> SA dp_fan=750Pa eff=0.62',
+      );
     // The coil load as computed for the first outdoor state, written into the note as a claim.
     const q = Math.abs(processOf(analyse(chain('db=32C wb=22.5C')), 'CC').qTotalW!) / 1000;
     const claim = `q_total=${q.toFixed(1)}kW`;
@@ -253,9 +303,22 @@ describe('propagation through a derived chain', () => {
   it('the incremental analyzer gives what analyzeNote gives across edits of a derived chain', () => {
     const an = createAnalyzer();
     const texts = [
-      fence('state OA: db=32C wb=22.5C', 'process CC: OA -> OFF adp=11C bf=0.1', 'process FAN: OFF -> SA dp_fan=750Pa eff=0.62'),
-      fence('state OA: db=32C wb=24C', 'process CC: OA -> OFF adp=11C bf=0.1', 'process FAN: OFF -> SA dp_fan=750Pa eff=0.62'),
-      fence('state OA: db=32C wb=24C', 'process CC: OA -> OFF adp=12C bf=0.1', 'process FAN: OFF -> SA dp_fan=750Pa eff=0.62', 'recover HX: OA -> O2 m=1kg/s, SA -> S2 m=1kg/s eff_s=0.5'),
+      fence(
+        'state OA: db=32C wb=22.5C',
+        'process CC: OA -> OFF adp=11C bf=0.1',
+        'process FAN: OFF -> SA dp_fan=750Pa eff=0.62',
+      ),
+      fence(
+        'state OA: db=32C wb=24C',
+        'process CC: OA -> OFF adp=11C bf=0.1',
+        'process FAN: OFF -> SA dp_fan=750Pa eff=0.62',
+      ),
+      fence(
+        'state OA: db=32C wb=24C',
+        'process CC: OA -> OFF adp=12C bf=0.1',
+        'process FAN: OFF -> SA dp_fan=750Pa eff=0.62',
+        'recover HX: OA -> O2 m=1kg/s, SA -> S2 m=1kg/s eff_s=0.5',
+      ),
     ];
     for (const t of texts) expect(JSON.stringify(an.analyze(t).items)).toBe(JSON.stringify(analyse(t).items));
   });
@@ -263,7 +326,14 @@ describe('propagation through a derived chain', () => {
 
 describe('editor features on derived states', () => {
   it('go to definition on a derived name goes to the name after ->; rename and references include it', () => {
-    const { text, offsets } = marked(air('state MA: db=10C rh=60%', 'process HC: MA -> HC|OFF dt=5K', 'process FAN: HCOFF -> SA dp_fan=750Pa eff=0.6', 'state Z: db=1C rh=50%'));
+    const { text, offsets } = marked(
+      air(
+        'state MA: db=10C rh=60%',
+        'process HC: MA -> HC|OFF dt=5K',
+        'process FAN: HCOFF -> SA dp_fan=750Pa eff=0.6',
+        'state Z: db=1C rh=50%',
+      ),
+    );
     const note = noteOf(text);
     const use = text.indexOf('HCOFF ->') + 1;
     const d = definition(note, use)!;
@@ -274,7 +344,11 @@ describe('editor features on derived states', () => {
     expect('edits' in r && r.edits.length).toBe(2);
   });
   it('hover shows where a derived state came from, and the coil’s ADP', () => {
-    const text = air('state MA: db=27C rh=50%', 'process CC: MA -> OFF adp=11C bf=0.1 m=4kg/s', 'process FAN: OFF -> SA dp_fan=750Pa eff=0.62');
+    const text = air(
+      'state MA: db=27C rh=50%',
+      'process CC: MA -> OFF adp=11C bf=0.1 m=4kg/s',
+      'process FAN: OFF -> SA dp_fan=750Pa eff=0.62',
+    );
     const note = noteOf(text);
     const h = hover(note, text.indexOf('OFF ->') + 1)!.markdown;
     expect(h).toContain('Defined by process CC from MA (`adp=11C bf=0.1`)');

@@ -43,7 +43,10 @@ export function fence(...lines: string[]): string {
 export function stateOf(a: Analysis, name: string): NonNullable<StateResult['state']> {
   const item = a.items.find((i) => i.name === name && i.kind !== 'process') as StateResult | undefined;
   expect(item, `state ${name} exists`).toBeDefined();
-  expect(item!.state, `state ${name} is computed; diagnostics: ${JSON.stringify(a.diagnostics.map((d) => d.message))}`).not.toBeNull();
+  expect(
+    item!.state,
+    `state ${name} is computed; diagnostics: ${JSON.stringify(a.diagnostics.map((d) => d.message))}`,
+  ).not.toBeNull();
   return item!.state!;
 }
 
@@ -57,7 +60,10 @@ export function stateResult(a: Analysis, name: string): StateResult {
 /** The process named `name`. */
 export function processOf(a: Analysis, name: string): ProcessResult {
   const item = a.items.find((i) => i.name === name && i.kind === 'process') as ProcessResult | undefined;
-  expect(item, `process ${name} exists; diagnostics: ${JSON.stringify(a.diagnostics.map((d) => d.message))}`).toBeDefined();
+  expect(
+    item,
+    `process ${name} exists; diagnostics: ${JSON.stringify(a.diagnostics.map((d) => d.message))}`,
+  ).toBeDefined();
   return item!;
 }
 
@@ -72,7 +78,12 @@ export function spanText(text: string, d: CoreDiagnostic): string {
 }
 
 /** Asserts |actual − expected| ≤ abs, or ≤ rel·|expected| (the check-values tolerance semantics). */
-export function near(actual: number | null | undefined, expected: number, tol: { abs?: number; rel?: number }, what = ''): void {
+export function near(
+  actual: number | null | undefined,
+  expected: number,
+  tol: { abs?: number; rel?: number },
+  what = '',
+): void {
   expect(actual, `${what} is a number`).toBeTypeOf('number');
   const a = actual as number;
   const band = Math.max(tol.abs ?? 0, (tol.rel ?? 0) * Math.abs(expected));

@@ -62,10 +62,16 @@ describe('states above the boiling point', () => {
 
   it('still refuses a state that needs saturation at that pressure', () => {
     // rh·p_ws(90 °C) = 0.8 × 70.1 kPa = 56 kPa > 50 kPa (eq 6): the vapour pressure exceeds the total.
-    expect(analyse(fence('state A: db=90C rh=80% p=50kPa')).diagnostics.map((d) => d.code)).toEqual(['pressure-below-saturation']);
+    expect(analyse(fence('state A: db=90C rh=80% p=50kPa')).diagnostics.map((d) => d.code)).toEqual([
+      'pressure-below-saturation',
+    ]);
     // A dew point or wet-bulb at or above the boiling point needs saturated air there.
-    expect(analyse(fence('state B: db=150C dp=101C')).diagnostics.map((d) => d.code)).toEqual(['pressure-below-saturation']);
-    expect(analyse(fence('state C: db=150C wb=100C')).diagnostics.map((d) => d.code)).toEqual(['pressure-below-saturation']);
+    expect(analyse(fence('state B: db=150C dp=101C')).diagnostics.map((d) => d.code)).toEqual([
+      'pressure-below-saturation',
+    ]);
+    expect(analyse(fence('state C: db=150C wb=100C')).diagnostics.map((d) => d.code)).toEqual([
+      'pressure-below-saturation',
+    ]);
     // The same air at 50 kPa with rh 30 % (p_w = 21 kPa) is real air above the boiling point (81.3 °C there).
     expect(analyse(fence('state D: db=90C rh=30% p=50kPa')).diagnostics).toEqual([]);
   });

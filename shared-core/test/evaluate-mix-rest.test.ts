@@ -39,7 +39,16 @@ describe('a mix by total and remainder', () => {
   });
 
   it('fractions: RA rest is 100 % less the others; with total= the fractions become flows a process takes', () => {
-    const a = analyse(fence(OA, RA, 'mix MF: OA 20% + RA rest', 'mix MT: OA 20% + RA rest total=3.9kg/s', 'state OFF: db=13C rh=90%', 'process CC: MT -> OFF'));
+    const a = analyse(
+      fence(
+        OA,
+        RA,
+        'mix MF: OA 20% + RA rest',
+        'mix MT: OA 20% + RA rest total=3.9kg/s',
+        'state OFF: db=13C rh=90%',
+        'process CC: MT -> OFF',
+      ),
+    );
     expect(stateResult(a, 'MF').streams!.map((s) => s.fraction)).toEqual([0.2, 0.8]);
     expect(stateResult(a, 'MF').massFlowKgS).toBeNull();
     expect(stateResult(a, 'MT').streams!.map((s) => s.massFlowKgS)).toEqual([0.2 * 3.9, 0.8 * 3.9]);
@@ -48,7 +57,12 @@ describe('a mix by total and remainder', () => {
   });
 
   it('total= beside streams that are all given is a claim on their sum', () => {
-    const text = fence(OA, RA, 'mix M1: OA 0.78kg/s + RA 3.12kg/s total=3.9kg/s', 'mix M2: OA 0.78kg/s + RA 3.12kg/s total=4.0kg/s');
+    const text = fence(
+      OA,
+      RA,
+      'mix M1: OA 0.78kg/s + RA 3.12kg/s total=3.9kg/s',
+      'mix M2: OA 0.78kg/s + RA 3.12kg/s total=4.0kg/s',
+    );
     const a = analyse(text);
     expect(stateResult(a, 'M1').claims.map((c) => [c.key, c.pass])).toEqual([['total', true]]);
     expect(stateResult(a, 'M2').claims.map((c) => [c.key, c.pass])).toEqual([['total', false]]);
@@ -62,17 +76,35 @@ describe('mixes by remainder that do not add up', () => {
   const cases: [string, string, string, RegExp][] = [
     ['two rest streams', 'mix M: OA rest + RA rest total=3kg/s', 'rest', /only one stream can be the rest/],
     ['rest of flows without a total', 'mix M: OA 1kg/s + RA rest', 'rest', /add total= after the streams/],
-    ['mass streams against a volume total', 'mix M: OA 1kg/s + RA rest total=3m3/s', '1kg/s + RA rest total=3m3/s', /given as mass flows but total= is a volume flow/],
-    ['streams that exceed the total', 'mix M: OA 4kg/s + RA rest total=3.9kg/s', 'rest total=3.9kg/s', /add to 4 kg\/s, which leaves (less than )?nothing of total=3.9kg\/s for RA/],
+    [
+      'mass streams against a volume total',
+      'mix M: OA 1kg/s + RA rest total=3m3/s',
+      '1kg/s + RA rest total=3m3/s',
+      /given as mass flows but total= is a volume flow/,
+    ],
+    [
+      'streams that exceed the total',
+      'mix M: OA 4kg/s + RA rest total=3.9kg/s',
+      'rest total=3.9kg/s',
+      /add to 4 kg\/s, which leaves (less than )?nothing of total=3.9kg\/s for RA/,
+    ],
     ['fractions over 100 %', 'mix M: OA 120% + RA rest', '120%', /add to 120 %, which leaves nothing for RA rest/],
-    ['fractions with a volume total', 'mix M: OA 20% + RA rest total=3m3/s', '3m3/s', /with fractions, give total= as a dry-air mass flow/],
+    [
+      'fractions with a volume total',
+      'mix M: OA 20% + RA rest total=3m3/s',
+      '3m3/s',
+      /with fractions, give total= as a dry-air mass flow/,
+    ],
   ];
   for (const [what, line, underlined, message] of cases) {
     it(what, () => {
       const text = fence(OA, RA, line);
       const a = analyse(text);
       const hits = withCode(a, 'mix-rest');
-      expect(hits.map((d) => d.message), JSON.stringify(a.diagnostics.map((d) => d.message))).toHaveLength(1);
+      expect(
+        hits.map((d) => d.message),
+        JSON.stringify(a.diagnostics.map((d) => d.message)),
+      ).toHaveLength(1);
       expect(spanText(text, hits[0]!)).toBe(underlined);
       expect(hits[0]!.message).toMatch(message);
       expect(stateResult(a, 'M').state).toBeNull();
@@ -81,7 +113,11 @@ describe('mixes by remainder that do not add up', () => {
 
   it('total= with a unit of another kind, or without one', () => {
     const msgs = (line: string) => analyse(fence(OA, RA, line)).diagnostics.map((d) => `${d.code}: ${d.message}`);
-    expect(msgs('mix M: OA 1kg/s + RA rest total=3kW')).toEqual([expect.stringMatching(/^unknown-unit: mix M: 'kW' in total= is not a flow unit/)]);
-    expect(msgs('mix M: OA 1kg/s + RA rest total=3')).toEqual([expect.stringMatching(/^missing-unit: mix M: total=3 has no unit/)]);
+    expect(msgs('mix M: OA 1kg/s + RA rest total=3kW')).toEqual([
+      expect.stringMatching(/^unknown-unit: mix M: 'kW' in total= is not a flow unit/),
+    ]);
+    expect(msgs('mix M: OA 1kg/s + RA rest total=3')).toEqual([
+      expect.stringMatching(/^missing-unit: mix M: total=3 has no unit/),
+    ]);
   });
 });

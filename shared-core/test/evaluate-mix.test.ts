@@ -47,7 +47,14 @@ describe('mix by the mass and energy balance', () => {
 
   it('by volume flow at altitude: each stream converted at its own state', () => {
     const p = psy.GetStandardAtmPressure(1600);
-    const a = analyse(fence('site: elev=1600m', 'state OA: db=-12C rh=70%', 'state RA: db=21C rh=30%', 'mix MA: OA 1.2m3/s + RA 3600L/s'));
+    const a = analyse(
+      fence(
+        'site: elev=1600m',
+        'state OA: db=-12C rh=70%',
+        'state RA: db=21C rh=30%',
+        'mix MA: OA 1.2m3/s + RA 3600L/s',
+      ),
+    );
     const ref = independentMix(
       [
         { db: -12, rh: 0.7, amount: 1.2, volume: true },
@@ -66,13 +73,22 @@ describe('mix by the mass and energy balance', () => {
   });
 
   it('mass flows in kg/h and lb/h (1 lb = 0.45359237 kg, NIST SP 811)', () => {
-    const a = analyse(fence('state OA: db=35C rh=40%', 'state RA: db=24C rh=50%', 'mix MA: OA 3600kg/h + RA 7936.641lb/h'));
+    const a = analyse(
+      fence('state OA: db=35C rh=40%', 'state RA: db=24C rh=50%', 'mix MA: OA 3600kg/h + RA 7936.641lb/h'),
+    );
     const r = stateResult(a, 'MA');
     near(r.massFlowKgS ?? null, 1 + (7936.641 * 0.45359237) / 3600, { rel: 1e-9 }, 'total');
   });
 
   it('three streams', () => {
-    const a = analyse(fence('state A: db=10C rh=80%', 'state B: db=20C rh=50%', 'state C: db=30C rh=30%', 'mix M: A 20% + B 30% + C 50%'));
+    const a = analyse(
+      fence(
+        'state A: db=10C rh=80%',
+        'state B: db=20C rh=50%',
+        'state C: db=30C rh=30%',
+        'mix M: A 20% + B 30% + C 50%',
+      ),
+    );
     const ref = independentMix(
       [
         { db: 10, rh: 0.8, amount: 0.2, volume: false },
@@ -116,7 +132,14 @@ describe('mix problems', () => {
     expect(d[0]!.message).toContain('90 %');
   });
   it('rounded thirds add up within half a unit of each last digit', () => {
-    const a = analyse(fence('state A: db=10C rh=80%', 'state B: db=20C rh=50%', 'state C: db=30C rh=30%', 'mix M: A 33.3% + B 33.3% + C 33.3%'));
+    const a = analyse(
+      fence(
+        'state A: db=10C rh=80%',
+        'state B: db=20C rh=50%',
+        'state C: db=30C rh=30%',
+        'mix M: A 33.3% + B 33.3% + C 33.3%',
+      ),
+    );
     expect(withCode(a, 'mix-fractions')).toEqual([]);
     expect(stateResult(a, 'M').state).not.toBeNull();
   });
@@ -125,7 +148,9 @@ describe('mix problems', () => {
     expect(withCode(a, 'mix-amounts')).toHaveLength(1);
   });
   it('streams at different pressures: a warning and the mean', () => {
-    const a = analyse(fence('state OA: db=35C rh=40% p=100kPa', 'state RA: db=24C rh=50% p=90kPa', 'mix MA: OA 50% + RA 50%'));
+    const a = analyse(
+      fence('state OA: db=35C rh=40% p=100kPa', 'state RA: db=24C rh=50% p=90kPa', 'mix MA: OA 50% + RA 50%'),
+    );
     expect(withCode(a, 'pressure-mismatch')).toHaveLength(1);
     near(stateResult(a, 'MA').pressure.pa, 95_000, { abs: 1e-6 }, 'mean pressure');
   });

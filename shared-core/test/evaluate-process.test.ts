@@ -26,7 +26,8 @@ describe('cooling and dehumidifying coil', () => {
   const text = fence('state E: db=27C rh=50%', 'state L: db=13C rh=90%', 'process CC: E -> L q=4.8m3/s');
   const r = processOf(analyse(text), 'CC');
 
-  it('dry-air mass flow from the volume flow at the entering state (ṁ = V̇ / v, eq 26)', () => near(r.massFlowKgS, m, { rel: 0.001 }, 'ṁ'));
+  it('dry-air mass flow from the volume flow at the entering state (ṁ = V̇ / v, eq 26)', () =>
+    near(r.massFlowKgS, m, { rel: 0.001 }, 'ṁ'));
   it('total heat rate ṁ Δh (eq 32)', () => near(r.qTotalW, m * dh, { rel: 0.003 }, 'q_total'));
   it('sensible heat rate ṁ (1.006 + 1.86 W₁) Δt', () => near(r.qSensibleW, m * sens, { rel: 0.002 }, 'q_sensible'));
   it('latent = total − sensible', () => near(r.qLatentW, m * (dh - sens), { rel: 0.01 }, 'q_latent'));
@@ -43,7 +44,10 @@ describe('cooling and dehumidifying coil', () => {
     expect(r.apparatusDewPointC!).toBeLessThan(13);
   });
   it('m= gives the same result as the equivalent q=', () => {
-    const r2 = processOf(analyse(fence('state E: db=27C rh=50%', 'state L: db=13C rh=90%', `process CC: E -> L m=${r.massFlowKgS}kg/s`)), 'CC');
+    const r2 = processOf(
+      analyse(fence('state E: db=27C rh=50%', 'state L: db=13C rh=90%', `process CC: E -> L m=${r.massFlowKgS}kg/s`)),
+      'CC',
+    );
     near(r2.qTotalW, r.qTotalW!, { rel: 1e-9 }, 'same q_total');
   });
 });
@@ -62,7 +66,11 @@ describe('other process kinds', () => {
     // B: 20 °C at the enthalpy of A (PsychroLib, independent) — an adiabatic saturation path.
     const wA = psy.GetHumRatioFromRelHum(30, 0.2, 101325);
     const wB = psy.GetHumRatioFromEnthalpyAndTDryBulb(psy.GetMoistAirEnthalpy(30, wA), 20);
-    const r = kindOf('state A: db=30C rh=20%', `state B: db=20C w=${(wB * 1000).toFixed(4)}g/kg`, 'process P: A -> B m=1kg/s');
+    const r = kindOf(
+      'state A: db=30C rh=20%',
+      `state B: db=20C w=${(wB * 1000).toFixed(4)}g/kg`,
+      'process P: A -> B m=1kg/s',
+    );
     expect(r.processKind).toBe('evaporative-cooling');
     expect(r.waterKgS!).toBeGreaterThan(0);
   });
@@ -79,7 +87,15 @@ describe('other process kinds', () => {
     expect(r.dhTotal).toBeGreaterThan(0);
   });
   it('a process leaving a mix by flows takes its flow', () => {
-    const a = analyse(fence('state A: db=30C rh=40%', 'state B: db=24C rh=50%', 'mix M: A 1kg/s + B 3kg/s', 'state C: db=14C rh=90%', 'process P: M -> C'));
+    const a = analyse(
+      fence(
+        'state A: db=30C rh=40%',
+        'state B: db=24C rh=50%',
+        'mix M: A 1kg/s + B 3kg/s',
+        'state C: db=14C rh=90%',
+        'process P: M -> C',
+      ),
+    );
     near(processOf(a, 'P').massFlowKgS, 4, { rel: 1e-12 }, 'ṁ');
   });
 });
@@ -108,7 +124,12 @@ describe('process claims', () => {
   it('positive figures compare as magnitudes; a stale one warns with the computed value', () => {
     const r = processOf(analyse(fence(...base, 'process CC: E -> L m=5kg/s')), 'CC');
     const q = Math.abs(r.qTotalW!) / 1000;
-    const ok = analyse(fence(...base, `process CC: E -> L m=5kg/s q_total=${q.toFixed(1)}kW shr=${r.shr!.toFixed(2)} water=${(Math.abs(r.waterKgS!) * 3600).toFixed(1)}kg/h`));
+    const ok = analyse(
+      fence(
+        ...base,
+        `process CC: E -> L m=5kg/s q_total=${q.toFixed(1)}kW shr=${r.shr!.toFixed(2)} water=${(Math.abs(r.waterKgS!) * 3600).toFixed(1)}kg/h`,
+      ),
+    );
     expect(withCode(ok, 'claim-mismatch')).toEqual([]);
     expect(processOf(ok, 'CC').claims.map((c) => c.pass)).toEqual([true, true, true]);
     const stale = analyse(fence(...base, `process CC: E -> L m=5kg/s q_total=${(q + 5).toFixed(1)}kW`));

@@ -94,7 +94,10 @@ const inputs = fc.record({
   oaPct: fc.integer({ min: 10, max: 60 }),
   rise: fc.integer({ min: 1, max: 4 }),
 });
-const change = fc.record({ input: fc.constantFrom<keyof Inputs>('oaDb', 'oaWb', 'heat', 'raDb', 'raRh', 'oaPct', 'rise'), by: fc.constantFrom(-2, -1, 1, 2) });
+const change = fc.record({
+  input: fc.constantFrom<keyof Inputs>('oaDb', 'oaWb', 'heat', 'raDb', 'raRh', 'oaPct', 'rise'),
+  by: fc.constantFrom(-2, -1, 1, 2),
+});
 
 describe('a change upstream reaches every figure downstream', () => {
   it('changes every dependent figure, fails every stale claim, leaves the rest alone (and the analyzer agrees)', () => {
@@ -115,7 +118,11 @@ describe('a change upstream reaches every figure downstream', () => {
         const stale = new Set(
           after.diagnostics
             .filter((d) => d.code === 'claim-mismatch')
-            .map((d) => after.items.find((i) => i.statement.span.start <= d.span.start && d.span.end <= i.statement.span.end)!.name),
+            .map(
+              (d) =>
+                after.items.find((i) => i.statement.span.start <= d.span.start && d.span.end <= i.statement.span.end)!
+                  .name,
+            ),
         );
         for (const n of NAMES) {
           const dependent = DEPENDENTS[ch.input].includes(n);

@@ -27,12 +27,20 @@ describe('evaluation yields finite numbers only', () => {
         fc.constantFrom('SI', 'IP'),
         fc.integer({ min: -400, max: 4000 }),
         (states, pct, units, elev) => {
-          const lines = [`site: elev=${elev}m`, `units: ${units}`, ...states.map((s, i) => `state S${i}: ${s} h=50kJ/kg`)];
+          const lines = [
+            `site: elev=${elev}m`,
+            `units: ${units}`,
+            ...states.map((s, i) => `state S${i}: ${s} h=50kJ/kg`),
+          ];
           lines.push(`mix M: S0 ${pct}% + S1 ${100 - pct}%`);
           lines.push('process P: S0 -> S1 m=2kg/s q_total=10kW shr=0.5 water=1kg/h');
           lines.push('process Q: M -> S1 q=1m3/s');
           const a = analyse(fence(...lines));
-          const plain = { items: a.items.map((i) => ({ ...i, statement: null })), diagnostics: a.diagnostics, units: a.units };
+          const plain = {
+            items: a.items.map((i) => ({ ...i, statement: null })),
+            diagnostics: a.diagnostics,
+            units: a.units,
+          };
           expect(allFinite(plain)).toBe(true);
           for (const d of a.diagnostics) {
             expect(d.message).not.toMatch(/NaN|Infinity/);

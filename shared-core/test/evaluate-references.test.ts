@@ -22,7 +22,9 @@ describe('a reference takes the computed property of a state above', () => {
     near(s.rh, psy.GetRelHumFromHumRatio(40, w, P0), { abs: 2e-4 }, 'rh at 40 °C with that W (PsychroLib)');
     near(s.h, psy.GetMoistAirEnthalpy(40, w), { rel: 2e-4 }, 'h, eq 32 (PsychroLib)');
     expect(stateResult(a, 'PH').defining).toEqual(['db', 'w']);
-    expect(stateResult(a, 'PH').sources).toEqual([{ key: 'w', from: 'OA', fromKey: 'w', offsetSI: 0, valueSI: stateOf(a, 'OA').w }]);
+    expect(stateResult(a, 'PH').sources).toEqual([
+      { key: 'w', from: 'OA', fromKey: 'w', offsetSI: 0, valueSI: stateOf(a, 'OA').w },
+    ]);
     expect(a.diagnostics).toEqual([]);
   });
 
@@ -52,7 +54,15 @@ describe('a reference takes the computed property of a state above', () => {
   });
 
   it('takes a property of a mix, and a property of another kind of the same dimension (dp=RA.db)', () => {
-    const a = analyse(fence('state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'mix MA: OA 25% + RA 75%', 'state MB: db=MA.db w=MA.w', 'state SAT: db=RA.db dp=RA.db'));
+    const a = analyse(
+      fence(
+        'state OA: db=30C rh=40%',
+        'state RA: db=24C rh=50%',
+        'mix MA: OA 25% + RA 75%',
+        'state MB: db=MA.db w=MA.w',
+        'state SAT: db=RA.db dp=RA.db',
+      ),
+    );
     const ma = stateOf(a, 'MA');
     near(stateOf(a, 'MB').db, ma.db, { abs: 1e-12 }, 'db of the mix');
     near(stateOf(a, 'MB').h, ma.h, { rel: 1e-9 }, 'same (db, W) gives the same h');
@@ -65,7 +75,12 @@ describe('a reference takes the computed property of a state above', () => {
     const p = psy.GetStandardAtmPressure(1600);
     const w = psy.GetHumRatioFromRelHum(30, 0.4, P0);
     near(stateOf(a, 'IN').p, p, { abs: 1 }, 'standard atmosphere at 1600 m (eq 3)');
-    near(stateOf(a, 'IN').rh, psy.GetRelHumFromHumRatio(24, w, p), { abs: 2e-4 }, 'rh at 1600 m for the sea-level W (PsychroLib)');
+    near(
+      stateOf(a, 'IN').rh,
+      psy.GetRelHumFromHumRatio(24, w, p),
+      { abs: 2e-4 },
+      'rh at 1600 m for the sea-level W (PsychroLib)',
+    );
   });
 
   it('always defines: a written figure beside two other properties becomes the claim', () => {
@@ -85,30 +100,129 @@ describe('a reference takes the computed property of a state above', () => {
 
 describe('bad references get one clear error each, on the offending token', () => {
   const cases: [string, string[], string, string, RegExp][] = [
-    ['unknown state, with a suggestion', ['state OA: db=30C rh=40%', 'state X: db=20C w=OAA.w'], 'unknown-name', 'OAA', /did you mean 'OA'/],
-    ['defined further down', ['state X: db=20C w=LATER.w', 'state LATER: db=10C rh=50%'], 'used-before-defined', 'LATER', /defined further down \(line 5\).*move its definition above/],
+    [
+      'unknown state, with a suggestion',
+      ['state OA: db=30C rh=40%', 'state X: db=20C w=OAA.w'],
+      'unknown-name',
+      'OAA',
+      /did you mean 'OA'/,
+    ],
+    [
+      'defined further down',
+      ['state X: db=20C w=LATER.w', 'state LATER: db=10C rh=50%'],
+      'used-before-defined',
+      'LATER',
+      /defined further down \(line 5\).*move its definition above/,
+    ],
     ['itself', ['state X: db=20C w=X.w'], 'used-before-defined', 'X', /refers to the statement that defines it/],
-    ['a process', ['state A: db=30C rh=40%', 'state B: db=20C rh=60%', 'process P: A -> B m=1kg/s', 'state X: db=20C w=P.w'], 'not-a-state', 'P', /is a process, not a state/],
-    ['another kind', ['state OA: db=30C rh=40%', 'state X: db=20C w=OA.db'], 'bad-reference', 'db', /OA\.db is a temperature, but w is a humidity ratio.*w=OA\.w/],
-    ['a key that is not a property', ['state OA: db=30C rh=40%', 'state X: db=20C w=OA.q'], 'bad-reference', 'q', /'q' is not a property of OA/],
-    ['v cannot be referenced', ['state OA: db=30C rh=40%', 'state X: db=20C w=OA.v'], 'bad-reference', 'v', /'v' cannot be referenced/],
-    ['a difference in °C', ['state OA: db=30C rh=40%', 'state X: db=OA.db+2C w=OA.w'], 'bad-reference', 'C', /write a temperature difference in K \(\+2K/],
-    ['a difference without a unit', ['state OA: db=30C rh=40%', 'state X: db=OA.db+2 w=OA.w'], 'missing-unit', '+2', /has no unit.*\+0\.8K or \+1\.5F/],
-    ['a difference in another dimension', ['state OA: db=30C rh=40%', 'state X: db=30C w=OA.w+2K'], 'bad-reference', 'K', /'K' is not a unit of humidity ratio.*\+0\.5g\/kg/],
-    ['a difference on rh', ['state OA: db=30C rh=40%', 'state X: db=30C rh=OA.rh+5%'], 'bad-reference', '+5%', /cannot be shifted by a difference/],
-    ['a tolerance', ['state OA: db=30C rh=40%', 'state X: db=OA.db+2K±1 w=OA.w'], 'bad-reference', '±1', /takes no tolerance/],
-    ['in a mix claim', ['state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'mix M: OA 50% + RA 50% db=OA.db'], 'bad-reference', 'OA.db', /mix M takes figures only/],
-    ['in a process figure', ['state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'process P: OA -> RA m=OA.w'], 'bad-reference', 'OA.w', /process P takes figures only/],
-    ['three references', ['state OA: db=30C rh=40%', 'state X: db=OA.db rh=OA.rh w=OA.w'], 'bad-reference', 'w=OA.w', /3 properties taken from other states/],
-    ['two references that fix the same thing', ['state OA: db=30C rh=40%', 'state X: dp=OA.dp w=OA.w db=20C'], 'dependent-pair', 'dp=OA.dp w=OA.w', /a reference always defines/],
-    ['a reference on the pressure', ['state OA: db=30C rh=40%', 'state X: db=20C rh=50% p=OA.p'], 'bad-reference', 'p', /only db, wb, dp, rh, w, h can be taken from another state/],
+    [
+      'a process',
+      ['state A: db=30C rh=40%', 'state B: db=20C rh=60%', 'process P: A -> B m=1kg/s', 'state X: db=20C w=P.w'],
+      'not-a-state',
+      'P',
+      /is a process, not a state/,
+    ],
+    [
+      'another kind',
+      ['state OA: db=30C rh=40%', 'state X: db=20C w=OA.db'],
+      'bad-reference',
+      'db',
+      /OA\.db is a temperature, but w is a humidity ratio.*w=OA\.w/,
+    ],
+    [
+      'a key that is not a property',
+      ['state OA: db=30C rh=40%', 'state X: db=20C w=OA.q'],
+      'bad-reference',
+      'q',
+      /'q' is not a property of OA/,
+    ],
+    [
+      'v cannot be referenced',
+      ['state OA: db=30C rh=40%', 'state X: db=20C w=OA.v'],
+      'bad-reference',
+      'v',
+      /'v' cannot be referenced/,
+    ],
+    [
+      'a difference in °C',
+      ['state OA: db=30C rh=40%', 'state X: db=OA.db+2C w=OA.w'],
+      'bad-reference',
+      'C',
+      /write a temperature difference in K \(\+2K/,
+    ],
+    [
+      'a difference without a unit',
+      ['state OA: db=30C rh=40%', 'state X: db=OA.db+2 w=OA.w'],
+      'missing-unit',
+      '+2',
+      /has no unit.*\+0\.8K or \+1\.5F/,
+    ],
+    [
+      'a difference in another dimension',
+      ['state OA: db=30C rh=40%', 'state X: db=30C w=OA.w+2K'],
+      'bad-reference',
+      'K',
+      /'K' is not a unit of humidity ratio.*\+0\.5g\/kg/,
+    ],
+    [
+      'a difference on rh',
+      ['state OA: db=30C rh=40%', 'state X: db=30C rh=OA.rh+5%'],
+      'bad-reference',
+      '+5%',
+      /cannot be shifted by a difference/,
+    ],
+    [
+      'a tolerance',
+      ['state OA: db=30C rh=40%', 'state X: db=OA.db+2K±1 w=OA.w'],
+      'bad-reference',
+      '±1',
+      /takes no tolerance/,
+    ],
+    [
+      'in a mix claim',
+      ['state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'mix M: OA 50% + RA 50% db=OA.db'],
+      'bad-reference',
+      'OA.db',
+      /mix M takes figures only/,
+    ],
+    [
+      'in a process figure',
+      ['state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'process P: OA -> RA m=OA.w'],
+      'bad-reference',
+      'OA.w',
+      /process P takes figures only/,
+    ],
+    [
+      'three references',
+      ['state OA: db=30C rh=40%', 'state X: db=OA.db rh=OA.rh w=OA.w'],
+      'bad-reference',
+      'w=OA.w',
+      /3 properties taken from other states/,
+    ],
+    [
+      'two references that fix the same thing',
+      ['state OA: db=30C rh=40%', 'state X: dp=OA.dp w=OA.w db=20C'],
+      'dependent-pair',
+      'dp=OA.dp w=OA.w',
+      /a reference always defines/,
+    ],
+    [
+      'a reference on the pressure',
+      ['state OA: db=30C rh=40%', 'state X: db=20C rh=50% p=OA.p'],
+      'bad-reference',
+      'p',
+      /only db, wb, dp, rh, w, h can be taken from another state/,
+    ],
   ];
   for (const [what, lines, code, underlined, message] of cases) {
     it(what, () => {
       const text = fence(...lines);
       const a = analyse(text);
       const hits = withCode(a, code);
-      expect(hits.map((d) => d.message), JSON.stringify(a.diagnostics.map((d) => d.message))).toHaveLength(1);
+      expect(
+        hits.map((d) => d.message),
+        JSON.stringify(a.diagnostics.map((d) => d.message)),
+      ).toHaveLength(1);
       expect(spanText(text, hits[0]!)).toBe(underlined);
       expect(hits[0]!.message).toMatch(message);
       expect(a.diagnostics.filter((d) => d.severity === 'error')).toHaveLength(1);
@@ -123,7 +237,12 @@ describe('bad references get one clear error each, on the offending token', () =
   });
 
   it('parse errors of malformed references say how to write one', () => {
-    const text = fence('state OA: db=30C rh=40%', 'state X: db=OA. w=OA', 'state Y: db=OA.db*2 w=OA.w', 'state Z: db=OA.db+ w=OA.w');
+    const text = fence(
+      'state OA: db=30C rh=40%',
+      'state X: db=OA. w=OA',
+      'state Y: db=OA.db*2 w=OA.w',
+      'state Z: db=OA.db+ w=OA.w',
+    );
     const a = analyse(text);
     const msgs = a.diagnostics.map((d) => `${d.code} ${spanText(text, d)}: ${d.message}`);
     expect(msgs).toEqual([

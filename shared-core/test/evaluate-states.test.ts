@@ -11,7 +11,9 @@ interface StateCase {
   source: string;
   lines: string[];
   /** Expected figures of state S, SI (°C, fraction, kg/kg, J/kg, m³/kg, Pa), with tolerances. */
-  expected: Partial<Record<'db' | 'wb' | 'dp' | 'rh' | 'w' | 'h' | 'v' | 'p', [number, { abs?: number; rel?: number }]>>;
+  expected: Partial<
+    Record<'db' | 'wb' | 'dp' | 'rh' | 'w' | 'h' | 'v' | 'p', [number, { abs?: number; rel?: number }]>
+  >;
 }
 
 const cases: StateCase[] = [
@@ -19,11 +21,18 @@ const cases: StateCase[] = [
     name: 'db 40 °C, wb 20 °C at 101.325 kPa',
     source: 'ASHRAE HoF 2017 SI Ch.1 Example 1 (values as cited in the PsychroLib test suite; check-values PL-SI-EX1)',
     lines: ['site: p=101.325kPa', 'state S: db=40C wb=20C'],
-    expected: { w: [0.0065, { abs: 0.0001 }], dp: [7, { abs: 0.5 }], rh: [0.14, { abs: 0.01 }], h: [56700, { abs: 100 }], v: [0.896, { rel: 0.01 }] },
+    expected: {
+      w: [0.0065, { abs: 0.0001 }],
+      dp: [7, { abs: 0.5 }],
+      rh: [0.14, { abs: 0.01 }],
+      h: [56700, { abs: 100 }],
+      v: [0.896, { rel: 0.01 }],
+    },
   },
   {
     name: 'db 100 °F, wb 65 °F at 14.696 psia (I-P input)',
-    source: 'ASHRAE HoF 2017 I-P Ch.1 Example 1 (as cited in the PsychroLib test suite; check-values PL-IP-EX1); I-P tolerances as given there',
+    source:
+      'ASHRAE HoF 2017 I-P Ch.1 Example 1 (as cited in the PsychroLib test suite; check-values PL-IP-EX1); I-P tolerances as given there',
     lines: ['state S: db=100F wb=65F p=14.696psia'],
     // W 0.00523 lb/lb ±0.0001; dp 40 °F ±1 °F (= 4.444 °C ± 0.556 K); RH 0.13 ±0.01.
     expected: { w: [0.00523, { abs: 0.0001 }], dp: [(40 - 32) / 1.8, { abs: 1 / 1.8 }], rh: [0.13, { abs: 0.01 }] },
@@ -42,7 +51,8 @@ const cases: StateCase[] = [
   },
   {
     name: 'db 30 °C, w 0.02 kg/kg: enthalpy and volume at 95 461 Pa',
-    source: 'PsychroLib test suite, test_GetMoistAirEnthalpy / test_GetMoistAirVolume (check-values PL-SI-XLS-H, PL-SI-XLS-V)',
+    source:
+      'PsychroLib test suite, test_GetMoistAirEnthalpy / test_GetMoistAirVolume (check-values PL-SI-XLS-H, PL-SI-XLS-V)',
     lines: ['site: p=95461Pa', 'state S: db=30C w=0.02'],
     expected: { h: [81316, { rel: 0.0003 }], v: [0.940855374352943, { rel: 0.0003 }] },
   },
@@ -89,7 +99,12 @@ describe('states against sourced check values', () => {
 
 describe('pressure basis', () => {
   it('records site, override and setting with a description', () => {
-    const text = fence('state A: db=20C rh=50%', 'site: elev=1600m', 'state B: db=20C rh=50%', 'state C: db=20C rh=50% p=90kPa');
+    const text = fence(
+      'state A: db=20C rh=50%',
+      'site: elev=1600m',
+      'state B: db=20C rh=50%',
+      'state C: db=20C rh=50% p=90kPa',
+    );
     const a = analyse(text, { pressurePa: 95_000, pressureOrigin: 'setting dewmark.pressure' });
     expect(stateResult(a, 'A').pressure).toMatchObject({ source: 'setting', pa: 95_000 });
     expect(stateResult(a, 'A').pressure.describe).toContain('setting dewmark.pressure');

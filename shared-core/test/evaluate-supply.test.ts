@@ -35,14 +35,25 @@ describe('supply air from room loads', () => {
     const back = loads(s.db, s.w, m);
     near(back.sensible, 41.5, { rel: 1e-4 }, 'sensible gain absorbed (balance with PsychroLib enthalpies)');
     near(back.latent, 8, { rel: 1e-3 }, 'latent gain absorbed');
-    near(r.supply!.volumeFlowM3S, m * psy.GetMoistAirVolume(s.db, s.w, P0), { rel: 1e-4 }, 'volume at SA: ṁ v_S (PsychroLib eq 26)');
+    near(
+      r.supply!.volumeFlowM3S,
+      m * psy.GetMoistAirVolume(s.db, s.w, P0),
+      { rel: 1e-4 },
+      'volume at SA: ṁ v_S (PsychroLib eq 26)',
+    );
     near(r.supply!.shr!, 41.5 / 49.5, { abs: 1e-12 }, 'room SHR = 41.5 / (41.5 + 8)');
     // Common practice at sea level: Q_s ≈ 1.23 W/(L/s·K) × L/s × Δt (ρ cp of standard air), within 2 %.
-    near(1.23 * r.supply!.volumeFlowM3S * 1000 * (24 - 13.6) / 1000, 41.5, { rel: 0.02 }, 'the 1.23 rule of thumb');
+    near((1.23 * r.supply!.volumeFlowM3S * 1000 * (24 - 13.6)) / 1000, 41.5, { rel: 0.02 }, 'the 1.23 rule of thumb');
   });
 
   it('a process from SA to the room at the supply flow gives the loads back exactly', () => {
-    const a = analyse(fence(ROOM, 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C', 'process ROOM: SA -> RA q_sensible=41.50kW q_latent=8.00kW'));
+    const a = analyse(
+      fence(
+        ROOM,
+        'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C',
+        'process ROOM: SA -> RA q_sensible=41.50kW q_latent=8.00kW',
+      ),
+    );
     const p = processOf(a, 'ROOM');
     near(p.massFlowKgS, stateResult(a, 'SA').massFlowKgS!, { rel: 1e-15 }, 'the flow is taken from the supply');
     near(p.qSensibleW, 41500, { abs: 1e-6 }, 'sensible');
@@ -89,22 +100,49 @@ describe('supply air from room loads', () => {
   });
 
   it('IP figures: the same physics, a heating load written negative', () => {
-    const a = analyse(fence('units: IP', 'state RW: db=70F rh=30%', 'supply SW: RW q_sensible=-120000Btu/h q_latent=0Btu/h db=95F'));
+    const a = analyse(
+      fence('units: IP', 'state RW: db=70F rh=30%', 'supply SW: RW q_sensible=-120000Btu/h q_latent=0Btu/h db=95F'),
+    );
     const s = stateOf(a, 'SW');
     const r = stateResult(a, 'SW');
     const wR = psy.GetHumRatioFromRelHum((70 - 32) / 1.8, 0.3, P0);
     near(s.w, wR, { abs: 1e-12 }, 'no latent load: the supply W equals the room W');
     // Q_s = ṁ (1.006 + 1.86 W)(t_R − t_S): 120 000 Btu/h = 35.1685 kW (NIST SP 811: Btu_IT/h = 0.29307107 W).
-    near(r.massFlowKgS!, -35.168528 / ((1.006 + 1.86 * wR) * (21.1111111 - 35)), { rel: 1e-5 }, 'dry-air flow for a heating load');
+    near(
+      r.massFlowKgS!,
+      -35.168528 / ((1.006 + 1.86 * wR) * (21.1111111 - 35)),
+      { rel: 1e-5 },
+      'dry-air flow for a heating load',
+    );
   });
 });
 
 describe('supplies that cannot be', () => {
   const cases: [string, string, string, RegExp][] = [
-    ['a latent load too large for the flow (W < 0)', 'supply SA: RA q_sensible=41.5kW q_latent=300kW db=13.6C', 'db=13.6C', /below zero: the supply air cannot absorb that latent load/],
-    ['supply warmer than the room for a gain', 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=26C', 'db=26C', /needs supply air cooler than RA/],
-    ['a flow far too small', 'supply SA: RA q_sensible=41.5kW q_latent=8kW m=0.1kg/s', 'm=0.1kg/s', /humidity ratio of -?[\d.]+ g\/kg, below zero|outside −100…200 °C/],
-    ['a negative latent load that would need air above saturation', 'supply SA: RA q_sensible=5kW q_latent=-40kW m=1kg/s', 'm=1kg/s', /above saturation/],
+    [
+      'a latent load too large for the flow (W < 0)',
+      'supply SA: RA q_sensible=41.5kW q_latent=300kW db=13.6C',
+      'db=13.6C',
+      /below zero: the supply air cannot absorb that latent load/,
+    ],
+    [
+      'supply warmer than the room for a gain',
+      'supply SA: RA q_sensible=41.5kW q_latent=8kW db=26C',
+      'db=26C',
+      /needs supply air cooler than RA/,
+    ],
+    [
+      'a flow far too small',
+      'supply SA: RA q_sensible=41.5kW q_latent=8kW m=0.1kg/s',
+      'm=0.1kg/s',
+      /humidity ratio of -?[\d.]+ g\/kg, below zero|outside −100…200 °C/,
+    ],
+    [
+      'a negative latent load that would need air above saturation',
+      'supply SA: RA q_sensible=5kW q_latent=-40kW m=1kg/s',
+      'm=1kg/s',
+      /above saturation/,
+    ],
   ];
   for (const [what, line, underlined, message] of cases) {
     it(what, () => {
@@ -121,17 +159,33 @@ describe('supplies that cannot be', () => {
 
   it('missing loads, neither db nor a flow, both flows', () => {
     const msgs = (line: string) => analyse(fence(ROOM, line)).diagnostics.map((d) => `${d.code}: ${d.message}`);
-    expect(msgs('supply SA: RA q_sensible=41.5kW db=13C')).toEqual([expect.stringMatching(/^underspecified: supply SA needs the room's sensible and latent loads: add q_latent=/)]);
-    expect(msgs('supply SA: RA q_sensible=41.5kW q_latent=8kW')).toEqual([expect.stringMatching(/^underspecified: supply SA needs the supply dry-bulb \(db=13\.6C\) or the dry-air flow/)]);
-    expect(msgs('supply SA: RA q_sensible=41.5kW q_latent=8kW m=3kg/s q=3m3/s')).toEqual([expect.stringMatching(/^flow-conflict: supply SA: both m= and q=/)]);
-    expect(msgs('supply SA: q_sensible=41.5kW q_latent=8kW db=13C')).toEqual([expect.stringMatching(/^missing-name: the room state the supply serves is missing/)]);
-    expect(msgs('supply SA: NOPE q_sensible=41.5kW q_latent=8kW db=13C')).toEqual([expect.stringMatching(/^unknown-name: no state is named 'NOPE'/)]);
+    expect(msgs('supply SA: RA q_sensible=41.5kW db=13C')).toEqual([
+      expect.stringMatching(/^underspecified: supply SA needs the room's sensible and latent loads: add q_latent=/),
+    ]);
+    expect(msgs('supply SA: RA q_sensible=41.5kW q_latent=8kW')).toEqual([
+      expect.stringMatching(/^underspecified: supply SA needs the supply dry-bulb \(db=13\.6C\) or the dry-air flow/),
+    ]);
+    expect(msgs('supply SA: RA q_sensible=41.5kW q_latent=8kW m=3kg/s q=3m3/s')).toEqual([
+      expect.stringMatching(/^flow-conflict: supply SA: both m= and q=/),
+    ]);
+    expect(msgs('supply SA: q_sensible=41.5kW q_latent=8kW db=13C')).toEqual([
+      expect.stringMatching(/^missing-name: the room state the supply serves is missing/),
+    ]);
+    expect(msgs('supply SA: NOPE q_sensible=41.5kW q_latent=8kW db=13C')).toEqual([
+      expect.stringMatching(/^unknown-name: no state is named 'NOPE'/),
+    ]);
   });
 
   it('takes its dry-bulb from a state above (db=OFF.db+0.8K), and only that', () => {
-    const a = analyse(fence(ROOM, 'state OFF: db=12.8C rh=95%', 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=OFF.db+0.8K'));
+    const a = analyse(
+      fence(ROOM, 'state OFF: db=12.8C rh=95%', 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=OFF.db+0.8K'),
+    );
     near(stateOf(a, 'SA').db, 13.6, { abs: 1e-12 }, 'OFF + 0.8 K');
-    const b = analyse(fence(ROOM, 'state OFF: db=12.8C rh=95%', 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C w=OFF.w'));
-    expect(withCode(b, 'bad-reference').map((d) => d.message)).toEqual([expect.stringMatching(/a supply takes only its dry-bulb from another state/)]);
+    const b = analyse(
+      fence(ROOM, 'state OFF: db=12.8C rh=95%', 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C w=OFF.w'),
+    );
+    expect(withCode(b, 'bad-reference').map((d) => d.message)).toEqual([
+      expect.stringMatching(/a supply takes only its dry-bulb from another state/),
+    ]);
   });
 });

@@ -23,7 +23,12 @@ function accept(input: string, label: string): string {
 
 describe('completion', () => {
   it('offers the keywords on an empty line of a block, also the first and the last', () => {
-    for (const input of [air('|'), air('state A: db=24C rh=50%', '|'), air('|', 'state A: db=24C rh=50%'), air('state A: db=24C rh=50%', '', '|', '')]) {
+    for (const input of [
+      air('|'),
+      air('state A: db=24C rh=50%', '|'),
+      air('|', 'state A: db=24C rh=50%'),
+      air('state A: db=24C rh=50%', '', '|', ''),
+    ]) {
       const labels = complete(input).r?.items.map((i) => i.label) ?? [];
       for (const k of ['state', 'mix', 'process', 'site', 'units']) expect(labels, input).toContain(k);
       expect(labels.every((l) => /^[a-z]+$/.test(l))).toBe(true); // keywords only
@@ -36,11 +41,18 @@ describe('completion', () => {
     expect(accept(air('site:|'), 'elev')).toContain('site: elev=');
     expect(accept(air('state OA: db=30C rh=40%', 'mix MA:|'), 'OA')).toContain('mix MA: OA');
     expect(accept(air('state OA: db=30C rh=40%', 'process P:|'), 'OA')).toContain('process P: OA');
-    expect(accept(air('state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'process P: OA ->|'), 'RA')).toContain('process P: OA -> RA');
+    expect(accept(air('state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'process P: OA ->|'), 'RA')).toContain(
+      'process P: OA -> RA',
+    );
   });
 
   it('does not offer the entering state after MA ->', () => {
-    const input = air('state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'mix MA: OA 25% + RA 75%', 'process P: MA -> |');
+    const input = air(
+      'state OA: db=30C rh=40%',
+      'state RA: db=24C rh=50%',
+      'mix MA: OA 25% + RA 75%',
+      'process P: MA -> |',
+    );
     const labels = complete(input).r!.items.map((i) => i.label);
     expect(labels).toEqual(['OA', 'RA']);
     expect(labels).not.toContain('MA');

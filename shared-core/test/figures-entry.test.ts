@@ -47,7 +47,7 @@ describe('thousands separators', () => {
 
   it('keeps the exact value for long grouped numbers (beyond 15 digits)', () => {
     const { value: n } = numberOf('1,234,567,890,123,456,789W');
-    expect(n?.value).toBe(1234567890123456789);
+    expect(n?.value).toBe(Number('1234567890123456789'));
   });
 
   it('refuses groupings that are not groups of three, without proposing a figure that could change the magnitude', () => {
@@ -57,8 +57,13 @@ describe('thousands separators', () => {
       expect(d.message, written).toContain('thousands separator');
       // No figure built from the written digits is offered (only the fixed examples 8,745 / 1,234,567.5 / 24.5).
       const digits = written.replace(/[^0-9]/g, '');
-      const proposed = (d.message.replace(`'${written}'`, '').match(/[0-9][0-9.,]*/g) ?? []).map((s) => s.replace(/[^0-9]/g, ''));
-      expect(proposed.filter((p) => p === digits), `${written}: ${d.message}`).toEqual([]);
+      const proposed = (d.message.replace(`'${written}'`, '').match(/[0-9][0-9.,]*/g) ?? []).map((s) =>
+        s.replace(/[^0-9]/g, ''),
+      );
+      expect(
+        proposed.filter((p) => p === digits),
+        `${written}: ${d.message}`,
+      ).toEqual([]);
     }
   });
 
@@ -115,9 +120,9 @@ describe('trailing zeros of a whole number are not significant unless marked', (
   // q = (1.006 + 1.86 × 0.010) × 10 = 10.2460 kW (ASHRAE HoF 2017 SI Ch.1 eq 32, the sensible part
   // as docs/notation.md defines it).
   const heater = (claim: string) =>
-    noteDiagnostics(noteOf(air('state A: db=20C w=10g/kg', 'state B: db=30C w=10g/kg', `process H: A -> B m=1kg/s ${claim}`))).filter(
-      (d) => d.code === 'claim-mismatch',
-    );
+    noteDiagnostics(
+      noteOf(air('state A: db=20C w=10g/kg', 'state B: db=30C w=10g/kg', `process H: A -> B m=1kg/s ${claim}`)),
+    ).filter((d) => d.code === 'claim-mismatch');
 
   it('checks 10200W to ±50 W (not ±0.5 W) and 10200.W to ±0.5 W', () => {
     expect(heater('q_sensible=10200W')).toEqual([]); // 10246 − 10200 = 46 ≤ 50
@@ -153,7 +158,10 @@ describe('no suggestion changes a figure’s magnitude', () => {
       if ('props' in st) for (const p of st.props) if (p.value) items.push({ key: p.key, q: p.value });
       for (const { key, q } of items) {
         const unit = q.unit ? lookupUnit(q.unit.text) : undefined;
-        out.set(`${lineOf(q.span.start)}:${key}`, { number: q.number.value, si: unit ? toSI(q.number.value, unit) : null });
+        out.set(`${lineOf(q.span.start)}:${key}`, {
+          number: q.number.value,
+          si: unit ? toSI(q.number.value, unit) : null,
+        });
       }
     }
     expect(lines.length).toBeGreaterThan(0);
@@ -178,7 +186,8 @@ describe('no suggestion changes a figure’s magnitude', () => {
   it('covers every kind of quick fix and both conversions', () => {
     const actions = codeActions(noteOf(note), { start: 0, end: note.length });
     const titles = actions.map((a) => a.title).join('\n');
-    for (const kind of ['Add unit', 'Swap the dry-bulb', 'Replace the stale claim', 'Change unit', 'to IP', 'to SI']) expect(titles, kind).toContain(kind);
+    for (const kind of ['Add unit', 'Swap the dry-bulb', 'Replace the stale claim', 'Change unit', 'to IP', 'to SI'])
+      expect(titles, kind).toContain(kind);
   });
 
   it('keeps every figure’s size, except a stale claim (which becomes the computed value) and a swap', () => {
@@ -200,7 +209,9 @@ describe('no suggestion changes a figure’s magnitude', () => {
         } else if (action.title.startsWith('Replace the stale claim')) {
           // The new figure is the computed value in the written unit: within the claim's band of it.
           const d = action.diagnostic!;
-          expect(Math.abs((a.si as number) - (d.data!.computedSI as number)), what).toBeLessThanOrEqual((d.data!.toleranceSI as number) * 1.000001);
+          expect(Math.abs((a.si as number) - (d.data!.computedSI as number)), what).toBeLessThanOrEqual(
+            (d.data!.toleranceSI as number) * 1.000001,
+          );
         } else if (b.si !== null && a.si !== null) {
           // A conversion: the same quantity to the precision written (4 significant figures for flows).
           expect(Math.abs(a.si - b.si), what).toBeLessThanOrEqual(Math.abs(b.si) * 0.002 + 0.06);
@@ -218,7 +229,11 @@ describe('no suggestion changes a figure’s magnitude', () => {
     const newText = fix!.edits[0]!.newText;
     expect(newText).toMatch(/^\d{1,3}(,\d{3})+$/);
     const after = applyEdits(note, fix!.edits);
-    expect(noteDiagnostics(noteOf(after)).filter((d) => d.code === 'claim-mismatch' && d.message.includes('q_total=') && d.message.includes('MA -> OFF'))).toEqual([]);
+    expect(
+      noteDiagnostics(noteOf(after)).filter(
+        (d) => d.code === 'claim-mismatch' && d.message.includes('q_total=') && d.message.includes('MA -> OFF'),
+      ),
+    ).toEqual([]);
   });
 });
 

@@ -44,7 +44,10 @@ describe('hints wrap only between figures', () => {
     for (const label of all) {
       // An ordinary space appears only in the ' · ' between figures: that is where a wrap may fall.
       for (let i = label.indexOf(' '); i >= 0; i = label.indexOf(' ', i + 1)) {
-        expect(label[i - 1] === '·' || label[i + 1] === '·', `${JSON.stringify(label)} has a breakable space at ${i}`).toBe(true);
+        expect(
+          label[i - 1] === '·' || label[i + 1] === '·',
+          `${JSON.stringify(label)} has a breakable space at ${i}`,
+        ).toBe(true);
       }
       for (const part of label.split(' · ')) expect(part, label).not.toMatch(/^\u00a0|\u00a0$/);
     }

@@ -16,43 +16,196 @@ import { parseNote } from '../src/notation/parse';
 
 const name = fc.constantFrom('OA', 'RA', 'MA', 'SA', 'C1', 'H1', 'Zone𝔸');
 const claim = fc.constantFrom('', ' w=7.3g/kg', ' h=50kJ/kg', ' rh=50%±2', ' dp=10C', ' v=0.85m3/kg', ' wb=18.0C');
-const pair = fc.constantFrom('db=24C rh=50%', 'db=30C wb=20C', 'db=12C dp=5C', 'db=18C w=8g/kg', 'db=20C h=45kJ/kg', 'db=40C rh=120%', 'db=20C wb=25C', 'db=20 rh=50%', 'dp=5C w=9g/kg', 'db=75F rh=40%');
+const pair = fc.constantFrom(
+  'db=24C rh=50%',
+  'db=30C wb=20C',
+  'db=12C dp=5C',
+  'db=18C w=8g/kg',
+  'db=20C h=45kJ/kg',
+  'db=40C rh=120%',
+  'db=20C wb=25C',
+  'db=20 rh=50%',
+  'dp=5C w=9g/kg',
+  'db=75F rh=40%',
+);
 const statement = fc.oneof(
-  { weight: 5, arbitrary: fc.tuple(name, pair, claim, fc.constantFrom('', ' p=90kPa', ' elev=1500m')).map(([n, p, c, o]) => `state ${n}: ${p}${c}${o}`) },
+  {
+    weight: 5,
+    arbitrary: fc
+      .tuple(name, pair, claim, fc.constantFrom('', ' p=90kPa', ' elev=1500m'))
+      .map(([n, p, c, o]) => `state ${n}: ${p}${c}${o}`),
+  },
   { weight: 2, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 30% + ${b} 70%`) },
-  { weight: 1, arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 1.2kg/s + ${b} 800L/s db=22C`) },
+  {
+    weight: 1,
+    arbitrary: fc.tuple(name, name, name).map(([m, a, b]) => `mix ${m}: ${a} 1.2kg/s + ${b} 800L/s db=22C`),
+  },
   // Mixes by total and remainder (and near-misses of one).
-  { weight: 1, arbitrary: fc.tuple(name, name, name, fc.constantFrom('0.78kg/s + B rest total=3.9kg/s', '20% + B rest', '20% + B rest total=3.9kg/s', '0.6m3/s + B rest total=3.4m3/s', '4kg/s + B rest total=3.9kg/s', 'rest + B rest total=1kg/s', '1kg/s + B 2kg/s total=3kg/s')).map(([m, a, b, tail]) => `mix ${m}: ${a} ${tail.replace('B ', `${b} `)}`) },
-  { weight: 2, arbitrary: fc.tuple(name, name, name).map(([p, a, b]) => `process ${p}: ${a} -> ${b} m=2kg/s q_total=-30kW`) },
+  {
+    weight: 1,
+    arbitrary: fc
+      .tuple(
+        name,
+        name,
+        name,
+        fc.constantFrom(
+          '0.78kg/s + B rest total=3.9kg/s',
+          '20% + B rest',
+          '20% + B rest total=3.9kg/s',
+          '0.6m3/s + B rest total=3.4m3/s',
+          '4kg/s + B rest total=3.9kg/s',
+          'rest + B rest total=1kg/s',
+          '1kg/s + B 2kg/s total=3kg/s',
+        ),
+      )
+      .map(([m, a, b, tail]) => `mix ${m}: ${a} ${tail.replace('B ', `${b} `)}`),
+  },
+  {
+    weight: 2,
+    arbitrary: fc.tuple(name, name, name).map(([p, a, b]) => `process ${p}: ${a} -> ${b} m=2kg/s q_total=-30kW`),
+  },
   // Supplies from room loads (by db, by flow, a reference, infeasible), and a process from one.
-  { weight: 2, arbitrary: fc.tuple(name, name, fc.constantFrom('db=13.6C', 'm=3.9kg/s', 'q=3.4m3/s shr=0.84', 'db=X.db+0.8K', 'db=26C', 'db=13C rh=90%')).map(([n, r, tail]) => `supply ${n}: ${r} q_sensible=41.5kW q_latent=8kW ${tail.replace(/X\./g, `${r}.`)}`) },
+  {
+    weight: 2,
+    arbitrary: fc
+      .tuple(
+        name,
+        name,
+        fc.constantFrom('db=13.6C', 'm=3.9kg/s', 'q=3.4m3/s shr=0.84', 'db=X.db+0.8K', 'db=26C', 'db=13C rh=90%'),
+      )
+      .map(([n, r, tail]) => `supply ${n}: ${r} q_sensible=41.5kW q_latent=8kW ${tail.replace(/X\./g, `${r}.`)}`),
+  },
   // References between states: defining, shifted, a claim beside them, pressure overrides, broken ones.
-  { weight: 2, arbitrary: fc.tuple(name, name, fc.constantFrom('db=24C w=X.w', 'db=X.db+0.8K w=X.w', 'w=X.w db=20C rh=50%', 'db=X.db-1.8F rh=60% p=90kPa', 'h=X.h+2kJ/kg db=30C', 'dp=X.dp w=X.w', 'db=X.db w=X.db', 'db=X.', 'db=X.db*2 rh=5%')).map(([n, r, body]) => `state ${n}: ${body.replace(/X\./g, `${r}.`)}`) },
-  { weight: 1, arbitrary: fc.constantFrom('site: elev=1600m', 'site: p=84.5kPa', 'units: IP', 'units: SI', 'state : db=', 'stat X: db=1C', '# a comment', '', '~~', '``', '~ a tilde', '  indented', 'process PX: OA -> m=1kg/s p=1', 'process PY: -> SA', 'mix MX:', 'mix MY: OA 50% + NOPE 50%', 'process PZ: OA -> SA x=1') },
+  {
+    weight: 2,
+    arbitrary: fc
+      .tuple(
+        name,
+        name,
+        fc.constantFrom(
+          'db=24C w=X.w',
+          'db=X.db+0.8K w=X.w',
+          'w=X.w db=20C rh=50%',
+          'db=X.db-1.8F rh=60% p=90kPa',
+          'h=X.h+2kJ/kg db=30C',
+          'dp=X.dp w=X.w',
+          'db=X.db w=X.db',
+          'db=X.',
+          'db=X.db*2 rh=5%',
+        ),
+      )
+      .map(([n, r, body]) => `state ${n}: ${body.replace(/X\./g, `${r}.`)}`),
+  },
+  {
+    weight: 1,
+    arbitrary: fc.constantFrom(
+      'site: elev=1600m',
+      'site: p=84.5kPa',
+      'units: IP',
+      'units: SI',
+      'state : db=',
+      'stat X: db=1C',
+      '# a comment',
+      '',
+      '~~',
+      '``',
+      '~ a tilde',
+      '  indented',
+      'process PX: OA -> m=1kg/s p=1',
+      'process PY: -> SA',
+      'mix MX:',
+      'mix MY: OA 50% + NOPE 50%',
+      'process PZ: OA -> SA x=1',
+    ),
+  },
 );
-const fence = fc.tuple(fc.constantFrom('```air', '~~~air', '> ```air', '- ```air', '```js'), fc.array(statement, { maxLength: 7 }), fc.boolean()).map(([open, body, closed]) => {
-  const prefix = open.startsWith('> ') ? '> ' : open.startsWith('- ') ? '  ' : '';
-  const lines = [open, ...body.map((b) => prefix + b)];
-  if (closed) lines.push(prefix + (open.includes('~') ? '~~~' : '```'));
-  return lines.join('\n');
-});
+const fence = fc
+  .tuple(
+    fc.constantFrom('```air', '~~~air', '> ```air', '- ```air', '```js'),
+    fc.array(statement, { maxLength: 7 }),
+    fc.boolean(),
+  )
+  .map(([open, body, closed]) => {
+    const prefix = open.startsWith('> ') ? '> ' : open.startsWith('- ') ? '  ' : '';
+    const lines = [open, ...body.map((b) => prefix + b)];
+    if (closed) lines.push(prefix + (open.includes('~') ? '~~~' : '```'));
+    return lines.join('\n');
+  });
 /** A block whose mixes and processes refer to states defined above them (so that their results depend on those states). */
-const plant = fc.tuple(fc.constantFrom('', 'site: elev=800m\n'), fc.integer({ min: 18, max: 34 }), fc.integer({ min: 20, max: 80 }), fc.integer({ min: 5, max: 30 })).map(
-  ([site, db, rh, oa]) =>
-    `\`\`\`air\n${site}state OA: db=${db}C rh=${rh}%\nstate RA: db=24C rh=50% w=9.3g/kg\nmix MA: OA ${oa}% + RA ${100 - oa}% db=25C\nstate SA: db=13C rh=90%\nprocess CC: MA -> SA m=2kg/s q_total=-40kW\nmix MB: OA 0.5kg/s + MA 1.5kg/s\nprocess HC: SA -> OA q=1.2m3/s\nstate PH: db=OA.db+5K w=OA.w h=60kJ/kg\nstate SB: db=MA.db+0.8K w=MA.w\nsupply SU: RA q_sensible=30kW q_latent=5kW db=SB.db+0.5K\nprocess RM: SU -> RA q_total=35kW\n\`\`\``,
-);
+const plant = fc
+  .tuple(
+    fc.constantFrom('', 'site: elev=800m\n'),
+    fc.integer({ min: 18, max: 34 }),
+    fc.integer({ min: 20, max: 80 }),
+    fc.integer({ min: 5, max: 30 }),
+  )
+  .map(
+    ([site, db, rh, oa]) =>
+      `\`\`\`air\n${site}state OA: db=${db}C rh=${rh}%\nstate RA: db=24C rh=50% w=9.3g/kg\nmix MA: OA ${oa}% + RA ${100 - oa}% db=25C\nstate SA: db=13C rh=90%\nprocess CC: MA -> SA m=2kg/s q_total=-40kW\nmix MB: OA 0.5kg/s + MA 1.5kg/s\nprocess HC: SA -> OA q=1.2m3/s\nstate PH: db=OA.db+5K w=OA.w h=60kJ/kg\nstate SB: db=MA.db+0.8K w=MA.w\nsupply SU: RA q_sensible=30kW q_latent=5kW db=SB.db+0.5K\nprocess RM: SU -> RA q_total=35kW\n\`\`\``,
+  );
 const prose = fc.oneof(
-  fc.constantFrom('# Plant room', 'Some prose.', '', '- a list item', '> quoted', '| a | b |\n|---|---|\n| 1 | 2 |', '    indented code'),
+  fc.constantFrom(
+    '# Plant room',
+    'Some prose.',
+    '',
+    '- a list item',
+    '> quoted',
+    '| a | b |\n|---|---|\n| 1 | 2 |',
+    '    indented code',
+  ),
   statement.map((s) => `The design point is \`${s}\` as agreed.`),
 );
-const note = fc.tuple(fc.array(fc.oneof({ weight: 2, arbitrary: fence }, { weight: 2, arbitrary: plant }, { weight: 2, arbitrary: prose }), { minLength: 1, maxLength: 8 }), fc.constantFrom('\n', '\r\n')).map(([parts, eol]) => parts.join('\n\n').replace(/\n/g, eol) + eol);
+const note = fc
+  .tuple(
+    fc.array(
+      fc.oneof({ weight: 2, arbitrary: fence }, { weight: 2, arbitrary: plant }, { weight: 2, arbitrary: prose }),
+      { minLength: 1, maxLength: 8 },
+    ),
+    fc.constantFrom('\n', '\r\n'),
+  )
+  .map(([parts, eol]) => parts.join('\n\n').replace(/\n/g, eol) + eol);
 
 /** What an edit inserts: characters, statements, structure. */
 const insert = fc.oneof(
-  { weight: 4, arbitrary: fc.constantFrom('1', '5', '0', '.', '-', 'C', 'F', '%', 'a', ' ', '=', '#', ':', '+', '±2', 'g/kg') },
-  { weight: 2, arbitrary: fc.constantFrom('`', '``', '```', '~', '~~~', '\n', '\r\n', '\r', '\t', '> ', '- ', '\n```air\n', '\n```\n', '\uD83D\uDE00', '\u0000') },
+  {
+    weight: 4,
+    arbitrary: fc.constantFrom('1', '5', '0', '.', '-', 'C', 'F', '%', 'a', ' ', '=', '#', ':', '+', '±2', 'g/kg'),
+  },
+  {
+    weight: 2,
+    arbitrary: fc.constantFrom(
+      '`',
+      '``',
+      '```',
+      '~',
+      '~~~',
+      '\n',
+      '\r\n',
+      '\r',
+      '\t',
+      '> ',
+      '- ',
+      '\n```air\n',
+      '\n```\n',
+      '\uD83D\uDE00',
+      '\u0000',
+    ),
+  },
   { weight: 2, arbitrary: statement.map((s) => `\n${s}\n`) },
-  { weight: 1, arbitrary: fc.constantFrom(' w=9g/kg', ' p=95kPa', 'site: p=80kPa\n', '`state Q: db=1C rh=5%`', ' w=OA.w', ' db=RA.db+1K', '.w', 'OA.', '+0.5K') },
+  {
+    weight: 1,
+    arbitrary: fc.constantFrom(
+      ' w=9g/kg',
+      ' p=95kPa',
+      'site: p=80kPa\n',
+      '`state Q: db=1C rh=5%`',
+      ' w=OA.w',
+      ' db=RA.db+1K',
+      '.w',
+      'OA.',
+      '+0.5K',
+    ),
+  },
   { weight: 2, arbitrary: fc.constant('') },
 );
 
@@ -65,7 +218,12 @@ const edit = fc.record({
   settings: fc.integer({ min: 0, max: 9 }),
 });
 
-const SETTINGS: (Partial<EvaluateSettings> | undefined)[] = [undefined, { units: 'IP' }, { checkClaims: false }, { pressurePa: 90_000, pressureOrigin: 'setting' }];
+const SETTINGS: (Partial<EvaluateSettings> | undefined)[] = [
+  undefined,
+  { units: 'IP' },
+  { checkClaims: false },
+  { pressurePa: 90_000, pressureOrigin: 'setting' },
+];
 
 /** The settings of a step: mostly the sequence's own, sometimes another (as when the user changes them). */
 function settingsFor(base: number, n: number): Partial<EvaluateSettings> | undefined {
@@ -79,7 +237,9 @@ type Place = 'anywhere' | 'statement' | 'line';
 function apply(text: string, e: { at: number; inStatement: Place; del: number; ins: string }): string {
   let pos = Math.floor(e.at * (text.length + 1));
   if (e.inStatement !== 'anywhere') {
-    const lines = [...text.matchAll(e.inStatement === 'statement' ? /(?:state|mix|process|site)[^\n\r]*/g : /[^\n\r]+/g)];
+    const lines = [
+      ...text.matchAll(e.inStatement === 'statement' ? /(?:state|mix|process|site)[^\n\r]*/g : /[^\n\r]+/g),
+    ];
     if (lines.length > 0) {
       const m = lines[Math.floor(e.at * lines.length) % lines.length]!;
       pos = m.index + Math.floor(((e.at * 7919) % 1) * (m[0].length + 1));
@@ -121,7 +281,12 @@ describe('incremental parse', () => {
     );
     // Long texts go through the halving search.
     const long = 'x'.repeat(100_000);
-    expect(findEdit(long, `${long.slice(0, 54_321)}y${long.slice(54_322)}`)).toEqual({ start: 54_321, oldEnd: 54_322, newEnd: 54_322, delta: 0 });
+    expect(findEdit(long, `${long.slice(0, 54_321)}y${long.slice(54_322)}`)).toEqual({
+      start: 54_321,
+      oldEnd: 54_322,
+      newEnd: 54_322,
+      delta: 0,
+    });
   });
 
   it('sees a fence line that an edit turns into a closing fence, or out of its container', () => {
@@ -168,16 +333,21 @@ describe('incremental parse', () => {
 describe('incremental analysis (createAnalyzer)', () => {
   it('equals analyzeNote after every edit of random edit sequences, settings changes included', () => {
     fc.assert(
-      fc.property(note, fc.integer({ min: 0, max: 3 }), fc.array(edit, { minLength: 1, maxLength: 20 }), (start, base, edits) => {
-        const analyzer = createAnalyzer();
-        let text = start;
-        expect(analyzer.analyze(text, SETTINGS[base])).toStrictEqual(analyzeNote(text, SETTINGS[base]));
-        for (const e of edits) {
-          text = apply(text, e);
-          const settings = settingsFor(base, e.settings);
-          expect(analyzer.analyze(text, settings)).toStrictEqual(analyzeNote(text, settings));
-        }
-      }),
+      fc.property(
+        note,
+        fc.integer({ min: 0, max: 3 }),
+        fc.array(edit, { minLength: 1, maxLength: 20 }),
+        (start, base, edits) => {
+          const analyzer = createAnalyzer();
+          let text = start;
+          expect(analyzer.analyze(text, SETTINGS[base])).toStrictEqual(analyzeNote(text, SETTINGS[base]));
+          for (const e of edits) {
+            text = apply(text, e);
+            const settings = settingsFor(base, e.settings);
+            expect(analyzer.analyze(text, settings)).toStrictEqual(analyzeNote(text, settings));
+          }
+        },
+      ),
       { seed: 2718, numRuns: 250 },
     );
   });
@@ -200,7 +370,8 @@ describe('incremental analysis (createAnalyzer)', () => {
   });
 
   it('takes a state before the edit over as it was, and moves one after it', () => {
-    const text = '```air\nsite: elev=1200m\nstate A: db=24C rh=50% w=9g/kg\nstate B: db=30C wb=20C\nmix M: A 30% + B 70%\nstate C: db=12C dp=5C rh=60%\n```\n';
+    const text =
+      '```air\nsite: elev=1200m\nstate A: db=24C rh=50% w=9g/kg\nstate B: db=30C wb=20C\nmix M: A 30% + B 70%\nstate C: db=12C dp=5C rh=60%\n```\n';
     const analyzer = createAnalyzer();
     const first = analyzer.analyze(text);
     // The same text again is the same analysis.
@@ -224,7 +395,8 @@ describe('incremental analysis (createAnalyzer)', () => {
   });
 
   it('re-evaluates a process when the flow of the mix it starts from changes but not its state', () => {
-    const text = '```air\nstate OA: db=30C rh=40%\nstate RA: db=24C rh=50%\nmix MB: OA 0.5kg/s + RA 1.5kg/s\nstate SA: db=13C rh=90%\nprocess CC: MB -> SA\n```\n';
+    const text =
+      '```air\nstate OA: db=30C rh=40%\nstate RA: db=24C rh=50%\nmix MB: OA 0.5kg/s + RA 1.5kg/s\nstate SA: db=13C rh=90%\nprocess CC: MB -> SA\n```\n';
     const analyzer = createAnalyzer();
     const first = analyzer.analyze(text);
     // Both flows doubled: the same mixed state, twice the dry-air flow through the coil.
@@ -233,7 +405,10 @@ describe('incremental analysis (createAnalyzer)', () => {
     expect(second).toStrictEqual(analyzeNote(edited));
     const q1 = first.byName.get('CC');
     const q2 = second.byName.get('CC');
-    expect(q1?.kind === 'process' && q2?.kind === 'process' ? q2.massFlowKgS! / q1.massFlowKgS! : null).toBeCloseTo(2, 12);
+    expect(q1?.kind === 'process' && q2?.kind === 'process' ? q2.massFlowKgS! / q1.massFlowKgS! : null).toBeCloseTo(
+      2,
+      12,
+    );
   });
 
   it('re-evaluates a state when the site line above it changes', () => {
@@ -251,21 +426,26 @@ describe('incremental analysis (createAnalyzer)', () => {
 describe('analysis in steps (what the language server drives between other requests)', () => {
   it('equals analyzeNote, also after runs abandoned half-way (the text changed while it ran)', () => {
     fc.assert(
-      fc.property(note, fc.integer({ min: 0, max: 3 }), fc.array(fc.tuple(edit, edit, fc.integer({ min: 0, max: 2 })), { minLength: 1, maxLength: 12 }), (start, base, steps) => {
-        const analyzer = createAnalyzer();
-        let text = start;
-        for (const [e, abandoned, pauses] of steps) {
-          // A run for an intermediate text, stopped after `pauses` pauses (0: right after it started).
-          const run = analyzer.analyzeSteps(apply(text, abandoned), SETTINGS[base]);
-          for (let i = 0; i <= pauses; i++) if (run.next().done) break;
-          text = apply(text, e);
-          const settings = settingsFor(base, e.settings);
-          const steps2 = analyzer.analyzeSteps(text, settings);
-          let r = steps2.next();
-          while (!r.done) r = steps2.next();
-          expect(r.value).toStrictEqual(analyzeNote(text, settings));
-        }
-      }),
+      fc.property(
+        note,
+        fc.integer({ min: 0, max: 3 }),
+        fc.array(fc.tuple(edit, edit, fc.integer({ min: 0, max: 2 })), { minLength: 1, maxLength: 12 }),
+        (start, base, steps) => {
+          const analyzer = createAnalyzer();
+          let text = start;
+          for (const [e, abandoned, pauses] of steps) {
+            // A run for an intermediate text, stopped after `pauses` pauses (0: right after it started).
+            const run = analyzer.analyzeSteps(apply(text, abandoned), SETTINGS[base]);
+            for (let i = 0; i <= pauses; i++) if (run.next().done) break;
+            text = apply(text, e);
+            const settings = settingsFor(base, e.settings);
+            const steps2 = analyzer.analyzeSteps(text, settings);
+            let r = steps2.next();
+            while (!r.done) r = steps2.next();
+            expect(r.value).toStrictEqual(analyzeNote(text, settings));
+          }
+        },
+      ),
       { seed: 31337, numRuns: 60 },
     );
   });

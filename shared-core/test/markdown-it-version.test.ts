@@ -46,7 +46,8 @@ function upstream(): Record<string, AnyFunction> {
   };
 }
 
-const fingerprint = (f: AnyFunction): string => createHash('sha256').update(Function.prototype.toString.call(f)).digest('hex').slice(0, 16);
+const fingerprint = (f: AnyFunction): string =>
+  createHash('sha256').update(Function.prototype.toString.call(f)).digest('hex').slice(0, 16);
 
 /** Fingerprints (sha-256 of the source text, 16 hex digits) of the functions above in markdown-it 15.0.3. */
 const COPIED: Record<string, string> = {

@@ -154,8 +154,8 @@ describe('positions', () => {
     check(base, want);
     check(base.replace(/\n/g, '\r\n'), want);
     check(base.replace(/\n/g, '\r'), want);
-    check('\uFEFF' + base, want);
-    check('\uFEFF' + base.replace(/\n/g, '\r\n'), want);
+    check(`\uFEFF${base}`, want);
+    check(`\uFEFF${base.replace(/\n/g, '\r\n')}`, want);
   });
 
   it('count characters outside the BMP as two code units', () => {
@@ -217,7 +217,11 @@ describe('headings', () => {
 describe('where markdown-it alone departs from CommonMark', () => {
   const blocks = (md: string) => {
     const s = scanMarkdown(md);
-    return { fences: s.fences.map((f) => f.lines.map((l) => md.slice(l.start, l.end))), indented: s.indentedCode.length, spans: s.codeSpans.map((c) => c.content) };
+    return {
+      fences: s.fences.map((f) => f.lines.map((l) => md.slice(l.start, l.end))),
+      indented: s.indentedCode.length,
+      spans: s.codeSpans.map((c) => c.content),
+    };
   };
 
   it('a `>` after four columns of indentation is not a block-quote marker', () => {
@@ -243,12 +247,15 @@ describe('the instrumented markdown-it', () => {
   it("builds the same line table as markdown-it's own block state", () => {
     const ours = createMarkdownIt();
     const theirs = new MarkdownIt('commonmark');
-    const text = fc.array(fc.constantFrom(' ', '\t', '\n', 'a', '>', '- ', '\u00a0'), { maxLength: 40 }).map((xs) => xs.join(''));
+    const text = fc
+      .array(fc.constantFrom(' ', '\t', '\n', 'a', '>', '- ', '\u00a0'), { maxLength: 40 })
+      .map((xs) => xs.join(''));
     fc.assert(
       fc.property(text, (src) => {
         const a = new ours.block.State(src, ours, {}, []);
         const b = new theirs.block.State(src, theirs, {}, []);
-        const table = (st: typeof a) => [st.bMarks, st.eMarks, st.tShift, st.sCount, st.bsCount].map((t) => Array.from(t));
+        const table = (st: typeof a) =>
+          [st.bMarks, st.eMarks, st.tShift, st.sCount, st.bsCount].map((t) => Array.from(t));
         expect(table(a)).toEqual(table(b));
         expect(a.lineMax).toBe(b.lineMax);
       }),
@@ -270,12 +277,14 @@ describe('the instrumented markdown-it', () => {
       const want = {
         fences: tokens.filter((t) => t.type === 'fence').map((t) => [t.info.trim().split(/\s+/)[0] ?? '', t.content]),
         indented: tokens.filter((t) => t.type === 'code_block').length,
-        headings: tokens.flatMap((t, i) => (t.type === 'heading_open' ? [tokens[i + 1]?.content.replace(/\n/g, ' ')] : [])),
+        headings: tokens.flatMap((t, i) =>
+          t.type === 'heading_open' ? [tokens[i + 1]?.content.replace(/\n/g, ' ')] : [],
+        ),
         spans: tokens.flatMap((t) => (t.children ?? []).filter((c) => c.type === 'code_inline').map((c) => c.content)),
       };
       const scan = scanMarkdown(md);
       const got = {
-        fences: scan.fences.map((f) => [f.lang, f.lines.map((l) => md.slice(l.start, l.end) + '\n').join('')]),
+        fences: scan.fences.map((f) => [f.lang, f.lines.map((l) => `${md.slice(l.start, l.end)}\n`).join('')]),
         indented: scan.indentedCode.length,
         headings: scan.headings.map((h) => h.text),
         spans: scan.codeSpans.map((c) => c.content),

@@ -32,7 +32,10 @@ const EXCLUDED: Record<number, string> = {
 const tabs = (s: string): string => s.replace(/→/g, '\t');
 
 function decode(s: string): string {
-  return s.replace(/&(lt|gt|amp|quot|#39);/g, (_m, n: string) => ({ lt: '<', gt: '>', amp: '&', quot: '"', '#39': "'" })[n] ?? _m);
+  return s.replace(
+    /&(lt|gt|amp|quot|#39);/g,
+    (_m, n: string) => ({ lt: '<', gt: '>', amp: '&', quot: '"', '#39': "'" })[n] ?? _m,
+  );
 }
 
 interface Blocks {
@@ -44,10 +47,13 @@ interface Blocks {
 /** What the spec's HTML shows: `<pre><code class="language-X">` blocks, then `<code>` spans. */
 function expectedFromHtml(html: string): Blocks {
   const blocks: Blocks['blocks'] = [];
-  const rest = html.replace(/<pre><code(?: class="language-([^"]*)")?>([\s\S]*?)<\/code><\/pre>/g, (_m, lang: string | undefined, c: string) => {
-    blocks.push({ lang: lang === undefined ? null : decode(lang), content: decode(c) });
-    return '';
-  });
+  const rest = html.replace(
+    /<pre><code(?: class="language-([^"]*)")?>([\s\S]*?)<\/code><\/pre>/g,
+    (_m, lang: string | undefined, c: string) => {
+      blocks.push({ lang: lang === undefined ? null : decode(lang), content: decode(c) });
+      return '';
+    },
+  );
   const spans: string[] = [];
   for (const m of rest.matchAll(/<code>([\s\S]*?)<\/code>/g)) spans.push(decode(m[1] ?? ''));
   return { blocks, spans };
@@ -71,13 +77,26 @@ function sameLine(got: string, want: string): boolean {
 }
 
 /** What the scan reports, read back from the source through the reported ranges. */
-function found(md: string, scan: MarkdownScan): { blocks: { lang: string | null; content: string; start: number; fence: boolean }[]; spans: string[] } {
+function found(
+  md: string,
+  scan: MarkdownScan,
+): { blocks: { lang: string | null; content: string; start: number; fence: boolean }[]; spans: string[] } {
   const blocks = [
-    ...scan.fences.map((f) => ({ lang: f.lang === '' ? null : f.lang, lines: f.lines, start: f.span.start, fence: true })),
+    ...scan.fences.map((f) => ({
+      lang: f.lang === '' ? null : f.lang,
+      lines: f.lines,
+      start: f.span.start,
+      fence: true,
+    })),
     ...scan.indentedCode.map((b) => ({ lang: null, lines: b.lines, start: b.span.start, fence: false })),
   ]
     .sort((a, b) => a.start - b.start)
-    .map((b) => ({ lang: b.lang, content: b.lines.map((l) => md.slice(l.start, l.end) + '\n').join(''), start: b.start, fence: b.fence }));
+    .map((b) => ({
+      lang: b.lang,
+      content: b.lines.map((l) => `${md.slice(l.start, l.end)}\n`).join(''),
+      start: b.start,
+      fence: b.fence,
+    }));
   const spans = scan.codeSpans.map((c) => c.lines.map((l) => md.slice(l.start, l.end)).join(' '));
   return { blocks, spans };
 }
@@ -99,13 +118,21 @@ describe('CommonMark spec examples: code blocks and code spans', () => {
       expect(got.spans, 'code spans').toEqual(want.spans);
       // The content field of each code span is the same text as its ranges give.
       expect(scan.codeSpans.map((c) => c.content)).toEqual(want.spans);
-      expect(got.blocks.map((b) => b.lang), 'code blocks (language)').toEqual(want.blocks.map((b) => b.lang));
+      expect(
+        got.blocks.map((b) => b.lang),
+        'code blocks (language)',
+      ).toEqual(want.blocks.map((b) => b.lang));
       got.blocks.forEach((b, i) => {
         const w = want.blocks[i]?.content ?? '';
         const gl = b.content.split('\n');
         const wl = w.split('\n');
         expect(gl.length, `block ${i} line count`).toBe(wl.length);
-        gl.forEach((line, k) => expect(sameLine(line, wl[k] ?? ''), `block ${i} line ${k}: ${JSON.stringify(line)} vs ${JSON.stringify(wl[k])}`).toBe(true));
+        gl.forEach((line, k) => {
+          expect(
+            sameLine(line, wl[k] ?? ''),
+            `block ${i} line ${k}: ${JSON.stringify(line)} vs ${JSON.stringify(wl[k])}`,
+          ).toBe(true);
+        });
         // A fence starts with its marker; an indented block never does (indentation 4+).
         if (b.fence) expect(md.slice(b.start, b.start + 3)).toMatch(/^(```|~~~)$/);
       });
@@ -124,14 +151,19 @@ describe('CommonMark spec examples with other line endings and a BOM', () => {
   const variants: Variant[] = [
     ['CRLF', (s) => s.replace(/\n/g, '\r\n')],
     ['lone CR', (s) => s.replace(/\n/g, '\r')],
-    ['BOM', (s) => '\uFEFF' + s],
+    ['BOM', (s) => `\uFEFF${s}`],
   ];
   /** Everything the scan reports, as text read through the ranges (line breaks made uniform). */
   const summary = (md: string): string => {
     const s = scanMarkdown(md);
     const cut = (a: number, b: number) => md.slice(a, b).replace(/\r\n?/g, '\n');
     return JSON.stringify({
-      f: s.fences.map((f) => [f.lang, f.closed, f.lines.map((l) => cut(l.start, l.end)), cut(f.span.start, f.span.end)]),
+      f: s.fences.map((f) => [
+        f.lang,
+        f.closed,
+        f.lines.map((l) => cut(l.start, l.end)),
+        cut(f.span.start, f.span.end),
+      ]),
       i: s.indentedCode.map((b) => b.lines.map((l) => cut(l.start, l.end))),
       c: s.codeSpans.map((c) => [c.content, c.lines.map((l) => cut(l.start, l.end)), cut(c.span.start, c.span.end)]),
       h: s.headings.map((h) => [h.level, h.text, cut(h.span.start, h.span.end)]),

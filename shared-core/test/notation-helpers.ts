@@ -31,7 +31,8 @@ export function statementText(st: Statement): string {
     case 'supply':
       return `supply ${st.name?.text ?? '?'}: ${st.room?.text ?? '?'}${tail}`;
     case 'recover': {
-      const own = (ps: typeof st.props): string => (ps.length ? ` | ${ps.map((p) => `${p.key}=${quantityText(p.value)}`).join(' ')}` : '');
+      const own = (ps: typeof st.props): string =>
+        ps.length ? ` | ${ps.map((p) => `${p.key}=${quantityText(p.value)}`).join(' ')}` : '';
       return `recover ${st.name?.text ?? '?'}: ${st.streams.map((x) => `${x.from?.text ?? '?'} -> ${x.to?.text ?? '?'}${own(x.props)}`).join(', ')}${st.options.map((o) => ` ${o.key}=${o.word.text}`).join('')}`;
     }
   }
@@ -51,15 +52,22 @@ export interface TreeNode {
 
 /** Every node of a statement, the statement itself first. */
 export function statementNodes(st: Statement, at = 'statement'): TreeNode[] {
-  const out: TreeNode[] = [{ label: at, span: st.span }, { label: `${at} keyword`, span: st.keywordSpan, text: st.keyword, parent: st.span }];
+  const out: TreeNode[] = [
+    { label: at, span: st.span },
+    { label: `${at} keyword`, span: st.keywordSpan, text: st.keyword, parent: st.span },
+  ];
   const quantity = (label: string, v: QuantityNode | null, parent: Span) => {
     if (!v) return;
-    out.push({ label: `${label} value`, span: v.span, parent }, { label: `${label} number`, span: v.number.span, text: v.number.text });
+    out.push(
+      { label: `${label} value`, span: v.span, parent },
+      { label: `${label} number`, span: v.number.span, text: v.number.text },
+    );
     if (v.unit) out.push({ label: `${label} unit`, span: v.unit.span, text: v.unit.text });
     if (v.tolerance) {
       out.push({ label: `${label} tolerance`, span: v.tolerance.span, pattern: /^(±|\+-)/ });
       out.push({ label: `${label} tolerance number`, span: v.tolerance.number.span, text: v.tolerance.number.text });
-      if (v.tolerance.unit) out.push({ label: `${label} tolerance unit`, span: v.tolerance.unit.span, text: v.tolerance.unit.text });
+      if (v.tolerance.unit)
+        out.push({ label: `${label} tolerance unit`, span: v.tolerance.unit.span, text: v.tolerance.unit.text });
     }
   };
   const name = (label: string, n: { text: string; span: Span } | null) => {
@@ -70,7 +78,9 @@ export function statementNodes(st: Statement, at = 'statement'): TreeNode[] {
   if (st.keyword === 'process') {
     name('from', st.from);
     name('to', st.to);
-    st.words.forEach((w, k) => name(`word ${k}`, w));
+    st.words.forEach((w, k) => {
+      name(`word ${k}`, w);
+    });
   }
   if (st.keyword === 'supply') name('room', st.room);
   if (st.keyword === 'recover') {
@@ -80,7 +90,10 @@ export function statementNodes(st: Statement, at = 'statement'): TreeNode[] {
       name(`stream ${k} to`, x.to);
     });
     st.options.forEach((o, k) => {
-      out.push({ label: `${at} option ${k}`, span: o.span, parent: st.span }, { label: `${at} option ${k} key`, span: o.keySpan, text: o.key });
+      out.push(
+        { label: `${at} option ${k}`, span: o.span, parent: st.span },
+        { label: `${at} option ${k} key`, span: o.keySpan, text: o.key },
+      );
       name(`option ${k} word`, o.word);
     });
   }
@@ -93,7 +106,10 @@ export function statementNodes(st: Statement, at = 'statement'): TreeNode[] {
   }
   if ('props' in st) {
     st.props.forEach((p, k) => {
-      out.push({ label: `${at} prop ${k}`, span: p.span, parent: st.span }, { label: `${at} prop ${k} key`, span: p.keySpan, text: p.key });
+      out.push(
+        { label: `${at} prop ${k}`, span: p.span, parent: st.span },
+        { label: `${at} prop ${k} key`, span: p.keySpan, text: p.key },
+      );
       quantity(`${at} prop ${k}`, p.value, p.span);
     });
   }
@@ -106,10 +122,16 @@ export function noteSpans(p: ParsedNote): [string, Span][] {
   p.regions.forEach((r, i) => {
     out.push([`region ${i}`, r.span], [`region ${i} content`, r.contentSpan]);
     const lines = (r as { lines?: Span[] }).lines ?? [];
-    lines.forEach((l, k) => out.push([`region ${i} line ${k}`, l]));
+    lines.forEach((l, k) => {
+      out.push([`region ${i} line ${k}`, l]);
+    });
   });
-  p.headings.forEach((h, i) => out.push([`heading ${i}`, h.span]));
-  p.diagnostics.forEach((d, i) => out.push([`diagnostic ${i} ${d.code}`, d.span]));
+  p.headings.forEach((h, i) => {
+    out.push([`heading ${i}`, h.span]);
+  });
+  p.diagnostics.forEach((d, i) => {
+    out.push([`diagnostic ${i} ${d.code}`, d.span]);
+  });
   p.statements.forEach((s, i) => {
     for (const n of statementNodes(s, `statement ${i}`)) out.push([n.label, n.span]);
   });

@@ -3,7 +3,7 @@
  * wrong and how to fix it, and recovery (what the parser still reads, and the next statement).
  */
 import { describe, expect, it } from 'vitest';
-import { parseNote, SYNTAX_CODES } from '../src/notation/parse';
+import { parseNote, type SYNTAX_CODES } from '../src/notation/parse';
 import { statementText as summary } from './notation-helpers';
 
 /** [code, text of the marked range, a fragment the message must contain]. */
@@ -13,7 +13,9 @@ type Diag = [code: keyof typeof SYNTAX_CODES, marked: string, says: string];
 function check(lines: string[], diags: Diag[], statements: string[]): void {
   const md = ['```air', ...lines, '```'].join('\n');
   const parsed = parseNote(md);
-  expect(parsed.diagnostics.map((d) => [d.code, md.slice(d.span.start, d.span.end)])).toEqual(diags.map(([c, m]) => [c, m]));
+  expect(parsed.diagnostics.map((d) => [d.code, md.slice(d.span.start, d.span.end)])).toEqual(
+    diags.map(([c, m]) => [c, m]),
+  );
   parsed.diagnostics.forEach((d, i) => {
     expect(d.severity).toBe('error');
     expect(d.message).toContain(diags[i]?.[2] ?? '');
@@ -40,7 +42,11 @@ describe('unknown statements', () => {
     check(
       ['the room is at 24C', 'db=24C rh=50%', 'state RA: db=24C'],
       [
-        ['unknown-keyword', 'the', "a statement starts with 'site:', 'units:', 'state', 'mix', 'process', 'supply' or 'recover'"],
+        [
+          'unknown-keyword',
+          'the',
+          "a statement starts with 'site:', 'units:', 'state', 'mix', 'process', 'supply' or 'recover'",
+        ],
         ['unknown-keyword', 'db=24C', "start a note line with '#'"],
       ],
       ['state RA: db=24C'],
@@ -80,7 +86,7 @@ describe('names', () => {
       [
         ['missing-colon', 'state RA', "missing ':' after 'state RA': write state RA: db=24C rh=50%"],
         ['missing-colon', 'site', "missing ':' after 'site'"],
-        ['missing-colon', 'units', "write units: SI"],
+        ['missing-colon', 'units', 'write units: SI'],
       ],
       ['state RA: db=24C', 'site: elev=1600m', 'units: SI'],
     );
@@ -131,7 +137,11 @@ describe('values', () => {
   });
 
   it('does not take the next key or stream for a unit', () => {
-    check(['state A: w=0.0093 rh=50%', 'mix M: A 0.25 + B 0.75'], [], ['state A: w=0.0093 rh=50%', 'mix M: A 0.25 + B 0.75']);
+    check(
+      ['state A: w=0.0093 rh=50%', 'mix M: A 0.25 + B 0.75'],
+      [],
+      ['state A: w=0.0093 rh=50%', 'mix M: A 0.25 + B 0.75'],
+    );
   });
 
   it('reports tolerances without a number or with a sign', () => {
@@ -164,7 +174,11 @@ describe('mixes', () => {
     check(
       ['mix M: OA + RA 75%', 'mix N: OA 25% RA 75%', 'mix P: OA 25% +'],
       [
-        ['missing-value', 'OA', "the stream 'OA' has no amount: write a dry-air mass fraction, a mass flow or a volume flow, e.g. OA 25%"],
+        [
+          'missing-value',
+          'OA',
+          "the stream 'OA' has no amount: write a dry-air mass fraction, a mass flow or a volume flow, e.g. OA 25%",
+        ],
         ['syntax', 'RA', "missing '+' before the stream 'RA': write OA 25% + RA 75%"],
         ['missing-name', '+', "'+' must be followed by another stream"],
       ],
@@ -195,7 +209,13 @@ describe('processes', () => {
         ['syntax', '=>', "write the arrow as '->' (or '→'), not '=>'"],
         ['missing-name', 'q=2m3/s', 'the entering state is missing'],
       ],
-      ['process P: ? -> SA', 'process Q: MA -> ?', 'process R: MA -> SA', 'process S: MA -> SA', 'process T: ? -> ? | q=2m3/s'],
+      [
+        'process P: ? -> SA',
+        'process Q: MA -> ?',
+        'process R: MA -> SA',
+        'process S: MA -> SA',
+        'process T: ? -> ? | q=2m3/s',
+      ],
     );
   });
 });

@@ -22,7 +22,10 @@ interface Expected {
 function check(written: string, e: Expected): void {
   const md = `\`\`\`air\nstate A: x=${written}\n\`\`\``;
   const parsed = parseNote(md);
-  expect(parsed.diagnostics.map((d) => d.message), written).toEqual([]);
+  expect(
+    parsed.diagnostics.map((d) => d.message),
+    written,
+  ).toEqual([]);
   const st = parsed.statements[0];
   const v: QuantityNode | null | undefined = st && st.keyword === 'state' ? st.props[0]?.value : undefined;
   expect(v, written).toBeTruthy();
@@ -60,18 +63,32 @@ describe('numbers', () => {
     expect(resolutionOf(4, 0)).toBe(0.0001);
     expect(resolutionOf(1, 3)).toBe(100);
     expect(resolutionOf(0, -40)).toBe(1e-40);
-    expect(scanNumber('12.5e-1x', 0, 8)).toEqual({ end: 7, written: '12.5e-1', value: 1.25, fractionDigits: 1, exponent: -1 });
-    expect(scanNumber('\u22123', 0, 2)).toEqual({ end: 2, written: '\u22123', value: -3, fractionDigits: 0, exponent: 0 });
-    expect(scanNumber('-1234567890123456789.5e-3', 0, 25).value).toBe(-1234567890123456.7895);
+    expect(scanNumber('12.5e-1x', 0, 8)).toEqual({
+      end: 7,
+      written: '12.5e-1',
+      value: 1.25,
+      fractionDigits: 1,
+      exponent: -1,
+    });
+    expect(scanNumber('\u22123', 0, 2)).toEqual({
+      end: 2,
+      written: '\u22123',
+      value: -3,
+      fractionDigits: 0,
+      exponent: 0,
+    });
+    expect(scanNumber('-1234567890123456789.5e-3', 0, 25).value).toBe(Number('-1234567890123456.7895'));
     expect(scanNumber('1e400', 0, 5).value).toBe(Infinity);
-    expect(scanNumber('\u22121234567890123456789', 0, 20).value).toBe(-1234567890123456789);
+    expect(scanNumber('\u22121234567890123456789', 0, 20).value).toBe(Number('-1234567890123456789'));
   });
 
   it('gives every number the value Number() gives its text (correct rounding)', () => {
     const digits = fc.string({ unit: fc.constantFrom('0', '1', '2', '5', '7', '9'), minLength: 1, maxLength: 20 });
     const numberText = fc
       .tuple(fc.constantFrom('', '-', '+'), digits, fc.option(digits), fc.option(fc.integer({ min: -40, max: 40 })))
-      .map(([sign, int, frac, exp]) => `${sign}${int}${frac === null ? '' : `.${frac}`}${exp === null ? '' : `e${exp}`}`);
+      .map(
+        ([sign, int, frac, exp]) => `${sign}${int}${frac === null ? '' : `.${frac}`}${exp === null ? '' : `e${exp}`}`,
+      );
     fc.assert(
       fc.property(numberText, (t) => {
         const n = scanNumber(t, 0, t.length);

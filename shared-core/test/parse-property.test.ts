@@ -12,7 +12,15 @@ import { noteSpans as allSpans } from './notation-helpers';
 
 function assertWellFormed(text: string, p: ParsedNote): void {
   for (const [label, s] of allSpans(p)) {
-    if (!(Number.isInteger(s.start) && Number.isInteger(s.end) && s.start >= 0 && s.start <= s.end && s.end <= text.length)) {
+    if (
+      !(
+        Number.isInteger(s.start) &&
+        Number.isInteger(s.end) &&
+        s.start >= 0 &&
+        s.start <= s.end &&
+        s.end <= text.length
+      )
+    ) {
       throw new Error(`${label} has span ${JSON.stringify(s)} in a text of length ${text.length}`);
     }
   }
@@ -21,12 +29,29 @@ function assertWellFormed(text: string, p: ParsedNote): void {
     for (const n of nums) if (n && !Number.isFinite(n.value)) throw new Error(`non-finite value ${n.text}`);
   }
   // Statements and regions come in document order.
-  for (let i = 1; i < p.statements.length; i++) expect((p.statements[i] as Statement).span.start).toBeGreaterThanOrEqual((p.statements[i - 1] as Statement).span.end);
-  for (let i = 1; i < p.regions.length; i++) expect(p.regions[i]?.span.start).toBeGreaterThanOrEqual(p.regions[i - 1]?.span.end ?? 0);
+  for (let i = 1; i < p.statements.length; i++)
+    expect((p.statements[i] as Statement).span.start).toBeGreaterThanOrEqual(
+      (p.statements[i - 1] as Statement).span.end,
+    );
+  for (let i = 1; i < p.regions.length; i++)
+    expect(p.regions[i]?.span.start).toBeGreaterThanOrEqual(p.regions[i - 1]?.span.end ?? 0);
 }
 
 const name = fc.constantFrom('OA', 'RA', 'MA', 'SA', 'AHU-3_off', 'Zone𝔸', 'x1');
-const value = fc.constantFrom('24C', '50%', '50%±2', '9.30g/kg', '1.2e3', '.5', '5.', '-3C', '0.0093', '24C+-0.5C', '1000L/s', '4.8m3/s');
+const value = fc.constantFrom(
+  '24C',
+  '50%',
+  '50%±2',
+  '9.30g/kg',
+  '1.2e3',
+  '.5',
+  '5.',
+  '-3C',
+  '0.0093',
+  '24C+-0.5C',
+  '1000L/s',
+  '4.8m3/s',
+);
 const key = fc.constantFrom('db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'p', 'elev', 'q', 'm');
 const prop = fc.tuple(key, value).map(([k, v]) => `${k}=${v}`);
 const valid = fc.oneof(
@@ -54,10 +79,37 @@ const nearMiss = fc.constantFrom(
 );
 const garbage = fc.oneof(
   fc.string({ maxLength: 20 }),
-  fc.constantFrom('`', '``', '```', '~~~', '\t', '#', '=', '+', '±', '->', '→', '>', '- ', '1. ', '<div>', '<!--', '\\', '𝔸', '\uD800', '\u0000', '\uFEFF'),
+  fc.constantFrom(
+    '`',
+    '``',
+    '```',
+    '~~~',
+    '\t',
+    '#',
+    '=',
+    '+',
+    '±',
+    '->',
+    '→',
+    '>',
+    '- ',
+    '1. ',
+    '<div>',
+    '<!--',
+    '\\',
+    '𝔸',
+    '\uD800',
+    '\u0000',
+    '\uFEFF',
+  ),
 );
 const eol = fc.constantFrom('\n', '\r\n', '\r');
-const longLine = fc.constantFrom('a'.repeat(3000), `state L: ${'db=1C '.repeat(400)}`, '`'.repeat(500), `\`state X: ${'x'.repeat(2000)}\``);
+const longLine = fc.constantFrom(
+  'a'.repeat(3000),
+  `state L: ${'db=1C '.repeat(400)}`,
+  '`'.repeat(500),
+  `\`state X: ${'x'.repeat(2000)}\``,
+);
 
 /** A random Markdown note: fences (air and others), code spans, containers, garbage. */
 const note = fc
@@ -65,7 +117,16 @@ const note = fc
     fc.boolean(),
     fc.array(
       fc.oneof(
-        { weight: 3, arbitrary: fc.tuple(fc.constantFrom('```air', '~~~air', '``` air x', '```js'), fc.array(fc.oneof(valid, nearMiss, garbage), { maxLength: 6 }), fc.boolean()).map(([open, body, closed]) => ({ open, body, closed })) },
+        {
+          weight: 3,
+          arbitrary: fc
+            .tuple(
+              fc.constantFrom('```air', '~~~air', '``` air x', '```js'),
+              fc.array(fc.oneof(valid, nearMiss, garbage), { maxLength: 6 }),
+              fc.boolean(),
+            )
+            .map(([open, body, closed]) => ({ open, body, closed })),
+        },
         { weight: 2, arbitrary: fc.oneof(valid, nearMiss).map((s) => ({ span: s })) },
         { weight: 2, arbitrary: garbage.map((g) => ({ text: g })) },
         { weight: 1, arbitrary: longLine.map((l) => ({ text: l })) },
@@ -114,14 +175,45 @@ describe('parseNote on random text', () => {
     fc.assert(
       fc.property(fc.string({ unit: 'binary', maxLength: 300 }), (text) => {
         assertWellFormed(text, parseNote(text));
-        assertWellFormed('```air\n' + text, parseNote('```air\n' + text));
+        assertWellFormed(`\`\`\`air\n${text}`, parseNote(`\`\`\`air\n${text}`));
       }),
       { seed: 7654321, numRuns: 600 },
     );
   });
 
   it('gives every missing part of the tree (a null) a diagnostic within its statement', () => {
-    const word = fc.constantFrom('state', 'mix', 'process', 'site:', 'units:', 'A', 'B', ':', '=', 'db', 'db=', '24C', '25%', '+', '->', '→', '±', '±2', ',', '1,5', 'NaN', '', '#', 'x=', 'q=2', '1A', 'A.B', '=>', '-', '+-');
+    const word = fc.constantFrom(
+      'state',
+      'mix',
+      'process',
+      'site:',
+      'units:',
+      'A',
+      'B',
+      ':',
+      '=',
+      'db',
+      'db=',
+      '24C',
+      '25%',
+      '+',
+      '->',
+      '→',
+      '±',
+      '±2',
+      ',',
+      '1,5',
+      'NaN',
+      '',
+      '#',
+      'x=',
+      'q=2',
+      '1A',
+      'A.B',
+      '=>',
+      '-',
+      '+-',
+    );
     const head = fc.constantFrom('state', 'mix', 'process', 'site:', 'units:');
     let withNulls = 0;
     fc.assert(
@@ -148,13 +240,22 @@ describe('parseNote on random text', () => {
 
   it('reads valid statements back without a diagnostic, however they are laid out', () => {
     // [prefix of the fence's first line, prefix of the lines after it]
-    const containers = fc.constantFrom(['', ''], ['> ', '> '], ['- ', '  '], ['1. ', '   '], ['   ', '   '], ['> - ', '>   ']);
+    const containers = fc.constantFrom(
+      ['', ''],
+      ['> ', '> '],
+      ['- ', '  '],
+      ['1. ', '   '],
+      ['   ', '   '],
+      ['> - ', '>   '],
+    );
     fc.assert(
       fc.property(fc.array(valid, { minLength: 1, maxLength: 8 }), eol, containers, (stmts, e, [first, rest]) => {
         const text = [`${first}\`\`\`air`, ...stmts.map((s) => `${rest}${s}   # note`), `${rest}\`\`\``].join(e) + e;
         const parsed = parseNote(text);
         expect(parsed.diagnostics).toEqual([]);
-        expect(parsed.statements.map((s) => text.slice(s.span.start, s.span.end))).toEqual(stmts.map((s) => s.trimEnd()));
+        expect(parsed.statements.map((s) => text.slice(s.span.start, s.span.end))).toEqual(
+          stmts.map((s) => s.trimEnd()),
+        );
       }),
       { seed: 424242, numRuns: 300 },
     );

@@ -55,28 +55,42 @@ describe('statements in air fences', () => {
         'state SA: db=13C rh=95%',
         'process CC: MA -> SA | q=4.8m3/s',
       ],
-      ['site: elev=1600m', 'state OA: db=33C wb=23C', 'state RA: db=24C rh=50%', 'mix MA: OA 25% + RA 75%', 'state SA: db=13C rh=95%', 'process CC: MA -> SA q=4.8m3/s'],
+      [
+        'site: elev=1600m',
+        'state OA: db=33C wb=23C',
+        'state RA: db=24C rh=50%',
+        'mix MA: OA 25% + RA 75%',
+        'state SA: db=13C rh=95%',
+        'process CC: MA -> SA q=4.8m3/s',
+      ],
     );
   });
 
   it('reads units and pressure directives', () => {
-    check('```air\nunits: SI\nunits: IP\nsite: p=84.5kPa\nsite:elev=5000ft\n```', ['units: SI', 'units: IP', 'site: p=84.5kPa', 'site: elev=5000ft']);
+    check('```air\nunits: SI\nunits: IP\nsite: p=84.5kPa\nsite:elev=5000ft\n```', [
+      'units: SI',
+      'units: IP',
+      'site: p=84.5kPa',
+      'site: elev=5000ft',
+    ]);
   });
 
   it('reads names with digits, underscores and hyphens, and non-ASCII letters', () => {
-    check('```air\nstate AHU-3_off_coil: db=12.5C rh=95%\nstate Zone2b: db=21C w=7g/kg\nstate Außenluft: db=-5C rh=80%\n```', [
-      'state AHU-3_off_coil: db=12.5C rh=95%',
-      'state Zone2b: db=21C w=7g/kg',
-      'state Außenluft: db=-5C rh=80%',
-    ]);
+    check(
+      '```air\nstate AHU-3_off_coil: db=12.5C rh=95%\nstate Zone2b: db=21C w=7g/kg\nstate Außenluft: db=-5C rh=80%\n```',
+      ['state AHU-3_off_coil: db=12.5C rh=95%', 'state Zone2b: db=21C w=7g/kg', 'state Außenluft: db=-5C rh=80%'],
+    );
   });
 
   it('reads mixes by fraction, mass flow and volume flow, with claims after the streams', () => {
-    check('```air\nmix MA: OA 25% + RA 75% db=26.2C\nmix M2: OA 1.2kg/s + RA 3.4kg/s + XA 0.5kg/s\nmix M3: OA 1000L/s+RA 3000L/s\n```', [
-      'mix MA: OA 25% + RA 75% | db=26.2C',
-      'mix M2: OA 1.2kg/s + RA 3.4kg/s + XA 0.5kg/s',
-      'mix M3: OA 1000L/s + RA 3000L/s',
-    ]);
+    check(
+      '```air\nmix MA: OA 25% + RA 75% db=26.2C\nmix M2: OA 1.2kg/s + RA 3.4kg/s + XA 0.5kg/s\nmix M3: OA 1000L/s+RA 3000L/s\n```',
+      [
+        'mix MA: OA 25% + RA 75% | db=26.2C',
+        'mix M2: OA 1.2kg/s + RA 3.4kg/s + XA 0.5kg/s',
+        'mix M3: OA 1000L/s + RA 3000L/s',
+      ],
+    );
   });
 
   it('reads processes with -> or →, flows and further claims', () => {
@@ -88,10 +102,10 @@ describe('statements in air fences', () => {
   });
 
   it('reads units with symbols, tolerances and spaces around =', () => {
-    check('```air\nstate A: db=24°C rh=50%±2 w=9.30g/kg+-0.05 dp = 12.9C±0.5C\nstate B: db=75.2°F h=28.1Btu/lb v=13.7ft3/lb\n```', [
-      'state A: db=24°C rh=50%±2 w=9.30g/kg±0.05 dp=12.9C±0.5C',
-      'state B: db=75.2°F h=28.1Btu/lb v=13.7ft3/lb',
-    ]);
+    check(
+      '```air\nstate A: db=24°C rh=50%±2 w=9.30g/kg+-0.05 dp = 12.9C±0.5C\nstate B: db=75.2°F h=28.1Btu/lb v=13.7ft3/lb\n```',
+      ['state A: db=24°C rh=50%±2 w=9.30g/kg±0.05 dp=12.9C±0.5C', 'state B: db=75.2°F h=28.1Btu/lb v=13.7ft3/lb'],
+    );
   });
 
   it('keeps keys and units as written (the evaluator checks them)', () => {
@@ -115,7 +129,11 @@ describe('statements in air fences', () => {
 
 describe('statements in code spans', () => {
   it('reads a statement in prose', () => {
-    check('The room is held at `state RA: db=24C rh=50%` in summer.', ['state RA: db=24C rh=50%'], ['state RA: db=24C rh=50%']);
+    check(
+      'The room is held at `state RA: db=24C rh=50%` in summer.',
+      ['state RA: db=24C rh=50%'],
+      ['state RA: db=24C rh=50%'],
+    );
   });
 
   it('reads a comment to the end of the span', () => {
@@ -124,7 +142,11 @@ describe('statements in code spans', () => {
 
   it('reads a span over several lines, in a block quote too', () => {
     check('We keep `state RA:\ndb=24C rh=50%` all year.', ['state RA: db=24C rh=50%'], ['state RA:\ndb=24C rh=50%']);
-    check('> We keep `state RA:\r\n> db=24C\r\n> rh=50%` all year.', ['state RA: db=24C rh=50%'], ['state RA:\r\n> db=24C\r\n> rh=50%']);
+    check(
+      '> We keep `state RA:\r\n> db=24C\r\n> rh=50%` all year.',
+      ['state RA: db=24C rh=50%'],
+      ['state RA:\r\n> db=24C\r\n> rh=50%'],
+    );
   });
 
   it('reads spans with longer backtick strings', () => {

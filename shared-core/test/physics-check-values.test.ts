@@ -123,7 +123,13 @@ function compute(c: CheckCase): Record<string, number> {
       if (!r.ok) throw new Error(`${c.id}: ${r.problem.message}`);
       const s = r.state;
       return ip
-        ? { W_lb_per_lb: s.w, tdp_F: toF(s.dp), RH: s.rh, h_Btu_per_lb: toBtuPerLb(s.h), v_ft3_per_lb: s.v / FT3_PER_LB_M3_PER_KG }
+        ? {
+            W_lb_per_lb: s.w,
+            tdp_F: toF(s.dp),
+            RH: s.rh,
+            h_Btu_per_lb: toBtuPerLb(s.h),
+            v_ft3_per_lb: s.v / FT3_PER_LB_M3_PER_KG,
+          }
         : { W_kg_per_kg: s.w, tdp_C: s.dp, RH: s.rh, h_J_per_kg: s.h, v_m3_per_kg: s.v };
     }
   }

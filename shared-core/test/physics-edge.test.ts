@@ -5,7 +5,6 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
-  PsychroError,
   boilingPoint,
   degreeOfSaturation,
   dewPointFromVapPres,
@@ -18,7 +17,6 @@ import {
   solveState,
   stateFromDbW,
   wetBulbFromHumRatio,
-  type PhysicsCode,
 } from '../src/physics';
 import { humRatioEq33 } from '../src/physics/wetbulb';
 import { SWITCH_C } from '../src/physics/saturation';
@@ -52,7 +50,9 @@ describe('where PsychroLib is wrong, the engine is right (reference list, "edge"
   });
   it('EDGE-SI-WB-ABOVE-BOILING: 140 °C / 5 % (below the defect) agrees with PsychroLib to 0.001 K', () => {
     const w = humRatioFromRelHum(140, 0.05, 101325);
-    expect(Math.abs(wetBulbFromHumRatio(140, w, 101325) - si().GetTWetBulbFromHumRatio(140, w, 101325))).toBeLessThanOrEqual(0.001);
+    expect(
+      Math.abs(wetBulbFromHumRatio(140, w, 101325) - si().GetTWetBulbFromHumRatio(140, w, 101325)),
+    ).toBeLessThanOrEqual(0.001);
   });
 
   // EDGE-SI-W-ZERO: PsychroLib raises W < 1e-7 to 1e-7 everywhere (h 20120.25 J/kg, RH 7e-6).
@@ -168,8 +168,7 @@ describe('where PsychroLib is wrong, the engine is right (reference list, "edge"
         if (wb >= 0) {
           expect(Math.abs(back - wb), `db ${db} wb ${wb}`).toBeLessThanOrEqual(1e-7);
           expect(back, 'an eq 33 root is never below 0 °C').toBeGreaterThanOrEqual(0);
-        }
-        else expect(Math.abs(humRatioFromWetBulb(db, back, 101325) - w)).toBeLessThanOrEqual(1e-12);
+        } else expect(Math.abs(humRatioFromWetBulb(db, back, 101325) - w)).toBeLessThanOrEqual(1e-12);
       }
     }
   });

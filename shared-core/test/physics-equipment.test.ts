@@ -255,7 +255,9 @@ describe('heat recovery: effectiveness on the smaller capacity rate', () => {
     close(2.0 * (r.leaving[0].w - oa.w), 1.6 * (ea.w - r.leaving[1].w), 1e-12, 'water balance');
   });
   it('condensation on the exhaust side: its dew point above the cold-end surface', () => {
-    const r = value(recoverBetween({ state: st(5, 0.8), massFlowKgS: 2 }, { state: st(22, 0.55), massFlowKgS: 2 }, 0.7, null));
+    const r = value(
+      recoverBetween({ state: st(5, 0.8), massFlowKgS: 2 }, { state: st(22, 0.55), massFlowKgS: 2 }, 0.7, null),
+    );
     // Exhaust leaves at about 22 − 0.7 × 17 ≈ 10.1 °C; surface ≈ (10.1 + 5)/2 ≈ 7.6 °C; dew point of 22 °C / 55 % ≈ 12.5 °C.
     expect(psy.GetTDewPointFromHumRatio(22, psy.GetHumRatioFromRelHum(22, 0.55, P), P)).toBeGreaterThan(12);
     expect(r.wetting).not.toBeNull();
@@ -264,7 +266,9 @@ describe('heat recovery: effectiveness on the smaller capacity rate', () => {
     close(r.wetting!.surfaceC, (r.leaving[1].db + 5) / 2, 1e-12, 'surface temperature');
   });
   it('frost: a cold outdoor stream brings the exhaust below its frost point and the surface below 0 °C', () => {
-    const r = value(recoverBetween({ state: st(-10, 0.8), massFlowKgS: 2 }, { state: st(22, 0.3), massFlowKgS: 1.6 }, 0.7, null));
+    const r = value(
+      recoverBetween({ state: st(-10, 0.8), massFlowKgS: 2 }, { state: st(22, 0.3), massFlowKgS: 1.6 }, 0.7, null),
+    );
     expect(r.wetting?.kind).toBe('frost');
     // Exhaust: 22 − 0.7 × 32 = −0.4 °C, below its dew point: a fog state (more water than vapour can hold).
     close(r.leaving[1].db, 22 - 0.7 * 32, 1e-9, 'exhaust leaving');
@@ -272,12 +276,17 @@ describe('heat recovery: effectiveness on the smaller capacity rate', () => {
   });
   it('summer: the outdoor air is the cooled stream, and humid outdoor air condenses on its side', () => {
     // 32 °C / 80 % (dew point about 28 °C) leaves at 32 − 0.7 × 8 = 26.4 °C; surface ≈ 25.2 °C.
-    const r = value(recoverBetween({ state: st(32, 0.8), massFlowKgS: 2 }, { state: st(24, 0.5), massFlowKgS: 2 }, 0.7, null));
+    const r = value(
+      recoverBetween({ state: st(32, 0.8), massFlowKgS: 2 }, { state: st(24, 0.5), massFlowKgS: 2 }, 0.7, null),
+    );
     expect(r.sensibleW).toBeLessThan(0);
     expect(r.wetting?.stream).toBe(0);
     expect(r.wetting?.kind).toBe('condensation');
     // 32 °C / 60 % (dew point about 23 °C) stays dry.
-    expect(value(recoverBetween({ state: st(32, 0.6), massFlowKgS: 2 }, { state: st(24, 0.5), massFlowKgS: 2 }, 0.7, null)).wetting).toBeNull();
+    expect(
+      value(recoverBetween({ state: st(32, 0.6), massFlowKgS: 2 }, { state: st(24, 0.5), massFlowKgS: 2 }, 0.7, null))
+        .wetting,
+    ).toBeNull();
   });
   it('effectiveness outside 0…1 is refused', () => {
     const r = recoverBetween({ state: st(0, 0.5), massFlowKgS: 1 }, { state: st(20, 0.5), massFlowKgS: 1 }, 70, null);

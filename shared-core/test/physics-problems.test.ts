@@ -8,7 +8,6 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
   DEFINING_KEYS,
-  PsychroError,
   boilingPoint,
   condensateEnthalpy,
   dbFromEnthalpy,
@@ -283,14 +282,22 @@ describe('no NaN for any valid input', () => {
       .chain(([i, j]) => {
         const a = DEFINING_KEYS[i]!;
         const b = DEFINING_KEYS[j]!;
-        return fc.record({ a: fc.constant(a), b: fc.constant(b), va: value(a), vb: value(b), p: logUniform(500, 2e6), fog: fc.boolean() });
+        return fc.record({
+          a: fc.constant(a),
+          b: fc.constant(b),
+          va: value(a),
+          vb: value(b),
+          p: logUniform(500, 2e6),
+          fog: fc.boolean(),
+        });
       });
     fc.assert(
       fc.property(pair, ({ a, b, va, vb, p, fog }) => {
         const r = solveState({ [a]: va, [b]: vb }, p, { allowFog: fog });
         if (r.ok) {
           if (r.state.fog) {
-            for (const [k, v] of Object.entries(r.state)) if (typeof v === 'number') expect(Number.isFinite(v), k).toBe(true);
+            for (const [k, v] of Object.entries(r.state))
+              if (typeof v === 'number') expect(Number.isFinite(v), k).toBe(true);
           } else expectNoNaN(r.state, `${a}=${va} ${b}=${vb} p=${p}`);
           for (const x of r.warnings) expect(ALL_CODES).toContain(x.code);
         } else {

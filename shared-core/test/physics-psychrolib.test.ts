@@ -125,7 +125,15 @@ describe('agreement with PsychroLib, I-P (its I-P equations vs our SI converted 
         if (!Number.isFinite(s.ws)) return; // at or above the boiling point: see physics-edge.test.ts
         const L = ip();
         compared++;
-        const [w, wb, dp, pw, h, v, mu] = L.CalcPsychrometricsFromRelHum(dbF, rh, pPsia) as [number, number, number, number, number, number, number];
+        const [w, wb, dp, pw, h, v, mu] = L.CalcPsychrometricsFromRelHum(dbF, rh, pPsia) as [
+          number,
+          number,
+          number,
+          number,
+          number,
+          number,
+          number,
+        ];
         // The I-P eqs 5/6 are the SI ones with coefficients converted to °R and rounded to 8
         // figures: they agree to about 1e-6 (measured 9e-7).
         expect(rel(s.pws / PSI_PA, L.GetSatVapPres(dbF))).toBeLessThanOrEqual(3e-6);

@@ -27,7 +27,11 @@ const logUniform = (lo: number, hi: number) =>
 
 /** States over the whole range: db −100…200 °C, rh 0…1, p 1 kPa…1 MPa, where they exist. */
 const anyState = fc
-  .record({ db: fc.double({ min: -100, max: 200, noNaN: true }), rh: fc.double({ min: 0, max: 1, noNaN: true }), p: logUniform(1000, 1e6) })
+  .record({
+    db: fc.double({ min: -100, max: 200, noNaN: true }),
+    rh: fc.double({ min: 0, max: 1, noNaN: true }),
+    p: logUniform(1000, 1e6),
+  })
   .filter(({ db, rh, p }) => rh * satVapPres(db) < p);
 
 describe('round trips', () => {
@@ -114,7 +118,9 @@ function expectSameState(got: MoistAirState, want: MoistAirState, tDb: number, l
   expect(Math.abs(got.h - want.h), m('h', got.h, want.h)).toBeLessThanOrEqual(1e-4 * scale + 1e-9 * Math.abs(want.h));
   expect(Math.abs(got.v - want.v) / want.v, m('v', got.v, want.v)).toBeLessThanOrEqual(1e-9 * scale);
   expect(Math.abs(got.rho - want.rho) / want.rho, m('rho', got.rho, want.rho)).toBeLessThanOrEqual(1e-9 * scale);
-  expect(Math.abs(got.pw - want.pw), m('pw', got.pw, want.pw)).toBeLessThanOrEqual(scale * (1e-9 * want.pw + 2e-12 * want.p));
+  expect(Math.abs(got.pw - want.pw), m('pw', got.pw, want.pw)).toBeLessThanOrEqual(
+    scale * (1e-9 * want.pw + 2e-12 * want.p),
+  );
   expect(Math.abs(got.pws - want.pws) / want.pws, m('pws', got.pws, want.pws)).toBeLessThanOrEqual(1e-8 * scale);
   // The flags flip at 0 °C and 0.01 °C: compare them away from those points.
   if (Math.abs(want.wb) > 1e-6 * scale) expect(got.wbIce).toBe(want.wbIce);
@@ -123,7 +129,11 @@ function expectSameState(got: MoistAirState, want: MoistAirState, tDb: number, l
 }
 
 const pairState = fc
-  .record({ db: fc.double({ min: -60, max: 150, noNaN: true }), rh: fc.double({ min: 0.02, max: 1, noNaN: true }), p: logUniform(50_000, 200_000) })
+  .record({
+    db: fc.double({ min: -60, max: 150, noNaN: true }),
+    rh: fc.double({ min: 0.02, max: 1, noNaN: true }),
+    p: logUniform(50_000, 200_000),
+  })
   .filter(({ db, rh, p }) => rh * satVapPres(db) < 0.9 * p);
 
 describe('every valid pair of solveState reproduces the state it was taken from', () => {
@@ -138,7 +148,8 @@ describe('every valid pair of solveState reproduces the state it was taken from'
           if (a === 'wb' && b === 'h' && Math.abs(s.wb) < 0.05) return; // h nearly constant along the line
           if (s.db - s.wb < 1e-6 && ((a === 'wb' && b === 'h') || (a === 'wb' && b === 'rh'))) return; // saturated: db = wb exactly
           const r = solveState({ [a]: s[a], [b]: s[b] }, p);
-          if (!r.ok) throw new Error(`${a}+${b} at db ${db}, rh ${rh}, p ${p}: ${r.problem.code}: ${r.problem.message}`);
+          if (!r.ok)
+            throw new Error(`${a}+${b} at db ${db}, rh ${rh}, p ${p}: ${r.problem.code}: ${r.problem.message}`);
           expectSameState(r.state, s, dbTol(a, b, s), `${a}+${b} at db ${db}, rh ${rh}, p ${p}`);
           if (a === 'wb' && b === 'h') expect(r.warnings.some((x) => x.code === 'ill-conditioned')).toBe(true);
           checked++;

@@ -13,7 +13,10 @@ import { escapeHtml, escapeMarkdown, resultsTableHtml, resultsTableMarkdown } fr
 function row(lines: string[], name: string): string[] {
   const line = lines.find((l) => l.startsWith(`| ${name} `) || l.startsWith(`| ${name}:`));
   if (!line) throw new Error(`no row ${name} in\n${lines.join('\n')}`);
-  return line.slice(1, -1).split(' | ').map((c) => c.trim());
+  return line
+    .slice(1, -1)
+    .split(' | ')
+    .map((c) => c.trim());
 }
 
 /** The number at the start of a cell (figures are shown with the minus sign U+2212 and IP thousands commas). */
@@ -120,8 +123,10 @@ describe('block results', () => {
     expect(Math.abs(btu - kj / 2.326)).toBeLessThanOrEqual(0.01);
   });
 
-  it('lists the block\'s errors and failed claims, marks states that were not computed, and leaves infos out', () => {
-    const bad = analyzeNote('```air\nstate LOG7: db=20C wb=25C\nstate RA: db=24C rh=50% w=12g/kg\nmix M: LOG7 50% + RA 50%\n```\n');
+  it("lists the block's errors and failed claims, marks states that were not computed, and leaves infos out", () => {
+    const bad = analyzeNote(
+      '```air\nstate LOG7: db=20C wb=25C\nstate RA: db=24C rh=50% w=12g/kg\nmix M: LOG7 50% + RA 50%\n```\n',
+    );
     const data = blockResults(bad, bad.parsed.regions[0]!);
     expect(data.states.find((s) => s.name === 'LOG7')).toMatchObject({ status: 'failed', detail: 'not computed' });
     expect(data.states.find((s) => s.name === 'LOG7')!.values.every((v) => v === '—')).toBe(true);
@@ -132,10 +137,12 @@ describe('block results', () => {
     const md = resultsTableMarkdown(data).join('\n');
     expect(md).toMatch(/^- \*\*error\*\* wb-above-db .*wet-bulb/m);
     expect(md).toMatch(/^- \*\*warning\*\* claim-mismatch RA: .*w=/m);
-    expect(resultsTableHtml(data)).toContain('<li class="dewmark-error"><span class="dewmark-severity">error</span> <span class="dewmark-code">wb-above-db</span>');
+    expect(resultsTableHtml(data)).toContain(
+      '<li class="dewmark-error"><span class="dewmark-severity">error</span> <span class="dewmark-code">wb-above-db</span>',
+    );
   });
 
-  it('adds a pressure column only when the block\'s states differ in pressure', () => {
+  it("adds a pressure column only when the block's states differ in pressure", () => {
     const one = analyzeNote('```air\nstate A: db=20C rh=50%\nstate B: db=20C rh=50% elev=1600m\n```\n');
     const data = blockResults(one, one.parsed.regions[0]!);
     expect(data.stateColumns.map((c) => c.key)).toEqual(['p', 'db', 'wb', 'dp', 'rh', 'w', 'h']);
@@ -165,7 +172,7 @@ describe('escaping', () => {
   const a = analyzeNote(hostile);
   const data = blockResults(a, a.parsed.regions[0]!);
 
-  it('has something to escape (the note\'s text reaches the messages)', () => {
+  it("has something to escape (the note's text reaches the messages)", () => {
     const all = data.problems.map((p) => p.message).join('\n');
     expect(all).toMatch(/[<>`]/);
   });
@@ -173,7 +180,9 @@ describe('escaping', () => {
   it('writes no tag, comment or entity of the note into the HTML', () => {
     const html = resultsTableHtml(data, { notice: '<b>notice</b>' });
     const tags = [...html.matchAll(/<\/?([a-zA-Z]+)/g)].map((m) => m[1]);
-    expect(new Set(tags)).toEqual(new Set(['div', 'p', 'table', 'thead', 'tbody', 'tr', 'th', 'td', 'span', 'ul', 'li']));
+    expect(new Set(tags)).toEqual(
+      new Set(['div', 'p', 'table', 'thead', 'tbody', 'tr', 'th', 'td', 'span', 'ul', 'li']),
+    );
     expect(html).not.toMatch(/<img|<script|<!--|<b>/);
     expect(html).toContain('&amp;amp;'); // the note's own "&amp;" shows as written
     expect(html).not.toMatch(/&(?!(amp|lt|gt|quot|#39);)/);
@@ -190,12 +199,17 @@ describe('escaping', () => {
       }
     };
     walk(tokens as unknown as { type: string; children: unknown }[]);
-    for (const k of ['html_block', 'html_inline', 'code_inline', 'link_open', 'image', 'fence', 'code_block']) expect(kinds.has(k), k).toBe(false);
+    for (const k of ['html_block', 'html_inline', 'code_inline', 'link_open', 'image', 'fence', 'code_block'])
+      expect(kinds.has(k), k).toBe(false);
     expect(kinds.has('table_open')).toBe(true);
     // Emphasis only where the builder puts it (the severity words and the basis line).
     const rendered = new MarkdownIt().render(md);
     expect(rendered.match(/<em>/g)?.length ?? 0).toBe(1);
-    expect([...rendered.matchAll(/<strong>([^<]*)<\/strong>/g)].map((m) => m[1]).every((t) => t === 'error' || t === 'warning')).toBe(true);
+    expect(
+      [...rendered.matchAll(/<strong>([^<]*)<\/strong>/g)]
+        .map((m) => m[1])
+        .every((t) => t === 'error' || t === 'warning'),
+    ).toBe(true);
   });
 
   it('escapes every character that starts Markdown or HTML markup', () => {

@@ -42,11 +42,26 @@ const fixable = fc.oneof(
   // missing-unit on a temperature
   fc.tuple(temp, fc.integer({ min: 10, max: 90 })).map(([t, r]) => `state A${t + 20}: db=${t} rh=${r}%`),
   // wb-above-db
-  fc.tuple(temp, fc.integer({ min: 1, max: 9 })).map(([t, d]) => `state W${t + 20}: db=${t}C wb=${t + d}C  # as logged`),
+  fc
+    .tuple(temp, fc.integer({ min: 1, max: 9 }))
+    .map(([t, d]) => `state W${t + 20}: db=${t}C wb=${t + d}C  # as logged`),
   // claim-mismatch (a stale third figure), with and without a tolerance, in several units
-  fc.tuple(temp, fc.integer({ min: 20, max: 80 }), fc.constantFrom('w=7.3g/kg', 'h=40kJ/kg', 'dp=5.0C', 'wb=60F', 'v=0.85m3/kg', 'w=50gr/lb', 'h=20Btu/lb±0.5', 'rh=42%±1')).map(
-    ([t, r, claim]) => `state S${t + 20}: db=${t}C rh=${r}% ${claim}`,
-  ),
+  fc
+    .tuple(
+      temp,
+      fc.integer({ min: 20, max: 80 }),
+      fc.constantFrom(
+        'w=7.3g/kg',
+        'h=40kJ/kg',
+        'dp=5.0C',
+        'wb=60F',
+        'v=0.85m3/kg',
+        'w=50gr/lb',
+        'h=20Btu/lb±0.5',
+        'rh=42%±1',
+      ),
+    )
+    .map(([t, r, claim]) => `state S${t + 20}: db=${t}C rh=${r}% ${claim}`),
   // unknown-unit with a suggestion
   fc.tuple(temp, fc.constantFrom('g/Kg', 'kpa', 'KJ/kg', 'Btu/LB', '°c', 'l/s')).map(([t, u]) => {
     if (u === 'kpa') return `state U${t + 20}: db=${t}C rh=50% p=84${u}`;
@@ -66,7 +81,10 @@ const fixable = fc.oneof(
     'state X: db=297.15K w=0.0093 elev=1600m',
   ),
 );
-const line = fc.oneof({ weight: 5, arbitrary: fixable }, { weight: 1, arbitrary: fc.constantFrom('state A: db=24C rh=50%', 'units: IP', 'units: SI', '# a comment', '') });
+const line = fc.oneof(
+  { weight: 5, arbitrary: fixable },
+  { weight: 1, arbitrary: fc.constantFrom('state A: db=24C rh=50%', 'units: IP', 'units: SI', '# a comment', '') },
+);
 const fixableNote = fc
   .tuple(
     fc.array(fc.array(line, { minLength: 1, maxLength: 6 }), { minLength: 1, maxLength: 3 }),
@@ -77,7 +95,7 @@ const fixableNote = fc
   .map(([blocks, eol, head, inline]) => {
     const parts = blocks.map((b) => ['```air', ...b, '```'].join('\n'));
     if (inline) parts.push('The room is held at `state RI: db=24 rh=50%` in summer.');
-    return (head + parts.join('\n\nProse between the blocks.\n\n') + '\n').split('\n').join(eol);
+    return `${head + parts.join('\n\nProse between the blocks.\n\n')}\n`.split('\n').join(eol);
   });
 const notes = fc.oneof({ weight: 4, arbitrary: fixableNote }, { weight: 1, arbitrary: anyNote });
 /** Any settings, without a size limit (an edit that grows a note past a tiny limit would empty its analysis). */
@@ -110,18 +128,24 @@ function hull(edits: readonly Edit[]): { start: number; end: number } {
 function onlyInside(before: string, after: string, edits: readonly Edit[], what: string): void {
   const h = hull(edits);
   expect(after.slice(0, h.start), `${what}: text before the edits`).toBe(before.slice(0, h.start));
-  expect(after.slice(after.length - (before.length - h.end)), `${what}: text after the edits`).toBe(before.slice(h.end));
+  expect(after.slice(after.length - (before.length - h.end)), `${what}: text after the edits`).toBe(
+    before.slice(h.end),
+  );
 }
 
 function applyAndCheck(n: Note, s: ServiceSettings, action: FixAction, counts: Record<string, number>): void {
   const text = n.text;
   const what = `'${action.title}' on ${JSON.stringify(text.slice(Math.max(0, action.edits[0]!.span.start - 30), action.edits[0]!.span.end + 30))}`;
   const before = n.analysis.parsed.statements;
-  const target = before.filter((st) => action.edits.some((e) => e.span.start >= st.span.start && e.span.end <= st.span.end));
+  const target = before.filter((st) =>
+    action.edits.some((e) => e.span.start >= st.span.start && e.span.end <= st.span.end),
+  );
   expect(target.length, `${what}: every edit lies inside one statement`).toBe(1);
   const stmt = target[0]!;
   for (const e of action.edits) {
-    expect(e.span.start >= stmt.span.start && e.span.end <= stmt.span.end, `${what}: edit inside its statement`).toBe(true);
+    expect(e.span.start >= stmt.span.start && e.span.end <= stmt.span.end, `${what}: edit inside its statement`).toBe(
+      true,
+    );
     expect(/[\r\n]/.test(e.newText), `${what}: no line break inserted`).toBe(false);
   }
   const after = applyEdits(text, action.edits);
@@ -132,17 +156,31 @@ function applyAndCheck(n: Note, s: ServiceSettings, action: FixAction, counts: R
   const oldTexts = statementTexts(n);
   const newTexts = statementTexts(m);
   expect(newTexts.length, `${what}: number of statements`).toBe(oldTexts.length);
-  expect([...newTexts.slice(0, i), ...newTexts.slice(i + 1)], `${what}: the other statements`).toEqual([...oldTexts.slice(0, i), ...oldTexts.slice(i + 1)]);
-  expect(shape(after, m.analysis.parsed.statements[i]!), `${what}: keyword, name, keys and comment`).toBe(shape(text, stmt));
+  expect([...newTexts.slice(0, i), ...newTexts.slice(i + 1)], `${what}: the other statements`).toEqual([
+    ...oldTexts.slice(0, i),
+    ...oldTexts.slice(i + 1),
+  ]);
+  expect(shape(after, m.analysis.parsed.statements[i]!), `${what}: keyword, name, keys and comment`).toBe(
+    shape(text, stmt),
+  );
   // No new syntax-level problem in the edited statement.
   const syntax = new Set(['syntax', 'bad-number', 'missing-colon', 'unknown-key', 'missing-unit', 'duplicate-key']);
   const span = m.analysis.parsed.statements[i]!.span;
   const inStmt = (x: Note, sp: { start: number; end: number }) =>
-    x.analysis.diagnostics.filter((d) => syntax.has(d.code) && d.span.start >= sp.start && d.span.end <= sp.end && !(action.diagnostic && d.code === action.diagnostic.code)).length;
+    x.analysis.diagnostics.filter(
+      (d) =>
+        syntax.has(d.code) &&
+        d.span.start >= sp.start &&
+        d.span.end <= sp.end &&
+        !(action.diagnostic && d.code === action.diagnostic.code),
+    ).length;
   expect(inStmt(m, span), `${what}: no new syntax problem`).toBeLessThanOrEqual(inStmt(n, stmt.span));
 
   // Asked again, the same fix is not offered, or changes nothing.
-  const again = codeActions(m, span).filter((a) => a.title === action.title || (action.kind === 'refactor' && a.kind === 'refactor' && a.title === action.title));
+  const again = codeActions(m, span).filter(
+    (a) =>
+      a.title === action.title || (action.kind === 'refactor' && a.kind === 'refactor' && a.title === action.title),
+  );
   for (const a of again) {
     const twice = applyEdits(after, a.edits);
     expect(twice, `${what}: applied a second time`).toBe(after);
@@ -158,12 +196,15 @@ function applyAndCheck(n: Note, s: ServiceSettings, action: FixAction, counts: R
         shift += e.newText.length - (e.span.end - e.span.start);
         return r;
       });
-    const still = m.analysis.diagnostics.filter((d) => d.code === action.diagnostic!.code && rewritten.some((r) => d.span.start <= r.end && r.start <= d.span.end));
+    const still = m.analysis.diagnostics.filter(
+      (d) =>
+        d.code === action.diagnostic!.code && rewritten.some((r) => d.span.start <= r.end && r.start <= d.span.end),
+    );
     if (action.diagnostic.code !== 'unknown-unit' && action.diagnostic.code !== 'missing-unit') {
       expect(still.length, `${what}: the ${action.diagnostic.code} it fixes is gone`).toBe(0);
     }
   }
-  if (action.kind === 'refactor') checkConversion(n, m, stmt, i, what);
+  if (action.kind === 'refactor') checkConversion(m, stmt, i, what);
   counts[action.diagnostic?.code ?? action.kind] = (counts[action.diagnostic?.code ?? action.kind] ?? 0) + 1;
 }
 
@@ -175,11 +216,12 @@ function applyAndCheck(n: Note, s: ServiceSettings, action: FixAction, counts: R
  */
 const FLOW_LIKE = new Set(['massFlow', 'volumeFlow', 'power']);
 
-function checkConversion(n: Note, m: Note, stmt: Statement, i: number, what: string): void {
+function checkConversion(m: Note, stmt: Statement, i: number, what: string): void {
   const next = m.analysis.parsed.statements[i]!;
   const quantities = (st: Statement): { key: string; q: QuantityNode }[] => {
     const out: { key: string; q: QuantityNode }[] = [];
-    if (st.keyword === 'mix') for (const x of st.streams) if (x.amount) out.push({ key: `stream ${x.name.text}`, q: x.amount });
+    if (st.keyword === 'mix')
+      for (const x of st.streams) if (x.amount) out.push({ key: `stream ${x.name.text}`, q: x.amount });
     if (st.keyword !== 'units') for (const p of st.props) if (p.value) out.push({ key: p.key, q: p.value });
     return out;
   };
@@ -188,7 +230,12 @@ function checkConversion(n: Note, m: Note, stmt: Statement, i: number, what: str
   expect(after.length, `${what}: same quantities`).toBe(before.length);
   for (const [k, { key, q }] of before.entries()) {
     const r = after[k]!.q;
-    const unitOf = (x: QuantityNode) => (x.unit ? lookupUnit(x.unit.text) : key === 'w' || key === 'shr' ? lookupUnit(key === 'w' ? 'kg/kg' : '%') : undefined);
+    const unitOf = (x: QuantityNode) =>
+      x.unit
+        ? lookupUnit(x.unit.text)
+        : key === 'w' || key === 'shr'
+          ? lookupUnit(key === 'w' ? 'kg/kg' : '%')
+          : undefined;
     const u0 = unitOf(q);
     const u1 = unitOf(r);
     if (!u0 || !u1 || u0.dimension !== u1.dimension) continue;
@@ -198,126 +245,158 @@ function checkConversion(n: Note, m: Note, stmt: Statement, i: number, what: str
     const v1 = key === 'shr' && !r.unit ? r.number.value : toSI(r.number.value, u1);
     // Flows and powers are written to four significant figures (10170cfm stands for 1017×10).
     const shown = Math.abs(r.number.value);
-    const resolution = FLOW_LIKE.has(u1.dimension) && shown > 0 ? Math.max(r.number.resolution, 10 ** (Math.floor(Math.log10(shown)) - 3)) : r.number.resolution;
+    const resolution =
+      FLOW_LIKE.has(u1.dimension) && shown > 0
+        ? Math.max(r.number.resolution, 10 ** (Math.floor(Math.log10(shown)) - 3))
+        : r.number.resolution;
     const band = 0.5 * resolution * scale1 * (1 + 1e-9) + 1e-12 * Math.abs(v0);
-    expect(Math.abs(v1 - v0), `${what}: ${key} ${q.number.text}${q.unit?.text ?? ''} → ${r.number.text}${r.unit?.text ?? ''}`).toBeLessThanOrEqual(band);
+    expect(
+      Math.abs(v1 - v0),
+      `${what}: ${key} ${q.number.text}${q.unit?.text ?? ''} → ${r.number.text}${r.unit?.text ?? ''}`,
+    ).toBeLessThanOrEqual(band);
   }
 }
 
 describe('edits lose nothing', () => {
-  it(`quick fixes and the unit-system rewrite change only their statement, and a second application changes nothing (${RUNS} notes, seed ${cfg.seed})`, () => {
-    const counts: Record<string, number> = {};
-    fc.assert(
-      fc.property(notes, anySettings, (text, s) => {
-        const n = analyzeText(text, s);
-        let tried = 0;
-        // Every quick fix of every diagnostic, and the rewrites of every statement.
-        const seen = new Set<string>();
-        const spans = [...n.analysis.diagnostics.map((d) => d.span), ...n.analysis.parsed.statements.map((st) => st.span)];
-        for (const span of spans) {
-          for (const action of codeActions(n, span)) {
-            if (action.kind === 'source' || seen.has(action.title) || tried >= 12) continue;
-            if (action.diagnostic?.code === 'stale-results-table') continue; // the table fix is checked below
-            seen.add(action.title);
-            tried++;
-            applyAndCheck(n, s, action, counts);
+  it(
+    `quick fixes and the unit-system rewrite change only their statement, and a second application changes nothing (${RUNS} notes, seed ${cfg.seed})`,
+    () => {
+      const counts: Record<string, number> = {};
+      fc.assert(
+        fc.property(notes, anySettings, (text, s) => {
+          const n = analyzeText(text, s);
+          let tried = 0;
+          // Every quick fix of every diagnostic, and the rewrites of every statement.
+          const seen = new Set<string>();
+          const spans = [
+            ...n.analysis.diagnostics.map((d) => d.span),
+            ...n.analysis.parsed.statements.map((st) => st.span),
+          ];
+          for (const span of spans) {
+            for (const action of codeActions(n, span)) {
+              if (action.kind === 'source' || seen.has(action.title) || tried >= 12) continue;
+              if (action.diagnostic?.code === 'stale-results-table') continue; // the table fix is checked below
+              seen.add(action.title);
+              tried++;
+              applyAndCheck(n, s, action, counts);
+            }
           }
-        }
-      }),
-      { seed: cfg.seed + 2, numRuns: RUNS },
-    );
-    console.log(`[edits] actions applied and checked: ${JSON.stringify(counts)}`);
-    for (const code of ['missing-unit', 'wb-above-db', 'claim-mismatch', 'unknown-unit', 'refactor']) expect(counts[code] ?? 0, code).toBeGreaterThan(10);
-  }, timeoutFor(RUNS, 40));
+        }),
+        { seed: cfg.seed + 2, numRuns: RUNS },
+      );
+      console.log(`[edits] actions applied and checked: ${JSON.stringify(counts)}`);
+      for (const code of ['missing-unit', 'wb-above-db', 'claim-mismatch', 'unknown-unit', 'refactor'])
+        expect(counts[code] ?? 0, code).toBeGreaterThan(10);
+    },
+    timeoutFor(RUNS, 40),
+  );
 
-  it(`rename there and back gives the note back byte for byte, and a second rename is refused (${RUNS} notes)`, () => {
-    let renamed = 0;
-    fc.assert(
-      fc.property(notes, anySettings, fc.nat(), (text, s, pick) => {
-        const n = analyzeText(text, s);
-        // Names of well-formed heads (`state NAME:`): in a head without its colon (`state A =`) a
-        // name and a key look alike, so a renamed name may be read as a key there.
-        const names = n.analysis.parsed.statements.flatMap((st) =>
-          'name' in st && st.name && /^[A-Za-z][A-Za-z0-9_-]*$/.test(st.name.text) && !KEYWORDS.includes(st.name.text) && /^\s*:/.test(text.slice(st.name.span.end)) ? [st.name] : [],
-        );
-        if (names.length === 0) return;
-        const target = names[pick % names.length]!;
-        const fresh = `Z${pick % 1000}_renamed`;
-        const r = rename(n, target.span.start, fresh);
-        if (!('edits' in r)) return; // refused (e.g. a duplicate definition elsewhere): nothing to check
-        renamed++;
-        for (const e of r.edits) expect(text.slice(e.span.start, e.span.end)).toBe(target.text);
-        const after = applyEdits(text, r.edits);
-        onlyInside(text, after, r.edits, `rename ${target.text}`);
-        // Outside the renamed spans, not a character differs.
-        const stripped = (t: string, name: string) => t.split(name).join('\u0000');
-        expect(stripped(after, fresh).length).toBe(after.length - r.edits.length * (fresh.length - 1));
-        const m = analyzeText(after, s);
-        const at = r.edits[0]!.span.start;
-        const again = rename(m, at, fresh);
-        expect('error' in again, 'renaming to the same name again is refused').toBe(true);
-        const back = rename(m, at, target.text);
-        expect('edits' in back, `renaming back to ${target.text}`).toBe(true);
-        if ('edits' in back) expect(applyEdits(after, back.edits)).toBe(text);
-      }),
-      { seed: cfg.seed + 3, numRuns: RUNS },
-    );
-    expect(renamed).toBeGreaterThan(RUNS / 4);
-  }, timeoutFor(RUNS, 20));
+  it(
+    `rename there and back gives the note back byte for byte, and a second rename is refused (${RUNS} notes)`,
+    () => {
+      let renamed = 0;
+      fc.assert(
+        fc.property(notes, anySettings, fc.nat(), (text, s, pick) => {
+          const n = analyzeText(text, s);
+          // Names of well-formed heads (`state NAME:`): in a head without its colon (`state A =`) a
+          // name and a key look alike, so a renamed name may be read as a key there.
+          const names = n.analysis.parsed.statements.flatMap((st) =>
+            'name' in st &&
+            st.name &&
+            /^[A-Za-z][A-Za-z0-9_-]*$/.test(st.name.text) &&
+            !KEYWORDS.includes(st.name.text) &&
+            /^\s*:/.test(text.slice(st.name.span.end))
+              ? [st.name]
+              : [],
+          );
+          if (names.length === 0) return;
+          const target = names[pick % names.length]!;
+          const fresh = `Z${pick % 1000}_renamed`;
+          const r = rename(n, target.span.start, fresh);
+          if (!('edits' in r)) return; // refused (e.g. a duplicate definition elsewhere): nothing to check
+          renamed++;
+          for (const e of r.edits) expect(text.slice(e.span.start, e.span.end)).toBe(target.text);
+          const after = applyEdits(text, r.edits);
+          onlyInside(text, after, r.edits, `rename ${target.text}`);
+          // Outside the renamed spans, not a character differs.
+          const stripped = (t: string, name: string) => t.split(name).join('\u0000');
+          expect(stripped(after, fresh).length).toBe(after.length - r.edits.length * (fresh.length - 1));
+          const m = analyzeText(after, s);
+          const at = r.edits[0]!.span.start;
+          const again = rename(m, at, fresh);
+          expect('error' in again, 'renaming to the same name again is refused').toBe(true);
+          const back = rename(m, at, target.text);
+          expect('edits' in back, `renaming back to ${target.text}`).toBe(true);
+          if ('edits' in back) expect(applyEdits(after, back.edits)).toBe(text);
+        }),
+        { seed: cfg.seed + 3, numRuns: RUNS },
+      );
+      expect(renamed).toBeGreaterThan(RUNS / 4);
+    },
+    timeoutFor(RUNS, 20),
+  );
 
-  it('the units switch (Switch Result Units) rewrites only the SI/IP word, and twice gives the note back', () => {
-    let switched = 0;
-    fc.assert(
-      fc.property(notes, anySettings, (text, s) => {
-        const n = analyzeText(text, s);
-        const st = noteStatus(n);
-        // As the client does: the note's own units: line is rewritten; otherwise the setting changes.
-        if (st.unitsSource !== 'note' || !st.unitsSpan) return;
-        switched++;
-        const other = st.units === 'SI' ? 'IP' : 'SI';
-        const edit: Edit = { span: st.unitsSpan, newText: other };
-        expect(text.slice(st.unitsSpan.start, st.unitsSpan.end)).toMatch(/^(SI|IP)$/);
-        const after = applyEdits(text, [edit]);
-        onlyInside(text, after, [edit], 'units switch');
-        const m = analyzeText(after, s);
-        const st2 = noteStatus(m);
-        expect(st2.units).toBe(other);
-        expect(st2.unitsSpan).toEqual(st.unitsSpan);
-        expect(applyEdits(after, [{ span: st2.unitsSpan!, newText: st.units }])).toBe(text);
-      }),
-      { seed: cfg.seed + 4, numRuns: RUNS },
-    );
-    expect(switched).toBeGreaterThan(10);
-  }, timeoutFor(RUNS, 10));
+  it(
+    'the units switch (Switch Result Units) rewrites only the SI/IP word, and twice gives the note back',
+    () => {
+      let switched = 0;
+      fc.assert(
+        fc.property(notes, anySettings, (text, s) => {
+          const n = analyzeText(text, s);
+          const st = noteStatus(n);
+          // As the client does: the note's own units: line is rewritten; otherwise the setting changes.
+          if (st.unitsSource !== 'note' || !st.unitsSpan) return;
+          switched++;
+          const other = st.units === 'SI' ? 'IP' : 'SI';
+          const edit: Edit = { span: st.unitsSpan, newText: other };
+          expect(text.slice(st.unitsSpan.start, st.unitsSpan.end)).toMatch(/^(SI|IP)$/);
+          const after = applyEdits(text, [edit]);
+          onlyInside(text, after, [edit], 'units switch');
+          const m = analyzeText(after, s);
+          const st2 = noteStatus(m);
+          expect(st2.units).toBe(other);
+          expect(st2.unitsSpan).toEqual(st.unitsSpan);
+          expect(applyEdits(after, [{ span: st2.unitsSpan!, newText: st.units }])).toBe(text);
+        }),
+        { seed: cfg.seed + 4, numRuns: RUNS },
+      );
+      expect(switched).toBeGreaterThan(10);
+    },
+    timeoutFor(RUNS, 10),
+  );
 
-  it('results tables: written once they are current, so writing them again changes nothing; only table slots change', () => {
-    let written = 0;
-    fc.assert(
-      fc.property(notes, anySettings, (text, s) => {
-        const n = analyzeText(text, s);
-        const plan = resultsTableEdits(n, { kind: 'all' });
-        if (plan.edits.length === 0) return;
-        written++;
-        const after = applyEdits(text, plan.edits);
-        // The statements are exactly the ones before (tables are prose to the parser).
-        const m = analyzeText(after, s);
-        expect(statementTexts(m)).toEqual(statementTexts(n));
-        // Every original character is still there, in order, outside the inserted or replaced spans.
-        const sorted = [...plan.edits].sort((a, b) => a.span.start - b.span.start);
-        let pos = 0;
-        let outPos = 0;
-        for (const e of sorted) {
-          const keep = text.slice(pos, e.span.start);
-          expect(after.slice(outPos, outPos + keep.length)).toBe(keep);
-          outPos += keep.length + e.newText.length;
-          pos = e.span.end;
-        }
-        expect(after.slice(outPos)).toBe(text.slice(pos));
-        const second = resultsTableEdits(m, { kind: 'all' });
-        expect(second.edits, 'the second time changes nothing').toEqual([]);
-      }),
-      { seed: cfg.seed + 5, numRuns: RUNS },
-    );
-    expect(written).toBeGreaterThan(RUNS / 4);
-  }, timeoutFor(RUNS, 20));
+  it(
+    'results tables: written once they are current, so writing them again changes nothing; only table slots change',
+    () => {
+      let written = 0;
+      fc.assert(
+        fc.property(notes, anySettings, (text, s) => {
+          const n = analyzeText(text, s);
+          const plan = resultsTableEdits(n, { kind: 'all' });
+          if (plan.edits.length === 0) return;
+          written++;
+          const after = applyEdits(text, plan.edits);
+          // The statements are exactly the ones before (tables are prose to the parser).
+          const m = analyzeText(after, s);
+          expect(statementTexts(m)).toEqual(statementTexts(n));
+          // Every original character is still there, in order, outside the inserted or replaced spans.
+          const sorted = [...plan.edits].sort((a, b) => a.span.start - b.span.start);
+          let pos = 0;
+          let outPos = 0;
+          for (const e of sorted) {
+            const keep = text.slice(pos, e.span.start);
+            expect(after.slice(outPos, outPos + keep.length)).toBe(keep);
+            outPos += keep.length + e.newText.length;
+            pos = e.span.end;
+          }
+          expect(after.slice(outPos)).toBe(text.slice(pos));
+          const second = resultsTableEdits(m, { kind: 'all' });
+          expect(second.edits, 'the second time changes nothing').toEqual([]);
+        }),
+        { seed: cfg.seed + 5, numRuns: RUNS },
+      );
+      expect(written).toBeGreaterThan(RUNS / 4);
+    },
+    timeoutFor(RUNS, 20),
+  );
 });

@@ -68,43 +68,54 @@ function log(line: string): void {
 }
 
 describe('fuzzing: random notes', () => {
-  it(`${cfg.notes} notes through parse, evaluate and every feature (seed ${cfg.seed})`, () => {
-    log(`seed ${cfg.seed}, ${cfg.notes} notes (DEWMARK_FUZZ_SEED / DEWMARK_FUZZ_RUNS to change)`);
-    const counts = zeroCounts();
-    const times: number[] = [];
-    const slowest = new Slowest<[string, ServiceSettings, number[]]>(3);
-    let chars = 0;
-    let longest = 0;
-    const t0 = now();
-    fc.assert(
-      fc.property(note, settings, offsets, (text, s, raw) => {
-        const at = spread(raw, text);
-        const t = now();
-        checkNote(text, s, at, counts);
-        const ms = now() - t;
-        times.push(ms);
-        slowest.add(ms, [text, s, at]);
-        chars += text.length;
-        longest = Math.max(longest, text.length);
-      }),
-      { seed: cfg.seed, numRuns: cfg.notes },
-    );
-    const total = now() - t0;
-    const t = timeSummary(times);
-    log(
-      `${times.length} notes in ${(total / 1000).toFixed(1)} s (${((times.length / total) * 1000).toFixed(0)} notes/s), ` +
-        `${(chars / 1e6).toFixed(1)} M characters, longest ${longest}; per note median ${t.median.toFixed(2)} ms, p99 ${t.p99.toFixed(1)} ms, max ${t.max.toFixed(1)} ms`,
-    );
-    log(`looked at ${counts.diagnostics} diagnostics, ${counts.hovers} hovers, ${counts.hints} hints, ${counts.completions} completion items, ${counts.actions} code actions, ${counts.renames} renames`);
-    expect(times.length).toBe(cfg.notes);
-    // The generator reaches every feature (otherwise the checks above check little).
-    for (const [k, v] of Object.entries(counts)) expect(v, `${k} exercised`).toBeGreaterThan(0);
-    for (const { ms, input } of slowest.entries) {
-      const best = bestOfThree(() => checkNote(...input));
-      log(`slow note: ${input[0].length} characters, ${ms.toFixed(1)} ms in the loop, best of three re-runs ${best.toFixed(1)} ms`);
-      expect(best, `a note of ${input[0].length} characters took ${best.toFixed(0)} ms at best: ${JSON.stringify(input[0].slice(0, 200))}`).toBeLessThan(HANG_MS);
-    }
-  }, timeoutFor(cfg.notes, 5));
+  it(
+    `${cfg.notes} notes through parse, evaluate and every feature (seed ${cfg.seed})`,
+    () => {
+      log(`seed ${cfg.seed}, ${cfg.notes} notes (DEWMARK_FUZZ_SEED / DEWMARK_FUZZ_RUNS to change)`);
+      const counts = zeroCounts();
+      const times: number[] = [];
+      const slowest = new Slowest<[string, ServiceSettings, number[]]>(3);
+      let chars = 0;
+      let longest = 0;
+      const t0 = now();
+      fc.assert(
+        fc.property(note, settings, offsets, (text, s, raw) => {
+          const at = spread(raw, text);
+          const t = now();
+          checkNote(text, s, at, counts);
+          const ms = now() - t;
+          times.push(ms);
+          slowest.add(ms, [text, s, at]);
+          chars += text.length;
+          longest = Math.max(longest, text.length);
+        }),
+        { seed: cfg.seed, numRuns: cfg.notes },
+      );
+      const total = now() - t0;
+      const t = timeSummary(times);
+      log(
+        `${times.length} notes in ${(total / 1000).toFixed(1)} s (${((times.length / total) * 1000).toFixed(0)} notes/s), ` +
+          `${(chars / 1e6).toFixed(1)} M characters, longest ${longest}; per note median ${t.median.toFixed(2)} ms, p99 ${t.p99.toFixed(1)} ms, max ${t.max.toFixed(1)} ms`,
+      );
+      log(
+        `looked at ${counts.diagnostics} diagnostics, ${counts.hovers} hovers, ${counts.hints} hints, ${counts.completions} completion items, ${counts.actions} code actions, ${counts.renames} renames`,
+      );
+      expect(times.length).toBe(cfg.notes);
+      // The generator reaches every feature (otherwise the checks above check little).
+      for (const [k, v] of Object.entries(counts)) expect(v, `${k} exercised`).toBeGreaterThan(0);
+      for (const { ms, input } of slowest.entries) {
+        const best = bestOfThree(() => checkNote(...input));
+        log(
+          `slow note: ${input[0].length} characters, ${ms.toFixed(1)} ms in the loop, best of three re-runs ${best.toFixed(1)} ms`,
+        );
+        expect(
+          best,
+          `a note of ${input[0].length} characters took ${best.toFixed(0)} ms at best: ${JSON.stringify(input[0].slice(0, 200))}`,
+        ).toBeLessThan(HANG_MS);
+      }
+    },
+    timeoutFor(cfg.notes, 5),
+  );
 });
 
 /** One random edit: where, how much it removes, and what it inserts. */
@@ -114,7 +125,15 @@ type EditStep =
   | { kind: 'rename'; at: number };
 
 const step: fc.Arbitrary<EditStep> = fc.oneof(
-  { weight: 8, arbitrary: fc.record({ kind: fc.constant('type' as const), at: fc.nat(), remove: fc.oneof(fc.constant(0), fc.nat({ max: 4 }), fc.nat({ max: 400 })), text: fragment }) },
+  {
+    weight: 8,
+    arbitrary: fc.record({
+      kind: fc.constant('type' as const),
+      at: fc.nat(),
+      remove: fc.oneof(fc.constant(0), fc.nat({ max: 4 }), fc.nat({ max: 400 })),
+      text: fragment,
+    }),
+  },
   { weight: 2, arbitrary: fc.record({ kind: fc.constant('fix' as const), at: fc.nat(), pick: fc.nat() }) },
   { weight: 1, arbitrary: fc.record({ kind: fc.constant('rename' as const), at: fc.nat() }) },
 );
@@ -144,29 +163,35 @@ function essence(n: Note): unknown {
 }
 
 describe('fuzzing: random edit sequences', () => {
-  it(`${cfg.editSequences} edit sequences through the in-memory service, as the server runs it (seed ${cfg.seed})`, () => {
-    log(`seed ${cfg.seed}, ${cfg.editSequences} edit sequences`);
-    let analyses = 0;
-    const t0 = now();
-    fc.assert(
-      fc.property(note, settings, fc.array(step, { minLength: 1, maxLength: 20 }), (start, s, steps) => {
-        // The server analyses each open document with its own incremental analyzer: after every
-        // edit its result must be the fresh analysis of the same text.
-        const analyzer = createAnalyzer();
-        analyzeTextWith(analyzer, start, s);
-        let text = start;
-        for (const e of steps) {
-          text = applyStep(text, s, e);
-          const at = text.length === 0 ? 0 : e.at % (text.length + 1);
-          const fresh = checkNote(text, s, [at, Math.max(0, at - 1), at + 1]);
-          expect(essence(analyzeTextWith(analyzer, text, s))).toEqual(essence(fresh));
-          analyses++;
-        }
-      }),
-      { seed: cfg.seed + 1, numRuns: cfg.editSequences },
-    );
-    const total = now() - t0;
-    log(`${cfg.editSequences} sequences, ${analyses} edits checked in ${(total / 1000).toFixed(1)} s (${((analyses / total) * 1000).toFixed(0)} edits/s)`);
-    expect(analyses).toBeGreaterThanOrEqual(cfg.editSequences);
-  }, timeoutFor(cfg.editSequences, 60));
+  it(
+    `${cfg.editSequences} edit sequences through the in-memory service, as the server runs it (seed ${cfg.seed})`,
+    () => {
+      log(`seed ${cfg.seed}, ${cfg.editSequences} edit sequences`);
+      let analyses = 0;
+      const t0 = now();
+      fc.assert(
+        fc.property(note, settings, fc.array(step, { minLength: 1, maxLength: 20 }), (start, s, steps) => {
+          // The server analyses each open document with its own incremental analyzer: after every
+          // edit its result must be the fresh analysis of the same text.
+          const analyzer = createAnalyzer();
+          analyzeTextWith(analyzer, start, s);
+          let text = start;
+          for (const e of steps) {
+            text = applyStep(text, s, e);
+            const at = text.length === 0 ? 0 : e.at % (text.length + 1);
+            const fresh = checkNote(text, s, [at, Math.max(0, at - 1), at + 1]);
+            expect(essence(analyzeTextWith(analyzer, text, s))).toEqual(essence(fresh));
+            analyses++;
+          }
+        }),
+        { seed: cfg.seed + 1, numRuns: cfg.editSequences },
+      );
+      const total = now() - t0;
+      log(
+        `${cfg.editSequences} sequences, ${analyses} edits checked in ${(total / 1000).toFixed(1)} s (${((analyses / total) * 1000).toFixed(0)} edits/s)`,
+      );
+      expect(analyses).toBeGreaterThanOrEqual(cfg.editSequences);
+    },
+    timeoutFor(cfg.editSequences, 60),
+  );
 });

@@ -76,7 +76,10 @@ describe('notes over the size limit', () => {
   });
 
   it('the setting is read from dewmark.maxNoteSizeKB; a bad value is named and the default used', () => {
-    expect(readSettings({ maxNoteSizeKB: 512 })).toEqual({ settings: { ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 512 }, problems: [] });
+    expect(readSettings({ maxNoteSizeKB: 512 })).toEqual({
+      settings: { ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 512 },
+      problems: [],
+    });
     expect(readSettings({ maxNoteSizeKB: 0 }).settings.maxNoteKB).toBe(0);
     for (const bad of [-1, 1.5, '2048', true, Number.NaN]) {
       const r = readSettings({ maxNoteSizeKB: bad });

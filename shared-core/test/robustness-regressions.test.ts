@@ -79,7 +79,9 @@ describe('flows that overflow', () => {
   });
 
   it('a process from a mix whose flow overflows the heat rates, and a mix whose flows overflow their sum', () => {
-    const d = messages(fenced(...base, 'mix M: A 1e308kg/s + B 1e307kg/s', 'process R: M -> B', 'mix N: A 1e308kg/s + B 1e308kg/s'));
+    const d = messages(
+      fenced(...base, 'mix M: A 1e308kg/s + B 1e307kg/s', 'process R: M -> B', 'mix N: A 1e308kg/s + B 1e308kg/s'),
+    );
     expect(d.find((x) => x.message.startsWith('process R'))?.code).toBe('out-of-range');
     expect(d.find((x) => x.message.startsWith('mix N'))?.message).toMatch(/too large to add up/);
   });
@@ -123,7 +125,11 @@ describe('notes with lone-CR line ends (as the Markdown reader splits them)', ()
 
 describe('numbers with huge exponents', () => {
   it('0e400 has a finite value but no finite resolution: bad-number, and no Infinity in the tree', () => {
-    const text = fenced('state A: db=0e400C rh=50%', 'state B: db=20C rh=50% h=0.0e999kJ/kg', `process P: A -> B m=0.${'0'.repeat(300)}e30800001kg/s`);
+    const text = fenced(
+      'state A: db=0e400C rh=50%',
+      'state B: db=20C rh=50% h=0.0e999kJ/kg',
+      `process P: A -> B m=0.${'0'.repeat(300)}e30800001kg/s`,
+    );
     const a = analyzeNote(text);
     expect(allFinite(a)).toBe(true);
     const bad = a.diagnostics.filter((d) => d.code === 'bad-number').map((d) => text.slice(d.span.start, d.span.end));

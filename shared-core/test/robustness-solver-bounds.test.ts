@@ -14,7 +14,16 @@ afterEach(() => {
   vi.resetModules();
 });
 
-const NOTE = ['```air', 'state A: db=24C rh=50%', 'state B: wb=18C rh=40%', 'state C: rh=50% h=50kJ/kg', 'mix M: A 50% + B 50%', 'process P: A -> M m=1kg/s', '```', ''].join('\n');
+const NOTE = [
+  '```air',
+  'state A: db=24C rh=50%',
+  'state B: wb=18C rh=40%',
+  'state C: rh=50% h=50kJ/kg',
+  'mix M: A 50% + B 50%',
+  'process P: A -> M m=1kg/s',
+  '```',
+  '',
+].join('\n');
 
 async function freshEngine() {
   const physics = await import('../src/physics');
@@ -33,12 +42,28 @@ describe('a solver that hits its bound reports no-convergence', () => {
       return f(t);
     };
     // A sign change with a tolerance no bracket can reach: only the bound stops it.
-    const x = findRoot(counted((t) => (t < 0.3 ? -1 : 1)), 0, 1, -1, 1, 0, 25);
+    const x = findRoot(
+      counted((t) => (t < 0.3 ? -1 : 1)),
+      0,
+      1,
+      -1,
+      1,
+      0,
+      25,
+    );
     expect(calls).toBe(25);
     // Either the bracket collapsed onto the jump or the bound was hit: never an endless loop.
     expect(Number.isNaN(x) || Math.abs(x - 0.3) < 1e-12).toBe(true);
     calls = 0;
-    const y = findRoot(counted((t) => Math.sign(t - Math.PI)), 0, 10, -1, 1, -1, 7);
+    const y = findRoot(
+      counted((t) => Math.sign(t - Math.PI)),
+      0,
+      10,
+      -1,
+      1,
+      -1,
+      7,
+    );
     expect(calls).toBe(7);
     expect(y).toBeNaN();
   });

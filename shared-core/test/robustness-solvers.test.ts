@@ -29,8 +29,21 @@ import { allFinite } from '../src/evaluate';
 
 /** Every code the engine documents (physics/types.ts PhysicsCode). */
 const CODES: readonly PhysicsCode[] = [
-  'out-of-range', 'wb-above-db', 'dp-above-db', 'rh-out-of-range', 'supersaturated', 'negative-humidity-ratio', 'enthalpy-too-low',
-  'wb-too-low', 'pressure-below-saturation', 'dependent-pair', 'underspecified', 'overspecified', 'ill-conditioned', 'no-solution', 'no-convergence',
+  'out-of-range',
+  'wb-above-db',
+  'dp-above-db',
+  'rh-out-of-range',
+  'supersaturated',
+  'negative-humidity-ratio',
+  'enthalpy-too-low',
+  'wb-too-low',
+  'pressure-below-saturation',
+  'dependent-pair',
+  'underspecified',
+  'overspecified',
+  'ill-conditioned',
+  'no-solution',
+  'no-convergence',
 ];
 
 /** The edge pressures, Pa: 1 kPa, 30 kPa (the usual lower bound), sea level, 1 MPa. */
@@ -51,7 +64,13 @@ vi.mock('../src/physics/roots', async (importOriginal) => {
     ...real,
     findRoot: (f: (x: number) => number, ...rest: [number, number, number, number, number?, number?]) => {
       let n = 0;
-      const x = real.findRoot((t) => (n++, f(t)), ...rest);
+      const x = real.findRoot(
+        (t) => {
+          n++;
+          return f(t);
+        },
+        ...rest,
+      );
       if (roots.counting) roots.most = Math.max(roots.most, n);
       return x;
     },
@@ -108,7 +127,9 @@ function expectTyped(r: ReturnType<typeof solveState>, what: string, inputsFinit
   expect(r.problem.message.length, `${what}: message`).toBeGreaterThan(10);
   expect(r.problem.fix.length, `${what}: fix`).toBeGreaterThan(5);
   if (inputsFinite) {
-    expect(`${r.problem.message} ${r.problem.fix}`, `${what}: no non-finite figure in the message`).not.toMatch(/NaN|(?<!reported as −)Infinity|undefined/);
+    expect(`${r.problem.message} ${r.problem.fix}`, `${what}: no non-finite figure in the message`).not.toMatch(
+      /NaN|(?<!reported as −)Infinity|undefined/,
+    );
   }
 }
 
@@ -136,7 +157,8 @@ describe('every solve at the edges returns a state or a typed problem', () => {
 
   it('a state solved from any independent pair of its own properties is the same state again (self-consistency)', () => {
     const pairs: [DefiningKey, DefiningKey][] = [];
-    for (let i = 0; i < DEFINING_KEYS.length; i++) for (let j = i + 1; j < DEFINING_KEYS.length; j++) pairs.push([DEFINING_KEYS[i]!, DEFINING_KEYS[j]!]);
+    for (let i = 0; i < DEFINING_KEYS.length; i++)
+      for (let j = i + 1; j < DEFINING_KEYS.length; j++) pairs.push([DEFINING_KEYS[i]!, DEFINING_KEYS[j]!]);
     let trips = 0;
     for (const p of PRESSURES) {
       for (const db of TEMPS) {
@@ -170,7 +192,9 @@ describe('every solve at the edges returns a state or a typed problem', () => {
             // wb+h magnifies the round-off of h by 1/(dh/ddb along the wet-bulb): looser there.
             const tolT = a === 'wb' && b === 'h' ? 0.05 : 2e-5;
             expect(Math.abs(r.state.db - s.db), `${what}: db ${r.state.db} vs ${s.db}`).toBeLessThanOrEqual(tolT);
-            expect(Math.abs(r.state.w - s.w), `${what}: w ${r.state.w} vs ${s.w}`).toBeLessThanOrEqual(Math.max(1e-9, 1e-5 * s.w) + (tolT > 1e-3 ? 1e-4 * s.w : 0));
+            expect(Math.abs(r.state.w - s.w), `${what}: w ${r.state.w} vs ${s.w}`).toBeLessThanOrEqual(
+              Math.max(1e-9, 1e-5 * s.w) + (tolT > 1e-3 ? 1e-4 * s.w : 0),
+            );
           }
         }
       }
@@ -189,15 +213,22 @@ describe('every solve at the edges returns a state or a typed problem', () => {
         const r = solve({ db, rh }, p);
         expectTyped(r, `db=${db} rh=${rh} at 1 kPa`);
         if (r.ok) checkDefinitions(r.state, `db=${db} rh=${rh} at 1 kPa`);
-        else if (dt > 0 && rh > 0) expect(['pressure-below-saturation', 'out-of-range', 'rh-out-of-range']).toContain(r.problem.code);
+        else if (dt > 0 && rh > 0)
+          expect(['pressure-below-saturation', 'out-of-range', 'rh-out-of-range']).toContain(r.problem.code);
       }
       // Wet-bulb and dew point at or above the boiling point: the air cannot be saturated there.
       const wb = solve({ db: Math.min(200, db + 20), wb: db }, p);
       expectTyped(wb, `wb=${db} at 1 kPa`);
-      if (dt >= 0) expect(wb.ok ? 'solved' : wb.problem.code, `wb at or above boiling (dt=${dt})`).toBe('pressure-below-saturation');
+      if (dt >= 0)
+        expect(wb.ok ? 'solved' : wb.problem.code, `wb at or above boiling (dt=${dt})`).toBe(
+          'pressure-below-saturation',
+        );
       const dp = solve({ db: Math.min(200, db + 20), dp: db }, p);
       expectTyped(dp, `dp=${db} at 1 kPa`);
-      if (dt >= 0) expect(dp.ok ? 'solved' : dp.problem.code, `dp at or above boiling (dt=${dt})`).toBe('pressure-below-saturation');
+      if (dt >= 0)
+        expect(dp.ok ? 'solved' : dp.problem.code, `dp at or above boiling (dt=${dt})`).toBe(
+          'pressure-below-saturation',
+        );
     }
   });
 
@@ -238,7 +269,8 @@ describe('every solve at the edges returns a state or a typed problem', () => {
             const r = solve({ db, [key]: db + d }, p);
             expectTyped(r, `${key}=db${d >= 0 ? '+' : ''}${d}`);
             if (db + d < -100) expect(r.ok ? 'solved' : r.problem.code).toBe('out-of-range');
-            else if (d <= 1e-10) expect(r.ok, `${key} = db + ${d} at db=${db} p=${p}: ${r.ok ? '' : r.problem.message}`).toBe(true);
+            else if (d <= 1e-10)
+              expect(r.ok, `${key} = db + ${d} at db=${db} p=${p}: ${r.ok ? '' : r.problem.message}`).toBe(true);
             else expect(r.ok ? 'solved' : r.problem.code).toBe(key === 'wb' ? 'wb-above-db' : 'dp-above-db');
           }
         }
@@ -268,7 +300,15 @@ describe('every solve at the edges returns a state or a typed problem', () => {
   it('non-finite and absurd inputs are typed problems (NaN, ±Infinity, 1e308, −0, pressures of 0 and 1e-320 Pa)', () => {
     const values = [Number.NaN, Infinity, -Infinity, 1e308, -1e308, -0, 5e-324];
     for (const p of [0, -1, 1e-320, Number.NaN, Infinity, 1e308, 101_325]) {
-      for (const [a, b] of [['db', 'rh'], ['db', 'wb'], ['db', 'w'], ['rh', 'h'], ['w', 'h'], ['wb', 'rh'], ['dp', 'h']] as const) {
+      for (const [a, b] of [
+        ['db', 'rh'],
+        ['db', 'wb'],
+        ['db', 'w'],
+        ['rh', 'h'],
+        ['w', 'h'],
+        ['wb', 'rh'],
+        ['dp', 'h'],
+      ] as const) {
         for (const x of values) {
           // Not counted in the convergence figures: these are far outside any real air.
           const r1 = solve({ [a]: x, [b]: 0.5 }, p, false);
@@ -302,7 +342,8 @@ describe('every solve at the edges returns a state or a typed problem', () => {
       const dp = satTempRaw(s.pw);
       const { d1, d2 } = satTempDeriv;
       wbSolves++;
-      if (!convergesWithin(40, (bound) => wetBulbSolve(s.db, s.w, s.p, s.pw, dp, d1, d2, s.pws, bound))) slowWb.push(`db ${s.db} w ${s.w} p ${s.p}`);
+      if (!convergesWithin(40, (bound) => wetBulbSolve(s.db, s.w, s.p, s.pw, dp, d1, d2, s.pws, bound)))
+        slowWb.push(`db ${s.db} w ${s.w} p ${s.p}`);
     }
     console.log(`[solvers] ${solved.length} states; most bracketed-root iterations ${roots.most}`);
     expect(wbSolves).toBeGreaterThan(300);
@@ -350,7 +391,8 @@ describe('the evaluator at the edges: a diagnostic, never an exception or a non-
     // is above 1 MPa, so 200 °C cannot be saturated there: F is an error), dp = db = −100 °C, 179 °C saturated at 1 MPa (below its 179.9 °C boiling point, eq 6).
     // C is real air above the boiling point (50 °C at 1 kPa) whose wet-bulb, 6.9 °C, is below it: computed.
     expect(computed).toEqual(['A', 'C', 'E', 'G', 'H']);
-    const codes = (name: string) => a.diagnostics.filter((d) => d.message.startsWith(`state ${name}:`)).map((d) => d.code);
+    const codes = (name: string) =>
+      a.diagnostics.filter((d) => d.message.startsWith(`state ${name}:`)).map((d) => d.code);
     expect(codes('B')).toEqual(['pressure-below-saturation']); // 7 °C is above the boiling point at 1 kPa
     expect(codes('C')).toEqual([]);
     expect(codes('F')).toEqual(['pressure-below-saturation']);

@@ -37,13 +37,21 @@ describe('quick fixes', () => {
   });
 
   it('swaps a wet-bulb written above the dry-bulb', () => {
-    const after = check(air('state LOG7: db=20C wb=2|5C   # as copied'), 'Swap the dry-bulb and wet-bulb values', 'state LOG7: db=25C wb=20C   # as copied');
+    const after = check(
+      air('state LOG7: db=20C wb=2|5C   # as copied'),
+      'Swap the dry-bulb and wet-bulb values',
+      'state LOG7: db=25C wb=20C   # as copied',
+    );
     expect(noteDiagnostics(noteOf(after)).filter((d) => d.code === 'wb-above-db')).toEqual([]);
   });
 
   it('replaces a stale claim with the computed value, after which the claim holds', () => {
     // ASHRAE HoF 2017 SI Ch.1 Example 1: RH 14 % for 40 °C db / 20 °C wb, so rh=20% is stale.
-    const after = check(air('state OA: db=40C wb=20C rh=2|0%'), 'Replace the stale claim', 'state OA: db=40C wb=20C rh=1');
+    const after = check(
+      air('state OA: db=40C wb=20C rh=2|0%'),
+      'Replace the stale claim',
+      'state OA: db=40C wb=20C rh=1',
+    );
     expect(noteDiagnostics(noteOf(after)).filter((d) => d.code === 'claim-mismatch')).toEqual([]);
   });
 
@@ -57,7 +65,12 @@ describe('convert to the other unit system', () => {
     const input = air('state R|A: db=24C rh=50%');
     // 24 °C = 75.2 °F exactly (°F = °C × 9/5 + 32, by definition).
     const ip = check(input, 'Convert the written values of state RA to IP', 'state RA: db=75.2F rh=50%', 'refactor');
-    const si = check(ip.replace('state RA', 'state R|A'), 'Convert the written values of state RA to SI', 'state RA: db=24.0C rh=50%', 'refactor');
+    const si = check(
+      ip.replace('state RA', 'state R|A'),
+      'Convert the written values of state RA to SI',
+      'state RA: db=24.0C rh=50%',
+      'refactor',
+    );
     const w = (text: string) => tableValue(hover(noteOf(text), text.indexOf('RA'))!.markdown, 'w');
     expect(near(w(ip), w(input.replace('|', '')), 0.01)).toBe(true);
     expect(near(w(si), w(input.replace('|', '')), 0.01)).toBe(true);
@@ -65,7 +78,12 @@ describe('convert to the other unit system', () => {
 
   it('keeps a claim’s band when its unit changes, so a holding claim still holds', () => {
     // ASHRAE HoF 2017 SI Ch.1 Example 1: h = 56.7 kJ/kg ± 0.1 for 40 °C db / 20 °C wb.
-    const ip = check(air('state O|A: db=40C wb=20C h=56.7kJ/kg±0.1'), 'Convert the written values of state OA to IP', 'Btu/lb±', 'refactor');
+    const ip = check(
+      air('state O|A: db=40C wb=20C h=56.7kJ/kg±0.1'),
+      'Convert the written values of state OA to IP',
+      'Btu/lb±',
+      'refactor',
+    );
     expect(ip).toContain('db=104.0F');
     expect(noteDiagnostics(noteOf(ip)).filter((d) => d.code === 'claim-mismatch')).toEqual([]);
   });

@@ -27,12 +27,16 @@ function check(input: string, expected: Expected | null) {
   for (const l of expected.includes ?? []) expect(labels).toContain(l);
   for (const l of expected.excludes ?? []) expect(labels).not.toContain(l);
   if (expected.exactly) expect(labels).toEqual(expected.exactly);
-  if (expected.replaces !== undefined) expect(text.slice(result!.replace.start, result!.replace.end)).toBe(expected.replaces);
+  if (expected.replaces !== undefined)
+    expect(text.slice(result!.replace.start, result!.replace.end)).toBe(expected.replaces);
 }
 
 describe('completion', () => {
   it('offers the statement keywords at the start of a line', () => {
-    check(air('state A: db=24C rh=50%', '|'), { exactly: ['state', 'mix', 'process', 'supply', 'recover', 'site', 'units'], replaces: '' });
+    check(air('state A: db=24C rh=50%', '|'), {
+      exactly: ['state', 'mix', 'process', 'supply', 'recover', 'site', 'units'],
+      replaces: '',
+    });
     check(air('pro|'), { includes: ['process'], replaces: 'pro' });
   });
 
@@ -50,8 +54,15 @@ describe('completion', () => {
   it("offers the units of the key's dimension after a number", () => {
     check(air('state A: db=24|'), { exactly: ['C', 'F', 'K', 'R'], replaces: '' });
     check(air('state A: db=24C rh=50|'), { exactly: ['%'] });
-    check(air('state A: db=24C w=9.3g|'), { includes: ['g/kg', 'gr/lb', 'kg/kg', 'lb/lb'], excludes: ['C', 'kJ/kg'], replaces: 'g' });
-    check(air('state A: db=24C rh=50%', 'state B: db=30C rh=40%', 'process P: A -> B q=4.8|'), { includes: ['m3/s', 'L/s', 'cfm'], excludes: ['kg/s'] });
+    check(air('state A: db=24C w=9.3g|'), {
+      includes: ['g/kg', 'gr/lb', 'kg/kg', 'lb/lb'],
+      excludes: ['C', 'kJ/kg'],
+      replaces: 'g',
+    });
+    check(air('state A: db=24C rh=50%', 'state B: db=30C rh=40%', 'process P: A -> B q=4.8|'), {
+      includes: ['m3/s', 'L/s', 'cfm'],
+      excludes: ['kg/s'],
+    });
   });
 
   it('offers the names defined earlier in mixes and processes, never later ones', () => {
@@ -64,7 +75,9 @@ describe('completion', () => {
   });
 
   it('offers units for a mix stream amount', () => {
-    check(air('state OA: db=33C wb=23C', 'state RA: db=24C rh=50%', 'mix MA: OA 25|'), { includes: ['%', 'kg/s', 'L/s', 'cfm'] });
+    check(air('state OA: db=33C wb=23C', 'state RA: db=24C rh=50%', 'mix MA: OA 25|'), {
+      includes: ['%', 'kg/s', 'L/s', 'cfm'],
+    });
   });
 
   it('offers nothing in prose, in comments, or in other fences', () => {

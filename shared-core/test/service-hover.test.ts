@@ -39,7 +39,9 @@ function check(input: string, expected: Expected | null, settings: Partial<Servi
   for (const s of expected.absent ?? []) expect(md).not.toContain(s);
   for (const f of expected.figures ?? []) {
     const shown = tableValue(md, f.key);
-    expect(near(shown, f.value, f.tol), `${f.key} shown ${shown}, expected ${f.value} ± ${f.tol} (${f.source})`).toBe(true);
+    expect(near(shown, f.value, f.tol), `${f.key} shown ${shown}, expected ${f.value} ± ${f.tol} (${f.source})`).toBe(
+      true,
+    );
   }
   if (expected.spanText !== undefined) expect(text.slice(result!.span.start, result!.span.end)).toBe(expected.spanText);
   return md;
@@ -89,7 +91,12 @@ describe('hover on a state', () => {
   it(`shows ${EX1_IP} in IP units with the 0 °F datum and the state's own pressure`, () => {
     check(air('units: IP', 'state I|P1: db=100F wb=65F p=14.696psia'), {
       figures: EX1_IP_FIGURES,
-      contains: ['Pressure: 14.696 psia', 'Enthalpy datum: dry air 0 at 0 °F; water vapour from liquid water at 32 °F.', 'gr/lb', 'Btu/lb'],
+      contains: [
+        'Pressure: 14.696 psia',
+        'Enthalpy datum: dry air 0 at 0 °F; water vapour from liquid water at 32 °F.',
+        'gr/lb',
+        'Btu/lb',
+      ],
       absent: ['kJ/kg'],
     });
   });
@@ -102,7 +109,9 @@ describe('hover on a state', () => {
   });
 
   it('shows the pressure a site line sets (ASHRAE HoF 2017 SI Ch.1 Table 1: 1000 m → 89 875 Pa)', () => {
-    const md = check(air('site: elev=10|00m', 'state S1: db=20C rh=50%'), { contains: ['**site** — ', 'standard atmosphere', 'psia'] });
+    const md = check(air('site: elev=10|00m', 'state S1: db=20C rh=50%'), {
+      contains: ['**site** — ', 'standard atmosphere', 'psia'],
+    });
     expect(near(Number(/— (\d+\.\d+) kPa/.exec(md)![1]), 89.875, 0.001 + 0.0005)).toBe(true);
   });
 
@@ -114,15 +123,25 @@ describe('hover on a state', () => {
   it('marks claims with their verdicts: rh=14%±1 agrees with Example 1, rh=20% is stale', () => {
     // ASHRAE HoF 2017 SI Ch.1 Example 1 gives RH 14 % for this state, so ±1 % holds and 20 % cannot.
     check(air('state O|A: db=40C wb=20C rh=14%±1'), { contains: ['claim ✓', '`rh=14%±1` ✓ computed'] });
-    check(air('state O|A: db=40C wb=20C rh=20%'), { contains: ['claim ✗ (rh=20%)', '`rh=20%` ✗ computed', 'stale claim'] });
+    check(air('state O|A: db=40C wb=20C rh=20%'), {
+      contains: ['claim ✗ (rh=20%)', '`rh=20%` ✗ computed', 'stale claim'],
+    });
   });
 
   it('says claims are not checked when the setting is off', () => {
-    check(air('state O|A: db=40C wb=20C rh=20%'), { contains: ['Claims: not checked'], absent: ['✗'] }, { checkClaims: false });
+    check(
+      air('state O|A: db=40C wb=20C rh=20%'),
+      { contains: ['Claims: not checked'], absent: ['✗'] },
+      { checkClaims: false },
+    );
   });
 
   it('shows the other unit system as a second column on request', () => {
-    const md = check(air('state O|A: db=40C wb=20C'), { contains: ['| SI | IP |', '°F', 'Btu/lb', 'dry air 0 at 0 °F'] }, { secondaryUnits: true });
+    const md = check(
+      air('state O|A: db=40C wb=20C'),
+      { contains: ['| SI | IP |', '°F', 'Btu/lb', 'dry air 0 at 0 °F'] },
+      { secondaryUnits: true },
+    );
     // 40 °C is exactly 104 °F (°F = °C × 9/5 + 32, by definition).
     expect(tableValue(md, 'db', 4)).toBe(104);
   });
@@ -181,7 +200,10 @@ const METHOD = 'Method: ASHRAE Handbook—Fundamentals Ch. 1, ideal-gas; ice bel
 
 describe('hover on keys, units and words', () => {
   it('explains a property key in one line', () => {
-    check(air('state OA: w|b=20C db=40C'), { contains: ['`wb` — thermodynamic wet-bulb temperature (over ice below 0 °C).'], spanText: 'wb' });
+    check(air('state OA: w|b=20C db=40C'), {
+      contains: ['`wb` — thermodynamic wet-bulb temperature (over ice below 0 °C).'],
+      spanText: 'wb',
+    });
   });
 
   it('explains a unit with its conversion', () => {
@@ -195,7 +217,7 @@ describe('hover on keys, units and words', () => {
 
   it('says nothing in prose or outside statements', () => {
     check('Plain pro|se about the air handler.\n', null);
-    check(air('state A: db=24C rh=50%') + '\nSome te|xt.\n', null);
+    check(`${air('state A: db=24C rh=50%')}\nSome te|xt.\n`, null);
   });
 
   it('says a name is not defined before its use', () => {

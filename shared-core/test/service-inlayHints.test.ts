@@ -24,7 +24,10 @@ function check(input: string, expected: ExpectedHint[], settings: Partial<Servic
   expect(hints.map((h) => h.label)).toHaveLength(expected.length);
   expected.forEach((e, i) => {
     const h = hints[i]!;
-    expect(text.slice(0, h.offset).endsWith(e.after), `hint ${i} after "${e.after}", got "${text.slice(Math.max(0, h.offset - 30), h.offset)}"`).toBe(true);
+    expect(
+      text.slice(0, h.offset).endsWith(e.after),
+      `hint ${i} after "${e.after}", got "${text.slice(Math.max(0, h.offset - 30), h.offset)}"`,
+    ).toBe(true);
     // Spaces inside a figure are no-break spaces (see the wrapping test); compare the words here.
     const label = h.label.replace(/\u00a0/g, ' ');
     for (const s of e.contains ?? []) expect(label).toContain(s);
@@ -59,24 +62,36 @@ describe('inline hints', () => {
   });
 
   it('shows only the chosen properties, in IP when the note says so', () => {
-    check(air('units: IP', 'state A: db=75F rh=50%'), [{ after: 'rh=50%', contains: ['v ', 'ft³/lb'], absent: ['w ', 'kJ/kg'] }], { hintProperties: ['v'] });
+    check(
+      air('units: IP', 'state A: db=75F rh=50%'),
+      [{ after: 'rh=50%', contains: ['v ', 'ft³/lb'], absent: ['w ', 'kJ/kg'] }],
+      { hintProperties: ['v'] },
+    );
   });
 
   it('puts the hint of an inline statement after the closing backtick', () => {
-    check('The room is held at `state RA: db=24C rh=50%` in summer.\n', [{ after: '`state RA: db=24C rh=50%`', contains: ['dp '] }]);
-  });
-
-  it('gives a mix its mixed state and a process its kind, duty and SHR', () => {
-    check(air('state A: db=10C w=5g/kg', 'state B: db=30C w=5g/kg', 'mix M: A 50% + B 50%', 'process HC: A -> B m=2kg/s'), [
-      { after: 'w=5g/kg' },
-      { after: 'w=5g/kg' },
-      { after: 'B 50%', contains: ['db ', 'rh ', 'w ', 'h '] },
-      { after: 'm=2kg/s', contains: ['sensible heating', 'kW added', 'SHR 1.00'] },
+    check('The room is held at `state RA: db=24C rh=50%` in summer.\n', [
+      { after: '`state RA: db=24C rh=50%`', contains: ['dp '] },
     ]);
   });
 
+  it('gives a mix its mixed state and a process its kind, duty and SHR', () => {
+    check(
+      air('state A: db=10C w=5g/kg', 'state B: db=30C w=5g/kg', 'mix M: A 50% + B 50%', 'process HC: A -> B m=2kg/s'),
+      [
+        { after: 'w=5g/kg' },
+        { after: 'w=5g/kg' },
+        { after: 'B 50%', contains: ['db ', 'rh ', 'w ', 'h '] },
+        { after: 'm=2kg/s', contains: ['sensible heating', 'kW added', 'SHR 1.00'] },
+      ],
+    );
+  });
+
   it('gives only the statements in the requested range, and none for a state that failed', () => {
-    check(air('state A: db=24C rh=50%', '|state B: db=20C wb=25C', 'state C: db=30C rh=40%|', 'state D: db=10C rh=40%'), [{ after: 'rh=40%' }]);
+    check(
+      air('state A: db=24C rh=50%', '|state B: db=20C wb=25C', 'state C: db=30C rh=40%|', 'state D: db=10C rh=40%'),
+      [{ after: 'rh=40%' }],
+    );
   });
 
   it('shows a process enthalpy change in Btu/lb by scale alone, without the datum offset', () => {

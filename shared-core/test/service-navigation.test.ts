@@ -23,7 +23,7 @@ function where(text: string, span: { start: number; end: number }): string {
 function at(needle: string, occurrence = 0): { text: string; offset: number } {
   let i = -1;
   for (let k = 0; k <= occurrence; k++) i = NOTE.indexOf(needle, i + 1);
-  const { text, offsets } = marked(NOTE.slice(0, i) + '|' + NOTE.slice(i));
+  const { text, offsets } = marked(`${NOTE.slice(0, i)}|${NOTE.slice(i)}`);
   return { text, offset: offsets[0]! };
 }
 
@@ -78,7 +78,9 @@ describe('rename', () => {
 
   it('refuses a name used for an undefined reference, and a cursor away from names', () => {
     const text = air('state A: db=24C rh=50%', 'mix M: A 50% + GHOST 50%');
-    expect(rename(noteOf(text), text.indexOf('A:'), 'GHOST')).toEqual({ error: expect.stringContaining('already used on line 3') });
+    expect(rename(noteOf(text), text.indexOf('A:'), 'GHOST')).toEqual({
+      error: expect.stringContaining('already used on line 3'),
+    });
     const off = prepareRename(noteOf(text), text.indexOf('24C'));
     expect(off && 'error' in off && off.error).toContain('Only the names');
   });

@@ -16,14 +16,20 @@ const psy = createRequire(import.meta.url)('psychrolib') as {
 };
 psy.SetUnitSystem(psy.SI);
 
-const NOTE = air('state OA: db=32C wb=22.5C', 'state PH: db=OA.db+8K w=OA.w', 'state RA: db=24C rh=50%', 'mix MA: PH 30% + RA 70%', 'state SA: db=MA.db+0.8K w=MA.w');
+const NOTE = air(
+  'state OA: db=32C wb=22.5C',
+  'state PH: db=OA.db+8K w=OA.w',
+  'state RA: db=24C rh=50%',
+  'mix MA: PH 30% + RA 70%',
+  'state SA: db=MA.db+0.8K w=MA.w',
+);
 
 /** The note with a cursor before the `occurrence`-th `needle` (plus `shift` characters). */
 function at(needle: string, shift = 0, occurrence = 0): { text: string; offset: number } {
   let i = -1;
   for (let k = 0; k <= occurrence; k++) i = NOTE.indexOf(needle, i + 1);
   expect(i).toBeGreaterThanOrEqual(0);
-  const { text, offsets } = marked(NOTE.slice(0, i + shift) + '|' + NOTE.slice(i + shift));
+  const { text, offsets } = marked(`${NOTE.slice(0, i + shift)}|${NOTE.slice(i + shift)}`);
   return { text, offset: offsets[0]! };
 }
 
@@ -96,7 +102,9 @@ describe('definition, references and rename through OA.w', () => {
     const after = noteOf(renamed).analysis;
     expect(after.diagnostics).toEqual([]);
     const ph = (a: typeof before) => a.items.find((i) => i.name === 'PH');
-    expect(ph(after)?.kind === 'state' && ph(after)?.kind === ph(before)?.kind && (ph(after) as { state: unknown }).state).toEqual((ph(before) as { state: unknown }).state);
+    expect(
+      ph(after)?.kind === 'state' && ph(after)?.kind === ph(before)?.kind && (ph(after) as { state: unknown }).state,
+    ).toEqual((ph(before) as { state: unknown }).state);
   });
 
   it('refuses a rename onto a name in use', () => {
@@ -110,7 +118,13 @@ describe('completion of references', () => {
   function labels(input: string) {
     const { text, offsets } = marked(input);
     const r = completions(noteOf(text), offsets[0]!);
-    return r ? { labels: r.items.map((i) => i.label), replaced: text.slice(r.replace.start, r.replace.end), details: r.items.map((i) => i.detail) } : null;
+    return r
+      ? {
+          labels: r.items.map((i) => i.label),
+          replaced: text.slice(r.replace.start, r.replace.end),
+          details: r.items.map((i) => i.detail),
+        }
+      : null;
   }
 
   it('after key=: the states above, as NAME.key', () => {
@@ -136,7 +150,9 @@ describe('completion of references', () => {
 
 describe('supply in the editor', () => {
   it('hover shows the room loads, the room SHR, the flow as mass and volume, then the supply state', () => {
-    const { text, offsets } = marked(air('state RA: db=24C rh=50%', 'supply S|A: RA q_sensible=41.5kW q_latent=8kW db=13.6C'));
+    const { text, offsets } = marked(
+      air('state RA: db=24C rh=50%', 'supply S|A: RA q_sensible=41.5kW q_latent=8kW db=13.6C'),
+    );
     const h = hover(noteOf(text), offsets[0]!)!.markdown;
     expect(h).toContain('**supply SA** — supply air for the loads of RA');
     expect(h).toContain('| room sensible gain | 41.5 kW |');
@@ -150,14 +166,21 @@ describe('supply in the editor', () => {
   });
 
   it('completion: the room state after the colon, then the supply keys', () => {
-    const names = completions(noteOf(marked(air('state RA: db=24C rh=50%', 'supply SA: |')).text), marked(air('state RA: db=24C rh=50%', 'supply SA: |')).offsets[0]!);
+    const names = completions(
+      noteOf(marked(air('state RA: db=24C rh=50%', 'supply SA: |')).text),
+      marked(air('state RA: db=24C rh=50%', 'supply SA: |')).offsets[0]!,
+    );
     expect(names?.items.map((i) => i.label)).toEqual(['RA']);
     const { text, offsets } = marked(air('state RA: db=24C rh=50%', 'supply SA: RA |'));
-    expect(completions(noteOf(text), offsets[0]!)?.items.map((i) => i.label)).toEqual(expect.arrayContaining(['q_sensible', 'q_latent', 'db', 'm', 'q', 'shr']));
+    expect(completions(noteOf(text), offsets[0]!)?.items.map((i) => i.label)).toEqual(
+      expect.arrayContaining(['q_sensible', 'q_latent', 'db', 'm', 'q', 'shr']),
+    );
   });
 
   it('rename of the room state follows into the supply line', () => {
-    const { text, offsets } = marked(air('state R|A: db=24C rh=50%', 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C'));
+    const { text, offsets } = marked(
+      air('state R|A: db=24C rh=50%', 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C'),
+    );
     const r = rename(noteOf(text), offsets[0]!, 'ROOM-1');
     expect('edits' in r && applyEdits(text, r.edits)).toContain('supply SA: ROOM-1 q_sensible');
   });

@@ -16,7 +16,14 @@ import {
   staleTableDiagnostics,
   tableSlots,
 } from '../src/present/writtenTables';
-import { codeActions, noteDiagnostics, resultsTableActions, resultsTableEdits, type Edit, type Note } from '../src/service';
+import {
+  codeActions,
+  noteDiagnostics,
+  resultsTableActions,
+  resultsTableEdits,
+  type Edit,
+  type Note,
+} from '../src/service';
 import { applyEdits, noteOf } from './service-helpers';
 
 const NOTE = [
@@ -68,7 +75,8 @@ describe('inserting results tables', () => {
   it('keeps every character of the note outside the inserted text', () => {
     let rest = after;
     for (const e of [...edits].sort((a, b) => b.span.start - a.span.start)) {
-      const at = e.span.start + edits.filter((x) => x.span.start < e.span.start).reduce((n, x) => n + x.newText.length, 0);
+      const at =
+        e.span.start + edits.filter((x) => x.span.start < e.span.start).reduce((n, x) => n + x.newText.length, 0);
       rest = rest.slice(0, at) + rest.slice(at + e.newText.length);
     }
     expect(rest).toBe(NOTE);
@@ -105,11 +113,13 @@ describe('inserting results tables', () => {
     expect(one.changes.map((c) => c.kind)).toEqual(['insert']);
     expect(one.edits[0]!.span.start).toBe(NOTE.indexOf('```\n\nSupply') + 3);
     const inTable = after.indexOf('| RA ');
-    expect(resultsTableEdits(noteOf(after), { kind: 'at', offset: inTable }).changes.map((c) => c.kind)).toEqual(['unchanged']);
+    expect(resultsTableEdits(noteOf(after), { kind: 'at', offset: inTable }).changes.map((c) => c.kind)).toEqual([
+      'unchanged',
+    ]);
     expect(resultsTableEdits(noteOf(NOTE), { kind: 'at', offset: NOTE.indexOf('Supply fan') }).changes).toEqual([]);
   });
 
-  it('keeps the note\'s CRLF line endings', () => {
+  it("keeps the note's CRLF line endings", () => {
     const crlf = NOTE.replace(/\n/g, '\r\n');
     const w = writeAll(crlf);
     expect(w.after.replace(/\r\n/g, '')).not.toContain('\n');
@@ -123,7 +133,10 @@ describe('inserting results tables', () => {
     expect(q).toContain('> ```\n>\n> <!-- dewmark-results ');
     expect(q).toContain(`> ${RESULTS_END_MARKER}\n>\n> More text.`);
     const tokens = new MarkdownIt().parse(q, {});
-    const inQuote = tokens.slice(tokens.findIndex((t) => t.type === 'blockquote_open'), tokens.findIndex((t) => t.type === 'blockquote_close'));
+    const inQuote = tokens.slice(
+      tokens.findIndex((t) => t.type === 'blockquote_open'),
+      tokens.findIndex((t) => t.type === 'blockquote_close'),
+    );
     expect(inQuote.some((t) => t.type === 'table_open')).toBe(true);
     expect(resultsTableEdits(noteOf(q), { kind: 'all' }).edits).toEqual([]);
 
@@ -131,14 +144,19 @@ describe('inserting results tables', () => {
     const l = writeAll(listed).after;
     expect(l).toContain('  ```\n\n  <!-- dewmark-results ');
     const lt = new MarkdownIt().parse(l, {});
-    const firstItem = lt.slice(lt.findIndex((t) => t.type === 'list_item_open'), lt.findIndex((t) => t.type === 'list_item_close'));
+    const firstItem = lt.slice(
+      lt.findIndex((t) => t.type === 'list_item_open'),
+      lt.findIndex((t) => t.type === 'list_item_close'),
+    );
     expect(firstItem.some((t) => t.type === 'table_open')).toBe(true);
     expect(resultsTableEdits(noteOf(l), { kind: 'all' }).edits).toEqual([]);
   });
 
   it('gives no table to a fence left open to the end of the note, or to inline statements', () => {
     expect(resultsTableEdits(noteOf('```air\nstate A: db=20C rh=50%\n'), { kind: 'all' }).changes).toEqual([]);
-    expect(resultsTableEdits(noteOf('The room is `state RA: db=24C rh=50%` in summer.\n'), { kind: 'all' }).changes).toEqual([]);
+    expect(
+      resultsTableEdits(noteOf('The room is `state RA: db=24C rh=50%` in summer.\n'), { kind: 'all' }).changes,
+    ).toEqual([]);
   });
 });
 
@@ -161,7 +179,9 @@ describe('stale tables', () => {
   });
 
   it('does not go stale when prose is added above a block (the written table holds no line numbers)', () => {
-    const dup = writeAll('```air\nstate A: db=20C rh=50%\nstate A: db=21C rh=50%\nmix M: A 50% + Z 50%\nstate Z: db=30C rh=20%\n```\n').after;
+    const dup = writeAll(
+      '```air\nstate A: db=20C rh=50%\nstate A: db=21C rh=50%\nmix M: A 50% + Z 50%\nstate Z: db=30C rh=20%\n```\n',
+    ).after;
     expect(dup).toContain('duplicate-name');
     expect(dup).not.toMatch(/\(line \d+\)/);
     expect(staleCodes(`An introduction.\n\nWith two paragraphs.\n\n${dup}`)).toEqual([]);
@@ -224,7 +244,10 @@ describe('stale tables', () => {
   it('ignores markers that do not follow an air block (an example in another fence, prose between)', () => {
     const example = `Example:\n\n\`\`\`\`markdown\n\`\`\`air\nstate A: db=20C rh=50%\n\`\`\`\n\n<!-- dewmark-results 00000000: x -->\n${RESULTS_END_MARKER}\n\`\`\`\`\n`;
     expect(staleCodes(example)).toEqual([]);
-    const apart = after.replace('```\n\n<!-- dewmark-results', '```\n\nA paragraph in between.\n\n<!-- dewmark-results');
+    const apart = after.replace(
+      '```\n\n<!-- dewmark-results',
+      '```\n\nA paragraph in between.\n\n<!-- dewmark-results',
+    );
     expect(tableSlots(apart, analyzeNote(apart).parsed.regions)[0]!.table).toBeNull();
   });
 
@@ -234,7 +257,7 @@ describe('stale tables', () => {
 });
 
 describe('source actions', () => {
-  it('offers this block\'s table and every block\'s tables', () => {
+  it("offers this block's table and every block's tables", () => {
     const note = noteOf(NOTE);
     const at = NOTE.indexOf('state OA');
     const actions = resultsTableActions(note, { start: at, end: at });
@@ -258,7 +281,14 @@ describe('properties', () => {
     '',
   );
   const block = fc.array(line, { minLength: 0, maxLength: 4 }).map((ls) => ['```air', ...ls, '```'].join('\n'));
-  const prose = fc.constantFrom('Some prose.', '', '> quoted', '- item', '| a | b |\n| - | - |\n| 1 | 2 |', '<!-- a comment -->');
+  const prose = fc.constantFrom(
+    'Some prose.',
+    '',
+    '> quoted',
+    '- item',
+    '| a | b |\n| - | - |\n| 1 | 2 |',
+    '<!-- a comment -->',
+  );
   const note = fc
     .array(fc.oneof(block, prose), { minLength: 1, maxLength: 6 })
     .chain((parts) => fc.constantFrom('\n', '\r\n').map((eol) => `${parts.join('\n\n')}\n`.replace(/\n/g, eol)));
@@ -284,7 +314,9 @@ describe('properties', () => {
           // Twice is the same as once.
           const again = resultsTableEdits(noteOf(after), { kind: 'all' });
           if (scope.kind === 'all') expect(again.edits).toEqual([]);
-          expect(applyEdits(after, resultsTableEdits(noteOf(after), scope.kind === 'all' ? scope : { kind: 'all' }).edits)).toBe(applyEdits(after, again.edits));
+          expect(
+            applyEdits(after, resultsTableEdits(noteOf(after), scope.kind === 'all' ? scope : { kind: 'all' }).edits),
+          ).toBe(applyEdits(after, again.edits));
           // The written tables add no statement and are current.
           expect(analyzeNote(after).parsed.statements.length).toBe(n.analysis.parsed.statements.length);
           if (scope.kind === 'all') expect(staleCodes(after)).toEqual([]);
@@ -313,4 +345,3 @@ describe('a note that starts with a byte-order mark', () => {
     }
   });
 });
-

@@ -7,16 +7,37 @@ import { DEFAULT_SERVICE_SETTINGS, readSettings, toEvaluateSettings } from '../s
 
 describe('settings', () => {
   it('uses the defaults for null, undefined or an empty object', () => {
-    for (const raw of [null, undefined, {}]) expect(readSettings(raw)).toEqual({ settings: DEFAULT_SERVICE_SETTINGS, problems: [] });
+    for (const raw of [null, undefined, {}])
+      expect(readSettings(raw)).toEqual({ settings: DEFAULT_SERVICE_SETTINGS, problems: [] });
     expect(toEvaluateSettings(DEFAULT_SERVICE_SETTINGS).pressurePa).toBe(101325); // ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0
   });
 
   it('reads every setting, nested or with dotted keys', () => {
-    const nested = readSettings({ units: 'IP', pressure: '14.696 psia', inlayHints: { properties: ['v', 'rh'] }, precision: 2, checkClaims: false, hover: { secondaryUnits: true } });
-    const dotted = readSettings({ units: 'IP', pressure: '14.696 psia', 'inlayHints.properties': ['v', 'rh'], precision: 2, checkClaims: false, 'hover.secondaryUnits': true });
+    const nested = readSettings({
+      units: 'IP',
+      pressure: '14.696 psia',
+      inlayHints: { properties: ['v', 'rh'] },
+      precision: 2,
+      checkClaims: false,
+      hover: { secondaryUnits: true },
+    });
+    const dotted = readSettings({
+      units: 'IP',
+      pressure: '14.696 psia',
+      'inlayHints.properties': ['v', 'rh'],
+      precision: 2,
+      checkClaims: false,
+      'hover.secondaryUnits': true,
+    });
     expect(nested).toEqual(dotted);
     expect(nested.problems).toEqual([]);
-    expect(nested.settings).toMatchObject({ units: 'IP', hintProperties: ['v', 'rh'], extraDigits: 2, checkClaims: false, secondaryUnits: true });
+    expect(nested.settings).toMatchObject({
+      units: 'IP',
+      hintProperties: ['v', 'rh'],
+      extraDigits: 2,
+      checkClaims: false,
+      secondaryUnits: true,
+    });
     // 14.696 psia × 6894.757 Pa/psi (NIST SP 811: lbf/in² exact from lb, g_n and in) = 101 325 Pa within 0.5 Pa.
     expect(Math.abs(toEvaluateSettings(nested.settings).pressurePa - 101325)).toBeLessThan(0.5);
     expect(toEvaluateSettings(nested.settings).pressureOrigin).toContain('setting dewmark.pressure = 14.696 psia');

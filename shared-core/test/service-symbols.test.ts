@@ -58,12 +58,20 @@ describe('outline', () => {
   });
 
   it('gives each entry a short detail', () => {
-    const symbols = check(air('state A: db=10C w=5g/kg', 'state B: db=30C w=5g/kg', 'process HC: A -> B m=2kg/s'), ['state A', 'state B', 'process HC']);
+    const symbols = check(air('state A: db=10C w=5g/kg', 'state B: db=30C w=5g/kg', 'process HC: A -> B m=2kg/s'), [
+      'state A',
+      'state B',
+      'process HC',
+    ]);
     expect(symbols[0]!.detail).toContain('10.0 °C db');
     expect(symbols[2]!.detail).toContain('A → B, sensible heating');
   });
 
   it('keeps statements before the first heading at the top level', () => {
-    check([air('state A: db=24C rh=50%'), '# Later', air('state B: db=20C rh=40%')].join('\n'), ['state A', 'heading Later', '  state B']);
+    check([air('state A: db=24C rh=50%'), '# Later', air('state B: db=20C rh=40%')].join('\n'), [
+      'state A',
+      'heading Later',
+      '  state B',
+    ]);
   });
 });

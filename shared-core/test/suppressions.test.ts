@@ -29,12 +29,20 @@ const CLAIM = 'state RA: db=24C rh=50% w=11.0g/kg';
 
 describe('ignore comments', () => {
   it('a comment after a statement acknowledges that code on that line only', () => {
-    const text = ['```air', `${WB}   # dewmark-ignore wb-above-db -- measured, sensor swap pending`, `state Y: db=21C wb=26C`, '```', ''].join('\n');
+    const text = [
+      '```air',
+      `${WB}   # dewmark-ignore wb-above-db -- measured, sensor swap pending`,
+      `state Y: db=21C wb=26C`,
+      '```',
+      '',
+    ].join('\n');
     const r = check(text);
     expect(r.shown).toEqual(['wb-above-db@3']);
     expect(r.suppressed).toEqual(['wb-above-db@2']);
     expect(r.analysis.suppressed![0]!.justification).toBe('measured, sensor swap pending');
-    expect(text.slice(r.analysis.suppressed![0]!.suppressedBy.start, r.analysis.suppressed![0]!.suppressedBy.end)).toBe('# dewmark-ignore wb-above-db -- measured, sensor swap pending');
+    expect(text.slice(r.analysis.suppressed![0]!.suppressedBy.start, r.analysis.suppressed![0]!.suppressedBy.end)).toBe(
+      '# dewmark-ignore wb-above-db -- measured, sensor swap pending',
+    );
   });
 
   it('another code on the same line is not acknowledged', () => {
@@ -45,7 +53,16 @@ describe('ignore comments', () => {
   });
 
   it('a comment on its own line applies to the next statement line (blank and comment lines skipped)', () => {
-    const text = ['```air', '# dewmark-ignore claim-mismatch', '', '# the next line was measured', CLAIM, CLAIM.replace('RA', 'RB'), '```', ''].join('\n');
+    const text = [
+      '```air',
+      '# dewmark-ignore claim-mismatch',
+      '',
+      '# the next line was measured',
+      CLAIM,
+      CLAIM.replace('RA', 'RB'),
+      '```',
+      '',
+    ].join('\n');
     const r = check(text);
     expect(r.suppressed).toEqual(['claim-mismatch@5']);
     expect(r.shown).toEqual(['claim-mismatch@6']);
@@ -74,7 +91,9 @@ describe('ignore comments', () => {
     expect(d.severity).toBe('warning');
     expect(d.message).toContain("e.g. '# dewmark-ignore claim-mismatch'");
     const bad = check(['```air', `${WB}  # dewmark-ignore Wb_Above_Db`, '```', ''].join('\n'));
-    expect(bad.analysis.diagnostics.find((x) => x.code === 'ignore-comment')!.message).toContain("'Wb_Above_Db' is not a diagnostic code");
+    expect(bad.analysis.diagnostics.find((x) => x.code === 'ignore-comment')!.message).toContain(
+      "'Wb_Above_Db' is not a diagnostic code",
+    );
   });
 
   it('a comment that acknowledges nothing where it stands (a mistyped code) is an info', () => {
@@ -86,7 +105,14 @@ describe('ignore comments', () => {
   });
 
   it('prose that mentions the word outside an air block is not a comment', () => {
-    const text = ['Write `# dewmark-ignore CODE` in a block to acknowledge a diagnostic.', '', '```air', WB, '```', ''].join('\n');
+    const text = [
+      'Write `# dewmark-ignore CODE` in a block to acknowledge a diagnostic.',
+      '',
+      '```air',
+      WB,
+      '```',
+      '',
+    ].join('\n');
     expect(check(text).shown).toEqual(['wb-above-db@4']);
   });
 
@@ -118,7 +144,7 @@ describe('ignore comments', () => {
 });
 
 describe('rule severities', () => {
-  it('change a code\'s severity or turn it off, leaving the other codes alone', () => {
+  it("change a code's severity or turn it off, leaving the other codes alone", () => {
     const text = ['```air', WB, CLAIM, '```', ''].join('\n');
     const up = check(text, { 'claim-mismatch': 'error' }).analysis.diagnostics;
     expect(up.map((d) => `${d.code}:${d.severity}`)).toEqual(['wb-above-db:error', 'claim-mismatch:error']);

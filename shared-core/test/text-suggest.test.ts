@@ -89,13 +89,23 @@ describe('suggestions for ordinary typos', () => {
 
   it('in a note: unknown names, keys, keywords and units', () => {
     const a = analyzeNote(
-      fence(['state OA: db=24C rhh=50%', 'state RA: db=24C rh=50%', 'Process X: OA -> RA', 'state B: db=24degC rh=50%', 'process P: RAA -> OA', 'process Z1: Q -> OA']),
+      fence([
+        'state OA: db=24C rhh=50%',
+        'state RA: db=24C rh=50%',
+        'Process X: OA -> RA',
+        'state B: db=24degC rh=50%',
+        'process P: RAA -> OA',
+        'process Z1: Q -> OA',
+      ]),
     );
     const says = (code: string) => a.diagnostics.filter((d) => d.code === code).map((d) => d.message);
     expect(says('unknown-key').join()).toContain('did you mean rh=…?');
     expect(says('unknown-keyword').join()).toContain("keywords are lowercase: write 'process'");
     expect(says('unknown-unit').join()).toContain('did you mean db=24C?');
-    expect(says('unknown-name')).toEqual(["no state is named 'RAA'; did you mean 'RA'?", expect.stringContaining("no state is named 'Q'; define it")]);
+    expect(says('unknown-name')).toEqual([
+      "no state is named 'RAA'; did you mean 'RA'?",
+      expect.stringContaining("no state is named 'Q'; define it"),
+    ]);
   });
 
   it('units keep their own tolerance (none up to three letters) through the same engine', () => {
@@ -121,10 +131,15 @@ describe('the index and the band give the answer of a full scan', () => {
 
   it('the banded distance equals the full one up to its bound', () => {
     fc.assert(
-      fc.property(fc.stringMatching(/^[ab]{0,12}$/), fc.stringMatching(/^[ab]{0,12}$/), fc.integer({ min: 0, max: 3 }), (a, b, k) => {
-        const full = fullDistance(a, b);
-        expect(distanceWithin(a, b, k)).toBe(full <= k ? full : k + 1);
-      }),
+      fc.property(
+        fc.stringMatching(/^[ab]{0,12}$/),
+        fc.stringMatching(/^[ab]{0,12}$/),
+        fc.integer({ min: 0, max: 3 }),
+        (a, b, k) => {
+          const full = fullDistance(a, b);
+          expect(distanceWithin(a, b, k)).toBe(full <= k ? full : k + 1);
+        },
+      ),
       { seed: 7, numRuns: 2000 },
     );
   });
@@ -172,7 +187,10 @@ describe('bounded cost, counted in operations', () => {
   });
 
   it('many names within two edits of the word: at most MAX_VERIFIED are measured', () => {
-    const names = Array.from({ length: 5000 }, (_, i) => `A${String.fromCharCode(0x41 + (i % 26))}${String.fromCharCode(0x41 + Math.floor(i / 26) % 26)}`);
+    const names = Array.from(
+      { length: 5000 },
+      (_, i) => `A${String.fromCharCode(0x41 + (i % 26))}${String.fromCharCode(0x41 + (Math.floor(i / 26) % 26))}`,
+    );
     const index = new SuggestIndex(names);
     const work: SuggestWork = { ops: 0 };
     index.nearest('aaa', 2, work);

@@ -151,11 +151,14 @@ describe('unit table', () => {
     expect(withOffset.sort()).toEqual(['Btu/lb', 'F', 'K', 'R']);
   });
 
-  it.each(UNITS.map((u) => [u.symbol, u] as const))('%s has a title, a positive finite scale and a finite offset', (_s, u) => {
-    expect(u.title.length).toBeGreaterThan(2);
-    expect(Number.isFinite(u.scale) && u.scale > 0).toBe(true);
-    expect(Number.isFinite(u.offset)).toBe(true);
-  });
+  it.each(UNITS.map((u) => [u.symbol, u] as const))(
+    '%s has a title, a positive finite scale and a finite offset',
+    (_s, u) => {
+      expect(u.title.length).toBeGreaterThan(2);
+      expect(Number.isFinite(u.scale) && u.scale > 0).toBe(true);
+      expect(Number.isFinite(u.offset)).toBe(true);
+    },
+  );
 
   it.each(DIMENSIONS.map((d) => [d]))('unitsOf(%s) lists only that dimension, and every unit is listed once', (d) => {
     const list = unitsOf(d);
@@ -190,7 +193,12 @@ describe('conversion factors against their exact definitions', () => {
     ['gr/lb', GRAIN / LB, 0, 'NIST SP 811 (2008) B.8: grain = 6.479 891 E−05 kg (exact) per pound'],
     ['J/kg', 1, 0, 'SI base'],
     ['kJ/kg', 1e3, 0, 'SI prefix'],
-    ['Btu/lb', BTU_IT / LB, (-1006 * 160) / 9, 'NIST SP 811 (2008) B.8 (Btu_IT/lb) and ASHRAE HoF Ch.1 datums (dry air 0 at 0 °F; SI h_da = 1.006 t)'],
+    [
+      'Btu/lb',
+      BTU_IT / LB,
+      (-1006 * 160) / 9,
+      'NIST SP 811 (2008) B.8 (Btu_IT/lb) and ASHRAE HoF Ch.1 datums (dry air 0 at 0 °F; SI h_da = 1.006 t)',
+    ],
     ['m3/kg', 1, 0, 'SI base'],
     ['ft3/lb', FT ** 3 / LB, 0, 'NIST SP 811 (2008) B.8: ft³/lb from ft and lb'],
     ['m', 1, 0, 'SI base'],
@@ -208,7 +216,12 @@ describe('conversion factors against their exact definitions', () => {
     ['MW', 1e6, 0, 'SI prefix'],
     ['Btu/h', BTU_IT / 3600, 0, 'NIST SP 811 (2008) B.8: Btu_IT/h from Btu_IT'],
     ['MBH', (1000 * BTU_IT) / 3600, 0, 'common practice: MBH = 1000 Btu/h'],
-    ['ton', (12000 * BTU_IT) / 3600, 0, 'common practice and NIST SP 811 (2008) B.8: ton of refrigeration = 12 000 Btu_IT/h'],
+    [
+      'ton',
+      (12000 * BTU_IT) / 3600,
+      0,
+      'common practice and NIST SP 811 (2008) B.8: ton of refrigeration = 12 000 Btu_IT/h',
+    ],
     ['%', 0.01, 0, 'percent = 0.01'],
     ['kg/m3', 1, 0, 'SI base'],
     ['lb/ft3', LB / FT ** 3, 0, 'NIST SP 811 (2008) B.8: lb/ft³ from lb and ft'],
@@ -289,13 +302,17 @@ describe('round trips (fast-check, seeded)', () => {
 
   it.each(cases)('%s: a difference converts with the scale alone (deltaToSI(a − b) = toSI(a) − toSI(b))', (_s, u) => {
     fc.assert(
-      fc.property(fc.double({ min: -1e4, max: 1e4, noNaN: true }), fc.double({ min: -1e4, max: 1e4, noNaN: true }), (a, b) => {
-        const direct = toSI(a, u) - toSI(b, u);
-        const viaDelta = deltaToSI(a - b, u);
-        const tol = 1e-11 * (1 + Math.abs(a * u.scale) + Math.abs(b * u.scale) + Math.abs(u.offset));
-        const inverse = deltaFromSI(deltaToSI(a - b, u), u);
-        return Math.abs(direct - viaDelta) <= tol && Math.abs(inverse - (a - b)) <= 1e-12 * (1 + Math.abs(a - b));
-      }),
+      fc.property(
+        fc.double({ min: -1e4, max: 1e4, noNaN: true }),
+        fc.double({ min: -1e4, max: 1e4, noNaN: true }),
+        (a, b) => {
+          const direct = toSI(a, u) - toSI(b, u);
+          const viaDelta = deltaToSI(a - b, u);
+          const tol = 1e-11 * (1 + Math.abs(a * u.scale) + Math.abs(b * u.scale) + Math.abs(u.offset));
+          const inverse = deltaFromSI(deltaToSI(a - b, u), u);
+          return Math.abs(direct - viaDelta) <= tol && Math.abs(inverse - (a - b)) <= 1e-12 * (1 + Math.abs(a - b));
+        },
+      ),
       params,
     );
   });
@@ -316,7 +333,6 @@ describe('enthalpy datums: Btu/lb has dry air 0 at 0 °F, kJ/kg at 0 °C', () =>
     GetMoistAirEnthalpy(t: number, w: number): number;
   }
   const psy = createRequire(import.meta.url)('psychrolib') as Psychro;
-  const C = unit('C');
   const F = unit('F');
   const btu = unit('Btu/lb');
   const kj = unit('kJ/kg');
@@ -333,13 +349,16 @@ describe('enthalpy datums: Btu/lb has dry air 0 at 0 °F, kJ/kg at 0 °C', () =>
   });
 
   const dryAir: [number][] = [[-40], [-10], [0], [20], [35], [50], [60]];
-  it.each(dryAir)('dry air at %d °C: converted SI enthalpy matches the I-P equation within 0.05 Btu/lb (ASHRAE HoF 2017 Ch.1 via PsychroLib)', (tC) => {
-    psy.SetUnitSystem(psy.SI);
-    const hSI = psy.GetDryAirEnthalpy(tC);
-    psy.SetUnitSystem(psy.IP);
-    const hIP = psy.GetDryAirEnthalpy(fromSI(tC, F));
-    expect(Math.abs(fromSI(hSI, btu) - hIP)).toBeLessThan(0.05);
-  });
+  it.each(dryAir)(
+    'dry air at %d °C: converted SI enthalpy matches the I-P equation within 0.05 Btu/lb (ASHRAE HoF 2017 Ch.1 via PsychroLib)',
+    (tC) => {
+      psy.SetUnitSystem(psy.SI);
+      const hSI = psy.GetDryAirEnthalpy(tC);
+      psy.SetUnitSystem(psy.IP);
+      const hIP = psy.GetDryAirEnthalpy(fromSI(tC, F));
+      expect(Math.abs(fromSI(hSI, btu) - hIP)).toBeLessThan(0.05);
+    },
+  );
 
   it('24 °C / 50 % at sea level: about 47.81 kJ/kg and 28.2 Btu/lb, not 20.6 (ASHRAE HoF 2017 Ch.1 via PsychroLib; common practice)', () => {
     psy.SetUnitSystem(psy.SI);
@@ -560,10 +579,15 @@ describe('formatQuantity: engineering precision, no -0, no NaN', () => {
 
   it('no result ever prints NaN, Infinity or "-0" (fast-check, seeded)', () => {
     fc.assert(
-      fc.property(fc.double({ noNaN: false }), fc.constantFrom(...DIMENSIONS), fc.constantFrom<UnitSystem>('SI', 'IP'), (x, d, system) => {
-        const t = formatQuantity(x, d, system).valueText;
-        return !/NaN|Infinity/.test(t) && !/^-0(\.0*)?$/.test(t);
-      }),
+      fc.property(
+        fc.double({ noNaN: false }),
+        fc.constantFrom(...DIMENSIONS),
+        fc.constantFrom<UnitSystem>('SI', 'IP'),
+        (x, d, system) => {
+          const t = formatQuantity(x, d, system).valueText;
+          return !/NaN|Infinity/.test(t) && !/^-0(\.0*)?$/.test(t);
+        },
+      ),
       { seed: 20261201, numRuns: 2000 },
     );
   });

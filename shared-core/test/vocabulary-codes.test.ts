@@ -25,12 +25,16 @@ describe('the code registry', () => {
   });
 
   it("the parser's codes are the registry's parser rows", () => {
-    const parser: CodeFrom<'parser'>[] = DIAGNOSTIC_CODES.filter((c): c is CodeFrom<'parser'> => (CODES[c].from as readonly string[]).includes('parser'));
+    const parser: CodeFrom<'parser'>[] = DIAGNOSTIC_CODES.filter((c): c is CodeFrom<'parser'> =>
+      (CODES[c].from as readonly string[]).includes('parser'),
+    );
     expect(Object.keys(SYNTAX_CODES).sort()).toEqual([...parser].sort());
   });
 
   it("the engine's codes are the registry's engine rows (the type is the same union)", () => {
-    const engine: PhysicsCode[] = DIAGNOSTIC_CODES.filter((c): c is PhysicsCode => (CODES[c].from as readonly string[]).includes('engine'));
+    const engine: PhysicsCode[] = DIAGNOSTIC_CODES.filter((c): c is PhysicsCode =>
+      (CODES[c].from as readonly string[]).includes('engine'),
+    );
     expect(engine).toContain('overspecified');
     expect(engine).toContain('no-convergence');
     const asCode: DiagnosticCode = engine[0]!; // a PhysicsCode is a DiagnosticCode
@@ -54,6 +58,9 @@ describe("'internal-error'", () => {
     expect(d[0]!.severity).toBe('error');
     expect(d[0]!.span).toEqual(broken.span);
     expect(d[0]!.message).toContain('please report it with the note');
-    expect(a.items.find((i) => i.name === 'B')?.kind === 'state' && (a.items.find((i) => i.name === 'B') as { state: unknown }).state).toBeTruthy();
+    expect(
+      a.items.find((i) => i.name === 'B')?.kind === 'state' &&
+        (a.items.find((i) => i.name === 'B') as { state: unknown }).state,
+    ).toBeTruthy();
   });
 });

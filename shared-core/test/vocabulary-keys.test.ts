@@ -23,7 +23,7 @@ function noteWith(statement: KeyStatement, example: string): string {
     site: `site: ${example}`,
     process: `process X: A -> B ${example}`,
     // A supply needs both loads and its dry-bulb or flow; the example replaces the one of its key.
-    supply: `supply X: A ${['q_sensible=4kW', 'q_latent=1kW', /^(m|q)=/.test(example) ? '' : 'db=13C'].filter((x) => x && !x.startsWith(example.split('=')[0]! + '=')).join(' ')} ${example}`,
+    supply: `supply X: A ${['q_sensible=4kW', 'q_latent=1kW', /^(m|q)=/.test(example) ? '' : 'db=13C'].filter((x) => x && !x.startsWith(`${example.split('=')[0]!}=`)).join(' ')} ${example}`,
   }[statement];
   // The flow keys need no flow beside them; the other process keys get one.
   const flow = statement === 'process' && !/^(m|q)=/.test(example) ? ' m=2kg/s' : '';
@@ -34,7 +34,9 @@ function propsOf(st: Statement): PropertyNode[] {
   return 'props' in st ? st.props : [];
 }
 
-const written = KEYS.flatMap((k) => k.in.flatMap((statement) => k.examples.map((example) => [k.key, statement, example, k] as const)));
+const written = KEYS.flatMap((k) =>
+  k.in.flatMap((statement) => k.examples.map((example) => [k.key, statement, example, k] as const)),
+);
 
 describe('the key table', () => {
   it('has one row per key, and every key that can be written has examples', () => {
@@ -48,30 +50,76 @@ describe('the key table', () => {
     expect(written.length).toBeGreaterThan(20);
   });
 
-  it.each(written)("%s: the example in a %s line, '%s', parses with a unit of the key's dimension", (key, statement, example, spec: KeySpec) => {
-    const parsed = parseNote(noteWith(statement, example));
-    expect(parsed.diagnostics).toEqual([]);
-    const st = parsed.statements[2]!;
-    const prop = propsOf(st).find((p) => p.key === key);
-    expect(prop?.value, `${example} is read as a value of ${key}`).toBeTruthy();
-    const unit = prop!.value!.unit;
-    if (unit === null) expect(spec.bare, `${example} has no unit, so a bare number must be allowed`).toBe('si');
-    else expect(lookupUnit(unit.text)?.dimension, `${unit.text} measures ${spec.dimension}`).toBe(spec.dimension);
-  });
+  it.each(written)(
+    "%s: the example in a %s line, '%s', parses with a unit of the key's dimension",
+    (key, statement, example, spec: KeySpec) => {
+      const parsed = parseNote(noteWith(statement, example));
+      expect(parsed.diagnostics).toEqual([]);
+      const st = parsed.statements[2]!;
+      const prop = propsOf(st).find((p) => p.key === key);
+      expect(prop?.value, `${example} is read as a value of ${key}`).toBeTruthy();
+      const unit = prop!.value!.unit;
+      if (unit === null) expect(spec.bare, `${example} has no unit, so a bare number must be allowed`).toBe('si');
+      else expect(lookupUnit(unit.text)?.dimension, `${unit.text} measures ${spec.dimension}`).toBe(spec.dimension);
+    },
+  );
 
-  it.each(written)('%s: the example in a %s line, %s, is evaluated without a key or unit problem', (_key, statement, example) => {
-    const a = analyzeNote(noteWith(statement, example));
-    const codes = a.diagnostics.map((d) => d.code);
-    for (const bad of ['unknown-key', 'unknown-unit', 'missing-unit', 'duplicate-key', 'syntax']) expect(codes, example).not.toContain(bad);
-  });
+  it.each(written)(
+    '%s: the example in a %s line, %s, is evaluated without a key or unit problem',
+    (_key, statement, example) => {
+      const a = analyzeNote(noteWith(statement, example));
+      const codes = a.diagnostics.map((d) => d.code);
+      for (const bad of ['unknown-key', 'unknown-unit', 'missing-unit', 'duplicate-key', 'syntax'])
+        expect(codes, example).not.toContain(bad);
+    },
+  );
 
   it('gives each statement the keys it takes, in table order', () => {
     expect(Object.keys(STATE_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'p', 'elev']);
     expect(Object.keys(MIX_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'total']);
     expect(Object.keys(SITE_KEYS)).toEqual(['p', 'elev']);
     // A process also takes the leaving state's properties and the equipment keys (it may define its leaving state).
-    expect(Object.keys(PROCESS_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'm', 'q', 'flow', 'V', 'q_total', 'q_sensible', 'q_latent', 'q_coil', 'shr', 'water', 'heat', 'dt', 'dp_fan', 'eff', 'eff_motor', 'adp', 'bf', 'p_steam']);
-    expect(Object.keys(SUPPLY_KEYS)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'm', 'q', 'q_sensible', 'q_latent', 'shr']);
+    expect(Object.keys(PROCESS_KEYS)).toEqual([
+      'db',
+      'wb',
+      'dp',
+      'rh',
+      'w',
+      'h',
+      'v',
+      'm',
+      'q',
+      'flow',
+      'V',
+      'q_total',
+      'q_sensible',
+      'q_latent',
+      'q_coil',
+      'shr',
+      'water',
+      'heat',
+      'dt',
+      'dp_fan',
+      'eff',
+      'eff_motor',
+      'adp',
+      'bf',
+      'p_steam',
+    ]);
+    expect(Object.keys(SUPPLY_KEYS)).toEqual([
+      'db',
+      'wb',
+      'dp',
+      'rh',
+      'w',
+      'h',
+      'v',
+      'm',
+      'q',
+      'q_sensible',
+      'q_latent',
+      'shr',
+    ]);
   });
 
   it('gives the hint keys and the hover rows in their order', () => {

@@ -11,7 +11,17 @@ import { noteDiagnostics, resultsTableEdits } from '../src/service';
 import { applyEdits, noteOf } from './service-helpers';
 
 /** An invented note: one block of the level 3 office air handler. */
-const NOTE = ['# Level 3 office AHU', '', '```air', 'state OA: db=31C rh=40%', 'state RA: db=23C rh=50%', '```', '', 'Notes follow.', ''].join('\n');
+const NOTE = [
+  '# Level 3 office AHU',
+  '',
+  '```air',
+  'state OA: db=31C rh=40%',
+  'state RA: db=23C rh=50%',
+  '```',
+  '',
+  'Notes follow.',
+  '',
+].join('\n');
 
 /** The note with its results table written by the command. */
 function withTable(text = NOTE): string {
@@ -29,7 +39,10 @@ describe('an end marker outside the fence’s container does not end a table', (
   const lost = written.replace(`${RESULTS_END_MARKER}\n`, '');
 
   it.each([
-    ['an indented code block', 'An example of the marker, as code:\n\n    <!-- dewmark-results end -->\n\nMore prose.\n'],
+    [
+      'an indented code block',
+      'An example of the marker, as code:\n\n    <!-- dewmark-results end -->\n\nMore prose.\n',
+    ],
     ['a tab-indented code block', 'As code:\n\n\t<!-- dewmark-results end -->\n'],
     ['a list item (continuation line)', '- a checklist item\n  <!-- dewmark-results end -->\n- another item\n'],
     ['a nested ordered list item', '1. first step\n   - detail\n     <!-- dewmark-results end -->\n'],
@@ -59,7 +72,8 @@ describe('many stale tables cost one pass', () => {
   /** A note of `n` blocks, each with a table whose checksum was damaged (stale, reported with its line). */
   function staleNote(n: number): string {
     const blocks: string[] = [];
-    for (let i = 0; i < n; i++) blocks.push(`Zone ${i}:\n\n\`\`\`air\nstate Z${i}: db=${20 + (i % 5)}C rh=${40 + (i % 7)}%\n\`\`\`\n`);
+    for (let i = 0; i < n; i++)
+      blocks.push(`Zone ${i}:\n\n\`\`\`air\nstate Z${i}: db=${20 + (i % 5)}C rh=${40 + (i % 7)}%\n\`\`\`\n`);
     return withTable(blocks.join('\n')).replace(/dewmark-results [0-9a-f]{8}:/g, 'dewmark-results 00000000:');
   }
 

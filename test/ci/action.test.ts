@@ -61,7 +61,12 @@ afterAll(() => {
 
 /** Runs the check step's script as the runner would: each input through its environment variable. */
 function runStep(inputs: Record<string, string>) {
-  const env: Record<string, string> = { ...(process.env as Record<string, string>), GITHUB_ACTION_PATH: root, GITHUB_OUTPUT: join(dir, 'github-output'), NO_COLOR: '1' };
+  const env: Record<string, string> = {
+    ...(process.env as Record<string, string>),
+    GITHUB_ACTION_PATH: root,
+    GITHUB_OUTPUT: join(dir, 'github-output'),
+    NO_COLOR: '1',
+  };
   writeFileSync(env.GITHUB_OUTPUT!, '');
   for (const [name, expr] of Object.entries(checkStep.env!)) {
     const input = /^\$\{\{ inputs\.([a-z-]+) \}\}$/.exec(expr)![1]!;
@@ -91,7 +96,8 @@ describe('action.yml', () => {
     }
     for (const name of Object.keys(action.inputs)) {
       expect(action.inputs[name]!.description, name).toBeTruthy();
-      if (name !== 'node-version' && name !== 'working-directory') expect(used.has(name), `input ${name} reaches the script`).toBe(true);
+      if (name !== 'node-version' && name !== 'working-directory')
+        expect(used.has(name), `input ${name} reaches the script`).toBe(true);
     }
   });
 
@@ -133,7 +139,14 @@ describe('action.yml', () => {
 });
 
 describe('.pre-commit-hooks.yaml', () => {
-  const hooks = load(readFileSync(join(root, '.pre-commit-hooks.yaml'), 'utf8')) as { id: string; name: string; entry: string; language: string; types_or?: string[]; files?: string }[];
+  const hooks = load(readFileSync(join(root, '.pre-commit-hooks.yaml'), 'utf8')) as {
+    id: string;
+    name: string;
+    entry: string;
+    language: string;
+    types_or?: string[];
+    files?: string;
+  }[];
 
   it('declares one node hook on Markdown files whose entry is one of the package commands', () => {
     expect(hooks).toHaveLength(1);

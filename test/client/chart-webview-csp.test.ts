@@ -37,7 +37,12 @@ vi.mock('vscode', () => {
       onDidChangeConfiguration: () => disposable,
     },
     window: {
-      createWebviewPanel: (_type: string, _title: string, _column: unknown, options: Record<string, unknown>): FakePanel => {
+      createWebviewPanel: (
+        _type: string,
+        _title: string,
+        _column: unknown,
+        options: Record<string, unknown>,
+      ): FakePanel => {
         const panel: FakePanel = {
           options,
           visible: true,
@@ -81,7 +86,12 @@ function checkPage(html: string): string {
   const metas = html.match(/<meta http-equiv="Content-Security-Policy" content="([^"]*)">/g) ?? [];
   expect(metas.length, 'exactly one CSP meta').toBe(1);
   const csp = /content="([^"]*)"/.exec(metas[0]!)![1]!;
-  const directives = new Map(csp.split(';').map((d) => d.trim().split(/\s+/)).map(([k, ...v]) => [k!, v]));
+  const directives = new Map(
+    csp
+      .split(';')
+      .map((d) => d.trim().split(/\s+/))
+      .map(([k, ...v]) => [k!, v]),
+  );
   expect(directives.get('default-src')).toEqual(["'none'"]);
   const nonce = /^'nonce-([A-Za-z0-9+/=]+)'$/.exec(directives.get('script-src')?.[0] ?? '')?.[1];
   expect(nonce, 'script-src is a nonce').toBeTruthy();
@@ -90,7 +100,10 @@ function checkPage(html: string): string {
   // Nothing else may load anything: images only as inline data, no base URI, no form targets.
   for (const [k, v] of directives) {
     if (['default-src', 'script-src', 'style-src'].includes(k)) continue;
-    expect(v.every((x) => x === "'none'" || x === 'data:'), `${k} ${v.join(' ')}`).toBe(true);
+    expect(
+      v.every((x) => x === "'none'" || x === 'data:'),
+      `${k} ${v.join(' ')}`,
+    ).toBe(true);
   }
   expect(csp).not.toMatch(/unsafe-|https?:|\*|blob:|vscode-resource|self/);
   checkMarkup(html, nonce!);
@@ -99,12 +112,19 @@ function checkPage(html: string): string {
 
 /** No element loads anything; every script and style carries the nonce. */
 function checkMarkup(html: string, nonce: string): void {
-  for (const tag of html.match(/<(script|style)\b[^>]*>/gi) ?? []) expect(tag, 'nonce on every script and style').toMatch(new RegExp(`^<(script|style) nonce="${nonce.replace(/[+/=]/g, '\\$&')}">$`));
-  expect(html, 'no src or href attribute').not.toMatch(/\s(src|href|xlink:href|srcset|action|formaction|ping|background)\s*=/i);
+  for (const tag of html.match(/<(script|style)\b[^>]*>/gi) ?? [])
+    expect(tag, 'nonce on every script and style').toMatch(
+      new RegExp(`^<(script|style) nonce="${nonce.replace(/[+/=]/g, '\\$&')}">$`),
+    );
+  expect(html, 'no src or href attribute').not.toMatch(
+    /\s(src|href|xlink:href|srcset|action|formaction|ping|background)\s*=/i,
+  );
   // url(#id) points into the page itself (the SVG's clip path); any other url() would load something.
   expect(html, 'no CSS url() other than a fragment, no @import').not.toMatch(/url\s*\(\s*(?!['"]?#)|@import/i);
   expect(html, 'no inline event handler').not.toMatch(/\son[a-z]+\s*=/i);
-  expect(html, 'no iframe, object, embed, link or base element').not.toMatch(/<(iframe|object|embed|link|base|meta http-equiv="refresh")\b/i);
+  expect(html, 'no iframe, object, embed, link or base element').not.toMatch(
+    /<(iframe|object|embed|link|base|meta http-equiv="refresh")\b/i,
+  );
   expect(html, 'no javascript: URL').not.toMatch(/javascript:/i);
 }
 
@@ -114,12 +134,25 @@ beforeEach(() => {
 });
 
 describe('the chart webview the client sets up', () => {
-  const NOTE = ['# Kestrel Ridge AHU-1', '', '```air', 'state OA: db=32C wb=23C', 'state RA: db=24C rh=50%', 'mix MA: OA 30% + RA 70%', '```', ''].join('\n');
+  const NOTE = [
+    '# Kestrel Ridge AHU-1',
+    '',
+    '```air',
+    'state OA: db=32C wb=23C',
+    'state RA: db=24C rh=50%',
+    'mix MA: OA 30% + RA 70%',
+    '```',
+    '',
+  ].join('\n');
 
   it('panel options: scripts (for updates) but no command links and no local resources', () => {
     new ChartPanels(log as never).show(fakeDoc('/notes/ahu-1.md', NOTE) as never);
     expect(created.length).toBe(1);
-    expect(created[0]!.options).toMatchObject({ enableScripts: true, enableCommandUris: false, localResourceRoots: [] });
+    expect(created[0]!.options).toMatchObject({
+      enableScripts: true,
+      enableCommandUris: false,
+      localResourceRoots: [],
+    });
   });
 
   it('the page: default-src none, nonce-only style and script, nothing loaded', () => {

@@ -8,7 +8,10 @@ import { checkExample1, readFigure } from '../fixtures/e2e/expected';
 
 describe('hint figure reader', () => {
   it('reads key, number and unit, with the rounding of the shown digits', () => {
-    expect(readFigure('rh 14 % · w 6.4 g/kg · h 56.7 kJ/kg · dp 7.4 °C', 'w', 'g/kg')).toMatchObject({ value: 6.4, halfStep: 0.05 });
+    expect(readFigure('rh 14 % · w 6.4 g/kg · h 56.7 kJ/kg · dp 7.4 °C', 'w', 'g/kg')).toMatchObject({
+      value: 6.4,
+      halfStep: 0.05,
+    });
     expect(readFigure('rh\u00a014\u00a0% · dp\u00a0\u22121.5\u00a0°C', 'dp', '°C')).toMatchObject({ value: -1.5 });
     expect(readFigure('rh 14 %', 'h', 'kJ/kg')).toBeNull();
     expect(readFigure('dp 7.4 °F', 'dp', '°C')).toBeNull();

@@ -83,13 +83,20 @@ describe('extension manifest', () => {
   });
 
   it('contributes exactly the commands the client registers, under the Dewmark category', () => {
-    const contributed = (manifest.contributes.commands as { command: string; title: string; category: string }[]).map((c) => [c.command, c.title, c.category]);
+    const contributed = (manifest.contributes.commands as { command: string; title: string; category: string }[]).map(
+      (c) => [c.command, c.title, c.category],
+    );
     const code = Object.values(COMMANDS).map((c) => [c.id, c.title, COMMAND_CATEGORY]);
     expect(contributed.sort()).toEqual(code.sort());
     const source = readFileSync(join(root, 'client', 'src', 'extension.ts'), 'utf8');
-    for (const key of Object.keys(COMMANDS)) expect(source, key).toMatch(new RegExp(`registerCommand\\(\\s*COMMANDS\\.${key}\\.id`));
+    for (const key of Object.keys(COMMANDS))
+      expect(source, key).toMatch(new RegExp(`registerCommand\\(\\s*COMMANDS\\.${key}\\.id`));
     const palette = (manifest.contributes.menus.commandPalette as { command: string }[]).map((m) => m.command).sort();
-    expect(palette).toEqual(Object.values(COMMANDS).map((c) => c.id).sort());
+    expect(palette).toEqual(
+      Object.values(COMMANDS)
+        .map((c) => c.id)
+        .sort(),
+    );
   });
 
   it('every setting has a description and a default, and the defaults are the server defaults', () => {
@@ -119,21 +126,27 @@ describe('extension manifest', () => {
     expect(properties['dewmark.inlayHints.properties']!.items!.enum).toEqual([...HINT_KEYS]);
     // The descriptions are the key table's too (client/manifest.mjs cannot import TypeScript, so it
     // keeps a copy that this test holds to the table).
-    expect(properties['dewmark.inlayHints.properties']!.items!.enumDescriptions).toEqual(HINT_KEYS.map((k) => keySpec(k).hint));
+    expect(properties['dewmark.inlayHints.properties']!.items!.enumDescriptions).toEqual(
+      HINT_KEYS.map((k) => keySpec(k).hint),
+    );
     expect(properties['dewmark.units']!.enum).toEqual(['SI', 'IP']);
     const { problems } = readSettings(section({ 'dewmark.precision': properties['dewmark.precision']!.maximum! + 1 }));
     expect(problems.length, 'the manifest maximum of dewmark.precision is the server maximum').toBe(1);
   });
 
   it('packs every file the manifest names, and nothing from node_modules', () => {
-    const ignore = readFileSync(join(root, 'client', 'vsix.vscodeignore'), 'utf8').split('\n').map((l) => l.trim());
+    const ignore = readFileSync(join(root, 'client', 'vsix.vscodeignore'), 'utf8')
+      .split('\n')
+      .map((l) => l.trim());
     expect(ignore).toContain('**');
     const named = [
       manifest.main.replace(/^\.\//, ''),
       'dist/server.js',
       manifest.icon,
       ...(manifest.contributes.grammars as { path: string }[]).map((g) => g.path.replace(/^\.\//, '')),
-      ...(manifest.contributes.languages as { configuration: string }[]).map((l) => l.configuration.replace(/^\.\//, '')),
+      ...(manifest.contributes.languages as { configuration: string }[]).map((l) =>
+        l.configuration.replace(/^\.\//, ''),
+      ),
       ...(manifest.contributes['markdown.previewStyles'] as string[]).map((p) => p.replace(/^\.\//, '')),
       'LICENSE',
       'CHANGELOG.md',
@@ -147,7 +160,9 @@ describe('extension manifest', () => {
   });
 
   it('validates dewmark.json with a schema whose keys and values are the ones the project file and the server accept', () => {
-    expect(manifest.contributes.jsonValidation).toEqual([{ fileMatch: 'dewmark.json', url: './schema/dewmark.schema.json' }]);
+    expect(manifest.contributes.jsonValidation).toEqual([
+      { fileMatch: 'dewmark.json', url: './schema/dewmark.schema.json' },
+    ]);
     expect(manifest.files).toContain('schema/');
     const schema = JSON.parse(readFileSync(join(root, 'schema', 'dewmark.schema.json'), 'utf8')) as Record<string, any>;
     expect(schema.additionalProperties).toBe(false);
@@ -157,6 +172,10 @@ describe('extension manifest', () => {
     expect(schema.properties.precision.maximum).toBe(properties['dewmark.precision']!.maximum);
     expect(schema.properties.rules.additionalProperties.enum).toEqual([...RULE_VALUES]);
     // Every editor-setting key of the project file is a contributed setting.
-    for (const key of SETTING_KEYS) expect(Object.keys(properties).some((k) => k === `dewmark.${key}` || k.startsWith(`dewmark.${key}.`)), key).toBe(true);
+    for (const key of SETTING_KEYS)
+      expect(
+        Object.keys(properties).some((k) => k === `dewmark.${key}` || k.startsWith(`dewmark.${key}.`)),
+        key,
+      ).toBe(true);
   });
 });

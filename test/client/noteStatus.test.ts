@@ -10,8 +10,15 @@ describe('note status', () => {
   });
 
   it('falls back to the settings: default pressure, a pressure setting, an elevation that wins', () => {
-    expect(statusFromSettings({ units: undefined, pressure: '', elevation: '' })).toMatchObject({ units: 'SI', unitsSource: 'setting', pressureLabel: '101.325 kPa' });
-    expect(statusFromSettings({ units: 'IP', pressure: '14.2 psia', elevation: '' })).toMatchObject({ units: 'IP', pressureLabel: '14.2 psia' });
+    expect(statusFromSettings({ units: undefined, pressure: '', elevation: '' })).toMatchObject({
+      units: 'SI',
+      unitsSource: 'setting',
+      pressureLabel: '101.325 kPa',
+    });
+    expect(statusFromSettings({ units: 'IP', pressure: '14.2 psia', elevation: '' })).toMatchObject({
+      units: 'IP',
+      pressureLabel: '14.2 psia',
+    });
     const s = statusFromSettings({ units: 'SI', pressure: '90 kPa', elevation: '1600 m' });
     expect(s.pressureLabel).toBe('elev 1600 m');
     expect(s.pressureDescribe).toContain('dewmark.elevation');
@@ -24,7 +31,13 @@ describe('note status', () => {
     expect(fromSettings.tooltip).toContain('changes the setting dewmark.units');
     expect(fromSettings.tooltip).toContain('did not report');
     const fromNote = statusView(
-      { units: 'IP', unitsSource: 'note', unitsValueRange: { start: { line: 3, character: 7 }, end: { line: 3, character: 9 } }, pressureLabel: 'site 83.4 kPa', pressureDescribe: 'Site line 2: elev=1600m.' },
+      {
+        units: 'IP',
+        unitsSource: 'note',
+        unitsValueRange: { start: { line: 3, character: 7 }, end: { line: 3, character: 9 } },
+        pressureLabel: 'site 83.4 kPa',
+        pressureDescribe: 'Site line 2: elev=1600m.',
+      },
       true,
     );
     expect(fromNote.text).toContain('IP · site 83.4 kPa');

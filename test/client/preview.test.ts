@@ -50,7 +50,13 @@ const NOTE = [
 
 /** The text inside each `div.dewmark-results`, tags removed. */
 function resultBlocks(html: string): string[] {
-  return [...html.matchAll(/<div class="dewmark-results"[^>]*>([\s\S]*?)<\/div>/g)].map((m) => m[1]!.replace(/<[^>]+>/g, ' ').replace(/&quot;/g, '"').replace(/\s+/g, ' ').trim());
+  return [...html.matchAll(/<div class="dewmark-results"[^>]*>([\s\S]*?)<\/div>/g)].map((m) =>
+    m[1]!
+      .replace(/<[^>]+>/g, ' ')
+      .replace(/&quot;/g, '"')
+      .replace(/\s+/g, ' ')
+      .trim(),
+  );
 }
 
 for (const [label, MarkdownIt] of versions) {
@@ -58,7 +64,9 @@ for (const [label, MarkdownIt] of versions) {
     const md = () => dewmarkPreviewPlugin(new MarkdownIt());
 
     it('is the version it says', () => {
-      const pkg = createRequire(join(root, label.endsWith('14') ? 'package.json' : 'shared-core/package.json'))('markdown-it/package.json') as { version: string };
+      const pkg = createRequire(join(root, label.endsWith('14') ? 'package.json' : 'shared-core/package.json'))(
+        'markdown-it/package.json',
+      ) as { version: string };
       expect(pkg.version.split('.')[0]).toBe(label.split(' ')[1]);
     });
 
@@ -87,7 +95,8 @@ for (const [label, MarkdownIt] of versions) {
     });
 
     it('escapes everything from the note; html: true in the host changes nothing', () => {
-      const hostile = '```air\nstate A: db=24C rh=50% <img src=x onerror=alert(1)>\nstate B: db=24C<script>alert(2)</script> rh=50%\n```\n';
+      const hostile =
+        '```air\nstate A: db=24C rh=50% <img src=x onerror=alert(1)>\nstate B: db=24C<script>alert(2)</script> rh=50%\n```\n';
       for (const opts of [{}, { html: true }]) {
         const html = dewmarkPreviewPlugin(new MarkdownIt('default', opts)).render(hostile);
         const ours = html.slice(html.indexOf('<div class="dewmark-results"'));
@@ -99,27 +108,36 @@ for (const [label, MarkdownIt] of versions) {
 
     it('keeps the table inside the block quote of its block', () => {
       const html = md().render('> ```air\n> state A: db=24C rh=50%\n> ```\n\nAfter.\n');
-      expect(html).toMatch(/<blockquote>\n<pre><code class="language-air">[\s\S]*?<\/code><\/pre>\n<div class="dewmark-results"[\s\S]*?<\/div>\n<\/blockquote>/);
+      expect(html).toMatch(
+        /<blockquote>\n<pre><code class="language-air">[\s\S]*?<\/code><\/pre>\n<div class="dewmark-results"[\s\S]*?<\/div>\n<\/blockquote>/,
+      );
     });
 
-    it('uses the settings it is given (units from the editor setting), and the note\'s own units: line wins', () => {
-      const ip = dewmarkPreviewPlugin(new MarkdownIt(), { settings: () => ({ ...DEFAULT_SERVICE_SETTINGS, units: 'IP' }) });
+    it("uses the settings it is given (units from the editor setting), and the note's own units: line wins", () => {
+      const ip = dewmarkPreviewPlugin(new MarkdownIt(), {
+        settings: () => ({ ...DEFAULT_SERVICE_SETTINGS, units: 'IP' }),
+      });
       // 24 °C = 75.2 °F (°F = °C × 9/5 + 32, by definition).
       expect(resultBlocks(ip.render('```air\nstate A: db=24C rh=50%\n```\n'))[0]).toMatch(/db °F .*A 75\.2 /);
-      expect(resultBlocks(ip.render('```air\nunits: SI\nstate A: db=24C rh=50%\n```\n'))[0]).toMatch(/db °C .*A 24\.0 /);
+      expect(resultBlocks(ip.render('```air\nunits: SI\nstate A: db=24C rh=50%\n```\n'))[0]).toMatch(
+        /db °C .*A 24\.0 /,
+      );
     });
 
     it('shows nothing more under a block whose written table is current, and a notice when it is stale', () => {
       const note = analyzeText(NOTE, DEFAULT_SERVICE_SETTINGS);
       let written = NOTE;
-      for (const e of resultsTableEdits(note, { kind: 'all' }).edits.sort((a, b) => b.span.start - a.span.start)) written = written.slice(0, e.span.start) + e.newText + written.slice(e.span.end);
+      for (const e of resultsTableEdits(note, { kind: 'all' }).edits.sort((a, b) => b.span.start - a.span.start))
+        written = written.slice(0, e.span.start) + e.newText + written.slice(e.span.end);
       const current = md().render(written);
       expect(resultBlocks(current)).toEqual([]);
       expect(current.match(/<table>/g)?.length).toBe(2); // the two written states tables, rendered by markdown-it
       const stale = md().render(written.replace('state RA: db=24C rh=50%', 'state RA: db=25C rh=50%'));
       const blocks = resultBlocks(stale);
       expect(blocks).toHaveLength(2);
-      expect(blocks[0]).toMatch(/^The results table written below this block is out of date; run "Dewmark: Insert or Refresh Results Table" to refresh it\. Current results: state /);
+      expect(blocks[0]).toMatch(
+        /^The results table written below this block is out of date; run "Dewmark: Insert or Refresh Results Table" to refresh it\. Current results: state /,
+      );
       expect(blocks[0]).toMatch(/RA 25\.0 /);
     });
 
@@ -162,24 +180,57 @@ describe('the extension host never evaluates an unbounded note', () => {
   it('the preview follows dewmark.maxNoteSizeKB: a note over it gets no tables (not evaluated)', () => {
     const padded = `${NOTE}\n${'Prose of the plant room, repeated to pass one KB. '.repeat(30)}\n`;
     expect(padded.length).toBeGreaterThan(1024);
-    const at = (kb: number) => resultBlocks(dewmarkPreviewPlugin(new MarkdownIt(), { settings: () => ({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: kb }) }).render(padded));
+    const at = (kb: number) =>
+      resultBlocks(
+        dewmarkPreviewPlugin(new MarkdownIt(), {
+          settings: () => ({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: kb }),
+        }).render(padded),
+      );
     expect(at(1)).toEqual([]);
     expect(at(4)).toHaveLength(2);
   });
 
   it('the setting 0 ("no limit") still leaves the preview and chart bounded inside VS Code', () => {
     expect(hostBounded({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 0 }).maxNoteKB).toBe(HOST_MAX_NOTE_KB);
-    expect(hostBounded({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 10 * HOST_MAX_NOTE_KB }).maxNoteKB).toBe(HOST_MAX_NOTE_KB);
+    expect(hostBounded({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 10 * HOST_MAX_NOTE_KB }).maxNoteKB).toBe(
+      HOST_MAX_NOTE_KB,
+    );
     expect(hostBounded({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 512 }).maxNoteKB).toBe(512);
     // One character over the host bound is not evaluated by the preview, whatever the setting.
     const over = `${NOTE}${'x'.repeat(HOST_MAX_NOTE_KB * 1024 - NOTE.length + 1)}`;
     let rendered = 0;
-    const md = dewmarkPreviewPlugin({ core: { ruler: { push: (_n: string, rule: (s: unknown) => void) => {
-      // A hand-made core state with one air fence: the plugin adds a token only when it evaluated the note.
-      const tokens = [{ type: 'fence', info: 'air', map: [2, 5] as [number, number], level: 0, content: '', block: true }];
-      rule({ src: over, env: {}, tokens, Token: class { type = 'html_block'; info = ''; map = null; level = 0; content = ''; block = true; constructor() { rendered++; } } });
-      expect(tokens).toHaveLength(1);
-    } } } }, { settings: () => ({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 0 }) });
+    const md = dewmarkPreviewPlugin(
+      {
+        core: {
+          ruler: {
+            push: (_n: string, rule: (s: unknown) => void) => {
+              // A hand-made core state with one air fence: the plugin adds a token only when it evaluated the note.
+              const tokens = [
+                { type: 'fence', info: 'air', map: [2, 5] as [number, number], level: 0, content: '', block: true },
+              ];
+              rule({
+                src: over,
+                env: {},
+                tokens,
+                Token: class {
+                  type = 'html_block';
+                  info = '';
+                  map = null;
+                  level = 0;
+                  content = '';
+                  block = true;
+                  constructor() {
+                    rendered++;
+                  }
+                },
+              });
+              expect(tokens).toHaveLength(1);
+            },
+          },
+        },
+      },
+      { settings: () => ({ ...DEFAULT_SERVICE_SETTINGS, maxNoteKB: 0 }) },
+    );
     expect(md).toBeTruthy();
     expect(rendered).toBe(0);
   });

@@ -75,7 +75,9 @@ describe('Neovim as the LSP client', () => {
 
     const hints = inlayHintLabels(run.step('inlayHints').result);
     expect(hints).toHaveLength(3);
-    expect(hints[0]).toMatch(/^rh\u00a0[\d.]+\u00a0% · w\u00a0[\d.]+\u00a0g\/kg · h\u00a0[\d.]+\u00a0kJ\/kg · dp\u00a0[\d.]+\u00a0°C$/);
+    expect(hints[0]).toMatch(
+      /^rh\u00a0[\d.]+\u00a0% · w\u00a0[\d.]+\u00a0g\/kg · h\u00a0[\d.]+\u00a0kJ\/kg · dp\u00a0[\d.]+\u00a0°C$/,
+    );
     expect(run.report.serverExit?.code ?? 0).toBe(0);
   });
 
@@ -95,13 +97,20 @@ describe('Neovim as the LSP client', () => {
         { op: 'waitDiagnostics' },
         { op: 'codeAction', range: inBlock, only: ['source'], apply: 'Insert a results table below this air block' },
         { op: 'edit', startLine: 4, endLine: 5, lines: ['state RA: db=25C rh=50%'], minCount: 1 },
-        { op: 'codeAction', range: marker, only: ['quickfix'], apply: 'Refresh the results table below this air block' },
+        {
+          op: 'codeAction',
+          range: marker,
+          only: ['quickfix'],
+          apply: 'Refresh the results table below this air block',
+        },
         { op: 'shutdown' },
       ],
     });
     const actions = run.report.steps.filter((x): x is StepResult<'codeAction'> => x.op === 'codeAction');
     const inserted = actions[0]!;
-    expect(inserted.text).toMatch(/```\n\n<!-- dewmark-results [0-9a-f]{8}: generated from the air block above[^\n]*-->\n\n\| state +\| db °C/);
+    expect(inserted.text).toMatch(
+      /```\n\n<!-- dewmark-results [0-9a-f]{8}: generated from the air block above[^\n]*-->\n\n\| state +\| db °C/,
+    );
     expect(inserted.text).toContain('<!-- dewmark-results end -->');
     expect(inserted.text!.startsWith(fixed.trimEnd())).toBe(true);
     const edited = run.step('edit');

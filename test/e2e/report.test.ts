@@ -15,7 +15,13 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { run, type CliIO } from '../../cli/src/run';
 import { analyzeNote } from '../../shared-core/src/analyze';
-import { chartDataFromAnalysis, chartLayout, chartWebviewHtml, renderChart, toPixel } from '../../shared-core/src/chart';
+import {
+  chartDataFromAnalysis,
+  chartLayout,
+  chartWebviewHtml,
+  renderChart,
+  toPixel,
+} from '../../shared-core/src/chart';
 import { artifactsDir, requireTool, skipWithout } from './lib/tools';
 import { CHROMIUM_ARGS, loadPlaywright } from './lib/codeServer';
 
@@ -149,7 +155,10 @@ interface Page {
   close(): Promise<void>;
 }
 interface Browser {
-  newContext(options: { viewport: { width: number; height: number }; colorScheme?: 'light' | 'dark' }): Promise<{ newPage(): Promise<Page>; close(): Promise<void> }>;
+  newContext(options: {
+    viewport: { width: number; height: number };
+    colorScheme?: 'light' | 'dark';
+  }): Promise<{ newPage(): Promise<Page>; close(): Promise<void> }>;
   close(): Promise<void>;
 }
 
@@ -157,7 +166,10 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
   let browser: Browser | null = null;
   const shots = artifactsDir('report');
 
-  async function open(url: string, colorScheme: 'light' | 'dark' = 'light'): Promise<{ page: Page; requests: string[]; done: () => Promise<void> }> {
+  async function open(
+    url: string,
+    colorScheme: 'light' | 'dark' = 'light',
+  ): Promise<{ page: Page; requests: string[]; done: () => Promise<void> }> {
     const ctx = await browser!.newContext({ viewport: { width: 1200, height: 900 }, colorScheme });
     const page = await ctx.newPage();
     const requests: string[] = [];
@@ -171,7 +183,12 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
     const chromium = requireTool('chromium');
     requireTool('playwright-core');
     const pw = loadPlaywright();
-    browser = (await pw.chromium.launch({ executablePath: chromium.path, headless: true, args: [...CHROMIUM_ARGS], timeout: 60_000 })) as unknown as Browser;
+    browser = (await pw.chromium.launch({
+      executablePath: chromium.path,
+      headless: true,
+      args: [...CHROMIUM_ARGS],
+      timeout: 60_000,
+    })) as unknown as Browser;
     mkdirSync(shots, { recursive: true });
     expect((await dewmark(['report', 'ahu-2.md', '-o', 'report.html'], dir)).code).toBe(1);
     expect((await dewmark(['chart', 'ahu-2.md', '-o', 'chart.svg'], dir)).code).toBe(1);
@@ -199,7 +216,8 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
     expect(rows.processes![0]![2]).toBe('MA → SA');
     // Every diagnostic of the analysis appears, with its code and message.
     expect(rows.diagnostics!.length).toBe(analysis.diagnostics.length);
-    for (const d of analysis.diagnostics) expect(rows.diagnostics!.some((r) => r[2] === d.code && r[3] === d.message)).toBe(true);
+    for (const d of analysis.diagnostics)
+      expect(rows.diagnostics!.some((r) => r[2] === d.code && r[3] === d.message)).toBe(true);
     expect(analysis.diagnostics.some((d) => d.code === 'wb-above-db')).toBe(true);
     const text = await page.evaluate<{ caution: string; method: string; pressure: string; title: string }>(`({
       caution: document.querySelector('#caution').textContent,
@@ -305,7 +323,14 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
     const colours: Record<string, string> = {};
     for (const scheme of ['light', 'dark'] as const) {
       const { page, done } = await open(pathToFileURL(join(dir, 'chart.svg')).href, scheme);
-      const info = await page.evaluate<{ root: string; errors: number; title: string; desc: string; markers: { name: string; x: number; y: number }[]; panel: string }>(`(() => {
+      const info = await page.evaluate<{
+        root: string;
+        errors: number;
+        title: string;
+        desc: string;
+        markers: { name: string; x: number; y: number }[];
+        panel: string;
+      }>(`(() => {
         const svg = document.documentElement;
         const base = svg.getBoundingClientRect();
         return {

@@ -104,9 +104,9 @@ function sourceLine(starts: string): string {
   if (!line) throw new Error(`the fixture has no line starting with ${starts}`);
   return line;
 }
-const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&');
+const escapeRegExp = (s: string) => s.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&');
 /** A visible editor line that is `src` followed by a hint matching `hint`. */
-const hintedLine = (src: string, hint: string) => new RegExp(`^${escape(src)}.*${hint}`);
+const hintedLine = (src: string, hint: string) => new RegExp(`^${escapeRegExp(src)}.*${hint}`);
 const skip = skipWithout('node24', 'code-server', 'chromium', 'playwright-core');
 
 describe.skipIf(skip)('Dewmark extension in code-server', () => {
@@ -121,12 +121,22 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     // The same packaging a user's .vsix gets: build, then vsce with .vscodeignore. Under `npm test`
     // the bundles were just built, and rebuilding them here could race other suites that run them.
     const build = process.env.npm_lifecycle_event === 'test' ? ['--no-build'] : [];
-    const r = spawnSync(process.execPath, [join(REPO_ROOT, 'client', 'package-vsix.mjs'), ...build, '--out', vsix], { cwd: REPO_ROOT, encoding: 'utf8', timeout: 180_000 });
-    if (r.status !== 0 || !existsSync(vsix)) throw new Error(`npm run package failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
+    const r = spawnSync(process.execPath, [join(REPO_ROOT, 'client', 'package-vsix.mjs'), ...build, '--out', vsix], {
+      cwd: REPO_ROOT,
+      encoding: 'utf8',
+      timeout: 180_000,
+    });
+    if (r.status !== 0 || !existsSync(vsix))
+      throw new Error(`npm run package failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
     console.log(`[e2e] packaged ${vsix}: ${(statSync(vsix).size / 1024).toFixed(1)} KiB`);
     marker = join(work, 'activation.json');
     session = await startSession(
-      { extensions: [vsix], files: { [FIXTURE_NOTE]: fixtureText, [`notes/${CLOSED_NOTE}`]: closedText, [UNITS_NOTE]: unitsText }, env: { DEWMARK_ACTIVATION_MARKER: marker }, settings: { '[markdown]': { 'editor.wordWrap': 'off' } } },
+      {
+        extensions: [vsix],
+        files: { [FIXTURE_NOTE]: fixtureText, [`notes/${CLOSED_NOTE}`]: closedText, [UNITS_NOTE]: unitsText },
+        env: { DEWMARK_ACTIVATION_MARKER: marker },
+        settings: { '[markdown]': { 'editor.wordWrap': 'off' } },
+      },
       // Word wrap off (Markdown wraps by default) so each note line is one editor line with its hint.
       { name: 'dewmark', timeoutMs: 45_000 },
     );
@@ -156,7 +166,17 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     const wb = session.workbench;
     const text = await wb.hover('OA', { line: 'state OA', expect: 'humidity ratio' });
     await wb.screenshot('hover');
-    for (const part of ['state OA', 'dry-bulb', 'wet-bulb', 'dew point', 'relative humidity', 'enthalpy', 'specific volume', 'Pressure: 101.325 kPa', 'Method: ASHRAE']) {
+    for (const part of [
+      'state OA',
+      'dry-bulb',
+      'wet-bulb',
+      'dew point',
+      'relative humidity',
+      'enthalpy',
+      'specific volume',
+      'Pressure: 101.325 kPa',
+      'Method: ASHRAE',
+    ]) {
       expect(text, `hover text: ${text}`).toContain(part);
     }
     // The table's humidity ratio, read as shown, is the source value (ASHRAE HoF 2017 SI Ch.1 Example 1).
@@ -183,7 +203,10 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.waitForEditorLine(INFEASIBLE.after);
     const saved = await wb.saveAndRead(FIXTURE_NOTE);
     expect(saved).toBe(fixtureText.replace(INFEASIBLE.before, INFEASIBLE.after));
-    await wb.waitFor('the squiggle to go after the fix', async () => !(await wb.squiggles()).some((s) => s.severity === 'error'));
+    await wb.waitFor(
+      'the squiggle to go after the fix',
+      async () => !(await wb.squiggles()).some((s) => s.severity === 'error'),
+    );
     await wb.screenshot('after-fix');
   }, 90_000);
 
@@ -194,7 +217,9 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
       return pids.length === 1 ? pids[0] : undefined;
     });
     process.kill(before, 'SIGKILL'); // the server this test's code-server started
-    const note = await wb.waitFor('the restart notification', async () => (await wb.notifications()).find((t) => t.includes('stopped unexpectedly and was restarted')));
+    const note = await wb.waitFor('the restart notification', async () =>
+      (await wb.notifications()).find((t) => t.includes('stopped unexpectedly and was restarted')),
+    );
     expect(note).toContain('Output → Dewmark');
     const after = await wb.waitFor('a new language server process', () => {
       const pids = serverPids(session.server.extensionsDir);
@@ -204,19 +229,25 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     // The new server answers: a hover needs it.
     await wb.hover('RA', { line: 'state RA:', expect: 'state RA' });
     // Said once: the client does not add its own "connection is erroring" or "server will not restart" toasts.
-    expect((await wb.notifications()).filter((t) => /Dewmark/.test(t) && !t.includes('stopped unexpectedly'))).toEqual([]);
+    expect((await wb.notifications()).filter((t) => /Dewmark/.test(t) && !t.includes('stopped unexpectedly'))).toEqual(
+      [],
+    );
     await wb.screenshot('restarted');
   }, 90_000);
 
   it('shows the unit system and pressure basis in the status bar, and switches units from the palette and by a click', async () => {
     const wb = session.workbench;
     // The note's own site line sets the pressure basis (the server's note status says so).
-    await wb.waitFor('the Dewmark status-bar item', async () => (await wb.statusBar()).find((t) => t.includes('SI · site 101.325 kPa')));
+    await wb.waitFor('the Dewmark status-bar item', async () =>
+      (await wb.statusBar()).find((t) => t.includes('SI · site 101.325 kPa')),
+    );
     await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
     const src = sourceLine(EXAMPLE_1.line);
     const line = await wb.waitForEditorLine(hintedLine(src, '°F'));
     expect(line.slice(src.length)).not.toMatch(/°C|kJ\/kg|g\/kg/);
-    await wb.waitFor('the status bar to say IP', async () => (await wb.statusBar()).find((t) => t.includes('IP · site 14.696 psia')));
+    await wb.waitFor('the status bar to say IP', async () =>
+      (await wb.statusBar()).find((t) => t.includes('IP · site 14.696 psia')),
+    );
     await wb.screenshot('ip-units');
     // Clicking the status-bar item switches back.
     const item = (await wb.page.evaluate(
@@ -226,15 +257,17 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     expect(item, 'the Dewmark status-bar item').not.toBeNull();
     await wb.page.mouse.click(item!.x, item!.y);
     await wb.waitForEditorLine(hintedLine(src, '°C'));
-    await wb.waitFor('the status bar to say SI again', async () => (await wb.statusBar()).find((t) => t.includes('SI · site 101.325 kPa')));
+    await wb.waitFor('the status bar to say SI again', async () =>
+      (await wb.statusBar()).find((t) => t.includes('SI · site 101.325 kPa')),
+    );
   }, 90_000);
 
   it('shows the psychrometric chart beside the note, and redraws it when the note changes', async () => {
     const wb = session.workbench;
     await wb.runCommand('Dewmark: Show Psychrometric Chart');
-    const first = await wb.waitFor('the chart webview with the note\'s states', async () => {
+    const first = await wb.waitFor("the chart webview with the note's states", async () => {
       const v = await chartView(wb.page);
-      return v && v.text.includes('OA') && v.text.includes('RA') && v.svgWidth > 100 ? v : undefined;
+      return v?.text.includes('OA') && v.text.includes('RA') && v.svgWidth > 100 ? v : undefined;
     });
     await wb.screenshot('chart');
     // Type a new state into the note: the chart follows.
@@ -244,29 +277,36 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.page.keyboard.insertText('state SA9: db=14C rh=90%');
     const updated = await wb.waitFor('the chart to show the new state SA9', async () => {
       const v = await chartView(wb.page);
-      return v && v.text.includes('SA9') ? v : undefined;
+      return v?.text.includes('SA9') ? v : undefined;
     });
     expect(updated.updates).toBeGreaterThan(first.updates);
     await wb.screenshot('chart-updated');
   }, 90_000);
 
-  it('checks every note of the workspace with progress, and lists the closed note\'s problems', async () => {
+  it("checks every note of the workspace with progress, and lists the closed note's problems", async () => {
     const wb = session.workbench;
     await wb.runCommand('Dewmark: Check All Notes in the Workspace');
-    const summary = await wb.waitFor('the check-all summary', async () => (await wb.notifications()).find((t) => t.startsWith('Dewmark: checked')));
+    const summary = await wb.waitFor('the check-all summary', async () =>
+      (await wb.notifications()).find((t) => t.startsWith('Dewmark: checked')),
+    );
     // Three notes hold statements; only the closed plant-room note still has an error (PR1).
     expect(summary).toContain('checked 3 notes with statements (3 Markdown files read): 1 error, 0 warnings');
-    await wb.waitFor('the progress notification to close', async () => !(await wb.notifications()).some((t) => t.includes('finding Markdown files') || /^\d+\/\d+ /.test(t)));
+    await wb.waitFor(
+      'the progress notification to close',
+      async () => !(await wb.notifications()).some((t) => t.includes('finding Markdown files') || /^\d+\/\d+ /.test(t)),
+    );
     const rows = await wb.waitForProblem(/PR1/);
     expect(rows.some((r) => r.kind === 'resource' && r.text.includes(CLOSED_NOTE))).toBe(true);
     await wb.screenshot('check-all');
   }, 90_000);
 
-  it("switches a note that has its own units: line by rewriting that line", async () => {
+  it('switches a note that has its own units: line by rewriting that line', async () => {
     const wb = session.workbench;
     await wb.openFile(UNITS_NOTE);
     await wb.waitForEditorLine(/^state ANTE: db=70F rh=45%.*°F/);
-    await wb.waitFor('the status bar to show the note\'s IP', async () => (await wb.statusBar()).find((t) => t.includes('IP · 14.696 psia')));
+    await wb.waitFor("the status bar to show the note's IP", async () =>
+      (await wb.statusBar()).find((t) => t.includes('IP · 14.696 psia')),
+    );
     await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
     await wb.waitForEditorLine(/^units: SI$/);
     await wb.waitForEditorLine(/^state ANTE: db=70F rh=45%.*°C/);
@@ -284,10 +324,14 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.runCommand('View: Toggle Primary Side Bar Visibility');
     await wb.openFile(FIXTURE_NOTE);
     await wb.runCommand('Markdown: Open Preview to the Side');
-    const view = await wb.waitFor('the preview with a results table', async () => {
-      const v = await previewResults(wb.page);
-      return v && v.boxes.length === 1 && v.boxes[0]!.rows.some((r) => r[0] === 'OA') ? v : undefined;
-    }, { timeoutMs: 60_000 });
+    const view = await wb.waitFor(
+      'the preview with a results table',
+      async () => {
+        const v = await previewResults(wb.page);
+        return v && v.boxes.length === 1 && v.boxes[0]!.rows.some((r) => r[0] === 'OA') ? v : undefined;
+      },
+      { timeoutMs: 60_000 },
+    );
     await wb.screenshot('preview-results');
     const box = view.boxes[0]!;
     // The extension's stylesheet (markdown.previewStyles) applies: the box's left rule.
@@ -308,11 +352,15 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.page.keyboard.press('Control+T');
     await wb.page.waitForFunction('window.__dm.quickInputOpen()', undefined, { timeout: 10_000 });
     await wb.page.keyboard.insertText('Dark Modern');
-    await wb.waitFor('the theme picker to list Dark Modern', async () => ((await wb.page.evaluate('window.__dm.quickInputRows()')) as { label: string; focused: boolean }[]).some((r) => r.label.includes('Dark Modern') && r.focused));
+    await wb.waitFor('the theme picker to list Dark Modern', async () =>
+      ((await wb.page.evaluate('window.__dm.quickInputRows()')) as { label: string; focused: boolean }[]).some(
+        (r) => r.label.includes('Dark Modern') && r.focused,
+      ),
+    );
     await wb.page.keyboard.press('Enter');
     const dark = await wb.waitFor('the preview in the dark theme', async () => {
       const v = await previewResults(wb.page);
-      return v && v.theme.includes('vscode-dark') && v.boxes.length === 1 ? v : undefined;
+      return v?.theme.includes('vscode-dark') && v.boxes.length === 1 ? v : undefined;
     });
     expect(dark.boxes[0]!.background).not.toBe(box.background);
     await wb.screenshot('preview-results-dark');
@@ -320,13 +368,15 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     // The note has no units: line, so switching units changes the setting: the preview follows.
     await wb.clickWord('OA', { line: 'state OA' });
     await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
-    const ip = await wb.waitFor('the preview\'s results in °F', async () => {
+    const ip = await wb.waitFor("the preview's results in °F", async () => {
       const v = await previewResults(wb.page);
-      return v && v.boxes[0]?.rows.some((r) => r[0] === 'OA' && r[1] === '104.0') ? v : undefined;
+      return v?.boxes[0]?.rows.some((r) => r[0] === 'OA' && r[1] === '104.0') ? v : undefined;
     });
     expect(ip.boxes).toHaveLength(1); // 40 °C = 104 °F (by definition of the Fahrenheit scale)
     await wb.runCommand('Dewmark: Switch Result Units (SI/IP)');
-    await wb.waitFor('the preview\'s results in °C again', async () => (await previewResults(wb.page))?.boxes[0]?.rows.some((r) => r[0] === 'OA' && r[1] === '40.0'));
+    await wb.waitFor("the preview's results in °C again", async () =>
+      (await previewResults(wb.page))?.boxes[0]?.rows.some((r) => r[0] === 'OA' && r[1] === '40.0'),
+    );
   }, 120_000);
 
   it('writes the results table below the block with the palette command, and warns when the note changes without refreshing it', async () => {
@@ -356,10 +406,12 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.page.keyboard.press('Enter');
     await wb.page.keyboard.insertText('state SB: db=16C rh=85%');
     const rows = await wb.waitForProblem('stale-results-table');
-    const row = rows.find((r) => r.text.includes('stale-results-table') || r.ariaLabel.includes('stale-results-table'))!;
+    const row = rows.find(
+      (r) => r.text.includes('stale-results-table') || r.ariaLabel.includes('stale-results-table'),
+    )!;
     expect(row.severity).toBe('warning');
     expect(`${row.text} ${row.ariaLabel}`).toContain('Insert or Refresh Results Table');
-    const stale = await wb.waitFor('the preview\'s stale-table notice', async () => {
+    const stale = await wb.waitFor("the preview's stale-table notice", async () => {
       const v = await previewResults(wb.page);
       return v && v.boxes.length === 1 && v.boxes[0]!.notice ? v : undefined;
     });
@@ -370,7 +422,13 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.clickWord('SB', { line: 'state SB' });
     await wb.runCommand('Dewmark: Insert or Refresh Results Table');
     await wb.waitForEditorLine(/^\| SB +\| +16\.0 \|/);
-    await wb.waitFor('the stale warning to go', async () => !(await wb.problems()).some((r) => r.text.includes('stale-results-table') || r.ariaLabel.includes('stale-results-table')));
+    await wb.waitFor(
+      'the stale warning to go',
+      async () =>
+        !(await wb.problems()).some(
+          (r) => r.text.includes('stale-results-table') || r.ariaLabel.includes('stale-results-table'),
+        ),
+    );
     const refreshed = await wb.saveAndRead(FIXTURE_NOTE);
     expect(refreshed.match(/<!-- dewmark-results [0-9a-f]{8}:/g)).toHaveLength(1);
     expect(refreshed.match(/<!-- dewmark-results end -->/g)).toHaveLength(1);

@@ -16,11 +16,23 @@ const injectionPath = join(root, 'syntaxes', 'air.injection.tmLanguage.json');
 const injection = JSON.parse(readFileSync(injectionPath, 'utf8')) as { scopeName: string; injectionSelector: string };
 const standInHost = join(root, 'test', 'fixtures', 'grammar', 'markdown-host.tmLanguage.json');
 const toolsDir = process.env.DEWMARK_E2E_TOOLS_DIR ?? join(root, '.e2e-tools');
-const vscodeHost = join(toolsDir, 'node_modules', 'code-server', 'lib', 'vscode', 'extensions', 'markdown-basics', 'syntaxes', 'markdown.tmLanguage.json');
+const vscodeHost = join(
+  toolsDir,
+  'node_modules',
+  'code-server',
+  'lib',
+  'vscode',
+  'extensions',
+  'markdown-basics',
+  'syntaxes',
+  'markdown.tmLanguage.json',
+);
 
 let onigReady: Promise<void> | null = null;
 function loadOniguruma(): Promise<void> {
-  onigReady ??= oniguruma.loadWASM(readFileSync(join(root, 'node_modules', 'vscode-oniguruma', 'release', 'onig.wasm')).buffer as ArrayBuffer);
+  onigReady ??= oniguruma.loadWASM(
+    readFileSync(join(root, 'node_modules', 'vscode-oniguruma', 'release', 'onig.wasm')).buffer as ArrayBuffer,
+  );
   return onigReady;
 }
 
@@ -38,7 +50,8 @@ async function tokenizer(hostPath: string): Promise<(text: string) => Token[][]>
       createOnigString: (s: string) => new oniguruma.OnigString(s),
     }),
     loadGrammar: async (scopeName: string) => {
-      const path = scopeName === 'text.html.markdown' ? hostPath : scopeName === injection.scopeName ? injectionPath : null;
+      const path =
+        scopeName === 'text.html.markdown' ? hostPath : scopeName === injection.scopeName ? injectionPath : null;
       if (!path) return null;
       return vsctm.parseRawGrammar(readFileSync(path, 'utf8'), path);
     },
@@ -92,7 +105,13 @@ function checkNote(lines: Token[][]): void {
   expect(scopesOf(lines, 2, 'air')).toContain('fenced_code.block.language.markdown');
   expect(scopesOf(lines, 4, 'state')).toContain('meta.embedded.block.air');
   // Keywords.
-  for (const [line, kw] of [[3, 'site'], [4, 'state'], [6, 'mix'], [7, 'process'], [8, 'units']] as const) {
+  for (const [line, kw] of [
+    [3, 'site'],
+    [4, 'state'],
+    [6, 'mix'],
+    [7, 'process'],
+    [8, 'units'],
+  ] as const) {
     expect(scopesOf(lines, line, kw), kw).toContain(`keyword.control.${kw}.air`);
   }
   // Names being defined, and names referred to.
@@ -103,7 +122,15 @@ function checkNote(lines: Token[][]): void {
   expect(scopesOf(lines, 6, 'OA')).toContain('variable.other.state.air');
   expect(scopesOf(lines, 7, 'SA')).toContain('variable.other.state.air');
   // Property keys and operators.
-  for (const [line, key] of [[3, 'elev'], [4, 'db'], [4, 'wb'], [5, 'rh'], [5, 'h'], [7, 'q'], [9, 'w']] as const) {
+  for (const [line, key] of [
+    [3, 'elev'],
+    [4, 'db'],
+    [4, 'wb'],
+    [5, 'rh'],
+    [5, 'h'],
+    [7, 'q'],
+    [9, 'w'],
+  ] as const) {
     const s = scopesOf(lines, line, key);
     expect(s.join(' '), key).toContain('support.type.property-name.air');
     expect(s.join(' '), key).toContain('variable.parameter.property.air');
@@ -160,7 +187,20 @@ describe('air injection grammar', () => {
 
   it('a fence indented inside a list item and a tilde fence are air blocks too', async () => {
     const tokenize = await tokenizer(standInHost);
-    const lines = tokenize(['- step one', '', '  ```air', '  state X: db=20C rh=40%', '  ```', '', '~~~air', 'state Y: db=21C rh=41%', '~~~', 'plain db=1C'].join('\n'));
+    const lines = tokenize(
+      [
+        '- step one',
+        '',
+        '  ```air',
+        '  state X: db=20C rh=40%',
+        '  ```',
+        '',
+        '~~~air',
+        'state Y: db=21C rh=41%',
+        '~~~',
+        'plain db=1C',
+      ].join('\n'),
+    );
     expect(scopesOf(lines, 3, 'state')).toContain('keyword.control.state.air');
     expect(scopesOf(lines, 7, 'Y')).toContain('entity.name.type.state.air');
     for (const t of lines[9] ?? []) expect(t.scopes.join(' '), t.text).not.toMatch(/\.air\b/);
@@ -189,7 +229,14 @@ describe('air injection grammar', () => {
 
   it('a supply line: keyword, the name it defines, the room state it names', async () => {
     const tokenize = await tokenizer(standInHost);
-    const lines = tokenize(['```air', 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C', '```', 'In prose, `supply SB: RA q_sensible=1kW q_latent=0kW m=1kg/s` too.'].join('\n'));
+    const lines = tokenize(
+      [
+        '```air',
+        'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C',
+        '```',
+        'In prose, `supply SB: RA q_sensible=1kW q_latent=0kW m=1kg/s` too.',
+      ].join('\n'),
+    );
     expect(scopesOf(lines, 1, 'supply')).toContain('keyword.control.supply.air');
     expect(scopesOf(lines, 1, 'SA')).toContain('entity.name.type.supply.air');
     expect(scopesOf(lines, 1, 'RA')).toContain('variable.other.state.air');
@@ -201,7 +248,10 @@ describe('air injection grammar', () => {
   it.skipIf(!haveVscodeMarkdown && !ci)(
     `the same checks against VS Code's own Markdown grammar${haveVscodeMarkdown ? '' : ' (SKIPPED: code-server is not installed in .e2e-tools; run scripts/setup-e2e-tools.sh)'}`,
     async () => {
-      if (!haveVscodeMarkdown) throw new Error(`CI=true and VS Code's Markdown grammar is missing at ${vscodeHost}: run scripts/setup-e2e-tools.sh`);
+      if (!haveVscodeMarkdown)
+        throw new Error(
+          `CI=true and VS Code's Markdown grammar is missing at ${vscodeHost}: run scripts/setup-e2e-tools.sh`,
+        );
       const tokenize = await tokenizer(vscodeHost);
       checkNote(tokenize(note));
     },

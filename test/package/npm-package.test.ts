@@ -6,7 +6,17 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawn, spawnSync } from 'node:child_process';
-import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import {
+  cpSync,
+  existsSync,
+  mkdirSync,
+  mkdtempSync,
+  readdirSync,
+  readFileSync,
+  rmSync,
+  statSync,
+  writeFileSync,
+} from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
@@ -28,15 +38,30 @@ let packJson: { name: string; version: string; filename: string; files: { path: 
 
 /** npm with a private cache and an unreachable registry: nothing may come from the network. */
 function npm(args: string[], cwd: string) {
-  return spawnSync(npmCli, [...args, '--cache', join(tmp, 'npm-cache'), '--registry', 'http://127.0.0.1:9/', '--no-audit', '--no-fund', '--no-update-notifier'], {
-    cwd,
-    encoding: 'utf8',
-    timeout: 120_000,
-    env: { ...process.env, npm_config_offline: 'true' },
-  });
+  return spawnSync(
+    npmCli,
+    [
+      ...args,
+      '--cache',
+      join(tmp, 'npm-cache'),
+      '--registry',
+      'http://127.0.0.1:9/',
+      '--no-audit',
+      '--no-fund',
+      '--no-update-notifier',
+    ],
+    {
+      cwd,
+      encoding: 'utf8',
+      timeout: 120_000,
+      env: { ...process.env, npm_config_offline: 'true' },
+    },
+  );
 }
 
-const GOOD = ['# AHU-1 of the invented Larch Street clinic', '', '```air', 'state RA: db=24C rh=50%', '```', ''].join('\n');
+const GOOD = ['# AHU-1 of the invented Larch Street clinic', '', '```air', 'state RA: db=24C rh=50%', '```', ''].join(
+  '\n',
+);
 // An invented note with a wb above its db (an error), for the exit code.
 const BAD = ['# Bad', '', '```air', 'state A: db=20C wb=25C', '```', ''].join('\n');
 
@@ -45,7 +70,10 @@ beforeAll(() => {
   stage = join(tmp, 'stage');
   mkdirSync(stage);
   // The build, as `npm pack` runs it (prepare), into the staging folder's dist/.
-  const b = spawnSync(process.execPath, [join(root, 'scripts', 'build.mjs'), '--outdir', join(stage, 'dist')], { cwd: root, encoding: 'utf8' });
+  const b = spawnSync(process.execPath, [join(root, 'scripts', 'build.mjs'), '--outdir', join(stage, 'dist')], {
+    cwd: root,
+    encoding: 'utf8',
+  });
   if (b.status !== 0) throw new Error(`build failed: ${b.stderr}`);
   buildOut = b.stdout;
   cpSync(join(root, 'package.json'), join(stage, 'package.json'));
@@ -59,7 +87,10 @@ beforeAll(() => {
   packJson = JSON.parse(p.stdout);
   project = join(tmp, 'notes-repo');
   mkdirSync(project);
-  writeFileSync(join(project, 'package.json'), JSON.stringify({ name: 'notes-repo', version: '1.0.0', private: true }, null, 2));
+  writeFileSync(
+    join(project, 'package.json'),
+    JSON.stringify({ name: 'notes-repo', version: '1.0.0', private: true }, null, 2),
+  );
   writeFileSync(join(project, 'good.md'), GOOD);
   writeFileSync(join(project, 'bad.md'), BAD);
   const i = npm(['install', '--offline', '--save-dev', join(tmp, packJson[0]!.filename)], project);
@@ -92,7 +123,13 @@ describe('npm package', () => {
         'dist/cli.js',
         'dist/server.js',
         'package.json',
-      ].concat(manifest.files.filter((f) => !f.startsWith('dist/') && !f.startsWith('bin/') && !/^[A-Z]+\.md$|^LICENSE$/.test(f)).flatMap((f) => packedUnder(f))).sort(),
+      ]
+        .concat(
+          manifest.files
+            .filter((f) => !f.startsWith('dist/') && !f.startsWith('bin/') && !/^[A-Z]+\.md$|^LICENSE$/.test(f))
+            .flatMap((f) => packedUnder(f)),
+        )
+        .sort(),
     );
     expect(manifest.dependencies ?? {}, 'the package must have no runtime dependencies').toEqual({});
     expect(Object.keys(manifest.bin).sort()).toEqual(['dewmark', 'dewmark-language-server']);
@@ -112,13 +149,23 @@ describe('npm package', () => {
       expect(notices, name).toMatch(new RegExp(`^## ${name.replace(/[.]/g, '\\.')} \\d`, 'm'));
     }
     expect(notices).toContain('Permission is hereby granted, free of charge');
-    for (const bundle of ['cli.js', 'server.js']) expect(readFileSync(join(stage, 'dist', bundle), 'utf8').slice(0, 200)).toContain('THIRD-PARTY-NOTICES.md');
+    for (const bundle of ['cli.js', 'server.js'])
+      expect(readFileSync(join(stage, 'dist', bundle), 'utf8').slice(0, 200)).toContain('THIRD-PARTY-NOTICES.md');
   });
 
   it('installs offline into a project with no monorepo, and `npx dewmark check` runs there', () => {
     expect(existsSync(join(project, 'node_modules', 'dewmark', 'dist', 'cli.js'))).toBe(true);
-    expect(existsSync(join(project, 'node_modules', 'dewmark', 'node_modules')), 'nothing besides the package is installed').toBe(false);
-    const npx = (args: string[]) => spawnSync(process.platform === 'win32' ? 'npx.cmd' : 'npx', ['--no-install', ...args], { cwd: project, encoding: 'utf8', env: { ...process.env, npm_config_offline: 'true', NO_COLOR: '1' }, timeout: 60_000 });
+    expect(
+      existsSync(join(project, 'node_modules', 'dewmark', 'node_modules')),
+      'nothing besides the package is installed',
+    ).toBe(false);
+    const npx = (args: string[]) =>
+      spawnSync(process.platform === 'win32' ? 'npx.cmd' : 'npx', ['--no-install', ...args], {
+        cwd: project,
+        encoding: 'utf8',
+        env: { ...process.env, npm_config_offline: 'true', NO_COLOR: '1' },
+        timeout: 60_000,
+      });
     const version = npx(['dewmark', '--version']);
     expect(version.stdout.trim()).toBe(manifest.version);
     const good = npx(['dewmark', 'check', 'good.md']);
@@ -133,9 +180,17 @@ describe('npm package', () => {
     const bin = join(project, 'node_modules', '.bin', 'dewmark-language-server');
     const child = spawn(bin, ['--stdio'], { cwd: project, stdio: ['pipe', 'pipe', 'pipe'] });
     try {
-      const body = JSON.stringify({ jsonrpc: '2.0', id: 1, method: 'initialize', params: { processId: null, rootUri: null, capabilities: {} } });
+      const body = JSON.stringify({
+        jsonrpc: '2.0',
+        id: 1,
+        method: 'initialize',
+        params: { processId: null, rootUri: null, capabilities: {} },
+      });
       child.stdin.write(`Content-Length: ${Buffer.byteLength(body)}\r\n\r\n${body}`);
-      const reply = await new Promise<{ id: number; result: { capabilities: Record<string, unknown>; serverInfo?: { name: string; version?: string } } }>((resolve, reject) => {
+      const reply = await new Promise<{
+        id: number;
+        result: { capabilities: Record<string, unknown>; serverInfo?: { name: string; version?: string } };
+      }>((resolve, reject) => {
         let buf = Buffer.alloc(0);
         const timer = setTimeout(() => reject(new Error('no answer to initialize within 30 s')), 30_000);
         child.stdout.on('data', (d: Buffer) => {

@@ -21,7 +21,8 @@ export function repoRoot(): string {
   for (;;) {
     if (existsSync(join(dir, 'bin', 'dewmark-language-server.js'))) return dir;
     const up = dirname(dir);
-    if (up === dir) throw new Error(`no bin/dewmark-language-server.js above ${process.cwd()}; run from the Dewmark repository`);
+    if (up === dir)
+      throw new Error(`no bin/dewmark-language-server.js above ${process.cwd()}; run from the Dewmark repository`);
     dir = up;
   }
 }
@@ -47,7 +48,14 @@ export interface Range {
 export interface Published {
   uri: string;
   version?: number;
-  diagnostics: { range: Range; severity?: number; code?: string | number; source?: string; message: string; data?: unknown }[];
+  diagnostics: {
+    range: Range;
+    severity?: number;
+    code?: string | number;
+    source?: string;
+    message: string;
+    data?: unknown;
+  }[];
 }
 
 /** Client capabilities of a modern client (pull diagnostics, Markdown, hierarchical symbols…). */
@@ -98,7 +106,10 @@ export class Session {
   readonly registrations: unknown[] = [];
   private exited: Promise<number | null>;
 
-  constructor(readonly proc: ChildProcess, connection: MessageConnection) {
+  constructor(
+    readonly proc: ChildProcess,
+    connection: MessageConnection,
+  ) {
     this.connection = connection;
     proc.stderr?.on('data', (d: Buffer) => (this.stderr += d.toString()));
     this.exited = new Promise((resolve) => proc.on('exit', (code) => resolve(code)));
@@ -165,7 +176,10 @@ export class Session {
   }
 
   /** `initialize` + `initialized`; returns the server's InitializeResult. */
-  async initialize(capabilities: object = FULL_CAPABILITIES, extra: Record<string, unknown> = {}): Promise<{ capabilities: Record<string, unknown>; serverInfo?: { name: string } }> {
+  async initialize(
+    capabilities: object = FULL_CAPABILITIES,
+    extra: Record<string, unknown> = {},
+  ): Promise<{ capabilities: Record<string, unknown>; serverInfo?: { name: string } }> {
     const result = await this.connection.sendRequest<{ capabilities: Record<string, unknown> }>('initialize', {
       processId: process.pid,
       rootUri: null,
@@ -179,12 +193,17 @@ export class Session {
 
   /** Sends `didOpen` for a Markdown document. */
   open(uri: string, text: string, version = 1): Promise<void> {
-    return this.connection.sendNotification('textDocument/didOpen', { textDocument: { uri, languageId: 'markdown', version, text } });
+    return this.connection.sendNotification('textDocument/didOpen', {
+      textDocument: { uri, languageId: 'markdown', version, text },
+    });
   }
 
   /** Sends one incremental `didChange`. */
   change(uri: string, version: number, changes: { range: Range; text: string }[]): Promise<void> {
-    return this.connection.sendNotification('textDocument/didChange', { textDocument: { uri, version }, contentChanges: changes });
+    return this.connection.sendNotification('textDocument/didChange', {
+      textDocument: { uri, version },
+      contentChanges: changes,
+    });
   }
 
   /** Sends a request. */
@@ -211,11 +230,20 @@ export class Session {
 /** Starts the server over stdio (default) or node IPC. */
 export function startServer(transport: 'stdio' | 'node-ipc' = 'stdio'): Session {
   if (transport === 'stdio') {
-    const proc = spawn(process.execPath, [serverBin(), '--stdio'], { cwd: repoRoot(), stdio: ['pipe', 'pipe', 'pipe'] });
-    const connection = createMessageConnection(new StreamMessageReader(proc.stdout!), new StreamMessageWriter(proc.stdin!));
+    const proc = spawn(process.execPath, [serverBin(), '--stdio'], {
+      cwd: repoRoot(),
+      stdio: ['pipe', 'pipe', 'pipe'],
+    });
+    const connection = createMessageConnection(
+      new StreamMessageReader(proc.stdout!),
+      new StreamMessageWriter(proc.stdin!),
+    );
     return new Session(proc, connection);
   }
-  const proc = spawn(process.execPath, [serverBin(), '--node-ipc'], { cwd: repoRoot(), stdio: ['pipe', 'pipe', 'pipe', 'ipc'] });
+  const proc = spawn(process.execPath, [serverBin(), '--node-ipc'], {
+    cwd: repoRoot(),
+    stdio: ['pipe', 'pipe', 'pipe', 'ipc'],
+  });
   const connection = createMessageConnection(new IPCMessageReader(proc), new IPCMessageWriter(proc));
   return new Session(proc, connection);
 }

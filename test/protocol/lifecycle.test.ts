@@ -36,16 +36,33 @@ describe('initialize', () => {
       expect(caps.definitionProvider).toBe(true);
       expect(caps.referencesProvider).toBe(true);
       expect(caps.renameProvider).toEqual({ prepareProvider: true });
-      expect(caps.codeActionProvider).toEqual({ codeActionKinds: ['quickfix', 'refactor.rewrite', 'source.dewmark.resultsTable'], resolveProvider: false });
+      expect(caps.codeActionProvider).toEqual({
+        codeActionKinds: ['quickfix', 'refactor.rewrite', 'source.dewmark.resultsTable'],
+        resolveProvider: false,
+      });
       expect(caps.executeCommandProvider).toEqual({ commands: ['dewmark.server.resultsTables'] });
-      expect(caps.diagnosticProvider).toEqual({ identifier: 'dewmark', interFileDependencies: false, workspaceDiagnostics: false });
-      expect(caps.experimental).toEqual({ dewmark: { checkWorkspace: 'dewmark/checkWorkspace', noteStatus: 'dewmark/noteStatus' } });
-      for (const absent of ['semanticTokensProvider', 'documentFormattingProvider', 'signatureHelpProvider', 'foldingRangeProvider', 'workspaceSymbolProvider']) {
+      expect(caps.diagnosticProvider).toEqual({
+        identifier: 'dewmark',
+        interFileDependencies: false,
+        workspaceDiagnostics: false,
+      });
+      expect(caps.experimental).toEqual({
+        dewmark: { checkWorkspace: 'dewmark/checkWorkspace', noteStatus: 'dewmark/noteStatus' },
+      });
+      for (const absent of [
+        'semanticTokensProvider',
+        'documentFormattingProvider',
+        'signatureHelpProvider',
+        'foldingRangeProvider',
+        'workspaceSymbolProvider',
+      ]) {
         expect(caps[absent], absent).toBeUndefined();
       }
       // The configuration change notification is registered dynamically once initialized.
       await s.until('registration', () =>
-        (s.registrations as { registrations: { method: string }[] }[]).some((r) => r.registrations.some((x) => x.method === 'workspace/didChangeConfiguration')),
+        (s.registrations as { registrations: { method: string }[] }[]).some((r) =>
+          r.registrations.some((x) => x.method === 'workspace/didChangeConfiguration'),
+        ),
       );
       expect(await s.shutdown()).toBe(0);
     } finally {
@@ -111,7 +128,10 @@ describe('initialize', () => {
       await s.initialize(FULL_CAPABILITIES);
       const uri = 'file:///ipc/note.md';
       await s.open(uri, '```air\nstate RA: db=24C rh=50%\n```\n');
-      const hover = await s.request<{ contents: { value: string } } | null>('textDocument/hover', { textDocument: { uri }, position: { line: 1, character: 7 } });
+      const hover = await s.request<{ contents: { value: string } } | null>('textDocument/hover', {
+        textDocument: { uri },
+        position: { line: 1, character: 7 },
+      });
       expect(hover?.contents.value).toContain('**state RA**');
       expect(await s.shutdown()).toBe(0);
     } finally {

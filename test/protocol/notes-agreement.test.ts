@@ -41,7 +41,10 @@ let outside = '';
 
 beforeAll(() => {
   if (!existsSync(join(repoRoot(), 'dist', 'cli.js')) || !existsSync(join(repoRoot(), 'dist', 'server.js'))) {
-    const b = spawnSync(process.execPath, [join(repoRoot(), 'scripts', 'build.mjs')], { cwd: repoRoot(), encoding: 'utf8' });
+    const b = spawnSync(process.execPath, [join(repoRoot(), 'scripts', 'build.mjs')], {
+      cwd: repoRoot(),
+      encoding: 'utf8',
+    });
     if (b.status !== 0) throw new Error(`build failed: ${b.stderr}`);
   }
   root = mkdtempSync(join(tmpdir(), 'dewmark-agree-'));
@@ -67,11 +70,20 @@ interface CliJson {
 
 describe('the CLI and Check All agree on the notes of a folder', () => {
   it('the same files, the same errors and warnings, the same unreadable file', async () => {
-    const r = spawnSync(process.execPath, [join(repoRoot(), 'dist', 'cli.js'), 'check', '--format', 'json', '.'], { cwd: root, encoding: 'utf8' });
+    const r = spawnSync(process.execPath, [join(repoRoot(), 'dist', 'cli.js'), 'check', '--format', 'json', '.'], {
+      cwd: root,
+      encoding: 'utf8',
+    });
     expect(r.status, r.stderr).toBe(2); // binary.md cannot be read
     expect(r.stderr).toContain("'binary.md' is a binary file");
     const cli = JSON.parse(r.stdout) as CliJson;
-    expect(cli.files.map((f) => f.path)).toEqual(['bad.md', 'good.md', 'prose.md', 'sub/kept.markdown', 'syntax-only.md']);
+    expect(cli.files.map((f) => f.path)).toEqual([
+      'bad.md',
+      'good.md',
+      'prose.md',
+      'sub/kept.markdown',
+      'syntax-only.md',
+    ]);
     expect(cli.summary).toMatchObject({ files: 5, errors: 2, warnings: 2, unreadable: 1 });
 
     const s = startServer();
@@ -80,7 +92,12 @@ describe('the CLI and Check All agree on the notes of a folder', () => {
       await s.initialize(FULL_CAPABILITIES, { workspaceFolders: [{ uri: folder, name: 'ws' }] });
       const result = await s.request<CheckWorkspaceResult>('dewmark/checkWorkspace', {});
       const rel = (uri: string) => uri.slice(folder.length + 1);
-      expect({ files: result.filesRead, errors: result.errors, warnings: result.warnings, unreadable: result.unreadable.length }).toEqual({
+      expect({
+        files: result.filesRead,
+        errors: result.errors,
+        warnings: result.warnings,
+        unreadable: result.unreadable.length,
+      }).toEqual({
         files: cli.summary.files,
         errors: cli.summary.errors,
         warnings: cli.summary.warnings,
@@ -90,7 +107,8 @@ describe('the CLI and Check All agree on the notes of a folder', () => {
       expect(result.unreadable[0]!.reason).toContain('is a binary file');
       // The notes listed are the files with statements or problems; prose.md is read but not a note.
       expect(result.notes.map((n) => rel(n.uri))).toEqual(['bad.md', 'good.md', 'sub/kept.markdown', 'syntax-only.md']);
-      const perFile = (path: string) => cli.files.find((f) => f.path === path)!.diagnostics.filter((d) => d.severity === 'error').length;
+      const perFile = (path: string) =>
+        cli.files.find((f) => f.path === path)!.diagnostics.filter((d) => d.severity === 'error').length;
       for (const n of result.notes) expect(n.errors, rel(n.uri)).toBe(perFile(rel(n.uri)));
       // The note with an error and no statement, which Check All used to skip.
       expect(result.notes.find((n) => rel(n.uri) === 'syntax-only.md')).toMatchObject({ errors: 1, statements: 0 });

@@ -31,11 +31,16 @@ describe('dewmark.json in the language server', () => {
     const s = startServer();
     try {
       // Editor settings: IP units (the project file says SI) and an elevation (the project file is silent).
-      await s.initialize(PUSH_ONLY_CAPABILITIES, { initializationOptions: { dewmark: { units: 'IP', elevation: '1600 m' } } });
+      await s.initialize(PUSH_ONLY_CAPABILITIES, {
+        initializationOptions: { dewmark: { units: 'IP', elevation: '1600 m' } },
+      });
       await s.open(uri, NOTE, 1);
       const first = await s.diagnosticsFor(uri, 1);
       expect(first.diagnostics.map((d) => d.code)).toEqual([]);
-      const h = await s.request<{ contents: { value: string } }>('textDocument/hover', { textDocument: { uri }, position: { line: 1, character: 7 } });
+      const h = await s.request<{ contents: { value: string } }>('textDocument/hover', {
+        textDocument: { uri },
+        position: { line: 1, character: 7 },
+      });
       expect(h.contents.value).toContain('°C');
       expect(h.contents.value).not.toContain('°F');
       expect(h.contents.value).toContain('dewmark.elevation = 1600 m');
@@ -43,8 +48,12 @@ describe('dewmark.json in the language server', () => {
       // The file changes on disk; the client says so.
       const before = s.published.length;
       writeFileSync(configPath, JSON.stringify({ units: 'SI', rules: { 'claim-mismatch': 'error' } }));
-      await s.connection.sendNotification('workspace/didChangeWatchedFiles', { changes: [{ uri: pathToFileURL(configPath).href, type: 2 }] });
-      const again = await s.until('diagnostics republished after the project file changed', () => s.published.slice(before).find((p) => p.uri === uri && p.diagnostics.length > 0));
+      await s.connection.sendNotification('workspace/didChangeWatchedFiles', {
+        changes: [{ uri: pathToFileURL(configPath).href, type: 2 }],
+      });
+      const again = await s.until('diagnostics republished after the project file changed', () =>
+        s.published.slice(before).find((p) => p.uri === uri && p.diagnostics.length > 0),
+      );
       expect(again.diagnostics.map((d) => [d.code, d.severity])).toEqual([['claim-mismatch', 1]]);
     } finally {
       await s.shutdown();
@@ -63,7 +72,9 @@ describe('dewmark.json in the language server', () => {
       await s.open(uri, NOTE, 1);
       const d = await s.diagnosticsFor(uri, 1);
       expect(d.diagnostics.map((x) => x.code)).toEqual(['claim-mismatch']);
-      await s.until('the project file problem', () => s.logs.find((l) => l.includes(`${join(dir, 'dewmark.json')}: it is not valid JSON`)));
+      await s.until('the project file problem', () =>
+        s.logs.find((l) => l.includes(`${join(dir, 'dewmark.json')}: it is not valid JSON`)),
+      );
     } finally {
       await s.shutdown();
     }

@@ -28,20 +28,29 @@ describe('push diagnostics', () => {
       expect(v1.diagnostics.map((d) => d.code)).toEqual(['missing-unit']);
       expect(v1.diagnostics[0]!.range).toEqual({ start: { line: 1, character: 12 }, end: { line: 1, character: 14 } });
 
-      await s.change(uri, 2, [{ range: { start: { line: 1, character: 14 }, end: { line: 1, character: 14 } }, text: 'C' }]);
+      await s.change(uri, 2, [
+        { range: { start: { line: 1, character: 14 }, end: { line: 1, character: 14 } }, text: 'C' },
+      ]);
       const v2 = await s.diagnosticsFor(uri, 2);
       expect(v2.version).toBe(2);
       expect(v2.diagnostics).toEqual([]);
 
       // Settings pushed with didChangeConfiguration apply at once (no workspace/configuration asked).
-      await s.connection.sendNotification('workspace/didChangeConfiguration', { settings: { dewmark: { units: 'IP' } } });
-      const h = await s.request<{ contents: { value: string } }>('textDocument/hover', { textDocument: { uri }, position: { line: 1, character: 7 } });
+      await s.connection.sendNotification('workspace/didChangeConfiguration', {
+        settings: { dewmark: { units: 'IP' } },
+      });
+      const h = await s.request<{ contents: { value: string } }>('textDocument/hover', {
+        textDocument: { uri },
+        position: { line: 1, character: 7 },
+      });
       // 24 °C = 75.2 °F exactly (°F = °C × 9/5 + 32, by definition).
       expect(tableValue(h.contents.value, 'db')).toBe(75.2);
       expect(s.configurationRequests).toEqual([]);
 
       await s.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
-      await s.until('the clearing publish', () => s.published.length > 2 && s.published[s.published.length - 1]!.diagnostics.length === 0 ? true : undefined);
+      await s.until('the clearing publish', () =>
+        s.published.length > 2 && s.published[s.published.length - 1]!.diagnostics.length === 0 ? true : undefined,
+      );
       expect(await s.shutdown()).toBe(0);
     } finally {
       s.kill();
@@ -55,7 +64,10 @@ describe('push diagnostics', () => {
       await s.until('the settings warning', () => s.logs.find((l) => l.includes('dewmark.units must be "SI" or "IP"')));
       const uri = 'file:///notes/defaults.md';
       await s.open(uri, '```air\nstate A: db=24C rh=50%\n```\n');
-      const h = await s.request<{ contents: { value: string } }>('textDocument/hover', { textDocument: { uri }, position: { line: 1, character: 7 } });
+      const h = await s.request<{ contents: { value: string } }>('textDocument/hover', {
+        textDocument: { uri },
+        position: { line: 1, character: 7 },
+      });
       expect(h.contents.value).toContain('°C');
       expect(await s.shutdown()).toBe(0);
     } finally {
@@ -70,7 +82,10 @@ describe('check all notes in the workspace', () => {
     dirs.push(root);
     mkdirSync(join(root, 'plant'));
     mkdirSync(join(root, 'node_modules', 'pkg'), { recursive: true });
-    writeFileSync(join(root, 'plant', 'ahu.md'), '# AHU\n\n```air\nstate A: db=24 rh=50%\nstate B: db=20C wb=25C\n```\n');
+    writeFileSync(
+      join(root, 'plant', 'ahu.md'),
+      '# AHU\n\n```air\nstate A: db=24 rh=50%\nstate B: db=20C wb=25C\n```\n',
+    );
     writeFileSync(join(root, 'plant', 'ok.md'), 'Held at `state R: db=22C rh=45%` overnight.\n');
     writeFileSync(join(root, 'readme.md'), 'No statements here.\n');
     writeFileSync(join(root, 'node_modules', 'pkg', 'skip.md'), '```air\nstate X: db=1 rh=1\n```\n');
@@ -86,7 +101,9 @@ describe('check all notes in the workspace', () => {
       expect(result.filesRead).toBe(3);
       expect(result.notes.map((n) => n.uri.slice(folder.length))).toEqual(['/plant/ahu.md', '/plant/ok.md']);
       expect(result.errors).toBe(2); // missing-unit and wb-above-db
-      const kinds = (s.progress as { token: string; value: { kind: string } }[]).filter((p) => p.token === 'check-1').map((p) => p.value.kind);
+      const kinds = (s.progress as { token: string; value: { kind: string } }[])
+        .filter((p) => p.token === 'check-1')
+        .map((p) => p.value.kind);
       expect(kinds[0]).toBe('begin');
       expect(kinds[kinds.length - 1]).toBe('end');
       expect(kinds).toContain('report');
@@ -109,7 +126,12 @@ describe('check all with folders that are not on this machine', () => {
       const local = pathToFileURL(root).href;
       const folders = ['file://fileserver/share/notes', 'vscode-vfs://github/owner/repo', local];
       await s.initialize(FULL_CAPABILITIES, { workspaceFolders: folders.map((uri, i) => ({ uri, name: `f${i}` })) });
-      const result = await s.request<{ notes: { uri: string }[]; filesRead: number; errors: number; skippedFolders: { uri: string; reason: string }[] }>('dewmark/checkWorkspace', {});
+      const result = await s.request<{
+        notes: { uri: string }[];
+        filesRead: number;
+        errors: number;
+        skippedFolders: { uri: string; reason: string }[];
+      }>('dewmark/checkWorkspace', {});
       expect(result.filesRead).toBe(1);
       expect(result.notes.map((n) => n.uri)).toEqual([`${local}/ahu.md`]);
       expect(result.errors).toBe(1); // missing-unit

@@ -27,11 +27,17 @@ describe('a long analysis yields to other requests', () => {
       await s.diagnosticsFor(small, 1);
 
       const events: string[] = [];
-      const largePublished = s.until('the large note diagnostics', () => s.published.find((p) => p.uri === large)).then(() => events.push('large published'));
+      const largePublished = s
+        .until('the large note diagnostics', () => s.published.find((p) => p.uri === large))
+        .then(() => events.push('large published'));
       await s.open(large, largeNote(20_000));
       const source = new CancellationTokenSource();
       const cancelledHover = s.connection
-        .sendRequest('textDocument/hover', { textDocument: { uri: large }, position: { line: 3, character: 7 } }, source.token)
+        .sendRequest(
+          'textDocument/hover',
+          { textDocument: { uri: large }, position: { line: 3, character: 7 } },
+          source.token,
+        )
         .then(
           () => ({ code: 0 }),
           (e: { code?: number }) => ({ code: e.code ?? 0 }),
@@ -42,7 +48,10 @@ describe('a long analysis yields to other requests', () => {
         });
       source.cancel();
       const smallHover = s
-        .request<{ contents: { value: string } } | null>('textDocument/hover', { textDocument: { uri: small }, position: { line: 1, character: 7 } })
+        .request<{ contents: { value: string } } | null>('textDocument/hover', {
+          textDocument: { uri: small },
+          position: { line: 1, character: 7 },
+        })
         .then((h) => {
           events.push('small hover answered');
           return h;

@@ -5,7 +5,14 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ResultsTableResult } from '@dewmark/protocol';
-import { FULL_CAPABILITIES, PUSH_ONLY_CAPABILITIES, positionOf, startServer, type Range, type Session } from './harness';
+import {
+  FULL_CAPABILITIES,
+  PUSH_ONLY_CAPABILITIES,
+  positionOf,
+  startServer,
+  type Range,
+  type Session,
+} from './harness';
 
 const NOTE = [
   '# Northgate clinic — AHU-1', // 0
@@ -33,7 +40,10 @@ interface TextEdit {
 }
 /** The server's result (`@dewmark/protocol`), its `edit` typed as the text edits the server sends (versioned, or by URI). */
 type Result = Omit<ResultsTableResult, 'edit'> & {
-  edit: { documentChanges?: { textDocument: { uri: string; version: number }; edits: TextEdit[] }[]; changes?: Record<string, TextEdit[]> } | null;
+  edit: {
+    documentChanges?: { textDocument: { uri: string; version: number }; edits: TextEdit[] }[];
+    changes?: Record<string, TextEdit[]>;
+  } | null;
 };
 interface Action {
   title: string;
@@ -53,9 +63,11 @@ interface Diag {
 /** Applies LSP text edits (non-overlapping) to `text`. */
 function apply(text: string, edits: readonly TextEdit[]): string {
   const lines = text.split('\n');
-  const offset = (p: { line: number; character: number }) => lines.slice(0, p.line).reduce((n, l) => n + l.length + 1, 0) + p.character;
+  const offset = (p: { line: number; character: number }) =>
+    lines.slice(0, p.line).reduce((n, l) => n + l.length + 1, 0) + p.character;
   let out = text;
-  for (const e of [...edits].sort((a, b) => offset(b.range.start) - offset(a.range.start))) out = out.slice(0, offset(e.range.start)) + e.newText + out.slice(offset(e.range.end));
+  for (const e of [...edits].sort((a, b) => offset(b.range.start) - offset(a.range.start)))
+    out = out.slice(0, offset(e.range.start)) + e.newText + out.slice(offset(e.range.end));
   return out;
 }
 
@@ -77,7 +89,10 @@ afterAll(async () => {
 
 describe('workspace/executeCommand dewmark.server.resultsTables', () => {
   it('answers with a versioned edit for the block at the position, and applies nothing itself', async () => {
-    const r = await s.request<Result>('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri: URI }, position: positionOf(NOTE, 'mix MA') }] });
+    const r = await s.request<Result>('workspace/executeCommand', {
+      command: COMMAND,
+      arguments: [{ textDocument: { uri: URI }, position: positionOf(NOTE, 'mix MA') }],
+    });
     expect(r).toMatchObject({ blocks: 1, inserted: 1, refreshed: 0, unchanged: 0, unterminated: 0, version: 3 });
     const change = r.edit!.documentChanges![0]!;
     expect(change.textDocument).toEqual({ uri: URI, version: 3 });
@@ -91,29 +106,53 @@ describe('workspace/executeCommand dewmark.server.resultsTables', () => {
   });
 
   it('with all: true covers every block, and after the edit a second run has nothing to do', async () => {
-    const r = await s.request<Result>('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri: URI }, all: true }] });
+    const r = await s.request<Result>('workspace/executeCommand', {
+      command: COMMAND,
+      arguments: [{ textDocument: { uri: URI }, all: true }],
+    });
     expect(r).toMatchObject({ blocks: 2, inserted: 2 });
     const written = apply(NOTE, r.edit!.documentChanges![0]!.edits);
     const uri = 'file:///work-notes/clinic-ahu1-written.md';
     await s.open(uri, written, 1);
-    const again = await s.request<Result>('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri }, all: true }] });
+    const again = await s.request<Result>('workspace/executeCommand', {
+      command: COMMAND,
+      arguments: [{ textDocument: { uri }, all: true }],
+    });
     expect(again).toMatchObject({ edit: null, blocks: 2, inserted: 0, refreshed: 0, unchanged: 2 });
   });
 
   it('says blocks: 0 for a position outside every block, null for a note that is not open, and rejects bad arguments', async () => {
-    const outside = await s.request<Result>('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri: URI }, position: positionOf(NOTE, 'The mix') }] });
+    const outside = await s.request<Result>('workspace/executeCommand', {
+      command: COMMAND,
+      arguments: [{ textDocument: { uri: URI }, position: positionOf(NOTE, 'The mix') }],
+    });
     expect(outside).toMatchObject({ edit: null, blocks: 0 });
-    expect(await s.request('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri: 'file:///work-notes/closed.md' }, all: true }] })).toBeNull();
-    await expect(s.request('workspace/executeCommand', { command: COMMAND, arguments: [] })).rejects.toThrow(/takes one argument/);
-    await expect(s.request('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri: URI } }] })).rejects.toThrow(/needs a position/);
-    await expect(s.request('workspace/executeCommand', { command: 'dewmark.nothing', arguments: [] })).rejects.toThrow(/unknown command/);
+    expect(
+      await s.request('workspace/executeCommand', {
+        command: COMMAND,
+        arguments: [{ textDocument: { uri: 'file:///work-notes/closed.md' }, all: true }],
+      }),
+    ).toBeNull();
+    await expect(s.request('workspace/executeCommand', { command: COMMAND, arguments: [] })).rejects.toThrow(
+      /takes one argument/,
+    );
+    await expect(
+      s.request('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri: URI } }] }),
+    ).rejects.toThrow(/needs a position/);
+    await expect(s.request('workspace/executeCommand', { command: 'dewmark.nothing', arguments: [] })).rejects.toThrow(
+      /unknown command/,
+    );
   });
 });
 
 describe('code actions and the stale-table diagnostic', () => {
   it('offers the source actions when asked for source actions, and not on an automatic request', async () => {
     const range = { start: positionOf(NOTE, 'state OA'), end: positionOf(NOTE, 'state OA') };
-    const asked = await s.request<Action[]>('textDocument/codeAction', { textDocument: { uri: URI }, range, context: { diagnostics: [], only: ['source'] } });
+    const asked = await s.request<Action[]>('textDocument/codeAction', {
+      textDocument: { uri: URI },
+      range,
+      context: { diagnostics: [], only: ['source'] },
+    });
     expect(asked.map((a) => [a.kind, a.title])).toEqual([
       ['source.dewmark.resultsTable', 'Insert a results table below this air block'],
       ['source.dewmark.resultsTable', 'Insert or refresh the results tables of every air block (2 to insert)'],
@@ -121,17 +160,35 @@ describe('code actions and the stale-table diagnostic', () => {
     const edited = apply(NOTE, asked[0]!.edit.changes[URI]!);
     expect(edited.split('\n').slice(0, 6)).toEqual(NOTE.split('\n').slice(0, 6));
     expect(edited).toMatch(/```\n\n<!-- dewmark-results [0-9a-f]{8}: /);
-    const invoked = await s.request<Action[]>('textDocument/codeAction', { textDocument: { uri: URI }, range, context: { diagnostics: [], triggerKind: 1 } });
+    const invoked = await s.request<Action[]>('textDocument/codeAction', {
+      textDocument: { uri: URI },
+      range,
+      context: { diagnostics: [], triggerKind: 1 },
+    });
     expect(invoked.filter((a) => a.kind.startsWith('source.')).length).toBe(2);
-    const automatic = await s.request<Action[]>('textDocument/codeAction', { textDocument: { uri: URI }, range, context: { diagnostics: [], triggerKind: 2 } });
+    const automatic = await s.request<Action[]>('textDocument/codeAction', {
+      textDocument: { uri: URI },
+      range,
+      context: { diagnostics: [], triggerKind: 2 },
+    });
     expect(automatic.filter((a) => a.kind.startsWith('source.'))).toEqual([]);
-    const quickfixOnly = await s.request<Action[]>('textDocument/codeAction', { textDocument: { uri: URI }, range, context: { diagnostics: [], only: ['quickfix'], triggerKind: 1 } });
+    const quickfixOnly = await s.request<Action[]>('textDocument/codeAction', {
+      textDocument: { uri: URI },
+      range,
+      context: { diagnostics: [], only: ['quickfix'], triggerKind: 1 },
+    });
     expect(quickfixOnly).toEqual([]);
   });
 
   it('reports a stale table with its code on the start marker, and the quick fix refreshes it', async () => {
-    const r = await s.request<Result>('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri: URI }, all: true }] });
-    const stale = apply(NOTE, r.edit!.documentChanges![0]!.edits).replace('state RA: db=23C rh=50%', 'state RA: db=24C rh=50%');
+    const r = await s.request<Result>('workspace/executeCommand', {
+      command: COMMAND,
+      arguments: [{ textDocument: { uri: URI }, all: true }],
+    });
+    const stale = apply(NOTE, r.edit!.documentChanges![0]!.edits).replace(
+      'state RA: db=23C rh=50%',
+      'state RA: db=24C rh=50%',
+    );
     const uri = 'file:///work-notes/clinic-ahu1-stale.md';
     await s.open(uri, stale, 1);
     const diags = (await s.request<{ items: Diag[] }>('textDocument/diagnostic', { textDocument: { uri } })).items;
@@ -144,7 +201,11 @@ describe('code actions and the stale-table diagnostic', () => {
       expect(stale.split('\n')[d.range.start.line]).toMatch(/^<!-- dewmark-results [0-9a-f]{8}: /);
       expect(d.message).toContain('Dewmark: Insert or Refresh Results Table');
     }
-    const fixes = await s.request<Action[]>('textDocument/codeAction', { textDocument: { uri }, range: warnings[0]!.range, context: { diagnostics: [warnings[0]], only: ['quickfix'] } });
+    const fixes = await s.request<Action[]>('textDocument/codeAction', {
+      textDocument: { uri },
+      range: warnings[0]!.range,
+      context: { diagnostics: [warnings[0]], only: ['quickfix'] },
+    });
     const fix = fixes.find((a) => a.title === 'Refresh the results table below this air block');
     expect(fix?.isPreferred).toBe(true);
     expect(fix?.diagnostics?.[0]?.code).toBe('stale-results-table');
@@ -152,7 +213,12 @@ describe('code actions and the stale-table diagnostic', () => {
     expect(edits).toHaveLength(1);
     expect(edits[0]!.range.start).toEqual(warnings[0]!.range.start);
     const fixed = apply(stale, edits);
-    await s.change(uri, 2, [{ range: { start: { line: 0, character: 0 }, end: { line: stale.split('\n').length, character: 0 } }, text: fixed }]);
+    await s.change(uri, 2, [
+      {
+        range: { start: { line: 0, character: 0 }, end: { line: stale.split('\n').length, character: 0 } },
+        text: fixed,
+      },
+    ]);
     const after = (await s.request<{ items: Diag[] }>('textDocument/diagnostic', { textDocument: { uri } })).items;
     expect(after.filter((d) => d.code === 'stale-results-table')).toHaveLength(1);
   });
@@ -166,7 +232,10 @@ describe('a push-only client (like Neovim 0.7)', () => {
       expect(caps.executeCommandProvider).toEqual({ commands: [COMMAND] });
       const uri = 'file:///work-notes/push.md';
       await p.open(uri, NOTE, 1);
-      const r = await p.request<Result>('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri }, all: true }] });
+      const r = await p.request<Result>('workspace/executeCommand', {
+        command: COMMAND,
+        arguments: [{ textDocument: { uri }, all: true }],
+      });
       expect(r.edit!.documentChanges).toBeUndefined();
       const stale = apply(NOTE, r.edit!.changes![uri]!).replace('rh=90%', 'rh=88%');
       await p.open('file:///work-notes/push-stale.md', stale, 1);

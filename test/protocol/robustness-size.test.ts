@@ -60,13 +60,26 @@ describe('notes over the size limit', () => {
     const td = { textDocument: { uri } };
     const pos = { line: 6, character: 7 };
     expect(await s.request('textDocument/hover', { ...td, position: pos })).toBeNull();
-    expect(await s.request('textDocument/inlayHint', { ...td, range: { start: { line: 0, character: 0 }, end: { line: 200, character: 0 } } })).toEqual([]);
+    expect(
+      await s.request('textDocument/inlayHint', {
+        ...td,
+        range: { start: { line: 0, character: 0 }, end: { line: 200, character: 0 } },
+      }),
+    ).toEqual([]);
     expect(await s.request('textDocument/documentSymbol', td)).toEqual([]);
-    expect(await s.request('textDocument/codeAction', { ...td, range: { start: pos, end: pos }, context: { diagnostics: [] } })).toEqual([]);
+    expect(
+      await s.request('textDocument/codeAction', {
+        ...td,
+        range: { start: pos, end: pos },
+        context: { diagnostics: [] },
+      }),
+    ).toEqual([]);
     const status = await s.request<NoteStatusResult>('dewmark/noteStatus', td);
     expect(status.units).toBe('SI');
     // Typing on: still one diagnostic, for the new version.
-    await s.change(uri, 2, [{ range: { start: { line: 6, character: 0 }, end: { line: 6, character: 0 } }, text: 'x' }]);
+    await s.change(uri, 2, [
+      { range: { start: { line: 6, character: 0 }, end: { line: 6, character: 0 } }, text: 'x' },
+    ]);
     expect((await pull(uri)).map((x) => x.code)).toEqual(['note-too-large']);
     await s.connection.sendNotification('textDocument/didClose', td);
   });
@@ -81,7 +94,10 @@ describe('notes over the size limit', () => {
     await s.connection.sendNotification('workspace/didChangeConfiguration', { settings: { dewmark: settings } });
     const d = await pull(uri);
     expect(d.map((x) => x.code)).not.toContain('note-too-large');
-    const hover = await s.request<{ contents: { value: string } } | null>('textDocument/hover', { textDocument: { uri }, position: { line: 6, character: 7 } });
+    const hover = await s.request<{ contents: { value: string } } | null>('textDocument/hover', {
+      textDocument: { uri },
+      position: { line: 6, character: 7 },
+    });
     expect(hover?.contents.value).toContain('RA0');
     settings = {};
     await s.connection.sendNotification('workspace/didChangeConfiguration', { settings: { dewmark: settings } });
@@ -95,7 +111,10 @@ describe('notes over the size limit', () => {
     for (let i = 0; line.length < 1024 * 1024; i++) line += piece(i);
     await s.open(uri, line, 1);
     expect((await pull(uri)).map((x) => `${x.code}: ${x.message}`)).toEqual([]);
-    const hints = await s.request<unknown[]>('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: 0, character: 500_000 }, end: { line: 0, character: 504_000 } } });
+    const hints = await s.request<unknown[]>('textDocument/inlayHint', {
+      textDocument: { uri },
+      range: { start: { line: 0, character: 500_000 }, end: { line: 0, character: 504_000 } },
+    });
     expect(hints.length).toBeGreaterThan(10);
     await s.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
   });

@@ -13,7 +13,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { FULL_CAPABILITIES, PUSH_ONLY_CAPABILITIES, startServer, type Position, type Range, type Session } from './harness';
+import {
+  FULL_CAPABILITIES,
+  PUSH_ONLY_CAPABILITIES,
+  startServer,
+  type Position,
+  type Range,
+  type Session,
+} from './harness';
 import { fragment, fuzzConfig, note as noteArb, timeoutFor } from '../../shared-core/test/robustness-generators';
 import { analyzeText, noteDiagnostics, readSettings } from '../../shared-core/src/service';
 
@@ -50,11 +57,24 @@ interface Step {
 
 const step: fc.Arbitrary<Step> = fc.record({
   at: fc.nat(),
-  remove: fc.oneof({ weight: 3, arbitrary: fc.constant(0) }, { weight: 3, arbitrary: fc.nat({ max: 5 }) }, { weight: 1, arbitrary: fc.nat({ max: 300 }) }),
+  remove: fc.oneof(
+    { weight: 3, arbitrary: fc.constant(0) },
+    { weight: 3, arbitrary: fc.nat({ max: 5 }) },
+    { weight: 1, arbitrary: fc.nat({ max: 300 }) },
+  ),
   // Mostly typing; now and then a paste of a very long line (digits after a key, or a repeated statement).
   text: fc.oneof(
     { weight: 60, arbitrary: fragment },
-    { weight: 1, arbitrary: fc.tuple(fc.constantFrom('\nstate L: w=', '\n`state L: db=20C rh=50%` ', '\nmix M: A '), fc.constantFrom('9', 'a1', 'state Q: db=1C rh=5% '), fc.integer({ min: 5000, max: 40_000 })).map(([a, b, n]) => a + b.repeat(Math.ceil(n / b.length)).slice(0, n)) },
+    {
+      weight: 1,
+      arbitrary: fc
+        .tuple(
+          fc.constantFrom('\nstate L: w=', '\n`state L: db=20C rh=50%` ', '\nmix M: A '),
+          fc.constantFrom('9', 'a1', 'state Q: db=1C rh=5% '),
+          fc.integer({ min: 5000, max: 40_000 }),
+        )
+        .map(([a, b, n]) => a + b.repeat(Math.ceil(n / b.length)).slice(0, n)),
+    },
   ),
   requests: fc.array(fc.nat({ max: 13 }), { maxLength: 4 }),
   where: fc.array(fc.oneof(fc.nat(), fc.constant(-1), fc.constant(1 << 30)), { minLength: 3, maxLength: 3 }),
@@ -63,7 +83,9 @@ const step: fc.Arbitrary<Step> = fc.record({
 
 /** An offset moved off the middle of a CRLF pair (a position cannot address it in LSP). */
 function clean(text: string, offset: number): number {
-  return offset > 0 && offset < text.length && text.charCodeAt(offset - 1) === 13 && text.charCodeAt(offset) === 10 ? offset - 1 : offset;
+  return offset > 0 && offset < text.length && text.charCodeAt(offset - 1) === 13 && text.charCodeAt(offset) === 10
+    ? offset - 1
+    : offset;
 }
 
 function positionIn(doc: TextDocument, raw: number): Position {
@@ -80,10 +102,18 @@ interface Outcome {
 }
 
 /** The request of kind `k` at `where` on the document (or on another uri for some kinds). */
-function request(s: Session, k: number, doc: TextDocument, where: number[]): { method: string; promise: Promise<unknown> } {
+function request(
+  s: Session,
+  k: number,
+  doc: TextDocument,
+  where: number[],
+): { method: string; promise: Promise<unknown> } {
   const p0 = positionIn(doc, where[0]!);
   const p1 = positionIn(doc, where[1]!);
-  const range: Range = p0.line < p1.line || (p0.line === p1.line && p0.character <= p1.character) ? { start: p0, end: p1 } : { start: p1, end: p0 };
+  const range: Range =
+    p0.line < p1.line || (p0.line === p1.line && p0.character <= p1.character)
+      ? { start: p0, end: p1 }
+      : { start: p1, end: p0 };
   const td = { uri: k === 13 ? UNKNOWN : k === 12 ? OTHER : URI };
   const send = (method: string, params: unknown) => {
     const promise = s.request(method, params);
@@ -108,27 +138,39 @@ function request(s: Session, k: number, doc: TextDocument, where: number[]): { m
     case 7:
       return send('textDocument/prepareRename', { textDocument: td, position: p0 });
     case 8:
-      return send('textDocument/rename', { textDocument: td, position: p0, newName: where[2]! % 2 ? 'Fuzzed_1' : 'bad name!' });
+      return send('textDocument/rename', {
+        textDocument: td,
+        position: p0,
+        newName: where[2]! % 2 ? 'Fuzzed_1' : 'bad name!',
+      });
     case 9:
       return send('textDocument/diagnostic', { textDocument: td });
     case 10:
       return send('dewmark/noteStatus', { textDocument: td });
     default:
-      return send('workspace/executeCommand', { command: 'dewmark.server.resultsTables', arguments: [{ textDocument: td, all: where[2]! % 2 === 0, position: p0 }] });
+      return send('workspace/executeCommand', {
+        command: 'dewmark.server.resultsTables',
+        arguments: [{ textDocument: td, all: where[2]! % 2 === 0, position: p0 }],
+      });
   }
 }
 
 /** Allowed error answers: a request overtaken by an edit or cancelled; a rename refused with its reason. */
 function allowed(o: Outcome): boolean {
   if (o.code === -32800 || o.code === -32801) return true;
-  return o.code === -32600 && (o.method === 'textDocument/rename' || o.method === 'textDocument/prepareRename') && (o.message ?? '').length > 20;
+  return (
+    o.code === -32600 &&
+    (o.method === 'textDocument/rename' || o.method === 'textDocument/prepareRename') &&
+    (o.message ?? '').length > 20
+  );
 }
 
 async function settle(pending: { method: string; promise: Promise<unknown> }[], outcomes: Outcome[]): Promise<void> {
   const all = pending.splice(0).map(({ method, promise }) =>
     promise.then(
       () => outcomes.push({ method, ok: true }),
-      (err: { code?: number; message?: string }) => outcomes.push({ method, ok: false, code: err.code, message: err.message }),
+      (err: { code?: number; message?: string }) =>
+        outcomes.push({ method, ok: false, code: err.code, message: err.message }),
     ),
   );
   let timer: ReturnType<typeof setTimeout> | undefined;
@@ -146,15 +188,25 @@ async function settle(pending: { method: string; promise: Promise<unknown> }[], 
 function localDiagnostics(text: string): string[] {
   const doc = TextDocument.create(URI, 'markdown', 1, text);
   const note = analyzeText(text, readSettings(SETTINGS).settings);
-  return noteDiagnostics(note).map((d) => JSON.stringify([d.code, doc.positionAt(d.span.start), doc.positionAt(d.span.end), d.message]));
+  return noteDiagnostics(note).map((d) =>
+    JSON.stringify([d.code, doc.positionAt(d.span.start), doc.positionAt(d.span.end), d.message]),
+  );
 }
 
 function wireDiagnostics(items: { code?: string | number; range: Range; message: string }[]): string[] {
   return items.map((d) => JSON.stringify([d.code, d.range.start, d.range.end, d.message]));
 }
 
-async function fuzzSession(s: Session, pull: boolean, count: number, seed: number): Promise<{ outcomes: Outcome[]; edits: number; text: string }> {
-  const [start] = fc.sample(noteArb.filter((t) => t.length < 20_000), { seed, numRuns: 1 });
+async function fuzzSession(
+  s: Session,
+  pull: boolean,
+  count: number,
+  seed: number,
+): Promise<{ outcomes: Outcome[]; edits: number; text: string }> {
+  const [start] = fc.sample(
+    noteArb.filter((t) => t.length < 20_000),
+    { seed, numRuns: 1 },
+  );
   const steps = fc.sample(step, { seed: seed + 1, numRuns: count });
   let text = start!;
   let version = 1;
@@ -176,7 +228,9 @@ async function fuzzSession(s: Session, pull: boolean, count: number, seed: numbe
     const now = TextDocument.create(URI, 'markdown', version, text);
     for (const k of e.requests) pending.push(request(s, k, now, e.where));
     if (e.extra === 0) {
-      await s.connection.sendNotification('workspace/didChangeConfiguration', { settings: { dewmark: ODD_SETTINGS[i % ODD_SETTINGS.length] } });
+      await s.connection.sendNotification('workspace/didChangeConfiguration', {
+        settings: { dewmark: ODD_SETTINGS[i % ODD_SETTINGS.length] },
+      });
     } else if (e.extra === 1) {
       if (otherOpen) await s.connection.sendNotification('textDocument/didClose', { textDocument: { uri: OTHER } });
       else await s.open(OTHER, 'state Z: db=24C rh=50%\r\n```air\nstate Y: db=20C wb=25C\n', 1);
@@ -188,16 +242,26 @@ async function fuzzSession(s: Session, pull: boolean, count: number, seed: numbe
   // Back to the fixed settings, then the final text must be the server's text.
   await s.connection.sendNotification('workspace/didChangeConfiguration', { settings: { dewmark: SETTINGS } });
   if (pull) {
-    const report = await s.request<{ kind: string; items: { code?: string; range: Range; message: string }[] }>('textDocument/diagnostic', { textDocument: { uri: URI } });
+    const report = await s.request<{ kind: string; items: { code?: string; range: Range; message: string }[] }>(
+      'textDocument/diagnostic',
+      { textDocument: { uri: URI } },
+    );
     expect(report.kind).toBe('full');
     expect(wireDiagnostics(report.items)).toEqual(localDiagnostics(text));
   } else {
     // Push: after the last edit and the settings change, the latest push for the last version.
-    await s.until('diagnostics after the settings change', () => s.published.filter((p) => p.uri === URI && p.version === version).length >= 1);
+    await s.until(
+      'diagnostics after the settings change',
+      () => s.published.filter((p) => p.uri === URI && p.version === version).length >= 1,
+    );
     const expected = localDiagnostics(text);
     const last = await s.until('the pushed diagnostics to match', () => {
       const latest = [...s.published].reverse().find((p) => p.uri === URI);
-      return latest && latest.version === version && JSON.stringify(wireDiagnostics(latest.diagnostics)) === JSON.stringify(expected) ? latest : undefined;
+      return latest &&
+        latest.version === version &&
+        JSON.stringify(wireDiagnostics(latest.diagnostics)) === JSON.stringify(expected)
+        ? latest
+        : undefined;
     });
     expect(wireDiagnostics(last.diagnostics)).toEqual(expected);
   }
@@ -230,27 +294,41 @@ describe('random edits through the real protocol', () => {
     }
   });
 
-  it(`${cfg.protocolEdits} edits with racing requests (pull diagnostics, seed ${cfg.seed}): every request answered, the server's text is the client's`, async () => {
-    const t0 = performance.now();
-    const r = await fuzzSession(s, true, cfg.protocolEdits, cfg.seed + 10);
-    const sum = summarize(r.outcomes);
-    console.log(
-      `[protocol] ${r.edits} edits, ${sum.answered} requests answered in ${((performance.now() - t0) / 1000).toFixed(1)} s (final note ${r.text.length} characters); by method ${JSON.stringify(sum.byMethod)}`,
-    );
-    expect(sum.errors.map((e) => `${e.method} ${e.code} ${e.message}`), 'no internal errors').toEqual([]);
-    expect(sum.answered).toBeGreaterThan(cfg.protocolEdits / 2);
-    expect(Object.keys(sum.byMethod).length, 'every request kind was sent').toBeGreaterThanOrEqual(12);
-    expect(s.proc.exitCode, 'the server is still running').toBeNull();
-    expect(s.logs.filter((l) => / failed/.test(l)), 'no handler failure logged').toEqual([]);
-  }, timeoutFor(cfg.protocolEdits, 100));
+  it(
+    `${cfg.protocolEdits} edits with racing requests (pull diagnostics, seed ${cfg.seed}): every request answered, the server's text is the client's`,
+    async () => {
+      const t0 = performance.now();
+      const r = await fuzzSession(s, true, cfg.protocolEdits, cfg.seed + 10);
+      const sum = summarize(r.outcomes);
+      console.log(
+        `[protocol] ${r.edits} edits, ${sum.answered} requests answered in ${((performance.now() - t0) / 1000).toFixed(1)} s (final note ${r.text.length} characters); by method ${JSON.stringify(sum.byMethod)}`,
+      );
+      expect(
+        sum.errors.map((e) => `${e.method} ${e.code} ${e.message}`),
+        'no internal errors',
+      ).toEqual([]);
+      expect(sum.answered).toBeGreaterThan(cfg.protocolEdits / 2);
+      expect(Object.keys(sum.byMethod).length, 'every request kind was sent').toBeGreaterThanOrEqual(12);
+      expect(s.proc.exitCode, 'the server is still running').toBeNull();
+      expect(
+        s.logs.filter((l) => / failed/.test(l)),
+        'no handler failure logged',
+      ).toEqual([]);
+    },
+    timeoutFor(cfg.protocolEdits, 100),
+  );
 
-  it(`${Math.ceil(cfg.protocolEdits / 3)} edits to a push-only client (like Neovim 0.7): the last push is the diagnostics of the client's text`, async () => {
-    const r = await fuzzSession(push, false, Math.ceil(cfg.protocolEdits / 3), cfg.seed + 20);
-    const sum = summarize(r.outcomes);
-    expect(sum.errors.map((e) => `${e.method} ${e.code} ${e.message}`)).toEqual([]);
-    expect(push.proc.exitCode).toBeNull();
-    expect(push.logs.filter((l) => / failed/.test(l))).toEqual([]);
-  }, timeoutFor(cfg.protocolEdits, 100));
+  it(
+    `${Math.ceil(cfg.protocolEdits / 3)} edits to a push-only client (like Neovim 0.7): the last push is the diagnostics of the client's text`,
+    async () => {
+      const r = await fuzzSession(push, false, Math.ceil(cfg.protocolEdits / 3), cfg.seed + 20);
+      const sum = summarize(r.outcomes);
+      expect(sum.errors.map((e) => `${e.method} ${e.code} ${e.message}`)).toEqual([]);
+      expect(push.proc.exitCode).toBeNull();
+      expect(push.logs.filter((l) => / failed/.test(l))).toEqual([]);
+    },
+    timeoutFor(cfg.protocolEdits, 100),
+  );
 
   it('both servers shut down cleanly afterwards (exit code 0)', async () => {
     expect(await s.shutdown()).toBe(0);

@@ -19,11 +19,17 @@ import { AUDIT_PRELOAD as AUDIT, auditRecords, snapshot } from './audit';
 let dir = '';
 
 beforeAll(() => {
-  const b = spawnSync(process.execPath, [join(repoRoot(), 'scripts', 'build.mjs')], { cwd: repoRoot(), encoding: 'utf8' });
+  const b = spawnSync(process.execPath, [join(repoRoot(), 'scripts', 'build.mjs')], {
+    cwd: repoRoot(),
+    encoding: 'utf8',
+  });
   if (b.status !== 0) throw new Error(`build failed: ${b.stderr}`);
   dir = mkdtempSync(join(tmpdir(), 'dewmark-io-'));
   mkdirSync(join(dir, 'calcs'));
-  writeFileSync(join(dir, 'calcs', 'ahu-1.md'), '# AHU-1\n\n```air\nstate OA: db=32C wb=23C\nstate RA: db=24C rh=50%\nmix MA: OA 30% + RA 70%\n```\n');
+  writeFileSync(
+    join(dir, 'calcs', 'ahu-1.md'),
+    '# AHU-1\n\n```air\nstate OA: db=32C wb=23C\nstate RA: db=24C rh=50%\nmix MA: OA 30% + RA 70%\n```\n',
+  );
   writeFileSync(join(dir, 'calcs', 'bad.md'), '```air\nstate X: db=20C wb=25C\n```\n');
   writeFileSync(join(dir, 'readme.txt'), 'not a note');
 }, 120_000);
@@ -49,7 +55,16 @@ describe('the I/O audit preload', () => {
     expect(r.status).toBe(0);
     expect(r.stderr).toContain('[io-audit-ready]');
     const calls = auditRecords(r.stderr).map((x) => `${x.kind}:${x.call}`);
-    expect(calls).toEqual(expect.arrayContaining(['file:writeFileSync', 'file:openSync', 'network:connect', 'network:listen', 'process:spawnSync', 'file:rmSync']));
+    expect(calls).toEqual(
+      expect.arrayContaining([
+        'file:writeFileSync',
+        'file:openSync',
+        'network:connect',
+        'network:listen',
+        'process:spawnSync',
+        'file:rmSync',
+      ]),
+    );
     expect(calls.filter((c) => c.startsWith('file:open')).length, 'a read-only open is not recorded').toBe(1);
   });
 });
@@ -57,8 +72,14 @@ describe('the I/O audit preload', () => {
 describe('the language server under the audit', () => {
   it('a full session (every request, edits, settings, the workspace check, shutdown) makes no connection, writes nothing, starts nothing', async () => {
     const before = snapshot(dir);
-    const proc = spawn(process.execPath, ['--require', AUDIT, serverBin(), '--stdio'], { cwd: dir, stdio: ['pipe', 'pipe', 'pipe'] });
-    const s = new Session(proc, createMessageConnection(new StreamMessageReader(proc.stdout!), new StreamMessageWriter(proc.stdin!)));
+    const proc = spawn(process.execPath, ['--require', AUDIT, serverBin(), '--stdio'], {
+      cwd: dir,
+      stdio: ['pipe', 'pipe', 'pipe'],
+    });
+    const s = new Session(
+      proc,
+      createMessageConnection(new StreamMessageReader(proc.stdout!), new StreamMessageWriter(proc.stdin!)),
+    );
     try {
       s.configuration = () => ({ units: 'SI', precision: 1 });
       const folder = pathToFileURL(dir).href;
@@ -81,11 +102,18 @@ describe('the language server under the audit', () => {
         s.request('textDocument/prepareRename', { ...td, position: pos }),
         s.request('textDocument/rename', { ...td, position: pos, newName: 'OUT' }),
         s.request('dewmark/noteStatus', td),
-        s.request('workspace/executeCommand', { command: 'dewmark.server.resultsTables', arguments: [{ textDocument: { uri }, all: true }] }),
+        s.request('workspace/executeCommand', {
+          command: 'dewmark.server.resultsTables',
+          arguments: [{ textDocument: { uri }, all: true }],
+        }),
       ]);
       expect(answers.filter((a) => a !== null).length).toBeGreaterThan(8);
-      await s.change(uri, 2, [{ range: { start: { line: 3, character: 13 }, end: { line: 3, character: 15 } }, text: '35' }]);
-      await s.connection.sendNotification('workspace/didChangeConfiguration', { settings: { dewmark: { units: 'IP' } } });
+      await s.change(uri, 2, [
+        { range: { start: { line: 3, character: 13 }, end: { line: 3, character: 15 } }, text: '35' },
+      ]);
+      await s.connection.sendNotification('workspace/didChangeConfiguration', {
+        settings: { dewmark: { units: 'IP' } },
+      });
       const checked = await s.request<CheckWorkspaceResult>('dewmark/checkWorkspace', {});
       expect(checked.filesRead).toBe(2); // read, not written
       expect(checked.errors).toBeGreaterThan(0);

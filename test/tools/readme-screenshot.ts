@@ -18,13 +18,20 @@ const NOTE = 'kestrel-ridge-ahu1.md';
 async function main(): Promise<void> {
   const work = mkdtempSync(join(tmpdir(), 'dewmark-shot-'));
   const vsix = join(work, 'dewmark.vsix');
-  const r = spawnSync(process.execPath, [join(root, 'client', 'package-vsix.mjs'), '--no-build', '--out', vsix], { cwd: root, stdio: 'inherit' });
+  const r = spawnSync(process.execPath, [join(root, 'client', 'package-vsix.mjs'), '--no-build', '--out', vsix], {
+    cwd: root,
+    stdio: 'inherit',
+  });
   if (r.status !== 0) throw new Error('packaging failed (run npm run build first)');
   const session = await startSession(
     {
       extensions: [vsix],
       files: { [NOTE]: readFileSync(join(root, 'examples', NOTE), 'utf8') },
-      settings: { '[markdown]': { 'editor.wordWrap': 'off' }, 'workbench.sideBar.location': 'left', 'editor.fontSize': 13 },
+      settings: {
+        '[markdown]': { 'editor.wordWrap': 'off' },
+        'workbench.sideBar.location': 'left',
+        'editor.fontSize': 13,
+      },
     },
     { name: 'readme-screenshot', viewport: { width: 1360, height: 820 } },
   );

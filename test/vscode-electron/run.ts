@@ -28,8 +28,13 @@ const NOT_PASSED = 3;
 
 /** True when an error means "no network / download impossible" rather than a real failure. */
 function isDownloadFailure(err: unknown): boolean {
-  const text = err instanceof Error ? `${err.message} ${String((err as { code?: unknown }).code ?? '')} ${String(err.cause ?? '')}` : String(err);
-  return /ENOTFOUND|EAI_AGAIN|ECONNREFUSED|ECONNRESET|ETIMEDOUT|ENETUNREACH|EHOSTUNREACH|getaddrinfo|fetch failed|socket hang up|timed? ?out|Failed to get|download/i.test(text);
+  const text =
+    err instanceof Error
+      ? `${err.message} ${String((err as { code?: unknown }).code ?? '')} ${String(err.cause ?? '')}`
+      : String(err);
+  return /ENOTFOUND|EAI_AGAIN|ECONNREFUSED|ECONNRESET|ETIMEDOUT|ENETUNREACH|EHOSTUNREACH|getaddrinfo|fetch failed|socket hang up|timed? ?out|Failed to get|download/i.test(
+    text,
+  );
 }
 
 function notRun(reason: string): never {
@@ -70,7 +75,10 @@ async function main(): Promise<void> {
 
   const outDir = join(root, 'dist', 'vscode-electron');
   await build({
-    entryPoints: [join(root, 'test', 'vscode-electron', 'suite', 'index.ts'), join(root, 'test', 'vscode-electron', 'suite', 'extension.spec.ts')],
+    entryPoints: [
+      join(root, 'test', 'vscode-electron', 'suite', 'index.ts'),
+      join(root, 'test', 'vscode-electron', 'suite', 'extension.spec.ts'),
+    ],
     outdir: outDir,
     bundle: true,
     platform: 'node',
@@ -88,7 +96,8 @@ async function main(): Promise<void> {
     try {
       vscodeExecutablePath = await downloadAndUnzipVSCode({ version, cachePath, timeout: 20_000 });
     } catch (err) {
-      if (isDownloadFailure(err)) notRun(`could not download VS Code ${version}: ${err instanceof Error ? err.message : String(err)}`);
+      if (isDownloadFailure(err))
+        notRun(`could not download VS Code ${version}: ${err instanceof Error ? err.message : String(err)}`);
       throw err;
     }
   }
@@ -115,7 +124,15 @@ async function main(): Promise<void> {
       vscodeExecutablePath,
       extensionDevelopmentPath: root,
       extensionTestsPath: join(outDir, 'index.js'),
-      launchArgs: [ws, '--disable-extensions', '--user-data-dir', userData, '--skip-welcome', '--skip-release-notes', '--disable-workspace-trust'],
+      launchArgs: [
+        ws,
+        '--disable-extensions',
+        '--user-data-dir',
+        userData,
+        '--skip-welcome',
+        '--skip-release-notes',
+        '--disable-workspace-trust',
+      ],
     });
     console.log('vscode-electron: the integration suite passed in VS Code');
   } finally {

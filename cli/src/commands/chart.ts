@@ -5,7 +5,11 @@ import type { CliIO } from '../run';
 import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, type WriteOptions } from './outputFile';
 
 /** The chart of a note as a standalone SVG document (XML declaration, then the `<svg>`). */
-export function chartSvgDocument(note: { path: string; text: string; analysis: Parameters<typeof renderChart>[0] }): string {
+export function chartSvgDocument(note: {
+  path: string;
+  text: string;
+  analysis: Parameters<typeof renderChart>[0];
+}): string {
   return `<?xml version="1.0" encoding="UTF-8"?>\n${renderChart(note.analysis, { source: note.text, title: `Psychrometric chart — ${note.path}` })}\n`;
 }
 
@@ -20,7 +24,12 @@ export async function runChart(paths: string[], opts: WriteOptions, io: CliIO): 
 }
 
 /** Adds the `chart` command to the program. */
-export function registerChart(prog: Command, io: CliIO, onResult: (code: number) => void, addCommon: (c: Command) => Command): void {
+export function registerChart(
+  prog: Command,
+  io: CliIO,
+  onResult: (code: number) => void,
+  addCommon: (c: Command) => Command,
+): void {
   addCommon(
     prog
       .command('chart')

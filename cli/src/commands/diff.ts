@@ -12,7 +12,16 @@ import { existsSync, realpathSync } from 'node:fs';
 import { isAbsolute, join, relative, sep } from 'node:path';
 import type { Command } from 'commander';
 import { MARKDOWN, collectInputs, decodeText, explainEmpty, readInput } from '@dewmark/files';
-import { analyzeNote, processRow, stateRow, type Analysis, type EvaluateSettings, type ProcessResult, type StateResult, type UnitSystem } from '../core';
+import {
+  analyzeNote,
+  processRow,
+  stateRow,
+  type Analysis,
+  type EvaluateSettings,
+  type ProcessResult,
+  type StateResult,
+  type UnitSystem,
+} from '../core';
 import { LineIndex } from '../core';
 import type { CliIO } from '../run';
 import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from '../settings';
@@ -98,8 +107,7 @@ function shownItems(text: string, a: Analysis): Map<string, ShownItem> {
   for (const item of a.items) {
     const span = item.statement.name?.span ?? item.statement.span;
     const line = lines.lineCol(span.start).line;
-    const figures: Shown[] =
-      item.kind === 'process' ? processShown(item, a.units) : stateShown(item, a.units);
+    const figures: Shown[] = item.kind === 'process' ? processShown(item, a.units) : stateShown(item, a.units);
     const claims = item.claims.map((c) => ({
       key: c.key,
       written: text.slice(c.prop.span.start, c.prop.span.end).replace(/\s+/g, ' '),
@@ -166,7 +174,8 @@ function pairClaims(oldClaims: ShownClaim[], newClaims: ShownClaim[]): ClaimChan
     if (o) used.add(o);
     out.push({ key: n.key, written: n.written, line: n.line, old: claimSide(o), new: claimSide(n) });
   }
-  for (const o of oldClaims) if (!used.has(o)) out.push({ key: o.key, written: o.written, line: o.line, old: claimSide(o), new: null });
+  for (const o of oldClaims)
+    if (!used.has(o)) out.push({ key: o.key, written: o.written, line: o.line, old: claimSide(o), new: null });
   return out;
 }
 
@@ -199,11 +208,13 @@ export function compareNotes(oldText: string, oldA: Analysis, newText: string, n
       figures.push({ key: f.key, old: was, new: f.text, claims: claims.filter((c) => c.key === f.key) });
     }
     const other = claims.filter((c) => !onFigure.has(c.key) && claimChanged(c));
-    if (figures.length > 0 || other.length > 0) out.push({ name, kind: n.kind, status: 'changed', line: n.line, figures, claims: other });
+    if (figures.length > 0 || other.length > 0)
+      out.push({ name, kind: n.kind, status: 'changed', line: n.line, figures, claims: other });
   }
   for (const [name, o] of before) {
     const n = after.get(name);
-    if (!n || n.kind !== o.kind) out.push({ name, kind: o.kind, status: 'removed', line: o.line, figures: [], claims: [] });
+    if (!n || n.kind !== o.kind)
+      out.push({ name, kind: o.kind, status: 'removed', line: o.line, figures: [], claims: [] });
   }
   return out;
 }
@@ -218,13 +229,29 @@ class GitProblem extends Error {}
 /** Runs git with an argument array (no shell) in `cwd`; resolves to stdout as bytes. */
 function git(args: string[], cwd: string, maxBuffer = 64 * 1024 * 1024): Promise<Buffer> {
   return new Promise((resolve, reject) => {
-    execFile('git', args, { cwd, encoding: 'buffer', maxBuffer, windowsHide: true, env: { ...process.env, GIT_TERMINAL_PROMPT: '0', LC_ALL: 'C' } }, (err, stdout, stderr) => {
-      if (!err) return resolve(stdout);
-      const e = err as NodeJS.ErrnoException & { code?: unknown };
-      if (e.code === 'ENOENT') return reject(new GitProblem('git was not found on PATH; dewmark diff reads old note text with git (install git, or add it to PATH)'));
-      const why = Buffer.isBuffer(stderr) ? stderr.toString('utf8').trim().split('\n')[0] : '';
-      reject(Object.assign(new GitProblem(why || e.message), { stderr: why }));
-    });
+    execFile(
+      'git',
+      args,
+      {
+        cwd,
+        encoding: 'buffer',
+        maxBuffer,
+        windowsHide: true,
+        env: { ...process.env, GIT_TERMINAL_PROMPT: '0', LC_ALL: 'C' },
+      },
+      (err, stdout, stderr) => {
+        if (!err) return resolve(stdout);
+        const e = err as NodeJS.ErrnoException & { code?: unknown };
+        if (e.code === 'ENOENT')
+          return reject(
+            new GitProblem(
+              'git was not found on PATH; dewmark diff reads old note text with git (install git, or add it to PATH)',
+            ),
+          );
+        const why = Buffer.isBuffer(stderr) ? stderr.toString('utf8').trim().split('\n')[0] : '';
+        reject(Object.assign(new GitProblem(why || e.message), { stderr: why }));
+      },
+    );
   });
 }
 
@@ -234,17 +261,24 @@ async function topLevel(cwd: string): Promise<string> {
     return (await git(['rev-parse', '--show-toplevel'], cwd)).toString('utf8').trim();
   } catch (err) {
     if (err instanceof GitProblem && /git was not found/.test(err.message)) throw err;
-    throw new GitProblem(`'${cwd}' is not inside a git repository; run dewmark diff in a clone of the notes' repository (git init, or cd into one)`);
+    throw new GitProblem(
+      `'${cwd}' is not inside a git repository; run dewmark diff in a clone of the notes' repository (git init, or cd into one)`,
+    );
   }
 }
 
 /** The full commit id of `rev`; a clear problem for an unknown revision. */
 async function resolveRevision(rev: string, cwd: string): Promise<string> {
-  if (rev.startsWith('-') || rev.length === 0) throw new UsageError(`'${rev}' is not a revision; give a commit, branch or tag such as HEAD, HEAD~1 or main (files go after --)`);
+  if (rev.startsWith('-') || rev.length === 0)
+    throw new UsageError(
+      `'${rev}' is not a revision; give a commit, branch or tag such as HEAD, HEAD~1 or main (files go after --)`,
+    );
   try {
     return (await git(['rev-parse', '--verify', '--quiet', `${rev}^{commit}`], cwd)).toString('utf8').trim();
   } catch {
-    throw new GitProblem(`unknown revision '${rev}': no commit of that name in this repository (try HEAD, HEAD~1, a branch, a tag or a commit id; git log --oneline lists commits)`);
+    throw new GitProblem(
+      `unknown revision '${rev}': no commit of that name in this repository (try HEAD, HEAD~1, a branch, a tag or a commit id; git log --oneline lists commits)`,
+    );
   }
 }
 
@@ -284,7 +318,12 @@ interface DiffResult {
 }
 
 /** Compares the notes of `paths` (default: the current folder) at `rev` with the working tree. */
-async function diffNotes(rev: string, paths: string[], opts: DiffOptions, io: CliIO): Promise<{ result: DiffResult; problems: string[] }> {
+async function diffNotes(
+  rev: string,
+  paths: string[],
+  opts: DiffOptions,
+  io: CliIO,
+): Promise<{ result: DiffResult; problems: string[] }> {
   const settings: Partial<EvaluateSettings> = toSettings(opts);
   const maxBytes = maxNoteBytes(opts);
   const top = realpathSync(await topLevel(io.cwd));
@@ -294,7 +333,13 @@ async function diffNotes(rev: string, paths: string[], opts: DiffOptions, io: Cl
   // The working tree: existing paths go through the same selection as check and eval; a path
   // given by name that no longer exists may be a deleted note (looked up at the revision).
   const existing = paths.filter((p) => existsSync(join(io.cwd, p)) || /[*?[{]/.test(p));
-  const { inputs, problems: inputProblems, empty } = existing.length > 0 || paths.length === 0 ? collectInputs(existing, { cwd: io.cwd, gitignore: opts.gitignore !== false, exclude: opts.exclude ?? [] }) : { inputs: [], problems: [], empty: [] };
+  const {
+    inputs,
+    problems: inputProblems,
+    empty,
+  } = existing.length > 0 || paths.length === 0
+    ? collectInputs(existing, { cwd: io.cwd, gitignore: opts.gitignore !== false, exclude: opts.exclude ?? [] })
+    : { inputs: [], problems: [], empty: [] };
   for (const p of inputProblems) problems.push(p.message);
   const now = new Map<string, { display: string; abs: string }>();
   for (const input of inputs) {
@@ -303,13 +348,18 @@ async function diffNotes(rev: string, paths: string[], opts: DiffOptions, io: Cl
       continue;
     }
     const rp = repoPath(top, input.abs);
-    if (rp === null) problems.push(`'${input.display}' is outside the git repository at '${top}'; only files of the repository have an old version`);
+    if (rp === null)
+      problems.push(
+        `'${input.display}' is outside the git repository at '${top}'; only files of the repository have an old version`,
+      );
     else now.set(rp, { display: input.display, abs: input.abs });
   }
   const then = await notesAt(commit, paths, io.cwd);
   if (now.size === 0 && then.length === 0 && problems.length === 0) {
     const why = explainEmpty(empty);
-    problems.push(`no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${p}'`).join(', ') : 'the current folder'} at ${rev} or in the working tree${why.length > 0 ? `; ${why.join('; ')}` : ''}`);
+    problems.push(
+      `no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${p}'`).join(', ') : 'the current folder'} at ${rev} or in the working tree${why.length > 0 ? `; ${why.join('; ')}` : ''}`,
+    );
   }
 
   const files: FileChange[] = [];
@@ -332,7 +382,11 @@ async function diffNotes(rev: string, paths: string[], opts: DiffOptions, io: Cl
       oldBytes = await git(['show', `${commit}:${rp}`], top, maxBytes + 1);
     } catch (err) {
       const tooLarge = err instanceof Error && /maxBuffer/i.test(err.message);
-      problems.push(tooLarge ? `'${f.display}' at ${rev} is larger than --max-note-size (${(maxBytes / 1048576).toFixed(0)} MB); raise --max-note-size to compare it` : `'${f.display}' could not be read at ${rev}: ${err instanceof Error ? err.message : String(err)}`);
+      problems.push(
+        tooLarge
+          ? `'${f.display}' at ${rev} is larger than --max-note-size (${(maxBytes / 1048576).toFixed(0)} MB); raise --max-note-size to compare it`
+          : `'${f.display}' could not be read at ${rev}: ${err instanceof Error ? err.message : String(err)}`,
+      );
       continue;
     }
     const old = decodeText(oldBytes, `${f.display} at ${rev}`, maxBytes);
@@ -398,7 +452,12 @@ export function diffText(r: DiffResult): string {
     }
     t += '\n';
   }
-  const parts = [`${count.changed} note${count.changed === 1 ? '' : 's'} changed`, `${count.added} added`, `${count.deleted} deleted`, `${figures} figure${figures === 1 ? '' : 's'} changed`];
+  const parts = [
+    `${count.changed} note${count.changed === 1 ? '' : 's'} changed`,
+    `${count.added} added`,
+    `${count.deleted} deleted`,
+    `${figures} figure${figures === 1 ? '' : 's'} changed`,
+  ];
   t += `${parts.join(', ')} (${r.compared} compared with ${safeText(r.revision)} ${r.commit.slice(0, 12)})\n`;
   return t;
 }
@@ -432,15 +491,23 @@ function splitOperands(operands: string[], raw: readonly string[]): { rev: strin
   const before = operands.slice(0, operands.length - nFiles);
   const files = operands.slice(operands.length - nFiles);
   if (before.length > 1) {
-    throw new UsageError(`dewmark diff takes one revision, then files after --: e.g. dewmark diff ${before[0]} -- ${before.slice(1).join(' ')}`);
+    throw new UsageError(
+      `dewmark diff takes one revision, then files after --: e.g. dewmark diff ${before[0]} -- ${before.slice(1).join(' ')}`,
+    );
   }
   return { rev: before[0] ?? 'HEAD', files };
 }
 
 /** Runs `dewmark diff`. Exit codes: 0 compared (1 with --exit-code when a figure changed), 2 usage, git or I/O problems. */
-export async function runDiff(operands: string[], raw: readonly string[], opts: DiffOptions, io: CliIO): Promise<number> {
+export async function runDiff(
+  operands: string[],
+  raw: readonly string[],
+  opts: DiffOptions,
+  io: CliIO,
+): Promise<number> {
   const format = opts.format ?? 'text';
-  if (!(DIFF_FORMATS as readonly string[]).includes(format)) throw new UsageError(`--format must be ${DIFF_FORMATS.join(' or ')} for diff, not '${format}'`);
+  if (!(DIFF_FORMATS as readonly string[]).includes(format))
+    throw new UsageError(`--format must be ${DIFF_FORMATS.join(' or ')} for diff, not '${format}'`);
   const { rev, files } = splitOperands(operands, raw);
   let found: Awaited<ReturnType<typeof diffNotes>>;
   try {
@@ -478,12 +545,20 @@ Examples:
 `;
 
 /** Adds the `diff` command to the program. */
-export function registerDiff(prog: Command, io: CliIO, onResult: (code: number) => void, addCommon: (c: Command) => Command): void {
+export function registerDiff(
+  prog: Command,
+  io: CliIO,
+  onResult: (code: number) => void,
+  addCommon: (c: Command) => Command,
+): void {
   addCommon(
     prog
       .command('diff')
       .description('list the computed figures that changed between a git revision (default HEAD) and the working tree')
-      .argument('[rev-and-files...]', 'REV (default HEAD), then -- and Markdown files, folders or globs (default: the current folder)')
+      .argument(
+        '[rev-and-files...]',
+        'REV (default HEAD), then -- and Markdown files, folders or globs (default: the current folder)',
+      )
       .usage('[options] [REV] [-- FILES...]')
       .option('--format <format>', 'text or json', 'text')
       .option('--exit-code', 'exit 1 when anything changed (as git diff --exit-code)')

@@ -14,7 +14,13 @@
  */
 import type { Command } from 'commander';
 import { readFileSync, writeFileSync } from 'node:fs';
-import { analyzeNote, DEFAULT_SERVICE_SETTINGS, resultsTableEdits, type Analysis, type EvaluateSettings } from '../core';
+import {
+  analyzeNote,
+  DEFAULT_SERVICE_SETTINGS,
+  resultsTableEdits,
+  type Analysis,
+  type EvaluateSettings,
+} from '../core';
 import { unifiedDiff } from '../diff';
 import { collectInputs, decodeText, readInput, type Input } from '@dewmark/files';
 import type { CliIO } from '../run';
@@ -54,7 +60,12 @@ function applyEdits(text: string, edits: Edit[]): { text: string; applied: numbe
 }
 
 function isSpan(x: unknown): x is { start: number; end: number } {
-  return typeof x === 'object' && x !== null && typeof (x as { start: unknown }).start === 'number' && typeof (x as { end: unknown }).end === 'number';
+  return (
+    typeof x === 'object' &&
+    x !== null &&
+    typeof (x as { start: unknown }).start === 'number' &&
+    typeof (x as { end: unknown }).end === 'number'
+  );
 }
 
 /** The claim rewrites the evaluator proposes (its quick-fix data on each `claim-mismatch`). */
@@ -64,7 +75,8 @@ function claimEdits(analysis: Analysis): Edit[] {
     if (d.code !== 'claim-mismatch') continue;
     const span = d.data?.replaceSpan;
     const replacement = d.data?.replacement;
-    if (isSpan(span) && typeof replacement === 'string') out.push({ start: span.start, end: span.end, text: replacement });
+    if (isSpan(span) && typeof replacement === 'string')
+      out.push({ start: span.start, end: span.end, text: replacement });
   }
   return out;
 }
@@ -72,7 +84,9 @@ function claimEdits(analysis: Analysis): Edit[] {
 /** The refreshes of results tables that no longer match their block (never inserts a new one). */
 function tableEdits(text: string, analysis: Analysis): Edit[] {
   const plan = resultsTableEdits({ text, analysis, settings: DEFAULT_SERVICE_SETTINGS }, { kind: 'all' });
-  return plan.changes.flatMap((c) => (c.kind === 'refresh' && c.edit ? [{ start: c.edit.span.start, end: c.edit.span.end, text: c.edit.newText }] : []));
+  return plan.changes.flatMap((c) =>
+    c.kind === 'refresh' && c.edit ? [{ start: c.edit.span.start, end: c.edit.span.end, text: c.edit.newText }] : [],
+  );
 }
 
 /** The outcome of fixing one note's text. */
@@ -103,15 +117,24 @@ function plural(n: number, word: string): string {
 /** Runs `dewmark fix`. */
 export async function runFix(paths: string[], opts: FixOptions, io: CliIO): Promise<number> {
   const settings = toSettings(opts);
-  if (opts.write && paths.includes('-')) throw new UsageError('fix --write cannot write to standard input; give the note as a file, or leave out --write to see the diff');
-  const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false, exclude: opts.exclude ?? [] });
+  if (opts.write && paths.includes('-'))
+    throw new UsageError(
+      'fix --write cannot write to standard input; give the note as a file, or leave out --write to see the diff',
+    );
+  const { inputs, problems } = collectInputs(paths, {
+    cwd: io.cwd,
+    gitignore: opts.gitignore !== false,
+    exclude: opts.exclude ?? [],
+  });
   let ioProblems = 0;
   for (const p of problems) {
     io.err(`dewmark: ${safeText(p.message)}\n`);
     ioProblems++;
   }
   if (inputs.length === 0 && problems.length === 0) {
-    io.err(`dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}\n`);
+    io.err(
+      `dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}\n`,
+    );
     return 2;
   }
   let changedFiles = 0;
@@ -144,7 +167,9 @@ export async function runFix(paths: string[], opts: FixOptions, io: CliIO): Prom
       try {
         writeFileSync(input.abs, (hasBom ? BOM : '') + r.text, 'utf8');
       } catch (err) {
-        io.err(`dewmark: cannot write '${safeText(input.display)}': ${err instanceof Error ? err.message : String(err)}\n`);
+        io.err(
+          `dewmark: cannot write '${safeText(input.display)}': ${err instanceof Error ? err.message : String(err)}\n`,
+        );
         ioProblems++;
       }
     } else {
@@ -153,15 +178,25 @@ export async function runFix(paths: string[], opts: FixOptions, io: CliIO): Prom
   }
   if (out) io.out(out);
   const what = `${plural(claims, 'stale claim')} and ${plural(tables, 'results table')} in ${plural(changedFiles, 'file')}`;
-  const summary = changedFiles === 0 ? 'nothing to fix' : opts.write ? `fixed ${what}` : `would fix ${what} (run with --write to apply)`;
-  io.err(`dewmark: ${summary}${left > 0 ? `; ${left} could not be fixed automatically (run dewmark check for them)` : ''}\n`);
+  const summary =
+    changedFiles === 0
+      ? 'nothing to fix'
+      : opts.write
+        ? `fixed ${what}`
+        : `would fix ${what} (run with --write to apply)`;
+  io.err(
+    `dewmark: ${summary}${left > 0 ? `; ${left} could not be fixed automatically (run dewmark check for them)` : ''}\n`,
+  );
   if (ioProblems > 0) return 2;
   if (left > 0) return 1;
   return changedFiles > 0 && !opts.write ? 1 : 0;
 }
 
 /** Reads one input; `bom` tells whether its bytes began with a UTF-8 byte-order mark (which the decoder drops). */
-async function readNote(input: Input, io: CliIO): Promise<{ ok: true; text: string; bom: boolean } | { ok: false; message: string }> {
+async function readNote(
+  input: Input,
+  io: CliIO,
+): Promise<{ ok: true; text: string; bom: boolean } | { ok: false; message: string }> {
   let bytes: Uint8Array;
   if (input.abs === null) bytes = await io.stdin();
   else {
@@ -173,15 +208,24 @@ async function readNote(input: Input, io: CliIO): Promise<{ ok: true; text: stri
     }
   }
   const r = decodeText(bytes, input.display);
-  return r.ok ? { ok: true, text: r.text, bom: bytes.length >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf } : r;
+  return r.ok
+    ? { ok: true, text: r.text, bom: bytes.length >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf }
+    : r;
 }
 
 /** Adds the `fix` command to the program. */
-export function registerFix(prog: Command, io: CliIO, onResult: (code: number) => void, addCommon: (c: Command) => Command): void {
+export function registerFix(
+  prog: Command,
+  io: CliIO,
+  onResult: (code: number) => void,
+  addCommon: (c: Command) => Command,
+): void {
   addCommon(
     prog
       .command('fix')
-      .description('rewrite stale claims to the computed figures and refresh stale results tables; prints a diff unless --write')
+      .description(
+        'rewrite stale claims to the computed figures and refresh stale results tables; prints a diff unless --write',
+      )
       .argument('[paths...]', 'Markdown files, folders (recursive) or glob patterns (default: the current folder)')
       .option('--write', 'write the fixed notes in place (default: print a unified diff and write nothing)'),
   ).action(async (paths: string[], opts: FixOptions) => onResult(await runFix(paths, opts, io)));

@@ -32,7 +32,20 @@ export interface WriteOptions extends RawEvalOptions {
  * (MDX, Quarto, R Markdown, Livebook).
  */
 export const MARKDOWN_FAMILY_EXTENSIONS: readonly string[] = [
-  'md', 'markdown', 'mdown', 'mkd', 'mkdn', 'mkdown', 'mdwn', 'mdtxt', 'mdtext', 'markdn', 'mdx', 'qmd', 'rmd', 'livemd',
+  'md',
+  'markdown',
+  'mdown',
+  'mkd',
+  'mkdn',
+  'mkdown',
+  'mdwn',
+  'mdtxt',
+  'mdtext',
+  'markdn',
+  'mdx',
+  'qmd',
+  'rmd',
+  'livemd',
 ];
 
 const MARKDOWN_FAMILY = new Set(MARKDOWN_FAMILY_EXTENSIONS);
@@ -51,7 +64,13 @@ const MAX_LINKS = 40;
  * Checks the output path against the input: refuses a missing `-o`, the note itself (same path,
  * or the same file through a link), and any Markdown file. Throws {@link UsageError} (exit 2).
  */
-export function checkOutputPath(output: string | undefined, input: { abs: string | null; path: string }, cwd: string, what: string, example: string): string {
+export function checkOutputPath(
+  output: string | undefined,
+  input: { abs: string | null; path: string },
+  cwd: string,
+  what: string,
+  example: string,
+): string {
   if (output === undefined || output.trim() === '') {
     throw new UsageError(`say where to write the ${what} with -o, e.g. ${example}`);
   }
@@ -67,12 +86,17 @@ export function checkOutputPath(output: string | undefined, input: { abs: string
         // the output does not exist yet: it cannot be the note
       }
     }
-    if (same) throw new UsageError(`refusing to write the ${what} over the note '${input.path}' itself; give another path with -o, e.g. ${example}`);
+    if (same)
+      throw new UsageError(
+        `refusing to write the ${what} over the note '${input.path}' itself; give another path with -o, e.g. ${example}`,
+      );
   }
   const real = writtenPath(abs, output);
   if (isMarkdownFamilyName(abs) || isMarkdownFamilyName(real)) {
     const via = isMarkdownFamilyName(abs) ? '' : ` (a link to '${real}')`;
-    throw new UsageError(`refusing to write the ${what} to '${output}'${via}: it is a Markdown file name, and dewmark never overwrites notes; use a name such as ${example}`);
+    throw new UsageError(
+      `refusing to write the ${what} to '${output}'${via}: it is a Markdown file name, and dewmark never overwrites notes; use a name such as ${example}`,
+    );
   }
   return abs;
 }
@@ -112,23 +136,39 @@ function writtenPath(abs: string, shown: string): string {
 }
 
 function tooManyLinks(shown: string): UsageError {
-  return new UsageError(`refusing to write to '${shown}': it leads through more than ${MAX_LINKS} symbolic links (or a loop of them); give the path of a plain file with -o`);
+  return new UsageError(
+    `refusing to write to '${shown}': it leads through more than ${MAX_LINKS} symbolic links (or a loop of them); give the path of a plain file with -o`,
+  );
 }
 
 /** Reads exactly one note (a file or `-` for standard input) and analyses it; throws {@link UsageError}. */
-export async function readOneNote(paths: string[], opts: WriteOptions, io: CliIO, command: string): Promise<AnalysedNote> {
+export async function readOneNote(
+  paths: string[],
+  opts: WriteOptions,
+  io: CliIO,
+  command: string,
+): Promise<AnalysedNote> {
   if (paths.length !== 1) {
-    throw new UsageError(`${command} takes exactly one note (got ${paths.length === 0 ? 'none' : paths.length}), e.g. dewmark ${command} notes/ahu.md -o …`);
+    throw new UsageError(
+      `${command} takes exactly one note (got ${paths.length === 0 ? 'none' : paths.length}), e.g. dewmark ${command} notes/ahu.md -o …`,
+    );
   }
   const settings = toSettings(opts);
   const maxBytes = maxNoteBytes(opts);
-  const { inputs, problems } = collectInputs(paths, { cwd: io.cwd, gitignore: opts.gitignore !== false, exclude: opts.exclude ?? [] });
+  const { inputs, problems } = collectInputs(paths, {
+    cwd: io.cwd,
+    gitignore: opts.gitignore !== false,
+    exclude: opts.exclude ?? [],
+  });
   if (problems.length > 0) throw new UsageError(problems.map((p) => p.message).join('; '));
   if (inputs.length !== 1) {
-    throw new UsageError(`${command} takes exactly one note, but '${paths[0]}' names ${inputs.length === 0 ? 'no Markdown file' : `${inputs.length} files`}; name one file`);
+    throw new UsageError(
+      `${command} takes exactly one note, but '${paths[0]}' names ${inputs.length === 0 ? 'no Markdown file' : `${inputs.length} files`}; name one file`,
+    );
   }
   const input = inputs[0]!;
-  const read = input.abs === null ? decodeText(await io.stdin(maxBytes), STDIN_PATH, maxBytes) : readInput(input, maxBytes);
+  const read =
+    input.abs === null ? decodeText(await io.stdin(maxBytes), STDIN_PATH, maxBytes) : readInput(input, maxBytes);
   if (!read.ok) throw new UsageError(read.message);
   return { path: input.display, abs: input.abs, text: read.text, analysis: analyzeNote(read.text, settings) };
 }
@@ -139,7 +179,14 @@ export function writeOutput(abs: string, shown: string, content: string): void {
     writeFileSync(abs, content, 'utf8');
   } catch (err) {
     const code = (err as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'its folder does not exist' : code === 'EACCES' ? 'permission denied' : code === 'EISDIR' ? 'it is a folder' : (err as Error).message;
+    const why =
+      code === 'ENOENT'
+        ? 'its folder does not exist'
+        : code === 'EACCES'
+          ? 'permission denied'
+          : code === 'EISDIR'
+            ? 'it is a folder'
+            : (err as Error).message;
     throw new UsageError(`cannot write '${shown}': ${why}`);
   }
 }

@@ -8,7 +8,22 @@ import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
 import { renderChart } from '@dewmark/core/chart';
 import type { ClaimResult, PressureBasis } from '@dewmark/core/evaluate';
-import { LineIndex, claimFigures, displaySymbol, displayUnit, figure, processRow, stateRow, waterUnit, type Analysis, type CoreDiagnostic, type Dimension, type ProcessResult, type StateResult, type UnitSystem } from '../core';
+import {
+  LineIndex,
+  claimFigures,
+  displaySymbol,
+  displayUnit,
+  figure,
+  processRow,
+  stateRow,
+  waterUnit,
+  type Analysis,
+  type CoreDiagnostic,
+  type Dimension,
+  type ProcessResult,
+  type StateResult,
+  type UnitSystem,
+} from '../core';
 import type { CliIO } from '../run';
 import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, type WriteOptions } from './outputFile';
 
@@ -41,7 +56,11 @@ export const CAUTION =
 
 /** The badge beside a name that was not computed, or is in the fog region. */
 function badge(status: 'ok' | 'fog' | 'failed'): string {
-  return status === 'failed' ? ' <span class="badge err">not computed</span>' : status === 'fog' ? ' <span class="badge warn">fog</span>' : '';
+  return status === 'failed'
+    ? ' <span class="badge err">not computed</span>'
+    : status === 'fog'
+      ? ' <span class="badge warn">fog</span>'
+      : '';
 }
 
 function sym(dim: Dimension, sys: UnitSystem): string {
@@ -68,7 +87,9 @@ function claimsCell(claims: ClaimResult[]): string {
 
 function table(id: string, caption: string, header: string[], rows: string[][], numeric: boolean[]): string {
   const th = header.map((h, i) => `<th scope="col"${numeric[i] ? ' class="num"' : ''}>${h}</th>`).join('');
-  const body = rows.map((r) => `<tr>${r.map((c, i) => `<td${numeric[i] ? ' class="num"' : ''}>${c}</td>`).join('')}</tr>`).join('\n');
+  const body = rows
+    .map((r) => `<tr>${r.map((c, i) => `<td${numeric[i] ? ' class="num"' : ''}>${c}</td>`).join('')}</tr>`)
+    .join('\n');
   return `<div class="scroll"><table id="${id}"><caption>${caption}</caption><thead><tr>${th}</tr></thead><tbody>\n${body}\n</tbody></table></div>`;
 }
 
@@ -77,7 +98,20 @@ function statesSection(a: Analysis, lines: LineIndex, text: string): string {
   const states = a.items.filter((i): i is StateResult => i.kind === 'state');
   if (states.length === 0) return '<p class="none" id="states-none">The note defines no states.</p>';
   const t = (d: Dimension) => escapeHtml(sym(d, sys));
-  const header = ['name', 'line', `p (${t('pressure')})`, `dry-bulb (${t('temperature')})`, `wet-bulb (${t('temperature')})`, `dew point (${t('temperature')})`, 'rh (%)', `w (${t('humidityRatio')})`, `h (${t('enthalpy')})`, `v (${t('specificVolume')})`, 'fixed by', 'claims'];
+  const header = [
+    'name',
+    'line',
+    `p (${t('pressure')})`,
+    `dry-bulb (${t('temperature')})`,
+    `wet-bulb (${t('temperature')})`,
+    `dew point (${t('temperature')})`,
+    'rh (%)',
+    `w (${t('humidityRatio')})`,
+    `h (${t('enthalpy')})`,
+    `v (${t('specificVolume')})`,
+    'fixed by',
+    'claims',
+  ];
   const rows = states.map((s) => {
     const row = stateRow(s, sys);
     const v = row.figures;
@@ -96,7 +130,20 @@ function statesSection(a: Analysis, lines: LineIndex, text: string): string {
       claimsCell(s.claims),
     ];
   });
-  return table('states', 'States', header, rows, [false, true, true, true, true, true, true, true, true, true, false, false]);
+  return table('states', 'States', header, rows, [
+    false,
+    true,
+    true,
+    true,
+    true,
+    true,
+    true,
+    true,
+    true,
+    true,
+    false,
+    false,
+  ]);
 }
 
 function mixesSection(a: Analysis, lines: LineIndex, text: string): string {
@@ -104,7 +151,17 @@ function mixesSection(a: Analysis, lines: LineIndex, text: string): string {
   const mixes = a.items.filter((i): i is StateResult => i.kind === 'mix');
   if (mixes.length === 0) return '<p class="none" id="mixes-none">The note has no mixes.</p>';
   const t = (d: Dimension) => escapeHtml(sym(d, sys));
-  const header = ['name', 'line', 'streams (dry-air mass fraction)', `dry-air flow (${t('massFlow')})`, `dry-bulb (${t('temperature')})`, 'rh (%)', `w (${t('humidityRatio')})`, `h (${t('enthalpy')})`, 'claims'];
+  const header = [
+    'name',
+    'line',
+    'streams (dry-air mass fraction)',
+    `dry-air flow (${t('massFlow')})`,
+    `dry-bulb (${t('temperature')})`,
+    'rh (%)',
+    `w (${t('humidityRatio')})`,
+    `h (${t('enthalpy')})`,
+    'claims',
+  ];
   const rows = mixes.map((m) => {
     const row = stateRow(m, sys);
     const v = row.figures;
@@ -129,7 +186,20 @@ function processesSection(a: Analysis, lines: LineIndex, text: string): string {
   if (procs.length === 0) return '<p class="none" id="processes-none">The note has no processes.</p>';
   const t = (d: Dimension) => escapeHtml(sym(d, sys));
   const water = escapeHtml(displaySymbol(waterUnit(sys)));
-  const header = ['name', 'line', 'from → to', 'kind', `dry-air flow (${t('massFlow')})`, `total (${t('power')})`, `sensible (${t('power')})`, `latent (${t('power')})`, 'SHR', `water (${water})`, `Δh (${t('enthalpy')})`, 'claims'];
+  const header = [
+    'name',
+    'line',
+    'from → to',
+    'kind',
+    `dry-air flow (${t('massFlow')})`,
+    `total (${t('power')})`,
+    `sensible (${t('power')})`,
+    `latent (${t('power')})`,
+    'SHR',
+    `water (${water})`,
+    `Δh (${t('enthalpy')})`,
+    'claims',
+  ];
   const rows = procs.map((p) => {
     const row = processRow(p, sys);
     // Heat and water rates need a flow; without one the table leaves them empty (Δh is per kg).
@@ -149,13 +219,25 @@ function processesSection(a: Analysis, lines: LineIndex, text: string): string {
       claimsCell(p.claims),
     ];
   });
-  return (
-    table('processes', 'Processes (positive = heat or water added to the air)', header, rows, [false, true, false, false, true, true, true, true, true, true, true, false])
-  );
+  return table('processes', 'Processes (positive = heat or water added to the air)', header, rows, [
+    false,
+    true,
+    false,
+    false,
+    true,
+    true,
+    true,
+    true,
+    true,
+    true,
+    true,
+    false,
+  ]);
 }
 
 function diagnosticsSection(a: Analysis, lines: LineIndex, text: string): string {
-  if (a.diagnostics.length === 0) return '<p class="none" id="diagnostics-none">No diagnostics: every statement was read and evaluated without errors or warnings.</p>';
+  if (a.diagnostics.length === 0)
+    return '<p class="none" id="diagnostics-none">No diagnostics: every statement was read and evaluated without errors or warnings.</p>';
   const rows = a.diagnostics.map((d: CoreDiagnostic) => {
     const lc = lines.lineCol(Math.max(0, Math.min(d.span.start, text.length)));
     const snippet = text.slice(d.span.start, Math.min(d.span.end, d.span.start + 80));
@@ -167,7 +249,13 @@ function diagnosticsSection(a: Analysis, lines: LineIndex, text: string): string
       snippet ? `<code>${escapeHtml(snippet)}</code>` : '',
     ];
   });
-  return table('diagnostics', `Diagnostics (${a.diagnostics.length})`, ['line:col', 'severity', 'code', 'message', 'at'], rows, [true, false, false, false, false]);
+  return table(
+    'diagnostics',
+    `Diagnostics (${a.diagnostics.length})`,
+    ['line:col', 'severity', 'code', 'message', 'at'],
+    rows,
+    [true, false, false, false, false],
+  );
 }
 
 function pressureSection(a: Analysis, lines: LineIndex, text: string): string {
@@ -182,8 +270,12 @@ function pressureSection(a: Analysis, lines: LineIndex, text: string): string {
   const settingText = `${figure(a.settings.pressurePa, 'pressure', a.units).text} (${escapeHtml(a.settings.pressureOrigin)})`;
   if (bases.size === 0) return `<p id="pressure-basis">No states; the default pressure would be ${settingText}.</p>`;
   const items = [...bases.values()].map(({ basis, names }) => {
-    const where = basis.span && !/\bline \d+/.test(basis.origin) ? `, line ${lineOf(lines, text, basis.span.start)}` : '';
-    const elev = basis.elevationM !== null ? ' (elevation to pressure by the standard-atmosphere equation, ASHRAE HoF Ch. 1 eq 3)' : '';
+    const where =
+      basis.span && !/\bline \d+/.test(basis.origin) ? `, line ${lineOf(lines, text, basis.span.start)}` : '';
+    const elev =
+      basis.elevationM !== null
+        ? ' (elevation to pressure by the standard-atmosphere equation, ASHRAE HoF Ch. 1 eq 3)'
+        : '';
     return `<li><strong>${figure(basis.pa, 'pressure', a.units).text}</strong> — ${escapeHtml(basis.origin)}${escapeHtml(where)}${escapeHtml(elev)}; used by ${names.map((n) => `<span class="name">${escapeHtml(n)}</span>`).join(', ')}</li>`;
   });
   return `<ul id="pressure-basis">${items.join('\n')}</ul><p class="small">Default when a note has no <code>site:</code> line: ${settingText}. The chart's curves are drawn for the pressure most states use.</p>`;
@@ -255,8 +347,8 @@ export function renderReportHtml(input: ReportInput, opts: ReportOptions = {}): 
   const plural = (n: number, w: string) => `${n} ${w}${n === 1 ? '' : 's'}`;
   const summary = [
     `<span>${plural(nStates, 'state')}</span>`,
-    `<span>${plural(nMixes, 'mix')}`.replace(/mixs/, 'mixes') + '</span>',
-    `<span>${plural(nProcs, 'process')}`.replace(/processs/, 'processes') + '</span>',
+    `${`<span>${plural(nMixes, 'mix')}`.replace(/mixs/, 'mixes')}</span>`,
+    `${`<span>${plural(nProcs, 'process')}`.replace(/processs/, 'processes')}</span>`,
     errors > 0 ? `<span class="errors">${plural(errors, 'error')}</span>` : `<span class="clean">no errors</span>`,
     `<span class="${warnings > 0 ? 'warnings' : ''}">${plural(warnings, 'warning')}</span>`,
     ...(infos > 0 ? [`<span>${plural(infos, 'note')}</span>`] : []),
@@ -317,16 +409,26 @@ export async function runReport(paths: string[], opts: WriteOptions, io: CliIO, 
   const out = checkOutputPath(opts.output, note, io.cwd, 'report', 'report.html');
   writeOutput(out, opts.output!, renderReportHtml(note, { version }));
   const errors = note.analysis.diagnostics.filter((d) => d.severity === 'error').length;
-  io.err(`dewmark: wrote ${opts.output} (${note.path}: ${errors} error${errors === 1 ? '' : 's'}, ${note.analysis.diagnostics.length - errors} other diagnostic${note.analysis.diagnostics.length - errors === 1 ? '' : 's'})\n`);
+  io.err(
+    `dewmark: wrote ${opts.output} (${note.path}: ${errors} error${errors === 1 ? '' : 's'}, ${note.analysis.diagnostics.length - errors} other diagnostic${note.analysis.diagnostics.length - errors === 1 ? '' : 's'})\n`,
+  );
   return exitCodeOf(note.analysis);
 }
 
 /** Adds the `report` command to the program. */
-export function registerReport(prog: Command, io: CliIO, onResult: (code: number) => void, addCommon: (c: Command) => Command, version: string): void {
+export function registerReport(
+  prog: Command,
+  io: CliIO,
+  onResult: (code: number) => void,
+  addCommon: (c: Command) => Command,
+  version: string,
+): void {
   addCommon(
     prog
       .command('report')
-      .description('write one self-contained HTML review report of a note (tables, diagnostics, chart, method); exit 1 if the note has errors')
+      .description(
+        'write one self-contained HTML review report of a note (tables, diagnostics, chart, method); exit 1 if the note has errors',
+      )
       .argument('<note>', 'one Markdown note (or - for standard input)')
       .option('-o, --output <file>', 'the HTML file to write (never a .md file, never the note itself)'),
   ).action(async (note: string, opts: WriteOptions) => onResult(await runReport([note], opts, io, version)));

@@ -27,7 +27,14 @@ export function githubAnnotations(path: string, diagnostics: readonly Diagnostic
   const file = escapeProperty(safeText(path));
   let out = '';
   for (const d of diagnostics) {
-    const props = [`file=${file}`, `line=${d.line}`, `col=${d.column}`, `endLine=${d.endLine}`, `endColumn=${d.endColumn}`, `title=${escapeProperty(`dewmark ${d.code}`)}`];
+    const props = [
+      `file=${file}`,
+      `line=${d.line}`,
+      `col=${d.column}`,
+      `endLine=${d.endLine}`,
+      `endColumn=${d.endColumn}`,
+      `title=${escapeProperty(`dewmark ${d.code}`)}`,
+    ];
     out += `::${COMMAND[d.severity]} ${props.join(',')}::${escapeData(safeText(d.message.replace(/\s*\n\s*/g, ' ')))}\n`;
   }
   return out;

@@ -19,7 +19,11 @@ export interface SarifFileInput {
   suppressed?: readonly (DiagnosticJson & { justification: string })[];
 }
 
-const LEVEL: Record<DiagnosticJson['severity'], 'error' | 'warning' | 'note'> = { error: 'error', warning: 'warning', info: 'note' };
+const LEVEL: Record<DiagnosticJson['severity'], 'error' | 'warning' | 'note'> = {
+  error: 'error',
+  warning: 'warning',
+  info: 'note',
+};
 
 /** A path as a SARIF artifact location: relative to the source root where it is relative. */
 function artifactLocation(path: string): Record<string, unknown> {
@@ -41,14 +45,21 @@ export function sarifLog(files: readonly SarifFileInput[], version: string, cwd:
       if (index === undefined) {
         index = rules.length;
         ruleIndex.set(d.code, index);
-        rules.push({ id: d.code, name: d.code, helpUri: `${CODES_HELP_URI}`, shortDescription: { text: `Dewmark diagnostic ${d.code}` } });
+        rules.push({
+          id: d.code,
+          name: d.code,
+          helpUri: `${CODES_HELP_URI}`,
+          shortDescription: { text: `Dewmark diagnostic ${d.code}` },
+        });
       }
       results.push({
         ruleId: d.code,
         ruleIndex: index,
         level: LEVEL[d.severity],
         message: { text: d.message },
-        ...(i >= firstSuppressed ? { suppressions: [{ kind: 'inSource', ...(d.justification ? { justification: d.justification } : {}) }] } : {}),
+        ...(i >= firstSuppressed
+          ? { suppressions: [{ kind: 'inSource', ...(d.justification ? { justification: d.justification } : {}) }] }
+          : {}),
         locations: [
           {
             physicalLocation: {
@@ -66,7 +77,9 @@ export function sarifLog(files: readonly SarifFileInput[], version: string, cwd:
     version: '2.1.0',
     runs: [
       {
-        tool: { driver: { name: 'dewmark', version, semanticVersion: version, informationUri: 'https://dewmark.dev', rules } },
+        tool: {
+          driver: { name: 'dewmark', version, semanticVersion: version, informationUri: 'https://dewmark.dev', rules },
+        },
         originalUriBaseIds: { '%SRCROOT%': { uri: root.endsWith('/') ? root : `${root}/` } },
         columnKind: 'utf16CodeUnits',
         results,

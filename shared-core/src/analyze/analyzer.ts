@@ -23,7 +23,14 @@ import { finishAnalysis } from './analyze';
 import type { EvalContext } from '../evaluate/context';
 import { evaluateSteps, type DependentStatement, type EvaluateReuse } from '../evaluate/evaluate';
 import { resolveSettings } from '../evaluate/settings';
-import type { Analysis, ClaimResult, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from '../evaluate/types';
+import type {
+  Analysis,
+  ClaimResult,
+  EvaluateSettings,
+  EvaluatedItem,
+  PressureBasis,
+  StateResult,
+} from '../evaluate/types';
 
 /** An analyzer that keeps its last run (see the module comment). */
 export interface Analyzer {
@@ -69,11 +76,19 @@ export function createAnalyzer(): Analyzer {
   let bases: PressureBasis[] = [];
   function* analyzeSteps(text: string, settings?: Partial<EvaluateSettings>): Generator<void, Analysis, void> {
     const resolved = resolveSettings(settings);
-    if (last && last.text === text && sameSettings(last.settings, resolved) && sameRules(last.settings.rules, resolved.rules)) return last.analysis;
+    if (
+      last &&
+      last.text === text &&
+      sameSettings(last.settings, resolved) &&
+      sameRules(last.settings.rules, resolved.rules)
+    )
+      return last.analysis;
     const fresh = !last || !sameSettings(last.settings, resolved);
     const { parsed, origins, deltas } = parser.parse(text);
     yield;
-    const reuse = fresh ? new Reuse(new Map(), new Map(), solves, [], origins, deltas) : new Reuse(states, dependents, solves, bases, origins, deltas);
+    const reuse = fresh
+      ? new Reuse(new Map(), new Map(), solves, [], origins, deltas)
+      : new Reuse(states, dependents, solves, bases, origins, deltas);
     const analysis = finishAnalysis(yield* evaluateSteps(parsed, settings, text, reuse), text);
     states = reuse.nextStates;
     dependents = reuse.nextDependents;
@@ -103,7 +118,12 @@ export function createAnalyzer(): Analyzer {
 }
 
 function sameSettings(a: EvaluateSettings, b: EvaluateSettings): boolean {
-  return a.units === b.units && Object.is(a.pressurePa, b.pressurePa) && a.pressureOrigin === b.pressureOrigin && a.checkClaims === b.checkClaims;
+  return (
+    a.units === b.units &&
+    Object.is(a.pressurePa, b.pressurePa) &&
+    a.pressureOrigin === b.pressureOrigin &&
+    a.checkClaims === b.checkClaims
+  );
 }
 
 /** Rule severities only change what `finishAnalysis` does with the diagnostics, not the evaluation. */
@@ -121,7 +141,11 @@ function sameSpan(a: Span | null, b: Span | null): boolean {
 function sameBasis(a: PressureBasis, b: PressureBasis): boolean {
   return (
     a === b ||
-    (Object.is(a.pa, b.pa) && a.source === b.source && Object.is(a.elevationM, b.elevationM) && a.describe === b.describe && sameSpan(a.span, b.span))
+    (Object.is(a.pa, b.pa) &&
+      a.source === b.source &&
+      Object.is(a.elevationM, b.elevationM) &&
+      a.describe === b.describe &&
+      sameSpan(a.span, b.span))
   );
 }
 
@@ -181,7 +205,12 @@ class Reuse implements EvaluateReuse {
       const moved = relocate(entry, stmt, delta, ctx.site);
       if (moved) {
         for (const d of moved.diagnostics) ctx.report(d);
-        this.nextStates.set(stmt, { statement: stmt, result: moved.result, diagnostics: moved.diagnostics, site: ctx.site });
+        this.nextStates.set(stmt, {
+          statement: stmt,
+          result: moved.result,
+          diagnostics: moved.diagnostics,
+          site: ctx.site,
+        });
         return moved.result;
       }
     }
@@ -191,19 +220,36 @@ class Reuse implements EvaluateReuse {
     return result;
   }
 
-  dependent<T extends EvaluatedItem | null>(ctx: EvalContext, stmt: DependentStatement, index: number, compute: () => T): T {
+  dependent<T extends EvaluatedItem | null>(
+    ctx: EvalContext,
+    stmt: DependentStatement,
+    index: number,
+    compute: () => T,
+  ): T {
     const origin = this.origins[index];
     const entry = origin ? this.prevDependents.get(origin) : undefined;
     if (entry && sameBasis(entry.site, ctx.site)) {
       const deps = currentDeps(ctx, entry, index);
       const refs = deps ? names(stmt) : null;
-      const moved = refs && refs.length === entry.deps.length ? relocateDependent(entry, stmt, this.deltas[index] ?? 0, ctx.site) : null;
+      const moved =
+        refs && refs.length === entry.deps.length
+          ? relocateDependent(entry, stmt, this.deltas[index] ?? 0, ctx.site)
+          : null;
       if (deps && refs && moved) {
         // What its evaluation did: resolve each name (a reference each), report its diagnostics.
         for (const n of refs) ctx.references.push({ name: n.text, span: n.span, statement: stmt });
         for (const d of moved.diagnostics) ctx.report(d);
-        const unchanged = stmt === entry.statement && moved.result === entry.result && entry.site === ctx.site && deps.every((x, i) => x === entry.deps[i]);
-        this.nextDependents.set(stmt, unchanged ? entry : { statement: stmt, result: moved.result, diagnostics: moved.diagnostics, site: ctx.site, deps });
+        const unchanged =
+          stmt === entry.statement &&
+          moved.result === entry.result &&
+          entry.site === ctx.site &&
+          deps.every((x, i) => x === entry.deps[i]);
+        this.nextDependents.set(
+          stmt,
+          unchanged
+            ? entry
+            : { statement: stmt, result: moved.result, diagnostics: moved.diagnostics, site: ctx.site, deps },
+        );
         return moved.result as T;
       }
     }
@@ -217,7 +263,13 @@ class Reuse implements EvaluateReuse {
       if (!reg || reg.def.statementIndex >= index || !reg.item) return result;
       deps.push(reg.item);
     }
-    this.nextDependents.set(stmt, { statement: stmt, result, diagnostics: ctx.diagnostics.slice(before), site: ctx.site, deps });
+    this.nextDependents.set(stmt, {
+      statement: stmt,
+      result,
+      diagnostics: ctx.diagnostics.slice(before),
+      site: ctx.site,
+      deps,
+    });
     return result;
   }
 }
@@ -254,7 +306,13 @@ function currentDeps(ctx: EvalContext, entry: DependentEntry, index: number): Ev
 function readsTheSame(a: EvaluatedItem, b: EvaluatedItem): boolean {
   if (a === b) return true;
   if (a.kind === 'process' || b.kind === 'process') return false;
-  return a.kind === b.kind && a.name === b.name && a.state === b.state && a.pressure === b.pressure && Object.is(a.massFlowKgS, b.massFlowKgS);
+  return (
+    a.kind === b.kind &&
+    a.name === b.name &&
+    a.state === b.state &&
+    a.pressure === b.pressure &&
+    Object.is(a.massFlowKgS, b.massFlowKgS)
+  );
 }
 
 /**
@@ -262,7 +320,12 @@ function readsTheSame(a: EvaluatedItem, b: EvaluatedItem): boolean {
  * `d`). Every span must lie inside the old statement (one pointing elsewhere, such as a related
  * definition, makes it evaluate again). Null when something cannot be mapped.
  */
-function relocateDependent(entry: DependentEntry, stmt: DependentStatement, d: number, site: PressureBasis): { result: EvaluatedItem | null; diagnostics: CoreDiagnostic[] } | null {
+function relocateDependent(
+  entry: DependentEntry,
+  stmt: DependentStatement,
+  d: number,
+  site: PressureBasis,
+): { result: EvaluatedItem | null; diagnostics: CoreDiagnostic[] } | null {
   const from = entry.statement;
   if (from.keyword !== stmt.keyword || from.props.length !== stmt.props.length) return null;
   const within = from.span;
@@ -285,7 +348,15 @@ function relocateDependent(entry: DependentEntry, stmt: DependentStatement, d: n
     for (const c of old.claims) {
       const i = from.props.indexOf(c.prop);
       if (i < 0) return null;
-      claims.push({ key: c.key, prop: stmt.props[i]!, writtenSI: c.writtenSI, computedSI: c.computedSI, toleranceSI: c.toleranceSI, pass: c.pass, computedText: c.computedText });
+      claims.push({
+        key: c.key,
+        prop: stmt.props[i]!,
+        writtenSI: c.writtenSI,
+        computedSI: c.computedSI,
+        toleranceSI: c.toleranceSI,
+        pass: c.pass,
+        computedText: c.computedText,
+      });
     }
     if (old.kind === 'process') {
       if (stmt.keyword !== 'process') return null;
@@ -293,13 +364,23 @@ function relocateDependent(entry: DependentEntry, stmt: DependentStatement, d: n
     } else if (old.kind === 'state' || old.kind === 'supply') {
       if (stmt.keyword !== old.kind) return null;
       // The pressure is the site's, or the state's own override (a span inside the statement).
-      const pressure = old.pressure === entry.site ? site : old.pressure.span ? { ...old.pressure, span: move(old.pressure.span) } : old.pressure;
+      const pressure =
+        old.pressure === entry.site
+          ? site
+          : old.pressure.span
+            ? { ...old.pressure, span: move(old.pressure.span) }
+            : old.pressure;
       result = { ...old, statement: stmt, pressure, claims };
     } else {
       if (stmt.keyword !== 'mix' || old.kind !== 'mix') return null;
       // The pressure is the site's (when it failed early), a stream's (the same object now), or
       // a mean basis of its own (no span).
-      if (old.pressure !== entry.site && old.pressure.span !== null && !entry.deps.some((x) => x.kind !== 'process' && x.pressure === old.pressure)) return null;
+      if (
+        old.pressure !== entry.site &&
+        old.pressure.span !== null &&
+        !entry.deps.some((x) => x.kind !== 'process' && x.pressure === old.pressure)
+      )
+        return null;
       result = { ...old, statement: stmt, pressure: old.pressure === entry.site ? site : old.pressure, claims };
     }
   }
@@ -312,7 +393,12 @@ function relocateDependent(entry: DependentEntry, stmt: DependentStatement, d: n
  * old statement move with it; those outside it (the site line) stay. Null when the result holds
  * something this cannot map (then the state is evaluated again).
  */
-function relocate(entry: StateEntry, stmt: StateStatement, d: number, site: PressureBasis): { result: StateResult; diagnostics: CoreDiagnostic[] } | null {
+function relocate(
+  entry: StateEntry,
+  stmt: StateStatement,
+  d: number,
+  site: PressureBasis,
+): { result: StateResult; diagnostics: CoreDiagnostic[] } | null {
   const old = entry.result;
   const onSite = old.pressure === entry.site;
   if (d === 0 && stmt === entry.statement) {
@@ -333,13 +419,29 @@ function relocate(entry: StateEntry, stmt: StateStatement, d: number, site: Pres
     const i = from.props.indexOf(c.prop);
     if (i < 0) return null;
     // The shape the evaluator builds (checkClaim), key order included.
-    claims.push({ key: c.key, prop: stmt.props[i]!, writtenSI: c.writtenSI, computedSI: c.computedSI, toleranceSI: c.toleranceSI, pass: c.pass, computedText: c.computedText });
+    claims.push({
+      key: c.key,
+      prop: stmt.props[i]!,
+      writtenSI: c.writtenSI,
+      computedSI: c.computedSI,
+      toleranceSI: c.toleranceSI,
+      pass: c.pass,
+      computedText: c.computedText,
+    });
   }
   let pressure: PressureBasis = site;
   if (!onSite) pressure = old.pressure.span ? { ...old.pressure, span: move(old.pressure.span) } : { ...old.pressure };
   if (old.kind !== 'state' || old.streams !== undefined || old.massFlowKgS !== undefined) return null;
   // The shape evaluateState builds, key order included (the arrays are shared: results are not mutated).
-  const result: StateResult = { kind: 'state', name: old.name, statement: stmt, state: old.state, pressure, defining: old.defining, claims };
+  const result: StateResult = {
+    kind: 'state',
+    name: old.name,
+    statement: stmt,
+    state: old.state,
+    pressure,
+    defining: old.defining,
+    claims,
+  };
   const diagnostics = entry.diagnostics.map((x) => moveDiagnostic(x, move));
   return failed ? null : { result, diagnostics };
 }

@@ -119,7 +119,12 @@ interface CommentIndex {
 }
 
 function indexComments(comments: IgnoreComment[], analysis: Analysis, text: string): CommentIndex {
-  const idx: CommentIndex = { byLine: new Map(), byRegion: new Map(), regions: analysis.parsed.regions.map((r) => r.span), lines: new LineIndex(text) };
+  const idx: CommentIndex = {
+    byLine: new Map(),
+    byRegion: new Map(),
+    regions: analysis.parsed.regions.map((r) => r.span),
+    lines: new LineIndex(text),
+  };
   for (const c of comments) {
     const map = c.scope === 'line' ? idx.byLine : idx.byRegion;
     const list = map.get(c.from);

@@ -84,7 +84,10 @@ export function sampleCurve(
 }
 
 /** Clips a polyline to a rectangle (Liang–Barsky per segment); returns the visible pieces. */
-export function clipPolyline(points: Pixel[], rect: { left: number; top: number; right: number; bottom: number }): Pixel[][] {
+export function clipPolyline(
+  points: Pixel[],
+  rect: { left: number; top: number; right: number; bottom: number },
+): Pixel[][] {
   const out: Pixel[][] = [];
   let cur: Pixel[] = [];
   const flush = (): void => {
@@ -112,7 +115,11 @@ export function clipPolyline(points: Pixel[], rect: { left: number; top: number;
   return out;
 }
 
-function clipSegment(a: Pixel, b: Pixel, r: { left: number; top: number; right: number; bottom: number }): [Pixel, Pixel] | null {
+function clipSegment(
+  a: Pixel,
+  b: Pixel,
+  r: { left: number; top: number; right: number; bottom: number },
+): [Pixel, Pixel] | null {
   const dx = b.x - a.x;
   const dy = b.y - a.y;
   let t0 = 0;
@@ -181,10 +188,16 @@ function widthSteps(layout: ChartLayout): number {
 export function saturationCurve(layout: ChartLayout): ChartCurve {
   const p = layout.pressurePa;
   const hi = warmLimit(layout);
-  const runs = sampleCurve(layout, (db) => {
-    const w = satW(db, p);
-    return w === null ? null : { db, w };
-  }, layout.range.dbMin, hi, widthSteps(layout));
+  const runs = sampleCurve(
+    layout,
+    (db) => {
+      const w = satW(db, p);
+      return w === null ? null : { db, w };
+    },
+    layout.range.dbMin,
+    hi,
+    widthSteps(layout),
+  );
   return { family: 'saturation', value: 100, runs };
 }
 
@@ -195,10 +208,16 @@ export function rhCurves(layout: ChartLayout, percents: number[] = [10, 20, 30, 
   return percents.map((pct) => ({
     family: 'rh' as const,
     value: pct,
-    runs: sampleCurve(layout, (db) => {
-      const w = wFromRh(db, pct / 100, p);
-      return w === null ? null : { db, w };
-    }, layout.range.dbMin, hi, widthSteps(layout)),
+    runs: sampleCurve(
+      layout,
+      (db) => {
+        const w = wFromRh(db, pct / 100, p);
+        return w === null ? null : { db, w };
+      },
+      layout.range.dbMin,
+      hi,
+      widthSteps(layout),
+    ),
   }));
 }
 
@@ -239,10 +258,16 @@ export function wetBulbLines(layout: ChartLayout, stepDisplay?: number): ChartCu
     const dryEnd = bisect((db) => g(db) ?? -1, wb, Math.min(200, wb + 150));
     const end = Math.min(dryEnd === null ? warmLimit(layout) : dryEnd - 1e-9, layout.range.dbMax + 1);
     if (!(end > wb)) continue;
-    const runs = sampleCurve(layout, (db) => {
-      const w = db === wb ? satW(wb, p) : g(db);
-      return w === null || w < 0 ? null : { db, w };
-    }, wb, end, 24);
+    const runs = sampleCurve(
+      layout,
+      (db) => {
+        const w = db === wb ? satW(wb, p) : g(db);
+        return w === null || w < 0 ? null : { db, w };
+      },
+      wb,
+      end,
+      24,
+    );
     if (runs.length > 0) out.push({ family: 'wetBulb', value: wbDisp, runs });
   }
   return out;
@@ -262,16 +287,26 @@ export function enthalpyLines(layout: ChartLayout, stepDisplay?: number): ChartC
   for (const hDisp of stepsIn(fromSI(hLo, u.enthalpy), fromSI(hHi, u.enthalpy), step)) {
     const h = toSI(hDisp, u.enthalpy);
     // Where the line meets saturation: the dry-bulb whose saturated enthalpy is h.
-    const dbSat = bisect((db) => {
-      const ws = satW(db, p);
-      const hs = ws === null ? null : enthalpyOf(db, ws);
-      return hs === null ? null : hs - h;
-    }, Math.max(-100, dbMin - 80), warm);
+    const dbSat = bisect(
+      (db) => {
+        const ws = satW(db, p);
+        const hs = ws === null ? null : enthalpyOf(db, ws);
+        return hs === null ? null : hs - h;
+      },
+      Math.max(-100, dbMin - 80),
+      warm,
+    );
     const wTop = dbSat === null ? wMax : Math.min(satW(dbSat, p) ?? wMax, wMax * 1.5);
-    const runs = sampleCurve(layout, (w) => {
-      const db = dbAtEnthalpy(h, w);
-      return db === null ? null : { db, w };
-    }, wTop, 0, 16);
+    const runs = sampleCurve(
+      layout,
+      (w) => {
+        const db = dbAtEnthalpy(h, w);
+        return db === null ? null : { db, w };
+      },
+      wTop,
+      0,
+      16,
+    );
     if (runs.length > 0) out.push({ family: 'enthalpy', value: hDisp, runs });
   }
   return out;
@@ -290,20 +325,35 @@ export function volumeLines(layout: ChartLayout, stepDisplay?: number): ChartCur
   const out: ChartCurve[] = [];
   for (const vDisp of stepsIn(fromSI(vLo, u.specificVolume), fromSI(vHi, u.specificVolume), step)) {
     const v = toSI(vDisp, u.specificVolume);
-    const dbAt = (w: number): number | null => bisect((db) => {
-      const vv = volumeOf(db, w, p);
-      return vv === null ? null : vv - v;
-    }, -100, 200);
-    const dbSat = bisect((db) => {
-      const ws = satW(db, p);
-      const vs = ws === null ? null : volumeOf(db, ws, p);
-      return vs === null ? null : vs - v;
-    }, Math.max(-100, dbMin - 80), warm);
+    const dbAt = (w: number): number | null =>
+      bisect(
+        (db) => {
+          const vv = volumeOf(db, w, p);
+          return vv === null ? null : vv - v;
+        },
+        -100,
+        200,
+      );
+    const dbSat = bisect(
+      (db) => {
+        const ws = satW(db, p);
+        const vs = ws === null ? null : volumeOf(db, ws, p);
+        return vs === null ? null : vs - v;
+      },
+      Math.max(-100, dbMin - 80),
+      warm,
+    );
     const wTop = dbSat === null ? wMax : Math.min(satW(dbSat, p) ?? wMax, wMax * 1.5);
-    const runs = sampleCurve(layout, (w) => {
-      const db = dbAt(w);
-      return db === null ? null : { db, w };
-    }, wTop, 0, 12);
+    const runs = sampleCurve(
+      layout,
+      (w) => {
+        const db = dbAt(w);
+        return db === null ? null : { db, w };
+      },
+      wTop,
+      0,
+      12,
+    );
     if (runs.length > 0) out.push({ family: 'volume', value: vDisp, runs });
   }
   return out;
@@ -317,11 +367,17 @@ export function mixingLine(layout: ChartLayout, a: DbW & { h?: number }, b: DbW 
   const ha = a.h ?? enthalpyOf(a.db, a.w);
   const hb = b.h ?? enthalpyOf(b.db, b.w);
   if (ha === null || hb === null) return [];
-  const runs = sampleCurve(layout, (f) => {
-    const w = a.w + (b.w - a.w) * f;
-    const h = ha + (hb - ha) * f;
-    const db = f === 0 ? a.db : f === 1 ? b.db : dbAtEnthalpy(h, w);
-    return db === null ? null : { db, w };
-  }, 0, 1, 8);
+  const runs = sampleCurve(
+    layout,
+    (f) => {
+      const w = a.w + (b.w - a.w) * f;
+      const h = ha + (hb - ha) * f;
+      const db = f === 0 ? a.db : f === 1 ? b.db : dbAtEnthalpy(h, w);
+      return db === null ? null : { db, w };
+    },
+    0,
+    1,
+    8,
+  );
   return runs;
 }

@@ -53,7 +53,8 @@ function diagnosticFinder(analysis: Analysis): (span: Span) => CoreDiagnostic[] 
       else hi = mid;
     }
     const out: CoreDiagnostic[] = [];
-    for (let i = lo; i < all.length && all[i]!.span.start <= span.end; i++) if (within(all[i]!.span, span)) out.push(all[i]!);
+    for (let i = lo; i < all.length && all[i]!.span.start <= span.end; i++)
+      if (within(all[i]!.span, span)) out.push(all[i]!);
     return out;
   };
 }
@@ -134,7 +135,9 @@ export function chartDataFromAnalysis(analysis: Analysis, options: FromAnalysisO
         ...(line !== undefined ? { line } : {}),
       });
       if (s.fog) {
-        const why = diags.find((d) => d.code === 'supersaturated' || d.code === 'recovery-condensation' || d.code === 'recovery-frost');
+        const why = diags.find(
+          (d) => d.code === 'supersaturated' || d.code === 'recovery-condensation' || d.code === 'recovery-frost',
+        );
         infeasible.push({
           name: st.name,
           plotted: true,
@@ -160,7 +163,13 @@ export function chartDataFromAnalysis(analysis: Analysis, options: FromAnalysisO
     const ends = st.keyword === 'process' ? [st] : st.keyword === 'recover' ? st.streams : [];
     for (const x of ends) {
       if (!x.from || !x.to) continue;
-      processes.push({ name: st.name.text, from: x.from.text, to: x.to.text, flagged: true, ...(line !== undefined ? { line } : {}) });
+      processes.push({
+        name: st.name.text,
+        from: x.from.text,
+        to: x.to.text,
+        flagged: true,
+        ...(line !== undefined ? { line } : {}),
+      });
     }
   }
   const pressure = notePressure(analysis);

@@ -80,7 +80,8 @@ export class Grid {
     this.grow(item);
     const c1 = this.col(b.x + b.w);
     const r1 = this.row(b.y + b.h);
-    for (let r = this.row(b.y); r <= r1; r++) for (let c = this.col(b.x); c <= c1; c++) this.file(r * this.nx + c, item);
+    for (let r = this.row(b.y); r <= r1; r++)
+      for (let c = this.col(b.x); c <= c1; c++) this.file(r * this.nx + c, item);
     return item;
   }
 

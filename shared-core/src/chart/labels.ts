@@ -61,9 +61,20 @@ export interface PlacementStats extends GridStats {
 
 /** Directions in order of preference: right, up-right, down-right, up, down, left, up-left, down-left. */
 const DIRS: readonly (readonly [number, number])[] = [
-  [1, 0], [0.72, -0.72], [0.72, 0.72], [0, -1], [0, 1], [-1, 0], [-0.72, -0.72], [-0.72, 0.72],
+  [1, 0],
+  [0.72, -0.72],
+  [0.72, 0.72],
+  [0, -1],
+  [0, 1],
+  [-1, 0],
+  [-0.72, -0.72],
+  [-0.72, 0.72],
 ];
-const RINGS: readonly (readonly [number, number])[] = [[0, 9], [1, 26], [2, 46]];
+const RINGS: readonly (readonly [number, number])[] = [
+  [0, 9],
+  [1, 26],
+  [2, 46],
+];
 
 /**
  * Places the labels. `markers` are every point's own box (a label should not cover any point),
@@ -85,7 +96,9 @@ export function placeLabels(
   const segmentGrid = new Grid(bounds, stats);
   for (const [a, b] of segments) segmentGrid.addSegment(a, b);
   const samples = segments.map(([a, b]) => samplesOf(a, b));
-  const order = requests.map((_, i) => i).sort((i, j) => requests[i]!.anchor.y - requests[j]!.anchor.y || requests[i]!.anchor.x - requests[j]!.anchor.x);
+  const order = requests
+    .map((_, i) => i)
+    .sort((i, j) => requests[i]!.anchor.y - requests[j]!.anchor.y || requests[i]!.anchor.x - requests[j]!.anchor.x);
   for (const i of order) {
     const req = requests[i]!;
     let best: { box: Box; score: number; leader: boolean } | null = null;
@@ -97,15 +110,31 @@ export function placeLabels(
         const box: Box = { x: cx - req.width / 2, y: cy - req.height / 2, w: req.width, h: req.height };
         if (stats) stats.candidates++;
         let score = ring * 40 + k * 3;
-        if (box.x < bounds.left + 2 || box.y < bounds.top + 2 || box.x + box.w > bounds.right - 2 || box.y + box.h > bounds.bottom - 2) score += 100_000;
+        if (
+          box.x < bounds.left + 2 ||
+          box.y < bounds.top + 2 ||
+          box.x + box.w > bounds.right - 2 ||
+          box.y + box.h > bounds.bottom - 2
+        )
+          score += 100_000;
         // Every term is positive: once the score reaches the best so far, this spot cannot win.
         const bar = best ? best.score : Infinity;
-        if (score < bar) for (const t of takenGrid.near(box, NEAR_LIMIT).items) if ((score += overlap(box, taken[t]!) * 50) >= bar) break;
-        if (score < bar) for (const m of markerGrid.near(box, NEAR_LIMIT).items) if ((score += overlap(box, markers[m]!) * 80) >= bar) break;
+        if (score < bar)
+          for (const t of takenGrid.near(box, NEAR_LIMIT).items) {
+            score += overlap(box, taken[t]!) * 50;
+            if (score >= bar) break;
+          }
+        if (score < bar)
+          for (const m of markerGrid.near(box, NEAR_LIMIT).items) {
+            score += overlap(box, markers[m]!) * 80;
+            if (score >= bar) break;
+          }
         if (score < bar) {
           for (const s of segmentGrid.near(box, NEAR_LIMIT).items) {
             const [a, b] = segments[s]!;
-            if (segmentHitsBox(a, b, box, samples[s]!) && (score += 150) >= bar) break;
+            if (!segmentHitsBox(a, b, box, samples[s]!)) continue;
+            score += 150;
+            if (score >= bar) break;
           }
         }
         if (score < bar) best = { box, score, leader: ring > 0 };

@@ -62,7 +62,14 @@ interface Ctx {
 }
 
 /** Whether a family line's label fits at `at` (inside the plot, clear of the others); takes its place if so. */
-function familyLabelFits(layout: ChartLayout, taken: Box[], text: string, at: Pixel, anchor: 'start' | 'end' | 'middle', dy: number): boolean {
+function familyLabelFits(
+  layout: ChartLayout,
+  taken: Box[],
+  text: string,
+  at: Pixel,
+  anchor: 'start' | 'end' | 'middle',
+  dy: number,
+): boolean {
   const w = textWidth(text, 10);
   const x0 = anchor === 'start' ? at.x : anchor === 'end' ? at.x - w : at.x - w / 2;
   const box: Box = { x: x0 - 2, y: at.y + dy - 9, w: w + 4, h: 12 };
@@ -108,7 +115,10 @@ function firstPoint(c: ChartCurve): Pixel | undefined {
 function drawCurves(ctx: Ctx, curves: ChartCurve[], cls: (c: ChartCurve) => string): void {
   for (const c of curves) {
     const d = c.runs.map(pathOf).join('');
-    if (d) ctx.out.push(`<path class="${cls(c)}" data-family="${c.family}" data-value="${label(c.value).replace('\u2212', '-')}" d="${d}"/>`);
+    if (d)
+      ctx.out.push(
+        `<path class="${cls(c)}" data-family="${c.family}" data-value="${label(c.value).replace('\u2212', '-')}" d="${d}"/>`,
+      );
   }
 }
 
@@ -141,13 +151,17 @@ function axes(ctx: Ctx): void {
     const x = toPixel(layout, toSI(t, u.temperature), range.wMin).x;
     grid.push(`M${n(x)} ${n(plot.top)}V${n(plot.bottom)}`);
     ticks.push(`<line class="dmc-axis" x1="${n(x)}" y1="${n(plot.bottom)}" x2="${n(x)}" y2="${n(plot.bottom + 5)}"/>`);
-    ticks.push(`<text class="dmc-tick" data-axis="db" x="${n(x)}" y="${n(plot.bottom + 18)}" text-anchor="middle">${label(t)}</text>`);
+    ticks.push(
+      `<text class="dmc-tick" data-axis="db" x="${n(x)}" y="${n(plot.bottom + 18)}" text-anchor="middle">${label(t)}</text>`,
+    );
   }
   for (const w of stepsIn(wLo, wHi, wStep)) {
     const y = toPixel(layout, range.dbMin, toSI(w, u.humidityRatio)).y;
     grid.push(`M${n(plot.left)} ${n(y)}H${n(plot.right)}`);
     ticks.push(`<line class="dmc-axis" x1="${n(plot.left - 5)}" y1="${n(y)}" x2="${n(plot.left)}" y2="${n(y)}"/>`);
-    ticks.push(`<text class="dmc-tick" data-axis="w" x="${n(plot.left - 8)}" y="${n(y + 3.5)}" text-anchor="end">${label(w)}</text>`);
+    ticks.push(
+      `<text class="dmc-tick" data-axis="w" x="${n(plot.left - 8)}" y="${n(y + 3.5)}" text-anchor="end">${label(w)}</text>`,
+    );
   }
   out.push(`<path class="dmc-grid" d="${grid.join('')}"/>`);
   ctx.out.push('<g class="dmc-axes">');
@@ -195,17 +209,27 @@ function captionLines(data: ChartData): string[] {
 
 function flagLines(data: ChartData): string[] {
   const items = data.infeasible.map(
-    (f) => `${f.name}${f.line ? ` (line ${f.line})` : ''} \u2014 ${f.plotted ? 'marked on the chart' : 'not plotted'}: ${f.reason}`,
+    (f) =>
+      `${f.name}${f.line ? ` (line ${f.line})` : ''} \u2014 ${f.plotted ? 'marked on the chart' : 'not plotted'}: ${f.reason}`,
   );
   const byName = new Set(data.points.map((p) => p.name));
   for (const pr of data.processes) {
     const missing = [pr.from, pr.to].filter((s) => !byName.has(s));
-    if (missing.length > 0) items.push(`process ${pr.name}${pr.line ? ` (line ${pr.line})` : ''} \u2014 not drawn: ${missing.join(' and ')} not plotted.`);
-    else if (pr.flagged) items.push(`process ${pr.name}${pr.line ? ` (line ${pr.line})` : ''} \u2014 drawn dashed: the note's diagnostics flag it.`);
+    if (missing.length > 0)
+      items.push(
+        `process ${pr.name}${pr.line ? ` (line ${pr.line})` : ''} \u2014 not drawn: ${missing.join(' and ')} not plotted.`,
+      );
+    else if (pr.flagged)
+      items.push(
+        `process ${pr.name}${pr.line ? ` (line ${pr.line})` : ''} \u2014 drawn dashed: the note's diagnostics flag it.`,
+      );
   }
   for (const m of data.mixes) {
     const missing = m.streams.filter((s) => !byName.has(s));
-    if (missing.length > 0) items.push(`mix ${m.name}${m.line ? ` (line ${m.line})` : ''} \u2014 mixing line not drawn: ${missing.join(' and ')} not plotted.`);
+    if (missing.length > 0)
+      items.push(
+        `mix ${m.name}${m.line ? ` (line ${m.line})` : ''} \u2014 mixing line not drawn: ${missing.join(' and ')} not plotted.`,
+      );
   }
   return items;
 }
@@ -237,7 +261,10 @@ function describe(data: ChartData, layout: ChartLayout): string {
     );
   } else parts.push('No states are plotted.');
   for (const m of data.mixes) parts.push(`Mixing line of ${m.streams.join(' and ')} through ${m.name}.`);
-  for (const pr of data.processes) parts.push(`Process ${pr.name}: arrow from ${pr.from} to ${pr.to}${pr.kind ? ` (${pr.kind.replace(/-/g, ' ')})` : ''}.`);
+  for (const pr of data.processes)
+    parts.push(
+      `Process ${pr.name}: arrow from ${pr.from} to ${pr.to}${pr.kind ? ` (${pr.kind.replace(/-/g, ' ')})` : ''}.`,
+    );
   for (const f of data.infeasible) parts.push(`${f.name}: ${f.plotted ? 'marked' : 'not plotted'}, ${f.reason}`);
   return parts.join(' ');
 }
@@ -465,7 +492,8 @@ function placeChart(m: Measured, stats?: PlacementStats): Placed {
   for (const c of m.rh) upperEnd(c, `${c.value}%`, 'dmc-lbl-rh');
   for (const c of m.wbLines) {
     const p = firstPoint(c);
-    if (p && p.x > plot.left + 1 && p.y > plot.top + 1) tryLabel(label(c.value), 'dmc-lbl-wb', { x: p.x - 3, y: p.y }, 'end', -3);
+    if (p && p.x > plot.left + 1 && p.y > plot.top + 1)
+      tryLabel(label(c.value), 'dmc-lbl-wb', { x: p.x - 3, y: p.y }, 'end', -3);
   }
   for (const c of m.hLines) {
     const p = lastPoint(c);
@@ -478,7 +506,12 @@ function placeChart(m: Measured, stats?: PlacementStats): Placed {
     if (p && p.y >= plot.bottom - 1) tryLabel(label(c.value), 'dmc-lbl-v', { x: p.x - 3, y: plot.bottom }, 'end', -16);
   }
 
-  const markers: Box[] = m.plotted.map(({ px }) => ({ x: px.x - MARKER_RADIUS - 2, y: px.y - MARKER_RADIUS - 2, w: 2 * MARKER_RADIUS + 4, h: 2 * MARKER_RADIUS + 4 }));
+  const markers: Box[] = m.plotted.map(({ px }) => ({
+    x: px.x - MARKER_RADIUS - 2,
+    y: px.y - MARKER_RADIUS - 2,
+    w: 2 * MARKER_RADIUS + 4,
+    h: 2 * MARKER_RADIUS + 4,
+  }));
   const tags = placeLabels(
     m.plotted.map(({ p, px }) => ({ anchor: px, width: textWidth(tagText(p), 11) + 12, height: 18 })),
     markers,
@@ -502,20 +535,32 @@ function placeChart(m: Measured, stats?: PlacementStats): Placed {
     const len = Math.hypot(dx, dy) || 1;
     const w = textWidth(r.text, 10.5);
     let chosen: Box | null = null;
-    for (const [t, off] of [[0.5, 12], [0.35, 12], [0.65, 12], [0.2, 12], [0.8, 12], [0.5, 24], [0.5, 38], [0.5, 54]] as const) {
+    for (const [t, off] of [
+      [0.5, 12],
+      [0.35, 12],
+      [0.65, 12],
+      [0.2, 12],
+      [0.8, 12],
+      [0.5, 24],
+      [0.5, 38],
+      [0.5, 54],
+    ] as const) {
       for (const side of [1, -1]) {
         const cx = r.start.x + dx * t + (side * dy * off) / len;
         const cy = r.start.y + dy * t - (side * dx * off) / len;
         const box: Box = { x: cx - w / 2, y: cy - 7, w, h: 13 };
         if (stats) stats.candidates++;
-        const inside = box.x >= plot.left && box.y >= plot.top && box.x + box.w <= plot.right && box.y + box.h <= plot.bottom;
+        const inside =
+          box.x >= plot.left && box.y >= plot.top && box.x + box.w <= plot.right && box.y + box.h <= plot.bottom;
         if (!inside) continue;
         // A spot with more boxes near it than the look-up weighs is taken (it is crowded).
         const near = blocked.near(box, NEAR_LIMIT);
-        const free = !near.crowded && near.items.every((i) => {
-          const b = blockedBoxes[i]!;
-          return box.x >= b.x + b.w || b.x >= box.x + box.w || box.y >= b.y + b.h || b.y >= box.y + box.h;
-        });
+        const free =
+          !near.crowded &&
+          near.items.every((i) => {
+            const b = blockedBoxes[i]!;
+            return box.x >= b.x + b.w || b.x >= box.x + box.w || box.y >= b.y + b.h || b.y >= box.y + box.h;
+          });
         if (free) {
           chosen = box;
           break;
@@ -548,13 +593,17 @@ function drawChart(m: Measured, placed: Placed): string {
   out.push(`<title id="${id}-title">${escapeXml(m.title)}</title>`);
   out.push(`<desc id="${id}-desc">${escapeXml(describe(data, full))}</desc>`);
   out.push(`<style${m.nonce}>${chartCss()}</style>`);
-  out.push(`<defs><clipPath id="${id}-clip"><rect x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/></clipPath></defs>`);
+  out.push(
+    `<defs><clipPath id="${id}-clip"><rect x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/></clipPath></defs>`,
+  );
   out.push(`<rect class="dmc-page" x="0" y="0" width="${full.width}" height="${height}"/>`);
   out.push(`<text class="dmc-heading" x="${n(plot.left)}" y="24">${escapeXml(m.title)}</text>`);
   out.push(
     `<text class="dmc-sub" x="${n(plot.left)}" y="41">${escapeXml(`${formatQuantity(data.pressurePa, 'pressure', data.units).text} \u00b7 ${data.units} \u00b7 dry-bulb against humidity ratio`)}</text>`,
   );
-  out.push(`<rect class="dmc-panel" x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/>`);
+  out.push(
+    `<rect class="dmc-panel" x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/>`,
+  );
 
   out.push(`<g clip-path="url(#${id}-clip)">`);
   fogRegion(ctx, m.sat);
@@ -571,15 +620,20 @@ function drawChart(m: Measured, placed: Placed): string {
 
   out.push('<g class="dmc-line-labels">');
   for (const f of placed.family) {
-    out.push(`<text class="dmc-lbl ${f.cls}" x="${n(f.at.x)}" y="${n(f.at.y + f.dy)}" text-anchor="${f.anchor}">${escapeXml(f.text)}</text>`);
+    out.push(
+      `<text class="dmc-lbl ${f.cls}" x="${n(f.at.x)}" y="${n(f.at.y + f.dy)}" text-anchor="${f.anchor}">${escapeXml(f.text)}</text>`,
+    );
   }
   out.push('</g>');
 
   out.push(`<g class="dmc-overlay" clip-path="url(#${id}-clip)">`);
-  for (const r of m.mixRuns) out.push(`<path class="dmc-mixline" data-mix="${escapeXml(r.name)}" d="${pathOf(r.run)}"/>`);
+  for (const r of m.mixRuns)
+    out.push(`<path class="dmc-mixline" data-mix="${escapeXml(r.name)}" d="${pathOf(r.run)}"/>`);
   for (const { process: pr, start, tip, base, ux, uy } of m.arrows) {
     const flagged = pr.flagged ? ' dmc-flagged' : '';
-    out.push(`<g class="dmc-process-group" data-process="${escapeXml(pr.name)}" data-from="${escapeXml(pr.from)}" data-to="${escapeXml(pr.to)}">`);
+    out.push(
+      `<g class="dmc-process-group" data-process="${escapeXml(pr.name)}" data-from="${escapeXml(pr.from)}" data-to="${escapeXml(pr.to)}">`,
+    );
     out.push(`<path class="dmc-process${flagged}" d="M${n(start.x)} ${n(start.y)}L${n(base.x)} ${n(base.y)}"/>`);
     out.push(
       `<path class="${pr.flagged ? 'dmc-arrow-flag' : 'dmc-arrow'}" d="M${n(tip.x)} ${n(tip.y)}L${n(base.x - uy * 4.5)} ${n(base.y + ux * 4.5)}L${n(base.x + uy * 4.5)} ${n(base.y - ux * 4.5)}Z"/>`,
@@ -593,7 +647,9 @@ function drawChart(m: Measured, placed: Placed): string {
     const kind = pointClass(p);
     const where = positionText(p, data.units);
     out.push(`<g class="dmc-point" data-name="${escapeXml(p.name)}">`);
-    out.push(`<title>${escapeXml(`${p.kind === 'mix' ? 'mix' : 'state'} ${p.name}: ${where}${p.fog ? ' \u2014 fog region (infeasible as vapour)' : ''}`)}</title>`);
+    out.push(
+      `<title>${escapeXml(`${p.kind === 'mix' ? 'mix' : 'state'} ${p.name}: ${where}${p.fog ? ' \u2014 fog region (infeasible as vapour)' : ''}`)}</title>`,
+    );
     const lp = placed.tags[i]!;
     if (lp.leader) {
       const bx = Math.max(lp.box.x, Math.min(px.x, lp.box.x + lp.box.w));
@@ -605,7 +661,9 @@ function drawChart(m: Measured, placed: Placed): string {
     );
     if (p.fog) {
       const k = MARKER_RADIUS * 0.6;
-      out.push(`<path class="dmc-fogcross" d="M${n(px.x - k)} ${n(px.y - k)}L${n(px.x + k)} ${n(px.y + k)}M${n(px.x - k)} ${n(px.y + k)}L${n(px.x + k)} ${n(px.y - k)}"/>`);
+      out.push(
+        `<path class="dmc-fogcross" d="M${n(px.x - k)} ${n(px.y - k)}L${n(px.x + k)} ${n(px.y + k)}M${n(px.x - k)} ${n(px.y + k)}L${n(px.x + k)} ${n(px.y - k)}"/>`,
+      );
     }
     out.push(
       `<rect class="dmc-tag${p.kind === 'mix' ? ' dmc-tag-mix' : ''}${p.fog ? ' dmc-tag-fog' : ''}" x="${n(lp.box.x)}" y="${n(lp.box.y)}" width="${n(lp.box.w)}" height="${n(lp.box.h)}" rx="9"/>`,
@@ -619,18 +677,26 @@ function drawChart(m: Measured, placed: Placed): string {
 
   out.push('<g class="dmc-process-names">');
   for (const { text, box } of placed.names) {
-    out.push(`<text class="dmc-process-name" x="${n(box.x + box.w / 2)}" y="${n(box.y + 10)}" text-anchor="middle">${escapeXml(text)}</text>`);
+    out.push(
+      `<text class="dmc-process-name" x="${n(box.x + box.w / 2)}" y="${n(box.y + 10)}" text-anchor="middle">${escapeXml(text)}</text>`,
+    );
   }
   out.push('</g>');
 
   legend(ctx, m.legendY);
   m.captions.forEach((line, i) => {
-    out.push(`<text class="dmc-caption" data-caption="${i}" x="${n(plot.left)}" y="${n(m.captionY + i * 15)}">${escapeXml(line)}</text>`);
+    out.push(
+      `<text class="dmc-caption" data-caption="${i}" x="${n(plot.left)}" y="${n(m.captionY + i * 15)}">${escapeXml(line)}</text>`,
+    );
   });
   if (m.flags.length > 0) {
-    out.push(`<g class="dmc-flags"><text class="dmc-flag-title" x="${n(plot.left)}" y="${n(m.flagsY + 4)}">Flagged</text>`);
+    out.push(
+      `<g class="dmc-flags"><text class="dmc-flag-title" x="${n(plot.left)}" y="${n(m.flagsY + 4)}">Flagged</text>`,
+    );
     m.flags.forEach((line, i) => {
-      out.push(`<text class="dmc-flag-item" x="${n(plot.left + 12)}" y="${n(m.flagsY + 20 + i * 15)}">${escapeXml(line)}</text>`);
+      out.push(
+        `<text class="dmc-flag-item" x="${n(plot.left + 12)}" y="${n(m.flagsY + 20 + i * 15)}">${escapeXml(line)}</text>`,
+      );
     });
     out.push('</g>');
   }

@@ -27,7 +27,8 @@ export interface ChartWebviewOptions {
 
 /** A nonce is only letters, digits and `+/=_-` (what base64 and hex produce). */
 function checkNonce(nonce: string): string {
-  if (!/^[A-Za-z0-9+/=_-]{16,}$/.test(nonce)) throw new RangeError('chartWebviewHtml: the nonce must be at least 16 base64 or hex characters');
+  if (!/^[A-Za-z0-9+/=_-]{16,}$/.test(nonce))
+    throw new RangeError('chartWebviewHtml: the nonce must be at least 16 base64 or hex characters');
   return nonce;
 }
 

@@ -14,7 +14,9 @@ const EDGE_SLACK = 1e-9;
  * unit's display precision, without the unit (`rh=50%` → `49.6`).
  */
 export function computedNumberText(computedSI: number, q: ResolvedQuantity): string {
-  const text = q.unit ? formatInUnit(computedSI, q.unit, q.quantity.number.resolution, '') : formatAtResolution(computedSI, q.quantity.number.resolution);
+  const text = q.unit
+    ? formatInUnit(computedSI, q.unit, q.quantity.number.resolution, '')
+    : formatAtResolution(computedSI, q.quantity.number.resolution);
   // Written with thousands separators (`169,100`): the replacement keeps them (`171,420`).
   return q.quantity.number.text.includes(',') ? withThousandsSeparators(text) : text;
 }

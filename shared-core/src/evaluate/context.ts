@@ -68,7 +68,8 @@ export class EvalContext {
       elevationM: null,
       describe: `${origin} ${formatSig(settings.pressurePa / 1000, 6)} kPa`,
       // The origin words end in ", i.e." or ":" when they lead into the figure of `describe`.
-      origin: settings.pressureOrigin === 'default' ? 'default (no site: line)' : origin.replace(/(,\s*i\.e\.|:)\s*$/, ''),
+      origin:
+        settings.pressureOrigin === 'default' ? 'default (no site: line)' : origin.replace(/(,\s*i\.e\.|:)\s*$/, ''),
     };
   }
 

@@ -19,7 +19,6 @@ import {
   adiabaticByEffectiveness,
   adiabaticToDb,
   adiabaticToRh,
-  apparatusDewPoint,
   coilFromAdp,
   fanLeaving,
   fanTemperatureRise,
@@ -73,7 +72,7 @@ const FORM_WORDS: Readonly<Record<string, string>> = {
 
 /** `heat=` for a key, the word itself for an equipment word. */
 function keyText(k: string): string {
-  return Object.prototype.hasOwnProperty.call(PROCESS_WORDS, k) ? k : `${k}=`;
+  return Object.hasOwn(PROCESS_WORDS, k) ? k : `${k}=`;
 }
 
 /** Whether a process statement carries a specification that can define its leaving state. */
@@ -107,7 +106,13 @@ export interface Derivation {
 }
 
 /** The outcome of a model, reported on the key it blames; null when it failed. */
-function modelValue<T>(ctx: EvalContext, what: string, o: EquipmentOutcome<T>, props: ReadProp[], fallback: Span): T | null {
+function modelValue<T>(
+  ctx: EvalContext,
+  what: string,
+  o: EquipmentOutcome<T>,
+  props: ReadProp[],
+  fallback: Span,
+): T | null {
   if (o.ok) return o.value;
   ctx.report(problemReport(what, o.problem, props, fallback));
   return null;
@@ -146,7 +151,14 @@ function difference(p: ReadProp): number {
  * dry-air flow (null when unknown). Reports every problem of the specification; null when the
  * state cannot be defined. `props` are the statement's readable properties.
  */
-export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: string, props: ReadProp[], from: StateResult, massFlow: number | null): Derivation | null {
+export function deriveLeaving(
+  ctx: EvalContext,
+  stmt: ProcessStatement,
+  what: string,
+  props: ReadProp[],
+  from: StateResult,
+  massFlow: number | null,
+): Derivation | null {
   const a = from.state!;
   const toName = stmt.to?.text ?? 'the leaving state';
   const fallback = stmt.to?.span ?? stmt.keywordSpan;
@@ -155,7 +167,7 @@ export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: st
   // The equipment words.
   let word: { text: string; span: Span } | null = null;
   for (const w of stmt.words) {
-    if (!Object.prototype.hasOwnProperty.call(PROCESS_WORDS, w.text)) {
+    if (!Object.hasOwn(PROCESS_WORDS, w.text)) {
       const suggestion = suggestName(w.text, Object.keys(PROCESS_WORDS));
       ctx.report({
         code: 'unknown-key',
@@ -209,7 +221,12 @@ export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: st
   }
   if (forms.has('steam') && !word) {
     const ps = get('p_steam')!;
-    ctx.report({ code: 'spec-missing', severity: 'error', message: `${what}: p_steam= is the steam supply of a steam humidifier; add the word steam and a target (e.g. steam w=5.65g/kg p_steam=200kPa)`, span: ps.prop.span });
+    ctx.report({
+      code: 'spec-missing',
+      severity: 'error',
+      message: `${what}: p_steam= is the steam supply of a steam humidifier; add the word steam and a target (e.g. steam w=5.65g/kg p_steam=200kPa)`,
+      span: ps.prop.span,
+    });
     return null;
   }
   const form: EquipmentResult['form'] = forms.keys().next().value ?? 'leaving';
@@ -236,7 +253,11 @@ export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: st
         return null;
       }
       if (heat) {
-        if (massFlow === null) return missing(`heat=${heat.q.quantity.number.text}${heat.q.unitText} needs the dry-air flow to find the leaving temperature: add m= or q=, or let the process leave a mix (or a state) that carries a flow`, heat.prop.span);
+        if (massFlow === null)
+          return missing(
+            `heat=${heat.q.quantity.number.text}${heat.q.unitText} needs the dry-air flow to find the leaving temperature: add m= or q=, or let the process leave a mix (or a state) that carries a flow`,
+            heat.prop.span,
+          );
         const state = guard(() => modelValue(ctx, what, sensibleByDuty(a, heat.q.si, massFlow), props, fallback));
         if (!state) return null;
         out = { state, equipment: { form, spec }, defining: [], used: [heat], adp: null, claims: [] };
@@ -250,38 +271,91 @@ export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: st
     case 'fan': {
       const dp = get('dp_fan');
       const motor = get('eff_motor');
-      if (!dp) return missing(`a fan needs its total pressure rise: add dp_fan= (e.g. dp_fan=750Pa eff=0.62)`, (motor ?? eff)?.prop.span ?? fallback);
-      if (!eff) return missing(`a fan needs its total efficiency (electrical input to air power): add eff= (e.g. dp_fan=${dp.q.quantity.number.text}${dp.q.unitText} eff=0.62)`, dp.prop.span);
+      if (!dp)
+        return missing(
+          `a fan needs its total pressure rise: add dp_fan= (e.g. dp_fan=750Pa eff=0.62)`,
+          (motor ?? eff)?.prop.span ?? fallback,
+        );
+      if (!eff)
+        return missing(
+          `a fan needs its total efficiency (electrical input to air power): add eff= (e.g. dp_fan=${dp.q.quantity.number.text}${dp.q.unitText} eff=0.62)`,
+          dp.prop.span,
+        );
       const o = { dpPa: dp.q.si, efficiency: eff.q.si, motorEfficiency: motor ? motor.q.si : null };
       const state = guard(() => modelValue(ctx, what, fanLeaving(a, o), props, fallback));
       if (!state) return null;
-      out = { state, equipment: { form, spec, fanRiseK: fanTemperatureRise(a, o) }, defining: [], used: [dp, eff, ...(motor ? [motor] : [])], adp: null, claims: [] };
+      out = {
+        state,
+        equipment: { form, spec, fanRiseK: fanTemperatureRise(a, o) },
+        defining: [],
+        used: [dp, eff, ...(motor ? [motor] : [])],
+        adp: null,
+        claims: [],
+      };
       break;
     }
     case 'coil': {
       const adp = get('adp');
       const bf = get('bf');
-      if (!adp) return missing(`bf= needs the apparatus dew point: add adp= (e.g. adp=11C bf=${bf!.q.quantity.number.text}${bf!.q.unitText})`, bf!.prop.span);
-      if (!bf) return missing(`adp= needs the bypass factor (the share of air that misses the coil; contact factor 1 − bf): add bf= (e.g. adp=${adp.q.quantity.number.text}${adp.q.unitText} bf=0.1)`, adp.prop.span);
+      if (!adp)
+        return missing(
+          `bf= needs the apparatus dew point: add adp= (e.g. adp=11C bf=${bf!.q.quantity.number.text}${bf!.q.unitText})`,
+          bf!.prop.span,
+        );
+      if (!bf)
+        return missing(
+          `adp= needs the bypass factor (the share of air that misses the coil; contact factor 1 − bf): add bf= (e.g. adp=${adp.q.quantity.number.text}${adp.q.unitText} bf=0.1)`,
+          adp.prop.span,
+        );
       const r = guard(() => modelValue(ctx, what, coilFromAdp(a, adp.q.si, bf.q.si), props, fallback));
       if (!r) return null;
-      out = { state: r.state, equipment: { form, spec, dryCoil: r.dry }, defining: [], used: [adp, bf], adp: r.dry ? null : { adp: adp.q.si, bf: bf.q.si }, claims: [] };
+      out = {
+        state: r.state,
+        equipment: { form, spec, dryCoil: r.dry },
+        defining: [],
+        used: [adp, bf],
+        adp: r.dry ? null : { adp: adp.q.si, bf: bf.q.si },
+        claims: [],
+      };
       break;
     }
     case 'steam': {
       const target = props.find((p) => p.key === 'w' || p.key === 'rh');
-      if (!target) return missing(`a steam humidifier needs its target: add w= (e.g. steam w=5.65g/kg) or rh= (e.g. steam rh=40%)`, word!.span);
+      if (!target)
+        return missing(
+          `a steam humidifier needs its target: add w= (e.g. steam w=5.65g/kg) or rh= (e.g. steam rh=40%)`,
+          word!.span,
+        );
       const ps = get('p_steam');
       const steam = guard(() => steamEnthalpy(ps ? ps.q.si : undefined));
       if (!steam) return null;
-      const r = guard(() => modelValue(ctx, what, target.key === 'w' ? steamToW(a, target.q.si, steam.h) : steamToRh(a, target.q.si, steam.h), props, fallback));
+      const r = guard(() =>
+        modelValue(
+          ctx,
+          what,
+          target.key === 'w' ? steamToW(a, target.q.si, steam.h) : steamToRh(a, target.q.si, steam.h),
+          props,
+          fallback,
+        ),
+      );
       if (!r) return null;
-      out = { state: r.state, equipment: { form, spec, steamTempC: steam.tSat, steamEnthalpyJkg: steam.h }, defining: [], used: [target, ...(ps ? [ps] : [])], adp: null, claims: [] };
+      out = {
+        state: r.state,
+        equipment: { form, spec, steamTempC: steam.tSat, steamEnthalpyJkg: steam.h },
+        defining: [],
+        used: [target, ...(ps ? [ps] : [])],
+        adp: null,
+        claims: [],
+      };
       break;
     }
     case 'adiabatic': {
       const target = eff ?? props.find((p) => p.key === 'rh' || p.key === 'db' || p.key === 'w');
-      if (!target) return missing(`an adiabatic humidifier needs its saturation effectiveness or a target: add eff= (e.g. adiabatic eff=0.85), rh= or db=`, word!.span);
+      if (!target)
+        return missing(
+          `an adiabatic humidifier needs its saturation effectiveness or a target: add eff= (e.g. adiabatic eff=0.85), rh= or db=`,
+          word!.span,
+        );
       const r = guard(() => {
         switch (target.key) {
           case 'eff':
@@ -293,12 +367,31 @@ export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: st
           default: {
             // To a target humidity ratio on the wet-bulb line.
             if (target.q.si < a.w) {
-              ctx.report(problemReport(what, { code: 'unreachable', key: 'w', message: `the target humidity ratio is below the entering one: evaporating water only adds moisture`, fix: 'give a higher target' }, props, fallback));
+              ctx.report(
+                problemReport(
+                  what,
+                  {
+                    code: 'unreachable',
+                    key: 'w',
+                    message: `the target humidity ratio is below the entering one: evaporating water only adds moisture`,
+                    fix: 'give a higher target',
+                  },
+                  props,
+                  fallback,
+                ),
+              );
               return null;
             }
             const s = solveState({ wb: a.wb, w: target.q.si }, a.p);
             if (!s.ok) {
-              ctx.report(problemReport(what, { code: 'unreachable', key: 'w', message: s.problem.message.replace(/\.$/, ''), fix: s.problem.fix }, props, fallback));
+              ctx.report(
+                problemReport(
+                  what,
+                  { code: 'unreachable', key: 'w', message: s.problem.message.replace(/\.$/, ''), fix: s.problem.fix },
+                  props,
+                  fallback,
+                ),
+              );
               return null;
             }
             return { state: s.state, dw: s.state.w - a.w };
@@ -306,16 +399,30 @@ export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: st
         }
       });
       if (!r) return null;
-      out = { state: r.state, equipment: { form, spec, saturationEffectiveness: saturationEffectiveness(a, r.state) }, defining: [], used: [target], adp: null, claims: [] };
+      out = {
+        state: r.state,
+        equipment: { form, spec, saturationEffectiveness: saturationEffectiveness(a, r.state) },
+        defining: [],
+        used: [target],
+        adp: null,
+        claims: [],
+      };
       break;
     }
     case 'leaving': {
       const defs = props.filter((p) => isDefiningKey(p.key));
-      if (defs.length === 0) return missing(`to define ${toName}, give the equipment (heat=, dt=, dp_fan= eff=, adp= bf=, steam w=…, adiabatic eff=…) or ${toName}'s dry-bulb (db=) and, for a coil, its rh= or w=`, props.find((p) => STATE_KEY_SET.has(p.key))?.prop.span ?? fallback);
+      if (defs.length === 0)
+        return missing(
+          `to define ${toName}, give the equipment (heat=, dt=, dp_fan= eff=, adp= bf=, steam w=…, adiabatic eff=…) or ${toName}'s dry-bulb (db=) and, for a coil, its rh= or w=`,
+          props.find((p) => STATE_KEY_SET.has(p.key))?.prop.span ?? fallback,
+        );
       if (defs.length === 1) {
         const only = defs[0]!;
         if (only.key !== 'db') {
-          return missing(`${only.key}= alone does not fix ${toName}: add db= (the leaving dry-bulb with ${only.key}= fixes it), or give the equipment (steam, adiabatic, adp= bf=…)`, only.prop.span);
+          return missing(
+            `${only.key}= alone does not fix ${toName}: add db= (the leaving dry-bulb with ${only.key}= fixes it), or give the equipment (steam, adiabatic, adp= bf=…)`,
+            only.prop.span,
+          );
         }
         const state = guard(() => modelValue(ctx, what, sensibleToDb(a, only.q.si), props, fallback));
         if (!state) return null;
@@ -323,16 +430,44 @@ export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: st
         break;
       }
       const pairs = candidatePairs(defs);
-      if (pairs.length === 0) return missing(`${writtenList(defs)} fix the same thing (the moisture content) twice; add db= to fix ${toName}`, spanUnion(...defs.map((d) => d.prop.span)));
+      if (pairs.length === 0)
+        return missing(
+          `${writtenList(defs)} fix the same thing (the moisture content) twice; add db= to fix ${toName}`,
+          spanUnion(...defs.map((d) => d.prop.span)),
+        );
       const [p1, p2] = pairs[0]!;
       const input: Partial<Record<DefiningKey, number>> = { [p1.key]: p1.q.si, [p2.key]: p2.q.si };
       const solved = ctx.solve(input, a.p);
       if (!solved.ok) {
-        ctx.report(problemDiagnostic(solved.problem, 'error', new Map(defs.map((d) => [d.key, d.prop.span])), spanUnion(p1.prop.span, p2.prop.span), `${what} (${toName})`));
+        ctx.report(
+          problemDiagnostic(
+            solved.problem,
+            'error',
+            new Map(defs.map((d) => [d.key, d.prop.span])),
+            spanUnion(p1.prop.span, p2.prop.span),
+            `${what} (${toName})`,
+          ),
+        );
         return null;
       }
-      for (const w of solved.warnings) ctx.report(problemDiagnostic(w, 'warning', new Map(defs.map((d) => [d.key, d.prop.span])), spanUnion(p1.prop.span, p2.prop.span), `${what} (${toName})`));
-      out = { state: solved.state, equipment: { form, spec }, defining: [p1.key as DefiningKey, p2.key as DefiningKey], used: [p1, p2], adp: null, claims: [] };
+      for (const w of solved.warnings)
+        ctx.report(
+          problemDiagnostic(
+            w,
+            'warning',
+            new Map(defs.map((d) => [d.key, d.prop.span])),
+            spanUnion(p1.prop.span, p2.prop.span),
+            `${what} (${toName})`,
+          ),
+        );
+      out = {
+        state: solved.state,
+        equipment: { form, spec },
+        defining: [p1.key as DefiningKey, p2.key as DefiningKey],
+        used: [p1, p2],
+        adp: null,
+        claims: [],
+      };
       break;
     }
     default:
@@ -349,9 +484,18 @@ export function deriveLeaving(ctx: EvalContext, stmt: ProcessStatement, what: st
   }
   const used = out.used;
   // The specification as written: the equipment word and the keys that defined the state.
-  out.equipment.spec = [...(word ? [word.text] : []), ...used.map((p) => `${p.key}=${p.q.quantity.number.text}${p.q.unitText}`)].join(' ');
+  out.equipment.spec = [
+    ...(word ? [word.text] : []),
+    ...used.map((p) => `${p.key}=${p.q.quantity.number.text}${p.q.unitText}`),
+  ].join(' ');
   const claimProps = props.filter((p) => STATE_KEY_SET.has(p.key) && !used.includes(p));
-  if (claimProps.length > 0) out.claims = stateClaims(ctx, claimProps, out.state, () => `for ${toName} from ${from.name} by ${out!.equipment.spec}`);
+  if (claimProps.length > 0)
+    out.claims = stateClaims(
+      ctx,
+      claimProps,
+      out.state,
+      () => `for ${toName} from ${from.name} by ${out!.equipment.spec}`,
+    );
   return out;
 }
 

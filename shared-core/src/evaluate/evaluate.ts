@@ -2,7 +2,15 @@
  * The evaluator: a second pass over the parsed note, in document order. It never throws: every
  * statement is evaluated inside a guard, and a failure becomes a diagnostic on that statement.
  */
-import type { CoreDiagnostic, MixStatement, ParsedNote, ProcessStatement, Statement, StateStatement, SupplyStatement } from '../notation/ast';
+import type {
+  CoreDiagnostic,
+  MixStatement,
+  ParsedNote,
+  ProcessStatement,
+  Statement,
+  StateStatement,
+  SupplyStatement,
+} from '../notation/ast';
 import type { Analysis, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from './types';
 import { EvalContext, type NameDef } from './context';
 import { SITE_KEYS } from './keys';
@@ -37,7 +45,14 @@ function prescan(statements: Statement[], defs: Map<string, NameDef[]>, derives:
     else defs.set(d.name, [d]);
   };
   statements.forEach((s, i) => {
-    if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process' || s.keyword === 'supply' || s.keyword === 'recover') && s.name) {
+    if (
+      (s.keyword === 'state' ||
+        s.keyword === 'mix' ||
+        s.keyword === 'process' ||
+        s.keyword === 'supply' ||
+        s.keyword === 'recover') &&
+      s.name
+    ) {
       add(s.name.text, s.name.span, i, s.keyword);
     }
     if (s.keyword === 'process' && s.name && s.from && s.to && !defs.has(s.to.text) && hasSpecification(s)) {
@@ -73,7 +88,12 @@ function evaluateUnits(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'un
   if (!word) return; // the parser reported the syntax
   if (word.text !== 'SI' && word.text !== 'IP') {
     const upper = word.text.toUpperCase().replace(/[^A-Z]/g, '');
-    const guess = upper === 'SI' || upper === 'METRIC' ? 'SI' : upper === 'IP' || upper === 'US' || upper === 'IMPERIAL' ? 'IP' : null;
+    const guess =
+      upper === 'SI' || upper === 'METRIC'
+        ? 'SI'
+        : upper === 'IP' || upper === 'US' || upper === 'IMPERIAL'
+          ? 'IP'
+          : null;
     ctx.report({
       code: 'unknown-unit-system',
       severity: 'error',
@@ -116,7 +136,12 @@ export interface EvaluateReuse {
    * or the previous run's when the statement and everything it read of the states it names are
    * unchanged.
    */
-  dependent<T extends EvaluatedItem | null>(ctx: EvalContext, stmt: DependentStatement, index: number, compute: () => T): T;
+  dependent<T extends EvaluatedItem | null>(
+    ctx: EvalContext,
+    stmt: DependentStatement,
+    index: number,
+    compute: () => T,
+  ): T;
   /** The state solver (a memoizing wrapper of the engine's `solveState`). */
   solve: EvalContext['solve'];
   /** The previous run's pressure basis equal to `basis` when there is one (else `basis`). */
@@ -128,7 +153,12 @@ export interface EvaluateReuse {
  * over `settings.units`. Pass the note's `text` to get line numbers in messages. `reuse` is for
  * an analyzer that keeps its previous run (`createAnalyzer`); the result does not depend on it.
  */
-export function evaluate(parsed: ParsedNote, settings?: Partial<EvaluateSettings>, text?: string, reuse?: EvaluateReuse): Analysis {
+export function evaluate(
+  parsed: ParsedNote,
+  settings?: Partial<EvaluateSettings>,
+  text?: string,
+  reuse?: EvaluateReuse,
+): Analysis {
   const steps = evaluateSteps(parsed, settings, text, reuse);
   for (;;) {
     const r = steps.next();
@@ -144,7 +174,12 @@ export const STATEMENTS_PER_STEP = 256;
  * statements (so a caller, the language server, can serve other work in between) and returns
  * the analysis. Driven to the end it is exactly `evaluate`.
  */
-export function* evaluateSteps(parsed: ParsedNote, settings?: Partial<EvaluateSettings>, text?: string, reuse?: EvaluateReuse): Generator<void, Analysis, void> {
+export function* evaluateSteps(
+  parsed: ParsedNote,
+  settings?: Partial<EvaluateSettings>,
+  text?: string,
+  reuse?: EvaluateReuse,
+): Generator<void, Analysis, void> {
   const resolved = resolveSettings(settings);
   const ctx = new EvalContext(resolved, text);
   if (reuse) {
@@ -172,30 +207,50 @@ export function* evaluateSteps(parsed: ParsedNote, settings?: Partial<EvaluateSe
           // Without a usable name the parser has reported the statement; evaluating the rest
           // would only add a second diagnostic for the same line.
           if (!stmt.name) break;
-          const owner = stmt.name ? ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: stmt.keyword }, stmt.name) : false;
+          const owner = stmt.name
+            ? ctx.define(
+                { name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: stmt.keyword },
+                stmt.name,
+              )
+            : false;
           let item: StateResult;
-          if (stmt.keyword === 'mix') item = reuse ? reuse.dependent(ctx, stmt, index, () => evaluateMix(ctx, stmt, index, owner)) : evaluateMix(ctx, stmt, index, owner);
+          if (stmt.keyword === 'mix')
+            item = reuse
+              ? reuse.dependent(ctx, stmt, index, () => evaluateMix(ctx, stmt, index, owner))
+              : evaluateMix(ctx, stmt, index, owner);
           else if (!reuse) item = evaluateState(ctx, stmt, index, owner);
           // A state with references depends on the states it names, like a mix.
-          else if (hasReferences(stmt)) item = reuse.dependent(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
+          else if (hasReferences(stmt))
+            item = reuse.dependent(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
           else item = reuse.state(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
           if (stmt.name) ctx.addItem(item, owner);
           break;
         }
         case 'supply': {
           if (!stmt.name) break;
-          const owner = ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'supply' }, stmt.name);
-          const item = reuse ? reuse.dependent(ctx, stmt, index, () => evaluateSupply(ctx, stmt, index)) : evaluateSupply(ctx, stmt, index);
+          const owner = ctx.define(
+            { name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'supply' },
+            stmt.name,
+          );
+          const item = reuse
+            ? reuse.dependent(ctx, stmt, index, () => evaluateSupply(ctx, stmt, index))
+            : evaluateSupply(ctx, stmt, index);
           ctx.addItem(item, owner);
           break;
         }
         case 'process': {
           if (!stmt.name) break;
-          const owner = ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'process' }, stmt.name);
+          const owner = ctx.define(
+            { name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'process' },
+            stmt.name,
+          );
           if (derives.has(index) && stmt.to) {
             // It defines its leaving state too (evaluated every time: it is cheap, and what it
             // defines is new on every run).
-            const toOwner = ctx.define({ name: stmt.to.text, span: stmt.to.span, statementIndex: index, keyword: 'process' }, stmt.to);
+            const toOwner = ctx.define(
+              { name: stmt.to.text, span: stmt.to.span, statementIndex: index, keyword: 'process' },
+              stmt.to,
+            );
             const out = evaluateProcess(ctx, stmt, index, true);
             // The name it defines is listed with the references (rename and find-references see it).
             ctx.references.push({ name: stmt.to.text, span: stmt.to.span, statement: stmt });
@@ -203,16 +258,26 @@ export function* evaluateSteps(parsed: ParsedNote, settings?: Partial<EvaluateSe
             if (out.process) ctx.addItem(out.process, owner);
             break;
           }
-          const item = reuse ? reuse.dependent(ctx, stmt, index, () => evaluateProcess(ctx, stmt, index).process) : evaluateProcess(ctx, stmt, index).process;
+          const item = reuse
+            ? reuse.dependent(ctx, stmt, index, () => evaluateProcess(ctx, stmt, index).process)
+            : evaluateProcess(ctx, stmt, index).process;
           if (item) ctx.addItem(item, owner);
           break;
         }
         case 'recover': {
           if (!stmt.name) break;
-          const owner = ctx.define({ name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'recover' }, stmt.name);
-          const toOwners = stmt.streams.map((x) => (x.to ? ctx.define({ name: x.to.text, span: x.to.span, statementIndex: index, keyword: 'recover' }, x.to) : false));
+          const owner = ctx.define(
+            { name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'recover' },
+            stmt.name,
+          );
+          const toOwners = stmt.streams.map((x) =>
+            x.to
+              ? ctx.define({ name: x.to.text, span: x.to.span, statementIndex: index, keyword: 'recover' }, x.to)
+              : false,
+          );
           const out = evaluateRecover(ctx, stmt, index);
-          for (const x of stmt.streams) if (x.to) ctx.references.push({ name: x.to.text, span: x.to.span, statement: stmt });
+          for (const x of stmt.streams)
+            if (x.to) ctx.references.push({ name: x.to.text, span: x.to.span, statement: stmt });
           out.leaving.forEach((l, k) => {
             if (l) ctx.addItem(l, toOwners[k] ?? false);
           });

@@ -24,7 +24,11 @@ export const PROCESS_KEYS = keysOf('process');
 export const SUPPLY_KEYS = keysOf('supply');
 
 /** The process keys that define a leaving state: the equipment keys and the leaving state's properties (see `derive.ts`). */
-export const DERIVE_KEY_NAMES: ReadonlySet<string> = new Set(KEYS.filter((k) => k.in.includes('process') && (k.kind === 'process-spec' || k.kind === 'property')).map((k) => k.key));
+export const DERIVE_KEY_NAMES: ReadonlySet<string> = new Set(
+  KEYS.filter((k) => k.in.includes('process') && (k.kind === 'process-spec' || k.kind === 'property')).map(
+    (k) => k.key,
+  ),
+);
 
 /** The words a process may carry to name its equipment (`process HU: A -> B steam w=5.65g/kg`). */
 export const PROCESS_WORDS: Readonly<Record<string, string>> = {

@@ -5,7 +5,7 @@
  * Amounts are dry-air mass fractions (%), dry-air mass flows, or volume flows taken at each
  * stream's own state (ṁ = V̇ / v, v per kg of dry air).
  */
-import { solveState } from '../physics';
+import type { solveState } from '../physics';
 import type { CoreDiagnostic, MixStatement, NameNode, PropertyNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
 import { lookupUnit } from '../units';
@@ -77,11 +77,22 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
   };
   // total= takes a mass or a volume flow, so it is read apart from the claims.
   const totalProp = stmt.props.find((p) => p.key === 'total');
-  const claimProps = readProps(ctx, totalProp ? stmt.props.filter((p) => p.key !== 'total') : stmt.props, MIX_KEYS, what, { statement: stmt, index, allowed: false });
+  const claimProps = readProps(
+    ctx,
+    totalProp ? stmt.props.filter((p) => p.key !== 'total') : stmt.props,
+    MIX_KEYS,
+    what,
+    { statement: stmt, index, allowed: false },
+  );
   const total = totalProp ? readTotal(ctx, totalProp, what, stmt) : null;
 
   if (stmt.streams.length === 0) {
-    ctx.report({ code: 'underspecified', severity: 'error', message: `${what} has no streams; write them like mix ${name || 'MA'}: OA 25% + RA 75%`, span: fallback });
+    ctx.report({
+      code: 'underspecified',
+      severity: 'error',
+      message: `${what} has no streams; write them like mix ${name || 'MA'}: OA 25% + RA 75%`,
+      span: fallback,
+    });
     return result;
   }
 
@@ -113,15 +124,34 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       if (ref.failed) ctx.report(dependencyInfo(what, s.name.text, s.name.span, ref.def.span));
       failed = true;
     }
-    const read = s.rest ? { kind: 'fraction' as const, si: 0, halfResolution: 0, span: s.rest } : readAmount(ctx, s.amount, s.span, s.name.text, what);
+    const read = s.rest
+      ? { kind: 'fraction' as const, si: 0, halfResolution: 0, span: s.rest }
+      : readAmount(ctx, s.amount, s.span, s.name.text, what);
     if (!read) {
       failed = true;
       amountFailed = true;
       continue;
     }
-    const amount: Amount = { name: s.name.text, amountSpan: read.span, kind: read.kind, si: read.si, halfResolution: read.halfResolution, rest: s.rest !== undefined };
+    const amount: Amount = {
+      name: s.name.text,
+      amountSpan: read.span,
+      kind: read.kind,
+      si: read.si,
+      halfResolution: read.halfResolution,
+      rest: s.rest !== undefined,
+    };
     amounts.push(amount);
-    if (state) streams.push({ name: s.name.text, span: s.span, amountSpan: read.span, kind: read.kind, si: read.si, halfResolution: read.halfResolution, state, amount });
+    if (state)
+      streams.push({
+        name: s.name.text,
+        span: s.span,
+        amountSpan: read.span,
+        kind: read.kind,
+        si: read.si,
+        halfResolution: read.halfResolution,
+        state,
+        amount,
+      });
   }
   if (totalProp && !total) return result;
   // A rest stream takes what the others leave of total= (or of 100 %).
@@ -148,7 +178,12 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     const slack = amounts.reduce((a, s) => a + s.halfResolution, 0) + 1e-9;
     const negative = amounts.find((s) => s.si < 0);
     if (negative) {
-      ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: the fraction of ${negative.name} is negative; fractions are between 0 % and 100 %`, span: negative.amountSpan });
+      ctx.report({
+        code: 'mix-fractions',
+        severity: 'error',
+        message: `${what}: the fraction of ${negative.name} is negative; fractions are between 0 % and 100 %`,
+        span: negative.amountSpan,
+      });
       return result;
     }
     if (Math.abs(sum - 1) > slack) {
@@ -178,13 +213,25 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
   });
   const totalMass = mass.reduce((a, m) => a + m, 0);
   if (!(totalMass > 0) || !Number.isFinite(totalMass)) {
-    const why = Number.isFinite(totalMass) ? 'the streams add to no flow at all; give at least one stream a positive amount' : 'the stream flows are too large to add up; give realistic amounts';
-    ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: ${why}`, span: spanUnion(...streams.map((s) => s.amountSpan)) });
+    const why = Number.isFinite(totalMass)
+      ? 'the streams add to no flow at all; give at least one stream a positive amount'
+      : 'the stream flows are too large to add up; give realistic amounts';
+    ctx.report({
+      code: 'mix-fractions',
+      severity: 'error',
+      message: `${what}: ${why}`,
+      span: spanUnion(...streams.map((s) => s.amountSpan)),
+    });
     return result;
   }
   const fractions = mass.map((m) => m / totalMass);
   if (fractions.some((f) => f < 0)) {
-    ctx.report({ code: 'mix-fractions', severity: 'error', message: `${what}: a stream has a negative flow; flows are positive figures`, span: spanUnion(...streams.map((s) => s.amountSpan)) });
+    ctx.report({
+      code: 'mix-fractions',
+      severity: 'error',
+      message: `${what}: a stream has a negative flow; flows are positive figures`,
+      span: spanUnion(...streams.map((s) => s.amountSpan)),
+    });
     return result;
   }
 
@@ -201,7 +248,14 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       message: `${what}: the streams are at different pressures (${kPaText(pMin)} to ${kPaText(pMax)}); the mix is computed at their mean, ${kPaText(pMean)}. Put all streams at one pressure (one site: line)`,
       span: spanUnion(...streams.map((s) => s.span)),
     });
-    pressure = { pa: pMean, source: first.source, span: null, elevationM: null, describe: `mean of the streams' pressures, ${kPaText(pMean)}`, origin: "mean of the streams' pressures" };
+    pressure = {
+      pa: pMean,
+      source: first.source,
+      span: null,
+      elevationM: null,
+      describe: `mean of the streams' pressures, ${kPaText(pMean)}`,
+      origin: "mean of the streams' pressures",
+    };
   }
   result.pressure = pressure;
 
@@ -213,13 +267,25 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     h += fractions[i]! * s.state.state!.h;
   });
   const flows = !kinds.has('fraction');
-  result.streams = streams.map((s, i) => ({ name: s.name, fraction: fractions[i]!, massFlowKgS: flows ? mass[i]! : null }));
+  result.streams = streams.map((s, i) => ({
+    name: s.name,
+    fraction: fractions[i]!,
+    massFlowKgS: flows ? mass[i]! : null,
+  }));
   result.massFlowKgS = flows ? totalMass : null;
   // total= beside streams that are all given (no rest): a claim about their sum.
   let totalClaim: ClaimResult | null = null;
   if (total && flows && !amounts.some((a) => a.rest) && ctx.settings.checkClaims) {
-    const computed = total.kind === 'massFlow' ? totalMass : streams.reduce((a, s, i) => a + mass[i]! * s.state.state!.v, 0);
-    const { claim, diagnostic } = checkClaim('total', total.prop, total.q, computed, () => `as the sum of the streams' ${total.kind === 'massFlow' ? 'dry-air mass flows' : 'volume flows, each at its own state'}`);
+    const computed =
+      total.kind === 'massFlow' ? totalMass : streams.reduce((a, s, i) => a + mass[i]! * s.state.state!.v, 0);
+    const { claim, diagnostic } = checkClaim(
+      'total',
+      total.prop,
+      total.q,
+      computed,
+      () =>
+        `as the sum of the streams' ${total.kind === 'massFlow' ? 'dry-air mass flows' : 'volume flows, each at its own state'}`,
+    );
     totalClaim = claim;
     if (diagnostic) ctx.report(diagnostic);
   }
@@ -228,16 +294,37 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
   try {
     solved = ctx.solve({ w, h }, pressure.pa, { allowFog: true });
   } catch (err) {
-    solved = { ok: false, problem: { code: 'no-solution', message: `the engine failed (${err instanceof Error ? err.message : String(err)})`, fix: 'check the streams', keys: [] } };
+    solved = {
+      ok: false,
+      problem: {
+        code: 'no-solution',
+        message: `the engine failed (${err instanceof Error ? err.message : String(err)})`,
+        fix: 'check the streams',
+        keys: [],
+      },
+    };
   }
   const streamsSpan = spanUnion(...streams.map((s) => s.span));
   const spans = new Map<string, Span>();
   if (!solved.ok) {
-    ctx.report(problemDiagnostic(solved.problem, 'error', spans, fallback, `${what} (W = ${formatSig(w * 1000, 4)} g/kg, h = ${formatSig(h / 1000, 4)} kJ/kg)`));
+    ctx.report(
+      problemDiagnostic(
+        solved.problem,
+        'error',
+        spans,
+        fallback,
+        `${what} (W = ${formatSig(w * 1000, 4)} g/kg, h = ${formatSig(h / 1000, 4)} kJ/kg)`,
+      ),
+    );
     return result;
   }
   if (!stateFinite(solved.state)) {
-    ctx.report({ code: 'no-solution', severity: 'error', message: `${what}: the mixed state could not be computed; check the streams`, span: streamsSpan });
+    ctx.report({
+      code: 'no-solution',
+      severity: 'error',
+      message: `${what}: the mixed state could not be computed; check the streams`,
+      span: streamsSpan,
+    });
     return result;
   }
   result.state = solved.state;
@@ -255,7 +342,13 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     }
   }
   if (claimProps.props.length > 0) {
-    result.claims = stateClaims(ctx, claimProps.props, solved.state, () => `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`);
+    result.claims = stateClaims(
+      ctx,
+      claimProps.props,
+      solved.state,
+      () =>
+        `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`,
+    );
   }
   if (totalClaim) result.claims = [...result.claims, totalClaim];
   void owner;
@@ -266,14 +359,24 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
 function readTotal(ctx: EvalContext, prop: PropertyNode, what: string, stmt: MixStatement): Total | null {
   if (prop.ref) {
     ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement: stmt });
-    ctx.report({ code: 'bad-reference', severity: 'error', message: `${what}: total= takes a figure, not a reference; write the total flow, e.g. total=3.9kg/s`, span: prop.ref.span });
+    ctx.report({
+      code: 'bad-reference',
+      severity: 'error',
+      message: `${what}: total= takes a figure, not a reference; write the total flow, e.g. total=3.9kg/s`,
+      span: prop.ref.span,
+    });
     return null;
   }
   const value = prop.value;
   if (!value) return null; // the parser reported it
   const kinds = 'a dry-air mass flow (kg/s, kg/h, lb/h) or a volume flow (m3/s, L/s, cfm)';
   if (!value.unit) {
-    ctx.report({ code: 'missing-unit', severity: 'error', message: `${what}: total=${value.number.text} has no unit; the total is ${kinds}, e.g. total=${value.number.text}kg/s`, span: value.number.span });
+    ctx.report({
+      code: 'missing-unit',
+      severity: 'error',
+      message: `${what}: total=${value.number.text} has no unit; the total is ${kinds}, e.g. total=${value.number.text}kg/s`,
+      span: value.number.span,
+    });
     return null;
   }
   const kind = amountKindOf(value.unit.text);
@@ -294,7 +397,12 @@ function readTotal(ctx: EvalContext, prop: PropertyNode, what: string, stmt: Mix
     return null;
   }
   if (!(r.value.si > 0) || !Number.isFinite(r.value.si)) {
-    ctx.report({ code: 'out-of-range', severity: 'error', message: `${what}: total=${value.number.text}${value.unit.text} is not a positive flow; give the total as a positive figure`, span: value.span });
+    ctx.report({
+      code: 'out-of-range',
+      severity: 'error',
+      message: `${what}: total=${value.number.text}${value.unit.text} is not a positive flow; give the total as a positive figure`,
+      span: value.span,
+    });
     return null;
   }
   return { kind, si: r.value.si, prop, q: r.value };
@@ -302,7 +410,11 @@ function readTotal(ctx: EvalContext, prop: PropertyNode, what: string, stmt: Mix
 
 /** "1.2 kg/s" or "0.9 m³/s" for messages. */
 function flowText(si: number, kind: AmountKind): string {
-  return kind === 'fraction' ? `${formatSig(si * 100, 4)} %` : kind === 'massFlow' ? `${formatSig(si, 4)} kg/s` : `${formatSig(si, 4)} m³/s`;
+  return kind === 'fraction'
+    ? `${formatSig(si * 100, 4)} %`
+    : kind === 'massFlow'
+      ? `${formatSig(si, 4)} kg/s`
+      : `${formatSig(si, 4)} m³/s`;
 }
 
 /**
@@ -317,18 +429,30 @@ function resolveRest(ctx: EvalContext, amounts: Amount[], total: Total | null, w
     ctx.report({ code: 'mix-rest', severity: 'error', message: `${what}: ${message}`, span });
     return false;
   };
-  if (rests.length > 1) return restError(`only one stream can be the rest (${rests.map((r) => `${r.name} rest`).join(', ')}); give the others an amount`, spanUnion(...rests.slice(1).map((r) => r.amountSpan)));
+  if (rests.length > 1)
+    return restError(
+      `only one stream can be the rest (${rests.map((r) => `${r.name} rest`).join(', ')}); give the others an amount`,
+      spanUnion(...rests.slice(1).map((r) => r.amountSpan)),
+    );
   const rest = rests[0]!;
   const given = amounts.filter((a) => !a.rest);
   const sum = given.reduce((a, g) => a + g.si, 0);
   const slack = given.reduce((a, g) => a + g.halfResolution, 0) + 1e-9;
   if (given.every((g) => g.kind === 'fraction')) {
-    if (sum > 1 + slack) return restError(`the fractions given add to ${formatSig(sum * 100, 6)} %, which leaves nothing for ${rest.name} rest; make them add to less than 100 %`, spanUnion(...given.map((g) => g.amountSpan)));
+    if (sum > 1 + slack)
+      return restError(
+        `the fractions given add to ${formatSig(sum * 100, 6)} %, which leaves nothing for ${rest.name} rest; make them add to less than 100 %`,
+        spanUnion(...given.map((g) => g.amountSpan)),
+      );
     rest.kind = 'fraction';
     rest.si = Math.max(0, 1 - sum);
     return true;
   }
-  if (!total) return restError(`${rest.name} rest is what the other streams leave of the total: add total= after the streams (a mass flow such as total=3.9kg/s, or a volume flow such as total=3.4m3/s)`, rest.amountSpan);
+  if (!total)
+    return restError(
+      `${rest.name} rest is what the other streams leave of the total: add total= after the streams (a mass flow such as total=3.9kg/s, or a volume flow such as total=3.4m3/s)`,
+      rest.amountSpan,
+    );
   const other = given.find((g) => g.kind !== total.kind);
   if (other) {
     return restError(
@@ -338,7 +462,10 @@ function resolveRest(ctx: EvalContext, amounts: Amount[], total: Total | null, w
   }
   const left = total.si - sum;
   if (!(left > slack)) {
-    return restError(`the streams given add to ${flowText(sum, total.kind)}, which leaves ${left < -slack ? 'less than ' : ''}nothing of total=${total.q.quantity.number.text}${total.q.unitText} for ${rest.name}; make the total larger than the streams given`, spanUnion(rest.amountSpan, total.q.quantity.span));
+    return restError(
+      `the streams given add to ${flowText(sum, total.kind)}, which leaves ${left < -slack ? 'less than ' : ''}nothing of total=${total.q.quantity.number.text}${total.q.unitText} for ${rest.name}; make the total larger than the streams given`,
+      spanUnion(rest.amountSpan, total.q.quantity.span),
+    );
   }
   rest.kind = total.kind;
   rest.si = left;
@@ -395,7 +522,8 @@ function readAmount(
     const u = amount.unit.text;
     const def = findUnit(u);
     const sug = def ? null : suggestSymbol(u, ['fraction', 'massFlow', 'volumeFlow']);
-    const kinds = 'a dry-air mass fraction (%), a dry-air mass flow (kg/s, kg/h, lb/h) or a volume flow (m3/s, m3/h, L/s, cfm)';
+    const kinds =
+      'a dry-air mass fraction (%), a dry-air mass flow (kg/s, kg/h, lb/h) or a volume flow (m3/s, m3/h, L/s, cfm)';
     ctx.report({
       code: 'unknown-unit',
       severity: 'error',
@@ -408,7 +536,13 @@ function readAmount(
     return null;
   }
   const dim = kind === 'fraction' ? 'fraction' : kind;
-  const r = readQuantity({ key: streamName, keySpan: streamSpan }, amount, { key: streamName, dimension: dim, title: 'a stream amount', bare: 'error', example: `${streamName} 25%` });
+  const r = readQuantity({ key: streamName, keySpan: streamSpan }, amount, {
+    key: streamName,
+    dimension: dim,
+    title: 'a stream amount',
+    bare: 'error',
+    example: `${streamName} 25%`,
+  });
   if (!r.ok) {
     ctx.report(r.diagnostic);
     return null;
@@ -429,13 +563,19 @@ export function dependencyInfo(what: string, ref: string, span: Span, defSpan: S
   };
 }
 
-
 /**
  * The computed state (or mix) a statement takes in under `node`, or null after one diagnostic: an
  * unknown or later name (reported by the context), a process name (`not-a-state`, ending with
  * `usage`, which says what the statement expects there), or a state that failed (an info).
  */
-export function enteringState(ctx: EvalContext, node: NameNode, stmt: Statement, index: number, what: string, usage: string): StateResult | null {
+export function enteringState(
+  ctx: EvalContext,
+  node: NameNode,
+  stmt: Statement,
+  index: number,
+  what: string,
+  usage: string,
+): StateResult | null {
   const ref = ctx.resolve(node, stmt, index);
   if (!ref.ok) {
     if (ref.failed) ctx.report(dependencyInfo(what, node.text, node.span, ref.def.span));

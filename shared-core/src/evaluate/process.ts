@@ -16,7 +16,7 @@ import type { ProcessStatement, RecoverStatement } from '../notation/ast';
 import type { EvalContext } from './context';
 import { deriveLeaving, isSpecOrFlow, specText } from './derive';
 import { DERIVE_KEY_NAMES, PROCESS_KEYS } from './keys';
-import { dependencyInfo, enteringState } from './mix';
+import { enteringState } from './mix';
 import { kPaText } from './pressure';
 import type { ReadProp } from './props';
 import { readProps } from './props';
@@ -37,7 +37,10 @@ const DW_STILL = 1e-5;
 const DH_STILL = 10;
 
 /** Sensible and latent split per kg dry air (see the module comment). */
-export function splitSensibleLatent(a: MoistAirState, b: MoistAirState): { total: number; sensible: number; latent: number } {
+export function splitSensibleLatent(
+  a: MoistAirState,
+  b: MoistAirState,
+): { total: number; sensible: number; latent: number } {
   const total = b.h - a.h;
   const sensible = (CP_DRY_AIR + CP_VAPOUR * a.w) * (b.db - a.db);
   return { total, sensible, latent: total - sensible };
@@ -54,7 +57,13 @@ export function waterEnthalpy(tC: number, added: boolean): number {
 }
 
 /** Names the process from the directions of the dry-bulb and humidity-ratio changes. */
-export function processKindOf(a: MoistAirState, b: MoistAirState, coilPerKg: number, sensiblePerKg: number, dw = b.w - a.w): ProcessKind {
+export function processKindOf(
+  a: MoistAirState,
+  b: MoistAirState,
+  coilPerKg: number,
+  sensiblePerKg: number,
+  dw = b.w - a.w,
+): ProcessKind {
   const dt = b.db - a.db;
   const tUp = dt > DT_STILL;
   const tDown = dt < -DT_STILL;
@@ -65,7 +74,9 @@ export function processKindOf(a: MoistAirState, b: MoistAirState, coilPerKg: num
   if (tUp) return 'heating-humidifying';
   if (!tDown) return 'humidifying';
   // Cooling while humidifying: evaporative when hardly any heat crosses the boundary.
-  return Math.abs(coilPerKg) <= Math.max(500, 0.1 * Math.abs(sensiblePerKg)) ? 'evaporative-cooling' : 'cooling-humidifying';
+  return Math.abs(coilPerKg) <= Math.max(500, 0.1 * Math.abs(sensiblePerKg))
+    ? 'evaporative-cooling'
+    : 'cooling-humidifying';
 }
 
 /**
@@ -90,7 +101,12 @@ export interface ProcessOutcome {
  * balance check (a coil line must reach saturation), and the claims. `derives` is true when the
  * statement defines its leaving state (the pre-scan decided: a specification and a new name).
  */
-export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index: number, derives = false): ProcessOutcome {
+export function evaluateProcess(
+  ctx: EvalContext,
+  stmt: ProcessStatement,
+  index: number,
+  derives = false,
+): ProcessOutcome {
   const none: ProcessOutcome = { leaving: null, process: null };
   const name = stmt.name?.text ?? '';
   const what = name ? `process ${name}` : 'this process';
@@ -103,10 +119,15 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
     const to = endpoint(ctx, stmt, index, 'to', what);
     specificationUnused(ctx, stmt, props, what);
     if (!from || !to) return none;
-    const flow = processFlow(ctx, stmt, props, from, what);
+    const flow = processFlow(ctx, props, from, what);
     const result = buildProcessResult(ctx, stmt, name, from, to, flow, what);
     balanceCheck(ctx, stmt, result, from, to, what);
-    result.claims = processClaims(ctx, props.filter((p) => !isSpecOrFlow(p.prop)), result, what);
+    result.claims = processClaims(
+      ctx,
+      props.filter((p) => !isSpecOrFlow(p.prop)),
+      result,
+      what,
+    );
     return { leaving: null, process: result };
   }
   if (!from) {
@@ -115,7 +136,7 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
   }
 
   // 2. Amounts: the dry-air flow (a heater by duty needs it to define the leaving state).
-  const flow = processFlow(ctx, stmt, props, from, what);
+  const flow = processFlow(ctx, props, from, what);
 
   // Define the leaving state from the specification.
   const derivation = deriveLeaving(ctx, stmt, what, props, from, flow.massFlow);
@@ -142,7 +163,12 @@ export function evaluateProcess(ctx: EvalContext, stmt: ProcessStatement, index:
   } else {
     balanceCheck(ctx, stmt, result, from, leaving, what);
   }
-  result.claims = processClaims(ctx, props.filter((p) => !isSpecOrFlow(p.prop)), result, what);
+  result.claims = processClaims(
+    ctx,
+    props.filter((p) => !isSpecOrFlow(p.prop)),
+    result,
+    what,
+  );
   return { leaving, process: result };
 }
 
@@ -170,7 +196,7 @@ export interface Flow {
 }
 
 /** Step 2: m=, or q= at the entering state, or the flow the entering state carries (a mix by flows, a state a process defined). */
-function processFlow(ctx: EvalContext, stmt: ProcessStatement, props: ReadProp[], from: StateResult, what: string): Flow {
+function processFlow(ctx: EvalContext, props: ReadProp[], from: StateResult, what: string): Flow {
   const a = from.state!;
   const m = props.find((p) => p.key === 'm');
   // The volume flow: q=, or its other names flow= and V= (one of them; a second is a conflict).
@@ -208,15 +234,29 @@ function processFlow(ctx: EvalContext, stmt: ProcessStatement, props: ReadProp[]
     if (flowProp === m) return { massFlow: m.q.si, volumeFlow: m.q.si * a.v, prop: m };
     return { massFlow: flowProp.q.si / a.v, volumeFlow: flowProp.q.si, prop: flowProp };
   }
-  if (typeof from.massFlowKgS === 'number' && from.massFlowKgS > 0) return { massFlow: from.massFlowKgS, volumeFlow: from.massFlowKgS * a.v, prop: null };
+  if (typeof from.massFlowKgS === 'number' && from.massFlowKgS > 0)
+    return { massFlow: from.massFlowKgS, volumeFlow: from.massFlowKgS * a.v, prop: null };
   return { massFlow: null, volumeFlow: null, prop: null };
 }
 
 /** Step 3: the figures of a process from A to B at a flow (per kg of dry air, and rates with a flow). */
-export function buildProcessResult(ctx: EvalContext, stmt: ProcessStatement | RecoverStatement, name: string, from: StateResult, to: StateResult, flow: Flow, what: string): ProcessResult {
+export function buildProcessResult(
+  ctx: EvalContext,
+  stmt: ProcessStatement | RecoverStatement,
+  name: string,
+  from: StateResult,
+  to: StateResult,
+  flow: Flow,
+  what: string,
+): ProcessResult {
   const a = from.state!;
   const b = to.state!;
-  if (Math.abs(from.pressure.pa - to.pressure.pa) > 1e-4 * from.pressure.pa && stmt.keyword === 'process' && stmt.to && stmt.from) {
+  if (
+    Math.abs(from.pressure.pa - to.pressure.pa) > 1e-4 * from.pressure.pa &&
+    stmt.keyword === 'process' &&
+    stmt.to &&
+    stmt.from
+  ) {
     ctx.report({
       code: 'pressure-mismatch',
       severity: 'warning',
@@ -239,10 +279,22 @@ export function buildProcessResult(ctx: EvalContext, stmt: ProcessStatement | Re
   const coilPerKg = total - dw * hWater;
   const kind = processKindOf(a, b, coilPerKg, sensible, dw);
   // SHR is a share: given only when sensible and latent act in the same direction (0 ≤ SHR ≤ 1).
-  const sameWay = sensible * latent >= 0 || Math.abs(dw) <= DW_STILL || Math.abs(latent) <= Math.max(1, 1e-3 * Math.abs(total));
+  const sameWay =
+    sensible * latent >= 0 || Math.abs(dw) <= DW_STILL || Math.abs(latent) <= Math.max(1, 1e-3 * Math.abs(total));
   const shr = Math.abs(total) >= DH_STILL && sameWay ? sensible / total : null;
   // A flow so large that a rate overflows (m=1e308kg/s) gives no figures, only an error.
-  if (massFlow !== null && ![massFlow, volumeFlow ?? 0, massFlow * total, massFlow * sensible, massFlow * latent, massFlow * dw, massFlow * coilPerKg].every(Number.isFinite)) {
+  if (
+    massFlow !== null &&
+    ![
+      massFlow,
+      volumeFlow ?? 0,
+      massFlow * total,
+      massFlow * sensible,
+      massFlow * latent,
+      massFlow * dw,
+      massFlow * coilPerKg,
+    ].every(Number.isFinite)
+  ) {
     const fp = flow.prop;
     ctx.report({
       code: 'out-of-range',
@@ -279,7 +331,14 @@ export function buildProcessResult(ctx: EvalContext, stmt: ProcessStatement | Re
 }
 
 /** Step 4: moisture removed — the coil line must reach the saturation curve (an apparatus dew point). */
-function balanceCheck(ctx: EvalContext, stmt: ProcessStatement, result: ProcessResult, from: StateResult, to: StateResult, what: string): void {
+function balanceCheck(
+  ctx: EvalContext,
+  stmt: ProcessStatement,
+  result: ProcessResult,
+  from: StateResult,
+  to: StateResult,
+  what: string,
+): void {
   const a = from.state!;
   const b = to.state!;
   const dw = result.dw;
@@ -301,7 +360,13 @@ function balanceCheck(ctx: EvalContext, stmt: ProcessStatement, result: ProcessR
   });
 }
 
-function endpoint(ctx: EvalContext, stmt: ProcessStatement, index: number, end: 'from' | 'to', what: string): StateResult | null {
+function endpoint(
+  ctx: EvalContext,
+  stmt: ProcessStatement,
+  index: number,
+  end: 'from' | 'to',
+  what: string,
+): StateResult | null {
   return enteringState(ctx, stmt[end]!, stmt, index, what, 'a process goes from one state (or mix) to another');
 }
 
@@ -348,7 +413,14 @@ function processClaims(ctx: EvalContext, claims: ReadProp[], r: ProcessResult, w
       continue;
     }
     const computed = c.key !== 'shr' && c.q.si >= 0 ? Math.abs(signed) : signed;
-    const { claim, diagnostic } = checkClaim(c.key, c.prop, c.q, computed, () => `for ${r.from} -> ${r.to}${r.massFlowKgS !== null ? ` at ${formatSig(r.massFlowKgS, 4)} kg/s dry air` : ''}`);
+    const { claim, diagnostic } = checkClaim(
+      c.key,
+      c.prop,
+      c.q,
+      computed,
+      () =>
+        `for ${r.from} -> ${r.to}${r.massFlowKgS !== null ? ` at ${formatSig(r.massFlowKgS, 4)} kg/s dry air` : ''}`,
+    );
     out.push(claim);
     if (diagnostic) ctx.report(diagnostic);
   }

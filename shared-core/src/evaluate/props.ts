@@ -35,14 +35,20 @@ export interface ReadProps {
  * whether that statement takes references.
  * @param what  the statement, for messages ("state OA", "site").
  */
-export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readonly<Record<string, KeySpec>>, what: string, refs: RefSite): ReadProps {
+export function readProps(
+  ctx: EvalContext,
+  props: PropertyNode[],
+  table: Readonly<Record<string, KeySpec>>,
+  what: string,
+  refs: RefSite,
+): ReadProps {
   const out: ReadProp[] = [];
   const broken: string[] = [];
   let unknownKeys = 0;
   // Statements hold a handful of properties: a linear scan beats a Map here.
   const seen: PropertyNode[] = [];
   for (const prop of props) {
-    const spec = Object.prototype.hasOwnProperty.call(table, prop.key) ? table[prop.key] : undefined;
+    const spec = Object.hasOwn(table, prop.key) ? table[prop.key] : undefined;
     if (!spec) {
       const keys = Object.keys(table);
       const suggestion = suggestName(prop.key, keys);
@@ -54,7 +60,8 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
         data: suggestion ? { key: prop.key, suggestion } : { key: prop.key },
       });
       // A reference after an unknown key is still a use of the name (rename follows it).
-      if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement: refs.statement });
+      if (prop.ref)
+        ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement: refs.statement });
       unknownKeys++;
       continue;
     }
@@ -66,7 +73,8 @@ export function readProps(ctx: EvalContext, props: PropertyNode[], table: Readon
       }
     }
     if (first) {
-      if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement: refs.statement });
+      if (prop.ref)
+        ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement: refs.statement });
       ctx.report({
         code: 'duplicate-key',
         severity: 'error',

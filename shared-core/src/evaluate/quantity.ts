@@ -93,7 +93,11 @@ export function dimensionWords(d: Dimension): string {
  * `missing-unit` (a bare number where a unit is needed), `unknown-unit` (not a unit, or a unit of
  * another dimension, with a suggestion), `syntax` for a negative explicit tolerance.
  */
-export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan'] }, q: QuantityNode, spec: QuantitySpec): QuantityOutcome {
+export function readQuantity(
+  prop: { key: string; keySpan: PropertyNode['keySpan'] },
+  q: QuantityNode,
+  spec: QuantitySpec,
+): QuantityOutcome {
   let unit: UnitDef | null = null;
   let unitText = '';
   let si: number;
@@ -121,7 +125,9 @@ export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan
       const what = def
         ? `'${q.unit.text}' is ${dimensionWords(def.dimension)} unit, but ${spec.key} is ${spec.title}`
         : `'${q.unit.text}' is not a unit Dewmark knows`;
-      const fix = suggestion ? `did you mean ${spec.key}=${q.number.text}${suggestion}?` : `write it like ${spec.example}`;
+      const fix = suggestion
+        ? `did you mean ${spec.key}=${q.number.text}${suggestion}?`
+        : `write it like ${spec.example}`;
       return {
         ok: false,
         diagnostic: {
@@ -179,7 +185,12 @@ export function readQuantity(prop: { key: string; keySpan: PropertyNode['keySpan
   if (!Number.isFinite(si) || !Number.isFinite(toleranceSI)) {
     return {
       ok: false,
-      diagnostic: { code: 'out-of-range', severity: 'error', message: `${whereText(prop.key, q)} is too large to use; check the figure`, span: q.span },
+      diagnostic: {
+        code: 'out-of-range',
+        severity: 'error',
+        message: `${whereText(prop.key, q)} is too large to use; check the figure`,
+        span: q.span,
+      },
     };
   }
   return { ok: true, value: { si, unit, unitText, toleranceSI, explicitTolerance, quantity: q } };

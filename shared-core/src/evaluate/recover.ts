@@ -16,7 +16,7 @@ import type { Span } from '../text/types';
 import { checkClaim } from './claims';
 import type { EvalContext } from './context';
 import { RECOVER_KEYS, RECOVER_WORDS } from './keys';
-import { dependencyInfo, enteringState } from './mix';
+import { enteringState } from './mix';
 import { buildProcessResult } from './process';
 import type { ReadProp } from './props';
 import { readProps } from './props';
@@ -41,12 +41,14 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
   // Options: fog=ok.
   let fogOk = false;
   for (const o of stmt.options) {
-    const allowed = Object.prototype.hasOwnProperty.call(RECOVER_WORDS, o.key) ? RECOVER_WORDS[o.key]! : null;
-    if (allowed && allowed.includes(o.word.text)) {
+    const allowed = Object.hasOwn(RECOVER_WORDS, o.key) ? RECOVER_WORDS[o.key]! : null;
+    if (allowed?.includes(o.word.text)) {
       fogOk = true;
       continue;
     }
-    const suggestion = allowed ? null : suggestName(o.key, [...Object.keys(RECOVER_KEYS), ...Object.keys(RECOVER_WORDS)]);
+    const suggestion = allowed
+      ? null
+      : suggestName(o.key, [...Object.keys(RECOVER_KEYS), ...Object.keys(RECOVER_WORDS)]);
     ctx.report({
       code: allowed ? 'bad-number' : 'unknown-key',
       severity: 'error',
@@ -67,7 +69,13 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
       if (p.key === 'm' || p.key === 'q') continue;
       const first = shared.find((x) => x.key === p.key);
       if (first) {
-        ctx.report({ code: 'duplicate-key', severity: 'error', message: `${p.key}= is written twice in ${what}; the first one is used, remove one of them`, span: p.prop.keySpan, related: [{ span: first.prop.span, message: `first ${p.key}=` }] });
+        ctx.report({
+          code: 'duplicate-key',
+          severity: 'error',
+          message: `${p.key}= is written twice in ${what}; the first one is used, remove one of them`,
+          span: p.prop.keySpan,
+          related: [{ span: first.prop.span, message: `first ${p.key}=` }],
+        });
         continue;
       }
       shared.push(p);
@@ -98,24 +106,38 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
 
   const a = froms[0].state!;
   const b = froms[1].state!;
-  const r = recoverBetween({ state: a, massFlowKgS: flows[0] }, { state: b, massFlowKgS: flows[1] }, effS.q.si, effL ? effL.q.si : null);
+  const r = recoverBetween(
+    { state: a, massFlowKgS: flows[0] },
+    { state: b, massFlowKgS: flows[1] },
+    effS.q.si,
+    effL ? effL.q.si : null,
+  );
   if (!r.ok) {
     const p = shared.find((x) => x.key === r.problem.key);
-    ctx.report({ code: r.problem.code === 'unreachable' ? 'spec-unreachable' : 'out-of-range', severity: 'error', message: `${what}: ${r.problem.message}; ${r.problem.fix}`, span: p ? p.prop.span : effS.prop.span });
+    ctx.report({
+      code: r.problem.code === 'unreachable' ? 'spec-unreachable' : 'out-of-range',
+      severity: 'error',
+      message: `${what}: ${r.problem.message}; ${r.problem.fix}`,
+      span: p ? p.prop.span : effS.prop.span,
+    });
     return none;
   }
-  const spec = [effS, ...(effL ? [effL] : [])].map((p) => `${p.key}=${p.q.quantity.number.text}${p.q.unitText}`).join(' ');
-  const leaving = stmt.streams.map((x, k): StateResult => ({
-    kind: 'state',
-    name: x.to!.text,
-    statement: stmt,
-    state: r.value.leaving[k]!,
-    pressure: froms[k]!.pressure,
-    defining: [],
-    claims: [],
-    massFlowKgS: flows[k]!,
-    definedBy: { statement: 'recover', name, from: froms[k]!.name, spec, nameSpan: x.to!.span },
-  })) as [StateResult, StateResult];
+  const spec = [effS, ...(effL ? [effL] : [])]
+    .map((p) => `${p.key}=${p.q.quantity.number.text}${p.q.unitText}`)
+    .join(' ');
+  const leaving = stmt.streams.map(
+    (x, k): StateResult => ({
+      kind: 'state',
+      name: x.to!.text,
+      statement: stmt,
+      state: r.value.leaving[k]!,
+      pressure: froms[k]!.pressure,
+      defining: [],
+      claims: [],
+      massFlowKgS: flows[k]!,
+      definedBy: { statement: 'recover', name, from: froms[k]!.name, spec, nameSpan: x.to!.span },
+    }),
+  ) as [StateResult, StateResult];
 
   // Condensation or frost on the cooled side.
   const wet = r.value.wetting;
@@ -126,7 +148,10 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
     const other = stmt.streams[1 - wet.stream]!;
     const out = r.value.leaving[wet.stream];
     const what2 = wet.kind === 'frost' ? 'frost forms' : 'water condenses';
-    const advice = wet.kind === 'frost' ? 'plan frost protection (preheat the outdoor air, a bypass or a defrost cycle) or a lower effectiveness' : 'give that side a drain pan and drain, or a lower effectiveness';
+    const advice =
+      wet.kind === 'frost'
+        ? 'plan frost protection (preheat the outdoor air, a bypass or a defrost cycle) or a lower effectiveness'
+        : 'give that side a drain pan and drain, or a lower effectiveness';
     ctx.report({
       code: wet.kind === 'frost' ? 'recovery-frost' : 'recovery-condensation',
       severity: fogOk ? 'info' : 'warning',
@@ -138,9 +163,23 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
   }
 
   // The two sides as processes, with the exchanger's figures.
-  const sides = stmt.streams.map((x, k) => {
-    const side = buildProcessResult(ctx, stmt, name, froms[k]!, leaving[k]!, { massFlow: flows[k]!, volumeFlow: flows[k]! * froms[k]!.state!.v, prop: null }, what);
-    side.equipment = { form: 'recovery', spec, effSensible: effS.q.si, effLatent: effL ? effL.q.si : null, wetting: wet && wet.stream === k ? wetting : null };
+  const sides = stmt.streams.map((_stream, k) => {
+    const side = buildProcessResult(
+      ctx,
+      stmt,
+      name,
+      froms[k]!,
+      leaving[k]!,
+      { massFlow: flows[k]!, volumeFlow: flows[k]! * froms[k]!.state!.v, prop: null },
+      what,
+    );
+    side.equipment = {
+      form: 'recovery',
+      spec,
+      effSensible: effS.q.si,
+      effLatent: effL ? effL.q.si : null,
+      wetting: wet && wet.stream === k ? wetting : null,
+    };
     return side;
   }) as [ProcessResult, ProcessResult];
 
@@ -149,9 +188,15 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
   if (ctx.settings.checkClaims) {
     for (const c of shared) {
       if (c.key !== 'q_sensible' && c.key !== 'q_total') continue;
-      const computed = c.key === 'q_sensible' ? r.value.sensibleW : sides[0].qTotalW ?? 0;
+      const computed = c.key === 'q_sensible' ? r.value.sensibleW : (sides[0].qTotalW ?? 0);
       const v = c.q.si >= 0 ? Math.abs(computed) : computed;
-      const { claim, diagnostic } = checkClaim(c.key, c.prop, c.q, v, () => `recovered between ${froms[0]!.name} and ${froms[1]!.name}`);
+      const { claim, diagnostic } = checkClaim(
+        c.key,
+        c.prop,
+        c.q,
+        v,
+        () => `recovered between ${froms[0]!.name} and ${froms[1]!.name}`,
+      );
       claims.push(claim);
       if (diagnostic) ctx.report(diagnostic);
     }
@@ -160,22 +205,52 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
   return { leaving, sides };
 }
 
-function entering(ctx: EvalContext, stmt: RecoverStatement, index: number, x: RecoverStream, what: string): StateResult | null {
-  return enteringState(ctx, x.from!, stmt, index, what, 'each stream of a recover goes from a state (or mix) to a new state');
+function entering(
+  ctx: EvalContext,
+  stmt: RecoverStatement,
+  index: number,
+  x: RecoverStream,
+  what: string,
+): StateResult | null {
+  return enteringState(
+    ctx,
+    x.from!,
+    stmt,
+    index,
+    what,
+    'each stream of a recover goes from a state (or mix) to a new state',
+  );
 }
 
 /** A stream's dry-air flow: its m= or q= (at its entering state), or the flow its entering state carries. */
-function streamFlow(ctx: EvalContext, x: RecoverStream, props: ReadProp[], from: StateResult, what: string): number | null {
+function streamFlow(
+  ctx: EvalContext,
+  x: RecoverStream,
+  props: ReadProp[],
+  from: StateResult,
+  what: string,
+): number | null {
   const m = props.find((p) => p.key === 'm');
   const q = props.find((p) => p.key === 'q');
   const state = from.state as MoistAirState;
   if (m && q) {
-    ctx.report({ code: 'flow-conflict', severity: 'error', message: `${what}: both m= and q= give the flow of ${from.name}; keep one (m= is used)`, span: q.prop.span, related: [{ span: m.prop.span, message: 'the flow used' }] });
+    ctx.report({
+      code: 'flow-conflict',
+      severity: 'error',
+      message: `${what}: both m= and q= give the flow of ${from.name}; keep one (m= is used)`,
+      span: q.prop.span,
+      related: [{ span: m.prop.span, message: 'the flow used' }],
+    });
   }
   const p = m ?? q;
   if (p) {
     if (!(p.q.si > 0) || !Number.isFinite(p.q.si)) {
-      ctx.report({ code: 'out-of-range', severity: 'error', message: `${what}: ${p.key}=${p.q.quantity.number.text}${p.q.unitText} is not a positive flow; give the dry-air flow of ${from.name} as a positive figure`, span: p.q.quantity.span });
+      ctx.report({
+        code: 'out-of-range',
+        severity: 'error',
+        message: `${what}: ${p.key}=${p.q.quantity.number.text}${p.q.unitText} is not a positive flow; give the dry-air flow of ${from.name} as a positive figure`,
+        span: p.q.quantity.span,
+      });
       return null;
     }
     return p === m ? p.q.si : p.q.si / state.v;

@@ -64,8 +64,18 @@ function bad(ctx: EvalContext, message: string, span: PropertyNode['span']): nul
 /** The difference of a reference in SI (K, kg/kg, J/kg), or null after a diagnostic. */
 function readOffset(ctx: EvalContext, q: QuantityNode, spec: KeySpec, written: string): number | null {
   const example = DIFFERENCE_EXAMPLE[spec.dimension];
-  if (q.tolerance) return bad(ctx, `${written}: a reference takes no tolerance; remove '${q.tolerance.number.text}' after the difference`, q.tolerance.span);
-  if (!example) return bad(ctx, `${written}: ${spec.title} cannot be shifted by a difference; refer to the property as it is (remove '${q.number.text}${q.unit?.text ?? ''}')`, q.span);
+  if (q.tolerance)
+    return bad(
+      ctx,
+      `${written}: a reference takes no tolerance; remove '${q.tolerance.number.text}' after the difference`,
+      q.tolerance.span,
+    );
+  if (!example)
+    return bad(
+      ctx,
+      `${written}: ${spec.title} cannot be shifted by a difference; refer to the property as it is (remove '${q.number.text}${q.unit?.text ?? ''}')`,
+      q.span,
+    );
   if (!q.unit) {
     ctx.report({
       code: 'missing-unit',
@@ -92,7 +102,11 @@ function readOffset(ctx: EvalContext, q: QuantityNode, spec: KeySpec, written: s
   }
   const def = findUnit(u);
   if (!def || def.dimension !== spec.dimension) {
-    return bad(ctx, `${written}: '${u}' is not a unit of ${spec.title}; write the difference in one, e.g. ${example}`, q.unit.span);
+    return bad(
+      ctx,
+      `${written}: '${u}' is not a unit of ${spec.title}; write the difference in one, e.g. ${example}`,
+      q.unit.span,
+    );
   }
   return q.number.value * def.scale;
 }
@@ -114,11 +128,19 @@ export function readReference(
   if (!site.allowed) {
     // Still a use of the name (rename and find-references follow it), but not a value here.
     ctx.references.push({ name: ref.state.text, span: ref.state.span, statement: site.statement });
-    return bad(ctx, `${what} takes figures only: ${written} cannot be used here; references define state properties (in state and supply lines). Write the figure itself`, ref.span);
+    return bad(
+      ctx,
+      `${what} takes figures only: ${written} cannot be used here; references define state properties (in state and supply lines). Write the figure itself`,
+      ref.span,
+    );
   }
   const outcome = ctx.resolve(ref.state, site.statement, site.index);
   if (!isDefiningKey(prop.key)) {
-    return bad(ctx, `${written}: only ${DEFINING_KEYS.join(', ')} can be taken from another state; write ${prop.key}= as a figure`, prop.keySpan);
+    return bad(
+      ctx,
+      `${written}: only ${DEFINING_KEYS.join(', ')} can be taken from another state; write ${prop.key}= as a figure`,
+      prop.keySpan,
+    );
   }
   const fromKey = ref.key.text;
   if (!isDefiningKey(fromKey)) {
@@ -164,10 +186,19 @@ export function readReference(
   }
   const si = definingValue(item, fromKey) + offsetSI;
   if (!Number.isFinite(si)) {
-    return bad(ctx, `${written}: ${ref.state.text}.${fromKey} has no finite value (bone-dry air has no dew point); refer to another property`, ref.span);
+    return bad(
+      ctx,
+      `${written}: ${ref.state.text}.${fromKey} has no finite value (bone-dry air has no dew point); refer to another property`,
+      ref.span,
+    );
   }
   // The reference stands in for a written figure: its text is the reference, its band zero.
-  const quantity: QuantityNode = { number: { value: si, text: refText(ref), resolution: 0, span: ref.span }, unit: null, tolerance: null, span: ref.span };
+  const quantity: QuantityNode = {
+    number: { value: si, text: refText(ref), resolution: 0, span: ref.span },
+    unit: null,
+    tolerance: null,
+    span: ref.span,
+  };
   return {
     q: { si, unit: null, unitText: '', toleranceSI: 0, explicitTolerance: false, quantity },
     ref: { item, fromKey, offsetSI },
@@ -179,7 +210,14 @@ export function sourcesOf(props: { key: string; q: ResolvedQuantity; ref?: ReadR
   let out: PropertySource[] | undefined;
   for (const p of props) {
     if (!p.ref) continue;
-    (out ??= []).push({ key: p.key, from: p.ref.item.name, fromKey: p.ref.fromKey, offsetSI: p.ref.offsetSI, valueSI: p.q.si });
+    out ??= [];
+    out.push({
+      key: p.key,
+      from: p.ref.item.name,
+      fromKey: p.ref.fromKey,
+      offsetSI: p.ref.offsetSI,
+      valueSI: p.q.si,
+    });
   }
   return out;
 }

@@ -29,7 +29,7 @@ export const MOISTURE_RESOLUTION_CHECKED_BELOW = 2e-3;
 
 /** The SI value and band of a written defining figure, or null when it is not a plain written number. */
 function written(prop: PropertyNode | undefined, key: DefiningKey): { si: number; band: number } | null {
-  if (!prop || !prop.value || typeof prop.value.number?.value !== 'number') return null;
+  if (!prop?.value || typeof prop.value.number?.value !== 'number') return null;
   const spec = STATE_KEYS[key];
   if (!spec) return null;
   const r = readQuantity(prop, prop.value, spec);
@@ -41,8 +41,14 @@ function stateResolution(ctx: EvalContext, item: StateResult, state: MoistAirSta
   if (item.statement.keyword !== 'state' || item.defining.length !== 2) return 0;
   const props = item.statement.props;
   const [ka, kb] = item.defining as [DefiningKey, DefiningKey];
-  const a = written(props.find((p) => p.key === ka), ka);
-  const b = written(props.find((p) => p.key === kb), kb);
+  const a = written(
+    props.find((p) => p.key === ka),
+    ka,
+  );
+  const b = written(
+    props.find((p) => p.key === kb),
+    kb,
+  );
   if (!a || !b) return 0;
   let worst = 0;
   for (const [key, fig, other, otherFig] of [
@@ -64,7 +70,10 @@ const MEMO = new WeakMap<EvalContext, Map<EvaluatedItem, number>>();
 /** δW of a state or mix result of this evaluation, kg/kg (see the module comment). */
 export function moistureResolution(ctx: EvalContext, item: EvaluatedItem): number {
   let memo = MEMO.get(ctx);
-  if (!memo) MEMO.set(ctx, (memo = new Map()));
+  if (!memo) {
+    memo = new Map();
+    MEMO.set(ctx, memo);
+  }
   const known = memo.get(item);
   if (known !== undefined) return known;
   const r = item.kind === 'state' && item.state ? stateResolution(ctx, item, item.state) : 0;

@@ -9,7 +9,7 @@
  *   3. otherwise an ill-conditioned pair (solved, with a warning).
  * Every other property written is a claim.
  */
-import { solveState } from '../physics';
+import type { solveState } from '../physics';
 import type { DefiningKey, MoistAirState, PhysicsProblem } from '../physics/types';
 import type { StateStatement } from '../notation/ast';
 import type { Span } from '../text/types';
@@ -55,9 +55,19 @@ export function writtenList(props: ReadProp[]): string {
 /** True when every numeric property of a state is finite (the invariant of results). */
 export function stateFinite(s: MoistAirState): boolean {
   return (
-    Number.isFinite(s.p) && Number.isFinite(s.db) && Number.isFinite(s.wb) && Number.isFinite(s.dp) && Number.isFinite(s.rh) &&
-    Number.isFinite(s.w) && Number.isFinite(s.h) && Number.isFinite(s.v) && Number.isFinite(s.rho) && Number.isFinite(s.pw) &&
-    Number.isFinite(s.pws) && Number.isFinite(s.ws) && Number.isFinite(s.mu)
+    Number.isFinite(s.p) &&
+    Number.isFinite(s.db) &&
+    Number.isFinite(s.wb) &&
+    Number.isFinite(s.dp) &&
+    Number.isFinite(s.rh) &&
+    Number.isFinite(s.w) &&
+    Number.isFinite(s.h) &&
+    Number.isFinite(s.v) &&
+    Number.isFinite(s.rho) &&
+    Number.isFinite(s.pw) &&
+    Number.isFinite(s.pws) &&
+    Number.isFinite(s.ws) &&
+    Number.isFinite(s.mu)
   );
 }
 
@@ -97,7 +107,12 @@ export function candidatePairs(defs: ReadProp[]): [ReadProp, ReadProp][] {
 }
 
 /** Compares every claim of a computed state (the properties that did not define it). */
-export function stateClaims(ctx: EvalContext, claimsProps: ReadProp[], s: MoistAirState, context: string | (() => string)): ClaimResult[] {
+export function stateClaims(
+  ctx: EvalContext,
+  claimsProps: ReadProp[],
+  s: MoistAirState,
+  context: string | (() => string),
+): ClaimResult[] {
   const out: ClaimResult[] = [];
   if (!ctx.settings.checkClaims) return out;
   for (const c of claimsProps) {
@@ -126,7 +141,14 @@ function isDefiningProp(p: ReadProp): boolean {
  * undefined), so that every pair gives the solver an object of one shape.
  */
 function pairInput(ka: DefiningKey, va: number, kb: DefiningKey, vb: number): Partial<Record<DefiningKey, number>> {
-  const input: Record<DefiningKey, number | undefined> = { db: undefined, wb: undefined, dp: undefined, rh: undefined, w: undefined, h: undefined };
+  const input: Record<DefiningKey, number | undefined> = {
+    db: undefined,
+    wb: undefined,
+    dp: undefined,
+    rh: undefined,
+    w: undefined,
+    h: undefined,
+  };
   input[ka] = va;
   input[kb] = vb;
   return input as Partial<Record<DefiningKey, number>>;
@@ -157,12 +179,23 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
   result.state = state;
   result.defining = [a.key as DefiningKey, b.key as DefiningKey];
   const claimsProps = props.filter((p) => p !== a && p !== b && p.key !== 'p' && p.key !== 'elev');
-  if (claimsProps.length > 0) result.claims = stateClaims(ctx, claimsProps, state, () => `from ${writtenList([a, b])} at ${pressureWord(pressure)}`);
+  if (claimsProps.length > 0)
+    result.claims = stateClaims(
+      ctx,
+      claimsProps,
+      state,
+      () => `from ${writtenList([a, b])} at ${pressureWord(pressure)}`,
+    );
   return result;
 }
 
 /** The pressure of a state: its own p= / elev=, else the site pressure; `failed` when the override could not be read. */
-function statePressure(ctx: EvalContext, props: ReadProp[], broken: string[], what: string): { pressure: PressureBasis; failed: boolean } {
+function statePressure(
+  ctx: EvalContext,
+  props: ReadProp[],
+  broken: string[],
+  what: string,
+): { pressure: PressureBasis; failed: boolean } {
   let pressure: PressureBasis = ctx.site;
   let failed = broken.length > 0 && (broken.includes('p') || broken.includes('elev'));
   const override = props.some(isPressureProp) ? props.filter(isPressureProp) : NONE;
@@ -179,7 +212,13 @@ function statePressure(ctx: EvalContext, props: ReadProp[], broken: string[], wh
  * properties, a dependent pair). A reference always defines: only pairs holding every reference
  * are candidates, so at most two references fit on one state.
  */
-function definingCandidates(ctx: EvalContext, props: ReadProp[], read: ReadProps, what: string, fallback: Span): [ReadProp, ReadProp][] | null {
+function definingCandidates(
+  ctx: EvalContext,
+  props: ReadProp[],
+  read: ReadProps,
+  what: string,
+  fallback: Span,
+): [ReadProp, ReadProp][] | null {
   const defs = props.filter(isDefiningProp);
   if (defs.length < 2) {
     // A property that could not be read (bad unit, unknown key) already explains the shortfall.
@@ -225,11 +264,17 @@ function definingCandidates(ctx: EvalContext, props: ReadProp[], read: ReadProps
  * Solves the first candidate pair that is not dependent at the state's pressure (reporting the
  * engine's warnings, and its problem when the pair gives no state); null when none gives one.
  */
-function solveFirstPair(ctx: EvalContext, candidates: [ReadProp, ReadProp][], pressure: PressureBasis, what: string): { a: ReadProp; b: ReadProp; state: MoistAirState } | null {
+function solveFirstPair(
+  ctx: EvalContext,
+  candidates: [ReadProp, ReadProp][],
+  pressure: PressureBasis,
+  what: string,
+): { a: ReadProp; b: ReadProp; state: MoistAirState } | null {
   // The span of each written key, for messages (built only when one is reported).
   let spanMap: Map<string, Span> | null = null;
   const all = new Set<ReadProp>(candidates.flat());
-  const spansByKey = (): Map<string, Span> => (spanMap ??= new Map<string, Span>([...all].map((p) => [p.key, p.prop.span])));
+  const spansByKey = (): Map<string, Span> =>
+    (spanMap ??= new Map<string, Span>([...all].map((p) => [p.key, p.prop.span])));
   let lastDependent: { problem: PhysicsProblem; pair: ReadProp[] } | null = null;
   for (const [a, b] of candidates) {
     const input = pairInput(a.key as DefiningKey, a.q.si, b.key as DefiningKey, b.q.si);
@@ -238,14 +283,31 @@ function solveFirstPair(ctx: EvalContext, candidates: [ReadProp, ReadProp][], pr
       solved = ctx.solve(input, pressure.pa, ALLOW_FOG);
     } catch (err) {
       // The engine promises not to throw; if it does, report it as a problem and go on.
-      solved = { ok: false, problem: { code: 'no-solution', message: `the engine failed (${err instanceof Error ? err.message : String(err)})`, fix: 'check the figures', keys: [a.key as DefiningKey, b.key as DefiningKey] } };
+      solved = {
+        ok: false,
+        problem: {
+          code: 'no-solution',
+          message: `the engine failed (${err instanceof Error ? err.message : String(err)})`,
+          fix: 'check the figures',
+          keys: [a.key as DefiningKey, b.key as DefiningKey],
+        },
+      };
     }
     if (!solved.ok) {
       if (solved.problem.code === 'dependent-pair') {
         lastDependent = { problem: solved.problem, pair: [a, b] };
         continue;
       }
-      ctx.report(problemDiagnostic(solved.problem, 'error', spansByKey(), spanOf(spansByKey(), [a, b]), what, pressureRelated(solved.problem, pressure)));
+      ctx.report(
+        problemDiagnostic(
+          solved.problem,
+          'error',
+          spansByKey(),
+          spanOf(spansByKey(), [a, b]),
+          what,
+          pressureRelated(solved.problem, pressure),
+        ),
+      );
       return null;
     }
     if (!stateFinite(solved.state)) {
@@ -277,10 +339,23 @@ function solveFirstPair(ctx: EvalContext, candidates: [ReadProp, ReadProp][], pr
  * A state with a property without a finite value (bone-dry air has no dew point; air above the
  * boiling point cannot be saturated): the engine explains it in a warning, reported as the error.
  */
-function reportNotFinite(ctx: EvalContext, warnings: readonly PhysicsProblem[], a: ReadProp, b: ReadProp, span: Span, pressure: PressureBasis, what: string): void {
+function reportNotFinite(
+  ctx: EvalContext,
+  warnings: readonly PhysicsProblem[],
+  a: ReadProp,
+  b: ReadProp,
+  span: Span,
+  pressure: PressureBasis,
+  what: string,
+): void {
   const why = warnings.filter((w) => w.code === 'out-of-range' || w.code === 'pressure-below-saturation');
   if (why.length === 0) {
-    ctx.report({ code: 'out-of-range', severity: 'error', message: `${what}: ${writtenList([a, b])} give a state with a property that has no finite value; check the figures`, span });
+    ctx.report({
+      code: 'out-of-range',
+      severity: 'error',
+      message: `${what}: ${writtenList([a, b])} give a state with a property that has no finite value; check the figures`,
+      span,
+    });
     return;
   }
   for (const w of why) {

@@ -25,7 +25,7 @@ import { satHumRatio, specificVolume } from '../physics';
 import type { Span } from '../text/types';
 import type { EvalContext } from './context';
 import { SUPPLY_KEYS } from './keys';
-import { dependencyInfo, enteringState } from './mix';
+import { enteringState } from './mix';
 import { kPaText } from './pressure';
 import { problemDiagnostic } from './problems';
 import type { ReadProp } from './props';
@@ -48,9 +48,15 @@ const MAX_ITERATIONS = 60;
 const STATE_CLAIM_KEYS = new Set(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v']);
 
 /** A supply state and flow, or why there is none. */
-type Solved = { ok: true; t: number; w: number; m: number } | { ok: false; message: string; span: Span; code?: 'supply-infeasible' | 'no-convergence' | 'out-of-range' };
+type Solved =
+  | { ok: true; t: number; w: number; m: number }
+  | { ok: false; message: string; span: Span; code?: 'supply-infeasible' | 'no-convergence' | 'out-of-range' };
 
-function err(message: string, span: Span, code: 'supply-infeasible' | 'no-convergence' | 'out-of-range' = 'supply-infeasible'): Solved {
+function err(
+  message: string,
+  span: Span,
+  code: 'supply-infeasible' | 'no-convergence' | 'out-of-range' = 'supply-infeasible',
+): Solved {
   return { ok: false, message, span, code };
 }
 
@@ -60,7 +66,15 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
   const what = name ? `supply ${name}` : 'this supply';
   const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
   const read = readProps(ctx, stmt.props, SUPPLY_KEYS, what, { statement: stmt, index, allowed: true });
-  const result: StateResult = { kind: 'supply', name, statement: stmt, state: null, pressure: ctx.site, defining: [], claims: [] };
+  const result: StateResult = {
+    kind: 'supply',
+    name,
+    statement: stmt,
+    state: null,
+    pressure: ctx.site,
+    defining: [],
+    claims: [],
+  };
   const sources = sourcesOf(read.props);
   if (sources) result.sources = sources;
   // Only the supply temperature may be taken from a state above; the rest are loads, flows and claims.
@@ -97,7 +111,13 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
   const m = find('m');
   const q = find('q');
   if (m && q) {
-    ctx.report({ code: 'flow-conflict', severity: 'error', message: `${what}: both m= and q= give the flow; keep one`, span: q.prop.span, related: [{ span: m.prop.span, message: 'the other flow' }] });
+    ctx.report({
+      code: 'flow-conflict',
+      severity: 'error',
+      message: `${what}: both m= and q= give the flow; keep one`,
+      span: q.prop.span,
+      related: [{ span: m.prop.span, message: 'the other flow' }],
+    });
     return result;
   }
   const flow = m ?? q;
@@ -122,9 +142,19 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
   }
   const Qs = qs.q.si;
   const Ql = ql.q.si;
-  const solved = db ? fromTemperature(Qs, Ql, R.db, R.w, db.q.si, p, db, what, room.name) : flow === m ? fromMassFlow(Qs, Ql, R.db, R.w, m!.q.si, p, m!, what) : fromVolumeFlow(Qs, Ql, R.db, R.w, q!.q.si, p, q!, what);
+  const solved = db
+    ? fromTemperature(Qs, Ql, R.db, R.w, db.q.si, p, db, what, room.name)
+    : flow === m
+      ? fromMassFlow(Qs, Ql, R.db, R.w, m!.q.si, p, m!, what)
+      : fromVolumeFlow(Qs, Ql, R.db, R.w, q!.q.si, p, q!, what);
   if (!solved.ok) {
-    ctx.report({ code: solved.code ?? 'supply-infeasible', severity: 'error', message: solved.message, span: solved.span, related: [{ span: stmt.room.span, message: `room state ${room.name}` }] });
+    ctx.report({
+      code: solved.code ?? 'supply-infeasible',
+      severity: 'error',
+      message: solved.message,
+      span: solved.span,
+      related: [{ span: stmt.room.span, message: `room state ${room.name}` }],
+    });
     return result;
   }
   const state = solveSupplyState(ctx, solved.t, solved.w, p, what, fallback);
@@ -148,7 +178,14 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
 
 /** The room state the supply serves: a computed state or mix above, or null after a diagnostic. */
 function roomOf(ctx: EvalContext, stmt: SupplyStatement, index: number, what: string): StateResult | null {
-  return enteringState(ctx, stmt.room!, stmt, index, what, 'a supply names the room state it serves (state RA: db=24C rh=50%)');
+  return enteringState(
+    ctx,
+    stmt.room!,
+    stmt,
+    index,
+    what,
+    'a supply names the room state it serves (state RA: db=24C rh=50%)',
+  );
 }
 
 /** `q_sensible=41.5kW` as written, for messages. */
@@ -159,13 +196,20 @@ function w(p: ReadProp): string {
 /** The supply humidity ratio must be a state: at least zero and at most saturation at t. */
 function checkMoisture(t: number, W: number, p: number, span: Span, what: string, how: string): Solved | null {
   if (!(W >= 0)) {
-    return err(`${what}: ${how} needs a supply humidity ratio of ${formatSig(W * 1000, 4)} g/kg, below zero: the supply air cannot absorb that latent load. Lower the supply temperature or raise the flow (a larger flow takes the moisture up with less drying)`, span);
+    return err(
+      `${what}: ${how} needs a supply humidity ratio of ${formatSig(W * 1000, 4)} g/kg, below zero: the supply air cannot absorb that latent load. Lower the supply temperature or raise the flow (a larger flow takes the moisture up with less drying)`,
+      span,
+    );
   }
   let ws: number;
   try {
     ws = satHumRatio(t, p);
   } catch {
-    return err(`${what}: ${how} gives a supply dry-bulb of ${formatSig(t, 4)} °C, where air cannot be saturated at ${kPaText(p)}; check the loads and the flow`, span, 'out-of-range');
+    return err(
+      `${what}: ${how} gives a supply dry-bulb of ${formatSig(t, 4)} °C, where air cannot be saturated at ${kPaText(p)}; check the loads and the flow`,
+      span,
+      'out-of-range',
+    );
   }
   if (W > ws) {
     return err(
@@ -176,7 +220,17 @@ function checkMoisture(t: number, W: number, p: number, span: Span, what: string
   return null;
 }
 
-function fromTemperature(Qs: number, Ql: number, tR: number, wR: number, tS: number, p: number, db: ReadProp, what: string, roomName: string): Solved {
+function fromTemperature(
+  Qs: number,
+  Ql: number,
+  tR: number,
+  wR: number,
+  tS: number,
+  p: number,
+  db: ReadProp,
+  what: string,
+  roomName: string,
+): Solved {
   const dt = tR - tS;
   const L = H_FG0 + CP_VAPOUR * tR;
   if (Math.abs(dt) < 1e-9 || Math.abs(Qs) < 1e-9) {
@@ -197,7 +251,8 @@ function fromTemperature(Qs: number, Ql: number, tR: number, wR: number, tS: num
   const moisture = checkMoisture(tS, W, p, db.prop.span, what, `${w(db)} with these loads`);
   if (moisture) return moisture;
   const m = Qs / ((CP_DRY_AIR + CP_VAPOUR * W) * dt);
-  if (!(m > 0) || !Number.isFinite(m)) return err(`${what}: the loads and ${w(db)} give no positive flow; check the figures`, db.prop.span);
+  if (!(m > 0) || !Number.isFinite(m))
+    return err(`${what}: the loads and ${w(db)} give no positive flow; check the figures`, db.prop.span);
   return { ok: true, t: tS, w: W, m };
 }
 
@@ -208,21 +263,55 @@ function atMassFlow(Qs: number, Ql: number, tR: number, wR: number, m: number): 
   return { t, w: W };
 }
 
-function fromMassFlow(Qs: number, Ql: number, tR: number, wR: number, m: number, p: number, flow: ReadProp, what: string): Solved {
-  if (!(m > 0) || !Number.isFinite(m)) return err(`${what}: ${w(flow)} is not a positive flow; give the dry-air flow as a positive figure`, flow.q.quantity.span, 'out-of-range');
+function fromMassFlow(
+  Qs: number,
+  Ql: number,
+  tR: number,
+  wR: number,
+  m: number,
+  p: number,
+  flow: ReadProp,
+  what: string,
+): Solved {
+  if (!(m > 0) || !Number.isFinite(m))
+    return err(
+      `${what}: ${w(flow)} is not a positive flow; give the dry-air flow as a positive figure`,
+      flow.q.quantity.span,
+      'out-of-range',
+    );
   const s = atMassFlow(Qs, Ql, tR, wR, m);
-  if (!Number.isFinite(s.t) || s.t < -100 || s.t > 200) return err(`${what}: ${w(flow)} gives a supply dry-bulb of ${formatSig(s.t, 4)} °C, outside −100…200 °C; the flow is far too small for the loads`, flow.prop.span, 'out-of-range');
+  if (!Number.isFinite(s.t) || s.t < -100 || s.t > 200)
+    return err(
+      `${what}: ${w(flow)} gives a supply dry-bulb of ${formatSig(s.t, 4)} °C, outside −100…200 °C; the flow is far too small for the loads`,
+      flow.prop.span,
+      'out-of-range',
+    );
   const moisture = checkMoisture(s.t, s.w, p, flow.prop.span, what, `${w(flow)} with these loads`);
   return moisture ?? { ok: true, t: s.t, w: s.w, m };
 }
 
-function fromVolumeFlow(Qs: number, Ql: number, tR: number, wR: number, V: number, p: number, flow: ReadProp, what: string): Solved {
-  if (!(V > 0) || !Number.isFinite(V)) return err(`${what}: ${w(flow)} is not a positive flow; give the volume flow at the supply state as a positive figure`, flow.q.quantity.span, 'out-of-range');
+function fromVolumeFlow(
+  Qs: number,
+  Ql: number,
+  tR: number,
+  wR: number,
+  V: number,
+  p: number,
+  flow: ReadProp,
+  what: string,
+): Solved {
+  if (!(V > 0) || !Number.isFinite(V))
+    return err(
+      `${what}: ${w(flow)} is not a positive flow; give the volume flow at the supply state as a positive figure`,
+      flow.q.quantity.span,
+      'out-of-range',
+    );
   // Start from the room state's specific volume; each step re-takes v at the supply state found.
   let m = V / specificVolume(tR, Math.max(wR, 0), p);
   for (let i = 0; i < MAX_ITERATIONS; i++) {
     const s = atMassFlow(Qs, Ql, tR, wR, m);
-    if (!Number.isFinite(s.t) || s.t < -100 || s.t > 200 || !(s.w >= 0)) return fromMassFlow(Qs, Ql, tR, wR, m, p, flow, what);
+    if (!Number.isFinite(s.t) || s.t < -100 || s.t > 200 || !(s.w >= 0))
+      return fromMassFlow(Qs, Ql, tR, wR, m, p, flow, what);
     const next = V / specificVolume(s.t, s.w, p);
     if (Math.abs(next - m) <= 1e-13 * m) {
       const moisture = checkMoisture(s.t, s.w, p, flow.prop.span, what, `${w(flow)} with these loads`);
@@ -230,28 +319,67 @@ function fromVolumeFlow(Qs: number, Ql: number, tR: number, wR: number, V: numbe
     }
     m = next;
   }
-  return err(`${what}: the supply state for ${w(flow)} did not settle in ${MAX_ITERATIONS} steps (should never happen); give the mass flow m= instead`, flow.prop.span, 'no-convergence');
+  return err(
+    `${what}: the supply state for ${w(flow)} did not settle in ${MAX_ITERATIONS} steps (should never happen); give the mass flow m= instead`,
+    flow.prop.span,
+    'no-convergence',
+  );
 }
 
 /** The supply state from its dry-bulb and humidity ratio at the supply pressure. */
-function solveSupplyState(ctx: EvalContext, t: number, W: number, p: number, what: string, span: Span): StateResult['state'] {
+function solveSupplyState(
+  ctx: EvalContext,
+  t: number,
+  W: number,
+  p: number,
+  what: string,
+  span: Span,
+): StateResult['state'] {
   const solved = ctx.solve({ db: t, w: W }, p, { allowFog: false });
   if (!solved.ok) {
-    ctx.report(problemDiagnostic(solved.problem, 'error', new Map(), span, `${what} (db ${formatSig(t, 4)} °C, W ${formatSig(W * 1000, 4)} g/kg)`));
+    ctx.report(
+      problemDiagnostic(
+        solved.problem,
+        'error',
+        new Map(),
+        span,
+        `${what} (db ${formatSig(t, 4)} °C, W ${formatSig(W * 1000, 4)} g/kg)`,
+      ),
+    );
     return null;
   }
   if (!stateFinite(solved.state)) {
-    ctx.report({ code: 'out-of-range', severity: 'error', message: `${what}: the supply state (db ${formatSig(t, 4)} °C, W ${formatSig(W * 1000, 4)} g/kg) has a property without a finite value; check the loads`, span });
+    ctx.report({
+      code: 'out-of-range',
+      severity: 'error',
+      message: `${what}: the supply state (db ${formatSig(t, 4)} °C, W ${formatSig(W * 1000, 4)} g/kg) has a property without a finite value; check the loads`,
+      span,
+    });
     return null;
   }
   return solved.state;
 }
 
 /** Claims of a supply: its state's properties, the flow not used to define it, and the room SHR. */
-function supplyClaims(ctx: EvalContext, props: ReadProp[], r: StateResult, f: SupplyFigures, defining: ReadProp, what: string): ClaimResult[] {
+function supplyClaims(
+  ctx: EvalContext,
+  props: ReadProp[],
+  r: StateResult,
+  f: SupplyFigures,
+  defining: ReadProp,
+  what: string,
+): ClaimResult[] {
   const state = r.state!;
   const stateProps = props.filter((p) => STATE_CLAIM_KEYS.has(p.key) && p !== defining);
-  const out = stateProps.length > 0 ? stateClaims(ctx, stateProps, state, () => `for the loads of ${f.room} with ${writtenList([defining])} at ${pressureWord(r.pressure)}`) : [];
+  const out =
+    stateProps.length > 0
+      ? stateClaims(
+          ctx,
+          stateProps,
+          state,
+          () => `for the loads of ${f.room} with ${writtenList([defining])} at ${pressureWord(r.pressure)}`,
+        )
+      : [];
   if (!ctx.settings.checkClaims) return out;
   for (const p of props) {
     if (p === defining || STATE_CLAIM_KEYS.has(p.key) || p.key === 'q_sensible' || p.key === 'q_latent') continue;
@@ -260,10 +388,21 @@ function supplyClaims(ctx: EvalContext, props: ReadProp[], r: StateResult, f: Su
     else if (p.key === 'q') computed = f.volumeFlowM3S;
     else if (p.key === 'shr') computed = f.shr;
     if (computed === null) {
-      ctx.report({ code: 'claim-undefined', severity: 'warning', message: `${what}: the room SHR is not defined here (the total load is about zero, or the sensible and latent loads have opposite signs); remove shr=`, span: p.prop.keySpan });
+      ctx.report({
+        code: 'claim-undefined',
+        severity: 'warning',
+        message: `${what}: the room SHR is not defined here (the total load is about zero, or the sensible and latent loads have opposite signs); remove shr=`,
+        span: p.prop.keySpan,
+      });
       continue;
     }
-    const { claim, diagnostic } = checkClaim(p.key, p.prop, p.q, computed, () => `for the loads of ${f.room} with ${writtenList([defining])}`);
+    const { claim, diagnostic } = checkClaim(
+      p.key,
+      p.prop,
+      p.q,
+      computed,
+      () => `for the loads of ${f.room} with ${writtenList([defining])}`,
+    );
     out.push(claim);
     if (diagnostic) ctx.report(diagnostic);
   }

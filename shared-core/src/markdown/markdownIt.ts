@@ -190,7 +190,7 @@ function inlineMap(state: StateBlock, begin: number, end: number, indent: number
     }
     at += pad + Math.max(0, last - first);
   }
-  return { firsts, pads, pieceStarts, lineEnds, lead: lead < 0 ? 0 : lead };
+  return { firsts, pads, pieceStarts, lineEnds, lead: Math.max(lead, 0) };
 }
 
 function wrapBlock(md: Md, name: string, wrap: (orig: BlockRule) => BlockRule): void {
@@ -317,7 +317,7 @@ function recordCodeBlocks(md: Md): void {
 /** Gives a paragraph's or setext heading's inline token its {@link InlineMap} when it may hold a code span. */
 function recordInline(state: StateBlock, inlineIndex: number, begin: number, end: number): void {
   const token = state.tokens[inlineIndex];
-  if (!token || token.type !== 'inline') return;
+  if (token?.type !== 'inline') return;
   if (token.content.indexOf('`') < 0) return; // no backtick, no code span: nothing to map
   token.meta = { dewmarkMap: inlineMap(state, begin, end, state.blkIndent) };
   collectorOf(state.env)?.inlines.push(token);
@@ -434,7 +434,10 @@ function keepLookingForHtmlEnds(md: Md): void {
     state.skipHtmlSpecial = false;
     const ok = orig(state, silent);
     if (state.skipHtmlSpecial) {
-      if (!known) noEndFrom.set(state, (known = new Map()));
+      if (!known) {
+        known = new Map();
+        noEndFrom.set(state, known);
+      }
       known.set(term, pos);
       state.skipHtmlSpecial = false;
     }
@@ -639,7 +642,7 @@ function useFastTokens(md: Md): void {
     override push(type: string, tag: string, nesting: Token['nesting']): Token {
       if (this.pending) this.pushPending();
       const token = new make(type, tag, nesting);
-      let tokenMeta: StateInline['tokens_meta'][number] = undefined;
+      let tokenMeta: StateInline['tokens_meta'][number];
       if (nesting < 0) {
         this.level--;
         this.delimiters = this._prev_delimiters.pop() ?? [];

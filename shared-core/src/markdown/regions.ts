@@ -66,7 +66,14 @@ export function extractRegions(text: string): ExtractedNote {
   const fences: FenceRegion[] = [];
   for (const f of scan.fences) {
     if (f.lang !== 'air') continue;
-    fences.push({ origin: 'fence', span: f.span, contentSpan: f.contentSpan, lines: f.lines, info: f.info, closed: f.closed });
+    fences.push({
+      origin: 'fence',
+      span: f.span,
+      contentSpan: f.contentSpan,
+      lines: f.lines,
+      info: f.info,
+      closed: f.closed,
+    });
   }
   const inline: InlineRegion[] = [];
   for (const c of scan.codeSpans) {

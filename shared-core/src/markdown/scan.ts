@@ -240,8 +240,14 @@ function codeSpanAt(
       pieces.push({ start: Math.min(s + base, pieceEnd), end: pieceEnd });
     }
   }
-  let content = pieces.length === 1 ? text.slice(a + base, b + base) : pieces.map((p) => text.slice(p.start, p.end)).join(' ');
-  if (content.length > 1 && content.charCodeAt(0) === 0x20 && content.charCodeAt(content.length - 1) === 0x20 && /[^ ]/.test(content)) {
+  let content =
+    pieces.length === 1 ? text.slice(a + base, b + base) : pieces.map((p) => text.slice(p.start, p.end)).join(' ');
+  if (
+    content.length > 1 &&
+    content.charCodeAt(0) === 0x20 &&
+    content.charCodeAt(content.length - 1) === 0x20 &&
+    /[^ ]/.test(content)
+  ) {
     content = content.slice(1, -1);
     const first = pieces[0] as Span;
     if (first.start === first.end) pieces.shift();

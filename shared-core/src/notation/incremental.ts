@@ -163,18 +163,32 @@ function shiftUnit(u: UnitNode | null, d: number): UnitNode | null {
 }
 
 function shiftTolerance(t: ToleranceNode | null, d: number): ToleranceNode | null {
-  return t === null ? null : { number: shiftNumber(t.number, d), unit: shiftUnit(t.unit, d), span: shiftSpan(t.span, d) };
+  return t === null
+    ? null
+    : { number: shiftNumber(t.number, d), unit: shiftUnit(t.unit, d), span: shiftSpan(t.span, d) };
 }
 
 function shiftQuantity(q: QuantityNode | null, d: number): QuantityNode | null {
-  return q === null ? null : { number: shiftNumber(q.number, d), unit: shiftUnit(q.unit, d), tolerance: shiftTolerance(q.tolerance, d), span: shiftSpan(q.span, d) };
+  return q === null
+    ? null
+    : {
+        number: shiftNumber(q.number, d),
+        unit: shiftUnit(q.unit, d),
+        tolerance: shiftTolerance(q.tolerance, d),
+        span: shiftSpan(q.span, d),
+      };
 }
 
 function shiftProps(props: PropertyNode[], d: number): PropertyNode[] {
   const out: PropertyNode[] = new Array<PropertyNode>(props.length);
   for (let i = 0; i < props.length; i++) {
     const p = props[i]!;
-    out[i] = { key: p.key, keySpan: shiftSpan(p.keySpan, d), value: shiftQuantity(p.value, d), span: shiftSpan(p.span, d) };
+    out[i] = {
+      key: p.key,
+      keySpan: shiftSpan(p.keySpan, d),
+      value: shiftQuantity(p.value, d),
+      span: shiftSpan(p.span, d),
+    };
     if (p.ref) {
       const r = p.ref;
       out[i]!.ref = {
@@ -191,7 +205,12 @@ function shiftProps(props: PropertyNode[], d: number): PropertyNode[] {
 function shiftStreams(streams: MixStream[], d: number): MixStream[] {
   return streams.map((s) =>
     s.rest
-      ? { name: shiftName(s.name, d)!, amount: shiftQuantity(s.amount, d), span: shiftSpan(s.span, d), rest: shiftSpan(s.rest, d) }
+      ? {
+          name: shiftName(s.name, d)!,
+          amount: shiftQuantity(s.amount, d),
+          span: shiftSpan(s.span, d),
+          rest: shiftSpan(s.rest, d),
+        }
       : { name: shiftName(s.name, d)!, amount: shiftQuantity(s.amount, d), span: shiftSpan(s.span, d) },
   );
 }
@@ -206,11 +225,34 @@ export function shiftStatement(s: Statement, d: number): Statement {
     case 'units':
       return { keyword: 'units', keywordSpan, origin: s.origin, span, system: shiftName(s.system, d) };
     case 'state':
-      return { keyword: 'state', keywordSpan, origin: s.origin, span, name: shiftName(s.name, d), props: shiftProps(s.props, d) };
+      return {
+        keyword: 'state',
+        keywordSpan,
+        origin: s.origin,
+        span,
+        name: shiftName(s.name, d),
+        props: shiftProps(s.props, d),
+      };
     case 'mix':
-      return { keyword: 'mix', keywordSpan, origin: s.origin, span, name: shiftName(s.name, d), streams: shiftStreams(s.streams, d), props: shiftProps(s.props, d) };
+      return {
+        keyword: 'mix',
+        keywordSpan,
+        origin: s.origin,
+        span,
+        name: shiftName(s.name, d),
+        streams: shiftStreams(s.streams, d),
+        props: shiftProps(s.props, d),
+      };
     case 'supply':
-      return { keyword: 'supply', keywordSpan, origin: s.origin, span, name: shiftName(s.name, d), room: shiftName(s.room, d), props: shiftProps(s.props, d) };
+      return {
+        keyword: 'supply',
+        keywordSpan,
+        origin: s.origin,
+        span,
+        name: shiftName(s.name, d),
+        room: shiftName(s.room, d),
+        props: shiftProps(s.props, d),
+      };
     case 'process':
       return {
         keyword: 'process',
@@ -224,7 +266,12 @@ export function shiftStatement(s: Statement, d: number): Statement {
         words: s.words.map((w) => shiftName(w, d)!),
       };
     case 'recover': {
-      const streams = s.streams.map((x) => ({ from: shiftName(x.from, d), to: shiftName(x.to, d), props: shiftProps(x.props, d), span: shiftSpan(x.span, d) }));
+      const streams = s.streams.map((x) => ({
+        from: shiftName(x.from, d),
+        to: shiftName(x.to, d),
+        props: shiftProps(x.props, d),
+        span: shiftSpan(x.span, d),
+      }));
       return {
         keyword: 'recover',
         keywordSpan,
@@ -233,7 +280,12 @@ export function shiftStatement(s: Statement, d: number): Statement {
         name: shiftName(s.name, d),
         streams,
         props: streams.flatMap((x) => x.props),
-        options: s.options.map((o) => ({ key: o.key, keySpan: shiftSpan(o.keySpan, d), word: shiftName(o.word, d)!, span: shiftSpan(o.span, d) })),
+        options: s.options.map((o) => ({
+          key: o.key,
+          keySpan: shiftSpan(o.keySpan, d),
+          word: shiftName(o.word, d)!,
+          span: shiftSpan(o.span, d),
+        })),
       };
     }
   }
@@ -258,7 +310,14 @@ function shiftUnitOf(u: Unit, pieces: readonly Span[], d: number): Unit {
 function shiftRegion(r: ExtractedRegion, d: number): ExtractedRegion {
   const lines = r.lines.map((l) => shiftSpan(l, d));
   if (r.origin === 'fence') {
-    return { origin: 'fence', span: shiftSpan(r.span, d), contentSpan: shiftSpan(r.contentSpan, d), lines, info: r.info, closed: r.closed };
+    return {
+      origin: 'fence',
+      span: shiftSpan(r.span, d),
+      contentSpan: shiftSpan(r.contentSpan, d),
+      lines,
+      info: r.info,
+      closed: r.closed,
+    };
   }
   return { origin: 'inline', span: shiftSpan(r.span, d), contentSpan: shiftSpan(r.contentSpan, d), lines };
 }
@@ -395,7 +454,9 @@ function fenceLineEdit(prev: Previous, text: string, edit: Edit): Built | null {
     for (let k = ri + 1; k < prev.regions.length; k++) regions.push(shiftRegion(prev.regions[k]!, d));
   }
   const headings =
-    d === 0 ? prev.parsed.headings : prev.parsed.headings.map((h) => (h.span.start >= edit.oldEnd ? shiftHeading(h, d) : h));
+    d === 0
+      ? prev.parsed.headings
+      : prev.parsed.headings.map((h) => (h.span.start >= edit.oldEnd ? shiftHeading(h, d) : h));
 
   // Units: those before the edited line are kept, the edited line is parsed, those after move.
   const units: Unit[] = prev.units.slice(0, ui);
@@ -441,7 +502,11 @@ function rescan(prev: Previous | null, text: string, edit: Edit | null): Built {
   } catch {
     // parseNote turns the failure into its diagnostic; keep that result and nothing to reuse.
     const parsed = parseNote(text);
-    return { keep: { text, parsed, regions: [], units: [], unitRegion: [] }, origins: parsed.statements.map(() => null), deltas: parsed.statements.map(() => 0) };
+    return {
+      keep: { text, parsed, regions: [], units: [], unitRegion: [] },
+      origins: parsed.statements.map(() => null),
+      deltas: parsed.statements.map(() => 0),
+    };
   }
   const units: Unit[] = [];
   const unitRegion: number[] = [];
@@ -469,7 +534,12 @@ function rescan(prev: Previous | null, text: string, edit: Edit | null): Built {
  * wholly after it (offsets moved by the edit's length change), moved to its new place; else null.
  * One character of margin on each side keeps a look at a neighbouring character out of question.
  */
-function reuse(prev: Previous, edit: Edit, origin: StatementOrigin, pieces: readonly Span[]): { unit: Unit; from: Statement | null; delta: number } | null {
+function reuse(
+  prev: Previous,
+  edit: Edit,
+  origin: StatementOrigin,
+  pieces: readonly Span[],
+): { unit: Unit; from: Statement | null; delta: number } | null {
   const first = pieces[0];
   const last = pieces[pieces.length - 1];
   if (!first || !last) return null;

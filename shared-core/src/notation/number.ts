@@ -68,7 +68,9 @@ export function scanNumber(text: string, pos: number, end: number): ScannedNumbe
   let mantissa = 0;
   let digits = 0;
   const first = pos;
-  while (pos < end && isDigit((c = text.charCodeAt(pos)))) {
+  while (pos < end) {
+    c = text.charCodeAt(pos);
+    if (!isDigit(c)) break;
     mantissa = mantissa * 10 + (c - 0x30);
     digits++;
     pos++;
@@ -87,7 +89,9 @@ export function scanNumber(text: string, pos: number, end: number): ScannedNumbe
   let fractionDigits = 0;
   if (pos < end && text.charCodeAt(pos) === 0x2e) {
     pos++;
-    while (pos < end && isDigit((c = text.charCodeAt(pos)))) {
+    while (pos < end) {
+      c = text.charCodeAt(pos);
+      if (!isDigit(c)) break;
       mantissa = mantissa * 10 + (c - 0x30);
       digits++;
       pos++;
@@ -127,7 +131,7 @@ export function scanNumber(text: string, pos: number, end: number): ScannedNumbe
     value = negative ? -magnitude : magnitude;
   } else {
     const plain = grouped ? written.replace(/,/g, '') : written;
-    value = Number(text.charCodeAt(start) === 0x2212 ? '-' + plain.slice(1) : plain);
+    value = Number(text.charCodeAt(start) === 0x2212 ? `-${plain.slice(1)}` : plain);
   }
   return { end: pos, written, value, fractionDigits, exponent };
 }

@@ -63,7 +63,12 @@ import { SuggestIndex } from '../text/suggest';
 
 /** The diagnostic codes the parser reports, each with what it means (the registry's parser rows, `vocabulary/codes`). */
 export const SYNTAX_CODES = Object.freeze(
-  Object.fromEntries(DIAGNOSTIC_CODES.filter((c) => (CODES[c].from as readonly string[]).includes('parser')).map((c) => [c, CODES[c].meaning])),
+  Object.fromEntries(
+    DIAGNOSTIC_CODES.filter((c) => (CODES[c].from as readonly string[]).includes('parser')).map((c) => [
+      c,
+      CODES[c].meaning,
+    ]),
+  ),
 ) as Readonly<Record<SyntaxCode, string>>;
 
 /** A diagnostic code of the parser. */
@@ -272,7 +277,10 @@ class StatementParser {
     while (p < this.end && isAsciiLetter(this.text.charCodeAt(p))) p++;
     const word = this.text.slice(start, p);
     const after = this.charAt(p);
-    const keyword = (KEYWORDS as readonly string[]).includes(word) && (after < 0 || after === 0x3a || isWs(after)) ? (word as Keyword) : null;
+    const keyword =
+      (KEYWORDS as readonly string[]).includes(word) && (after < 0 || after === 0x3a || isWs(after))
+        ? (word as Keyword)
+        : null;
     if (!keyword) {
       const t = this.rawToken();
       let e = t.start;
@@ -317,7 +325,12 @@ class StatementParser {
     this.colon('units', 'units: SI', keywordSpan.start);
     let system: NameNode | null = null;
     if (this.peek() < 0) {
-      this.report('missing-value', "'units:' needs a unit system: write 'units: SI' or 'units: IP'", keywordSpan.start, this.lastEnd);
+      this.report(
+        'missing-value',
+        "'units:' needs a unit system: write 'units: SI' or 'units: IP'",
+        keywordSpan.start,
+        this.lastEnd,
+      );
     } else {
       const t = this.rawToken();
       this.consume(t.end);
@@ -338,14 +351,24 @@ class StatementParser {
 
   private state(keywordSpan: Span): StateStatement {
     const name = this.definedName('state', keywordSpan, 'state RA: db=24C rh=50%');
-    this.colon(name ? `state ${name.text}` : 'state', `state ${name?.text ?? 'RA'}: db=24C rh=50%`, keywordSpan.start, !name);
+    this.colon(
+      name ? `state ${name.text}` : 'state',
+      `state ${name?.text ?? 'RA'}: db=24C rh=50%`,
+      keywordSpan.start,
+      !name,
+    );
     const props = this.props();
     return { keyword: 'state', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, props };
   }
 
   private mix(keywordSpan: Span): MixStatement {
     const name = this.definedName('mix', keywordSpan, 'mix MA: OA 25% + RA 75%');
-    this.colon(name ? `mix ${name.text}` : 'mix', `mix ${name?.text ?? 'MA'}: OA 25% + RA 75%`, keywordSpan.start, !name);
+    this.colon(
+      name ? `mix ${name.text}` : 'mix',
+      `mix ${name?.text ?? 'MA'}: OA 25% + RA 75%`,
+      keywordSpan.start,
+      !name,
+    );
     const streams = this.streams(keywordSpan, name?.text ?? 'MA');
     const props = this.props();
     return { keyword: 'mix', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, streams, props };
@@ -359,11 +382,24 @@ class StatementParser {
     const { from, to } = this.arrowPair(keywordSpan, (f) => `process ${self}: ${f ?? 'MA'} -> SA`);
     const words: NameNode[] = [];
     const props = this.props({ words });
-    return { keyword: 'process', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, from, to, props, words };
+    return {
+      keyword: 'process',
+      keywordSpan,
+      origin: this.origin,
+      span: this.stmtSpan(keywordSpan),
+      name,
+      from,
+      to,
+      props,
+      words,
+    };
   }
 
   /** `A -> B` of a process or a recover stream: the two names (null where missing, reported). */
-  private arrowPair(keywordSpan: Span, example: (from: string | null) => string): { from: NameNode | null; to: NameNode | null } {
+  private arrowPair(
+    keywordSpan: Span,
+    example: (from: string | null) => string,
+  ): { from: NameNode | null; to: NameNode | null } {
     const from = this.referencedName('the entering state', example(null), keywordSpan);
     let arrow = false;
     const c = this.peek();
@@ -376,22 +412,38 @@ class StatementParser {
       arrow = true;
     } else if (from || this.nameAhead()) {
       const at = c >= 0 ? this.pos : this.lastEnd;
-      this.report('syntax', `missing '->' between the two states: write ${example(from?.text ?? null)}`, from ? from.span.start : at, from ? from.span.end : at);
+      this.report(
+        'syntax',
+        `missing '->' between the two states: write ${example(from?.text ?? null)}`,
+        from ? from.span.start : at,
+        from ? from.span.end : at,
+      );
     }
-    const to = arrow || this.nameAhead() ? this.referencedName("the leaving state after '->'", example(from?.text ?? null), keywordSpan) : null;
+    const to =
+      arrow || this.nameAhead()
+        ? this.referencedName("the leaving state after '->'", example(from?.text ?? null), keywordSpan)
+        : null;
     return { from, to };
   }
 
   private recover(keywordSpan: Span): RecoverStatement {
     const name = this.definedName('recover', keywordSpan, 'recover HX: OA -> OA2, EA -> EA2 eff_s=0.70');
     const self = name?.text ?? 'HX';
-    this.colon(name ? `recover ${name.text}` : 'recover', `recover ${self}: OA -> OA2, EA -> EA2 eff_s=0.70`, keywordSpan.start, !name);
+    this.colon(
+      name ? `recover ${name.text}` : 'recover',
+      `recover ${self}: OA -> OA2, EA -> EA2 eff_s=0.70`,
+      keywordSpan.start,
+      !name,
+    );
     const streams: RecoverStream[] = [];
     const props: PropertyNode[] = [];
     const options: WordPropertyNode[] = [];
     for (let k = 0; k < 2; k++) {
       const start = this.peek() >= 0 ? this.pos : this.lastEnd;
-      const example = k === 0 ? (f: string | null) => `recover ${self}: ${f ?? 'OA'} -> OA2, EA -> EA2 eff_s=0.70` : (f: string | null) => `recover ${self}: OA -> OA2, ${f ?? 'EA'} -> EA2 eff_s=0.70`;
+      const example =
+        k === 0
+          ? (f: string | null) => `recover ${self}: ${f ?? 'OA'} -> OA2, EA -> EA2 eff_s=0.70`
+          : (f: string | null) => `recover ${self}: OA -> OA2, ${f ?? 'EA'} -> EA2 eff_s=0.70`;
       const { from, to } = this.arrowPair(keywordSpan, example);
       const own = this.props({ stopAtComma: true, options });
       props.push(...own);
@@ -401,7 +453,12 @@ class StatementParser {
           this.consume(this.pos + 1);
         } else {
           const at = this.peek() >= 0 ? this.pos : this.lastEnd;
-          this.report('syntax', `a recover statement takes two streams separated by a comma: write recover ${self}: OA -> OA2, EA -> EA2 eff_s=0.70`, at, at);
+          this.report(
+            'syntax',
+            `a recover statement takes two streams separated by a comma: write recover ${self}: OA -> OA2, EA -> EA2 eff_s=0.70`,
+            at,
+            at,
+          );
           break;
         }
       }
@@ -410,9 +467,23 @@ class StatementParser {
     if (this.peek() >= 0) {
       const extraStart = this.pos;
       this.skipRest();
-      this.report('syntax', `unexpected '${this.text.slice(extraStart, this.lastEnd)}': a recover statement takes exactly two streams, OA -> OA2, EA -> EA2, then its properties`, extraStart, this.lastEnd);
+      this.report(
+        'syntax',
+        `unexpected '${this.text.slice(extraStart, this.lastEnd)}': a recover statement takes exactly two streams, OA -> OA2, EA -> EA2, then its properties`,
+        extraStart,
+        this.lastEnd,
+      );
     }
-    return { keyword: 'recover', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, streams, props, options };
+    return {
+      keyword: 'recover',
+      keywordSpan,
+      origin: this.origin,
+      span: this.stmtSpan(keywordSpan),
+      name,
+      streams,
+      props,
+      options,
+    };
   }
 
   private supply(keywordSpan: Span): SupplyStatement {
@@ -447,7 +518,8 @@ class StatementParser {
     let p = start;
     while (p < this.end) {
       const c = this.text.charCodeAt(p);
-      if (isWs(c) || c === 0x3a || c === 0x3d || c === 0x23 || c === 0x2c || c === 0x2b || c === 0xb1 || c === 0x2192) break;
+      if (isWs(c) || c === 0x3a || c === 0x3d || c === 0x23 || c === 0x2c || c === 0x2b || c === 0xb1 || c === 0x2192)
+        break;
       if (c === 0x2d && this.charAt(p + 1) === 0x3e) break;
       p++;
     }
@@ -460,7 +532,9 @@ class StatementParser {
     const first = letterAt(text, t.start, t.end);
     let problem: string | null = null;
     if (first === 0) {
-      problem = isDigit(text.charCodeAt(t.start)) ? 'a name starts with a letter' : `a name cannot start with '${String.fromCodePoint(text.codePointAt(t.start) ?? 0)}'`;
+      problem = isDigit(text.charCodeAt(t.start))
+        ? 'a name starts with a letter'
+        : `a name cannot start with '${String.fromCodePoint(text.codePointAt(t.start) ?? 0)}'`;
     } else {
       let p = t.start + first;
       while (p < t.end) {
@@ -478,7 +552,12 @@ class StatementParser {
       }
     }
     if (problem) {
-      this.report('bad-name', `'${this.slice(t)}' is not a valid name: ${problem}; use a letter, then letters, digits, '_' or '-' (e.g. AHU-1_off)`, t.start, t.end);
+      this.report(
+        'bad-name',
+        `'${this.slice(t)}' is not a valid name: ${problem}; use a letter, then letters, digits, '_' or '-' (e.g. AHU-1_off)`,
+        t.start,
+        t.end,
+      );
       return null;
     }
     return { text: this.slice(t), span: this.span(t.start, t.end) };
@@ -503,7 +582,8 @@ class StatementParser {
   /** Whether a name-like token (not a `key=`) starts at the cursor. */
   private nameAhead(): boolean {
     const c = this.peek();
-    if (c < 0 || c === 0x3a || c === 0x3d || c === 0x2b || c === 0x2c || c === 0xb1 || this.isArrowAt(this.pos)) return false;
+    if (c < 0 || c === 0x3a || c === 0x3d || c === 0x2b || c === 0x2c || c === 0xb1 || this.isArrowAt(this.pos))
+      return false;
     if (startsNumber(this.text, this.pos, this.end)) return false;
     return !this.keyAhead();
   }
@@ -521,7 +601,12 @@ class StatementParser {
     if (t.end === t.start) {
       const r = this.rawToken();
       this.consume(r.end);
-      this.report('bad-name', `'${this.slice(r)}' is not a valid name: use a letter, then letters, digits, '_' or '-' (e.g. ${example})`, r.start, r.end);
+      this.report(
+        'bad-name',
+        `'${this.slice(r)}' is not a valid name: use a letter, then letters, digits, '_' or '-' (e.g. ${example})`,
+        r.start,
+        r.end,
+      );
       return null;
     }
     this.consume(t.end);
@@ -571,7 +656,12 @@ class StatementParser {
       const streamStart = this.pos;
       let name: NameNode | null = null;
       if (startsNumber(this.text, this.pos, this.end)) {
-        this.report('missing-name', `a stream starts with the name of a state: write ${example}`, this.pos, this.rawToken().end);
+        this.report(
+          'missing-name',
+          `a stream starts with the name of a state: write ${example}`,
+          this.pos,
+          this.rawToken().end,
+        );
       } else if (this.nameAhead()) {
         const t = this.nameToken();
         if (t.end === t.start) break;
@@ -597,7 +687,8 @@ class StatementParser {
         );
       }
       if (name && rest) streams.push({ name, amount, span: this.span(streamStart, rest.end), rest });
-      else if (name) streams.push({ name, amount, span: this.span(streamStart, Math.max(name.span.end, amount?.span.end ?? 0)) });
+      else if (name)
+        streams.push({ name, amount, span: this.span(streamStart, Math.max(name.span.end, amount?.span.end ?? 0)) });
       expectStream = false;
       plusAt = -1;
     }
@@ -605,7 +696,12 @@ class StatementParser {
       this.report('missing-name', `'+' must be followed by another stream: write ${example}`, plusAt, plusAt + 1);
     } else if (streams.length === 0 && expectStream) {
       const at = this.lastEnd;
-      this.report('missing-value', `the mix has no streams: write mix ${mixName}: ${example}`, keywordSpan.start, Math.max(at, keywordSpan.end));
+      this.report(
+        'missing-value',
+        `the mix has no streams: write mix ${mixName}: ${example}`,
+        keywordSpan.start,
+        Math.max(at, keywordSpan.end),
+      );
     }
     return streams;
   }
@@ -617,7 +713,9 @@ class StatementParser {
    * reporting them; `stopAtComma` ends the list at a comma (a recover's first stream); `options`
    * collects `key=word` (`fog=ok`) instead of reporting the word as a bad number.
    */
-  private props(opts: { words?: NameNode[]; stopAtComma?: boolean; options?: WordPropertyNode[] } = {}): PropertyNode[] {
+  private props(
+    opts: { words?: NameNode[]; stopAtComma?: boolean; options?: WordPropertyNode[] } = {},
+  ): PropertyNode[] {
     const props: PropertyNode[] = [];
     for (;;) {
       const c = this.peek();
@@ -633,7 +731,12 @@ class StatementParser {
         this.consume(start + 1);
         const value = this.peek() >= 0 && !this.keyAhead() ? this.rawToken() : null;
         if (value) this.consume(value.end);
-        this.report('syntax', "'=' without a key before it: write key=value, e.g. rh=50%", start, value ? value.end : start + 1);
+        this.report(
+          'syntax',
+          "'=' without a key before it: write key=value, e.g. rh=50%",
+          start,
+          value ? value.end : start + 1,
+        );
         continue;
       }
       if (isKeyStart(c)) {
@@ -674,7 +777,12 @@ class StatementParser {
         this.consume(keyEnd);
         if (this.peek() >= 0 && startsNumber(this.text, this.pos, this.end)) {
           // `rh 50%`: the '=' is missing; read the value all the same.
-          this.report('syntax', `missing '=' after '${key}': write ${key}=${this.slice(this.rawToken())}`, start, keyEnd);
+          this.report(
+            'syntax',
+            `missing '=' after '${key}': write ${key}=${this.slice(this.rawToken())}`,
+            start,
+            keyEnd,
+          );
           const value = this.quantity('prop');
           props.push({ key, keySpan, value, span: this.span(start, value ? value.span.end : keyEnd) });
           continue;
@@ -711,7 +819,12 @@ class StatementParser {
     const eq = this.lastEnd;
     const c = this.peek();
     if (c < 0 || c === 0x2c || this.keyAhead()) {
-      this.report('missing-value', `'${key}=' has no value: write a number with its unit, e.g. ${exampleFor(key)}`, keySpan.start, eq);
+      this.report(
+        'missing-value',
+        `'${key}=' has no value: write a number with its unit, e.g. ${exampleFor(key)}`,
+        keySpan.start,
+        eq,
+      );
       return null;
     }
     if (!startsNumber(this.text, this.pos, this.end)) {
@@ -719,10 +832,16 @@ class StatementParser {
       this.consume(t.end);
       const word = this.slice(t);
       const lower = word.toLowerCase().replace(/^[+\-−]/, '');
-      const why = lower === 'nan' || lower.startsWith('inf') ? `'${word}' is not a finite number` : `'${word}' is not a number`;
+      const why =
+        lower === 'nan' || lower.startsWith('inf') ? `'${word}' is not a finite number` : `'${word}' is not a number`;
       const nameLike = letterAt(this.text, t.start, t.end) > 0 && !/[.=]/.test(word);
       const orRef = nameLike ? `, or another state's property: ${key}=${word}.${refKeyFor(key)}` : '';
-      this.report('bad-number', `${why}: write ${key}= followed by a decimal number and its unit, e.g. ${exampleFor(key)}${orRef}`, t.start, t.end);
+      this.report(
+        'bad-number',
+        `${why}: write ${key}= followed by a decimal number and its unit, e.g. ${exampleFor(key)}${orRef}`,
+        t.start,
+        t.end,
+      );
       return null;
     }
     return this.quantity('prop', key);
@@ -779,7 +898,12 @@ class StatementParser {
       // `OA.db+` or `OA.db+x`: a sign without a number.
       const t = this.rawToken();
       this.consume(t.end);
-      this.report('missing-value', `'${this.slice(t)}' needs a difference after the sign: write ${key}=${state.text}.${refKey.text}+${differenceExample(refKey.text)} (+ or − a difference with its unit)`, t.start, t.end);
+      this.report(
+        'missing-value',
+        `'${this.slice(t)}' needs a difference after the sign: write ${key}=${state.text}.${refKey.text}+${differenceExample(refKey.text)} (+ or − a difference with its unit)`,
+        t.start,
+        t.end,
+      );
       return 'reported';
     }
     const end = offset ? offset.span.end : q;
@@ -830,7 +954,12 @@ class StatementParser {
         const at = this.pos;
         const written = `${number.text}${unit?.text ?? ''}`;
         tolerance = this.tolerance();
-        this.report('value-spacing', `write the tolerance directly after the value, e.g. ${written}${this.text.slice(at, this.lastEnd).replace(/\s+/g, '')} (no space)`, at, this.lastEnd);
+        this.report(
+          'value-spacing',
+          `write the tolerance directly after the value, e.g. ${written}${this.text.slice(at, this.lastEnd).replace(/\s+/g, '')} (no space)`,
+          at,
+          this.lastEnd,
+        );
       } else {
         this.restore();
       }
@@ -855,14 +984,24 @@ class StatementParser {
     if (next === 0x2e || isDigit(next)) {
       const t = this.rawToken();
       this.consume(t.end);
-      this.report('bad-number', `'${this.slice(t)}' is not a number: write one decimal number,${example || ' e.g. 24.5'}`, t.start, t.end);
+      this.report(
+        'bad-number',
+        `'${this.slice(t)}' is not a number: write one decimal number,${example || ' e.g. 24.5'}`,
+        t.start,
+        t.end,
+      );
       return null;
     }
     const value = n.value;
     if (!Number.isFinite(value)) {
       const t = this.rawToken();
       this.consume(t.end);
-      this.report('bad-number', `'${this.text.slice(start, n.end)}' is too large: write a finite number,${example || ' e.g. 1.2e3'}`, start, t.end);
+      this.report(
+        'bad-number',
+        `'${this.text.slice(start, n.end)}' is too large: write a finite number,${example || ' e.g. 1.2e3'}`,
+        start,
+        t.end,
+      );
       return null;
     }
     const resolution = resolutionOf(n.fractionDigits, n.exponent);
@@ -870,7 +1009,12 @@ class StatementParser {
       // A finite value with a huge exponent (0e400): its last digit stands for more than a double holds.
       const t = this.rawToken();
       this.consume(t.end);
-      this.report('bad-number', `'${this.text.slice(start, n.end)}' has an exponent too large to compute with: write the number without it,${example || ' e.g. 0'}`, start, t.end);
+      this.report(
+        'bad-number',
+        `'${this.text.slice(start, n.end)}' has an exponent too large to compute with: write the number without it,${example || ' e.g. 0'}`,
+        start,
+        t.end,
+      );
       return null;
     }
     this.consume(n.end);
@@ -905,7 +1049,13 @@ class StatementParser {
       this.restore();
       return null;
     }
-    const startsLikeUnit = c === 0x25 || c === 0xb0 || c === 0xb5 || c === 0x3bc || c === 0x2030 || letterAt(this.text, this.pos, this.end) > 0;
+    const startsLikeUnit =
+      c === 0x25 ||
+      c === 0xb0 ||
+      c === 0xb5 ||
+      c === 0x3bc ||
+      c === 0x2030 ||
+      letterAt(this.text, this.pos, this.end) > 0;
     if (!startsLikeUnit || this.keyAhead() || this.isArrowAt(this.pos)) {
       this.restore();
       return null;
@@ -949,11 +1099,21 @@ class StatementParser {
     if (c === 0x2b || c === 0x2d || c === 0x2212) {
       const t = this.rawToken();
       this.consume(t.end);
-      this.report('bad-number', `write the tolerance without a sign, e.g. ±${this.text.slice(t.start + 1, t.end)}`, start, t.end);
+      this.report(
+        'bad-number',
+        `write the tolerance without a sign, e.g. ±${this.text.slice(t.start + 1, t.end)}`,
+        start,
+        t.end,
+      );
       return null;
     }
     if (!startsNumber(this.text, this.pos, this.end)) {
-      this.report('missing-value', `'${this.text.slice(start, start + signLen)}' needs a number after it, e.g. rh=50%±2`, start, start + signLen);
+      this.report(
+        'missing-value',
+        `'${this.text.slice(start, start + signLen)}' needs a number after it, e.g. rh=50%±2`,
+        start,
+        start + signLen,
+      );
       const t = this.unitAt(this.pos);
       if (t) this.consume(t.end);
       return null;
@@ -1028,7 +1188,12 @@ export function parseStatementPieces(text: string, pieces: readonly Span[], orig
   return { statement, diagnostics };
 }
 
-function regionStatements(text: string, region: ExtractedRegion, statements: Statement[], diagnostics: CoreDiagnostic[]): void {
+function regionStatements(
+  text: string,
+  region: ExtractedRegion,
+  statements: Statement[],
+  diagnostics: CoreDiagnostic[],
+): void {
   if (region.origin === 'inline') {
     const st = shared.parse(text, region.lines, 'inline', diagnostics);
     if (st) statements.push(st);

@@ -52,7 +52,13 @@ export function checkRelHum(rh: number, keys: DefiningKey[] = ['rh']): void {
 }
 
 /** The `pressure-below-saturation` error: total pressure p at or below the saturation pressure that t needs. */
-export function pressureBelowSaturation(tC: number, pws: number, p: number, keys: DefiningKey[], what: string): PsychroError {
+export function pressureBelowSaturation(
+  tC: number,
+  pws: number,
+  p: number,
+  keys: DefiningKey[],
+  what: string,
+): PsychroError {
   return new PsychroError({
     code: 'pressure-below-saturation',
     message: `The saturation pressure at ${what} ${fmtT(tC)} (${fmtPa(pws)}) is at or above the total pressure ${fmtPa(p)}: water boils there, so air cannot be saturated.`,

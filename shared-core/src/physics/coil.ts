@@ -35,10 +35,20 @@ export interface CoilResult {
 /** The air leaving a coil with apparatus dew point `adp` °C and bypass factor `bf` (see the module comment). */
 export function coilFromAdp(a: MoistAirState, adp: number, bf: number): EquipmentOutcome<CoilResult> {
   if (!(bf >= 0 && bf < 1)) {
-    return fail('out-of-range', 'bf', `the bypass factor ${String(bf)} is outside 0 to 1 (0 = every kg of air touches the coil, 1 = none does)`, 'give the bypass factor as a fraction from 0 up to (not including) 1, e.g. bf=0.1 (contact factor 0.9)');
+    return fail(
+      'out-of-range',
+      'bf',
+      `the bypass factor ${String(bf)} is outside 0 to 1 (0 = every kg of air touches the coil, 1 = none does)`,
+      'give the bypass factor as a fraction from 0 up to (not including) 1, e.g. bf=0.1 (contact factor 0.9)',
+    );
   }
   if (!(adp < a.db)) {
-    return fail('unreachable', 'adp', `the apparatus dew point ${tText(adp)} is not below the entering dry-bulb ${tText(a.db)}, so the coil would not cool the air`, 'give an apparatus dew point below the entering dry-bulb (below its dew point for a coil that dries the air)');
+    return fail(
+      'unreachable',
+      'adp',
+      `the apparatus dew point ${tText(adp)} is not below the entering dry-bulb ${tText(a.db)}, so the coil would not cool the air`,
+      'give an apparatus dew point below the entering dry-bulb (below its dew point for a coil that dries the air)',
+    );
   }
   const ws = satHumRatio(adp, a.p);
   const dry = ws >= a.w;

@@ -24,7 +24,12 @@ export interface EquipmentProblem {
 export type EquipmentOutcome<T> = { ok: true; value: T } | { ok: false; problem: EquipmentProblem };
 
 /** Shorthand for a failed outcome. */
-export function fail<T>(code: EquipmentProblem['code'], key: string, message: string, fix: string): EquipmentOutcome<T> {
+export function fail<T>(
+  code: EquipmentProblem['code'],
+  key: string,
+  message: string,
+  fix: string,
+): EquipmentOutcome<T> {
   return { ok: false, problem: { code, key, message, fix } };
 }
 

@@ -48,12 +48,22 @@ function steamLeaving(a: MoistAirState, w2: number, hSteam: number): MoistAirSta
 /** Steam to a target humidity ratio `w2` kg/kg, with steam of enthalpy `hSteam` J/kg. */
 export function steamToW(a: MoistAirState, w2: number, hSteam: number): EquipmentOutcome<HumidifierResult> {
   if (!(w2 >= a.w)) {
-    return fail('unreachable', 'w', `the target humidity ratio ${wText(w2)} is below the entering ${wText(a.w)}: steam only adds moisture`, 'give a target at or above the entering humidity ratio, or dry the air with a coil');
+    return fail(
+      'unreachable',
+      'w',
+      `the target humidity ratio ${wText(w2)} is below the entering ${wText(a.w)}: steam only adds moisture`,
+      'give a target at or above the entering humidity ratio, or dry the air with a coil',
+    );
   }
   const t2 = dbFromEnthalpy(a.h + (w2 - a.w) * hSteam, w2);
   const ws = satHumRatio(t2, a.p);
   if (w2 > ws) {
-    return fail('unreachable', 'w', `the target humidity ratio ${wText(w2)} is above saturation at the leaving ${tText(t2)} (${wText(ws)}): the steam would condense as fog`, 'give a lower target, or heat the air before the humidifier');
+    return fail(
+      'unreachable',
+      'w',
+      `the target humidity ratio ${wText(w2)} is above saturation at the leaving ${tText(t2)} (${wText(ws)}): the steam would condense as fog`,
+      'give a lower target, or heat the air before the humidifier',
+    );
   }
   return ok({ state: steamLeaving(a, w2, hSteam), dw: w2 - a.w });
 }
@@ -61,10 +71,20 @@ export function steamToW(a: MoistAirState, w2: number, hSteam: number): Equipmen
 /** Steam to a target relative humidity `rh2` (fraction), with steam of enthalpy `hSteam` J/kg. */
 export function steamToRh(a: MoistAirState, rh2: number, hSteam: number): EquipmentOutcome<HumidifierResult> {
   if (!(rh2 > 0 && rh2 <= 1)) {
-    return fail('out-of-range', 'rh', `the target relative humidity ${pctText(rh2)} is outside 0 % to 100 %`, 'give a target relative humidity above 0 % and at most 100 %');
+    return fail(
+      'out-of-range',
+      'rh',
+      `the target relative humidity ${pctText(rh2)} is outside 0 % to 100 %`,
+      'give a target relative humidity above 0 % and at most 100 %',
+    );
   }
   if (rh2 < a.rh - 1e-12) {
-    return fail('unreachable', 'rh', `the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: steam only adds moisture`, 'give a target above the entering relative humidity, or dry the air with a coil');
+    return fail(
+      'unreachable',
+      'rh',
+      `the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: steam only adds moisture`,
+      'give a target above the entering relative humidity, or dry the air with a coil',
+    );
   }
   const g = (w: number): number => relHumFromHumRatio(dbFromEnthalpy(a.h + (w - a.w) * hSteam, w), w, a.p) - rh2;
   const g0 = g(a.w);
@@ -76,13 +96,29 @@ export function steamToRh(a: MoistAirState, rh2: number, hSteam: number): Equipm
     hi *= 1.5;
     ghi = g(hi);
   }
-  if (!(ghi >= 0)) return fail('unreachable', 'rh', `no amount of steam brings this air to ${pctText(rh2)}`, 'give a lower target relative humidity');
+  if (!(ghi >= 0))
+    return fail(
+      'unreachable',
+      'rh',
+      `no amount of steam brings this air to ${pctText(rh2)}`,
+      'give a lower target relative humidity',
+    );
   const w2 = findRoot(g, a.w, hi, g0, ghi, 1e-12);
-  if (Number.isNaN(w2)) return fail('unreachable', 'rh', `the humidity ratio for ${pctText(rh2)} could not be found`, 'give the target as a humidity ratio (w=) instead');
+  if (Number.isNaN(w2))
+    return fail(
+      'unreachable',
+      'rh',
+      `the humidity ratio for ${pctText(rh2)} could not be found`,
+      'give the target as a humidity ratio (w=) instead',
+    );
   return ok({ state: steamLeaving(a, w2, hSteam), dw: w2 - a.w });
 }
 
-function onWetBulbLine(a: MoistAirState, input: { db: number } | { rh: number }, key: string): EquipmentOutcome<HumidifierResult> {
+function onWetBulbLine(
+  a: MoistAirState,
+  input: { db: number } | { rh: number },
+  key: string,
+): EquipmentOutcome<HumidifierResult> {
   const solved = solveState({ wb: a.wb, ...input }, a.p);
   if (!solved.ok) return fail('unreachable', key, solved.problem.message.replace(/\.$/, ''), solved.problem.fix);
   return ok({ state: solved.state, dw: solved.state.w - a.w });
@@ -91,7 +127,12 @@ function onWetBulbLine(a: MoistAirState, input: { db: number } | { rh: number },
 /** Adiabatic humidifier with saturation effectiveness `eff` (0…1): t₂ = t₁ − ε (t₁ − t*), on the wet-bulb line. */
 export function adiabaticByEffectiveness(a: MoistAirState, eff: number): EquipmentOutcome<HumidifierResult> {
   if (!(eff >= 0 && eff <= 1)) {
-    return fail('out-of-range', 'eff', `the saturation effectiveness ${String(eff)} is outside 0 to 1`, 'give the saturation effectiveness as a fraction from 0 to 1, e.g. eff=0.85 or eff=85%');
+    return fail(
+      'out-of-range',
+      'eff',
+      `the saturation effectiveness ${String(eff)} is outside 0 to 1`,
+      'give the saturation effectiveness as a fraction from 0 to 1, e.g. eff=0.85 or eff=85%',
+    );
   }
   if (eff === 0 || a.db - a.wb <= 0) return ok({ state: a, dw: 0 });
   return onWetBulbLine(a, { db: a.db - eff * (a.db - a.wb) }, 'eff');
@@ -100,10 +141,20 @@ export function adiabaticByEffectiveness(a: MoistAirState, eff: number): Equipme
 /** Adiabatic humidifier to a target dry-bulb `db2` °C on the wet-bulb line (t* ≤ t₂ ≤ t₁). */
 export function adiabaticToDb(a: MoistAirState, db2: number): EquipmentOutcome<HumidifierResult> {
   if (db2 > a.db) {
-    return fail('unreachable', 'db', `the target ${tText(db2)} is above the entering dry-bulb ${tText(a.db)}: evaporating water cools the air`, 'give a target between the entering wet-bulb and dry-bulb');
+    return fail(
+      'unreachable',
+      'db',
+      `the target ${tText(db2)} is above the entering dry-bulb ${tText(a.db)}: evaporating water cools the air`,
+      'give a target between the entering wet-bulb and dry-bulb',
+    );
   }
   if (db2 < a.wb - 1e-9) {
-    return fail('unreachable', 'db', `the target ${tText(db2)} is below the entering wet-bulb ${tText(a.wb)}: evaporation cannot cool air below its wet-bulb`, `give a target of at least ${tText(a.wb)}`);
+    return fail(
+      'unreachable',
+      'db',
+      `the target ${tText(db2)} is below the entering wet-bulb ${tText(a.wb)}: evaporation cannot cool air below its wet-bulb`,
+      `give a target of at least ${tText(a.wb)}`,
+    );
   }
   if (db2 === a.db) return ok({ state: a, dw: 0 });
   return onWetBulbLine(a, { db: Math.max(db2, a.wb) }, 'db');
@@ -112,10 +163,20 @@ export function adiabaticToDb(a: MoistAirState, db2: number): EquipmentOutcome<H
 /** Adiabatic humidifier to a target relative humidity `rh2` (fraction) on the wet-bulb line. */
 export function adiabaticToRh(a: MoistAirState, rh2: number): EquipmentOutcome<HumidifierResult> {
   if (!(rh2 > 0 && rh2 <= 1)) {
-    return fail('out-of-range', 'rh', `the target relative humidity ${pctText(rh2)} is outside 0 % to 100 %`, 'give a target relative humidity above 0 % and at most 100 %');
+    return fail(
+      'out-of-range',
+      'rh',
+      `the target relative humidity ${pctText(rh2)} is outside 0 % to 100 %`,
+      'give a target relative humidity above 0 % and at most 100 %',
+    );
   }
   if (rh2 < a.rh - 1e-12) {
-    return fail('unreachable', 'rh', `the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: evaporating water only adds moisture`, 'give a target above the entering relative humidity');
+    return fail(
+      'unreachable',
+      'rh',
+      `the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: evaporating water only adds moisture`,
+      'give a target above the entering relative humidity',
+    );
   }
   if (rh2 <= a.rh) return ok({ state: a, dw: 0 });
   return onWetBulbLine(a, { rh: rh2 }, 'rh');

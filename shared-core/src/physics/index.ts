@@ -44,11 +44,25 @@ export {
   ELEV_MIN_M,
   ELEV_MAX_M,
 } from './properties';
-export { humRatioFromWetBulb, wetBulbFromHumRatio, dewPointFromHumRatio, iceWetBulbAlternative, WB_TOLERANCE_K } from './wetbulb';
+export {
+  humRatioFromWetBulb,
+  wetBulbFromHumRatio,
+  dewPointFromHumRatio,
+  iceWetBulbAlternative,
+  WB_TOLERANCE_K,
+} from './wetbulb';
 export { stateFromDbW } from './state';
 export { solveState, DEFINING_KEYS } from './solve';
 export { fail as equipmentFailure, moistCp, type EquipmentOutcome, type EquipmentProblem } from './equipment';
-export { sensibleToDb, sensibleByDt, sensibleByDuty, fanHeatPerKg, fanTemperatureRise, fanLeaving, type FanOptions } from './sensible';
+export {
+  sensibleToDb,
+  sensibleByDt,
+  sensibleByDuty,
+  fanHeatPerKg,
+  fanTemperatureRise,
+  fanLeaving,
+  type FanOptions,
+} from './sensible';
 export { coilFromAdp, apparatusDewPoint, type CoilResult } from './coil';
 export {
   steamEnthalpy,

@@ -165,7 +165,7 @@ function checkElevation(z: number): void {
 /** Standard-atmosphere barometric pressure, Pa, at elevation z m (eq 3). */
 export function stdAtmPressure(z: number): number {
   checkElevation(z);
-  return 101325 * Math.pow(1 - 2.25577e-5 * z, 5.2559);
+  return 101325 * (1 - 2.25577e-5 * z) ** 5.2559;
 }
 
 /** Standard-atmosphere temperature, °C, at elevation z m (eq 4). */

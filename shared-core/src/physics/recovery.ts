@@ -62,16 +62,36 @@ function leavingState(t: number, w: number, p: number, which: string): Equipment
 }
 
 /** Heat recovery between two streams (see the module comment). `effL` null for a sensible-only exchanger. */
-export function recoverBetween(s1: RecoveryStream, s2: RecoveryStream, effS: number, effL: number | null): EquipmentOutcome<RecoveryResult> {
+export function recoverBetween(
+  s1: RecoveryStream,
+  s2: RecoveryStream,
+  effS: number,
+  effL: number | null,
+): EquipmentOutcome<RecoveryResult> {
   if (!(effS >= 0 && effS <= 1)) {
-    return fail('out-of-range', 'eff_s', `the sensible effectiveness ${String(effS)} is outside 0 to 1`, 'give the sensible effectiveness as a fraction from 0 to 1, e.g. eff_s=0.70 or eff_s=70%');
+    return fail(
+      'out-of-range',
+      'eff_s',
+      `the sensible effectiveness ${String(effS)} is outside 0 to 1`,
+      'give the sensible effectiveness as a fraction from 0 to 1, e.g. eff_s=0.70 or eff_s=70%',
+    );
   }
   if (effL !== null && !(effL >= 0 && effL <= 1)) {
-    return fail('out-of-range', 'eff_l', `the latent effectiveness ${String(effL)} is outside 0 to 1`, 'give the latent effectiveness as a fraction from 0 to 1, e.g. eff_l=0.60, or leave it out for a sensible-only exchanger');
+    return fail(
+      'out-of-range',
+      'eff_l',
+      `the latent effectiveness ${String(effL)} is outside 0 to 1`,
+      'give the latent effectiveness as a fraction from 0 to 1, e.g. eff_l=0.60, or leave it out for a sensible-only exchanger',
+    );
   }
   for (const s of [s1, s2]) {
     if (!(s.massFlowKgS > 0) || !Number.isFinite(s.massFlowKgS)) {
-      return fail('out-of-range', 'm', `a dry-air flow of ${String(s.massFlowKgS)} kg/s is not a positive flow`, 'give each stream a positive dry-air flow');
+      return fail(
+        'out-of-range',
+        'm',
+        `a dry-air flow of ${String(s.massFlowKgS)} kg/s is not a positive flow`,
+        'give each stream a positive dry-air flow',
+      );
     }
   }
   const a = s1.state;

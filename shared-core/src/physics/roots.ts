@@ -26,7 +26,7 @@ export function findRoot(
     if (!(x > Math.min(a, b) && x < Math.max(a, b)) || i % 3 === 2) x = 0.5 * (a + b);
     const fx = f(x);
     if (fx === 0) return x;
-    if ((fx > 0) === (fb > 0)) {
+    if (fx > 0 === fb > 0) {
       b = x;
       fb = fx;
       if (side === -1) fa *= 0.5;

@@ -44,7 +44,12 @@ export function sensibleByDt(a: MoistAirState, dt: number): EquipmentOutcome<Moi
  */
 export function sensibleByDuty(a: MoistAirState, dutyW: number, massFlowKgS: number): EquipmentOutcome<MoistAirState> {
   if (!(massFlowKgS > 0) || !Number.isFinite(massFlowKgS)) {
-    return fail('out-of-range', 'heat', `the dry-air flow ${String(massFlowKgS)} kg/s is not a positive flow`, 'give the process a positive dry-air flow (m= or q=)');
+    return fail(
+      'out-of-range',
+      'heat',
+      `the dry-air flow ${String(massFlowKgS)} kg/s is not a positive flow`,
+      'give the process a positive dry-air flow (m= or q=)',
+    );
   }
   const h2 = a.h + dutyW / massFlowKgS;
   return sensibleToDb(a, dbFromEnthalpy(h2, a.w), 'heat');
@@ -76,13 +81,28 @@ export function fanTemperatureRise(a: MoistAirState, o: FanOptions): number {
 /** The air leaving a fan: W unchanged, h₂ = h₁ + Δp v η_motor / η. */
 export function fanLeaving(a: MoistAirState, o: FanOptions): EquipmentOutcome<MoistAirState> {
   if (!(o.dpPa >= 0) || !Number.isFinite(o.dpPa)) {
-    return fail('out-of-range', 'dp_fan', `the fan pressure rise ${String(o.dpPa)} Pa is not a pressure rise of 0 Pa or more`, 'give the fan total pressure rise as a positive figure, e.g. dp_fan=750Pa');
+    return fail(
+      'out-of-range',
+      'dp_fan',
+      `the fan pressure rise ${String(o.dpPa)} Pa is not a pressure rise of 0 Pa or more`,
+      'give the fan total pressure rise as a positive figure, e.g. dp_fan=750Pa',
+    );
   }
   if (!(o.efficiency > 0 && o.efficiency <= 1)) {
-    return fail('out-of-range', 'eff', `the fan efficiency ${String(o.efficiency)} is outside 0 to 1`, 'give the total fan efficiency as a fraction above 0 and at most 1, e.g. eff=0.62 or eff=62%');
+    return fail(
+      'out-of-range',
+      'eff',
+      `the fan efficiency ${String(o.efficiency)} is outside 0 to 1`,
+      'give the total fan efficiency as a fraction above 0 and at most 1, e.g. eff=0.62 or eff=62%',
+    );
   }
   if (o.motorEfficiency !== null && !(o.motorEfficiency > 0 && o.motorEfficiency <= 1)) {
-    return fail('out-of-range', 'eff_motor', `the motor efficiency ${String(o.motorEfficiency)} is outside 0 to 1`, 'give the motor efficiency as a fraction above 0 and at most 1, e.g. eff_motor=0.92');
+    return fail(
+      'out-of-range',
+      'eff_motor',
+      `the motor efficiency ${String(o.motorEfficiency)} is outside 0 to 1`,
+      'give the motor efficiency as a fraction above 0 and at most 1, e.g. eff_motor=0.92',
+    );
   }
   const h2 = a.h + fanHeatPerKg(a, o);
   return ok(stateFromDbW(dbFromEnthalpy(h2, a.w), a.w, a.p));

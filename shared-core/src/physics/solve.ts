@@ -166,7 +166,11 @@ function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
  * ill-conditioned: solved, with a warning); dp with rh or h; rh with w or h; w with h. dp with w
  * is a dependent pair. Never throws for bad input: returns a typed problem instead.
  */
-export function solveState(input: Partial<Record<DefiningKey, number>>, p: number, options?: SolveOptions): SolveResult {
+export function solveState(
+  input: Partial<Record<DefiningKey, number>>,
+  p: number,
+  options?: SolveOptions,
+): SolveResult {
   const warnings: PhysicsProblem[] = [];
   try {
     const state = solveOrThrow(input, p, options, warnings);
@@ -232,7 +236,9 @@ function solveOrThrow(
       const k1 = given[0];
       throw problem(
         'underspecified',
-        k1 === undefined ? 'No defining property is given: a state needs two.' : `Only the ${NAMES[k1]} is given: a state needs two defining properties.`,
+        k1 === undefined
+          ? 'No defining property is given: a state needs two.'
+          : `Only the ${NAMES[k1]} is given: a state needs two defining properties.`,
         k1 === undefined
           ? 'Give two of db, wb, dp, rh, w, h (for example db and rh).'
           : `Add a second property: ${k1 === 'db' ? 'wb, dp, rh, w or h' : k1 === 'w' || k1 === 'dp' ? 'a temperature (db or wb), rh or h' : 'db or w'}.`,
@@ -312,7 +318,12 @@ function rootWithinRoundoff(f: (x: number) => number, x: number, fx: number): bo
 /** Range and sign checks of one input value. */
 function checkValue(k: DefiningKey, x: number): void {
   if (typeof x !== 'number' || !Number.isFinite(x)) {
-    throw problem('out-of-range', `The ${NAMES[k]} ${String(x)} is not a finite number.`, `Give the ${NAMES[k]} as a finite number.`, [k]);
+    throw problem(
+      'out-of-range',
+      `The ${NAMES[k]} ${String(x)} is not a finite number.`,
+      `Give the ${NAMES[k]} as a finite number.`,
+      [k],
+    );
   }
   switch (k) {
     case 'db':
@@ -329,12 +340,22 @@ function checkValue(k: DefiningKey, x: number): void {
       return;
     case 'rh':
       if (x < 0 || x > 1) {
-        throw problem('rh-out-of-range', `The relative humidity ${fmtRh(x)} is outside 0 % to 100 %.`, 'Give a relative humidity between 0 % and 100 %.', ['rh']);
+        throw problem(
+          'rh-out-of-range',
+          `The relative humidity ${fmtRh(x)} is outside 0 % to 100 %.`,
+          'Give a relative humidity between 0 % and 100 %.',
+          ['rh'],
+        );
       }
       return;
     case 'w':
       if (x < 0) {
-        throw problem('negative-humidity-ratio', `The humidity ratio ${fmtW(x)} is negative.`, 'A humidity ratio is 0 (bone-dry air) or more.', ['w']);
+        throw problem(
+          'negative-humidity-ratio',
+          `The humidity ratio ${fmtW(x)} is negative.`,
+          'A humidity ratio is 0 (bone-dry air) or more.',
+          ['w'],
+        );
       }
       return;
     case 'h':
@@ -382,7 +403,13 @@ function wbTooLow(db: number, wb: number, p: number): PsychroError {
   );
 }
 
-function fromDbDp(db: number, dp: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromDbDp(
+  db: number,
+  dp: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['db', 'dp'];
   if (dp > db && dp <= db + TEMP_ROUNDOFF_K) dp = db; // saturated, up to round-off
   if (dp > db) {
@@ -416,7 +443,13 @@ function fromDbRh(db: number, rh: number, p: number): MoistAirState {
   return completeState(db, w, p, pwsDb, pw, lnPwsDb + Math.log(rh), Number.NaN, Number.NaN);
 }
 
-function fromDbH(db: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromDbH(
+  db: number,
+  h: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['db', 'h'];
   let w = (h - CP_DA * db) / (H_FG0 + CP_WV * db);
   if (w < 0) {
@@ -454,7 +487,13 @@ function fromDbH(db: number, h: number, p: number, opts: SolveOptions | undefine
   return stateAt(db, w, p, keys, undefined, warnings);
 }
 
-function fromWbDp(wb: number, dp: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromWbDp(
+  wb: number,
+  dp: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['wb', 'dp'];
   if (dp > wb && dp <= wb + TEMP_ROUNDOFF_K) dp = wb; // saturated, up to round-off
   if (dp > wb) {
@@ -470,10 +509,16 @@ function fromWbDp(wb: number, dp: number, p: number, opts: SolveOptions | undefi
   const pw = pwsAt(dp);
   const w = (EPSILON * pw) / (p - pw);
   const db = dbFromWetBulbW(wb, (EPSILON * pwsWb) / (p - pwsWb), w);
-  return stateAt(db < wb ? wb : db, w, p, keys, opts, warnings, dp, wb, pw);
+  return stateAt(Math.max(db, wb), w, p, keys, opts, warnings, dp, wb, pw);
 }
 
-function fromWbW(wb: number, w: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromWbW(
+  wb: number,
+  w: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['wb', 'w'];
   const pwsWb = pwsAt(wb);
   checkBelowBoiling(wb, pwsWb, p, 'wb');
@@ -491,7 +536,7 @@ function fromWbW(wb: number, w: number, p: number, opts: SolveOptions | undefine
     return fogState(wb, w, p);
   }
   const db = dbFromWetBulbW(wb, wsWb, w);
-  return stateAt(db < wb ? wb : db, w, p, keys, opts, warnings, Number.NaN, wb);
+  return stateAt(Math.max(db, wb), w, p, keys, opts, warnings, Number.NaN, wb);
 }
 
 /** The dry-bulb of bone-dry air with wet-bulb wb (the largest dry-bulb that wb allows). */
@@ -499,7 +544,13 @@ function dbMaxForWetBulb(wb: number, wsWb: number): number {
   return dbFromWetBulbW(wb, wsWb, 0);
 }
 
-function fromWbRh(wb: number, rh: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromWbRh(
+  wb: number,
+  rh: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['wb', 'rh'];
   const pwsWb = pwsAt(wb);
   checkBelowBoiling(wb, pwsWb, p, 'wb');
@@ -524,7 +575,13 @@ function fromWbRh(wb: number, rh: number, p: number, opts: SolveOptions | undefi
   return stateAt(db, Math.max(0, wAt(db)), p, keys, opts, warnings, Number.NaN, wb);
 }
 
-function fromWbH(wb: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromWbH(
+  wb: number,
+  h: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['wb', 'h'];
   const pwsWb = pwsAt(wb);
   checkBelowBoiling(wb, pwsWb, p, 'wb');
@@ -571,7 +628,13 @@ function fromWbH(wb: number, h: number, p: number, opts: SolveOptions | undefine
   return stateAt(db, Math.max(0, humRatioEq33(db, wb, wsWb)), p, keys, opts, warnings, Number.NaN, wb);
 }
 
-function fromDpRh(dp: number, rh: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromDpRh(
+  dp: number,
+  rh: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['dp', 'rh'];
   const pw = pwsAt(dp);
   checkBelowBoiling(dp, pw, p, 'dp');
@@ -588,10 +651,16 @@ function fromDpRh(dp: number, rh: number, p: number, opts: SolveOptions | undefi
   const db = rh === 1 ? dp : satTempRaw(pwsDb);
   if (Number.isNaN(db)) throw noConvergence('dry-bulb (from dp and rh)');
   const w = (EPSILON * pw) / (p - pw);
-  return stateAt(db < dp ? dp : db, w, p, keys, opts, warnings, dp, Number.NaN, pw);
+  return stateAt(Math.max(db, dp), w, p, keys, opts, warnings, dp, Number.NaN, pw);
 }
 
-function fromDpH(dp: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromDpH(
+  dp: number,
+  h: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['dp', 'h'];
   const pw = pwsAt(dp);
   checkBelowBoiling(dp, pw, p, 'dp');
@@ -611,7 +680,13 @@ function fromDpH(dp: number, h: number, p: number, opts: SolveOptions | undefine
   return stateAt(db, w, p, keys, opts, warnings, dp, Number.NaN, pw);
 }
 
-function fromRhW(rh: number, w: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromRhW(
+  rh: number,
+  w: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['rh', 'w'];
   if (rh === 0 || w === 0) {
     if (rh === 0 && w === 0) {
@@ -633,13 +708,20 @@ function fromRhW(rh: number, w: number, p: number, opts: SolveOptions | undefine
   }
   const pw = (p * w) / (EPSILON + w);
   const pwsDb = pw / rh;
-  if (pwsDb > PWS_MAX * (1 + SATURATION_ROUNDOFF) || pwsDb < PWS_MIN * (1 - SATURATION_ROUNDOFF)) throw dbOutOfRange(pwsDb > PWS_MAX ? Number.POSITIVE_INFINITY : Number.NEGATIVE_INFINITY, keys);
+  if (pwsDb > PWS_MAX * (1 + SATURATION_ROUNDOFF) || pwsDb < PWS_MIN * (1 - SATURATION_ROUNDOFF))
+    throw dbOutOfRange(pwsDb > PWS_MAX ? Number.POSITIVE_INFINITY : Number.NEGATIVE_INFINITY, keys);
   const db = satTempFromLn(Math.log(pwsDb));
   if (Number.isNaN(db)) throw noConvergence('dry-bulb (from rh and w)');
   return stateAt(db, w, p, keys, opts, warnings);
 }
 
-function fromRhH(rh: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromRhH(
+  rh: number,
+  h: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['rh', 'h'];
   const wAt = (db: number): number => {
     const pw = rh * pwsAt(db);
@@ -696,12 +778,18 @@ function fromRhH(rh: number, h: number, p: number, opts: SolveOptions | undefine
   return stateAt(db, wAt(db), p, keys, opts, warnings);
 }
 
-function fromWH(w: number, h: number, p: number, opts: SolveOptions | undefined, warnings: PhysicsProblem[]): MoistAirState {
+function fromWH(
+  w: number,
+  h: number,
+  p: number,
+  opts: SolveOptions | undefined,
+  warnings: PhysicsProblem[],
+): MoistAirState {
   const keys: DefiningKey[] = ['w', 'h'];
   const db = (h - H_FG0 * w) / (CP_DA + CP_WV * w);
   const pw = (p * w) / (EPSILON + w);
   // Unsaturated if the dry-bulb from eq 30 is at or above the dew point of w.
-  const tCheck = db < T_MIN_C ? T_MIN_C : db > T_MAX_C ? T_MAX_C : db;
+  const tCheck = db < T_MIN_C ? T_MIN_C : Math.min(db, T_MAX_C);
   const unsaturated = pw <= PWS_MIN || pw <= pwsAt(tCheck) * (1 + SATURATION_ROUNDOFF);
   if (unsaturated || db > T_MAX_C) return stateAt(db, w, p, keys, opts, warnings);
   if (pw > PWS_MAX) throw dbOutOfRange(db, keys);
@@ -709,7 +797,8 @@ function fromWH(w: number, h: number, p: number, opts: SolveOptions | undefined,
   if (Number.isNaN(tSat)) throw noConvergence('dew point');
   const hSat = CP_DA * tSat + w * (H_FG0 + CP_WV * tSat);
   // Saturated air at its dew point, up to the round-off of h.
-  if (h >= hSat - (1e-13 * (Math.abs(hSat) + CP_DA * Math.abs(tSat)) + 1e-9)) return stateAt(tSat, w, p, keys, opts, warnings);
+  if (h >= hSat - (1e-13 * (Math.abs(hSat) + CP_DA * Math.abs(tSat)) + 1e-9))
+    return stateAt(tSat, w, p, keys, opts, warnings);
   if (!opts?.allowFog) {
     throw problem(
       'supersaturated',

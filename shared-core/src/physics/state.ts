@@ -129,7 +129,8 @@ export function stateFromDbW(db: number, w: number, p: number): MoistAirState {
   const pwsDb = pwsAt(db);
   let pw = (p * w) / (EPSILON + w);
   if (pw > pwsDb) {
-    if (pw > pwsDb * (1 + SATURATION_ROUNDOFF)) throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
+    if (pw > pwsDb * (1 + SATURATION_ROUNDOFF))
+      throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
     pw = pwsDb; // saturated, up to round-off
   }
   return completeState(db, w, p, pwsDb, pw, Number.NaN, Number.NaN, Number.NaN);

@@ -8,7 +8,19 @@ import { SATURATION_ROUNDOFF, TEMP_ROUNDOFF_K, checkHumRatio, checkPressure, pre
 import { fmtPa, fmtT, fmtW } from './format';
 import { EPSILON } from './properties';
 import {
-  C1, C2, C3, C4, C5, C6, C7, C8, C9, C10, C11, C12, C13,
+  C1,
+  C2,
+  C3,
+  C4,
+  C5,
+  C6,
+  C7,
+  C8,
+  C9,
+  C10,
+  C11,
+  C12,
+  C13,
   ZERO_C_K,
   SWITCH_C,
   checkTemperature,
@@ -127,10 +139,10 @@ export function wetBulbSolve(
     hi = satTempRaw(p);
     if (Number.isNaN(hi)) return Number.NaN;
   }
-  let lo = dp > WB_FLOOR_C ? dp : WB_FLOOR_C;
+  let lo = Math.max(dp, WB_FLOOR_C);
   if (lo >= hi) {
     // Saturated air (dp = db up to round-off) or air at its boiling point.
-    return hi < db ? hi : db;
+    return Math.min(hi, db);
   }
   const e = EPSILON * p;
   // Branch: ice (eq 35) when the whole bracket is below 0 °C; water (eq 33) when it is above; in
@@ -211,7 +223,7 @@ export function wetBulbSolve(
       const a = a0 - a1 * t;
       const g = a * ws - 1.006 * (db - t) - w * (dConst - d1 * t);
       if (g === 0) {
-        return t < lo0 ? lo0 : t > hi0 ? hi0 : t;
+        return t < lo0 ? lo0 : Math.min(t, hi0);
       }
       if (g < 0) lo = t;
       else hi = t;
@@ -230,12 +242,12 @@ export function wetBulbSolve(
       // where the slope of pws jumps (ice below, water above): no stop there.
       if (Math.abs(step) < WB_STEP_DONE && Math.abs(c) < 0.005 && t < SWITCH_C === next < SWITCH_C) {
         // Within the bracket (a last step can overshoot it by round-off).
-        return next < lo0 ? lo0 : next > hi0 ? hi0 : next;
+        return next < lo0 ? lo0 : Math.min(next, hi0);
       }
       if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
     }
     if (hi - lo < 1e-9) {
-      return next < lo0 ? lo0 : next > hi0 ? hi0 : next;
+      return next < lo0 ? lo0 : Math.min(next, hi0);
     }
     t = next;
   }
@@ -258,7 +270,8 @@ export function wetBulbFromHumRatio(db: number, w: number, p: number): number {
   const Tdb = db + ZERO_C_K;
   const pwsDb = Math.exp(db < SWITCH_C ? lnPwsIce(Tdb) : lnPwsWater(Tdb));
   if (pw > pwsDb) {
-    if (pw > pwsDb * (1 + SATURATION_ROUNDOFF)) throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
+    if (pw > pwsDb * (1 + SATURATION_ROUNDOFF))
+      throw supersaturatedError(db, w, (EPSILON * pwsDb) / (p - pwsDb), ['db', 'w']);
     pw = pwsDb; // saturated, up to round-off
   }
   let dp = Number.NEGATIVE_INFINITY;
@@ -276,7 +289,12 @@ export function wetBulbFromHumRatio(db: number, w: number, p: number): number {
 }
 
 /** The `supersaturated` error: w above the saturation humidity ratio ws at db. */
-export function supersaturatedError(db: number, w: number, ws: number, keys: ('db' | 'w' | 'wb' | 'h' | 'rh' | 'dp')[]): PsychroError {
+export function supersaturatedError(
+  db: number,
+  w: number,
+  ws: number,
+  keys: ('db' | 'w' | 'wb' | 'h' | 'rh' | 'dp')[],
+): PsychroError {
   return new PsychroError({
     code: 'supersaturated',
     message: `Humidity ratio ${fmtW(w)} is above saturation at ${fmtT(db)} (${fmtW(ws)}): that is fog, not humid air.`,
@@ -306,7 +324,6 @@ export function dewPointFromHumRatio(w: number, p: number): number {
   if (Number.isNaN(dp)) throw noConvergence('dew-point');
   return dp;
 }
-
 
 /**
  * The other wet-bulb near 0 °C: where {@link wetBulbFromHumRatio} reports the root of eq 33 (a wick

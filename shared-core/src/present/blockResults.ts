@@ -160,10 +160,32 @@ function resultsKey(system: UnitSystem, items: readonly EvaluatedItem[], problem
   for (const item of items) {
     if (item.kind === 'process') {
       const p = item;
-      parts.push('P', p.name, p.from, p.to, p.processKind, p.massFlowKgS, p.qTotalW, p.qSensibleW, p.qLatentW, p.dhTotal, p.dhSensible, p.dhLatent, p.shr, p.waterKgS, p.dw, p.apparatusDewPointC);
+      parts.push(
+        'P',
+        p.name,
+        p.from,
+        p.to,
+        p.processKind,
+        p.massFlowKgS,
+        p.qTotalW,
+        p.qSensibleW,
+        p.qLatentW,
+        p.dhTotal,
+        p.dhSensible,
+        p.dhLatent,
+        p.shr,
+        p.waterKgS,
+        p.dw,
+        p.apparatusDewPointC,
+      );
     } else {
       const st = item.state;
-      parts.push(item.kind, item.name, item.pressure.pa, item.definedBy ? `${item.definedBy.from}>${item.definedBy.name}` : '');
+      parts.push(
+        item.kind,
+        item.name,
+        item.pressure.pa,
+        item.definedBy ? `${item.definedBy.from}>${item.definedBy.name}` : '',
+      );
       if (st) parts.push(st.db, st.wb, st.dp, st.rh, st.w, st.h, st.fog);
       else parts.push('-');
       for (const x of item.streams ?? []) parts.push(x.name, x.fraction);
@@ -216,7 +238,9 @@ function formatResults(system: UnitSystem, items: readonly EvaluatedItem[], prob
     units: system,
     stateColumns: cols,
     states: stateRows.map((s) => stateRowData(s, cols)),
-    processes: items.filter((i): i is ProcessResult => i.kind === 'process').map((p) => processRowData(processRow(p, system))),
+    processes: items
+      .filter((i): i is ProcessResult => i.kind === 'process')
+      .map((p) => processRowData(processRow(p, system))),
     problems,
     pressure: pressures.size === 1 ? [...pressures][0]! : null,
   };
@@ -229,7 +253,9 @@ export function blockResults(analysis: Analysis, region: AirRegion, system: Unit
 
 /** The results of every fenced ` ```air ` block of a note, in document order (inline code spans have none). */
 export function allBlockResults(analysis: Analysis, system: UnitSystem = analysis.units): BlockResults[] {
-  return analysis.parsed.regions.filter((r) => r.origin === 'fence').map((region) => ({ region, data: resultsIn(analysis, region.span, system) }));
+  return analysis.parsed.regions
+    .filter((r) => r.origin === 'fence')
+    .map((region) => ({ region, data: resultsIn(analysis, region.span, system) }));
 }
 
 /** True when a block has nothing to show (no states, processes or problems). */

@@ -4,7 +4,15 @@
  */
 export { allBlockResults, blockResults, isEmptyResults, type BlockResults, type ResultsData } from './blockResults';
 export { resultsTableHtml, resultsTableMarkdown, type HtmlOptions } from './resultsTable';
-export { RESULTS_COMMAND_TITLE, STALE_RESULTS_TABLE, tableSlots, tableState, type TableSlot, type TableState, type WrittenTable } from './writtenTables';
+export {
+  RESULTS_COMMAND_TITLE,
+  STALE_RESULTS_TABLE,
+  tableSlots,
+  tableState,
+  type TableSlot,
+  type TableState,
+  type WrittenTable,
+} from './writtenTables';
 export {
   PROCESS_KIND_TEXT,
   claimDimension,

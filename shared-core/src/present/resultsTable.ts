@@ -12,7 +12,9 @@ import type { ProblemData, ResultsData } from './blockResults';
 
 /** Escapes text for HTML content and attribute values. */
 export function escapeHtml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => (c === '&' ? '&amp;' : c === '<' ? '&lt;' : c === '>' ? '&gt;' : c === '"' ? '&quot;' : '&#39;'));
+  return text.replace(/[&<>"']/g, (c) =>
+    c === '&' ? '&amp;' : c === '<' ? '&lt;' : c === '>' ? '&gt;' : c === '"' ? '&quot;' : '&#39;',
+  );
 }
 
 /**
@@ -29,7 +31,8 @@ function basisText(data: ResultsData): string | null {
   const parts = [`Results in ${data.units}`];
   if (data.pressure) parts[0] += ` at ${data.pressure}`;
   if (data.processes.length > 0) parts.push('heat and water: positive = added to the air');
-  if (data.processes.some((p) => !p.hasFlow)) parts.push(`per ${data.units === 'SI' ? 'kg' : 'lb'} of dry air where a process has no flow`);
+  if (data.processes.some((p) => !p.hasFlow))
+    parts.push(`per ${data.units === 'SI' ? 'kg' : 'lb'} of dry air where a process has no flow`);
   return `${parts.join('; ')}.`;
 }
 
@@ -40,7 +43,12 @@ function stateName(s: ResultsData['states'][number]): string {
 /** ` NAME:` before a problem's message, unless the message starts by naming its statement. */
 function problemSubject(p: ProblemData): string {
   if (!p.subject) return '';
-  if (p.message.startsWith(`state ${p.subject}:`) || p.message.startsWith(`mix ${p.subject}:`) || p.message.startsWith(`process ${p.subject}:`)) return '';
+  if (
+    p.message.startsWith(`state ${p.subject}:`) ||
+    p.message.startsWith(`mix ${p.subject}:`) ||
+    p.message.startsWith(`process ${p.subject}:`)
+  )
+    return '';
   return ` ${p.subject}:`;
 }
 
@@ -56,25 +64,41 @@ export interface HtmlOptions {
 
 /** The results of one block as an HTML fragment (a `div.dewmark-results`); everything escaped. */
 export function resultsTableHtml(data: ResultsData, opts: HtmlOptions = {}): string {
-  const out: string[] = ['<div class="dewmark-results" role="group" aria-label="Dewmark results of the air block above">'];
+  const out: string[] = [
+    '<div class="dewmark-results" role="group" aria-label="Dewmark results of the air block above">',
+  ];
   if (opts.notice) out.push(`<p class="dewmark-results-notice">${escapeHtml(opts.notice)}</p>`);
   if (data.states.length > 0) {
-    const head = ['<th scope="col">state</th>', ...data.stateColumns.map((c) => `<th scope="col" class="dewmark-num">${escapeHtml(c.label)} <span class="dewmark-unit">${escapeHtml(c.unit)}</span></th>`)];
+    const head = [
+      '<th scope="col">state</th>',
+      ...data.stateColumns.map(
+        (c) =>
+          `<th scope="col" class="dewmark-num">${escapeHtml(c.label)} <span class="dewmark-unit">${escapeHtml(c.unit)}</span></th>`,
+      ),
+    ];
     const rows = data.states.map((s) => {
       const cls = s.status === 'ok' ? '' : ` class="dewmark-${s.status}"`;
       const detail = s.detail ? ` <span class="dewmark-detail">${escapeHtml(s.detail)}</span>` : '';
       const cells = s.values.map((v) => `<td class="dewmark-num">${escapeHtml(v)}</td>`).join('');
       return `<tr${cls}><th scope="row"><span class="dewmark-name">${escapeHtml(s.name)}</span>${detail}</th>${cells}</tr>`;
     });
-    out.push(`<table class="dewmark-states"><thead><tr>${head.join('')}</tr></thead><tbody>${rows.join('')}</tbody></table>`);
+    out.push(
+      `<table class="dewmark-states"><thead><tr>${head.join('')}</tr></thead><tbody>${rows.join('')}</tbody></table>`,
+    );
   }
   if (data.processes.length > 0) {
-    const head = ['process', 'kind', 'total', 'sensible', 'latent', 'SHR', 'water'].map((h, i) => `<th scope="col"${i >= 2 ? ' class="dewmark-num"' : ''}>${h}</th>`);
+    const head = ['process', 'kind', 'total', 'sensible', 'latent', 'SHR', 'water'].map(
+      (h, i) => `<th scope="col"${i >= 2 ? ' class="dewmark-num"' : ''}>${h}</th>`,
+    );
     const rows = data.processes.map((p) => {
-      const cells = [p.total, p.sensible, p.latent, p.shr, p.water].map((v) => `<td class="dewmark-num">${escapeHtml(v)}</td>`).join('');
+      const cells = [p.total, p.sensible, p.latent, p.shr, p.water]
+        .map((v) => `<td class="dewmark-num">${escapeHtml(v)}</td>`)
+        .join('');
       return `<tr><th scope="row"><span class="dewmark-name">${escapeHtml(p.name)}</span> <span class="dewmark-detail">${escapeHtml(`${p.from} → ${p.to}`)}</span></th><td>${escapeHtml(p.kind)}</td>${cells}</tr>`;
     });
-    out.push(`<table class="dewmark-processes"><thead><tr>${head.join('')}</tr></thead><tbody>${rows.join('')}</tbody></table>`);
+    out.push(
+      `<table class="dewmark-processes"><thead><tr>${head.join('')}</tr></thead><tbody>${rows.join('')}</tbody></table>`,
+    );
   }
   const basis = basisText(data);
   if (basis) out.push(`<p class="dewmark-basis">${escapeHtml(basis)}</p>`);
@@ -99,7 +123,8 @@ export function resultsTableHtml(data: ResultsData, opts: HtmlOptions = {}): str
 /** A Markdown table with padded columns; `right[i]` aligns column i to the right. */
 function markdownTable(header: string[], rows: string[][], right: boolean[]): string[] {
   const widths = header.map((h, i) => Math.max(3, h.length, ...rows.map((r) => (r[i] ?? '').length)));
-  const line = (cells: string[]) => `| ${cells.map((c, i) => (right[i] ? c.padStart(widths[i]!) : c.padEnd(widths[i]!))).join(' | ')} |`;
+  const line = (cells: string[]) =>
+    `| ${cells.map((c, i) => (right[i] ? c.padStart(widths[i]!) : c.padEnd(widths[i]!))).join(' | ')} |`;
   const rule = `| ${widths.map((w, i) => (right[i] ? `${'-'.repeat(w - 1)}:` : `:${'-'.repeat(w - 1)}`)).join(' | ')} |`;
   return [line(header), rule, ...rows.map(line)];
 }
@@ -126,13 +151,22 @@ export function resultsTableMarkdown(data: ResultsData): string[] {
   }
   if (data.processes.length > 0) {
     const header = ['process', 'kind', 'total', 'sensible', 'latent', 'SHR', 'water'];
-    const rows = data.processes.map((p) => [escapeMarkdown(`${p.name}: ${p.from} → ${p.to}`), escapeMarkdown(p.kind), ...[p.total, p.sensible, p.latent, p.shr, p.water].map(escapeMarkdown)]);
+    const rows = data.processes.map((p) => [
+      escapeMarkdown(`${p.name}: ${p.from} → ${p.to}`),
+      escapeMarkdown(p.kind),
+      ...[p.total, p.sensible, p.latent, p.shr, p.water].map(escapeMarkdown),
+    ]);
     parts.push(markdownTable(header, rows, [false, false, true, true, true, true, true]));
   }
   const basis = basisText(data);
   if (basis) parts.push([`_${escapeMarkdown(basis)}_`]);
   if (data.problems.length > 0) {
-    parts.push(data.problems.map((p) => `- **${p.severity}** ${escapeMarkdown(p.code)}${escapeMarkdown(problemSubject(p))} ${escapeMarkdown(withoutLineNumbers(p.message))}`));
+    parts.push(
+      data.problems.map(
+        (p) =>
+          `- **${p.severity}** ${escapeMarkdown(p.code)}${escapeMarkdown(problemSubject(p))} ${escapeMarkdown(withoutLineNumbers(p.message))}`,
+      ),
+    );
   }
   if (parts.length === 0) parts.push(['_No states, mixes or processes in this block._']);
   const out: string[] = [];

@@ -8,7 +8,17 @@
  * Pure: results in, strings out.
  */
 import type { ClaimResult, ProcessKind, ProcessResult, StateResult } from '../evaluate/types';
-import { bandFigure, claimFigure, displaySymbol, displayUnit, figure, lookupUnit, noFigure, ratioFigure, type Figure } from '../units';
+import {
+  bandFigure,
+  claimFigure,
+  displaySymbol,
+  displayUnit,
+  figure,
+  lookupUnit,
+  noFigure,
+  ratioFigure,
+  type Figure,
+} from '../units';
 import type { Dimension, UnitDef, UnitSystem } from '../units/types';
 import { findKey } from '../vocabulary/keys';
 
@@ -120,11 +130,20 @@ export function heatFigure(w: number | null | undefined, system: UnitSystem, opt
 
 /** A water rate, kg/s, in kg/h or lb/h. */
 export function waterFigure(kgPerS: number | null | undefined, system: UnitSystem, opts: RowOptions = {}): Figure {
-  return figure(kgPerS, 'massFlow', system, { unit: waterUnit(system), difference: true, extraDigits: opts.extraDigits });
+  return figure(kgPerS, 'massFlow', system, {
+    unit: waterUnit(system),
+    difference: true,
+    extraDigits: opts.extraDigits,
+  });
 }
 
 /** One figure of a state property, SI in. */
-export function stateFigure(key: StateFigureKey, si: number | null | undefined, system: UnitSystem, opts: RowOptions = {}): Figure {
+export function stateFigure(
+  key: StateFigureKey,
+  si: number | null | undefined,
+  system: UnitSystem,
+  opts: RowOptions = {},
+): Figure {
   return figure(si, STATE_FIGURE_DIMENSION[key], system, { extraDigits: opts.extraDigits });
 }
 
@@ -145,7 +164,8 @@ export function stateRow(item: StateResult, system: UnitSystem, opts: RowOptions
     pw: f('pw', st?.pw),
     mu: f('mu', st?.mu),
   };
-  const massFlow = (kgS: number | null | undefined): Figure => figure(kgS, 'massFlow', system, { extraDigits: opts.extraDigits });
+  const massFlow = (kgS: number | null | undefined): Figure =>
+    figure(kgS, 'massFlow', system, { extraDigits: opts.extraDigits });
   return {
     kind: item.kind,
     name: item.name,
@@ -154,7 +174,11 @@ export function stateRow(item: StateResult, system: UnitSystem, opts: RowOptions
     wbIce: st?.wbIce ?? false,
     dpFrost: st?.dpFrost ?? false,
     defining: item.defining,
-    streams: (item.streams ?? []).map((s) => ({ name: s.name, fraction: figure(s.fraction, 'fraction', system, { extraDigits: opts.extraDigits }), flow: massFlow(s.massFlowKgS) })),
+    streams: (item.streams ?? []).map((s) => ({
+      name: s.name,
+      fraction: figure(s.fraction, 'fraction', system, { extraDigits: opts.extraDigits }),
+      flow: massFlow(s.massFlowKgS),
+    })),
     massFlow: massFlow(item.massFlowKgS),
     origin: item.definedBy ? `from ${item.definedBy.from} via ${item.definedBy.name}` : null,
   };
@@ -212,7 +236,13 @@ export function claimFigures(claim: ClaimResult, opts: RowOptions = {}): { compu
   const unit = claimUnit(claim);
   const inUnit = unit && unit.dimension === dimension ? unit : null;
   return {
-    computed: claimFigure(claim.computedSI, dimension, inUnit, claim.prop.value?.number.resolution, opts.extraDigits ?? 0),
+    computed: claimFigure(
+      claim.computedSI,
+      dimension,
+      inUnit,
+      claim.prop.value?.number.resolution,
+      opts.extraDigits ?? 0,
+    ),
     band: bandFigure(claim.toleranceSI, inUnit),
   };
 }

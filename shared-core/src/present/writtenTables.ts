@@ -145,7 +145,12 @@ function closedFence(text: string, region: AirRegion): boolean {
   if (!open?.[1] || lastLineStart <= region.span.start) return false;
   const lastLine = text.slice(lastLineStart, region.span.end);
   const close = /(`{3,}|~{3,})[ \t]*$/.exec(lastLine);
-  return !!close?.[1] && close[1][0] === open[1][0] && close[1].length >= open[1].length && lastLine.slice(0, close.index).replace(/[> \t]/g, '') === '';
+  return (
+    !!close?.[1] &&
+    close[1][0] === open[1][0] &&
+    close[1].length >= open[1].length &&
+    lastLine.slice(0, close.index).replace(/[> \t]/g, '') === ''
+  );
 }
 
 /**
@@ -156,7 +161,8 @@ export function tableSlots(text: string, regions: readonly AirRegion[]): TableSl
   const fences = regions.filter((r) => r.origin === 'fence');
   const out: TableSlot[] = [];
   const markers: number[] = [];
-  for (let at = text.indexOf(RESULTS_MARKER_WORD); at >= 0; at = text.indexOf(RESULTS_MARKER_WORD, at + 1)) markers.push(at);
+  for (let at = text.indexOf(RESULTS_MARKER_WORD); at >= 0; at = text.indexOf(RESULTS_MARKER_WORD, at + 1))
+    markers.push(at);
   let nextMarker = 0;
   fences.forEach((region, i) => {
     if (!closedFence(text, region)) return;
@@ -185,13 +191,23 @@ export function tableSlots(text: string, regions: readonly AirRegion[]): TableSl
     const startText = first.content.trimEnd();
     const m = START_RE.exec(startText);
     if (!m) return;
-    const table: WrittenTable = { region, start: { start: first.offset, end: first.offset + startText.length }, end: null, writtenHash: m[1]!, body: [] };
+    const table: WrittenTable = {
+      region,
+      start: { start: first.offset, end: first.offset + startText.length },
+      end: null,
+      writtenHash: m[1]!,
+      body: [],
+    };
     slot.table = table;
     const body: string[] = [];
     // The smallest content column of a list item opened inside the table: a line indented that
     // far may belong to the item, so a marker there is not in the fence's container.
     let listColumn = Infinity;
-    for (line = lineAt(text, line.next); line.start < text.length && line.start < limit; line = lineAt(text, line.next)) {
+    for (
+      line = lineAt(text, line.next);
+      line.start < text.length && line.start < limit;
+      line = lineAt(text, line.next)
+    ) {
       const c = inside(text, line, prefix);
       if (!c) return;
       const t = c.content.trim();
@@ -236,7 +252,11 @@ function fresh(analysis: Analysis, region: AirRegion, system?: UnitSystem): Fres
 }
 
 /** The body lines of a fresh table for `region`, and the checksum its start marker carries. */
-export function freshTable(analysis: Analysis, region: AirRegion, system?: UnitSystem): { lines: string[]; hash: string } {
+export function freshTable(
+  analysis: Analysis,
+  region: AirRegion,
+  system?: UnitSystem,
+): { lines: string[]; hash: string } {
   const f = fresh(analysis, region, system);
   return { lines: [...f.lines], hash: f.hash };
 }

@@ -74,7 +74,7 @@ function addUnitFixes(note: Note, d: CoreDiagnostic): FixAction[] {
 
 function swapWetBulbFix(note: Note, d: CoreDiagnostic): FixAction[] {
   const statement = statementAt(note, d.span.start);
-  if (!statement || statement.keyword !== 'state') return [];
+  if (statement?.keyword !== 'state') return [];
   const db = statement.props.find((p) => p.key === 'db')?.value;
   const wb = statement.props.find((p) => p.key === 'wb')?.value;
   if (!db || !wb) return [];
@@ -95,7 +95,9 @@ function swapWetBulbFix(note: Note, d: CoreDiagnostic): FixAction[] {
 }
 
 function isSpan(x: unknown): x is Span {
-  return typeof x === 'object' && x !== null && typeof (x as Span).start === 'number' && typeof (x as Span).end === 'number';
+  return (
+    typeof x === 'object' && x !== null && typeof (x as Span).start === 'number' && typeof (x as Span).end === 'number'
+  );
 }
 
 function staleClaimFix(note: Note, d: CoreDiagnostic): FixAction[] {
@@ -107,7 +109,9 @@ function staleClaimFix(note: Note, d: CoreDiagnostic): FixAction[] {
     // Without the evaluator's data, find the failed claim on the diagnostic's span.
     const statement = statementAt(note, d.span.start);
     const item = statement ? itemOf(note, statement) : undefined;
-    const claim: ClaimResult | undefined = item?.claims.find((c) => !c.pass && c.prop.value && overlaps(c.prop.value.span, d.span));
+    const claim: ClaimResult | undefined = item?.claims.find(
+      (c) => !c.pass && c.prop.value && overlaps(c.prop.value.span, d.span),
+    );
     if (!claim?.prop.value) return [];
     span = valueSpan(claim.prop.value);
     replacement = claim.computedText;
@@ -159,7 +163,14 @@ function toleranceText(delta: number): string {
  * The edit that rewrites one written quantity in `system`, or null when it is already in that
  * system, has no unit of a system (%), or cannot be read.
  */
-function convertQuantity(q: QuantityNode, spec: KeySpec | null, dimension: Dimension, system: UnitSystem, claim: ClaimResult | undefined, after = ''): Edit | null {
+function convertQuantity(
+  q: QuantityNode,
+  spec: KeySpec | null,
+  dimension: Dimension,
+  system: UnitSystem,
+  claim: ClaimResult | undefined,
+  after = '',
+): Edit | null {
   let unit: UnitDef | undefined;
   if (q.unit) unit = lookupUnit(q.unit.text);
   else if (spec?.bare === 'si' && dimension === 'humidityRatio') unit = lookupUnit('kg/kg');
@@ -198,14 +209,28 @@ function convertStatement(note: Note, statement: Statement, system: UnitSystem):
       const q = stream.amount;
       const unit = q?.unit ? lookupUnit(q.unit.text) : undefined;
       if (!q || !unit) continue;
-      const e = convertQuantity(q, null, unit.dimension, system, undefined, note.text.slice(q.span.end, q.span.end + 2));
+      const e = convertQuantity(
+        q,
+        null,
+        unit.dimension,
+        system,
+        undefined,
+        note.text.slice(q.span.end, q.span.end + 2),
+      );
       if (e) edits.push(e);
     }
   }
   for (const prop of propsOf(statement)) {
     const spec = specOf(statement, prop.key);
     if (!prop.value || !spec) continue;
-    const e = convertQuantity(prop.value, spec, spec.dimension, system, claims.get(prop), note.text.slice(prop.value.span.end, prop.value.span.end + 2));
+    const e = convertQuantity(
+      prop.value,
+      spec,
+      spec.dimension,
+      system,
+      claims.get(prop),
+      note.text.slice(prop.value.span.end, prop.value.span.end + 2),
+    );
     if (e) edits.push(e);
   }
   return edits;
@@ -215,7 +240,8 @@ function conversionActions(note: Note, span: Span): FixAction[] {
   const out: FixAction[] = [];
   for (const statement of statementsIn(note, span)) {
     if (statement.keyword === 'units') continue;
-    const label = 'name' in statement && statement.name ? `${statement.keyword} ${statement.name.text}` : statement.keyword;
+    const label =
+      'name' in statement && statement.name ? `${statement.keyword} ${statement.name.text}` : statement.keyword;
     for (const system of ['SI', 'IP'] as const) {
       const edits = convertStatement(note, statement, system);
       if (edits.length === 0) continue;

@@ -34,8 +34,18 @@ const KEYWORDS: CompletionEntry[] = [
   { label: 'state', kind: 'keyword', insertText: 'state ', detail: 'a moist-air state: state NAME: db=… rh=…' },
   { label: 'mix', kind: 'keyword', insertText: 'mix ', detail: 'adiabatic mixing: mix NAME: A 30% + B 70%' },
   { label: 'process', kind: 'keyword', insertText: 'process ', detail: 'a process: process NAME: A -> B m=…' },
-  { label: 'supply', kind: 'keyword', insertText: 'supply ', detail: 'supply air from room loads: supply NAME: ROOM q_sensible=… q_latent=… db=…' },
-  { label: 'recover', kind: 'keyword', insertText: 'recover ', detail: 'heat recovery: recover NAME: A -> A2, B -> B2 eff_s=…' },
+  {
+    label: 'supply',
+    kind: 'keyword',
+    insertText: 'supply ',
+    detail: 'supply air from room loads: supply NAME: ROOM q_sensible=… q_latent=… db=…',
+  },
+  {
+    label: 'recover',
+    kind: 'keyword',
+    insertText: 'recover ',
+    detail: 'heat recovery: recover NAME: A -> A2, B -> B2 eff_s=…',
+  },
   { label: 'site', kind: 'keyword', insertText: 'site: ', detail: 'pressure for what follows: site: elev=… or p=…' },
   { label: 'units', kind: 'keyword', insertText: 'units: ', detail: 'unit system of the results: units: SI or IP' },
 ];
@@ -51,9 +61,9 @@ const STREAM_DIMENSIONS: Dimension[] = ['fraction', 'massFlow', 'volumeFlow'];
 // Each digit has one place to go, and no digit or point may follow: a long run of digits (a
 // pasted 1e4-digit number) is matched in linear time instead of being split every possible way.
 const NUMBER = String.raw`[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?(?![\d.])`;
-const NAME = String.raw`[A-Za-z][A-Za-z0-9_-]*`;
+const NAME = '[A-Za-z][A-Za-z0-9_-]*';
 /** A name that starts a word (not the tail of a longer name: linear time on long words). */
-const WORD_NAME = String.raw`(?<![A-Za-z0-9_-])${NAME}`;
+const WORD_NAME = `(?<![A-Za-z0-9_-])${NAME}`;
 
 /** `key=NUMBER unit-so-far` at the end of the text before the cursor. */
 const AFTER_NUMBER = new RegExp(String.raw`(?:^|\s)([A-Za-z_]+)=${NUMBER}(\S*)$`);
@@ -78,7 +88,12 @@ function unitEntries(dimensions: readonly Dimension[]): CompletionEntry[] {
   for (const d of dimensions) {
     for (const u of unitsOf(d)) {
       const doc = describeUnit(u.symbol);
-      const entry: CompletionEntry = { label: u.symbol, kind: 'unit', insertText: u.symbol, detail: `${u.title} (${dimensionTitle(d)})` };
+      const entry: CompletionEntry = {
+        label: u.symbol,
+        kind: 'unit',
+        insertText: u.symbol,
+        detail: `${u.title} (${dimensionTitle(d)})`,
+      };
       if (doc) entry.documentation = doc.replace(/\n/g, '  \n');
       out.push(entry);
     }
@@ -105,7 +120,13 @@ function nameEntries(note: Note, before: number, except: string | null): Complet
 }
 
 /** A difference for the completion text of a reference to each key (none for rh). */
-const DIFFERENCE_EXAMPLE: Readonly<Record<string, string>> = { db: '+0.8K', wb: '+0.8K', dp: '+0.8K', w: '+0.5g/kg', h: '+2kJ/kg' };
+const DIFFERENCE_EXAMPLE: Readonly<Record<string, string>> = {
+  db: '+0.8K',
+  wb: '+0.8K',
+  dp: '+0.8K',
+  w: '+0.5g/kg',
+  h: '+2kJ/kg',
+};
 
 /** Keys a reference can set and name (the defining properties). */
 const REFERENCE_KEYS: readonly string[] = ['db', 'wb', 'dp', 'rh', 'w', 'h'];
@@ -119,8 +140,16 @@ function refNameEntries(note: Note, before: number, except: string | null, key: 
   const dim = STATE_KEYS[key]!.dimension;
   return nameEntries(note, before, except).map((e) => {
     const item = note.analysis.byName.get(e.label);
-    const value = item && item.kind !== 'process' && item.state ? ` = ${show(note, item.state[key as 'db'], dim, sys)}` : '';
-    return { ...e, label: `${e.label}.${key}`, insertText: `${e.label}.${key}`, filterText: `${e.label}.${key}`, detail: `${key} of ${e.label}${value}`, documentation: `Takes ${key} from ${e.label} (a reference: it follows every change of ${e.label}).` };
+    const value =
+      item && item.kind !== 'process' && item.state ? ` = ${show(note, item.state[key as 'db'], dim, sys)}` : '';
+    return {
+      ...e,
+      label: `${e.label}.${key}`,
+      insertText: `${e.label}.${key}`,
+      filterText: `${e.label}.${key}`,
+      detail: `${key} of ${e.label}${value}`,
+      documentation: `Takes ${key} from ${e.label} (a reference: it follows every change of ${e.label}).`,
+    };
   });
 }
 
@@ -131,15 +160,13 @@ function refKeyEntries(note: Note, before: number, name: string, key: string): C
   const sys = note.analysis.units;
   const dim = STATE_KEYS[key]!.dimension;
   // Only keys of the same kind as the one being set (db, wb, dp for a temperature).
-  return REFERENCE_KEYS
-    .filter((k) => STATE_KEYS[k]!.dimension === dim)
-    .map((k) => ({
-      label: k,
-      kind: 'key' as const,
-      insertText: k,
-      detail: `${STATE_KEYS[k]!.title} of ${name}${item.state ? ` = ${show(note, item.state[k as 'db'], dim, sys)}` : ''}`,
-      documentation: `\`${key}=${name}.${k}\` takes ${STATE_KEYS[k]!.title} from ${name}; ${DIFFERENCE_EXAMPLE[k] ? `add a difference with + or − and a unit where it helps (e.g. \`${key}=${name}.${k}${DIFFERENCE_EXAMPLE[k]}\`).` : 'it takes no difference.'}`,
-    }));
+  return REFERENCE_KEYS.filter((k) => STATE_KEYS[k]!.dimension === dim).map((k) => ({
+    label: k,
+    kind: 'key' as const,
+    insertText: k,
+    detail: `${STATE_KEYS[k]!.title} of ${name}${item.state ? ` = ${show(note, item.state[k as 'db'], dim, sys)}` : ''}`,
+    documentation: `\`${key}=${name}.${k}\` takes ${STATE_KEYS[k]!.title} from ${name}; ${DIFFERENCE_EXAMPLE[k] ? `add a difference with + or − and a unit where it helps (e.g. \`${key}=${name}.${k}${DIFFERENCE_EXAMPLE[k]}\`).` : 'it takes no difference.'}`,
+  }));
 }
 
 /** The entries with a space put before them, for a cursor right after the statement's `:`. */
@@ -160,7 +187,10 @@ export function completions(note: Note, offset: number, token?: CancellationFlag
   if (token?.isCancellationRequested) return null;
   const region = regionAt(note, offset);
   if (!region) return null;
-  const from = region.origin === 'fence' ? Math.max(lineStart(note.text, offset), region.contentSpan.start) : region.contentSpan.start;
+  const from =
+    region.origin === 'fence'
+      ? Math.max(lineStart(note.text, offset), region.contentSpan.start)
+      : region.contentSpan.start;
   const before = note.text.slice(from, offset);
   if (before.includes('#') || before.includes('`')) return null;
 
@@ -227,7 +257,9 @@ export function completions(note: Note, offset: number, token?: CancellationFlag
       // After `MA ->` the leaving state is another one: MA itself is not offered.
       const fromName = rest.includes('->') ? new RegExp(String.raw`^\s*(${NAME})\s*->`).exec(rest)?.[1] : undefined;
       const names = nameEntries(note, offset, self).filter((e) => e.label !== fromName);
-      const glued = rest.endsWith(`->${end[1]!}`) ? names.map((e) => ({ ...e, insertText: ` ${e.insertText}` })) : names;
+      const glued = rest.endsWith(`->${end[1]!}`)
+        ? names.map((e) => ({ ...e, insertText: ` ${e.insertText}` }))
+        : names;
       return result(afterColon(glued, rest, end[1]!), end[1]!);
     }
     if (rest.includes('->')) {

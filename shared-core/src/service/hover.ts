@@ -7,7 +7,7 @@
 import { findKey } from '../vocabulary/keys';
 import { iceWetBulbAlternative } from '../physics';
 import type { ClaimResult, EvaluatedItem, ProcessResult, PropertySource, StateResult } from '../evaluate/types';
-import type { PropertyNode, PropertyRefNode, Statement } from '../notation/ast';
+import type { PropertyNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
 import { describeUnit, figure, lookupUnit, ratioFigure } from '../units';
 import type { Dimension, UnitSystem } from '../units/types';
@@ -38,7 +38,8 @@ export interface HoverInfo {
 /** One or two lines on each statement keyword. */
 const KEYWORD_TEXT: Record<Statement['keyword'], string> = {
   site: '`site:` sets the barometric pressure for the statements after it: `p=` a pressure, or `elev=` an elevation (standard atmosphere).',
-  units: '`units:` chooses the unit system in which this note’s results are shown (`SI` or `IP`); input may mix units freely.',
+  units:
+    '`units:` chooses the unit system in which this note’s results are shown (`SI` or `IP`); input may mix units freely.',
   state:
     '`state NAME: …` a moist-air state. Two independent properties fix it; `p=`/`elev=` override the site pressure; every further property is a claim, computed and compared.',
   mix: '`mix NAME: A X + B Y …` adiabatic mixing of named states by dry-air mass fraction (`30%`), dry-air mass flow (`kg/s`, `lb/h`) or volume flow (`L/s`, `m3/s`, `cfm`) at each stream’s own state.',
@@ -95,7 +96,14 @@ function problemsOf(note: Note, statement: Statement): string[] {
 }
 
 /** The dimension of a defining key (the kind a reference's difference is in). */
-const SOURCE_DIMENSION: Readonly<Record<string, Dimension>> = { db: 'temperature', wb: 'temperature', dp: 'temperature', rh: 'fraction', w: 'humidityRatio', h: 'enthalpy' };
+const SOURCE_DIMENSION: Readonly<Record<string, Dimension>> = {
+  db: 'temperature',
+  wb: 'temperature',
+  dp: 'temperature',
+  rh: 'fraction',
+  w: 'humidityRatio',
+  h: 'enthalpy',
+};
 
 /** How a state came from another: ` (from RA via SA)` when a statement defined it from one, else ''. */
 function viaText(note: Note, name: string): string {
@@ -110,7 +118,14 @@ function sourceText(note: Note, src: PropertySource, system: UnitSystem): string
   let offset = '';
   if (src.offsetSI !== 0 && dim) {
     // A temperature difference in SI is in kelvin (a °C figure would read as a temperature).
-    const text = dim === 'temperature' && system === 'SI' ? figure(Math.abs(src.offsetSI), dim, system, { unit: lookupUnit('K')!, difference: true, extraDigits: note.settings.extraDigits }).text : showDifference(note, Math.abs(src.offsetSI), dim, system);
+    const text =
+      dim === 'temperature' && system === 'SI'
+        ? figure(Math.abs(src.offsetSI), dim, system, {
+            unit: lookupUnit('K')!,
+            difference: true,
+            extraDigits: note.settings.extraDigits,
+          }).text
+        : showDifference(note, Math.abs(src.offsetSI), dim, system);
     offset = ` ${src.offsetSI < 0 ? '−' : '+'} ${text}`;
   }
   const from = src.fromKey === src.key ? md(src.from) : `${md(src.from)}.${src.fromKey}`;
@@ -120,8 +135,12 @@ function sourceText(note: Note, src: PropertySource, system: UnitSystem): string
 /** The lines saying where a state's referenced properties came from. */
 function sourcesBlock(note: Note, item: StateResult, system: UnitSystem): string[] {
   const lines: string[] = [];
-  if (item.definedBy) lines.push(`Defined by ${md(item.definedBy.statement)} ${md(item.definedBy.name)} from ${md(item.definedBy.from)}${viaText(note, item.definedBy.from)}${item.definedBy.spec ? ` (${code(item.definedBy.spec)})` : ''}.`);
-  if (item.sources && item.sources.length > 0) lines.push(`Taken from states above: ${item.sources.map((s) => sourceText(note, s, system)).join('; ')}.`);
+  if (item.definedBy)
+    lines.push(
+      `Defined by ${md(item.definedBy.statement)} ${md(item.definedBy.name)} from ${md(item.definedBy.from)}${viaText(note, item.definedBy.from)}${item.definedBy.spec ? ` (${code(item.definedBy.spec)})` : ''}.`,
+    );
+  if (item.sources && item.sources.length > 0)
+    lines.push(`Taken from states above: ${item.sources.map((s) => sourceText(note, s, system)).join('; ')}.`);
   return lines;
 }
 
@@ -141,13 +160,18 @@ function stateTable(note: Note, item: StateResult, system: UnitSystem): string[]
     const claim = claims.get(r.key);
     const source = sources.get(r.key);
     let mark = source ? `from ${md(source.from)}` : given.has(r.key) ? 'given' : '';
-    if (claim && note.settings.checkClaims) mark = claim.pass ? 'claim ✓' : `claim ✗ (${md(written(note, claim.prop))})`;
+    if (claim && note.settings.checkClaims)
+      mark = claim.pass ? 'claim ✓' : `claim ✗ (${md(written(note, claim.prop))})`;
     const cells = [label, `\`${r.key}\``, show(note, si, r.dimension, system)];
     if (secondary) cells.push(show(note, si, r.dimension, secondary));
     cells.push(mark);
     rows.push(`| ${cells.join(' | ')} |`);
   }
-  if (state.fog) rows.push('', '⚠ Fog region: the air holds more water than saturated air can carry as vapour; w is the total water.');
+  if (state.fog)
+    rows.push(
+      '',
+      '⚠ Fog region: the air holds more water than saturated air can carry as vapour; w is the total water.',
+    );
   // Near 0 °C both wick equations can solve: the one over water is reported, the other shown.
   const iceWb = state.fog ? null : iceWetBulbAlternative(state.db, state.w, state.p, state.wb, state.dp);
   if (iceWb !== null) {
@@ -161,7 +185,9 @@ function stateTable(note: Note, item: StateResult, system: UnitSystem): string[]
 
 /** The head of a supply's hover: the room loads, the room SHR and the flow it takes to absorb them. */
 function supplyHead(note: Note, item: StateResult, system: UnitSystem): string[] {
-  const out = [`**supply ${md(item.name)}** — supply air for the loads of ${md((item.statement.keyword === 'supply' && item.statement.room?.text) || '?')}`];
+  const out = [
+    `**supply ${md(item.name)}** — supply air for the loads of ${md((item.statement.keyword === 'supply' && item.statement.room?.text) || '?')}`,
+  ];
   const f = item.supply;
   if (!f || item.massFlowKgS === undefined || item.massFlowKgS === null) return out;
   const volumeUnit = system === 'SI' ? (f.volumeFlowM3S < 1 ? 'L/s' : 'm3/s') : 'cfm';
@@ -223,21 +249,38 @@ function equipmentRows(note: Note, item: ProcessResult, system: UnitSystem): [st
   const rows: [string, string][] = [];
   const e = item.equipment;
   // A plain ratio at `decimals` places (plus the note's extra digits), by the one figure formatter.
-  const plain = (x: number, decimals: number): string => ratioFigure(x, decimals - 2 + (note.settings.extraDigits ?? 0)).text;
+  const plain = (x: number, decimals: number): string =>
+    ratioFigure(x, decimals - 2 + (note.settings.extraDigits ?? 0)).text;
   if (item.apparatusDewPointC !== null && item.apparatusDewPointC !== undefined) {
     rows.push(['apparatus dew point', show(note, item.apparatusDewPointC, 'temperature', system)]);
-    if (item.bypassFactor !== null && item.bypassFactor !== undefined) rows.push(['bypass factor (contact factor)', `${plain(item.bypassFactor, 3)} (${plain(1 - item.bypassFactor, 3)})`]);
+    if (item.bypassFactor !== null && item.bypassFactor !== undefined)
+      rows.push([
+        'bypass factor (contact factor)',
+        `${plain(item.bypassFactor, 3)} (${plain(1 - item.bypassFactor, 3)})`,
+      ]);
   }
   if (!e) return rows;
-  if (e.fanRiseK !== undefined) rows.push(['fan temperature rise', showDifference(note, e.fanRiseK, 'temperature', system)]);
+  if (e.fanRiseK !== undefined)
+    rows.push(['fan temperature rise', showDifference(note, e.fanRiseK, 'temperature', system)]);
   if (e.dryCoil) rows.push(['coil surface', 'dry (ADP at or above the entering dew point)']);
-  if (e.saturationEffectiveness !== undefined && e.saturationEffectiveness !== null) rows.push(['saturation effectiveness', plain(e.saturationEffectiveness, 3)]);
-  if (e.steamTempC !== undefined) rows.push(['steam supply', `saturated at ${show(note, e.steamTempC, 'temperature', system)}, h ${show(note, e.steamEnthalpyJkg ?? 0, 'enthalpy', system)}`]);
+  if (e.saturationEffectiveness !== undefined && e.saturationEffectiveness !== null)
+    rows.push(['saturation effectiveness', plain(e.saturationEffectiveness, 3)]);
+  if (e.steamTempC !== undefined)
+    rows.push([
+      'steam supply',
+      `saturated at ${show(note, e.steamTempC, 'temperature', system)}, h ${show(note, e.steamEnthalpyJkg ?? 0, 'enthalpy', system)}`,
+    ]);
   if (e.effSensible !== undefined) {
-    rows.push(['effectiveness', `sensible ${plain(e.effSensible, 2)}${e.effLatent !== null && e.effLatent !== undefined ? `, latent ${plain(e.effLatent, 2)}` : ''} (on the smaller capacity rate)`]);
+    rows.push([
+      'effectiveness',
+      `sensible ${plain(e.effSensible, 2)}${e.effLatent !== null && e.effLatent !== undefined ? `, latent ${plain(e.effLatent, 2)}` : ''} (on the smaller capacity rate)`,
+    ]);
   }
   if (e.wetting) {
-    rows.push([e.wetting.kind === 'frost' ? 'frost' : 'condensation', `surface about ${show(note, e.wetting.surfaceC, 'temperature', system)}, dew point ${show(note, e.wetting.dewPointC, 'temperature', system)}${e.wetting.accepted ? ' (accepted: fog=ok)' : ''}`]);
+    rows.push([
+      e.wetting.kind === 'frost' ? 'frost' : 'condensation',
+      `surface about ${show(note, e.wetting.surfaceC, 'temperature', system)}, dew point ${show(note, e.wetting.dewPointC, 'temperature', system)}${e.wetting.accepted ? ' (accepted: fog=ok)' : ''}`,
+    ]);
   }
   return rows;
 }
@@ -270,7 +313,8 @@ function processHover(note: Note, item: ProcessResult, footer = true): string {
   const rows: [string, string][] = [];
   if (item.massFlowKgS !== null) {
     let flow = show(note, item.massFlowKgS, 'massFlow', system);
-    if (item.volumeFlowM3S !== null) flow += ` (${show(note, item.volumeFlowM3S, 'volumeFlow', system)} at ${md(item.from)})`;
+    if (item.volumeFlowM3S !== null)
+      flow += ` (${show(note, item.volumeFlowM3S, 'volumeFlow', system)} at ${md(item.from)})`;
     rows.push(['dry-air flow', flow]);
     rows.push(['total heat', heat(note, item.qTotalW, system)]);
     rows.push(['sensible heat', heat(note, item.qSensibleW, system)]);
@@ -279,7 +323,10 @@ function processHover(note: Note, item: ProcessResult, footer = true): string {
     rows.push(['dry-air flow', 'not given (add `m=` or `q=` for heat rates)']);
   }
   rows.push(['sensible heat ratio', item.shr === null ? '— (no net heat)' : showRatio(note, item.shr)]);
-  rows.push(['Δh per kg dry air', signed(item.dhTotal, showDifference(note, Math.abs(item.dhTotal), 'enthalpy', system))]);
+  rows.push([
+    'Δh per kg dry air',
+    signed(item.dhTotal, showDifference(note, Math.abs(item.dhTotal), 'enthalpy', system)),
+  ]);
   const perKgW = showDifference(note, Math.abs(item.dw), 'humidityRatio', system);
   if (item.moistureUnchanged) {
     rows.push(['Δw', 'no moisture change (the two humidity ratios differ by less than their written figures resolve)']);
@@ -303,14 +350,20 @@ function processHover(note: Note, item: ProcessResult, footer = true): string {
 
 /** A heat recovery: both sides, one after the other, with one footer. */
 function recoverHover(note: Note, item: ProcessResult): string {
-  const sides = note.analysis.items.filter((i): i is ProcessResult => i.kind === 'process' && i.statement === item.statement);
+  const sides = note.analysis.items.filter(
+    (i): i is ProcessResult => i.kind === 'process' && i.statement === item.statement,
+  );
   if (sides.length < 2) return processHover(note, item);
-  return [...sides.slice(0, -1).map((x) => processHover(note, x, false)), processHover(note, sides[sides.length - 1]!)].join('\n\n');
+  return [
+    ...sides.slice(0, -1).map((x) => processHover(note, x, false)),
+    processHover(note, sides[sides.length - 1]!),
+  ].join('\n\n');
 }
 
 /** The hover of an evaluated item (state, mix or process). */
 export function itemHover(note: Note, item: EvaluatedItem): string {
-  if (item.kind === 'process') return item.statement.keyword === 'recover' ? recoverHover(note, item) : processHover(note, item);
+  if (item.kind === 'process')
+    return item.statement.keyword === 'recover' ? recoverHover(note, item) : processHover(note, item);
   return stateHover(note, item);
 }
 
@@ -318,12 +371,22 @@ export function itemHover(note: Note, item: EvaluatedItem): string {
 function siteHover(note: Note, statement: Statement): string {
   const system = note.analysis.units;
   const user = note.analysis.items.find(
-    (i): i is StateResult => i.kind !== 'process' && i.pressure.source === 'site' && i.pressure.span !== null && overlaps(i.pressure.span, statement.span),
+    (i): i is StateResult =>
+      i.kind !== 'process' &&
+      i.pressure.source === 'site' &&
+      i.pressure.span !== null &&
+      overlaps(i.pressure.span, statement.span),
   );
   if (!user) return KEYWORD_TEXT.site;
   const p = user.pressure;
-  const lines = [`**site** — ${show(note, p.pa, 'pressure', system)} (${show(note, p.pa, 'pressure', otherSystem(system))}) for the statements after it`];
-  if (p.elevationM !== null) lines.push('', `From the elevation ${show(note, p.elevationM, 'length', system)} by the standard atmosphere (ASHRAE Handbook—Fundamentals Ch. 1).`);
+  const lines = [
+    `**site** — ${show(note, p.pa, 'pressure', system)} (${show(note, p.pa, 'pressure', otherSystem(system))}) for the statements after it`,
+  ];
+  if (p.elevationM !== null)
+    lines.push(
+      '',
+      `From the elevation ${show(note, p.elevationM, 'length', system)} by the standard atmosphere (ASHRAE Handbook—Fundamentals Ch. 1).`,
+    );
   lines.push('', md(p.origin));
   return lines.join('\n');
 }
@@ -342,7 +405,7 @@ function statementHover(note: Note, statement: Statement, span: Span): HoverInfo
  * On `.w` of `w=OA.w` (or its difference): where the value comes from and what it is now, then
  * the hover of the state it names.
  */
-function propertyRefHover(note: Note, statement: Statement, prop: PropertyNode, ref: PropertyRefNode, span: Span): HoverInfo {
+function propertyRefHover(note: Note, statement: Statement, prop: PropertyNode, span: Span): HoverInfo {
   const system = note.analysis.units;
   const item = itemOf(note, statement);
   const src = item && item.kind !== 'process' ? item.sources?.find((s) => s.key === prop.key) : undefined;
@@ -374,7 +437,10 @@ export function hover(note: Note, offset: number, token?: CancellationFlag): Hov
     case 'reference': {
       const item = note.analysis.byName.get(target.name.text);
       if (!item || item.statement.span.start > target.statement.span.start) {
-        return { markdown: `\`${md(target.name.text)}\` is not defined before this line (names must be defined earlier in the note).`, span: target.name.span };
+        return {
+          markdown: `\`${md(target.name.text)}\` is not defined before this line (names must be defined earlier in the note).`,
+          span: target.name.span,
+        };
       }
       return { markdown: itemHover(note, item), span: target.name.span };
     }
@@ -394,15 +460,20 @@ export function hover(note: Note, offset: number, token?: CancellationFlag): Hov
     case 'system': {
       const sys = target.name.text;
       if (sys !== 'SI' && sys !== 'IP') return null;
-      const units = sys === 'SI' ? '°C, kPa, g/kg, kJ/kg, m³/kg, kg/s, m³/s, kW' : '°F, psia, gr/lb, Btu/lb, ft³/lb, lb/h, cfm, Btu/h';
-      return { markdown: `Results of this note are shown in ${sys} units (${units}).\n\n${datumLine(sys)}`, span: target.name.span };
+      const units =
+        sys === 'SI'
+          ? '°C, kPa, g/kg, kJ/kg, m³/kg, kg/s, m³/s, kW'
+          : '°F, psia, gr/lb, Btu/lb, ft³/lb, lb/h, cfm, Btu/h';
+      return {
+        markdown: `Results of this note are shown in ${sys} units (${units}).\n\n${datumLine(sys)}`,
+        span: target.name.span,
+      };
     }
     case 'value':
       return statementHover(note, target.statement, target.span);
     case 'propertyRef':
-      return propertyRefHover(note, target.statement, target.prop, target.ref, target.span);
+      return propertyRefHover(note, target.statement, target.prop, target.span);
     case 'statement':
       return statementHover(note, target.statement, target.statement.span);
   }
 }
-

@@ -10,7 +10,16 @@ export { HINT_KEYS } from './types';
 export type { Span } from '../text/types';
 export type { CoreDiagnostic } from '../notation/ast';
 export { DEFAULT_SERVICE_SETTINGS, readSettings, RULE_VALUES, toEvaluateSettings } from './settings';
-export { findProjectConfig, mergeSection, parseProjectConfig, PROJECT_FILE, PROJECT_KEYS, SETTING_KEYS, type ConfigFileSystem, type ProjectConfig } from './projectConfig';
+export {
+  findProjectConfig,
+  mergeSection,
+  parseProjectConfig,
+  PROJECT_FILE,
+  PROJECT_KEYS,
+  SETTING_KEYS,
+  type ConfigFileSystem,
+  type ProjectConfig,
+} from './projectConfig';
 export { analyzeText, analyzeTextSteps, analyzeTextWith } from './note';
 export { hover, type HoverInfo } from './hover';
 export { hoverPlainText } from './plainText';
@@ -31,4 +40,3 @@ export {
   type TablesPlan,
   type TablesScope,
 } from './resultsTables';
-

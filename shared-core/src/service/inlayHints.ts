@@ -7,7 +7,17 @@
 import type { ProcessResult, StateResult } from '../evaluate/types';
 import type { Statement } from '../notation/ast';
 import type { Span } from '../text/types';
-import { PROCESS_KIND_TEXT, autoHintKeys, rowOf, show, showClaim, showDifference, showHeat, showRatio, showWaterRate } from './format';
+import {
+  PROCESS_KIND_TEXT,
+  autoHintKeys,
+  rowOf,
+  show,
+  showClaim,
+  showDifference,
+  showHeat,
+  showRatio,
+  showWaterRate,
+} from './format';
 import { itemOf, lineEnd, propsOf, regionAt, statementsIn } from './note';
 import type { CancellationFlag, HintKey, Note } from './types';
 
@@ -63,8 +73,10 @@ function processLabel(note: Note, item: ProcessResult): { label: string; failed:
     parts.push(`Δh ${showDifference(note, item.dhTotal, 'enthalpy', system)}`);
   }
   if (item.shr !== null) parts.push(`SHR ${showRatio(note, item.shr)}`);
-  if (item.waterKgS !== null && item.waterKgS < 0) parts.push(`${showWaterRate(note, -item.waterKgS, system)} condensate`);
-  else if (item.waterKgS !== null && item.waterKgS > 0) parts.push(`${showWaterRate(note, item.waterKgS, system)} water`);
+  if (item.waterKgS !== null && item.waterKgS < 0)
+    parts.push(`${showWaterRate(note, -item.waterKgS, system)} condensate`);
+  else if (item.waterKgS !== null && item.waterKgS > 0)
+    parts.push(`${showWaterRate(note, item.waterKgS, system)} water`);
   let failed = false;
   if (note.settings.checkClaims) {
     for (const c of item.claims) {
@@ -132,7 +144,8 @@ export function inlayHints(note: Note, span: Span, token?: CancellationFlag): Hi
     if (!item) continue;
     const r = item.kind === 'process' ? processLabel(note, item) : stateLabel(note, item);
     if (!r) continue;
-    const pressure = item.kind === 'process' ? '' : ` at ${show(note, item.pressure.pa, 'pressure', note.analysis.units)}`;
+    const pressure =
+      item.kind === 'process' ? '' : ` at ${show(note, item.pressure.pa, 'pressure', note.analysis.units)}`;
     const tooltip = `Computed by Dewmark for ${item.kind} **${item.name}**${pressure}. Hover the name for every figure and the claims.`;
     out.push({ offset: hintOffset(note, statement), label: r.label, tooltip, failed: r.failed });
   }

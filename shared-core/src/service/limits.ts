@@ -25,7 +25,12 @@ export function overLimit(text: string, settings: ServiceSettings): boolean {
 
 /** A note too large to evaluate: its text, an empty analysis, and what the limit was. */
 export function limitedNote(text: string, settings: ServiceSettings): Note {
-  return { text, analysis: analyzeNote('', toEvaluateSettings(settings)), settings, limited: { chars: text.length, limitChars: limitChars(settings) } };
+  return {
+    text,
+    analysis: analyzeNote('', toEvaluateSettings(settings)),
+    settings,
+    limited: { chars: text.length, limitChars: limitChars(settings) },
+  };
 }
 
 function size(chars: number): string {

@@ -40,7 +40,15 @@ function occurrences(note: Note, name: string, includeDefinitions: boolean): Spa
   const spans: Span[] = [];
   if (includeDefinitions) {
     for (const s of note.analysis.parsed.statements) {
-      if ((s.keyword === 'state' || s.keyword === 'mix' || s.keyword === 'process' || s.keyword === 'supply' || s.keyword === 'recover') && s.name?.text === name) spans.push(s.name.span);
+      if (
+        (s.keyword === 'state' ||
+          s.keyword === 'mix' ||
+          s.keyword === 'process' ||
+          s.keyword === 'supply' ||
+          s.keyword === 'recover') &&
+        s.name?.text === name
+      )
+        spans.push(s.name.span);
     }
   }
   for (const r of note.analysis.references) if (r.name === name) spans.push(r.span);
@@ -54,7 +62,8 @@ export function definition(note: Note, offset: number): DefinitionTarget | null 
   const item = definitionOf(note, name.text);
   if (!item) return null;
   // A state a process or recovery defines: its name after '->'.
-  if (item.kind !== 'process' && item.definedBy?.nameSpan) return { nameSpan: item.definedBy.nameSpan, statementSpan: item.statement.span };
+  if (item.kind !== 'process' && item.definedBy?.nameSpan)
+    return { nameSpan: item.definedBy.nameSpan, statementSpan: item.statement.span };
   if (!item.statement.name) return null;
   return { nameSpan: item.statement.name.span, statementSpan: item.statement.span };
 }
@@ -67,7 +76,10 @@ export function references(note: Note, offset: number, includeDeclaration: boole
 }
 
 /** The span and current text of the name a rename would change, or why it cannot be renamed. */
-export function prepareRename(note: Note, offset: number): { span: Span; placeholder: string } | { error: string } | null {
+export function prepareRename(
+  note: Note,
+  offset: number,
+): { span: Span; placeholder: string } | { error: string } | null {
   const name = nameAt(note, offset);
   if (!name) {
     const t = targetAt(note, offset);
@@ -82,10 +94,14 @@ export function renameProblem(note: Note, oldName: string, newName: string): str
   if (!NAME_RE.test(newName)) {
     return `"${newName}" is not a valid name: start with a letter, then use letters, digits, "_" or "-" (e.g. AHU-3_off_coil).`;
   }
-  if ((RESERVED as readonly string[]).includes(newName)) return `"${newName}" is a statement keyword and cannot be a name; choose another name.`;
+  if ((RESERVED as readonly string[]).includes(newName))
+    return `"${newName}" is a statement keyword and cannot be a name; choose another name.`;
   if (newName === oldName) return `The name is already "${newName}".`;
   const clash = definitionOf(note, newName);
-  const clashSpan = clash && clash.kind !== 'process' && clash.definedBy?.nameSpan ? clash.definedBy.nameSpan : clash?.statement.name?.span;
+  const clashSpan =
+    clash && clash.kind !== 'process' && clash.definedBy?.nameSpan
+      ? clash.definedBy.nameSpan
+      : clash?.statement.name?.span;
   if (clash && clashSpan) {
     return `"${newName}" is already defined on line ${lineNumber(note.text, clashSpan.start)} (${clash.kind} ${newName}); choose a name that is not in use.`;
   }
@@ -99,7 +115,8 @@ export function renameProblem(note: Note, oldName: string, newName: string): str
 /** The edits that rename the name at `offset` everywhere in the note, or why they cannot. */
 export function rename(note: Note, offset: number, newName: string): { edits: Edit[] } | { error: string } {
   const name = nameAt(note, offset);
-  if (!name) return { error: 'Only the names of states, mixes and processes can be renamed; place the cursor on a name.' };
+  if (!name)
+    return { error: 'Only the names of states, mixes and processes can be renamed; place the cursor on a name.' };
   const problem = renameProblem(note, name.text, newName);
   if (problem) return { error: problem };
   return { edits: occurrences(note, name.text, true).map((span) => ({ span, newText: newName })) };

@@ -5,14 +5,7 @@
 import { analyzeNote } from '../analyze';
 import type { Analyzer } from '../analyze';
 import type { EvaluatedItem } from '../evaluate/types';
-import type {
-  AirRegion,
-  NameNode,
-  PropertyNode,
-  PropertyRefNode,
-  Statement,
-  UnitNode,
-} from '../notation/ast';
+import type { AirRegion, NameNode, PropertyNode, PropertyRefNode, Statement, UnitNode } from '../notation/ast';
 import { LineIndex } from '../text/lineIndex';
 import type { Span } from '../text/types';
 import { limitedNote, overLimit } from './limits';
@@ -44,7 +37,11 @@ export function analyzeTextWith(analyzer: Analyzer, text: string, settings: Serv
  * {@link analyzeTextWith} in steps (see `Analyzer.analyzeSteps`): pauses now and then, returns
  * the same note. A run not driven to its end changes nothing.
  */
-export function* analyzeTextSteps(analyzer: Analyzer, text: string, settings: ServiceSettings): Generator<void, Note, void> {
+export function* analyzeTextSteps(
+  analyzer: Analyzer,
+  text: string,
+  settings: ServiceSettings,
+): Generator<void, Note, void> {
   if (overLimit(text, settings)) {
     analyzer.reset();
     return limitedNote(text, settings);
@@ -153,7 +150,8 @@ export function referencesOf(statement: Statement): NameNode[] {
   if (statement.keyword === 'mix') for (const s of statement.streams) out.push(s.name);
   if (statement.keyword === 'process') for (const n of [statement.from, statement.to]) if (n) out.push(n);
   if (statement.keyword === 'supply' && statement.room) out.push(statement.room);
-  if (statement.keyword === 'recover') for (const x of statement.streams) for (const n of [x.from, x.to]) if (n) out.push(n);
+  if (statement.keyword === 'recover')
+    for (const x of statement.streams) for (const n of [x.from, x.to]) if (n) out.push(n);
   if (statement.keyword !== 'units') for (const p of statement.props) if (p.ref) out.push(p.ref.state);
   return out;
 }
@@ -169,10 +167,18 @@ export function targetAt(note: Note, offset: number): Target | undefined {
   if (!statement) return undefined;
   if (touches(statement.keywordSpan, offset)) return { kind: 'keyword', statement, span: statement.keywordSpan };
   if (statement.keyword === 'units') {
-    if (statement.system && touches(statement.system.span, offset)) return { kind: 'system', statement, name: statement.system };
+    if (statement.system && touches(statement.system.span, offset))
+      return { kind: 'system', statement, name: statement.system };
     return { kind: 'statement', statement };
   }
-  if ((statement.keyword === 'state' || statement.keyword === 'mix' || statement.keyword === 'process' || statement.keyword === 'supply' || statement.keyword === 'recover') && statement.name) {
+  if (
+    (statement.keyword === 'state' ||
+      statement.keyword === 'mix' ||
+      statement.keyword === 'process' ||
+      statement.keyword === 'supply' ||
+      statement.keyword === 'recover') &&
+    statement.name
+  ) {
     if (touches(statement.name.span, offset)) return { kind: 'definition', statement, name: statement.name };
   }
   for (const ref of referencesOf(statement)) {
@@ -189,12 +195,14 @@ export function targetAt(note: Note, offset: number): Target | undefined {
     if (touches(prop.keySpan, offset)) return { kind: 'key', statement, prop, span: prop.keySpan };
     if (prop.ref) {
       const ref = prop.ref;
-      if (ref.offset?.unit && touches(ref.offset.unit.span, offset)) return { kind: 'unit', statement, unit: ref.offset.unit, prop };
+      if (ref.offset?.unit && touches(ref.offset.unit.span, offset))
+        return { kind: 'unit', statement, unit: ref.offset.unit, prop };
       return { kind: 'propertyRef', statement, prop, ref, span: { start: ref.state.span.end, end: ref.span.end } };
     }
     const v = prop.value;
     if (v?.unit && touches(v.unit.span, offset)) return { kind: 'unit', statement, unit: v.unit, prop };
-    if (v?.tolerance?.unit && touches(v.tolerance.unit.span, offset)) return { kind: 'unit', statement, unit: v.tolerance.unit, prop };
+    if (v?.tolerance?.unit && touches(v.tolerance.unit.span, offset))
+      return { kind: 'unit', statement, unit: v.tolerance.unit, prop };
     return { kind: 'value', statement, prop, span: v?.span ?? prop.span };
   }
   return { kind: 'statement', statement };

@@ -6,7 +6,10 @@
 
 /** Splits a Markdown table row into its cells (a `\|` inside a cell is not a separator). */
 function cells(row: string): string[] {
-  const inner = row.trim().replace(/^\|/, '').replace(/(?<!\\)\|$/, '');
+  const inner = row
+    .trim()
+    .replace(/^\|/, '')
+    .replace(/(?<!\\)\|$/, '');
   return inner.split(/(?<!\\)\|/).map((c) => inline(c.trim()));
 }
 
@@ -27,7 +30,13 @@ function inline(text: string): string {
 function table(rows: string[]): string[] {
   const delimiter = rows.find(isDelimiter);
   // Columns the delimiter row aligns right (`--:`).
-  const right = delimiter ? delimiter.trim().replace(/^\||\|$/g, '').split('|').map((c) => c.trim().endsWith(':')) : [];
+  const right = delimiter
+    ? delimiter
+        .trim()
+        .replace(/^\||\|$/g, '')
+        .split('|')
+        .map((c) => c.trim().endsWith(':'))
+    : [];
   const body = rows.filter((r) => !isDelimiter(r)).map(cells);
   const n = Math.max(...body.map((r) => r.length));
   const widths = Array.from({ length: n }, (_, i) => Math.max(...body.map((r) => (r[i] ?? '').length)));

@@ -37,7 +37,9 @@ export interface ProjectConfig {
 function stringList(value: unknown, key: string, problems: string[]): string[] {
   if (value === undefined) return [];
   if (!Array.isArray(value) || !value.every((v) => typeof v === 'string' && v.trim() !== '')) {
-    problems.push(`"${key}" must be a list of glob patterns such as ["calcs/**/*.md"], not ${JSON.stringify(value)}; it is ignored`);
+    problems.push(
+      `"${key}" must be a list of glob patterns such as ["calcs/**/*.md"], not ${JSON.stringify(value)}; it is ignored`,
+    );
     return [];
   }
   return value as string[];
@@ -50,7 +52,9 @@ export function parseProjectConfig(text: string, path: string, dir: string): Pro
   try {
     raw = JSON.parse(text.replace(/^\uFEFF/, ''));
   } catch (err) {
-    config.problems.push(`it is not valid JSON (${err instanceof Error ? err.message : String(err)}); fix it, or delete it to use the defaults`);
+    config.problems.push(
+      `it is not valid JSON (${err instanceof Error ? err.message : String(err)}); fix it, or delete it to use the defaults`,
+    );
     return config;
   }
   if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) {
@@ -59,7 +63,10 @@ export function parseProjectConfig(text: string, path: string, dir: string): Pro
   }
   const obj = raw as Record<string, unknown>;
   for (const key of Object.keys(obj)) {
-    if (!(PROJECT_KEYS as readonly string[]).includes(key)) config.problems.push(`"${key}" is not a key of ${PROJECT_FILE}; the keys are ${PROJECT_KEYS.filter((k) => k !== '$schema').join(', ')}`);
+    if (!(PROJECT_KEYS as readonly string[]).includes(key))
+      config.problems.push(
+        `"${key}" is not a key of ${PROJECT_FILE}; the keys are ${PROJECT_KEYS.filter((k) => k !== '$schema').join(', ')}`,
+      );
   }
   for (const key of SETTING_KEYS) if (obj[key] !== undefined) config.section[key] = obj[key];
   config.include = stringList(obj.include, 'include', config.problems);
@@ -75,7 +82,10 @@ export function parseProjectConfig(text: string, path: string, dir: string): Pro
  * the editor's other site key is dropped (an editor elevation would otherwise win over the file's
  * pressure).
  */
-export function mergeSection(editor: Record<string, unknown> | null | undefined, config: ProjectConfig | null): Record<string, unknown> {
+export function mergeSection(
+  editor: Record<string, unknown> | null | undefined,
+  config: ProjectConfig | null,
+): Record<string, unknown> {
   const base: Record<string, unknown> = editor && typeof editor === 'object' ? { ...editor } : {};
   if (!config) return base;
   const own = config.section;
@@ -84,7 +94,14 @@ export function mergeSection(editor: Record<string, unknown> | null | undefined,
     delete base.elevation;
   }
   for (const [k, v] of Object.entries(own)) {
-    if (k === 'inlayHints' && v && typeof v === 'object' && !Array.isArray(v) && base.inlayHints && typeof base.inlayHints === 'object') {
+    if (
+      k === 'inlayHints' &&
+      v &&
+      typeof v === 'object' &&
+      !Array.isArray(v) &&
+      base.inlayHints &&
+      typeof base.inlayHints === 'object'
+    ) {
       base.inlayHints = { ...(base.inlayHints as object), ...(v as object) };
     } else base[k] = v;
   }

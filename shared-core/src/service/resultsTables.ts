@@ -51,7 +51,9 @@ function tableText(note: Note, slot: TableSlot): string {
   const { lines, hash } = freshTable(note.analysis, slot.region);
   const bare = slot.prefix.trimEnd();
   const withPrefix = (l: string) => (l === '' ? bare : slot.prefix + l);
-  return [resultsStartMarker(hash), ...['', ...lines, ''].map(withPrefix), slot.prefix + RESULTS_END_MARKER].join(eolOf(note.text));
+  return [resultsStartMarker(hash), ...['', ...lines, ''].map(withPrefix), slot.prefix + RESULTS_END_MARKER].join(
+    eolOf(note.text),
+  );
 }
 
 /** True when the line after `offset`'s line holds something other than blanks (and the container prefix). */
@@ -78,7 +80,11 @@ function changeFor(note: Note, slot: TableSlot): TableChange {
   }
   if (!table.end) return { block, kind: 'unterminated', edit: null };
   if (tableState(note.analysis, table) === 'fresh') return { block, kind: 'unchanged', edit: null };
-  return { block, kind: 'refresh', edit: { span: { start: table.start.start, end: table.end.end }, newText: tableText(note, slot) } };
+  return {
+    block,
+    kind: 'refresh',
+    edit: { span: { start: table.start.start, end: table.end.end }, newText: tableText(note, slot) },
+  };
 }
 
 function slotsOf(note: Note): TableSlot[] {
@@ -97,7 +103,8 @@ function slotAt(slots: readonly TableSlot[], offset: number): TableSlot | undefi
 /** The edits that insert or refresh the results tables of the blocks in `scope`. */
 export function resultsTableEdits(note: Note, scope: TablesScope, token?: CancellationFlag): TablesPlan {
   const slots = slotsOf(note);
-  const chosen = scope.kind === 'all' ? slots : [slotAt(slots, scope.offset)].filter((s): s is TableSlot => s !== undefined);
+  const chosen =
+    scope.kind === 'all' ? slots : [slotAt(slots, scope.offset)].filter((s): s is TableSlot => s !== undefined);
   const changes: TableChange[] = [];
   for (const slot of chosen) {
     if (token?.isCancellationRequested) break;
@@ -119,7 +126,15 @@ export function staleTableFix(note: Note, d: CoreDiagnostic): FixAction[] {
   if (!slot) return [];
   const change = changeFor(note, slot);
   if (!change.edit) return [];
-  return [{ title: 'Refresh the results table below this air block', kind: 'quickfix', edits: [change.edit], diagnostic: d, preferred: true }];
+  return [
+    {
+      title: 'Refresh the results table below this air block',
+      kind: 'quickfix',
+      edits: [change.edit],
+      diagnostic: d,
+      preferred: true,
+    },
+  ];
 }
 
 /** The source actions at `span`: write this block's table, and write every block's table. */
@@ -131,7 +146,10 @@ export function resultsTableActions(note: Note, span: Span, token?: Cancellation
   if (here) {
     const c = changeFor(note, here);
     if (c.edit) {
-      const title = c.kind === 'insert' ? 'Insert a results table below this air block' : 'Refresh the results table below this air block';
+      const title =
+        c.kind === 'insert'
+          ? 'Insert a results table below this air block'
+          : 'Refresh the results table below this air block';
       out.push({ title, kind: 'source', edits: [c.edit] });
     }
   }
@@ -139,8 +157,14 @@ export function resultsTableActions(note: Note, span: Span, token?: Cancellation
   const all = resultsTableEdits(note, { kind: 'all' }, token);
   const n = countChanges(all);
   if (all.edits.length > 0 && !(here && all.edits.length === 1 && out.length === 1)) {
-    const what = [n.insert > 0 ? `${n.insert} to insert` : '', n.refresh > 0 ? `${n.refresh} to refresh` : ''].filter(Boolean).join(', ');
-    out.push({ title: `Insert or refresh the results tables of every air block (${what})`, kind: 'source', edits: all.edits });
+    const what = [n.insert > 0 ? `${n.insert} to insert` : '', n.refresh > 0 ? `${n.refresh} to refresh` : '']
+      .filter(Boolean)
+      .join(', ');
+    out.push({
+      title: `Insert or refresh the results tables of every air block (${what})`,
+      kind: 'source',
+      edits: all.edits,
+    });
   }
   return out;
 }

@@ -51,15 +51,24 @@ function readQuantitySetting(
   example: string,
 ): { si: number; written: string } | { problem: string } {
   const text = typeof raw === 'number' ? String(raw) : typeof raw === 'string' ? raw.trim() : null;
-  if (text === null) return { problem: `dewmark.${name} must be a text such as "${example}", not ${JSON.stringify(raw)}; the default is used.` };
+  if (text === null)
+    return {
+      problem: `dewmark.${name} must be a text such as "${example}", not ${JSON.stringify(raw)}; the default is used.`,
+    };
   const m = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S*)$/.exec(text);
-  if (!m) return { problem: `dewmark.${name} = "${text}" is not a number with a unit (write e.g. "${example}"); the default is used.` };
+  if (!m)
+    return {
+      problem: `dewmark.${name} = "${text}" is not a number with a unit (write e.g. "${example}"); the default is used.`,
+    };
   const value = Number(m[1]);
   const unitText = m[2] ?? '';
-  if (unitText === '') return { problem: `dewmark.${name} = "${text}" has no unit (write e.g. "${example}"); the default is used.` };
+  if (unitText === '')
+    return { problem: `dewmark.${name} = "${text}" has no unit (write e.g. "${example}"); the default is used.` };
   const unit = lookupUnit(unitText);
   if (!unit || unit.dimension !== dimension) {
-    return { problem: `dewmark.${name} = "${text}": "${unitText}" is not a unit of ${dimension === 'length' ? 'length' : 'pressure'} (write e.g. "${example}"); the default is used.` };
+    return {
+      problem: `dewmark.${name} = "${text}": "${unitText}" is not a unit of ${dimension === 'length' ? 'length' : 'pressure'} (write e.g. "${example}"); the default is used.`,
+    };
   }
   return { si: toSI(value, unit), written: `${m[1]} ${displaySymbol(unit)}` };
 }
@@ -75,7 +84,9 @@ function readSite(obj: Record<string, unknown>, problems: string[]): DefaultSite
         stdAtmPressure(r.si);
         return { kind: 'elevation', m: r.si, written: r.written };
       } catch (err) {
-        problems.push(`dewmark.elevation = "${r.written}": ${err instanceof Error ? err.message : String(err)} The default is used.`);
+        problems.push(
+          `dewmark.elevation = "${r.written}": ${err instanceof Error ? err.message : String(err)} The default is used.`,
+        );
       }
     }
   }
@@ -83,7 +94,8 @@ function readSite(obj: Record<string, unknown>, problems: string[]): DefaultSite
   if (pressure !== undefined && pressure !== null && pressure !== '') {
     const r = readQuantitySetting('pressure', pressure, 'pressure', '101.325 kPa');
     if ('problem' in r) problems.push(r.problem);
-    else if (!(r.si > 0) || !Number.isFinite(r.si)) problems.push(`dewmark.pressure = "${r.written}" is not a positive absolute pressure; the default is used.`);
+    else if (!(r.si > 0) || !Number.isFinite(r.si))
+      problems.push(`dewmark.pressure = "${r.written}" is not a positive absolute pressure; the default is used.`);
     else return { kind: 'pressure', pa: r.si, written: r.written };
   }
   return DEFAULT_SERVICE_SETTINGS.site;
@@ -98,14 +110,18 @@ export function readSettings(raw: unknown): { settings: ServiceSettings; problem
   const d = DEFAULT_SERVICE_SETTINGS;
   if (raw === null || raw === undefined) return { settings: { ...d }, problems };
   if (typeof raw !== 'object' || Array.isArray(raw)) {
-    return { settings: { ...d }, problems: [`the dewmark settings must be an object, not ${JSON.stringify(raw)}; defaults are used.`] };
+    return {
+      settings: { ...d },
+      problems: [`the dewmark settings must be an object, not ${JSON.stringify(raw)}; defaults are used.`],
+    };
   }
   const obj = raw as Record<string, unknown>;
 
   let units = d.units;
   const u = pick(obj, 'units');
   if (u === 'SI' || u === 'IP') units = u;
-  else if (u !== undefined && u !== null) problems.push(`dewmark.units must be "SI" or "IP", not ${JSON.stringify(u)}; SI is used.`);
+  else if (u !== undefined && u !== null)
+    problems.push(`dewmark.units must be "SI" or "IP", not ${JSON.stringify(u)}; SI is used.`);
 
   const site = readSite(obj, problems);
 
@@ -117,41 +133,59 @@ export function readSettings(raw: unknown): { settings: ServiceSettings; problem
       if (typeof k === 'string' && (HINT_KEYS as readonly string[]).includes(k)) {
         if (!keys.includes(k as HintKey)) keys.push(k as HintKey);
       } else {
-        problems.push(`dewmark.inlayHints.properties: ${JSON.stringify(k)} is not one of ${HINT_KEYS.join(', ')}; it is left out.`);
+        problems.push(
+          `dewmark.inlayHints.properties: ${JSON.stringify(k)} is not one of ${HINT_KEYS.join(', ')}; it is left out.`,
+        );
       }
     }
     hintProperties = keys.length > 0 ? keys : 'auto';
   } else if (hp === 'auto' || hp === undefined || hp === null) {
     hintProperties = 'auto';
   } else {
-    problems.push(`dewmark.inlayHints.properties must be a list of keys such as ["rh", "w", "h", "dp"]; the automatic choice is used.`);
+    problems.push(
+      `dewmark.inlayHints.properties must be a list of keys such as ["rh", "w", "h", "dp"]; the automatic choice is used.`,
+    );
   }
 
   let extraDigits = d.extraDigits;
   const pr = pick(obj, 'precision');
   if (typeof pr === 'number' && Number.isInteger(pr) && pr >= 0 && pr <= MAX_EXTRA_DIGITS) extraDigits = pr;
   else if (pr !== undefined && pr !== null) {
-    problems.push(`dewmark.precision must be a whole number of extra decimals from 0 to ${MAX_EXTRA_DIGITS}, not ${JSON.stringify(pr)}; 0 is used.`);
+    problems.push(
+      `dewmark.precision must be a whole number of extra decimals from 0 to ${MAX_EXTRA_DIGITS}, not ${JSON.stringify(pr)}; 0 is used.`,
+    );
   }
 
   let checkClaims = d.checkClaims;
   const cc = pick(obj, 'checkClaims');
   if (typeof cc === 'boolean') checkClaims = cc;
-  else if (cc !== undefined && cc !== null) problems.push(`dewmark.checkClaims must be true or false, not ${JSON.stringify(cc)}; true is used.`);
+  else if (cc !== undefined && cc !== null)
+    problems.push(`dewmark.checkClaims must be true or false, not ${JSON.stringify(cc)}; true is used.`);
 
   let secondaryUnits = d.secondaryUnits;
   const su = pick(obj, 'hover.secondaryUnits');
   if (typeof su === 'boolean') secondaryUnits = su;
-  else if (su !== undefined && su !== null) problems.push(`dewmark.hover.secondaryUnits must be true or false, not ${JSON.stringify(su)}; false is used.`);
+  else if (su !== undefined && su !== null)
+    problems.push(`dewmark.hover.secondaryUnits must be true or false, not ${JSON.stringify(su)}; false is used.`);
 
   let maxNoteKB = d.maxNoteKB;
   const mk = pick(obj, 'maxNoteSizeKB');
   if (typeof mk === 'number' && Number.isInteger(mk) && mk >= 0) maxNoteKB = mk;
   else if (mk !== undefined && mk !== null) {
-    problems.push(`dewmark.maxNoteSizeKB must be a whole number of KB (0 for no limit), not ${JSON.stringify(mk)}; ${d.maxNoteKB} is used.`);
+    problems.push(
+      `dewmark.maxNoteSizeKB must be a whole number of KB (0 for no limit), not ${JSON.stringify(mk)}; ${d.maxNoteKB} is used.`,
+    );
   }
 
-  const settings: ServiceSettings = { units, site, hintProperties, extraDigits, checkClaims, secondaryUnits, maxNoteKB };
+  const settings: ServiceSettings = {
+    units,
+    site,
+    hintProperties,
+    extraDigits,
+    checkClaims,
+    secondaryUnits,
+    maxNoteKB,
+  };
   const rules = readRules(pick(obj, 'rules'), problems);
   if (rules) settings.rules = rules;
   return { settings, problems };
@@ -164,13 +198,21 @@ export const RULE_VALUES: readonly RuleSetting[] = ['error', 'warning', 'info', 
 function readRules(raw: unknown, problems: string[]): Record<string, RuleSetting> | undefined {
   if (raw === undefined || raw === null) return undefined;
   if (typeof raw !== 'object' || Array.isArray(raw)) {
-    problems.push(`dewmark.rules must be an object of diagnostic codes, e.g. { "claim-mismatch": "error" }, not ${JSON.stringify(raw)}; it is ignored.`);
+    problems.push(
+      `dewmark.rules must be an object of diagnostic codes, e.g. { "claim-mismatch": "error" }, not ${JSON.stringify(raw)}; it is ignored.`,
+    );
     return undefined;
   }
   const out: Record<string, RuleSetting> = {};
   for (const [code, value] of Object.entries(raw as Record<string, unknown>)) {
-    if (!/^[a-z0-9]+(?:-[a-z0-9]+)*$/.test(code)) problems.push(`dewmark.rules: "${code}" is not a diagnostic code (lower-case words joined by hyphens, e.g. claim-mismatch); it is ignored.`);
-    else if (typeof value !== 'string' || !(RULE_VALUES as readonly string[]).includes(value)) problems.push(`dewmark.rules.${code} must be one of ${RULE_VALUES.join(', ')}, not ${JSON.stringify(value)}; it is ignored.`);
+    if (!/^[a-z0-9]+(?:-[a-z0-9]+)*$/.test(code))
+      problems.push(
+        `dewmark.rules: "${code}" is not a diagnostic code (lower-case words joined by hyphens, e.g. claim-mismatch); it is ignored.`,
+      );
+    else if (typeof value !== 'string' || !(RULE_VALUES as readonly string[]).includes(value))
+      problems.push(
+        `dewmark.rules.${code} must be one of ${RULE_VALUES.join(', ')}, not ${JSON.stringify(value)}; it is ignored.`,
+      );
     else out[code] = value as RuleSetting;
   }
   return Object.keys(out).length > 0 ? out : undefined;

@@ -24,14 +24,17 @@ export interface NoteStatus {
 export function noteStatus(note: Note): NoteStatus {
   const a = note.analysis;
   // The evaluator takes the first units: line that names SI or IP; an invalid one before it is skipped.
-  const unitsLine = a.parsed.statements.find((s) => s.keyword === 'units' && (s.system?.text === 'SI' || s.system?.text === 'IP'));
+  const unitsLine = a.parsed.statements.find(
+    (s) => s.keyword === 'units' && (s.system?.text === 'SI' || s.system?.text === 'IP'),
+  );
   const unitsSpan = unitsLine?.keyword === 'units' && unitsLine.system ? unitsLine.system.span : null;
   const first = a.items.find((i): i is StateResult => i.kind !== 'process');
   let pressureLabel: string;
   let pressureDescribe: string;
   if (first) {
     const p = show(note, first.pressure.pa, 'pressure', a.units);
-    pressureLabel = first.pressure.source === 'site' ? `site ${p}` : first.pressure.source === 'override' ? `${p} (own)` : p;
+    pressureLabel =
+      first.pressure.source === 'site' ? `site ${p}` : first.pressure.source === 'override' ? `${p} (own)` : p;
     pressureDescribe = `The first state, ${first.name}, is at ${p}: ${first.pressure.origin}.`;
   } else {
     const e = toEvaluateSettings(note.settings);

@@ -28,7 +28,14 @@ function statementSymbols(note: Note, token?: CancellationFlag): OutlineSymbol[]
     if (token?.isCancellationRequested) break;
     if (statement.keyword === 'site') {
       const text = note.text.slice(statement.span.start, statement.span.end);
-      out.push({ name: 'site', kind: 'site', detail: text.replace(/^site:\s*/, ''), span: statement.span, selectionSpan: statement.keywordSpan, children: [] });
+      out.push({
+        name: 'site',
+        kind: 'site',
+        detail: text.replace(/^site:\s*/, ''),
+        span: statement.span,
+        selectionSpan: statement.keywordSpan,
+        children: [],
+      });
       continue;
     }
     if (statement.keyword === 'units' || !statement.name) continue;

@@ -71,7 +71,8 @@ export function distanceWithin(a: string, b: string, max: number, work?: Suggest
     for (let j = lo; j <= hi; j++) {
       const bj = b.charCodeAt(j - 1);
       let v = Math.min(rows[prev + j]! + 1, rows[cur + j - 1]! + 1, rows[prev + j - 1]! + (ai === bj ? 0 : 1));
-      if (i > 1 && j > 1 && ai === b.charCodeAt(j - 2) && a.charCodeAt(i - 2) === bj) v = Math.min(v, rows[prev2 + j - 2]! + 1);
+      if (i > 1 && j > 1 && ai === b.charCodeAt(j - 2) && a.charCodeAt(i - 2) === bj)
+        v = Math.min(v, rows[prev2 + j - 2]! + 1);
       if (v > INF) v = INF;
       rows[cur + j] = v;
       if (v < rowMin) rowMin = v;
@@ -163,7 +164,8 @@ export class SuggestIndex {
       const c = this.candidates[i]!;
       if (c === word || c.length > MAX_SUGGEST_LENGTH) return;
       const d = distanceWithin(word, c, k, work);
-      if (d <= k && (best === null || d < best.distance || (d === best.distance && i < best.index))) best = { index: i, distance: d };
+      if (d <= k && (best === null || d < best.distance || (d === best.distance && i < best.index)))
+        best = { index: i, distance: d };
     };
     if (this.byDeletion === null) {
       for (let i = 0; i < this.candidates.length; i++) {
@@ -194,7 +196,12 @@ export class SuggestIndex {
 }
 
 /** The nearest of `candidates` to `word` within `max` edits (see {@link SuggestIndex.nearest}). */
-export function nearest(word: string, candidates: readonly string[] | SuggestIndex, max: number, work?: SuggestWork): Nearest | null {
+export function nearest(
+  word: string,
+  candidates: readonly string[] | SuggestIndex,
+  max: number,
+  work?: SuggestWork,
+): Nearest | null {
   const index = candidates instanceof SuggestIndex ? candidates : new SuggestIndex(candidates, work);
   return index.nearest(word, max, work);
 }
@@ -214,7 +221,11 @@ export function nameTolerance(length: number): number {
  * candidate equal to `word` itself is never suggested. `candidates` may be an index built once
  * with {@link caseFoldedIndex} for many look-ups.
  */
-export function suggestName(word: string, candidates: Iterable<string> | FoldedIndex, work?: SuggestWork): string | null {
+export function suggestName(
+  word: string,
+  candidates: Iterable<string> | FoldedIndex,
+  work?: SuggestWork,
+): string | null {
   const folded = candidates instanceof FoldedIndex ? candidates : caseFoldedIndex(candidates, work);
   return folded.suggest(word, work);
 }

@@ -66,9 +66,7 @@ const BTU_PER_LB_OFFSET_J_PER_KG = (-CP_DRY_AIR_SI * 160) / 9;
 // ---------------------------------------------------------------------------------------------
 
 /** How a unit's value is rounded for display by default. */
-type Precision =
-  | { kind: 'fixed'; decimals: number }
-  | { kind: 'sig'; figures: number; maxDecimals: number };
+type Precision = { kind: 'fixed'; decimals: number } | { kind: 'sig'; figures: number; maxDecimals: number };
 
 interface UnitSpec extends UnitDef {
   /** Symbol for display text (`°C`, `m³/kg`); the notation symbol when absent. */
@@ -92,7 +90,17 @@ function u(
   precision: Precision,
   extra: { display?: string; note?: string } = {},
 ): UnitSpec {
-  return Object.freeze({ symbol, aliases: Object.freeze([...aliases]), dimension, system, title, scale, offset, precision, ...extra });
+  return Object.freeze({
+    symbol,
+    aliases: Object.freeze([...aliases]),
+    dimension,
+    system,
+    title,
+    scale,
+    offset,
+    precision,
+    ...extra,
+  });
 }
 
 /*
@@ -120,7 +128,16 @@ const SPECS: readonly UnitSpec[] = Object.freeze([
   u('bar', [], 'pressure', 'SI', 'bar (= 100 kPa)', 1e5, 0, fixed(5)),
   u('atm', [], 'pressure', 'both', 'standard atmosphere (= 101.325 kPa)', 101325, 0, fixed(5)),
   u('psia', [], 'pressure', 'IP', 'pound-force per square inch, absolute', PSI_PA, 0, fixed(3)),
-  u('psi', [], 'pressure', 'IP', 'pound-force per square inch, taken as absolute (the same as psia; gauge pressure is not accepted)', PSI_PA, 0, fixed(3)),
+  u(
+    'psi',
+    [],
+    'pressure',
+    'IP',
+    'pound-force per square inch, taken as absolute (the same as psia; gauge pressure is not accepted)',
+    PSI_PA,
+    0,
+    fixed(3),
+  ),
   u('inHg', [], 'pressure', 'IP', 'inch of mercury, conventional (3386.389 Pa)', 3386.389, 0, fixed(2)),
 
   // humidity ratio (SI base kg/kg)
@@ -132,13 +149,27 @@ const SPECS: readonly UnitSpec[] = Object.freeze([
   // enthalpy (SI base J/kg, dry air 0 at 0 °C)
   u('kJ/kg', [], 'enthalpy', 'SI', 'kilojoule per kilogram of dry air (datum: dry air 0 at 0 °C)', 1000, 0, fixed(2)),
   u('J/kg', [], 'enthalpy', 'SI', 'joule per kilogram of dry air (datum: dry air 0 at 0 °C)', 1, 0, fixed(0)),
-  u('Btu/lb', [], 'enthalpy', 'IP', 'Btu per pound of dry air (datum: dry air 0 at 0 °F)', BTU_PER_LB_J_PER_KG, BTU_PER_LB_OFFSET_J_PER_KG, fixed(2), {
-    note: 'kJ/kg = Btu/lb × 2.326 − 17.884: the dry-air datum moves from 0 °F to 0 °C as well as the unit (a difference converts by × 2.326 alone)',
-  }),
+  u(
+    'Btu/lb',
+    [],
+    'enthalpy',
+    'IP',
+    'Btu per pound of dry air (datum: dry air 0 at 0 °F)',
+    BTU_PER_LB_J_PER_KG,
+    BTU_PER_LB_OFFSET_J_PER_KG,
+    fixed(2),
+    {
+      note: 'kJ/kg = Btu/lb × 2.326 − 17.884: the dry-air datum moves from 0 °F to 0 °C as well as the unit (a difference converts by × 2.326 alone)',
+    },
+  ),
 
   // specific volume (SI base m³/kg dry air)
-  u('m3/kg', ['m³/kg'], 'specificVolume', 'SI', 'cubic metre per kilogram of dry air', 1, 0, fixed(4), { display: 'm³/kg' }),
-  u('ft3/lb', ['ft³/lb'], 'specificVolume', 'IP', 'cubic foot per pound of dry air', FT3_M3 / LB_KG, 0, fixed(2), { display: 'ft³/lb' }),
+  u('m3/kg', ['m³/kg'], 'specificVolume', 'SI', 'cubic metre per kilogram of dry air', 1, 0, fixed(4), {
+    display: 'm³/kg',
+  }),
+  u('ft3/lb', ['ft³/lb'], 'specificVolume', 'IP', 'cubic foot per pound of dry air', FT3_M3 / LB_KG, 0, fixed(2), {
+    display: 'ft³/lb',
+  }),
 
   // length (SI base m)
   u('m', [], 'length', 'SI', 'metre', 1, 0, fixed(0)),
@@ -523,7 +554,16 @@ export interface FigureOptions {
  * fixed decimals. Temperatures and enthalpies are not among them: their zero is a datum, and a
  * tenth of a degree is their resolution whatever the value.
  */
-const KEEPS_SIGNIFICANT: ReadonlySet<Dimension> = new Set<Dimension>(['humidityRatio', 'fraction', 'pressure', 'massFlow', 'volumeFlow', 'power', 'density', 'specificVolume']);
+const KEEPS_SIGNIFICANT: ReadonlySet<Dimension> = new Set<Dimension>([
+  'humidityRatio',
+  'fraction',
+  'pressure',
+  'massFlow',
+  'volumeFlow',
+  'power',
+  'density',
+  'specificVolume',
+]);
 
 /** Significant figures a small non-zero figure keeps (a −60 °C dew point: w 0.0033 g/kg, not 0.00). */
 export const MIN_SIGNIFICANT = 2;
@@ -567,9 +607,15 @@ export function noFigure(unit = ''): Figure {
  *   grouped (a comma is the decimal sign in much of the SI world);
  * - a missing or non-finite value shows `—`.
  */
-export function figure(si: number | null | undefined, dimension: Dimension, system: UnitSystem, opts: FigureOptions = {}): Figure {
+export function figure(
+  si: number | null | undefined,
+  dimension: Dimension,
+  system: UnitSystem,
+  opts: FigureOptions = {},
+): Figure {
   const unit = opts.unit ?? displayUnit(dimension, system);
-  if (unit.dimension !== dimension) throw new RangeError(`figure: unit ${unit.symbol} measures ${unit.dimension}, not ${dimension}`);
+  if (unit.dimension !== dimension)
+    throw new RangeError(`figure: unit ${unit.symbol} measures ${unit.dimension}, not ${dimension}`);
   const shown = displaySymbol(unit);
   if (si === null || si === undefined || !Number.isFinite(si)) return noFigure(shown);
   const spec = specOf(unit);
@@ -579,7 +625,8 @@ export function figure(si: number | null | undefined, dimension: Dimension, syst
   if (!opts.difference && value !== 0 && KEEPS_SIGNIFICANT.has(dimension)) {
     decimals = Math.max(decimals, decimalsForSignificant(value, MIN_SIGNIFICANT));
   }
-  const extra = opts.extraDigits !== undefined && Number.isFinite(opts.extraDigits) ? Math.max(0, Math.floor(opts.extraDigits)) : 0;
+  const extra =
+    opts.extraDigits !== undefined && Number.isFinite(opts.extraDigits) ? Math.max(0, Math.floor(opts.extraDigits)) : 0;
   if (extra > 0) decimals = Math.max(0, decimals) + extra;
   decimals = clampDecimals(decimals);
   let text = numberText(value, decimals);
@@ -625,8 +672,10 @@ export function claimFigure(
     decimals = defaultDecimals(specOf(display), inDisplay) + Math.round(-Math.log10(display.scale));
   }
   if (!Number.isFinite(value)) return noFigure(shown);
-  if (value !== 0 && KEEPS_SIGNIFICANT.has(dimension)) decimals = Math.max(decimals, decimalsForSignificant(value, MIN_SIGNIFICANT));
-  if (resolution !== undefined && Number.isFinite(resolution) && resolution > 0) decimals = Math.max(decimals, decimalsOf(resolution));
+  if (value !== 0 && KEEPS_SIGNIFICANT.has(dimension))
+    decimals = Math.max(decimals, decimalsForSignificant(value, MIN_SIGNIFICANT));
+  if (resolution !== undefined && Number.isFinite(resolution) && resolution > 0)
+    decimals = Math.max(decimals, decimalsOf(resolution));
   if (extraDigits > 0) decimals = Math.max(0, decimals) + Math.floor(extraDigits);
   decimals = clampDecimals(decimals);
   return makeFigure(numberText(value, decimals), shown, decimals);
@@ -681,13 +730,27 @@ function foldKey(text: string): string {
 }
 
 /** Gauge and water-column pressures look like accepted symbols but are not: never suggest for them. */
-const NO_SUGGESTION = new Set(['psig', 'kpag', 'barg', 'pag', 'inwg', 'inwc', 'inh2o', 'inaq', 'mmh2o', 'mmwg', 'mmhg']);
+const NO_SUGGESTION = new Set([
+  'psig',
+  'kpag',
+  'barg',
+  'pag',
+  'inwg',
+  'inwc',
+  'inh2o',
+  'inaq',
+  'mmh2o',
+  'mmwg',
+  'mmhg',
+]);
 
 /** Every spelling of every unit folded for comparison (`foldKey` without `/`), with its unit, in table order. */
 let looseSpellings: { spec: UnitSpec; loose: string }[] | null = null;
 
 function spellingsFolded(): { spec: UnitSpec; loose: string }[] {
-  looseSpellings ??= SPECS.flatMap((spec) => [spec.symbol, ...spec.aliases].map((s) => ({ spec, loose: foldKey(s).replace(/\//g, '') })));
+  looseSpellings ??= SPECS.flatMap((spec) =>
+    [spec.symbol, ...spec.aliases].map((s) => ({ spec, loose: foldKey(s).replace(/\//g, '') })),
+  );
   return looseSpellings;
 }
 
@@ -724,6 +787,10 @@ export function suggestUnit(text: string, dimensions?: readonly Dimension[]): st
   if (limit === 0) return undefined;
   // The nearest spelling of a unit of the wanted dimensions (ties: the unit listed first).
   const spellings = spellingsFolded().filter((x) => candidates.includes(x.spec));
-  const near = nearest(looseKey, spellings.map((x) => x.loose), limit);
+  const near = nearest(
+    looseKey,
+    spellings.map((x) => x.loose),
+    limit,
+  );
   return near ? spellings[near.index]!.spec.symbol : undefined;
 }

@@ -26,7 +26,19 @@
  * are typed by the `Pw*` interfaces below.
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { cpSync, existsSync, mkdirSync, mkdtempSync, openSync, closeSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import {
+  cpSync,
+  existsSync,
+  mkdirSync,
+  mkdtempSync,
+  openSync,
+  closeSync,
+  readdirSync,
+  readFileSync,
+  rmSync,
+  statSync,
+  writeFileSync,
+} from 'node:fs';
 import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { basename, dirname, join, relative, resolve } from 'node:path';
@@ -56,9 +68,19 @@ export interface PwConsoleMessage {
 
 /** Playwright's page (the calls used here). Browser-side code is passed as strings (see BROWSER_HELPERS). */
 export interface PwPage {
-  goto(url: string, options?: { timeout?: number; waitUntil?: 'load' | 'domcontentloaded' | 'networkidle' | 'commit' }): Promise<unknown>;
-  waitForSelector(selector: string, options?: { state?: 'attached' | 'detached' | 'visible' | 'hidden'; timeout?: number }): Promise<unknown>;
-  waitForFunction(expression: string, arg?: unknown, options?: { timeout?: number; polling?: number | 'raf' }): Promise<unknown>;
+  goto(
+    url: string,
+    options?: { timeout?: number; waitUntil?: 'load' | 'domcontentloaded' | 'networkidle' | 'commit' },
+  ): Promise<unknown>;
+  waitForSelector(
+    selector: string,
+    options?: { state?: 'attached' | 'detached' | 'visible' | 'hidden'; timeout?: number },
+  ): Promise<unknown>;
+  waitForFunction(
+    expression: string,
+    arg?: unknown,
+    options?: { timeout?: number; polling?: number | 'raf' },
+  ): Promise<unknown>;
   evaluate(expression: string): Promise<unknown>;
   addInitScript(script: { content: string }): Promise<void>;
   screenshot(options: { path: string; fullPage?: boolean }): Promise<unknown>;
@@ -79,7 +101,10 @@ export interface PwContext {
 
 /** Playwright's browser (the calls used here). */
 export interface PwBrowser {
-  newContext(options?: { viewport?: { width: number; height: number }; deviceScaleFactor?: number }): Promise<PwContext>;
+  newContext(options?: {
+    viewport?: { width: number; height: number };
+    deviceScaleFactor?: number;
+  }): Promise<PwContext>;
   close(): Promise<void>;
   version(): string;
 }
@@ -273,7 +298,10 @@ export async function startCodeServer(options: CodeServerOptions = {}): Promise<
   const extensionsDir = join(runDir, 'ext');
   mkdirSync(join(userDataDir, 'User'), { recursive: true });
   mkdirSync(extensionsDir, { recursive: true });
-  writeFileSync(join(userDataDir, 'User', 'settings.json'), JSON.stringify({ ...DEFAULT_USER_SETTINGS, ...options.settings }, null, 2));
+  writeFileSync(
+    join(userDataDir, 'User', 'settings.json'),
+    JSON.stringify({ ...DEFAULT_USER_SETTINGS, ...options.settings }, null, 2),
+  );
 
   // Everything code-server writes (config.yaml, sockets, caches) goes under the run folder.
   const env: NodeJS.ProcessEnv = {
@@ -297,8 +325,13 @@ export async function startCodeServer(options: CodeServerOptions = {}): Promise<
     const src = resolve(ext);
     if (!existsSync(src)) throw new Error(`extension not found: ${src} (build it first, e.g. npm run package)`);
     if (statSync(src).isDirectory()) {
-      const m = JSON.parse(readFileSync(join(src, 'package.json'), 'utf8')) as { publisher?: string; name?: string; version?: string };
-      if (!m.publisher || !m.name || !m.version) throw new Error(`${src}/package.json needs publisher, name and version`);
+      const m = JSON.parse(readFileSync(join(src, 'package.json'), 'utf8')) as {
+        publisher?: string;
+        name?: string;
+        version?: string;
+      };
+      if (!m.publisher || !m.name || !m.version)
+        throw new Error(`${src}/package.json needs publisher, name and version`);
       cpSync(src, join(extensionsDir, `${m.publisher}.${m.name}-${m.version}`), { recursive: true, dereference: true });
     } else {
       const r = spawnSync(node24.path, [entry.path, ...common, '--install-extension', src], {
@@ -308,7 +341,9 @@ export async function startCodeServer(options: CodeServerOptions = {}): Promise<
         killSignal: 'SIGKILL',
       });
       if (r.status !== 0) {
-        throw new Error(`code-server --install-extension ${basename(src)} failed (exit ${r.status}, signal ${r.signal}):\n${r.stdout}\n${r.stderr}`);
+        throw new Error(
+          `code-server --install-extension ${basename(src)} failed (exit ${r.status}, signal ${r.signal}):\n${r.stdout}\n${r.stderr}`,
+        );
       }
     }
   }
@@ -367,7 +402,10 @@ export async function startCodeServer(options: CodeServerOptions = {}): Promise<
     port = await pollUntil(
       'code-server to log "HTTP server listening"',
       () => {
-        if (exited) throw new Error(`code-server exited (code ${exited.code}, signal ${exited.signal}):\n${readIfExists(logFile)}`);
+        if (exited)
+          throw new Error(
+            `code-server exited (code ${exited.code}, signal ${exited.signal}):\n${readIfExists(logFile)}`,
+          );
         const m = readIfExists(logFile).match(/HTTP server listening on http:\/\/127\.0\.0\.1:(\d+)/);
         return m ? Number(m[1]) : undefined;
       },
@@ -564,7 +602,10 @@ export interface Workbench {
    * Hovers over `word` (in the first visible line containing `line`, `occurrence`-th match) until a
    * hover containing `expect` shows; moves away and back between tries. Returns the hover's text.
    */
-  hover(word: string, options?: WaitOptions & { line?: string; occurrence?: number; expect?: string | RegExp }): Promise<string>;
+  hover(
+    word: string,
+    options?: WaitOptions & { line?: string; occurrence?: number; expect?: string | RegExp },
+  ): Promise<string>;
   /** Text of the visible hovers now. */
   hoverTexts(): Promise<string[]>;
   /** Opens the Problems panel (View: Focus on Problems View) and returns its rows. */
@@ -581,7 +622,11 @@ export interface Workbench {
    * Puts the cursor on `word` (in the line containing `line`), opens Quick Fix (Ctrl+.) and applies the
    * action whose title contains `title`.
    */
-  applyQuickFix(title: string, at: { word: string; line?: string; occurrence?: number }, options?: WaitOptions): Promise<void>;
+  applyQuickFix(
+    title: string,
+    at: { word: string; line?: string; occurrence?: number },
+    options?: WaitOptions,
+  ): Promise<void>;
   /** Clicks on `word` (in the line containing `line`), which also focuses the editor there. */
   clickWord(word: string, options?: { line?: string; occurrence?: number }): Promise<void>;
   /**
@@ -600,7 +645,11 @@ export interface Workbench {
   /** Saves a PNG to the artifact folder; returns its path. */
   screenshot(name: string): Promise<string>;
   /** Waits on a Node-side condition; on timeout saves a screenshot and throws naming `what`. */
-  waitFor<T>(what: string, check: () => Promise<T | false | undefined | null> | T | false | undefined | null, options?: WaitOptions & { intervalMs?: number }): Promise<T>;
+  waitFor<T>(
+    what: string,
+    check: () => Promise<T | false | undefined | null> | T | false | undefined | null,
+    options?: WaitOptions & { intervalMs?: number },
+  ): Promise<T>;
   /** Closes the browser; writes the browser console to the artifact folder. */
   close(): Promise<void>;
 }
@@ -637,7 +686,12 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
   let shots = 0;
 
   const t0 = Date.now();
-  const browser = await chromium.launch({ executablePath: chromiumTool.path, headless: true, args: [...CHROMIUM_ARGS], timeout: 60_000 });
+  const browser = await chromium.launch({
+    executablePath: chromiumTool.path,
+    headless: true,
+    args: [...CHROMIUM_ARGS],
+    timeout: 60_000,
+  });
   const context = await browser.newContext({ viewport: options.viewport ?? { width: 1280, height: 800 } });
   await context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: server.url }); // for editorText()
   const page = await context.newPage();
@@ -676,7 +730,9 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
       // page gone
     }
     const msg = cause instanceof Error ? cause.message : String(cause);
-    throw new Error(`${msg}\nscreenshot: ${shot}\nvisible editor lines:\n${lines.map((l) => '  | ' + l).join('\n') || '  (none)'}`);
+    throw new Error(
+      `${msg}\nscreenshot: ${shot}\nvisible editor lines:\n${lines.map((l) => `  | ${l}`).join('\n') || '  (none)'}`,
+    );
   };
 
   const waitFor = async <T>(
@@ -686,7 +742,10 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
   ): Promise<T> => {
     const started = Date.now();
     try {
-      const v = await pollUntil(what, check, { timeoutMs: opts.timeoutMs ?? defaultTimeout, intervalMs: opts.intervalMs ?? 100 });
+      const v = await pollUntil(what, check, {
+        timeoutMs: opts.timeoutMs ?? defaultTimeout,
+        intervalMs: opts.intervalMs ?? 100,
+      });
       timings[what] = Date.now() - started;
       return v;
     } catch (e) {
@@ -696,7 +755,9 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
 
   const loadWorkbench = async (openRel?: string): Promise<void> => {
     await page.goto(workbenchUrl(openRel), { timeout: 60_000, waitUntil: 'domcontentloaded' });
-    await waitFor('the workbench', () => call<boolean>('!!(window.__dm && window.__dm.ready())'), { timeoutMs: 60_000 });
+    await waitFor('the workbench', () => call<boolean>('!!(window.__dm && window.__dm.ready())'), {
+      timeoutMs: 60_000,
+    });
   };
 
   const editorLines = () => call<string[]>('window.__dm.lines()');
@@ -704,10 +765,14 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
 
   const waitForOpen = async (rel: string, timeoutMs?: number) => {
     const label = basename(rel);
-    await waitFor(`the editor of ${rel}`, async () => {
-      const tab = await activeTab();
-      return tab?.label === label && (await editorLines()).length > 0;
-    }, { timeoutMs });
+    await waitFor(
+      `the editor of ${rel}`,
+      async () => {
+        const tab = await activeTab();
+        return tab?.label === label && (await editorLines()).length > 0;
+      },
+      { timeoutMs },
+    );
   };
 
   const t1 = Date.now();
@@ -715,7 +780,7 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
     await loadWorkbench(options.openFile);
     if (options.openFile) await waitForOpen(options.openFile);
   } catch (e) {
-    writeFileSync(join(artifactDir, 'browser-console.txt'), consoleLines.join('\n') + '\n');
+    writeFileSync(join(artifactDir, 'browser-console.txt'), `${consoleLines.join('\n')}\n`);
     await browser.close();
     throw e;
   }
@@ -730,7 +795,8 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
         await page.waitForFunction('window.__dm.quickInputOpen()', undefined, { timeout: 2000 });
         break;
       } catch {
-        if (Date.now() > deadline) return fail(`the quick input (${key})`, new Error(`${key} did not open the quick input`));
+        if (Date.now() > deadline)
+          return fail(`the quick input (${key})`, new Error(`${key} did not open the quick input`));
         await page.keyboard.press('Escape');
       }
     }
@@ -744,10 +810,14 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
     } else {
       await quickInput('Control+P', rel, opts.timeoutMs);
       const label = basename(rel);
-      await waitFor(`Quick Open to list ${rel}`, async () => {
-        const rows = await call<{ label: string; focused: boolean }[]>('window.__dm.quickInputRows()');
-        return rows.some((r) => r.label === label && r.focused);
-      }, opts);
+      await waitFor(
+        `Quick Open to list ${rel}`,
+        async () => {
+          const rows = await call<{ label: string; focused: boolean }[]>('window.__dm.quickInputRows()');
+          return rows.some((r) => r.label === label && r.focused);
+        },
+        opts,
+      );
       await page.keyboard.press('Enter');
     }
     await waitForOpen(rel, opts.timeoutMs);
@@ -755,17 +825,26 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
   };
 
   const waitForEditorLine = (text: string | RegExp, opts: WaitOptions = {}) =>
-    waitFor(`an editor line containing ${String(text)}`, async () => (await editorLines()).find((l) => matches(l, text)), opts);
+    waitFor(
+      `an editor line containing ${String(text)}`,
+      async () => (await editorLines()).find((l) => matches(l, text)),
+      opts,
+    );
 
   const box = async (word: string, line?: string, occurrence = 0) => {
-    const b = await call<{ x: number; y: number; error?: string }>(`window.__dm.wordBox(${JSON.stringify(word)}, ${JSON.stringify(line ?? null)}, ${occurrence})`);
+    const b = await call<{ x: number; y: number; error?: string }>(
+      `window.__dm.wordBox(${JSON.stringify(word)}, ${JSON.stringify(line ?? null)}, ${occurrence})`,
+    );
     if (b.error) throw new Error(b.error);
     return b;
   };
 
   const hoverTexts = () => call<string[]>('window.__dm.hovers()');
 
-  const hover = async (word: string, opts: WaitOptions & { line?: string; occurrence?: number; expect?: string | RegExp } = {}) => {
+  const hover = async (
+    word: string,
+    opts: WaitOptions & { line?: string; occurrence?: number; expect?: string | RegExp } = {},
+  ) => {
     const want = opts.expect ?? '';
     return waitFor(
       `a hover over "${word}"${want ? ` containing ${String(want)}` : ''}`,
@@ -791,13 +870,22 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
 
   const runCommand = async (label: string, opts: WaitOptions = {}) => {
     await quickInput('Control+Shift+P', label, opts.timeoutMs);
-    const row = await waitFor(`the command "${label}" in the palette`, async () => {
-      const rows = await call<{ label: string; focused: boolean; x: number; y: number }[]>('window.__dm.quickInputRows()');
-      return rows.find((r) => r.label === label);
-    }, opts);
+    const row = await waitFor(
+      `the command "${label}" in the palette`,
+      async () => {
+        const rows =
+          await call<{ label: string; focused: boolean; x: number; y: number }[]>('window.__dm.quickInputRows()');
+        return rows.find((r) => r.label === label);
+      },
+      opts,
+    );
     if (row.focused) await page.keyboard.press('Enter');
     else await page.mouse.click(row.x, row.y);
-    await waitFor(`the palette to close after "${label}"`, async () => !(await call<boolean>('window.__dm.quickInputOpen()')), opts);
+    await waitFor(
+      `the palette to close after "${label}"`,
+      async () => !(await call<boolean>('window.__dm.quickInputOpen()')),
+      opts,
+    );
   };
 
   const problems = async () => {
@@ -809,10 +897,14 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
 
   const waitForProblem = async (text: string | RegExp, opts: WaitOptions = {}) => {
     await problems();
-    return waitFor(`a Problems row containing ${String(text)}`, async () => {
-      const rows = await call<ProblemRow[]>('window.__dm.problems()');
-      return rows.some((r) => matches(r.text, text) || matches(r.ariaLabel, text)) ? rows : undefined;
-    }, opts);
+    return waitFor(
+      `a Problems row containing ${String(text)}`,
+      async () => {
+        const rows = await call<ProblemRow[]>('window.__dm.problems()');
+        return rows.some((r) => matches(r.text, text) || matches(r.ariaLabel, text)) ? rows : undefined;
+      },
+      opts,
+    );
   };
 
   const squiggles = () => call<Squiggle[]>('window.__dm.squiggles()');
@@ -822,26 +914,44 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
     await page.mouse.click(b.x, b.y);
   };
 
-  const applyQuickFix = async (title: string, at: { word: string; line?: string; occurrence?: number }, opts: WaitOptions = {}) => {
+  const applyQuickFix = async (
+    title: string,
+    at: { word: string; line?: string; occurrence?: number },
+    opts: WaitOptions = {},
+  ) => {
     await page.keyboard.press('Escape');
     await clickWord(at.word, at);
-    const row = await waitFor(`a quick fix "${title}"`, async () => {
-      let rows = await call<{ text: string; x: number; y: number; header: boolean }[]>('window.__dm.actionRows()');
-      if (rows.length === 0) {
-        await page.keyboard.press('Control+.');
-        await page.waitForFunction('window.__dm.actionRows().length > 0', undefined, { timeout: 3000 }).catch(() => undefined);
-        rows = await call<{ text: string; x: number; y: number; header: boolean }[]>('window.__dm.actionRows()');
-      }
-      return rows.find((r) => !r.header && r.text.includes(title));
-    }, opts);
+    const row = await waitFor(
+      `a quick fix "${title}"`,
+      async () => {
+        let rows = await call<{ text: string; x: number; y: number; header: boolean }[]>('window.__dm.actionRows()');
+        if (rows.length === 0) {
+          await page.keyboard.press('Control+.');
+          await page
+            .waitForFunction('window.__dm.actionRows().length > 0', undefined, { timeout: 3000 })
+            .catch(() => undefined);
+          rows = await call<{ text: string; x: number; y: number; header: boolean }[]>('window.__dm.actionRows()');
+        }
+        return rows.find((r) => !r.header && r.text.includes(title));
+      },
+      opts,
+    );
     const before = JSON.stringify(await editorLines());
     await page.mouse.click(row.x, row.y);
-    await waitFor(`the quick-fix menu to close after "${title}"`, async () => (await call<unknown[]>('window.__dm.actionRows()')).length === 0, opts);
+    await waitFor(
+      `the quick-fix menu to close after "${title}"`,
+      async () => (await call<unknown[]>('window.__dm.actionRows()')).length === 0,
+      opts,
+    );
     // The edit lands asynchronously after the click: wait until the document shows it.
-    await waitFor(`the quick fix "${title}" to change the document`, async () => {
-      const tab = await activeTab();
-      return tab?.dirty || JSON.stringify(await editorLines()) !== before;
-    }, opts);
+    await waitFor(
+      `the quick fix "${title}" to change the document`,
+      async () => {
+        const tab = await activeTab();
+        return tab?.dirty || JSON.stringify(await editorLines()) !== before;
+      },
+      opts,
+    );
   };
 
   const editorText = async (opts: WaitOptions = {}) => {
@@ -854,10 +964,14 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
     }
     await page.keyboard.press('Control+A');
     await page.keyboard.press('Control+C');
-    const text = await waitFor('the editor text on the clipboard', async () => {
-      const t = await call<string>('navigator.clipboard.readText()');
-      return t !== sentinel ? t : undefined;
-    }, opts);
+    const text = await waitFor(
+      'the editor text on the clipboard',
+      async () => {
+        const t = await call<string>('navigator.clipboard.readText()');
+        return t !== sentinel ? t : undefined;
+      },
+      opts,
+    );
     await page.keyboard.press('ArrowLeft'); // collapse the selection
     return text;
   };
@@ -870,14 +984,22 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
       const mtimeBefore = statSync(file).mtimeMs;
       const sizeBefore = statSync(file).size;
       await page.keyboard.press('Control+S');
-      await waitFor(`${rel} to be saved (tab no longer dirty)`, async () => {
-        const t = await activeTab();
-        return t !== null && t.label === label && !t.dirty;
-      }, { ...opts, intervalMs: 100 });
-      await waitFor(`${rel} to change on disk`, () => {
-        const st = statSync(file);
-        return st.mtimeMs !== mtimeBefore || st.size !== sizeBefore;
-      }, { ...opts, intervalMs: 50 });
+      await waitFor(
+        `${rel} to be saved (tab no longer dirty)`,
+        async () => {
+          const t = await activeTab();
+          return t !== null && t.label === label && !t.dirty;
+        },
+        { ...opts, intervalMs: 100 },
+      );
+      await waitFor(
+        `${rel} to change on disk`,
+        () => {
+          const st = statSync(file);
+          return st.mtimeMs !== mtimeBefore || st.size !== sizeBefore;
+        },
+        { ...opts, intervalMs: 50 },
+      );
     }
     return readFileSync(file, 'utf8');
   };
@@ -896,8 +1018,14 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
     waitForProblem,
     squiggles,
     waitForSquiggle: (severity, opts = {}) =>
-      waitFor(`a ${severity} squiggle${opts.line ? ` on a line containing ${opts.line}` : ''}`, async () =>
-        (await squiggles()).find((s) => s.severity === severity && (!opts.line || (s.line ?? '').includes(opts.line))), opts),
+      waitFor(
+        `a ${severity} squiggle${opts.line ? ` on a line containing ${opts.line}` : ''}`,
+        async () =>
+          (await squiggles()).find(
+            (s) => s.severity === severity && (!opts.line || (s.line ?? '').includes(opts.line)),
+          ),
+        opts,
+      ),
     runCommand,
     applyQuickFix,
     clickWord,
@@ -909,7 +1037,7 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
     screenshot,
     waitFor,
     close: async () => {
-      writeFileSync(join(artifactDir, 'browser-console.txt'), consoleLines.join('\n') + '\n');
+      writeFileSync(join(artifactDir, 'browser-console.txt'), `${consoleLines.join('\n')}\n`);
       await browser.close();
     },
   };
@@ -923,7 +1051,10 @@ export interface CodeServerSession {
 }
 
 /** Starts code-server and opens the workbench on it (stopping the server again if the workbench fails). */
-export async function startSession(server: CodeServerOptions, workbench: WorkbenchOptions = {}): Promise<CodeServerSession> {
+export async function startSession(
+  server: CodeServerOptions,
+  workbench: WorkbenchOptions = {},
+): Promise<CodeServerSession> {
   const cs = await startCodeServer({ name: `code-server/${safeName(workbench.name ?? 'workbench')}`, ...server });
   let wb: Workbench;
   try {

@@ -96,14 +96,30 @@ export type NeovimStep =
    * Replace lines as `nvim_buf_set_lines` does (0-based `startLine`, exclusive `endLine`, -1 = end), so
    * the client sends didChange; then (unless `waitDiagnostics: false`) wait for the new diagnostics.
    */
-  | ({ op: 'edit'; startLine: number; endLine: number; lines: string[]; waitDiagnostics?: boolean; timeoutMs?: number; minCount?: number } & OnDoc)
+  | ({
+      op: 'edit';
+      startLine: number;
+      endLine: number;
+      lines: string[];
+      waitDiagnostics?: boolean;
+      timeoutMs?: number;
+      minCount?: number;
+    } & OnDoc)
   /** Raw `textDocument/inlayHint` for `range` (default: the whole document). */
   | ({ op: 'inlayHints'; range?: LspRange } & OnDoc)
   /**
    * `textDocument/codeAction` for `range` with the published diagnostics that touch it; with `apply`,
    * applies the first action whose title contains it (its edit, then its command) and returns the text.
    */
-  | ({ op: 'codeAction'; range: LspRange; only?: string[]; apply?: string; waitDiagnostics?: boolean; timeoutMs?: number; minCount?: number } & OnDoc)
+  | ({
+      op: 'codeAction';
+      range: LspRange;
+      only?: string[];
+      apply?: string;
+      waitDiagnostics?: boolean;
+      timeoutMs?: number;
+      minCount?: number;
+    } & OnDoc)
   /** Any request; the string `"$URI"` anywhere in `params` becomes the current document's uri. */
   | { op: 'request'; method: string; params?: unknown; allowError?: boolean }
   /** The buffer's current text. */
@@ -157,7 +173,10 @@ export interface StepFields {
   waitDiagnostics: DiagnosticsResult;
   hover: { position: LspPosition; result: HoverResult | null };
   documentSymbols: { result: unknown[] | null };
-  completion: { position: LspPosition; result: { items: CompletionItem[]; isIncomplete?: boolean } | CompletionItem[] | null };
+  completion: {
+    position: LspPosition;
+    result: { items: CompletionItem[]; isIncomplete?: boolean } | CompletionItem[] | null;
+  };
   edit: { version: number; text: string; diagnostics?: DiagnosticsResult };
   inlayHints: { range: LspRange; result: InlayHint[] | null };
   codeAction: { result: CodeAction[]; applied?: string; text?: string; diagnostics?: DiagnosticsResult };
@@ -266,7 +285,10 @@ export interface NeovimRun {
 export class NeovimRunError extends Error {
   override name = 'NeovimRunError';
   /** The run, when Neovim got as far as reporting. */
-  constructor(message: string, readonly run?: NeovimRun) {
+  constructor(
+    message: string,
+    readonly run?: NeovimRun,
+  ) {
     super(message);
   }
 }
@@ -295,7 +317,8 @@ function normalise(report: NeovimReport): NeovimReport {
       s.vimDiagnostics = asArray(s.vimDiagnostics);
     }
     if (s.op === 'codeAction') s.result = asArray(s.result);
-    if (!('result' in s) && ['hover', 'documentSymbols', 'completion', 'inlayHints', 'request'].includes(String(s.op))) s.result = null;
+    if (!('result' in s) && ['hover', 'documentSymbols', 'completion', 'inlayHints', 'request'].includes(String(s.op)))
+      s.result = null;
   }
   return report;
 }
@@ -312,7 +335,7 @@ function tail(text: string, lines = 40): string {
 export async function runNeovim(plan: NeovimPlan): Promise<NeovimRun> {
   const nvim = plan.nvim ?? findTool('nvim')?.path;
   if (!nvim) throw new NeovimRunError(missingReason('nvim') ?? 'nvim not found');
-  if (!plan.configFile && !(plan.server && plan.server.length)) {
+  if (!plan.configFile && !plan.server?.length) {
     throw new NeovimRunError('runNeovim: give `server` (the server argv) or `configFile`');
   }
   const runDir = mkdtempSync(join(tmpdir(), 'dewmark-nvim-'));
@@ -332,7 +355,8 @@ export async function runNeovim(plan: NeovimPlan): Promise<NeovimRun> {
   };
   const resultFile = join(runDir, 'report.json');
   const steps = plan.steps.map((s) => {
-    const withPath = (name: string | undefined) => (name === undefined ? undefined : (paths[name] ?? resolve(root, name)));
+    const withPath = (name: string | undefined) =>
+      name === undefined ? undefined : (paths[name] ?? resolve(root, name));
     if (s.op === 'open') return { ...s, path: withPath(s.name) };
     if ('name' in s && s.name !== undefined) return { ...s, path: withPath(s.name) };
     return s;
@@ -371,12 +395,16 @@ export async function runNeovim(plan: NeovimPlan): Promise<NeovimRun> {
     timedOut: boolean;
   }>((resolveRun, reject) => {
     // Detached: its own process group, so a timeout kills Neovim and the server it started.
-    const child = spawn(nvim, ['--headless', '--clean', '-n', '-u', 'NONE', '-i', 'NONE', '-c', `luafile ${PROBE_LUA}`, '-c', 'cquit 2'], {
-      cwd: root,
-      env,
-      stdio: ['ignore', 'pipe', 'pipe'],
-      detached: true,
-    });
+    const child = spawn(
+      nvim,
+      ['--headless', '--clean', '-n', '-u', 'NONE', '-i', 'NONE', '-c', `luafile ${PROBE_LUA}`, '-c', 'cquit 2'],
+      {
+        cwd: root,
+        env,
+        stdio: ['ignore', 'pipe', 'pipe'],
+        detached: true,
+      },
+    );
     let out = '';
     let err = '';
     let timedOut = false;
@@ -433,7 +461,11 @@ export async function runNeovim(plan: NeovimPlan): Promise<NeovimRun> {
     lspLog,
     step<K extends NeovimStep['op']>(op: K, n = 0): StepResult<K> {
       const found = base.steps.filter((s) => s.op === op)[n];
-      if (!found) throw new NeovimRunError(`no result #${n} for step '${op}' (steps: ${base.steps.map((s) => s.op).join(', ') || 'none'})`, run);
+      if (!found)
+        throw new NeovimRunError(
+          `no result #${n} for step '${op}' (steps: ${base.steps.map((s) => s.op).join(', ') || 'none'})`,
+          run,
+        );
       return found as StepResult<K>;
     },
     all<K extends NeovimStep['op']>(op: K): StepResult<K>[] {
@@ -485,7 +517,13 @@ export function inlayHintLabels(hints: InlayHint[] | null | undefined): string[]
   return asArray<InlayHint>(hints)
     .slice()
     .sort((a, b) => a.position.line - b.position.line || a.position.character - b.position.character)
-    .map((h) => (typeof h.label === 'string' ? h.label : asArray<{ value: string }>(h.label).map((p) => p.value).join('')));
+    .map((h) =>
+      typeof h.label === 'string'
+        ? h.label
+        : asArray<{ value: string }>(h.label)
+            .map((p) => p.value)
+            .join(''),
+    );
 }
 
 /** The labels of a completion result (list or array). */

@@ -95,7 +95,10 @@ function onPath(names: string[]): string | undefined {
 function firstLineOf(cmd: string, args: string[]): string | undefined {
   const r = spawnSync(cmd, args, { encoding: 'utf8', timeout: 15_000, killSignal: 'SIGKILL' });
   if (r.status !== 0 || typeof r.stdout !== 'string') return undefined;
-  return r.stdout.split('\n').find((l) => l.trim() !== '')?.trim();
+  return r.stdout
+    .split('\n')
+    .find((l) => l.trim() !== '')
+    ?.trim();
 }
 
 function packageVersion(pkgDir: string): string | undefined {
@@ -143,7 +146,8 @@ function lookup(name: ToolName): Lookup {
       const path = join(pkg, 'out', 'node', 'entry.js');
       const version = packageVersion(pkg);
       if (!version || !existsSync(path)) return { why: `no code-server at ${pkg}` };
-      if (!existsSync(join(tools, '.stamp-code-server'))) return { why: `code-server at ${pkg} is a half-finished install` };
+      if (!existsSync(join(tools, '.stamp-code-server')))
+        return { why: `code-server at ${pkg} is a half-finished install` };
       return { tool: { name, path, version }, why: '' };
     }
     case 'playwright-core': {

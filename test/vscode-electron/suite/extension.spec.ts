@@ -25,7 +25,8 @@ async function waitFor<T>(what: string, probe: () => T | undefined | Promise<T |
     } catch (err) {
       last = err;
     }
-    if (Date.now() > end) throw new Error(`timed out after ${ms} ms waiting for ${what}${last ? ` (last error: ${String(last)})` : ''}`);
+    if (Date.now() > end)
+      throw new Error(`timed out after ${ms} ms waiting for ${what}${last ? ` (last error: ${String(last)})` : ''}`);
     await new Promise((r) => setTimeout(r, 100));
   }
 }
@@ -68,7 +69,13 @@ describe('Dewmark in VS Code', () => {
 
   it('contributes its commands', async () => {
     const all = await vscode.commands.getCommands(true);
-    for (const id of ['dewmark.switchUnits', 'dewmark.checkWorkspace', 'dewmark.showChart', 'dewmark.restartServer', 'dewmark.showLog']) {
+    for (const id of [
+      'dewmark.switchUnits',
+      'dewmark.checkWorkspace',
+      'dewmark.showChart',
+      'dewmark.restartServer',
+      'dewmark.showLog',
+    ]) {
       assert.ok(all.includes(id), `${id} is registered`);
     }
   });
@@ -76,7 +83,11 @@ describe('Dewmark in VS Code', () => {
   it(`shows inline hints with the computed values (${EXAMPLE_1.source})`, async () => {
     const line = lineOf(doc, EXAMPLE_1.line);
     const label = await waitFor('an inline hint on the OA line', async () => {
-      const hints = await vscode.commands.executeCommand<vscode.InlayHint[]>('vscode.executeInlayHintProvider', doc.uri, new vscode.Range(0, 0, doc.lineCount, 0));
+      const hints = await vscode.commands.executeCommand<vscode.InlayHint[]>(
+        'vscode.executeInlayHintProvider',
+        doc.uri,
+        new vscode.Range(0, 0, doc.lineCount, 0),
+      );
       const h = hints.find((x) => x.position.line === line);
       return h ? labelText(h) : undefined;
     });
@@ -91,7 +102,14 @@ describe('Dewmark in VS Code', () => {
       const t = hoverText(hovers);
       return t.includes('state OA') ? t : undefined;
     });
-    for (const part of ['humidity ratio', 'enthalpy', 'dew point', 'relative humidity', 'Pressure: 101.325 kPa', 'Method: ASHRAE']) {
+    for (const part of [
+      'humidity ratio',
+      'enthalpy',
+      'dew point',
+      'relative humidity',
+      'Pressure: 101.325 kPa',
+      'Method: ASHRAE',
+    ]) {
       assert.ok(text.includes(part), `hover has "${part}":\n${text}`);
     }
   });
@@ -106,13 +124,22 @@ describe('Dewmark in VS Code', () => {
     );
     assert.equal(diag.severity, vscode.DiagnosticSeverity.Error);
     assert.equal(diag.source, 'dewmark');
-    const actions = await vscode.commands.executeCommand<vscode.CodeAction[]>('vscode.executeCodeActionProvider', doc.uri, diag.range, vscode.CodeActionKind.QuickFix.value);
+    const actions = await vscode.commands.executeCommand<vscode.CodeAction[]>(
+      'vscode.executeCodeActionProvider',
+      doc.uri,
+      diag.range,
+      vscode.CodeActionKind.QuickFix.value,
+    );
     const fix = actions.find((a) => a.title.startsWith(INFEASIBLE.fixTitle));
     assert.ok(fix?.edit, `a quick fix "${INFEASIBLE.fixTitle}…" among: ${actions.map((a) => a.title).join(' | ')}`);
     assert.ok(await vscode.workspace.applyEdit(fix.edit));
     assert.ok(doc.lineAt(line).text.startsWith(INFEASIBLE.after), `line after the fix: "${doc.lineAt(line).text}"`);
     await waitFor('the diagnostic to clear after the fix', () =>
-      vscode.languages.getDiagnostics(doc.uri).some((d) => (typeof d.code === 'object' ? d.code.value : d.code) === INFEASIBLE.code) ? undefined : true,
+      vscode.languages
+        .getDiagnostics(doc.uri)
+        .some((d) => (typeof d.code === 'object' ? d.code.value : d.code) === INFEASIBLE.code)
+        ? undefined
+        : true,
     );
   });
 
@@ -120,8 +147,15 @@ describe('Dewmark in VS Code', () => {
     const line = lineOf(doc, EXAMPLE_1.line);
     await vscode.commands.executeCommand('dewmark.switchUnits');
     const label = await waitFor('IP figures in the OA hint', async () => {
-      const hints = await vscode.commands.executeCommand<vscode.InlayHint[]>('vscode.executeInlayHintProvider', doc.uri, new vscode.Range(0, 0, doc.lineCount, 0));
-      const t = hints.filter((x) => x.position.line === line).map(labelText).join(' ');
+      const hints = await vscode.commands.executeCommand<vscode.InlayHint[]>(
+        'vscode.executeInlayHintProvider',
+        doc.uri,
+        new vscode.Range(0, 0, doc.lineCount, 0),
+      );
+      const t = hints
+        .filter((x) => x.position.line === line)
+        .map(labelText)
+        .join(' ');
       return t.includes('°F') ? t : undefined;
     });
     assert.ok(!label.includes('°C'), `no °C left in "${label}"`);
@@ -132,8 +166,16 @@ describe('Dewmark in VS Code', () => {
     await vscode.window.showTextDocument(doc);
     await vscode.commands.executeCommand('dewmark.showChart');
     const tab = await waitFor('a chart tab', () =>
-      vscode.window.tabGroups.all.flatMap((g) => g.tabs).find((t) => t.input instanceof vscode.TabInputWebview && t.label === `Chart: ${FIXTURE_NOTE}`),
+      vscode.window.tabGroups.all
+        .flatMap((g) => g.tabs)
+        .find((t) => t.input instanceof vscode.TabInputWebview && t.label === `Chart: ${FIXTURE_NOTE}`),
     );
-    assert.ok(tab.group.viewColumn !== vscode.window.tabGroups.all.find((g) => g.tabs.some((t) => t.input instanceof vscode.TabInputText && t.input.uri.toString() === doc.uri.toString()))?.viewColumn, 'beside the note');
+    assert.ok(
+      tab.group.viewColumn !==
+        vscode.window.tabGroups.all.find((g) =>
+          g.tabs.some((t) => t.input instanceof vscode.TabInputText && t.input.uri.toString() === doc.uri.toString()),
+        )?.viewColumn,
+      'beside the note',
+    );
   });
 });
