@@ -10,7 +10,7 @@
  * Coil or heater duty: Q = ṁ [Δh − (W_B − W_A) h_water(t_B)], the water leaving (condensate) or
  * entering (humidifier) as liquid at the leaving dry-bulb (frost below 0 °C for condensate).
  */
-import { apparatusDewPoint as coilLine, condensateEnthalpy, liquidWaterEnthalpy } from '../physics';
+import { apparatusDewPoint, condensateEnthalpy, liquidWaterEnthalpy } from '../physics';
 import type { MoistAirState } from '../physics/types';
 import type { ProcessStatement, RecoverStatement } from '../notation/ast';
 import type { EvalContext } from './context';
@@ -77,16 +77,6 @@ export function processKindOf(
   return Math.abs(coilPerKg) <= Math.max(500, 0.1 * Math.abs(sensiblePerKg))
     ? 'evaporative-cooling'
     : 'cooling-humidifying';
-}
-
-/**
- * For moisture removed: the apparatus dew point, where the coil line from A through B, continued
- * in the drying direction, meets the saturation curve (see `physics/coil.ts`); null when it never
- * does before W reaches zero (no cooling surface can produce B from A). Kept here for callers of
- * the evaluator's API.
- */
-export function apparatusDewPoint(a: MoistAirState, b: MoistAirState, p: number): number | null {
-  return coilLine(a, b, p)?.adp ?? null;
 }
 
 /** What a process statement gives: the state it defines (if it defines one) and the process itself. */
@@ -343,7 +333,9 @@ function balanceCheck(
   const b = to.state!;
   const dw = result.dw;
   if (!(dw < -DW_STILL) || !stmt.to || !stmt.from) return;
-  const line = coilLine(a, b, (from.pressure.pa + to.pressure.pa) / 2);
+  // The apparatus dew point is physics' (`physics/coil.ts`): where the coil line from A through B,
+  // continued in the drying direction, meets saturation; null when it never does before W reaches zero.
+  const line = apparatusDewPoint(a, b, (from.pressure.pa + to.pressure.pa) / 2);
   result.apparatusDewPointC = line?.adp ?? null;
   result.bypassFactor = line?.bf ?? null;
   if (line) return;
