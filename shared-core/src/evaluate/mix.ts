@@ -6,6 +6,7 @@
  * stream's own state (ṁ = V̇ / v, v per kg of dry air).
  */
 import type { solveState } from '../physics';
+import type { MoistAirState } from '../physics/types';
 import type { CoreDiagnostic, MixStatement, NameNode, PropertyNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
 import { lookupUnit } from '../units';
@@ -38,16 +39,12 @@ interface Amount {
   rest: boolean;
 }
 
+/** A stream whose state and amount could both be read. */
 interface StreamRead {
   name: string;
   span: Span;
-  amountSpan: Span;
-  kind: AmountKind;
-  /** Fraction 0…1, kg/s or m³/s. */
-  si: number;
-  /** Half a unit of the last written digit (fractions), as a fraction. */
-  halfResolution: number;
   state: StateResult;
+  /** Its amount (kind and figure final once the rest and total= are applied). */
   amount: Amount;
 }
 
@@ -59,8 +56,39 @@ interface Total {
   q: ResolvedQuantity;
 }
 
-/** Evaluates one `mix` statement; always returns a result (with `state: null` when it failed). */
+/** The streams as read (step 1). */
+interface StreamsRead {
+  /** The streams whose state and amount could both be read. */
+  streams: StreamRead[];
+  /**
+   * Every amount that could be read, whether or not its state could: the fractions are checked
+   * even when a stream's state failed, so a wrong sum is not hidden behind another error.
+   */
+  amounts: Amount[];
+  /** An amount could not be read (reported). */
+  amountFailed: boolean;
+  /** A stream's state or amount could not be read (reported). */
+  failed: boolean;
+}
+
+/** Each stream's share of the mixed air (step 3). */
+interface DryAirFlows {
+  /** Dry-air mass flow of each stream, kg/s (its fraction when the amounts are fractions). */
+  mass: number[];
+  /** Their sum. */
+  totalMass: number;
+  /** Each stream's fraction of the dry-air mass. */
+  fractions: number[];
+}
+
+/**
+ * Evaluates one `mix` statement; always returns a result (with `state: null` when it failed).
+ * The steps: read the claims and total=, resolve the streams (names and amounts), check the
+ * amounts (rest, kinds, the sum of fractions, total=), convert them to dry-air mass flows, one
+ * pressure, the mass and energy balance, the solve, and the claims.
+ */
 export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number, owner: boolean): StateResult {
+  void owner;
   const name = stmt.name?.text ?? '';
   const what = name ? `mix ${name}` : 'this mix';
   const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
@@ -95,14 +123,50 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     });
     return result;
   }
+  const read = readStreams(ctx, stmt, index, what);
+  if (totalProp && !total) return result;
+  if (!checkAmounts(ctx, stmt, read, total, what)) return result;
+  const { streams, amounts } = read;
+  if (read.failed || streams.length === 0) return result;
+  const flows = dryAirFlows(ctx, streams, what);
+  if (!flows) return result;
+  const { mass, totalMass, fractions } = flows;
+  const pressure = mixPressure(ctx, streams, fractions, what);
+  result.pressure = pressure;
 
-  // Read every stream: its name (a computed state defined above) and its amount.
-  const streams: StreamRead[] = [];
-  // Every amount that could be read, whether or not its state could: the fractions are checked
-  // even when a stream's state failed, so a wrong sum is not hidden behind another error.
-  const amounts: Amount[] = [];
-  let amountFailed = false;
-  let failed = false;
+  const { w, h } = mixBalance(streams, fractions);
+  const isFlow = !streams.some((s) => s.amount.kind === 'fraction');
+  result.streams = streams.map((s, i) => ({
+    name: s.name,
+    fraction: fractions[i]!,
+    massFlowKgS: isFlow ? mass[i]! : null,
+  }));
+  result.massFlowKgS = isFlow ? totalMass : null;
+  // total= beside streams that are all given (no rest): a claim about their sum.
+  const totalClaim =
+    total && isFlow && !amounts.some((a) => a.rest) && ctx.settings.checkClaims
+      ? totalFlowClaim(ctx, total, streams, flows)
+      : null;
+
+  const state = solveMix(ctx, w, h, pressure, streams, what, fallback);
+  if (!state) return result;
+  result.state = state;
+  if (claimProps.props.length > 0) {
+    result.claims = stateClaims(
+      ctx,
+      claimProps.props,
+      state,
+      () =>
+        `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`,
+    );
+  }
+  if (totalClaim) result.claims = [...result.claims, totalClaim];
+  return result;
+}
+
+/** Step 1: every stream's name (a computed state defined above) and its amount, each reported when it cannot be read. */
+function readStreams(ctx: EvalContext, stmt: MixStatement, index: number, what: string): StreamsRead {
+  const out: StreamsRead = { streams: [], amounts: [], amountFailed: false, failed: false };
   for (const s of stmt.streams) {
     const ref = ctx.resolve(s.name, stmt, index);
     let state: StateResult | null = null;
@@ -115,21 +179,21 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
           span: s.name.span,
           related: [{ span: ref.def.span, message: `process ${s.name.text}` }],
         });
-        failed = true;
+        out.failed = true;
       } else if (ref.item.state === null) {
         ctx.report(dependencyInfo(what, s.name.text, s.name.span, ref.def.span));
-        failed = true;
+        out.failed = true;
       } else state = ref.item;
     } else {
       if (ref.failed) ctx.report(dependencyInfo(what, s.name.text, s.name.span, ref.def.span));
-      failed = true;
+      out.failed = true;
     }
     const read = s.rest
       ? { kind: 'fraction' as const, si: 0, halfResolution: 0, span: s.rest }
       : readAmount(ctx, s.amount, s.span, s.name.text, what);
     if (!read) {
-      failed = true;
-      amountFailed = true;
+      out.failed = true;
+      out.amountFailed = true;
       continue;
     }
     const amount: Amount = {
@@ -140,23 +204,26 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       halfResolution: read.halfResolution,
       rest: s.rest !== undefined,
     };
-    amounts.push(amount);
-    if (state)
-      streams.push({
-        name: s.name.text,
-        span: s.span,
-        amountSpan: read.span,
-        kind: read.kind,
-        si: read.si,
-        halfResolution: read.halfResolution,
-        state,
-        amount,
-      });
+    out.amounts.push(amount);
+    if (state) out.streams.push({ name: s.name.text, span: s.span, state, amount });
   }
-  if (totalProp && !total) return result;
-  // A rest stream takes what the others leave of total= (or of 100 %).
-  if (!amountFailed && !resolveRest(ctx, amounts, total, what)) return result;
+  return out;
+}
 
+/**
+ * Step 2: the amounts together — the rest stream takes what the others leave of total= (or of
+ * 100 %); fractions and flows do not mix; fractions add to 100 % (within half a unit of the last
+ * digit of each); fractions with a total become dry-air mass flows. False after a diagnostic.
+ */
+function checkAmounts(
+  ctx: EvalContext,
+  stmt: MixStatement,
+  read: StreamsRead,
+  total: Total | null,
+  what: string,
+): boolean {
+  const { amounts, amountFailed } = read;
+  if (!amountFailed && !resolveRest(ctx, amounts, total, what)) return false;
   // Fractions and flows do not mix.
   const allAmountKinds = new Set<AmountKind>();
   for (const s of stmt.streams) {
@@ -170,46 +237,50 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       message: `${what} mixes fractions (%) with flows; give every stream as a dry-air mass fraction (OA 25% + RA 75%) or every stream as a flow (OA 1.2kg/s + RA 3.6kg/s, or volume flows such as 1000L/s)`,
       span: spanUnion(...stmt.streams.map((s) => s.span)),
     });
-    return result;
+    return false;
   }
-  // Fractions must add to 100 % (within half a unit of the last digit of each).
   if (!amountFailed && amounts.length > 0 && amounts.every((a) => a.kind === 'fraction')) {
-    const sum = amounts.reduce((a, s) => a + s.si, 0);
-    const slack = amounts.reduce((a, s) => a + s.halfResolution, 0) + 1e-9;
-    const negative = amounts.find((s) => s.si < 0);
-    if (negative) {
-      ctx.report({
-        code: 'mix-fractions',
-        severity: 'error',
-        message: `${what}: the fraction of ${negative.name} is negative; fractions are between 0 % and 100 %`,
-        span: negative.amountSpan,
-      });
-      return result;
-    }
-    if (Math.abs(sum - 1) > slack) {
-      ctx.report({
-        code: 'mix-fractions',
-        severity: 'error',
-        message: `${what}: the fractions add to ${formatSig(sum * 100, 6)} %, not 100 %; change them so they add to 100 % (the fractions are of dry-air mass)`,
-        span: spanUnion(...amounts.map((s) => s.amountSpan)),
-        data: { sumPct: sum * 100 },
-      });
-      return result;
-    }
+    if (!checkFractionSum(ctx, amounts, what)) return false;
   }
   // Fractions with a total: dry-air mass flows.
-  if (!amountFailed && total && !applyTotal(ctx, amounts, total, what)) return result;
-  for (const s of streams) {
-    s.kind = s.amount.kind;
-    s.si = s.amount.si;
-  }
-  const kinds = new Set(streams.map((s) => s.kind));
-  if (failed || streams.length === 0) return result;
+  return amountFailed || !total || applyTotal(ctx, amounts, total, what);
+}
 
-  // Dry-air mass flow of each stream (or its fraction when amounts are fractions).
+/** Fractions are not negative and add to 100 % (within half a unit of the last digit of each); false after a diagnostic. */
+function checkFractionSum(ctx: EvalContext, amounts: Amount[], what: string): boolean {
+  const sum = amounts.reduce((a, s) => a + s.si, 0);
+  const slack = amounts.reduce((a, s) => a + s.halfResolution, 0) + 1e-9;
+  const negative = amounts.find((s) => s.si < 0);
+  if (negative) {
+    ctx.report({
+      code: 'mix-fractions',
+      severity: 'error',
+      message: `${what}: the fraction of ${negative.name} is negative; fractions are between 0 % and 100 %`,
+      span: negative.amountSpan,
+    });
+    return false;
+  }
+  if (Math.abs(sum - 1) > slack) {
+    ctx.report({
+      code: 'mix-fractions',
+      severity: 'error',
+      message: `${what}: the fractions add to ${formatSig(sum * 100, 6)} %, not 100 %; change them so they add to 100 % (the fractions are of dry-air mass)`,
+      span: spanUnion(...amounts.map((s) => s.amountSpan)),
+      data: { sumPct: sum * 100 },
+    });
+    return false;
+  }
+  return true;
+}
+
+/**
+ * Step 3: the dry-air mass flow of each stream (a volume flow at the stream's own state, ṁ = V̇ / v)
+ * and its fraction of the whole; null after a diagnostic (no flow at all, an overflow, a negative flow).
+ */
+function dryAirFlows(ctx: EvalContext, streams: StreamRead[], what: string): DryAirFlows | null {
   const mass: number[] = streams.map((s) => {
-    if (s.kind === 'volumeFlow') return s.si / s.state.state!.v;
-    return s.si;
+    if (s.amount.kind === 'volumeFlow') return s.amount.si / s.state.state!.v;
+    return s.amount.si;
   });
   const totalMass = mass.reduce((a, m) => a + m, 0);
   if (!(totalMass > 0) || !Number.isFinite(totalMass)) {
@@ -220,9 +291,9 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       code: 'mix-fractions',
       severity: 'error',
       message: `${what}: ${why}`,
-      span: spanUnion(...streams.map((s) => s.amountSpan)),
+      span: spanUnion(...streams.map((s) => s.amount.amountSpan)),
     });
-    return result;
+    return null;
   }
   const fractions = mass.map((m) => m / totalMass);
   if (fractions.some((f) => f < 0)) {
@@ -230,66 +301,80 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       code: 'mix-fractions',
       severity: 'error',
       message: `${what}: a stream has a negative flow; flows are positive figures`,
-      span: spanUnion(...streams.map((s) => s.amountSpan)),
+      span: spanUnion(...streams.map((s) => s.amount.amountSpan)),
     });
-    return result;
+    return null;
   }
+  return { mass, totalMass, fractions };
+}
 
-  // One pressure for all the streams: the dry-air-mass-weighted mean, with a warning if they differ.
+/**
+ * Step 4: one pressure for all the streams — the first stream's, or the dry-air-mass-weighted mean
+ * with a `pressure-mismatch` warning when they differ.
+ */
+function mixPressure(ctx: EvalContext, streams: StreamRead[], fractions: number[], what: string): PressureBasis {
   const pMean = streams.reduce((a, s, i) => a + fractions[i]! * s.state.pressure.pa, 0);
   const pMin = Math.min(...streams.map((s) => s.state.pressure.pa));
   const pMax = Math.max(...streams.map((s) => s.state.pressure.pa));
   const first = streams[0]!.state.pressure;
-  let pressure: PressureBasis = first;
-  if (pMax - pMin > PRESSURE_SLACK * pMean) {
-    ctx.report({
-      code: 'pressure-mismatch',
-      severity: 'warning',
-      message: `${what}: the streams are at different pressures (${kPaText(pMin)} to ${kPaText(pMax)}); the mix is computed at their mean, ${kPaText(pMean)}. Put all streams at one pressure (one site: line)`,
-      span: spanUnion(...streams.map((s) => s.span)),
-    });
-    pressure = {
-      pa: pMean,
-      source: first.source,
-      span: null,
-      elevationM: null,
-      describe: `mean of the streams' pressures, ${kPaText(pMean)}`,
-      origin: "mean of the streams' pressures",
-    };
-  }
-  result.pressure = pressure;
+  if (!(pMax - pMin > PRESSURE_SLACK * pMean)) return first;
+  ctx.report({
+    code: 'pressure-mismatch',
+    severity: 'warning',
+    message: `${what}: the streams are at different pressures (${kPaText(pMin)} to ${kPaText(pMax)}); the mix is computed at their mean, ${kPaText(pMean)}. Put all streams at one pressure (one site: line)`,
+    span: spanUnion(...streams.map((s) => s.span)),
+  });
+  return {
+    pa: pMean,
+    source: first.source,
+    span: null,
+    elevationM: null,
+    describe: `mean of the streams' pressures, ${kPaText(pMean)}`,
+    origin: "mean of the streams' pressures",
+  };
+}
 
-  // Mass and energy balance.
+/** Step 5: the mass and energy balance over the dry-air fractions, W = Σ x·W and h = Σ x·h. */
+function mixBalance(streams: StreamRead[], fractions: number[]): { w: number; h: number } {
   let w = 0;
   let h = 0;
   streams.forEach((s, i) => {
     w += fractions[i]! * s.state.state!.w;
     h += fractions[i]! * s.state.state!.h;
   });
-  const flows = !kinds.has('fraction');
-  result.streams = streams.map((s, i) => ({
-    name: s.name,
-    fraction: fractions[i]!,
-    massFlowKgS: flows ? mass[i]! : null,
-  }));
-  result.massFlowKgS = flows ? totalMass : null;
-  // total= beside streams that are all given (no rest): a claim about their sum.
-  let totalClaim: ClaimResult | null = null;
-  if (total && flows && !amounts.some((a) => a.rest) && ctx.settings.checkClaims) {
-    const computed =
-      total.kind === 'massFlow' ? totalMass : streams.reduce((a, s, i) => a + mass[i]! * s.state.state!.v, 0);
-    const { claim, diagnostic } = checkClaim(
-      'total',
-      total.prop,
-      total.q,
-      computed,
-      () =>
-        `as the sum of the streams' ${total.kind === 'massFlow' ? 'dry-air mass flows' : 'volume flows, each at its own state'}`,
-    );
-    totalClaim = claim;
-    if (diagnostic) ctx.report(diagnostic);
-  }
+  return { w, h };
+}
 
+/** total= beside streams given as flows (no rest): a claim about their sum (mass flows, or volume flows each at its own state). */
+function totalFlowClaim(ctx: EvalContext, total: Total, streams: StreamRead[], flows: DryAirFlows): ClaimResult {
+  const { mass, totalMass } = flows;
+  const computed =
+    total.kind === 'massFlow' ? totalMass : streams.reduce((a, s, i) => a + mass[i]! * s.state.state!.v, 0);
+  const { claim, diagnostic } = checkClaim(
+    'total',
+    total.prop,
+    total.q,
+    computed,
+    () =>
+      `as the sum of the streams' ${total.kind === 'massFlow' ? 'dry-air mass flows' : 'volume flows, each at its own state'}`,
+  );
+  if (diagnostic) ctx.report(diagnostic);
+  return claim;
+}
+
+/**
+ * Step 6: the mixed state from (W, h) at the mix pressure, with the engine's problem, a
+ * non-finite state or the fog warning reported; null when there is no state.
+ */
+function solveMix(
+  ctx: EvalContext,
+  w: number,
+  h: number,
+  pressure: PressureBasis,
+  streams: StreamRead[],
+  what: string,
+  fallback: Span,
+): MoistAirState | null {
   let solved: ReturnType<typeof solveState>;
   try {
     solved = ctx.solve({ w, h }, pressure.pa, { allowFog: true });
@@ -304,7 +389,6 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       },
     };
   }
-  const streamsSpan = spanUnion(...streams.map((s) => s.span));
   const spans = new Map<string, Span>();
   if (!solved.ok) {
     ctx.report(
@@ -316,18 +400,17 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
         `${what} (W = ${formatSig(w * 1000, 4)} g/kg, h = ${formatSig(h / 1000, 4)} kJ/kg)`,
       ),
     );
-    return result;
+    return null;
   }
   if (!stateFinite(solved.state)) {
     ctx.report({
       code: 'no-solution',
       severity: 'error',
       message: `${what}: the mixed state could not be computed; check the streams`,
-      span: streamsSpan,
+      span: spanUnion(...streams.map((s) => s.span)),
     });
-    return result;
+    return null;
   }
-  result.state = solved.state;
   for (const warn of solved.warnings) {
     if (warn.code === 'supersaturated') {
       ctx.report({
@@ -341,18 +424,7 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       ctx.report(problemDiagnostic(warn, 'warning', spans, fallback, what));
     }
   }
-  if (claimProps.props.length > 0) {
-    result.claims = stateClaims(
-      ctx,
-      claimProps.props,
-      solved.state,
-      () =>
-        `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`,
-    );
-  }
-  if (totalClaim) result.claims = [...result.claims, totalClaim];
-  void owner;
-  return result;
+  return solved.state;
 }
 
 /** `total=`: a dry-air mass flow or a volume flow, positive; null after a diagnostic. */
