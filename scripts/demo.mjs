@@ -24,7 +24,7 @@ function dewmark(args) {
   return r.status;
 }
 
-rule('1. AHU-1 at 1600 m: every state, mix and process of the calculation note');
+rule('1. AHU-1 at 1600 m: the calculation as one chain, from the loads to every coil');
 dewmark(['eval', 'examples/kestrel-ridge-ahu1.md']);
 
 rule('2. The meeting-room note: its evaluated states');

@@ -7,7 +7,7 @@
  * (ASHRAE HoF 2017 SI Ch.1 eq 3). Every state and mix here is of an invented building.
  */
 import { describe, expect, it } from 'vitest';
-import { analyse, fence, near, psy, spanText, stateOf, stateResult, withCode } from './evaluate-helpers';
+import { analyse, fence, near, processOf, psy, spanText, stateOf, stateResult, withCode } from './evaluate-helpers';
 
 const P0 = 101325;
 
@@ -190,7 +190,21 @@ describe('bad references get one clear error each, on the offending token', () =
       ['state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'process P: OA -> RA m=OA.w'],
       'bad-reference',
       'OA.w',
-      /process P takes figures only/,
+      /process P goes between two states defined above.*a reference defines a state.*give the leaving state a new name/,
+    ],
+    [
+      'on a process that defines its leaving state, beside the equipment (it could only be a claim)',
+      ['state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'process HC: RA -> HCOFF m=1kg/s heat=2kW db=OA.db'],
+      'bad-reference',
+      'db=OA.db',
+      /db=OA\.db would be a claim about HCOFF, which heat=2kW already fixes.*write db= as a figure/,
+    ],
+    [
+      'in the specification of a process (only the leaving state’s properties)',
+      ['state OA: db=30C rh=40%', 'state RA: db=24C rh=50%', 'process CC: RA -> OFF adp=OA.dp bf=0.1'],
+      'bad-reference',
+      'adp',
+      /only db, wb, dp, rh, w, h can be taken from another state; write adp= as a figure/,
     ],
     [
       'three references',
@@ -251,5 +265,57 @@ describe('bad references get one clear error each, on the offending token', () =
       "syntax OA.db*2: 'OA.db*2' is not a property reference: write OA.db, or add or subtract a difference with its unit (OA.db+0.8K); no other arithmetic",
       "missing-value +: '+' needs a difference after the sign: write db=OA.db+0.8K (+ or − a difference with its unit)",
     ]);
+  });
+});
+
+describe('a process that defines its leaving state takes references for that state', () => {
+  // The design chain of an invented exhibition hall: the coil dries the mixed air to the supply
+  // air's moisture content, the heater warms to a temperature taken from another state.
+  const chain = (oaWb: string) =>
+    fence(
+      `state OA: db=32C wb=${oaWb}`,
+      'state RA: db=24C rh=50%',
+      'mix MA: OA 1kg/s + RA 3kg/s',
+      'supply SA: RA q_sensible=40kW q_latent=10kW m=4kg/s',
+      'process CC: MA -> OFF db=11.5C w=SA.w',
+      'process RH: OFF -> RHOFF db=SA.db-0.5K',
+      'process HU: RA -> HUOFF steam w=SA.w+1g/kg',
+    );
+
+  it('the leaving state takes the referenced value exactly, and its sources name the state', () => {
+    const a = analyse(chain('16.5C'));
+    expect(a.diagnostics).toEqual([]);
+    const sa = stateOf(a, 'SA');
+    const off = stateResult(a, 'OFF');
+    // A reference is the referenced state's computed property (docs/notation.md, References).
+    expect(off.state!.w).toBe(sa.w);
+    near(off.state!.db, 11.5, { abs: 1e-12 }, 'db as written');
+    expect(off.defining).toEqual(['db', 'w']);
+    expect(off.sources).toEqual([{ key: 'w', from: 'SA', fromKey: 'w', offsetSI: 0, valueSI: sa.w }]);
+    expect(off.definedBy?.spec).toBe('db=11.5C w=SA.w');
+    // A heater by leaving dry-bulb keeps W (ASHRAE HoF 2017 SI Ch.1: sensible heating, W unchanged).
+    const rh = stateResult(a, 'RHOFF');
+    near(rh.state!.db, sa.db - 0.5, { abs: 1e-12 }, 'SA.db − 0.5 K');
+    expect(rh.state!.w).toBe(off.state!.w);
+    expect(rh.sources?.map((x) => [x.key, x.from, x.offsetSI])).toEqual([['db', 'SA', -0.5]]);
+    // A steam humidifier to a target W: the leaving W is the target (docs/notation.md, steam humidifier).
+    near(stateOf(a, 'HUOFF').w, sa.w + 0.001, { abs: 1e-15 }, 'SA.w + 1 g/kg');
+    // The coil takes the mix's flow (1 + 3 kg/s) and removes W_MA − W_OFF of water per kg of dry air
+    // (dry-air mass balance, ASHRAE HoF 2017 SI Ch.1 "moist-air cooling and dehumidification").
+    const cc = processOf(a, 'CC');
+    near(cc.massFlowKgS!, 4, { abs: 1e-12 }, 'mix flow');
+    near(cc.waterKgS!, 4 * (sa.w - stateOf(a, 'MA').w), { rel: 1e-12 }, 'ṁ ΔW');
+  });
+
+  it('a change upstream changes the leaving state and the processes after it', () => {
+    const before = analyse(chain('16.5C'));
+    const after = analyse(chain('20C'));
+    // OA feeds MA, so the coil's duty moves; OFF itself is fixed by db= and SA.w, which OA does not reach.
+    expect(processOf(after, 'CC').qTotalW).not.toBe(processOf(before, 'CC').qTotalW);
+    expect(stateOf(after, 'OFF').w).toBe(stateOf(before, 'OFF').w);
+    // A room state change reaches SA, then OFF, RHOFF and HUOFF through the references.
+    const drier = analyse(chain('16.5C').replace('state RA: db=24C rh=50%', 'state RA: db=24C rh=48%'));
+    expect(drier.diagnostics).toEqual([]);
+    for (const n of ['SA', 'OFF', 'RHOFF', 'HUOFF']) expect(stateOf(drier, n).h, n).not.toBe(stateOf(before, n).h);
   });
 });

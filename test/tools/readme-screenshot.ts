@@ -40,7 +40,7 @@ async function main(): Promise<void> {
     await wb.openFile(NOTE);
     await wb.page.keyboard.press('Control+B'); // hide the side bar: more room for the note
     await wb.page.keyboard.press('Control+G');
-    await wb.page.keyboard.insertText('44');
+    await wb.page.keyboard.insertText('42');
     await wb.page.keyboard.press('Enter');
     await wb.waitForEditorLine(/^state OA: .*dp /);
     await wb.hover('OA', { line: 'state OA:', expect: 'humidity ratio' });

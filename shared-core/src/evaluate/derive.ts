@@ -429,7 +429,19 @@ export function deriveLeaving(
         out = { state, equipment: { form: 'heater', spec }, defining: ['db'], used: [only], adp: null, claims: [] };
         break;
       }
-      const pairs = candidatePairs(defs);
+      // A reference always defines: the pair holds every reference (as on a state line).
+      const refs = defs.filter((d) => d.ref);
+      if (refs.length > 2) {
+        ctx.report({
+          code: 'bad-reference',
+          severity: 'error',
+          message: `${what}: ${writtenList(refs)} are ${refs.length} properties of ${toName} taken from other states, but two fix a state and a reference always defines; write the others as figures (claims)`,
+          span: spanUnion(...refs.slice(2).map((d) => d.prop.span)),
+        });
+        return null;
+      }
+      let pairs = candidatePairs(defs);
+      if (refs.length > 0) pairs = pairs.filter(([x, y]) => refs.every((r) => r === x || r === y));
       if (pairs.length === 0)
         return missing(
           `${writtenList(defs)} fix the same thing (the moisture content) twice; add db= to fix ${toName}`,
@@ -488,7 +500,21 @@ export function deriveLeaving(
     ...(word ? [word.text] : []),
     ...used.map((p) => `${p.key}=${p.q.quantity.number.text}${p.q.unitText}`),
   ].join(' ');
-  const claimProps = props.filter((p) => STATE_KEY_SET.has(p.key) && !used.includes(p));
+  const claimProps: ReadProp[] = [];
+  for (const p of props) {
+    if (!STATE_KEY_SET.has(p.key) || used.includes(p)) continue;
+    if (!p.ref) {
+      claimProps.push(p);
+      continue;
+    }
+    // A reference defines; beside equipment that fixes the state, it could only be a claim.
+    ctx.report({
+      code: 'bad-reference',
+      severity: 'error',
+      message: `${what}: ${p.key}=${p.q.quantity.number.text} would be a claim about ${toName}, which ${out.equipment.spec || 'the specification'} already fixes, and a reference always defines; write ${p.key}= as a figure to check it, or drop the equipment to define ${toName} from its properties`,
+      span: p.prop.span,
+    });
+  }
   if (claimProps.length > 0)
     out.claims = stateClaims(
       ctx,

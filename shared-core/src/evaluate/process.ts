@@ -20,6 +20,7 @@ import { enteringState } from './mix';
 import { kPaText } from './pressure';
 import type { ReadProp } from './props';
 import { readProps } from './props';
+import { sourcesOf } from './refs';
 import { checkClaim } from './claims';
 import type { ClaimResult, ProcessKind, ProcessResult, StateResult } from './types';
 import { formatSig } from './util';
@@ -100,7 +101,13 @@ export function evaluateProcess(
   const none: ProcessOutcome = { leaving: null, process: null };
   const name = stmt.name?.text ?? '';
   const what = name ? `process ${name}` : 'this process';
-  const { props } = readProps(ctx, stmt.props, PROCESS_KEYS, what, { statement: stmt, index, allowed: false });
+  // A process that defines its leaving state takes references for that state's properties
+  // (`process CC: MA -> OFF w=SA.w rh=95%`); a process between two defined states takes figures.
+  const { props, broken } = readProps(ctx, stmt.props, PROCESS_KEYS, what, {
+    statement: stmt,
+    index,
+    allowed: derives,
+  });
   if (!stmt.from || !stmt.to) return none; // the parser reported the syntax
 
   // 1. Resolve: the entering state, and the leaving one (or a note that a specification cannot apply).
@@ -127,6 +134,9 @@ export function evaluateProcess(
 
   // 2. Amounts: the dry-air flow (a heater by duty needs it to define the leaving state).
   const flow = processFlow(ctx, props, from, what);
+  // A specification key that could not be read is reported already; what is left of the
+  // specification would only give a second, misleading message (`bf=` without `adp=`).
+  if (broken.some((k) => DERIVE_KEY_NAMES.has(k))) return none;
 
   // Define the leaving state from the specification.
   const derivation = deriveLeaving(ctx, stmt, what, props, from, flow.massFlow);
@@ -142,6 +152,8 @@ export function evaluateProcess(
     massFlowKgS: flow.massFlow,
     definedBy: { statement: 'process', name, from: from.name, spec: derivation.equipment.spec, nameSpan: stmt.to.span },
   };
+  const sources = sourcesOf(derivation.used);
+  if (sources) leaving.sources = sources;
 
   // 3. Convert, 4. balance, 5. claims.
   const result = buildProcessResult(ctx, stmt, name, from, leaving, flow, what);

@@ -128,9 +128,12 @@ export function readReference(
   if (!site.allowed) {
     // Still a use of the name (rename and find-references follow it), but not a value here.
     ctx.references.push({ name: ref.state.text, span: ref.state.span, statement: site.statement });
+    const between = site.statement.keyword === 'process';
     return bad(
       ctx,
-      `${what} takes figures only: ${written} cannot be used here; references define state properties (in state and supply lines). Write the figure itself`,
+      between
+        ? `${what} goes between two states defined above, so its figures are claims and ${written} cannot be used here: a reference defines a state. Write the figure itself, or give the leaving state a new name so that the process defines it from ${written}`
+        : `${what} takes figures only: ${written} cannot be used here; references define state properties (in state and supply lines, and the leaving state of a process that defines it). Write the figure itself`,
       ref.span,
     );
   }

@@ -407,7 +407,12 @@ function statementHover(note: Note, statement: Statement, span: Span): HoverInfo
  */
 function propertyRefHover(note: Note, statement: Statement, prop: PropertyNode, span: Span): HoverInfo {
   const system = note.analysis.units;
-  const item = itemOf(note, statement);
+  let item = itemOf(note, statement);
+  // On a process that defines its leaving state, the references are that state's.
+  if (item?.kind === 'process' && statement.keyword === 'process' && statement.to) {
+    const leaving = note.analysis.byName.get(statement.to.text);
+    item = leaving?.statement === statement ? leaving : undefined;
+  }
   const src = item && item.kind !== 'process' ? item.sources?.find((s) => s.key === prop.key) : undefined;
   const written = code(note.text.slice(prop.span.start, prop.span.end));
   const dim = SOURCE_DIMENSION[prop.key];
