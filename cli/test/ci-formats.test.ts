@@ -120,6 +120,24 @@ describe('text output is sanitised', () => {
     expect(option.err).toContain("unknown option '--zz\\n::error::x'");
   });
 
+  it('report and chart print the note and the written file on one line, escaped', () => {
+    mkdirSync(join(dir, 'out'), { recursive: true });
+    for (const [command, ext] of [
+      ['report', 'html'],
+      ['chart', 'svg'],
+    ] as const) {
+      const output = join('out', `r\n::error::written\u001b[2J.${ext}`);
+      const r = dewmark([command, join('hostile', HOSTILE_NAME), '-o', output]);
+      expect(r.code, r.err).toBe(1); // the note has an error (wet-bulb above dry-bulb); the file is still written
+      expect(existsSync(join(dir, output))).toBe(true);
+      expect(commandLines(r.out + r.err)).toEqual([]);
+      expect(r.out + r.err).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f]/);
+      expect(r.err).toContain(
+        `dewmark: wrote out/r\\n::error::written\\x1b[2J.${ext} (hostile/x\\n::error file=a.md::injected\\x1b[2J.md: 1 error`,
+      );
+    }
+  });
+
   it('note text with an escape sequence is shown escaped in eval tables and messages', () => {
     const r = dewmark(['eval', join('hostile', 'text.md')]);
     expect(r.out + r.err).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f]/);

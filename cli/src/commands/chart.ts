@@ -2,7 +2,7 @@
 import type { Command } from 'commander';
 import { renderChart } from '@dewmark/core/chart';
 import type { CliIO } from '../run';
-import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, type WriteOptions } from './outputFile';
+import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, wroteLine, type WriteOptions } from './outputFile';
 
 /** The chart of a note as a standalone SVG document (XML declaration, then the `<svg>`). */
 export function chartSvgDocument(note: {
@@ -19,7 +19,7 @@ export async function runChart(paths: string[], opts: WriteOptions, io: CliIO): 
   const out = checkOutputPath(opts.output, note, io.cwd, 'chart', 'chart.svg');
   writeOutput(out, opts.output!, chartSvgDocument(note));
   const errors = note.analysis.diagnostics.filter((d) => d.severity === 'error').length;
-  io.err(`dewmark: wrote ${opts.output} (${note.path}: ${errors} error${errors === 1 ? '' : 's'})\n`);
+  io.err(wroteLine(opts.output!, note.path, `${errors} error${errors === 1 ? '' : 's'}`));
   return exitCodeOf(note.analysis);
 }
 

@@ -7,6 +7,7 @@ import { basename, dirname, join, resolve } from 'node:path';
 import { analyzeNote, type Analysis } from '../core';
 import { STDIN_PATH, collectInputs, decodeText, readInput } from '@dewmark/files';
 import type { CliIO } from '../run';
+import { safeText } from '../sanitize';
 import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from '../settings';
 
 /** One note read and analysed. */
@@ -189,6 +190,15 @@ export function writeOutput(abs: string, shown: string, content: string): void {
             : (err as Error).message;
     throw new UsageError(`cannot write '${shown}': ${why}`);
   }
+}
+
+/**
+ * The line `report` and `chart` print once the file is written: `dewmark: wrote OUTPUT (NOTE: DETAIL)`,
+ * both paths sanitised, so that a file name holding a newline or an escape sequence stays on the
+ * one line and can neither start a workflow command nor move the terminal's cursor.
+ */
+export function wroteLine(shown: string, notePath: string, detail: string): string {
+  return `dewmark: wrote ${safeText(shown)} (${safeText(notePath)}: ${detail})\n`;
 }
 
 /** Exit code after a file was written: 1 when the note has errors (the file is still written), else 0. */

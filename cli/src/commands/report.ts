@@ -25,7 +25,7 @@ import {
   type UnitSystem,
 } from '../core';
 import type { CliIO } from '../run';
-import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, type WriteOptions } from './outputFile';
+import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, wroteLine, type WriteOptions } from './outputFile';
 
 /** Escapes text for HTML content and attribute values. */
 export function escapeHtml(s: string): string {
@@ -410,7 +410,11 @@ export async function runReport(paths: string[], opts: WriteOptions, io: CliIO, 
   writeOutput(out, opts.output!, renderReportHtml(note, { version }));
   const errors = note.analysis.diagnostics.filter((d) => d.severity === 'error').length;
   io.err(
-    `dewmark: wrote ${opts.output} (${note.path}: ${errors} error${errors === 1 ? '' : 's'}, ${note.analysis.diagnostics.length - errors} other diagnostic${note.analysis.diagnostics.length - errors === 1 ? '' : 's'})\n`,
+    wroteLine(
+      opts.output!,
+      note.path,
+      `${errors} error${errors === 1 ? '' : 's'}, ${note.analysis.diagnostics.length - errors} other diagnostic${note.analysis.diagnostics.length - errors === 1 ? '' : 's'}`,
+    ),
   );
   return exitCodeOf(note.analysis);
 }
