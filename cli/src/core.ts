@@ -12,6 +12,7 @@ export { stdAtmPressure } from '@dewmark/core/physics';
 export {
   DEFAULT_SERVICE_SETTINGS,
   findProjectConfig,
+  readProjectSettings,
   readSettings,
   resultsTableEdits,
   toEvaluateSettings,

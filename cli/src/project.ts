@@ -6,10 +6,10 @@
  */
 import { readFileSync } from 'node:fs';
 import { dirname, isAbsolute, join, relative, sep } from 'node:path';
-import { patternMatcher, type Input } from '@dewmark/files';
+import { projectFilter, type Input, type LeftOutByProject } from '@dewmark/files';
 import {
   findProjectConfig,
-  readSettings,
+  readProjectSettings,
   toEvaluateSettings,
   type ConfigFileSystem,
   type EvaluateSettings,
@@ -22,6 +22,8 @@ export interface ProjectSelection {
   tasks: { input: Input; settings: Partial<EvaluateSettings> }[];
   /** Inputs left out by a project file's include/exclude. */
   excluded: number;
+  /** The first input left out, the project file (as shown) and why: for the message when nothing is left. */
+  firstLeftOut?: { display: string; file: string; why: string };
   /** Problems of the project files, each naming the file (exit code 2). */
   problems: string[];
 }
@@ -35,13 +37,10 @@ function displayPath(abs: string, cwd: string): string {
 
 /** A project file's settings as evaluator settings (its problems are added to `problems`). */
 function settingsOf(config: ProjectConfig, cwd: string, problems: string[]): Partial<EvaluateSettings> {
-  const { settings, problems: own } = readSettings(config.section);
   const shown = displayPath(config.path, cwd);
+  const { settings, problems: own } = readProjectSettings(null, config, shown);
   for (const p of [...config.problems, ...own]) problems.push(`${shown}: ${p.replace(/^dewmark\./, '')}`);
-  const out = toEvaluateSettings(settings);
-  if (settings.site.written !== 'default')
-    out.pressureOrigin = `${shown}: ${settings.site.kind} ${settings.site.written}${settings.site.kind === 'elevation' ? ' (standard atmosphere):' : ', i.e.'}`;
-  return out;
+  return toEvaluateSettings(settings);
 }
 
 /**
@@ -71,8 +70,7 @@ export function selectWithProjects(inputs: Input[], cwd: string, cli: Partial<Ev
     ProjectConfig,
     {
       settings: Partial<EvaluateSettings>;
-      include: ((abs: string) => boolean) | null;
-      exclude: ((abs: string) => boolean) | null;
+      leftOut: (abs: string) => LeftOutByProject | null;
     }
   >();
   const problems: string[] = [];
@@ -92,13 +90,14 @@ export function selectWithProjects(inputs: Input[], cwd: string, cli: Partial<Ev
     if (!p) {
       p = {
         settings: settingsOf(config, cwd, problems),
-        include: config.include.length > 0 ? patternMatcher(config.include, config.dir) : null,
-        exclude: config.exclude.length > 0 ? patternMatcher(config.exclude, config.dir) : null,
+        leftOut: projectFilter(config),
       };
       perConfig.set(config, p);
     }
-    if (input.abs !== null && ((p.include && !p.include(input.abs)) || p.exclude?.(input.abs))) {
+    const left = input.abs === null ? null : p.leftOut(input.abs);
+    if (left) {
       out.excluded++;
+      out.firstLeftOut ??= { display: input.display, file: displayPath(config.path, cwd), why: left.why };
       continue;
     }
     out.tasks.push({ input, settings: { ...p.settings, ...cli } });

@@ -122,8 +122,11 @@ async function analyse(
   );
   if (progress) io.err('\r\x1b[K');
   if (inputs.length > 0 && project.tasks.length === 0 && problems.length === 0) {
+    const first = project.firstLeftOut;
     io.err(
-      `dewmark: all ${inputs.length} Markdown file(s) found are left out by the include/exclude patterns of dewmark.json\n`,
+      inputs.length === 1 && first
+        ? `dewmark: '${safeText(first.display)}' is left out by ${safeText(first.file)}: ${safeText(first.why)}\n`
+        : `dewmark: all ${inputs.length} Markdown file(s) found are left out by the include/exclude patterns of dewmark.json\n`,
     );
     totals.ioProblems++;
   }

@@ -117,7 +117,25 @@ describe('dewmark.json on the command line', () => {
     expect(r.files.map((f) => f.path)).toEqual(['included/calcs/a.md']);
     const none = dewmark(['check', 'none']);
     expect(none.code).toBe(2);
-    expect(none.err).toContain('left out by the include/exclude patterns of dewmark.json');
+    // One file found: the message names it, the project file and the pattern.
+    expect(none.err).toContain(
+      '\'none/room.md\' is left out by none/dewmark.json: its exclude pattern "**/*.md" matches it',
+    );
+    write('none/second.md', ROOM);
+    const two = dewmark(['check', 'none']);
+    expect(two.code).toBe(2);
+    expect(two.err).toContain(
+      'all 2 Markdown file(s) found are left out by the include/exclude patterns of dewmark.json',
+    );
+  });
+
+  it('a folder name in exclude leaves out every note below it, as "folder/**" does', () => {
+    write('bare/dewmark.json', JSON.stringify({ exclude: ['archive'] }));
+    write('bare/archive/2019/old.md', OLD);
+    write('bare/calcs/archive.md', ROOM); // a bare name matches a whole name at any depth: archive.md is not archive
+    write('bare/calcs/room.md', ROOM);
+    const r = json(['check', '--format', 'json', 'bare']);
+    expect(r.files.map((f) => f.path)).toEqual(['bare/calcs/archive.md', 'bare/calcs/room.md']);
   });
 
   it('a broken file or an unknown key is an exit-2 message naming the file and the fix', () => {

@@ -317,6 +317,10 @@ async function checkWorkspace(ctl: ServerController): Promise<void> {
         if (r.unreadable.length > 0)
           text += ` ${plural(r.unreadable.length, 'file')} could not be read (see Output → Dewmark).`;
         for (const u of r.unreadable) ctl.client.warn(`could not read ${u.uri}: ${u.reason}`);
+        const excluded = r.excluded ?? [];
+        if (excluded.length > 0)
+          text += ` ${plural(excluded.length, 'file')} left out by dewmark.json (see Output → Dewmark).`;
+        for (const e of excluded) ctl.client.info(`left out ${e.uri}: ${e.reason}`);
         const skipped = r.skippedFolders ?? [];
         if (skipped.length > 0)
           text += ` ${plural(skipped.length, 'workspace folder')} skipped (see Output → Dewmark).`;

@@ -35,6 +35,11 @@ export interface CheckWorkspaceResult {
   unreadable: { uri: string; reason: string }[];
   /** Workspace folders not searched (not on this machine's file system), with the reason. */
   skippedFolders: { uri: string; reason: string }[];
+  /**
+   * Markdown files their project file `dewmark.json` leaves out (include/exclude), as `dewmark
+   * check` does: not read, no diagnostics, not counted in `filesRead`; `reason` names the file and pattern.
+   */
+  excluded: { uri: string; reason: string }[];
 }
 
 /** Method of the note-status request: unit system and pressure basis of one open note. */

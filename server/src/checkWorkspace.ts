@@ -3,7 +3,7 @@
  * folders (reading only; nothing is written), analyses it, and pushes its diagnostics. The notes
  * are the ones `dewmark check <folder>` reads (`@dewmark/files`: .gitignore and
  * .git/info/exclude honoured, node_modules and hidden folders left out, links not followed), read
- * the same way. Reports work-done progress and stops between folders and files when cancelled.
+ * the same way; a note its project file `dewmark.json` leaves out is listed as excluded and not read. Reports work-done progress and stops between folders and files when cancelled.
  */
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import type { CancellationToken, WorkDoneProgressReporter } from 'vscode-languageserver/node';
@@ -83,6 +83,7 @@ export function registerCheckWorkspace(ctx: ServerContext, diagnostics: Diagnost
             warnings: 0,
             unreadable: [],
             skippedFolders: [],
+            excluded: [],
           };
           const local: string[] = [];
           for (const folder of ctx.folders) {
@@ -101,6 +102,14 @@ export function registerCheckWorkspace(ctx: ServerContext, diagnostics: Diagnost
             const uri = pathToFileURL(path).href;
             progress.report(Math.round((100 * i) / files.length), `${i + 1}/${files.length} ${path.slice(-60)}`);
             const open = await ctx.notes.get(uri);
+            // A note its dewmark.json leaves out is not checked, as by `dewmark check` (an open one
+            // shows the note-excluded information instead of its problems).
+            const settings = open ? open.note.settings : await ctx.config.get(uri);
+            if (settings.excludedBy) {
+              result.excluded.push({ uri, reason: `${settings.excludedBy.file}: ${settings.excludedBy.why}` });
+              if (!open) diagnostics.clearClosed(uri);
+              continue;
+            }
             let doc: TextDocument;
             let note: Note;
             if (open) {
@@ -112,7 +121,7 @@ export function registerCheckWorkspace(ctx: ServerContext, diagnostics: Diagnost
                 continue;
               }
               doc = TextDocument.create(uri, 'markdown', 0, read.text);
-              note = analyzeText(read.text, await ctx.config.get(uri));
+              note = analyzeText(read.text, settings);
             }
             result.filesRead++;
             // A file without statements and without problems is prose; one with a problem but no

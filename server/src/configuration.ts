@@ -27,6 +27,7 @@ import {
   type ServiceSettings,
 } from '@dewmark/core/service';
 import { SETTINGS_SECTION } from '@dewmark/protocol';
+import { projectScope } from './projectScope';
 
 /** Per-document settings with change notification. */
 export class Configuration {
@@ -42,6 +43,8 @@ export class Configuration {
   private readonly listeners: (() => void)[] = [];
   /** Bumped on every change, so caches keyed on it go stale. */
   generation = 0;
+  /** The workspace folders' URIs, kept current by the server: project files are named relative to them. */
+  folders: () => readonly string[] = () => [];
 
   constructor(private readonly connection: Connection) {}
 
@@ -112,7 +115,7 @@ export class Configuration {
           );
       p = section.then((raw) => {
         const project = this.projectFor(uri);
-        return this.read(mergeSection(raw as Record<string, unknown> | null, project), project);
+        return this.read(mergeSection(raw as Record<string, unknown> | null, project), project, uri);
       });
       this.perUri.set(uri, p);
     }
@@ -152,8 +155,10 @@ export class Configuration {
     this.perUri.delete(uri);
   }
 
-  private read(raw: unknown, project: ProjectConfig | null): ServiceSettings {
+  private read(raw: unknown, project: ProjectConfig | null, uri?: string): ServiceSettings {
     const { settings, problems } = readSettings(raw);
+    // Where the file's values came from (hovers name it), and whether its include/exclude leave the note out.
+    if (project && uri !== undefined) Object.assign(settings, projectScope(project, uri, this.folders()));
     const named = project ? [...project.problems.map((p) => `${project.path}: ${p}`), ...problems] : problems;
     for (const problem of named) {
       if (this.reported.has(problem)) continue;

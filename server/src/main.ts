@@ -86,6 +86,7 @@ export function main(argv: readonly string[]): void {
     client: readClientFeatures({}),
     folders: [],
   };
+  config.folders = () => ctx.folders;
   const diagnostics = new Diagnostics(ctx);
 
   let folderEvents = false;

@@ -5,7 +5,10 @@
  * .gitignore, a nested .gitignore and .git/info/exclude leave out, node_modules, a hidden folder,
  * symbolic links (into the tree and out of it), a binary file, a non-Markdown file, prose
  * without statements, and a fence whose only line does not parse (an error but no statement —
- * Check All used to skip it and report one error fewer than the command line).
+ * Check All used to skip it and report one error fewer than the command line). Project files
+ * `dewmark.json` leave notes out for both alike: the root one excludes the folder `archive`, the
+ * nearer one in `sub/` (which replaces it there) includes only `kept.markdown`; an excluded note
+ * opened in the editor shows one information message saying so instead of its problems.
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
@@ -34,6 +37,11 @@ const files: Record<string, string | Buffer> = {
   'sub/.gitignore': 'local.md\n',
   'sub/local.md': ERROR_NOTE,
   'sub/kept.markdown': 'Held at `state B: db=24C w=9.3g/kg rh=80%` overnight.\n',
+  'dewmark.json': JSON.stringify({ exclude: ['archive'] }),
+  'archive/old.md': ERROR_NOTE,
+  'archive/2019/older.md': ERROR_NOTE,
+  'sub/dewmark.json': JSON.stringify({ include: ['kept.markdown'] }),
+  'sub/skipped.md': ERROR_NOTE,
 };
 
 let root = '';
@@ -104,6 +112,13 @@ describe('the CLI and Check All agree on the notes of a folder', () => {
         unreadable: cli.summary.unreadable,
       });
       expect(result.unreadable.map((u) => rel(u.uri))).toEqual(['binary.md']);
+      // The notes the project files leave out: not read, not counted, no diagnostics pushed.
+      expect(result.excluded.map((e) => [rel(e.uri), e.reason])).toEqual([
+        ['archive/2019/older.md', 'dewmark.json: its exclude pattern "archive" matches it'],
+        ['archive/old.md', 'dewmark.json: its exclude pattern "archive" matches it'],
+        ['sub/skipped.md', 'sub/dewmark.json: its include pattern "kept.markdown" does not match it'],
+      ]);
+      expect(s.published.filter((p) => /\/(archive\/|sub\/skipped)/.test(p.uri))).toEqual([]);
       expect(result.unreadable[0]!.reason).toContain('is a binary file');
       // The notes listed are the files with statements or problems; prose.md is read but not a note.
       expect(result.notes.map((n) => rel(n.uri))).toEqual(['bad.md', 'good.md', 'sub/kept.markdown', 'syntax-only.md']);
@@ -114,6 +129,49 @@ describe('the CLI and Check All agree on the notes of a folder', () => {
       expect(result.notes.find((n) => rel(n.uri) === 'syntax-only.md')).toMatchObject({ errors: 1, statements: 0 });
       const pushed = s.published.find((p) => p.uri.endsWith('/syntax-only.md'));
       expect(pushed?.diagnostics).toHaveLength(1);
+      expect(await s.shutdown()).toBe(0);
+    } finally {
+      s.kill();
+    }
+  });
+
+  it('an excluded note named on the command line is left out; opened in the editor, it says so instead of its problems', async () => {
+    const r = spawnSync(
+      process.execPath,
+      [join(repoRoot(), 'dist', 'cli.js'), 'check', '--format', 'json', join('archive', 'old.md')],
+      { cwd: root, encoding: 'utf8' },
+    );
+    expect(r.status).toBe(2);
+    expect(r.stderr).toContain(
+      '\'archive/old.md\' is left out by dewmark.json: its exclude pattern "archive" matches it',
+    );
+    expect((JSON.parse(r.stdout) as CliJson).files).toEqual([]);
+
+    const s = startServer();
+    try {
+      const folder = pathToFileURL(root).href;
+      await s.initialize(FULL_CAPABILITIES, { workspaceFolders: [{ uri: folder, name: 'ws' }] });
+      const uri = `${folder}/archive/old.md`;
+      await s.open(uri, ERROR_NOTE, 1);
+      const shown = await s.request<{ items: { code: string; severity: number; message: string }[] }>(
+        'textDocument/diagnostic',
+        { textDocument: { uri } },
+      );
+      expect(shown.items.map((d) => [d.code, d.severity])).toEqual([['note-excluded', 3]]);
+      expect(shown.items[0]!.message).toContain(
+        'This note is left out by dewmark.json: its exclude pattern "archive" matches it. `dewmark check` and Check All do not check it',
+      );
+      // The same note outside the excluded folder has its error.
+      const kept = `${folder}/bad.md`;
+      await s.open(kept, ERROR_NOTE, 1);
+      const other = await s.request<{ items: { code: string }[] }>('textDocument/diagnostic', {
+        textDocument: { uri: kept },
+      });
+      expect(other.items.map((d) => d.code)).toEqual(['wb-above-db']);
+      // Check All counts the open excluded note as excluded too.
+      const result = await s.request<CheckWorkspaceResult>('dewmark/checkWorkspace', {});
+      expect(result.excluded.map((e) => e.uri)).toContain(uri);
+      expect(result.notes.map((n) => n.uri)).not.toContain(uri);
       expect(await s.shutdown()).toBe(0);
     } finally {
       s.kill();

@@ -60,6 +60,48 @@ describe('dewmark.json in the language server', () => {
     }
   });
 
+  it('the hover names the project file a value came from, relative to the workspace folder', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'dewmark-lsp-project-'));
+    dirs.push(dir);
+    mkdirSync(join(dir, 'calcs', 'roof'), { recursive: true });
+    writeFileSync(join(dir, 'dewmark.json'), JSON.stringify({ pressure: '84 kPa' }));
+    writeFileSync(join(dir, 'calcs', 'room.md'), NOTE);
+    // The nearest file wins: the roof notes take their site and claims setting from calcs/roof/.
+    writeFileSync(
+      join(dir, 'calcs', 'roof', 'dewmark.json'),
+      JSON.stringify({ elevation: '1600 m', checkClaims: false }),
+    );
+    writeFileSync(join(dir, 'calcs', 'roof', 'ahu.md'), NOTE);
+    const room = pathToFileURL(join(dir, 'calcs', 'room.md')).href;
+    const roof = pathToFileURL(join(dir, 'calcs', 'roof', 'ahu.md')).href;
+    const s = startServer();
+    try {
+      await s.initialize(PUSH_ONLY_CAPABILITIES, {
+        workspaceFolders: [{ uri: pathToFileURL(dir).href, name: 'ws' }],
+        initializationOptions: { dewmark: { pressure: '95 kPa' } }, // the editor's, overridden by both files
+      });
+      const hoverAt = async (uri: string) => {
+        await s.open(uri, NOTE, 1);
+        await s.diagnosticsFor(uri, 1);
+        const h = await s.request<{ contents: { value: string } }>('textDocument/hover', {
+          textDocument: { uri },
+          position: { line: 1, character: 7 },
+        });
+        return h.contents.value;
+      };
+      const atRoom = await hoverAt(room);
+      expect(atRoom).toMatch(/Pressure: 84(\.0+)? kPa — dewmark\.json: pressure 84 kPa/);
+      expect(atRoom).not.toContain('setting dewmark.pressure');
+      expect(atRoom).toContain('✗ computed'); // claims checked (the editor default)
+      const atRoof = await hoverAt(roof);
+      expect(atRoof).toContain('calcs/roof/dewmark.json: elevation 1600 m (standard atmosphere)');
+      expect(atRoof).toContain('Claims: not checked (checkClaims is false in calcs/roof/dewmark.json).');
+      expect(atRoof).not.toContain('setting dewmark.');
+    } finally {
+      await s.shutdown();
+    }
+  });
+
   it('a broken project file is reported with its path, and the editor settings still apply', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'dewmark-lsp-project-'));
     dirs.push(dir);

@@ -4,12 +4,17 @@
  * (the evaluator skips them when `checkClaims` is off).
  */
 import type { CoreDiagnostic } from '../notation/ast';
+import { excludedDiagnostic } from './excluded';
 import { limitDiagnostic } from './limits';
 import type { Note } from './types';
 
-/** The diagnostics to report for a note (for a note over the size limit, the one that says so). */
+/**
+ * The diagnostics to report for a note (for a note over the size limit, or one its project file
+ * leaves out, the one that says so).
+ */
 export function noteDiagnostics(note: Note): CoreDiagnostic[] {
   if (note.limited) return [limitDiagnostic(note)];
+  if (note.settings.excludedBy) return [excludedDiagnostic(note)];
   if (note.settings.checkClaims) return note.analysis.diagnostics;
   return note.analysis.diagnostics.filter((d) => d.code !== 'claim-mismatch');
 }

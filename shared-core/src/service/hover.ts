@@ -77,7 +77,12 @@ function claimsBlock(note: Note, item: EvaluatedItem): string[] {
   if (!note.settings.checkClaims) {
     const defining = new Set<string>(item.kind === 'process' ? [] : item.defining);
     const written = propsOf(item.statement).some((p) => !defining.has(p.key) && !NOT_CLAIMS.has(p.key));
-    return written ? ['Claims: not checked (setting dewmark.checkClaims is off).'] : [];
+    const file = note.settings.sources?.checkClaims;
+    return written
+      ? [
+          `Claims: not checked (${file ? `checkClaims is false in ${md(file)}` : 'setting dewmark.checkClaims is off'}).`,
+        ]
+      : [];
   }
   if (claims.length === 0) return [];
   return ['Claims:', ...claims.map((c) => `- ${claimVerdict(note, c)}`)];

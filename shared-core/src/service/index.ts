@@ -5,7 +5,7 @@
  * Use: `const note = analyzeText(text, settings)` once per document version, then call the
  * features with the note, an offset or span, and optionally a cancellation flag.
  */
-export type { CancellationFlag, DefaultSite, Edit, HintKey, Note, ServiceSettings } from './types';
+export type { CancellationFlag, DefaultSite, Edit, HintKey, Note, ServiceSettings, SourcedSetting } from './types';
 export { HINT_KEYS } from './types';
 export type { Span } from '../text/types';
 export type { CoreDiagnostic } from '../notation/ast';
@@ -14,6 +14,8 @@ export {
   findProjectConfig,
   mergeSection,
   parseProjectConfig,
+  projectSources,
+  readProjectSettings,
   PROJECT_FILE,
   PROJECT_KEYS,
   SETTING_KEYS,

@@ -9,6 +9,9 @@
  * on the command line, options given explicitly win over the project file.
  */
 
+import { readSettings } from './settings';
+import type { ServiceSettings, SourcedSetting } from './types';
+
 /** The project file's name. */
 export const PROJECT_FILE = 'dewmark.json';
 
@@ -106,6 +109,39 @@ export function mergeSection(
     } else base[k] = v;
   }
   return base;
+}
+
+/**
+ * The settings of a note under `config`: the editor's section (or none) with the project file's
+ * keys over it, read and checked, and the source of each value the file set (`shown`: the file's
+ * path as the user reads it). Problems are {@link readSettings}'s; the file's own are in
+ * `config.problems`.
+ */
+export function readProjectSettings(
+  editor: Record<string, unknown> | null | undefined,
+  config: ProjectConfig | null,
+  shown: string,
+): { settings: ServiceSettings; problems: string[] } {
+  const { settings, problems } = readSettings(mergeSection(editor, config));
+  const sources = config ? projectSources(config, shown) : undefined;
+  if (sources) settings.sources = sources;
+  return { settings, problems };
+}
+
+/**
+ * The settings `config` is the source of, each mapped to `shown` (the file's path as the user
+ * reads it), or undefined when it sets none. Put into {@link ServiceSettings.sources}.
+ */
+export function projectSources(
+  config: ProjectConfig,
+  shown: string,
+): Partial<Record<SourcedSetting, string>> | undefined {
+  const sources: Partial<Record<SourcedSetting, string>> = {};
+  for (const key of [...SETTING_KEYS, 'rules'] as const) {
+    if (config.section[key] === undefined) continue;
+    sources[key === 'pressure' || key === 'elevation' ? 'site' : key] = shown;
+  }
+  return Object.keys(sources).length > 0 ? sources : undefined;
 }
 
 /** How a caller reads files and walks folders (Node's fs and path, or a test's map). */

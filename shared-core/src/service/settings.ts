@@ -221,14 +221,16 @@ function readRules(raw: unknown, problems: string[]): Record<string, RuleSetting
 /** The evaluator settings that the service settings imply (default pressure and where it came from). */
 export function toEvaluateSettings(s: ServiceSettings): EvaluateSettings {
   // The evaluator describes the basis as `${pressureOrigin} ${kPa} kPa`.
+  // A project file names itself (`calcs/dewmark.json: pressure 84 kPa, i.e.`), an editor setting its key.
   let pressurePa = SEA_LEVEL_PA;
   let pressureOrigin = 'default';
+  const file = s.sources?.site;
   if (s.site.kind === 'elevation') {
     pressurePa = stdAtmPressure(s.site.m);
-    pressureOrigin = `setting dewmark.elevation = ${s.site.written} (standard atmosphere):`;
+    pressureOrigin = `${file ? `${file}: elevation` : 'setting dewmark.elevation ='} ${s.site.written} (standard atmosphere):`;
   } else if (s.site.written !== 'default') {
     pressurePa = s.site.pa;
-    pressureOrigin = `setting dewmark.pressure = ${s.site.written}, i.e.`;
+    pressureOrigin = `${file ? `${file}: pressure` : 'setting dewmark.pressure ='} ${s.site.written}, i.e.`;
   }
   const out: EvaluateSettings = { units: s.units, pressurePa, pressureOrigin, checkClaims: s.checkClaims };
   if (s.rules) out.rules = s.rules;

@@ -36,7 +36,21 @@ export interface ServiceSettings {
   maxNoteKB: number;
   /** Severity per diagnostic code, or `off` (from the project file `dewmark.json`; see `./projectConfig`). */
   rules?: Readonly<Record<string, RuleSetting>>;
+  /**
+   * Where the values a project file set came from: per setting, the file's path as the user reads
+   * it (relative to the workspace folder, e.g. `calcs/dewmark.json`). A setting not named here is
+   * the editor's (or the default), and messages call it `setting dewmark.<name>`.
+   */
+  sources?: Readonly<Partial<Record<SourcedSetting, string>>>;
+  /**
+   * Set when the note's project file leaves it out with its `include`/`exclude` patterns (as
+   * `dewmark check` does): the file and why. Its problems are then not shown (see `./excluded`).
+   */
+  excludedBy?: { file: string; why: string };
 }
+
+/** The settings a project file can be the source of (`site` stands for `pressure` and `elevation`). */
+export type SourcedSetting = 'units' | 'site' | 'checkClaims' | 'precision' | 'inlayHints' | 'rules';
 
 /** A cancellation signal (structurally compatible with an LSP cancellation token). */
 export interface CancellationFlag {

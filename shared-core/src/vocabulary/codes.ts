@@ -351,6 +351,13 @@ export const CODES = {
     meaning: 'the note is over the dewmark.maxNoteSizeKB setting, so the editor does not evaluate it as you type',
     fixture: 'editor',
   },
+  'note-excluded': {
+    severity: 'info',
+    from: ['editor'],
+    meaning:
+      "the note's project file dewmark.json leaves it out (include/exclude), so, as for dewmark check, its problems are not shown",
+    fixture: 'editor',
+  },
 } as const satisfies Record<string, CodeSpec>;
 
 /** A registered diagnostic code: a code the registry lacks is a compile error. */
