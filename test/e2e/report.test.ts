@@ -200,24 +200,30 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
   it('shows the states, mixes, processes and every diagnostic in tables, and loads nothing from outside', async () => {
     const { page, requests, done } = await open(pathToFileURL(join(dir, 'report.html')).href);
     const analysis = analyzeNote(NOTE, {});
-    const rows = await page.evaluate<Record<string, string[][]>>(`(() => {
-      const t = (id) => [...document.querySelectorAll('#' + id + ' tbody tr')].map((tr) => [...tr.cells].map((c) => c.textContent.trim()));
-      return { states: t('states'), mixes: t('mixes'), processes: t('processes'), diagnostics: t('diagnostics') };
+    const rows = await page.evaluate<Record<string, { cells: string[]; about: string }[]>>(`(() => {
+      const items = (id) => [...document.querySelectorAll('#' + id + ' tbody')].map((tb) => ({
+        cells: [...tb.rows[0].cells].map((c) => c.textContent.trim()),
+        about: tb.rows[1] ? tb.rows[1].textContent.trim() : '',
+      }));
+      const t = (id) => [...document.querySelectorAll('#' + id + ' tbody tr')].map((tr) => ({ cells: [...tr.cells].map((c) => c.textContent.trim()), about: '' }));
+      return { states: items('states'), processes: items('processes'), diagnostics: t('diagnostics') };
     })()`);
-    expect(rows.states!.map((r) => r[0]!.split(' ')[0])).toEqual(['OA', 'RA', 'SA', 'BAD', 'FOG', 'HALL']);
-    expect(rows.states!.find((r) => r[0]!.startsWith('BAD'))![0]).toContain('not computed');
-    // The stale claim shows as failed beside the state, with the computed value, and as a diagnostic.
-    const raClaims = rows.states!.find((r) => r[0] === 'RA')!.at(-1)!;
-    expect(raClaims).toMatch(/^w ✗ \d+\.\d+\sg\/kg$/); // value and unit apart, as the one figure formatter writes them
-    expect(rows.diagnostics!.some((r) => r[2] === 'claim-mismatch' && r[1] === 'warning')).toBe(true);
-    expect(rows.mixes!.map((r) => r[0])).toEqual(['MA']);
-    expect(rows.mixes![0]![2]).toBe('OA 30.0 % + RA 70.0 %');
-    expect(rows.processes!.map((r) => r[0])).toEqual(['CC']);
-    expect(rows.processes![0]![2]).toBe('MA → SA');
+    // The index lists states and mixes in the note's order.
+    expect(rows.states!.map((r) => r.cells[0])).toEqual(['OA', 'RA', 'MA', 'SA', 'BAD', 'FOG', 'HALL']);
+    expect(rows.states!.find((r) => r.cells[0] === 'BAD')!.about).toContain('not computed');
+    // The stale claim reads as written → computed, with its verdict and band, in print.
+    expect(rows.states!.find((r) => r.cells[0] === 'RA')!.about).toMatch(
+      /w=9\.9g\/kg → \d+\.\d+\sg\/kg ✗ outside ±0\.05\sg\/kg/,
+    );
+    expect(rows.diagnostics!.some((r) => r.cells[2] === 'claim-mismatch' && r.cells[1] === 'warning')).toBe(true);
+    expect(rows.states!.find((r) => r.cells[0] === 'MA')!.about).toContain('mix of OA 30.0 % + RA 70.0 %');
+    expect(rows.processes!.map((r) => r.cells[0])).toEqual(['CCMA → SA']);
+    // The comment on a statement's line is its description.
+    expect(rows.states!.find((r) => r.cells[0] === 'SA')!.about).toContain('off-coil');
     // Every diagnostic of the analysis appears, with its code and message.
     expect(rows.diagnostics!.length).toBe(analysis.diagnostics.length);
     for (const d of analysis.diagnostics)
-      expect(rows.diagnostics!.some((r) => r[2] === d.code && r[3] === d.message)).toBe(true);
+      expect(rows.diagnostics!.some((r) => r.cells[2] === d.code && r.cells[3] === d.message)).toBe(true);
     expect(analysis.diagnostics.some((d) => d.code === 'wb-above-db')).toBe(true);
     const text = await page.evaluate<{ caution: string; method: string; pressure: string; title: string }>(`({
       caution: document.querySelector('#caution').textContent,
@@ -231,7 +237,7 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
     expect(text.method).toContain('ideal gases');
     expect(text.method).toContain('over ice below 0 °C');
     expect(text.pressure).toContain('101.325 kPa');
-    expect(text.title).toBe('Dewmark review report — ahu-2.md');
+    expect(text.title).toBe('Quayside Gallery — AHU-2 summer check'); // the note's first heading
     expect(requests.filter((u) => !u.startsWith('file:') && !u.startsWith('data:'))).toEqual([]);
     await page.screenshot({ path: join(shots, 'report-light.png'), fullPage: true });
     await done();

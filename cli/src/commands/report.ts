@@ -1,31 +1,24 @@
 /**
- * `dewmark report NOTE.md -o report.html`: one self-contained HTML file for review and sign-off —
- * the states, mixes and processes tables, every diagnostic, the chart inline, the method and its
- * sources, the pressure basis and the caution. No network: inline CSS, inline SVG, no scripts,
- * and a Content-Security-Policy that forbids loading anything.
+ * `dewmark report NOTE.md -o report.html`: the calc package for review and sign-off, as one
+ * self-contained HTML file — a header block (title from the note's first heading, file path, note
+ * digest, date), the revision and sign-off block, then the whole note rendered (`noteHtml` in the
+ * core: its prose, tables, lists and images, each air block followed by its results, each inline
+ * statement by its figures, every claim as written → computed with its verdict), then every
+ * diagnostic, the chart, an index of all states and processes, the pressure basis, the method and
+ * its sources, and the caution. No network: inline CSS, inline SVG, images as `data:` URIs, no
+ * scripts, and a Content-Security-Policy that forbids loading anything. The contract is in
+ * docs/report.md.
  */
 import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
 import { renderChart } from '@dewmark/core/chart';
-import type { ClaimResult, PressureBasis } from '@dewmark/core/evaluate';
-import {
-  LineIndex,
-  claimFigures,
-  displaySymbol,
-  displayUnit,
-  figure,
-  processRow,
-  stateRow,
-  waterUnit,
-  type Analysis,
-  type CoreDiagnostic,
-  type Dimension,
-  type ProcessResult,
-  type StateResult,
-  type UnitSystem,
-} from '../core';
+import type { PressureBasis } from '@dewmark/core/evaluate';
+import { itemsResultsHtml, noteHtml, type FrontMatter, type ImageAnswer } from '@dewmark/core/present';
+import { LineIndex, figure, type Analysis, type CoreDiagnostic } from '../core';
 import type { CliIO } from '../run';
 import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, wroteLine, type WriteOptions } from './outputFile';
+import { safeText } from '../sanitize';
+import { resolveImage } from './reportImages';
 
 /** Escapes text for HTML content and attribute values. */
 export function escapeHtml(s: string): string {
@@ -47,42 +40,34 @@ export interface ReportOptions {
   generatedAt?: string;
   /** Version of dewmark printed in the footer. */
   version?: string;
+  /** Resolves an image of the note to a `data:` URI (the CLI reads files relative to the note); default: none. */
+  image?: (src: string) => ImageAnswer;
+  /** The paper the print stylesheet sets (`@page size`); default: the printer's. */
+  page?: PageSize;
 }
+
+/** Paper sizes of the print stylesheet. */
+export const PAGE_SIZES = ['a4', 'letter'] as const;
+export type PageSize = (typeof PAGE_SIZES)[number];
+
+/**
+ * The sign-off rows and the front-matter keys that fill them (docs/report.md): a note may start
+ * with `prepared_by: …`, `checked_on: …` and so on; a row without them is left blank to fill by hand.
+ * The signature is always left blank.
+ */
+const SIGNOFF = [
+  { role: 'prepared by', by: 'prepared_by', on: 'prepared_on' },
+  { role: 'checked by', by: 'checked_by', on: 'checked_on' },
+  { role: 'approved by (licensed engineer)', by: 'approved_by', on: 'approved_on' },
+] as const;
 
 /** The caution printed at the top and in the footer of every report. */
 export const CAUTION =
   'Design aid only. These figures are computed from the values written in the note; they do not replace engineering judgement. ' +
   'Verify them against the applicable codes and standards, and have the design reviewed by a licensed professional engineer before it is used for construction, purchase or commissioning.';
 
-/** The badge beside a name that was not computed, or is in the fog region. */
-function badge(status: 'ok' | 'fog' | 'failed'): string {
-  return status === 'failed'
-    ? ' <span class="badge err">not computed</span>'
-    : status === 'fog'
-      ? ' <span class="badge warn">fog</span>'
-      : '';
-}
-
-function sym(dim: Dimension, sys: UnitSystem): string {
-  return displaySymbol(displayUnit(dim, sys));
-}
-
 function lineOf(lines: LineIndex, text: string, offset: number): number {
   return lines.lineCol(Math.max(0, Math.min(offset, text.length))).line;
-}
-
-/** The claims of an item: each judged and shown in the unit it was written in (`shr ✗ 0.873`). */
-function claimsCell(claims: ClaimResult[]): string {
-  if (claims.length === 0) return '';
-  return claims
-    .map((c) => {
-      const f = claimFigures(c);
-      const computed = f ? f.computed.text : c.computedText;
-      const band = f ? ` (band ${f.band.text})` : '';
-      const title = `${c.key}: written ${c.prop.value?.number.text ?? ''}${c.prop.value?.unit?.text ?? ''}, computed ${computed}${band}`;
-      return `<span class="claim ${c.pass ? 'pass' : 'fail'}" title="${escapeHtml(title)}">${escapeHtml(c.key)} ${c.pass ? '✓' : `✗ ${escapeHtml(computed)}`}</span>`;
-    })
-    .join(' ');
 }
 
 function table(id: string, caption: string, header: string[], rows: string[][], numeric: boolean[]): string {
@@ -90,149 +75,7 @@ function table(id: string, caption: string, header: string[], rows: string[][], 
   const body = rows
     .map((r) => `<tr>${r.map((c, i) => `<td${numeric[i] ? ' class="num"' : ''}>${c}</td>`).join('')}</tr>`)
     .join('\n');
-  return `<div class="scroll"><table id="${id}"><caption>${caption}</caption><thead><tr>${th}</tr></thead><tbody>\n${body}\n</tbody></table></div>`;
-}
-
-function statesSection(a: Analysis, lines: LineIndex, text: string): string {
-  const sys = a.units;
-  const states = a.items.filter((i): i is StateResult => i.kind === 'state');
-  if (states.length === 0) return '<p class="none" id="states-none">The note defines no states.</p>';
-  const t = (d: Dimension) => escapeHtml(sym(d, sys));
-  const header = [
-    'name',
-    'line',
-    `p (${t('pressure')})`,
-    `dry-bulb (${t('temperature')})`,
-    `wet-bulb (${t('temperature')})`,
-    `dew point (${t('temperature')})`,
-    'rh (%)',
-    `w (${t('humidityRatio')})`,
-    `h (${t('enthalpy')})`,
-    `v (${t('specificVolume')})`,
-    'fixed by',
-    'claims',
-  ];
-  const rows = states.map((s) => {
-    const row = stateRow(s, sys);
-    const v = row.figures;
-    return [
-      `<span class="name">${escapeHtml(s.name)}</span>${badge(row.status)}`,
-      String(lineOf(lines, text, s.statement.span.start)),
-      escapeHtml(v.p.value),
-      escapeHtml(v.db.value),
-      escapeHtml(v.wb.value) + (row.wbIce ? ' <span class="note" title="over ice">ice</span>' : ''),
-      escapeHtml(v.dp.value) + (row.dpFrost ? ' <span class="note" title="frost point">frost</span>' : ''),
-      escapeHtml(v.rh.value),
-      escapeHtml(v.w.value),
-      escapeHtml(v.h.value),
-      escapeHtml(v.v.value),
-      row.status === 'failed' ? 'see diagnostics' : escapeHtml(s.defining.join(' + ')),
-      claimsCell(s.claims),
-    ];
-  });
-  return table('states', 'States', header, rows, [
-    false,
-    true,
-    true,
-    true,
-    true,
-    true,
-    true,
-    true,
-    true,
-    true,
-    false,
-    false,
-  ]);
-}
-
-function mixesSection(a: Analysis, lines: LineIndex, text: string): string {
-  const sys = a.units;
-  const mixes = a.items.filter((i): i is StateResult => i.kind === 'mix');
-  if (mixes.length === 0) return '<p class="none" id="mixes-none">The note has no mixes.</p>';
-  const t = (d: Dimension) => escapeHtml(sym(d, sys));
-  const header = [
-    'name',
-    'line',
-    'streams (dry-air mass fraction)',
-    `dry-air flow (${t('massFlow')})`,
-    `dry-bulb (${t('temperature')})`,
-    'rh (%)',
-    `w (${t('humidityRatio')})`,
-    `h (${t('enthalpy')})`,
-    'claims',
-  ];
-  const rows = mixes.map((m) => {
-    const row = stateRow(m, sys);
-    const v = row.figures;
-    return [
-      `<span class="name">${escapeHtml(m.name)}</span>${badge(row.status)}`,
-      String(lineOf(lines, text, m.statement.span.start)),
-      escapeHtml(row.streams.map((s) => `${s.name} ${s.fraction.text}`).join(' + ')),
-      escapeHtml(row.massFlow.value),
-      escapeHtml(v.db.value),
-      escapeHtml(v.rh.value),
-      escapeHtml(v.w.value),
-      escapeHtml(v.h.value),
-      claimsCell(m.claims),
-    ];
-  });
-  return table('mixes', 'Mixes (adiabatic)', header, rows, [false, true, false, true, true, true, true, true, false]);
-}
-
-function processesSection(a: Analysis, lines: LineIndex, text: string): string {
-  const sys = a.units;
-  const procs = a.items.filter((i): i is ProcessResult => i.kind === 'process');
-  if (procs.length === 0) return '<p class="none" id="processes-none">The note has no processes.</p>';
-  const t = (d: Dimension) => escapeHtml(sym(d, sys));
-  const water = escapeHtml(displaySymbol(waterUnit(sys)));
-  const header = [
-    'name',
-    'line',
-    'from → to',
-    'kind',
-    `dry-air flow (${t('massFlow')})`,
-    `total (${t('power')})`,
-    `sensible (${t('power')})`,
-    `latent (${t('power')})`,
-    'SHR',
-    `water (${water})`,
-    `Δh (${t('enthalpy')})`,
-    'claims',
-  ];
-  const rows = procs.map((p) => {
-    const row = processRow(p, sys);
-    // Heat and water rates need a flow; without one the table leaves them empty (Δh is per kg).
-    const withFlow = (x: { value: string }) => escapeHtml(row.hasFlow ? x.value : '—');
-    return [
-      `<span class="name">${escapeHtml(p.name)}</span>`,
-      String(lineOf(lines, text, p.statement.span.start)),
-      `<span class="nowrap">${escapeHtml(p.from)} → ${escapeHtml(p.to)}</span>`,
-      escapeHtml(row.kind),
-      escapeHtml(row.massFlow.value),
-      withFlow(row.total),
-      withFlow(row.sensible),
-      withFlow(row.latent),
-      escapeHtml(row.shr.value),
-      withFlow(row.water),
-      escapeHtml(row.dh.value),
-      claimsCell(p.claims),
-    ];
-  });
-  return table('processes', 'Processes (positive = heat or water added to the air)', header, rows, [
-    false,
-    true,
-    false,
-    false,
-    true,
-    true,
-    true,
-    true,
-    true,
-    true,
-    true,
-    false,
-  ]);
+  return `<table id="${id}"><caption>${caption}</caption><thead><tr>${th}</tr></thead><tbody>\n${body}\n</tbody></table>`;
 }
 
 function diagnosticsSection(a: Analysis, lines: LineIndex, text: string): string {
@@ -292,43 +135,127 @@ const METHOD = `
 <li>Valid range of the formulation: −100 °C to 200 °C. IP figures are exact conversions of the SI results.</li>
 </ul>`;
 
+/** CSS text for a `content:` string: quotes, backslashes, `<` and controls as CSS escapes. */
+export function cssString(s: string): string {
+  let out = '';
+  for (const c of s) {
+    const code = c.charCodeAt(0);
+    out += code < 0x20 || code === 0x7f || `"'\\<>&`.includes(c) ? `\\${code.toString(16)} ` : c;
+  }
+  return `"${out}"`;
+}
+
 const CSS = `
-:root{color-scheme:light dark;--bg:#f7f4ee;--fg:#26222c;--muted:#6e6877;--card:#fffdf8;--line:#e3ddd2;--accent:#23408e;--err:#b3261e;--warn:#a05a00;--ok:#1f7a4d;--caution-bg:#fff4e0;--caution-line:#d99a2b}
-@media (prefers-color-scheme:dark){:root{--bg:#15151b;--fg:#ece8f2;--muted:#a59fb0;--card:#1d1c24;--line:#34313f;--accent:#8fb0ff;--err:#ff8a80;--warn:#ffb74d;--ok:#7fd6a5;--caution-bg:#2e2616;--caution-line:#a8781f}}
+:root{color-scheme:light dark;--bg:#f7f4ee;--fg:#26222c;--muted:#6e6877;--card:#fffdf8;--line:#e3ddd2;--accent:#23408e;--err:#b3261e;--warn:#a05a00;--ok:#1f7a4d;--caution-bg:#fff4e0;--caution-line:#d99a2b;--code:#f1ede4}
+@media (prefers-color-scheme:dark){:root{--bg:#15151b;--fg:#ece8f2;--muted:#a59fb0;--card:#1d1c24;--line:#34313f;--accent:#8fb0ff;--err:#ff8a80;--warn:#ffb74d;--ok:#7fd6a5;--caution-bg:#2e2616;--caution-line:#a8781f;--code:#24232c}}
 *{box-sizing:border-box}
 body{margin:0;background:var(--bg);color:var(--fg);font:14px/1.5 "Inter","Noto Sans","DejaVu Sans",system-ui,sans-serif;font-variant-numeric:tabular-nums}
 main{max-width:1120px;margin:0 auto;padding:28px 24px 48px}
-h1{font-size:22px;margin:0 0 4px;font-weight:700;letter-spacing:-.01em}
-h2{font-size:16px;margin:32px 0 10px;padding-bottom:4px;border-bottom:2px solid var(--line);color:var(--accent)}
-.meta{color:var(--muted);margin:0 0 16px}
+h1{font-size:22px;margin:0 0 8px;font-weight:700;letter-spacing:-.01em}
+h2.part{font-size:16px;margin:32px 0 10px;padding-bottom:4px;border-bottom:2px solid var(--line);color:var(--accent)}
 .caution{background:var(--caution-bg);border-left:5px solid var(--caution-line);padding:10px 14px;border-radius:4px;margin:16px 0}
 .summary{display:flex;gap:10px;flex-wrap:wrap;margin:12px 0}
 .summary span{background:var(--card);border:1px solid var(--line);border-radius:14px;padding:2px 12px}
 .summary .errors{border-color:var(--err);color:var(--err);font-weight:600}
 .summary .warnings{border-color:var(--warn);color:var(--warn)}
 .summary .clean{border-color:var(--ok);color:var(--ok);font-weight:600}
-table{border-collapse:collapse;width:100%;background:var(--card);margin:6px 0 10px;font-size:13px}
+table{border-collapse:collapse;max-width:100%;background:var(--card);margin:6px 0 10px;font-size:13px}
 caption{text-align:left;font-weight:600;padding:4px 0;color:var(--muted)}
-th,td{border-bottom:1px solid var(--line);padding:5px 8px;vertical-align:top;text-align:left}
+th,td{border-bottom:1px solid var(--line);padding:4px 7px;vertical-align:top;text-align:left;overflow-wrap:anywhere}
 th{font-weight:600;background:color-mix(in srgb,var(--card) 85%,var(--line))}
 .num{text-align:right;white-space:nowrap}
-.name{font-weight:650}
-.badge{font-size:11px;border-radius:8px;padding:0 6px;border:1px solid}
-.badge.err{color:var(--err)}.badge.warn{color:var(--warn)}
-.note{font-size:11px;color:var(--muted)}
-.nowrap{white-space:nowrap}
-.scroll{overflow-x:auto}
-.claim{display:inline-block;font-size:12px;border-radius:8px;padding:0 6px;margin:1px 0;border:1px solid var(--line)}
-.claim.pass{color:var(--ok)}.claim.fail{color:var(--warn);border-color:var(--warn)}
+code,pre{font-family:"DejaVu Sans Mono","Noto Sans Mono",ui-monospace,monospace;font-size:.92em}
+pre{background:var(--code);border:1px solid var(--line);border-radius:4px;padding:8px 10px;white-space:pre-wrap;overflow-wrap:anywhere}
+:not(pre)>code{background:var(--code);border-radius:3px;padding:0 3px;overflow-wrap:anywhere}
+img,svg{max-width:100%;height:auto}
+#docinfo,#signoff{width:100%}
+#docinfo th{width:11em}
+#signoff td{height:34px}
+#signoff td:first-child{width:14em}
+.note-body{background:var(--card);border:1px solid var(--line);border-radius:6px;padding:4px 22px 12px}
+.note-body h1{font-size:20px;margin:18px 0 8px}.note-body h2{font-size:17px;margin:22px 0 8px;color:var(--accent)}.note-body h3{font-size:15px}
+.note-body table{width:auto}
+.note-body blockquote{margin:8px 0;padding:0 12px;border-left:4px solid var(--line);color:var(--muted)}
+.dm-results{margin:-4px 0 14px;padding:6px 10px;border-left:4px solid var(--accent);background:var(--bg)}
+.dm-table,.note-body .dm-table{width:100%}
+.dm-table caption{font-size:12px}
+.dm-unit{font-weight:400;color:var(--muted);white-space:nowrap}
+.dm-item{break-inside:avoid}
+.dm-about td{font-size:12px;color:var(--fg);border-bottom:1px solid var(--line);padding-top:0}
+.dm-item tr:first-child th,.dm-item tr:first-child td{border-bottom:none}
+.dm-from{font-weight:400;color:var(--muted);white-space:nowrap}
+.dm-desc{font-style:italic}
+.dm-sep,.dm-line,.dm-note{color:var(--muted)}
+.dm-claim.pass{color:var(--ok)}.dm-claim.fail{color:var(--warn);font-weight:650}
+.dm-failed th{color:var(--err)}
+.dm-problems{margin:4px 0;padding-left:20px;font-size:12.5px}
+.dm-error strong{color:var(--err)}.dm-warning strong{color:var(--warn)}.dm-info strong,.dm-acknowledged strong{color:var(--muted)}
+.dm-inline{font-size:.9em;color:var(--muted)}
+.dm-inline .dm-claim.fail{color:var(--warn)}
+.dm-missing-image{display:inline-block;border:1px dashed var(--warn);padding:2px 6px;color:var(--warn)}
 .sev{font-weight:650}.sev.error{color:var(--err)}.sev.warning{color:var(--warn)}.sev.info{color:var(--muted)}
-.chart{background:var(--card);border:1px solid var(--line);border-radius:6px;padding:8px;margin:0;overflow-x:auto}
+.name{font-weight:650}
+.chart{background:var(--card);border:1px solid var(--line);border-radius:6px;padding:8px;margin:0;max-width:100%}
 .chart svg{display:block;max-width:100%;height:auto}
 .none{color:var(--muted);font-style:italic}
 .small{font-size:12px;color:var(--muted)}
-.signoff td{height:34px}
 footer{margin-top:36px;color:var(--muted);font-size:12px;border-top:1px solid var(--line);padding-top:10px}
-@media print{body{background:#fff;color:#000}.chart{break-inside:avoid}h2{break-after:avoid}}
+@media print{
+:root{--bg:#fff;--fg:#000;--muted:#4a4650;--card:#fff;--line:#bbb;--accent:#1a2f6b;--code:#f4f4f4;--caution-bg:#fff;color-scheme:light}
+body{font-size:9.5pt;line-height:1.4;background:#fff;color:#000}
+main{max-width:none;margin:0;padding:0}
+h1{font-size:16pt}
+h2.part{font-size:12pt;margin:18pt 0 6pt;break-after:avoid}
+.note-body{border:none;padding:0}
+.note-body h1,.note-body h2,.note-body h3,.note-body h4{break-after:avoid}
+table{font-size:8.5pt}
+th,td{padding:2.5pt 4pt}
+.dm-about td{font-size:8pt}
+thead{display:table-header-group}
+tr,.dm-item,img,.chart,pre{break-inside:avoid}
+.chart{border:none;padding:0}
+.summary span{border-color:#999}
+a{color:inherit}
+a[href^="http"]::after{content:" (" attr(href) ")";font-size:.85em;overflow-wrap:anywhere}
+footer{break-inside:avoid}
+}
 `;
+
+/**
+ * The print page rules: margins, the running header (the title, and the note's digest) and page
+ * numbers in the page-margin boxes, and the paper size when one was chosen.
+ */
+function pageCss(title: string, path: string, page: PageSize | undefined): string {
+  const size = page === 'a4' ? 'size:A4;' : page === 'letter' ? 'size:letter;' : '';
+  const box = 'font:8pt "Inter","Noto Sans","DejaVu Sans",sans-serif;color:#555';
+  return `@page{${size}margin:18mm 15mm 16mm 15mm;@top-left{content:${cssString(title)};${box};vertical-align:bottom;padding-bottom:3mm}@top-right{content:${cssString(path)};${box};vertical-align:bottom;padding-bottom:3mm}@bottom-left{content:"Design aid only \\2014  verify before use";${box}}@bottom-right{content:"Page " counter(page) " of " counter(pages);${box}}}`;
+}
+
+function frontMatterRows(fm: FrontMatter | null): string {
+  if (!fm) return '';
+  const used = new Set<string>(SIGNOFF.flatMap((r) => [r.by, r.on]));
+  const rows = fm.fields
+    .filter((f) => !used.has(f.key))
+    .map((f) => `<tr><th scope="row">${escapeHtml(f.key)}</th><td>${escapeHtml(f.value)}</td></tr>`);
+  if (fm.other.length > 0)
+    rows.push(
+      `<tr><th scope="row">front matter (not read)</th><td><pre>${escapeHtml(fm.other.join('\n'))}</pre></td></tr>`,
+    );
+  return rows.join('');
+}
+
+function signoffSection(fm: FrontMatter | null): string {
+  const get = (key: string) => fm?.fields.find((f) => f.key === key)?.value ?? '';
+  const revision = get('revision');
+  const filled = SIGNOFF.some((r) => get(r.by) !== '' || get(r.on) !== '');
+  const rows = SIGNOFF.map(
+    (r) => `<tr><td>${r.role}</td><td>${escapeHtml(get(r.by))}</td><td></td><td>${escapeHtml(get(r.on))}</td></tr>`,
+  ).join('');
+  const caption = `Revision ${revision ? escapeHtml(revision) : '______'}${filled ? ' — names and dates from the note\u2019s front matter; signatures by hand' : ''}`;
+  return `<table class="signoff" id="signoff"><caption>${caption}</caption><thead><tr><th scope="col">role</th><th scope="col">name</th><th scope="col">signature</th><th scope="col">date</th></tr></thead><tbody>${rows}</tbody></table>`;
+}
+
+const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 
 /** The whole report as one HTML document (no scripts, no external resources). */
 export function renderReportHtml(input: ReportInput, opts: ReportOptions = {}): string {
@@ -337,22 +264,32 @@ export function renderReportHtml(input: ReportInput, opts: ReportOptions = {}): 
   const errors = a.diagnostics.filter((d) => d.severity === 'error').length;
   const warnings = a.diagnostics.filter((d) => d.severity === 'warning').length;
   const infos = a.diagnostics.length - errors - warnings;
-  const nStates = a.items.filter((i) => i.kind === 'state').length;
-  const nMixes = a.items.filter((i) => i.kind === 'mix').length;
+  const nStates = a.items.filter((i) => i.kind !== 'process').length;
   const nProcs = a.items.filter((i) => i.kind === 'process').length;
+  const claims = a.items.flatMap((i) => i.claims);
+  const failedClaims = claims.filter((c) => !c.pass).length;
   const generated = opts.generatedAt ?? new Date().toISOString();
   const digest = createHash('sha256').update(text, 'utf8').digest('hex');
-  const title = `Dewmark review report — ${path}`;
-  const chart = renderChart(a, { source: text, title: `Psychrometric chart — ${path}`, idPrefix: 'report-chart' });
-  const plural = (n: number, w: string) => `${n} ${w}${n === 1 ? '' : 's'}`;
+  const body = noteHtml(text, a, { image: opts.image });
+  const fmTitle = body.frontMatter?.fields.find((f) => f.key === 'title')?.value;
+  const title = body.title ?? fmTitle ?? path;
+  const chart = renderChart(a, { source: text, title: `Psychrometric chart — ${title}`, idPrefix: 'report-chart' });
   const summary = [
-    `<span>${plural(nStates, 'state')}</span>`,
-    `${`<span>${plural(nMixes, 'mix')}`.replace(/mixs/, 'mixes')}</span>`,
-    `${`<span>${plural(nProcs, 'process')}`.replace(/processs/, 'processes')}</span>`,
-    errors > 0 ? `<span class="errors">${plural(errors, 'error')}</span>` : `<span class="clean">no errors</span>`,
-    `<span class="${warnings > 0 ? 'warnings' : ''}">${plural(warnings, 'warning')}</span>`,
-    ...(infos > 0 ? [`<span>${plural(infos, 'note')}</span>`] : []),
+    `<span>${plural(nStates, 'state or mix', 'states and mixes')}</span>`,
+    `<span>${plural(nProcs, 'process', 'processes')}</span>`,
+    `<span class="${failedClaims > 0 ? 'warnings' : ''}">${plural(claims.length, 'claim', 'claims')}${claims.length > 0 ? `, ${failedClaims} outside its band` : ''}</span>`,
+    errors > 0
+      ? `<span class="errors">${plural(errors, 'error', 'errors')}</span>`
+      : `<span class="clean">no errors</span>`,
+    `<span class="${warnings > 0 ? 'warnings' : ''}">${plural(warnings, 'warning', 'warnings')}</span>`,
+    ...(infos > 0 ? [`<span>${plural(infos, 'note', 'notes')}</span>`] : []),
   ].join('');
+  const index = itemsResultsHtml(a, text, a.items, [], [], {
+    withLine: true,
+    lines,
+    ids: { states: 'states', processes: 'processes' },
+  });
+  const unitsWhy = a.unitsSource === 'note' ? 'set by the note' : 'default setting';
   return `<!doctype html>
 <html lang="en">
 <head>
@@ -361,42 +298,49 @@ export function renderReportHtml(input: ReportInput, opts: ReportOptions = {}): 
 <meta name="viewport" content="width=device-width, initial-scale=1">
 <meta name="generator" content="dewmark ${escapeHtml(opts.version ?? '')}">
 <title>${escapeHtml(title)}</title>
-<style>${CSS}</style>
+<style>${CSS}${pageCss(title, path, opts.page)}</style>
 </head>
 <body>
 <main>
-<header>
-<h1>${escapeHtml(title)}</h1>
-<p class="meta">Results in ${a.units} units (${a.unitsSource === 'note' ? 'set by the note' : 'default setting'}) · generated ${escapeHtml(generated)} · note SHA-256 <code id="note-digest">${digest}</code></p>
+<header id="report-header">
+<h1 id="title">${escapeHtml(title)}</h1>
+<table id="docinfo"><tbody>
+<tr><th scope="row">note</th><td><code id="note-path">${escapeHtml(path)}</code></td></tr>
+<tr><th scope="row">note SHA-256</th><td><code id="note-digest">${digest}</code></td></tr>
+<tr><th scope="row">report made</th><td id="report-date">${escapeHtml(generated)}</td></tr>
+<tr><th scope="row">results</th><td>${a.units} units (${unitsWhy}); made by dewmark${opts.version ? ` ${escapeHtml(opts.version)}` : ''}</td></tr>
+${frontMatterRows(body.frontMatter)}
+</tbody></table>
 <p class="caution" id="caution" role="note"><strong>Caution.</strong> ${escapeHtml(CAUTION)}</p>
 <div class="summary" id="summary">${summary}</div>
 </header>
-<section aria-labelledby="h-diagnostics"><h2 id="h-diagnostics">Diagnostics</h2>
+<section aria-labelledby="h-signoff"><h2 class="part" id="h-signoff">Revision and sign-off</h2>
+${signoffSection(body.frontMatter)}
+</section>
+<section aria-labelledby="h-note"><h2 class="part" id="h-note">The note, with its computed results</h2>
+<p class="small">Each air block is followed by what it computes; each statement written in the text is followed by its figures in brackets. A claim reads <em>as written → computed</em>, ✓ within its band or ✗ outside it.</p>
+<article class="note-body" id="note">
+${body.html}
+</article>
+${body.unplaced ? `<div id="unplaced"><p class="small">These statements could not be placed in the text above; here they are with their results:</p>${body.unplaced}</div>` : ''}
+${body.missingImages.length > 0 ? `<p class="small" id="missing-images">${plural(body.missingImages.length, 'image was', 'images were')} not included (marked in the text).</p>` : ''}
+</section>
+<section aria-labelledby="h-diagnostics"><h2 class="part" id="h-diagnostics">Diagnostics</h2>
 ${diagnosticsSection(a, lines, text)}
 </section>
-<section aria-labelledby="h-chart"><h2 id="h-chart">Chart</h2>
+<section aria-labelledby="h-chart"><h2 class="part" id="h-chart">Chart</h2>
 <figure class="chart" id="chart">${chart}</figure>
 </section>
-<section aria-labelledby="h-states"><h2 id="h-states">States</h2>
-${statesSection(a, lines, text)}
+<section aria-labelledby="h-index"><h2 class="part" id="h-index">Index of states, mixes and processes</h2>
+${index || '<p class="none" id="index-none">The note defines no states, mixes or processes.</p>'}
 </section>
-<section aria-labelledby="h-mixes"><h2 id="h-mixes">Mixes</h2>
-${mixesSection(a, lines, text)}
-</section>
-<section aria-labelledby="h-processes"><h2 id="h-processes">Processes</h2>
-${processesSection(a, lines, text)}
-</section>
-<section aria-labelledby="h-pressure"><h2 id="h-pressure">Pressure basis</h2>
+<section aria-labelledby="h-pressure"><h2 class="part" id="h-pressure">Pressure basis</h2>
 ${pressureSection(a, lines, text)}
 </section>
-<section aria-labelledby="h-method"><h2 id="h-method">Method and sources</h2>
+<section aria-labelledby="h-method"><h2 class="part" id="h-method">Method and sources</h2>
 ${METHOD}
 </section>
-<section aria-labelledby="h-signoff"><h2 id="h-signoff">Review</h2>
-<table class="signoff" id="signoff"><thead><tr><th scope="col">role</th><th scope="col">name</th><th scope="col">signature</th><th scope="col">date</th></tr></thead>
-<tbody><tr><td>prepared by</td><td></td><td></td><td></td></tr><tr><td>checked by</td><td></td><td></td><td></td></tr><tr><td>approved by (licensed engineer)</td><td></td><td></td><td></td></tr></tbody></table>
-</section>
-<footer><p>Made by dewmark${opts.version ? ` ${escapeHtml(opts.version)}` : ''} from <code>${escapeHtml(path)}</code>. ${escapeHtml(CAUTION)}</p></footer>
+<footer><p>Made by dewmark${opts.version ? ` ${escapeHtml(opts.version)}` : ''} from <code>${escapeHtml(path)}</code> (SHA-256 ${digest.slice(0, 12)}…) on ${escapeHtml(generated)}. ${escapeHtml(CAUTION)}</p></footer>
 </main>
 </body>
 </html>
@@ -407,7 +351,17 @@ ${METHOD}
 export async function runReport(paths: string[], opts: WriteOptions, io: CliIO, version: string): Promise<number> {
   const note = await readOneNote(paths, opts, io, 'report');
   const out = checkOutputPath(opts.output, note, io.cwd, 'report', 'report.html');
-  writeOutput(out, opts.output!, renderReportHtml(note, { version }));
+  const missing: string[] = [];
+  const html = renderReportHtml(note, {
+    version,
+    image: (src) => {
+      const answer = resolveImage(src, note.abs);
+      if (!answer.ok) missing.push(`dewmark: image '${safeText(src)}' not included: ${answer.reason}\n`);
+      return answer;
+    },
+  });
+  writeOutput(out, opts.output!, html);
+  for (const m of missing) io.err(m);
   const errors = note.analysis.diagnostics.filter((d) => d.severity === 'error').length;
   io.err(
     wroteLine(
@@ -431,7 +385,7 @@ export function registerReport(
     prog
       .command('report')
       .description(
-        'write one self-contained HTML review report of a note (tables, diagnostics, chart, method); exit 1 if the note has errors',
+        'write one self-contained HTML review report of a note: the whole note with its results, claims, diagnostics, chart and sign-off block (docs/report.md); exit 1 if the note has errors',
       )
       .argument('<note>', 'one Markdown note (or - for standard input)')
       .option('-o, --output <file>', 'the HTML file to write (never a .md file, never the note itself)'),

@@ -17,6 +17,7 @@ export {
   PROCESS_KIND_TEXT,
   claimDimension,
   claimFigures,
+  claimRow,
   heatFigure,
   processKindText,
   processRow,
@@ -24,9 +25,20 @@ export {
   stateRow,
   waterFigure,
   waterUnit,
+  type ClaimRow,
   type Figure,
   type ProcessRow,
   type RowOptions,
   type StateFigureKey,
   type StateRow,
 } from './rows';
+export {
+  itemsResultsHtml,
+  noteHtml,
+  statementComment,
+  type ImageAnswer,
+  type MissingImage,
+  type NoteHtml,
+  type NoteHtmlOptions,
+} from './noteHtml';
+export { readFrontMatter, withoutFrontMatter, type FrontMatter } from './frontMatter';

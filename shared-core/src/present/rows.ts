@@ -246,3 +246,35 @@ export function claimFigures(claim: ClaimResult, opts: RowOptions = {}): { compu
     band: bandFigure(claim.toleranceSI, inUnit),
   };
 }
+
+/** A claim as a reviewer reads it: as written, the computed value, the band, the verdict. */
+export interface ClaimRow {
+  key: string;
+  /** The claim as written in the note, spaces collapsed (`rh=50%`, `w = 9.9 g/kg`). */
+  written: string;
+  /** The computed value in the unit and precision the claim was written in (`49.6 %`). */
+  computed: string;
+  /** The accepted band around the written value (`±0.5 %`), '' when the key has no known dimension. */
+  band: string;
+  pass: boolean;
+  /** `written → computed ✓ within band` or `… ✗ outside band`: the whole claim in one line of print. */
+  text: string;
+}
+
+/** The row of a claim, its written form read from the note's text `source`. */
+export function claimRow(claim: ClaimResult, source: string, opts: RowOptions = {}): ClaimRow {
+  const f = claimFigures(claim, opts);
+  const written = source.slice(claim.prop.span.start, claim.prop.span.end).replace(/\s+/g, ' ').trim();
+  const computed = f ? f.computed.text : claim.computedText;
+  const band = f ? f.band.text : '';
+  const verdict = claim.pass ? '✓' : '✗';
+  const within = band ? ` ${claim.pass ? 'within' : 'outside'} ${band}` : claim.pass ? ' agrees' : ' differs';
+  return {
+    key: claim.key,
+    written,
+    computed,
+    band,
+    pass: claim.pass,
+    text: `${written} → ${computed} ${verdict}${within}`,
+  };
+}
