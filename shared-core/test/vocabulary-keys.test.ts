@@ -6,13 +6,14 @@
  */
 import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../src/analyze';
-import { MIX_KEYS, PROCESS_KEYS, SITE_KEYS, STATE_KEYS, SUPPLY_KEYS } from '../src/evaluate/keys';
+import { DEFINING_KEYS, MIX_KEYS, PROCESS_KEYS, SITE_KEYS, STATE_KEYS, SUPPLY_KEYS } from '../src/evaluate/keys';
+import { DEFINING_KEYS as PHYSICS_DEFINING_KEYS } from '../src/physics';
 import { parseNote } from '../src/notation/parse';
 import type { PropertyNode, Statement } from '../src/notation/ast';
 import { STATE_ROWS } from '../src/service/format';
 import { HINT_KEYS } from '../src/service/types';
 import { lookupUnit } from '../src/units';
-import { KEYS, type KeySpec, type KeyStatement } from '../src/vocabulary/keys';
+import { KEYS, type KeySpec, type KeyStatement, keySpec } from '../src/vocabulary/keys';
 
 /** A note that writes `example` where a key of `statement` goes (A and B are defined states). */
 function noteWith(statement: KeyStatement, example: string): string {
@@ -154,5 +155,44 @@ describe("the parser's examples come from the table", () => {
     expect(got.length).toBe(1);
     expect(got[0]).toContain(says);
     expect(got[0]).not.toMatch(/=24C\b/);
+  });
+});
+
+describe('references read the table: which keys define a state, and the differences they shift by', () => {
+  const defining = KEYS.filter((k) => k.defining).map((k) => k.key);
+  const message = (line: string) => parseNote(['```air', line, '```', ''].join('\n')).diagnostics.map((d) => d.message);
+
+  it('marks the same defining keys as the solver, in its order', () => {
+    expect(defining).toEqual([...PHYSICS_DEFINING_KEYS]);
+    expect([...DEFINING_KEYS]).toEqual(defining);
+  });
+
+  const shifts = KEYS.flatMap((k) => (k.differences ?? []).map((d) => [k.key, d] as const));
+
+  it.each(shifts)('%s: a reference shifted by +%s is evaluated without a problem', (key, difference) => {
+    expect(defining, `${key} takes references`).toContain(key);
+    // The other defining property of B: the dry-bulb (the relative humidity for the dry-bulb itself).
+    const other = key === 'db' ? 'rh=50%' : 'db=24C';
+    const note = ['```air', 'state A: db=30C rh=40%', `state B: ${key}=A.${key}+${difference} ${other}`, '```', ''];
+    expect(analyzeNote(note.join('\n')).diagnostics).toEqual([]);
+  });
+
+  it.each([
+    ['state S: db=24C w=OA.w+', `w=OA.w+${keySpec('w').differences![0]}`],
+    ['state S: db=24C h=OA.h*2', `OA.h+${keySpec('h').differences![0]}`],
+    ['state S: rh=50% db=OA.db-x', `db=OA.db+${keySpec('db').differences![0]}`],
+    ['state S: rh=50% dp=OA.', 'write dp=OA.dp'],
+    ['process P: A -> B m=OA.', 'write m=OA.db'],
+  ])("%s: the parser's message says %s", (line, says) => {
+    const got = message(line);
+    expect(got.length).toBe(1);
+    expect(got[0]).toContain(says);
+  });
+
+  it('gives a reference no difference where the row has none', () => {
+    const note = ['```air', 'state A: db=30C rh=40%', 'state B: rh=A.rh+5% db=24C', '```', ''].join('\n');
+    const d = analyzeNote(note).diagnostics;
+    expect(d.map((x) => x.code)).toEqual(['bad-reference']);
+    expect(d[0]!.message).toContain('cannot be shifted by a difference');
   });
 });

@@ -44,8 +44,8 @@ export const RECOVER_KEYS: Readonly<Record<string, KeySpec>> = Object.fromEntrie
 /** Word-valued options of `recover`: `fog=ok` acknowledges condensation or frost the design accepts. */
 export const RECOVER_WORDS: Readonly<Record<string, readonly string[]>> = { fog: ['ok'] };
 
-/** The state keys that can define a state (v is a claim only; p and elev set the pressure). */
-export const DEFINING_KEYS: readonly DefiningKey[] = ['db', 'wb', 'dp', 'rh', 'w', 'h'];
+/** The state keys that can define a state (v is a claim only; p and elev set the pressure): the table's defining rows. */
+export const DEFINING_KEYS: readonly DefiningKey[] = KEYS.filter((k) => k.defining).map((k) => k.key as DefiningKey);
 
 /** True when `key` can be one of the two defining properties. */
 export function isDefiningKey(key: string): key is DefiningKey {

@@ -12,7 +12,6 @@
  */
 import type { PropertyNode, PropertyRefNode, QuantityNode, Statement } from '../notation/ast';
 import type { DefiningKey } from '../physics/types';
-import type { Dimension } from '../units/types';
 import type { EvalContext } from './context';
 import { DEFINING_KEYS, STATE_KEYS, isDefiningKey, type KeySpec } from './keys';
 import { dependencyInfo } from './mix';
@@ -39,11 +38,6 @@ export interface ReadRef {
 
 /** Difference units accepted per dimension (the key's own units, except temperature). */
 const TEMPERATURE_DIFFERENCE: Readonly<Record<string, number>> = { K: 1, F: 5 / 9, '°F': 5 / 9 };
-const DIFFERENCE_EXAMPLE: Partial<Record<Dimension, string>> = {
-  temperature: '+0.8K or +1.5F',
-  humidityRatio: '+0.5g/kg',
-  enthalpy: '+2kJ/kg',
-};
 
 /** The written reference (`OA.w+0.5g/kg`). */
 export function refText(ref: PropertyRefNode): string {
@@ -63,7 +57,8 @@ function bad(ctx: EvalContext, message: string, span: PropertyNode['span']): nul
 
 /** The difference of a reference in SI (K, kg/kg, J/kg), or null after a diagnostic. */
 function readOffset(ctx: EvalContext, q: QuantityNode, spec: KeySpec, written: string): number | null {
-  const example = DIFFERENCE_EXAMPLE[spec.dimension];
+  // The differences of the key table's row (`+0.8K or +1.5F`); none when the key takes none.
+  const example = spec.differences?.map((d) => `+${d}`).join(' or ');
   if (q.tolerance)
     return bad(
       ctx,

@@ -57,7 +57,7 @@ import type {
 import type { Span } from '../text/types';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
 import { resolutionOf, scanNumber, startsNumber } from './number';
-import { findKey } from '../vocabulary/keys';
+import { differenceExample, findKey, referenceKeyFor } from '../vocabulary/keys';
 import { CODES, DIAGNOSTIC_CODES, type CodeFrom } from '../vocabulary/codes';
 import { SuggestIndex } from '../text/suggest';
 
@@ -835,7 +835,7 @@ class StatementParser {
       const why =
         lower === 'nan' || lower.startsWith('inf') ? `'${word}' is not a finite number` : `'${word}' is not a number`;
       const nameLike = letterAt(this.text, t.start, t.end) > 0 && !/[.=]/.test(word);
-      const orRef = nameLike ? `, or another state's property: ${key}=${word}.${refKeyFor(key)}` : '';
+      const orRef = nameLike ? `, or another state's property: ${key}=${word}.${referenceKeyFor(key)}` : '';
       this.report(
         'bad-number',
         `${why}: write ${key}= followed by a decimal number and its unit, e.g. ${exampleFor(key)}${orRef}`,
@@ -881,7 +881,7 @@ class StatementParser {
       this.consume(t.end);
       this.report(
         'missing-value',
-        `'${this.slice(t)}' names no property after the dot: write ${key}=${state.text}.${refKeyFor(key)} (a property of ${state.text})`,
+        `'${this.slice(t)}' names no property after the dot: write ${key}=${state.text}.${referenceKeyFor(key)} (a property of ${state.text})`,
         t.start,
         t.end,
       );
@@ -1146,16 +1146,6 @@ function commaMessage(shown: string): string {
     return `'${shown}' is not a number: use a decimal point, not a comma (${shown.replace(',', '.')}); a comma is read only as a thousands separator (8,745)`;
   }
   return `'${shown}' is not a number: a comma is read only as a thousands separator, between groups of three digits after a first group of one to three (8,745 or 1,234,567.5); for a decimal fraction write a point (24.5)`;
-}
-
-/** The key a reference from `key` most likely names (`w` → `w`; a process key → `db`). */
-function refKeyFor(key: string): string {
-  return ['db', 'wb', 'dp', 'rh', 'w', 'h'].includes(key) ? key : 'db';
-}
-
-/** A difference for a reference's example (`0.8K` for a temperature, `0.5g/kg` for w…). */
-function differenceExample(key: string): string {
-  return key === 'w' ? '0.5g/kg' : key === 'h' ? '2kJ/kg' : '0.8K';
 }
 
 /** The first example of a key from the key table (`db=24C`, `shr=0.73`); `key=24C` for a key the table lacks. */

@@ -2,13 +2,15 @@
  * The one table of the notation's keys: every key that may be written after a statement
  * (`db=`, `p=`, `q_total=`…) and every computed property that is shown without being written
  * (`rho`, `pw`, `mu`). Each row says what the key is, where it may be written, what it measures,
- * how a bare number reads, an example, its field in `dewmark eval --format json`, and where hovers
- * and inline hints show it. The evaluator's per-statement key sets, the parser's examples, hovers,
+ * how a bare number reads, an example, its field in `dewmark eval --format json`, where hovers
+ * and inline hints show it, and whether it defines a state (and so may be taken from another state,
+ * shifted by which differences). The evaluator's per-statement key sets, the parser's examples, hovers,
  * hints, completion, the CLI's JSON and the editor setting's list all read this table.
  *
  * Adding a key is adding one row here (and the code that computes or reads its figure).
  *
- * Pure data: the parser imports it for its example text only and still reads no unit; the
+ * Pure data: the parser imports it for the text of its messages only (examples, the key a reference
+ * names, a difference) and still reads no unit; the
  * dimension names are the units module's type, nothing more.
  */
 import type { Dimension } from '../units/types';
@@ -64,6 +66,16 @@ export interface KeySpec {
   json?: { name: string; times?: number; over?: number };
   /** Another name for the key `aliasOf`, read exactly as it is (`flow=` and `V=` for `q=`). */
   aliasOf?: string;
+  /**
+   * It can be one of the two properties that define a state, and so it is also what a reference
+   * may set and name (`db=OFF.db`): only defining properties are taken from another state.
+   */
+  defining?: true;
+  /**
+   * Differences a reference to it may be shifted by, each as written after the + or − sign
+   * (`db=OFF.db+0.8K`); absent when a reference to it cannot be shifted.
+   */
+  differences?: readonly string[];
 }
 
 /** `a`, `a or b`, `a, b or c`. */
@@ -95,6 +107,8 @@ const ROWS = [
     row: 'dry-bulb',
     hint: 'dry-bulb temperature',
     json: { name: 'db_C' },
+    defining: true,
+    differences: ['0.8K', '1.5F'],
   },
   {
     key: 'wb',
@@ -108,6 +122,8 @@ const ROWS = [
     row: 'wet-bulb',
     hint: 'thermodynamic wet-bulb temperature',
     json: { name: 'wb_C' },
+    defining: true,
+    differences: ['0.8K', '1.5F'],
   },
   {
     key: 'dp',
@@ -121,6 +137,8 @@ const ROWS = [
     row: 'dew point',
     hint: 'dew-point temperature',
     json: { name: 'dp_C' },
+    defining: true,
+    differences: ['0.8K', '1.5F'],
   },
   {
     key: 'rh',
@@ -134,6 +152,7 @@ const ROWS = [
     row: 'relative humidity',
     hint: 'relative humidity',
     json: { name: 'rh_pct', times: 100 },
+    defining: true,
   },
   {
     key: 'w',
@@ -147,6 +166,8 @@ const ROWS = [
     row: 'humidity ratio',
     hint: 'humidity ratio',
     json: { name: 'w_kgkg' },
+    defining: true,
+    differences: ['0.5g/kg'],
   },
   {
     key: 'h',
@@ -160,6 +181,8 @@ const ROWS = [
     row: 'enthalpy',
     hint: 'specific enthalpy per mass of dry air',
     json: { name: 'h_kJkg', over: 1000 },
+    defining: true,
+    differences: ['2kJ/kg'],
   },
   {
     key: 'v',
@@ -504,6 +527,19 @@ export const ROW_KEYS: readonly RowKey[] = KEYS.filter((k) => k.row !== undefine
 /** The first example of a key (`db=24C`), for short messages; a neutral one for a key the table lacks. */
 export function firstExample(key: string): string {
   return byKey.get(key)?.examples[0] ?? 'db=24C';
+}
+
+/** The key a reference written after `key=` most likely names: the key itself when it is defining, else `db`. */
+export function referenceKeyFor(key: string): string {
+  return byKey.get(key)?.defining ? key : 'db';
+}
+
+/**
+ * The first difference a reference to `key` may be shifted by (`0.8K`, `0.5g/kg`), for messages;
+ * the dry-bulb's for a key whose references take no difference or that the table lacks.
+ */
+export function differenceExample(key: string): string {
+  return byKey.get(key)?.differences?.[0] ?? byKey.get('db')!.differences![0]!;
 }
 
 /** A figure in the unit of a key's JSON field (`h` in kJ/kg, `rh` in %); null for a missing or non-finite figure. */
