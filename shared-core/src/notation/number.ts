@@ -6,6 +6,7 @@
  * works on the document text in place; the value comes from the written digits (never guessed),
  * and the resolution is the place value of the last written digit.
  */
+import { GROUP_SEPARATOR, GROUP_SIZE, groupAt, groupDigits } from '../text/thousands';
 
 /** A number found at a position, before any check of its value. */
 export interface ScannedNumber {
@@ -26,17 +27,6 @@ const EXACT_POW10: readonly number[] = Array.from({ length: 23 }, (_, i) => Numb
 
 function isDigit(c: number): boolean {
   return c >= 0x30 && c <= 0x39;
-}
-
-/** Exactly three digits at `pos`, not followed by a fourth. */
-function isThreeDigits(text: string, pos: number, end: number): boolean {
-  return (
-    pos + 2 < end &&
-    isDigit(text.charCodeAt(pos)) &&
-    isDigit(text.charCodeAt(pos + 1)) &&
-    isDigit(text.charCodeAt(pos + 2)) &&
-    !(pos + 3 < end && isDigit(text.charCodeAt(pos + 3)))
-  );
 }
 
 /** Whether a number can start at `pos` (a digit, or a sign or point followed by one). */
@@ -75,14 +65,14 @@ export function scanNumber(text: string, pos: number, end: number): ScannedNumbe
     digits++;
     pos++;
   }
-  // Thousands separators: only after a first group of 1–3 digits that does not start with 0, and
-  // only groups of exactly three digits (anything else is left to the caller to report).
+  // Thousands separators (the rule is `text/thousands.ts`'s): only after a first group of 1–3
+  // digits that does not start with 0, and only whole groups (anything else is left to the caller).
   let grouped = false;
-  if (digits >= 1 && digits <= 3 && text.charCodeAt(first) !== 0x30) {
-    while (pos < end && text.charCodeAt(pos) === 0x2c && isThreeDigits(text, pos + 1, end)) {
-      for (let i = 1; i <= 3; i++) mantissa = mantissa * 10 + (text.charCodeAt(pos + i) - 0x30);
-      digits += 3;
-      pos += 4;
+  if (digits >= 1 && digits <= GROUP_SIZE && text.charCodeAt(first) !== 0x30) {
+    while (groupAt(text, pos, end)) {
+      for (let i = 1; i <= GROUP_SIZE; i++) mantissa = mantissa * 10 + (text.charCodeAt(pos + i) - 0x30);
+      digits += GROUP_SIZE;
+      pos += GROUP_SIZE + 1;
       grouped = true;
     }
   }
@@ -130,7 +120,7 @@ export function scanNumber(text: string, pos: number, end: number): ScannedNumbe
     const magnitude = k >= 0 ? mantissa * (EXACT_POW10[k] as number) : mantissa / (EXACT_POW10[-k] as number);
     value = negative ? -magnitude : magnitude;
   } else {
-    const plain = grouped ? written.replace(/,/g, '') : written;
+    const plain = grouped ? written.replaceAll(GROUP_SEPARATOR, '') : written;
     value = Number(text.charCodeAt(start) === 0x2212 ? `-${plain.slice(1)}` : plain);
   }
   return { end: pos, written, value, fractionDigits, exponent };
@@ -171,8 +161,8 @@ export function significantResolution(written: string, resolution: number): numb
 }
 
 /**
- * A number's text with thousands separators in its whole part, in the form {@link scanNumber}
- * reads back to the same value (`277262` → `277,262`, `-1234.5` → `-1,234.5`). Text with an
+ * A number's text with thousands separators in its whole part (`text/thousands.ts`), in the
+ * form {@link scanNumber} reads back to the same value (`277262` → `277,262`, `-1234.5` → `-1,234.5`). Text with an
  * exponent or already grouped is returned unchanged.
  */
 export function withThousandsSeparators(text: string): string {
@@ -180,5 +170,5 @@ export function withThousandsSeparators(text: string): string {
   const m = /^([+\-\u2212]?)([0-9]+)(.*)$/.exec(text);
   if (!m) return text;
   const [, sign = '', whole = '', rest = ''] = m;
-  return `${sign}${whole.replace(/\B(?=(\d{3})+(?!\d))/g, ',')}${rest}`;
+  return `${sign}${groupDigits(whole)}${rest}`;
 }

@@ -14,6 +14,7 @@
  */
 import type { Dimension, UnitDef, UnitSystem } from './types';
 import { nearest } from '../text/suggest';
+import { groupDigits } from '../text/thousands';
 
 export type { Dimension, UnitDef, UnitSystem } from './types';
 
@@ -574,11 +575,11 @@ function decimalsForSignificant(value: number, figures: number): number {
   return figures - 1 - Math.floor(Math.log10(washed));
 }
 
-/** `12345.6` → `12,345.6`: thousands separated by commas (IP figures, as US engineering documents write them). */
+/** `12345.6` → `12,345.6`: thousands separated as `text/thousands.ts` says (IP figures, as US engineering documents write them). */
 function groupThousands(text: string): string {
   const m = /^(\D*)(\d{4,})(.*)$/.exec(text);
   if (!m) return text;
-  return `${m[1]}${m[2]!.replace(/\B(?=(\d{3})+$)/g, ',')}${m[3]}`;
+  return `${m[1]}${groupDigits(m[2]!)}${m[3]}`;
 }
 
 function clampDecimals(d: number): number {
