@@ -31,6 +31,13 @@ function noteWith(statement: KeyStatement, example: string): string {
   return ['```air', 'state A: db=30C rh=40%', 'state B: db=20C rh=50%', `${line}${flow}`, '```', ''].join('\n');
 }
 
+/** The one message the parser gives on `line` (in an air block). */
+function onlyMessage(line: string): string {
+  const got = parseNote(['```air', line, '```', ''].join('\n')).diagnostics.map((d) => d.message);
+  expect(got.length, line).toBe(1);
+  return got[0]!;
+}
+
 function propsOf(st: Statement): PropertyNode[] {
   return 'props' in st ? st.props : [];
 }
@@ -141,8 +148,6 @@ describe('the key table', () => {
 });
 
 describe("the parser's examples come from the table", () => {
-  const message = (line: string) => parseNote(['```air', line, '```', ''].join('\n')).diagnostics.map((d) => d.message);
-
   // These said "e.g. shr=24C" and "e.g. water=24C": the parser kept its own list, which lacked them.
   it.each([
     ['process P: A -> B shr=', 'e.g. shr=0.73'],
@@ -151,16 +156,14 @@ describe("the parser's examples come from the table", () => {
     ['state S: db=24C rh=50% v=', 'e.g. v=0.854m3/kg'],
     ['state S: db=24C h=', 'e.g. h=47.8kJ/kg'],
   ])('%s → %s', (line, says) => {
-    const got = message(line);
-    expect(got.length).toBe(1);
-    expect(got[0]).toContain(says);
-    expect(got[0]).not.toMatch(/=24C\b/);
+    const got = onlyMessage(line);
+    expect(got).toContain(says);
+    expect(got).not.toMatch(/=24C\b/);
   });
 });
 
 describe('references read the table: which keys define a state, and the differences they shift by', () => {
   const defining = KEYS.filter((k) => k.defining).map((k) => k.key);
-  const message = (line: string) => parseNote(['```air', line, '```', ''].join('\n')).diagnostics.map((d) => d.message);
 
   it('marks the same defining keys as the solver, in its order', () => {
     expect(defining).toEqual([...PHYSICS_DEFINING_KEYS]);
@@ -184,9 +187,7 @@ describe('references read the table: which keys define a state, and the differen
     ['state S: rh=50% dp=OA.', 'write dp=OA.dp'],
     ['process P: A -> B m=OA.', 'write m=OA.db'],
   ])("%s: the parser's message says %s", (line, says) => {
-    const got = message(line);
-    expect(got.length).toBe(1);
-    expect(got[0]).toContain(says);
+    expect(onlyMessage(line)).toContain(says);
   });
 
   it('gives a reference no difference where the row has none', () => {
