@@ -269,13 +269,7 @@ export function statesTable(f: FileResult): string | null {
       v.w.value,
       v.h.value,
       v.v.value,
-      row.status === 'failed'
-        ? 'not computed (see diagnostics)'
-        : s.kind === 'mix'
-          ? row.streams.map((x) => `${x.name} ${x.fraction.text}`).join(' + ')
-          : s.kind === 'supply' && s.supply
-            ? `loads of ${s.supply.room}, ${row.massFlow.value}`
-            : s.defining.join('+'),
+      row.status === 'failed' ? 'not computed (see diagnostics)' : row.source,
     ];
   });
   return renderTable(header, rows, [false, true, false, true, true, true, true, true, true, true, true, false]);

@@ -86,6 +86,14 @@ export interface StateRow {
   massFlow: Figure;
   /** For a state a process or heat recovery defines: `from A via HX`; null otherwise. */
   origin: string | null;
+  /**
+   * Where the state came from, in a few words (the terminal table's "from" column): the streams
+   * of a mix (`OA 25.0 % + RA 75.0 %`), a supply's room and flow (`supply from RA loads, 4.60 kg/s`),
+   * the statement that defined it from another state (`CC from MA`, `HX from OA`), or the
+   * properties that fixed it, each taken one named with its state (`db+wb`, `db, w from OA`,
+   * `db+w from MA`); `not computed` when it failed.
+   */
+  source: string;
 }
 
 /** One process, every figure formatted (positive = added to the air). */
@@ -166,6 +174,11 @@ export function stateRow(item: StateResult, system: UnitSystem, opts: RowOptions
   };
   const massFlow = (kgS: number | null | undefined): Figure =>
     figure(kgS, 'massFlow', system, { extraDigits: opts.extraDigits });
+  const streams = (item.streams ?? []).map((s) => ({
+    name: s.name,
+    fraction: figure(s.fraction, 'fraction', system, { extraDigits: opts.extraDigits }),
+    flow: massFlow(s.massFlowKgS),
+  }));
   return {
     kind: item.kind,
     name: item.name,
@@ -174,14 +187,36 @@ export function stateRow(item: StateResult, system: UnitSystem, opts: RowOptions
     wbIce: st?.wbIce ?? false,
     dpFrost: st?.dpFrost ?? false,
     defining: item.defining,
-    streams: (item.streams ?? []).map((s) => ({
-      name: s.name,
-      fraction: figure(s.fraction, 'fraction', system, { extraDigits: opts.extraDigits }),
-      flow: massFlow(s.massFlowKgS),
-    })),
+    streams,
     massFlow: massFlow(item.massFlowKgS),
     origin: item.definedBy ? `from ${item.definedBy.from} via ${item.definedBy.name}` : null,
+    source: sourceText(item, streams, massFlow(item.massFlowKgS)),
   };
+}
+
+/** The `source` of a state row (see {@link StateRow.source}). */
+function sourceText(item: StateResult, streams: StateRow['streams'], flow: Figure): string {
+  if (item.state === null) return 'not computed';
+  if (item.kind === 'mix') return streams.map((x) => `${x.name} ${x.fraction.text}`).join(' + ');
+  if (item.kind === 'supply') {
+    const room = item.supply?.room;
+    return room ? `supply from ${room} loads, ${flow.text}` : 'supply';
+  }
+  if (item.definedBy) return `${item.definedBy.name} from ${item.definedBy.from}`;
+  // The defining properties; those taken from a state above named with it, runs from one state joined.
+  const from = (key: string) => item.sources?.find((x) => x.key === key)?.from ?? null;
+  const parts: { keys: string[]; from: string | null }[] = [];
+  for (const key of item.defining) {
+    const f = from(key);
+    const last = parts[parts.length - 1];
+    if (last && last.from === f) last.keys.push(key);
+    else parts.push({ keys: [key], from: f });
+  }
+  if (parts.length === 1) {
+    const only = parts[0]!;
+    return only.from ? `${only.keys.join('+')} from ${only.from}` : only.keys.join('+');
+  }
+  return parts.map((x) => (x.from ? `${x.keys.join('+')} from ${x.from}` : x.keys.join('+'))).join(', ');
 }
 
 /** The row of a process in `system`. */
