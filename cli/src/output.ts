@@ -81,16 +81,38 @@ export function summaryLine(files: number, c: Counts, unreadable = 0): string {
 /** Significant digits of every figure in the JSON: beyond the engine's accuracy, clear of binary noise. */
 export const JSON_SIGNIFICANT_DIGITS = 12;
 
+/** 10⁰ … 10²²: the powers of ten a double holds exactly. */
+const EXACT_POW10: readonly number[] = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
+
 /**
  * A figure for the JSON at {@link JSON_SIGNIFICANT_DIGITS} significant digits — never a fixed
  * number of decimals, which would leave a −60 °C dew-point state's humidity ratio (3.3e-6 kg/kg)
- * with two; null stays null (never NaN or Infinity in the JSON).
+ * with two; null stays null (never NaN or Infinity in the JSON). It is the double nearest to
+ * `x.toPrecision(12)`: the usual figure (1e-6 ≤ |x| < 1e11) is scaled once to a 12-digit whole
+ * number and rounded, and divided back (a quotient of two exact doubles, rounded once, is the
+ * double nearest to the decimal); the scaling is exact to 1e-4 of the last digit, so a figure
+ * that close to a half (a tie), and any other figure, goes through `toPrecision` itself. (The
+ * test of the JSON precision compares the two on a million figures.)
  */
-function r(x: number | null | undefined): number | null {
+export function roundForJson(x: number | null | undefined): number | null {
   if (x === null || x === undefined || !Number.isFinite(x)) return null;
+  const a = x < 0 ? -x : x;
+  if (a >= 1e-6 && a < 1e11) {
+    // Decimals that leave 12 significant digits: 11 − the decimal exponent of a (1 … 17).
+    let s = 11 - Math.floor(Math.log10(a));
+    let y = a * (EXACT_POW10[s] as number);
+    if (y < 1e11) y = a * (EXACT_POW10[++s] as number);
+    else if (y >= 1e12) y = a * (EXACT_POW10[--s] as number);
+    const frac = y - Math.floor(y);
+    if (y >= 1e11 && y < 1e12 && (frac < 0.4999 || frac > 0.5001)) {
+      const v = Math.round(y) / (EXACT_POW10[s] as number);
+      return x < 0 ? -v : v;
+    }
+  }
   const v = Number(x.toPrecision(JSON_SIGNIFICANT_DIGITS));
   return Object.is(v, -0) ? 0 : v;
 }
+const r = roundForJson;
 
 function lineOf(f: FileResult, item: StateResult | ProcessResult): number {
   const s = item.statement.name?.span ?? item.statement.span;
@@ -107,8 +129,16 @@ export function stateJson(f: FileResult, s: StateResult): Record<string, unknown
     ok: st !== null,
   };
   // Field names and units come from the key table.
-  out[jsonName('p')] = r(jsonFigure('p', s.pressure.pa));
-  for (const key of STATE_JSON_KEYS) out[jsonName(key)] = r(jsonFigure(key, st?.[key]));
+  // (One store per field, each always the same name: much faster than a loop over the names.)
+  out[N.p] = r(jsonFigure('p', s.pressure.pa));
+  out[N.db] = r(jsonFigure('db', st?.db));
+  out[N.wb] = r(jsonFigure('wb', st?.wb));
+  out[N.dp] = r(jsonFigure('dp', st?.dp));
+  out[N.rh] = r(jsonFigure('rh', st?.rh));
+  out[N.w] = r(jsonFigure('w', st?.w));
+  out[N.h] = r(jsonFigure('h', st?.h));
+  out[N.v] = r(jsonFigure('v', st?.v));
+  out[N.rho] = r(jsonFigure('rho', st?.rho));
   out.defining = [...s.defining];
   out.pressure = s.pressure.describe;
   if (s.kind === 'mix') {
@@ -140,8 +170,18 @@ export function stateJson(f: FileResult, s: StateResult): Record<string, unknown
   return out;
 }
 
-/** The computed properties of a state in its JSON, in order (each a field of the computed state). */
-const STATE_JSON_KEYS = ['db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'rho'] as const;
+/** The JSON field names of a state's pressure and computed properties, from the key table. */
+const N = {
+  p: jsonName('p'),
+  db: jsonName('db'),
+  wb: jsonName('wb'),
+  dp: jsonName('dp'),
+  rh: jsonName('rh'),
+  w: jsonName('w'),
+  h: jsonName('h'),
+  v: jsonName('v'),
+  rho: jsonName('rho'),
+} as const;
 
 /** A process in the JSON shape (heat rates in kW and water in kg/h, positive = added to the air). */
 export function processJson(f: FileResult, p: ProcessResult): Record<string, unknown> {
@@ -209,6 +249,77 @@ export function evalFileJson(f: FileResult): Record<string, unknown> {
     processes,
     diagnostics: f.analysis.diagnostics.map((d) => diagnosticJson(f, d)),
   };
+}
+
+/** Objects of an array stringified at once (small enough to stream, large enough to keep JSON.stringify's speed). */
+const JSON_BATCH = 256;
+
+/**
+ * The elements of `values` as `JSON.stringify(array, null, 2)` prints them when the array's
+ * elements lie `depth` (≥ 1) levels deep: `A,\n<indent>B…` without the brackets. The batch is
+ * wrapped in depth − 1 arrays, stringified in one call, and the wrappers' text cut off.
+ */
+function elementsText(values: unknown[], depth: number): string {
+  let nested: unknown = values;
+  let before = '';
+  let after = '';
+  for (let k = 0; k < depth; k++) {
+    if (k > 0) nested = [nested];
+    before += `${'  '.repeat(k)}[\n`;
+    after = `\n${'  '.repeat(k)}]${after}`;
+  }
+  before += '  '.repeat(depth);
+  const text = JSON.stringify(nested, null, 2);
+  return text.slice(before.length, text.length - after.length);
+}
+
+/**
+ * Writes an array of objects made one by one by `make` (null: none for that element) as
+ * `JSON.stringify` prints it with its elements `depth` levels deep, in pieces of
+ * {@link JSON_BATCH} elements: at most one batch of objects exists at a time.
+ */
+function emitArray<T>(
+  source: Iterable<T>,
+  make: (x: T) => unknown | null,
+  depth: number,
+  emit: (chunk: string) => void,
+): void {
+  const lead = `\n${'  '.repeat(depth)}`;
+  let batch: unknown[] = [];
+  let first = true;
+  const flush = (): void => {
+    emit(`${first ? '[' : ','}${lead}${elementsText(batch, depth)}`);
+    first = false;
+    batch = [];
+  };
+  for (const x of source) {
+    const v = make(x);
+    if (v === null) continue;
+    batch.push(v);
+    if (batch.length >= JSON_BATCH) flush();
+  }
+  if (batch.length > 0) flush();
+  emit(first ? '[]' : `\n${'  '.repeat(depth - 1)}]`);
+}
+
+/**
+ * One file of the `eval --format json` document as text, handed to `emit` in pieces (a few
+ * hundred states, processes or diagnostics each), so that a large note's document is never one
+ * string or one tree of objects: exactly `JSON.stringify(evalFileJson(f), null, 2)` nested
+ * `depth` levels deep (every line after the first indented by `depth` levels).
+ */
+export function evalFileText(f: FileResult, depth: number, emit: (chunk: string) => void): void {
+  const field = `\n${'  '.repeat(depth + 1)}`;
+  emit(
+    `{${field}"path": ${JSON.stringify(f.path)},${field}"units": ${JSON.stringify(f.analysis.units)},${field}"states": `,
+  );
+  const items = f.analysis.items;
+  emitArray(items, (i) => (i.kind === 'process' ? null : stateJson(f, i)), depth + 2, emit);
+  emit(`,${field}"processes": `);
+  emitArray(items, (i) => (i.kind === 'process' ? processJson(f, i) : null), depth + 2, emit);
+  emit(`,${field}"diagnostics": `);
+  emitArray(f.analysis.diagnostics, (d) => diagnosticJson(f, d), depth + 2, emit);
+  emit(`\n${'  '.repeat(depth)}}`);
 }
 
 // ---------------------------------------------------------------------------------------------

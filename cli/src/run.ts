@@ -13,7 +13,7 @@ import {
   explainEmpty,
 } from '@dewmark/files';
 import { summaryLine, type Counts } from './output';
-import { runTasks, type FileOutput, type Mode, type Task } from './work';
+import { runTasks, type Emit, type FileOutput, type Mode, type Task } from './work';
 import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from './settings';
 import { registerChart } from './commands/chart';
 import { registerReport } from './commands/report';
@@ -69,6 +69,7 @@ async function analyse(
   io: CliIO,
   mode: Mode,
   onFile: (out: FileOutput) => void,
+  emitFor?: (task: Task) => Emit,
 ): Promise<Totals> {
   const settings = toSettings(opts);
   const maxBytes = maxNoteBytes(opts);
@@ -119,6 +120,7 @@ async function analyse(
       onFile(r.out);
     },
     progress ? (done) => io.err(`\rdewmark: checking ${done}/${tasks.length} files…`) : undefined,
+    emitFor,
   );
   if (progress) io.err('\r\x1b[K');
   if (inputs.length > 0 && project.tasks.length === 0 && problems.length === 0) {
@@ -226,13 +228,37 @@ async function runEvalCommand(paths: string[], opts: CommonOptions, io: CliIO): 
   if (format !== 'table' && format !== 'json')
     throw new UsageError(`--format must be table or json for eval, not '${format}'`);
   const out = new OutBuffer(io);
-  const jsonFiles: unknown[] = [];
-  const t = await analyse(paths, opts, io, format === 'json' ? 'eval-json' : 'eval-table', (f) => {
-    if (format === 'json') jsonFiles.push(f.json);
-    else out.push(f.text);
-  });
-  if (format === 'json') out.push(`${JSON.stringify({ files: jsonFiles }, null, 2)}\n`);
-  else out.push(`${summaryLine(t.files, t.counts, t.ioProblems)}\n`);
+  if (format === 'table') {
+    const t = await analyse(paths, opts, io, 'eval-table', (f) => out.push(f.text));
+    out.push(`${summaryLine(t.files, t.counts, t.ioProblems)}\n`);
+    out.flush();
+    return exitCodeFor(t, null);
+  }
+  // The JSON document is written as it is made, file after file (each file's object as it
+  // comes, or in pieces as the file is written): the same text as
+  // JSON.stringify({ files }, null, 2), without holding the whole document.
+  let files = 0;
+  const nextFile = (): void => out.push(files++ === 0 ? '{\n  "files": [\n    ' : ',\n    ');
+  const t = await analyse(
+    paths,
+    opts,
+    io,
+    'eval-json',
+    (f) => {
+      if (f.text === '') return; // written in pieces already
+      nextFile();
+      out.push(f.text);
+    },
+    () => {
+      let started = false;
+      return (chunk) => {
+        if (!started) nextFile();
+        started = true;
+        out.push(chunk);
+      };
+    },
+  );
+  out.push(files === 0 ? '{\n  "files": []\n}\n' : '\n  ]\n}\n');
   out.flush();
   return exitCodeFor(t, null);
 }

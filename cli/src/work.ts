@@ -13,7 +13,7 @@ import {
   countDiagnostics,
   diagnosticJson,
   diagnosticLine,
-  evalFileJson,
+  evalFileText,
   fileResult,
   processesTable,
   statesTable,
@@ -22,12 +22,19 @@ import {
 /** What is produced for each file. */
 export type Mode = 'check-text' | 'check-json' | 'eval-table' | 'eval-json';
 
-/** The output of one file: text to print, or a JSON value, and its diagnostic counts. */
+/**
+ * The output of one file: text to print, or a JSON value, and its diagnostic counts. For
+ * `eval-json` the text is the file's object of the JSON document (nested two levels deep), or
+ * empty when it was handed out in pieces as it was written (see {@link renderFile}).
+ */
 export interface FileOutput {
   text: string;
   json: unknown;
   counts: Counts;
 }
+
+/** Where a file's output may go in pieces as it is written, instead of as one string. */
+export type Emit = (chunk: string) => void;
 
 /** One file to do: a path, or text already read (standard input). */
 export interface Task {
@@ -42,8 +49,18 @@ export interface Task {
 /** The outcome of one task. */
 export type TaskResult = { ok: true; out: FileOutput } | { ok: false; message: string };
 
-/** Analyses one note and renders it for `mode`. */
-export function renderFile(mode: Mode, display: string, text: string, settings: Partial<EvaluateSettings>): FileOutput {
+/**
+ * Analyses one note and renders it for `mode`. With `emit`, the `eval-json` text goes there in
+ * pieces (one per state, process or diagnostic) once the note is analysed, so that a large note's
+ * document is never one string in memory.
+ */
+export function renderFile(
+  mode: Mode,
+  display: string,
+  text: string,
+  settings: Partial<EvaluateSettings>,
+  emit?: Emit,
+): FileOutput {
   const f = fileResult(display, text, analyzeNote(text, settings));
   const counts = countDiagnostics([f]);
   switch (mode) {
@@ -66,8 +83,16 @@ export function renderFile(mode: Mode, display: string, text: string, settings: 
         }));
       return { text: '', json, counts };
     }
-    case 'eval-json':
-      return { text: '', json: evalFileJson(f), counts };
+    case 'eval-json': {
+      // The file's object inside the document's `files` array: two levels deep.
+      if (emit) {
+        evalFileText(f, 2, emit);
+        return { text: '', json: null, counts };
+      }
+      const pieces: string[] = [];
+      evalFileText(f, 2, (c) => pieces.push(c));
+      return { text: pieces.join(''), json: null, counts };
+    }
     case 'eval-table': {
       let t = `${safeLinePath(f.path)}  (results in ${f.analysis.units}${f.analysis.unitsSource === 'note' ? ', from the note' : ''})\n\n`;
       const st = statesTable(f);
@@ -85,8 +110,8 @@ export function renderFile(mode: Mode, display: string, text: string, settings: 
   }
 }
 
-/** Reads (unless the text is given) and renders one task; never throws. */
-export function runTask(task: Task, mode: Mode, settings: Partial<EvaluateSettings>): TaskResult {
+/** Reads (unless the text is given) and renders one task (its output to `emit` when given, see {@link renderFile}); never throws. */
+export function runTask(task: Task, mode: Mode, settings: Partial<EvaluateSettings>, emit?: Emit): TaskResult {
   const read =
     task.text !== undefined
       ? { ok: true as const, text: task.text }
@@ -95,7 +120,7 @@ export function runTask(task: Task, mode: Mode, settings: Partial<EvaluateSettin
         : readInput(task.input, task.maxBytes);
   if (!read.ok) return { ok: false, message: read.message };
   try {
-    return { ok: true, out: renderFile(mode, task.input.display, read.text, task.settings ?? settings) };
+    return { ok: true, out: renderFile(mode, task.input.display, read.text, task.settings ?? settings, emit) };
   } catch (err) {
     return {
       ok: false,
@@ -175,7 +200,9 @@ function batchSize(n: number, threads: number): number {
  * Runs the tasks and calls `onResult` for each, in input order. With many files and several
  * cores, worker threads and the main thread take batches of files from one queue as they become
  * free (a worker that is slow to start, or a busy core, simply takes fewer). A worker that fails
- * to start or dies has its batch done in the main thread.
+ * to start or dies has its batch done in the main thread. When everything runs in the main
+ * thread and `emitFor` is given, each task's output goes to `emitFor(task)` in pieces as it is
+ * written (before its `onResult`, whose text is then empty).
  */
 export async function runTasks(
   tasks: Task[],
@@ -183,11 +210,12 @@ export async function runTasks(
   settings: Partial<EvaluateSettings>,
   onResult: (task: Task, r: TaskResult) => void,
   onProgress?: (done: number) => void,
+  emitFor?: (task: Task) => Emit,
 ): Promise<void> {
   const k = workerCount(tasks.length);
   if (k === 0) {
     tasks.forEach((t, i) => {
-      onResult(t, runTask(t, mode, settings));
+      onResult(t, runTask(t, mode, settings, emitFor?.(t)));
       if (onProgress && (i % 10 === 9 || i === tasks.length - 1)) onProgress(i + 1);
     });
     return;
