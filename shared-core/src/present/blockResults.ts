@@ -150,6 +150,56 @@ function firstAtOrAfter<T>(list: readonly T[], offset: number, spanOf: (x: T) =>
 }
 
 /**
+ * The subject of a problem: the name of the last statement (from `from` on) that starts at or
+ * before the problem's offset and reaches it. Problems come in document order, so one cursor
+ * walks the statements once for all the problems of a block (a block with thousands of problems
+ * costs as many steps as statements and problems together, not their product). The statements
+ * of a note do not overlap; should they, the statements before the cursor's are searched too, as
+ * far as one of them could still reach the offset.
+ */
+class SubjectFinder {
+  /** The block's first statement. */
+  private readonly start: number;
+  /** Statements [start, next) start at or before the last offset asked. */
+  private next: number;
+  /** The furthest end of the statements passed before the last one (−1: none). */
+  private reachBefore = -1;
+  private lastOffset = Number.NEGATIVE_INFINITY;
+  constructor(
+    private readonly statements: readonly Statement[],
+    from: number,
+  ) {
+    this.start = firstAtOrAfter(statements, from, (x) => x.span);
+    this.next = this.start;
+  }
+
+  at(offset: number): string | null {
+    if (offset < this.lastOffset) {
+      // Out of order: start again from the block's first statement.
+      this.next = this.start;
+      this.reachBefore = -1;
+    }
+    this.lastOffset = offset;
+    const list = this.statements;
+    while (this.next < list.length && list[this.next]!.span.start <= offset) {
+      if (this.next > this.start) this.reachBefore = Math.max(this.reachBefore, list[this.next - 1]!.span.end);
+      this.next++;
+    }
+    const last = this.next - 1;
+    if (last < this.start) return null;
+    const s = list[last]!;
+    if (offset <= s.span.end) return nameOf(s);
+    if (this.reachBefore < offset) return null;
+    // Overlapping statements: the last earlier one that reaches the offset.
+    for (let k = last - 1; k >= this.start; k--) {
+      const t = list[k]!;
+      if (t.span.start <= offset && offset <= t.span.end) return nameOf(t);
+    }
+    return null;
+  }
+}
+
+/**
  * Everything the shown results of some items depend on, as one string: the unit system, each
  * item's figures at full precision, and the problems. Equal keys give equal results, so the
  * formatted results can be reused from one analysis to the next (the editor analyses the note on
@@ -207,18 +257,13 @@ function resultsIn(analysis: Analysis, span: Span, system: UnitSystem): ResultsD
     if (item.statement.span.start > span.end) break;
     items.push(item);
   }
-  const statements = analysis.parsed.statements;
   const problems: ProblemData[] = [];
+  const subjects = new SubjectFinder(analysis.parsed.statements, span.start);
   for (let i = firstAtOrAfter(analysis.diagnostics, span.start, (x) => x.span); i < analysis.diagnostics.length; i++) {
     const d: CoreDiagnostic = analysis.diagnostics[i]!;
     if (d.span.start > span.end) break;
     if (d.severity === 'info') continue;
-    let subject: string | null = null;
-    for (let k = firstAtOrAfter(statements, span.start, (x) => x.span); k < statements.length; k++) {
-      const s = statements[k]!;
-      if (s.span.start > d.span.start) break;
-      if (d.span.start <= s.span.end) subject = nameOf(s);
-    }
+    const subject = subjects.at(d.span.start);
     problems.push({ severity: d.severity, code: d.code, subject, message: d.message.replace(/\s+/g, ' ').trim() });
   }
   const key = resultsKey(system, items, problems);
