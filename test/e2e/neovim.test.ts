@@ -1,16 +1,21 @@
 /**
  * A real independent client: headless Neovim (0.7.2 from Debian) starts the server with the
- * configuration snippet the README quotes (test/e2e/neovim-config.lua), opens a note, and the test
+ * README's Neovim 0.7 configuration (read from the README, `<!-- editor-config: neovim-0.7 -->`), opens a note, and the test
  * checks hover, diagnostics after an edit, symbols, completion and an inlay-hint request, and the
  * results table written by a source action and refreshed by its quick fix. Without
  * `nvim` the test is skipped with a message; under CI=true it fails.
  */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
+import { writeEditorConfig } from './lib/editorConfigs';
 import { completionLabels, hoverText, inlayHintLabels, positionOf, runNeovim, type StepResult } from './lib/neovim';
 import { REPO_ROOT, requireTool } from './lib/tools';
 
-const CONFIG = join(REPO_ROOT, 'test', 'e2e', 'neovim-config.lua');
+const CONFIG_DIR = mkdtempSync(join(tmpdir(), 'dewmark-nvim-config-'));
+const CONFIG = writeEditorConfig('neovim-0.7', CONFIG_DIR);
+afterAll(() => rmSync(CONFIG_DIR, { recursive: true, force: true }));
 const SERVER = join(REPO_ROOT, 'bin', 'dewmark-language-server.js');
 
 const NOTE = [

@@ -7,7 +7,7 @@
 -- uncaught Lua error would leave headless Neovim waiting forever.
 --
 -- The plan (see NeovimPlan in neovim.ts for every field):
---   { cmd = {argv...}, cmdCwd, cmdEnv, root, configFile, settings, initializationOptions,
+--   { cmd = {argv...}, cmdCwd, cmdEnv, root, configFile, preludeFile, settings, initializationOptions,
 --     timeoutMs, resultFile, logLevel, steps = { {op = 'open', path = ..., filetype = ...}, ... } }
 -- The report is written as JSON to plan.resultFile (and as one line to stdout, after a marker), with
 -- ok = true only when every step succeeded. Exit code: 0 on success, 1 on a failed step.
@@ -98,6 +98,8 @@ local function main()
     -- start_client is wrapped only to add the probe's hooks (with_hooks); the config is otherwise the user's.
     local orig_start = vim.lsp.start_client
     vim.lsp.start_client = function(config) return orig_start(with_hooks(config)) end
+    -- A prelude (a stand-in for what a later Neovim or a plugin provides) runs first.
+    if plan.preludeFile then vim.cmd('luafile ' .. vim.fn.fnameescape(plan.preludeFile)) end
     vim.cmd('luafile ' .. vim.fn.fnameescape(plan.configFile))
   else
     client_id = vim.lsp.start_client(with_hooks({

@@ -140,6 +140,8 @@ export interface NeovimPlan {
    * configuration snippet; the probe then uses the client that attaches to the first opened document.
    */
   configFile?: string;
+  /** A Lua file run just before `configFile` (e.g. a stand-in for an API of a later Neovim or a plugin). */
+  preludeFile?: string;
   /** `settings` for the client (Neovim answers `workspace/configuration` from them). */
   settings?: Record<string, unknown>;
   /** `initializationOptions` sent with `initialize`. */
@@ -367,6 +369,7 @@ export async function runNeovim(plan: NeovimPlan): Promise<NeovimRun> {
     cmdEnv: plan.serverEnv,
     root,
     configFile: plan.configFile,
+    preludeFile: plan.preludeFile,
     settings: plan.settings,
     initializationOptions: plan.initializationOptions,
     timeoutMs: plan.stepTimeoutMs ?? 10_000,

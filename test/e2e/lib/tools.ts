@@ -3,10 +3,11 @@
  * missing: under `CI=true` it fails with a message naming the set-up script; elsewhere it is skipped
  * with a message saying what to install.
  *
- * The tools are installed by `bash scripts/setup-e2e-tools.sh` (Debian's `nvim` and `chromium` on
- * PATH; Node 24, code-server and playwright-core in the git-ignored `.e2e-tools/` folder at the
- * repository root). Each can be pointed elsewhere with an environment variable:
- * `DEWMARK_NVIM`, `DEWMARK_CHROMIUM`, `DEWMARK_E2E_TOOLS_DIR` (the folder holding `node_modules/`).
+ * The tools are installed by `bash scripts/setup-e2e-tools.sh` (Debian's `nvim`, `emacs` with
+ * eglot and markdown-mode, and `chromium` on PATH; Node 24, code-server and playwright-core in the
+ * git-ignored `.e2e-tools/` folder at the repository root). Each can be pointed elsewhere with an
+ * environment variable: `DEWMARK_NVIM`, `DEWMARK_EMACS`, `DEWMARK_CHROMIUM`, `DEWMARK_E2E_TOOLS_DIR`
+ * (the folder holding `node_modules/`).
  *
  * @example
  *   // one test
@@ -20,13 +21,13 @@ import { delimiter, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 /** The tools the editor tests use. */
-export type ToolName = 'nvim' | 'chromium' | 'node24' | 'code-server' | 'playwright-core';
+export type ToolName = 'nvim' | 'emacs' | 'chromium' | 'node24' | 'code-server' | 'playwright-core';
 
 /** A located tool. */
 export interface Tool {
   /** Which tool. */
   name: ToolName;
-  /** Executable (nvim, chromium, node24), script (code-server's `out/node/entry.js`) or package folder (playwright-core). */
+  /** Executable (nvim, emacs, chromium, node24), script (code-server's `out/node/entry.js`) or package folder (playwright-core). */
   path: string;
   /** Version as the tool reports it (e.g. `0.7.2`, `156.0.8078.114`, `24.22.3`, `4.139.1`, `1.65.1`). */
   version: string;
@@ -61,13 +62,21 @@ export function isCI(): boolean {
 
 const SETUP_FLAG: Record<ToolName, string> = {
   nvim: '--neovim',
+  emacs: '--emacs',
   chromium: '--code-server',
   node24: '--code-server',
   'code-server': '--code-server',
   'playwright-core': '--code-server',
 };
 
-const MIN_MAJOR: Partial<Record<ToolName, [number, number]>> = { nvim: [0, 7], node24: [24, 0] };
+const MIN_MAJOR: Partial<Record<ToolName, [number, number]>> = { nvim: [0, 7], emacs: [28, 1], node24: [24, 0] };
+
+/**
+ * What an Emacs must load for the eglot test, printed by it: its version once eglot (built in from
+ * Emacs 29, a package before) and markdown-mode load with the installed packages activated.
+ */
+const EMACS_CHECK =
+  '(progn (package-activate-all) (require \'eglot) (require \'markdown-mode) (princ (format "%s\\n" emacs-version)))';
 
 interface Lookup {
   tool?: Tool;
@@ -124,6 +133,14 @@ function lookup(name: ToolName): Lookup {
       const line = firstLineOf(path, ['--version']); // "NVIM v0.7.2"
       const version = line?.match(/v(\d+\.\d+\.\d+)/)?.[1];
       if (!version) return { why: `'${path} --version' did not print a version` };
+      return { tool: { name, path, version }, why: '' };
+    }
+    case 'emacs': {
+      const path = process.env.DEWMARK_EMACS || onPath(['emacs']);
+      if (!path) return { why: "'emacs' is not on PATH" };
+      const line = firstLineOf(path, ['--batch', '-q', '--eval', EMACS_CHECK]); // "28.2"
+      const version = line?.match(/^(\d+\.\d+)/)?.[1];
+      if (!version) return { why: `'${path}' cannot load eglot and markdown-mode (elpa-eglot, elpa-markdown-mode)` };
       return { tool: { name, path, version }, why: '' };
     }
     case 'chromium': {
@@ -225,7 +242,7 @@ export function skipWithout(...names: ToolName[]): boolean {
 
 /** Every tool's location and version (or why it is missing), one line each, for logs. */
 export function describeTools(): string {
-  const names: ToolName[] = ['nvim', 'chromium', 'node24', 'code-server', 'playwright-core'];
+  const names: ToolName[] = ['nvim', 'emacs', 'chromium', 'node24', 'code-server', 'playwright-core'];
   return names
     .map((n) => {
       const t = findTool(n);

@@ -1,0 +1,77 @@
+/**
+ * A real independent client: batch Emacs (Debian's 28.2) with eglot (Debian's elpa-eglot 1.9) and
+ * markdown-mode loads the README's Emacs configuration (read from the README, `<!-- editor-config:
+ * emacs-eglot -->`), opens a note, and eglot starts `dewmark-language-server --stdio` on its own.
+ * The test checks the published diagnostics and what flymake shows of them, a hover's figures, and
+ * the diagnostics after an edit. Without Emacs, eglot or markdown-mode the test is skipped with a
+ * message; under CI=true it fails (scripts/setup-e2e-tools.sh --emacs installs them).
+ */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { writeEditorConfig } from './lib/editorConfigs';
+import { runEmacs } from './lib/emacs';
+import { REPO_ROOT, requireTool } from './lib/tools';
+
+const SERVER = join(REPO_ROOT, 'bin', 'dewmark-language-server.js');
+const CONFIG_DIR = mkdtempSync(join(tmpdir(), 'dewmark-emacs-config-'));
+afterAll(() => rmSync(CONFIG_DIR, { recursive: true, force: true }));
+
+// Invented building.
+const NOTE = [
+  '# Harbour Street Lab — AHU-2',
+  '',
+  '```air',
+  'state OA: db=40C wb=20C        # hot, dry intake air',
+  'state RA: db=24 rh=50%',
+  'mix MA: OA 25% + RA 75%',
+  '```',
+  '',
+].join('\n');
+
+// ASHRAE HoF 2017 SI Ch.1 Example 1 (40 °C db / 20 °C wb, 101.325 kPa): W 0.0065 kg/kg ± 0.0001,
+// h 56.7 kJ/kg ± 0.1 (PsychroLib test-suite tolerances), plus half a shown digit.
+const W_G_PER_KG = { value: 6.5, tol: 0.105 };
+const H_KJ_PER_KG = { value: 56.7, tol: 0.105 };
+
+describe('Emacs (eglot) as the LSP client', () => {
+  it('starts the server from the README configuration, shows its diagnostics, hovers and follows an edit', async (ctx) => {
+    const emacs = requireTool('emacs', ctx);
+    const { report } = await runEmacs({
+      emacs: emacs.path,
+      configFile: writeEditorConfig('emacs-eglot', CONFIG_DIR),
+      env: { DEWMARK_LANGUAGE_SERVER: SERVER },
+      note: { name: 'ahu2.md', text: NOTE },
+      hoverAt: 'OA:',
+      edit: { from: 'db=24 rh', to: 'db=24C rh' },
+    });
+    expect(report.emacsVersion).toMatch(/^\d+\.\d+/);
+    expect(report.majorMode).toBe('markdown-mode');
+    expect(report.languageId).toBe('markdown');
+    expect(report.serverInfo?.name).toBe('dewmark-language-server');
+
+    // RA's dry-bulb has no unit, and MA waits on RA (as in the Neovim test).
+    expect(report.diagnostics!.map((d) => d.code)).toEqual(['missing-unit', 'unresolved-dependency']);
+    expect(report.diagnostics![0]).toMatchObject({ line: 4, character: 'state RA: db='.length, severity: 1 });
+    // flymake shows them on the same lines (1-based): an error, and the waiting mix as a note (info).
+    const shown = [...report.flymake!].sort((a, b) => a.line - b.line);
+    expect(shown.map((d) => [d.line, d.type])).toEqual([
+      [5, 'eglot-error'],
+      [6, 'eglot-note'],
+    ]);
+    expect(shown[0]!.text).toContain('missing-unit');
+
+    const hover = report.hover!;
+    expect(hover).toContain('**state OA**');
+    const w = Number(/\| `w` \| ([\d.]+) g\/kg/.exec(hover)?.[1]);
+    const h = Number(/\| `h` \| ([\d.]+) kJ\/kg/.exec(hover)?.[1]);
+    expect(Math.abs(w - W_G_PER_KG.value)).toBeLessThanOrEqual(W_G_PER_KG.tol);
+    expect(Math.abs(h - H_KJ_PER_KG.value)).toBeLessThanOrEqual(H_KJ_PER_KG.tol);
+    expect(hover).toContain('Design aid only');
+
+    // After the edit the note is clean: eglot sent the change, the server republished.
+    expect(report.editVersion).toBeGreaterThan(0);
+    expect(report.diagnosticsAfterEdit).toEqual([]);
+  });
+});
