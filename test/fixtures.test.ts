@@ -89,6 +89,17 @@ const sourced: Record<string, (a: Analysis) => void> = {
     near(s.v / (0.3048 ** 3 / 0.45359237), 14.22, { abs: 0.01 }, 'v, ft³/lb');
     expect(a.units).toBe('IP');
   },
+  'ip-cafe-wing.md': (a) => {
+    // An IP note of the invented building: no tool-made diagnostics at all (every claim is the
+    // engineer's figure in IP, with thousands separators and MBH).
+    expect(a.units).toBe('IP');
+    expect(a.diagnostics).toEqual([]);
+    // ASHRAE HoF 2017 IP Ch.1 eq 3 / Table 1: 5000 ft → 12.228 psia (from memory; 1 psia = 6894.757 Pa, NIST SP 811).
+    near(state(a, 'RA').p / 6894.757293168, 12.228, { abs: 0.001 }, 'p at 5000 ft, psia');
+    // PsychroLib 1.1.1 as oracle (SI): W of the café at 75 °F / 50 % at that pressure, in gr/lb.
+    const p = psy.GetStandardAtmPressure(5000 * 0.3048);
+    near(state(a, 'RA').w * 7000, psy.GetHumRatioFromRelHum((75 - 32) / 1.8, 0.5, p) * 7000, { abs: 0.05 }, 'W, gr/lb');
+  },
   'site-elevation.md': (a) => {
     // ASHRAE HoF 2017 SI Ch.1 Table 1 (check-values PL-SI-ATM-0, -1000, -4000; ±1 Pa).
     near(state(a, 'SEA').p, 101325, { abs: 1 }, 'sea level');

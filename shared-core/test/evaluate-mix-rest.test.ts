@@ -86,7 +86,7 @@ describe('mixes by remainder that do not add up', () => {
       'streams that exceed the total',
       'mix M: OA 4kg/s + RA rest total=3.9kg/s',
       'rest total=3.9kg/s',
-      /add to 4 kg\/s, which leaves (less than )?nothing of total=3.9kg\/s for RA/,
+      /add to 4.00 kg\/s, which leaves (less than )?nothing of total=3.9kg\/s for RA/,
     ],
     ['fractions over 100 %', 'mix M: OA 120% + RA rest', '120%', /add to 120 %, which leaves nothing for RA rest/],
     [

@@ -21,7 +21,7 @@ import { createNoteParser } from '../notation/incremental';
 import type { Span } from '../text/types';
 import { finishAnalysis } from './analyze';
 import type { EvalContext } from '../evaluate/context';
-import { evaluateSteps, type DependentStatement, type EvaluateReuse } from '../evaluate/evaluate';
+import { evaluateSteps, noteUnits, type DependentStatement, type EvaluateReuse } from '../evaluate/evaluate';
 import { resolveSettings } from '../evaluate/settings';
 import type {
   Analysis,
@@ -83,8 +83,12 @@ export function createAnalyzer(): Analyzer {
       sameRules(last.settings.rules, resolved.rules)
     )
       return last.analysis;
-    const fresh = !last || !sameSettings(last.settings, resolved);
     const { parsed, origins, deltas } = parser.parse(text);
+    // Messages are written in the note's unit system: when a units: line changes it, nothing is reused.
+    const fresh =
+      !last ||
+      !sameSettings(last.settings, resolved) ||
+      noteUnits(parsed.statements, resolved.units) !== last.analysis.units;
     yield;
     const reuse = fresh
       ? new Reuse(new Map(), new Map(), solves, [], origins, deltas)

@@ -5,7 +5,9 @@ import type { UnitSystem } from '../units/types';
 import { LineIndex } from '../text/lineIndex';
 import { solveForNote } from './solve';
 import type { EvaluateSettings, EvaluatedItem, PressureBasis } from './types';
-import { formatSig } from './util';
+import type { MessageText } from '../physics/message';
+import type { Dimension } from '../units/types';
+import { figureText, messageText, type FigureTextOptions } from './figures';
 import { caseFoldedIndex, suggestName, type FoldedIndex } from '../text/suggest';
 
 /** One name definition found by the pre-scan (state, mix or process). */
@@ -56,9 +58,13 @@ export class EvalContext {
   /** The defined names indexed for "did you mean", built at the first unknown name (one index for all of them). */
   private nameIndex: FoldedIndex | null = null;
 
-  constructor(settings: EvaluateSettings, text: string | undefined) {
+  /**
+   * @param units  the note's unit system when it has a `units:` line (found before evaluation, so
+   *               that every message speaks the note's units wherever the line stands).
+   */
+  constructor(settings: EvaluateSettings, text: string | undefined, units: UnitSystem = settings.units) {
     this.settings = settings;
-    this.units = settings.units;
+    this.units = units;
     this.text = typeof text === 'string' ? text : undefined;
     const origin = settings.pressureOrigin === 'default' ? 'default' : settings.pressureOrigin;
     this.site = {
@@ -66,11 +72,21 @@ export class EvalContext {
       source: 'setting',
       span: null,
       elevationM: null,
-      describe: `${origin} ${formatSig(settings.pressurePa / 1000, 6)} kPa`,
+      describe: `${origin} ${figureText(settings.pressurePa, 'pressure', units)}`,
       // The origin words end in ", i.e." or ":" when they lead into the figure of `describe`.
       origin:
         settings.pressureOrigin === 'default' ? 'default (no site: line)' : origin.replace(/(,\s*i\.e\.|:)\s*$/, ''),
     };
+  }
+
+  /** An SI value as a message shows it, in the note's unit system (`84.556 kPa`, `12.264 psia`). */
+  fig(si: number, dimension: Dimension, opts?: FigureTextOptions): string {
+    return figureText(si, dimension, this.units, opts);
+  }
+
+  /** A message with figures (`physics/message.ts`) in the note's unit system. */
+  words(m: MessageText): string {
+    return messageText(m, this.units);
   }
 
   /** Adds a diagnostic. */

@@ -36,6 +36,8 @@ import {
   PsychroError,
 } from '../physics';
 import type { DefiningKey } from '../physics/types';
+import { problemParts, withoutFinalStop } from '../physics/message';
+import { exampleIn, problemTexts } from './figures';
 import type { CoreDiagnostic, ProcessStatement, PropertyNode } from '../notation/ast';
 import type { Span } from '../text/types';
 import type { EvalContext } from './context';
@@ -114,16 +116,23 @@ function modelValue<T>(
   fallback: Span,
 ): T | null {
   if (o.ok) return o.value;
-  ctx.report(problemReport(what, o.problem, props, fallback));
+  ctx.report(problemReport(ctx, what, o.problem, props, fallback));
   return null;
 }
 
-function problemReport(what: string, p: EquipmentProblem, props: ReadProp[], fallback: Span): CoreDiagnostic {
+function problemReport(
+  ctx: EvalContext,
+  what: string,
+  p: EquipmentProblem,
+  props: ReadProp[],
+  fallback: Span,
+): CoreDiagnostic {
   const prop = props.find((x) => x.key === p.key);
+  const texts = problemTexts(p, ctx.units);
   return {
     code: p.code === 'unreachable' ? 'spec-unreachable' : 'out-of-range',
     severity: 'error',
-    message: `${what}: ${p.message}; ${p.fix}`,
+    message: `${what}: ${texts.message}; ${texts.fix}`,
     span: prop ? prop.prop.span : fallback,
   };
 }
@@ -134,7 +143,7 @@ function guarded<T>(ctx: EvalContext, what: string, span: Span, f: () => T | nul
     return f();
   } catch (err) {
     if (err instanceof PsychroError) {
-      ctx.report(problemDiagnostic(err.problem, 'error', new Map(), span, what));
+      ctx.report(problemDiagnostic(err.problem, ctx.units, 'error', new Map(), span, what));
       return null;
     }
     throw err;
@@ -224,7 +233,7 @@ export function deriveLeaving(
     ctx.report({
       code: 'spec-missing',
       severity: 'error',
-      message: `${what}: p_steam= is the steam supply of a steam humidifier; add the word steam and a target (e.g. steam w=5.65g/kg p_steam=200kPa)`,
+      message: `${what}: p_steam= is the steam supply of a steam humidifier; add the word steam and a target (e.g. ${ctx.units === 'IP' ? 'steam w=39.6gr/lb p_steam=29psia' : 'steam w=5.65g/kg p_steam=200kPa'})`,
       span: ps.prop.span,
     });
     return null;
@@ -299,7 +308,7 @@ export function deriveLeaving(
       const bf = get('bf');
       if (!adp)
         return missing(
-          `bf= needs the apparatus dew point: add adp= (e.g. adp=11C bf=${bf!.q.quantity.number.text}${bf!.q.unitText})`,
+          `bf= needs the apparatus dew point: add adp= (e.g. ${exampleIn('adp', ctx.units)} bf=${bf!.q.quantity.number.text}${bf!.q.unitText})`,
           bf!.prop.span,
         );
       if (!bf)
@@ -323,7 +332,7 @@ export function deriveLeaving(
       const target = props.find((p) => p.key === 'w' || p.key === 'rh');
       if (!target)
         return missing(
-          `a steam humidifier needs its target: add w= (e.g. steam w=5.65g/kg) or rh= (e.g. steam rh=40%)`,
+          `a steam humidifier needs its target: add w= (e.g. steam ${ctx.units === 'IP' ? 'w=39.6gr/lb' : 'w=5.65g/kg'}) or rh= (e.g. steam rh=40%)`,
           word!.span,
         );
       const ps = get('p_steam');
@@ -369,6 +378,7 @@ export function deriveLeaving(
             if (target.q.si < a.w) {
               ctx.report(
                 problemReport(
+                  ctx,
                   what,
                   {
                     code: 'unreachable',
@@ -386,8 +396,18 @@ export function deriveLeaving(
             if (!s.ok) {
               ctx.report(
                 problemReport(
+                  ctx,
                   what,
-                  { code: 'unreachable', key: 'w', message: s.problem.message.replace(/\.$/, ''), fix: s.problem.fix },
+                  {
+                    code: 'unreachable',
+                    key: 'w',
+                    message: s.problem.message.replace(/\.$/, ''),
+                    fix: s.problem.fix,
+                    parts: {
+                      message: withoutFinalStop(problemParts(s.problem).message),
+                      fix: problemParts(s.problem).fix,
+                    },
+                  },
                   props,
                   fallback,
                 ),
@@ -454,6 +474,7 @@ export function deriveLeaving(
         ctx.report(
           problemDiagnostic(
             solved.problem,
+            ctx.units,
             'error',
             new Map(defs.map((d) => [d.key, d.prop.span])),
             spanUnion(p1.prop.span, p2.prop.span),
@@ -466,6 +487,7 @@ export function deriveLeaving(
         ctx.report(
           problemDiagnostic(
             w,
+            ctx.units,
             'warning',
             new Map(defs.map((d) => [d.key, d.prop.span])),
             spanUnion(p1.prop.span, p2.prop.span),

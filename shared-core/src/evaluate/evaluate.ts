@@ -12,8 +12,10 @@ import type {
   SupplyStatement,
 } from '../notation/ast';
 import type { Analysis, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from './types';
+import type { UnitSystem } from '../units/types';
 import { EvalContext, type NameDef } from './context';
 import { SITE_KEYS } from './keys';
+import { exampleIn } from './figures';
 import { evaluateMix } from './mix';
 import { pressureFromProps } from './pressure';
 import { evaluateProcess } from './process';
@@ -65,6 +67,20 @@ function prescan(statements: Statement[], defs: Map<string, NameDef[]>, derives:
   });
 }
 
+/**
+ * The unit system a note reads in: that of its first `units: SI` or `units: IP` line (wherever it
+ * stands), else `fallback` (the setting). Known before evaluation, so that every message is
+ * written in it.
+ */
+export function noteUnits(statements: readonly Statement[], fallback: UnitSystem): UnitSystem {
+  for (const s of statements) {
+    if (s.keyword !== 'units') continue;
+    const word = s.system?.text;
+    if (word === 'SI' || word === 'IP') return word;
+  }
+  return fallback;
+}
+
 function evaluateSite(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'site' }>, index: number): void {
   const { props, broken } = readProps(ctx, stmt.props, SITE_KEYS, 'site:', { statement: stmt, index, allowed: false });
   if (props.length === 0) {
@@ -72,7 +88,7 @@ function evaluateSite(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'sit
       ctx.report({
         code: 'underspecified',
         severity: 'error',
-        message: 'site: sets nothing; write the pressure (site: p=84.5kPa) or the elevation (site: elev=1600m)',
+        message: `site: sets nothing; write the pressure (site: ${exampleIn('p', ctx.units)}) or the elevation (site: ${exampleIn('elev', ctx.units)})`,
         span: stmt.keywordSpan,
       });
     }
@@ -181,12 +197,12 @@ export function* evaluateSteps(
   reuse?: EvaluateReuse,
 ): Generator<void, Analysis, void> {
   const resolved = resolveSettings(settings);
-  const ctx = new EvalContext(resolved, text);
+  const statements = Array.isArray(parsed?.statements) ? parsed.statements : [];
+  const ctx = new EvalContext(resolved, text, noteUnits(statements, resolved.units));
   if (reuse) {
     ctx.solve = reuse.solve;
     ctx.site = reuse.basis(ctx.site);
   }
-  const statements = Array.isArray(parsed?.statements) ? parsed.statements : [];
   const derives = new Set<number>();
   prescan(statements, ctx.allDefs, derives);
 

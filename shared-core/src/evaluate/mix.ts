@@ -16,7 +16,7 @@ import { problemDiagnostic } from './problems';
 import { readProps } from './props';
 import { dimensionWords, findUnit, readQuantity, suggestSymbol, type ResolvedQuantity } from './quantity';
 import { checkClaim } from './claims';
-import { kPaText } from './pressure';
+import { exampleIn } from './figures';
 import { stateClaims, stateFinite } from './state';
 import type { ClaimResult, PressureBasis, StateResult } from './types';
 import { formatSig, spanUnion } from './util';
@@ -234,7 +234,7 @@ function checkAmounts(
     ctx.report({
       code: 'mix-amounts',
       severity: 'error',
-      message: `${what} mixes fractions (%) with flows; give every stream as a dry-air mass fraction (OA 25% + RA 75%) or every stream as a flow (OA 1.2kg/s + RA 3.6kg/s, or volume flows such as 1000L/s)`,
+      message: `${what} mixes fractions (%) with flows; give every stream as a dry-air mass fraction (OA 25% + RA 75%) or every stream as a flow (${ctx.units === 'IP' ? 'OA 2,500cfm + RA 7,500cfm, or mass flows such as 9,500lb/h' : 'OA 1.2kg/s + RA 3.6kg/s, or volume flows such as 1000L/s'})`,
       span: spanUnion(...stmt.streams.map((s) => s.span)),
     });
     return false;
@@ -321,7 +321,7 @@ function mixPressure(ctx: EvalContext, streams: StreamRead[], fractions: number[
   ctx.report({
     code: 'pressure-mismatch',
     severity: 'warning',
-    message: `${what}: the streams are at different pressures (${kPaText(pMin)} to ${kPaText(pMax)}); the mix is computed at their mean, ${kPaText(pMean)}. Put all streams at one pressure (one site: line)`,
+    message: `${what}: the streams are at different pressures (${ctx.fig(pMin, 'pressure')} to ${ctx.fig(pMax, 'pressure')}); the mix is computed at their mean, ${ctx.fig(pMean, 'pressure')}. Put all streams at one pressure (one site: line)`,
     span: spanUnion(...streams.map((s) => s.span)),
   });
   return {
@@ -329,7 +329,7 @@ function mixPressure(ctx: EvalContext, streams: StreamRead[], fractions: number[
     source: first.source,
     span: null,
     elevationM: null,
-    describe: `mean of the streams' pressures, ${kPaText(pMean)}`,
+    describe: `mean of the streams' pressures, ${ctx.fig(pMean, 'pressure')}`,
     origin: "mean of the streams' pressures",
   };
 }
@@ -394,10 +394,11 @@ function solveMix(
     ctx.report(
       problemDiagnostic(
         solved.problem,
+        ctx.units,
         'error',
         spans,
         fallback,
-        `${what} (W = ${formatSig(w * 1000, 4)} g/kg, h = ${formatSig(h / 1000, 4)} kJ/kg)`,
+        `${what} (W = ${ctx.fig(w, 'humidityRatio')}, h = ${ctx.fig(h, 'enthalpy')})`,
       ),
     );
     return null;
@@ -416,12 +417,12 @@ function solveMix(
       ctx.report({
         code: 'supersaturated',
         severity: 'warning',
-        message: `${what}: the mixed state lies in the fog region (W = ${formatSig(w * 1000, 4)} g/kg is above saturation at the mixed dry-bulb ${formatSig(solved.state.db, 3)} °C): water would condense as mist in the mixing box. Preheat the colder stream, or change the proportions`,
+        message: `${what}: the mixed state lies in the fog region (W = ${ctx.fig(w, 'humidityRatio')} is above saturation at the mixed dry-bulb ${ctx.fig(solved.state.db, 'temperature')}): water would condense as mist in the mixing box. Preheat the colder stream, or change the proportions`,
         span: fallback,
         related: streams.map((s) => ({ span: s.span, message: `stream ${s.name}` })),
       });
     } else {
-      ctx.report(problemDiagnostic(warn, 'warning', spans, fallback, what));
+      ctx.report(problemDiagnostic(warn, ctx.units, 'warning', spans, fallback, what));
     }
   }
   return solved.state;
@@ -434,19 +435,22 @@ function readTotal(ctx: EvalContext, prop: PropertyNode, what: string, stmt: Mix
     ctx.report({
       code: 'bad-reference',
       severity: 'error',
-      message: `${what}: total= takes a figure, not a reference; write the total flow, e.g. total=3.9kg/s`,
+      message: `${what}: total= takes a figure, not a reference; write the total flow, e.g. ${exampleIn('total', ctx.units)}`,
       span: prop.ref.span,
     });
     return null;
   }
   const value = prop.value;
   if (!value) return null; // the parser reported it
-  const kinds = 'a dry-air mass flow (kg/s, kg/h, lb/h) or a volume flow (m3/s, L/s, cfm)';
+  const kinds =
+    ctx.units === 'IP'
+      ? 'a dry-air mass flow (lb/h, lb/min, kg/s) or a volume flow (cfm, m3/s, L/s)'
+      : 'a dry-air mass flow (kg/s, kg/h, lb/h) or a volume flow (m3/s, L/s, cfm)';
   if (!value.unit) {
     ctx.report({
       code: 'missing-unit',
       severity: 'error',
-      message: `${what}: total=${value.number.text} has no unit; the total is ${kinds}, e.g. total=${value.number.text}kg/s`,
+      message: `${what}: total=${value.number.text} has no unit; the total is ${kinds}, e.g. total=${value.number.text}${ctx.units === 'IP' ? 'lb/h' : 'kg/s'}`,
       span: value.number.span,
     });
     return null;
@@ -480,13 +484,9 @@ function readTotal(ctx: EvalContext, prop: PropertyNode, what: string, stmt: Mix
   return { kind, si: r.value.si, prop, q: r.value };
 }
 
-/** "1.2 kg/s" or "0.9 m³/s" for messages. */
-function flowText(si: number, kind: AmountKind): string {
-  return kind === 'fraction'
-    ? `${formatSig(si * 100, 4)} %`
-    : kind === 'massFlow'
-      ? `${formatSig(si, 4)} kg/s`
-      : `${formatSig(si, 4)} m³/s`;
+/** "1.2 kg/s" or "0.9 m³/s" (lb/h, cfm in an IP note) for messages. */
+function flowText(ctx: EvalContext, si: number, kind: AmountKind): string {
+  return ctx.fig(si, kind === 'fraction' ? 'fraction' : kind);
 }
 
 /**
@@ -522,7 +522,7 @@ function resolveRest(ctx: EvalContext, amounts: Amount[], total: Total | null, w
   }
   if (!total)
     return restError(
-      `${rest.name} rest is what the other streams leave of the total: add total= after the streams (a mass flow such as total=3.9kg/s, or a volume flow such as total=3.4m3/s)`,
+      `${rest.name} rest is what the other streams leave of the total: add total= after the streams (a mass flow such as ${exampleIn('total', ctx.units)}, or a volume flow such as ${ctx.units === 'IP' ? 'total=7,200cfm' : 'total=3.4m3/s'})`,
       rest.amountSpan,
     );
   const other = given.find((g) => g.kind !== total.kind);
@@ -535,7 +535,7 @@ function resolveRest(ctx: EvalContext, amounts: Amount[], total: Total | null, w
   const left = total.si - sum;
   if (!(left > slack)) {
     return restError(
-      `the streams given add to ${flowText(sum, total.kind)}, which leaves ${left < -slack ? 'less than ' : ''}nothing of total=${total.q.quantity.number.text}${total.q.unitText} for ${rest.name}; make the total larger than the streams given`,
+      `the streams given add to ${flowText(ctx, sum, total.kind)}, which leaves ${left < -slack ? 'less than ' : ''}nothing of total=${total.q.quantity.number.text}${total.q.unitText} for ${rest.name}; make the total larger than the streams given`,
       spanUnion(rest.amountSpan, total.q.quantity.span),
     );
   }
@@ -551,7 +551,7 @@ function applyTotal(ctx: EvalContext, amounts: Amount[], total: Total, what: str
     ctx.report({
       code: 'mix-rest',
       severity: 'error',
-      message: `${what}: with fractions, give total= as a dry-air mass flow (total=3.9kg/s): the fractions are of dry-air mass, so a volume total would need a state to convert at; or give the streams as volume flows`,
+      message: `${what}: with fractions, give total= as a dry-air mass flow (${exampleIn('total', ctx.units)}): the fractions are of dry-air mass, so a volume total would need a state to convert at; or give the streams as volume flows`,
       span: total.q.quantity.span,
     });
     return false;
@@ -584,7 +584,7 @@ function readAmount(
     ctx.report({
       code: 'missing-unit',
       severity: 'error',
-      message: `${what}: the amount ${amount.number.text} of ${streamName} has no unit; write a fraction (${amount.number.text}%), a mass flow (${amount.number.text}kg/s) or a volume flow (${amount.number.text}m3/s)`,
+      message: `${what}: the amount ${amount.number.text} of ${streamName} has no unit; write a fraction (${amount.number.text}%), a mass flow (${amount.number.text}${ctx.units === 'IP' ? 'lb/h' : 'kg/s'}) or a volume flow (${amount.number.text}${ctx.units === 'IP' ? 'cfm' : 'm3/s'})`,
       span: amount.number.span,
     });
     return null;
@@ -595,7 +595,9 @@ function readAmount(
     const def = findUnit(u);
     const sug = def ? null : suggestSymbol(u, ['fraction', 'massFlow', 'volumeFlow']);
     const kinds =
-      'a dry-air mass fraction (%), a dry-air mass flow (kg/s, kg/h, lb/h) or a volume flow (m3/s, m3/h, L/s, cfm)';
+      ctx.units === 'IP'
+        ? 'a dry-air mass fraction (%), a dry-air mass flow (lb/h, lb/min, kg/s) or a volume flow (cfm, m3/s, L/s)'
+        : 'a dry-air mass fraction (%), a dry-air mass flow (kg/s, kg/h, lb/h) or a volume flow (m3/s, m3/h, L/s, cfm)';
     ctx.report({
       code: 'unknown-unit',
       severity: 'error',

@@ -5,16 +5,11 @@ import type { EvalContext } from './context';
 import type { PressureBasis } from './types';
 import type { ReadProp } from './props';
 import { problemOf } from './problems';
-import { formatSig } from './util';
+import { problemTexts } from './figures';
 
 /** Site pressures outside this band are accepted but flagged as unusual (common practice: 30–110 kPa covers inhabited sites). */
 const USUAL_MIN_PA = 30_000;
 const USUAL_MAX_PA = 110_000;
-
-/** "84.556 kPa". */
-export function kPaText(pa: number): string {
-  return `${formatSig(pa / 1000, 6)} kPa`;
-}
 
 /**
  * The pressure that `p=` or `elev=` among `props` sets, or null when neither is written or the
@@ -45,7 +40,7 @@ export function pressureFromProps(
       ctx.report({
         code: 'out-of-range',
         severity: 'error',
-        message: `p=${p.q.quantity.number.text}${p.q.unitText} is not a positive pressure; write the absolute barometric pressure, e.g. p=101.325kPa`,
+        message: `p=${p.q.quantity.number.text}${p.q.unitText} is not a positive pressure; write the absolute barometric pressure, e.g. ${ctx.units === 'IP' ? 'p=14.696psia' : 'p=101.325kPa'}`,
         span: p.q.quantity.span,
       });
       return null;
@@ -67,10 +62,11 @@ export function pressureFromProps(
       pa = stdAtmPressure(z);
     } catch (err) {
       const prob = problemOf(err);
+      const texts = problemTexts(prob, ctx.units);
       ctx.report({
         code: prob.code,
         severity: 'error',
-        message: `elev=${elev.q.quantity.number.text}${elev.q.unitText}: ${prob.message} ${prob.fix}`,
+        message: `elev=${elev.q.quantity.number.text}${elev.q.unitText}: ${texts.message} ${texts.fix}`,
         span: elev.q.quantity.span,
       });
       return null;
@@ -79,7 +75,7 @@ export function pressureFromProps(
       ctx.report({
         code: 'out-of-range',
         severity: 'error',
-        message: `elev=${elev.q.quantity.number.text}${elev.q.unitText} gives no usable standard-atmosphere pressure; give an elevation between −500 m and 11 000 m, or the pressure itself with p=`,
+        message: `elev=${elev.q.quantity.number.text}${elev.q.unitText} gives no usable standard-atmosphere pressure; give an elevation between ${ctx.fig(-5000, 'length', { limit: true })} and ${ctx.fig(11000, 'length', { limit: true })}, or the pressure itself with p=`,
         span: elev.q.quantity.span,
       });
       return null;
@@ -90,7 +86,7 @@ export function pressureFromProps(
       source,
       span: elev.prop.span,
       elevationM: z,
-      describe: `${label}: elev=${elev.q.quantity.number.text}${elev.q.unitText} → ${kPaText(pa)} (standard atmosphere)`,
+      describe: `${label}: elev=${elev.q.quantity.number.text}${elev.q.unitText} → ${ctx.fig(pa, 'pressure')} (standard atmosphere)`,
       origin: `${label}: elev=${elev.q.quantity.number.text}${elev.q.unitText} (standard atmosphere)`,
     };
   }
@@ -102,7 +98,7 @@ function warnUnusual(ctx: EvalContext, pa: number, span: Span, written: string):
   ctx.report({
     code: 'unusual-pressure',
     severity: 'warning',
-    message: `${written} is ${kPaText(pa)}, outside the 30–110 kPa of inhabited sites; check the unit (kPa, not Pa or bar?)`,
+    message: `${written} is ${ctx.fig(pa, 'pressure')}, outside the ${ctx.fig(USUAL_MIN_PA, 'pressure', { limit: true })} to ${ctx.fig(USUAL_MAX_PA, 'pressure', { limit: true })} of inhabited sites; check the unit (${ctx.units === 'IP' ? 'psia, not inHg or psi × 1000?' : 'kPa, not Pa or bar?'})`,
     span,
   });
 }

@@ -3,17 +3,21 @@ import type { PhysicsProblem } from '../physics/types';
 import { PsychroError } from '../physics/types';
 import type { CoreDiagnostic } from '../notation/ast';
 import type { Span } from '../text/types';
+import type { UnitSystem } from '../units/types';
+import { problemTexts } from './figures';
 import { spanUnion } from './util';
 
 /** Codes whose natural severity is a warning even when the engine reports them as problems. */
 const WARNING_CODES = new Set(['ill-conditioned']);
 
 /**
- * A diagnostic for an engine problem: same stable code, the engine's message and fix, the span of
+ * A diagnostic for an engine problem: same stable code, the engine's message and fix (their figures
+ * in the note's unit system `system`), the span of
  * the properties the problem names (or `fallback`), and `where` ("state OA") in the message.
  */
 export function problemDiagnostic(
   problem: PhysicsProblem,
+  system: UnitSystem,
   severity: 'error' | 'warning',
   spansByKey: ReadonlyMap<string, Span>,
   fallback: Span,
@@ -27,14 +31,15 @@ export function problemDiagnostic(
   }
   const span = spans.length > 0 ? spanUnion(...spans) : fallback;
   const sev = WARNING_CODES.has(problem.code) ? 'warning' : severity;
-  const msg = ensureSentence(problem.message);
-  const fix = problem.fix ? ` ${ensureSentence(capitalize(problem.fix))}` : '';
+  const texts = problemTexts(problem, system);
+  const msg = ensureSentence(texts.message);
+  const fix = texts.fix ? ` ${ensureSentence(capitalize(texts.fix))}` : '';
   const d: CoreDiagnostic = {
     code: problem.code,
     severity: sev,
     message: `${where}: ${msg}${fix}`,
     span,
-    data: { keys: [...(problem.keys ?? [])], fix: problem.fix },
+    data: { keys: [...(problem.keys ?? [])], fix: texts.fix },
   };
   if (related && related.length > 0) d.related = related;
   return d;

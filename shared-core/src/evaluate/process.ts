@@ -17,13 +17,11 @@ import type { EvalContext } from './context';
 import { deriveLeaving, isSpecOrFlow, specText } from './derive';
 import { DERIVE_KEY_NAMES, PROCESS_KEYS } from './keys';
 import { enteringState } from './mix';
-import { kPaText } from './pressure';
 import type { ReadProp } from './props';
 import { readProps } from './props';
 import { sourcesOf } from './refs';
 import { checkClaim } from './claims';
 import type { ClaimResult, ProcessKind, ProcessResult, StateResult } from './types';
-import { formatSig } from './util';
 import { moistureUnchanged } from './resolution';
 
 /** Specific heat of dry air, kJ/(kg·K) as J/(kg·K) (ASHRAE HoF 2017 SI Ch.1 eq 32). */
@@ -262,7 +260,7 @@ export function buildProcessResult(
     ctx.report({
       code: 'pressure-mismatch',
       severity: 'warning',
-      message: `${what}: ${from.name} is at ${kPaText(from.pressure.pa)} and ${to.name} at ${kPaText(to.pressure.pa)}; a process is taken at one pressure, so the figures are approximate. Put both states at one pressure`,
+      message: `${what}: ${from.name} is at ${ctx.fig(from.pressure.pa, 'pressure')} and ${to.name} at ${ctx.fig(to.pressure.pa, 'pressure')}; a process is taken at one pressure, so the figures are approximate. Put both states at one pressure`,
       span: stmt.to.span,
       related: [{ span: stmt.from.span, message: `${from.name}: ${from.pressure.describe}` }],
     });
@@ -301,7 +299,7 @@ export function buildProcessResult(
     ctx.report({
       code: 'out-of-range',
       severity: 'error',
-      message: `${what}: the dry-air flow ${fp ? `${fp.key}=${fp.q.quantity.number.text}${fp.q.unitText}` : `${formatSig(massFlow, 4)} kg/s`} is too large to compute the heat rates with; give a realistic flow`,
+      message: `${what}: the dry-air flow ${fp ? `${fp.key}=${fp.q.quantity.number.text}${fp.q.unitText}` : ctx.fig(massFlow, 'massFlow')} is too large to compute the heat rates with; give a realistic flow`,
       span: fp ? fp.q.quantity.span : stmt.keywordSpan,
     });
     massFlow = null;
@@ -356,7 +354,7 @@ function balanceCheck(
     code: 'impossible-process',
     severity: 'error',
     message: heating
-      ? `${what}: moisture is removed (${formatSig(-dw * 1000, 3)} g/kg) while the air is ${b.db - a.db > DT_STILL ? 'heated' : 'kept at the same temperature'}; a coil can only dry air by cooling part of it below its dew point (${formatSig(a.dp, 3)} °C for ${from.name}), which lowers the dry-bulb. Check ${to.name}: its dry-bulb should be lower, or its humidity ratio higher`
+      ? `${what}: moisture is removed (${ctx.fig(-dw, 'humidityRatio', { difference: true })}) while the air is ${b.db - a.db > DT_STILL ? 'heated' : 'kept at the same temperature'}; a coil can only dry air by cooling part of it below its dew point (${ctx.fig(a.dp, 'temperature')} for ${from.name}), which lowers the dry-bulb. Check ${to.name}: its dry-bulb should be lower, or its humidity ratio higher`
       : `${what}: ${to.name} is too dry for its temperature: the line from ${from.name} through ${to.name} never meets the saturation curve, so no coil surface temperature can give this state (coil air leaves between the entering state and saturation at the surface). Lower ${to.name}'s dry-bulb or raise its humidity ratio`,
     span: stmt.to.span,
     related: [{ span: stmt.from.span, message: `entering state ${from.name}` }],
@@ -423,7 +421,7 @@ function processClaims(ctx: EvalContext, claims: ReadProp[], r: ProcessResult, w
       c.q,
       computed,
       () =>
-        `for ${r.from} -> ${r.to}${r.massFlowKgS !== null ? ` at ${formatSig(r.massFlowKgS, 4)} kg/s dry air` : ''}`,
+        `for ${r.from} -> ${r.to}${r.massFlowKgS !== null ? ` at ${ctx.fig(r.massFlowKgS, 'massFlow')} dry air` : ''}`,
     );
     out.push(claim);
     if (diagnostic) ctx.report(diagnostic);

@@ -14,6 +14,7 @@ import { recoverBetween, type MoistAirState } from '../physics';
 import type { RecoverStatement, RecoverStream } from '../notation/ast';
 import type { Span } from '../text/types';
 import { checkClaim } from './claims';
+import { problemTexts } from './figures';
 import type { EvalContext } from './context';
 import { RECOVER_KEYS, RECOVER_WORDS } from './keys';
 import { enteringState } from './mix';
@@ -22,15 +23,12 @@ import type { ReadProp } from './props';
 import { readProps } from './props';
 import type { ClaimResult, ProcessResult, StateResult } from './types';
 import { suggestName } from '../text/suggest';
-import { formatSig } from './util';
 
 /** What a recover statement gives: the two leaving states and the two sides of the exchanger (null where they failed). */
 export interface RecoverOutcome {
   leaving: [StateResult | null, StateResult | null];
   sides: [ProcessResult | null, ProcessResult | null];
 }
-
-const T = (t: number): string => `${formatSig(t, 3)} °C`;
 
 /** Evaluates one `recover` statement (see the module comment). */
 export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index: number): RecoverOutcome {
@@ -114,10 +112,11 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
   );
   if (!r.ok) {
     const p = shared.find((x) => x.key === r.problem.key);
+    const texts = problemTexts(r.problem, ctx.units);
     ctx.report({
       code: r.problem.code === 'unreachable' ? 'spec-unreachable' : 'out-of-range',
       severity: 'error',
-      message: `${what}: ${r.problem.message}; ${r.problem.fix}`,
+      message: `${what}: ${texts.message}; ${texts.fix}`,
       span: p ? p.prop.span : effS.prop.span,
     });
     return none;
@@ -155,7 +154,7 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
     ctx.report({
       code: wet.kind === 'frost' ? 'recovery-frost' : 'recovery-condensation',
       severity: fogOk ? 'info' : 'warning',
-      message: `${what}: ${what2} on the ${cooled.from!.text} side: ${cooled.to!.text} leaves at ${T(out.db)} with a ${out.dpFrost ? 'frost' : 'dew'} point of ${T(wet.dewPointC)}${out.fog ? ' (a fog state: more water than the air can hold as vapour)' : ''}, while the surface at the cold end is about ${T(wet.surfaceC)} (the mean of ${cooled.to!.text} and the entering ${other.from!.text}). ${fogOk ? 'Accepted by fog=ok.' : `Either ${advice}, or write fog=ok on the line if the design accepts it`}`,
+      message: `${what}: ${what2} on the ${cooled.from!.text} side: ${cooled.to!.text} leaves at ${ctx.fig(out.db, 'temperature')} with a ${out.dpFrost ? 'frost' : 'dew'} point of ${ctx.fig(wet.dewPointC, 'temperature')}${out.fog ? ' (a fog state: more water than the air can hold as vapour)' : ''}, while the surface at the cold end is about ${ctx.fig(wet.surfaceC, 'temperature')} (the mean of ${cooled.to!.text} and the entering ${other.from!.text}). ${fogOk ? 'Accepted by fog=ok.' : `Either ${advice}, or write fog=ok on the line if the design accepts it`}`,
       span: cooled.to!.span,
       related: [{ span: other.from!.span, message: `the colder entering stream ${other.from!.text}` }],
       data: { accepted: fogOk },
@@ -260,7 +259,7 @@ function streamFlow(
   ctx.report({
     code: 'spec-missing',
     severity: 'error',
-    message: `${what}: the flow of ${from.name} is not known: write it after the stream (${from.name} -> ${x.to!.text} m=1.2kg/s or q=1.0m3/s), or let the stream leave a mix by flows`,
+    message: `${what}: the flow of ${from.name} is not known: write it after the stream (${from.name} -> ${x.to!.text} ${ctx.units === 'IP' ? 'm=9,500lb/h or q=2,100cfm' : 'm=1.2kg/s or q=1.0m3/s'}), or let the stream leave a mix by flows`,
     span,
   });
   return null;

@@ -17,6 +17,8 @@ import type { EvalContext } from './context';
 import { DEFINING_KEYS, STATE_KEYS, isDefiningKey, isDependentPair, isIllConditionedPair, thirdKindFor } from './keys';
 import { pressureFromProps } from './pressure';
 import { problemDiagnostic } from './problems';
+import { exampleIn, figureText, problemTexts } from './figures';
+import type { UnitSystem } from '../units/types';
 import type { ReadProp, ReadProps } from './props';
 import { readProps } from './props';
 import { sourcesOf } from './refs';
@@ -184,7 +186,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
       ctx,
       claimsProps,
       state,
-      () => `from ${writtenList([a, b])} at ${pressureWord(pressure)}`,
+      () => `from ${writtenList([a, b])} at ${pressureWord(pressure, ctx.units)}`,
     );
   return result;
 }
@@ -229,7 +231,7 @@ function definingCandidates(
     ctx.report({
       code: 'underspecified',
       severity: 'error',
-      message: `${what} has ${has}: two independent properties fix a state; add ${defs.length === 1 ? 'one more' : 'two'} of ${orList(DEFINING_KEYS.filter((k) => !defs.some((d) => d.key === k)))} (e.g. ${defs[0]?.key === 'db' ? 'rh=50%' : 'db=24C rh=50%'})${hasV ? '; v is checked as a claim but cannot define a state' : ''}`,
+      message: `${what} has ${has}: two independent properties fix a state; add ${defs.length === 1 ? 'one more' : 'two'} of ${orList(DEFINING_KEYS.filter((k) => !defs.some((d) => d.key === k)))} (e.g. ${defs[0]?.key === 'db' ? 'rh=50%' : `${exampleIn('db', ctx.units)} rh=50%`})${hasV ? '; v is checked as a claim but cannot define a state' : ''}`,
       span: fallback,
     });
     return null;
@@ -301,6 +303,7 @@ function solveFirstPair(
       ctx.report(
         problemDiagnostic(
           solved.problem,
+          ctx.units,
           'error',
           spansByKey(),
           spanOf(spansByKey(), [a, b]),
@@ -317,7 +320,7 @@ function solveFirstPair(
     let illReported = false;
     for (const w of solved.warnings) {
       if (w.code === 'ill-conditioned') illReported = true;
-      ctx.report(problemDiagnostic(w, 'warning', spansByKey(), spanOf(spansByKey(), [a, b]), what));
+      ctx.report(problemDiagnostic(w, ctx.units, 'warning', spansByKey(), spanOf(spansByKey(), [a, b]), what));
     }
     if (!illReported && isIllConditionedPair(a.key as DefiningKey, b.key as DefiningKey)) {
       ctx.report({
@@ -330,7 +333,9 @@ function solveFirstPair(
     return { a, b, state: solved.state };
   }
   if (lastDependent) {
-    ctx.report(problemDiagnostic(lastDependent.problem, 'error', spansByKey(), spanOf(spansByKey(), [...all]), what));
+    ctx.report(
+      problemDiagnostic(lastDependent.problem, ctx.units, 'error', spansByKey(), spanOf(spansByKey(), [...all]), what),
+    );
   }
   return null;
 }
@@ -362,9 +367,9 @@ function reportNotFinite(
     ctx.report({
       code: w.code,
       severity: 'error',
-      message: `${what}: ${w.message} ${
+      message: `${what}: ${problemTexts(w, ctx.units).message} ${
         w.code === 'pressure-below-saturation'
-          ? `Dewmark needs a state that can be saturated: lower the dry-bulb below the boiling point at ${pressureWord(pressure)}, or raise the pressure`
+          ? `Dewmark needs a state that can be saturated: lower the dry-bulb below the boiling point at ${pressureWord(pressure, ctx.units)}, or raise the pressure`
           : 'Dewmark needs every property finite: give a humidity ratio above zero'
       }`,
       span,
@@ -372,9 +377,9 @@ function reportNotFinite(
   }
 }
 
-/** "83.5 kPa" style text for the pressure a result used. */
-export function pressureWord(p: PressureBasis): string {
-  return `${(p.pa / 1000).toFixed(3)} kPa`;
+/** The pressure a result used, in the note's unit system (`83.523 kPa`, `12.114 psia`). */
+export function pressureWord(p: PressureBasis, system: UnitSystem): string {
+  return figureText(p.pa, 'pressure', system);
 }
 
 function spanOf(spansByKey: ReadonlyMap<string, Span>, props: ReadProp[]): Span {

@@ -26,7 +26,7 @@ import type { Span } from '../text/types';
 import type { EvalContext } from './context';
 import { SUPPLY_KEYS } from './keys';
 import { enteringState } from './mix';
-import { kPaText } from './pressure';
+import { msg, P as fP, T as fT, TL as fTL, W as fW, type MessageText } from '../physics/message';
 import { problemDiagnostic } from './problems';
 import type { ReadProp } from './props';
 import { readProps } from './props';
@@ -34,7 +34,6 @@ import { sourcesOf } from './refs';
 import { pressureWord, stateClaims, stateFinite, writtenList } from './state';
 import { checkClaim } from './claims';
 import type { ClaimResult, StateResult, SupplyFigures } from './types';
-import { formatSig } from './util';
 
 /** Specific heat of dry air and of water vapour, J/(kg·K) (ASHRAE HoF 2017 SI Ch.1 eq 32). */
 const CP_DRY_AIR = 1006;
@@ -50,10 +49,10 @@ const STATE_CLAIM_KEYS = new Set(['db', 'wb', 'dp', 'rh', 'w', 'h', 'v']);
 /** A supply state and flow, or why there is none. */
 type Solved =
   | { ok: true; t: number; w: number; m: number }
-  | { ok: false; message: string; span: Span; code?: 'supply-infeasible' | 'no-convergence' | 'out-of-range' };
+  | { ok: false; message: MessageText; span: Span; code?: 'supply-infeasible' | 'no-convergence' | 'out-of-range' };
 
 function err(
-  message: string,
+  message: MessageText,
   span: Span,
   code: 'supply-infeasible' | 'no-convergence' | 'out-of-range' = 'supply-infeasible',
 ): Solved {
@@ -102,7 +101,7 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
     ctx.report({
       code: 'underspecified',
       severity: 'error',
-      message: `${what} needs the room's sensible and latent loads: add ${missing} (heat gains, e.g. q_sensible=41.5kW q_latent=8kW; q_latent=0kW when there is no latent load)`,
+      message: `${what} needs the room's sensible and latent loads: add ${missing} (heat gains, e.g. ${ctx.units === 'IP' ? 'q_sensible=141,600Btu/h q_latent=27,300Btu/h; q_latent=0Btu/h' : 'q_sensible=41.5kW q_latent=8kW; q_latent=0kW'} when there is no latent load)`,
       span: fallback,
     });
     return result;
@@ -125,7 +124,7 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
     ctx.report({
       code: 'underspecified',
       severity: 'error',
-      message: `${what} needs the supply dry-bulb (db=13.6C) or the dry-air flow (m=3.9kg/s, or q=3.4m3/s at the supply state) to find the other`,
+      message: `${what} needs the supply dry-bulb (${ctx.units === 'IP' ? 'db=56.5F' : 'db=13.6C'}) or the dry-air flow (${ctx.units === 'IP' ? 'm=31,000lb/h, or q=7,200cfm' : 'm=3.9kg/s, or q=3.4m3/s'} at the supply state) to find the other`,
       span: fallback,
     });
     return result;
@@ -136,7 +135,7 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
     ctx.report({
       code: 'pressure-mismatch',
       severity: 'warning',
-      message: `${what}: the room state ${room.name} is at ${kPaText(room.pressure.pa)} and the supply at ${kPaText(p)}; the loads are balanced at the supply's pressure. Put both at one pressure`,
+      message: `${what}: the room state ${room.name} is at ${ctx.fig(room.pressure.pa, 'pressure')} and the supply at ${ctx.fig(p, 'pressure')}; the loads are balanced at the supply's pressure. Put both at one pressure`,
       span: stmt.room.span,
     });
   }
@@ -151,7 +150,7 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
     ctx.report({
       code: solved.code ?? 'supply-infeasible',
       severity: 'error',
-      message: solved.message,
+      message: ctx.words(solved.message),
       span: solved.span,
       related: [{ span: stmt.room.span, message: `room state ${room.name}` }],
     });
@@ -197,7 +196,7 @@ function w(p: ReadProp): string {
 function checkMoisture(t: number, W: number, p: number, span: Span, what: string, how: string): Solved | null {
   if (!(W >= 0)) {
     return err(
-      `${what}: ${how} needs a supply humidity ratio of ${formatSig(W * 1000, 4)} g/kg, below zero: the supply air cannot absorb that latent load. Lower the supply temperature or raise the flow (a larger flow takes the moisture up with less drying)`,
+      msg`${what}: ${how} needs a supply humidity ratio of ${fW(W)}, below zero: the supply air cannot absorb that latent load. Lower the supply temperature or raise the flow (a larger flow takes the moisture up with less drying)`,
       span,
     );
   }
@@ -206,14 +205,14 @@ function checkMoisture(t: number, W: number, p: number, span: Span, what: string
     ws = satHumRatio(t, p);
   } catch {
     return err(
-      `${what}: ${how} gives a supply dry-bulb of ${formatSig(t, 4)} °C, where air cannot be saturated at ${kPaText(p)}; check the loads and the flow`,
+      msg`${what}: ${how} gives a supply dry-bulb of ${fT(t)}, where air cannot be saturated at ${fP(p)}; check the loads and the flow`,
       span,
       'out-of-range',
     );
   }
   if (W > ws) {
     return err(
-      `${what}: ${how} needs a supply humidity ratio of ${formatSig(W * 1000, 4)} g/kg, above saturation at ${formatSig(t, 3)} °C (${formatSig(ws * 1000, 4)} g/kg): no supply air can carry it. Raise the supply temperature or the flow, or check the sign of the latent load`,
+      msg`${what}: ${how} needs a supply humidity ratio of ${fW(W)}, above saturation at ${fT(t)} (${fW(ws)}): no supply air can carry it. Raise the supply temperature or the flow, or check the sign of the latent load`,
       span,
     );
   }
@@ -243,7 +242,7 @@ function fromTemperature(
   }
   if (Qs / dt < 0) {
     return err(
-      `${what}: ${Qs > 0 ? `a sensible gain needs supply air cooler than ${roomName} (${formatSig(tR, 4)} °C)` : `a sensible loss (negative q_sensible) needs supply air warmer than ${roomName} (${formatSig(tR, 4)} °C)`}; ${w(db)} is not. Check the supply temperature or the sign of the load`,
+      msg`${what}: ${Qs > 0 ? msg`a sensible gain needs supply air cooler than ${roomName} (${fT(tR)})` : msg`a sensible loss (negative q_sensible) needs supply air warmer than ${roomName} (${fT(tR)})`}; ${w(db)} is not. Check the supply temperature or the sign of the load`,
       db.prop.span,
     );
   }
@@ -282,7 +281,7 @@ function fromMassFlow(
   const s = atMassFlow(Qs, Ql, tR, wR, m);
   if (!Number.isFinite(s.t) || s.t < -100 || s.t > 200)
     return err(
-      `${what}: ${w(flow)} gives a supply dry-bulb of ${formatSig(s.t, 4)} °C, outside −100…200 °C; the flow is far too small for the loads`,
+      msg`${what}: ${w(flow)} gives a supply dry-bulb of ${fT(s.t)}, outside ${fTL(-100)} to ${fTL(200)}; the flow is far too small for the loads`,
       flow.prop.span,
       'out-of-range',
     );
@@ -340,10 +339,11 @@ function solveSupplyState(
     ctx.report(
       problemDiagnostic(
         solved.problem,
+        ctx.units,
         'error',
         new Map(),
         span,
-        `${what} (db ${formatSig(t, 4)} °C, W ${formatSig(W * 1000, 4)} g/kg)`,
+        `${what} (db ${ctx.fig(t, 'temperature')}, W ${ctx.fig(W, 'humidityRatio')})`,
       ),
     );
     return null;
@@ -352,7 +352,7 @@ function solveSupplyState(
     ctx.report({
       code: 'out-of-range',
       severity: 'error',
-      message: `${what}: the supply state (db ${formatSig(t, 4)} °C, W ${formatSig(W * 1000, 4)} g/kg) has a property without a finite value; check the loads`,
+      message: `${what}: the supply state (db ${ctx.fig(t, 'temperature')}, W ${ctx.fig(W, 'humidityRatio')}) has a property without a finite value; check the loads`,
       span,
     });
     return null;
@@ -377,7 +377,7 @@ function supplyClaims(
           ctx,
           stateProps,
           state,
-          () => `for the loads of ${f.room} with ${writtenList([defining])} at ${pressureWord(r.pressure)}`,
+          () => `for the loads of ${f.room} with ${writtenList([defining])} at ${pressureWord(r.pressure, ctx.units)}`,
         )
       : [];
   if (!ctx.settings.checkClaims) return out;

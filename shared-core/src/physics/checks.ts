@@ -3,7 +3,7 @@
  * code, the offending figure and a fix.
  */
 import { PsychroError, type DefiningKey } from './types';
-import { fmtPa, fmtRh, fmtT, fmtW } from './format';
+import { msg, P, RH, T, W } from './message';
 
 /** Throw `out-of-range` unless p is a positive, finite pressure in Pa. */
 export function checkPressure(p: number): void {
@@ -23,7 +23,7 @@ export function checkHumRatio(w: number, keys: DefiningKey[] = ['w']): void {
     if (Number.isFinite(w)) {
       throw new PsychroError({
         code: 'negative-humidity-ratio',
-        message: `Humidity ratio ${fmtW(w)} is negative.`,
+        message: msg`Humidity ratio ${W(w)} is negative.`,
         fix: 'A humidity ratio is 0 (bone-dry air) or more.',
         keys,
       });
@@ -43,7 +43,7 @@ export function checkRelHum(rh: number, keys: DefiningKey[] = ['rh']): void {
     throw new PsychroError({
       code: 'rh-out-of-range',
       message: Number.isFinite(rh)
-        ? `Relative humidity ${fmtRh(rh)} is outside 0 % to 100 %.`
+        ? msg`Relative humidity ${RH(rh)} is outside 0 % to 100 %.`
         : `Relative humidity ${String(rh)} is not a finite number.`,
       fix: 'Give a relative humidity between 0 % and 100 %.',
       keys,
@@ -61,8 +61,8 @@ export function pressureBelowSaturation(
 ): PsychroError {
   return new PsychroError({
     code: 'pressure-below-saturation',
-    message: `The saturation pressure at ${what} ${fmtT(tC)} (${fmtPa(pws)}) is at or above the total pressure ${fmtPa(p)}: water boils there, so air cannot be saturated.`,
-    fix: `Raise the pressure above ${fmtPa(pws)}, or use a lower ${what}.`,
+    message: msg`The saturation pressure at ${what} ${T(tC)} (${P(pws)}) is at or above the total pressure ${P(p)}: water boils there, so air cannot be saturated.`,
+    fix: msg`Raise the pressure above ${P(pws)}, or use a lower ${what}.`,
     keys,
   });
 }

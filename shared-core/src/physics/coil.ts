@@ -19,6 +19,7 @@ import type { MoistAirState } from './types';
 import { dbFromEnthalpy, enthalpy, satHumRatio } from './properties';
 import { stateFromDbW } from './state';
 import { fail, ok, tText, type EquipmentOutcome } from './equipment';
+import { msg } from './message';
 
 /** Tolerance for reaching the saturation curve along the coil line, kg/kg. */
 const SAT_SLACK = 2e-5;
@@ -46,7 +47,7 @@ export function coilFromAdp(a: MoistAirState, adp: number, bf: number): Equipmen
     return fail(
       'unreachable',
       'adp',
-      `the apparatus dew point ${tText(adp)} is not below the entering dry-bulb ${tText(a.db)}, so the coil would not cool the air`,
+      msg`the apparatus dew point ${tText(adp)} is not below the entering dry-bulb ${tText(a.db)}, so the coil would not cool the air`,
       'give an apparatus dew point below the entering dry-bulb (below its dew point for a coil that dries the air)',
     );
   }

@@ -4,6 +4,8 @@
  * Property functions may still throw {@link PsychroError} for a state outside the formulation's
  * range (callers catch it, as for any state).
  */
+import { M, type MessageFigure, type MessageParts, type MessageText, P, partsOf, RH, siText, T, W } from './message';
+
 /** Why an equipment specification cannot be met, in the words of the engineer's input. */
 export interface EquipmentProblem {
   /**
@@ -18,6 +20,8 @@ export interface EquipmentProblem {
   fix: string;
   /** The specification key the problem is about (`adp`, `bf`, `eff`, `rh`…). */
   key: string;
+  /** The message and fix as words and figures, when they carry figures (see `./message`). */
+  parts?: { message: MessageParts | string; fix: MessageParts | string };
 }
 
 /** A model's outcome. */
@@ -27,10 +31,12 @@ export type EquipmentOutcome<T> = { ok: true; value: T } | { ok: false; problem:
 export function fail<T>(
   code: EquipmentProblem['code'],
   key: string,
-  message: string,
-  fix: string,
+  message: MessageText,
+  fix: MessageText,
 ): EquipmentOutcome<T> {
-  return { ok: false, problem: { code, key, message, fix } };
+  const problem: EquipmentProblem = { code, key, message: siText(message), fix: siText(fix) };
+  if (partsOf(message) || partsOf(fix)) problem.parts = { message, fix };
+  return { ok: false, problem };
 }
 
 /** Shorthand for a successful outcome. */
@@ -43,17 +49,27 @@ export function moistCp(w: number): number {
   return 1006 + 1860 * w;
 }
 
-/** A temperature for messages: `12.3 °C`. */
-export function tText(t: number): string {
-  return `${Number(t.toFixed(2))} °C`;
+/** A temperature in a message (`12.3 °C` in SI). */
+export function tText(t: number): MessageFigure {
+  return T(t);
 }
 
-/** A humidity ratio for messages: `5.65 g/kg`. */
-export function wText(w: number): string {
-  return `${Number((w * 1000).toPrecision(4))} g/kg`;
+/** A humidity ratio in a message (`5.65 g/kg` in SI). */
+export function wText(w: number): MessageFigure {
+  return W(w);
 }
 
-/** A fraction as a percentage for messages: `40.2 %`. */
-export function pctText(x: number): string {
-  return `${Number((x * 100).toPrecision(4))} %`;
+/** A fraction as a percentage in a message (`40.2 %`). */
+export function pctText(x: number): MessageFigure {
+  return RH(x);
+}
+
+/** A dry-air mass flow in a message (`1.2 kg/s` in SI). */
+export function flowText(kgs: number): MessageFigure {
+  return M(kgs);
+}
+
+/** A pressure in a message (`750 Pa` in SI). */
+export function pressureText(pa: number): MessageFigure {
+  return P(pa);
 }

@@ -24,6 +24,7 @@ import { stateFromDbW } from './state';
 import { solveState } from './solve';
 import { findRoot } from './roots';
 import { fail, ok, pctText, tText, wText, type EquipmentOutcome } from './equipment';
+import { msg, problemParts, withoutFinalStop } from './message';
 
 /** Default steam supply: saturated at 101.325 kPa (100 °C). */
 export const DEFAULT_STEAM_PRESSURE_PA = 101325;
@@ -51,7 +52,7 @@ export function steamToW(a: MoistAirState, w2: number, hSteam: number): Equipmen
     return fail(
       'unreachable',
       'w',
-      `the target humidity ratio ${wText(w2)} is below the entering ${wText(a.w)}: steam only adds moisture`,
+      msg`the target humidity ratio ${wText(w2)} is below the entering ${wText(a.w)}: steam only adds moisture`,
       'give a target at or above the entering humidity ratio, or dry the air with a coil',
     );
   }
@@ -61,7 +62,7 @@ export function steamToW(a: MoistAirState, w2: number, hSteam: number): Equipmen
     return fail(
       'unreachable',
       'w',
-      `the target humidity ratio ${wText(w2)} is above saturation at the leaving ${tText(t2)} (${wText(ws)}): the steam would condense as fog`,
+      msg`the target humidity ratio ${wText(w2)} is above saturation at the leaving ${tText(t2)} (${wText(ws)}): the steam would condense as fog`,
       'give a lower target, or heat the air before the humidifier',
     );
   }
@@ -74,7 +75,7 @@ export function steamToRh(a: MoistAirState, rh2: number, hSteam: number): Equipm
     return fail(
       'out-of-range',
       'rh',
-      `the target relative humidity ${pctText(rh2)} is outside 0 % to 100 %`,
+      msg`the target relative humidity ${pctText(rh2)} is outside 0 % to 100 %`,
       'give a target relative humidity above 0 % and at most 100 %',
     );
   }
@@ -82,7 +83,7 @@ export function steamToRh(a: MoistAirState, rh2: number, hSteam: number): Equipm
     return fail(
       'unreachable',
       'rh',
-      `the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: steam only adds moisture`,
+      msg`the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: steam only adds moisture`,
       'give a target above the entering relative humidity, or dry the air with a coil',
     );
   }
@@ -100,7 +101,7 @@ export function steamToRh(a: MoistAirState, rh2: number, hSteam: number): Equipm
     return fail(
       'unreachable',
       'rh',
-      `no amount of steam brings this air to ${pctText(rh2)}`,
+      msg`no amount of steam brings this air to ${pctText(rh2)}`,
       'give a lower target relative humidity',
     );
   const w2 = findRoot(g, a.w, hi, g0, ghi, 1e-12);
@@ -108,7 +109,7 @@ export function steamToRh(a: MoistAirState, rh2: number, hSteam: number): Equipm
     return fail(
       'unreachable',
       'rh',
-      `the humidity ratio for ${pctText(rh2)} could not be found`,
+      msg`the humidity ratio for ${pctText(rh2)} could not be found`,
       'give the target as a humidity ratio (w=) instead',
     );
   return ok({ state: steamLeaving(a, w2, hSteam), dw: w2 - a.w });
@@ -120,7 +121,13 @@ function onWetBulbLine(
   key: string,
 ): EquipmentOutcome<HumidifierResult> {
   const solved = solveState({ wb: a.wb, ...input }, a.p);
-  if (!solved.ok) return fail('unreachable', key, solved.problem.message.replace(/\.$/, ''), solved.problem.fix);
+  if (!solved.ok)
+    return fail(
+      'unreachable',
+      key,
+      withoutFinalStop(problemParts(solved.problem).message),
+      problemParts(solved.problem).fix,
+    );
   return ok({ state: solved.state, dw: solved.state.w - a.w });
 }
 
@@ -144,7 +151,7 @@ export function adiabaticToDb(a: MoistAirState, db2: number): EquipmentOutcome<H
     return fail(
       'unreachable',
       'db',
-      `the target ${tText(db2)} is above the entering dry-bulb ${tText(a.db)}: evaporating water cools the air`,
+      msg`the target ${tText(db2)} is above the entering dry-bulb ${tText(a.db)}: evaporating water cools the air`,
       'give a target between the entering wet-bulb and dry-bulb',
     );
   }
@@ -152,8 +159,8 @@ export function adiabaticToDb(a: MoistAirState, db2: number): EquipmentOutcome<H
     return fail(
       'unreachable',
       'db',
-      `the target ${tText(db2)} is below the entering wet-bulb ${tText(a.wb)}: evaporation cannot cool air below its wet-bulb`,
-      `give a target of at least ${tText(a.wb)}`,
+      msg`the target ${tText(db2)} is below the entering wet-bulb ${tText(a.wb)}: evaporation cannot cool air below its wet-bulb`,
+      msg`give a target of at least ${tText(a.wb)}`,
     );
   }
   if (db2 === a.db) return ok({ state: a, dw: 0 });
@@ -166,7 +173,7 @@ export function adiabaticToRh(a: MoistAirState, rh2: number): EquipmentOutcome<H
     return fail(
       'out-of-range',
       'rh',
-      `the target relative humidity ${pctText(rh2)} is outside 0 % to 100 %`,
+      msg`the target relative humidity ${pctText(rh2)} is outside 0 % to 100 %`,
       'give a target relative humidity above 0 % and at most 100 %',
     );
   }
@@ -174,7 +181,7 @@ export function adiabaticToRh(a: MoistAirState, rh2: number): EquipmentOutcome<H
     return fail(
       'unreachable',
       'rh',
-      `the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: evaporating water only adds moisture`,
+      msg`the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: evaporating water only adds moisture`,
       'give a target above the entering relative humidity',
     );
   }

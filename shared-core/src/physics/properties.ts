@@ -5,7 +5,7 @@
  */
 import { PsychroError } from './types';
 import { checkHumRatio, checkPressure, checkRelHum, pressureBelowSaturation } from './checks';
-import { fmtNum, fmtPa } from './format';
+import { msg, P, Z, ZL } from './message';
 import { checkTemperature, pwsRaw } from './saturation';
 
 function checkFinite(x: number, what: string): void {
@@ -43,7 +43,7 @@ export function humRatioFromVapPres(pw: number, p: number): number {
     if (pw >= p) {
       throw new PsychroError({
         code: 'pressure-below-saturation',
-        message: `Vapour pressure ${fmtPa(pw)} is at or above the total pressure ${fmtPa(p)}.`,
+        message: msg`Vapour pressure ${P(pw)} is at or above the total pressure ${P(p)}.`,
         fix: 'The partial pressure of the vapour must be below the total pressure.',
         keys: [],
       });
@@ -154,9 +154,9 @@ function checkElevation(z: number): void {
     throw new PsychroError({
       code: 'out-of-range',
       message: Number.isFinite(z)
-        ? `Elevation ${fmtNum(z, 6)} m is outside the standard-atmosphere range used here (−5000 m to 11 000 m).`
+        ? msg`Elevation ${Z(z)} is outside the standard-atmosphere range used here (${ZL(ELEV_MIN_M)} to ${ZL(ELEV_MAX_M)}).`
         : `Elevation ${String(z)} is not a finite number.`,
-      fix: 'Give an elevation between −5000 m and 11 000 m, or give the pressure itself.',
+      fix: msg`Give an elevation between ${ZL(ELEV_MIN_M)} and ${ZL(ELEV_MAX_M)}, or give the pressure itself.`,
       keys: [],
     });
   }

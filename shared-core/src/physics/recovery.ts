@@ -21,7 +21,8 @@
 import type { MoistAirState } from './types';
 import { solveState } from './solve';
 import { dewPointFromHumRatio } from './wetbulb';
-import { fail, moistCp, ok, type EquipmentOutcome } from './equipment';
+import { fail, moistCp, ok, type EquipmentOutcome, flowText } from './equipment';
+import { msg, problemParts, withoutFinalStop } from './message';
 
 /** One stream through the exchanger. */
 export interface RecoveryStream {
@@ -57,7 +58,13 @@ export interface RecoveryResult {
 
 function leavingState(t: number, w: number, p: number, which: string): EquipmentOutcome<MoistAirState> {
   const solved = solveState({ db: t, w }, p, { allowFog: true });
-  if (!solved.ok) return fail('unreachable', which, solved.problem.message.replace(/\.$/, ''), solved.problem.fix);
+  if (!solved.ok)
+    return fail(
+      'unreachable',
+      which,
+      withoutFinalStop(problemParts(solved.problem).message),
+      problemParts(solved.problem).fix,
+    );
   return ok(solved.state);
 }
 
@@ -89,7 +96,7 @@ export function recoverBetween(
       return fail(
         'out-of-range',
         'm',
-        `a dry-air flow of ${String(s.massFlowKgS)} kg/s is not a positive flow`,
+        msg`a dry-air flow of ${flowText(s.massFlowKgS)} is not a positive flow`,
         'give each stream a positive dry-air flow',
       );
     }

@@ -8,7 +8,7 @@
  * liquid water.
  */
 import { PsychroError } from './types';
-import { fmtPa, fmtT } from './format';
+import { msg, P, PL, T, TL } from './message';
 
 /** 0 °C in kelvin (exact). */
 export const ZERO_C_K = 273.15;
@@ -110,9 +110,9 @@ export function checkTemperature(tC: number, what: string): void {
     throw new PsychroError({
       code: 'out-of-range',
       message: Number.isFinite(tC)
-        ? `${what} ${fmtT(tC)} is outside the range of the formulation (−100 °C to 200 °C).`
+        ? msg`${what} ${T(tC)} is outside the range of the formulation (${TL(T_MIN_C)} to ${TL(T_MAX_C)}).`
         : `${what} is not a finite number (${String(tC)}).`,
-      fix: 'Use a temperature between −100 °C and 200 °C.',
+      fix: msg`Use a temperature between ${TL(T_MIN_C)} and ${TL(T_MAX_C)}.`,
       keys: [],
     });
   }
@@ -281,8 +281,8 @@ export function dewPointFromVapPres(pw: number): number {
       code: 'out-of-range',
       message: !(pw >= 0)
         ? `Vapour pressure ${String(pw)} Pa is not a non-negative number.`
-        : `Vapour pressure ${fmtPa(pw)} is above the saturation pressure at 200 °C (${fmtPa(PWS_MAX)}): the dew point would be above the formulation's range.`,
-      fix: 'Give a vapour pressure between 0 and 1.55 MPa.',
+        : msg`Vapour pressure ${P(pw)} is above the saturation pressure at ${TL(T_MAX_C)} (${PL(PWS_MAX)}): the dew point would be above the formulation's range.`,
+      fix: msg`Give a vapour pressure between 0 and ${PL(PWS_MAX)}.`,
       keys: [],
     });
   }
@@ -301,8 +301,8 @@ export function boilingPoint(p: number): number {
   if (!(p >= PWS_MIN && p <= PWS_MAX)) {
     throw new PsychroError({
       code: 'out-of-range',
-      message: `Pressure ${Number.isFinite(p) ? fmtPa(p) : String(p)} has no boiling point within −100 °C to 200 °C.`,
-      fix: `Use a pressure between ${fmtPa(PWS_MIN)} and ${fmtPa(PWS_MAX)}.`,
+      message: msg`Pressure ${Number.isFinite(p) ? P(p) : String(p)} has no boiling point within ${TL(T_MIN_C)} to ${TL(T_MAX_C)}.`,
+      fix: msg`Use a pressure between ${PL(PWS_MIN)} and ${PL(PWS_MAX)}.`,
       keys: [],
     });
   }

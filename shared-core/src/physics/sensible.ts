@@ -14,7 +14,8 @@
 import type { MoistAirState } from './types';
 import { dbFromEnthalpy } from './properties';
 import { stateFromDbW } from './state';
-import { fail, moistCp, ok, tText, type EquipmentOutcome } from './equipment';
+import { fail, moistCp, ok, tText, type EquipmentOutcome, flowText, pressureText } from './equipment';
+import { msg } from './message';
 
 /**
  * The state at dry-bulb `db2` with the humidity ratio of `a` (a sensible heater or cooler). A
@@ -26,7 +27,7 @@ export function sensibleToDb(a: MoistAirState, db2: number, key = 'db'): Equipme
     return fail(
       'unreachable',
       key,
-      `this would cool the air to ${tText(db2)}, below its dew point ${tText(a.dp)}: water would condense, so the humidity ratio could not stay the same`,
+      msg`this would cool the air to ${tText(db2)}, below its dew point ${tText(a.dp)}: water would condense, so the humidity ratio could not stay the same`,
       'a sensible heater or cooler keeps the humidity ratio; for a cooling coil that dries the air give its leaving state (db= with rh= or w=) or adp= with bf=',
     );
   }
@@ -47,7 +48,7 @@ export function sensibleByDuty(a: MoistAirState, dutyW: number, massFlowKgS: num
     return fail(
       'out-of-range',
       'heat',
-      `the dry-air flow ${String(massFlowKgS)} kg/s is not a positive flow`,
+      msg`the dry-air flow ${flowText(massFlowKgS)} is not a positive flow`,
       'give the process a positive dry-air flow (m= or q=)',
     );
   }
@@ -84,7 +85,7 @@ export function fanLeaving(a: MoistAirState, o: FanOptions): EquipmentOutcome<Mo
     return fail(
       'out-of-range',
       'dp_fan',
-      `the fan pressure rise ${String(o.dpPa)} Pa is not a pressure rise of 0 Pa or more`,
+      msg`the fan pressure rise ${pressureText(o.dpPa)} is not a pressure rise of 0 or more`,
       'give the fan total pressure rise as a positive figure, e.g. dp_fan=750Pa',
     );
   }

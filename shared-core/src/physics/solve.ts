@@ -9,8 +9,22 @@ import {
   type PhysicsProblem,
   type SolveOptions,
   type SolveResult,
+  makeProblem,
 } from './types';
-import { fmtH, fmtNum, fmtPa, fmtRh, fmtT, fmtW } from './format';
+import {
+  msg,
+  type MessageText,
+  DH as fDH,
+  DT as fDT,
+  DTL as fDTL,
+  H as fH,
+  P as fP,
+  PL as fPL,
+  RH as fRh,
+  T as fT,
+  TL as fTL,
+  W as fW,
+} from './message';
 import { CP_DA, CP_WV, EPSILON, H_FG0, condensateEnthalpy } from './properties';
 import {
   PWS_MAX,
@@ -42,7 +56,12 @@ const NAMES: Record<DefiningKey, string> = {
   h: 'enthalpy',
 };
 
-function problem(code: PhysicsProblem['code'], message: string, fix: string, keys: DefiningKey[]): PsychroError {
+function problem(
+  code: PhysicsProblem['code'],
+  message: MessageText,
+  fix: MessageText,
+  keys: DefiningKey[],
+): PsychroError {
   return new PsychroError({ code, message, fix, keys });
 }
 
@@ -50,8 +69,8 @@ function problem(code: PhysicsProblem['code'], message: string, fix: string, key
 function dbOutOfRange(db: number, keys: DefiningKey[]): PsychroError {
   return problem(
     'out-of-range',
-    `These figures put the dry-bulb at ${Number.isFinite(db) ? fmtT(db) : 'an unbounded temperature'}, outside the formulation's −100 °C to 200 °C.`,
-    `Check the ${keys.map((k) => NAMES[k]).join(' and ')}; the state they describe must have a dry-bulb between −100 °C and 200 °C.`,
+    msg`These figures put the dry-bulb at ${Number.isFinite(db) ? fT(db) : 'an unbounded temperature'}, outside the formulation's ${fTL(T_MIN_C)} to ${fTL(T_MAX_C)}.`,
+    msg`Check the ${keys.map((k) => NAMES[k]).join(' and ')}; the state they describe must have a dry-bulb between ${fTL(T_MIN_C)} and ${fTL(T_MAX_C)}.`,
     keys,
   );
 }
@@ -118,45 +137,51 @@ function stateAt(
 const RANGE_ROUNDOFF_K = 1e-6;
 
 function fogWarning(t: number, w: number, ws: number, keys: DefiningKey[]): PhysicsProblem {
-  return {
+  return makeProblem({
     code: 'supersaturated',
-    message: `Fog: ${fmtW(w)} of water is more than saturated air at ${fmtT(t)} holds as vapour (${fmtW(ws)}); the rest, ${fmtW(w - ws)}, is suspended ${t < 0 ? 'ice' : 'liquid'}.`,
+    message: msg`Fog: ${fW(w)} of water is more than saturated air at ${fT(t)} holds as vapour (${fW(ws)}); the rest, ${fW(w - ws)}, is suspended ${t < 0 ? 'ice' : 'liquid'}.`,
     fix: 'If fog is not intended, check the figures: the state lies beyond the saturation curve.',
     keys,
-  };
+  });
 }
 
 /** Warnings about a finished state: temperatures extrapolated below the range, no saturation possible. */
 function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
   if (s.fog) return;
   if (s.dp < T_MIN_C - RANGE_ROUNDOFF_K) {
-    warnings.push({
-      code: 'out-of-range',
-      message:
-        s.w === 0
-          ? 'Bone-dry air has no dew point (reported as −Infinity).'
-          : s.dp === Number.NEGATIVE_INFINITY
-            ? `The humidity ratio ${fmtW(s.w)} at ${fmtPa(s.p)} gives a vapour pressure too small to have a dew point (reported as −Infinity).`
-            : `The dew point ${fmtT(s.dp)} is below −100 °C: extrapolated from the ice equation.`,
-      fix: 'Nothing to fix if the air is meant to be this dry.',
-      keys: ['dp'],
-    });
+    warnings.push(
+      makeProblem({
+        code: 'out-of-range',
+        message:
+          s.w === 0
+            ? 'Bone-dry air has no dew point (reported as −Infinity).'
+            : s.dp === Number.NEGATIVE_INFINITY
+              ? msg`The humidity ratio ${fW(s.w)} at ${fP(s.p)} gives a vapour pressure too small to have a dew point (reported as −Infinity).`
+              : msg`The dew point ${fT(s.dp)} is below ${fTL(T_MIN_C)}: extrapolated from the ice equation.`,
+        fix: 'Nothing to fix if the air is meant to be this dry.',
+        keys: ['dp'],
+      }),
+    );
   }
   if (s.wb < T_MIN_C - RANGE_ROUNDOFF_K) {
-    warnings.push({
-      code: 'out-of-range',
-      message: `The wet-bulb ${fmtT(s.wb)} is below −100 °C: extrapolated from the ice equation.`,
-      fix: 'Nothing to fix if the air is meant to be this cold and dry.',
-      keys: ['wb'],
-    });
+    warnings.push(
+      makeProblem({
+        code: 'out-of-range',
+        message: msg`The wet-bulb ${fT(s.wb)} is below ${fTL(T_MIN_C)}: extrapolated from the ice equation.`,
+        fix: 'Nothing to fix if the air is meant to be this cold and dry.',
+        keys: ['wb'],
+      }),
+    );
   }
   if (!Number.isFinite(s.ws)) {
-    warnings.push({
-      code: 'pressure-below-saturation',
-      message: `The dry-bulb ${fmtT(s.db)} is at or above the boiling point at ${fmtPa(s.p)}: this air cannot be saturated, so the saturation humidity ratio is infinite and the degree of saturation 0.`,
-      fix: 'Nothing to fix if superheated air is meant; otherwise check the pressure.',
-      keys: ['db'],
-    });
+    warnings.push(
+      makeProblem({
+        code: 'pressure-below-saturation',
+        message: msg`The dry-bulb ${fT(s.db)} is at or above the boiling point at ${fP(s.p)}: this air cannot be saturated, so the saturation humidity ratio is infinite and the degree of saturation 0.`,
+        fix: 'Nothing to fix if superheated air is meant; otherwise check the pressure.',
+        keys: ['db'],
+      }),
+    );
   }
 }
 
@@ -179,8 +204,8 @@ export function solveState(
     if (overflow) {
       throw problem(
         'out-of-range',
-        `At ${fmtPa(p)} these figures give a ${overflow === 'v' ? 'specific volume' : overflow === 'h' ? 'enthalpy' : `property (${overflow})`} that is not a finite number.`,
-        'Check the pressure and the humidity ratio: they are far outside any real air (101.325 kPa at sea level).',
+        msg`At ${fP(p)} these figures give a ${overflow === 'v' ? 'specific volume' : overflow === 'h' ? 'enthalpy' : `property (${overflow})`} that is not a finite number.`,
+        msg`Check the pressure and the humidity ratio: they are far outside any real air (${fPL(101325)} at sea level).`,
         DEFINING_KEYS.filter((k) => input[k] !== undefined),
       );
     }
@@ -256,7 +281,7 @@ function solveOrThrow(
     throw problem(
       'out-of-range',
       `Pressure ${String(p)} Pa is not a positive, finite pressure.`,
-      'Give the barometric pressure as a positive figure (101.325 kPa at sea level), or a site elevation.',
+      msg`Give the barometric pressure as a positive figure (${fPL(101325)} at sea level), or a site elevation.`,
       [],
     );
   }
@@ -290,7 +315,7 @@ function solveOrThrow(
     case DP | W:
       throw problem(
         'dependent-pair',
-        `The dew point and the humidity ratio both fix the moisture content (at ${fmtPa(p)} one follows from the other), so together they do not fix the state.`,
+        msg`The dew point and the humidity ratio both fix the moisture content (at ${fP(p)} one follows from the other), so together they do not fix the state.`,
         'Replace one of them with a temperature (db or wb), the relative humidity (rh) or the enthalpy (h).',
         ['dp', 'w'],
       );
@@ -332,8 +357,8 @@ function checkValue(k: DefiningKey, x: number): void {
       if (x < T_MIN_C || x > T_MAX_C) {
         throw problem(
           'out-of-range',
-          `The ${NAMES[k]} ${fmtT(x)} is outside the formulation's range (−100 °C to 200 °C).`,
-          `Use a ${NAMES[k]} between −100 °C and 200 °C.`,
+          msg`The ${NAMES[k]} ${fT(x)} is outside the formulation's range (${fTL(T_MIN_C)} to ${fTL(T_MAX_C)}).`,
+          msg`Use a ${NAMES[k]} between ${fTL(T_MIN_C)} and ${fTL(T_MAX_C)}.`,
           [k],
         );
       }
@@ -342,7 +367,7 @@ function checkValue(k: DefiningKey, x: number): void {
       if (x < 0 || x > 1) {
         throw problem(
           'rh-out-of-range',
-          `The relative humidity ${fmtRh(x)} is outside 0 % to 100 %.`,
+          msg`The relative humidity ${fRh(x)} is outside 0 % to 100 %.`,
           'Give a relative humidity between 0 % and 100 %.',
           ['rh'],
         );
@@ -352,7 +377,7 @@ function checkValue(k: DefiningKey, x: number): void {
       if (x < 0) {
         throw problem(
           'negative-humidity-ratio',
-          `The humidity ratio ${fmtW(x)} is negative.`,
+          msg`The humidity ratio ${fW(x)} is negative.`,
           'A humidity ratio is 0 (bone-dry air) or more.',
           ['w'],
         );
@@ -369,7 +394,7 @@ function fromDbWb(db: number, wb: number, p: number, warnings: PhysicsProblem[])
   if (wb > db) {
     throw problem(
       'wb-above-db',
-      `The wet-bulb ${fmtT(wb)} is above the dry-bulb ${fmtT(db)}.`,
+      msg`The wet-bulb ${fT(wb)} is above the dry-bulb ${fT(db)}.`,
       'The wet-bulb is at most the dry-bulb (equal when saturated): check the two figures or swap them.',
       keys,
     );
@@ -393,11 +418,11 @@ function wbTooLow(db: number, wb: number, p: number): PsychroError {
   }
   return problem(
     'wb-too-low',
-    `The wet-bulb ${fmtT(wb)} is too far below the dry-bulb ${fmtT(db)}: even bone-dry air at ${fmtPa(p)} ` +
-      (Number.isFinite(min) ? `has a wet-bulb of ${fmtT(min)}` : 'has a higher wet-bulb') +
-      ' (the humidity ratio would be negative).',
+    msg`The wet-bulb ${fT(wb)} is too far below the dry-bulb ${fT(db)}: even bone-dry air at ${fP(p)} ${
+      Number.isFinite(min) ? msg`has a wet-bulb of ${fT(min)}` : 'has a higher wet-bulb'
+    } (the humidity ratio would be negative).`,
     Number.isFinite(min)
-      ? `Use a wet-bulb of at least ${fmtT(min)} at this dry-bulb, or check the dry-bulb.`
+      ? msg`Use a wet-bulb of at least ${fT(min)} at this dry-bulb, or check the dry-bulb.`
       : 'Use a higher wet-bulb, or check the dry-bulb.',
     ['db', 'wb'],
   );
@@ -415,7 +440,7 @@ function fromDbDp(
   if (dp > db) {
     throw problem(
       'dp-above-db',
-      `The dew point ${fmtT(dp)} is above the dry-bulb ${fmtT(db)}.`,
+      msg`The dew point ${fT(dp)} is above the dry-bulb ${fT(db)}.`,
       'The dew point is at most the dry-bulb (equal when saturated): check the two figures or swap them.',
       keys,
     );
@@ -434,8 +459,8 @@ function fromDbRh(db: number, rh: number, p: number): MoistAirState {
   if (pw >= p) {
     throw problem(
       'pressure-below-saturation',
-      `At ${fmtT(db)} and ${fmtRh(rh)} the vapour pressure would be ${fmtPa(pw)}, at or above the total pressure ${fmtPa(p)}: water boils there.`,
-      `Lower the relative humidity below ${fmtRh(p / pwsDb)} or the dry-bulb, or raise the pressure.`,
+      msg`At ${fT(db)} and ${fRh(rh)} the vapour pressure would be ${fP(pw)}, at or above the total pressure ${fP(p)}: water boils there.`,
+      msg`Lower the relative humidity below ${fRh(p / pwsDb)} or the dry-bulb, or raise the pressure.`,
       ['db', 'rh'],
     );
   }
@@ -455,8 +480,8 @@ function fromDbH(
   if (w < 0) {
     throw problem(
       'enthalpy-too-low',
-      `The enthalpy ${fmtH(h)} is below that of bone-dry air at ${fmtT(db)} (${fmtH(CP_DA * db)}).`,
-      `Use an enthalpy of at least ${fmtH(CP_DA * db)} at this dry-bulb (dry air 0 at 0 °C), or check the dry-bulb.`,
+      msg`The enthalpy ${fH(h)} is below that of bone-dry air at ${fT(db)} (${fH(CP_DA * db)}).`,
+      msg`Use an enthalpy of at least ${fH(CP_DA * db)} at this dry-bulb (dry air 0 at ${fTL(0)}), or check the dry-bulb.`,
       keys,
     );
   }
@@ -476,7 +501,7 @@ function fromDbH(
     if (!(wTotal >= ws && wTotal < Number.POSITIVE_INFINITY)) {
       throw problem(
         'no-solution',
-        `The enthalpy ${fmtH(h)} is above that of saturated air at ${fmtT(db)} (${fmtH(hs)}), and suspended ${db < 0 ? 'ice' : 'water'} at this temperature cannot make up the difference.`,
+        msg`The enthalpy ${fH(h)} is above that of saturated air at ${fT(db)} (${fH(hs)}), and suspended ${db < 0 ? 'ice' : 'water'} at this temperature cannot make up the difference.`,
         'Check the enthalpy and the dry-bulb, or give the humidity ratio instead of the enthalpy.',
         keys,
       );
@@ -499,7 +524,7 @@ function fromWbDp(
   if (dp > wb) {
     throw problem(
       'wb-too-low',
-      `The wet-bulb ${fmtT(wb)} is below the dew point ${fmtT(dp)}; the wet-bulb always lies between the dew point and the dry-bulb.`,
+      msg`The wet-bulb ${fT(wb)} is below the dew point ${fT(dp)}; the wet-bulb always lies between the dew point and the dry-bulb.`,
       'Check the two figures (are they swapped?).',
       keys,
     );
@@ -527,8 +552,8 @@ function fromWbW(
     if (!opts?.allowFog) {
       throw problem(
         'supersaturated',
-        `The humidity ratio ${fmtW(w)} is above saturation at the wet-bulb ${fmtT(wb)} (${fmtW(wsWb)}): no air with this much vapour has so low a wet-bulb (it would be fog).`,
-        `Use a humidity ratio of at most ${fmtW(wsWb)} with this wet-bulb, or a higher wet-bulb.`,
+        msg`The humidity ratio ${fW(w)} is above saturation at the wet-bulb ${fT(wb)} (${fW(wsWb)}): no air with this much vapour has so low a wet-bulb (it would be fog).`,
+        msg`Use a humidity ratio of at most ${fW(wsWb)} with this wet-bulb, or a higher wet-bulb.`,
         keys,
       );
     }
@@ -600,7 +625,7 @@ function fromWbH(
   if (spread <= 1e-9 * Math.max(1, Math.abs(h)) && Math.abs(fLo) <= 1e-6 * Math.max(1000, Math.abs(h))) {
     throw problem(
       'dependent-pair',
-      `At a wet-bulb of ${fmtT(wb)} the enthalpy is the same (${fmtH(hLo)}) for every dry-bulb, so the two do not fix the state.`,
+      msg`At a wet-bulb of ${fT(wb)} the enthalpy is the same (${fH(hLo)}) for every dry-bulb, so the two do not fix the state.`,
       'Replace the enthalpy with the dry-bulb, the relative humidity or the humidity ratio.',
       keys,
     );
@@ -609,7 +634,7 @@ function fromWbH(
     const [lo, hi2] = hLo < hHi ? [hLo, hHi] : [hHi, hLo];
     throw problem(
       'no-solution',
-      `No air with a wet-bulb of ${fmtT(wb)} has an enthalpy of ${fmtH(h)}: along that wet-bulb the enthalpy only ranges from ${fmtH(lo)} to ${fmtH(hi2)}.`,
+      msg`No air with a wet-bulb of ${fT(wb)} has an enthalpy of ${fH(h)}: along that wet-bulb the enthalpy only ranges from ${fH(lo)} to ${fH(hi2)}.`,
       'Check the enthalpy; the wet-bulb and the enthalpy are nearly redundant, so prefer the dry-bulb, rh or w with the wet-bulb.',
       keys,
     );
@@ -617,14 +642,16 @@ function fromWbH(
   const db = findRoot(f, wb, dbMax, fLo, fHi);
   if (Number.isNaN(db)) throw noConvergence('dry-bulb (from wb and h)');
   const slope = Math.abs(hHi - hLo) / Math.max(dbMax - wb, 1e-9); // J/kg per K along the wet-bulb line
-  warnings.push({
-    code: 'ill-conditioned',
-    message:
-      `Wet-bulb and enthalpy are nearly parallel on the chart: along this wet-bulb the enthalpy changes by only about ${fmtNum(slope, 2)} J/kg per kelvin of dry-bulb` +
-      (slope > 0 ? `, so an error of 0.1 kJ/kg in h moves the dry-bulb by about ${fmtNum(100 / slope, 2)} K.` : '.'),
-    fix: 'Prefer the dry-bulb, rh or w together with the wet-bulb.',
-    keys,
-  });
+  warnings.push(
+    makeProblem({
+      code: 'ill-conditioned',
+      message: msg`Wet-bulb and enthalpy are nearly parallel on the chart: along this wet-bulb the enthalpy changes by only about ${fDH(10 * slope)} per ${fDTL(10)} of dry-bulb${
+        slope > 0 ? msg`, so an error of ${fDH(100)} in h moves the dry-bulb by about ${fDT(100 / slope)}.` : '.'
+      }`,
+      fix: 'Prefer the dry-bulb, rh or w together with the wet-bulb.',
+      keys,
+    }),
+  );
   return stateAt(db, Math.max(0, humRatioEq33(db, wb, wsWb)), p, keys, opts, warnings, Number.NaN, wb);
 }
 
@@ -641,7 +668,7 @@ function fromDpRh(
   if (rh === 0) {
     throw problem(
       'no-solution',
-      `A relative humidity of 0 % means bone-dry air, which has no dew point; it cannot go with a dew point of ${fmtT(dp)}.`,
+      msg`A relative humidity of 0 % means bone-dry air, which has no dew point; it cannot go with a dew point of ${fT(dp)}.`,
       'Give a relative humidity above 0 %, or replace the dew point with a dry-bulb.',
       keys,
     );
@@ -672,8 +699,8 @@ function fromDpH(
   if (db < dp) {
     throw problem(
       'enthalpy-too-low',
-      `The enthalpy ${fmtH(h)} is below that of saturated air at the dew point ${fmtT(dp)} (${fmtH(hs)}): the dry-bulb would be below the dew point.`,
-      `Use an enthalpy of at least ${fmtH(hs)} with this dew point.`,
+      msg`The enthalpy ${fH(h)} is below that of saturated air at the dew point ${fT(dp)} (${fH(hs)}): the dry-bulb would be below the dew point.`,
+      msg`Use an enthalpy of at least ${fH(hs)} with this dew point.`,
       keys,
     );
   }
@@ -700,8 +727,8 @@ function fromRhW(
     throw problem(
       'no-solution',
       rh === 0
-        ? `A relative humidity of 0 % means bone-dry air, but the humidity ratio is ${fmtW(w)}.`
-        : `A humidity ratio of 0 means bone-dry air, but the relative humidity is ${fmtRh(rh)}.`,
+        ? msg`A relative humidity of 0 % means bone-dry air, but the humidity ratio is ${fW(w)}.`
+        : msg`A humidity ratio of 0 means bone-dry air, but the relative humidity is ${fRh(rh)}.`,
       'Check the two figures, or replace one with a temperature.',
       keys,
     );
@@ -737,8 +764,8 @@ function fromRhH(
     // rh·pws reaches p even at −100 °C: no temperature in range gives air at this rh.
     throw problem(
       'pressure-below-saturation',
-      `At ${fmtPa(p)}, air at ${fmtRh(rh)} would have a vapour pressure at or above the total pressure even at −100 °C (${fmtPa(rh * pwsAt(T_MIN_C))}).`,
-      'Check the pressure and its unit (101.325 kPa at sea level).',
+      msg`At ${fP(p)}, air at ${fRh(rh)} would have a vapour pressure at or above the total pressure even at ${fTL(T_MIN_C)} (${fP(rh * pwsAt(T_MIN_C))}).`,
+      msg`Check the pressure and its unit (${fPL(101325)} at sea level).`,
       keys,
     );
   }
@@ -746,8 +773,8 @@ function fromRhH(
   if (fLo > 0) {
     throw problem(
       'out-of-range',
-      `The enthalpy ${fmtH(h)} at ${fmtRh(rh)} would need a dry-bulb below −100 °C.`,
-      `Use an enthalpy of at least ${fmtH(fLo + h)} at this relative humidity.`,
+      msg`The enthalpy ${fH(h)} at ${fRh(rh)} would need a dry-bulb below ${fTL(T_MIN_C)}.`,
+      msg`Use an enthalpy of at least ${fH(fLo + h)} at this relative humidity.`,
       keys,
     );
   }
@@ -802,8 +829,8 @@ function fromWH(
   if (!opts?.allowFog) {
     throw problem(
       'supersaturated',
-      `The humidity ratio ${fmtW(w)} with the enthalpy ${fmtH(h)} lies in the fog region: saturated air with that much water has ${fmtH(hSat)} at its dew point ${fmtT(tSat)}, so there is more water than the air can hold as vapour.`,
-      `Use an enthalpy of at least ${fmtH(hSat)} with this humidity ratio, or allow fog.`,
+      msg`The humidity ratio ${fW(w)} with the enthalpy ${fH(h)} lies in the fog region: saturated air with that much water has ${fH(hSat)} at its dew point ${fT(tSat)}, so there is more water than the air can hold as vapour.`,
+      msg`Use an enthalpy of at least ${fH(hSat)} with this humidity ratio, or allow fog.`,
       keys,
     );
   }
@@ -816,7 +843,7 @@ function fromWH(
   if (fLo > 0) {
     throw problem(
       'out-of-range',
-      `The enthalpy ${fmtH(h)} with ${fmtW(w)} of water would need a fog temperature below −100 °C.`,
+      msg`The enthalpy ${fH(h)} with ${fW(w)} of water would need a fog temperature below ${fTL(T_MIN_C)}.`,
       'Check the enthalpy and the humidity ratio.',
       keys,
     );

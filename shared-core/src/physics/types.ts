@@ -6,6 +6,7 @@
  * relative humidity and degree of saturation as fractions (0…1).
  */
 import type { CodeFrom } from '../vocabulary/codes';
+import { partsOf, siText, type MessageParts, type MessageText } from './message';
 
 /** Keys of the properties that can define a state (two of them fix it, with pressure). */
 export type DefiningKey = 'db' | 'wb' | 'dp' | 'rh' | 'w' | 'h';
@@ -22,12 +23,38 @@ export interface PhysicsProblem {
   fix: string;
   /** The defining keys the problem is about (so a caller can point at the right token). */
   keys: DefiningKey[];
+  /**
+   * The message and fix as words and figures (see `./message`), when they carry figures: a caller
+   * that shows them in another unit system renders these instead of the SI `message` and `fix`.
+   */
+  parts?: { message: MessageParts | string; fix: MessageParts | string };
+}
+
+/** A problem as the engine builds it: message and fix as SI text or as parts with figures. */
+export interface ProblemInput {
+  code: PhysicsCode;
+  message: MessageText;
+  fix: MessageText;
+  keys: DefiningKey[];
+}
+
+/** A {@link PhysicsProblem} from its words and figures: SI text, and the parts when there are figures. */
+export function makeProblem(input: ProblemInput): PhysicsProblem {
+  const problem: PhysicsProblem = {
+    code: input.code,
+    message: siText(input.message),
+    fix: siText(input.fix),
+    keys: input.keys,
+  };
+  if (partsOf(input.message) || partsOf(input.fix)) problem.parts = { message: input.message, fix: input.fix };
+  return problem;
 }
 
 /** Error thrown by the low-level property functions; carries a {@link PhysicsProblem}. */
 export class PsychroError extends Error {
   readonly problem: PhysicsProblem;
-  constructor(problem: PhysicsProblem) {
+  constructor(input: ProblemInput | PhysicsProblem) {
+    const problem = 'parts' in input && input.parts ? (input as PhysicsProblem) : makeProblem(input);
     super(problem.message);
     this.name = 'PsychroError';
     this.problem = problem;

@@ -5,7 +5,7 @@
  */
 import { PsychroError } from './types';
 import { SATURATION_ROUNDOFF, TEMP_ROUNDOFF_K, checkHumRatio, checkPressure, pressureBelowSaturation } from './checks';
-import { fmtPa, fmtT, fmtW } from './format';
+import { msg, P as fP, T as fT, TL as fTL, W as fW } from './message';
 import { EPSILON } from './properties';
 import {
   C1,
@@ -23,6 +23,7 @@ import {
   C13,
   ZERO_C_K,
   SWITCH_C,
+  T_MAX_C,
   checkTemperature,
   lnPwsIce,
   lnPwsWater,
@@ -69,7 +70,7 @@ export function humRatioFromWetBulb(db: number, wb: number, p: number): number {
   if (wb > db) {
     throw new PsychroError({
       code: 'wb-above-db',
-      message: `Wet-bulb ${fmtT(wb)} is above the dry-bulb ${fmtT(db)}.`,
+      message: msg`Wet-bulb ${fT(wb)} is above the dry-bulb ${fT(db)}.`,
       fix: 'The wet-bulb is at most the dry-bulb (equal when saturated): check the two figures or swap them.',
       keys: ['db', 'wb'],
     });
@@ -84,12 +85,11 @@ export function humRatioFromWetBulb(db: number, wb: number, p: number): number {
     const min = wetBulbSolve(db, 0, p, 0, Number.NEGATIVE_INFINITY, 0, 0, pwsAt(db));
     throw new PsychroError({
       code: 'wb-too-low',
-      message:
-        `Wet-bulb ${fmtT(wb)} is too far below the dry-bulb ${fmtT(db)}: even bone-dry air at ${fmtPa(p)} ` +
-        (Number.isFinite(min) ? `has a wet-bulb of ${fmtT(min)}` : 'has a higher wet-bulb') +
-        ' (the humidity ratio would be negative).',
+      message: msg`Wet-bulb ${fT(wb)} is too far below the dry-bulb ${fT(db)}: even bone-dry air at ${fP(p)} ${
+        Number.isFinite(min) ? msg`has a wet-bulb of ${fT(min)}` : 'has a higher wet-bulb'
+      } (the humidity ratio would be negative).`,
       fix: Number.isFinite(min)
-        ? `Use a wet-bulb of at least ${fmtT(min)} at this dry-bulb, or check the dry-bulb.`
+        ? msg`Use a wet-bulb of at least ${fT(min)} at this dry-bulb, or check the dry-bulb.`
         : 'Use a higher wet-bulb, or check the dry-bulb.',
       keys: ['db', 'wb'],
     });
@@ -297,8 +297,8 @@ export function supersaturatedError(
 ): PsychroError {
   return new PsychroError({
     code: 'supersaturated',
-    message: `Humidity ratio ${fmtW(w)} is above saturation at ${fmtT(db)} (${fmtW(ws)}): that is fog, not humid air.`,
-    fix: `Use a humidity ratio of at most ${fmtW(ws)} at this dry-bulb, or a higher dry-bulb.`,
+    message: msg`Humidity ratio ${fW(w)} is above saturation at ${fT(db)} (${fW(ws)}): that is fog, not humid air.`,
+    fix: msg`Use a humidity ratio of at most ${fW(ws)} at this dry-bulb, or a higher dry-bulb.`,
     keys,
   });
 }
@@ -315,7 +315,7 @@ export function dewPointFromHumRatio(w: number, p: number): number {
   if (pw > PWS_MAX) {
     throw new PsychroError({
       code: 'out-of-range',
-      message: `Humidity ratio ${fmtW(w)} at ${fmtPa(p)} puts the dew point above 200 °C.`,
+      message: msg`Humidity ratio ${fW(w)} at ${fP(p)} puts the dew point above ${fTL(T_MAX_C)}.`,
       fix: 'Use a lower humidity ratio or pressure.',
       keys: ['w'],
     });

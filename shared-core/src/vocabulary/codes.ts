@@ -144,7 +144,12 @@ export const CODES = {
   },
   // --- evaluator: pressure, mixes, processes, claims ---
   'pressure-conflict': { severity: 'warning', from: E, meaning: 'both p= and elev= are written', fixture: 'note' },
-  'unusual-pressure': { severity: 'warning', from: E, meaning: 'a pressure outside 30–110 kPa', fixture: 'note' },
+  'unusual-pressure': {
+    severity: 'warning',
+    from: E,
+    meaning: 'a pressure outside 30–110 kPa (4.351–15.954 psia)',
+    fixture: 'note',
+  },
   'pressure-mismatch': {
     severity: 'warning',
     from: E,

@@ -320,7 +320,7 @@ const ROWS = [
     bare: 'error',
     title: 'total heat rate',
     description: 'claim: total heat rate of the process',
-    examples: ['q_total=98kW'],
+    examples: ['q_total=98kW', 'q_total=334,000Btu/h'],
     json: { name: 'q_total_kW', over: 1000 },
   },
   {
@@ -331,7 +331,7 @@ const ROWS = [
     bare: 'error',
     title: 'sensible heat rate',
     description: 'claim: sensible heat rate',
-    examples: ['q_sensible=72kW'],
+    examples: ['q_sensible=72kW', 'q_sensible=246,000Btu/h'],
     json: { name: 'q_sensible_kW', over: 1000 },
   },
   {
@@ -342,7 +342,7 @@ const ROWS = [
     bare: 'error',
     title: 'latent heat rate',
     description: 'claim: latent heat rate',
-    examples: ['q_latent=26kW'],
+    examples: ['q_latent=26kW', 'q_latent=88,700Btu/h'],
     json: { name: 'q_latent_kW', over: 1000 },
   },
   {
@@ -353,7 +353,7 @@ const ROWS = [
     bare: 'error',
     title: 'coil or heater duty (including the water)',
     description: 'claim: coil or heater duty, including the enthalpy of the water leaving or entering',
-    examples: ['q_coil=97kW'],
+    examples: ['q_coil=97kW', 'q_coil=331,000Btu/h'],
     json: { name: 'q_coil_kW', over: 1000 },
   },
   {
@@ -375,7 +375,7 @@ const ROWS = [
     bare: 'error',
     title: 'water added or condensate removed',
     description: 'claim: water added (humidifier) or removed (condensate), as a mass flow',
-    examples: ['water=38kg/h'],
+    examples: ['water=38kg/h', 'water=84lb/h'],
     json: { name: 'water_kgh', times: 3600 },
   },
   // --- equipment of a process that defines its leaving state (see evaluate/derive.ts), and of recover ---
@@ -387,7 +387,7 @@ const ROWS = [
     bare: 'error',
     title: 'heat added by a sensible heater',
     description: 'heat added to the air by a sensible heater (negative: removed); needs the flow',
-    examples: ['heat=20kW'],
+    examples: ['heat=20kW', 'heat=68,200Btu/h'],
   },
   {
     key: 'dt',
@@ -438,7 +438,7 @@ const ROWS = [
     bare: 'error',
     title: 'apparatus dew point',
     description: 'apparatus dew point of a cooling coil (with bf=)',
-    examples: ['adp=11C'],
+    examples: ['adp=11C', 'adp=52F'],
   },
   {
     key: 'bf',
@@ -458,7 +458,7 @@ const ROWS = [
     bare: 'error',
     title: 'steam supply pressure',
     description: 'absolute pressure of the saturated steam supply of a steam humidifier (default 101.325 kPa, 100 °C)',
-    examples: ['p_steam=200kPa'],
+    examples: ['p_steam=200kPa', 'p_steam=29psia'],
   },
   {
     key: 'eff_s',
