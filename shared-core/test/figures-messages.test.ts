@@ -6,7 +6,7 @@
  * the US would write it; the same statements under `units: SI` must show no IP figure.
  */
 import { describe, expect, it } from 'vitest';
-import { analyzeNote } from '../src/analyze';
+import { analyzeNote, createAnalyzer } from '../src/analyze';
 import type { Analysis, StateResult } from '../src/evaluate/types';
 import { hover } from '../src/service';
 import { noteOf } from './service-helpers';
@@ -176,6 +176,15 @@ describe('messages of an IP note speak IP', () => {
       ).toBe(true);
       for (const t of texts(a)) expect(t, `no IP figure in an SI note (${c.body})`).not.toMatch(IP_FIGURE);
     }
+  });
+
+  it('an analyzer that keeps its previous run re-writes the messages when the units: line changes', () => {
+    const analyzer = createAnalyzer();
+    const ip = note('IP', 'state A: db=68F wb=77F');
+    expect(analyzer.analyze(ip).diagnostics[0]?.message).toMatch(/77\.0 °F/);
+    const si = analyzer.analyze(ip.replace('units: IP', 'units: SI'));
+    expect(si.diagnostics[0]?.message).toMatch(/25\.0 °C/);
+    expect(si.diagnostics).toEqual(analyzeNote(ip.replace('units: IP', 'units: SI')).diagnostics);
   });
 
   it('a units: line anywhere in the note sets the units of messages above it too', () => {
