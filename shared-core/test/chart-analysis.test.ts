@@ -63,7 +63,7 @@ describe('chart data from an analysed note', () => {
     expect(bad.line).toBe(10);
     const wbDiag = analysis.diagnostics.find((d) => d.code === 'wb-above-db')!;
     // The evaluator's message, first sentence, without the leading "state BAD:".
-    expect(bad.reason).toBe('The wet-bulb 30 °C is above the dry-bulb 25 °C.');
+    expect(bad.reason).toBe('The wet-bulb 30.0 °C is above the dry-bulb 25.0 °C.');
     expect(wbDiag.message).toContain(bad.reason);
     const fog = data.infeasible.find((f) => f.name === 'FOG')!;
     expect(fog.plotted).toBe(true);

@@ -82,7 +82,7 @@ for (const [label, MarkdownIt] of versions) {
       // The mix in the second block uses OA and RA from the first.
       expect(blocks[1]).toMatch(/MA mix: OA 25.0 % \+ RA 75.0 % \d+\.\d/);
       expect(blocks[1]).toMatch(/BAD not computed/);
-      expect(blocks[1]).toMatch(/error wb-above-db .*wet-bulb 25 °C is above the dry-bulb 20 °C/);
+      expect(blocks[1]).toMatch(/error wb-above-db .*wet-bulb 25.0 °C is above the dry-bulb 20.0 °C/);
       // Each table follows its own fence, before the next paragraph; the js fence gets none.
       const fences = [...html.matchAll(/<\/code><\/pre>\n?(<div class="dewmark-results")?/g)];
       expect(fences.map((f) => f[1] !== undefined)).toEqual([true, true, false]);

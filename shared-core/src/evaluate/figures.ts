@@ -7,7 +7,18 @@
  */
 import type { MessageFigure, MessageText } from '../physics/message';
 import { renderText } from '../physics/message';
-import { figure, lookupUnit, type Dimension, type UnitSystem } from '../units';
+import {
+  baseUnit,
+  displaySymbol,
+  figure,
+  fromSI,
+  lookupUnit,
+  MINUS,
+  NO_VALUE,
+  unitsOf,
+  type Dimension,
+  type UnitSystem,
+} from '../units';
 import { findKey } from '../vocabulary/keys';
 
 /** Options of {@link figureText}. */
@@ -23,6 +34,14 @@ export function figureText(si: number, dimension: Dimension, system: UnitSystem,
   // A temperature difference reads in K (SI) or °F (IP), never °C.
   const unit = dimension === 'temperature' && opts.difference ? lookupUnit(system === 'SI' ? 'K' : 'F') : undefined;
   const f = figure(si, dimension, system, { unit, difference: opts.difference });
+  if (f.value === NO_VALUE && Number.isFinite(si)) {
+    // Too large to show in the display unit (1e308 kg/kg is 1e311 g/kg): the figure as it is, in
+    // the system's unit of scale 1 (kg/kg, lb/lb), in exponent form.
+    const plain = unitsOf(dimension).find((u) => u.scale === 1 && u.system === system) ?? baseUnit(dimension);
+    const n = fromSI(si, plain);
+    const text = Number.isFinite(n) ? String(Number(n.toPrecision(4))).replace('-', MINUS) : NO_VALUE;
+    return `${text} ${displaySymbol(plain)}`;
+  }
   if (!opts.limit || !f.value.includes('.')) return f.text;
   const value = f.value.replace(/0+$/, '').replace(/\.$/, '');
   return f.unit ? `${value} ${f.unit}` : value;
