@@ -174,10 +174,11 @@ export async function readOneNote(
   return { path: input.display, abs: input.abs, text: read.text, analysis: analyzeNote(read.text, settings) };
 }
 
-/** Writes `content` to `abs` (UTF-8); an I/O failure is a {@link UsageError} with the reason. */
-export function writeOutput(abs: string, shown: string, content: string): void {
+/** Writes `content` to `abs` (text as UTF-8); an I/O failure is a {@link UsageError} with the reason. */
+export function writeOutput(abs: string, shown: string, content: string | Uint8Array): void {
   try {
-    writeFileSync(abs, content, 'utf8');
+    if (typeof content === 'string') writeFileSync(abs, content, 'utf8');
+    else writeFileSync(abs, content);
   } catch (err) {
     const code = (err as NodeJS.ErrnoException).code;
     const why =

@@ -19,6 +19,8 @@ import type { CliIO } from '../run';
 import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, wroteLine, type WriteOptions } from './outputFile';
 import { safeText } from '../sanitize';
 import { resolveImage } from './reportImages';
+import { BROWSER_NAMES, CHROMIUM_ENV, findChromium, printPdf } from './reportPdf';
+import { UsageError } from '../settings';
 
 /** Escapes text for HTML content and attribute values. */
 export function escapeHtml(s: string): string {
@@ -49,6 +51,15 @@ export interface ReportOptions {
 /** Paper sizes of the print stylesheet. */
 export const PAGE_SIZES = ['a4', 'letter'] as const;
 export type PageSize = (typeof PAGE_SIZES)[number];
+
+/** Paper width and height, mm: A4 by ISO 216, Letter 8.5 × 11 in (1 in = 25.4 mm). */
+export const PAPER_MM: Readonly<Record<PageSize, readonly [number, number]>> = {
+  a4: [210, 297],
+  letter: [215.9, 279.4],
+};
+
+/** The print margins, mm (the running header and the page numbers sit in the top and bottom ones). */
+export const PAGE_MARGIN_MM = { top: 18, right: 15, bottom: 16, left: 15 } as const;
 
 /**
  * The sign-off rows and the front-matter keys that fill them (docs/report.md): a note may start
@@ -149,7 +160,7 @@ const CSS = `
 :root{color-scheme:light dark;--bg:#f7f4ee;--fg:#26222c;--muted:#6e6877;--card:#fffdf8;--line:#e3ddd2;--accent:#23408e;--err:#b3261e;--warn:#a05a00;--ok:#1f7a4d;--caution-bg:#fff4e0;--caution-line:#d99a2b;--code:#f1ede4}
 @media (prefers-color-scheme:dark){:root{--bg:#15151b;--fg:#ece8f2;--muted:#a59fb0;--card:#1d1c24;--line:#34313f;--accent:#8fb0ff;--err:#ff8a80;--warn:#ffb74d;--ok:#7fd6a5;--caution-bg:#2e2616;--caution-line:#a8781f;--code:#24232c}}
 *{box-sizing:border-box}
-body{margin:0;background:var(--bg);color:var(--fg);font:14px/1.5 "Inter","Noto Sans","DejaVu Sans",system-ui,sans-serif;font-variant-numeric:tabular-nums}
+body{margin:0;overflow-wrap:break-word;background:var(--bg);color:var(--fg);font:14px/1.5 "Inter","Noto Sans","DejaVu Sans",system-ui,sans-serif;font-variant-numeric:tabular-nums}
 main{max-width:1120px;margin:0 auto;padding:28px 24px 48px}
 h1{font-size:22px;margin:0 0 8px;font-weight:700;letter-spacing:-.01em}
 h2.part{font-size:16px;margin:32px 0 10px;padding-bottom:4px;border-bottom:2px solid var(--line);color:var(--accent)}
@@ -183,7 +194,7 @@ img,svg{max-width:100%;height:auto}
 .dm-item{break-inside:avoid}
 .dm-about td{font-size:12px;color:var(--fg);border-bottom:1px solid var(--line);padding-top:0}
 .dm-item tr:first-child th,.dm-item tr:first-child td{border-bottom:none}
-.dm-from{font-weight:400;color:var(--muted);white-space:nowrap}
+.dm-from{font-weight:400;color:var(--muted)}
 .dm-desc{font-style:italic}
 .dm-sep,.dm-line,.dm-note{color:var(--muted)}
 .dm-claim.pass{color:var(--ok)}.dm-claim.fail{color:var(--warn);font-weight:650}
@@ -226,9 +237,10 @@ footer{break-inside:avoid}
  * numbers in the page-margin boxes, and the paper size when one was chosen.
  */
 function pageCss(title: string, path: string, page: PageSize | undefined): string {
-  const size = page === 'a4' ? 'size:A4;' : page === 'letter' ? 'size:letter;' : '';
+  const size = page ? `size:${PAPER_MM[page][0]}mm ${PAPER_MM[page][1]}mm;` : '';
+  const m = PAGE_MARGIN_MM;
   const box = 'font:8pt "Inter","Noto Sans","DejaVu Sans",sans-serif;color:#555';
-  return `@page{${size}margin:18mm 15mm 16mm 15mm;@top-left{content:${cssString(title)};${box};vertical-align:bottom;padding-bottom:3mm}@top-right{content:${cssString(path)};${box};vertical-align:bottom;padding-bottom:3mm}@bottom-left{content:"Design aid only \\2014  verify before use";${box}}@bottom-right{content:"Page " counter(page) " of " counter(pages);${box}}}`;
+  return `@page{${size}margin:${m.top}mm ${m.right}mm ${m.bottom}mm ${m.left}mm;@top-left{content:${cssString(title)};${box};vertical-align:bottom;padding-bottom:3mm}@top-right{content:${cssString(path)};${box};vertical-align:bottom;padding-bottom:3mm}@bottom-left{content:"Design aid only \\2014  verify before use";${box}}@bottom-right{content:"Page " counter(page) " of " counter(pages);${box}}}`;
 }
 
 function frontMatterRows(fm: FrontMatter | null): string {
@@ -347,20 +359,55 @@ ${METHOD}
 `;
 }
 
+/** Options of `dewmark report`. */
+export interface ReportCommandOptions extends WriteOptions {
+  pdf?: boolean;
+  page?: string;
+  chromium?: string;
+}
+
 /** Runs `dewmark report`. */
-export async function runReport(paths: string[], opts: WriteOptions, io: CliIO, version: string): Promise<number> {
+export async function runReport(
+  paths: string[],
+  opts: ReportCommandOptions,
+  io: CliIO,
+  version: string,
+): Promise<number> {
+  const page = opts.page?.toLowerCase();
+  if (page !== undefined && !(PAGE_SIZES as readonly string[]).includes(page))
+    throw new UsageError(`--page must be ${PAGE_SIZES.join(' or ')}, not '${opts.page}'`);
+  if (opts.chromium !== undefined && !opts.pdf)
+    throw new UsageError('--chromium names the browser that prints --pdf; add --pdf, or leave --chromium out');
   const note = await readOneNote(paths, opts, io, 'report');
-  const out = checkOutputPath(opts.output, note, io.cwd, 'report', 'report.html');
+  const out = checkOutputPath(opts.output, note, io.cwd, 'report', opts.pdf ? 'report.pdf' : 'report.html');
+  let chromium = '';
+  if (opts.pdf) {
+    const found = findChromium(opts.chromium);
+    if (!found.ok) {
+      io.err(`dewmark: ${safeText(found.message)}\n`);
+      return 2;
+    }
+    chromium = found.path;
+  }
   const missing: string[] = [];
   const html = renderReportHtml(note, {
     version,
+    // A PDF needs a paper size; A4 unless --page says otherwise.
+    page: (page as PageSize | undefined) ?? (opts.pdf ? 'a4' : undefined),
     image: (src) => {
       const answer = resolveImage(src, note.abs);
       if (!answer.ok) missing.push(`dewmark: image '${safeText(src)}' not included: ${answer.reason}\n`);
       return answer;
     },
   });
-  writeOutput(out, opts.output!, html);
+  if (opts.pdf) {
+    const printed = await printPdf(chromium, html);
+    if (!printed.ok) {
+      io.err(`dewmark: ${safeText(printed.message)}\n`);
+      return 2;
+    }
+    writeOutput(out, opts.output!, printed.pdf);
+  } else writeOutput(out, opts.output!, html);
   for (const m of missing) io.err(m);
   const errors = note.analysis.diagnostics.filter((d) => d.severity === 'error').length;
   io.err(
@@ -388,6 +435,15 @@ export function registerReport(
         'write one self-contained HTML review report of a note: the whole note with its results, claims, diagnostics, chart and sign-off block (docs/report.md); exit 1 if the note has errors',
       )
       .argument('<note>', 'one Markdown note (or - for standard input)')
-      .option('-o, --output <file>', 'the HTML file to write (never a .md file, never the note itself)'),
-  ).action(async (note: string, opts: WriteOptions) => onResult(await runReport([note], opts, io, version)));
+      .option(
+        '-o, --output <file>',
+        'the HTML (or, with --pdf, PDF) file to write (never a .md file, never the note itself)',
+      )
+      .option('--page <size>', "paper for print: a4 or letter (default: the printer's; a4 with --pdf)")
+      .option('--pdf', 'write a PDF, printed by a headless Chromium or Chrome that is installed')
+      .option(
+        '--chromium <path>',
+        `the Chromium or Chrome program for --pdf (default: $${CHROMIUM_ENV}, else ${BROWSER_NAMES[0]} on PATH)`,
+      ),
+  ).action(async (note: string, opts: ReportCommandOptions) => onResult(await runReport([note], opts, io, version)));
 }
