@@ -5,7 +5,6 @@
  * Amounts are dry-air mass fractions (%), dry-air mass flows, or volume flows taken at each
  * stream's own state (ṁ = V̇ / v, v per kg of dry air).
  */
-import type { solveState } from '../physics';
 import type { MoistAirState } from '../physics/types';
 import type { CoreDiagnostic, MixStatement, NameNode, PropertyNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
@@ -17,6 +16,7 @@ import { readProps } from './props';
 import { dimensionWords, findUnit, readQuantity, suggestSymbol, type ResolvedQuantity } from './quantity';
 import { checkClaim } from './claims';
 import { exampleIn } from './figures';
+import { solveOrProblem } from './solve';
 import { stateClaims, stateFinite } from './state';
 import type { ClaimResult, PressureBasis, StateResult } from './types';
 import { formatSig, spanUnion } from './util';
@@ -375,20 +375,7 @@ function solveMix(
   what: string,
   fallback: Span,
 ): MoistAirState | null {
-  let solved: ReturnType<typeof solveState>;
-  try {
-    solved = ctx.solve({ w, h }, pressure.pa, { allowFog: true });
-  } catch (err) {
-    solved = {
-      ok: false,
-      problem: {
-        code: 'no-solution',
-        message: `the engine failed (${err instanceof Error ? err.message : String(err)})`,
-        fix: 'check the streams',
-        keys: [],
-      },
-    };
-  }
+  const solved = solveOrProblem(ctx.solve, { w, h }, pressure.pa, { allowFog: true }, 'check the streams', []);
   const spans = new Map<string, Span>();
   if (!solved.ok) {
     ctx.report(

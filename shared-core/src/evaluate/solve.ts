@@ -8,7 +8,7 @@
  * engine's `pressure-below-saturation` error.
  */
 import { solveState } from '../physics';
-import type { MoistAirState, SolveResult } from '../physics/types';
+import type { DefiningKey, MoistAirState, SolveResult } from '../physics/types';
 
 /** True for air at or above the boiling point at its pressure (it cannot be saturated). */
 export function aboveBoilingPoint(s: MoistAirState): boolean {
@@ -24,4 +24,31 @@ export function solveForNote(...args: Parameters<typeof solveState>): SolveResul
     state: { ...r.state, ws: Number.MAX_VALUE },
     warnings: r.warnings.filter((w) => w.code !== 'pressure-below-saturation'),
   };
+}
+
+/**
+ * A solve that never throws: the engine promises not to, and if it does anyway its failure is a
+ * `no-solution` problem with the fix `fix` on the keys `keys`, reported like any other.
+ */
+export function solveOrProblem(
+  solve: typeof solveForNote,
+  input: Parameters<typeof solveState>[0],
+  pa: number,
+  options: Parameters<typeof solveState>[2],
+  fix: string,
+  keys: DefiningKey[],
+): SolveResult {
+  try {
+    return solve(input, pa, options);
+  } catch (err) {
+    return {
+      ok: false,
+      problem: {
+        code: 'no-solution',
+        message: `the engine failed (${err instanceof Error ? err.message : String(err)})`,
+        fix,
+        keys,
+      },
+    };
+  }
 }

@@ -9,7 +9,6 @@
  *   3. otherwise an ill-conditioned pair (solved, with a warning).
  * Every other property written is a claim.
  */
-import type { solveState } from '../physics';
 import type { DefiningKey, MoistAirState, PhysicsProblem } from '../physics/types';
 import type { StateStatement } from '../notation/ast';
 import type { Span } from '../text/types';
@@ -22,6 +21,7 @@ import type { UnitSystem } from '../units/types';
 import type { ReadProp, ReadProps } from './props';
 import { readProps } from './props';
 import { sourcesOf } from './refs';
+import { solveOrProblem } from './solve';
 import { checkClaim } from './claims';
 import type { ClaimResult, PressureBasis, StateResult } from './types';
 
@@ -280,21 +280,10 @@ function solveFirstPair(
   let lastDependent: { problem: PhysicsProblem; pair: ReadProp[] } | null = null;
   for (const [a, b] of candidates) {
     const input = pairInput(a.key as DefiningKey, a.q.si, b.key as DefiningKey, b.q.si);
-    let solved: ReturnType<typeof solveState>;
-    try {
-      solved = ctx.solve(input, pressure.pa, ALLOW_FOG);
-    } catch (err) {
-      // The engine promises not to throw; if it does, report it as a problem and go on.
-      solved = {
-        ok: false,
-        problem: {
-          code: 'no-solution',
-          message: `the engine failed (${err instanceof Error ? err.message : String(err)})`,
-          fix: 'check the figures',
-          keys: [a.key as DefiningKey, b.key as DefiningKey],
-        },
-      };
-    }
+    const solved = solveOrProblem(ctx.solve, input, pressure.pa, ALLOW_FOG, 'check the figures', [
+      a.key as DefiningKey,
+      b.key as DefiningKey,
+    ]);
     if (!solved.ok) {
       if (solved.problem.code === 'dependent-pair') {
         lastDependent = { problem: solved.problem, pair: [a, b] };
