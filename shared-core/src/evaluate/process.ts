@@ -107,6 +107,8 @@ export function evaluateProcess(
     allowed: derives,
   });
   if (!stmt.from || !stmt.to) return none; // the parser reported the syntax
+  // Every property that is neither the specification nor the flow is a claim about the results.
+  const claimable = props.filter((p) => !isSpecOrFlow(p.prop));
 
   // 1. Resolve: the entering state, and the leaving one (or a note that a specification cannot apply).
   const from = endpoint(ctx, stmt, index, 'from', what);
@@ -117,12 +119,7 @@ export function evaluateProcess(
     const flow = processFlow(ctx, props, from, what);
     const result = buildProcessResult(ctx, stmt, name, from, to, flow, what);
     balanceCheck(ctx, stmt, result, from, to, what);
-    result.claims = processClaims(
-      ctx,
-      props.filter((p) => !isSpecOrFlow(p.prop)),
-      result,
-      what,
-    );
+    result.claims = processClaims(ctx, claimable, result, what);
     return { leaving: null, process: result };
   }
   if (!from) {
@@ -163,12 +160,7 @@ export function evaluateProcess(
   } else {
     balanceCheck(ctx, stmt, result, from, leaving, what);
   }
-  result.claims = processClaims(
-    ctx,
-    props.filter((p) => !isSpecOrFlow(p.prop)),
-    result,
-    what,
-  );
+  result.claims = processClaims(ctx, claimable, result, what);
   return { leaving, process: result };
 }
 
