@@ -169,7 +169,21 @@ describe('bad references get one clear error each, on the offending token', () =
       ['state OA: db=30C rh=40%', 'state X: db=30C rh=OA.rh+5%'],
       'bad-reference',
       '+5%',
-      /cannot be shifted by a difference/,
+      /a relative humidity takes no difference: '\+5%' could mean 5 percentage points or 5 % of OA's figure.*rh=45%.*w=OA\.w\+0\.5g\/kg or dp=OA\.dp\+0\.8K/,
+    ],
+    [
+      'a process’s leaving values: the message names its leaving state',
+      ['state A: db=30C rh=40%', 'state B: db=20C rh=60%', 'process P: A -> B m=1kg/s', 'state X: db=P.db w=A.w'],
+      'not-a-state',
+      'P',
+      /'P' is a process, not a state; db=P\.db must name a state.*the air leaving P is B, so write db=B\.db/,
+    ],
+    [
+      'a process’s own figure (its apparatus dew point)',
+      ['state A: db=30C rh=60%', 'process CC: A -> OFF m=1kg/s adp=10C bf=0.1', 'state X: db=CC.adp rh=100%'],
+      'not-a-state',
+      'CC',
+      /the air leaving CC is OFF, so write db=OFF\.db\. A process's own figures \(its apparatus dew point, heat rates, water, flow\) are not taken by reference: write the figure itself/,
     ],
     [
       'a tolerance',

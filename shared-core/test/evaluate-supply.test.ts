@@ -85,6 +85,33 @@ describe('supply air from room loads', () => {
     near(back.latent, 8, { rel: 1e-3 }, 'latent back');
   });
 
+  it('flow= and V= are q= by other names, given or claimed (the key table reads them as q=)', () => {
+    const q = analyse(fence(ROOM, 'supply SA: RA q_sensible=41.5kW q_latent=8kW q=3.4m3/s'));
+    for (const key of ['flow', 'V']) {
+      const a = analyse(fence(ROOM, `supply SA: RA q_sensible=41.5kW q_latent=8kW ${key}=3.4m3/s`));
+      expect(a.diagnostics).toEqual([]);
+      // The same solve as q=3.4m3/s: the same supply state and flow to the last digit.
+      expect(stateOf(a, 'SA')).toEqual(stateOf(q, 'SA'));
+      expect(stateResult(a, 'SA').massFlowKgS).toBe(stateResult(q, 'SA').massFlowKgS);
+      expect(stateResult(a, 'SA').supply?.given).toBe('q');
+    }
+    // Beside db=, flow= is a claim on the volume flow at the supply state (ṁ v_S, PsychroLib eq 26).
+    const text = fence(ROOM, 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C flow=3.5m3/s V=3.6m3/s');
+    const c = analyse(text);
+    const sa = stateOf(c, 'SA');
+    const v = stateResult(c, 'SA').massFlowKgS! * psy.GetMoistAirVolume(sa.db, sa.w, P0);
+    expect(stateResult(c, 'SA').claims.map((x) => x.key)).toEqual(['flow']);
+    near(stateResult(c, 'SA').claims[0]!.computedSI, v, { rel: 1e-9 }, 'volume flow at SA');
+    expect(withCode(c, 'flow-conflict').map((d) => [spanText(text, d), d.message])).toEqual([
+      ['V=3.6m3/s', expect.stringMatching(/flow= and V= both give the volume flow.*keep one \(flow= is used\)/)],
+    ]);
+    // Two names for the flow beside m=: the volume flow conflicts with the mass flow.
+    const d = analyse(fence(ROOM, 'supply SA: RA q_sensible=41.5kW q_latent=8kW m=3kg/s flow=3m3/s'));
+    expect(withCode(d, 'flow-conflict').map((x) => x.message)).toEqual([
+      expect.stringMatching(/^supply SA: both m= and flow= give the flow; keep one/),
+    ]);
+  });
+
   it('claims on the supply: its state, the flow it was not given, and the room SHR', () => {
     const text = fence(ROOM, 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C m=3.91kg/s shr=0.84 rh=90%');
     const a = analyse(text);

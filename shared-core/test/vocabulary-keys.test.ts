@@ -124,6 +124,8 @@ describe('the key table', () => {
       'v',
       'm',
       'q',
+      'flow',
+      'V',
       'q_sensible',
       'q_latent',
       'shr',
@@ -194,6 +196,6 @@ describe('references read the table: which keys define a state, and the differen
     const note = ['```air', 'state A: db=30C rh=40%', 'state B: rh=A.rh+5% db=24C', '```', ''].join('\n');
     const d = analyzeNote(note).diagnostics;
     expect(d.map((x) => x.code)).toEqual(['bad-reference']);
-    expect(d[0]!.message).toContain('cannot be shifted by a difference');
+    expect(d[0]!.message).toContain('a relative humidity takes no difference');
   });
 });

@@ -20,6 +20,7 @@ import { enteringState } from './mix';
 import type { ReadProp } from './props';
 import { readProps } from './props';
 import { sourcesOf } from './refs';
+import { volumeFlowProp } from './volumeFlow';
 import { checkClaim } from './claims';
 import type { ClaimResult, ProcessKind, ProcessResult, StateResult } from './types';
 import { moistureUnchanged } from './resolution';
@@ -192,17 +193,7 @@ function processFlow(ctx: EvalContext, props: ReadProp[], from: StateResult, wha
   const a = from.state!;
   const m = props.find((p) => p.key === 'm');
   // The volume flow: q=, or its other names flow= and V= (one of them; a second is a conflict).
-  const volumes = props.filter((p) => p.key === 'q' || PROCESS_KEYS[p.key]?.aliasOf === 'q');
-  const q = volumes[0];
-  for (const extra of volumes.slice(1)) {
-    ctx.report({
-      code: 'flow-conflict',
-      severity: 'error',
-      message: `${what}: ${q!.key}= and ${extra.key}= both give the volume flow (${extra.key}= is another name for q=); keep one (${q!.key}= is used)`,
-      span: extra.prop.span,
-      related: [{ span: q!.prop.span, message: 'the flow used' }],
-    });
-  }
+  const q = volumeFlowProp(ctx, props, what);
   if (m && q) {
     ctx.report({
       code: 'flow-conflict',

@@ -17,6 +17,7 @@ import { DEFINING_KEYS, STATE_KEYS, isDefiningKey, type KeySpec } from './keys';
 import { dependencyInfo } from './mix';
 import type { ResolvedQuantity } from './quantity';
 import { dimensionWords, findUnit } from './quantity';
+import { differenceExample } from '../vocabulary/keys';
 import type { PropertySource, StateResult } from './types';
 
 /**
@@ -55,6 +56,33 @@ function bad(ctx: EvalContext, message: string, span: PropertyNode['span']): nul
   return null;
 }
 
+/**
+ * A reference that names a process (`db=CC.db`, `db=CC.adp`): refused. A reference takes a
+ * property of a state, so the chain stays a chain of states; a process's own figures (its
+ * apparatus dew point, heat rates, water, flow) are results about the states it joins, shown in
+ * its hover, tables and JSON, and a process's leaving values are its leaving state's, which can
+ * be named. The message names that state.
+ */
+function processRefused(
+  ctx: EvalContext,
+  ref: PropertyRefNode,
+  written: string,
+  key: string,
+  to: string,
+  defSpan: PropertyNode['span'],
+): null {
+  const fromKey = ref.key.text;
+  const stateKey = isDefiningKey(fromKey) ? fromKey : key;
+  ctx.report({
+    code: 'not-a-state',
+    severity: 'error',
+    message: `'${ref.state.text}' is a process, not a state; ${written} must name a state (or mix) defined above${to ? `: the air leaving ${ref.state.text} is ${to}, so write ${key}=${to}.${stateKey}` : ''}${isDefiningKey(fromKey) ? '' : `. A process's own figures (${fromKey === 'adp' ? 'its apparatus dew point' : `'${fromKey}'`}, heat rates, water, flow) are not taken by reference: write the figure itself`}`,
+    span: ref.state.span,
+    related: [{ span: defSpan, message: `process ${ref.state.text}` }],
+  });
+  return null;
+}
+
 /** The difference of a reference in SI (K, kg/kg, J/kg), or null after a diagnostic. */
 function readOffset(ctx: EvalContext, q: QuantityNode, spec: KeySpec, written: string): number | null {
   // The differences of the key table's row (`+0.8K or +1.5F`); none when the key takes none.
@@ -65,12 +93,19 @@ function readOffset(ctx: EvalContext, q: QuantityNode, spec: KeySpec, written: s
       `${written}: a reference takes no tolerance; remove '${q.tolerance.number.text}' after the difference`,
       q.tolerance.span,
     );
-  if (!example)
+  if (!example) {
+    const off = `${q.number.text}${q.unit?.text ?? ''}`;
+    const sign = q.number.value < 0 ? '-' : '+';
+    const name = written.slice(written.indexOf('=') + 1, written.indexOf('.'));
+    // Relative humidity (the one defining key without differences): why, and what to shift instead.
     return bad(
       ctx,
-      `${written}: ${spec.title} cannot be shifted by a difference; refer to the property as it is (remove '${q.number.text}${q.unit?.text ?? ''}')`,
+      spec.dimension === 'fraction'
+        ? `${written}: a relative humidity takes no difference: '${off}' could mean ${Math.abs(q.number.value)} percentage points or ${Math.abs(q.number.value)} % of ${name}'s figure, and the same shift is other air at another temperature. Write rh= as a figure (e.g. rh=45%), or shift the moisture content, which is what a drier or moister air means: w=${name}.w${sign}${differenceExample('w')} or dp=${name}.dp${sign}${differenceExample('dp')}`
+        : `${written}: ${spec.title} cannot be shifted by a difference; refer to the property as it is (remove '${off}')`,
       q.span,
     );
+  }
   if (!q.unit) {
     ctx.report({
       code: 'missing-unit',
@@ -141,6 +176,8 @@ export function readReference(
     );
   }
   const fromKey = ref.key.text;
+  if (outcome.ok && outcome.item.kind === 'process')
+    return processRefused(ctx, ref, written, prop.key, outcome.item.to, outcome.def.span);
   if (!isDefiningKey(fromKey)) {
     const known = STATE_KEYS[fromKey];
     return bad(
@@ -168,16 +205,7 @@ export function readReference(
     return null;
   }
   const item = outcome.item;
-  if (item.kind === 'process') {
-    ctx.report({
-      code: 'not-a-state',
-      severity: 'error',
-      message: `'${ref.state.text}' is a process, not a state; ${written} must name a state (or mix) defined above`,
-      span: ref.state.span,
-      related: [{ span: outcome.def.span, message: `process ${ref.state.text}` }],
-    });
-    return null;
-  }
+  if (item.kind === 'process') return processRefused(ctx, ref, written, prop.key, item.to, outcome.def.span);
   if (item.state === null) {
     ctx.report(dependencyInfo(what, ref.state.text, ref.state.span, outcome.def.span));
     return null;

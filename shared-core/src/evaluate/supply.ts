@@ -30,6 +30,7 @@ import { msg, P as fP, T as fT, TL as fTL, W as fW, type MessageText } from '../
 import { problemDiagnostic } from './problems';
 import type { ReadProp } from './props';
 import { readProps } from './props';
+import { isVolumeFlowKey, volumeFlowProp } from './volumeFlow';
 import { sourcesOf } from './refs';
 import { pressureWord, stateClaims, stateFinite, writtenList } from './state';
 import { checkClaim } from './claims';
@@ -108,12 +109,13 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
   }
   const db = find('db');
   const m = find('m');
-  const q = find('q');
+  // The volume flow at the supply state: q=, or its other names flow= and V=.
+  const q = volumeFlowProp(ctx, read.props, what);
   if (m && q) {
     ctx.report({
       code: 'flow-conflict',
       severity: 'error',
-      message: `${what}: both m= and q= give the flow; keep one`,
+      message: `${what}: both m= and ${q.key}= give the flow; keep one`,
       span: q.prop.span,
       related: [{ span: m.prop.span, message: 'the other flow' }],
     });
@@ -381,11 +383,14 @@ function supplyClaims(
         )
       : [];
   if (!ctx.settings.checkClaims) return out;
+  // A second name for the volume flow is a conflict (reported), not a second claim.
+  const volume = props.find((p) => isVolumeFlowKey(p.key));
   for (const p of props) {
     if (p === defining || STATE_CLAIM_KEYS.has(p.key) || p.key === 'q_sensible' || p.key === 'q_latent') continue;
+    if (isVolumeFlowKey(p.key) && p !== volume) continue;
     let computed: number | null = null;
     if (p.key === 'm') computed = r.massFlowKgS ?? null;
-    else if (p.key === 'q') computed = f.volumeFlowM3S;
+    else if (isVolumeFlowKey(p.key)) computed = f.volumeFlowM3S;
     else if (p.key === 'shr') computed = f.shr;
     if (computed === null) {
       ctx.report({
