@@ -5,7 +5,7 @@
  */
 import { beforeAll, afterAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
@@ -309,5 +309,64 @@ describe('usage', () => {
     expect(dewmark(['check', '--pressure', '84', 'good.md']).code).toBe(2);
     expect(dewmark(['check', '--elevation', '1600kPa', 'good.md']).err).toContain('not a length unit');
     expect(dewmark(['check', '--format', 'xml', 'good.md']).code).toBe(2);
+  });
+});
+
+describe('dewmark chart', () => {
+  const SEASONS = [
+    '# Heron Quay library',
+    '',
+    '## Summer',
+    '',
+    '```air',
+    'state OA: db=31C wb=22C',
+    'state RA: db=24C rh=50%',
+    '```',
+    '',
+    '```air',
+    'mix MA: OA 25% + RA 75%',
+    '```',
+    '',
+    '## Winter',
+    '',
+    '```air',
+    'state OA_W: db=-5C rh=80%',
+    '```',
+    '',
+  ].join('\n');
+  const charts = (svg: string) => [...svg.matchAll(/<title id="([^"]*)">([^<]*)</g)].map((m) => [m[1], m[2]]);
+
+  it('one chart per heading section by default, stacked in one SVG document', () => {
+    writeFileSync(join(dir, 'seasons.md'), SEASONS);
+    const r = dewmark(['chart', 'seasons.md', '-o', 'seasons.svg']);
+    expect(r.code, r.err).toBe(0);
+    expect(r.err).toContain('wrote seasons.svg (seasons.md: 0 errors; 2 charts)');
+    const svg = readFileSync(join(dir, 'seasons.svg'), 'utf8');
+    expect(svg).toMatch(
+      /^<\?xml[^>]*>\n<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg" width="960" height="\d+"[^>]*data-charts="2">/,
+    );
+    expect(charts(svg)).toEqual([
+      ['dmc-1-title', 'Psychrometric chart — seasons.md — Summer'],
+      ['dmc-2-title', 'Psychrometric chart — seasons.md — Winter'],
+    ]);
+  });
+
+  it('--per block: one chart per fence; --per all: the whole note on one chart', () => {
+    expect(dewmark(['chart', 'seasons.md', '--per', 'block', '-o', 'blocks.svg']).err).toContain('0 errors; 3 charts)');
+    expect(charts(readFileSync(join(dir, 'blocks.svg'), 'utf8')).map((c) => c[1])).toEqual([
+      'Psychrometric chart — seasons.md — Summer — block at line 5',
+      'Psychrometric chart — seasons.md — Summer — block at line 10',
+      'Psychrometric chart — seasons.md — Winter — block at line 16',
+    ]);
+    expect(dewmark(['chart', 'seasons.md', '--per', 'all', '-o', 'all.svg']).err).toContain('0 errors; 1 chart)');
+    expect(charts(readFileSync(join(dir, 'all.svg'), 'utf8'))).toEqual([
+      ['dmc-title', 'Psychrometric chart — seasons.md'],
+    ]);
+  });
+
+  it('an unknown grouping is exit 2 naming the choices', () => {
+    const r = dewmark(['chart', 'seasons.md', '--per', 'season', '-o', 'x.svg']);
+    expect(r.code).toBe(2);
+    expect(r.err).toContain('Allowed choices are section, block, all');
   });
 });

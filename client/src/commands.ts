@@ -8,6 +8,10 @@ export const COMMANDS = {
   switchUnits: { id: 'dewmark.switchUnits', title: 'Switch Result Units (SI/IP)' },
   checkWorkspace: { id: 'dewmark.checkWorkspace', title: 'Check All Notes in the Workspace' },
   showChart: { id: 'dewmark.showChart', title: 'Show Psychrometric Chart' },
+  toggleChartCases: {
+    id: 'dewmark.toggleChartCases',
+    title: 'Chart: Show All States / Follow the Section at the Cursor',
+  },
   insertResultsTable: { id: 'dewmark.insertResultsTable', title: 'Insert or Refresh Results Table' },
   restartServer: { id: 'dewmark.restartServer', title: 'Restart Language Server' },
   showLog: { id: 'dewmark.showLog', title: 'Show Server Log' },

@@ -494,7 +494,13 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
           return;
         }
         charts ??= new (await import('./chart')).ChartPanels(output);
-        charts.show(editor.document);
+        charts.show(editor.document, editor.document.offsetAt(editor.selection.active));
+      }),
+    ),
+    vscode.commands.registerCommand(
+      COMMANDS.toggleChartCases.id,
+      guard('switching the chart between all states and the section at the cursor', async () => {
+        if (!charts?.toggleAll()) void vscode.window.showInformationMessage('Dewmark: no chart is open.');
       }),
     ),
     vscode.commands.registerCommand(

@@ -6,7 +6,9 @@
 import { describe, expect, it } from 'vitest';
 import {
   chartLayout,
+  DARK_THEME,
   LIGHT_THEME,
+  OWN_COLOURS,
   renderChartFromData,
   VSCODE_THEME_MAP,
   vscodeThemeCss,
@@ -199,12 +201,27 @@ describe('caption and theming', () => {
     expect(svg).toContain('stroke:var(--dm-chart-sat,var(--dmc-sat))');
   });
 
-  it('maps every chart colour to a VS Code theme variable for webviews', () => {
-    expect(Object.keys(VSCODE_THEME_MAP).sort()).toEqual(Object.keys(LIGHT_THEME).sort());
+  it('maps every chart colour but the fog and the SHR line to a VS Code theme variable for webviews', () => {
+    expect([...Object.keys(VSCODE_THEME_MAP), ...OWN_COLOURS].sort()).toEqual(Object.keys(LIGHT_THEME).sort());
+    expect(Object.keys(DARK_THEME).sort()).toEqual(Object.keys(LIGHT_THEME).sort());
     const css = vscodeThemeCss();
     expect(css).toContain('--dm-chart-sat:var(--vscode-charts-blue);');
     expect(css).toContain('--dm-chart-ink:var(--vscode-editor-foreground);');
-    for (const k of Object.keys(LIGHT_THEME)) expect(css).toContain(`${k}:var(--vscode-`);
+    for (const k of Object.keys(VSCODE_THEME_MAP)) expect(css).toContain(`${k}:var(--vscode-`);
+  });
+
+  it('gives the region above saturation one colour, in the SVG file and in the webview (light and dark)', () => {
+    const svg = renderChartFromData(typical);
+    const css = vscodeThemeCss();
+    // The fog is filled with the chart's own colour, which the webview does not remap to a theme colour…
+    expect(svg).toContain('.dmc .dmc-fog{fill:var(--dm-chart-fog,var(--dmc-fog))}');
+    expect(css).not.toContain('--dm-chart-fog:');
+    // …but sets from the same palette as the SVG, chosen by the editor theme's kind.
+    expect(svg).toContain(`--dmc-fog:${LIGHT_THEME['--dm-chart-fog']};`);
+    expect(css).toMatch(
+      new RegExp(`body\\.vscode-light \\.dmc[^{]*\\{[^}]*--dmc-fog:${LIGHT_THEME['--dm-chart-fog']};`),
+    );
+    expect(css).toMatch(new RegExp(`body\\.vscode-dark \\.dmc[^{]*\\{[^}]*--dmc-fog:${DARK_THEME['--dm-chart-fog']};`));
   });
 
   it('escapes names and titles', () => {

@@ -381,3 +381,37 @@ export function mixingLine(layout: ChartLayout, a: DbW & { h?: number }, b: DbW 
   );
   return runs;
 }
+
+/**
+ * A room's sensible heat ratio line: straight in humidity ratio and enthalpy (the supply-to-room
+ * process, like a mixing line) from the room state through the supply state, continued past the
+ * supply until it meets the saturation curve, reaches dry air or has run ten times the room–supply
+ * distance. Air supplied anywhere on it takes up sensible and latent heat in the room's ratio.
+ */
+export function roomLine(
+  layout: ChartLayout,
+  room: DbW & { h?: number },
+  supply: DbW & { h?: number },
+  pressurePa: number,
+): Pixel[][] {
+  const hr = room.h ?? enthalpyOf(room.db, room.w);
+  const hs = supply.h ?? enthalpyOf(supply.db, supply.w);
+  if (hr === null || hs === null) return [];
+  const at = (f: number): DbW | null => {
+    const w = room.w + (supply.w - room.w) * f;
+    if (w < 0) return null;
+    const db = f === 0 ? room.db : f === 1 ? supply.db : dbAtEnthalpy(hr + (hs - hr) * f, w);
+    return db === null ? null : { db, w };
+  };
+  // Past the supply: to bone-dry air at most, and no further than ten room–supply lengths.
+  let fEnd = 10;
+  if (supply.w < room.w) fEnd = Math.min(fEnd, room.w / (room.w - supply.w) - 1e-9);
+  const aboveSaturation = (f: number): number | null => {
+    const s = at(f);
+    const ws = s ? satW(s.db, pressurePa) : null;
+    return s && ws !== null ? s.w - ws : null;
+  };
+  const fSat = bisect(aboveSaturation, 1, fEnd);
+  if (fSat !== null) fEnd = fSat;
+  return sampleCurve(layout, at, 0, fEnd, 16);
+}

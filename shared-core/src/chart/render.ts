@@ -9,14 +9,14 @@ import {
   enthalpyLines,
   mixingLine,
   rhCurves,
+  roomLine,
   saturationCurve,
   volumeLines,
   wetBulbLines,
   type ChartCurve,
 } from './curves';
 import { chartLayout, chartUnits, niceStep, stepsIn, toPixel } from './layout';
-import { Grid } from './grid';
-import { NEAR_LIMIT, placeLabels, textWidth, type Box, type PlacedLabel, type PlacementStats } from './labels';
+import { LabelSpace, placeTags, textWidth, type Box, type PlacedLabel, type PlacementStats } from './labels';
 import { chartCss } from './style';
 import type { ChartData, ChartFamilies, ChartLayout, ChartOptions, ChartPoint, Pixel } from './types';
 
@@ -59,27 +59,6 @@ interface Ctx {
   layout: ChartLayout;
   id: string;
   out: string[];
-}
-
-/** Whether a family line's label fits at `at` (inside the plot, clear of the others); takes its place if so. */
-function familyLabelFits(
-  layout: ChartLayout,
-  taken: Box[],
-  text: string,
-  at: Pixel,
-  anchor: 'start' | 'end' | 'middle',
-  dy: number,
-): boolean {
-  const w = textWidth(text, 10);
-  const x0 = anchor === 'start' ? at.x : anchor === 'end' ? at.x - w : at.x - w / 2;
-  const box: Box = { x: x0 - 2, y: at.y + dy - 9, w: w + 4, h: 12 };
-  const { plot } = layout;
-  if (box.x < plot.left || box.x + box.w > plot.right || box.y < plot.top || box.y + box.h > plot.bottom) return false;
-  for (const t of taken) {
-    if (box.x < t.x + t.w && t.x < box.x + box.w && box.y < t.y + t.h && t.y < box.y + box.h) return false;
-  }
-  taken.push(box);
-  return true;
 }
 
 /** Points on a curve's last run at the given arc lengths (px) back from its end. */
@@ -196,7 +175,7 @@ function otherPressurePoints(data: ChartData): ChartPoint[] {
 function captionLines(data: ChartData): string[] {
   const pText = formatQuantity(data.pressurePa, 'pressure', data.units).text;
   const lines = [
-    `Curves drawn for ${pText}${data.pressureText ? ` \u2014 ${data.pressureText}` : ''}; ${data.units} units. Moist-air properties after ASHRAE Handbook\u2014Fundamentals Ch. 1 (ideal gas; over ice below 0 \u00b0C, 32 \u00b0F).`,
+    `Curves drawn for ${pText}${data.pressureText ? ` \u2014 ${data.pressureText}` : ''}; ${data.units} units. Moist-air properties after ASHRAE Handbook\u2014Fundamentals Ch. 1 (ideal gas; over ice below ${formatQuantity(0, 'temperature', data.units, { digits: 0 }).text}).`,
   ];
   const others = otherPressurePoints(data);
   if (others.length > 0) {
@@ -208,9 +187,12 @@ function captionLines(data: ChartData): string[] {
 }
 
 function flagLines(data: ChartData): string[] {
-  const items = data.infeasible.map(
-    (f) =>
-      `${f.name}${f.line ? ` (line ${f.line})` : ''} \u2014 ${f.plotted ? 'marked on the chart' : 'not plotted'}: ${f.reason}`,
+  const items = (data.notes ?? []).map((n) => `grouping \u2014 ${n}`);
+  items.push(
+    ...data.infeasible.map(
+      (f) =>
+        `${f.name}${f.line ? ` (line ${f.line})` : ''} \u2014 ${f.plotted ? 'marked on the chart' : 'not plotted'}: ${f.reason}`,
+    ),
   );
   const byName = new Set(data.points.map((p) => p.name));
   for (const pr of data.processes) {
@@ -263,14 +245,21 @@ function describe(data: ChartData, layout: ChartLayout): string {
   for (const m of data.mixes) parts.push(`Mixing line of ${m.streams.join(' and ')} through ${m.name}.`);
   for (const pr of data.processes)
     parts.push(
-      `Process ${pr.name}: arrow from ${pr.from} to ${pr.to}${pr.kind ? ` (${pr.kind.replace(/-/g, ' ')})` : ''}.`,
+      `Process ${pr.name}: arrow from ${pr.from} to ${pr.to}${pr.kind ? ` (${pr.kind.replace(/-/g, ' ')})` : ''}${pr.adp ? `, apparatus dew point ${formatQuantity(pr.adp.db, 'temperature', data.units).text}` : ''}.`,
+    );
+  for (const l of data.shrLines ?? [])
+    parts.push(
+      `Room SHR line of supply ${l.supply} through ${l.room}${l.shr === null ? '' : ` (SHR ${l.shr.toFixed(2)})`}.`,
     );
   for (const f of data.infeasible) parts.push(`${f.name}: ${f.plotted ? 'marked' : 'not plotted'}, ${f.reason}`);
   return parts.join(' ');
 }
 
 /** The legend's entries and their positions, wrapped to the plot width; rows are 18 px apart. */
-function legendItems(layout: ChartLayout): { cls: string; text: string; x: number; row: number }[] {
+function legendItems(
+  layout: ChartLayout,
+  extras: { shr: boolean; adp: boolean },
+): { cls: string; text: string; x: number; row: number }[] {
   const u = chartUnits(layout.units);
   const items: [string, string][] = [
     ['dmc-sat', 'saturation'],
@@ -281,6 +270,8 @@ function legendItems(layout: ChartLayout): { cls: string; text: string; x: numbe
     ['dmc-mixline', 'mixing line'],
     ['dmc-process', 'process'],
   ];
+  if (extras.shr) items.push(['dmc-shrline', 'room SHR line']);
+  if (extras.adp) items.push(['dmc-coilline', 'coil line to its apparatus dew point (ADP)']);
   const out: { cls: string; text: string; x: number; row: number }[] = [];
   let x = layout.plot.left;
   let row = 0;
@@ -296,9 +287,9 @@ function legendItems(layout: ChartLayout): { cls: string; text: string; x: numbe
   return out;
 }
 
-function legend(ctx: Ctx, y: number): void {
+function legend(ctx: Ctx, y: number, extras: { shr: boolean; adp: boolean }): void {
   ctx.out.push('<g class="dmc-legend-row">');
-  for (const { cls, text, x, row } of legendItems(ctx.layout)) {
+  for (const { cls, text, x, row } of legendItems(ctx.layout, extras)) {
     const yy = y + row * 18;
     ctx.out.push(`<line class="${cls}" x1="${n(x)}" y1="${n(yy - 4)}" x2="${n(x + 22)}" y2="${n(yy - 4)}"/>`);
     ctx.out.push(`<text class="dmc-legend" x="${n(x + 27)}" y="${n(yy)}">${escapeXml(text)}</text>`);
@@ -319,19 +310,44 @@ interface Arrow {
   uy: number;
 }
 
+/** A coil's apparatus dew point as drawn: its mark on saturation and the coil line from the leaving state. */
+interface AdpMark {
+  px: Pixel;
+  text: string;
+  processes: string[];
+  run: Pixel[][];
+}
+
+/** A room SHR line as drawn. */
+interface ShrMark {
+  supply: string;
+  room: string;
+  text: string;
+  runs: Pixel[][];
+}
+
+/** A name written beside a straight piece (an arrow, an SHR line). */
+interface LineName {
+  text: string;
+  start: Pixel;
+  tip: Pixel;
+  cls: string;
+}
+
+/** Coincident points share one tag: the points of each tag, by index into `plotted`. */
+interface TagGroup {
+  members: number[];
+  text: string;
+}
+
 /** Everything the chart measures before anything is placed: sizes, curves and pixel positions. */
 interface Measured {
   data: ChartData;
-  /** The layout with the full height (plot, legend, captions and flags). */
+  /** The layout of the plot (the full height is known once the labels are placed). */
   layout: ChartLayout;
   id: string;
   title: string;
   nonce: string;
-  captions: string[];
-  flags: string[];
-  legendY: number;
-  captionY: number;
-  flagsY: number;
   sat: ChartCurve;
   vLines: ChartCurve[];
   hLines: ChartCurve[];
@@ -339,13 +355,16 @@ interface Measured {
   rh: ChartCurve[];
   /** Each plotted point once (the first of a name), with its pixel. */
   plotted: { p: ChartPoint; px: Pixel }[];
+  tagGroups: TagGroup[];
   /** Mixing line runs, by mix name. */
   mixRuns: { name: string; run: Pixel[] }[];
   arrows: Arrow[];
-  /** The mixing lines and arrows as straight pieces (labels keep off them). */
+  adps: AdpMark[];
+  shrs: ShrMark[];
+  /** The mixing lines, arrows, coil and SHR lines as straight pieces (labels keep off them). */
   segments: [Pixel, Pixel][];
-  /** One name per pair of states joined by arrows ("CC, CC_sched"), placed beside the first arrow. */
-  arrowNames: { text: string; start: Pixel; tip: Pixel }[];
+  /** Names beside lines: one per pair of states joined by arrows ("CC, CC_sched"), and each SHR line's ratio. */
+  lineNames: LineName[];
 }
 
 /** A family line's label as placed. */
@@ -355,39 +374,68 @@ interface FamilyText {
   at: Pixel;
   anchor: 'start' | 'end' | 'middle';
   dy: number;
+  box: Box;
 }
 
-/** Where every label went. */
+/** Where every label went (null: no free spot; the name is listed under the chart instead). */
 interface Placed {
   family: FamilyText[];
-  tags: PlacedLabel[];
-  markers: Box[];
-  names: { text: string; box: Box }[];
+  /** One per tag group. */
+  tags: (PlacedLabel | null)[];
+  adpTags: (PlacedLabel | null)[];
+  names: ({ text: string; cls: string; box: Box } | null)[];
+  /** Names that found no free spot, for the caption. */
+  unlabelled: string[];
 }
 
-/** Measure: the layout and its height, the curves, and every point, line and arrow in pixels. */
+/** The caption block under the plot, laid out once the labels are placed. */
+interface CaptionBlock {
+  layout: ChartLayout;
+  captions: string[];
+  flags: string[];
+  legendY: number;
+  captionY: number;
+  flagsY: number;
+  extras: { shr: boolean; adp: boolean };
+}
+
+/** Most names written in one shared tag before "+N". */
+const TAG_NAMES = 3;
+
+/** The pieces of a run, for the labels to keep off. */
+function pushSegments(segments: [Pixel, Pixel][], run: Pixel[]): void {
+  for (let i = 1; i < run.length; i++) segments.push([run[i - 1]!, run[i]!]);
+}
+
+/** Measure: the layout, the curves, and every point, line and arrow in pixels. */
 function measureChart(data: ChartData, options: ChartOptions): Measured {
   const layout = chartLayout(data, options);
   const id = (options.idPrefix ?? 'dmc').replace(/[^A-Za-z0-9_-]/g, '') || 'dmc';
   const families = { ...ALL_FAMILIES, ...(options.families ?? {}) };
-  const { plot } = layout;
-
-  // Caption block below the plot: legend, caption lines, flagged items.
-  const captions = captionLines(data).flatMap((l) => wrap(l, Math.floor((layout.width - plot.left - 20) / 6)));
-  const flags = flagLines(data).flatMap((l) => wrap(l, Math.floor((layout.width - plot.left - 40) / 6)));
-  let y = plot.bottom + 64;
-  const legendY = y;
-  y += 20 + 18 * Math.max(0, ...legendItems(layout).map((i) => i.row));
-  const captionY = y;
-  y += captions.length * 15;
-  const flagsY = y + 6;
-  if (flags.length > 0) y = flagsY + 16 + flags.length * 15;
-  const full: ChartLayout = { ...layout, height: Math.ceil(y + 12) };
 
   const pos = new Map<string, { p: ChartPoint; px: Pixel }>();
   for (const p of data.points) {
     if (!pos.has(p.name)) pos.set(p.name, { p, px: toPixel(layout, p.db, p.w) });
   }
+  const plotted = [...pos.values()];
+  // Points on one spot (within a pixel) share a tag.
+  const bySpot = new Map<string, TagGroup>();
+  const tagGroups: TagGroup[] = [];
+  plotted.forEach(({ px }, i) => {
+    const key = `${Math.round(px.x)},${Math.round(px.y)}`;
+    const g = bySpot.get(key);
+    if (g) g.members.push(i);
+    else {
+      const fresh = { members: [i], text: '' };
+      bySpot.set(key, fresh);
+      tagGroups.push(fresh);
+    }
+  });
+  for (const g of tagGroups) {
+    const names = g.members.slice(0, TAG_NAMES).map((i) => tagText(plotted[i]!.p));
+    g.text = names.join(', ') + (g.members.length > TAG_NAMES ? ` +${g.members.length - TAG_NAMES}` : '');
+  }
+
   const segments: [Pixel, Pixel][] = [];
   const mixRuns: { name: string; run: Pixel[] }[] = [];
   for (const m of data.mixes) {
@@ -398,17 +446,34 @@ function measureChart(data: ChartData, options: ChartOptions): Measured {
     for (const [a, b] of ends) {
       for (const run of mixingLine(layout, a!.p, b!.p)) {
         mixRuns.push({ name: m.name, run });
-        for (let i = 1; i < run.length; i++) segments.push([run[i - 1]!, run[i]!]);
+        pushSegments(segments, run);
       }
     }
   }
   const arrows: Arrow[] = [];
-  const arrowNames: { text: string; start: Pixel; tip: Pixel }[] = [];
-  const nameOfPair = new Map<string, { text: string; start: Pixel; tip: Pixel }>();
+  const lineNames: LineName[] = [];
+  const nameOfPair = new Map<string, LineName>();
+  const adpBySpot = new Map<string, AdpMark>();
   for (const pr of data.processes) {
     const a = pos.get(pr.from);
     const b = pos.get(pr.to);
     if (!a || !b) continue;
+    if (pr.adp) {
+      const px = toPixel(layout, pr.adp.db, pr.adp.w);
+      const key = `${Math.round(px.x)},${Math.round(px.y)}`;
+      const same = adpBySpot.get(key);
+      if (same) same.processes.push(pr.name);
+      else {
+        const run = mixingLine(layout, b.p, pr.adp);
+        for (const r of run) pushSegments(segments, r);
+        adpBySpot.set(key, {
+          px,
+          text: `ADP ${formatQuantity(pr.adp.db, 'temperature', data.units).text}`,
+          processes: [pr.name],
+          run,
+        });
+      }
+    }
     const dx = b.px.x - a.px.x;
     const dy = b.px.y - a.px.y;
     const len = Math.hypot(dx, dy);
@@ -425,33 +490,44 @@ function measureChart(data: ChartData, options: ChartOptions): Measured {
     const same = nameOfPair.get(key);
     if (same) same.text += `, ${pr.name}`;
     else {
-      const entry = { text: pr.name, start, tip };
+      const entry = { text: pr.name, start, tip, cls: 'dmc-process-name' };
       nameOfPair.set(key, entry);
-      arrowNames.push(entry);
+      lineNames.push(entry);
     }
     segments.push([start, tip]);
   }
+  const shrs: ShrMark[] = [];
+  for (const l of data.shrLines ?? []) {
+    const room = pos.get(l.room);
+    const supply = pos.get(l.supply);
+    if (!room || !supply) continue;
+    const runs = roomLine(layout, room.p, supply.p, supply.p.pressurePa ?? data.pressurePa);
+    if (runs.length === 0) continue;
+    for (const r of runs) pushSegments(segments, r);
+    const text = l.shr === null ? `${l.supply} room line` : `SHR ${l.shr.toFixed(2)}`;
+    shrs.push({ supply: l.supply, room: l.room, text, runs });
+    const last = runs[runs.length - 1]!;
+    lineNames.push({ text, start: room.px, tip: last[last.length - 1]!, cls: 'dmc-shr-name' });
+  }
   return {
     data,
-    layout: full,
+    layout,
     id,
     title: options.title ?? data.title ?? 'Psychrometric chart',
     nonce: options.styleNonce && /^[A-Za-z0-9+/=_-]+$/.test(options.styleNonce) ? ` nonce="${options.styleNonce}"` : '',
-    captions,
-    flags,
-    legendY,
-    captionY,
-    flagsY,
     sat: saturationCurve(layout),
     vLines: families.volume ? volumeLines(layout) : [],
     hLines: families.enthalpy ? enthalpyLines(layout) : [],
     wbLines: families.wetBulb ? wetBulbLines(layout) : [],
     rh: families.rh ? rhCurves(layout) : [],
-    plotted: [...pos.values()],
+    plotted,
+    tagGroups,
     mixRuns,
     arrows,
+    adps: [...adpBySpot.values()],
+    shrs,
     segments,
-    arrowNames,
+    lineNames,
   };
 }
 
@@ -460,128 +536,190 @@ function tagText(p: ChartPoint): string {
   return p.fog ? `${p.name} \u00b7 fog` : p.name;
 }
 
+/** A marker's box: what no label may cover. */
+function markerBox(px: Pixel, r: number): Box {
+  return { x: px.x - r - 2, y: px.y - r - 2, w: 2 * r + 4, h: 2 * r + 4 };
+}
+
+/** The box of a family label's text (10 px type) written at `at` with an anchor and a baseline offset. */
+function familyBox(text: string, at: Pixel, anchor: FamilyText['anchor'], dy: number): Box {
+  const w = textWidth(text, 10);
+  const x0 = anchor === 'start' ? at.x : anchor === 'end' ? at.x - w : at.x - w / 2;
+  return { x: x0 - 2, y: at.y + dy - 9, w: w + 4, h: 12 };
+}
+
+/** Spots along a straight piece for its name: fractions along it, and offsets to either side. */
+const NAME_SPOTS: readonly (readonly [number, number])[] = [
+  [0.5, 12],
+  [0.35, 12],
+  [0.65, 12],
+  [0.2, 12],
+  [0.8, 12],
+  [0.5, 24],
+  [0.35, 24],
+  [0.65, 24],
+  [0.5, 38],
+  [0.5, 54],
+];
+
 /**
- * Place: the family lines' labels (rh and saturation at their upper end, wet-bulb at saturation,
- * enthalpy at their lower-right end, volume above the dry-bulb axis), then the state tags, then
- * the process names beside their arrows, clear of the tags, the points and each other.
+ * Place: the state tags first (beside their points, or further out with a leader), then the
+ * apparatus dew points, the names beside arrows and SHR lines, and last the family lines' values
+ * (rh and saturation at their upper end, wet-bulb at saturation, enthalpy at their lower-right
+ * end, volume above the dry-bulb axis; each tries spots further along its line when one is taken).
+ * No label overlaps another or covers a marker; one with no free spot is listed instead.
  */
 function placeChart(m: Measured, stats?: PlacementStats): Placed {
   const { plot } = m.layout;
+  const space = new LabelSpace(plot, stats);
+  for (const { px } of m.plotted) space.block(markerBox(px, MARKER_RADIUS));
+  for (const a of m.adps) space.block(markerBox(a.px, ADP_RADIUS));
+  for (const [a, b] of m.segments) space.addSegment(a, b);
+  const unlabelled: string[] = [];
+
+  const tags = placeTags(
+    space,
+    m.tagGroups.map((g) => ({
+      anchor: m.plotted[g.members[0]!]!.px,
+      width: textWidth(g.text, 11) + 12,
+      height: 18,
+    })),
+  );
+  tags.forEach((t, i) => {
+    if (!t) unlabelled.push(...m.tagGroups[i]!.members.map((k) => m.plotted[k]!.p.name));
+  });
+  const adpTags = placeTags(
+    space,
+    m.adps.map((a) => ({ anchor: a.px, width: textWidth(a.text, 10) + 8, height: 14 })),
+  );
+  adpTags.forEach((t, i) => {
+    if (!t) unlabelled.push(`${m.adps[i]!.text} (${m.adps[i]!.processes.join(', ')})`);
+  });
+
+  const names = m.lineNames.map((r) => {
+    const dx = r.tip.x - r.start.x;
+    const dy = r.tip.y - r.start.y;
+    const len = Math.hypot(dx, dy) || 1;
+    const w = textWidth(r.text, 10.5);
+    function* spots(): Generator<Box> {
+      for (const [t, off] of NAME_SPOTS) {
+        for (const side of [1, -1]) {
+          const cx = r.start.x + dx * t + (side * dy * off) / len;
+          const cy = r.start.y + dy * t - (side * dx * off) / len;
+          yield { x: cx - w / 2, y: cy - 7, w, h: 13 };
+        }
+      }
+    }
+    const box = space.takeFirst(spots());
+    if (!box) unlabelled.push(r.text);
+    return box ? { text: r.text, cls: r.cls, box } : null;
+  });
+
   const family: FamilyText[] = [];
-  const taken: Box[] = [];
-  const tryLabel = (text: string, cls: string, at: Pixel, anchor: FamilyText['anchor'], dy: number): boolean => {
-    if (!familyLabelFits(m.layout, taken, text, at, anchor, dy)) return false;
-    family.push({ text, cls, at, anchor, dy });
-    return true;
+  const tryLabel = (
+    text: string,
+    cls: string,
+    spots: { at: Pixel; anchor: FamilyText['anchor']; dy: number }[],
+  ): void => {
+    for (const s of spots) {
+      const box = familyBox(text, s.at, s.anchor, s.dy);
+      space.count();
+      if (!space.free(box)) continue;
+      space.block(box);
+      family.push({ text, cls, ...s, box });
+      return;
+    }
   };
   const upperEnd = (c: ChartCurve, text: string, cls: string): void => {
     const p = lastPoint(c);
     if (!p) return;
     if (p.y <= plot.top + 1) {
       // Exits through the top: beside the curve just below the edge, or further down the curve.
-      for (const q of [p, ...pointsBack(c, [22, 44, 66])]) {
-        if (tryLabel(text, cls, { x: q.x + 4, y: Math.max(q.y, plot.top) }, 'start', 12)) return;
-      }
+      tryLabel(
+        text,
+        cls,
+        [p, ...pointsBack(c, [22, 44, 66, 88])].map((q) => ({
+          at: { x: q.x + 4, y: Math.max(q.y, plot.top) },
+          anchor: 'start' as const,
+          dy: 12,
+        })),
+      );
     } else {
-      for (const q of [p, ...pointsBack(c, [30, 60])]) {
-        if (tryLabel(text, cls, { x: Math.min(q.x, plot.right) - 4, y: q.y }, 'end', -4)) return;
-      }
+      tryLabel(
+        text,
+        cls,
+        [p, ...pointsBack(c, [30, 60, 90])].map((q) => ({
+          at: { x: Math.min(q.x, plot.right) - 4, y: q.y },
+          anchor: 'end' as const,
+          dy: -4,
+        })),
+      );
     }
   };
   upperEnd(m.sat, '100%', 'dmc-lbl-sat');
   for (const c of m.rh) upperEnd(c, `${c.value}%`, 'dmc-lbl-rh');
-  for (const c of m.wbLines) {
-    const p = firstPoint(c);
-    if (p && p.x > plot.left + 1 && p.y > plot.top + 1)
-      tryLabel(label(c.value), 'dmc-lbl-wb', { x: p.x - 3, y: p.y }, 'end', -3);
-  }
   for (const c of m.hLines) {
     const p = lastPoint(c);
     if (!p) continue;
-    if (p.x >= plot.right - 1) tryLabel(label(c.value), 'dmc-lbl-h', { x: plot.right - 4, y: p.y }, 'end', 12);
-    else if (p.y >= plot.bottom - 1) tryLabel(label(c.value), 'dmc-lbl-h', { x: p.x + 3, y: plot.bottom }, 'start', -4);
+    const text = label(c.value);
+    if (p.x >= plot.right - 1) {
+      // Leaves through the right edge: under the line at the edge, or further up the line.
+      tryLabel(text, 'dmc-lbl-h', [
+        { at: { x: plot.right - 4, y: p.y }, anchor: 'end', dy: 12 },
+        ...pointsBack(c, [40, 80, 120, 160]).map((q) => ({ at: q, anchor: 'middle' as const, dy: 12 })),
+      ]);
+    } else if (p.y >= plot.bottom - 1)
+      tryLabel(text, 'dmc-lbl-h', [
+        { at: { x: p.x + 3, y: plot.bottom }, anchor: 'start', dy: -4 },
+        ...pointsBack(c, [40, 80]).map((q) => ({ at: q, anchor: 'start' as const, dy: -4 })),
+      ]);
+  }
+  for (const c of m.wbLines) {
+    const p = firstPoint(c);
+    if (p && p.x > plot.left + 1 && p.y > plot.top + 1)
+      tryLabel(label(c.value), 'dmc-lbl-wb', [{ at: { x: p.x - 3, y: p.y }, anchor: 'end', dy: -3 }]);
   }
   for (const c of m.vLines) {
     const p = lastPoint(c);
-    if (p && p.y >= plot.bottom - 1) tryLabel(label(c.value), 'dmc-lbl-v', { x: p.x - 3, y: plot.bottom }, 'end', -16);
+    if (p && p.y >= plot.bottom - 1)
+      tryLabel(label(c.value), 'dmc-lbl-v', [{ at: { x: p.x - 3, y: plot.bottom }, anchor: 'end', dy: -16 }]);
   }
-
-  const markers: Box[] = m.plotted.map(({ px }) => ({
-    x: px.x - MARKER_RADIUS - 2,
-    y: px.y - MARKER_RADIUS - 2,
-    w: 2 * MARKER_RADIUS + 4,
-    h: 2 * MARKER_RADIUS + 4,
-  }));
-  const tags = placeLabels(
-    m.plotted.map(({ p, px }) => ({ anchor: px, width: textWidth(tagText(p), 11) + 12, height: 18 })),
-    markers,
-    m.segments,
-    plot,
-    stats,
-  );
-
-  const blocked = new Grid(plot, stats);
-  const blockedBoxes: Box[] = [];
-  const block = (b: Box): void => {
-    blockedBoxes.push(b);
-    blocked.addBox(b);
-  };
-  for (const b of markers) block(b);
-  for (const t of tags) block(t.box);
-  const names: { text: string; box: Box }[] = [];
-  for (const r of m.arrowNames) {
-    const dx = r.tip.x - r.start.x;
-    const dy = r.tip.y - r.start.y;
-    const len = Math.hypot(dx, dy) || 1;
-    const w = textWidth(r.text, 10.5);
-    let chosen: Box | null = null;
-    for (const [t, off] of [
-      [0.5, 12],
-      [0.35, 12],
-      [0.65, 12],
-      [0.2, 12],
-      [0.8, 12],
-      [0.5, 24],
-      [0.5, 38],
-      [0.5, 54],
-    ] as const) {
-      for (const side of [1, -1]) {
-        const cx = r.start.x + dx * t + (side * dy * off) / len;
-        const cy = r.start.y + dy * t - (side * dx * off) / len;
-        const box: Box = { x: cx - w / 2, y: cy - 7, w, h: 13 };
-        if (stats) stats.candidates++;
-        const inside =
-          box.x >= plot.left && box.y >= plot.top && box.x + box.w <= plot.right && box.y + box.h <= plot.bottom;
-        if (!inside) continue;
-        // A spot with more boxes near it than the look-up weighs is taken (it is crowded).
-        const near = blocked.near(box, NEAR_LIMIT);
-        const free =
-          !near.crowded &&
-          near.items.every((i) => {
-            const b = blockedBoxes[i]!;
-            return box.x >= b.x + b.w || b.x >= box.x + box.w || box.y >= b.y + b.h || b.y >= box.y + box.h;
-          });
-        if (free) {
-          chosen = box;
-          break;
-        }
-      }
-      if (chosen) break;
-    }
-    if (!chosen) {
-      const cx = r.start.x + dx / 2 + (dy * 12) / len;
-      const cy = r.start.y + dy / 2 - (dx * 12) / len;
-      chosen = { x: cx - w / 2, y: cy - 7, w, h: 13 };
-    }
-    block(chosen);
-    names.push({ text: r.text, box: chosen });
-  }
-  return { family, tags, markers, names };
+  return { family, tags, adpTags, names, unlabelled };
 }
 
-/** Draw: the SVG text of a measured and placed chart. */
-function drawChart(m: Measured, placed: Placed): string {
-  const { data, layout: full, id } = m;
+/** Radius of an apparatus dew point's mark, px. */
+const ADP_RADIUS = 4;
+
+/** Lay out the caption block under the plot: legend, caption lines, flagged items. */
+function captionBlock(m: Measured, placed: Placed): CaptionBlock {
+  const { layout, data } = m;
+  const { plot } = layout;
+  const lines = captionLines(data);
+  if (placed.unlabelled.length > 0)
+    lines.push(`Not labelled for lack of room (hover a marker for its name): ${placed.unlabelled.join(', ')}.`);
+  const captions = lines.flatMap((l) => wrap(l, Math.floor((layout.width - plot.left - 20) / 6)));
+  const flags = flagLines(data).flatMap((l) => wrap(l, Math.floor((layout.width - plot.left - 40) / 6)));
+  const extras = { shr: m.shrs.length > 0, adp: m.adps.length > 0 };
+  let y = plot.bottom + 64;
+  const legendY = y;
+  y += 20 + 18 * Math.max(0, ...legendItems(layout, extras).map((i) => i.row));
+  const captionY = y;
+  y += captions.length * 15;
+  const flagsY = y + 6;
+  if (flags.length > 0) y = flagsY + 16 + flags.length * 15;
+  return { layout: { ...layout, height: Math.ceil(y + 12) }, captions, flags, legendY, captionY, flagsY, extras };
+}
+
+/** A box as a `data-box` attribute value (`x y w h`): the space the label takes, for tests and hosts. */
+function boxAttr(b: Box): string {
+  return `${n(b.x)} ${n(b.y)} ${n(b.w)} ${n(b.h)}`;
+}
+
+/** Draw: the SVG text of a measured and placed chart, and its size. */
+function drawChart(m: Measured, placed: Placed): SizedChart {
+  const { data, id } = m;
+  const cap = captionBlock(m, placed);
+  const full = cap.layout;
   const { plot } = full;
   const height = full.height;
   const ctx: Ctx = { layout: full, id, out: [] };
@@ -621,12 +759,23 @@ function drawChart(m: Measured, placed: Placed): string {
   out.push('<g class="dmc-line-labels">');
   for (const f of placed.family) {
     out.push(
-      `<text class="dmc-lbl ${f.cls}" x="${n(f.at.x)}" y="${n(f.at.y + f.dy)}" text-anchor="${f.anchor}">${escapeXml(f.text)}</text>`,
+      `<text class="dmc-lbl ${f.cls}" data-box="${boxAttr(f.box)}" x="${n(f.at.x)}" y="${n(f.at.y + f.dy)}" text-anchor="${f.anchor}">${escapeXml(f.text)}</text>`,
     );
   }
   out.push('</g>');
 
   out.push(`<g class="dmc-overlay" clip-path="url(#${id}-clip)">`);
+  for (const s of m.shrs) {
+    out.push(
+      `<path class="dmc-shrline" data-supply="${escapeXml(s.supply)}" data-room="${escapeXml(s.room)}" d="${s.runs.map(pathOf).join('')}"/>`,
+    );
+  }
+  for (const a of m.adps) {
+    if (a.run.length > 0)
+      out.push(
+        `<path class="dmc-coilline" data-process="${escapeXml(a.processes.join(' '))}" d="${a.run.map(pathOf).join('')}"/>`,
+      );
+  }
   for (const r of m.mixRuns)
     out.push(`<path class="dmc-mixline" data-mix="${escapeXml(r.name)}" d="${pathOf(r.run)}"/>`);
   for (const { process: pr, start, tip, base, ux, uy } of m.arrows) {
@@ -642,20 +791,36 @@ function drawChart(m: Measured, placed: Placed): string {
   }
   out.push('</g>');
 
+  out.push('<g class="dmc-adps">');
+  m.adps.forEach((a, i) => {
+    out.push(`<g class="dmc-adp-group" data-process="${escapeXml(a.processes.join(' '))}">`);
+    out.push(`<title>${escapeXml(`${a.text}: apparatus dew point of ${a.processes.join(', ')}`)}</title>`);
+    const lp = placed.adpTags[i];
+    if (lp?.leader) out.push(leaderLine(a.px, lp.box));
+    out.push(`<circle class="dmc-adp" cx="${n(a.px.x)}" cy="${n(a.px.y)}" r="${ADP_RADIUS}"/>`);
+    if (lp)
+      out.push(
+        `<text class="dmc-adp-label" data-box="${boxAttr(lp.box)}" x="${n(lp.box.x + lp.box.w / 2)}" y="${n(lp.box.y + lp.box.h / 2 + 3.5)}" text-anchor="middle">${escapeXml(a.text)}</text>`,
+      );
+    out.push('</g>');
+  });
+  out.push('</g>');
+
   out.push('<g class="dmc-points">');
+  const tagOf = new Map<number, { group: TagGroup; placed: PlacedLabel | null }>();
+  m.tagGroups.forEach((g, i) => {
+    tagOf.set(g.members[0]!, { group: g, placed: placed.tags[i] ?? null });
+  });
   m.plotted.forEach(({ p, px }, i) => {
     const kind = pointClass(p);
     const where = positionText(p, data.units);
-    out.push(`<g class="dmc-point" data-name="${escapeXml(p.name)}">`);
+    out.push(`<g class="dmc-point${p.context ? ' dmc-context' : ''}" data-name="${escapeXml(p.name)}">`);
     out.push(
-      `<title>${escapeXml(`${p.kind === 'mix' ? 'mix' : 'state'} ${p.name}: ${where}${p.fog ? ' \u2014 fog region (infeasible as vapour)' : ''}`)}</title>`,
+      `<title>${escapeXml(`${p.kind === 'mix' ? 'mix' : 'state'} ${p.name}: ${where}${p.fog ? ' \u2014 fog region (infeasible as vapour)' : ''}${p.context ? ' (defined in another part of the note)' : ''}`)}</title>`,
     );
-    const lp = placed.tags[i]!;
-    if (lp.leader) {
-      const bx = Math.max(lp.box.x, Math.min(px.x, lp.box.x + lp.box.w));
-      const by = Math.max(lp.box.y, Math.min(px.y, lp.box.y + lp.box.h));
-      out.push(`<line class="dmc-leader" x1="${n(px.x)}" y1="${n(px.y)}" x2="${n(bx)}" y2="${n(by)}"/>`);
-    }
+    const tag = tagOf.get(i);
+    const lp = tag?.placed;
+    if (lp?.leader) out.push(leaderLine(px, lp.box));
     out.push(
       `<circle class="dmc-marker dmc-marker-${kind}" data-name="${escapeXml(p.name)}" data-kind="${p.kind}"${p.fog ? ' data-infeasible="fog"' : ''} data-db="${p.db}" data-w="${p.w}" cx="${n(px.x)}" cy="${n(px.y)}" r="${MARKER_RADIUS}"/>`,
     );
@@ -665,53 +830,77 @@ function drawChart(m: Measured, placed: Placed): string {
         `<path class="dmc-fogcross" d="M${n(px.x - k)} ${n(px.y - k)}L${n(px.x + k)} ${n(px.y + k)}M${n(px.x - k)} ${n(px.y + k)}L${n(px.x + k)} ${n(px.y - k)}"/>`,
       );
     }
-    out.push(
-      `<rect class="dmc-tag${p.kind === 'mix' ? ' dmc-tag-mix' : ''}${p.fog ? ' dmc-tag-fog' : ''}" x="${n(lp.box.x)}" y="${n(lp.box.y)}" width="${n(lp.box.w)}" height="${n(lp.box.h)}" rx="9"/>`,
-    );
-    out.push(
-      `<text class="dmc-tagtext" x="${n(lp.box.x + lp.box.w / 2)}" y="${n(lp.box.y + lp.box.h / 2 + 4)}" text-anchor="middle">${escapeXml(tagText(p))}</text>`,
-    );
+    if (tag && lp) {
+      out.push(
+        `<rect class="dmc-tag${p.kind === 'mix' ? ' dmc-tag-mix' : ''}${p.fog ? ' dmc-tag-fog' : ''}" data-box="${boxAttr(lp.box)}" x="${n(lp.box.x)}" y="${n(lp.box.y)}" width="${n(lp.box.w)}" height="${n(lp.box.h)}" rx="9"/>`,
+      );
+      out.push(
+        `<text class="dmc-tagtext" x="${n(lp.box.x + lp.box.w / 2)}" y="${n(lp.box.y + lp.box.h / 2 + 4)}" text-anchor="middle">${escapeXml(tag.group.text)}</text>`,
+      );
+    }
     out.push('</g>');
   });
   out.push('</g>');
 
   out.push('<g class="dmc-process-names">');
-  for (const { text, box } of placed.names) {
+  for (const name of placed.names) {
+    if (!name) continue;
+    const { text, cls, box } = name;
     out.push(
-      `<text class="dmc-process-name" x="${n(box.x + box.w / 2)}" y="${n(box.y + 10)}" text-anchor="middle">${escapeXml(text)}</text>`,
+      `<text class="${cls}" data-box="${boxAttr(box)}" x="${n(box.x + box.w / 2)}" y="${n(box.y + 10)}" text-anchor="middle">${escapeXml(text)}</text>`,
     );
   }
   out.push('</g>');
 
-  legend(ctx, m.legendY);
-  m.captions.forEach((line, i) => {
+  legend(ctx, cap.legendY, cap.extras);
+  cap.captions.forEach((line, i) => {
     out.push(
-      `<text class="dmc-caption" data-caption="${i}" x="${n(plot.left)}" y="${n(m.captionY + i * 15)}">${escapeXml(line)}</text>`,
+      `<text class="dmc-caption" data-caption="${i}" x="${n(plot.left)}" y="${n(cap.captionY + i * 15)}">${escapeXml(line)}</text>`,
     );
   });
-  if (m.flags.length > 0) {
+  if (cap.flags.length > 0) {
     out.push(
-      `<g class="dmc-flags"><text class="dmc-flag-title" x="${n(plot.left)}" y="${n(m.flagsY + 4)}">Flagged</text>`,
+      `<g class="dmc-flags"><text class="dmc-flag-title" x="${n(plot.left)}" y="${n(cap.flagsY + 4)}">Flagged</text>`,
     );
-    m.flags.forEach((line, i) => {
+    cap.flags.forEach((line, i) => {
       out.push(
-        `<text class="dmc-flag-item" x="${n(plot.left + 12)}" y="${n(m.flagsY + 20 + i * 15)}">${escapeXml(line)}</text>`,
+        `<text class="dmc-flag-item" x="${n(plot.left + 12)}" y="${n(cap.flagsY + 20 + i * 15)}">${escapeXml(line)}</text>`,
       );
     });
     out.push('</g>');
   }
   out.push('</svg>');
-  return out.join('\n');
+  return { svg: out.join('\n'), width: full.width, height };
+}
+
+/** A leader line from a point to the nearest point of its label's box. */
+function leaderLine(px: Pixel, box: Box): string {
+  const bx = Math.max(box.x, Math.min(px.x, box.x + box.w));
+  const by = Math.max(box.y, Math.min(px.y, box.y + box.h));
+  return `<line class="dmc-leader" x1="${n(px.x)}" y1="${n(px.y)}" x2="${n(bx)}" y2="${n(by)}"/>`;
 }
 
 /**
  * Renders a chart from plain data (SI). Returns one `<svg>` element as text, with its own
  * stylesheet, `<title>` and `<desc>`. Markers carry `data-name`, `data-kind`, `data-db` (°C) and
- * `data-w` (kg/kg) so tests and hosts can find them. Three steps: measure (layout, curves,
- * pixels), place (labels, near-linear), draw (the SVG text). `stats`, when given, counts the
- * placement's work (for the cost tests and the benchmark).
+ * `data-w` (kg/kg), and every label its box as `data-box`, so tests and hosts can find them.
+ * Three steps: measure (layout, curves, pixels), place (labels, near-linear, no overlaps), draw
+ * (the SVG text). `stats`, when given, counts the placement's work (for the cost tests and the
+ * benchmark).
  */
 export function renderChartFromData(data: ChartData, options: ChartOptions = {}, stats?: PlacementStats): string {
+  return renderSizedChart(data, options, stats).svg;
+}
+
+/** A rendered chart and its size in CSS px (the `<svg>`'s width and height). */
+export interface SizedChart {
+  svg: string;
+  width: number;
+  height: number;
+}
+
+/** {@link renderChartFromData}, with the size of the SVG (to stack several charts in one document). */
+export function renderSizedChart(data: ChartData, options: ChartOptions = {}, stats?: PlacementStats): SizedChart {
   const measured = measureChart(data, options);
   return drawChart(measured, placeChart(measured, stats));
 }

@@ -27,6 +27,7 @@ export const LIGHT_THEME: Readonly<Record<string, string>> = {
   '--dm-chart-process': '#1d1a22',
   '--dm-chart-flag': '#d35400',
   '--dm-chart-tag': '#ffffff',
+  '--dm-chart-shr': '#2e7d32',
 };
 
 /** The custom properties of the dark theme. */
@@ -47,6 +48,7 @@ export const DARK_THEME: Readonly<Record<string, string>> = {
   '--dm-chart-process': '#f3f0fa',
   '--dm-chart-flag': '#ff9a4d',
   '--dm-chart-tag': '#24232d',
+  '--dm-chart-shr': '#7fd08a',
 };
 
 /** The theme as declarations of the internal defaults (`--dm-chart-ink` → `--dmc-ink`). */
@@ -100,6 +102,13 @@ export function chartCss(): string {
     `.dmc .dmc-tag-fog{stroke:${v('flag')};stroke-dasharray:3 2}`,
     `.dmc .dmc-tagtext{font-size:11px;font-weight:650}`,
     `.dmc .dmc-leader{stroke:${v('muted')};stroke-width:.8}`,
+    `.dmc .dmc-context .dmc-marker,.dmc .dmc-context .dmc-tag{opacity:.5}`,
+    `.dmc .dmc-context .dmc-tagtext{fill:${v('muted')};font-weight:500}`,
+    `.dmc .dmc-shrline{stroke:${v('shr')};stroke-width:1.6;fill:none;stroke-dasharray:10 3 2 3}`,
+    `.dmc .dmc-shr-name{font-size:10.5px;font-weight:600;fill:${v('shr')};paint-order:stroke;stroke:${v('panel')};stroke-width:3px}`,
+    `.dmc .dmc-coilline{stroke:${v('sat')};stroke-width:1.3;fill:none;stroke-dasharray:3 3}`,
+    `.dmc .dmc-adp{fill:${v('panel')};stroke:${v('sat')};stroke-width:2}`,
+    `.dmc .dmc-adp-label{font-size:10px;font-weight:650;fill:${v('sat')};paint-order:stroke;stroke:${v('panel')};stroke-width:3px}`,
     `.dmc .dmc-legend{font-size:11px;fill:${v('muted')}}`,
     `.dmc .dmc-caption{font-size:11px;fill:${v('muted')}}`,
     `.dmc .dmc-flag-title{font-size:11.5px;font-weight:650;fill:${v('flag')}}`,
@@ -107,11 +116,18 @@ export function chartCss(): string {
   ].join('\n');
 }
 
-/** The VS Code theme colour each chart colour follows inside a webview. */
+/**
+ * The chart colours that keep the chart's own palette in a webview rather than follow a VS Code
+ * theme colour: the region above saturation (so the fog has one colour, in the webview and in the
+ * SVG file alike) and the room SHR line (no theme colour is free for it). The webview picks the
+ * light or dark palette by the editor theme's kind.
+ */
+export const OWN_COLOURS: readonly string[] = ['--dm-chart-fog', '--dm-chart-shr'];
+
+/** The VS Code theme colour each chart colour (but {@link OWN_COLOURS}) follows inside a webview. */
 export const VSCODE_THEME_MAP: Readonly<Record<string, string>> = {
   '--dm-chart-page': '--vscode-editor-background',
   '--dm-chart-panel': '--vscode-editor-background',
-  '--dm-chart-fog': '--vscode-editor-inactiveSelectionBackground',
   '--dm-chart-ink': '--vscode-editor-foreground',
   '--dm-chart-muted': '--vscode-descriptionForeground',
   '--dm-chart-grid': '--vscode-panel-border',
@@ -131,9 +147,14 @@ export const VSCODE_THEME_MAP: Readonly<Record<string, string>> = {
  * A stylesheet for a VS Code webview that hosts the chart: maps each public `--dm-chart-*`
  * colour to the theme's `--vscode-*` variable on `body`. Where the theme lacks a variable the
  * chart's own default applies (an undefined `var()` makes the override invalid, so the fallback wins).
+ * The chart's own palette follows the theme's kind (VS Code marks `body` with `vscode-light`,
+ * `vscode-dark` or `vscode-high-contrast`), not the system's colour scheme.
  */
 export function vscodeThemeCss(): string {
-  return `body{${Object.entries(VSCODE_THEME_MAP)
+  const mapped = `body{${Object.entries(VSCODE_THEME_MAP)
     .map(([k, v]) => `${k}:var(${v});`)
     .join('')}}`;
+  const own = (vars: Readonly<Record<string, string>>): string =>
+    block(Object.fromEntries(OWN_COLOURS.map((k) => [k, vars[k]!])));
+  return `${mapped}\nbody.vscode-light .dmc,body.vscode-high-contrast-light .dmc{${own(LIGHT_THEME)}}\nbody.vscode-dark .dmc,body.vscode-high-contrast:not(.vscode-high-contrast-light) .dmc{${own(DARK_THEME)}}`;
 }

@@ -20,6 +20,26 @@ export interface ChartPoint {
   fog?: boolean;
   /** 1-based source line, when known. */
   line?: number;
+  /**
+   * True for a state drawn only because a statement of this chart uses it (a process's entering
+   * state, a mix's stream, a supply's room) while it is defined in another case: drawn muted.
+   */
+  context?: boolean;
+}
+
+/**
+ * A room's sensible heat ratio line, from a `supply` statement with loads: through the room state
+ * and the supply state (air supplied anywhere on it takes up the room's loads in that ratio),
+ * continued to the saturation curve.
+ */
+export interface ChartShrLine {
+  /** The supply statement's name. */
+  supply: string;
+  /** The room state's name. */
+  room: string;
+  /** Room SHR Q_s / (Q_s + Q_l), or null when the loads have opposite signs. */
+  shr: number | null;
+  line?: number;
 }
 
 /** A mix: the named streams and the mixed state (also present as a point of kind `mix`). */
@@ -39,6 +59,11 @@ export interface ChartProcess {
   /** True when the evaluator flagged the process (an error or warning on its statement). */
   flagged?: boolean;
   line?: number;
+  /**
+   * A process that removes moisture: its apparatus dew point, where the line through its two
+   * states meets saturation (dry-bulb °C, humidity ratio kg/kg at saturation).
+   */
+  adp?: { db: number; w: number };
 }
 
 /** A state that could not be plotted, or one plotted but physically impossible (fog). */
@@ -63,6 +88,10 @@ export interface ChartData {
   mixes: ChartMix[];
   processes: ChartProcess[];
   infeasible: ChartInfeasible[];
+  /** Room SHR lines of the supplies with loads (absent: none). */
+  shrLines?: ChartShrLine[];
+  /** Problems with how the note groups its charts (a bad `chart=` option), listed with the flagged items. */
+  notes?: string[];
   /** Short title (the note's file name or first heading). */
   title?: string;
 }

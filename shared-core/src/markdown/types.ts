@@ -15,6 +15,8 @@ export interface AirRegion {
   span: Span;
   /** The content: the fenced block's body, or the code span's content. */
   contentSpan: Span;
+  /** A fence's whole info string (`air`, or `air chart=summer`); absent for a code span. */
+  info?: string;
 }
 
 /** An ATX or setext Markdown heading (for the outline). */
