@@ -4,6 +4,8 @@
  * an invented building; positions are compared with the evaluator's own states and the engine's
  * saturation curve (consistency, no tabulated figure).
  */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../src/analyze';
 import {
@@ -162,6 +164,33 @@ process CC: RA -> OFF adp=11C bf=0.1
     const shr = (analysis.byName.get('SA') as StateResult).supply!.shr!;
     expect(shr).toBeCloseTo(41.5 / 49.5, 10);
     expect(svg).toContain(`>SHR ${shr.toFixed(2)}</text>`);
+  });
+
+  it('stops the SHR line where it first meets saturation, never running on through the fog (the examples)', () => {
+    const text = readFileSync(join(__dirname, '..', '..', 'examples', 'kestrel-ridge-ahu1.md'), 'utf8');
+    const example = analyzeNote(text, {});
+    let lines = 0;
+    for (const chart of renderChartCases(example, 'section', { source: text })) {
+      const root = elements(chart.svg, 'svg')[0]!;
+      const [left, top, right, bottom] = root['data-plot']!.split(' ').map(Number) as [number, number, number, number];
+      const [dbMin, dbMax, wMin, wMax] = ['data-db-min', 'data-db-max', 'data-w-min', 'data-w-max'].map((k) =>
+        Number(root[k]),
+      ) as [number, number, number, number];
+      const p = Number(root['data-pressure-pa']);
+      for (const l of elements(chart.svg, 'path', 'dmc-shrline')) {
+        lines++;
+        for (const run of parsePath(l.d!))
+          for (const q of run) {
+            const db = dbMin + ((q.x - left) / (right - left)) * (dbMax - dbMin);
+            const w = wMin + ((bottom - q.y) / (bottom - top)) * (wMax - wMin);
+            // Within the 0.01 px rounding of the path (about 0.6 µg/kg at this scale).
+            expect(w, `SHR line of ${l['data-supply']} at ${db.toFixed(2)} °C`).toBeLessThanOrEqual(
+              satHumRatio(db, p) + 2e-6,
+            );
+          }
+      }
+    }
+    expect(lines).toBe(2);
   });
 
   it("marks a coil's apparatus dew point on saturation, with the coil line from its leaving state", () => {

@@ -44,6 +44,10 @@ interface ChartView {
   text: string;
   updates: number;
   svgWidth: number;
+  /** The chart's own width (the `<svg>`'s width attribute: the width it was drawn for). */
+  drawnWidth: number;
+  /** The width the page gives the chart (its container's). */
+  roomWidth: number;
 }
 
 /** The chart webview's content, from whichever frame holds it (null while none does). */
@@ -53,7 +57,8 @@ async function chartView(page: unknown): Promise<ChartView | null> {
     const v = (await f
       .evaluate(
         `(() => { const m = document.getElementById('dewmark-chart'); const svg = m && m.querySelector('svg'); if (!svg) return null;
-          return { text: m.textContent || '', updates: Number(m.getAttribute('data-updates') || '0'), svgWidth: svg.getBoundingClientRect().width }; })()`,
+          return { text: m.textContent || '', updates: Number(m.getAttribute('data-updates') || '0'), svgWidth: svg.getBoundingClientRect().width,
+            drawnWidth: Number(svg.getAttribute('width')), roomWidth: m.clientWidth }; })()`,
       )
       .catch(() => null)) as ChartView | null;
     if (v) return v;
@@ -281,6 +286,26 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     });
     expect(updated.updates).toBeGreaterThan(first.updates);
     await wb.screenshot('chart-updated');
+  }, 90_000);
+
+  it('draws the chart again at its panel width when the window is resized', async () => {
+    const wb = session.workbench;
+    const drawnFor = async (what: string) =>
+      wb.waitFor(what, async () => {
+        const v = await chartView(wb.page);
+        // Drawn for the room it has (within the page's 8 px step), never scaled down from a wider drawing.
+        return v && v.roomWidth >= 480 && Math.abs(v.drawnWidth - v.roomWidth) <= 8 && v.svgWidth <= v.roomWidth + 1
+          ? v
+          : undefined;
+      });
+    await wb.page.setViewportSize({ width: 1800, height: 1000 });
+    const wide = await drawnFor('the chart drawn for a wide panel');
+    await wb.screenshot('chart-wide');
+    await wb.page.setViewportSize({ width: 1280, height: 800 });
+    const narrow = await drawnFor('the chart drawn again for the narrower panel');
+    await wb.screenshot('chart-narrow');
+    expect(narrow.drawnWidth).toBeLessThan(wide.drawnWidth - 100);
+    expect(narrow.updates).toBeGreaterThan(wide.updates);
   }, 90_000);
 
   it("checks every note of the workspace with progress, and lists the closed note's problems", async () => {

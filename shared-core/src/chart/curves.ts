@@ -411,7 +411,18 @@ export function roomLine(
     const ws = s ? satW(s.db, pressurePa) : null;
     return s && ws !== null ? s.w - ws : null;
   };
-  const fSat = bisect(aboveSaturation, 1, fEnd);
-  if (fSat !== null) fEnd = fSat;
+  // The first crossing past the supply (the line can leave the fog region again towards very
+  // cold, dry air): scan in steps, then bisect the first step whose ends differ in sign.
+  const STEPS = 64;
+  let prev = 1;
+  for (let k = 1; k <= STEPS; k++) {
+    const f = 1 + ((fEnd - 1) * k) / STEPS;
+    const g = aboveSaturation(f);
+    if (g !== null && g >= 0) {
+      fEnd = bisect(aboveSaturation, prev, f) ?? f;
+      break;
+    }
+    prev = f;
+  }
   return sampleCurve(layout, at, 0, fEnd, 16);
 }

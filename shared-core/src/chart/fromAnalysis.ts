@@ -284,7 +284,7 @@ export interface CaseChart extends SizedChart {
 
 /**
  * The charts of a note, one per case of the grouping (see {@link chartCases}): each titled
- * `TITLE — case title` and with its own id prefix (`PREFIX-1`, `PREFIX-2`…, so they can share a
+ * `TITLE — case title` (just TITLE when there is one chart) and with its own id prefix (`PREFIX-1`, `PREFIX-2`…, so they can share a
  * page). A note with nothing to draw gives one chart of the whole note (empty but for its curves).
  */
 export function renderChartCases(
@@ -299,7 +299,9 @@ export function renderChartCases(
     return [{ case: all, ...renderSizedChart(chartDataFromAnalysis(analysis, options), options) }];
   }
   return cases.map((c, i) => {
-    const title = options.title ? (grouping === 'all' ? options.title : `${options.title} \u2014 ${c.title}`) : c.title;
+    // One chart for the whole note keeps the plain title.
+    const whole = grouping === 'all' || cases.length === 1;
+    const title = options.title ? (whole ? options.title : `${options.title} \u2014 ${c.title}`) : c.title;
     const opts = {
       ...options,
       title,

@@ -93,7 +93,7 @@ export function chartCss(): string {
     `.dmc .dmc-arrow-flag{fill:${v('flag')}}`,
     `.dmc .dmc-process-name{font-size:10.5px;font-style:italic;fill:${v('process')};paint-order:stroke;stroke:${v('panel')};stroke-width:3px}`,
     `.dmc .dmc-marker{stroke:${v('tag')};stroke-width:1.6}`,
-    `.dmc .dmc-marker-state{fill:${v('state')}}`,
+    `.dmc .dmc-marker-state,.dmc .dmc-marker-supply{fill:${v('state')}}`,
     `.dmc .dmc-marker-mix{fill:${v('mix')}}`,
     `.dmc .dmc-marker-fog{fill:${v('panel')};stroke:${v('flag')};stroke-width:2;stroke-dasharray:2 1.5}`,
     `.dmc .dmc-fogcross{stroke:${v('flag')};stroke-width:1.6}`,

@@ -84,6 +84,8 @@ export interface PwPage {
   evaluate(expression: string): Promise<unknown>;
   addInitScript(script: { content: string }): Promise<void>;
   screenshot(options: { path: string; fullPage?: boolean }): Promise<unknown>;
+  /** Resizes the browser window's page (the workbench lays itself out again). */
+  setViewportSize(size: { width: number; height: number }): Promise<void>;
   on(event: 'console', listener: (m: PwConsoleMessage) => void): unknown;
   on(event: 'pageerror', listener: (e: Error) => void): unknown;
   keyboard: PwKeyboard;
