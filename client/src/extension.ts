@@ -273,6 +273,12 @@ async function switchUnits(ctl: ServerController, refreshStatus: () => void): Pr
     edit.replace(doc.uri, new vscode.Range(r.start.line, r.start.character, r.end.line, r.end.character), other);
     if (!(await vscode.workspace.applyEdit(edit)))
       void vscode.window.showErrorMessage(`Dewmark: could not edit the note's units: line (is the file read-only?).`);
+  } else if (status.unitsFile) {
+    // The project file wins over the setting: changing dewmark.units would change nothing.
+    void vscode.window.showInformationMessage(
+      `Dewmark: this note's result units are set by ${status.unitsFile}; change "units" there to "${other}".`,
+    );
+    return;
   } else {
     const cfg = vscode.workspace.getConfiguration(SETTINGS_SECTION, doc.uri);
     const where = cfg.inspect('units');

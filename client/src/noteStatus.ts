@@ -55,13 +55,20 @@ export function statusFromSettings(s: StatusSettings): NoteStatusResult {
 /** The status-bar text and tooltip for a note status. */
 export function statusView(status: NoteStatusResult, fromServer: boolean): StatusView {
   const other = status.units === 'SI' ? 'IP' : 'SI';
-  const unitsWhy = status.unitsSource === 'note' ? "set by the note's units: line" : 'from the setting dewmark.units';
+  const unitsWhy =
+    status.unitsSource === 'note'
+      ? "set by the note's units: line"
+      : status.unitsFile
+        ? `set by ${status.unitsFile}`
+        : 'from the setting dewmark.units';
   const lines = [
     `Dewmark: results in ${status.units} (${unitsWhy}).`,
     status.pressureDescribe,
     status.unitsSource === 'note'
       ? `Click to switch to ${other} (rewrites the note's units: line).`
-      : `Click to switch to ${other} (changes the setting dewmark.units).`,
+      : status.unitsFile
+        ? `To switch to ${other}, change "units" in ${status.unitsFile} (it wins over the setting dewmark.units).`
+        : `Click to switch to ${other} (changes the setting dewmark.units).`,
   ];
   if (!fromServer)
     lines.push(

@@ -59,8 +59,13 @@ export interface WirePosition {
 /** Result of {@link NOTE_STATUS_METHOD} (null for a document that is not open). */
 export interface NoteStatusResult {
   units: 'SI' | 'IP';
-  /** `note` when a `units:` line sets it, `setting` when dewmark.units does. */
+  /** `note` when a `units:` line sets it, `setting` when dewmark.units (or a project file) does. */
   unitsSource: 'note' | 'setting';
+  /**
+   * With `setting`: the project file `dewmark.json` that sets the units (its path relative to the
+   * workspace folder), when one does — the editor setting dewmark.units then does not apply.
+   */
+  unitsFile?: string;
   /** The range of the `SI`/`IP` word of the note's `units:` line, when it has one. */
   unitsValueRange: { start: WirePosition; end: WirePosition } | null;
   /** Short label of the pressure basis ("101.325 kPa", "site 83.4 kPa"). */

@@ -13,13 +13,15 @@ export function registerNoteStatus(ctx: ServerContext): void {
       const found = await noteForRequest(ctx, params.textDocument.uri, token);
       if (!found) return null;
       const s = noteStatus(found.note);
-      return {
+      const result: NoteStatusResult = {
         units: s.units,
         unitsSource: s.unitsSource,
         unitsValueRange: s.unitsSpan ? toRange(found.doc, s.unitsSpan) : null,
         pressureLabel: s.pressureLabel,
         pressureDescribe: s.pressureDescribe,
       };
+      if (s.unitsFile) result.unitsFile = s.unitsFile;
+      return result;
     }),
   );
 }

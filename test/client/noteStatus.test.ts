@@ -45,4 +45,21 @@ describe('note status', () => {
     expect(fromNote.tooltip).toContain("rewrites the note's units: line");
     expect(fromNote.tooltip).not.toContain('did not report');
   });
+
+  it('names the project file that sets the units, and says to change it there (a click cannot)', () => {
+    const fromFile = statusView(
+      {
+        units: 'IP',
+        unitsSource: 'setting',
+        unitsFile: 'calcs/dewmark.json',
+        unitsValueRange: null,
+        pressureLabel: '101.325 kPa',
+        pressureDescribe: 'Default.',
+      },
+      true,
+    );
+    expect(fromFile.tooltip).toContain('Dewmark: results in IP (set by calcs/dewmark.json).');
+    expect(fromFile.tooltip).toContain('change "units" in calcs/dewmark.json');
+    expect(fromFile.tooltip).not.toContain('changes the setting dewmark.units');
+  });
 });

@@ -97,6 +97,17 @@ describe('dewmark.json in the language server', () => {
       expect(atRoof).toContain('calcs/roof/dewmark.json: elevation 1600 m (standard atmosphere)');
       expect(atRoof).toContain('Claims: not checked (checkClaims is false in calcs/roof/dewmark.json).');
       expect(atRoof).not.toContain('setting dewmark.');
+      // The status bar's request names the file that sets the units, and only when one does.
+      writeFileSync(join(dir, 'dewmark.json'), JSON.stringify({ pressure: '84 kPa', units: 'IP' }));
+      await s.connection.sendNotification('workspace/didChangeWatchedFiles', {
+        changes: [{ uri: pathToFileURL(join(dir, 'dewmark.json')).href, type: 2 }],
+      });
+      const status = await s.request<{ units: string; unitsSource: string; unitsFile?: string }>('dewmark/noteStatus', {
+        textDocument: { uri: room },
+      });
+      expect(status).toMatchObject({ units: 'IP', unitsSource: 'setting', unitsFile: 'dewmark.json' });
+      const roofStatus = await s.request<{ unitsFile?: string }>('dewmark/noteStatus', { textDocument: { uri: roof } });
+      expect(roofStatus.unitsFile).toBeUndefined();
     } finally {
       await s.shutdown();
     }

@@ -12,6 +12,8 @@ import type { Note } from './types';
 export interface NoteStatus {
   units: 'SI' | 'IP';
   unitsSource: 'note' | 'setting';
+  /** The project file that sets the units (as `ServiceSettings.sources` names it), when no `units:` line does. */
+  unitsFile?: string;
   /** The `SI`/`IP` word of the `units:` line that sets the note's units (its first valid one), when it has one. */
   unitsSpan: Span | null;
   /** A short label: "101.325 kPa", "site 83.4 kPa". */
@@ -41,5 +43,8 @@ export function noteStatus(note: Note): NoteStatus {
     pressureLabel = show(note, e.pressurePa, 'pressure', a.units);
     pressureDescribe = `Statements without a site: line use ${pressureLabel} (${e.pressureOrigin}).`;
   }
-  return { units: a.units, unitsSource: a.unitsSource, unitsSpan, pressureLabel, pressureDescribe };
+  const status: NoteStatus = { units: a.units, unitsSource: a.unitsSource, unitsSpan, pressureLabel, pressureDescribe };
+  const unitsFile = note.settings.sources?.units;
+  if (a.unitsSource === 'setting' && unitsFile) status.unitsFile = unitsFile;
+  return status;
 }
