@@ -11,6 +11,7 @@
  * Paper sizes: ISO 216 (A4 210 × 297 mm) and ANSI/ASME Y14.1 (Letter 8.5 × 11 in); 1 in = 25.4 mm
  * = 72 pt = 96 CSS px (CSS Values and Units Level 3, absolute lengths).
  */
+import { execFileSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -163,10 +164,32 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('the report in print
     expect(EXAMPLES.length).toBeGreaterThanOrEqual(2);
   });
 
-  const cases = [...EXAMPLES, 'wide.md'].flatMap((note) => (['a4', 'letter'] as const).map((page) => ({ note, page })));
+  const cases = [...EXAMPLES, 'wide.md', 'since'].flatMap((note) =>
+    (['a4', 'letter'] as const).map((page) => ({ note, page })),
+  );
   it.each(cases)('$note on $page: nothing reaches past the page box or is clipped', async ({ note, page }) => {
     const html = `${note.replace(/\.md$/, '')}-${page}.html`;
-    const r = await dewmark(['report', note, '--page', page, '-o', html], dir);
+    // 'since': the first example with a "Changes since HEAD" section (a scratch repository, the
+    // first statement's dry-bulb raised by one kelvin in the working tree).
+    const args = note === 'since' ? [EXAMPLES[0]!, '--since', 'HEAD'] : [note];
+    if (note === 'since' && page === 'a4') {
+      const g = (a: string[]) =>
+        execFileSync('git', ['-c', 'user.name=Dewmark Test', '-c', 'user.email=test@example.invalid', ...a], {
+          cwd: dir,
+        });
+      g(['init', '-q', '-b', 'main']);
+      g(['add', EXAMPLES[0]!]);
+      g(['commit', '-q', '-m', 'example']);
+      const text = readFileSync(join(dir, EXAMPLES[0]!), 'utf8');
+      const raised = text.replace(
+        /(state \w+: db=)(\d+)C/,
+        (_m, head: string, db: string) => `${head}${Number(db) + 1}C`,
+      );
+      expect(raised).not.toBe(text);
+      writeFileSync(join(dir, EXAMPLES[0]!), raised);
+    }
+    const r = await dewmark(['report', ...args, '--page', page, '-o', html], dir);
+    if (note === 'since') expect(readFileSync(join(dir, html), 'utf8')).toContain('<table id="changes"');
     expect(r.code, r.err).toBeLessThanOrEqual(1);
     const width = contentWidthPx(page);
     const ctx = await browser!.newContext({ viewport: { width: Math.floor(width), height: 1100 } });

@@ -224,7 +224,7 @@ export function compareNotes(oldText: string, oldA: Analysis, newText: string, n
 // ---------------------------------------------------------------------------------------------
 
 /** A git command that failed: the message says what and how to fix it. */
-class GitProblem extends Error {}
+export class GitProblem extends Error {}
 
 /** Runs git with an argument array (no shell) in `cwd`; resolves to stdout as bytes. */
 function git(args: string[], cwd: string, maxBuffer = 64 * 1024 * 1024): Promise<Buffer> {
@@ -262,7 +262,7 @@ async function topLevel(cwd: string): Promise<string> {
   } catch (err) {
     if (err instanceof GitProblem && /git was not found/.test(err.message)) throw err;
     throw new GitProblem(
-      `'${cwd}' is not inside a git repository; run dewmark diff in a clone of the notes' repository (git init, or cd into one)`,
+      `'${cwd}' is not inside a git repository; old versions of notes are read with git, so run dewmark diff (or report --since) in a clone of the notes' repository (git init, or cd into one)`,
     );
   }
 }
@@ -303,6 +303,64 @@ function repoPath(top: string, abs: string): string | null {
   const rel = relative(top, real);
   if (rel === '' || rel.startsWith('..') || isAbsolute(rel)) return null;
   return rel.split(sep).join('/');
+}
+
+/** The text of repository path `rp` at `commit`, or why it could not be read (`display`, `rev` name it). */
+async function textAt(
+  commit: string,
+  rp: string,
+  top: string,
+  display: string,
+  rev: string,
+  maxBytes: number,
+): Promise<{ ok: true; text: string } | { ok: false; message: string }> {
+  let bytes: Buffer;
+  try {
+    bytes = await git(['show', `${commit}:${rp}`], top, maxBytes + 1);
+  } catch (err) {
+    const tooLarge = err instanceof Error && /maxBuffer/i.test(err.message);
+    return {
+      ok: false,
+      message: tooLarge
+        ? `'${display}' at ${rev} is larger than --max-note-size (${(maxBytes / 1048576).toFixed(0)} MB); raise --max-note-size to compare it`
+        : `'${display}' could not be read at ${rev}: ${err instanceof Error ? err.message : String(err)}`,
+    };
+  }
+  const old = decodeText(bytes, `${display} at ${rev}`, maxBytes);
+  return old.ok ? { ok: true, text: old.text } : { ok: false, message: old.message };
+}
+
+/** One note at a revision (`dewmark report --since`): its commit, and its text then (null: not there). */
+export interface NoteThen {
+  revision: string;
+  commit: string;
+  text: string | null;
+}
+
+/**
+ * The note at `abs` as it was at `rev`, read as `dewmark diff` reads it (one home for both): a
+ * {@link GitProblem} outside a repository, for an unknown revision, a note outside the repository,
+ * or a version that cannot be read.
+ */
+export async function noteAtRevision(
+  rev: string,
+  abs: string,
+  display: string,
+  cwd: string,
+  maxBytes: number,
+): Promise<NoteThen> {
+  const top = realpathSync(await topLevel(cwd));
+  const commit = await resolveRevision(rev, cwd);
+  const rp = repoPath(top, abs);
+  if (rp === null)
+    throw new GitProblem(
+      `'${display}' is outside the git repository at '${top}'; only files of the repository have an old version`,
+    );
+  const listed = await git(['ls-tree', '--full-name', '--name-only', '-z', commit, '--', rp], top);
+  if (!listed.toString('utf8').split('\0').includes(rp)) return { revision: rev, commit, text: null };
+  const old = await textAt(commit, rp, top, display, rev, maxBytes);
+  if (!old.ok) throw new GitProblem(old.message);
+  return { revision: rev, commit, text: old.text };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -377,19 +435,7 @@ async function diffNotes(
       problems.push(read.message);
       continue;
     }
-    let oldBytes: Buffer;
-    try {
-      oldBytes = await git(['show', `${commit}:${rp}`], top, maxBytes + 1);
-    } catch (err) {
-      const tooLarge = err instanceof Error && /maxBuffer/i.test(err.message);
-      problems.push(
-        tooLarge
-          ? `'${f.display}' at ${rev} is larger than --max-note-size (${(maxBytes / 1048576).toFixed(0)} MB); raise --max-note-size to compare it`
-          : `'${f.display}' could not be read at ${rev}: ${err instanceof Error ? err.message : String(err)}`,
-      );
-      continue;
-    }
-    const old = decodeText(oldBytes, `${f.display} at ${rev}`, maxBytes);
+    const old = await textAt(commit, rp, top, f.display, rev, maxBytes);
     if (!old.ok) {
       problems.push(old.message);
       continue;

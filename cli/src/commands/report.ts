@@ -19,8 +19,10 @@ import type { CliIO } from '../run';
 import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, wroteLine, type WriteOptions } from './outputFile';
 import { safeText } from '../sanitize';
 import { resolveImage } from './reportImages';
+import { GitProblem, compareNotes, noteAtRevision, type ClaimChange, type ItemChange } from './diff';
+import { analyzeNote } from '../core';
+import { UsageError, maxNoteBytes, toSettings } from '../settings';
 import { BROWSER_NAMES, CHROMIUM_ENV, findChromium, printPdf } from './reportPdf';
-import { UsageError } from '../settings';
 
 /** Escapes text for HTML content and attribute values. */
 export function escapeHtml(s: string): string {
@@ -46,6 +48,15 @@ export interface ReportOptions {
   image?: (src: string) => ImageAnswer;
   /** The paper the print stylesheet sets (`@page size`); default: the printer's. */
   page?: PageSize;
+  /** What changed since a revision (`--since`), as `dewmark diff` computes it. */
+  changes?: ReportChanges;
+}
+
+/** The "changes since" of a report: the revision, and the statements with changes (null: the note is new). */
+export interface ReportChanges {
+  revision: string;
+  commit: string;
+  items: ItemChange[] | null;
 }
 
 /** Paper sizes of the print stylesheet. */
@@ -269,6 +280,47 @@ function signoffSection(fm: FrontMatter | null): string {
 
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 
+function claimVerdict(side: ClaimChange['old']): string {
+  return side === null ? 'absent' : `${side.pass ? '✓' : '✗'} ${side.computed}`;
+}
+
+function claimChangeText(c: ClaimChange): string {
+  const same = c.old !== null && c.new !== null && c.old.pass === c.new.pass && c.old.computed === c.new.computed;
+  return `${c.written} (line ${c.line}): ${same ? `still ${claimVerdict(c.new)}` : `${claimVerdict(c.old)} → ${claimVerdict(c.new)}`}`;
+}
+
+/** The "changes since REV" section: each figure `dewmark diff` lists, old → new, with its claims. */
+function changesSection(ch: ReportChanges): string {
+  const rev = escapeHtml(ch.revision);
+  const at = `${rev} (commit <code>${escapeHtml(ch.commit.slice(0, 12))}</code>)`;
+  if (ch.items === null)
+    return `<p id="changes-summary">The note is not in ${at}: it was added since, so every figure is new.</p>`;
+  if (ch.items.length === 0)
+    return `<p id="changes-summary">Compared with ${at}: no computed figure or claim changed.</p>`;
+  const figures = ch.items.reduce((n, it) => n + it.figures.length, 0);
+  const count = (status: ItemChange['status']) => ch.items!.filter((i) => i.status === status).length;
+  const rows: string[] = [];
+  for (const it of ch.items) {
+    const who = `${it.kind} <span class="name">${escapeHtml(it.name)}</span> <span class="dm-line">line ${it.line}</span>`;
+    if (it.status !== 'changed') {
+      rows.push(
+        `<tr><td>${who}</td><td colspan="4">${it.status === 'added' ? 'added' : 'removed'} since ${rev}</td></tr>`,
+      );
+      continue;
+    }
+    for (const f of it.figures)
+      rows.push(
+        `<tr><td>${who}</td><td><code>${escapeHtml(f.key)}</code></td><td class="num">${escapeHtml(f.old)}</td><td class="num">${escapeHtml(f.new)}</td><td>${f.claims.map((c) => escapeHtml(claimChangeText(c))).join('<br>')}</td></tr>`,
+      );
+    if (it.claims.length > 0)
+      rows.push(
+        `<tr><td>${who}</td><td>—</td><td></td><td></td><td>${it.claims.map((c) => escapeHtml(claimChangeText(c))).join('<br>')}</td></tr>`,
+      );
+  }
+  const summary = `Compared with ${at}: ${plural(count('changed'), 'statement', 'statements')} changed (${plural(figures, 'figure', 'figures')}), ${count('added')} added, ${count('removed')} removed. Figures are compared as displayed, as <code>dewmark diff</code> compares them.`;
+  return `<p id="changes-summary">${summary}</p><table id="changes" class="dm-table"><thead><tr><th scope="col">statement</th><th scope="col">figure</th><th scope="col" class="num">at ${rev}</th><th scope="col" class="num">now</th><th scope="col">claims on it (as written: verdict then → now)</th></tr></thead><tbody>${rows.join('')}</tbody></table>`;
+}
+
 /** The whole report as one HTML document (no scripts, no external resources). */
 export function renderReportHtml(input: ReportInput, opts: ReportOptions = {}): string {
   const { analysis: a, text, path } = input;
@@ -329,7 +381,7 @@ ${frontMatterRows(body.frontMatter)}
 <section aria-labelledby="h-signoff"><h2 class="part" id="h-signoff">Revision and sign-off</h2>
 ${signoffSection(body.frontMatter)}
 </section>
-<section aria-labelledby="h-note"><h2 class="part" id="h-note">The note, with its computed results</h2>
+${opts.changes ? `<section aria-labelledby="h-changes"><h2 class="part" id="h-changes">Changes since ${escapeHtml(opts.changes.revision)}</h2>\n${changesSection(opts.changes)}\n</section>\n` : ''}<section aria-labelledby="h-note"><h2 class="part" id="h-note">The note, with its computed results</h2>
 <p class="small">Each air block is followed by what it computes; each statement written in the text is followed by its figures in brackets. A claim reads <em>as written → computed</em>, ✓ within its band or ✗ outside it.</p>
 <article class="note-body" id="note">
 ${body.html}
@@ -361,6 +413,7 @@ ${METHOD}
 
 /** Options of `dewmark report`. */
 export interface ReportCommandOptions extends WriteOptions {
+  since?: string;
   pdf?: boolean;
   page?: string;
   chromium?: string;
@@ -389,9 +442,29 @@ export async function runReport(
     }
     chromium = found.path;
   }
+  let changes: ReportChanges | undefined;
+  if (opts.since !== undefined) {
+    if (note.abs === null)
+      throw new UsageError(
+        '--since compares the note with its version at a git revision, and standard input has none; give the note by its path',
+      );
+    try {
+      const then = await noteAtRevision(opts.since, note.abs, note.path, io.cwd, maxNoteBytes(opts));
+      const items =
+        then.text === null
+          ? null
+          : compareNotes(then.text, analyzeNote(then.text, toSettings(opts)), note.text, note.analysis);
+      changes = { revision: then.revision, commit: then.commit, items };
+    } catch (err) {
+      if (!(err instanceof GitProblem)) throw err;
+      io.err(`dewmark: ${safeText(err.message)}\n`);
+      return 2;
+    }
+  }
   const missing: string[] = [];
   const html = renderReportHtml(note, {
     version,
+    changes,
     // A PDF needs a paper size; A4 unless --page says otherwise.
     page: (page as PageSize | undefined) ?? (opts.pdf ? 'a4' : undefined),
     image: (src) => {
@@ -438,6 +511,10 @@ export function registerReport(
       .option(
         '-o, --output <file>',
         'the HTML (or, with --pdf, PDF) file to write (never a .md file, never the note itself)',
+      )
+      .option(
+        '--since <rev>',
+        'add a section of the figures that changed since a git revision (as dewmark diff REV lists them)',
       )
       .option('--page <size>', "paper for print: a4 or letter (default: the printer's; a4 with --pdf)")
       .option('--pdf', 'write a PDF, printed by a headless Chromium or Chrome that is installed')
