@@ -198,6 +198,15 @@ describe('the report renders the whole note', () => {
     expect(plain).toContain('<tr><td>prepared by</td><td></td><td></td><td></td></tr>');
   });
 
+  it('reads a leading rule followed by prose as a rule, not as front matter', async () => {
+    writeFileSync(join(dir, 'rule.md'), '---\nIntro under a rule.\n\n---\n\n# Boiler house\n');
+    expect((await dewmark(['report', 'rule.md', '-o', 'rule.html'], dir)).code).toBe(0);
+    const out = readFileSync(join(dir, 'rule.html'), 'utf8');
+    const note = /<article class="note-body" id="note">([\s\S]*?)<\/article>/.exec(out)![1]!;
+    expect(note.trim()).toBe('<hr>\n<p>Intro under a rule.</p>\n<hr>\n<h1>Boiler house</h1>');
+    expect(out).toContain('<caption>Revision ______</caption>');
+  });
+
   it('never loses a statement: one the text rendering could not place is shown with its results', async () => {
     // In a table cell `\|` is a pipe for the table parser and a backslash-pipe for the scanner.
     const text = '| a | b |\n|---|---|\n| `state T: db=20C rh=50% \\| x` | y |\n';

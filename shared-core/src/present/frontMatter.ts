@@ -2,8 +2,9 @@
  * A note's front matter: the block that many Markdown tools read as metadata — a first line `---`,
  * then `key: value` lines, closed by a line `---` or `...`. Only flat one-line `key: value` pairs
  * are read (keys of letters, digits, `_` and `-`; a value in matching quotes loses them); any
- * other line is kept as written in `other`, so nothing in it is lost. Without a closing line the
- * first `---` is an ordinary thematic break and there is no front matter. Pure; linear in the text.
+ * other line is kept as written in `other`, so nothing in it is lost. Without a closing line, or
+ * when the first line inside is not a `key:` line, the first `---` is an ordinary thematic break
+ * and there is no front matter. Pure; linear in the text.
  */
 
 /** The front matter of a note (see the module comment). */
@@ -28,6 +29,9 @@ function unquote(v: string): string {
 export function readFrontMatter(text: string): FrontMatter | null {
   const lines = text.replace(/^\uFEFF/, '').split(/\r\n?|\n/);
   if (lines[0]?.trimEnd() !== '---') return null;
+  // A rule followed by prose is not front matter: the first line inside must be a `key:` line.
+  const first = lines.slice(1).find((l) => l.trim() !== '');
+  if (first === undefined || !/^[A-Za-z][\w-]*[ \t]*:/.test(first)) return null;
   const fields: FrontMatter['fields'] = [];
   const other: string[] = [];
   for (let i = 1; i < lines.length; i++) {

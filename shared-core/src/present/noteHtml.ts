@@ -109,12 +109,13 @@ function spanKey(s: string): string {
 
 /** Inserts the results after air fences and statement code spans; notes the first heading's text. */
 function placeResults(tokens: RenderToken[], env: RenderEnv['dewmark'], Token: TokenCtor): void {
-  // Inline regions by key → their indices (ascending); a pointer keeps the document order.
-  const byKey = new Map<string, number[]>();
+  // Inline regions by key → their indices (ascending) and how far they are used; `next` keeps the
+  // document order. Each index is passed once, so placing is linear in the note.
+  const byKey = new Map<string, { list: number[]; at: number }>();
   env.inline.forEach((r, i) => {
-    const list = byKey.get(r.key);
-    if (list) list.push(i);
-    else byKey.set(r.key, [i]);
+    const entry = byKey.get(r.key);
+    if (entry) entry.list.push(i);
+    else byKey.set(r.key, { list: [i], at: 0 });
   });
   let next = 0;
   const placeInline = (children: RenderToken[]): void => {
@@ -122,11 +123,12 @@ function placeResults(tokens: RenderToken[], env: RenderEnv['dewmark'], Token: T
       const child = children[c]!;
       if (child.children) placeInline(child.children);
       if (child.type !== 'code_inline') continue;
-      const list = byKey.get(spanKey(child.content));
-      if (!list) continue;
-      while (list.length > 0 && list[0]! < next) list.shift();
-      const i = list.shift();
+      const entry = byKey.get(spanKey(child.content));
+      if (!entry) continue;
+      while (entry.at < entry.list.length && entry.list[entry.at]! < next) entry.at++;
+      const i = entry.list[entry.at];
       if (i === undefined) continue;
+      entry.at++;
       const region = env.inline[i]!;
       region.placed = true;
       next = i + 1;
