@@ -19,6 +19,7 @@ import { Diagnostics } from './diagnostics';
 import { NoteStore } from './documents';
 import { registerHover } from './hover';
 import { registerInlayHints } from './inlayHints';
+import { limitHeapSlack } from './heap';
 import { ShutdownGate } from './lifecycle';
 import { registerNavigation } from './navigation';
 import { registerNoteStatus } from './noteStatus';
@@ -74,6 +75,7 @@ export function main(argv: readonly string[]): void {
     return;
   }
 
+  limitHeapSlack();
   const gate = new ShutdownGate();
   const connection = createConnection(gate.options);
   gate.register(connection);
