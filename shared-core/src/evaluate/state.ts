@@ -274,9 +274,10 @@ function solveFirstPair(
 ): { a: ReadProp; b: ReadProp; state: MoistAirState } | null {
   // The span of each written key, for messages (built only when one is reported).
   let spanMap: Map<string, Span> | null = null;
-  const all = new Set<ReadProp>(candidates.flat());
+  // Every property of the candidates, once (made only for a message).
+  const all = (): ReadProp[] => [...new Set<ReadProp>(candidates.flat())];
   const spansByKey = (): Map<string, Span> =>
-    (spanMap ??= new Map<string, Span>([...all].map((p) => [p.key, p.prop.span])));
+    (spanMap ??= new Map<string, Span>(all().map((p) => [p.key, p.prop.span])));
   let lastDependent: { problem: PhysicsProblem; pair: ReadProp[] } | null = null;
   for (const [a, b] of candidates) {
     const input = pairInput(a.key as DefiningKey, a.q.si, b.key as DefiningKey, b.q.si);
@@ -323,7 +324,7 @@ function solveFirstPair(
   }
   if (lastDependent) {
     ctx.report(
-      problemDiagnostic(lastDependent.problem, ctx.units, 'error', spansByKey(), spanOf(spansByKey(), [...all]), what),
+      problemDiagnostic(lastDependent.problem, ctx.units, 'error', spansByKey(), spanOf(spansByKey(), all()), what),
     );
   }
   return null;

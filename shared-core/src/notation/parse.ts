@@ -798,7 +798,9 @@ class StatementParser {
       this.consume(t.end);
       this.report('syntax', `unexpected '${this.slice(t)}': expected key=value, e.g. db=24C`, t.start, t.end);
     }
-    return props;
+    // A list grown by push keeps room for 17 entries; the tree keeps an exact copy (a note's
+    // statements stay in memory while it is open, or until the command line's output is written).
+    return props.slice();
   }
 
   /** A value that is a plain word of letters (`ok` in `fog=ok`), consumed; null (nothing consumed) otherwise. */
