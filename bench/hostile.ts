@@ -129,8 +129,26 @@ function memoryPerByte(): void {
   }
 }
 
-/** Wall seconds of a whole process. */
+/**
+ * CPU seconds (user + system) of this process's finished children, from /proc (Linux; null
+ * elsewhere). On a busy machine a child's CPU time varies less than its wall time.
+ */
+function childrenCpu(): number | null {
+  try {
+    // Fields after the command name: cutime and cstime are the 14th and 15th, in clock ticks (100 per second).
+    const f = readFileSync('/proc/self/stat', 'utf8').split(') ')[1]!.split(' ');
+    return (Number(f[13]) + Number(f[14])) / 100;
+  } catch {
+    return null;
+  }
+}
+
+/** CPU seconds of each whole process run by {@link runProcess} (null where /proc is missing). */
+let lastCpu: number | null = null;
+
+/** Wall seconds of a whole process (its CPU seconds in {@link lastCpu}). */
 function runProcess(args: string[], input?: string): number {
+  const c0 = childrenCpu();
   const t = process.hrtime.bigint();
   const r = spawnSync(process.execPath, args, {
     encoding: 'utf8',
@@ -140,7 +158,10 @@ function runProcess(args: string[], input?: string): number {
     env: { ...process.env, DEWMARK_WORKERS: '0' },
   });
   if (r.status !== 0 && r.status !== 1) throw new Error(`${args.join(' ')} failed: ${r.stderr}`);
-  return Number(process.hrtime.bigint() - t) / 1e9;
+  const wall = Number(process.hrtime.bigint() - t) / 1e9;
+  const c1 = childrenCpu();
+  lastCpu = c0 !== null && c1 !== null ? c1 - c0 : null;
+  return wall;
 }
 
 function wholeJob(): void {
@@ -179,15 +200,27 @@ process.stdout.write(JSON.stringify({ states: out }, null, 2) + '\\n');
     );
     const ours: number[] = [];
     const theirs: number[] = [];
+    const oursCpu: number[] = [];
+    const theirsCpu: number[] = [];
     for (let r = 0; r < 3; r++) {
       ours.push(runProcess([cli, 'eval', '--format', 'json', note]));
+      if (lastCpu !== null) oursCpu.push(lastCpu);
       theirs.push(runProcess([peer]));
+      if (lastCpu !== null) theirsCpu.push(lastCpu);
     }
     const a = median(ours);
     const b = median(theirs);
     console.log(infoRow(`dewmark eval --format json, ${N} states (median of 3)`, a, 's', 2));
     console.log(infoRow('PsychroLib script, same states as JSON (median of 3)', b, 's', 2));
     console.log(goalRow('whole job, dewmark / PsychroLib', a / b, '×', 0.5, 2));
+    // The same in CPU seconds (user + system): steadier than wall time when other work shares the cores.
+    const ac = oursCpu.length === 3 ? median(oursCpu) : null;
+    const bc = theirsCpu.length === 3 ? median(theirsCpu) : null;
+    console.log(infoRow('  CPU seconds, dewmark (median of 3)', ac, 's', 2));
+    console.log(infoRow('  CPU seconds, PsychroLib script (median of 3)', bc, 's', 2));
+    console.log(
+      goalRow('  whole job in CPU time, dewmark / PsychroLib', ac !== null && bc ? ac / bc : null, '×', 0.5, 2),
+    );
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }

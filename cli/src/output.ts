@@ -251,8 +251,12 @@ export function evalFileJson(f: FileResult): Record<string, unknown> {
   };
 }
 
-/** Objects of an array stringified at once (small enough to stream, large enough to keep JSON.stringify's speed). */
-const JSON_BATCH = 256;
+/**
+ * Objects of an array stringified at once: enough to keep JSON.stringify's speed, few enough that
+ * the text (about 34 KB for 64 states) stays below V8's large-object size (128 KB), whose strings
+ * go straight to the old generation and wait there for a full collection.
+ */
+const JSON_BATCH = 64;
 
 /**
  * The elements of `values` as `JSON.stringify(array, null, 2)` prints them when the array's
