@@ -14,7 +14,10 @@
  *   little survives;
  * - `--heap-growing-percent=50`: the old generation is collected once it is 50 % above its live
  *   size after the last collection (instead of up to 4 ×), so each edit's dead analysis goes sooner.
- * The bench (`npm run bench -- hostile`) measures the result over stdio without Node options.
+ * The bench (`npm run bench -- hostile`) measures the result over stdio without Node options: 80–82
+ * MB after 10,000 edits of that note, where the same server without these settings had 98–103 MB
+ * (both runs side by side on a busy 2-core machine); the edits took about 1.5 × the CPU time
+ * (27 s against 18 s for the 10,000: more, smaller collections), a fraction of a millisecond each.
  */
 import { setFlagsFromString } from 'node:v8';
 
