@@ -206,4 +206,12 @@ describe('messages of an IP note speak IP', () => {
     expect(h?.markdown).toContain('12.228');
     expect(h?.markdown ?? '').not.toMatch(/kPa/);
   });
+  it('a figure at the top of the number range reads as a number, never Infinity', () => {
+    // 1.7976931348623157e308 m is the largest double; 4 significant figures round it up to
+    // 1.798e308, which is beyond the range of a double (found by the fuzz run, seed 20260701).
+    const a = analyzeNote('```air\nunits: IP\nsite: elev=1.7976931348623157e308m\n```\n');
+    const d = a.diagnostics.find((x) => x.code === 'out-of-range');
+    expect(d?.message).toMatch(/Elevation 1\.798e\+308 m is outside/);
+    expect(d?.message).not.toMatch(/Infinity/);
+  });
 });

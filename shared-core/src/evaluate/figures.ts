@@ -39,7 +39,11 @@ export function figureText(si: number, dimension: Dimension, system: UnitSystem,
     // the system's unit of scale 1 (kg/kg, lb/lb), in exponent form.
     const plain = unitsOf(dimension).find((u) => u.scale === 1 && u.system === system) ?? baseUnit(dimension);
     const n = fromSI(si, plain);
-    const text = Number.isFinite(n) ? String(Number(n.toPrecision(4))).replace('-', MINUS) : NO_VALUE;
+    // Four significant figures, trailing zeros dropped; rounding up at the top of the double range
+    // (1.7977e308 → "1.798e+308") would read back as Infinity, so that text is kept as it is.
+    const rounded = Number.isFinite(n) ? n.toPrecision(4) : undefined;
+    const shown = rounded !== undefined && Number.isFinite(Number(rounded)) ? String(Number(rounded)) : rounded;
+    const text = shown !== undefined ? shown.replace('-', MINUS) : NO_VALUE;
     return `${text} ${displaySymbol(plain)}`;
   }
   if (!opts.limit || !f.value.includes('.')) return f.text;
