@@ -58,6 +58,9 @@ export const fields = {
     'schema/',
   ],
   main: './dist/client.js',
+  // The web build (client/src/web.ts): where there is no Node extension host (the browser-based
+  // editor without a remote), the editor runs this, with the language server in a Web Worker.
+  browser: './dist/web/client.js',
   icon: 'images/icon.png',
   galleryBanner: { color: '#0b2f45', theme: 'dark' },
   preview: true,
@@ -73,6 +76,9 @@ export const fields = {
     'engineering',
     'calculation notes',
   ],
+  // Where a Node extension host is beside the workspace (desktop, remote, code-server) the Node
+  // build runs there, reading the notes' folders from disk; the browser-only editor adds the
+  // web kind itself for an extension with a `browser` entry (the manifest lists only ui/workspace).
   extensionKind: ['workspace'],
   activationEvents: ['onLanguage:markdown'],
   capabilities: {
@@ -80,7 +86,7 @@ export const fields = {
     virtualWorkspaces: {
       supported: 'limited',
       description:
-        'In a virtual workspace the open notes get every feature; Check All Notes in the Workspace reads local folders only, and the project file dewmark.json is read only beside local notes.',
+        'In a virtual workspace the open notes get hints, hovers, problems, fixes and the chart. Check All Notes in the Workspace reads folders on disk only, and is not offered in the browser-only editor (whose language server runs in a web worker, with no file system). The project file dewmark.json is read beside local notes; in the browser-only editor it is read through the editor for notes inside a workspace folder.',
     },
   },
   contributes: {
@@ -193,7 +199,7 @@ export const fields = {
     menus: {
       commandPalette: [
         { command: 'dewmark.switchUnits', when: 'editorLangId == markdown' },
-        { command: 'dewmark.checkWorkspace', when: 'workspaceFolderCount > 0' },
+        { command: 'dewmark.checkWorkspace', when: 'workspaceFolderCount > 0 && !dewmark.noWorkspaceCheck' },
         { command: 'dewmark.showChart', when: 'editorLangId == markdown' },
         { command: 'dewmark.toggleChartCases', when: 'dewmark.chartOpen' },
         { command: 'dewmark.insertResultsTable', when: 'editorLangId == markdown && !editorReadonly' },

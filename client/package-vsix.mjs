@@ -4,7 +4,7 @@
  * dewmark-<version>.vsix at the repository root, then prints its size and contents. The manifest
  * is the root package.json, which is also the npm package's: its `files` list is the npm
  * package's contents, and vsce refuses a `files` list beside a .vscodeignore. So the files that
- * client/vsix.vscodeignore lets in (the two editor bundles, the grammar, the icon, the documents)
+ * client/vsix.vscodeignore lets in (the editor bundles, Node and web, the grammar, the icon, the documents)
  * are copied into a staging folder with the manifest minus `files`, and vsce packs that folder
  * (no node_modules: `--no-dependencies`). Same manifest, same version as the npm package.
  *
@@ -52,7 +52,7 @@ if (!args.includes('--no-build')) {
   }
   run(process.execPath, [join(root, 'scripts', 'build.mjs')]);
 }
-for (const f of ['dist/client.js', 'dist/server.js']) {
+for (const f of ['dist/client.js', 'dist/server.js', 'dist/web/client.js', 'dist/web/server.js']) {
   if (!existsSync(join(root, f))) {
     console.error(`package: ${f} is missing after the build; the extension cannot run without it.`);
     process.exit(1);

@@ -1,11 +1,13 @@
 // Bundles the command-line tool, and the language server and VS Code client when their sources
-// exist, into single CommonJS files under dist/ that need no node_modules at run time, and writes
+// exist, into single CommonJS files under dist/ that need no node_modules at run time (and the web
+// build of the server and client, for the browser, under dist/web/), and writes
 // dist/THIRD-PARTY-NOTICES.md with the licence of every third-party package bundled into them.
 // Everything it says goes to stderr, so that `npm pack --json` (which runs it) prints only JSON.
 import { build } from 'esbuild';
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { thirdPartyNotices } from './notices.mjs';
+import { webOptions } from './web-build.mjs';
 import { fileURLToPath } from 'node:url';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
@@ -40,7 +42,18 @@ const targets = [
   // The editor bundles ship in the .vsix: whitespace and syntax minified, names kept so that a
   // stack trace in the server log still reads.
   { entry: 'server/src/main.ts', out: 'dist/server.js', required: false, minify: true },
-  { entry: 'client/src/extension.ts', out: 'dist/client.js', required: false, external: ['vscode'], minify: true },
+  { entry: 'client/src/node.ts', out: 'dist/client.js', required: false, external: ['vscode'], minify: true },
+  // The web build (the manifest's `browser` entry): the client for the browser-based editor's web
+  // worker extension host, and the server it runs in a Web Worker (a classic script).
+  { entry: 'server/src/browserMain.ts', out: 'dist/web/server.js', required: false, minify: true, web: 'iife' },
+  {
+    entry: 'client/src/web.ts',
+    out: 'dist/web/client.js',
+    required: false,
+    external: ['vscode'],
+    minify: true,
+    web: 'cjs',
+  },
 ];
 
 // During `npm install` (the prepare script) a failing build only warns, so that installing the
@@ -62,7 +75,7 @@ for (const t of targets) {
   try {
     const minify = t.minify ? { minifyWhitespace: true, minifySyntax: true } : {};
     const result = await build({
-      ...common,
+      ...(t.web ? webOptions({ root, version: pkg.version, format: t.web }) : common),
       ...minify,
       entryPoints: [entry],
       outfile: join(outdir, t.out.replace(/^dist\//, '')),

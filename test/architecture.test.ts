@@ -226,7 +226,7 @@ const DYNAMIC_CODE: [string, RegExp][] = [
 
 /** The bundles that ship (the .vsix and the CLI), built first when they are missing. */
 function bundles(): string[] {
-  const names = ['dist/cli.js', 'dist/server.js', 'dist/client.js'];
+  const names = ['dist/cli.js', 'dist/server.js', 'dist/client.js', 'dist/web/server.js', 'dist/web/client.js'];
   if (!names.every((n) => existsSync(join(root, n)))) {
     const b = spawnSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, encoding: 'utf8' });
     if (b.status !== 0) throw new Error(`build failed: ${b.stderr}`);

@@ -8,8 +8,6 @@
  * core's `chartWebviewHtml` (Content Security Policy `default-src 'none'`, nonce'd style and
  * script, VS Code theme colours). Nothing is loaded from disk or network.
  */
-import { randomBytes } from 'node:crypto';
-import { basename } from 'node:path';
 import * as vscode from 'vscode';
 import {
   caseAt,
@@ -26,6 +24,17 @@ import { analyzeText, readSettings } from '@dewmark/core/service';
 import { HOST_MAX_NOTE_KB, hostBounded } from './hostLimit';
 import { SETTINGS_SECTION } from '@dewmark/protocol';
 import { COMMANDS } from './commands';
+
+/** The last segment of a URI path (the file name). No Node module: the browser build runs this too. */
+function basename(path: string): string {
+  return path.slice(path.lastIndexOf('/') + 1);
+}
+
+/** A random nonce, base64 (the Web Crypto API: a global in Node ≥ 19 and in browsers). */
+function randomNonce(): string {
+  const bytes = crypto.getRandomValues(new Uint8Array(18));
+  return btoa(String.fromCharCode(...bytes));
+}
 
 /** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */
 const SETTING_KEYS = [
@@ -104,7 +113,7 @@ const TOGGLE_HINT = `Run \u201cDewmark: ${COMMANDS.toggleChartCases.title}\u201d
 
 /** One open chart panel, following one document and the section at its cursor. */
 class ChartPanel {
-  private readonly nonce = randomBytes(18).toString('base64');
+  private readonly nonce = randomNonce();
   private timer: ReturnType<typeof setTimeout> | undefined;
   private readonly subscriptions: vscode.Disposable[] = [];
   /** Show every state rather than the section at the cursor. */

@@ -1,27 +1,27 @@
 /**
- * The Dewmark VS Code extension: a thin client. It starts the bundled language server
- * (dist/server.js) over node IPC, restarts it if it dies, and adds the commands and the
- * status-bar item and the chart panel. Hovers, hints, diagnostics, fixes and the results-table
- * edits come from the server; the chart (client/src/chart.ts) and the Markdown preview's results
- * (client/src/preview.ts, through `extendMarkdownIt`) are drawn by the pure core in the extension host.
+ * The Dewmark VS Code extension: a thin client. It starts the bundled language server, restarts
+ * it if it dies, and adds the commands and the status-bar item and the chart panel. Hovers,
+ * hints, diagnostics, fixes and the results-table edits come from the server; the chart
+ * (client/src/chart.ts) and the Markdown preview's results (client/src/preview.ts, through
+ * `extendMarkdownIt`) are drawn by the pure core in the extension host.
+ *
+ * This file is shared by the extension's two builds, so it uses no Node module: how the server is
+ * started is a {@link ServerLauncher}'s — ./node.ts (the `main` entry, dist/client.js: the Node
+ * server dist/server.js over node IPC) or ./web.ts (the `browser` entry, dist/web/client.js: the
+ * web build dist/web/server.js in a Web Worker).
  */
-import { existsSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
 import * as vscode from 'vscode';
 import {
   CloseAction,
   ErrorAction,
-  LanguageClient,
   State,
-  TransportKind,
   WorkDoneProgress,
+  type BaseLanguageClient,
   type LanguageClientOptions,
-  type ServerOptions,
-} from 'vscode-languageclient/node';
+} from 'vscode-languageclient';
 import {
   CHECK_WORKSPACE_METHOD,
   RESULTS_TABLE_COMMAND,
-  SERVER_EXEC_ARGV,
   SETTINGS_SECTION,
   type CheckWorkspaceParams,
   type CheckWorkspaceResult,
@@ -30,7 +30,7 @@ import {
 } from '@dewmark/protocol';
 import { readSettings, type ServiceSettings } from '@dewmark/core/service';
 import type { ChartPanels } from './chart';
-import { COMMANDS, OUTPUT_CHANNEL } from './commands';
+import { COMMANDS, NO_WORKSPACE_CHECK_CONTEXT, OUTPUT_CHANNEL } from './commands';
 import {
   advertisedNoteStatus,
   statusFromSettings,
@@ -46,6 +46,18 @@ const loadedAt = performance.now();
 
 /** URI schemes whose Markdown documents the server reads (local, unsaved and virtual files). */
 export const DOCUMENT_SCHEMES = ['file', 'untitled', 'vscode-vfs'] as const;
+
+/** How one build of the extension starts its language server. */
+export interface ServerLauncher {
+  /** Why the server cannot be started (its bundle is missing…), or null when it can. */
+  problem(): string | null;
+  /** The URI schemes of the Markdown documents the server is given. */
+  schemes: readonly string[];
+  /** A client (not started) for the server, with the shared client options. */
+  createClient(id: string, name: string, options: LanguageClientOptions): BaseLanguageClient;
+  /** Records activation timings for tests and benchmarks, where the build can. */
+  marker?(data: Record<string, number | string>): void;
+}
 
 /** What `activate` returns: lets tests and other extensions wait for the server, and extends the Markdown preview. */
 export interface DewmarkApi {
@@ -92,27 +104,15 @@ function extendPreview<T extends object>(md: T, output: vscode.LogOutputChannel)
   });
 }
 
-/** Env var naming a file where the extension writes its activation timings (tests and benchmarks). */
-export const ACTIVATION_MARKER_ENV = 'DEWMARK_ACTIVATION_MARKER';
-
 /** The language server's client, restarted on crashes within the limits of a {@link RestartPolicy}. */
 class ServerController {
-  readonly client: LanguageClient;
+  readonly client: BaseLanguageClient;
   private readonly policy = new RestartPolicy();
   private starting: Promise<void>;
 
-  constructor(serverModule: string, output: vscode.LogOutputChannel) {
-    // The Node options bound the server's heap slack (@dewmark/protocol, nodeOptions.ts, says why).
-    const serverOptions: ServerOptions = {
-      run: { module: serverModule, transport: TransportKind.ipc, options: { execArgv: [...SERVER_EXEC_ARGV] } },
-      debug: {
-        module: serverModule,
-        transport: TransportKind.ipc,
-        options: { execArgv: [...SERVER_EXEC_ARGV, '--nolazy', '--inspect=6019'] },
-      },
-    };
+  constructor(launcher: ServerLauncher, output: vscode.LogOutputChannel) {
     const clientOptions: LanguageClientOptions = {
-      documentSelector: DOCUMENT_SCHEMES.map((scheme) => ({ language: 'markdown', scheme })),
+      documentSelector: launcher.schemes.map((scheme) => ({ language: 'markdown', scheme })),
       outputChannel: output,
       markdown: { isTrusted: false, supportHtml: false },
       errorHandler: {
@@ -147,7 +147,7 @@ class ServerController {
       },
     };
     // The id makes VS Code's client read the `dewmark.trace.server` setting.
-    this.client = new LanguageClient(SETTINGS_SECTION, 'Dewmark', serverOptions, clientOptions);
+    this.client = launcher.createClient(SETTINGS_SECTION, 'Dewmark', clientOptions);
     this.starting = this.client.start();
   }
 
@@ -160,17 +160,24 @@ class ServerController {
   /** Restarts the server by request of the user (forgets earlier crashes). */
   async restart(): Promise<void> {
     this.policy.reset();
-    if (this.client.state === State.Running) await this.client.restart();
-    else {
-      this.starting = this.client.start();
-      await this.starting;
-    }
+    // Stop then start (what the Node client's restart() does; the browser client has none).
+    if (this.client.state === State.Running) await this.client.stop();
+    this.starting = this.client.start();
+    await this.starting;
   }
 
   /** The note-status method when this server offers one. */
   noteStatusMethod(): string | null {
     if (this.client.state !== State.Running) return null;
     return advertisedNoteStatus(this.client.initializeResult?.capabilities.experimental);
+  }
+
+  /** Whether the running server can check the workspace (the web build's cannot: it has no file system). */
+  canCheckWorkspace(): boolean {
+    const experimental = this.client.initializeResult?.capabilities.experimental as
+      | { dewmark?: { checkWorkspace?: unknown } }
+      | undefined;
+    return experimental?.dewmark?.checkWorkspace === CHECK_WORKSPACE_METHOD;
   }
 }
 
@@ -303,6 +310,10 @@ async function checkWorkspace(ctl: ServerController): Promise<void> {
     return;
   }
   await ctl.ready();
+  if (!ctl.canCheckWorkspace()) {
+    void vscode.window.showInformationMessage(WEB_CHECK_WORKSPACE_MESSAGE);
+    return;
+  }
   const summary = await vscode.window.withProgress(
     { location: vscode.ProgressLocation.Notification, title: 'Dewmark', cancellable: true },
     async (progress, token): Promise<string | null> => {
@@ -347,6 +358,10 @@ async function checkWorkspace(ctl: ServerController): Promise<void> {
   const choice = await vscode.window.showInformationMessage(summary, 'Show Problems');
   if (choice === 'Show Problems') await vscode.commands.executeCommand('workbench.actions.view.problems');
 }
+
+/** What "Check All Notes" says where the server has no file system to search (the web build). */
+export const WEB_CHECK_WORKSPACE_MESSAGE =
+  'Dewmark: "Check All Notes" needs a file system to search, and the browser build of Dewmark has none: each note is checked when you open it (hints, hovers and problems as usual). To check every note at once, open the folder in desktop VS Code or a remote window, or run "dewmark check" on the command line.';
 
 /**
  * `Dewmark: Insert or Refresh Results Table`: asks the server for the edit that writes the results
@@ -426,31 +441,25 @@ async function insertResultsTable(ctl: ServerController): Promise<void> {
   }
 }
 
-function writeMarker(data: Record<string, number | string>): void {
-  const path = process.env[ACTIVATION_MARKER_ENV];
-  if (!path) return;
-  try {
-    writeFileSync(path, `${JSON.stringify(data)}\n`);
-  } catch {
-    // A marker is a test aid only; failing to write it must not disturb the user.
-  }
-}
-
 let controller: ServerController | undefined;
 
-/** Called by VS Code when a Markdown document opens (activation event `onLanguage:markdown`). */
-export function activate(context: vscode.ExtensionContext): DewmarkApi {
+/**
+ * Activates the extension with the server `launcher` starts (each build's `activate` calls this
+ * when a Markdown document opens: activation event `onLanguage:markdown`).
+ */
+export function activateWith(context: vscode.ExtensionContext, launcher: ServerLauncher): DewmarkApi {
   const t0 = performance.now();
+  const writeMarker = (data: Record<string, number | string>): void => launcher.marker?.(data);
   const output = vscode.window.createOutputChannel(OUTPUT_CHANNEL, { log: true });
   context.subscriptions.push(output);
-  const serverModule = context.asAbsolutePath(join('dist', 'server.js'));
-  if (!existsSync(serverModule)) {
-    const message = `Dewmark: the bundled language server is missing (${serverModule}). Reinstall the extension, or run "npm run build" in a development checkout.`;
+  const problem = launcher.problem();
+  if (problem !== null) {
+    const message = `Dewmark: ${problem}`;
     output.error(message);
     void vscode.window.showErrorMessage(message);
     return { ready: () => Promise.reject(new Error(message)), extendMarkdownIt: (md) => extendPreview(md, output) };
   }
-  const ctl = new ServerController(serverModule, output);
+  const ctl = new ServerController(launcher, output);
   controller = ctl;
   const refreshStatus = createStatusBar(ctl, context);
   // The preview caches its rendering per document version: redraw it when a Dewmark setting
@@ -520,7 +529,11 @@ export function activate(context: vscode.ExtensionContext): DewmarkApi {
   const sinceLoadMs = performance.now() - loadedAt;
   writeMarker({ activateMs, sinceLoadMs });
   ctl.ready().then(
-    () => writeMarker({ activateMs, sinceLoadMs, readyMs: performance.now() - t0 }),
+    () => {
+      // The palette hides "Check All Notes" where the server cannot search the workspace (the web build).
+      void vscode.commands.executeCommand('setContext', NO_WORKSPACE_CHECK_CONTEXT, !ctl.canCheckWorkspace());
+      writeMarker({ activateMs, sinceLoadMs, readyMs: performance.now() - t0 });
+    },
     (err: unknown) => {
       output.error(`the language server did not start: ${err instanceof Error ? err.message : String(err)}`);
       writeMarker({ activateMs, sinceLoadMs, error: String(err) });

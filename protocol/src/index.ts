@@ -112,3 +112,4 @@ export interface ResultsTableResult {
 }
 
 export { SERVER_EXEC_ARGV } from './nodeOptions';
+export { READ_FILES_MAX, READ_FILES_METHOD, type ReadFilesParams, type ReadFilesResult } from './browserHost';

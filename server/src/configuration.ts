@@ -2,13 +2,11 @@
  * Settings: fetched per document with `workspace/configuration` (scopeUri) when the client offers
  * it, otherwise taken from `didChangeConfiguration` pushes or `initializationOptions`, otherwise the
  * defaults (Neovim 0.7 offers none of these). Over them, the nearest project file `dewmark.json`
- * above a local note (`file:` URIs) sets what it names: the editor's settings fill only what it
- * leaves open. Project files are re-read when the client reports one changed (watched files) and
+ * above the note sets what it names: the editor's settings fill only what it leaves open. Which
+ * project files can be read is the host's ({@link ProjectFiles}: local notes' on the Node server,
+ * notes inside a workspace folder through the client in the web build). Project files are re-read when the client reports one changed (watched files) and
  * after a settings change. Invalid values are reported once and replaced by their defaults.
  */
-import { readFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import {
   DidChangeConfigurationNotification,
   DidChangeWatchedFilesNotification,
@@ -19,15 +17,13 @@ import {
 } from 'vscode-languageserver/node';
 import {
   PROJECT_FILE,
-  findProjectConfig,
   mergeSection,
   readSettings,
-  type ConfigFileSystem,
   type ProjectConfig,
   type ServiceSettings,
 } from '@dewmark/core/service';
 import { SETTINGS_SECTION } from '@dewmark/protocol';
-import { projectScope } from './projectScope';
+import type { ProjectFiles } from './projectFiles';
 
 /** Per-document settings with change notification. */
 export class Configuration {
@@ -36,8 +32,6 @@ export class Configuration {
   private watchFiles = false;
   /** The settings section pushed by the client (or given at initialize), used when it cannot be asked. */
   private pushed: unknown = null;
-  /** Project file texts read since the last change (null: none there), so each is read once. */
-  private readonly projectTexts = new Map<string, string | null>();
   private readonly perUri = new Map<string, Promise<ServiceSettings>>();
   private readonly reported = new Set<string>();
   private readonly listeners: (() => void)[] = [];
@@ -46,7 +40,11 @@ export class Configuration {
   /** The workspace folders' URIs, kept current by the server: project files are named relative to them. */
   folders: () => readonly string[] = () => [];
 
-  constructor(private readonly connection: Connection) {}
+  /** `projectFiles` reads the project files (the disk for the Node server, the client's file system for the web build). */
+  constructor(
+    private readonly connection: Connection,
+    private readonly projectFiles: ProjectFiles,
+  ) {}
 
   /** Reads the client's configuration capabilities and any initial settings. */
   initialize(params: InitializeParams): void {
@@ -74,7 +72,7 @@ export class Configuration {
   /** Forgets every document's settings and the project files read, and tells the listeners. */
   private changed(): void {
     this.perUri.clear();
-    this.projectTexts.clear();
+    this.projectFiles.clear();
     this.generation++;
     for (const l of this.listeners) l();
   }
@@ -113,8 +111,8 @@ export class Configuration {
               return this.pushed;
             },
           );
-      p = section.then((raw) => {
-        const project = this.projectFor(uri);
+      p = section.then(async (raw) => {
+        const project = await this.projectFor(uri);
         return this.read(mergeSection(raw as Record<string, unknown> | null, project), project, uri);
       });
       this.perUri.set(uri, p);
@@ -122,32 +120,14 @@ export class Configuration {
     return p;
   }
 
-  /** The nearest project file above a local note, or null (other schemes have none). */
-  private projectFor(uri: string): ProjectConfig | null {
-    if (!uri.startsWith('file:')) return null;
-    let dir: string;
+  /** The nearest project file above the note, or null; a failure to read is logged and read as none. */
+  private async projectFor(uri: string): Promise<ProjectConfig | null> {
     try {
-      dir = dirname(fileURLToPath(uri));
-    } catch {
-      return null; // a file URI of another host
+      return await this.projectFiles.find(uri);
+    } catch (err) {
+      this.connection.console.warn(`${PROJECT_FILE} above ${uri} could not be read: ${String(err)}`);
+      return null;
     }
-    const fs: ConfigFileSystem = {
-      read: (path) => {
-        if (!this.projectTexts.has(path)) {
-          let text: string | null = null;
-          try {
-            text = readFileSync(path, 'utf8');
-          } catch {
-            text = null;
-          }
-          this.projectTexts.set(path, text);
-        }
-        return this.projectTexts.get(path)!;
-      },
-      parent: (d) => dirname(d),
-      join: (d, name) => join(d, name),
-    };
-    return findProjectConfig(dir, fs);
   }
 
   /** Forgets a closed document's settings. */
@@ -158,7 +138,7 @@ export class Configuration {
   private read(raw: unknown, project: ProjectConfig | null, uri?: string): ServiceSettings {
     const { settings, problems } = readSettings(raw);
     // Where the file's values came from (hovers name it), and whether its include/exclude leave the note out.
-    if (project && uri !== undefined) Object.assign(settings, projectScope(project, uri, this.folders()));
+    if (project && uri !== undefined) Object.assign(settings, this.projectFiles.scope(project, uri, this.folders()));
     const named = project ? [...project.problems.map((p) => `${project.path}: ${p}`), ...problems] : problems;
     for (const problem of named) {
       if (this.reported.has(problem)) continue;

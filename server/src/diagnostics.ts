@@ -15,6 +15,7 @@ import type { ServerContext } from './context';
 import { toRange } from './convert';
 import { DIAGNOSTIC_SOURCE } from '@dewmark/protocol';
 import { noteForRequest, runSafe } from './safe';
+import { later } from './turn';
 
 const SEVERITY: Record<CoreDiagnostic['severity'], DiagnosticSeverity> = {
   error: DiagnosticSeverity.Error,
@@ -102,7 +103,7 @@ export class Diagnostics {
     this.pending.add(uri);
     if (this.scheduled) return;
     this.scheduled = true;
-    setImmediate(() => {
+    later(() => {
       this.scheduled = false;
       const uris = [...this.pending];
       this.pending.clear();

@@ -8,12 +8,12 @@
  * other documents' requests, cancellations and edits are served while it runs; requests for the
  * same version share one run, and a run whose document changed is dropped for the new text.
  */
-import { performance } from 'node:perf_hooks';
 import { TextDocuments, type Connection } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
 import { createAnalyzer, type Analyzer } from '@dewmark/core/analyze';
 import { analyzeTextSteps, type Note } from '@dewmark/core/service';
 import type { Configuration } from './configuration';
+import { nextTurn } from './turn';
 
 /** A document with its analysis. */
 export interface NoteDocument {
@@ -36,11 +36,6 @@ interface Running {
 
 /** Work done before the event loop is given a turn, ms (short enough that a keystroke's request is not kept waiting). */
 const SLICE_MS = 8;
-
-/** The next turn of the event loop (I/O, timers and other requests first). */
-function nextTurn(): Promise<void> {
-  return new Promise((resolve) => setImmediate(resolve));
-}
 
 /** The open documents and their analyses. */
 export class NoteStore {

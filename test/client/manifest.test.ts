@@ -7,7 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { COMMAND_CATEGORY, COMMANDS } from '../../client/src/commands';
+import { COMMAND_CATEGORY, COMMANDS, NO_WORKSPACE_CHECK_CONTEXT } from '../../client/src/commands';
 import { DEFAULT_SERVICE_SETTINGS, readSettings, RULE_VALUES } from '../../shared-core/src/service/settings';
 import { HINT_KEYS } from '../../shared-core/src/service/types';
 import { keySpec } from '../../shared-core/src/vocabulary/keys';
@@ -70,6 +70,14 @@ describe('extension manifest', () => {
     // Virtual workspaces: open notes get everything, but Check All reads local folders only.
     expect(manifest.capabilities.virtualWorkspaces.supported).toBe('limited');
     expect(manifest.capabilities.virtualWorkspaces.description).toMatch(/Check All/);
+    // The web build: the browser-only editor runs dist/web/client.js (built from client/src/web.ts);
+    // the palette hides Check All where the server cannot search (the context key the client sets).
+    expect(manifest.browser).toBe('./dist/web/client.js');
+    expect(manifest.extensionKind).toEqual(['workspace']);
+    const checkAll = (manifest.contributes.menus.commandPalette as { command: string; when?: string }[]).find(
+      (m) => m.command === COMMANDS.checkWorkspace.id,
+    );
+    expect(checkAll?.when).toContain(`!${NO_WORKSPACE_CHECK_CONTEXT}`);
   });
 
   it('names where the project lives, and is publishable to npm', () => {
@@ -142,6 +150,8 @@ describe('extension manifest', () => {
     const named = [
       manifest.main.replace(/^\.\//, ''),
       'dist/server.js',
+      manifest.browser.replace(/^\.\//, ''),
+      'dist/web/server.js',
       manifest.icon,
       ...(manifest.contributes.grammars as { path: string }[]).map((g) => g.path.replace(/^\.\//, '')),
       ...(manifest.contributes.languages as { configuration: string }[]).map((l) =>
