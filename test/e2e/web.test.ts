@@ -1,0 +1,123 @@
+/**
+ * The web build in a real browser editor's web worker extension host: code-server 4.139 (VS Code
+ * 1.139) in headless Chromium, with the packaged .vsix installed and the setting
+ * `remote.extensionKind` naming the extension `web`, so that the workbench runs its `browser` entry
+ * (dist/web/client.js) in the browser's extension host, which starts dist/web/server.js in a Web
+ * Worker — as the browser-only editor does, where there is no Node extension host at all. Checks
+ * what a reviewer sees: an inline hint and a hover on a state, a squiggle, and `dewmark.json` read
+ * through the editor (a folder whose project file sets IP units); and that no Node language server
+ * was started. Screenshots go to test-artifacts/code-server/dewmark-web/.
+ *
+ * Expected figures: ASHRAE HoF 2017 SI Ch.1 Example 1 (test/fixtures/e2e/expected.ts). Without the
+ * tools (scripts/setup-e2e-tools.sh) the suite is skipped with a message; under CI=true it fails.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { EXAMPLE_1, FIXTURE_NOTE, INFEASIBLE, checkExample1, readFigure } from '../fixtures/e2e/expected';
+import { startSession, type CodeServerSession } from './lib/codeServer';
+import { REPO_ROOT, skipWithout } from './lib/tools';
+
+/** Processes whose command line names `needle` (read from /proc). */
+function processesNaming(needle: string): number[] {
+  const out: number[] = [];
+  for (const entry of readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      if (readFileSync(`/proc/${entry}/cmdline`, 'utf8').includes(needle)) out.push(Number(entry));
+    } catch {
+      // gone meanwhile
+    }
+  }
+  return out;
+}
+
+const fixtureText = readFileSync(join(REPO_ROOT, 'test', 'fixtures', 'e2e', FIXTURE_NOTE), 'utf8');
+/** A note in a folder whose dewmark.json sets IP units (an invented plant room). */
+const IP_NOTE = 'imperial/plant-room.md';
+const IP_TEXT = '# Plant room (IP)\n\n```air\nstate PR: db=40C wb=20C\n```\n';
+const escapeRegExp = (t: string) => t.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&');
+const skip = skipWithout('node24', 'code-server', 'chromium', 'playwright-core');
+
+describe.skipIf(skip)('Dewmark web build in the web worker extension host of code-server', () => {
+  let session: CodeServerSession;
+  let work: string;
+
+  beforeAll(async () => {
+    work = mkdtempSync(join(tmpdir(), 'dewmark-web-vsix-'));
+    const vsix = join(work, 'dewmark-web-e2e.vsix');
+    // Under `npm test` the bundles were just built; rebuilding here could race suites that run them.
+    const build = process.env.npm_lifecycle_event === 'test' ? ['--no-build'] : [];
+    const r = spawnSync(process.execPath, [join(REPO_ROOT, 'client', 'package-vsix.mjs'), ...build, '--out', vsix], {
+      cwd: REPO_ROOT,
+      encoding: 'utf8',
+      timeout: 180_000,
+    });
+    if (r.status !== 0 || !existsSync(vsix))
+      throw new Error(`npm run package failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
+    session = await startSession(
+      {
+        extensions: [vsix],
+        files: {
+          [FIXTURE_NOTE]: fixtureText,
+          [IP_NOTE]: IP_TEXT,
+          'imperial/dewmark.json': JSON.stringify({ units: 'IP' }),
+        },
+        settings: {
+          // Run the extension where the browser-only editor runs it: the web worker extension host.
+          'remote.extensionKind': { 'dewmark.dewmark': ['web'] },
+          '[markdown]': { 'editor.wordWrap': 'off' },
+        },
+      },
+      { name: 'dewmark-web', timeoutMs: 45_000 },
+    );
+    await session.workbench.openFile(FIXTURE_NOTE);
+  }, 300_000);
+
+  afterAll(async () => {
+    await session?.close();
+    if (work) rmSync(work, { recursive: true, force: true });
+  });
+
+  it(`shows an inline hint with the computed values (${EXAMPLE_1.source})`, async () => {
+    const wb = session.workbench;
+    const src = fixtureText.split('\n').find((l) => l.startsWith(EXAMPLE_1.line))!;
+    const line = await wb.waitForEditorLine(new RegExp(`^${escapeRegExp(src)}.*dp -?\\d`), { timeoutMs: 60_000 });
+    await wb.screenshot('hint');
+    expect(checkExample1(line.slice(src.length)), `editor line: ${line}`).toEqual([]);
+  }, 90_000);
+
+  it('shows a hover with the property table, the pressure basis and the method', async () => {
+    const wb = session.workbench;
+    const text = await wb.hover('OA', { line: 'state OA', expect: 'humidity ratio' });
+    await wb.screenshot('hover');
+    for (const part of ['state OA', 'dry-bulb', 'wet-bulb', 'dew point', 'Pressure: 101.325 kPa', 'Method: ASHRAE'])
+      expect(text, `hover text: ${text}`).toContain(part);
+    const row = /humidity ratio\s+w\s+(\d+(?:\.\d+)?)\s*g\/kg/.exec(text);
+    expect(row, `a humidity-ratio row in g/kg in: ${text}`).not.toBeNull();
+    const w = readFigure(`w ${row![1]} g/kg`, 'w', 'g/kg')!;
+    expect(Math.abs(w.value - EXAMPLE_1.w.value)).toBeLessThanOrEqual(EXAMPLE_1.w.tol + w.halfStep + 1e-9);
+  }, 90_000);
+
+  it('marks the infeasible state with a squiggle', async () => {
+    const squiggle = await session.workbench.waitForSquiggle('error', { line: INFEASIBLE.before });
+    expect(squiggle.line).toContain(INFEASIBLE.before);
+  }, 90_000);
+
+  it("reads the folder's dewmark.json through the editor: IP units in that folder's note", async () => {
+    const wb = session.workbench;
+    await wb.openFile(IP_NOTE);
+    const text = await wb.hover('PR', { line: 'state PR', expect: 'humidity ratio' });
+    await wb.screenshot('hover-ip');
+    expect(text).toContain('°F');
+  }, 90_000);
+
+  it('ran in the web worker: no Node language server was started', () => {
+    const nodeServers = processesNaming('dist/server.js').filter((pid) =>
+      readFileSync(`/proc/${pid}/cmdline`, 'utf8').includes(session.server.extensionsDir),
+    );
+    expect(nodeServers).toEqual([]);
+  });
+});
