@@ -14,7 +14,11 @@ export interface ProjectFiles {
    * (named relative to the workspace folders, for hovers), and whether its include/exclude leave
    * the note out.
    */
-  scope(project: ProjectConfig, uri: string, folders: readonly string[]): Pick<ServiceSettings, 'sources' | 'excludedBy'>;
+  scope(
+    project: ProjectConfig,
+    uri: string,
+    folders: readonly string[],
+  ): Pick<ServiceSettings, 'sources' | 'excludedBy'>;
   /** Forgets the file texts read so far (a project file or the settings changed). */
   clear(): void;
 }

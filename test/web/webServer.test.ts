@@ -46,7 +46,7 @@ const NOTE_URI = `${FOLDER}/calcs/ahu-1.md`;
 const IP_URI = `${FOLDER}/imperial/ahu-1.md`;
 /** What the client's file system holds (the project files). */
 const FILES: Record<string, string> = {
-  [`${FOLDER}/imperial/dewmark.json`]: JSON.stringify({ units: 'IP' }),
+  [`${FOLDER}/imperial/dewmark.json`]: JSON.stringify({ units: 'IP', elevation: '1600 m' }),
   [`${FOLDER}/dewmark.json`]: JSON.stringify({ rules: { 'wb-above-db': 'warning' } }),
 };
 
@@ -125,13 +125,15 @@ describe('the web build of the language server (a worker without Node)', () => {
     expect(checkExample1(hintText(oa!)), hintText(oa!)).toEqual([]);
   });
 
-  it("takes the nearest project file: a folder's own dewmark.json sets IP units", async () => {
+  it("takes the nearest project file: a folder's own dewmark.json sets IP units and the elevation", async () => {
     await web.open(IP_URI, NOTE, 1);
     const h = await web.request<{ contents: { value: string } }>('textDocument/hover', {
       textDocument: { uri: IP_URI },
       position: positionOf(NOTE, 'state O'),
     });
     expect(h.contents.value).toContain('°F');
+    // The hover names the file, relative to the workspace folder.
+    expect(h.contents.value).toContain('imperial/dewmark.json: elevation 1600 m');
     expect(asked.flat()).toContain(`${FOLDER}/imperial/dewmark.json`);
     // The workspace folder's file was asked for once only (kept until a change).
     expect(asked.flat().filter((u) => u === `${FOLDER}/dewmark.json`)).toHaveLength(1);
