@@ -10,6 +10,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../src/analyze';
 import { renderChartCases, renderChartFromData, type ChartData, type ChartPoint } from '../src/chart';
+import { textWidth } from '../src/chart/labels';
 import { elements, parsePath } from './chart-helpers';
 
 const P0 = 101_325; // ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0
@@ -195,5 +196,20 @@ describe('family line values', () => {
       if (length > 80)
         expect(values, `h = ${p['data-value']} kJ/kg (${length.toFixed(0)} px)`).toContain(Number(p['data-value']));
     }
+  });
+});
+
+describe('the heading', () => {
+  it('is cut with an ellipsis to fit a narrow chart; the whole title stays in <title>', () => {
+    const title = 'harbour-lab-ahu2.md — Harbour Street Lab — AHU-2 outdoor-air check, summer design day';
+    const svg = renderChartFromData(spread(3), { width: 480, plotHeight: 260, title });
+    const heading = /<text class="dmc-heading"[^>]*>([^<]*)<\/text>/.exec(svg)![1]!;
+    expect(heading.endsWith('…')).toBe(true);
+    expect(title.startsWith(heading.slice(0, -1).trimEnd())).toBe(true);
+    // 15 px type from the plot's left edge (76 px) to 10 px short of the right edge.
+    expect(textWidth(heading, 15)).toBeLessThanOrEqual(480 - 76 - 10);
+    expect(svg).toContain(`<title id="dmc-title">${title}</title>`);
+    // A title that fits is left whole.
+    expect(renderChartFromData(spread(3), { title: 'Short' })).toContain('>Short</text>');
   });
 });

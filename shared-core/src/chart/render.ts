@@ -735,7 +735,9 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
     `<defs><clipPath id="${id}-clip"><rect x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/></clipPath></defs>`,
   );
   out.push(`<rect class="dmc-page" x="0" y="0" width="${full.width}" height="${height}"/>`);
-  out.push(`<text class="dmc-heading" x="${n(plot.left)}" y="24">${escapeXml(m.title)}</text>`);
+  out.push(
+    `<text class="dmc-heading" x="${n(plot.left)}" y="24">${escapeXml(fitText(m.title, 15, full.width - plot.left - 10))}</text>`,
+  );
   out.push(
     `<text class="dmc-sub" x="${n(plot.left)}" y="41">${escapeXml(`${formatQuantity(data.pressurePa, 'pressure', data.units).text} \u00b7 ${data.units} \u00b7 dry-bulb against humidity ratio`)}</text>`,
   );
@@ -871,6 +873,23 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
   }
   out.push('</svg>');
   return { svg: out.join('\n'), width: full.width, height };
+}
+
+/**
+ * `text` cut to fit `width` px at `fontSize` (an ellipsis ends a cut text; the full text stays in
+ * the SVG's `<title>`), so a long heading never runs off a narrow chart.
+ */
+export function fitText(text: string, fontSize: number, width: number): string {
+  if (textWidth(text, fontSize) <= width) return text;
+  const chars = [...text];
+  let lo = 0;
+  let hi = chars.length;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >>> 1;
+    if (textWidth(`${chars.slice(0, mid).join('').trimEnd()}\u2026`, fontSize) <= width) lo = mid;
+    else hi = mid - 1;
+  }
+  return `${chars.slice(0, lo).join('').trimEnd()}\u2026`;
 }
 
 /** A leader line from a point to the nearest point of its label's box. */
