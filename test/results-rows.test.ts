@@ -10,7 +10,9 @@
  */
 import { createRequire } from 'node:module';
 import { describe, expect, it } from 'vitest';
-import { processesTable, statesTable, fileResult } from '../cli/src/output';
+import { processesTable, statesTable, fileResult, stateJson } from '../cli/src/output';
+import { analyzeNote } from '../shared-core/src/analyze';
+import { stateRow } from '../shared-core/src/present/rows';
 import { renderReportHtml } from '../cli/src/commands/report';
 import { renderChart } from '../shared-core/src/chart';
 import type { ProcessResult, StateResult } from '../shared-core/src/evaluate/types';
@@ -204,7 +206,7 @@ describe('one minus sign (U+2212) on every figure shown', () => {
     expect(s.html).toContain('<td class="dewmark-num">−5.0</td>');
     expect(terminalRow(s.states, 'COLD')[terminalHeader(s.states).indexOf('db °C')]).toBe('−5.0');
     expect(reportRow(s.report, 'states', 'COLD')[reportHeader(s.report, 'states').indexOf('db °C')]).toBe('−5.0');
-    expect(s.hoverOn('COLD')).toContain('| dry-bulb | `db` | −5.0 °C |');
+    expect(s.hoverOn('COLD')).toContain('| `db` | −5.0 | °C given |');
     // The frost point of COLD is negative too: the hint shows it with the same sign.
     expect(s.hintOn('COLD')).toMatch(/(dp|fp) −\d+\.\d °C/);
     for (const out of [s.markdown, s.states, s.processes]) expect(out).not.toMatch(/(^|[\s|(])-\d/m);
@@ -224,7 +226,7 @@ describe('significant figures where fixed decimals would lose the value', () => 
     expect(markdownRow(s.markdown, 'DRYROOM')[5]).toBe(shown);
     expect(terminalRow(s.states, 'DRYROOM')[terminalHeader(s.states).indexOf('w g/kg')]).toBe(shown);
     expect(reportRow(s.report, 'states', 'DRYROOM')[reportHeader(s.report, 'states').indexOf('w g/kg')]).toBe(shown);
-    expect(s.hoverOn('DRYROOM')).toContain(`| humidity ratio | \`w\` | ${shown} g/kg |`);
+    expect(s.hoverOn('DRYROOM')).toContain(`| \`w\` | ${shown} | g/kg |`);
     expect(s.hintOn('DRYROOM')).toContain(`w ${shown} g/kg`);
   });
 
@@ -338,5 +340,21 @@ describe('IP figures: thousands separated by commas, flows in cfm and lb/h, heat
   it('leaves SI figures ungrouped', () => {
     const si = surfaces(air('state RA: db=26C rh=50%', 'state OFF: db=12C rh=95%', 'process CC: RA -> OFF q=40m3/s'));
     expect(markdownRow(si.markdown, 'CC')[2]).toMatch(/^−\d+ kW$/);
+  });
+});
+
+describe('degree of saturation above the boiling point', () => {
+  // At 150 °C the saturation pressure of water is about 476 kPa (ASHRAE HoF 2017 SI Ch.1 eq 6;
+  // steam tables give 476.2 kPa, from memory), above 101.325 kPa: W/Ws does not exist there.
+  const text = '```air\nstate HOT: db=150C rh=5%\nstate WARM: db=24C rh=50%\n```\n';
+
+  it('is — in the results rows every table and the report read, and has no JSON field', () => {
+    const a = analyzeNote(text);
+    const hot = a.items.find((i) => i.name === 'HOT' && i.kind === 'state') as StateResult;
+    expect(stateRow(hot, 'SI').figures.mu.value).toBe('—');
+    const warm = a.items.find((i) => i.name === 'WARM' && i.kind === 'state') as StateResult;
+    expect(stateRow(warm, 'SI').figures.mu.value).toMatch(/^49\.\d$/);
+    const json = stateJson(fileResult('hot.md', text, a), hot);
+    expect(Object.keys(json).some((k) => k.startsWith('mu'))).toBe(false);
   });
 });

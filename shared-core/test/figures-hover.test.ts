@@ -61,12 +61,42 @@ describe('plain-text hover', () => {
     const plain = hoverPlainText(md);
     expect(plain).not.toMatch(/\||\*\*|`|\\/);
     expect(plain).toContain('state RA');
-    // The values are right-aligned in one column: each ends where the others end.
-    const ends = [' °C', ' g/kg', ' kJ/kg'].map((unit) => {
-      const row = plain.split('\n').find((l) => l.includes(unit) && !l.includes('datum'))!;
-      return row.indexOf(unit) + unit.length;
-    });
-    expect(new Set(ends).size, plain).toBe(1);
+    // Figures first: the first lines after the title are the table, two figures to a row.
+    const lines = plain.split('\n');
+    expect(lines[0]).toBe('state RA');
+    const rows = lines.slice(1, 6);
+    expect(rows.map((l) => l.trim().split(/\s+/)[0])).toEqual(['db', 'wb', 'dp', 'h', 'rho']);
+    // Values right-aligned and units left-aligned in their own columns: in every row the left
+    // figure's unit starts at one column, and so does the right figure's.
+    const unitStarts = (re: RegExp) => new Set(rows.map((l) => l.search(re)));
+    expect(unitStarts(/(?<=\d )(°C|kJ\/kg|kg\/m³)/).size, plain).toBe(1);
+    expect(unitStarts(/(?<=\d )(%|g\/kg|kPa|m³\/kg)(?!.*\d )/).size, plain).toBe(1);
+    // The pressure basis, claims and method come below the figures.
+    const at = (s: string) => plain.indexOf(s);
+    expect(at('Pressure:')).toBeGreaterThan(at('rho'));
+    expect(at('Claims:')).toBeGreaterThan(at('Pressure:'));
+    expect(at('Method:')).toBeGreaterThan(at('Claims:'));
     expect(plain).toContain('Design aid only');
+  });
+});
+
+describe('degree of saturation above the boiling point', () => {
+  // At 150 °C the saturation pressure of water is about 476 kPa (ASHRAE HoF 2017 SI Ch.1 eq 6;
+  // steam tables give 476.2 kPa, from memory), above 101.325 kPa: air this hot cannot be saturated,
+  // so Ws and W/Ws do not exist there.
+  const text = air('state HOT: db=150C rh=5%', 'state WARM: db=24C rh=50%');
+
+  it('shows — with the reason in the hover, never 0', () => {
+    const note = noteOf(text);
+    const md = hover(note, text.indexOf('HOT'))!.markdown;
+    expect(md).toContain('| `mu` | — |');
+    expect(md).not.toMatch(/`mu` \| 0\.0/);
+    expect(md).toMatch(
+      /`mu` —: not defined\. The dry-bulb 150\.0 °C is at or above the boiling point at 101\.325 kPa \(100\.0 °C\)/,
+    );
+    // Below the boiling point it is W/Ws as usual (24 °C / 50 %: about 49 %, ASHRAE HoF 2017 SI Ch.1 eq 12, from first principles).
+    const warm = hover(note, text.indexOf('WARM'))!.markdown;
+    expect(warm).toMatch(/\| `mu` \| 49\.\d \| % \|/);
+    expect(warm).not.toContain('not defined');
   });
 });

@@ -34,13 +34,18 @@ export function applyEdits(text: string, edits: readonly Edit[]): string {
   return out;
 }
 
-/** The number in the hover-table row of `key` (`| humidity ratio | \`w\` | 6.53 g/kg | |` → 6.53). */
-export function tableValue(markdown: string, key: string, column = 3): number {
+/**
+ * The number shown for `key` in a state hover's table (`| \`w\` | 6.53 | g/kg | …` → 6.53): the cell
+ * after the key's; with `secondary`, the figure in the other unit system (two cells further).
+ */
+export function tableValue(markdown: string, key: string, secondary = false): number {
   const row = markdown.split('\n').find((l) => l.includes(`| \`${key}\` |`));
   if (!row) throw new Error(`no row for ${key} in:\n${markdown}`);
-  const cell = (row.split('|')[column] ?? '').trim().replace('−', '-');
+  const cells = row.split('|').map((c) => c.trim());
+  const at = cells.indexOf(`\`${key}\``) + (secondary ? 3 : 1);
+  const cell = (cells[at] ?? '').replace('−', '-');
   const m = /^-?\d+(\.\d+)?/.exec(cell);
-  if (!m) throw new Error(`no number in column ${column} of the ${key} row: ${row}`);
+  if (!m) throw new Error(`no number in the ${secondary ? 'secondary' : 'primary'} cell of ${key} in: ${row}`);
   return Number(m[0]);
 }
 

@@ -82,8 +82,10 @@ describe('hover on a state', () => {
         'Enthalpy datum: dry air 0 at 0 °C; water vapour from liquid water at 0 °C.',
         'Method: ASHRAE Handbook—Fundamentals Ch. 1, ideal-gas; ice below 0 °C.',
         'Design aid only; verify against applicable codes and standards and a licensed engineer’s review.',
-        '| dry-bulb | `db` | 40.0 °C | given |',
-        '| wet-bulb | `wb` | 20.0 °C | given |',
+        // Figures first, value and unit in their own columns, two figures to a row.
+        '| **state OA** | | | | | |',
+        '| `db` | 40.0 | °C given | `rh` |',
+        '| `wb` | 20.0 | °C given | `w` |',
       ],
     });
   });
@@ -122,9 +124,9 @@ describe('hover on a state', () => {
 
   it('marks claims with their verdicts: rh=14%±1 agrees with Example 1, rh=20% is stale', () => {
     // ASHRAE HoF 2017 SI Ch.1 Example 1 gives RH 14 % for this state, so ±1 % holds and 20 % cannot.
-    check(air('state O|A: db=40C wb=20C rh=14%±1'), { contains: ['claim ✓', '`rh=14%±1` ✓ computed'] });
+    check(air('state O|A: db=40C wb=20C rh=14%±1'), { contains: ['| % ✓ |', '`rh=14%±1` ✓ computed'] });
     check(air('state O|A: db=40C wb=20C rh=20%'), {
-      contains: ['claim ✗ (rh=20%)', '`rh=20%` ✗ computed', 'stale claim'],
+      contains: ['| % ✗ |', '`rh=20%` ✗ computed', 'stale claim'],
     });
   });
 
@@ -139,15 +141,15 @@ describe('hover on a state', () => {
   it('shows the other unit system as a second column on request', () => {
     const md = check(
       air('state O|A: db=40C wb=20C'),
-      { contains: ['| SI | IP |', '°F', 'Btu/lb', 'dry air 0 at 0 °F'] },
+      { contains: ['| **state OA** | SI | | IP | |', '°F', 'Btu/lb', 'dry air 0 at 0 °F'] },
       { secondaryUnits: true },
     );
     // 40 °C is exactly 104 °F (°F = °C × 9/5 + 32, by definition).
-    expect(tableValue(md, 'db', 4)).toBe(104);
+    expect(tableValue(md, 'db', true)).toBe(104);
   });
 
   it('shows more decimals with the precision setting', () => {
-    check(air('state O|A: db=40C wb=20C'), { contains: ['| dry-bulb | `db` | 40.00 °C |'] }, { extraDigits: 1 });
+    check(air('state O|A: db=40C wb=20C'), { contains: ['| `db` | 40.00 | °C given |'] }, { extraDigits: 1 });
   });
 
   it('says why a state could not be computed', () => {

@@ -62,8 +62,8 @@ describe('Neovim as the LSP client', () => {
 
     const hover = hoverText(run.step('hover').result);
     expect(hover).toContain('**state OA**');
-    const w = Number(/\| `w` \| ([\d.]+) g\/kg/.exec(hover)?.[1]);
-    const h = Number(/\| `h` \| ([\d.]+) kJ\/kg/.exec(hover)?.[1]);
+    const w = Number(/\| `w` \| ([\d.]+) \| g\/kg/.exec(hover)?.[1]);
+    const h = Number(/\| `h` \| ([\d.]+) \| kJ\/kg/.exec(hover)?.[1]);
     expect(Math.abs(w - W_G_PER_KG.value)).toBeLessThanOrEqual(W_G_PER_KG.tol);
     expect(Math.abs(h - H_KJ_PER_KG.value)).toBeLessThanOrEqual(H_KJ_PER_KG.tol);
     expect(hover).toContain('Design aid only');

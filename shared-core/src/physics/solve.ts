@@ -177,7 +177,7 @@ function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
     warnings.push(
       makeProblem({
         code: 'pressure-below-saturation',
-        message: msg`The dry-bulb ${fT(s.db)} is at or above the boiling point at ${fP(s.p)}: this air cannot be saturated, so the saturation humidity ratio is infinite and the degree of saturation 0.`,
+        message: msg`The dry-bulb ${fT(s.db)} is at or above the boiling point at ${fP(s.p)}: this air cannot be saturated, so the saturation humidity ratio is infinite and the degree of saturation does not exist (given as 0).`,
         fix: 'Nothing to fix if superheated air is meant; otherwise check the pressure.',
         keys: ['db'],
       }),

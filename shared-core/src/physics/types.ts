@@ -97,7 +97,10 @@ export interface MoistAirState {
    * is at or above the boiling point at p (the air cannot be saturated; the solver warns).
    */
   ws: number;
-  /** Degree of saturation, fraction (W / Ws; 0 when Ws is infinite). */
+  /**
+   * Degree of saturation, fraction (W / Ws). Not defined when Ws is infinite (a dry-bulb at or above
+   * the boiling point): given as 0 there so that every field is a number; never show it as a figure.
+   */
   mu: number;
   /** True when the wet-bulb is below 0 °C and so was computed over ice. */
   wbIce: boolean;

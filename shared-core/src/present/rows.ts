@@ -21,6 +21,7 @@ import {
 } from '../units';
 import type { Dimension, UnitDef, UnitSystem } from '../units/types';
 import { findKey } from '../vocabulary/keys';
+import { aboveBoilingPoint } from '../evaluate/solve';
 
 export type { Figure } from '../units';
 
@@ -170,7 +171,8 @@ export function stateRow(item: StateResult, system: UnitSystem, opts: RowOptions
     v: f('v', st?.v),
     rho: f('rho', st?.rho),
     pw: f('pw', st?.pw),
-    mu: f('mu', st?.mu),
+    // Not defined at or above the boiling point (no saturation humidity ratio): shown as —, never 0.
+    mu: f('mu', st && !aboveBoilingPoint(st) ? st.mu : undefined),
   };
   const massFlow = (kgS: number | null | undefined): Figure =>
     figure(kgS, 'massFlow', system, { extraDigits: opts.extraDigits });

@@ -93,8 +93,13 @@ export function autoHintKeys(written: ReadonlySet<string>): HintKey[] {
 
 export { PROCESS_KIND_TEXT } from '../present/rows';
 
-/** The method line of every state hover. */
+/** The method line of every state hover (SI wording). */
 export const METHOD_LINE = 'Method: ASHRAE Handbook—Fundamentals Ch. 1, ideal-gas; ice below 0 °C.';
+
+/** The method line in a unit system's words (ice below 0 °C, or 32 °F). */
+export function methodLine(system: UnitSystem): string {
+  return system === 'SI' ? METHOD_LINE : METHOD_LINE.replace('0 °C', '32 °F');
+}
 
 /** The one-line caution footer of every result hover. */
 export const CAUTION_LINE =

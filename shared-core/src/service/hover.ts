@@ -5,19 +5,22 @@
  * it means in a line or two. Results end with a one-line caution.
  */
 import { findKey } from '../vocabulary/keys';
-import { iceWetBulbAlternative } from '../physics';
+import { boilingPoint, iceWetBulbAlternative } from '../physics';
 import type { ClaimResult, EvaluatedItem, ProcessResult, PropertySource, StateResult } from '../evaluate/types';
 import type { PropertyNode, Statement } from '../notation/ast';
 import type { Span } from '../text/types';
 import { describeUnit, figure, lookupUnit, ratioFigure } from '../units';
 import type { Dimension, UnitSystem } from '../units/types';
+import type { MoistAirState } from '../physics/types';
+import { aboveBoilingPoint } from '../evaluate/solve';
+import type { RowKey } from '../vocabulary/keys';
 import {
   CAUTION_LINE,
-  METHOD_LINE,
   PROCESS_KIND_TEXT,
   STATE_ROWS,
   datumLine,
   md,
+  methodLine,
   otherSystem,
   show,
   showClaim,
@@ -149,40 +152,103 @@ function sourcesBlock(note: Note, item: StateResult, system: UnitSystem): string
   return lines;
 }
 
-function stateTable(note: Note, item: StateResult, system: UnitSystem): string[] {
+/** The pairs of figures of the compact table, two to a row: temperatures and enthalpy left, moisture right. */
+const HOVER_PAIRS: readonly (readonly [RowKey, RowKey | null])[] = pairsOf(
+  ['db', 'wb', 'dp', 'h', 'rho'],
+  ['rh', 'w', 'pw', 'v', 'mu'],
+);
+
+/** The preferred pairs, then any other row of the key table by itself (a row added later is never lost). */
+function pairsOf(left: readonly RowKey[], right: readonly RowKey[]): (readonly [RowKey, RowKey | null])[] {
+  const pairs: [RowKey, RowKey | null][] = left.map((k, i) => [k, right[i] ?? null]);
+  for (const r of STATE_ROWS) if (!left.includes(r.key) && !right.includes(r.key)) pairs.push([r.key, null]);
+  return pairs;
+}
+
+/**
+ * The degree of saturation has no value at or above the boiling point: air there cannot be
+ * saturated, so the saturation humidity ratio Ws it divides by does not exist.
+ */
+function muUndefined(state: MoistAirState): boolean {
+  return aboveBoilingPoint(state);
+}
+
+/**
+ * The figures of a state first, compact: two figures to a row, each as its key, its value
+ * (right-aligned) and its unit (left-aligned) with a short mark — `given`, `✓`/`✗` for a claim,
+ * `← OA` for a figure taken from another state, `frost point`, `over ice` — under a header row that
+ * names the state, so every figure is in five rows. With secondary units, one figure to a row in
+ * both systems. The reasons behind a figure (a wet-bulb with two roots, a degree of saturation that
+ * does not exist) follow the table.
+ */
+function stateTable(note: Note, item: StateResult, system: UnitSystem, title: string): string[] {
   const state = item.state!;
   const secondary = note.settings.secondaryUnits ? otherSystem(system) : null;
   // A mix's w and h come from the balance, not from the note: nothing is marked as given.
   const given = new Set<string>(item.kind === 'state' ? item.defining : []);
   const sources = new Map((item.sources ?? []).map((s) => [s.key, s]));
   const claims = new Map(item.claims.map((c) => [c.key, c]));
-  const head = secondary ? `| property | | ${system} | ${secondary} | |` : '| property | | value | |';
-  const rule = secondary ? '|---|---|--:|--:|---|' : '|---|---|--:|---|';
-  const rows = [head, rule];
-  for (const r of STATE_ROWS) {
-    const label = r.special?.(state) ?? r.label;
-    const si = r.value(state);
-    const claim = claims.get(r.key);
-    const source = sources.get(r.key);
-    let mark = source ? `from ${md(source.from)}` : given.has(r.key) ? 'given' : '';
-    if (claim && note.settings.checkClaims)
-      mark = claim.pass ? 'claim ✓' : `claim ✗ (${md(written(note, claim.prop))})`;
-    const cells = [label, `\`${r.key}\``, show(note, si, r.dimension, system)];
-    if (secondary) cells.push(show(note, si, r.dimension, secondary));
-    cells.push(mark);
-    rows.push(`| ${cells.join(' | ')} |`);
+  const mark = (key: RowKey): string => {
+    const marks: string[] = [];
+    if (key === 'dp' && state.dpFrost) marks.push('frost point');
+    if (key === 'wb' && state.wbIce) marks.push('over ice');
+    const claim = claims.get(key);
+    const source = sources.get(key);
+    if (source) marks.push(`← ${md(source.from)}`);
+    else if (claim && note.settings.checkClaims) marks.push(claim.pass ? '✓' : '✗');
+    else if (given.has(key)) marks.push('given');
+    return marks.length > 0 ? ` ${marks.join(', ')}` : '';
+  };
+  const cellsOf = (key: RowKey, sys: UnitSystem): [string, string] => {
+    const row = STATE_ROWS.find((r) => r.key === key)!;
+    if (key === 'mu' && muUndefined(state)) return ['—', ''];
+    const f = figure(row.value(state), row.dimension, sys, { extraDigits: note.settings.extraDigits });
+    return [f.value, f.unit];
+  };
+  const rows: string[] = [];
+  if (secondary) {
+    rows.push(`| ${title} | ${system} | | ${secondary} | |`, '|:--|--:|:--|--:|:--|');
+    for (const r of STATE_ROWS) {
+      const [v, u] = cellsOf(r.key, system);
+      const [v2, u2] = cellsOf(r.key, secondary);
+      rows.push(`| \`${r.key}\` | ${v} | ${u}${mark(r.key)} | ${v2} | ${u2} |`);
+    }
+  } else {
+    rows.push(`| ${title} | | | | | |`, '|:--|--:|:--|:--|--:|:--|');
+    for (const [a, b] of HOVER_PAIRS) {
+      const [va, ua] = cellsOf(a, system);
+      const right = b
+        ? (() => {
+            const [vb, ub] = cellsOf(b, system);
+            return `\`${b}\` | ${vb} | ${ub}${mark(b)}`;
+          })()
+        : ' | | ';
+      rows.push(`| \`${a}\` | ${va} | ${ua}${mark(a)} | ${right} |`);
+    }
   }
   if (state.fog)
     rows.push(
       '',
       '⚠ Fog region: the air holds more water than saturated air can carry as vapour; w is the total water.',
     );
+  if (muUndefined(state)) {
+    let boiling = '';
+    try {
+      boiling = ` (${show(note, boilingPoint(state.p), 'temperature', system)})`;
+    } catch {
+      // a pressure without a boiling point in range: the sentence reads without the figure
+    }
+    rows.push(
+      '',
+      `\`mu\` —: not defined. The dry-bulb ${show(note, state.db, 'temperature', system)} is at or above the boiling point at ${show(note, state.p, 'pressure', system)}${boiling}: this air cannot be saturated, so it has no saturation humidity ratio Ws to compare W with. Every other figure holds.`,
+    );
+  }
   // Near 0 °C both wick equations can solve: the one over water is reported, the other shown.
   const iceWb = state.fog ? null : iceWetBulbAlternative(state.db, state.w, state.p, state.wb, state.dp);
   if (iceWb !== null) {
     rows.push(
       '',
-      `Wet-bulb: over water (eq 33) ${show(note, state.wb, 'temperature', system)}, reported; over ice (eq 35) ${show(note, iceWb, 'temperature', system)} also solves near 0 °C.`,
+      `Wet-bulb: over water (eq 33) ${show(note, state.wb, 'temperature', system)}, reported; over ice (eq 35) ${show(note, iceWb, 'temperature', system)} also solves near ${show(note, 0, 'temperature', system)}.`,
     );
   }
   return rows;
@@ -207,8 +273,6 @@ function supplyHead(note: Note, item: StateResult, system: UnitSystem): string[]
     `| volume flow at ${md(item.name)} | ${show(note, f.volumeFlowM3S, 'volumeFlow', system, lookupUnit(volumeUnit))}${f.given === 'q' ? ' (given)' : ''} |`,
     '',
     `Found from the ${f.given === 'db' ? 'supply dry-bulb' : f.given === 'm' ? 'dry-air mass flow' : 'volume flow'} and the loads; a process from ${md(item.name)} to ${md(f.room)} at this flow gives the loads back (sensible with the moist-air cp at ${md(item.name)}'s W).`,
-    '',
-    'Supply state:',
   );
   return out;
 }
@@ -216,36 +280,36 @@ function supplyHead(note: Note, item: StateResult, system: UnitSystem): string[]
 function stateHover(note: Note, item: StateResult): string {
   const system = note.analysis.units;
   const out: string[] = [];
-  if (item.kind === 'mix') {
-    out.push(`**mix ${md(item.name)}** — adiabatic mixing`);
-    if (item.streams && item.streams.length > 0) {
-      out.push('', '| stream | dry-air fraction | dry-air flow |', '|---|--:|--:|');
-      for (const s of item.streams) {
-        const flow = s.massFlowKgS === null ? '—' : show(note, s.massFlowKgS, 'massFlow', system);
-        out.push(`| ${md(s.name)} | ${show(note, s.fraction, 'fraction', system)} | ${flow} |`);
-      }
-    }
-    if (item.massFlowKgS !== undefined && item.massFlowKgS !== null) {
-      out.push('', `Total dry-air flow: ${show(note, item.massFlowKgS, 'massFlow', system)}`);
-    }
-    out.push('', 'Result:');
-  } else if (item.kind === 'supply') {
-    out.push(...supplyHead(note, item, system));
-  } else {
-    out.push(`**state ${md(item.name)}**`);
-  }
+  const name = md(item.name);
   if (!item.state) {
-    out.push('', 'Not computed:', ...problemsOf(note, item.statement));
+    out.push(`**${item.kind} ${name}**`, '', 'Not computed:', ...problemsOf(note, item.statement));
     return out.join('\n');
   }
-  out.push('', ...stateTable(note, item, system));
+  // Figures first: the table opens the hover (for a supply, after the loads it was found from).
+  if (item.kind === 'supply') out.push(...supplyHead(note, item, system), '');
+  const title =
+    item.kind === 'mix'
+      ? `**mix ${name}** — adiabatic mixing`
+      : item.kind === 'supply'
+        ? `supply state ${name}`
+        : `**state ${name}**`;
+  out.push(...stateTable(note, item, system, title));
+  if (item.kind === 'mix' && item.streams && item.streams.length > 0) {
+    out.push('', '| stream | dry-air fraction | dry-air flow |', '|:--|--:|--:|');
+    for (const s of item.streams) {
+      const flow = s.massFlowKgS === null ? '—' : show(note, s.massFlowKgS, 'massFlow', system);
+      out.push(`| ${md(s.name)} | ${show(note, s.fraction, 'fraction', system)} | ${flow} |`);
+    }
+    if (item.massFlowKgS !== undefined && item.massFlowKgS !== null)
+      out.push(`| total | | ${show(note, item.massFlowKgS, 'massFlow', system)} |`);
+  }
   const sources = sourcesBlock(note, item, system);
   if (sources.length > 0) out.push('', ...sources);
-  out.push('', pressureLine(note, item, system), '', datumLine(system));
-  if (note.settings.secondaryUnits) out.push(datumLine(otherSystem(system)));
+  out.push('', pressureLine(note, item, system));
   const claims = claimsBlock(note, item);
   if (claims.length > 0) out.push('', ...claims);
-  out.push('', METHOD_LINE, '', '---', CAUTION_LINE);
+  const datum = [datumLine(system), ...(note.settings.secondaryUnits ? [datumLine(otherSystem(system))] : [])];
+  out.push('', `${methodLine(system)} ${datum.join(' ')}`, '', '---', CAUTION_LINE);
   return out.join('\n');
 }
 
@@ -349,7 +413,7 @@ function processHover(note: Note, item: ProcessResult, footer = true): string {
   if (claims.length > 0) out.push('', ...claims);
   if (!footer) return out.join('\n');
   out.push('', 'Heat rates are positive when heat is added to the air; steady flow, one dry-air flow.');
-  out.push('', METHOD_LINE, '', '---', CAUTION_LINE);
+  out.push('', methodLine(system), '', '---', CAUTION_LINE);
   return out.join('\n');
 }
 

@@ -102,14 +102,8 @@ describe('Dewmark in VS Code', () => {
       const t = hoverText(hovers);
       return t.includes('state OA') ? t : undefined;
     });
-    for (const part of [
-      'humidity ratio',
-      'enthalpy',
-      'dew point',
-      'relative humidity',
-      'Pressure: 101.325 kPa',
-      'Method: ASHRAE',
-    ]) {
+    // Figures first, two to a row: key, value, unit.
+    for (const part of ['`w`', '`h`', '`dp`', '`rh`', 'g/kg', 'Pressure: 101.325 kPa', 'Method: ASHRAE']) {
       assert.ok(text.includes(part), `hover has "${part}":\n${text}`);
     }
   });
