@@ -60,8 +60,8 @@ describe('hover on references', () => {
   it('on a state with references: each taken property marked with its source, and a line saying so', () => {
     const { text, offset } = at('PH:', 0);
     const h = hover(noteOf(text), offset)!.markdown;
-    expect(h).toMatch(/\| dry-bulb \| `db` \| 40\.0 °C \| from OA \|/);
-    expect(h).toMatch(/\| humidity ratio \| `w` \| [\d.]+ g\/kg \| from OA \|/);
+    expect(h).toMatch(/\| `db` \| 40\.0 \| °C ← OA \|/);
+    expect(h).toMatch(/\| `w` \| [\d.]+ \| g\/kg ← OA \|/);
     expect(h).toContain('Taken from states above: db from OA + 8.0 K; w from OA.');
     expect(tableValue(h, 'db')).toBe(40);
   });
@@ -81,7 +81,7 @@ describe('hover on references', () => {
     expect(h.markdown).toContain('**supply SA**');
     // The leaving state's own hover marks the taken property and the process that defined it.
     const off = hover(note, text.indexOf('OFF') + 1)!.markdown;
-    expect(off).toMatch(/\| humidity ratio \| `w` \| [\d.]+ g\/kg \| from SA \|/);
+    expect(off).toMatch(/\| `w` \| [\d.]+ \| g\/kg ← SA \|/);
     expect(off).toContain('Defined by process CC from RA (`db=11.5C w=SA.w`).');
     const d = definition(note, offsets[0]!);
     expect(d && where(text, d.nameSpan)).toBe('3:SA');
@@ -89,7 +89,7 @@ describe('hover on references', () => {
 
   it('on the state name of a reference: the hover of that state', () => {
     const { text, offset } = at('MA.db', 1);
-    expect(hover(noteOf(text), offset)!.markdown.startsWith('**mix MA** — adiabatic mixing')).toBe(true);
+    expect(hover(noteOf(text), offset)!.markdown.startsWith('| **mix MA** — adiabatic mixing |')).toBe(true);
   });
 });
 

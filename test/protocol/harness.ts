@@ -282,11 +282,12 @@ export function positionOf(text: string, needle: string, atStart = false): Posit
   return { line, character };
 }
 
-/** The number in the hover table row of `key` (`| humidity ratio | \`w\` | 6.53 g/kg | |` → 6.53). */
+/** The number shown for `key` in a state hover's table (`| \`w\` | 6.53 | g/kg | …` → 6.53): the cell after the key's. */
 export function tableValue(markdown: string, key: string): number {
   const row = markdown.split('\n').find((l) => l.includes(`| \`${key}\` |`));
   if (!row) throw new Error(`no row for ${key} in:\n${markdown}`);
-  const cell = row.split('|')[3]!.trim();
+  const cells = row.split('|').map((c) => c.trim());
+  const cell = cells[cells.indexOf(`\`${key}\``) + 1] ?? '';
   const m = /^[-−]?\d+(\.\d+)?/.exec(cell.replace('−', '-'));
   if (!m) throw new Error(`no number in the ${key} row: ${row}`);
   return Number(m[0]);
