@@ -109,4 +109,21 @@ describe('inline hints', () => {
     expect(m, hints[2]!.label).not.toBeNull();
     expect(near(Number(m![1]!.replace('−', '-')), -6.608, 0.006)).toBe(true);
   });
+  it('a heat recovery line speaks of its first stream, as written (the outdoor air it cools)', () => {
+    // Hot outdoor air past a cooler exhaust on a sensible exchanger is cooled: the heat flows from
+    // the warmer stream to the colder one (common practice). The line used to show the second
+    // stream's process ("sensible heating · … added").
+    check(
+      air(
+        'state OA: db=32C rh=30%',
+        'state RA: db=24C rh=50%',
+        'recover HX: OA -> OAHX m=1kg/s, RA -> EAHX m=1kg/s eff_s=0.7',
+      ),
+      [
+        { after: 'rh=30%' },
+        { after: 'rh=50%' },
+        { after: 'eff_s=0.7', contains: ['sensible cooling', 'removed'], absent: ['heating', 'added'] },
+      ],
+    );
+  });
 });

@@ -69,7 +69,13 @@ function indexOf(note: Note): NoteIndex {
   let idx = indexes.get(note);
   if (!idx) {
     const items = new Map<Statement, EvaluatedItem>();
-    for (const item of note.analysis.items) items.set(item.statement, item);
+    // One item per statement: its first process if it has one (a process that defines its
+    // leaving state also yields that state; a heat recovery yields two states, then one process
+    // per stream, and its line speaks of the first stream as written), else its first item.
+    for (const item of note.analysis.items) {
+      const known = items.get(item.statement);
+      if (!known || (known.kind !== 'process' && item.kind === 'process')) items.set(item.statement, item);
+    }
     idx = { items };
     indexes.set(note, idx);
   }
