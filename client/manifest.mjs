@@ -13,6 +13,13 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import { isDeepStrictEqual } from 'node:util';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+
+/**
+ * VS Code's default editor.wordWrapBreakAfterCharacters (1.139) less '.', ',', '/' and '°', which
+ * occur inside the figures of inline hints.
+ */
+const WRAP_BREAK_AFTER =
+  ' \t})]?|&;\u00a2\u2032\u2033\u2030\u2103\u3001\u3002\uff61\uff64\uffe0\uff0c\uff0e\uff1a\uff1b\uff1f\uff01\uff05\u30fb\uff65\u309d\u309e\u30fd\u30fe\u30fc\u30a1\u30a3\u30a5\u30a7\u30a9\u30c3\u30e3\u30e5\u30e7\u30ee\u30f5\u30f6\u3041\u3043\u3045\u3047\u3049\u3063\u3083\u3085\u3087\u308e\u3095\u3096\u31f0\u31f1\u31f2\u31f3\u31f4\u31f5\u31f6\u31f7\u31f8\u31f9\u31fa\u31fb\u31fc\u31fd\u31fe\u31ff\u3005\u303b\uff67\uff68\uff69\uff6a\uff6b\uff6c\uff6d\uff6e\uff6f\uff70\u201d\u3009\u300b\u300d\u300f\u3011\u3015\uff09\uff3d\uff5d\uff63';
 const manifestPath = join(root, 'package.json');
 
 /**
@@ -180,7 +187,15 @@ export const fields = {
     },
     configurationDefaults: {
       // The hints after a statement run to about 50 characters; VS Code cuts inline hints at 43 by default.
-      '[markdown]': { 'editor.inlayHints.maximumLength': 0 },
+      '[markdown]': {
+        'editor.inlayHints.maximumLength': 0,
+        // Under word wrap VS Code may break a line after '.', ',', '/' and '°' (its default list of
+        // characters to break after), which splits a hint's figure (`12.⏎9 °C`, `39,⏎700 Btu/h`,
+        // `gr/⏎lb`). VS Code's default list without those four: a Markdown line then wraps at its
+        // spaces, and a figure (number, no-break space, unit) stays on one visual line
+        // (test/e2e/vscode-wrap.test.ts).
+        'editor.wordWrapBreakAfterCharacters': WRAP_BREAK_AFTER,
+      },
     },
     commands: [
       { command: 'dewmark.switchUnits', title: 'Switch Result Units (SI/IP)', category, icon: '$(symbol-ruler)' },
