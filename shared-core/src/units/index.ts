@@ -140,6 +140,9 @@ const SPECS: readonly UnitSpec[] = Object.freeze([
     fixed(3),
   ),
   u('inHg', [], 'pressure', 'IP', 'inch of mercury, conventional (3386.389 Pa)', 3386.389, 0, fixed(2)),
+  // Fan and duct pressures in IP are written in inches of water gauge ("in. w.c."): the
+  // conventional inch of water is 1000 kg/m³ × gn × 0.0254 m = 249.08891 Pa.
+  u('inH2O', ['inwc'], 'pressure', 'IP', 'inch of water, conventional (249.0889 Pa)', 249.08891, 0, fixed(2)),
 
   // humidity ratio (SI base kg/kg)
   u('g/kg', [], 'humidityRatio', 'SI', 'gram of water per kilogram of dry air', 1e-3, 0, fixed(2)),
@@ -449,7 +452,7 @@ export interface FormattedQuantity {
  * - % (rh, mixing fractions): 0.1;
  * - g/kg 0.01, kg/kg and lb/lb 0.00001 (the same 0.01 g/kg), gr/lb 0.1 (≈ 0.014 g/kg);
  * - kJ/kg 0.01, Btu/lb 0.01, J/kg 1;
- * - kPa and psia/psi 0.001, Pa 1, hPa/mbar 0.1, bar/atm 0.00001, inHg 0.01;
+ * - kPa and psia/psi 0.001, Pa 1, hPa/mbar 0.1, bar/atm 0.00001, inHg and inH2O 0.01;
  * - m³/kg 0.0001, ft³/lb 0.01; kg/m³ 0.001, lb/ft³ 0.0001; m and ft 1;
  * - flows and heat rates: 3 significant figures, never finer than kg/s 0.00001, kg/h 0.01,
  *   lb/h 0.1, lb/min 0.01, m³/s 0.00001, L/s and m³/h 0.1, cfm 1, kW 0.1, W 1, MW 0.0001,

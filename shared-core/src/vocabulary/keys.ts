@@ -407,7 +407,7 @@ const ROWS = [
     bare: 'error',
     title: 'fan total pressure rise',
     description: 'total pressure rise of a fan (with eff=)',
-    examples: ['dp_fan=750Pa'],
+    examples: ['dp_fan=750Pa', 'dp_fan=3inH2O'],
   },
   {
     key: 'eff',
