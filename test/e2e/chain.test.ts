@@ -10,15 +10,11 @@
  * tools (scripts/setup-e2e-tools.sh, or DEWMARK_E2E_TOOLS_DIR) the suite is skipped; under CI=true
  * it fails instead.
  */
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { analyzeNote } from '../../shared-core/src/analyze';
 import type { StateResult } from '../../shared-core/src/evaluate/types';
-import { startSession, type CodeServerSession } from './lib/codeServer';
-import { REPO_ROOT, skipWithout } from './lib/tools';
+import { type ExtensionSession, startExtensionSession } from './lib/extensionSession';
+import { skipWithout } from './lib/tools';
 
 const NOTE = 'ahu2-chain.md';
 const TEXT = [
@@ -59,31 +55,20 @@ async function chartParts(page: unknown): Promise<{ markers: string[]; processes
 const skip = skipWithout('node24', 'code-server', 'chromium', 'playwright-core');
 
 describe.skipIf(skip)('a design chain in code-server', () => {
-  let session: CodeServerSession;
-  let work: string;
+  let session: ExtensionSession;
 
   beforeAll(async () => {
-    work = mkdtempSync(join(tmpdir(), 'dewmark-chain-'));
-    const vsix = join(work, 'dewmark-chain.vsix');
-    // Under `npm test` the bundles were just built; rebuilding here could race other suites.
-    const build = process.env.npm_lifecycle_event === 'test' ? ['--no-build'] : [];
-    const r = spawnSync(process.execPath, [join(REPO_ROOT, 'client', 'package-vsix.mjs'), ...build, '--out', vsix], {
-      cwd: REPO_ROOT,
-      encoding: 'utf8',
-      timeout: 180_000,
+    session = await startExtensionSession({
+      workPrefix: 'dewmark-chain-',
+      vsixName: 'dewmark-chain.vsix',
+      server: { files: { [NOTE]: TEXT }, settings: { '[markdown]': { 'editor.wordWrap': 'off' } } },
+      workbench: { name: 'chain', timeoutMs: 45_000 },
+      open: NOTE,
     });
-    if (r.status !== 0 || !existsSync(vsix))
-      throw new Error(`packaging failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
-    session = await startSession(
-      { extensions: [vsix], files: { [NOTE]: TEXT }, settings: { '[markdown]': { 'editor.wordWrap': 'off' } } },
-      { name: 'chain', timeoutMs: 45_000 },
-    );
-    await session.workbench.openFile(NOTE);
   }, 300_000);
 
   afterAll(async () => {
     await session?.close();
-    if (work) rmSync(work, { recursive: true, force: true });
   });
 
   it('the hover on a referenced value names its source and shows its value now', async () => {

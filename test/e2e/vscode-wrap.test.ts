@@ -7,12 +7,8 @@
  * an SI one. Without the tools the suite is skipped; under CI=true it fails instead.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { startSession, type CodeServerSession } from './lib/codeServer';
-import { REPO_ROOT, skipWithout } from './lib/tools';
+import { type ExtensionSession, startExtensionSession } from './lib/extensionSession';
+import { skipWithout } from './lib/tools';
 
 const NOTE = 'cafe-wing-wrap.md';
 // Demo data of the invented building; statement lines of several lengths, so that the wraps fall
@@ -44,36 +40,25 @@ const FIGURE =
 const skip = skipWithout('node24', 'code-server', 'chromium', 'playwright-core');
 
 describe.skipIf(skip)('inline hints under word wrap in code-server', () => {
-  let session: CodeServerSession;
-  let work: string;
+  let session: ExtensionSession;
 
   beforeAll(async () => {
-    work = mkdtempSync(join(tmpdir(), 'dewmark-wrap-'));
-    const vsix = join(work, 'dewmark-e2e.vsix');
-    const build = process.env.npm_lifecycle_event === 'test' ? ['--no-build'] : [];
-    const r = spawnSync(process.execPath, [join(REPO_ROOT, 'client', 'package-vsix.mjs'), ...build, '--out', vsix], {
-      cwd: REPO_ROOT,
-      encoding: 'utf8',
-      timeout: 180_000,
-    });
-    if (r.status !== 0 || !existsSync(vsix))
-      throw new Error(`npm run package failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
-    session = await startSession(
-      {
-        extensions: [vsix],
+    session = await startExtensionSession({
+      workPrefix: 'dewmark-wrap-',
+      vsixName: 'dewmark-e2e.vsix',
+      server: {
         files: { [NOTE]: NOTE_TEXT },
         // Word wrap on for Markdown (the user's setting, as many have it); nothing else about wrapping is set.
         settings: { '[markdown]': { 'editor.wordWrap': 'on' } },
       },
       // A narrow window: with the side bar open the editor is about 50 columns wide.
-      { name: 'dewmark-wrap', timeoutMs: 45_000, viewport: { width: 820, height: 900 } },
-    );
-    await session.workbench.openFile(NOTE);
+      workbench: { name: 'dewmark-wrap', timeoutMs: 45_000, viewport: { width: 820, height: 900 } },
+      open: NOTE,
+    });
   }, 300_000);
 
   afterAll(async () => {
     await session?.close();
-    if (work) rmSync(work, { recursive: true, force: true });
   });
 
   it('wraps a hinted line only between figures: every number stays with its unit', async () => {

@@ -10,12 +10,10 @@
  * setup-e2e-tools.sh) the suite is skipped with a message; under CI=true it fails instead.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { EXAMPLE_1, FIXTURE_NOTE, INFEASIBLE, checkExample1, readFigure } from '../fixtures/e2e/expected';
-import { startSession, type CodeServerSession } from './lib/codeServer';
+import { type ExtensionSession, startExtensionSession } from './lib/extensionSession';
 import { REPO_ROOT, skipWithout } from './lib/tools';
 
 /** Process ids of the language servers started from this run's extensions folder (read from /proc). */
@@ -115,42 +113,31 @@ const hintedLine = (src: string, hint: string) => new RegExp(`^${escapeRegExp(sr
 const skip = skipWithout('node24', 'code-server', 'chromium', 'playwright-core');
 
 describe.skipIf(skip)('Dewmark extension in code-server', () => {
-  let session: CodeServerSession;
-  let work: string;
+  let session: ExtensionSession;
   let marker: string;
   const t0 = Date.now();
 
   beforeAll(async () => {
-    work = mkdtempSync(join(tmpdir(), 'dewmark-vsix-'));
-    const vsix = join(work, 'dewmark-e2e.vsix');
-    // The same packaging a user's .vsix gets: build, then vsce with .vscodeignore. Under `npm test`
-    // the bundles were just built, and rebuilding them here could race other suites that run them.
-    const build = process.env.npm_lifecycle_event === 'test' ? ['--no-build'] : [];
-    const r = spawnSync(process.execPath, [join(REPO_ROOT, 'client', 'package-vsix.mjs'), ...build, '--out', vsix], {
-      cwd: REPO_ROOT,
-      encoding: 'utf8',
-      timeout: 180_000,
-    });
-    if (r.status !== 0 || !existsSync(vsix))
-      throw new Error(`npm run package failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
-    console.log(`[e2e] packaged ${vsix}: ${(statSync(vsix).size / 1024).toFixed(1)} KiB`);
-    marker = join(work, 'activation.json');
-    session = await startSession(
-      {
-        extensions: [vsix],
-        files: { [FIXTURE_NOTE]: fixtureText, [`notes/${CLOSED_NOTE}`]: closedText, [UNITS_NOTE]: unitsText },
-        env: { DEWMARK_ACTIVATION_MARKER: marker },
-        settings: { '[markdown]': { 'editor.wordWrap': 'off' } },
+    session = await startExtensionSession({
+      workPrefix: 'dewmark-vsix-',
+      vsixName: 'dewmark-e2e.vsix',
+      server: (work) => {
+        marker = join(work, 'activation.json');
+        return {
+          files: { [FIXTURE_NOTE]: fixtureText, [`notes/${CLOSED_NOTE}`]: closedText, [UNITS_NOTE]: unitsText },
+          env: { DEWMARK_ACTIVATION_MARKER: marker },
+          settings: { '[markdown]': { 'editor.wordWrap': 'off' } },
+        };
       },
       // Word wrap off (Markdown wraps by default) so each note line is one editor line with its hint.
-      { name: 'dewmark', timeoutMs: 45_000 },
-    );
-    await session.workbench.openFile(FIXTURE_NOTE);
+      workbench: { name: 'dewmark', timeoutMs: 45_000 },
+      open: FIXTURE_NOTE,
+    });
+    console.log(`[e2e] packaged ${session.vsix}: ${(statSync(session.vsix).size / 1024).toFixed(1)} KiB`);
   }, 300_000);
 
   afterAll(async () => {
     await session?.close();
-    if (work) rmSync(work, { recursive: true, force: true });
     console.log(`[e2e] code-server suite wall time ${((Date.now() - t0) / 1000).toFixed(1)} s`);
   });
 

@@ -12,12 +12,10 @@
  * tools (scripts/setup-e2e-tools.sh) the suite is skipped with a message; under CI=true it fails.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { EXAMPLE_1, FIXTURE_NOTE, INFEASIBLE, checkExample1, readFigure } from '../fixtures/e2e/expected';
-import { startSession, type CodeServerSession } from './lib/codeServer';
+import { type ExtensionSession, startExtensionSession } from './lib/extensionSession';
 import { REPO_ROOT, skipWithout } from './lib/tools';
 
 /** Processes whose command line names `needle` (read from /proc). */
@@ -42,24 +40,13 @@ const escapeRegExp = (t: string) => t.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&');
 const skip = skipWithout('node24', 'code-server', 'chromium', 'playwright-core');
 
 describe.skipIf(skip)('Dewmark web build in the web worker extension host of code-server', () => {
-  let session: CodeServerSession;
-  let work: string;
+  let session: ExtensionSession;
 
   beforeAll(async () => {
-    work = mkdtempSync(join(tmpdir(), 'dewmark-web-vsix-'));
-    const vsix = join(work, 'dewmark-web-e2e.vsix');
-    // Under `npm test` the bundles were just built; rebuilding here could race suites that run them.
-    const build = process.env.npm_lifecycle_event === 'test' ? ['--no-build'] : [];
-    const r = spawnSync(process.execPath, [join(REPO_ROOT, 'client', 'package-vsix.mjs'), ...build, '--out', vsix], {
-      cwd: REPO_ROOT,
-      encoding: 'utf8',
-      timeout: 180_000,
-    });
-    if (r.status !== 0 || !existsSync(vsix))
-      throw new Error(`npm run package failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
-    session = await startSession(
-      {
-        extensions: [vsix],
+    session = await startExtensionSession({
+      workPrefix: 'dewmark-web-vsix-',
+      vsixName: 'dewmark-web-e2e.vsix',
+      server: {
         files: {
           [FIXTURE_NOTE]: fixtureText,
           [IP_NOTE]: IP_TEXT,
@@ -71,14 +58,13 @@ describe.skipIf(skip)('Dewmark web build in the web worker extension host of cod
           '[markdown]': { 'editor.wordWrap': 'off' },
         },
       },
-      { name: 'dewmark-web', timeoutMs: 45_000 },
-    );
-    await session.workbench.openFile(FIXTURE_NOTE);
+      workbench: { name: 'dewmark-web', timeoutMs: 45_000 },
+      open: FIXTURE_NOTE,
+    });
   }, 300_000);
 
   afterAll(async () => {
     await session?.close();
-    if (work) rmSync(work, { recursive: true, force: true });
   });
 
   it(`shows an inline hint with the computed values (${EXAMPLE_1.source})`, async () => {
