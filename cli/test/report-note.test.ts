@@ -198,6 +198,33 @@ describe('the report renders the whole note', () => {
     expect(plain).toContain('<tr><td>prepared by</td><td></td><td></td><td></td></tr>');
   });
 
+  it('draws one chart per heading section, each captioned by its heading; one section keeps one chart', async () => {
+    // Invented demo data for the library's two design cases.
+    const two = [
+      '# Larchmoor Library — AHU-3',
+      '## Summer',
+      '```air\nstate OA: db=30C rh=40%\nstate RA: db=24C rh=50%\n```',
+      '## Winter',
+      '```air\nstate OA_W: db=-5C rh=80%\nstate RA_W: db=21C rh=35%\n```',
+      '',
+    ].join('\n\n');
+    writeFileSync(join(dir, 'cases.md'), two);
+    expect((await dewmark(['report', 'cases.md', '-o', 'cases.html'], dir)).code).toBe(0);
+    const out = readFileSync(join(dir, 'cases.html'), 'utf8');
+    const figures = [...out.matchAll(/<figure class="chart" id="chart-(\d+)"><figcaption>([^<]*)<\/figcaption>/g)];
+    expect(figures.map((f) => f[2])).toEqual(['Summer', 'Winter']);
+    expect(out).toContain('<h2 class="part" id="h-chart">Charts</h2>');
+    // Each chart marks its own section's states only.
+    const svgs = out.split('<figure class="chart"').slice(1);
+    expect(svgs[0]).toContain('data-name="OA"');
+    expect(svgs[0]).not.toContain('data-name="OA_W"');
+    expect(svgs[1]).toContain('data-name="RA_W"');
+    expect(svgs[1]).not.toContain('data-name="RA"');
+    // The note of the other tests has one section: one chart, no caption.
+    expect(html.match(/<figure class="chart"/g)).toHaveLength(1);
+    expect(html).not.toContain('<figcaption>');
+  });
+
   it('reads a leading rule followed by prose as a rule, not as front matter', async () => {
     writeFileSync(join(dir, 'rule.md'), '---\nIntro under a rule.\n\n---\n\n# Boiler house\n');
     expect((await dewmark(['report', 'rule.md', '-o', 'rule.html'], dir)).code).toBe(0);

@@ -11,7 +11,7 @@
  */
 import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
-import { renderChart } from '@dewmark/core/chart';
+import { renderChartCases } from '@dewmark/core/chart';
 import type { PressureBasis } from '@dewmark/core/evaluate';
 import { itemsResultsHtml, noteHtml, type FrontMatter, type ImageAnswer } from '@dewmark/core/present';
 import { LineIndex, figure, type Analysis, type CoreDiagnostic } from '../core';
@@ -217,7 +217,8 @@ img,svg{max-width:100%;height:auto}
 .dm-missing-image{display:inline-block;border:1px dashed var(--warn);padding:2px 6px;color:var(--warn)}
 .sev{font-weight:650}.sev.error{color:var(--err)}.sev.warning{color:var(--warn)}.sev.info{color:var(--muted)}
 .name{font-weight:650}
-.chart{background:var(--card);border:1px solid var(--line);border-radius:6px;padding:8px;margin:0;max-width:100%}
+.chart{background:var(--card);border:1px solid var(--line);border-radius:6px;padding:8px;margin:0 0 12px;max-width:100%}
+.chart figcaption{font-weight:650;margin:0 0 4px}
 .chart svg{display:block;max-width:100%;height:auto}
 .none{color:var(--muted);font-style:italic}
 .small{font-size:12px;color:var(--muted)}
@@ -337,7 +338,19 @@ export function renderReportHtml(input: ReportInput, opts: ReportOptions = {}): 
   const body = noteHtml(text, a, { image: opts.image });
   const fmTitle = body.frontMatter?.fields.find((f) => f.key === 'title')?.value;
   const title = body.title ?? fmTitle ?? path;
-  const chart = renderChart(a, { source: text, title: `Psychrometric chart — ${title}`, idPrefix: 'report-chart' });
+  // One chart per heading section (the cases a reader compares: summer, winter, part load), as
+  // `dewmark chart` draws by default; a note with one section keeps one chart with the plain title.
+  const charts = renderChartCases(a, 'section', {
+    source: text,
+    title: `Psychrometric chart — ${title}`,
+    idPrefix: 'report-chart',
+  });
+  const chart = charts
+    .map((c, i) => {
+      const caption = charts.length > 1 ? `<figcaption>${escapeHtml(c.case.title)}</figcaption>` : '';
+      return `<figure class="chart" id="chart-${i + 1}">${caption}${c.svg}</figure>`;
+    })
+    .join('\n');
   const summary = [
     `<span>${plural(nStates, 'state or mix', 'states and mixes')}</span>`,
     `<span>${plural(nProcs, 'process', 'processes')}</span>`,
@@ -392,8 +405,8 @@ ${body.missingImages.length > 0 ? `<p class="small" id="missing-images">${plural
 <section aria-labelledby="h-diagnostics"><h2 class="part" id="h-diagnostics">Diagnostics</h2>
 ${diagnosticsSection(a, lines, text)}
 </section>
-<section aria-labelledby="h-chart"><h2 class="part" id="h-chart">Chart</h2>
-<figure class="chart" id="chart">${chart}</figure>
+<section aria-labelledby="h-chart"><h2 class="part" id="h-chart">${charts.length > 1 ? 'Charts' : 'Chart'}</h2>
+<div class="charts" id="chart">${chart}</div>
 </section>
 <section aria-labelledby="h-index"><h2 class="part" id="h-index">Index of states, mixes and processes</h2>
 ${index || '<p class="none" id="index-none">The note defines no states, mixes or processes.</p>'}
