@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../../shared-core/src/analyze';
 import { evalFileJson, evalFileText, fileResult, roundForJson, JSON_SIGNIFICANT_DIGITS } from '../src/output';
-import { run, type CliIO } from '../src/run';
+import { runCli as dewmark } from './lib/runCli';
 
 const fixtures = join(__dirname, '..', '..', 'test', 'fixtures');
 
@@ -20,25 +20,6 @@ function streamed(path: string, text: string, depth: number): { text: string; pi
   const pieces: string[] = [];
   evalFileText(fileResult(path, text, analyzeNote(text)), depth, (c) => pieces.push(c));
   return { text: pieces.join(''), pieces: pieces.length };
-}
-
-/** Runs the command line in this process, collecting what it prints. */
-async function dewmark(args: string[], cwd: string): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const io: CliIO = {
-    cwd,
-    out: (t) => {
-      out += t;
-    },
-    err: (t) => {
-      err += t;
-    },
-    stdin: async () => new Uint8Array(),
-    stderrIsTTY: false,
-  };
-  const code = await run(args, io);
-  return { code, out, err };
 }
 
 /** A note of `n` states (invented figures), with a mix, a process and an error every 50 states. */

@@ -14,7 +14,7 @@ import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { run, type CliIO } from '../src/run';
+import { runCli as dewmark } from './lib/runCli';
 
 interface Psy {
   SetUnitSystem(u: unknown): void;
@@ -66,29 +66,6 @@ and [a bad link](javascript:alert(1)), ![remote](https://example.com/x.png).
 
 Closing words.
 `;
-
-interface Captured {
-  code: number;
-  out: string;
-  err: string;
-}
-
-async function dewmark(args: string[], cwd: string): Promise<Captured> {
-  let out = '';
-  let err = '';
-  const io: CliIO = {
-    cwd,
-    out: (t) => {
-      out += t;
-    },
-    err: (t) => {
-      err += t;
-    },
-    stdin: async () => new Uint8Array(),
-    stderrIsTTY: false,
-  };
-  return { code: await run(args, io), out, err };
-}
 
 let dir = '';
 let html = '';

@@ -11,7 +11,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { run, type CliIO } from '../src/run';
+import { runCli } from './lib/runCli';
 
 let repo = '';
 let outside = '';
@@ -39,22 +39,8 @@ function git(args: string[], cwd = repo): string {
   );
 }
 
-async function dewmark(args: string[], cwd = repo): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const io: CliIO = {
-    cwd,
-    out: (t) => {
-      out += t;
-    },
-    err: (t) => {
-      err += t;
-    },
-    stdin: async () => new TextEncoder().encode(note('32C')),
-    stderrIsTTY: false,
-  };
-  return { code: await run(args, io), out, err };
-}
+/** Runs the command line in `repo` by default; standard input holds the note as first written. */
+const dewmark = (args: string[], cwd = repo) => runCli(args, cwd, new TextEncoder().encode(note('32C')));
 
 /** The rows of the report's changes table as cell texts (tags removed). */
 function changeRows(html: string): string[][] {

@@ -13,7 +13,7 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync, existsSync
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { run, type CliIO } from '../../cli/src/run';
+import { runCli as dewmark } from '../../cli/test/lib/runCli';
 import { analyzeNote } from '../../shared-core/src/analyze';
 import {
   chartDataFromAnalysis,
@@ -41,30 +41,6 @@ state FOG: db=20C w=18g/kg       # above saturation: fog
 
 The hall is held at \`state HALL: db=23C rh=45%\` in summer.
 `;
-
-interface Captured {
-  code: number;
-  out: string;
-  err: string;
-}
-
-async function dewmark(args: string[], cwd: string): Promise<Captured> {
-  let out = '';
-  let err = '';
-  const io: CliIO = {
-    cwd,
-    out: (t) => {
-      out += t;
-    },
-    err: (t) => {
-      err += t;
-    },
-    stdin: async () => new Uint8Array(),
-    stderrIsTTY: false,
-  };
-  const code = await run(args, io);
-  return { code, out, err };
-}
 
 let dir = '';
 beforeAll(() => {
