@@ -12,28 +12,11 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { writeEditorConfig } from './lib/editorConfigs';
 import { runEmacs } from './lib/emacs';
-import { REPO_ROOT, requireTool } from './lib/tools';
+import { NOTE, H_KJ_PER_KG, SERVER, W_G_PER_KG } from './lib/lspClientNote';
+import { requireTool } from './lib/tools';
 
-const SERVER = join(REPO_ROOT, 'bin', 'dewmark-language-server.js');
 const CONFIG_DIR = mkdtempSync(join(tmpdir(), 'dewmark-emacs-config-'));
 afterAll(() => rmSync(CONFIG_DIR, { recursive: true, force: true }));
-
-// Invented building.
-const NOTE = [
-  '# Harbour Street Lab — AHU-2',
-  '',
-  '```air',
-  'state OA: db=40C wb=20C        # hot, dry intake air',
-  'state RA: db=24 rh=50%',
-  'mix MA: OA 25% + RA 75%',
-  '```',
-  '',
-].join('\n');
-
-// ASHRAE HoF 2017 SI Ch.1 Example 1 (40 °C db / 20 °C wb, 101.325 kPa): W 0.0065 kg/kg ± 0.0001,
-// h 56.7 kJ/kg ± 0.1 (PsychroLib test-suite tolerances), plus half a shown digit.
-const W_G_PER_KG = { value: 6.5, tol: 0.105 };
-const H_KJ_PER_KG = { value: 56.7, tol: 0.105 };
 
 describe('Emacs (eglot) as the LSP client', () => {
   it('starts the server from the README configuration, shows its diagnostics, hovers and follows an edit', async (ctx) => {

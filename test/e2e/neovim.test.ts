@@ -11,28 +11,12 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { writeEditorConfig } from './lib/editorConfigs';
 import { completionLabels, hoverText, inlayHintLabels, positionOf, runNeovim, type StepResult } from './lib/neovim';
-import { REPO_ROOT, requireTool } from './lib/tools';
+import { NOTE, H_KJ_PER_KG, SERVER, W_G_PER_KG } from './lib/lspClientNote';
+import { requireTool } from './lib/tools';
 
 const CONFIG_DIR = mkdtempSync(join(tmpdir(), 'dewmark-nvim-config-'));
 const CONFIG = writeEditorConfig('neovim-0.7', CONFIG_DIR);
 afterAll(() => rmSync(CONFIG_DIR, { recursive: true, force: true }));
-const SERVER = join(REPO_ROOT, 'bin', 'dewmark-language-server.js');
-
-const NOTE = [
-  '# Harbour Street Lab — AHU-2',
-  '',
-  '```air',
-  'state OA: db=40C wb=20C        # hot, dry intake air',
-  'state RA: db=24 rh=50%',
-  'mix MA: OA 25% + RA 75%',
-  '```',
-  '',
-].join('\n');
-
-// ASHRAE HoF 2017 SI Ch.1 Example 1 (40 °C db / 20 °C wb, 101.325 kPa): W 0.0065 kg/kg ± 0.0001,
-// h 56.7 kJ/kg ± 0.1 (PsychroLib test-suite tolerances), plus half a shown digit.
-const W_G_PER_KG = { value: 6.5, tol: 0.105 };
-const H_KJ_PER_KG = { value: 56.7, tol: 0.105 };
 
 describe('Neovim as the LSP client', () => {
   it('hovers, diagnoses an edit, lists symbols, completes and answers an inlay-hint request', async (ctx) => {
