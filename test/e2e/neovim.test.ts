@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { writeEditorConfig } from './lib/editorConfigs';
 import { completionLabels, hoverText, inlayHintLabels, positionOf, runNeovim, type StepResult } from './lib/neovim';
-import { NOTE, H_KJ_PER_KG, SERVER, W_G_PER_KG } from './lib/lspClientNote';
+import { expectStateOaHover, NOTE, SERVER } from './lib/lspClientNote';
 import { requireTool } from './lib/tools';
 
 const CONFIG_DIR = mkdtempSync(join(tmpdir(), 'dewmark-nvim-config-'));
@@ -45,12 +45,7 @@ describe('Neovim as the LSP client', () => {
     expect(before.diagnostics[0]!.range.start).toEqual(positionOf(NOTE, '24 rh', 0));
 
     const hover = hoverText(run.step('hover').result);
-    expect(hover).toContain('**state OA**');
-    const w = Number(/\| `w` \| ([\d.]+) \| g\/kg/.exec(hover)?.[1]);
-    const h = Number(/\| `h` \| ([\d.]+) \| kJ\/kg/.exec(hover)?.[1]);
-    expect(Math.abs(w - W_G_PER_KG.value)).toBeLessThanOrEqual(W_G_PER_KG.tol);
-    expect(Math.abs(h - H_KJ_PER_KG.value)).toBeLessThanOrEqual(H_KJ_PER_KG.tol);
-    expect(hover).toContain('Design aid only');
+    expectStateOaHover(hover);
 
     const edit = run.step('edit');
     expect(edit.diagnostics?.version).toBe(edit.version);
