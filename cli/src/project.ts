@@ -4,9 +4,8 @@
  * patterns choose which found notes are checked. Options given on the command line win over it.
  * Each folder is looked at once, each project file read once.
  */
-import { readFileSync } from 'node:fs';
-import { dirname, isAbsolute, join, relative, sep } from 'node:path';
-import { projectFilter, type Input, type LeftOutByProject } from '@dewmark/files';
+import { dirname, isAbsolute, relative, sep } from 'node:path';
+import { cachedDiskFiles, projectFilter, type Input, type LeftOutByProject } from '@dewmark/files';
 import {
   findProjectConfig,
   readProjectSettings,
@@ -48,23 +47,7 @@ function settingsOf(config: ProjectConfig, cwd: string, problems: string[]): Par
  * directory). `cli` holds only the options given on the command line.
  */
 export function selectWithProjects(inputs: Input[], cwd: string, cli: Partial<EvaluateSettings>): ProjectSelection {
-  const texts = new Map<string, string | null>();
-  const fs: ConfigFileSystem = {
-    read(path) {
-      if (!texts.has(path)) {
-        let text: string | null = null;
-        try {
-          text = readFileSync(path, 'utf8');
-        } catch {
-          text = null;
-        }
-        texts.set(path, text);
-      }
-      return texts.get(path)!;
-    },
-    parent: (dir) => dirname(dir),
-    join: (dir, name) => join(dir, name),
-  };
+  const fs: ConfigFileSystem = cachedDiskFiles();
   const byDir = new Map<string, ProjectConfig | null>();
   const perConfig = new Map<
     ProjectConfig,

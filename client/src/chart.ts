@@ -24,6 +24,7 @@ import { analyzeText, readSettings } from '@dewmark/core/service';
 import { HOST_MAX_NOTE_KB, hostBounded } from './hostLimit';
 import { SETTINGS_SECTION } from '@dewmark/protocol';
 import { COMMANDS } from './commands';
+import { rawSettingsFor } from './settingKeys';
 
 /** The last segment of a URI path (the file name). No Node module: the browser build runs this too. */
 function basename(path: string): string {
@@ -34,26 +35,6 @@ function basename(path: string): string {
 function randomNonce(): string {
   const bytes = crypto.getRandomValues(new Uint8Array(18));
   return btoa(String.fromCharCode(...bytes));
-}
-
-/** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */
-const SETTING_KEYS = [
-  'units',
-  'pressure',
-  'elevation',
-  'inlayHints.properties',
-  'precision',
-  'checkClaims',
-  'hover.secondaryUnits',
-  'maxNoteSizeKB',
-];
-
-/** The settings section for a document, as the plain object the server would receive. */
-function settingsFor(uri: vscode.Uri): Record<string, unknown> {
-  const cfg = vscode.workspace.getConfiguration(SETTINGS_SECTION, uri);
-  const out: Record<string, unknown> = {};
-  for (const key of SETTING_KEYS) out[key] = cfg.get(key);
-  return out;
 }
 
 /** What the panel shows: the chart's SVG and the line above it. */
@@ -72,7 +53,7 @@ interface ChartView {
  */
 function chartView(doc: vscode.TextDocument, nonce: string, offset: number, all: boolean, width: number): ChartView {
   const text = doc.getText();
-  const settings = hostBounded(readSettings(settingsFor(doc.uri)).settings);
+  const settings = hostBounded(readSettings(rawSettingsFor(doc.uri)).settings);
   const note = analyzeText(text, settings);
   if (note.limited) {
     // Over the dewmark.maxNoteSizeKB limit: not evaluated, so nothing to draw; say why.

@@ -40,6 +40,7 @@ import {
 } from './noteStatus';
 import { dewmarkPreviewPlugin } from './preview';
 import { RestartPolicy } from './restartPolicy';
+import { rawSettingsFor } from './settingKeys';
 
 /** When this module was loaded (for the activation-time marker). */
 const loadedAt = performance.now();
@@ -67,24 +68,9 @@ export interface DewmarkApi {
   extendMarkdownIt<T extends object>(md: T): T;
 }
 
-/** The `dewmark.*` keys the core reads, as one plain object for {@link readSettings}. */
-const SETTING_KEYS = [
-  'units',
-  'pressure',
-  'elevation',
-  'inlayHints.properties',
-  'precision',
-  'checkClaims',
-  'hover.secondaryUnits',
-  'maxNoteSizeKB',
-];
-
 /** The service settings for a document (or the window's when there is none), as the server reads them. */
 export function documentSettings(uri: vscode.Uri | undefined): ServiceSettings {
-  const cfg = vscode.workspace.getConfiguration(SETTINGS_SECTION, uri);
-  const raw: Record<string, unknown> = {};
-  for (const key of SETTING_KEYS) raw[key] = cfg.get(key);
-  return readSettings(raw).settings;
+  return readSettings(rawSettingsFor(uri)).settings;
 }
 
 /** The preview's `env.currentDocument`, when VS Code passes it. */

@@ -6,6 +6,7 @@
  */
 import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
 import type { Input } from './select';
+export { cachedDiskFiles, type CachedDiskFiles } from './diskFiles';
 export { projectFilter, type LeftOutByProject, type ProjectPatterns } from './project';
 
 export {

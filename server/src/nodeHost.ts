@@ -4,10 +4,10 @@
  * by `@dewmark/files` (./projectScope), and the workspace check (./checkWorkspace). The web build has neither (./browserMain), so nothing here may be imported
  * by the code the two builds share.
  */
-import { readFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { findProjectConfig, type ConfigFileSystem } from '@dewmark/core/service';
+import { findProjectConfig } from '@dewmark/core/service';
+import { cachedDiskFiles } from '@dewmark/files';
 import { registerCheckWorkspace } from './checkWorkspace';
 import type { ProjectFiles } from './projectFiles';
 import { projectScope } from './projectScope';
@@ -15,24 +15,8 @@ import type { ServerHost } from './server';
 
 /** Project files on this machine's disk, each read once until the next change. */
 export function nodeProjectFiles(): ProjectFiles {
-  /** Project file texts read since the last change (null: none there), so each is read once. */
-  const texts = new Map<string, string | null>();
-  const fs: ConfigFileSystem = {
-    read: (path) => {
-      if (!texts.has(path)) {
-        let text: string | null = null;
-        try {
-          text = readFileSync(path, 'utf8');
-        } catch {
-          text = null;
-        }
-        texts.set(path, text);
-      }
-      return texts.get(path)!;
-    },
-    parent: (d) => dirname(d),
-    join: (d, name) => join(d, name),
-  };
+  /** Project file texts read since the last change, so each is read once. */
+  const fs = cachedDiskFiles();
   return {
     find(uri) {
       if (!uri.startsWith('file:')) return null;
@@ -45,7 +29,7 @@ export function nodeProjectFiles(): ProjectFiles {
       return findProjectConfig(dir, fs);
     },
     scope: projectScope,
-    clear: () => texts.clear(),
+    clear: () => fs.clear(),
   };
 }
 

@@ -16,7 +16,7 @@
  */
 import { solveForNote } from '../evaluate/solve';
 import type { SolveOptions, SolveResult } from '../physics/types';
-import type { CoreDiagnostic, NameNode, StateStatement, Statement } from '../notation/ast';
+import type { CoreDiagnostic, NameNode, PropertyNode, StateStatement, Statement } from '../notation/ast';
 import { createNoteParser } from '../notation/incremental';
 import type { Span } from '../text/types';
 import { finishAnalysis } from './analyze';
@@ -320,6 +320,33 @@ function readsTheSame(a: EvaluatedItem, b: EvaluatedItem): boolean {
 }
 
 /**
+ * The claims of an old statement for its moved copy: each claim's property node is the one at the
+ * same place in `to`. Null when a claim's property is not among `from` (then it cannot be mapped).
+ */
+function movedClaims(
+  claims: readonly ClaimResult[],
+  from: readonly PropertyNode[],
+  to: readonly PropertyNode[],
+): ClaimResult[] | null {
+  const out: ClaimResult[] = [];
+  for (const c of claims) {
+    const i = from.indexOf(c.prop);
+    if (i < 0) return null;
+    // The shape the evaluator builds (checkClaim), key order included.
+    out.push({
+      key: c.key,
+      prop: to[i]!,
+      writtenSI: c.writtenSI,
+      computedSI: c.computedSI,
+      toleranceSI: c.toleranceSI,
+      pass: c.pass,
+      computedText: c.computedText,
+    });
+  }
+  return out;
+}
+
+/**
  * The previous result and diagnostics of a mix or process for `stmt` (its old statement moved by
  * `d`). Every span must lie inside the old statement (one pointing elsewhere, such as a related
  * definition, makes it evaluate again). Null when something cannot be mapped.
@@ -348,20 +375,8 @@ function relocateDependent(
     // Not moved, nothing to map: the old result as it is.
     result = old;
   } else if (old) {
-    const claims: ClaimResult[] = [];
-    for (const c of old.claims) {
-      const i = from.props.indexOf(c.prop);
-      if (i < 0) return null;
-      claims.push({
-        key: c.key,
-        prop: stmt.props[i]!,
-        writtenSI: c.writtenSI,
-        computedSI: c.computedSI,
-        toleranceSI: c.toleranceSI,
-        pass: c.pass,
-        computedText: c.computedText,
-      });
-    }
+    const claims = movedClaims(old.claims, from.props, stmt.props);
+    if (!claims) return null;
     if (old.kind === 'process') {
       if (stmt.keyword !== 'process') return null;
       result = { ...old, statement: stmt, claims };
@@ -418,21 +433,8 @@ function relocate(
     failed = true;
     return s;
   };
-  const claims: ClaimResult[] = [];
-  for (const c of old.claims) {
-    const i = from.props.indexOf(c.prop);
-    if (i < 0) return null;
-    // The shape the evaluator builds (checkClaim), key order included.
-    claims.push({
-      key: c.key,
-      prop: stmt.props[i]!,
-      writtenSI: c.writtenSI,
-      computedSI: c.computedSI,
-      toleranceSI: c.toleranceSI,
-      pass: c.pass,
-      computedText: c.computedText,
-    });
-  }
+  const claims = movedClaims(old.claims, from.props, stmt.props);
+  if (!claims) return null;
   let pressure: PressureBasis = site;
   if (!onSite) pressure = old.pressure.span ? { ...old.pressure, span: move(old.pressure.span) } : { ...old.pressure };
   if (old.kind !== 'state' || old.streams !== undefined || old.massFlowKgS !== undefined) return null;
