@@ -11,6 +11,7 @@ import type {
   StateStatement,
   SupplyStatement,
 } from '../notation/ast';
+import { namesSomething } from '../notation/named';
 import type { Analysis, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from './types';
 import type { UnitSystem } from '../units/types';
 import { EvalContext, type NameDef } from './context';
@@ -47,14 +48,7 @@ function prescan(statements: Statement[], defs: Map<string, NameDef[]>, derives:
     else defs.set(d.name, [d]);
   };
   statements.forEach((s, i) => {
-    if (
-      (s.keyword === 'state' ||
-        s.keyword === 'mix' ||
-        s.keyword === 'process' ||
-        s.keyword === 'supply' ||
-        s.keyword === 'recover') &&
-      s.name
-    ) {
+    if (namesSomething(s) && s.name) {
       add(s.name.text, s.name.span, i, s.keyword);
     }
     if (s.keyword === 'process' && s.name && s.from && s.to && !defs.has(s.to.text) && hasSpecification(s)) {

@@ -5,6 +5,7 @@
  */
 import type { EvaluatedItem } from '../evaluate/types';
 import type { Keyword, NameNode } from '../notation/ast';
+import { namesSomething } from '../notation/named';
 import { KEYWORDS } from '../notation/parse';
 import type { Span } from '../text/types';
 import { lineNumber, targetAt } from './note';
@@ -40,15 +41,7 @@ function occurrences(note: Note, name: string, includeDefinitions: boolean): Spa
   const spans: Span[] = [];
   if (includeDefinitions) {
     for (const s of note.analysis.parsed.statements) {
-      if (
-        (s.keyword === 'state' ||
-          s.keyword === 'mix' ||
-          s.keyword === 'process' ||
-          s.keyword === 'supply' ||
-          s.keyword === 'recover') &&
-        s.name?.text === name
-      )
-        spans.push(s.name.span);
+      if (namesSomething(s) && s.name?.text === name) spans.push(s.name.span);
     }
   }
   for (const r of note.analysis.references) if (r.name === name) spans.push(r.span);

@@ -6,6 +6,7 @@ import { analyzeNote } from '../analyze';
 import type { Analyzer } from '../analyze';
 import type { EvaluatedItem } from '../evaluate/types';
 import type { AirRegion, NameNode, PropertyNode, PropertyRefNode, Statement, UnitNode } from '../notation/ast';
+import { namesSomething } from '../notation/named';
 import { LineIndex } from '../text/lineIndex';
 import type { Span } from '../text/types';
 import { limitedNote, overLimit } from './limits';
@@ -177,14 +178,7 @@ export function targetAt(note: Note, offset: number): Target | undefined {
       return { kind: 'system', statement, name: statement.system };
     return { kind: 'statement', statement };
   }
-  if (
-    (statement.keyword === 'state' ||
-      statement.keyword === 'mix' ||
-      statement.keyword === 'process' ||
-      statement.keyword === 'supply' ||
-      statement.keyword === 'recover') &&
-    statement.name
-  ) {
+  if (namesSomething(statement) && statement.name) {
     if (touches(statement.name.span, offset)) return { kind: 'definition', statement, name: statement.name };
   }
   for (const ref of referencesOf(statement)) {
