@@ -48,7 +48,7 @@ export function processKindText(kind: ProcessKind | null): string {
 export type StateFigureKey = 'p' | 'db' | 'wb' | 'dp' | 'rh' | 'w' | 'h' | 'v' | 'rho' | 'pw' | 'mu';
 
 /** What each figure of a state measures. */
-const STATE_FIGURE_DIMENSION: Readonly<Record<StateFigureKey, Dimension>> = {
+export const STATE_FIGURE_DIMENSION: Readonly<Record<StateFigureKey, Dimension>> = {
   p: 'pressure',
   db: 'temperature',
   wb: 'temperature',

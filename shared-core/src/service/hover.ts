@@ -13,6 +13,7 @@ import { describeUnit, figure, lookupUnit, ratioFigure } from '../units';
 import type { Dimension, UnitSystem } from '../units/types';
 import type { MoistAirState } from '../physics/types';
 import { aboveBoilingPoint } from '../evaluate/solve';
+import { STATE_FIGURE_DIMENSION } from '../present/rows';
 import type { RowKey } from '../vocabulary/keys';
 import {
   CAUTION_LINE,
@@ -104,14 +105,9 @@ function problemsOf(note: Note, statement: Statement): string[] {
 }
 
 /** The dimension of a defining key (the kind a reference's difference is in). */
-const SOURCE_DIMENSION: Readonly<Record<string, Dimension>> = {
-  db: 'temperature',
-  wb: 'temperature',
-  dp: 'temperature',
-  rh: 'fraction',
-  w: 'humidityRatio',
-  h: 'enthalpy',
-};
+const SOURCE_DIMENSION: Readonly<Record<string, Dimension>> = Object.fromEntries(
+  (['db', 'wb', 'dp', 'rh', 'w', 'h'] as const).map((k) => [k, STATE_FIGURE_DIMENSION[k]]),
+);
 
 /** How a state came from another: ` (from RA via SA)` when a statement defined it from one, else ''. */
 function viaText(note: Note, name: string): string {
