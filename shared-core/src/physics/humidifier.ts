@@ -69,8 +69,16 @@ export function steamToW(a: MoistAirState, w2: number, hSteam: number): Equipmen
   return ok({ state: steamLeaving(a, w2, hSteam), dw: w2 - a.w });
 }
 
-/** Steam to a target relative humidity `rh2` (fraction), with steam of enthalpy `hSteam` J/kg. */
-export function steamToRh(a: MoistAirState, rh2: number, hSteam: number): EquipmentOutcome<HumidifierResult> {
+/**
+ * Why a humidifier cannot reach the target relative humidity `rh2` (fraction) from `a`: outside
+ * 0 %–100 %, or below the entering humidity (`how` only adds moisture); undefined when it can.
+ */
+function targetRhProblem(
+  a: MoistAirState,
+  rh2: number,
+  how: string,
+  fix: string,
+): EquipmentOutcome<HumidifierResult> | undefined {
   if (!(rh2 > 0 && rh2 <= 1)) {
     return fail(
       'out-of-range',
@@ -83,10 +91,22 @@ export function steamToRh(a: MoistAirState, rh2: number, hSteam: number): Equipm
     return fail(
       'unreachable',
       'rh',
-      msg`the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: steam only adds moisture`,
-      'give a target above the entering relative humidity, or dry the air with a coil',
+      msg`the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: ${how} only adds moisture`,
+      fix,
     );
   }
+  return undefined;
+}
+
+/** Steam to a target relative humidity `rh2` (fraction), with steam of enthalpy `hSteam` J/kg. */
+export function steamToRh(a: MoistAirState, rh2: number, hSteam: number): EquipmentOutcome<HumidifierResult> {
+  const refused = targetRhProblem(
+    a,
+    rh2,
+    'steam',
+    'give a target above the entering relative humidity, or dry the air with a coil',
+  );
+  if (refused) return refused;
   const g = (w: number): number => relHumFromHumRatio(dbFromEnthalpy(a.h + (w - a.w) * hSteam, w), w, a.p) - rh2;
   const g0 = g(a.w);
   if (g0 >= 0) return ok({ state: a, dw: 0 });
@@ -169,22 +189,8 @@ export function adiabaticToDb(a: MoistAirState, db2: number): EquipmentOutcome<H
 
 /** Adiabatic humidifier to a target relative humidity `rh2` (fraction) on the wet-bulb line. */
 export function adiabaticToRh(a: MoistAirState, rh2: number): EquipmentOutcome<HumidifierResult> {
-  if (!(rh2 > 0 && rh2 <= 1)) {
-    return fail(
-      'out-of-range',
-      'rh',
-      msg`the target relative humidity ${pctText(rh2)} is outside 0 % to 100 %`,
-      'give a target relative humidity above 0 % and at most 100 %',
-    );
-  }
-  if (rh2 < a.rh - 1e-12) {
-    return fail(
-      'unreachable',
-      'rh',
-      msg`the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: evaporating water only adds moisture`,
-      'give a target above the entering relative humidity',
-    );
-  }
+  const refused = targetRhProblem(a, rh2, 'evaporating water', 'give a target above the entering relative humidity');
+  if (refused) return refused;
   if (rh2 <= a.rh) return ok({ state: a, dw: 0 });
   return onWetBulbLine(a, { rh: rh2 }, 'rh');
 }
