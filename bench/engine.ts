@@ -211,7 +211,8 @@ export async function benchEngine(): Promise<void> {
   );
 
   console.log(
-    `moist-air engine vs PsychroLib: ${N} states (db −40…90 °C, rh 1…100 %, p 60…110 kPa), median of ${ROUNDS} rounds after ${WARMUP_ROUNDS} warm-up`,
+    `moist-air engine vs PsychroLib: ${N} states (db −40…90 °C, rh 1…100 %, ` +
+      `p 60…110 kPa), median of ${ROUNDS} rounds after ${WARMUP_ROUNDS} warm-up`,
   );
   console.log('case                               engine ns  PsychroLib ns   ratio');
   const row = (name: string, t: Timing) =>
@@ -221,15 +222,20 @@ export async function benchEngine(): Promise<void> {
   row('(db, w, p)  → wet-bulb', dbW);
   console.log('accuracy against bisection to 1e-12 K on the same equations (max |error|):');
   console.log(
-    `  wet-bulb  engine ${fmtErr(oursWbErr)} (target 1e-6 K)   PsychroLib ${fmtErr(theirsWbErr)} (its tolerance 1e-3 K)`,
+    `  wet-bulb  engine ${fmtErr(oursWbErr)} (target 1e-6 K)  ` +
+      ` PsychroLib ${fmtErr(theirsWbErr)} (its tolerance 1e-3 K)`,
   );
   console.log(`  dew point engine ${fmtErr(oursDpErr)}                   PsychroLib ${fmtErr(theirsDpErr)}`);
   console.log(
-    `  PsychroLib wet-bulbs off by more than 0.01 K, left out above: ${aboveBoiling} at or above the boiling point (its bracket walks to the dry-bulb), ${twoRoot} in the band near 0 °C where eq 33 and eq 35 both have a root`,
+    `  PsychroLib wet-bulbs off by more than 0.01 K, left out above: ${aboveBoiling} ` +
+      `at or above the boiling point (its bracket walks to the dry-bulb), ${twoRoot} ` +
+      `in the band near 0 °C where eq 33 and eq 35 both have a root`,
   );
   console.log(
-    `goals: ≤ 300 ns per full state from (db, rh, p): ${dbRh.ours <= 300 ? 'met' : 'NOT met'} (${dbRh.ours.toFixed(0)} ns); ` +
-      `≥ 10× PsychroLib where a wet-bulb is solved: ${Math.min(dbRh.theirs / dbRh.ours, dbW.theirs / dbW.ours) >= 10 ? 'met' : 'NOT met'} ` +
+    `goals: ≤ 300 ns per full state from (db, rh, ` +
+      `p): ${dbRh.ours <= 300 ? 'met' : 'NOT met'} (${dbRh.ours.toFixed(0)} ns); ` +
+      `≥ 10× PsychroLib where a wet-bulb is ` +
+      `solved: ${Math.min(dbRh.theirs / dbRh.ours, dbW.theirs / dbW.ours) >= 10 ? 'met' : 'NOT met'} ` +
       `(${(dbRh.theirs / dbRh.ours).toFixed(1)}×, ${(dbW.theirs / dbW.ours).toFixed(1)}×)`,
   );
 }

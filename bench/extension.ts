@@ -34,9 +34,11 @@ const kib = (n: number) => `${(n / 1024).toFixed(1)} KiB`;
 function requireTimeMs(): number {
   const script = `
     const Module = require('module');
-    const stub = () => new Proxy(function () {}, { get: (t, k) => (k === 'prototype' ? {} : stub()), construct: () => ({}), apply: () => undefined });
+    const stub = () => new Proxy(function () {}, { get: (t, k) => (k === \
+'prototype' ? {} : stub()), construct: () => ({}), apply: () => undefined });
     const load = Module._load;
-    Module._load = function (request, ...rest) { return request === 'vscode' ? stub() : load.call(this, request, ...rest); };
+    Module._load = function (request, ...rest) { return request \
+=== 'vscode' ? stub() : load.call(this, request, ...rest); };
     const t = performance.now();
     require(${JSON.stringify(join(root, 'dist', 'client.js'))});
     process.stdout.write(String(performance.now() - t));`;
@@ -116,7 +118,8 @@ export async function benchExtension(): Promise<void> {
     );
     const loads = Array.from({ length: 7 }, requireTimeMs);
     console.log(
-      `require client.js    median ${median(loads).toFixed(1)} ms over ${loads.length} fresh Node ${process.version} processes (stand-in vscode module)`,
+      `require client.js    median ${median(loads).toFixed(1)} ms over ${loads.length} ` +
+        `fresh Node ${process.version} processes (stand-in vscode module)`,
     );
 
     const runs = Math.max(1, Number(process.env.DEWMARK_BENCH_RUNS ?? 3));
@@ -128,10 +131,12 @@ export async function benchExtension(): Promise<void> {
     const a = median(t.activate);
     const each = (xs: number[]) => xs.map((x) => x.toFixed(1)).join(', ');
     console.log(
-      `activate()           median ${a.toFixed(1)} ms over ${runs} code-server run(s) [${each(t.activate)}]  (goal ≤ ${ACTIVATE_GOAL_MS} ms: ${a <= ACTIVATE_GOAL_MS ? 'met' : 'NOT met'})`,
+      `activate()           median ${a.toFixed(1)} ms over ${runs} code-server run(s) ` +
+        `[${each(t.activate)}]  (goal ≤ ${ACTIVATE_GOAL_MS} ms: ${a <= ACTIVATE_GOAL_MS ? 'met' : 'NOT met'})`,
     );
     console.log(
-      `load → activate end  median ${median(t.sinceLoad).toFixed(1)} ms (from the bundle's first statement; includes the extension host's own work before it calls activate)`,
+      `load → activate end  median ${median(t.sinceLoad).toFixed(1)} ms (from the bundle's ` +
+        `first statement; includes the extension host's own work before it calls activate)`,
     );
     console.log(
       `server ready         median ${median(t.ready).toFixed(1)} ms after activate() (process start + initialize)`,

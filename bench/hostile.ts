@@ -45,7 +45,9 @@ async function staleTables(): Promise<void> {
   const parts: string[] = [];
   for (let i = 0; i < 20_000; i++) {
     parts.push(
-      `Zone ${i}:\n\n\`\`\`air\nstate Z${i}: db=${20 + (i % 5)}C rh=${40 + (i % 7)}%\n\`\`\`\n\n<!-- dewmark-results 00000000: generated from the air block above; refresh it, do not edit -->\n\n| state | db °C |\n|---|---|\n| Z${i} | 1 |\n\n<!-- dewmark-results end -->\n`,
+      `Zone ${i}:\n\n\`\`\`air\nstate Z${i}: db=${20 + (i % 5)}C rh=${40 + (i % 7)}%\n\`\`\`\n\n<!-- ` +
+        `dewmark-results 00000000: generated from the air block above; refresh it, do not edit ` +
+        `-->\n\n| state | db °C |\n|---|---|\n| Z${i} | 1 |\n\n<!-- dewmark-results end -->\n`,
     );
   }
   const text = parts.join('\n');

@@ -116,7 +116,8 @@ export async function benchNotes(): Promise<void> {
   const check = analyzeNote(big);
   const statementCount = check.parsed.statements.length;
   console.log(
-    `parse+evaluate: ${lineCount} lines, ${statementCount} statements, ${check.items.length} results, ${check.diagnostics.length} diagnostics`,
+    `parse+evaluate: ${lineCount} lines, ${statementCount} ` +
+      `statements, ${check.items.length} results, ${check.diagnostics.length} diagnostics`,
   );
   // Warm-up first: the editor and the CLI run warmed code too.
   const full = timeRuns(() => analyzeNote(big), 31, 15);

@@ -48,8 +48,10 @@ export function generateCalcNote(statements = 2000, lines = 10_000, seed = 7): s
     out.push(`## Zone ${zone}: ${room}`, '');
     out.push(
       `The ${room} on level ${1 + (zone % 4)} is served by AHU-${1 + (zone % 3)}. Its design condition is`,
-      `\`state ${z}_R: db=${fixed(22, 25, 1)}C rh=${Math.round(40 + rnd() * 15)}%\` with an occupancy of **${Math.round(5 + rnd() * 60)} people**`,
-      `and a fresh-air rate per [the design brief](brief.md#ventilation); see \`AHU-${1 + (zone % 3)}\` in the schedule.`,
+      `\`state ${z}_R: db=${fixed(22, 25, 1)}C rh=${Math.round(40 + rnd() * 15)}%\` ` +
+        `with an occupancy of **${Math.round(5 + rnd() * 60)} people**`,
+      `and a fresh-air rate per [the design brief](brief.md#ventilation); ` +
+        `see \`AHU-${1 + (zone % 3)}\` in the schedule.`,
       '',
     );
     made++;
@@ -100,10 +102,14 @@ export function generateCalcNote(statements = 2000, lines = 10_000, seed = 7): s
     for (let k = 0; k < 9; k++) {
       out.push(
         pick([
-          `The duct run to the ${room} is ${fixed(10, 60, 0)} m long with ${Math.round(2 + rnd() * 6)} bends; pressure drop is within the fan margin.`,
-          'Condensate from the cooling coil drains to the trapped tundish in the plant room, as the mechanical drawings show.',
-          `Infiltration is taken as ${fixed(0.2, 0.8, 2)} air changes per hour for the refurbished façade, _to be confirmed_ by test.`,
-          'The humidifier is a steam unit; its dispersion length is checked against the duct section downstream of the coil.',
+          `The duct run to the ${room} is ${fixed(10, 60, 0)} m long ` +
+            `with ${Math.round(2 + rnd() * 6)} bends; pressure drop is within the fan margin.`,
+          'Condensate from the cooling coil drains to the trapped ' +
+            'tundish in the plant room, as the mechanical drawings show.',
+          `Infiltration is taken as ${fixed(0.2, 0.8, 2)} air changes per ` +
+            `hour for the refurbished façade, _to be confirmed_ by test.`,
+          'The humidifier is a steam unit; its dispersion length is ' +
+            'checked against the duct section downstream of the coil.',
         ]),
       );
     }
@@ -149,7 +155,9 @@ async function measure(flags: string): Promise<void> {
   const lineCount = note.split('\n').length;
   const first = parseNote(note);
   console.log(
-    `parseNote (${flags}): ${lineCount} lines, ${(note.length / 1024).toFixed(0)} KiB, ${first.regions.length} regions, ${first.statements.length} statements, ${first.diagnostics.length} syntax diagnostics`,
+    `parseNote (${flags}): ${lineCount} lines, ${(note.length / 1024).toFixed(0)} ` +
+      `KiB, ${first.regions.length} regions, ${first.statements.length} ` +
+      `statements, ${first.diagnostics.length} syntax diagnostics`,
   );
   const all = timeRuns(() => parseNote(note), 80, 15);
   const md = timeRuns(() => extractRegions(note), 80, 15);

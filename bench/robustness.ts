@@ -46,7 +46,8 @@ function campusNote(targetChars: number): string {
   for (let b = 0; len < targetChars; b++) {
     const db = 20 + (b % 6);
     const part =
-      `## Plant room ${b}\n\nThe room is held at \`state R${b}: db=${db}C rh=${40 + (b % 20)}%\` in summer; figures below are checked on save.\n\n` +
+      `## Plant room ${b}\n\nThe room is held at \`state R${b}: db=${db}C ` +
+      `rh=${40 + (b % 20)}%\` in summer; figures below are checked on save.\n\n` +
       '```air\n' +
       `state OA${b}: db=${db + 9}C wb=${db}C\n` +
       `state RA${b}: db=${db}C rh=50%\n` +
@@ -140,8 +141,10 @@ function inMemory(n: BigNote): void {
   const syms = feature(() => documentSymbols(note));
   const a = note.analysis;
   console.log(
-    `${n.label.padEnd(20)} ${size(n.text).padStart(8)}  ${String(a.parsed.statements.length).padStart(7)} statements  ` +
-      `analyse ${median(analyse).toFixed(0).padStart(5)} ms | diagnostics ${diag.toFixed(1)} ms, hints (window) ${hints.toFixed(2)} ms, ` +
+    `${n.label.padEnd(20)} ${size(n.text).padStart(8)} ` +
+      ` ${String(a.parsed.statements.length).padStart(7)} statements  ` +
+      `analyse ${median(analyse).toFixed(0).padStart(5)} ms | ` +
+      `diagnostics ${diag.toFixed(1)} ms, hints (window) ${hints.toFixed(2)} ms, ` +
       `hover ${hov.toFixed(2)} ms, completion ${comp.toFixed(2)} ms, outline ${syms.toFixed(0)} ms`,
   );
 }
@@ -189,7 +192,8 @@ async function throughServer(n: BigNote, limitKB?: number): Promise<void> {
     const limited = first.diagnostics.some((d) => d.code === 'note-too-large');
     console.log(
       `${n.label.padEnd(20)} server${limitKB === 0 ? ' (no limit)' : ''}: ${limited ? 'over the limit (note-too-large), ' : ''}open → ${first.diagnostics.length} diagnostics ${openMs.toFixed(0)} ms; ` +
-        `1-char edit → diagnostics ${median(edits).toFixed(0)} ms (median of 6); hover sent after the edit answered in ${median(hovers).toFixed(0)} ms`,
+        `1-char edit → diagnostics ${median(edits).toFixed(0)} ms (median of 6); ` +
+        `hover sent after the edit answered in ${median(hovers).toFixed(0)} ms`,
     );
     await s.shutdown();
   } finally {
@@ -212,8 +216,10 @@ function fuzzThroughput(): void {
   const total = ms(t0);
   const t = timeSummary(times);
   console.log(
-    `fuzzing: ${samples.length} random notes (mean ${(chars / samples.length).toFixed(0)} chars) in ${(total / 1000).toFixed(1)} s = ` +
-      `${((samples.length / total) * 1000).toFixed(0)} notes/s through every feature; per note median ${t.median.toFixed(2)} ms, p99 ${t.p99.toFixed(1)} ms, max ${t.max.toFixed(1)} ms`,
+    `fuzzing: ${samples.length} random notes (mean ${(chars / samples.length).toFixed(0)} ` +
+      `chars) in ${(total / 1000).toFixed(1)} s = ` +
+      `${((samples.length / total) * 1000).toFixed(0)} notes/s through every feature; per note ` +
+      `median ${t.median.toFixed(2)} ms, p99 ${t.p99.toFixed(1)} ms, max ${t.max.toFixed(1)} ms`,
   );
 }
 

@@ -128,7 +128,10 @@ export async function benchServer(): Promise<void> {
   }
 }
 
-/** Times `EDITS` one-character edits made by `edit(i)` (range and text), returns the timed ones and the server CPU per edit. */
+/**
+ * Times `EDITS` one-character edits made by `edit(i)` (range
+ * and text), returns the timed ones and the server CPU per edit.
+ */
 async function timeEdits(
   session: Session,
   uri: string,
@@ -238,7 +241,8 @@ async function benchOne(launch: Launch, note: ReturnType<typeof generateNote>): 
     console.log(goalRow(`  server RSS after ${EDITS} more typed/deleted`, rssAfterTyping, 'MB', 80, 1));
     console.log(goalRow('  server RSS after all the runs', rss, 'MB', 80, 1));
     console.log(
-      `  spread: hover p90 ${percentile(hovers, 0.9).toFixed(3)} ms, hints p90 ${percentile(hints, 0.9).toFixed(2)} ms, cold max ${Math.max(...colds).toFixed(1)} ms`,
+      `  spread: hover p90 ${percentile(hovers, 0.9).toFixed(3)} ms, hints ` +
+        `p90 ${percentile(hints, 0.9).toFixed(2)} ms, cold max ${Math.max(...colds).toFixed(1)} ms`,
     );
     await session.shutdown();
   } finally {

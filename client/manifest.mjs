@@ -93,7 +93,11 @@ export const fields = {
     virtualWorkspaces: {
       supported: 'limited',
       description:
-        'In a virtual workspace the open notes get hints, hovers, problems, fixes and the chart. Check All Notes in the Workspace reads folders on disk only, and is not offered in the browser-only editor (whose language server runs in a web worker, with no file system). The project file dewmark.json is read beside local notes; in the browser-only editor it is read through the editor for notes inside a workspace folder.',
+        'In a virtual workspace the open notes get hints, hovers, problems, fixes and the ' +
+        'chart. Check All Notes in the Workspace reads folders on disk only, and is not ' +
+        'offered in the browser-only editor (whose language server runs in a web worker, with ' +
+        'no file system). The project file dewmark.json is read beside local notes; in the ' +
+        'browser-only editor it is read through the editor for notes inside a workspace folder.',
     },
   },
   contributes: {
@@ -111,7 +115,8 @@ export const fields = {
           default: 'SI',
           scope: 'resource',
           markdownDescription:
-            "Unit system of the results (hovers, inline hints, messages) in notes without a `units:` line. A note's own `units: SI` or `units: IP` line wins. Input may mix units freely.",
+            'Unit system of the results (hovers, inline hints, messages) in notes without a `units:` ' +
+            "line. A note's own `units: SI` or `units: IP` line wins. Input may mix units freely.",
         },
         'dewmark.pressure': {
           order: 2,
@@ -119,7 +124,9 @@ export const fields = {
           default: '',
           scope: 'resource',
           markdownDescription:
-            'Barometric pressure for notes without a `site:` line, a number with a unit: `101.325 kPa`, `14.696 psia`, `29.92 inHg`. Empty: 101.325 kPa (standard sea level). `#dewmark.elevation#` wins when both are set.',
+            'Barometric pressure for notes without a `site:` line, a number with a ' +
+            'unit: `101.325 kPa`, `14.696 psia`, `29.92 inHg`. Empty: 101.325 kPa ' +
+            '(standard sea level). `#dewmark.elevation#` wins when both are set.',
         },
         'dewmark.elevation': {
           order: 3,
@@ -127,7 +134,9 @@ export const fields = {
           default: '',
           scope: 'resource',
           markdownDescription:
-            'Site elevation for notes without a `site:` line, a number with a unit: `1600 m`, `5250 ft`; turned into a pressure with the standard atmosphere. Wins over `#dewmark.pressure#` when set. Empty: not used.',
+            'Site elevation for notes without a `site:` line, a number with a ' +
+            'unit: `1600 m`, `5250 ft`; turned into a pressure with the standard ' +
+            'atmosphere. Wins over `#dewmark.pressure#` when set. Empty: not used.',
         },
         'dewmark.inlayHints.properties': {
           order: 4,
@@ -137,7 +146,9 @@ export const fields = {
           default: [],
           scope: 'resource',
           markdownDescription:
-            'Computed properties shown as inline hints after each state and mix, in this order. Empty: chosen automatically (rh, w, h and dp, or wb where dp is written), leaving out what the note already states. Inline hints also need `#editor.inlayHints.enabled#`.',
+            'Computed properties shown as inline hints after each state and mix, in this order. ' +
+            'Empty: chosen automatically (rh, w, h and dp, or wb where dp is written), leaving out ' +
+            'what the note already states. Inline hints also need `#editor.inlayHints.enabled#`.',
         },
         'dewmark.precision': {
           order: 5,
@@ -147,7 +158,8 @@ export const fields = {
           default: 0,
           scope: 'resource',
           markdownDescription:
-            "Decimals shown beyond each quantity's usual engineering precision in hovers and inline hints (0 = the usual precision, up to 4).",
+            "Decimals shown beyond each quantity's usual engineering precision " +
+            'in hovers and inline hints (0 = the usual precision, up to 4).',
         },
         'dewmark.checkClaims': {
           order: 6,
@@ -155,7 +167,8 @@ export const fields = {
           default: true,
           scope: 'resource',
           markdownDescription:
-            "Compare every property written beyond a state's defining pair (a claim) with the computed value, and warn when they differ by more than the written precision.",
+            "Compare every property written beyond a state's defining pair (a claim) with the " +
+            'computed value, and warn when they differ by more than the written precision.',
         },
         'dewmark.hover.secondaryUnits': {
           order: 7,
@@ -171,7 +184,10 @@ export const fields = {
           default: 2048,
           scope: 'resource',
           markdownDescription:
-            'Notes longer than this many KB (1 KB = 1024 characters) are not evaluated as you type: they get one information message saying so, and no hints, hovers, chart or problems. Keeps the editor responsive on huge files; `dewmark check` on the command line evaluates any note. 0: no limit.',
+            'Notes longer than this many KB (1 KB = 1024 characters) are not evaluated ' +
+            'as you type: they get one information message saying so, and no hints, ' +
+            'hovers, chart or problems. Keeps the editor responsive on huge files; ' +
+            '`dewmark check` on the command line evaluates any note. 0: no limit.',
         },
         'dewmark.trace.server': {
           order: 9,
@@ -181,7 +197,8 @@ export const fields = {
           default: 'off',
           scope: 'window',
           markdownDescription:
-            'Traces the messages between VS Code and the Dewmark language server into Output → Dewmark (for bug reports).',
+            'Traces the messages between VS Code and the Dewmark ' +
+            'language server into Output → Dewmark (for bug reports).',
         },
       },
     },

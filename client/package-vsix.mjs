@@ -91,7 +91,8 @@ try {
   rmSync(stage, { recursive: true, force: true });
 }
 console.log(
-  `package: ${relative(process.cwd(), out) || out}: ${(size / 1024).toFixed(1)} KiB (goal ≤ ${SIZE_GOAL / 1024} KiB: ${size <= SIZE_GOAL ? 'met' : 'NOT met'})`,
+  `package: ${relative(process.cwd(), out) || out}: ${(size / 1024).toFixed(1)} ` +
+    `KiB (goal ≤ ${SIZE_GOAL / 1024} KiB: ${size <= SIZE_GOAL ? 'met' : 'NOT met'})`,
 );
 if (list.status === 0)
   console.log(

@@ -32,7 +32,9 @@ const common = {
   // ES-module dependencies bundled into CommonJS may read import.meta.url (fdir does, for
   // createRequire); give them the bundle's own file URL.
   banner: {
-    js: "// Third-party licences: THIRD-PARTY-NOTICES.md beside this file.\nvar __bundleMetaUrl = require('url').pathToFileURL(__filename).href;",
+    js:
+      '// Third-party licences: THIRD-PARTY-NOTICES.md beside this file.\nvar ' +
+      "__bundleMetaUrl = require('url').pathToFileURL(__filename).href;",
   },
   define: { __DEWMARK_VERSION__: JSON.stringify(pkg.version), 'import.meta.url': '__bundleMetaUrl' },
 };
@@ -86,7 +88,8 @@ for (const t of targets) {
   } catch (err) {
     failed++;
     console.error(
-      `build: ${t.out} failed${err instanceof Error && !err.message.includes('Build failed') ? `: ${err.message}` : ''}`,
+      `build: ${t.out} ` +
+        `failed${err instanceof Error && !err.message.includes('Build failed') ? `: ${err.message}` : ''}`,
     );
   }
 }

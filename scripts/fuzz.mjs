@@ -18,7 +18,8 @@ env.DEWMARK_FUZZ_EDITS ??= '10000';
 env.DEWMARK_FUZZ_PROTOCOL_EDITS ??= '3000';
 
 console.log(
-  `fuzz: seed ${env.DEWMARK_FUZZ_SEED}, ${env.DEWMARK_FUZZ_RUNS} notes, ${env.DEWMARK_FUZZ_EDITS} edit sequences, ${env.DEWMARK_FUZZ_PROTOCOL_EDITS} protocol edits` +
+  `fuzz: seed ${env.DEWMARK_FUZZ_SEED}, ${env.DEWMARK_FUZZ_RUNS} notes, ${env.DEWMARK_FUZZ_EDITS} ` +
+    `edit sequences, ${env.DEWMARK_FUZZ_PROTOCOL_EDITS} protocol edits` +
     `\nfuzz: repeat this run with DEWMARK_FUZZ_SEED=${env.DEWMARK_FUZZ_SEED} npm run fuzz`,
 );
 

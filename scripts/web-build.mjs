@@ -43,7 +43,11 @@ export function webOptions({ root, version, format }) {
             return {
               errors: [
                 {
-                  text: `the web build may not use the Node module '${args.path}' (imported by ${relative(root, args.importer)}): a browser has none. Keep Node-only code out of the files the web entries import (the server's host seam: server/src/nodeHost.ts; the client's: client/src/node.ts).`,
+                  text:
+                    `the web build may not use the Node module '${args.path}' (imported ` +
+                    `by ${relative(root, args.importer)}): a browser has none. Keep ` +
+                    `Node-only code out of the files the web entries import (the server's ` +
+                    `host seam: server/src/nodeHost.ts; the client's: client/src/node.ts).`,
                 },
               ],
             };

@@ -45,7 +45,10 @@ function sourcesUnder(dir: string): string[] {
   return out;
 }
 
-/** Every module specifier a file imports, re-exports, `import()`s or `require()`s (TypeScript's own scanner: comments and strings are not imports). */
+/**
+ * Every module specifier a file imports, re-exports, `import()`s or `require()`s (TypeScript's own
+ * scanner: comments and strings are not imports).
+ */
 function importsOf(text: string): string[] {
   return ts.preProcessFile(text, true, true).importedFiles.map((f) => f.fileName);
 }
@@ -259,26 +262,30 @@ describe('the dependency map of ARCHITECTURE.md', () => {
     expect(findCycle(map, names)).toBeNull();
   });
 
-  it('the core and the protocol import no Node module and no editor package; only the server knows LSP, only the client VS Code', () => {
-    for (const [node, deps] of map) {
-      const isCore = existsSync(join(root, CORE_SRC, node));
-      if (isCore || node === 'protocol/')
-        expect(
-          [...deps].filter((d) => d === NODE || /^(vscode|@vscode\/)/.test(d)),
-          node,
-        ).toEqual([]);
-      if (node !== 'server/')
-        expect(
-          [...deps].filter((d) => d.startsWith('vscode-languageserver')),
-          node,
-        ).toEqual([]);
-      if (node !== 'client/')
-        expect(
-          [...deps].filter((d) => d === 'vscode' || d.startsWith('vscode-languageclient')),
-          node,
-        ).toEqual([]);
-    }
-  });
+  it(
+    'the core and the protocol import no Node module and no editor ' +
+      'package; only the server knows LSP, only the client VS Code',
+    () => {
+      for (const [node, deps] of map) {
+        const isCore = existsSync(join(root, CORE_SRC, node));
+        if (isCore || node === 'protocol/')
+          expect(
+            [...deps].filter((d) => d === NODE || /^(vscode|@vscode\/)/.test(d)),
+            node,
+          ).toEqual([]);
+        if (node !== 'server/')
+          expect(
+            [...deps].filter((d) => d.startsWith('vscode-languageserver')),
+            node,
+          ).toEqual([]);
+        if (node !== 'client/')
+          expect(
+            [...deps].filter((d) => d === 'vscode' || d.startsWith('vscode-languageclient')),
+            node,
+          ).toEqual([]);
+      }
+    },
+  );
 });
 
 describe('each rule of the map can fail', () => {
@@ -333,7 +340,8 @@ describe('each rule of the map can fail', () => {
       text: "import { SETTINGS_SECTION } from '../../protocol/src/index';\n",
     };
     expect(checkImports([client], map, names).violations).toEqual([
-      "client/src/made-up.ts imports '../../protocol/src/index' by a relative path into another package; import '@dewmark/protocol' instead",
+      "client/src/made-up.ts imports '../../protocol/src/index' by a " +
+        "relative path into another package; import '@dewmark/protocol' instead",
     ]);
     const cli = {
       path: 'cli/src/made-up.ts',

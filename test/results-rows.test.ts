@@ -325,17 +325,21 @@ describe('IP figures: thousands separated by commas, flows in cfm and lb/h, heat
     );
   });
 
-  it('shows the water in lb/h by the unit table (1 lb = 0.45359237 kg, NIST SP 811), the same in the report and the tables', () => {
-    const lbh = (-cc.waterKgS! * 3600) / 0.45359237;
-    const shown = Number(lbh.toPrecision(3)).toLocaleString('en-US', { maximumFractionDigits: 1 });
-    expect(markdownRow(s.markdown, 'CC')[6]).toBe(`−${shown} lb/h`);
-    expect(terminalRow(s.processes, 'CC')[terminalHeader(s.processes).indexOf('water lb/h')]).toBe(`−${shown}`);
-    expect(reportRow(s.report, 'processes', 'CC')[reportHeader(s.report, 'processes').indexOf('water')]).toBe(
-      `−${shown} lb/h`,
-    );
-    expect(s.hoverOn('CC')).toContain(`| dry-air flow | `);
-    expect(s.hoverOn('CC')).toMatch(/\| dry-air flow \| [\d,]+ lb\/h \([\d,]+ cfm at RA\) \|/);
-  });
+  it(
+    'shows the water in lb/h by the unit table (1 lb = 0.45359237 kg, ' +
+      'NIST SP 811), the same in the report and the tables',
+    () => {
+      const lbh = (-cc.waterKgS! * 3600) / 0.45359237;
+      const shown = Number(lbh.toPrecision(3)).toLocaleString('en-US', { maximumFractionDigits: 1 });
+      expect(markdownRow(s.markdown, 'CC')[6]).toBe(`−${shown} lb/h`);
+      expect(terminalRow(s.processes, 'CC')[terminalHeader(s.processes).indexOf('water lb/h')]).toBe(`−${shown}`);
+      expect(reportRow(s.report, 'processes', 'CC')[reportHeader(s.report, 'processes').indexOf('water')]).toBe(
+        `−${shown} lb/h`,
+      );
+      expect(s.hoverOn('CC')).toContain(`| dry-air flow | `);
+      expect(s.hoverOn('CC')).toMatch(/\| dry-air flow \| [\d,]+ lb\/h \([\d,]+ cfm at RA\) \|/);
+    },
+  );
 
   it('leaves SI figures ungrouped', () => {
     const si = surfaces(air('state RA: db=26C rh=50%', 'state OFF: db=12C rh=95%', 'process CC: RA -> OFF q=40m3/s'));

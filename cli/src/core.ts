@@ -1,6 +1,7 @@
 /**
  * The parts of the core the CLI uses, in one place: the analysis, the evaluator's result types,
- * the units, the line index and the results-table edits (for `fix`), each from its layer's entry point (`@dewmark/core/<layer>`).
+ * the units, the line index and the results-table edits (for `fix`), each from its layer's entry
+ * point (`@dewmark/core/<layer>`).
  */
 export { analyzeNote } from '@dewmark/core/analyze';
 export type { Analysis, EvaluateSettings, ProcessResult, StateResult } from '@dewmark/core/evaluate';

@@ -128,7 +128,8 @@ async function analyse(
     io.err(
       inputs.length === 1 && first
         ? `dewmark: '${safeText(first.display)}' is left out by ${safeText(first.file)}: ${safeText(first.why)}\n`
-        : `dewmark: all ${inputs.length} Markdown file(s) found are left out by the include/exclude patterns of dewmark.json\n`,
+        : `dewmark: all ${inputs.length} Markdown file(s) found are ` +
+            `left out by the include/exclude patterns of dewmark.json\n`,
     );
     totals.ioProblems++;
   }
@@ -286,7 +287,8 @@ function addCommon(cmd: Command): Command {
     .addOption(
       new Option(
         '--exclude <pattern>',
-        'leave files and folders matching this glob out of folders and globs (repeatable; a bare name matches at any depth)',
+        'leave files and folders matching this glob out of folders ' +
+          'and globs (repeatable; a bare name matches at any depth)',
       ).argParser((value: string, previous: string[] | undefined) => [...(previous ?? []), value]),
     );
 }

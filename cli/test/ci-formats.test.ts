@@ -89,7 +89,8 @@ describe('--format github', () => {
     expect(r.out + r.err).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f]/);
     expect(r.out).toContain('file=hostile/x\\n%3A%3Aerror file=a.md%3A%3Ainjected\\x1b[2J.md,');
     expect(r.out).toContain(
-      "::error file=hostile/text.md,line=3,col=10,endLine=3,endColumn=20,title=dewmark syntax::unexpected '\\x1b[2Jdb=24C'",
+      '::error file=hostile/text.md,line=3,col=10,endLine=3,endColumn=20,title=dewmark ' +
+        "syntax::unexpected '\\x1b[2Jdb=24C'",
     );
   });
 });
@@ -133,7 +134,8 @@ describe('text output is sanitised', () => {
       expect(commandLines(r.out + r.err)).toEqual([]);
       expect(r.out + r.err).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f]/);
       expect(r.err).toContain(
-        `dewmark: wrote out/r\\n::error::written\\x1b[2J.${ext} (hostile/x\\n::error file=a.md::injected\\x1b[2J.md: 1 error`,
+        `dewmark: wrote out/r\\n::error::written\\x1b[2J.${ext} ` +
+          `(hostile/x\\n::error file=a.md::injected\\x1b[2J.md: 1 error`,
       );
     }
   });
@@ -269,31 +271,34 @@ describe('--format sarif', () => {
     return p;
   }
 
-  it('writes a SARIF 2.1.0 log with a rule per code and a result per diagnostic, at the same positions as the JSON', () => {
-    const r = dewmark(['check', '--format', 'sarif', 'notes']);
-    expect(r.code).toBe(1);
-    const log = JSON.parse(r.out);
-    expect(sarifProblems(log)).toEqual([]);
-    const run = log.runs[0];
-    expect(run.tool.driver.name).toBe('dewmark');
-    expect(run.tool.driver.rules.map((x: { id: string }) => x.id).sort()).toEqual(['claim-mismatch', 'wb-above-db']);
-    const json = JSON.parse(dewmark(['check', '--format', 'json', 'notes']).out);
-    const d = json.files[0].diagnostics;
-    expect(
-      run.results.map((x: any) => [
-        x.ruleId,
-        x.level,
-        x.locations[0].physicalLocation.region.startLine,
-        x.locations[0].physicalLocation.region.startColumn,
-        x.locations[0].physicalLocation.region.endColumn,
-      ]),
-    ).toEqual(d.map((x: any) => [x.code, x.severity, x.line, x.column, x.endColumn]));
-    // A space in the file name is percent-encoded in the URI, relative to the source root.
-    expect(run.results[0].locations[0].physicalLocation.artifactLocation).toEqual({
-      uri: 'notes/ahu%202.md',
-      uriBaseId: '%SRCROOT%',
-    });
-  });
+  it(
+    'writes a SARIF 2.1.0 log with a rule per code and a ' + 'result per diagnostic, at the same positions as the JSON',
+    () => {
+      const r = dewmark(['check', '--format', 'sarif', 'notes']);
+      expect(r.code).toBe(1);
+      const log = JSON.parse(r.out);
+      expect(sarifProblems(log)).toEqual([]);
+      const run = log.runs[0];
+      expect(run.tool.driver.name).toBe('dewmark');
+      expect(run.tool.driver.rules.map((x: { id: string }) => x.id).sort()).toEqual(['claim-mismatch', 'wb-above-db']);
+      const json = JSON.parse(dewmark(['check', '--format', 'json', 'notes']).out);
+      const d = json.files[0].diagnostics;
+      expect(
+        run.results.map((x: any) => [
+          x.ruleId,
+          x.level,
+          x.locations[0].physicalLocation.region.startLine,
+          x.locations[0].physicalLocation.region.startColumn,
+          x.locations[0].physicalLocation.region.endColumn,
+        ]),
+      ).toEqual(d.map((x: any) => [x.code, x.severity, x.line, x.column, x.endColumn]));
+      // A space in the file name is percent-encoded in the URI, relative to the source root.
+      expect(run.results[0].locations[0].physicalLocation.artifactLocation).toEqual({
+        uri: 'notes/ahu%202.md',
+        uriBaseId: '%SRCROOT%',
+      });
+    },
+  );
 
   it('the structure check catches what it should (it is not a check that cannot fail)', () => {
     const log = JSON.parse(dewmark(['check', '--format', 'sarif', 'notes']).out);

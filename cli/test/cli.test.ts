@@ -159,7 +159,9 @@ describe('dewmark check', () => {
     const r = dewmark(['check', '--exclude', '*.md', 'notes']);
     expect(r.code).toBe(2);
     expect(r.err).toContain(
-      "dewmark: no Markdown files (.md, .markdown) found in 'notes'; in 'notes': folders and Markdown files: 1 left out by .gitignore or .git/info/exclude (--no-gitignore reads it), 2 left out by --exclude",
+      "dewmark: no Markdown files (.md, .markdown) found in 'notes'; in " +
+        "'notes': folders and Markdown files: 1 left out by .gitignore or " +
+        '.git/info/exclude (--no-gitignore reads it), 2 left out by --exclude',
     );
   });
 

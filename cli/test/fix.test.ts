@@ -96,25 +96,28 @@ describe('dewmark fix', () => {
     expect(r.err).toContain('would fix 2 stale claims and 0 results tables in 1 file (run with --write to apply)');
   });
 
-  it('--write changes only the claimed figures (byte-order mark and CRLF kept), and a second run has nothing to do', () => {
-    const file = join(dir, 'write.md');
-    const before = Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(STALE, 'utf8')]);
-    writeFileSync(file, before);
-    const figures = proposed('write.md');
-    const r = dewmark(['fix', '--write', 'write.md']);
-    expect(r.code, r.err).toBe(0);
-    expect(r.out).toBe('');
-    const expected = Buffer.concat([
-      Buffer.from([0xef, 0xbb, 0xbf]),
-      Buffer.from(STALE.replace('w=11.0g/kg', `w=${figures[0]}`).replace('dp=25.0C', `dp=${figures[1]}`), 'utf8'),
-    ]);
-    expect(readFileSync(file).equals(expected)).toBe(true);
-    const again = dewmark(['fix', '--write', 'write.md']);
-    expect(again.code).toBe(0);
-    expect(again.err).toContain('nothing to fix');
-    expect(readFileSync(file).equals(expected)).toBe(true);
-    expect(dewmark(['check', '--max-warnings', '0', 'write.md']).code).toBe(0);
-  });
+  it(
+    '--write changes only the claimed figures (byte-order ' + 'mark and CRLF kept), and a second run has nothing to do',
+    () => {
+      const file = join(dir, 'write.md');
+      const before = Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(STALE, 'utf8')]);
+      writeFileSync(file, before);
+      const figures = proposed('write.md');
+      const r = dewmark(['fix', '--write', 'write.md']);
+      expect(r.code, r.err).toBe(0);
+      expect(r.out).toBe('');
+      const expected = Buffer.concat([
+        Buffer.from([0xef, 0xbb, 0xbf]),
+        Buffer.from(STALE.replace('w=11.0g/kg', `w=${figures[0]}`).replace('dp=25.0C', `dp=${figures[1]}`), 'utf8'),
+      ]);
+      expect(readFileSync(file).equals(expected)).toBe(true);
+      const again = dewmark(['fix', '--write', 'write.md']);
+      expect(again.code).toBe(0);
+      expect(again.err).toContain('nothing to fix');
+      expect(readFileSync(file).equals(expected)).toBe(true);
+      expect(dewmark(['check', '--max-warnings', '0', 'write.md']).code).toBe(0);
+    },
+  );
 
   it('refreshes a results table that went stale, and only the text between its markers', () => {
     const fresh = withTables(
@@ -207,30 +210,34 @@ describe('--help of check and eval', () => {
 });
 
 describe('suppressed diagnostics on the command line', () => {
-  it('check --format json lists them under suppressed (with the reason) and counts them apart; sarif marks them in-source', () => {
-    writeFileSync(
-      join(dir, 'ack.md'),
-      [
-        '```air',
-        'state RA: db=24C rh=50% w=11.0g/kg   # dewmark-ignore claim-mismatch -- logged on site',
-        'state X: db=20C wb=25C',
-        '```',
-        '',
-      ].join('\n'),
-    );
-    const json = JSON.parse(dewmark(['check', '--format', 'json', 'ack.md']).out);
-    expect(json.files[0].diagnostics.map((d: { code: string }) => d.code)).toEqual(['wb-above-db']);
-    expect(json.files[0].suppressed).toEqual([
-      expect.objectContaining({ code: 'claim-mismatch', line: 2, justification: 'logged on site', ignoreLine: 2 }),
-    ]);
-    expect(json.summary).toMatchObject({ errors: 1, warnings: 0, suppressed: 1 });
-    const text = dewmark(['check', '--max-warnings', '0', 'ack.md']);
-    expect(text.out).not.toContain('claim-mismatch');
-    const sarif = JSON.parse(dewmark(['check', '--format', 'sarif', 'ack.md']).out);
-    const results = sarif.runs[0].results as { ruleId: string; suppressions?: unknown[] }[];
-    expect(results.map((r) => [r.ruleId, r.suppressions ?? null])).toEqual([
-      ['wb-above-db', null],
-      ['claim-mismatch', [{ kind: 'inSource', justification: 'logged on site' }]],
-    ]);
-  });
+  it(
+    'check --format json lists them under suppressed (with the ' +
+      'reason) and counts them apart; sarif marks them in-source',
+    () => {
+      writeFileSync(
+        join(dir, 'ack.md'),
+        [
+          '```air',
+          'state RA: db=24C rh=50% w=11.0g/kg   # dewmark-ignore claim-mismatch -- logged on site',
+          'state X: db=20C wb=25C',
+          '```',
+          '',
+        ].join('\n'),
+      );
+      const json = JSON.parse(dewmark(['check', '--format', 'json', 'ack.md']).out);
+      expect(json.files[0].diagnostics.map((d: { code: string }) => d.code)).toEqual(['wb-above-db']);
+      expect(json.files[0].suppressed).toEqual([
+        expect.objectContaining({ code: 'claim-mismatch', line: 2, justification: 'logged on site', ignoreLine: 2 }),
+      ]);
+      expect(json.summary).toMatchObject({ errors: 1, warnings: 0, suppressed: 1 });
+      const text = dewmark(['check', '--max-warnings', '0', 'ack.md']);
+      expect(text.out).not.toContain('claim-mismatch');
+      const sarif = JSON.parse(dewmark(['check', '--format', 'sarif', 'ack.md']).out);
+      const results = sarif.runs[0].results as { ruleId: string; suppressions?: unknown[] }[];
+      expect(results.map((r) => [r.ruleId, r.suppressions ?? null])).toEqual([
+        ['wb-above-db', null],
+        ['claim-mismatch', [{ kind: 'inSource', justification: 'logged on site' }]],
+      ]);
+    },
+  );
 });

@@ -47,7 +47,8 @@ describe('JSON precision', () => {
     const { analysis, json } = doc();
     const dry = json.states.find((s) => s.name === ('DRY' as never))!;
     const w = dry.w_kgkg as number;
-    // Frost point −60 °C at 101.325 kPa: PsychroLib as oracle (the same Hyland–Wexler ice equation, ASHRAE HoF 2017 SI Ch.1 eq 5).
+    // Frost point −60 °C at 101.325 kPa: PsychroLib as oracle (the same Hyland–Wexler ice equation,
+    // ASHRAE HoF 2017 SI Ch.1 eq 5).
     const oracle = psy.GetHumRatioFromTDewPoint(-60, 101325);
     expect(Math.abs(w - oracle) / oracle).toBeLessThan(1e-4);
     expect(w).toBeLessThan(2e-5);

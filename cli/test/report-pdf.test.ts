@@ -88,7 +88,9 @@ describe('--pdf without a usable browser: exit 2 and what to do', () => {
     expect(r.err).toContain("--chromium 'pool.md' is not an executable file");
     expect(findChromium(undefined, { DEWMARK_CHROMIUM: join(dir, 'nothing') })).toEqual({
       ok: false,
-      message: `DEWMARK_CHROMIUM='${join(dir, 'nothing')}' is not an executable file; set it to the path of a Chromium or Chrome program, or unset it`,
+      message:
+        `DEWMARK_CHROMIUM='${join(dir, 'nothing')}' is not an executable ` +
+        `file; set it to the path of a Chromium or Chrome program, or unset it`,
     });
   });
 

@@ -58,7 +58,11 @@ function chartView(doc: vscode.TextDocument, nonce: string, offset: number, all:
   if (note.limited) {
     // Over the dewmark.maxNoteSizeKB limit: not evaluated, so nothing to draw; say why.
     return {
-      svg: `<p role="status">This note is larger than ${settings.maxNoteKB} KB (dewmark.maxNoteSizeKB; at most ${HOST_MAX_NOTE_KB} KB inside VS Code), so it is not evaluated as you type and has no chart here. Use <code>dewmark chart</code> on the command line${settings.maxNoteKB < HOST_MAX_NOTE_KB ? ', or raise the setting' : ''}.</p>`,
+      svg:
+        `<p role="status">This note is larger than ${settings.maxNoteKB} KB (dewmark.maxNoteSizeKB; ` +
+        `at most ${HOST_MAX_NOTE_KB} KB inside VS Code), so it is not evaluated as you ` +
+        `type and has no chart here. Use <code>dewmark chart</code> on the command ` +
+        `line${settings.maxNoteKB < HOST_MAX_NOTE_KB ? ', or raise the setting' : ''}.</p>`,
       info: '',
       caseKey: null,
       cases: [],
@@ -84,7 +88,8 @@ function chartView(doc: vscode.TextDocument, nonce: string, offset: number, all:
   });
   const info =
     cases.length > 1
-      ? `Section ${cases.indexOf(here) + 1} of ${cases.length}, at the cursor: ${here.title}. ${TOGGLE_HINT} to see all states.`
+      ? `Section ${cases.indexOf(here) + 1} of ${cases.length}, at ` +
+        `the cursor: ${here.title}. ${TOGGLE_HINT} to see all states.`
       : `${here.title}.`;
   return { svg, info, caseKey: here.key, cases };
 }
@@ -101,7 +106,9 @@ class ChartPanel {
   private all = false;
   /** The chart width the panel has room for, px. */
   private width = chartWidthFor(960);
-  /** The cases of the document version last drawn, and the one drawn (to redraw only when the cursor moves to another). */
+  /**
+   * The cases of the document version last drawn, and the one drawn (to redraw only when the cursor moves to another).
+   */
   private drawn: { version: number; caseKey: string | null; cases: readonly ChartCase[] } | undefined;
 
   constructor(
@@ -189,7 +196,9 @@ class ChartPanel {
       const why = err instanceof Error ? err.message : String(err);
       this.log.error(`the chart of ${this.uri} could not be drawn: ${why}`);
       return {
-        svg: `<p role="alert">The chart could not be drawn: ${why.replace(/[<>&]/g, ' ')}. The log is in Output → Dewmark.</p>`,
+        svg:
+          `<p role="alert">The chart could not be ` +
+          `drawn: ${why.replace(/[<>&]/g, ' ')}. The log is in Output → Dewmark.</p>`,
         info: '',
         caseKey: null,
         cases: [],

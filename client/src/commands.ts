@@ -23,5 +23,8 @@ export const COMMAND_CATEGORY = 'Dewmark';
 /** Name of the output channel that holds the server log (Output → Dewmark). */
 export const OUTPUT_CHANNEL = 'Dewmark';
 
-/** Context key set when the running server has no workspace check (the manifest's palette `when` for Check All reads it). */
+/**
+ * Context key set when the running server has no workspace
+ * check (the manifest's palette `when` for Check All reads it).
+ */
 export const NO_WORKSPACE_CHECK_CONTEXT = 'dewmark.noWorkspaceCheck';

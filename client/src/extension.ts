@@ -85,7 +85,8 @@ function extendPreview<T extends object>(md: T, output: vscode.LogOutputChannel)
     settings: (env) => documentSettings(previewDocument(env)),
     onError: (err) =>
       output.error(
-        `the preview's results could not be computed: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`,
+        `the preview's results could not be ` +
+          `computed: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`,
       ),
   });
 }
@@ -109,7 +110,9 @@ class ServerController {
           if ((count ?? 0) <= 3) return { action: ErrorAction.Continue, handled: true };
           return {
             action: ErrorAction.Shutdown,
-            message: `The connection to the Dewmark language server keeps failing (${error.message}); it was stopped. Run "Dewmark: Restart Language Server" to start it again.`,
+            message:
+              `The connection to the Dewmark language server keeps failing (${error.message}); ` +
+              `it was stopped. Run "Dewmark: Restart Language Server" to start it again.`,
           };
         },
         closed: () => {
@@ -316,7 +319,10 @@ async function checkWorkspace(ctl: ServerController): Promise<void> {
         const params: CheckWorkspaceParams = { workDoneToken };
         const r = await ctl.client.sendRequest<CheckWorkspaceResult>(CHECK_WORKSPACE_METHOD, params, token);
         const plural = (n: number, w: string) => `${n} ${w}${n === 1 ? '' : 's'}`;
-        let text = `Dewmark: checked ${plural(r.notes.length, 'note')} with statements (${plural(r.filesRead, 'Markdown file')} read): ${plural(r.errors, 'error')}, ${plural(r.warnings, 'warning')}.`;
+        let text =
+          `Dewmark: checked ${plural(r.notes.length, 'note')} with ` +
+          `statements (${plural(r.filesRead, 'Markdown file')} ` +
+          `read): ${plural(r.errors, 'error')}, ${plural(r.warnings, 'warning')}.`;
         if (r.unreadable.length > 0)
           text += ` ${plural(r.unreadable.length, 'file')} could not be read (see Output → Dewmark).`;
         for (const u of r.unreadable) ctl.client.warn(`could not read ${u.uri}: ${u.reason}`);
@@ -347,7 +353,9 @@ async function checkWorkspace(ctl: ServerController): Promise<void> {
 
 /** What "Check All Notes" says where the server has no file system to search (the web build). */
 export const WEB_CHECK_WORKSPACE_MESSAGE =
-  'Dewmark: "Check All Notes" needs a file system to search, and the browser build of Dewmark has none: each note is checked when you open it (hints, hovers and problems as usual). To check every note at once, open the folder in desktop VS Code or a remote window, or run "dewmark check" on the command line.';
+  'Dewmark: "Check All Notes" needs a file system to search, and the browser build of Dewmark has none: ' +
+  'each note is checked when you open it (hints, hovers and problems as usual). To check every note at ' +
+  'once, open the folder in desktop VS Code or a remote window, or run "dewmark check" on the command line.';
 
 /**
  * `Dewmark: Insert or Refresh Results Table`: asks the server for the edit that writes the results
@@ -422,7 +430,9 @@ async function insertResultsTable(ctl: ServerController): Promise<void> {
   vscode.window.setStatusBarMessage(`Dewmark: ${said}`, 5000);
   if (r.unterminated > 0) {
     void vscode.window.showWarningMessage(
-      `Dewmark: ${r.unterminated === 1 ? 'a results table has' : `${r.unterminated} results tables have`} no end marker and ${r.unterminated === 1 ? 'was' : 'were'} left alone; see its warning in the Problems view.`,
+      `Dewmark: ${r.unterminated === 1 ? 'a results table has' : `${r.unterminated} results tables have`} ` +
+        `no end marker and ${r.unterminated === 1 ? 'was' : 'were'} ` +
+        `left alone; see its warning in the Problems view.`,
     );
   }
 }

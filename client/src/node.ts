@@ -23,7 +23,8 @@ function nodeLauncher(context: vscode.ExtensionContext): ServerLauncher {
     problem: () =>
       existsSync(serverModule)
         ? null
-        : `the bundled language server is missing (${serverModule}). Reinstall the extension, or run "npm run build" in a development checkout.`,
+        : `the bundled language server is missing (${serverModule}). Reinstall ` +
+          `the extension, or run "npm run build" in a development checkout.`,
     schemes: DOCUMENT_SCHEMES,
     createClient(id, name, options) {
       const serverOptions: ServerOptions = {

@@ -49,7 +49,10 @@ export interface MarkdownItLike {
 
 /** Options of {@link dewmarkPreviewPlugin}. */
 export interface PreviewOptions {
-  /** The settings for the note being rendered; `env` is what the renderer was given (VS Code puts `currentDocument` there). */
+  /**
+   * The settings for the note being rendered; `env` is what the renderer was given (VS Code puts
+   * `currentDocument` there).
+   */
   settings?: (env: unknown) => ServiceSettings;
   /** Called when a note could not be analysed (the preview then shows the note without tables). */
   onError?: (err: unknown) => void;
@@ -77,7 +80,9 @@ function htmlByLine(src: string, settings: ServiceSettings): Map<number, string>
     if (table) {
       const state = tableState(note.analysis, table);
       if (state === 'fresh') continue;
-      notice = `The results table written below this block is out of date; run "${RESULTS_COMMAND_TITLE}" to refresh it. Current results:`;
+      notice =
+        `The results table written below this block is out of date; ` +
+        `run "${RESULTS_COMMAND_TITLE}" to refresh it. Current results:`;
     }
     out.set(lines.positionAt(region.span.start).line, html(data, notice));
   }

@@ -40,7 +40,10 @@ export class RestartPolicy {
       return {
         restart: false,
         announce: true,
-        message: `The Dewmark language server stopped ${this.crashes.length} times in ${minutes} minutes and was not restarted again. The log is in Output → Dewmark; run "Dewmark: Restart Language Server" to try again.`,
+        message:
+          `The Dewmark language server stopped ${this.crashes.length} times ` +
+          `in ${minutes} minutes and was not restarted again. The log is in ` +
+          `Output → Dewmark; run "Dewmark: Restart Language Server" to try again.`,
       };
     }
     const first = !this.announced;
@@ -50,7 +53,8 @@ export class RestartPolicy {
       announce: first,
       message: first
         ? 'The Dewmark language server stopped unexpectedly and was restarted. The log is in Output → Dewmark.'
-        : `The Dewmark language server stopped unexpectedly again (${this.crashes.length} in the last ${Math.round(this.windowMs / 60_000)} minutes); restarting it.`,
+        : `The Dewmark language server stopped unexpectedly again (${this.crashes.length} ` +
+          `in the last ${Math.round(this.windowMs / 60_000)} minutes); restarting it.`,
     };
   }
 

@@ -14,7 +14,10 @@ const SETTING_KEYS = [
   'maxNoteSizeKB',
 ];
 
-/** The settings section for a document (or the window's when there is none), as the plain object the server would receive. */
+/**
+ * The settings section for a document (or the window's when
+ * there is none), as the plain object the server would receive.
+ */
 export function rawSettingsFor(uri: vscode.Uri | undefined): Record<string, unknown> {
   const cfg = vscode.workspace.getConfiguration(SETTINGS_SECTION, uri);
   const out: Record<string, unknown> = {};

@@ -41,7 +41,10 @@ function repositoryRoot(dir: string): string | null {
   return null;
 }
 
-/** The `info/exclude` file of the repository at `root`: `.git/` is a folder, or a file naming the git folder (linked worktrees, submodules). */
+/**
+ * The `info/exclude` file of the repository at `root`: `.git/` is a folder, or a file naming the
+ * git folder (linked worktrees, submodules).
+ */
 function infoExcludeOf(root: string): string | null {
   const dotGit = join(root, '.git');
   try {
@@ -85,7 +88,10 @@ export class IgnoreFiles {
     }
   }
 
-  /** The rules that apply to the entries of `dir` (which must be `top` or below it, or between the repository root and `top`). */
+  /**
+   * The rules that apply to the entries of `dir` (which must be `top` or below it, or between the
+   * repository root and `top`).
+   */
   rulesFor(dir: string): readonly Rules[] {
     const cached = this.cache.get(dir);
     if (cached) return cached;

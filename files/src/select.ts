@@ -45,7 +45,10 @@ export interface CollectOptions {
   cwd: string;
   /** Honour `.gitignore` files and `.git/info/exclude` in folders and globs. Default true. */
   gitignore?: boolean;
-  /** Glob patterns (relative to `cwd`) of files and folders to leave out of folders and globs. A pattern without a slash matches a name at any depth. */
+  /**
+   * Glob patterns (relative to `cwd`) of files and folders to leave out of folders and globs. A
+   * pattern without a slash matches a name at any depth.
+   */
   exclude?: readonly string[];
 }
 
@@ -90,7 +93,10 @@ function plural(n: number, word: string): string {
   return `${n} ${word}${n === 1 ? '' : 's'}`;
 }
 
-/** "2 left out by .gitignore or .git/info/exclude (--no-gitignore reads them), 1 hidden" — or '' when nothing was left out. */
+/**
+ * "2 left out by .gitignore or .git/info/exclude (--no-gitignore reads them), 1 hidden" — or ''
+ * when nothing was left out.
+ */
 export function describeLeftOut(leftOut: LeftOut): string {
   const parts: string[] = [];
   const n = leftOut['ignore-file'];
@@ -99,7 +105,8 @@ export function describeLeftOut(leftOut: LeftOut): string {
   if (leftOut.exclude > 0) parts.push(`${leftOut.exclude} left out by --exclude`);
   if (leftOut.hidden > 0)
     parts.push(
-      `${leftOut.hidden} hidden (name starting with '.'; name ${leftOut.hidden === 1 ? 'it' : 'them'} to read ${leftOut.hidden === 1 ? 'it' : 'them'})`,
+      `${leftOut.hidden} hidden (name starting with '.'; ` +
+        `name ${leftOut.hidden === 1 ? 'it' : 'them'} to read ${leftOut.hidden === 1 ? 'it' : 'them'})`,
     );
   if (leftOut.node_modules > 0) parts.push(`${leftOut.node_modules} in node_modules`);
   if (leftOut.symlink > 0) parts.push(`${plural(leftOut.symlink, 'symbolic link')} not followed`);
@@ -131,7 +138,9 @@ function isFolder(abs: string): boolean {
 
 const byName = (a: Dirent, b: Dirent) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0);
 
-/** Walks `dir` depth first in name order; yields once per folder, so that a caller can pause or stop between folders. */
+/**
+ * Walks `dir` depth first in name order; yields once per folder, so that a caller can pause or stop between folders.
+ */
 function* walk(dir: string, w: Walk, depth = 0): Generator<void, void, void> {
   yield;
   let entries: Dirent[];
@@ -291,7 +300,10 @@ export function* selectInputs(args: readonly string[], opts: CollectOptions): Ge
 function emptyGlobMessage(arg: string, w: Walk): string {
   const left = describeLeftOut(w.leftOut);
   if (w.notMarkdown > 0) {
-    return `the pattern '${arg}' matches ${plural(w.notMarkdown, 'file')}, none of them Markdown (.md, .markdown); name a file to read it whatever its name${left ? `; ${left}` : ''}`;
+    return (
+      `the pattern '${arg}' matches ${plural(w.notMarkdown, 'file')}, none of them Markdown ` +
+      `(.md, .markdown); name a file to read it whatever its name${left ? `; ${left}` : ''}`
+    );
   }
   return `no files match the pattern '${arg}'${left ? ` (${left})` : ''}`;
 }

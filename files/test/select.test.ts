@@ -68,7 +68,8 @@ describe('folders', () => {
       },
     ]);
     expect(explainEmpty(r.empty)).toEqual([
-      "in '.': folders and Markdown files: 2 hidden (name starting with '.'; name them to read them), 2 in node_modules",
+      "in '.': folders and Markdown files: 2 hidden (name starting " +
+        "with '.'; name them to read them), 2 in node_modules",
     ]);
     // Named, a hidden folder is walked like any other.
     expect(select(root, ['.github']).paths).toEqual(['.github/t.md']);
@@ -103,8 +104,10 @@ describe('folders', () => {
     const named = select(root, ['private', 'notes/build']);
     expect(named.paths).toEqual([]);
     expect(explainEmpty(named.empty)).toEqual([
-      "in 'private': folders and Markdown files: 1 left out by .gitignore or .git/info/exclude (--no-gitignore reads it)",
-      "in 'notes/build': folders and Markdown files: 1 left out by .gitignore or .git/info/exclude (--no-gitignore reads it)",
+      "in 'private': folders and Markdown files: 1 left out by " +
+        '.gitignore or .git/info/exclude (--no-gitignore reads it)',
+      "in 'notes/build': folders and Markdown files: 1 left out by " +
+        '.gitignore or .git/info/exclude (--no-gitignore reads it)',
     ]);
   });
 
@@ -212,10 +215,12 @@ describe('globs', () => {
   it('that find nothing say why', () => {
     expect(select(root, ['nothing/*.md']).problems).toEqual(["no files match the pattern 'nothing/*.md'"]);
     expect(select(root, ['notes/*.csv']).problems).toEqual([
-      "the pattern 'notes/*.csv' matches 1 file, none of them Markdown (.md, .markdown); name a file to read it whatever its name",
+      "the pattern 'notes/*.csv' matches 1 file, none of them Markdown " +
+        '(.md, .markdown); name a file to read it whatever its name',
     ]);
     expect(select(root, ['notes/build/*.md']).problems).toEqual([
-      "no files match the pattern 'notes/build/*.md' (folders and Markdown files: 1 left out by .gitignore or .git/info/exclude (--no-gitignore reads it))",
+      "no files match the pattern 'notes/build/*.md' (folders and Markdown files: " +
+        '1 left out by .gitignore or .git/info/exclude (--no-gitignore reads it))',
     ]);
   });
 });

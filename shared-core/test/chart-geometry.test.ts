@@ -86,13 +86,16 @@ describe('states lie on their curves', () => {
     }
   });
 
-  it('a saturated state lies on the saturation curve, and a wet-bulb line passes through a state of that wet-bulb', () => {
-    const sat = state('S', 18, satHumRatio(18, P0));
-    const wbState = state('B', 30, humRatioFromWetBulb(30, 20, P0));
-    const svg = renderChartFromData(data([sat, wbState]));
-    expect(distanceToRuns(marker(svg, 'S'), curvePath(svg, 'saturation', '100'))).toBeLessThan(1);
-    expect(distanceToRuns(marker(svg, 'B'), curvePath(svg, 'wetBulb', '20'))).toBeLessThan(1);
-  });
+  it(
+    'a saturated state lies on the saturation curve, and a ' + 'wet-bulb line passes through a state of that wet-bulb',
+    () => {
+      const sat = state('S', 18, satHumRatio(18, P0));
+      const wbState = state('B', 30, humRatioFromWetBulb(30, 20, P0));
+      const svg = renderChartFromData(data([sat, wbState]));
+      expect(distanceToRuns(marker(svg, 'S'), curvePath(svg, 'saturation', '100'))).toBeLessThan(1);
+      expect(distanceToRuns(marker(svg, 'B'), curvePath(svg, 'wetBulb', '20'))).toBeLessThan(1);
+    },
+  );
 
   it('an enthalpy line passes through a state of that enthalpy', () => {
     // 50 kJ/kg at w = 0.008: the dry-bulb from the engine's enthalpy equation.
@@ -101,20 +104,24 @@ describe('states lie on their curves', () => {
     expect(distanceToRuns(marker(svg, 'H'), curvePath(svg, 'enthalpy', '50'))).toBeLessThan(1);
   });
 
-  it('the saturation curve passes through the tabulated saturation humidity ratios (ASHRAE HoF 2017 SI Ch.1 Table 2, rel 0.5 %)', () => {
-    const svg = renderChartFromData(data([]));
-    const lay = chartLayout(data([]));
-    const curve = curvePath(svg, 'saturation', '100');
-    // Ws at 101.325 kPa: 5 °C 0.005425, 25 °C 0.020173 (ASHRAE HoF 2017 SI Ch.1 Table 2).
-    for (const [db, ws] of [
-      [5, 0.005425],
-      [25, 0.020173],
-    ] as const) {
-      const target = toPixel(lay, db, ws);
-      const tolPx = (ws * 0.005 * (lay.plot.bottom - lay.plot.top)) / (lay.range.wMax - lay.range.wMin);
-      expect(distanceToRuns(target, curve)).toBeLessThanOrEqual(Math.max(tolPx, 0.5));
-    }
-  });
+  it(
+    'the saturation curve passes through the tabulated saturation ' +
+      'humidity ratios (ASHRAE HoF 2017 SI Ch.1 Table 2, rel 0.5 %)',
+    () => {
+      const svg = renderChartFromData(data([]));
+      const lay = chartLayout(data([]));
+      const curve = curvePath(svg, 'saturation', '100');
+      // Ws at 101.325 kPa: 5 °C 0.005425, 25 °C 0.020173 (ASHRAE HoF 2017 SI Ch.1 Table 2).
+      for (const [db, ws] of [
+        [5, 0.005425],
+        [25, 0.020173],
+      ] as const) {
+        const target = toPixel(lay, db, ws);
+        const tolPx = (ws * 0.005 * (lay.plot.bottom - lay.plot.top)) / (lay.range.wMax - lay.range.wMin);
+        expect(distanceToRuns(target, curve)).toBeLessThanOrEqual(Math.max(tolPx, 0.5));
+      }
+    },
+  );
 
   it('the mixed point lies on the mixing line of its two streams within a pixel', () => {
     const oa = state('OA', 33, humRatioFromWetBulb(33, 23, P0));

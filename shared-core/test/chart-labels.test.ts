@@ -163,15 +163,18 @@ describe('labels on crowded charts', () => {
   const examples = join(__dirname, '..', '..', 'examples');
   for (const file of ['kestrel-ridge-ahu1.md', 'level2-meeting-room-check.md']) {
     for (const grouping of ['section', 'block', 'all'] as const) {
-      it(`examples/${file}, a chart per ${grouping}: no label meets another or covers a marker, every state named`, () => {
-        const text = readFileSync(join(examples, file), 'utf8');
-        const analysis = analyzeNote(text, {});
-        for (const chart of renderChartCases(analysis, grouping, { source: text })) {
-          const names = elements(chart.svg, 'circle', 'dmc-marker').map((c) => c['data-name']!);
-          const { unlabelled } = checkChart(chart.svg, names);
-          expect(unlabelled).toBe(0);
-        }
-      });
+      it(
+        `examples/${file}, a chart per ${grouping}: no label ` + `meets another or covers a marker, every state named`,
+        () => {
+          const text = readFileSync(join(examples, file), 'utf8');
+          const analysis = analyzeNote(text, {});
+          for (const chart of renderChartCases(analysis, grouping, { source: text })) {
+            const names = elements(chart.svg, 'circle', 'dmc-marker').map((c) => c['data-name']!);
+            const { unlabelled } = checkChart(chart.svg, names);
+            expect(unlabelled).toBe(0);
+          }
+        },
+      );
     }
   }
 });

@@ -127,7 +127,8 @@ describe('process claims', () => {
     const ok = analyse(
       fence(
         ...base,
-        `process CC: E -> L m=5kg/s q_total=${q.toFixed(1)}kW shr=${r.shr!.toFixed(2)} water=${(Math.abs(r.waterKgS!) * 3600).toFixed(1)}kg/h`,
+        `process CC: E -> L m=5kg/s q_total=${q.toFixed(1)}kW shr=${r.shr!.toFixed(2)} ` +
+          `water=${(Math.abs(r.waterKgS!) * 3600).toFixed(1)}kg/h`,
       ),
     );
     expect(withCode(ok, 'claim-mismatch')).toEqual([]);

@@ -275,8 +275,10 @@ describe('bad references get one clear error each, on the offending token', () =
     const msgs = a.diagnostics.map((d) => `${d.code} ${spanText(text, d)}: ${d.message}`);
     expect(msgs).toEqual([
       "missing-value OA.: 'OA.' names no property after the dot: write db=OA.db (a property of OA)",
-      "bad-number OA: 'OA' is not a number: write w= followed by a decimal number and its unit, e.g. w=9.3g/kg, or another state's property: w=OA.w",
-      "syntax OA.db*2: 'OA.db*2' is not a property reference: write OA.db, or add or subtract a difference with its unit (OA.db+0.8K); no other arithmetic",
+      "bad-number OA: 'OA' is not a number: write w= followed by a decimal " +
+        "number and its unit, e.g. w=9.3g/kg, or another state's property: w=OA.w",
+      "syntax OA.db*2: 'OA.db*2' is not a property reference: write OA.db, or add " +
+        'or subtract a difference with its unit (OA.db+0.8K); no other arithmetic',
       "missing-value +: '+' needs a difference after the sign: write db=OA.db+0.8K (+ or − a difference with its unit)",
     ]);
   });

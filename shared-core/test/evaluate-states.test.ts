@@ -32,7 +32,8 @@ const cases: StateCase[] = [
   {
     name: 'db 100 °F, wb 65 °F at 14.696 psia (I-P input)',
     source:
-      'ASHRAE HoF 2017 I-P Ch.1 Example 1 (as cited in the PsychroLib test suite; check-values PL-IP-EX1); I-P tolerances as given there',
+      'ASHRAE HoF 2017 I-P Ch.1 Example 1 (as cited in the PsychroLib ' +
+      'test suite; check-values PL-IP-EX1); I-P tolerances as given there',
     lines: ['state S: db=100F wb=65F p=14.696psia'],
     // W 0.00523 lb/lb ±0.0001; dp 40 °F ±1 °F (= 4.444 °C ± 0.556 K); RH 0.13 ±0.01.
     expected: { w: [0.00523, { abs: 0.0001 }], dp: [(40 - 32) / 1.8, { abs: 1 / 1.8 }], rh: [0.13, { abs: 0.01 }] },
@@ -52,7 +53,8 @@ const cases: StateCase[] = [
   {
     name: 'db 30 °C, w 0.02 kg/kg: enthalpy and volume at 95 461 Pa',
     source:
-      'PsychroLib test suite, test_GetMoistAirEnthalpy / test_GetMoistAirVolume (check-values PL-SI-XLS-H, PL-SI-XLS-V)',
+      'PsychroLib test suite, test_GetMoistAirEnthalpy / ' +
+      'test_GetMoistAirVolume (check-values PL-SI-XLS-H, PL-SI-XLS-V)',
     lines: ['site: p=95461Pa', 'state S: db=30C w=0.02'],
     expected: { h: [81316, { rel: 0.0003 }], v: [0.940855374352943, { rel: 0.0003 }] },
   },
@@ -166,8 +168,12 @@ describe('units', () => {
     near(stateOf(a, 'B').w, 0.0093, { abs: 1e-15 }, 'g/kg');
     near(stateOf(a, 'C').w, 65.1 / 7000, { abs: 1e-15 }, 'gr/lb');
   });
-  it('Btu/lb enthalpy moves the datum: 28.2 Btu/lb ≈ 47.8 kJ/kg (units module doc: kJ/kg = Btu/lb × 2.326 − 17.884)', () => {
-    const a = analyse(fence('state A: db=24C h=28.2Btu/lb'));
-    near(stateOf(a, 'A').h, 28.2 * 2326 - (1006 * 160) / 9, { abs: 1e-6 }, 'h');
-  });
+  it(
+    'Btu/lb enthalpy moves the datum: 28.2 Btu/lb ≈ 47.8 kJ/kg ' +
+      '(units module doc: kJ/kg = Btu/lb × 2.326 − 17.884)',
+    () => {
+      const a = analyse(fence('state A: db=24C h=28.2Btu/lb'));
+      near(stateOf(a, 'A').h, 28.2 * 2326 - (1006 * 160) / 9, { abs: 1e-6 }, 'h');
+    },
+  );
 });

@@ -50,22 +50,25 @@ describe('thousands separators', () => {
     expect(n?.value).toBe(Number('1234567890123456789'));
   });
 
-  it('refuses groupings that are not groups of three, without proposing a figure that could change the magnitude', () => {
-    for (const written of ['1,23,456W', '1234,567W', '1,2345W', '12,3456W', '1,234,5W', '1.234,5W', '12,34,567W']) {
-      const d = badNumber(written);
-      expect(d.message, written).toContain(`'${written}' is not a number`);
-      expect(d.message, written).toContain('thousands separator');
-      // No figure built from the written digits is offered (only the fixed examples 8,745 / 1,234,567.5 / 24.5).
-      const digits = written.replace(/[^0-9]/g, '');
-      const proposed = (d.message.replace(`'${written}'`, '').match(/[0-9][0-9.,]*/g) ?? []).map((s) =>
-        s.replace(/[^0-9]/g, ''),
-      );
-      expect(
-        proposed.filter((p) => p === digits),
-        `${written}: ${d.message}`,
-      ).toEqual([]);
-    }
-  });
+  it(
+    'refuses groupings that are not groups of three, without ' + 'proposing a figure that could change the magnitude',
+    () => {
+      for (const written of ['1,23,456W', '1234,567W', '1,2345W', '12,3456W', '1,234,5W', '1.234,5W', '12,34,567W']) {
+        const d = badNumber(written);
+        expect(d.message, written).toContain(`'${written}' is not a number`);
+        expect(d.message, written).toContain('thousands separator');
+        // No figure built from the written digits is offered (only the fixed examples 8,745 / 1,234,567.5 / 24.5).
+        const digits = written.replace(/[^0-9]/g, '');
+        const proposed = (d.message.replace(`'${written}'`, '').match(/[0-9][0-9.,]*/g) ?? []).map((s) =>
+          s.replace(/[^0-9]/g, ''),
+        );
+        expect(
+          proposed.filter((p) => p === digits),
+          `${written}: ${d.message}`,
+        ).toEqual([]);
+      }
+    },
+  );
 
   it('proposes a decimal point only where a comma can be nothing else', () => {
     expect(badNumber('24,5C').message).toContain('(24.5C)');
@@ -147,7 +150,10 @@ describe('trailing zeros of a whole number are not significant unless marked', (
 });
 
 describe('no suggestion changes a figure’s magnitude', () => {
-  /** Every written value of a note by `line:key` (stream amounts by `line:name`): its number and, with a known unit, its SI value. */
+  /**
+   * Every written value of a note by `line:key` (stream amounts by `line:name`): its number and,
+   * with a known unit, its SI value.
+   */
   function figures(text: string): Map<string, { number: number; si: number | null }> {
     const out = new Map<string, { number: number; si: number | null }>();
     const lines = text.split('\n');

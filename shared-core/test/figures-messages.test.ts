@@ -120,7 +120,9 @@ const CASES: readonly { code: string; body: string; figure: RegExp }[] = [
   },
   {
     code: 'recovery-frost',
-    body: 'state OA: db=20F rh=60%\nstate EA: db=72F rh=50%\nrecover HX: OA -> OA2 m=9,000lb/h, EA -> EA2 m=9,000lb/h eff_s=0.75',
+    body:
+      'state OA: db=20F rh=60%\nstate EA: db=72F rh=50%\nrecover ' +
+      'HX: OA -> OA2 m=9,000lb/h, EA -> EA2 m=9,000lb/h eff_s=0.75',
     figure: /°F/,
   },
   {

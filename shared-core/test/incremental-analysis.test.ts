@@ -131,7 +131,9 @@ const fence = fc
     if (closed) lines.push(prefix + (open.includes('~') ? '~~~' : '```'));
     return lines.join('\n');
   });
-/** A block whose mixes and processes refer to states defined above them (so that their results depend on those states). */
+/**
+ * A block whose mixes and processes refer to states defined above them (so that their results depend on those states).
+ */
 const plant = fc
   .tuple(
     fc.constantFrom('', 'site: elev=800m\n'),
@@ -141,7 +143,11 @@ const plant = fc
   )
   .map(
     ([site, db, rh, oa]) =>
-      `\`\`\`air\n${site}state OA: db=${db}C rh=${rh}%\nstate RA: db=24C rh=50% w=9.3g/kg\nmix MA: OA ${oa}% + RA ${100 - oa}% db=25C\nstate SA: db=13C rh=90%\nprocess CC: MA -> SA m=2kg/s q_total=-40kW\nmix MB: OA 0.5kg/s + MA 1.5kg/s\nprocess HC: SA -> OA q=1.2m3/s\nstate PH: db=OA.db+5K w=OA.w h=60kJ/kg\nstate SB: db=MA.db+0.8K w=MA.w\nsupply SU: RA q_sensible=30kW q_latent=5kW db=SB.db+0.5K\nprocess RM: SU -> RA q_total=35kW\n\`\`\``,
+      `\`\`\`air\n${site}state OA: db=${db}C rh=${rh}%\nstate RA: db=24C rh=50% w=9.3g/kg\nmix MA: ` +
+      `OA ${oa}% + RA ${100 - oa}% db=25C\nstate SA: db=13C rh=90%\nprocess CC: MA -> SA m=2kg/s ` +
+      `q_total=-40kW\nmix MB: OA 0.5kg/s + MA 1.5kg/s\nprocess HC: SA -> OA q=1.2m3/s\nstate ` +
+      `PH: db=OA.db+5K w=OA.w h=60kJ/kg\nstate SB: db=MA.db+0.8K w=MA.w\nsupply SU: RA ` +
+      `q_sensible=30kW q_latent=5kW db=SB.db+0.5K\nprocess RM: SU -> RA q_total=35kW\n\`\`\``,
   );
 const prose = fc.oneof(
   fc.constantFrom(
@@ -209,7 +215,10 @@ const insert = fc.oneof(
   { weight: 2, arbitrary: fc.constant('') },
 );
 
-/** One edit: where (a fraction of the text, or a place inside a statement line), how much to delete, what to insert, and the settings of the next analysis. */
+/**
+ * One edit: where (a fraction of the text, or a place inside a statement line), how much to delete,
+ * what to insert, and the settings of the next analysis.
+ */
 const edit = fc.record({
   at: fc.double({ min: 0, max: 1, noNaN: true }),
   inStatement: fc.constantFrom<Place>('anywhere', 'statement', 'statement', 'line'),
@@ -230,7 +239,10 @@ function settingsFor(base: number, n: number): Partial<EvaluateSettings> | undef
   return n < 8 ? SETTINGS[base % SETTINGS.length] : SETTINGS[n % SETTINGS.length];
 }
 
-/** Where an edit goes: anywhere in the text, into a statement line (where typing usually happens), or into any non-blank line. */
+/**
+ * Where an edit goes: anywhere in the text, into a statement line (where typing usually happens),
+ * or into any non-blank line.
+ */
 type Place = 'anywhere' | 'statement' | 'line';
 
 /** Applies an edit at the place it names. */
@@ -371,7 +383,8 @@ describe('incremental analysis (createAnalyzer)', () => {
 
   it('takes a state before the edit over as it was, and moves one after it', () => {
     const text =
-      '```air\nsite: elev=1200m\nstate A: db=24C rh=50% w=9g/kg\nstate B: db=30C wb=20C\nmix M: A 30% + B 70%\nstate C: db=12C dp=5C rh=60%\n```\n';
+      '```air\nsite: elev=1200m\nstate A: db=24C rh=50% w=9g/kg\nstate B: ' +
+      'db=30C wb=20C\nmix M: A 30% + B 70%\nstate C: db=12C dp=5C rh=60%\n```\n';
     const analyzer = createAnalyzer();
     const first = analyzer.analyze(text);
     // The same text again is the same analysis.
@@ -396,7 +409,8 @@ describe('incremental analysis (createAnalyzer)', () => {
 
   it('re-evaluates a process when the flow of the mix it starts from changes but not its state', () => {
     const text =
-      '```air\nstate OA: db=30C rh=40%\nstate RA: db=24C rh=50%\nmix MB: OA 0.5kg/s + RA 1.5kg/s\nstate SA: db=13C rh=90%\nprocess CC: MB -> SA\n```\n';
+      '```air\nstate OA: db=30C rh=40%\nstate RA: db=24C rh=50%\nmix MB: OA ' +
+      '0.5kg/s + RA 1.5kg/s\nstate SA: db=13C rh=90%\nprocess CC: MB -> SA\n```\n';
     const analyzer = createAnalyzer();
     const first = analyzer.analyze(text);
     // Both flows doubled: the same mixed state, twice the dry-air flow through the coil.

@@ -13,7 +13,10 @@ export function quantityText(v: QuantityNode | null): string {
   return `${v.number.text}${v.unit?.text ?? ''}${tolerance}`;
 }
 
-/** A statement in one line: `state RA: db=24C rh=50%±2`, `mix MA: OA 25% + RA 75% | db=26C`, `?` for a missing part (a new statement kind adds its case here). */
+/**
+ * A statement in one line: `state RA: db=24C rh=50%±2`, `mix MA: OA 25% + RA 75% | db=26C`, `?` for
+ * a missing part (a new statement kind adds its case here).
+ */
 export function statementText(st: Statement): string {
   const props = 'props' in st ? st.props.map((p) => `${p.key}=${quantityText(p.value)}`).join(' ') : '';
   const tail = props ? ` | ${props}` : '';
@@ -27,7 +30,10 @@ export function statementText(st: Statement): string {
     case 'mix':
       return `mix ${st.name?.text ?? '?'}: ${st.streams.map((s) => `${s.name.text} ${quantityText(s.amount)}`).join(' + ')}${tail}`;
     case 'process':
-      return `process ${st.name?.text ?? '?'}: ${st.from?.text ?? '?'} -> ${st.to?.text ?? '?'}${st.words.map((w) => ` ${w.text}`).join('')}${tail}`;
+      return (
+        `process ${st.name?.text ?? '?'}: ${st.from?.text ?? '?'} ` +
+        `-> ${st.to?.text ?? '?'}${st.words.map((w) => ` ${w.text}`).join('')}${tail}`
+      );
     case 'supply':
       return `supply ${st.name?.text ?? '?'}: ${st.room?.text ?? '?'}${tail}`;
     case 'recover': {
@@ -116,7 +122,10 @@ export function statementNodes(st: Statement, at = 'statement'): TreeNode[] {
   return out;
 }
 
-/** Every span of a parsed note, with a label: regions and their lines, headings, diagnostics, and every statement's nodes. */
+/**
+ * Every span of a parsed note, with a label: regions and their
+ * lines, headings, diagnostics, and every statement's nodes.
+ */
 export function noteSpans(p: ParsedNote): [string, Span][] {
   const out: [string, Span][] = [];
   p.regions.forEach((r, i) => {

@@ -77,14 +77,16 @@ describe('statements in air fences', () => {
 
   it('reads names with digits, underscores and hyphens, and non-ASCII letters', () => {
     check(
-      '```air\nstate AHU-3_off_coil: db=12.5C rh=95%\nstate Zone2b: db=21C w=7g/kg\nstate Außenluft: db=-5C rh=80%\n```',
+      '```air\nstate AHU-3_off_coil: db=12.5C rh=95%\nstate ' +
+        'Zone2b: db=21C w=7g/kg\nstate Außenluft: db=-5C rh=80%\n```',
       ['state AHU-3_off_coil: db=12.5C rh=95%', 'state Zone2b: db=21C w=7g/kg', 'state Außenluft: db=-5C rh=80%'],
     );
   });
 
   it('reads mixes by fraction, mass flow and volume flow, with claims after the streams', () => {
     check(
-      '```air\nmix MA: OA 25% + RA 75% db=26.2C\nmix M2: OA 1.2kg/s + RA 3.4kg/s + XA 0.5kg/s\nmix M3: OA 1000L/s+RA 3000L/s\n```',
+      '```air\nmix MA: OA 25% + RA 75% db=26.2C\nmix M2: OA 1.2kg/s + RA ' +
+        '3.4kg/s + XA 0.5kg/s\nmix M3: OA 1000L/s+RA 3000L/s\n```',
       [
         'mix MA: OA 25% + RA 75% | db=26.2C',
         'mix M2: OA 1.2kg/s + RA 3.4kg/s + XA 0.5kg/s',
@@ -103,7 +105,8 @@ describe('statements in air fences', () => {
 
   it('reads units with symbols, tolerances and spaces around =', () => {
     check(
-      '```air\nstate A: db=24°C rh=50%±2 w=9.30g/kg+-0.05 dp = 12.9C±0.5C\nstate B: db=75.2°F h=28.1Btu/lb v=13.7ft3/lb\n```',
+      '```air\nstate A: db=24°C rh=50%±2 w=9.30g/kg+-0.05 ' +
+        'dp = 12.9C±0.5C\nstate B: db=75.2°F h=28.1Btu/lb v=13.7ft3/lb\n```',
       ['state A: db=24°C rh=50%±2 w=9.30g/kg±0.05 dp=12.9C±0.5C', 'state B: db=75.2°F h=28.1Btu/lb v=13.7ft3/lb'],
     );
   });

@@ -258,7 +258,8 @@ describe('heat recovery: effectiveness on the smaller capacity rate', () => {
     const r = value(
       recoverBetween({ state: st(5, 0.8), massFlowKgS: 2 }, { state: st(22, 0.55), massFlowKgS: 2 }, 0.7, null),
     );
-    // Exhaust leaves at about 22 − 0.7 × 17 ≈ 10.1 °C; surface ≈ (10.1 + 5)/2 ≈ 7.6 °C; dew point of 22 °C / 55 % ≈ 12.5 °C.
+    // Exhaust leaves at about 22 − 0.7 × 17 ≈ 10.1 °C; surface ≈ (10.1 + 5)/2 ≈ 7.6 °C; dew point
+    // of 22 °C / 55 % ≈ 12.5 °C.
     expect(psy.GetTDewPointFromHumRatio(22, psy.GetHumRatioFromRelHum(22, 0.55, P), P)).toBeGreaterThan(12);
     expect(r.wetting).not.toBeNull();
     expect(r.wetting!.kind).toBe('condensation');

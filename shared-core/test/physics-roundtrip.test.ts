@@ -146,7 +146,8 @@ describe('every valid pair of solveState reproduces the state it was taken from'
           if (!r0.ok) throw new Error(r0.problem.message);
           const s = r0.state;
           if (a === 'wb' && b === 'h' && Math.abs(s.wb) < 0.05) return; // h nearly constant along the line
-          if (s.db - s.wb < 1e-6 && ((a === 'wb' && b === 'h') || (a === 'wb' && b === 'rh'))) return; // saturated: db = wb exactly
+          // saturated: db = wb exactly
+          if (s.db - s.wb < 1e-6 && ((a === 'wb' && b === 'h') || (a === 'wb' && b === 'rh'))) return;
           const r = solveState({ [a]: s[a], [b]: s[b] }, p);
           if (!r.ok)
             throw new Error(`${a}+${b} at db ${db}, rh ${rh}, p ${p}: ${r.problem.code}: ${r.problem.message}`);

@@ -46,36 +46,40 @@ describe('block results: the subject of each problem', () => {
     }
   });
 
-  it('names the statement a problem lies in, none for a problem outside every statement, and the last of touching ones', () => {
-    const text = [
-      '```air',
-      'state A: db=20C wb=25C',
-      'state : db=20C rh=50%',
-      'state B: db=20C rh=150%',
-      'units: XY',
-      'state C: db=21C rh=40% h=99kJ/kg',
-      '```',
-      '',
-    ].join('\n');
-    const analysis = analyzeNote(text);
-    const data = blockResults(analysis, analysis.parsed.regions[0]!);
-    const subjects = data.problems.map((p) => `${p.code}:${p.subject ?? '-'}`);
-    // The unnamed state and the units line have no name: their problems have no subject.
-    expect(subjects).toEqual(expect.arrayContaining(['missing-name:-', 'unknown-unit-system:-', 'claim-mismatch:C']));
-    expect(subjects.find((s) => s.endsWith(':A'))).toBeDefined();
-    expect(subjects.find((s) => s.endsWith(':B'))).toBeDefined();
-    // Same subjects as reading every statement for every problem (the definition).
-    const statements = analysis.parsed.statements;
-    const expected = analysis.diagnostics
-      .filter((d) => d.severity !== 'info')
-      .map((d) => {
-        let subject: string | null = null;
-        for (const s of statements) {
-          if (s.span.start > d.span.start) break;
-          if (d.span.start <= s.span.end) subject = 'name' in s && s.name ? s.name.text : null;
-        }
-        return `${d.code}:${subject ?? '-'}`;
-      });
-    expect(subjects).toEqual(expected);
-  });
+  it(
+    'names the statement a problem lies in, none for a problem ' +
+      'outside every statement, and the last of touching ones',
+    () => {
+      const text = [
+        '```air',
+        'state A: db=20C wb=25C',
+        'state : db=20C rh=50%',
+        'state B: db=20C rh=150%',
+        'units: XY',
+        'state C: db=21C rh=40% h=99kJ/kg',
+        '```',
+        '',
+      ].join('\n');
+      const analysis = analyzeNote(text);
+      const data = blockResults(analysis, analysis.parsed.regions[0]!);
+      const subjects = data.problems.map((p) => `${p.code}:${p.subject ?? '-'}`);
+      // The unnamed state and the units line have no name: their problems have no subject.
+      expect(subjects).toEqual(expect.arrayContaining(['missing-name:-', 'unknown-unit-system:-', 'claim-mismatch:C']));
+      expect(subjects.find((s) => s.endsWith(':A'))).toBeDefined();
+      expect(subjects.find((s) => s.endsWith(':B'))).toBeDefined();
+      // Same subjects as reading every statement for every problem (the definition).
+      const statements = analysis.parsed.statements;
+      const expected = analysis.diagnostics
+        .filter((d) => d.severity !== 'info')
+        .map((d) => {
+          let subject: string | null = null;
+          for (const s of statements) {
+            if (s.span.start > d.span.start) break;
+            if (d.span.start <= s.span.end) subject = 'name' in s && s.name ? s.name.text : null;
+          }
+          return `${d.code}:${subject ?? '-'}`;
+        });
+      expect(subjects).toEqual(expected);
+    },
+  );
 });

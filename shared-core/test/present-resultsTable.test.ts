@@ -62,19 +62,22 @@ describe('block results', () => {
     expect(blocks[1]!.data.processes.map((p) => p.name)).toEqual(['CC', 'DRY']);
   });
 
-  it('shows ASHRAE HoF 2017 SI Ch.1 Example 1 in SI (W 6.5 g/kg ±0.1, dp 7 °C ±0.5, rh 14 % ±1, h 56.7 kJ/kg ±0.1)', () => {
-    // Check values PL-SI-EX1 (as cited in the PsychroLib test suite); half a shown digit added for rounding.
-    const lines = resultsTableMarkdown(blocks[0]!.data);
-    expect(lines[0]).toMatch(/^\| state +\| db °C \| wb °C \| dp °C \| rh % \| w g\/kg \| h kJ\/kg \|$/);
-    const [, db, wb, dp, rh, w, h] = row(lines, 'OA');
-    expect(num(db)).toBe(40);
-    expect(num(wb)).toBe(20);
-    expect(Math.abs(num(dp) - 7)).toBeLessThanOrEqual(0.55);
-    expect(Math.abs(num(rh) - 14)).toBeLessThanOrEqual(1.05);
-    expect(Math.abs(num(w) - 6.5)).toBeLessThanOrEqual(0.105);
-    expect(Math.abs(num(h) - 56.7)).toBeLessThanOrEqual(0.105);
-    expect(lines.join('\n')).toContain('Results in SI at 101.325 kPa.');
-  });
+  it(
+    'shows ASHRAE HoF 2017 SI Ch.1 Example 1 in SI (W 6.5 g/kg ' + '±0.1, dp 7 °C ±0.5, rh 14 % ±1, h 56.7 kJ/kg ±0.1)',
+    () => {
+      // Check values PL-SI-EX1 (as cited in the PsychroLib test suite); half a shown digit added for rounding.
+      const lines = resultsTableMarkdown(blocks[0]!.data);
+      expect(lines[0]).toMatch(/^\| state +\| db °C \| wb °C \| dp °C \| rh % \| w g\/kg \| h kJ\/kg \|$/);
+      const [, db, wb, dp, rh, w, h] = row(lines, 'OA');
+      expect(num(db)).toBe(40);
+      expect(num(wb)).toBe(20);
+      expect(Math.abs(num(dp) - 7)).toBeLessThanOrEqual(0.55);
+      expect(Math.abs(num(rh) - 14)).toBeLessThanOrEqual(1.05);
+      expect(Math.abs(num(w) - 6.5)).toBeLessThanOrEqual(0.105);
+      expect(Math.abs(num(h) - 56.7)).toBeLessThanOrEqual(0.105);
+      expect(lines.join('\n')).toContain('Results in SI at 101.325 kPa.');
+    },
+  );
 
   it('shows the same state in I-P units when asked (ASHRAE HoF 2017 I-P Ch.1 Example 1 is 100 °F db, 65 °F wb)', () => {
     const ip = analyzeNote('```air\nunits: IP\nsite: p=14.696psia\nstate S: db=100F wb=65F\n```\n');
@@ -113,15 +116,19 @@ describe('block results', () => {
     expect(lines.join('\n')).toContain('per kg of dry air where a process has no flow');
   });
 
-  it('converts a per-kg enthalpy difference with the scale only (1 Btu/lb = 2.326 kJ/kg exactly, NIST SP 811), not the datum', () => {
-    const text = '```air\nstate A: db=30C rh=40%\nstate B: db=20C rh=40%\nprocess P: A -> B\n```\n';
-    const si = analyzeNote(text);
-    const ip = analyzeNote(text, { units: 'IP' });
-    const kj = num(row(resultsTableMarkdown(blockResults(si, si.parsed.regions[0]!)), 'P')[2]);
-    const btu = num(row(resultsTableMarkdown(blockResults(ip, ip.parsed.regions[0]!)), 'P')[2]);
-    expect(kj).toBeLessThan(0);
-    expect(Math.abs(btu - kj / 2.326)).toBeLessThanOrEqual(0.01);
-  });
+  it(
+    'converts a per-kg enthalpy difference with the scale only ' +
+      '(1 Btu/lb = 2.326 kJ/kg exactly, NIST SP 811), not the datum',
+    () => {
+      const text = '```air\nstate A: db=30C rh=40%\nstate B: db=20C rh=40%\nprocess P: A -> B\n```\n';
+      const si = analyzeNote(text);
+      const ip = analyzeNote(text, { units: 'IP' });
+      const kj = num(row(resultsTableMarkdown(blockResults(si, si.parsed.regions[0]!)), 'P')[2]);
+      const btu = num(row(resultsTableMarkdown(blockResults(ip, ip.parsed.regions[0]!)), 'P')[2]);
+      expect(kj).toBeLessThan(0);
+      expect(Math.abs(btu - kj / 2.326)).toBeLessThanOrEqual(0.01);
+    },
+  );
 
   it("lists the block's errors and failed claims, marks states that were not computed, and leaves infos out", () => {
     const bad = analyzeNote(
@@ -138,7 +145,8 @@ describe('block results', () => {
     expect(md).toMatch(/^- \*\*error\*\* wb-above-db .*wet-bulb/m);
     expect(md).toMatch(/^- \*\*warning\*\* claim-mismatch RA: .*w=/m);
     expect(resultsTableHtml(data)).toContain(
-      '<li class="dewmark-error"><span class="dewmark-severity">error</span> <span class="dewmark-code">wb-above-db</span>',
+      '<li class="dewmark-error"><span class="dewmark-severity">error</span> ' +
+        '<span class="dewmark-code">wb-above-db</span>',
     );
   });
 
@@ -188,29 +196,33 @@ describe('escaping', () => {
     expect(html).not.toMatch(/&(?!(amp|lt|gt|quot|#39);)/);
   });
 
-  it('writes Markdown that markdown-it reads as tables and text only: no HTML, code span, link or emphasis from the note', () => {
-    const md = resultsTableMarkdown(data).join('\n');
-    const tokens = new MarkdownIt().parse(md, {});
-    const kinds = new Set<string>();
-    const walk = (ts: { type: string; children: unknown }[]) => {
-      for (const t of ts) {
-        kinds.add(t.type);
-        if (Array.isArray(t.children)) walk(t.children as { type: string; children: unknown }[]);
-      }
-    };
-    walk(tokens as unknown as { type: string; children: unknown }[]);
-    for (const k of ['html_block', 'html_inline', 'code_inline', 'link_open', 'image', 'fence', 'code_block'])
-      expect(kinds.has(k), k).toBe(false);
-    expect(kinds.has('table_open')).toBe(true);
-    // Emphasis only where the builder puts it (the severity words and the basis line).
-    const rendered = new MarkdownIt().render(md);
-    expect(rendered.match(/<em>/g)?.length ?? 0).toBe(1);
-    expect(
-      [...rendered.matchAll(/<strong>([^<]*)<\/strong>/g)]
-        .map((m) => m[1])
-        .every((t) => t === 'error' || t === 'warning'),
-    ).toBe(true);
-  });
+  it(
+    'writes Markdown that markdown-it reads as tables and text ' +
+      'only: no HTML, code span, link or emphasis from the note',
+    () => {
+      const md = resultsTableMarkdown(data).join('\n');
+      const tokens = new MarkdownIt().parse(md, {});
+      const kinds = new Set<string>();
+      const walk = (ts: { type: string; children: unknown }[]) => {
+        for (const t of ts) {
+          kinds.add(t.type);
+          if (Array.isArray(t.children)) walk(t.children as { type: string; children: unknown }[]);
+        }
+      };
+      walk(tokens as unknown as { type: string; children: unknown }[]);
+      for (const k of ['html_block', 'html_inline', 'code_inline', 'link_open', 'image', 'fence', 'code_block'])
+        expect(kinds.has(k), k).toBe(false);
+      expect(kinds.has('table_open')).toBe(true);
+      // Emphasis only where the builder puts it (the severity words and the basis line).
+      const rendered = new MarkdownIt().render(md);
+      expect(rendered.match(/<em>/g)?.length ?? 0).toBe(1);
+      expect(
+        [...rendered.matchAll(/<strong>([^<]*)<\/strong>/g)]
+          .map((m) => m[1])
+          .every((t) => t === 'error' || t === 'warning'),
+      ).toBe(true);
+    },
+  );
 
   it('escapes every character that starts Markdown or HTML markup', () => {
     expect(escapeMarkdown('a|b`c*d_e[f]g<h>i&j\\k#l\nm')).toBe('a\\|b\\`c\\*d\\_e\\[f\\]g\\<h\\>i\\&j\\\\k\\#l m');

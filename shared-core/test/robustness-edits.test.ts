@@ -259,7 +259,8 @@ function checkConversion(m: Note, stmt: Statement, i: number, what: string): voi
 
 describe('edits lose nothing', () => {
   it(
-    `quick fixes and the unit-system rewrite change only their statement, and a second application changes nothing (${RUNS} notes, seed ${cfg.seed})`,
+    `quick fixes and the unit-system rewrite change only their statement, and ` +
+      `a second application changes nothing (${RUNS} notes, seed ${cfg.seed})`,
     () => {
       const counts: Record<string, number> = {};
       fc.assert(

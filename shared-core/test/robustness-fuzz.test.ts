@@ -94,11 +94,15 @@ describe('fuzzing: random notes', () => {
       const total = now() - t0;
       const t = timeSummary(times);
       log(
-        `${times.length} notes in ${(total / 1000).toFixed(1)} s (${((times.length / total) * 1000).toFixed(0)} notes/s), ` +
-          `${(chars / 1e6).toFixed(1)} M characters, longest ${longest}; per note median ${t.median.toFixed(2)} ms, p99 ${t.p99.toFixed(1)} ms, max ${t.max.toFixed(1)} ms`,
+        `${times.length} notes in ${(total / 1000).toFixed(1)} s ` +
+          `(${((times.length / total) * 1000).toFixed(0)} notes/s), ` +
+          `${(chars / 1e6).toFixed(1)} M characters, longest ${longest}; per note ` +
+          `median ${t.median.toFixed(2)} ms, p99 ${t.p99.toFixed(1)} ms, max ${t.max.toFixed(1)} ms`,
       );
       log(
-        `looked at ${counts.diagnostics} diagnostics, ${counts.hovers} hovers, ${counts.hints} hints, ${counts.completions} completion items, ${counts.actions} code actions, ${counts.renames} renames`,
+        `looked at ${counts.diagnostics} diagnostics, ${counts.hovers} ` +
+          `hovers, ${counts.hints} hints, ${counts.completions} completion ` +
+          `items, ${counts.actions} code actions, ${counts.renames} renames`,
       );
       expect(times.length).toBe(cfg.notes);
       // The generator reaches every feature (otherwise the checks above check little).
@@ -106,11 +110,13 @@ describe('fuzzing: random notes', () => {
       for (const { ms, input } of slowest.entries) {
         const best = bestOfThree(() => checkNote(...input));
         log(
-          `slow note: ${input[0].length} characters, ${ms.toFixed(1)} ms in the loop, best of three re-runs ${best.toFixed(1)} ms`,
+          `slow note: ${input[0].length} characters, ${ms.toFixed(1)} ` +
+            `ms in the loop, best of three re-runs ${best.toFixed(1)} ms`,
         );
         expect(
           best,
-          `a note of ${input[0].length} characters took ${best.toFixed(0)} ms at best: ${JSON.stringify(input[0].slice(0, 200))}`,
+          `a note of ${input[0].length} characters took ${best.toFixed(0)} ` +
+            `ms at best: ${JSON.stringify(input[0].slice(0, 200))}`,
         ).toBeLessThan(HANG_MS);
       }
     },
@@ -188,7 +194,8 @@ describe('fuzzing: random edit sequences', () => {
       );
       const total = now() - t0;
       log(
-        `${cfg.editSequences} sequences, ${analyses} edits checked in ${(total / 1000).toFixed(1)} s (${((analyses / total) * 1000).toFixed(0)} edits/s)`,
+        `${cfg.editSequences} sequences, ${analyses} edits checked ` +
+          `in ${(total / 1000).toFixed(1)} s (${((analyses / total) * 1000).toFixed(0)} edits/s)`,
       );
       expect(analyses).toBeGreaterThanOrEqual(cfg.editSequences);
     },

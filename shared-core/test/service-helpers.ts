@@ -49,7 +49,10 @@ export function tableValue(markdown: string, key: string, secondary = false): nu
   return Number(m[0]);
 }
 
-/** Reads `key <number> <unit>` from a hint label such as `rh 14.0 % · w 6.53 g/kg` (spaces or no-break spaces; minus sign U+2212). */
+/**
+ * Reads `key <number> <unit>` from a hint label such as `rh 14.0 % · w 6.53 g/kg` (spaces or
+ * no-break spaces; minus sign U+2212).
+ */
 export function hintFigure(label: string, key: string, unit: string): number | null {
   const esc = (s: string) => s.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&');
   const m = new RegExp(`(?:^|· )${esc(key)}[ \u00a0]([-−]?\\d+(?:\\.\\d+)?)[ \u00a0]${esc(unit)}`).exec(label);

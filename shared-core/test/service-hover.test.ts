@@ -176,7 +176,8 @@ describe('hover on references, mixes and processes', () => {
     expect(mix).toContain('**mix M** — adiabatic mixing');
     expect(mix).toContain('| A | 50.0 % |');
     // Water balance of adiabatic mixing (ASHRAE HoF 2017 SI Ch.1, mixing of two moist-air streams):
-    // W_mix = (m_A W_A + m_B W_B) / (m_A + m_B); with equal dry-air masses, the mean (± rounding of three shown figures).
+    // W_mix = (m_A W_A + m_B W_B) / (m_A + m_B); with equal
+    // dry-air masses, the mean (± rounding of three shown figures).
     expect(near(tableValue(mix, 'w'), (wA + wB) / 2, 0.015)).toBe(true);
   });
 

@@ -82,15 +82,18 @@ describe('inserting results tables', () => {
     expect(rest).toBe(NOTE);
   });
 
-  it('adds no statement, error or warning to the note, and names from the first block resolve in the second table', () => {
-    const before = analyzeNote(NOTE);
-    const a = analyzeNote(after);
-    expect(a.parsed.statements.length).toBe(before.parsed.statements.length);
-    expect(a.diagnostics.map((d) => d.code)).toEqual(before.diagnostics.map((d) => d.code));
-    expect(after).toMatch(/\| MA \(mix: OA 30.0 % \+ RA 70.0 %\) +\| +−?\d/);
-    // PH's w=4.5g/kg is MA's 4.45 g/kg rounded: a preheat coil, no moisture change (docs/notation.md).
-    expect(after).toMatch(/\| HC: MA → PH \| sensible heating/);
-  });
+  it(
+    'adds no statement, error or warning to the note, and ' + 'names from the first block resolve in the second table',
+    () => {
+      const before = analyzeNote(NOTE);
+      const a = analyzeNote(after);
+      expect(a.parsed.statements.length).toBe(before.parsed.statements.length);
+      expect(a.diagnostics.map((d) => d.code)).toEqual(before.diagnostics.map((d) => d.code));
+      expect(after).toMatch(/\| MA \(mix: OA 30.0 % \+ RA 70.0 %\) +\| +−?\d/);
+      // PH's w=4.5g/kg is MA's 4.45 g/kg rounded: a preheat coil, no moisture change (docs/notation.md).
+      expect(after).toMatch(/\| HC: MA → PH \| sensible heating/);
+    },
+  );
 
   it('writes Markdown that renders as tables, with the markers as HTML comments', () => {
     const tokens = new MarkdownIt('commonmark').enable('table').parse(after, {});
@@ -187,21 +190,25 @@ describe('stale tables', () => {
     expect(staleCodes(`An introduction.\n\nWith two paragraphs.\n\n${dup}`)).toEqual([]);
   });
 
-  it('offers "Refresh the results table" on the warning; it replaces only the marked text, and then the note is clean', () => {
-    const note = noteOf(changedInput);
-    const d = noteDiagnostics(note).find((x) => x.code === STALE_RESULTS_TABLE)!;
-    const fix = codeActions(note, d.span).find((a) => a.title === 'Refresh the results table below this air block');
-    expect(fix?.kind).toBe('quickfix');
-    expect(fix?.diagnostic).toBe(d);
-    const e = fix!.edits[0]!;
-    expect(changedInput.slice(e.span.start, e.span.end).startsWith('<!-- dewmark-results')).toBe(true);
-    expect(changedInput.slice(e.span.start, e.span.end).endsWith(RESULTS_END_MARKER)).toBe(true);
-    const fixed = applyEdits(changedInput, fix!.edits);
-    expect(fixed.slice(0, e.span.start)).toBe(changedInput.slice(0, e.span.start));
-    expect(fixed.slice(fixed.length - (changedInput.length - e.span.end))).toBe(changedInput.slice(e.span.end));
-    expect(staleCodes(fixed)).toEqual(['results-changed']); // the other table is still stale
-    expect(staleCodes(writeAll(fixed).after)).toEqual([]);
-  });
+  it(
+    'offers "Refresh the results table" on the warning; it ' +
+      'replaces only the marked text, and then the note is clean',
+    () => {
+      const note = noteOf(changedInput);
+      const d = noteDiagnostics(note).find((x) => x.code === STALE_RESULTS_TABLE)!;
+      const fix = codeActions(note, d.span).find((a) => a.title === 'Refresh the results table below this air block');
+      expect(fix?.kind).toBe('quickfix');
+      expect(fix?.diagnostic).toBe(d);
+      const e = fix!.edits[0]!;
+      expect(changedInput.slice(e.span.start, e.span.end).startsWith('<!-- dewmark-results')).toBe(true);
+      expect(changedInput.slice(e.span.start, e.span.end).endsWith(RESULTS_END_MARKER)).toBe(true);
+      const fixed = applyEdits(changedInput, fix!.edits);
+      expect(fixed.slice(0, e.span.start)).toBe(changedInput.slice(0, e.span.start));
+      expect(fixed.slice(fixed.length - (changedInput.length - e.span.end))).toBe(changedInput.slice(e.span.end));
+      expect(staleCodes(fixed)).toEqual(['results-changed']); // the other table is still stale
+      expect(staleCodes(writeAll(fixed).after)).toEqual([]);
+    },
+  );
 
   it('tells a table edited by hand from one whose block changed', () => {
     const edited = after.replace(/\| OA( +)\|/, '| OA*$1|');
@@ -242,7 +249,9 @@ describe('stale tables', () => {
   });
 
   it('ignores markers that do not follow an air block (an example in another fence, prose between)', () => {
-    const example = `Example:\n\n\`\`\`\`markdown\n\`\`\`air\nstate A: db=20C rh=50%\n\`\`\`\n\n<!-- dewmark-results 00000000: x -->\n${RESULTS_END_MARKER}\n\`\`\`\`\n`;
+    const example =
+      `Example:\n\n\`\`\`\`markdown\n\`\`\`air\nstate A: db=20C rh=50%\n\`\`\`\n\n<!-- ` +
+      `dewmark-results 00000000: x -->\n${RESULTS_END_MARKER}\n\`\`\`\`\n`;
     expect(staleCodes(example)).toEqual([]);
     const apart = after.replace(
       '```\n\n<!-- dewmark-results',

@@ -9,7 +9,8 @@ describe('settings', () => {
   it('uses the defaults for null, undefined or an empty object', () => {
     for (const raw of [null, undefined, {}])
       expect(readSettings(raw)).toEqual({ settings: DEFAULT_SERVICE_SETTINGS, problems: [] });
-    expect(toEvaluateSettings(DEFAULT_SERVICE_SETTINGS).pressurePa).toBe(101325); // ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0
+    // ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0
+    expect(toEvaluateSettings(DEFAULT_SERVICE_SETTINGS).pressurePa).toBe(101325);
   });
 
   it('reads every setting, nested or with dotted keys', () => {

@@ -341,20 +341,27 @@ describe('enthalpy datums: Btu/lb has dry air 0 at 0 °F, kJ/kg at 0 °C', () =>
   const btu = unit('Btu/lb');
   const kj = unit('kJ/kg');
 
-  it('dry air at 0 °F is 0 Btu/lb, i.e. −1.006 × 160/9 = −17.884 kJ/kg on the 0 °C datum (ASHRAE HoF Ch.1 datums)', () => {
-    const t0F = toSI(0, F);
-    expect(Math.abs(toSI(0, btu) - 1006 * t0F)).toBeLessThan(1e-9);
-    expect(Math.abs(fromSI(toSI(0, btu), kj) - -17.884)).toBeLessThan(0.0005);
-  });
+  it(
+    'dry air at 0 °F is 0 Btu/lb, i.e. −1.006 × 160/9 = −17.884 kJ/kg ' + 'on the 0 °C datum (ASHRAE HoF Ch.1 datums)',
+    () => {
+      const t0F = toSI(0, F);
+      expect(Math.abs(toSI(0, btu) - 1006 * t0F)).toBeLessThan(1e-9);
+      expect(Math.abs(fromSI(toSI(0, btu), kj) - -17.884)).toBeLessThan(0.0005);
+    },
+  );
 
-  it('dry air at 0 °C (0 kJ/kg) is about 7.68 Btu/lb = 0.240 × 32 (ASHRAE HoF 2017 Ch.1 I-P eq. via PsychroLib)', () => {
-    psy.SetUnitSystem(psy.IP);
-    expect(Math.abs(fromSI(0, btu) - psy.GetDryAirEnthalpy(32))).toBeLessThan(0.02);
-  });
+  it(
+    'dry air at 0 °C (0 kJ/kg) is about 7.68 Btu/lb = 0.240 × 32 ' + '(ASHRAE HoF 2017 Ch.1 I-P eq. via PsychroLib)',
+    () => {
+      psy.SetUnitSystem(psy.IP);
+      expect(Math.abs(fromSI(0, btu) - psy.GetDryAirEnthalpy(32))).toBeLessThan(0.02);
+    },
+  );
 
   const dryAir: [number][] = [[-40], [-10], [0], [20], [35], [50], [60]];
   it.each(dryAir)(
-    'dry air at %d °C: converted SI enthalpy matches the I-P equation within 0.05 Btu/lb (ASHRAE HoF 2017 Ch.1 via PsychroLib)',
+    'dry air at %d °C: converted SI enthalpy matches the I-P equation ' +
+      'within 0.05 Btu/lb (ASHRAE HoF 2017 Ch.1 via PsychroLib)',
     (tC) => {
       psy.SetUnitSystem(psy.SI);
       const hSI = psy.GetDryAirEnthalpy(tC);
@@ -364,28 +371,36 @@ describe('enthalpy datums: Btu/lb has dry air 0 at 0 °F, kJ/kg at 0 °C', () =>
     },
   );
 
-  it('24 °C / 50 % at sea level: about 47.81 kJ/kg and 28.2 Btu/lb, not 20.6 (ASHRAE HoF 2017 Ch.1 via PsychroLib; common practice)', () => {
-    psy.SetUnitSystem(psy.SI);
-    const hSI = psy.GetMoistAirEnthalpy(24, psy.GetHumRatioFromRelHum(24, 0.5, 101325));
-    psy.SetUnitSystem(psy.IP);
-    const tF = fromSI(24, F);
-    const hIP = psy.GetMoistAirEnthalpy(tF, psy.GetHumRatioFromRelHum(tF, 0.5, fromSI(101325, unit('psia'))));
+  it(
+    '24 °C / 50 % at sea level: about 47.81 kJ/kg and 28.2 Btu/lb, ' +
+      'not 20.6 (ASHRAE HoF 2017 Ch.1 via PsychroLib; common practice)',
+    () => {
+      psy.SetUnitSystem(psy.SI);
+      const hSI = psy.GetMoistAirEnthalpy(24, psy.GetHumRatioFromRelHum(24, 0.5, 101325));
+      psy.SetUnitSystem(psy.IP);
+      const tF = fromSI(24, F);
+      const hIP = psy.GetMoistAirEnthalpy(tF, psy.GetHumRatioFromRelHum(tF, 0.5, fromSI(101325, unit('psia'))));
 
-    expect(Math.abs(fromSI(hSI, kj) - 47.81)).toBeLessThan(0.01);
-    const converted = fromSI(hSI, btu);
-    expect(Math.abs(converted - 28.2)).toBeLessThan(0.1);
-    expect(Math.abs(converted - hIP)).toBeLessThan(0.05);
-    // The naive unit-only conversion is ~7.7 Btu/lb off: the datum matters.
-    expect(Math.abs(hSI / 2326 - 20.6)).toBeLessThan(0.1);
-    expect(converted - hSI / 2326).toBeGreaterThan(7.6);
-    expect(formatQuantity(hSI, 'enthalpy', 'IP').text).toMatch(/^28\.2\d Btu\/lb$/);
-    expect(formatQuantity(hSI, 'enthalpy', 'SI').text).toBe('47.81 kJ/kg');
-  });
+      expect(Math.abs(fromSI(hSI, kj) - 47.81)).toBeLessThan(0.01);
+      const converted = fromSI(hSI, btu);
+      expect(Math.abs(converted - 28.2)).toBeLessThan(0.1);
+      expect(Math.abs(converted - hIP)).toBeLessThan(0.05);
+      // The naive unit-only conversion is ~7.7 Btu/lb off: the datum matters.
+      expect(Math.abs(hSI / 2326 - 20.6)).toBeLessThan(0.1);
+      expect(converted - hSI / 2326).toBeGreaterThan(7.6);
+      expect(formatQuantity(hSI, 'enthalpy', 'IP').text).toMatch(/^28\.2\d Btu\/lb$/);
+      expect(formatQuantity(hSI, 'enthalpy', 'SI').text).toBe('47.81 kJ/kg');
+    },
+  );
 
-  it('an enthalpy difference converts without the datum: 23.26 kJ/kg is 10 Btu/lb (NIST SP 811 B.8: 2.326 kJ/kg per Btu/lb)', () => {
-    expect(Math.abs(deltaFromSI(23260, btu) - 10)).toBeLessThan(1e-12);
-    expect(Math.abs(fromSI(23260, btu) - fromSI(0, btu) - 10)).toBeLessThan(1e-12);
-  });
+  it(
+    'an enthalpy difference converts without the datum: 23.26 kJ/kg ' +
+      'is 10 Btu/lb (NIST SP 811 B.8: 2.326 kJ/kg per Btu/lb)',
+    () => {
+      expect(Math.abs(deltaFromSI(23260, btu) - 10)).toBeLessThan(1e-12);
+      expect(Math.abs(fromSI(23260, btu) - fromSI(0, btu) - 10)).toBeLessThan(1e-12);
+    },
+  );
 });
 
 describe('lookup is case-sensitive and exact', () => {
@@ -600,7 +615,8 @@ describe('formatQuantity: engineering precision, no -0, no NaN', () => {
     expect(formatQuantity(24, 'temperature', 'SI', { digits: 3 }).text).toBe('24.000 °C');
     expect(formatQuantity(24, 'temperature', 'SI', { unit: unit('K') }).text).toBe('297.2 K'); // NIST SP 811 4.2.1.1
     expect(formatQuantity(0.0107, 'massFlow', 'SI', { unit: unit('kg/h') }).text).toBe('38.5 kg/h'); // 0.0107 × 3600
-    expect(formatQuantity(98070, 'power', 'IP', { unit: unit('ton') }).text).toBe('27.9 ton'); // 98.07 kW / 3.516853 kW = 27.89 (NIST SP 811 B.8)
+    // 98.07 kW / 3.516853 kW = 27.89 (NIST SP 811 B.8)
+    expect(formatQuantity(98070, 'power', 'IP', { unit: unit('ton') }).text).toBe('27.9 ton');
   });
 
   it('a unit of another dimension is a programming error (RangeError), not a silent mis-format', () => {

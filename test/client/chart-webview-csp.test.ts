@@ -4,8 +4,8 @@
  * command links and no local resources; the HTML it sets has a Content Security Policy with
  * `default-src 'none'` and only a nonce for style and script; every `<script>` and `<style>`
  * carries that nonce; nothing refers to a remote or local resource (no `src=`, `href=`, no `url(`
- * except to a fragment of the page, no `@import`); each panel gets its own random nonce; the updates it posts as the note changes obey
- * the same rules, even for a note that tries to inject markup through its names and prose.
+ * except to a fragment of the page, no `@import`); each panel gets its own random nonce; the updates it posts as the
+ * note changes obey the same rules, even for a note that tries to inject markup through its names and prose.
  */
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 
@@ -216,41 +216,45 @@ describe('the chart webview the client sets up', () => {
     expect(Buffer.from(n1!, 'base64').length).toBe(18);
   });
 
-  it('a note that tries to inject markup through names, prose and title gets it escaped, in the page and in updates', async () => {
-    vi.useFakeTimers();
-    try {
-      const evil = [
-        '# <img src=x onerror=alert(1)>',
-        '```air',
-        'state A: db=24C rh=50%',
-        'state B"><script>alert(1)</script>: db=30C rh=20%',
-        'state D: db=20C wb=25C<script>alert(1)</script>',
-        'state E: db=24C rh=50% p=84<b>kPa h=1"onload="x',
-        'state F: db=20C wb=25C',
-        '```',
-        '`state C</style><link href="https://example.com/x.css">: db=20C rh=40%`',
-        '',
-      ].join('\n');
-      const doc = fakeDoc('/notes/<script>evil</script>.md', evil);
-      new ChartPanels(log as never).show(doc as never, 0);
-      const panel = created[0]!;
-      const nonce = checkPage(panel.webview.html);
-      // An edit: the client redraws after a pause and posts the new chart.
-      doc.version++;
-      for (const f of changeListeners) f({ document: doc });
-      await vi.advanceTimersByTimeAsync(1000);
-      expect(panel.webview.posted.length).toBe(1);
-      const msg = panel.webview.posted[0] as { type: string; svg: string };
-      expect(msg.type).toBe('dewmark.chart');
-      checkMarkup(msg.svg, nonce);
-      expect(msg.svg).not.toMatch(/<script|<img|<link|<b>/i);
-      expect(panel.webview.html).not.toMatch(/<script>|<img|<link|<b>/i);
-      // The infeasible state F is drawn with its problem, so diagnostics text does reach the chart.
-      expect(msg.svg).toMatch(/wet-bulb/i);
-    } finally {
-      vi.useRealTimers();
-    }
-  });
+  it(
+    'a note that tries to inject markup through names, prose ' +
+      'and title gets it escaped, in the page and in updates',
+    async () => {
+      vi.useFakeTimers();
+      try {
+        const evil = [
+          '# <img src=x onerror=alert(1)>',
+          '```air',
+          'state A: db=24C rh=50%',
+          'state B"><script>alert(1)</script>: db=30C rh=20%',
+          'state D: db=20C wb=25C<script>alert(1)</script>',
+          'state E: db=24C rh=50% p=84<b>kPa h=1"onload="x',
+          'state F: db=20C wb=25C',
+          '```',
+          '`state C</style><link href="https://example.com/x.css">: db=20C rh=40%`',
+          '',
+        ].join('\n');
+        const doc = fakeDoc('/notes/<script>evil</script>.md', evil);
+        new ChartPanels(log as never).show(doc as never, 0);
+        const panel = created[0]!;
+        const nonce = checkPage(panel.webview.html);
+        // An edit: the client redraws after a pause and posts the new chart.
+        doc.version++;
+        for (const f of changeListeners) f({ document: doc });
+        await vi.advanceTimersByTimeAsync(1000);
+        expect(panel.webview.posted.length).toBe(1);
+        const msg = panel.webview.posted[0] as { type: string; svg: string };
+        expect(msg.type).toBe('dewmark.chart');
+        checkMarkup(msg.svg, nonce);
+        expect(msg.svg).not.toMatch(/<script|<img|<link|<b>/i);
+        expect(panel.webview.html).not.toMatch(/<script>|<img|<link|<b>/i);
+        // The infeasible state F is drawn with its problem, so diagnostics text does reach the chart.
+        expect(msg.svg).toMatch(/wet-bulb/i);
+      } finally {
+        vi.useRealTimers();
+      }
+    },
+  );
 
   const SEASONS = [
     '# Kestrel Ridge AHU-1',

@@ -169,23 +169,30 @@ describe('extension manifest', () => {
     expect(ignore.filter((l) => l.startsWith('!') && l.includes('node_modules'))).toEqual([]);
   });
 
-  it('validates dewmark.json with a schema whose keys and values are the ones the project file and the server accept', () => {
-    expect(manifest.contributes.jsonValidation).toEqual([
-      { fileMatch: 'dewmark.json', url: './schema/dewmark.schema.json' },
-    ]);
-    expect(manifest.files).toContain('schema/');
-    const schema = JSON.parse(readFileSync(join(root, 'schema', 'dewmark.schema.json'), 'utf8')) as Record<string, any>;
-    expect(schema.additionalProperties).toBe(false);
-    expect(Object.keys(schema.properties).sort()).toEqual([...PROJECT_KEYS].sort());
-    expect(schema.properties.units.enum).toEqual(properties['dewmark.units']!.enum);
-    expect(schema.properties.inlayHints.properties.properties.items.enum).toEqual([...HINT_KEYS]);
-    expect(schema.properties.precision.maximum).toBe(properties['dewmark.precision']!.maximum);
-    expect(schema.properties.rules.additionalProperties.enum).toEqual([...RULE_VALUES]);
-    // Every editor-setting key of the project file is a contributed setting.
-    for (const key of SETTING_KEYS)
-      expect(
-        Object.keys(properties).some((k) => k === `dewmark.${key}` || k.startsWith(`dewmark.${key}.`)),
-        key,
-      ).toBe(true);
-  });
+  it(
+    'validates dewmark.json with a schema whose keys and ' +
+      'values are the ones the project file and the server accept',
+    () => {
+      expect(manifest.contributes.jsonValidation).toEqual([
+        { fileMatch: 'dewmark.json', url: './schema/dewmark.schema.json' },
+      ]);
+      expect(manifest.files).toContain('schema/');
+      const schema = JSON.parse(readFileSync(join(root, 'schema', 'dewmark.schema.json'), 'utf8')) as Record<
+        string,
+        any
+      >;
+      expect(schema.additionalProperties).toBe(false);
+      expect(Object.keys(schema.properties).sort()).toEqual([...PROJECT_KEYS].sort());
+      expect(schema.properties.units.enum).toEqual(properties['dewmark.units']!.enum);
+      expect(schema.properties.inlayHints.properties.properties.items.enum).toEqual([...HINT_KEYS]);
+      expect(schema.properties.precision.maximum).toBe(properties['dewmark.precision']!.maximum);
+      expect(schema.properties.rules.additionalProperties.enum).toEqual([...RULE_VALUES]);
+      // Every editor-setting key of the project file is a contributed setting.
+      for (const key of SETTING_KEYS)
+        expect(
+          Object.keys(properties).some((k) => k === `dewmark.${key}` || k.startsWith(`dewmark.${key}.`)),
+          key,
+        ).toBe(true);
+    },
+  );
 });

@@ -74,7 +74,8 @@ for (const [label, MarkdownIt] of versions) {
       const html = md().render(NOTE);
       const blocks = resultBlocks(html);
       expect(blocks).toHaveLength(2);
-      // ASHRAE HoF 2017 SI Ch.1 Example 1 (check values PL-SI-EX1): 40 °C db, 20 °C wb → W 6.5 g/kg ±0.1, h 56.7 kJ/kg ±0.1.
+      // ASHRAE HoF 2017 SI Ch.1 Example 1 (check values PL-SI-EX1):
+      // 40 °C db, 20 °C wb → W 6.5 g/kg ±0.1, h 56.7 kJ/kg ±0.1.
       const oa = /OA 40\.0 20\.0 (-?\d+\.\d) (\d+\.\d) (\d+\.\d+) (\d+\.\d+)/.exec(blocks[0]!);
       expect(oa, blocks[0]).not.toBeNull();
       expect(Math.abs(Number(oa![3]) - 6.5)).toBeLessThanOrEqual(0.105);
@@ -96,7 +97,8 @@ for (const [label, MarkdownIt] of versions) {
 
     it('escapes everything from the note; html: true in the host changes nothing', () => {
       const hostile =
-        '```air\nstate A: db=24C rh=50% <img src=x onerror=alert(1)>\nstate B: db=24C<script>alert(2)</script> rh=50%\n```\n';
+        '```air\nstate A: db=24C rh=50% <img src=x onerror=alert(1)>\nstate ' +
+        'B: db=24C<script>alert(2)</script> rh=50%\n```\n';
       for (const opts of [{}, { html: true }]) {
         const html = dewmarkPreviewPlugin(new MarkdownIt('default', opts)).render(hostile);
         const ours = html.slice(html.indexOf('<div class="dewmark-results"'));

@@ -44,7 +44,8 @@ async function chartParts(page: unknown): Promise<{ markers: string[]; processes
       .evaluate(
         `(() => { const m = document.getElementById('dewmark-chart'); if (!m || !m.querySelector('svg')) return null;
           return { markers: [...m.querySelectorAll('circle.dmc-marker')].map((c) => c.getAttribute('data-name')),
-            processes: [...m.querySelectorAll('g.dmc-process-group')].map((g) => g.getAttribute('data-process') + ':' + g.getAttribute('data-from') + '>' + g.getAttribute('data-to')) }; })()`,
+            processes: [...m.querySelectorAll('g.dmc-process-group')].map((g) => \
+g.getAttribute('data-process') + ':' + g.getAttribute('data-from') + '>' + g.getAttribute('data-to')) }; })()`,
       )
       .catch(() => null)) as { markers: string[]; processes: string[] } | null;
     if (v) return v;

@@ -1,7 +1,7 @@
 /**
  * A real independent client: headless Neovim (0.7.2 from Debian) starts the server with the
- * README's Neovim 0.7 configuration (read from the README, `<!-- editor-config: neovim-0.7 -->`), opens a note, and the test
- * checks hover, diagnostics after an edit, symbols, completion and an inlay-hint request, and the
+ * README's Neovim 0.7 configuration (read from the README, `<!-- editor-config: neovim-0.7 -->`), opens a note, and the
+ * test checks hover, diagnostics after an edit, symbols, completion and an inlay-hint request, and the
  * results table written by a source action and refreshed by its quick fix. Without
  * `nvim` the test is skipped with a message; under CI=true it fails.
  */
@@ -65,44 +65,48 @@ describe('Neovim as the LSP client', () => {
     expect(run.report.serverExit?.code ?? 0).toBe(0);
   });
 
-  it('writes a results table with the source action, reports it stale after an edit, and refreshes it with the quick fix', async (ctx) => {
-    const nvim = requireTool('nvim', ctx);
-    const fixed = NOTE.replace('db=24 rh', 'db=24C rh');
-    const inBlock = { start: positionOf(fixed, 'state OA', 0), end: positionOf(fixed, 'state OA', 0) };
-    // The start marker's line once the table is in: two lines below the closing fence (line 6).
-    const marker = { start: { line: 8, character: 0 }, end: { line: 8, character: 0 } };
-    const run = await runNeovim({
-      nvim: nvim.path,
-      configFile: CONFIG,
-      env: { DEWMARK_LANGUAGE_SERVER: SERVER },
-      files: { 'tables.md': fixed },
-      steps: [
-        { op: 'open', name: 'tables.md' },
-        { op: 'waitDiagnostics' },
-        { op: 'codeAction', range: inBlock, only: ['source'], apply: 'Insert a results table below this air block' },
-        { op: 'edit', startLine: 4, endLine: 5, lines: ['state RA: db=25C rh=50%'], minCount: 1 },
-        {
-          op: 'codeAction',
-          range: marker,
-          only: ['quickfix'],
-          apply: 'Refresh the results table below this air block',
-        },
-        { op: 'shutdown' },
-      ],
-    });
-    const actions = run.report.steps.filter((x): x is StepResult<'codeAction'> => x.op === 'codeAction');
-    const inserted = actions[0]!;
-    expect(inserted.text).toMatch(
-      /```\n\n<!-- dewmark-results [0-9a-f]{8}: generated from the air block above[^\n]*-->\n\n\| state +\| db °C/,
-    );
-    expect(inserted.text).toContain('<!-- dewmark-results end -->');
-    expect(inserted.text!.startsWith(fixed.trimEnd())).toBe(true);
-    const edited = run.step('edit');
-    expect(edited.diagnostics?.diagnostics.map((d) => d.code)).toEqual(['stale-results-table']);
-    expect(edited.diagnostics?.diagnostics[0]!.range.start).toEqual(marker.start);
-    const refreshed = actions[1]!;
-    expect(refreshed.text).toMatch(/\| RA +\| +25\.0 \|/);
-    expect(refreshed.diagnostics?.diagnostics).toEqual([]);
-    expect(run.report.serverExit?.code ?? 0).toBe(0);
-  });
+  it(
+    'writes a results table with the source action, reports it ' +
+      'stale after an edit, and refreshes it with the quick fix',
+    async (ctx) => {
+      const nvim = requireTool('nvim', ctx);
+      const fixed = NOTE.replace('db=24 rh', 'db=24C rh');
+      const inBlock = { start: positionOf(fixed, 'state OA', 0), end: positionOf(fixed, 'state OA', 0) };
+      // The start marker's line once the table is in: two lines below the closing fence (line 6).
+      const marker = { start: { line: 8, character: 0 }, end: { line: 8, character: 0 } };
+      const run = await runNeovim({
+        nvim: nvim.path,
+        configFile: CONFIG,
+        env: { DEWMARK_LANGUAGE_SERVER: SERVER },
+        files: { 'tables.md': fixed },
+        steps: [
+          { op: 'open', name: 'tables.md' },
+          { op: 'waitDiagnostics' },
+          { op: 'codeAction', range: inBlock, only: ['source'], apply: 'Insert a results table below this air block' },
+          { op: 'edit', startLine: 4, endLine: 5, lines: ['state RA: db=25C rh=50%'], minCount: 1 },
+          {
+            op: 'codeAction',
+            range: marker,
+            only: ['quickfix'],
+            apply: 'Refresh the results table below this air block',
+          },
+          { op: 'shutdown' },
+        ],
+      });
+      const actions = run.report.steps.filter((x): x is StepResult<'codeAction'> => x.op === 'codeAction');
+      const inserted = actions[0]!;
+      expect(inserted.text).toMatch(
+        /```\n\n<!-- dewmark-results [0-9a-f]{8}: generated from the air block above[^\n]*-->\n\n\| state +\| db °C/,
+      );
+      expect(inserted.text).toContain('<!-- dewmark-results end -->');
+      expect(inserted.text!.startsWith(fixed.trimEnd())).toBe(true);
+      const edited = run.step('edit');
+      expect(edited.diagnostics?.diagnostics.map((d) => d.code)).toEqual(['stale-results-table']);
+      expect(edited.diagnostics?.diagnostics[0]!.range.start).toEqual(marker.start);
+      const refreshed = actions[1]!;
+      expect(refreshed.text).toMatch(/\| RA +\| +25\.0 \|/);
+      expect(refreshed.diagnostics?.diagnostics).toEqual([]);
+      expect(run.report.serverExit?.code ?? 0).toBe(0);
+    },
+  );
 });

@@ -33,18 +33,25 @@ function contentWidthPx(page: PageSize): number {
 /** A note made to be too wide: many columns, long words, a long URL, a long statement line. */
 const WIDE = `# Thornbury Depot — plant room schedule with a deliberately wide table
 
-| Unit | Location | Outdoor air | Return air | Supply air | Coil | Heater | Humidifier | Fan | Filter | Damper | Remarks |
+| Unit | Location | Outdoor air | Return air | Supply air | \
+Coil | Heater | Humidifier | Fan | Filter | Damper | Remarks |
 |---|---|---|---|---|---|---|---|---|---|---|---|
-| AHU-1 | Roof plant room north | 32 °C db / 22 °C wb | 24 °C / 50 % | 13 °C / 92 % | chilled water 6/12 °C | LTHW 70/50 °C | none | EC plenum fan | ePM1 60 % | modulating | Supercalifragilisticexpialidocious-long-unbroken-identifier-0123456789 |
+| AHU-1 | Roof plant room north | 32 °C db / 22 °C wb | 24 °C / 50 % | 13 °C / 92 \
+% | chilled water 6/12 °C | LTHW 70/50 °C | none | EC plenum fan | ePM1 60 % | \
+modulating | Supercalifragilisticexpialidocious-long-unbroken-identifier-0123456789 |
 
-See https://example.com/a/very/long/path/that/does/not/break/naturally/because/it/has/no/spaces/at/all/in/it.html and [the schedule](https://example.com/another/very/long/address/for/the/printed/url/after/the/link).
+See https://example.com/a/very/long/path/that/does/not/break/naturally/because/it/has/no/spaces/at/all/in/it.html \
+and [the schedule](https://example.com/another/very/long/address/for/the/printed/url/after/the/link).
 
 \`\`\`air
-state OUTDOOR_DESIGN_SUMMER_ROOF_INTAKE_NORTH: db=32C wb=22C    # outdoor design for the roof intake on the north side of the depot, taken from the project's climate basis
+state OUTDOOR_DESIGN_SUMMER_ROOF_INTAKE_NORTH: db=32C wb=22C    # outdoor design for \
+the roof intake on the north side of the depot, taken from the project's climate basis
 state RETURN_FROM_THE_MAINTENANCE_WORKSHOP_HALL: db=24C rh=50% w=9.3g/kg
-mix MIXED_AIR_AT_THE_COIL_FACE: OUTDOOR_DESIGN_SUMMER_ROOF_INTAKE_NORTH 30% + RETURN_FROM_THE_MAINTENANCE_WORKSHOP_HALL 70%
+mix MIXED_AIR_AT_THE_COIL_FACE: OUTDOOR_DESIGN_SUMMER_ROOF_INTAKE_NORTH \
+30% + RETURN_FROM_THE_MAINTENANCE_WORKSHOP_HALL 70%
 state OFF_COIL_LEAVING_THE_CHILLED_WATER_COIL: db=12C rh=95%
-process CHILLED_WATER_COIL_ONE: MIXED_AIR_AT_THE_COIL_FACE -> OFF_COIL_LEAVING_THE_CHILLED_WATER_COIL q=4.5m3/s q_total=80kW shr=0.70 water=30kg/h
+process CHILLED_WATER_COIL_ONE: MIXED_AIR_AT_THE_COIL_FACE -> \
+OFF_COIL_LEAVING_THE_CHILLED_WATER_COIL q=4.5m3/s q_total=80kW shr=0.70 water=30kg/h
 \`\`\`
 
 The workshop is held at \`state WORKSHOP_WINTER_CONDITION_FOR_THE_PAINT_BOOTH_AREA: db=20C rh=40%\` in winter.
@@ -69,14 +76,17 @@ interface Measure {
 /** Measured in the page: every table, figure, image, code block and cell against the content width. */
 const MEASURE = `(() => {
   const width = document.documentElement.clientWidth;
-  const name = (el) => el.tagName.toLowerCase() + (el.id ? '#' + el.id : '') + (el.className && typeof el.className === 'string' ? '.' + el.className.split(' ').join('.') : '') + ' ' + (el.textContent || '').trim().slice(0, 40);
+  const name = (el) => el.tagName.toLowerCase() + (el.id ? '#' + el.id : '') + (el.className && typeof el.className \
+=== 'string' ? '.' + el.className.split(' ').join('.') : '') + ' ' + (el.textContent || '').trim().slice(0, 40);
   const outside = [];
   const clipped = [];
-  const boxes = [...document.querySelectorAll('table, figure, img, pre, .dm-results, .caution, th, td, main svg:not(svg svg), p, li, h1, h2, h3')];
+  const boxes = [...document.querySelectorAll('table, figure, img, pre, \
+.dm-results, .caution, th, td, main svg:not(svg svg), p, li, h1, h2, h3')];
   for (const el of boxes) {
     const r = el.getBoundingClientRect();
     if (r.width === 0 && r.height === 0) continue;
-    const box = { what: name(el), left: r.left, right: r.right, scroll: el.scrollWidth || 0, client: el.clientWidth || 0 };
+    const box = { what: name(el), left: r.left, right: r.right,\
+ scroll: el.scrollWidth || 0, client: el.clientWidth || 0 };
     if (r.left < -0.5 || r.right > width + 0.5) outside.push(box);
     if (!(el instanceof SVGElement) && el.tagName !== 'IMG' && el.scrollWidth > el.clientWidth + 1) clipped.push(box);
   }

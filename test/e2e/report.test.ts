@@ -181,7 +181,8 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
         cells: [...tb.rows[0].cells].map((c) => c.textContent.trim()),
         about: tb.rows[1] ? tb.rows[1].textContent.trim() : '',
       }));
-      const t = (id) => [...document.querySelectorAll('#' + id + ' tbody tr')].map((tr) => ({ cells: [...tr.cells].map((c) => c.textContent.trim()), about: '' }));
+      const t = (id) => [...document.querySelectorAll('#' + id + ' tbody tr')].map((tr) \
+=> ({ cells: [...tr.cells].map((c) => c.textContent.trim()), about: '' }));
       return { states: items('states'), processes: items('processes'), diagnostics: t('diagnostics') };
     })()`);
     // The index lists states and mixes in the note's order.
@@ -225,8 +226,10 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
     const layout = chartLayout(data);
     const got = await page.evaluate<{ svg: Rect; vbw: number; markers: { name: string; rect: Rect }[] }>(`(() => {
       const svg = document.querySelector('#chart svg');
-      const r = (el) => { const b = el.getBoundingClientRect(); return { x: b.x, y: b.y, width: b.width, height: b.height }; };
-      return { svg: r(svg), vbw: svg.viewBox.baseVal.width, markers: [...svg.querySelectorAll('circle.dmc-marker')].map((c) => ({ name: c.dataset.name, rect: r(c) })) };
+      const r = (el) => { const b = el.getBoundingClientRect(); \
+return { x: b.x, y: b.y, width: b.width, height: b.height }; };
+      return { svg: r(svg), vbw: svg.viewBox.baseVal.width, markers: \
+[...svg.querySelectorAll('circle.dmc-marker')].map((c) => ({ name: c.dataset.name, rect: r(c) })) };
     })()`);
     const scale = got.svg.width / got.vbw;
     expect(got.markers.map((m) => m.name).sort()).toEqual(data.points.map((p) => p.name).sort());
@@ -250,13 +253,16 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
     await done();
   });
 
-  it('webview page: the chart shows under the strict CSP, follows --vscode-* colours, and updates live on a message', async () => {
-    const nonce = 'Zt4kQ9wLm2Xc7Vb1Np8Rs3';
-    const analysis = analyzeNote(NOTE, {});
-    const first = renderChart(analysis, { source: NOTE, styleNonce: nonce });
-    writeFileSync(join(dir, 'webview.html'), chartWebviewHtml({ svg: first, nonce, title: 'ahu-2.md' }));
-    const { page, requests, done } = await open(pathToFileURL(join(dir, 'webview.html')).href);
-    const before = await page.evaluate<{ markers: number; sat: string; injected: string }>(`(() => {
+  it(
+    'webview page: the chart shows under the strict CSP, ' +
+      'follows --vscode-* colours, and updates live on a message',
+    async () => {
+      const nonce = 'Zt4kQ9wLm2Xc7Vb1Np8Rs3';
+      const analysis = analyzeNote(NOTE, {});
+      const first = renderChart(analysis, { source: NOTE, styleNonce: nonce });
+      writeFileSync(join(dir, 'webview.html'), chartWebviewHtml({ svg: first, nonce, title: 'ahu-2.md' }));
+      const { page, requests, done } = await open(pathToFileURL(join(dir, 'webview.html')).href);
+      const before = await page.evaluate<{ markers: number; sat: string; injected: string }>(`(() => {
       // A style without the nonce is refused by the page's policy.
       const s = document.createElement('style');
       s.textContent = 'body { outline: 7px solid rgb(255, 0, 0); }';
@@ -267,52 +273,60 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
         injected: getComputedStyle(document.body).outlineStyle,
       };
     })()`);
-    expect(before.markers).toBe(6);
-    expect(before.sat).toBe('rgb(35, 64, 142)'); // the chart's own default (#23408e) without a VS Code theme
-    expect(before.injected).toBe('none');
-    // A VS Code theme sets --vscode-* on the document element; the chart follows it.
-    const themed = await page.evaluate<string>(`(() => {
+      expect(before.markers).toBe(6);
+      expect(before.sat).toBe('rgb(35, 64, 142)'); // the chart's own default (#23408e) without a VS Code theme
+      expect(before.injected).toBe('none');
+      // A VS Code theme sets --vscode-* on the document element; the chart follows it.
+      const themed = await page.evaluate<string>(`(() => {
       document.documentElement.style.setProperty('--vscode-charts-blue', 'rgb(0, 122, 204)');
       return getComputedStyle(document.querySelector('path.dmc-sat')).stroke;
     })()`);
-    expect(themed).toBe('rgb(0, 122, 204)');
-    // The note changes: the host posts the new chart and the page replaces it.
-    const changed = NOTE.replace('state SA: db=13C rh=92%', 'state SA: db=15C rh=85%');
-    const second = renderChart(analyzeNote(changed, {}), { source: changed, styleNonce: nonce });
-    await page.evaluate(`window.postMessage({ type: 'dewmark.chart', svg: ${JSON.stringify(second)} }, '*')`);
-    await page.waitForFunction(`document.getElementById('dewmark-chart').getAttribute('data-updates') === '1'`);
-    const after = await page.evaluate<{ db: string | null; svgs: number; sat: string }>(`({
+      expect(themed).toBe('rgb(0, 122, 204)');
+      // The note changes: the host posts the new chart and the page replaces it.
+      const changed = NOTE.replace('state SA: db=13C rh=92%', 'state SA: db=15C rh=85%');
+      const second = renderChart(analyzeNote(changed, {}), { source: changed, styleNonce: nonce });
+      await page.evaluate(`window.postMessage({ type: 'dewmark.chart', svg: ${JSON.stringify(second)} }, '*')`);
+      await page.waitForFunction(`document.getElementById('dewmark-chart').getAttribute('data-updates') === '1'`);
+      const after = await page.evaluate<{ db: string | null; svgs: number; sat: string }>(`({
       db: document.querySelector('circle.dmc-marker[data-name="SA"]').getAttribute('data-db'),
       svgs: document.querySelectorAll('#dewmark-chart svg').length,
       sat: getComputedStyle(document.querySelector('path.dmc-sat')).stroke,
     })`);
-    expect(Number(after.db)).toBeCloseTo(15, 9);
-    expect(after.svgs).toBe(1);
-    expect(after.sat).toBe('rgb(0, 122, 204)'); // the new chart's nonce'd style applies too
-    expect(requests.filter((u) => !u.startsWith('file:') && !u.startsWith('data:'))).toEqual([]);
-    // A dark VS Code-like theme, for the screenshot.
-    await page.evaluate(`(() => {
+      expect(Number(after.db)).toBeCloseTo(15, 9);
+      expect(after.svgs).toBe(1);
+      expect(after.sat).toBe('rgb(0, 122, 204)'); // the new chart's nonce'd style applies too
+      expect(requests.filter((u) => !u.startsWith('file:') && !u.startsWith('data:'))).toEqual([]);
+      // A dark VS Code-like theme, for the screenshot.
+      await page.evaluate(`(() => {
       const r = document.documentElement.style;
-      for (const [k, v] of Object.entries({ '--vscode-editor-background': '#1e1e1e', '--vscode-editor-foreground': '#d4d4d4', '--vscode-descriptionForeground': '#a0a0a0', '--vscode-panel-border': '#3c3c3c', '--vscode-charts-blue': '#3794ff', '--vscode-charts-purple': '#b180d7', '--vscode-charts-green': '#89d185', '--vscode-charts-orange': '#d18616', '--vscode-charts-red': '#f14c4c', '--vscode-editorWarning-foreground': '#cca700', '--vscode-editor-inactiveSelectionBackground': '#3a3d41' })) r.setProperty(k, v);
+      for (const [k, v] of Object.entries({ '--vscode-editor-background': '#1e1e1e', '--vscode-editor-foreground': \
+'#d4d4d4', '--vscode-descriptionForeground': '#a0a0a0', '--vscode-panel-border': '#3c3c3c', \
+'--vscode-charts-blue': '#3794ff', '--vscode-charts-purple': '#b180d7', '--vscode-charts-green': '#89d185', \
+'--vscode-charts-orange': '#d18616', '--vscode-charts-red': '#f14c4c', '--vscode-editorWarning-foreground': \
+'#cca700', '--vscode-editor-inactiveSelectionBackground': '#3a3d41' })) r.setProperty(k, v);
     })()`);
-    await page.screenshot({ path: join(shots, 'webview-vscode-dark.png') });
-    await done();
-  });
+      await page.screenshot({ path: join(shots, 'webview-vscode-dark.png') });
+      await done();
+    },
+  );
 
-  it('renders the standalone chart: well-formed, title and desc, markers at their pixels; light and dark screenshots', async () => {
-    const data = chartDataFromAnalysis(analyzeNote(NOTE, {}), { source: NOTE });
-    const layout = chartLayout(data);
-    const colours: Record<string, string> = {};
-    for (const scheme of ['light', 'dark'] as const) {
-      const { page, done } = await open(pathToFileURL(join(dir, 'chart.svg')).href, scheme);
-      const info = await page.evaluate<{
-        root: string;
-        errors: number;
-        title: string;
-        desc: string;
-        markers: { name: string; x: number; y: number }[];
-        panel: string;
-      }>(`(() => {
+  it(
+    'renders the standalone chart: well-formed, title and ' +
+      'desc, markers at their pixels; light and dark screenshots',
+    async () => {
+      const data = chartDataFromAnalysis(analyzeNote(NOTE, {}), { source: NOTE });
+      const layout = chartLayout(data);
+      const colours: Record<string, string> = {};
+      for (const scheme of ['light', 'dark'] as const) {
+        const { page, done } = await open(pathToFileURL(join(dir, 'chart.svg')).href, scheme);
+        const info = await page.evaluate<{
+          root: string;
+          errors: number;
+          title: string;
+          desc: string;
+          markers: { name: string; x: number; y: number }[];
+          panel: string;
+        }>(`(() => {
         const svg = document.documentElement;
         const base = svg.getBoundingClientRect();
         return {
@@ -320,34 +334,36 @@ describe.skipIf(skipWithout('chromium', 'playwright-core'))('in headless Chromiu
           errors: document.getElementsByTagName('parsererror').length,
           title: svg.querySelector('title').textContent,
           desc: svg.querySelector('desc').textContent,
-          markers: [...svg.querySelectorAll('circle.dmc-marker')].map((c) => { const b = c.getBoundingClientRect(); return { name: c.dataset.name, x: b.x + b.width / 2 - base.x, y: b.y + b.height / 2 - base.y }; }),
+          markers: [...svg.querySelectorAll('circle.dmc-marker')].map((c) => { const b = c.getBoundingClientRect();\
+ return { name: c.dataset.name, x: b.x + b.width / 2 - base.x, y: b.y + b.height / 2 - base.y }; }),
           panel: getComputedStyle(svg.querySelector('.dmc-panel')).fill,
         };
       })()`);
-      expect(info.root).toBe('svg');
-      expect(info.errors).toBe(0);
-      expect(info.title).toBe('Psychrometric chart — ahu-2.md');
-      expect(info.desc).toContain('OA');
-      for (const p of data.points) {
-        const m = info.markers.find((x) => x.name === p.name)!;
-        const want = toPixel(layout, p.db, p.w);
-        expect(Math.abs(m.x - want.x)).toBeLessThan(0.6);
-        expect(Math.abs(m.y - want.y)).toBeLessThan(0.6);
+        expect(info.root).toBe('svg');
+        expect(info.errors).toBe(0);
+        expect(info.title).toBe('Psychrometric chart — ahu-2.md');
+        expect(info.desc).toContain('OA');
+        for (const p of data.points) {
+          const m = info.markers.find((x) => x.name === p.name)!;
+          const want = toPixel(layout, p.db, p.w);
+          expect(Math.abs(m.x - want.x)).toBeLessThan(0.6);
+          expect(Math.abs(m.y - want.y)).toBeLessThan(0.6);
+        }
+        colours[scheme] = info.panel;
+        await page.screenshot({ path: join(shots, `chart-${scheme}.png`) });
+        await done();
       }
-      colours[scheme] = info.panel;
-      await page.screenshot({ path: join(shots, `chart-${scheme}.png`) });
-      await done();
-    }
-    // The dark scheme really changes the palette (prefers-color-scheme block).
-    expect(colours.light).not.toBe(colours.dark);
-    const { page, done } = await open(pathToFileURL(join(dir, 'report.html')).href, 'dark');
-    await page.screenshot({ path: join(shots, 'report-dark.png'), fullPage: true });
-    // A host page re-themes the chart by setting the public --dm-chart-* properties on an ancestor.
-    const overridden = await page.evaluate<string>(`(() => {
+      // The dark scheme really changes the palette (prefers-color-scheme block).
+      expect(colours.light).not.toBe(colours.dark);
+      const { page, done } = await open(pathToFileURL(join(dir, 'report.html')).href, 'dark');
+      await page.screenshot({ path: join(shots, 'report-dark.png'), fullPage: true });
+      // A host page re-themes the chart by setting the public --dm-chart-* properties on an ancestor.
+      const overridden = await page.evaluate<string>(`(() => {
       document.body.style.setProperty('--dm-chart-panel', 'rgb(1, 2, 3)');
       return getComputedStyle(document.querySelector('#chart .dmc-panel')).fill;
     })()`);
-    expect(overridden).toBe('rgb(1, 2, 3)');
-    await done();
-  });
+      expect(overridden).toBe('rgb(1, 2, 3)');
+      await done();
+    },
+  );
 });

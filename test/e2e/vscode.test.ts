@@ -54,8 +54,10 @@ async function chartView(page: unknown): Promise<ChartView | null> {
   for (const f of frames) {
     const v = (await f
       .evaluate(
-        `(() => { const m = document.getElementById('dewmark-chart'); const svg = m && m.querySelector('svg'); if (!svg) return null;
-          return { text: m.textContent || '', updates: Number(m.getAttribute('data-updates') || '0'), svgWidth: svg.getBoundingClientRect().width,
+        `(() => { const m = document.getElementById('dewmark-chart');\
+ const svg = m && m.querySelector('svg'); if (!svg) return null;
+          return { text: m.textContent || '', updates: \
+Number(m.getAttribute('data-updates') || '0'), svgWidth: svg.getBoundingClientRect().width,
             drawnWidth: Number(svg.getAttribute('width')), roomWidth: m.clientWidth }; })()`,
       )
       .catch(() => null)) as ChartView | null;
@@ -81,10 +83,13 @@ async function previewResults(page: unknown): Promise<PreviewResults | null> {
       .evaluate(
         `(() => { if (!document.querySelector('.markdown-body, body.vscode-body')) return null;
           const boxes = [...document.querySelectorAll('.dewmark-results')].map((b) => { const cs = getComputedStyle(b);
-            return { rows: [...b.querySelectorAll('tbody tr')].map((tr) => [...tr.children].map((c) => (c.textContent || '').trim())),
-              notice: b.querySelector('.dewmark-results-notice') ? b.querySelector('.dewmark-results-notice').textContent : null,
+            return { rows: [...b.querySelectorAll('tbody tr')].map((tr) \
+=> [...tr.children].map((c) => (c.textContent || '').trim())),
+              notice: b.querySelector('.dewmark-results-notice') \
+? b.querySelector('.dewmark-results-notice').textContent : null,
               borderLeft: cs.borderLeftWidth + ' ' + cs.borderLeftStyle, background: cs.backgroundColor }; });
-          const noteTables = [...document.querySelectorAll('table')].filter((t) => !t.closest('.dewmark-results')).map((t) => t.textContent || '');
+          const noteTables = [...document.querySelectorAll('table')].filter((t) \
+=> !t.closest('.dewmark-results')).map((t) => t.textContent || '');
           if (boxes.length === 0 && noteTables.length === 0 && !document.querySelector('pre')) return null;
           return { boxes, noteTables, theme: document.body.className }; })()`,
       )
@@ -220,7 +225,8 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.screenshot('restarted');
   }, 90_000);
 
-  it('shows the unit system and pressure basis in the status bar, and switches units from the palette and by a click', async () => {
+  it('shows the unit system and pressure basis in the status ' +
+    'bar, and switches units from the palette and by a click', async () => {
     const wb = session.workbench;
     // The note's own site line sets the pressure basis (the server's note status says so).
     await wb.waitFor('the Dewmark status-bar item', async () =>
@@ -236,7 +242,8 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     await wb.screenshot('ip-units');
     // Clicking the status-bar item switches back.
     const item = (await wb.page.evaluate(
-      `(() => { const el = [...document.querySelectorAll('.statusbar-item')].find((e) => (e.textContent || '').includes('IP · site')); if (!el) return null;
+      `(() => { const el = [...document.querySelectorAll('.statusbar-item')].find((e) \
+=> (e.textContent || '').includes('IP · site')); if (!el) return null;
         const r = el.getBoundingClientRect(); return { x: r.x + r.width / 2, y: r.y + r.height / 2 }; })()`,
     )) as { x: number; y: number } | null;
     expect(item, 'the Dewmark status-bar item').not.toBeNull();
@@ -385,7 +392,8 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
     );
   }, 120_000);
 
-  it('writes the results table below the block with the palette command, and warns when the note changes without refreshing it', async () => {
+  it('writes the results table below the block with the palette ' +
+    'command, and warns when the note changes without refreshing it', async () => {
     const wb = session.workbench;
     await wb.clickWord('OA', { line: 'state OA' });
     const before = await wb.editorText();

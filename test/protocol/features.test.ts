@@ -67,43 +67,47 @@ afterAll(async () => {
 });
 
 describe('pull diagnostics', () => {
-  it('reports the evaluator diagnostics with codes, then "unchanged" for the same version, then the new set after an edit', async () => {
-    const first = await s.request<{ kind: string; resultId: string; items: Diag[] }>('textDocument/diagnostic', {
-      textDocument: { uri: URI },
-    });
-    expect(first.kind).toBe('full');
-    expect(first.resultId).toBeTruthy();
-    const wb = first.items.find((d) => d.code === 'wb-above-db');
-    expect(wb).toBeDefined();
-    expect(wb!.source).toBe('dewmark');
-    expect(wb!.severity).toBe(1);
-    expect(wb!.range.start.line).toBe(6);
+  it(
+    'reports the evaluator diagnostics with codes, then "unchanged" ' +
+      'for the same version, then the new set after an edit',
+    async () => {
+      const first = await s.request<{ kind: string; resultId: string; items: Diag[] }>('textDocument/diagnostic', {
+        textDocument: { uri: URI },
+      });
+      expect(first.kind).toBe('full');
+      expect(first.resultId).toBeTruthy();
+      const wb = first.items.find((d) => d.code === 'wb-above-db');
+      expect(wb).toBeDefined();
+      expect(wb!.source).toBe('dewmark');
+      expect(wb!.severity).toBe(1);
+      expect(wb!.range.start.line).toBe(6);
 
-    const again = await s.request<{ kind: string; resultId: string }>('textDocument/diagnostic', {
-      textDocument: { uri: URI },
-      previousResultId: first.resultId,
-    });
-    expect(again).toEqual({ kind: 'unchanged', resultId: first.resultId });
+      const again = await s.request<{ kind: string; resultId: string }>('textDocument/diagnostic', {
+        textDocument: { uri: URI },
+        previousResultId: first.resultId,
+      });
+      expect(again).toEqual({ kind: 'unchanged', resultId: first.resultId });
 
-    // Incremental change: make LOG7 feasible (25 → 15), two edits in one notification applied in order.
-    await s.change(URI, 2, [
-      { range: { start: { line: 6, character: 22 }, end: { line: 6, character: 24 } }, text: '1' },
-      { range: { start: { line: 6, character: 22 }, end: { line: 6, character: 23 } }, text: '15' },
-    ]);
-    const after = await s.request<{ kind: string; resultId: string; items: Diag[] }>('textDocument/diagnostic', {
-      textDocument: { uri: URI },
-      previousResultId: first.resultId,
-    });
-    expect(after.kind).toBe('full');
-    expect(after.resultId).not.toBe(first.resultId);
-    expect(after.items.some((d) => d.code === 'wb-above-db')).toBe(false);
-    // Restore the note for the other tests (version 3).
-    await s.change(URI, 3, [
-      { range: { start: { line: 6, character: 22 }, end: { line: 6, character: 24 } }, text: '25' },
-    ]);
-    const restored = await s.request<{ items: Diag[] }>('textDocument/diagnostic', { textDocument: { uri: URI } });
-    expect(restored.items.some((d) => d.code === 'wb-above-db')).toBe(true);
-  });
+      // Incremental change: make LOG7 feasible (25 → 15), two edits in one notification applied in order.
+      await s.change(URI, 2, [
+        { range: { start: { line: 6, character: 22 }, end: { line: 6, character: 24 } }, text: '1' },
+        { range: { start: { line: 6, character: 22 }, end: { line: 6, character: 23 } }, text: '15' },
+      ]);
+      const after = await s.request<{ kind: string; resultId: string; items: Diag[] }>('textDocument/diagnostic', {
+        textDocument: { uri: URI },
+        previousResultId: first.resultId,
+      });
+      expect(after.kind).toBe('full');
+      expect(after.resultId).not.toBe(first.resultId);
+      expect(after.items.some((d) => d.code === 'wb-above-db')).toBe(false);
+      // Restore the note for the other tests (version 3).
+      await s.change(URI, 3, [
+        { range: { start: { line: 6, character: 22 }, end: { line: 6, character: 24 } }, text: '25' },
+      ]);
+      const restored = await s.request<{ items: Diag[] }>('textDocument/diagnostic', { textDocument: { uri: URI } });
+      expect(restored.items.some((d) => d.code === 'wb-above-db')).toBe(true);
+    },
+  );
 });
 
 describe('hover', () => {
@@ -368,41 +372,44 @@ describe('property references through the protocol', () => {
     '',
   ].join('\n');
 
-  it('hovers on OA.w with where the value came from, goes to OA, renames into the reference, completes NAME.key', async () => {
-    await s.open(REFS, TEXT);
-    // ASHRAE HoF 2017 SI Ch.1 Example 1 (see EX1 above): W of OA is 6.5 g/kg ±0.1.
-    const h = await s.request<{ contents: { value: string } }>('textDocument/hover', {
-      textDocument: { uri: REFS },
-      position: { line: 2, character: 'state PH: db=OA.db+2K w=OA.'.length },
-    });
-    const head = /^`w=OA\.w` — w from OA: (\d+\.\d+) g\/kg$/.exec(h.contents.value.split('\n')[0]!);
-    expect(head, h.contents.value).not.toBeNull();
-    expect(within(Number(head![1]), EX1.w)).toBe(true);
-
-    const def = await s.request<{ uri: string; range: Range }>('textDocument/definition', {
-      textDocument: { uri: REFS },
-      position: { line: 2, character: 'state PH: db=OA.d'.length },
-    });
-    expect(def).toEqual({ uri: REFS, range: { start: { line: 1, character: 6 }, end: { line: 1, character: 8 } } });
-
-    const edit = await s.request<{ documentChanges: { edits: { range: Range; newText: string }[] }[] }>(
-      'textDocument/rename',
-      {
+  it(
+    'hovers on OA.w with where the value came from, goes ' + 'to OA, renames into the reference, completes NAME.key',
+    async () => {
+      await s.open(REFS, TEXT);
+      // ASHRAE HoF 2017 SI Ch.1 Example 1 (see EX1 above): W of OA is 6.5 g/kg ±0.1.
+      const h = await s.request<{ contents: { value: string } }>('textDocument/hover', {
         textDocument: { uri: REFS },
-        position: { line: 1, character: 7 },
-        newName: 'OUT',
-      },
-    );
-    expect(edit.documentChanges[0]!.edits.map((e) => [e.range.start.line, e.range.start.character])).toEqual([
-      [1, 6],
-      [2, 13],
-      [2, 24],
-    ]);
+        position: { line: 2, character: 'state PH: db=OA.db+2K w=OA.'.length },
+      });
+      const head = /^`w=OA\.w` — w from OA: (\d+\.\d+) g\/kg$/.exec(h.contents.value.split('\n')[0]!);
+      expect(head, h.contents.value).not.toBeNull();
+      expect(within(Number(head![1]), EX1.w)).toBe(true);
 
-    const names = await s.request<{ items: { label: string }[] }>('textDocument/completion', {
-      textDocument: { uri: REFS },
-      position: { line: 3, character: 'state X: db=20C w='.length },
-    });
-    expect(names.items.map((i) => i.label)).toEqual(['OA.w', 'PH.w']);
-  });
+      const def = await s.request<{ uri: string; range: Range }>('textDocument/definition', {
+        textDocument: { uri: REFS },
+        position: { line: 2, character: 'state PH: db=OA.d'.length },
+      });
+      expect(def).toEqual({ uri: REFS, range: { start: { line: 1, character: 6 }, end: { line: 1, character: 8 } } });
+
+      const edit = await s.request<{ documentChanges: { edits: { range: Range; newText: string }[] }[] }>(
+        'textDocument/rename',
+        {
+          textDocument: { uri: REFS },
+          position: { line: 1, character: 7 },
+          newName: 'OUT',
+        },
+      );
+      expect(edit.documentChanges[0]!.edits.map((e) => [e.range.start.line, e.range.start.character])).toEqual([
+        [1, 6],
+        [2, 13],
+        [2, 24],
+      ]);
+
+      const names = await s.request<{ items: { label: string }[] }>('textDocument/completion', {
+        textDocument: { uri: REFS },
+        position: { line: 3, character: 'state X: db=20C w='.length },
+      });
+      expect(names.items.map((i) => i.label)).toEqual(['OA.w', 'PH.w']);
+    },
+  );
 });

@@ -282,7 +282,9 @@ export function positionOf(text: string, needle: string, atStart = false): Posit
   return { line, character };
 }
 
-/** The number shown for `key` in a state hover's table (`| \`w\` | 6.53 | g/kg | …` → 6.53): the cell after the key's. */
+/**
+ * The number shown for `key` in a state hover's table (`| \`w\` | 6.53 | g/kg | …` → 6.53): the cell after the key's.
+ */
 export function tableValue(markdown: string, key: string): number {
   const row = markdown.split('\n').find((l) => l.includes(`| \`${key}\` |`));
   if (!row) throw new Error(`no row for ${key} in:\n${markdown}`);

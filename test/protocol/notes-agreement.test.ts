@@ -135,46 +135,51 @@ describe('the CLI and Check All agree on the notes of a folder', () => {
     }
   });
 
-  it('an excluded note named on the command line is left out; opened in the editor, it says so instead of its problems', async () => {
-    const r = spawnSync(
-      process.execPath,
-      [join(repoRoot(), 'dist', 'cli.js'), 'check', '--format', 'json', join('archive', 'old.md')],
-      { cwd: root, encoding: 'utf8' },
-    );
-    expect(r.status).toBe(2);
-    expect(r.stderr).toContain(
-      '\'archive/old.md\' is left out by dewmark.json: its exclude pattern "archive" matches it',
-    );
-    expect((JSON.parse(r.stdout) as CliJson).files).toEqual([]);
+  it(
+    'an excluded note named on the command line is left out; ' +
+      'opened in the editor, it says so instead of its problems',
+    async () => {
+      const r = spawnSync(
+        process.execPath,
+        [join(repoRoot(), 'dist', 'cli.js'), 'check', '--format', 'json', join('archive', 'old.md')],
+        { cwd: root, encoding: 'utf8' },
+      );
+      expect(r.status).toBe(2);
+      expect(r.stderr).toContain(
+        '\'archive/old.md\' is left out by dewmark.json: its exclude pattern "archive" matches it',
+      );
+      expect((JSON.parse(r.stdout) as CliJson).files).toEqual([]);
 
-    const s = startServer();
-    try {
-      const folder = pathToFileURL(root).href;
-      await s.initialize(FULL_CAPABILITIES, { workspaceFolders: [{ uri: folder, name: 'ws' }] });
-      const uri = `${folder}/archive/old.md`;
-      await s.open(uri, ERROR_NOTE, 1);
-      const shown = await s.request<{ items: { code: string; severity: number; message: string }[] }>(
-        'textDocument/diagnostic',
-        { textDocument: { uri } },
-      );
-      expect(shown.items.map((d) => [d.code, d.severity])).toEqual([['note-excluded', 3]]);
-      expect(shown.items[0]!.message).toContain(
-        'This note is left out by dewmark.json: its exclude pattern "archive" matches it. `dewmark check` and Check All do not check it',
-      );
-      // The same note outside the excluded folder has its error.
-      const kept = `${folder}/bad.md`;
-      await s.open(kept, ERROR_NOTE, 1);
-      const other = await s.request<{ items: { code: string }[] }>('textDocument/diagnostic', {
-        textDocument: { uri: kept },
-      });
-      expect(other.items.map((d) => d.code)).toEqual(['wb-above-db']);
-      // Check All counts the open excluded note as excluded too.
-      const result = await s.request<CheckWorkspaceResult>('dewmark/checkWorkspace', {});
-      expect(result.excluded.map((e) => e.uri)).toContain(uri);
-      expect(result.notes.map((n) => n.uri)).not.toContain(uri);
-      expect(await s.shutdown()).toBe(0);
-    } finally {
-      s.kill();
-    }
-  });
+      const s = startServer();
+      try {
+        const folder = pathToFileURL(root).href;
+        await s.initialize(FULL_CAPABILITIES, { workspaceFolders: [{ uri: folder, name: 'ws' }] });
+        const uri = `${folder}/archive/old.md`;
+        await s.open(uri, ERROR_NOTE, 1);
+        const shown = await s.request<{ items: { code: string; severity: number; message: string }[] }>(
+          'textDocument/diagnostic',
+          { textDocument: { uri } },
+        );
+        expect(shown.items.map((d) => [d.code, d.severity])).toEqual([['note-excluded', 3]]);
+        expect(shown.items[0]!.message).toContain(
+          'This note is left out by dewmark.json: its exclude pattern ' +
+            '"archive" matches it. `dewmark check` and Check All do not check it',
+        );
+        // The same note outside the excluded folder has its error.
+        const kept = `${folder}/bad.md`;
+        await s.open(kept, ERROR_NOTE, 1);
+        const other = await s.request<{ items: { code: string }[] }>('textDocument/diagnostic', {
+          textDocument: { uri: kept },
+        });
+        expect(other.items.map((d) => d.code)).toEqual(['wb-above-db']);
+        // Check All counts the open excluded note as excluded too.
+        const result = await s.request<CheckWorkspaceResult>('dewmark/checkWorkspace', {});
+        expect(result.excluded.map((e) => e.uri)).toContain(uri);
+        expect(result.notes.map((n) => n.uri)).not.toContain(uri);
+        expect(await s.shutdown()).toBe(0);
+      } finally {
+        s.kill();
+      }
+    },
+  );
 });

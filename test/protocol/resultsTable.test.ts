@@ -38,7 +38,10 @@ interface TextEdit {
   range: Range;
   newText: string;
 }
-/** The server's result (`@dewmark/protocol`), its `edit` typed as the text edits the server sends (versioned, or by URI). */
+/**
+ * The server's result (`@dewmark/protocol`), its `edit` typed
+ * as the text edits the server sends (versioned, or by URI).
+ */
 type Result = Omit<ResultsTableResult, 'edit'> & {
   edit: {
     documentChanges?: { textDocument: { uri: string; version: number }; edits: TextEdit[] }[];
@@ -121,28 +124,32 @@ describe('workspace/executeCommand dewmark.server.resultsTables', () => {
     expect(again).toMatchObject({ edit: null, blocks: 2, inserted: 0, refreshed: 0, unchanged: 2 });
   });
 
-  it('says blocks: 0 for a position outside every block, null for a note that is not open, and rejects bad arguments', async () => {
-    const outside = await s.request<Result>('workspace/executeCommand', {
-      command: COMMAND,
-      arguments: [{ textDocument: { uri: URI }, position: positionOf(NOTE, 'The mix') }],
-    });
-    expect(outside).toMatchObject({ edit: null, blocks: 0 });
-    expect(
-      await s.request('workspace/executeCommand', {
+  it(
+    'says blocks: 0 for a position outside every block, null ' +
+      'for a note that is not open, and rejects bad arguments',
+    async () => {
+      const outside = await s.request<Result>('workspace/executeCommand', {
         command: COMMAND,
-        arguments: [{ textDocument: { uri: 'file:///work-notes/closed.md' }, all: true }],
-      }),
-    ).toBeNull();
-    await expect(s.request('workspace/executeCommand', { command: COMMAND, arguments: [] })).rejects.toThrow(
-      /takes one argument/,
-    );
-    await expect(
-      s.request('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri: URI } }] }),
-    ).rejects.toThrow(/needs a position/);
-    await expect(s.request('workspace/executeCommand', { command: 'dewmark.nothing', arguments: [] })).rejects.toThrow(
-      /unknown command/,
-    );
-  });
+        arguments: [{ textDocument: { uri: URI }, position: positionOf(NOTE, 'The mix') }],
+      });
+      expect(outside).toMatchObject({ edit: null, blocks: 0 });
+      expect(
+        await s.request('workspace/executeCommand', {
+          command: COMMAND,
+          arguments: [{ textDocument: { uri: 'file:///work-notes/closed.md' }, all: true }],
+        }),
+      ).toBeNull();
+      await expect(s.request('workspace/executeCommand', { command: COMMAND, arguments: [] })).rejects.toThrow(
+        /takes one argument/,
+      );
+      await expect(
+        s.request('workspace/executeCommand', { command: COMMAND, arguments: [{ textDocument: { uri: URI } }] }),
+      ).rejects.toThrow(/needs a position/);
+      await expect(
+        s.request('workspace/executeCommand', { command: 'dewmark.nothing', arguments: [] }),
+      ).rejects.toThrow(/unknown command/);
+    },
+  );
 });
 
 describe('code actions and the stale-table diagnostic', () => {

@@ -13,7 +13,9 @@ function bigNote(chars: number): string {
   const parts: string[] = ['# Harbourside campus (generated)\n\n'];
   let len = parts[0]!.length;
   for (let b = 0; len < chars; b++) {
-    const part = `## Room ${b}\n\n\`\`\`air\nstate OA${b}: db=${29 + (b % 6)}C wb=${20 + (b % 6)}C\nstate RA${b}: db=24C rh=50%\nmix MA${b}: OA${b} 30% + RA${b} 70%\n\`\`\`\n\n`;
+    const part =
+      `## Room ${b}\n\n\`\`\`air\nstate OA${b}: db=${29 + (b % 6)}C wb=${20 + (b % 6)}C\nstate ` +
+      `RA${b}: db=24C rh=50%\nmix MA${b}: OA${b} 30% + RA${b} 70%\n\`\`\`\n\n`;
     parts.push(part);
     len += part.length;
   }

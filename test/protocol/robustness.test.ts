@@ -295,13 +295,16 @@ describe('random edits through the real protocol', () => {
   });
 
   it(
-    `${cfg.protocolEdits} edits with racing requests (pull diagnostics, seed ${cfg.seed}): every request answered, the server's text is the client's`,
+    `${cfg.protocolEdits} edits with racing requests (pull diagnostics, ` +
+      `seed ${cfg.seed}): every request answered, the server's text is the client's`,
     async () => {
       const t0 = performance.now();
       const r = await fuzzSession(s, true, cfg.protocolEdits, cfg.seed + 10);
       const sum = summarize(r.outcomes);
       console.log(
-        `[protocol] ${r.edits} edits, ${sum.answered} requests answered in ${((performance.now() - t0) / 1000).toFixed(1)} s (final note ${r.text.length} characters); by method ${JSON.stringify(sum.byMethod)}`,
+        `[protocol] ${r.edits} edits, ${sum.answered} requests answered ` +
+          `in ${((performance.now() - t0) / 1000).toFixed(1)} s (final ` +
+          `note ${r.text.length} characters); by method ${JSON.stringify(sum.byMethod)}`,
       );
       expect(
         sum.errors.map((e) => `${e.method} ${e.code} ${e.message}`),
@@ -319,7 +322,8 @@ describe('random edits through the real protocol', () => {
   );
 
   it(
-    `${Math.ceil(cfg.protocolEdits / 3)} edits to a push-only client (like Neovim 0.7): the last push is the diagnostics of the client's text`,
+    `${Math.ceil(cfg.protocolEdits / 3)} edits to a push-only client (like ` +
+      `Neovim 0.7): the last push is the diagnostics of the client's text`,
     async () => {
       const r = await fuzzSession(push, false, Math.ceil(cfg.protocolEdits / 3), cfg.seed + 20);
       const sum = summarize(r.outcomes);

@@ -39,9 +39,12 @@ afterAll(() => {
 });
 
 describe('the I/O audit preload', () => {
-  it('records a file write, a write-open, a connection attempt, a listen and a started program (so its silence means something)', () => {
-    const target = join(dir, 'control-output.txt');
-    const script = `
+  it(
+    'records a file write, a write-open, a connection attempt, a ' +
+      'listen and a started program (so its silence means something)',
+    () => {
+      const target = join(dir, 'control-output.txt');
+      const script = `
       const fs = require('node:fs'); const net = require('node:net'); const cp = require('node:child_process');
       fs.readFileSync(${JSON.stringify(join(dir, 'readme.txt'))});
       fs.writeFileSync(${JSON.stringify(target)}, 'x');
@@ -51,80 +54,85 @@ describe('the I/O audit preload', () => {
       cp.spawnSync(process.execPath, ['-e', '0']);
       fs.rmSync(${JSON.stringify(target)});
     `;
-    const r = spawnSync(process.execPath, ['--require', AUDIT, '-e', script], { encoding: 'utf8' });
-    expect(r.status).toBe(0);
-    expect(r.stderr).toContain('[io-audit-ready]');
-    const calls = auditRecords(r.stderr).map((x) => `${x.kind}:${x.call}`);
-    expect(calls).toEqual(
-      expect.arrayContaining([
-        'file:writeFileSync',
-        'file:openSync',
-        'network:connect',
-        'network:listen',
-        'process:spawnSync',
-        'file:rmSync',
-      ]),
-    );
-    expect(calls.filter((c) => c.startsWith('file:open')).length, 'a read-only open is not recorded').toBe(1);
-  });
+      const r = spawnSync(process.execPath, ['--require', AUDIT, '-e', script], { encoding: 'utf8' });
+      expect(r.status).toBe(0);
+      expect(r.stderr).toContain('[io-audit-ready]');
+      const calls = auditRecords(r.stderr).map((x) => `${x.kind}:${x.call}`);
+      expect(calls).toEqual(
+        expect.arrayContaining([
+          'file:writeFileSync',
+          'file:openSync',
+          'network:connect',
+          'network:listen',
+          'process:spawnSync',
+          'file:rmSync',
+        ]),
+      );
+      expect(calls.filter((c) => c.startsWith('file:open')).length, 'a read-only open is not recorded').toBe(1);
+    },
+  );
 });
 
 describe('the language server under the audit', () => {
-  it('a full session (every request, edits, settings, the workspace check, shutdown) makes no connection, writes nothing, starts nothing', async () => {
-    const before = snapshot(dir);
-    const proc = spawn(process.execPath, ['--require', AUDIT, serverBin(), '--stdio'], {
-      cwd: dir,
-      stdio: ['pipe', 'pipe', 'pipe'],
-    });
-    const s = new Session(
-      proc,
-      createMessageConnection(new StreamMessageReader(proc.stdout!), new StreamMessageWriter(proc.stdin!)),
-    );
-    try {
-      s.configuration = () => ({ units: 'SI', precision: 1 });
-      const folder = pathToFileURL(dir).href;
-      await s.initialize(FULL_CAPABILITIES, { rootUri: folder, workspaceFolders: [{ uri: folder, name: 'calcs' }] });
-      const uri = pathToFileURL(join(dir, 'calcs', 'ahu-1.md')).href;
-      const text = readFileSync(join(dir, 'calcs', 'ahu-1.md'), 'utf8');
-      await s.open(uri, text, 1);
-      const td = { textDocument: { uri } };
-      const pos = { line: 3, character: 7 };
-      const range = { start: { line: 0, character: 0 }, end: { line: 8, character: 0 } };
-      const answers = await Promise.all([
-        s.request('textDocument/diagnostic', td),
-        s.request('textDocument/hover', { ...td, position: pos }),
-        s.request('textDocument/inlayHint', { ...td, range }),
-        s.request('textDocument/completion', { ...td, position: { line: 4, character: 16 } }),
-        s.request('textDocument/documentSymbol', td),
-        s.request('textDocument/codeAction', { ...td, range, context: { diagnostics: [] } }),
-        s.request('textDocument/definition', { ...td, position: { line: 5, character: 8 } }),
-        s.request('textDocument/references', { ...td, position: pos, context: { includeDeclaration: true } }),
-        s.request('textDocument/prepareRename', { ...td, position: pos }),
-        s.request('textDocument/rename', { ...td, position: pos, newName: 'OUT' }),
-        s.request('dewmark/noteStatus', td),
-        s.request('workspace/executeCommand', {
-          command: 'dewmark.server.resultsTables',
-          arguments: [{ textDocument: { uri }, all: true }],
-        }),
-      ]);
-      expect(answers.filter((a) => a !== null).length).toBeGreaterThan(8);
-      await s.change(uri, 2, [
-        { range: { start: { line: 3, character: 13 }, end: { line: 3, character: 15 } }, text: '35' },
-      ]);
-      await s.connection.sendNotification('workspace/didChangeConfiguration', {
-        settings: { dewmark: { units: 'IP' } },
+  it(
+    'a full session (every request, edits, settings, the workspace ' +
+      'check, shutdown) makes no connection, writes nothing, starts nothing',
+    async () => {
+      const before = snapshot(dir);
+      const proc = spawn(process.execPath, ['--require', AUDIT, serverBin(), '--stdio'], {
+        cwd: dir,
+        stdio: ['pipe', 'pipe', 'pipe'],
       });
-      const checked = await s.request<CheckWorkspaceResult>('dewmark/checkWorkspace', {});
-      expect(checked.filesRead).toBe(2); // read, not written
-      expect(checked.errors).toBeGreaterThan(0);
-      await s.connection.sendNotification('textDocument/didClose', td);
-      expect(await s.shutdown()).toBe(0);
-    } finally {
-      s.kill();
-    }
-    expect(s.stderr, 'the preload ran in the server').toContain(`[io-audit-ready] ${proc.pid}`);
-    const records = auditRecords(s.stderr);
-    expect(records, `the server attempted: ${JSON.stringify(records)}`).toEqual([]);
-    expect(snapshot(dir)).toEqual(before);
-  });
+      const s = new Session(
+        proc,
+        createMessageConnection(new StreamMessageReader(proc.stdout!), new StreamMessageWriter(proc.stdin!)),
+      );
+      try {
+        s.configuration = () => ({ units: 'SI', precision: 1 });
+        const folder = pathToFileURL(dir).href;
+        await s.initialize(FULL_CAPABILITIES, { rootUri: folder, workspaceFolders: [{ uri: folder, name: 'calcs' }] });
+        const uri = pathToFileURL(join(dir, 'calcs', 'ahu-1.md')).href;
+        const text = readFileSync(join(dir, 'calcs', 'ahu-1.md'), 'utf8');
+        await s.open(uri, text, 1);
+        const td = { textDocument: { uri } };
+        const pos = { line: 3, character: 7 };
+        const range = { start: { line: 0, character: 0 }, end: { line: 8, character: 0 } };
+        const answers = await Promise.all([
+          s.request('textDocument/diagnostic', td),
+          s.request('textDocument/hover', { ...td, position: pos }),
+          s.request('textDocument/inlayHint', { ...td, range }),
+          s.request('textDocument/completion', { ...td, position: { line: 4, character: 16 } }),
+          s.request('textDocument/documentSymbol', td),
+          s.request('textDocument/codeAction', { ...td, range, context: { diagnostics: [] } }),
+          s.request('textDocument/definition', { ...td, position: { line: 5, character: 8 } }),
+          s.request('textDocument/references', { ...td, position: pos, context: { includeDeclaration: true } }),
+          s.request('textDocument/prepareRename', { ...td, position: pos }),
+          s.request('textDocument/rename', { ...td, position: pos, newName: 'OUT' }),
+          s.request('dewmark/noteStatus', td),
+          s.request('workspace/executeCommand', {
+            command: 'dewmark.server.resultsTables',
+            arguments: [{ textDocument: { uri }, all: true }],
+          }),
+        ]);
+        expect(answers.filter((a) => a !== null).length).toBeGreaterThan(8);
+        await s.change(uri, 2, [
+          { range: { start: { line: 3, character: 13 }, end: { line: 3, character: 15 } }, text: '35' },
+        ]);
+        await s.connection.sendNotification('workspace/didChangeConfiguration', {
+          settings: { dewmark: { units: 'IP' } },
+        });
+        const checked = await s.request<CheckWorkspaceResult>('dewmark/checkWorkspace', {});
+        expect(checked.filesRead).toBe(2); // read, not written
+        expect(checked.errors).toBeGreaterThan(0);
+        await s.connection.sendNotification('textDocument/didClose', td);
+        expect(await s.shutdown()).toBe(0);
+      } finally {
+        s.kill();
+      }
+      expect(s.stderr, 'the preload ran in the server').toContain(`[io-audit-ready] ${proc.pid}`);
+      const records = auditRecords(s.stderr);
+      expect(records, `the server attempted: ${JSON.stringify(records)}`).toEqual([]);
+      expect(snapshot(dir)).toEqual(before);
+    },
+  );
 });

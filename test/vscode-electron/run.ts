@@ -42,9 +42,11 @@ function notRun(reason: string): never {
     '',
     'vscode-electron: NOT RUN — the VS Code integration suite did not run, so it did not pass.',
     `vscode-electron: reason: ${reason}`,
-    'vscode-electron: to run it, use a machine that can download VS Code, or set DEWMARK_VSCODE_EXECUTABLE to an installed VS Code.',
+    'vscode-electron: to run it, use a machine that can download VS ' +
+      'Code, or set DEWMARK_VSCODE_EXECUTABLE to an installed VS Code.',
     ci
-      ? 'vscode-electron: CI=true: exiting 0 because this CI can never download VS Code; the code-server suite (test/e2e/vscode.test.ts) covers a real VS Code here.'
+      ? 'vscode-electron: CI=true: exiting 0 because this CI can never download VS Code; ' +
+        'the code-server suite (test/e2e/vscode.test.ts) covers a real VS Code here.'
       : `vscode-electron: exiting ${NOT_PASSED} (not passed).`,
     '',
   ];

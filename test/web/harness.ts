@@ -67,7 +67,8 @@ own('self', scope);
 own('globalThis', scope);
 const names = ['globalThis', 'self', ...workerData.hidden];
 // 'with' makes every free name of the script a property of the scope first, as in a worker.
-new Function(...names, 'with (globalThis) {\\n' + text + '\\n}')(scope, scope, ...workerData.hidden.map(() => undefined));
+new Function(...names, 'with (globalThis) {\\n' + text + '\\n}\
+')(scope, scope, ...workerData.hidden.map(() => undefined));
 `;
 
 /** Starts the web build (or another script, for the harness's own test) in a worker thread and connects to it. */

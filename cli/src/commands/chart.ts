@@ -39,7 +39,10 @@ export function chartSvgDocument(
   }
   const height = y - STACK_GAP;
   return {
-    svg: `<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" data-charts="${charts.length}">\n${parts.join('\n')}\n</svg>\n`,
+    svg:
+      `<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg" ` +
+      `width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" ` +
+      `data-charts="${charts.length}">\n${parts.join('\n')}\n</svg>\n`,
     charts: charts.length,
   };
 }

@@ -262,7 +262,8 @@ async function topLevel(cwd: string): Promise<string> {
   } catch (err) {
     if (err instanceof GitProblem && /git was not found/.test(err.message)) throw err;
     throw new GitProblem(
-      `'${cwd}' is not inside a git repository; old versions of notes are read with git, so run dewmark diff (or report --since) in a clone of the notes' repository (git init, or cd into one)`,
+      `'${cwd}' is not inside a git repository; old versions of notes are read with git, so run ` +
+        `dewmark diff (or report --since) in a clone of the notes' repository (git init, or cd into one)`,
     );
   }
 }
@@ -277,7 +278,8 @@ async function resolveRevision(rev: string, cwd: string): Promise<string> {
     return (await git(['rev-parse', '--verify', '--quiet', `${rev}^{commit}`], cwd)).toString('utf8').trim();
   } catch {
     throw new GitProblem(
-      `unknown revision '${rev}': no commit of that name in this repository (try HEAD, HEAD~1, a branch, a tag or a commit id; git log --oneline lists commits)`,
+      `unknown revision '${rev}': no commit of that name in this repository (try ` +
+        `HEAD, HEAD~1, a branch, a tag or a commit id; git log --oneline lists commits)`,
     );
   }
 }
@@ -322,7 +324,8 @@ async function textAt(
     return {
       ok: false,
       message: tooLarge
-        ? `'${display}' at ${rev} is larger than --max-note-size (${(maxBytes / 1048576).toFixed(0)} MB); raise --max-note-size to compare it`
+        ? `'${display}' at ${rev} is larger than --max-note-size ` +
+          `(${(maxBytes / 1048576).toFixed(0)} MB); raise --max-note-size to compare it`
         : `'${display}' could not be read at ${rev}: ${err instanceof Error ? err.message : String(err)}`,
     };
   }
@@ -408,7 +411,8 @@ async function diffNotes(
     const rp = repoPath(top, input.abs);
     if (rp === null)
       problems.push(
-        `'${input.display}' is outside the git repository at '${top}'; only files of the repository have an old version`,
+        `'${input.display}' is outside the git repository at ` +
+          `'${top}'; only files of the repository have an old version`,
       );
     else now.set(rp, { display: input.display, abs: input.abs });
   }
@@ -416,7 +420,9 @@ async function diffNotes(
   if (now.size === 0 && then.length === 0 && problems.length === 0) {
     const why = explainEmpty(empty);
     problems.push(
-      `no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${p}'`).join(', ') : 'the current folder'} at ${rev} or in the working tree${why.length > 0 ? `; ${why.join('; ')}` : ''}`,
+      `no Markdown files (.md, .markdown) found ` +
+        `in ${paths.length > 0 ? paths.map((p) => `'${p}'`).join(', ') : 'the current folder'} ` +
+        `at ${rev} or in the working tree${why.length > 0 ? `; ${why.join('; ')}` : ''}`,
     );
   }
 
@@ -538,13 +544,16 @@ function splitOperands(operands: string[], raw: readonly string[]): { rev: strin
   const files = operands.slice(operands.length - nFiles);
   if (before.length > 1) {
     throw new UsageError(
-      `dewmark diff takes one revision, then files after --: e.g. dewmark diff ${before[0]} -- ${before.slice(1).join(' ')}`,
+      `dewmark diff takes one revision, then files after --: e.g. ` +
+        `dewmark diff ${before[0]} -- ${before.slice(1).join(' ')}`,
     );
   }
   return { rev: before[0] ?? 'HEAD', files };
 }
 
-/** Runs `dewmark diff`. Exit codes: 0 compared (1 with --exit-code when a figure changed), 2 usage, git or I/O problems. */
+/**
+ * Runs `dewmark diff`. Exit codes: 0 compared (1 with --exit-code when a figure changed), 2 usage, git or I/O problems.
+ */
 export async function runDiff(
   operands: string[],
   raw: readonly string[],

@@ -133,7 +133,8 @@ export async function runFix(paths: string[], opts: FixOptions, io: CliIO): Prom
   }
   if (inputs.length === 0 && problems.length === 0) {
     io.err(
-      `dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}\n`,
+      `dewmark: no Markdown files (.md, .markdown) found ` +
+        `in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}\n`,
     );
     return 2;
   }
@@ -177,7 +178,8 @@ export async function runFix(paths: string[], opts: FixOptions, io: CliIO): Prom
     }
   }
   if (out) io.out(out);
-  const what = `${plural(claims, 'stale claim')} and ${plural(tables, 'results table')} in ${plural(changedFiles, 'file')}`;
+  const what =
+    `${plural(claims, 'stale claim')} and ${plural(tables, 'results table')} ` + `in ${plural(changedFiles, 'file')}`;
   const summary =
     changedFiles === 0
       ? 'nothing to fix'

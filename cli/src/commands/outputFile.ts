@@ -89,14 +89,16 @@ export function checkOutputPath(
     }
     if (same)
       throw new UsageError(
-        `refusing to write the ${what} over the note '${input.path}' itself; give another path with -o, e.g. ${example}`,
+        `refusing to write the ${what} over the note '${input.path}' ` +
+          `itself; give another path with -o, e.g. ${example}`,
       );
   }
   const real = writtenPath(abs, output);
   if (isMarkdownFamilyName(abs) || isMarkdownFamilyName(real)) {
     const via = isMarkdownFamilyName(abs) ? '' : ` (a link to '${real}')`;
     throw new UsageError(
-      `refusing to write the ${what} to '${output}'${via}: it is a Markdown file name, and dewmark never overwrites notes; use a name such as ${example}`,
+      `refusing to write the ${what} to '${output}'${via}: it is a Markdown file ` +
+        `name, and dewmark never overwrites notes; use a name such as ${example}`,
     );
   }
   return abs;
@@ -138,7 +140,8 @@ function writtenPath(abs: string, shown: string): string {
 
 function tooManyLinks(shown: string): UsageError {
   return new UsageError(
-    `refusing to write to '${shown}': it leads through more than ${MAX_LINKS} symbolic links (or a loop of them); give the path of a plain file with -o`,
+    `refusing to write to '${shown}': it leads through more than ${MAX_LINKS} ` +
+      `symbolic links (or a loop of them); give the path of a plain file with -o`,
   );
 }
 
@@ -151,7 +154,8 @@ export async function readOneNote(
 ): Promise<AnalysedNote> {
   if (paths.length !== 1) {
     throw new UsageError(
-      `${command} takes exactly one note (got ${paths.length === 0 ? 'none' : paths.length}), e.g. dewmark ${command} notes/ahu.md -o …`,
+      `${command} takes exactly one note (got ${paths.length === 0 ? 'none' : paths.length}), ` +
+        `e.g. dewmark ${command} notes/ahu.md -o …`,
     );
   }
   const settings = toSettings(opts);
@@ -164,7 +168,8 @@ export async function readOneNote(
   if (problems.length > 0) throw new UsageError(problems.map((p) => p.message).join('; '));
   if (inputs.length !== 1) {
     throw new UsageError(
-      `${command} takes exactly one note, but '${paths[0]}' names ${inputs.length === 0 ? 'no Markdown file' : `${inputs.length} files`}; name one file`,
+      `${command} takes exactly one note, but '${paths[0]}' ` +
+        `names ${inputs.length === 0 ? 'no Markdown file' : `${inputs.length} files`}; name one file`,
     );
   }
   const input = inputs[0]!;

@@ -85,8 +85,10 @@ const SIGNOFF = [
 
 /** The caution printed at the top and in the footer of every report. */
 export const CAUTION =
-  'Design aid only. These figures are computed from the values written in the note; they do not replace engineering judgement. ' +
-  'Verify them against the applicable codes and standards, and have the design reviewed by a licensed professional engineer before it is used for construction, purchase or commissioning.';
+  'Design aid only. These figures are computed from the values ' +
+  'written in the note; they do not replace engineering judgement. ' +
+  'Verify them against the applicable codes and standards, and have the design reviewed by a ' +
+  'licensed professional engineer before it is used for construction, purchase or commissioning.';
 
 function lineOf(lines: LineIndex, text: string, offset: number): number {
   return lines.lineCol(Math.max(0, Math.min(offset, text.length))).line;
@@ -97,12 +99,18 @@ function table(id: string, caption: string, header: string[], rows: string[][], 
   const body = rows
     .map((r) => `<tr>${r.map((c, i) => `<td${numeric[i] ? ' class="num"' : ''}>${c}</td>`).join('')}</tr>`)
     .join('\n');
-  return `<table id="${id}"><caption>${caption}</caption><thead><tr>${th}</tr></thead><tbody>\n${body}\n</tbody></table>`;
+  return (
+    `<table ` +
+    `id="${id}"><caption>${caption}</caption><thead><tr>${th}</tr></thead><tbody>\n${body}\n</tbody></table>`
+  );
 }
 
 function diagnosticsSection(a: Analysis, lines: LineIndex, text: string): string {
   if (a.diagnostics.length === 0)
-    return '<p class="none" id="diagnostics-none">No diagnostics: every statement was read and evaluated without errors or warnings.</p>';
+    return (
+      '<p class="none" id="diagnostics-none">No diagnostics: every ' +
+      'statement was read and evaluated without errors or warnings.</p>'
+    );
   const rows = a.diagnostics.map((d: CoreDiagnostic) => {
     const lc = lines.lineCol(Math.max(0, Math.min(d.span.start, text.length)));
     const snippet = text.slice(d.span.start, Math.min(d.span.end, d.span.start + 80));
@@ -143,17 +151,29 @@ function pressureSection(a: Analysis, lines: LineIndex, text: string): string {
         : '';
     return `<li><strong>${figure(basis.pa, 'pressure', a.units).text}</strong> — ${escapeHtml(basis.origin)}${escapeHtml(where)}${escapeHtml(elev)}; used by ${names.map((n) => `<span class="name">${escapeHtml(n)}</span>`).join(', ')}</li>`;
   });
-  return `<ul id="pressure-basis">${items.join('\n')}</ul><p class="small">Default when a note has no <code>site:</code> line: ${settingText}. The chart's curves are drawn for the pressure most states use.</p>`;
+  return (
+    `<ul id="pressure-basis">${items.join('\n')}</ul><p class="small">Default ` +
+    `when a note has no <code>site:</code> line: ${settingText}. The ` +
+    `chart's curves are drawn for the pressure most states use.</p>`
+  );
 }
 
 const METHOD = `
 <ul id="method">
-<li>Moist-air properties follow the psychrometrics chapter of the <cite>ASHRAE Handbook—Fundamentals</cite> (2017, SI edition, Chapter 1), treating dry air and water vapour as ideal gases (the chapter's ideal-gas relations).</li>
-<li>Saturation vapour pressure: the chapter's Hyland–Wexler correlations, over ice below 0 °C (0.01 °C, the triple point) and over liquid water above; wet-bulb temperatures below 0 °C are taken over ice and dew points below 0 °C are frost points.</li>
-<li>Humidity ratio from vapour pressure, enthalpy (dry air 0 at 0 °C, water from liquid at 0 °C; in IP units the dry-air datum is 0 °F) and specific volume from the chapter's equations; thermodynamic wet-bulb from the chapter's wet-bulb energy balance, solved by a bounded iteration.</li>
-<li>Barometric pressure from a <code>site:</code> line, a state's own <code>p=</code>/<code>elev=</code>, or the default; elevation is converted by the standard-atmosphere equation of the same chapter.</li>
-<li>Mixing: adiabatic, by dry-air mass and energy balance (humidity ratio and enthalpy mass-weighted); a volume flow is converted to dry-air mass flow at its own stream's specific volume.</li>
-<li>Processes: at one dry-air flow; total heat from the enthalpy change, split into sensible and latent parts; moisture added or removed from the humidity-ratio change.</li>
+<li>Moist-air properties follow the psychrometrics chapter of the <cite>ASHRAE Handbook—Fundamentals</cite> (2017, \
+SI edition, Chapter 1), treating dry air and water vapour as ideal gases (the chapter's ideal-gas relations).</li>
+<li>Saturation vapour pressure: the chapter's Hyland–Wexler correlations, over ice below \
+0 °C (0.01 °C, the triple point) and over liquid water above; wet-bulb temperatures \
+below 0 °C are taken over ice and dew points below 0 °C are frost points.</li>
+<li>Humidity ratio from vapour pressure, enthalpy (dry air 0 at 0 °C, water from liquid at 0 \
+°C; in IP units the dry-air datum is 0 °F) and specific volume from the chapter's equations; \
+thermodynamic wet-bulb from the chapter's wet-bulb energy balance, solved by a bounded iteration.</li>
+<li>Barometric pressure from a <code>site:</code> line, a state's own <code>p=</code>/<code>elev=</code>\
+, or the default; elevation is converted by the standard-atmosphere equation of the same chapter.</li>
+<li>Mixing: adiabatic, by dry-air mass and energy balance (humidity ratio and enthalpy mass-weighted);\
+ a volume flow is converted to dry-air mass flow at its own stream's specific volume.</li>
+<li>Processes: at one dry-air flow; total heat from the enthalpy change, split into \
+sensible and latent parts; moisture added or removed from the humidity-ratio change.</li>
 <li>Valid range of the formulation: −100 °C to 200 °C. IP figures are exact conversions of the SI results.</li>
 </ul>`;
 
@@ -168,14 +188,18 @@ export function cssString(s: string): string {
 }
 
 const CSS = `
-:root{color-scheme:light dark;--bg:#f7f4ee;--fg:#26222c;--muted:#6e6877;--card:#fffdf8;--line:#e3ddd2;--accent:#23408e;--err:#b3261e;--warn:#a05a00;--ok:#1f7a4d;--caution-bg:#fff4e0;--caution-line:#d99a2b;--code:#f1ede4}
-@media (prefers-color-scheme:dark){:root{--bg:#15151b;--fg:#ece8f2;--muted:#a59fb0;--card:#1d1c24;--line:#34313f;--accent:#8fb0ff;--err:#ff8a80;--warn:#ffb74d;--ok:#7fd6a5;--caution-bg:#2e2616;--caution-line:#a8781f;--code:#24232c}}
+:root{color-scheme:light dark;--bg:#f7f4ee;--fg:#26222c;--muted:#6e6877;--card:#fffdf8;--line:#e3ddd2;\
+--accent:#23408e;--err:#b3261e;--warn:#a05a00;--ok:#1f7a4d;--caution-bg:#fff4e0;--caution-line:#d99a2b;--code:#f1ede4}
+@media (prefers-color-scheme:dark){:root{--bg:#15151b;--fg:#ece8f2;--muted:#a59fb0;--card:#1d1c24;--line:#34313f;\
+--accent:#8fb0ff;--err:#ff8a80;--warn:#ffb74d;--ok:#7fd6a5;--caution-bg:#2e2616;--caution-line:#a8781f;--code:#24232c}}
 *{box-sizing:border-box}
-body{margin:0;overflow-wrap:break-word;background:var(--bg);color:var(--fg);font:14px/1.5 "Inter","Noto Sans","DejaVu Sans",system-ui,sans-serif;font-variant-numeric:tabular-nums}
+body{margin:0;overflow-wrap:break-word;background:var(--bg);color:var(--fg);font:14px/1.5 \
+"Inter","Noto Sans","DejaVu Sans",system-ui,sans-serif;font-variant-numeric:tabular-nums}
 main{max-width:1120px;margin:0 auto;padding:28px 24px 48px}
 h1{font-size:22px;margin:0 0 8px;font-weight:700;letter-spacing:-.01em}
 h2.part{font-size:16px;margin:32px 0 10px;padding-bottom:4px;border-bottom:2px solid var(--line);color:var(--accent)}
-.caution{background:var(--caution-bg);border-left:5px solid var(--caution-line);padding:10px 14px;border-radius:4px;margin:16px 0}
+.caution{background:var(--caution-bg);border-left:5px solid \
+var(--caution-line);padding:10px 14px;border-radius:4px;margin:16px 0}
 .summary{display:flex;gap:10px;flex-wrap:wrap;margin:12px 0}
 .summary span{background:var(--card);border:1px solid var(--line);border-radius:14px;padding:2px 12px}
 .summary .errors{border-color:var(--err);color:var(--err);font-weight:600}
@@ -187,7 +211,8 @@ th,td{border-bottom:1px solid var(--line);padding:4px 7px;vertical-align:top;tex
 th{font-weight:600;background:color-mix(in srgb,var(--card) 85%,var(--line))}
 .num{text-align:right;white-space:nowrap}
 code,pre{font-family:"DejaVu Sans Mono","Noto Sans Mono",ui-monospace,monospace;font-size:.92em}
-pre{background:var(--code);border:1px solid var(--line);border-radius:4px;padding:8px 10px;white-space:pre-wrap;overflow-wrap:anywhere}
+pre{background:var(--code);border:1px solid var(--line);border-radius:4px;\
+padding:8px 10px;white-space:pre-wrap;overflow-wrap:anywhere}
 :not(pre)>code{background:var(--code);border-radius:3px;padding:0 3px;overflow-wrap:anywhere}
 img,svg{max-width:100%;height:auto}
 #docinfo,#signoff{width:100%}
@@ -195,7 +220,8 @@ img,svg{max-width:100%;height:auto}
 #signoff td{height:34px}
 #signoff td:first-child{width:14em}
 .note-body{background:var(--card);border:1px solid var(--line);border-radius:6px;padding:4px 22px 12px}
-.note-body h1{font-size:20px;margin:18px 0 8px}.note-body h2{font-size:17px;margin:22px 0 8px;color:var(--accent)}.note-body h3{font-size:15px}
+.note-body h1{font-size:20px;margin:18px 0 8px}.note-body h2{font-size:17px;\
+margin:22px 0 8px;color:var(--accent)}.note-body h3{font-size:15px}
 .note-body table{width:auto}
 .note-body blockquote{margin:8px 0;padding:0 12px;border-left:4px solid var(--line);color:var(--muted)}
 .dm-results{margin:-4px 0 14px;padding:6px 10px;border-left:4px solid var(--accent);background:var(--bg)}
@@ -211,7 +237,8 @@ img,svg{max-width:100%;height:auto}
 .dm-claim.pass{color:var(--ok)}.dm-claim.fail{color:var(--warn);font-weight:650}
 .dm-failed th{color:var(--err)}
 .dm-problems{margin:4px 0;padding-left:20px;font-size:12.5px}
-.dm-error strong{color:var(--err)}.dm-warning strong{color:var(--warn)}.dm-info strong,.dm-acknowledged strong{color:var(--muted)}
+.dm-error strong{color:var(--err)}.dm-warning strong{color:var(--warn)}\
+.dm-info strong,.dm-acknowledged strong{color:var(--muted)}
 .dm-inline{font-size:.9em;color:var(--muted)}
 .dm-inline .dm-claim.fail{color:var(--warn)}
 .dm-missing-image{display:inline-block;border:1px dashed var(--warn);padding:2px 6px;color:var(--warn)}
@@ -224,7 +251,8 @@ img,svg{max-width:100%;height:auto}
 .small{font-size:12px;color:var(--muted)}
 footer{margin-top:36px;color:var(--muted);font-size:12px;border-top:1px solid var(--line);padding-top:10px}
 @media print{
-:root{--bg:#fff;--fg:#000;--muted:#4a4650;--card:#fff;--line:#bbb;--accent:#1a2f6b;--code:#f4f4f4;--caution-bg:#fff;color-scheme:light}
+:root{--bg:#fff;--fg:#000;--muted:#4a4650;--card:#fff;--line:#bbb;\
+--accent:#1a2f6b;--code:#f4f4f4;--caution-bg:#fff;color-scheme:light}
 body{font-size:9.5pt;line-height:1.4;background:#fff;color:#000}
 main{max-width:none;margin:0;padding:0}
 h1{font-size:16pt}
@@ -276,7 +304,11 @@ function signoffSection(fm: FrontMatter | null): string {
     (r) => `<tr><td>${r.role}</td><td>${escapeHtml(get(r.by))}</td><td></td><td>${escapeHtml(get(r.on))}</td></tr>`,
   ).join('');
   const caption = `Revision ${revision ? escapeHtml(revision) : '______'}${filled ? ' — names and dates from the note\u2019s front matter; signatures by hand' : ''}`;
-  return `<table class="signoff" id="signoff"><caption>${caption}</caption><thead><tr><th scope="col">role</th><th scope="col">name</th><th scope="col">signature</th><th scope="col">date</th></tr></thead><tbody>${rows}</tbody></table>`;
+  return (
+    `<table class="signoff" id="signoff"><caption>${caption}</caption><thead><tr><th ` +
+    `scope="col">role</th><th scope="col">name</th><th scope="col">signature</th><th ` +
+    `scope="col">date</th></tr></thead><tbody>${rows}</tbody></table>`
+  );
 }
 
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
@@ -302,7 +334,8 @@ function changesSection(ch: ReportChanges): string {
   const count = (status: ItemChange['status']) => ch.items!.filter((i) => i.status === status).length;
   const rows: string[] = [];
   for (const it of ch.items) {
-    const who = `${it.kind} <span class="name">${escapeHtml(it.name)}</span> <span class="dm-line">line ${it.line}</span>`;
+    const who =
+      `${it.kind} <span class="name">${escapeHtml(it.name)}</span> ` + `<span class="dm-line">line ${it.line}</span>`;
     if (it.status !== 'changed') {
       rows.push(
         `<tr><td>${who}</td><td colspan="4">${it.status === 'added' ? 'added' : 'removed'} since ${rev}</td></tr>`,
@@ -318,8 +351,16 @@ function changesSection(ch: ReportChanges): string {
         `<tr><td>${who}</td><td>—</td><td></td><td></td><td>${it.claims.map((c) => escapeHtml(claimChangeText(c))).join('<br>')}</td></tr>`,
       );
   }
-  const summary = `Compared with ${at}: ${plural(count('changed'), 'statement', 'statements')} changed (${plural(figures, 'figure', 'figures')}), ${count('added')} added, ${count('removed')} removed. Figures are compared as displayed, as <code>dewmark diff</code> compares them.`;
-  return `<p id="changes-summary">${summary}</p><table id="changes" class="dm-table"><thead><tr><th scope="col">statement</th><th scope="col">figure</th><th scope="col" class="num">at ${rev}</th><th scope="col" class="num">now</th><th scope="col">claims on it (as written: verdict then → now)</th></tr></thead><tbody>${rows.join('')}</tbody></table>`;
+  const summary =
+    `Compared with ${at}: ${plural(count('changed'), 'statement', 'statements')} changed ` +
+    `(${plural(figures, 'figure', 'figures')}), ${count('added')} added, ${count('removed')} ` +
+    `removed. Figures are compared as displayed, as <code>dewmark diff</code> compares them.`;
+  return (
+    `<p id="changes-summary">${summary}</p><table id="changes" class="dm-table"><thead><tr><th ` +
+    `scope="col">statement</th><th scope="col">figure</th><th scope="col" ` +
+    `class="num">at ${rev}</th><th scope="col" class="num">now</th><th scope="col">claims on it ` +
+    `(as written: verdict then → now)</th></tr></thead><tbody>${rows.join('')}</tbody></table>`
+  );
 }
 
 /** The whole report as one HTML document (no scripts, no external resources). */
@@ -385,7 +426,8 @@ export function renderReportHtml(input: ReportInput, opts: ReportOptions = {}): 
 <tr><th scope="row">note</th><td><code id="note-path">${escapeHtml(path)}</code></td></tr>
 <tr><th scope="row">note SHA-256</th><td><code id="note-digest">${digest}</code></td></tr>
 <tr><th scope="row">report made</th><td id="report-date">${escapeHtml(generated)}</td></tr>
-<tr><th scope="row">results</th><td>${a.units} units (${unitsWhy}); made by dewmark${opts.version ? ` ${escapeHtml(opts.version)}` : ''}</td></tr>
+<tr><th scope="row">results</th><td>${a.units} units (${unitsWhy}); made \
+by dewmark${opts.version ? ` ${escapeHtml(opts.version)}` : ''}</td></tr>
 ${frontMatterRows(body.frontMatter)}
 </tbody></table>
 <p class="caution" id="caution" role="note"><strong>Caution.</strong> ${escapeHtml(CAUTION)}</p>
@@ -395,7 +437,8 @@ ${frontMatterRows(body.frontMatter)}
 ${signoffSection(body.frontMatter)}
 </section>
 ${opts.changes ? `<section aria-labelledby="h-changes"><h2 class="part" id="h-changes">Changes since ${escapeHtml(opts.changes.revision)}</h2>\n${changesSection(opts.changes)}\n</section>\n` : ''}<section aria-labelledby="h-note"><h2 class="part" id="h-note">The note, with its computed results</h2>
-<p class="small">Each air block is followed by what it computes; each statement written in the text is followed by its figures in brackets. A claim reads <em>as written → computed</em>, ✓ within its band or ✗ outside it.</p>
+<p class="small">Each air block is followed by what it computes; each statement written in the text is followed \
+by its figures in brackets. A claim reads <em>as written → computed</em>, ✓ within its band or ✗ outside it.</p>
 <article class="note-body" id="note">
 ${body.html}
 </article>
@@ -417,7 +460,8 @@ ${pressureSection(a, lines, text)}
 <section aria-labelledby="h-method"><h2 class="part" id="h-method">Method and sources</h2>
 ${METHOD}
 </section>
-<footer><p>Made by dewmark${opts.version ? ` ${escapeHtml(opts.version)}` : ''} from <code>${escapeHtml(path)}</code> (SHA-256 ${digest.slice(0, 12)}…) on ${escapeHtml(generated)}. ${escapeHtml(CAUTION)}</p></footer>
+<footer><p>Made by dewmark${opts.version ? ` ${escapeHtml(opts.version)}` : ''} from <code>${escapeHtml(path)}</code>\
+ (SHA-256 ${digest.slice(0, 12)}…) on ${escapeHtml(generated)}. ${escapeHtml(CAUTION)}</p></footer>
 </main>
 </body>
 </html>
@@ -459,7 +503,8 @@ export async function runReport(
   if (opts.since !== undefined) {
     if (note.abs === null)
       throw new UsageError(
-        '--since compares the note with its version at a git revision, and standard input has none; give the note by its path',
+        '--since compares the note with its version at a git revision, ' +
+          'and standard input has none; give the note by its path',
       );
     try {
       const then = await noteAtRevision(opts.since, note.abs, note.path, io.cwd, maxNoteBytes(opts));
@@ -500,7 +545,8 @@ export async function runReport(
     wroteLine(
       opts.output!,
       note.path,
-      `${errors} error${errors === 1 ? '' : 's'}, ${note.analysis.diagnostics.length - errors} other diagnostic${note.analysis.diagnostics.length - errors === 1 ? '' : 's'}`,
+      `${errors} error${errors === 1 ? '' : 's'}, ${note.analysis.diagnostics.length - errors} ` +
+        `other diagnostic${note.analysis.diagnostics.length - errors === 1 ? '' : 's'}`,
     ),
   );
   return exitCodeOf(note.analysis);
@@ -518,7 +564,8 @@ export function registerReport(
     prog
       .command('report')
       .description(
-        'write one self-contained HTML review report of a note: the whole note with its results, claims, diagnostics, chart and sign-off block (docs/report.md); exit 1 if the note has errors',
+        'write one self-contained HTML review report of a note: the whole note with its results, ' +
+          'claims, diagnostics, chart and sign-off block (docs/report.md); exit 1 if the note has errors',
       )
       .argument('<note>', 'one Markdown note (or - for standard input)')
       .option(

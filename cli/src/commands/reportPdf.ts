@@ -41,7 +41,9 @@ export function findChromium(
     if (isExecutable(option)) return { ok: true, path: option };
     return {
       ok: false,
-      message: `--chromium '${option}' is not an executable file; give the path of a Chromium or Chrome program (e.g. /usr/bin/chromium)`,
+      message:
+        `--chromium '${option}' is not an executable file; give the ` +
+        `path of a Chromium or Chrome program (e.g. /usr/bin/chromium)`,
     };
   }
   const fromEnv = env[CHROMIUM_ENV];
@@ -49,7 +51,9 @@ export function findChromium(
     if (isExecutable(fromEnv)) return { ok: true, path: fromEnv };
     return {
       ok: false,
-      message: `${CHROMIUM_ENV}='${fromEnv}' is not an executable file; set it to the path of a Chromium or Chrome program, or unset it`,
+      message:
+        `${CHROMIUM_ENV}='${fromEnv}' is not an executable file; set ` +
+        `it to the path of a Chromium or Chrome program, or unset it`,
     };
   }
   const dirs = (env.PATH ?? '').split(delimiter).filter(Boolean);
@@ -60,7 +64,11 @@ export function findChromium(
     }
   return {
     ok: false,
-    message: `--pdf prints the report with a headless Chromium or Chrome, and none was found (looked for ${BROWSER_NAMES.join(', ')} on PATH); install one (e.g. apt-get install chromium), or give its path with --chromium PATH or ${CHROMIUM_ENV}=PATH — or leave out --pdf and print the HTML report from any browser`,
+    message:
+      `--pdf prints the report with a headless Chromium or Chrome, and none ` +
+      `was found (looked for ${BROWSER_NAMES.join(', ')} on PATH); install one ` +
+      `(e.g. apt-get install chromium), or give its path with --chromium PATH ` +
+      `or ${CHROMIUM_ENV}=PATH — or leave out --pdf and print the HTML report from any browser`,
   };
 }
 
@@ -138,7 +146,9 @@ export async function printPdf(
         .slice(-1)[0];
       return {
         ok: false,
-        message: `'${chromium}' did not print a PDF (exit ${run.code})${last ? `: ${last}` : ''}; check that it is a Chromium or Chrome program that runs headless`,
+        message:
+          `'${chromium}' did not print a PDF (exit ${run.code})${last ? `: ${last}` : ''}; ` +
+          `check that it is a Chromium or Chrome program that runs headless`,
       };
     }
     return { ok: true, pdf };

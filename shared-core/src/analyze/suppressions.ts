@@ -33,7 +33,10 @@ interface IgnoreComment {
   span: Span;
   codes: string[];
   justification: string;
-  /** `line`: the diagnostics starting on the line that begins at `from`; `region`: those in the region starting at `from`. */
+  /**
+   * `line`: the diagnostics starting on the line that begins at `from`; `region`: those in the
+   * region starting at `from`.
+   */
   scope: 'line' | 'region';
   from: number;
   used: boolean;
@@ -77,8 +80,10 @@ function ignoreComments(analysis: Analysis, text: string, problems: CoreDiagnost
           span,
           message:
             codes.length === 0
-              ? `'# ${word}' names no diagnostic code; write the code it acknowledges, e.g. '# ${word} claim-mismatch' (the codes are in docs/notation.md)`
-              : `'# ${word}': '${bad[0]}' is not a diagnostic code (lower-case words joined by hyphens, e.g. claim-mismatch); separate codes with commas and put a reason after ' -- '`,
+              ? `'# ${word}' names no diagnostic code; write the code it acknowledges, ` +
+                `e.g. '# ${word} claim-mismatch' (the codes are in docs/notation.md)`
+              : `'# ${word}': '${bad[0]}' is not a diagnostic code (lower-case words joined by hyphens, ` +
+                `e.g. claim-mismatch); separate codes with commas and put a reason after ' -- '`,
         });
         continue;
       }
@@ -186,7 +191,9 @@ export function applyDiagnosticPolicy(analysis: Analysis, text: string): void {
       code: IGNORE_COMMENT,
       severity: 'info',
       span: c.span,
-      message: `this ignore comment acknowledges ${c.codes.join(', ')}, but there is no such diagnostic where it applies; remove it, or correct the code (the codes are in docs/notation.md)`,
+      message:
+        `this ignore comment acknowledges ${c.codes.join(', ')}, but there is no such diagnostic ` +
+        `where it applies; remove it, or correct the code (the codes are in docs/notation.md)`,
     });
   }
   let all = kept;

@@ -20,7 +20,10 @@ export const CHART_GROUPINGS: readonly ChartGrouping[] = ['section', 'block', 'a
 
 /** One chart of a note: a set of statements drawn together. */
 export interface ChartCase {
-  /** Stable within a note: `all`, `chart:NAME`, `section:N` (0 = before the first heading) or `block:N` (1-based fence number). */
+  /**
+   * Stable within a note: `all`, `chart:NAME`, `section:N` (0 = before the first heading) or
+   * `block:N` (1-based fence number).
+   */
   key: string;
   /** What the chart shows, in words: the heading, `chart summer`, `block at line 12`. */
   title: string;
@@ -46,14 +49,18 @@ export function chartOption(info: string | undefined): { name: string | null; pr
     if (!CHART_NAME.test(value))
       return {
         name: null,
-        problem: `\`${w}\` in the fence's info string: a chart name starts with a letter, then letters, digits, _ or - (\`\`\`air chart=summer); the block is drawn with its section.`,
+        problem:
+          `\`${w}\` in the fence's info string: a chart name starts with a letter, then letters, ` +
+          `digits, _ or - (\`\`\`air chart=summer); the block is drawn with its section.`,
       };
     name = value;
   }
   return { name, problem: null };
 }
 
-/** 1-based lines of offsets asked in increasing order (each call counts on from the last; a smaller offset starts over). */
+/**
+ * 1-based lines of offsets asked in increasing order (each call counts on from the last; a smaller offset starts over).
+ */
 function lineCounter(text: string | undefined): (offset: number) => number | undefined {
   if (text === undefined) return () => undefined;
   let pos = 0;

@@ -220,7 +220,10 @@ export function chartDataFromAnalysis(analysis: Analysis, options: FromAnalysisO
   };
 }
 
-/** The apparatus dew point of a process that removes moisture, on the saturation curve at its entering state's pressure. */
+/**
+ * The apparatus dew point of a process that removes moisture, on the saturation curve at its
+ * entering state's pressure.
+ */
 function adpOf(analysis: Analysis, pr: ProcessResult): { db: number; w: number } | undefined {
   const db = pr.apparatusDewPointC;
   if (db === null || db === undefined || !Number.isFinite(db)) return undefined;
@@ -284,8 +287,8 @@ export interface CaseChart extends SizedChart {
 
 /**
  * The charts of a note, one per case of the grouping (see {@link chartCases}): each titled
- * `TITLE — case title` (just TITLE when there is one chart) and with its own id prefix (`PREFIX-1`, `PREFIX-2`…, so they can share a
- * page). A note with nothing to draw gives one chart of the whole note (empty but for its curves).
+ * `TITLE — case title` (just TITLE when there is one chart) and with its own id prefix (`PREFIX-1`, `PREFIX-2`…, so
+ * they can share a page). A note with nothing to draw gives one chart of the whole note (empty but for its curves).
  */
 export function renderChartCases(
   analysis: Analysis,

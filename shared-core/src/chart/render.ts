@@ -96,7 +96,8 @@ function drawCurves(ctx: Ctx, curves: ChartCurve[], cls: (c: ChartCurve) => stri
     const d = c.runs.map(pathOf).join('');
     if (d)
       ctx.out.push(
-        `<path class="${cls(c)}" data-family="${c.family}" data-value="${label(c.value).replace('\u2212', '-')}" d="${d}"/>`,
+        `<path class="${cls(c)}" data-family="${c.family}" ` +
+          `data-value="${label(c.value).replace('\u2212', '-')}" d="${d}"/>`,
       );
   }
 }
@@ -131,7 +132,8 @@ function axes(ctx: Ctx): void {
     grid.push(`M${n(x)} ${n(plot.top)}V${n(plot.bottom)}`);
     ticks.push(`<line class="dmc-axis" x1="${n(x)}" y1="${n(plot.bottom)}" x2="${n(x)}" y2="${n(plot.bottom + 5)}"/>`);
     ticks.push(
-      `<text class="dmc-tick" data-axis="db" x="${n(x)}" y="${n(plot.bottom + 18)}" text-anchor="middle">${label(t)}</text>`,
+      `<text class="dmc-tick" data-axis="db" x="${n(x)}" ` +
+        `y="${n(plot.bottom + 18)}" text-anchor="middle">${label(t)}</text>`,
     );
   }
   for (const w of stepsIn(wLo, wHi, wStep)) {
@@ -139,7 +141,8 @@ function axes(ctx: Ctx): void {
     grid.push(`M${n(plot.left)} ${n(y)}H${n(plot.right)}`);
     ticks.push(`<line class="dmc-axis" x1="${n(plot.left - 5)}" y1="${n(y)}" x2="${n(plot.left)}" y2="${n(y)}"/>`);
     ticks.push(
-      `<text class="dmc-tick" data-axis="w" x="${n(plot.left - 8)}" y="${n(y + 3.5)}" text-anchor="end">${label(w)}</text>`,
+      `<text class="dmc-tick" data-axis="w" x="${n(plot.left - 8)}" ` +
+        `y="${n(y + 3.5)}" text-anchor="end">${label(w)}</text>`,
     );
   }
   out.push(`<path class="dmc-grid" d="${grid.join('')}"/>`);
@@ -149,11 +152,14 @@ function axes(ctx: Ctx): void {
   const tSym = displaySymbol(u.temperature);
   const wSym = displaySymbol(u.humidityRatio);
   out.push(
-    `<text class="dmc-axis-title" data-axis-title="db" x="${n((plot.left + plot.right) / 2)}" y="${n(plot.bottom + 40)}" text-anchor="middle">Dry-bulb temperature (${escapeXml(tSym)})</text>`,
+    `<text class="dmc-axis-title" data-axis-title="db" x="${n((plot.left + plot.right) / 2)}" ` +
+      `y="${n(plot.bottom + 40)}" text-anchor="middle">Dry-bulb temperature (${escapeXml(tSym)})</text>`,
   );
   const yMid = (plot.top + plot.bottom) / 2;
   out.push(
-    `<text class="dmc-axis-title" data-axis-title="w" transform="translate(${n(plot.left - 50)} ${n(yMid)}) rotate(-90)" text-anchor="middle">Humidity ratio (${escapeXml(wSym)} dry air)</text>`,
+    `<text class="dmc-axis-title" data-axis-title="w" ` +
+      `transform="translate(${n(plot.left - 50)} ${n(yMid)}) rotate(-90)" ` +
+      `text-anchor="middle">Humidity ratio (${escapeXml(wSym)} dry air)</text>`,
   );
   out.push('</g>');
 }
@@ -175,12 +181,16 @@ function otherPressurePoints(data: ChartData): ChartPoint[] {
 function captionLines(data: ChartData): string[] {
   const pText = formatQuantity(data.pressurePa, 'pressure', data.units).text;
   const lines = [
-    `Curves drawn for ${pText}${data.pressureText ? ` \u2014 ${data.pressureText}` : ''}; ${data.units} units. Moist-air properties after ASHRAE Handbook\u2014Fundamentals Ch. 1 (ideal gas; over ice below ${formatQuantity(0, 'temperature', data.units, { digits: 0 }).text}).`,
+    `Curves drawn for ${pText}${data.pressureText ? ` \u2014 ${data.pressureText}` : ''}; ${data.units} ` +
+      `units. Moist-air properties after ASHRAE Handbook\u2014Fundamentals Ch. 1 (ideal gas; ` +
+      `over ice below ${formatQuantity(0, 'temperature', data.units, { digits: 0 }).text}).`,
   ];
   const others = otherPressurePoints(data);
   if (others.length > 0) {
     lines.push(
-      `${others.map((p) => p.name).join(', ')} ${others.length === 1 ? 'is' : 'are'} at another pressure: placed by dry-bulb and humidity ratio; read its other properties from the note, not from these curves.`,
+      `${others.map((p) => p.name).join(', ')} ${others.length === 1 ? 'is' : 'are'} ` +
+        `at another pressure: placed by dry-bulb and humidity ratio; ` +
+        `read its other properties from the note, not from these curves.`,
     );
   }
   return lines;
@@ -191,7 +201,8 @@ function flagLines(data: ChartData): string[] {
   items.push(
     ...data.infeasible.map(
       (f) =>
-        `${f.name}${f.line ? ` (line ${f.line})` : ''} \u2014 ${f.plotted ? 'marked on the chart' : 'not plotted'}: ${f.reason}`,
+        `${f.name}${f.line ? ` (line ${f.line})` : ''} ` +
+        `\u2014 ${f.plotted ? 'marked on the chart' : 'not plotted'}: ${f.reason}`,
     ),
   );
   const byName = new Set(data.points.map((p) => p.name));
@@ -199,7 +210,8 @@ function flagLines(data: ChartData): string[] {
     const missing = [pr.from, pr.to].filter((s) => !byName.has(s));
     if (missing.length > 0)
       items.push(
-        `process ${pr.name}${pr.line ? ` (line ${pr.line})` : ''} \u2014 not drawn: ${missing.join(' and ')} not plotted.`,
+        `process ${pr.name}${pr.line ? ` (line ${pr.line})` : ''} ` +
+          `\u2014 not drawn: ${missing.join(' and ')} not plotted.`,
       );
     else if (pr.flagged)
       items.push(
@@ -210,7 +222,8 @@ function flagLines(data: ChartData): string[] {
     const missing = m.streams.filter((s) => !byName.has(s));
     if (missing.length > 0)
       items.push(
-        `mix ${m.name}${m.line ? ` (line ${m.line})` : ''} \u2014 mixing line not drawn: ${missing.join(' and ')} not plotted.`,
+        `mix ${m.name}${m.line ? ` (line ${m.line})` : ''} \u2014 ` +
+          `mixing line not drawn: ${missing.join(' and ')} not plotted.`,
       );
   }
   return items;
@@ -235,7 +248,12 @@ function describe(data: ChartData, layout: ChartLayout): string {
   const u = chartUnits(data.units);
   const r = layout.range;
   const parts = [
-    `Psychrometric chart at ${formatQuantity(data.pressurePa, 'pressure', data.units).text}: dry-bulb temperature from ${formatQuantity(r.dbMin, 'temperature', data.units).text} to ${formatQuantity(r.dbMax, 'temperature', data.units).text} across, humidity ratio from ${label(fromSI(r.wMin, u.humidityRatio))} to ${formatQuantity(r.wMax, 'humidityRatio', data.units).text} up, with the saturation curve, relative-humidity curves from 10 % to 90 %, wet-bulb, enthalpy and specific-volume lines.`,
+    `Psychrometric chart at ${formatQuantity(data.pressurePa, 'pressure', data.units).text}: ` +
+      `dry-bulb temperature from ${formatQuantity(r.dbMin, 'temperature', data.units).text} ` +
+      `to ${formatQuantity(r.dbMax, 'temperature', data.units).text} across, ` +
+      `humidity ratio from ${label(fromSI(r.wMin, u.humidityRatio))} ` +
+      `to ${formatQuantity(r.wMax, 'humidityRatio', data.units).text} up, with the saturation curve, ` +
+      `relative-humidity curves from 10 % to 90 %, wet-bulb, enthalpy and specific-volume lines.`,
   ];
   if (data.points.length > 0) {
     parts.push(
@@ -726,23 +744,31 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
   const out = ctx.out;
   const range = full.range;
   out.push(
-    `<svg xmlns="http://www.w3.org/2000/svg" class="dmc" role="img" aria-labelledby="${id}-title ${id}-desc" width="${full.width}" height="${height}" viewBox="0 0 ${full.width} ${height}" data-pressure-pa="${n(data.pressurePa)}" data-units="${data.units}" data-db-min="${range.dbMin}" data-db-max="${range.dbMax}" data-w-min="${range.wMin}" data-w-max="${range.wMax}" data-plot="${plot.left} ${plot.top} ${plot.right} ${plot.bottom}">`,
+    `<svg xmlns="http://www.w3.org/2000/svg" class="dmc" role="img" ` +
+      `aria-labelledby="${id}-title ${id}-desc" width="${full.width}" height="${height}" ` +
+      `viewBox="0 0 ${full.width} ${height}" data-pressure-pa="${n(data.pressurePa)}" ` +
+      `data-units="${data.units}" data-db-min="${range.dbMin}" ` +
+      `data-db-max="${range.dbMax}" data-w-min="${range.wMin}" data-w-max="${range.wMax}" ` +
+      `data-plot="${plot.left} ${plot.top} ${plot.right} ${plot.bottom}">`,
   );
   out.push(`<title id="${id}-title">${escapeXml(m.title)}</title>`);
   out.push(`<desc id="${id}-desc">${escapeXml(describe(data, full))}</desc>`);
   out.push(`<style${m.nonce}>${chartCss()}</style>`);
   out.push(
-    `<defs><clipPath id="${id}-clip"><rect x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/></clipPath></defs>`,
+    `<defs><clipPath id="${id}-clip"><rect x="${n(plot.left)}" y="${n(plot.top)}" ` +
+      `width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/></clipPath></defs>`,
   );
   out.push(`<rect class="dmc-page" x="0" y="0" width="${full.width}" height="${height}"/>`);
   out.push(
-    `<text class="dmc-heading" x="${n(plot.left)}" y="24">${escapeXml(fitText(m.title, 15, full.width - plot.left - 10))}</text>`,
+    `<text class="dmc-heading" x="${n(plot.left)}" ` +
+      `y="24">${escapeXml(fitText(m.title, 15, full.width - plot.left - 10))}</text>`,
   );
   out.push(
     `<text class="dmc-sub" x="${n(plot.left)}" y="41">${escapeXml(`${formatQuantity(data.pressurePa, 'pressure', data.units).text} \u00b7 ${data.units} \u00b7 dry-bulb against humidity ratio`)}</text>`,
   );
   out.push(
-    `<rect class="dmc-panel" x="${n(plot.left)}" y="${n(plot.top)}" width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/>`,
+    `<rect class="dmc-panel" x="${n(plot.left)}" y="${n(plot.top)}" ` +
+      `width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/>`,
   );
 
   out.push(`<g clip-path="url(#${id}-clip)">`);
@@ -761,7 +787,8 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
   out.push('<g class="dmc-line-labels">');
   for (const f of placed.family) {
     out.push(
-      `<text class="dmc-lbl ${f.cls}" data-box="${boxAttr(f.box)}" x="${n(f.at.x)}" y="${n(f.at.y + f.dy)}" text-anchor="${f.anchor}">${escapeXml(f.text)}</text>`,
+      `<text class="dmc-lbl ${f.cls}" data-box="${boxAttr(f.box)}" x="${n(f.at.x)}" ` +
+        `y="${n(f.at.y + f.dy)}" text-anchor="${f.anchor}">${escapeXml(f.text)}</text>`,
     );
   }
   out.push('</g>');
@@ -769,13 +796,15 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
   out.push(`<g class="dmc-overlay" clip-path="url(#${id}-clip)">`);
   for (const s of m.shrs) {
     out.push(
-      `<path class="dmc-shrline" data-supply="${escapeXml(s.supply)}" data-room="${escapeXml(s.room)}" d="${s.runs.map(pathOf).join('')}"/>`,
+      `<path class="dmc-shrline" data-supply="${escapeXml(s.supply)}" ` +
+        `data-room="${escapeXml(s.room)}" d="${s.runs.map(pathOf).join('')}"/>`,
     );
   }
   for (const a of m.adps) {
     if (a.run.length > 0)
       out.push(
-        `<path class="dmc-coilline" data-process="${escapeXml(a.processes.join(' '))}" d="${a.run.map(pathOf).join('')}"/>`,
+        `<path class="dmc-coilline" data-process="${escapeXml(a.processes.join(' '))}" ` +
+          `d="${a.run.map(pathOf).join('')}"/>`,
       );
   }
   for (const r of m.mixRuns)
@@ -783,7 +812,8 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
   for (const { process: pr, start, tip, base, ux, uy } of m.arrows) {
     const flagged = pr.flagged ? ' dmc-flagged' : '';
     out.push(
-      `<g class="dmc-process-group" data-process="${escapeXml(pr.name)}" data-from="${escapeXml(pr.from)}" data-to="${escapeXml(pr.to)}">`,
+      `<g class="dmc-process-group" data-process="${escapeXml(pr.name)}" ` +
+        `data-from="${escapeXml(pr.from)}" data-to="${escapeXml(pr.to)}">`,
     );
     out.push(`<path class="dmc-process${flagged}" d="M${n(start.x)} ${n(start.y)}L${n(base.x)} ${n(base.y)}"/>`);
     out.push(
@@ -802,7 +832,8 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
     out.push(`<circle class="dmc-adp" cx="${n(a.px.x)}" cy="${n(a.px.y)}" r="${ADP_RADIUS}"/>`);
     if (lp)
       out.push(
-        `<text class="dmc-adp-label" data-box="${boxAttr(lp.box)}" x="${n(lp.box.x + lp.box.w / 2)}" y="${n(lp.box.y + lp.box.h / 2 + 3.5)}" text-anchor="middle">${escapeXml(a.text)}</text>`,
+        `<text class="dmc-adp-label" data-box="${boxAttr(lp.box)}" x="${n(lp.box.x + lp.box.w / 2)}" ` +
+          `y="${n(lp.box.y + lp.box.h / 2 + 3.5)}" text-anchor="middle">${escapeXml(a.text)}</text>`,
       );
     out.push('</g>');
   });
@@ -824,7 +855,9 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
     const lp = tag?.placed;
     if (lp?.leader) out.push(leaderLine(px, lp.box));
     out.push(
-      `<circle class="dmc-marker dmc-marker-${kind}" data-name="${escapeXml(p.name)}" data-kind="${p.kind}"${p.fog ? ' data-infeasible="fog"' : ''} data-db="${p.db}" data-w="${p.w}" cx="${n(px.x)}" cy="${n(px.y)}" r="${MARKER_RADIUS}"/>`,
+      `<circle class="dmc-marker dmc-marker-${kind}" data-name="${escapeXml(p.name)}" ` +
+        `data-kind="${p.kind}"${p.fog ? ' data-infeasible="fog"' : ''} data-db="${p.db}" ` +
+        `data-w="${p.w}" cx="${n(px.x)}" cy="${n(px.y)}" r="${MARKER_RADIUS}"/>`,
     );
     if (p.fog) {
       const k = MARKER_RADIUS * 0.6;
@@ -834,10 +867,13 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
     }
     if (tag && lp) {
       out.push(
-        `<rect class="dmc-tag${p.kind === 'mix' ? ' dmc-tag-mix' : ''}${p.fog ? ' dmc-tag-fog' : ''}" data-box="${boxAttr(lp.box)}" x="${n(lp.box.x)}" y="${n(lp.box.y)}" width="${n(lp.box.w)}" height="${n(lp.box.h)}" rx="9"/>`,
+        `<rect class="dmc-tag${p.kind === 'mix' ? ' dmc-tag-mix' : ''}${p.fog ? ' dmc-tag-fog' : ''}" ` +
+          `data-box="${boxAttr(lp.box)}" x="${n(lp.box.x)}" y="${n(lp.box.y)}" ` +
+          `width="${n(lp.box.w)}" height="${n(lp.box.h)}" rx="9"/>`,
       );
       out.push(
-        `<text class="dmc-tagtext" x="${n(lp.box.x + lp.box.w / 2)}" y="${n(lp.box.y + lp.box.h / 2 + 4)}" text-anchor="middle">${escapeXml(tag.group.text)}</text>`,
+        `<text class="dmc-tagtext" x="${n(lp.box.x + lp.box.w / 2)}" ` +
+          `y="${n(lp.box.y + lp.box.h / 2 + 4)}" text-anchor="middle">${escapeXml(tag.group.text)}</text>`,
       );
     }
     out.push('</g>');
@@ -849,7 +885,8 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
     if (!name) continue;
     const { text, cls, box } = name;
     out.push(
-      `<text class="${cls}" data-box="${boxAttr(box)}" x="${n(box.x + box.w / 2)}" y="${n(box.y + 10)}" text-anchor="middle">${escapeXml(text)}</text>`,
+      `<text class="${cls}" data-box="${boxAttr(box)}" x="${n(box.x + box.w / 2)}" ` +
+        `y="${n(box.y + 10)}" text-anchor="middle">${escapeXml(text)}</text>`,
     );
   }
   out.push('</g>');
@@ -857,7 +894,8 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
   legend(ctx, cap.legendY, cap.extras);
   cap.captions.forEach((line, i) => {
     out.push(
-      `<text class="dmc-caption" data-caption="${i}" x="${n(plot.left)}" y="${n(cap.captionY + i * 15)}">${escapeXml(line)}</text>`,
+      `<text class="dmc-caption" data-caption="${i}" x="${n(plot.left)}" ` +
+        `y="${n(cap.captionY + i * 15)}">${escapeXml(line)}</text>`,
     );
   });
   if (cap.flags.length > 0) {
@@ -866,7 +904,8 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
     );
     cap.flags.forEach((line, i) => {
       out.push(
-        `<text class="dmc-flag-item" x="${n(plot.left + 12)}" y="${n(cap.flagsY + 20 + i * 15)}">${escapeXml(line)}</text>`,
+        `<text class="dmc-flag-item" x="${n(plot.left + 12)}" ` +
+          `y="${n(cap.flagsY + 20 + i * 15)}">${escapeXml(line)}</text>`,
       );
     });
     out.push('</g>');

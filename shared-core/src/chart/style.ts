@@ -62,7 +62,8 @@ function block(vars: Readonly<Record<string, string>>): string {
 export function chartCss(): string {
   const v = (name: string): string => `var(--dm-chart-${name},var(--dmc-${name}))`;
   return [
-    `.dmc{${block(LIGHT_THEME)}font-family:"Inter","Noto Sans","DejaVu Sans",system-ui,sans-serif;font-variant-numeric:tabular-nums}`,
+    `.dmc{${block(LIGHT_THEME)}font-family:"Inter","Noto Sans","DejaVu ` +
+      `Sans",system-ui,sans-serif;font-variant-numeric:tabular-nums}`,
     `@media (prefers-color-scheme:dark){.dmc{${block(DARK_THEME)}}}`,
     `.dmc .dmc-page{fill:${v('page')}}`,
     `.dmc .dmc-panel{fill:${v('panel')};stroke:${v('grid')};stroke-width:1}`,
@@ -156,5 +157,9 @@ export function vscodeThemeCss(): string {
     .join('')}}`;
   const own = (vars: Readonly<Record<string, string>>): string =>
     block(Object.fromEntries(OWN_COLOURS.map((k) => [k, vars[k]!])));
-  return `${mapped}\nbody.vscode-light .dmc,body.vscode-high-contrast-light .dmc{${own(LIGHT_THEME)}}\nbody.vscode-dark .dmc,body.vscode-high-contrast:not(.vscode-high-contrast-light) .dmc{${own(DARK_THEME)}}`;
+  return (
+    `${mapped}\nbody.vscode-light .dmc,body.vscode-high-contrast-light ` +
+    `.dmc{${own(LIGHT_THEME)}}\nbody.vscode-dark ` +
+    `.dmc,body.vscode-high-contrast:not(.vscode-high-contrast-light) .dmc{${own(DARK_THEME)}}`
+  );
 }

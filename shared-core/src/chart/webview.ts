@@ -59,7 +59,9 @@ function checkNonce(nonce: string): string {
 /** The webview page: CSP `default-src 'none'`, nonce'd style and script, the chart inline. */
 export function chartWebviewHtml(opts: ChartWebviewOptions): string {
   const nonce = checkNonce(opts.nonce);
-  const csp = `default-src 'none'; style-src 'nonce-${nonce}'; script-src 'nonce-${nonce}'; img-src data:; base-uri 'none'; form-action 'none'`;
+  const csp =
+    `default-src 'none'; style-src 'nonce-${nonce}'; script-src ` +
+    `'nonce-${nonce}'; img-src data:; base-uri 'none'; form-action 'none'`;
   const script = `(function () {
   var root = document.getElementById('dewmark-chart');
   var info = document.getElementById('dewmark-chart-info');
@@ -97,9 +99,11 @@ export function chartWebviewHtml(opts: ChartWebviewOptions): string {
 <meta name="viewport" content="width=device-width, initial-scale=1">
 <title>${escapeXml(opts.title ?? 'Psychrometric chart')}</title>
 <style nonce="${nonce}">${vscodeThemeCss()}
-body{margin:0;padding:10px;background:var(--vscode-editor-background,transparent);color:var(--vscode-editor-foreground,inherit)}
+body{margin:0;padding:10px;background:var(--vscode-editor-background,\
+transparent);color:var(--vscode-editor-foreground,inherit)}
 #dewmark-chart svg{display:block;max-width:100%;height:auto}
-#dewmark-chart-info{margin:0 0 6px;font:12px/1.4 var(--vscode-font-family,sans-serif);color:var(--vscode-descriptionForeground,inherit)}</style>
+#dewmark-chart-info{margin:0 0 6px;font:12px/1.4 var(--vscode-font-family,\
+sans-serif);color:var(--vscode-descriptionForeground,inherit)}</style>
 </head>
 <body>
 <p id="dewmark-chart-info">${escapeXml(opts.info ?? '')}</p>

@@ -80,7 +80,9 @@ export function checkClaim(
   const diagnostic: CoreDiagnostic = {
     code: 'claim-mismatch',
     severity: 'warning',
-    message: `stale claim ${written}: computed ${key}=${computedText} ${context}, ${band}; update it to ${computedText} or check the figures it follows from`,
+    message:
+      `stale claim ${written}: computed ${key}=${computedText} ${context}, ${band}; ` +
+      `update it to ${computedText} or check the figures it follows from`,
     span: q.quantity.number.span,
     data: {
       key,

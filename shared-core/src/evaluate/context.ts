@@ -118,7 +118,10 @@ export class EvalContext {
       this.report({
         code: 'duplicate-name',
         severity: 'error',
-        message: `'${def.name}' is already defined by the ${first.def.keyword} statement${this.atLine(first.def.span)}; rename this one (e.g. '${def.name}_2') or remove one of the two definitions`,
+        message:
+          `'${def.name}' is already defined by the ${first.def.keyword} ` +
+          `statement${this.atLine(first.def.span)}; rename this one ` +
+          `(e.g. '${def.name}_2') or remove one of the two definitions`,
         span: nameNode.span,
         related: [{ span: first.def.span, message: `first definition of '${def.name}'` }],
         data: { name: def.name },
@@ -160,7 +163,8 @@ export class EvalContext {
         severity: 'error',
         message: self
           ? `'${ref.text}' refers to the statement that defines it; refer to a state defined above`
-          : `'${ref.text}' is used here but defined further down${this.atLine(later.span)}; move its definition above this statement (statements are evaluated in document order)`,
+          : `'${ref.text}' is used here but defined further down${this.atLine(later.span)}; move ` +
+            `its definition above this statement (statements are evaluated in document order)`,
         span: ref.span,
         related: [{ span: later.span, message: `'${ref.text}' is defined here` }],
         data: { name: ref.text },

@@ -181,7 +181,10 @@ export function deriveLeaving(
       ctx.report({
         code: 'unknown-key',
         severity: 'error',
-        message: `'${w.text}' is not a kind of equipment a process knows; ${suggestion ? `did you mean ${suggestion}? ` : ''}write steam (${PROCESS_WORDS.steam}) or adiabatic (${PROCESS_WORDS.adiabatic}), or key=value`,
+        message:
+          `'${w.text}' is not a kind of equipment a process ` +
+          `knows; ${suggestion ? `did you mean ${suggestion}? ` : ''}write steam ` +
+          `(${PROCESS_WORDS.steam}) or adiabatic (${PROCESS_WORDS.adiabatic}), or key=value`,
         span: w.span,
         data: suggestion ? { key: w.text, suggestion } : { key: w.text },
       });
@@ -191,7 +194,9 @@ export function deriveLeaving(
       ctx.report({
         code: 'spec-conflict',
         severity: 'error',
-        message: `${what}: '${word.text}' and '${w.text}' name two different humidifiers; one process is one piece of equipment: keep one word`,
+        message:
+          `${what}: '${word.text}' and '${w.text}' name two different ` +
+          `humidifiers; one process is one piece of equipment: keep one word`,
         span: w.span,
         related: [{ span: word.span, message: `'${word.text}'` }],
       });
@@ -212,7 +217,10 @@ export function deriveLeaving(
     ctx.report({
       code: 'spec-missing',
       severity: 'error',
-      message: `${what}: eff= is the total efficiency of a fan (with dp_fan=, e.g. dp_fan=750Pa eff=0.62) or the saturation effectiveness of an adiabatic humidifier (with the word adiabatic, e.g. adiabatic eff=0.85); add the one you mean`,
+      message:
+        `${what}: eff= is the total efficiency of a fan (with dp_fan=, e.g. dp_fan=750Pa ` +
+        `eff=0.62) or the saturation effectiveness of an adiabatic humidifier ` +
+        `(with the word adiabatic, e.g. adiabatic eff=0.85); add the one you mean`,
       span: eff.prop.span,
     });
     return null;
@@ -222,7 +230,10 @@ export function deriveLeaving(
     ctx.report({
       code: 'spec-conflict',
       severity: 'error',
-      message: `${what}: ${keyText(first![1].key)} describes ${FORM_WORDS[first![0]]} and ${keyText(second![1].key)} ${FORM_WORDS[second![0]]}; one process is one piece of equipment: keep one specification, or split it into two processes with a state between them`,
+      message:
+        `${what}: ${keyText(first![1].key)} describes ${FORM_WORDS[first![0]]} ` +
+        `and ${keyText(second![1].key)} ${FORM_WORDS[second![0]]}; one process is one piece of ` +
+        `equipment: keep one specification, or split it into two processes with a state between them`,
       span: second![1].prop.span,
       related: [{ span: first![1].prop.span, message: `${keyText(first![1].key)}: ${FORM_WORDS[first![0]]}` }],
     });
@@ -233,7 +244,9 @@ export function deriveLeaving(
     ctx.report({
       code: 'spec-missing',
       severity: 'error',
-      message: `${what}: p_steam= is the steam supply of a steam humidifier; add the word steam and a target (e.g. ${ctx.units === 'IP' ? 'steam w=39.6gr/lb p_steam=29psia' : 'steam w=5.65g/kg p_steam=200kPa'})`,
+      message:
+        `${what}: p_steam= is the steam supply of a steam humidifier; add the word steam and a target ` +
+        `(e.g. ${ctx.units === 'IP' ? 'steam w=39.6gr/lb p_steam=29psia' : 'steam w=5.65g/kg p_steam=200kPa'})`,
       span: ps.prop.span,
     });
     return null;
@@ -255,7 +268,9 @@ export function deriveLeaving(
         ctx.report({
           code: 'spec-conflict',
           severity: 'error',
-          message: `${what}: heat= and dt= both fix the leaving temperature; keep one (the leaving dry-bulb can be written as a claim, db=…)`,
+          message:
+            `${what}: heat= and dt= both fix the leaving temperature; keep ` +
+            `one (the leaving dry-bulb can be written as a claim, db=…)`,
           span: dt.prop.span,
           related: [{ span: heat.prop.span, message: 'heat=' }],
         });
@@ -264,7 +279,9 @@ export function deriveLeaving(
       if (heat) {
         if (massFlow === null)
           return missing(
-            `heat=${heat.q.quantity.number.text}${heat.q.unitText} needs the dry-air flow to find the leaving temperature: add m= or q=, or let the process leave a mix (or a state) that carries a flow`,
+            `heat=${heat.q.quantity.number.text}${heat.q.unitText} needs ` +
+              `the dry-air flow to find the leaving temperature: add m= or q=, ` +
+              `or let the process leave a mix (or a state) that carries a flow`,
             heat.prop.span,
           );
         const state = guard(() => modelValue(ctx, what, sensibleByDuty(a, heat.q.si, massFlow), props, fallback));
@@ -287,7 +304,8 @@ export function deriveLeaving(
         );
       if (!eff)
         return missing(
-          `a fan needs its total efficiency (electrical input to air power): add eff= (e.g. dp_fan=${dp.q.quantity.number.text}${dp.q.unitText} eff=0.62)`,
+          `a fan needs its total efficiency (electrical input to air power): add ` +
+            `eff= (e.g. dp_fan=${dp.q.quantity.number.text}${dp.q.unitText} eff=0.62)`,
           dp.prop.span,
         );
       const o = { dpPa: dp.q.si, efficiency: eff.q.si, motorEfficiency: motor ? motor.q.si : null };
@@ -308,12 +326,14 @@ export function deriveLeaving(
       const bf = get('bf');
       if (!adp)
         return missing(
-          `bf= needs the apparatus dew point: add adp= (e.g. ${exampleIn('adp', ctx.units)} bf=${bf!.q.quantity.number.text}${bf!.q.unitText})`,
+          `bf= needs the apparatus dew point: add adp= (e.g. ${exampleIn('adp', ctx.units)} ` +
+            `bf=${bf!.q.quantity.number.text}${bf!.q.unitText})`,
           bf!.prop.span,
         );
       if (!bf)
         return missing(
-          `adp= needs the bypass factor (the share of air that misses the coil; contact factor 1 − bf): add bf= (e.g. adp=${adp.q.quantity.number.text}${adp.q.unitText} bf=0.1)`,
+          `adp= needs the bypass factor (the share of air that misses the coil; contact factor ` +
+            `1 − bf): add bf= (e.g. adp=${adp.q.quantity.number.text}${adp.q.unitText} bf=0.1)`,
           adp.prop.span,
         );
       const r = guard(() => modelValue(ctx, what, coilFromAdp(a, adp.q.si, bf.q.si), props, fallback));
@@ -332,7 +352,8 @@ export function deriveLeaving(
       const target = props.find((p) => p.key === 'w' || p.key === 'rh');
       if (!target)
         return missing(
-          `a steam humidifier needs its target: add w= (e.g. steam ${ctx.units === 'IP' ? 'w=39.6gr/lb' : 'w=5.65g/kg'}) or rh= (e.g. steam rh=40%)`,
+          `a steam humidifier needs its target: add w= (e.g. ` +
+            `steam ${ctx.units === 'IP' ? 'w=39.6gr/lb' : 'w=5.65g/kg'}) or rh= (e.g. steam rh=40%)`,
           word!.span,
         );
       const ps = get('p_steam');
@@ -362,7 +383,8 @@ export function deriveLeaving(
       const target = eff ?? props.find((p) => p.key === 'rh' || p.key === 'db' || p.key === 'w');
       if (!target)
         return missing(
-          `an adiabatic humidifier needs its saturation effectiveness or a target: add eff= (e.g. adiabatic eff=0.85), rh= or db=`,
+          `an adiabatic humidifier needs its saturation effectiveness ` +
+            `or a target: add eff= (e.g. adiabatic eff=0.85), rh= or db=`,
           word!.span,
         );
       const r = guard(() => {
@@ -383,7 +405,8 @@ export function deriveLeaving(
                   {
                     code: 'unreachable',
                     key: 'w',
-                    message: `the target humidity ratio is below the entering one: evaporating water only adds moisture`,
+                    message:
+                      `the target humidity ratio is below the entering ` + `one: evaporating water only adds moisture`,
                     fix: 'give a higher target',
                   },
                   props,
@@ -433,14 +456,16 @@ export function deriveLeaving(
       const defs = props.filter((p) => isDefiningKey(p.key));
       if (defs.length === 0)
         return missing(
-          `to define ${toName}, give the equipment (heat=, dt=, dp_fan= eff=, adp= bf=, steam w=…, adiabatic eff=…) or ${toName}'s dry-bulb (db=) and, for a coil, its rh= or w=`,
+          `to define ${toName}, give the equipment (heat=, dt=, dp_fan= eff=, adp= bf=, steam ` +
+            `w=…, adiabatic eff=…) or ${toName}'s dry-bulb (db=) and, for a coil, its rh= or w=`,
           props.find((p) => STATE_KEY_SET.has(p.key))?.prop.span ?? fallback,
         );
       if (defs.length === 1) {
         const only = defs[0]!;
         if (only.key !== 'db') {
           return missing(
-            `${only.key}= alone does not fix ${toName}: add db= (the leaving dry-bulb with ${only.key}= fixes it), or give the equipment (steam, adiabatic, adp= bf=…)`,
+            `${only.key}= alone does not fix ${toName}: add db= (the leaving dry-bulb ` +
+              `with ${only.key}= fixes it), or give the equipment (steam, adiabatic, adp= bf=…)`,
             only.prop.span,
           );
         }
@@ -455,7 +480,9 @@ export function deriveLeaving(
         ctx.report({
           code: 'bad-reference',
           severity: 'error',
-          message: `${what}: ${writtenList(refs)} are ${refs.length} properties of ${toName} taken from other states, but two fix a state and a reference always defines; write the others as figures (claims)`,
+          message:
+            `${what}: ${writtenList(refs)} are ${refs.length} properties of ${toName} taken from other ` +
+            `states, but two fix a state and a reference always defines; write the others as figures (claims)`,
           span: spanUnion(...refs.slice(2).map((d) => d.prop.span)),
         });
         return null;
@@ -511,7 +538,9 @@ export function deriveLeaving(
     ctx.report({
       code: 'out-of-range',
       severity: 'error',
-      message: `${what}: ${toName} would have a property without a finite value (bone-dry air has no dew point); Dewmark needs every property finite: give a humidity ratio above zero`,
+      message:
+        `${what}: ${toName} would have a property without a finite value (bone-dry air has ` +
+        `no dew point); Dewmark needs every property finite: give a humidity ratio above zero`,
       span: spanUnion(...out.used.map((p) => p.prop.span)),
     });
     return null;
@@ -533,7 +562,11 @@ export function deriveLeaving(
     ctx.report({
       code: 'bad-reference',
       severity: 'error',
-      message: `${what}: ${p.key}=${p.q.quantity.number.text} would be a claim about ${toName}, which ${out.equipment.spec || 'the specification'} already fixes, and a reference always defines; write ${p.key}= as a figure to check it, or drop the equipment to define ${toName} from its properties`,
+      message:
+        `${what}: ${p.key}=${p.q.quantity.number.text} would be a claim ` +
+        `about ${toName}, which ${out.equipment.spec || 'the specification'} already ` +
+        `fixes, and a reference always defines; write ${p.key}= as a figure to ` +
+        `check it, or drop the equipment to define ${toName} from its properties`,
       span: p.prop.span,
     });
   }

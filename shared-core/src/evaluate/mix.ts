@@ -157,14 +157,17 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
       claimProps.props,
       state,
       () =>
-        `from the mass and energy balance of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`,
+        `from the mass and energy balance ` +
+        `of ${streams.map((s, i) => `${s.name} ${formatSig(fractions[i]! * 100, 3)} %`).join(' + ')}`,
     );
   }
   if (totalClaim) result.claims = [...result.claims, totalClaim];
   return result;
 }
 
-/** Step 1: every stream's name (a computed state defined above) and its amount, each reported when it cannot be read. */
+/**
+ * Step 1: every stream's name (a computed state defined above) and its amount, each reported when it cannot be read.
+ */
 function readStreams(ctx: EvalContext, stmt: MixStatement, index: number, what: string): StreamsRead {
   const out: StreamsRead = { streams: [], amounts: [], amountFailed: false, failed: false };
   for (const s of stmt.streams) {
@@ -246,7 +249,9 @@ function checkAmounts(
   return amountFailed || !total || applyTotal(ctx, amounts, total, what);
 }
 
-/** Fractions are not negative and add to 100 % (within half a unit of the last digit of each); false after a diagnostic. */
+/**
+ * Fractions are not negative and add to 100 % (within half a unit of the last digit of each); false after a diagnostic.
+ */
 function checkFractionSum(ctx: EvalContext, amounts: Amount[], what: string): boolean {
   const sum = amounts.reduce((a, s) => a + s.si, 0);
   const slack = amounts.reduce((a, s) => a + s.halfResolution, 0) + 1e-9;
@@ -264,7 +269,9 @@ function checkFractionSum(ctx: EvalContext, amounts: Amount[], what: string): bo
     ctx.report({
       code: 'mix-fractions',
       severity: 'error',
-      message: `${what}: the fractions add to ${formatSig(sum * 100, 6)} %, not 100 %; change them so they add to 100 % (the fractions are of dry-air mass)`,
+      message:
+        `${what}: the fractions add to ${formatSig(sum * 100, 6)} %, not 100 %; ` +
+        `change them so they add to 100 % (the fractions are of dry-air mass)`,
       span: spanUnion(...amounts.map((s) => s.amountSpan)),
       data: { sumPct: sum * 100 },
     });
@@ -321,7 +328,10 @@ function mixPressure(ctx: EvalContext, streams: StreamRead[], fractions: number[
   ctx.report({
     code: 'pressure-mismatch',
     severity: 'warning',
-    message: `${what}: the streams are at different pressures (${ctx.fig(pMin, 'pressure')} to ${ctx.fig(pMax, 'pressure')}); the mix is computed at their mean, ${ctx.fig(pMean, 'pressure')}. Put all streams at one pressure (one site: line)`,
+    message:
+      `${what}: the streams are at different pressures (${ctx.fig(pMin, 'pressure')} ` +
+      `to ${ctx.fig(pMax, 'pressure')}); the mix is computed at their ` +
+      `mean, ${ctx.fig(pMean, 'pressure')}. Put all streams at one pressure (one site: line)`,
     span: spanUnion(...streams.map((s) => s.span)),
   });
   return {
@@ -345,7 +355,10 @@ function mixBalance(streams: StreamRead[], fractions: number[]): { w: number; h:
   return { w, h };
 }
 
-/** total= beside streams given as flows (no rest): a claim about their sum (mass flows, or volume flows each at its own state). */
+/**
+ * total= beside streams given as flows (no rest): a claim about their sum (mass flows, or volume
+ * flows each at its own state).
+ */
 function totalFlowClaim(ctx: EvalContext, total: Total, streams: StreamRead[], flows: DryAirFlows): ClaimResult {
   const { mass, totalMass } = flows;
   const computed =
@@ -356,7 +369,8 @@ function totalFlowClaim(ctx: EvalContext, total: Total, streams: StreamRead[], f
     total.q,
     computed,
     () =>
-      `as the sum of the streams' ${total.kind === 'massFlow' ? 'dry-air mass flows' : 'volume flows, each at its own state'}`,
+      `as the sum of the ` +
+      `streams' ${total.kind === 'massFlow' ? 'dry-air mass flows' : 'volume flows, each at its own state'}`,
   );
   if (diagnostic) ctx.report(diagnostic);
   return claim;
@@ -404,7 +418,10 @@ function solveMix(
       ctx.report({
         code: 'supersaturated',
         severity: 'warning',
-        message: `${what}: the mixed state lies in the fog region (W = ${ctx.fig(w, 'humidityRatio')} is above saturation at the mixed dry-bulb ${ctx.fig(solved.state.db, 'temperature')}): water would condense as mist in the mixing box. Preheat the colder stream, or change the proportions`,
+        message:
+          `${what}: the mixed state lies in the fog region (W = ${ctx.fig(w, 'humidityRatio')} is above ` +
+          `saturation at the mixed dry-bulb ${ctx.fig(solved.state.db, 'temperature')}): water would ` +
+          `condense as mist in the mixing box. Preheat the colder stream, or change the proportions`,
         span: fallback,
         related: streams.map((s) => ({ span: s.span, message: `stream ${s.name}` })),
       });
@@ -422,7 +439,9 @@ function readTotal(ctx: EvalContext, prop: PropertyNode, what: string, stmt: Mix
     ctx.report({
       code: 'bad-reference',
       severity: 'error',
-      message: `${what}: total= takes a figure, not a reference; write the total flow, e.g. ${exampleIn('total', ctx.units)}`,
+      message:
+        `${what}: total= takes a figure, not a reference; write ` +
+        `the total flow, e.g. ${exampleIn('total', ctx.units)}`,
       span: prop.ref.span,
     });
     return null;
@@ -437,7 +456,9 @@ function readTotal(ctx: EvalContext, prop: PropertyNode, what: string, stmt: Mix
     ctx.report({
       code: 'missing-unit',
       severity: 'error',
-      message: `${what}: total=${value.number.text} has no unit; the total is ${kinds}, e.g. total=${value.number.text}${ctx.units === 'IP' ? 'lb/h' : 'kg/s'}`,
+      message:
+        `${what}: total=${value.number.text} has no unit; the total is ${kinds}, ` +
+        `e.g. total=${value.number.text}${ctx.units === 'IP' ? 'lb/h' : 'kg/s'}`,
       span: value.number.span,
     });
     return null;
@@ -448,7 +469,9 @@ function readTotal(ctx: EvalContext, prop: PropertyNode, what: string, stmt: Mix
     ctx.report({
       code: 'unknown-unit',
       severity: 'error',
-      message: `${what}: '${value.unit.text}' in total= is not a flow unit; the total is ${kinds}${sug ? ` (did you mean total=${value.number.text}${sug}?)` : ''}`,
+      message:
+        `${what}: '${value.unit.text}' in total= is not a flow unit; the total ` +
+        `is ${kinds}${sug ? ` (did you mean total=${value.number.text}${sug}?)` : ''}`,
       span: value.unit.span,
       data: sug ? { suggestion: sug } : {},
     });
@@ -463,7 +486,9 @@ function readTotal(ctx: EvalContext, prop: PropertyNode, what: string, stmt: Mix
     ctx.report({
       code: 'out-of-range',
       severity: 'error',
-      message: `${what}: total=${value.number.text}${value.unit.text} is not a positive flow; give the total as a positive figure`,
+      message:
+        `${what}: total=${value.number.text}${value.unit.text} is ` +
+        `not a positive flow; give the total as a positive figure`,
       span: value.span,
     });
     return null;
@@ -500,7 +525,8 @@ function resolveRest(ctx: EvalContext, amounts: Amount[], total: Total | null, w
   if (given.every((g) => g.kind === 'fraction')) {
     if (sum > 1 + slack)
       return restError(
-        `the fractions given add to ${formatSig(sum * 100, 6)} %, which leaves nothing for ${rest.name} rest; make them add to less than 100 %`,
+        `the fractions given add to ${formatSig(sum * 100, 6)} %, which leaves ` +
+          `nothing for ${rest.name} rest; make them add to less than 100 %`,
         spanUnion(...given.map((g) => g.amountSpan)),
       );
     rest.kind = 'fraction';
@@ -509,20 +535,27 @@ function resolveRest(ctx: EvalContext, amounts: Amount[], total: Total | null, w
   }
   if (!total)
     return restError(
-      `${rest.name} rest is what the other streams leave of the total: add total= after the streams (a mass flow such as ${exampleIn('total', ctx.units)}, or a volume flow such as ${ctx.units === 'IP' ? 'total=7,200cfm' : 'total=3.4m3/s'})`,
+      `${rest.name} rest is what the other streams leave of the total: add total= ` +
+        `after the streams (a mass flow such as ${exampleIn('total', ctx.units)}, or a ` +
+        `volume flow such as ${ctx.units === 'IP' ? 'total=7,200cfm' : 'total=3.4m3/s'})`,
       rest.amountSpan,
     );
   const other = given.find((g) => g.kind !== total.kind);
   if (other) {
     return restError(
-      `the streams are given as ${other.kind === 'massFlow' ? 'mass flows' : 'volume flows'} but total= is a ${total.kind === 'massFlow' ? 'mass flow' : 'volume flow'}; give the total in the streams' kind so the rest can be taken from it`,
+      `the streams are given as ${other.kind === 'massFlow' ? 'mass flows' : 'volume flows'} ` +
+        `but total= is a ${total.kind === 'massFlow' ? 'mass flow' : 'volume flow'}; ` +
+        `give the total in the streams' kind so the rest can be taken from it`,
       spanUnion(other.amountSpan, total.q.quantity.span),
     );
   }
   const left = total.si - sum;
   if (!(left > slack)) {
     return restError(
-      `the streams given add to ${flowText(ctx, sum, total.kind)}, which leaves ${left < -slack ? 'less than ' : ''}nothing of total=${total.q.quantity.number.text}${total.q.unitText} for ${rest.name}; make the total larger than the streams given`,
+      `the streams given add to ${flowText(ctx, sum, total.kind)}, ` +
+        `which leaves ${left < -slack ? 'less than ' : ''}nothing of ` +
+        `total=${total.q.quantity.number.text}${total.q.unitText} ` +
+        `for ${rest.name}; make the total larger than the streams given`,
       spanUnion(rest.amountSpan, total.q.quantity.span),
     );
   }
@@ -538,7 +571,10 @@ function applyTotal(ctx: EvalContext, amounts: Amount[], total: Total, what: str
     ctx.report({
       code: 'mix-rest',
       severity: 'error',
-      message: `${what}: with fractions, give total= as a dry-air mass flow (${exampleIn('total', ctx.units)}): the fractions are of dry-air mass, so a volume total would need a state to convert at; or give the streams as volume flows`,
+      message:
+        `${what}: with fractions, give total= as a dry-air mass flow ` +
+        `(${exampleIn('total', ctx.units)}): the fractions are of dry-air mass, so a volume ` +
+        `total would need a state to convert at; or give the streams as volume flows`,
       span: total.q.quantity.span,
     });
     return false;
@@ -571,7 +607,10 @@ function readAmount(
     ctx.report({
       code: 'missing-unit',
       severity: 'error',
-      message: `${what}: the amount ${amount.number.text} of ${streamName} has no unit; write a fraction (${amount.number.text}%), a mass flow (${amount.number.text}${ctx.units === 'IP' ? 'lb/h' : 'kg/s'}) or a volume flow (${amount.number.text}${ctx.units === 'IP' ? 'cfm' : 'm3/s'})`,
+      message:
+        `${what}: the amount ${amount.number.text} of ${streamName} has no unit; write a fraction ` +
+        `(${amount.number.text}%), a mass flow (${amount.number.text}${ctx.units === 'IP' ? 'lb/h' : 'kg/s'}) ` +
+        `or a volume flow (${amount.number.text}${ctx.units === 'IP' ? 'cfm' : 'm3/s'})`,
       span: amount.number.span,
     });
     return null;
@@ -590,7 +629,9 @@ function readAmount(
       severity: 'error',
       message: def
         ? `${what}: '${u}' after ${streamName} is ${dimensionWords(def.dimension)} unit; a stream amount is ${kinds}`
-        : `${what}: '${u}' after ${streamName} is not a unit Dewmark knows; ${sug ? `did you mean ${streamName} ${amount.number.text}${sug}? ` : ''}a stream amount is ${kinds}`,
+        : `${what}: '${u}' after ${streamName} is not a unit Dewmark ` +
+          `knows; ${sug ? `did you mean ${streamName} ${amount.number.text}${sug}? ` : ''}a ` +
+          `stream amount is ${kinds}`,
       span: amount.unit.span,
       data: sug ? { suggestion: sug } : {},
     });

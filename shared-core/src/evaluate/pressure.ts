@@ -7,7 +7,10 @@ import type { ReadProp } from './props';
 import { problemOf } from './problems';
 import { problemTexts } from './figures';
 
-/** Site pressures outside this band are accepted but flagged as unusual (common practice: 30–110 kPa covers inhabited sites). */
+/**
+ * Site pressures outside this band are accepted but flagged as
+ * unusual (common practice: 30–110 kPa covers inhabited sites).
+ */
 const USUAL_MIN_PA = 30_000;
 const USUAL_MAX_PA = 110_000;
 
@@ -29,7 +32,9 @@ export function pressureFromProps(
     ctx.report({
       code: 'pressure-conflict',
       severity: 'warning',
-      message: `both p= and elev= set the pressure here; p=${p.q.quantity.number.text}${p.q.unitText} is used and elev= is ignored, remove one of them`,
+      message:
+        `both p= and elev= set the pressure here; p=${p.q.quantity.number.text}${p.q.unitText} ` +
+        `is used and elev= is ignored, remove one of them`,
       span: elev.prop.span,
       related: [{ span: p.prop.span, message: 'the pressure used' }],
     });
@@ -40,7 +45,9 @@ export function pressureFromProps(
       ctx.report({
         code: 'out-of-range',
         severity: 'error',
-        message: `p=${p.q.quantity.number.text}${p.q.unitText} is not a positive pressure; write the absolute barometric pressure, e.g. ${ctx.units === 'IP' ? 'p=14.696psia' : 'p=101.325kPa'}`,
+        message:
+          `p=${p.q.quantity.number.text}${p.q.unitText} is not a positive pressure; write the ` +
+          `absolute barometric pressure, e.g. ${ctx.units === 'IP' ? 'p=14.696psia' : 'p=101.325kPa'}`,
         span: p.q.quantity.span,
       });
       return null;
@@ -75,7 +82,10 @@ export function pressureFromProps(
       ctx.report({
         code: 'out-of-range',
         severity: 'error',
-        message: `elev=${elev.q.quantity.number.text}${elev.q.unitText} gives no usable standard-atmosphere pressure; give an elevation between ${ctx.fig(-5000, 'length', { limit: true })} and ${ctx.fig(11000, 'length', { limit: true })}, or the pressure itself with p=`,
+        message:
+          `elev=${elev.q.quantity.number.text}${elev.q.unitText} gives no usable standard-atmosphere ` +
+          `pressure; give an elevation between ${ctx.fig(-5000, 'length', { limit: true })} ` +
+          `and ${ctx.fig(11000, 'length', { limit: true })}, or the pressure itself with p=`,
         span: elev.q.quantity.span,
       });
       return null;
@@ -86,7 +96,9 @@ export function pressureFromProps(
       source,
       span: elev.prop.span,
       elevationM: z,
-      describe: `${label}: elev=${elev.q.quantity.number.text}${elev.q.unitText} → ${ctx.fig(pa, 'pressure')} (standard atmosphere)`,
+      describe:
+        `${label}: elev=${elev.q.quantity.number.text}${elev.q.unitText} → ${ctx.fig(pa, 'pressure')} ` +
+        `(standard atmosphere)`,
       origin: `${label}: elev=${elev.q.quantity.number.text}${elev.q.unitText} (standard atmosphere)`,
     };
   }
@@ -98,7 +110,11 @@ function warnUnusual(ctx: EvalContext, pa: number, span: Span, written: string):
   ctx.report({
     code: 'unusual-pressure',
     severity: 'warning',
-    message: `${written} is ${ctx.fig(pa, 'pressure')}, outside the ${ctx.fig(USUAL_MIN_PA, 'pressure', { limit: true })} to ${ctx.fig(USUAL_MAX_PA, 'pressure', { limit: true })} of inhabited sites; check the unit (${ctx.units === 'IP' ? 'psia, not inHg or psi × 1000?' : 'kPa, not Pa or bar?'})`,
+    message:
+      `${written} is ${ctx.fig(pa, 'pressure')}, outside ` +
+      `the ${ctx.fig(USUAL_MIN_PA, 'pressure', { limit: true })} ` +
+      `to ${ctx.fig(USUAL_MAX_PA, 'pressure', { limit: true })} of inhabited sites; check the ` +
+      `unit (${ctx.units === 'IP' ? 'psia, not inHg or psi × 1000?' : 'kPa, not Pa or bar?'})`,
     span,
   });
 }

@@ -175,7 +175,10 @@ function specificationUnused(ctx: EvalContext, stmt: ProcessStatement, props: Re
   ctx.report({
     code: 'spec-conflict',
     severity: 'error',
-    message: `${what}: ${stmt.to.text} is already defined${where}, so this process cannot define it from ${specText(stmt) || 'its specification'}. Give the leaving state a new name to have the process define it, or remove the specification to check the process between the two states`,
+    message:
+      `${what}: ${stmt.to.text} is already defined${where}, so this process cannot define it ` +
+      `from ${specText(stmt) || 'its specification'}. Give the leaving state a new name to have the ` +
+      `process define it, or remove the specification to check the process between the two states`,
     span: spanOf,
     ...(def ? { related: [{ span: def.span, message: `${stmt.to.text} is defined here` }] } : {}),
   });
@@ -188,7 +191,10 @@ export interface Flow {
   prop: ReadProp | null;
 }
 
-/** Step 2: m=, or q= at the entering state, or the flow the entering state carries (a mix by flows, a state a process defined). */
+/**
+ * Step 2: m=, or q= at the entering state, or the flow the entering state carries (a mix by flows,
+ * a state a process defined).
+ */
 function processFlow(ctx: EvalContext, props: ReadProp[], from: StateResult, what: string): Flow {
   const a = from.state!;
   const m = props.find((p) => p.key === 'm');
@@ -209,7 +215,9 @@ function processFlow(ctx: EvalContext, props: ReadProp[], from: StateResult, wha
       ctx.report({
         code: 'out-of-range',
         severity: 'error',
-        message: `${what}: ${flowProp.key}=${flowProp.q.quantity.number.text}${flowProp.q.unitText} is not a positive flow; give the dry-air flow through the process as a positive figure`,
+        message:
+          `${what}: ${flowProp.key}=${flowProp.q.quantity.number.text}${flowProp.q.unitText} is ` +
+          `not a positive flow; give the dry-air flow through the process as a positive figure`,
         span: flowProp.q.quantity.span,
       });
       return { massFlow: null, volumeFlow: null, prop: flowProp };
@@ -243,7 +251,10 @@ export function buildProcessResult(
     ctx.report({
       code: 'pressure-mismatch',
       severity: 'warning',
-      message: `${what}: ${from.name} is at ${ctx.fig(from.pressure.pa, 'pressure')} and ${to.name} at ${ctx.fig(to.pressure.pa, 'pressure')}; a process is taken at one pressure, so the figures are approximate. Put both states at one pressure`,
+      message:
+        `${what}: ${from.name} is at ${ctx.fig(from.pressure.pa, 'pressure')} ` +
+        `and ${to.name} at ${ctx.fig(to.pressure.pa, 'pressure')}; a process is taken at ` +
+        `one pressure, so the figures are approximate. Put both states at one pressure`,
       span: stmt.to.span,
       related: [{ span: stmt.from.span, message: `${from.name}: ${from.pressure.describe}` }],
     });
@@ -282,7 +293,10 @@ export function buildProcessResult(
     ctx.report({
       code: 'out-of-range',
       severity: 'error',
-      message: `${what}: the dry-air flow ${fp ? `${fp.key}=${fp.q.quantity.number.text}${fp.q.unitText}` : ctx.fig(massFlow, 'massFlow')} is too large to compute the heat rates with; give a realistic flow`,
+      message:
+        `${what}: the dry-air ` +
+        `flow ${fp ? `${fp.key}=${fp.q.quantity.number.text}${fp.q.unitText}` : ctx.fig(massFlow, 'massFlow')} ` +
+        `is too large to compute the heat rates with; give a realistic flow`,
       span: fp ? fp.q.quantity.span : stmt.keywordSpan,
     });
     massFlow = null;
@@ -337,8 +351,14 @@ function balanceCheck(
     code: 'impossible-process',
     severity: 'error',
     message: heating
-      ? `${what}: moisture is removed (${ctx.fig(-dw, 'humidityRatio', { difference: true })}) while the air is ${b.db - a.db > DT_STILL ? 'heated' : 'kept at the same temperature'}; a coil can only dry air by cooling part of it below its dew point (${ctx.fig(a.dp, 'temperature')} for ${from.name}), which lowers the dry-bulb. Check ${to.name}: its dry-bulb should be lower, or its humidity ratio higher`
-      : `${what}: ${to.name} is too dry for its temperature: the line from ${from.name} through ${to.name} never meets the saturation curve, so no coil surface temperature can give this state (coil air leaves between the entering state and saturation at the surface). Lower ${to.name}'s dry-bulb or raise its humidity ratio`,
+      ? `${what}: moisture is removed (${ctx.fig(-dw, 'humidityRatio', { difference: true })}) while the air ` +
+        `is ${b.db - a.db > DT_STILL ? 'heated' : 'kept at the same temperature'}; a coil can only dry air ` +
+        `by cooling part of it below its dew point (${ctx.fig(a.dp, 'temperature')} for ${from.name}), which ` +
+        `lowers the dry-bulb. Check ${to.name}: its dry-bulb should be lower, or its humidity ratio higher`
+      : `${what}: ${to.name} is too dry for its temperature: the line from ${from.name} ` +
+        `through ${to.name} never meets the saturation curve, so no coil surface temperature ` +
+        `can give this state (coil air leaves between the entering state and saturation ` +
+        `at the surface). Lower ${to.name}'s dry-bulb or raise its humidity ratio`,
     span: stmt.to.span,
     related: [{ span: stmt.from.span, message: `entering state ${from.name}` }],
     data: { from: from.name, to: to.name },
@@ -392,7 +412,8 @@ function processClaims(ctx: EvalContext, claims: ReadProp[], r: ProcessResult, w
         severity: 'warning',
         message: needsFlow
           ? `${what}: ${c.key}= cannot be checked without a dry-air flow; add m=… (mass) or q=… (volume at ${r.from})`
-          : `${what}: the sensible heat ratio is not defined here (the total heat is about zero, or sensible and latent heat act in opposite directions, as in an evaporative humidifier); remove shr=`,
+          : `${what}: the sensible heat ratio is not defined here (the total heat is about zero, or sensible ` +
+            `and latent heat act in opposite directions, as in an evaporative humidifier); remove shr=`,
         span: c.prop.keySpan,
       });
       continue;

@@ -155,7 +155,9 @@ export function readQuantity(
         diagnostic: {
           code: 'syntax',
           severity: 'error',
-          message: `the tolerance in ${whereText(prop.key, q)}±${t.number.text} must be a positive figure; write it like ±2`,
+          message:
+            `the tolerance in ${whereText(prop.key, q)}±${t.number.text} ` +
+            `must be a positive figure; write it like ±2`,
           span: t.span,
         },
       };
@@ -174,7 +176,10 @@ export function readQuantity(
           diagnostic: {
             code: 'unknown-unit',
             severity: 'error',
-            message: `the tolerance unit '${t.unit.text}' in ${whereText(prop.key, q)} does not fit ${spec.title}; write the tolerance in the value's unit (±${t.number.text}) or as a percentage of it (±${t.number.text}%)`,
+            message:
+              `the tolerance unit '${t.unit.text}' in ${whereText(prop.key, q)} ` +
+              `does not fit ${spec.title}; write the tolerance in the value's unit ` +
+              `(±${t.number.text}) or as a percentage of it (±${t.number.text}%)`,
             span: t.unit.span,
           },
         };
@@ -216,9 +221,16 @@ function whereText(key: string, q: QuantityNode): string {
 function missingUnitMessage(spec: QuantitySpec, numText: string, value: number): string {
   switch (spec.dimension) {
     case 'temperature':
-      return `${spec.key}=${numText} has no unit: Dewmark does not guess between °C and °F; write ${spec.key}=${numText}C or ${spec.key}=${numText}F`;
+      return (
+        `${spec.key}=${numText} has no unit: Dewmark does not guess between ` +
+        `°C and °F; write ${spec.key}=${numText}C or ${spec.key}=${numText}F`
+      );
     case 'fraction':
-      return `${spec.key}=${numText} has no unit: a bare relative humidity is ambiguous (50 or 0.5?); write it in percent, e.g. ${spec.key}=${value > 0 && value <= 1 ? `${+(value * 100).toPrecision(6)}%` : `${numText}%`}`;
+      return (
+        `${spec.key}=${numText} has no unit: a bare relative ` +
+        `humidity is ambiguous (50 or 0.5?); write it in percent, ` +
+        `e.g. ${spec.key}=${value > 0 && value <= 1 ? `${+(value * 100).toPrecision(6)}%` : `${numText}%`}`
+      );
     default:
       return `${spec.key}=${numText} has no unit; ${spec.title} needs one, e.g. ${spec.example}`;
   }

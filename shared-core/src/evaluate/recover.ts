@@ -24,7 +24,9 @@ import { readProps } from './props';
 import type { ClaimResult, ProcessResult, StateResult } from './types';
 import { suggestName } from '../text/suggest';
 
-/** What a recover statement gives: the two leaving states and the two sides of the exchanger (null where they failed). */
+/**
+ * What a recover statement gives: the two leaving states and the two sides of the exchanger (null where they failed).
+ */
 export interface RecoverOutcome {
   leaving: [StateResult | null, StateResult | null];
   sides: [ProcessResult | null, ProcessResult | null];
@@ -51,8 +53,11 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
       code: allowed ? 'bad-number' : 'unknown-key',
       severity: 'error',
       message: allowed
-        ? `${o.key}=${o.word.text}: write ${o.key}=${allowed.join(' or ')} (accepts condensation or frost in the exchanger), or leave it out`
-        : `'${o.word.text}' is not a number: write ${o.key}= followed by a number and its unit${suggestion ? ` (or did you mean ${suggestion}=?)` : ''}; the only word a recover takes is fog=ok`,
+        ? `${o.key}=${o.word.text}: write ${o.key}=${allowed.join(' or ')} ` +
+          `(accepts condensation or frost in the exchanger), or leave it out`
+        : `'${o.word.text}' is not a number: write ${o.key}= followed by a number ` +
+          `and its unit${suggestion ? ` (or did you mean ${suggestion}=?)` : ''}; ` +
+          `the only word a recover takes is fog=ok`,
       span: allowed ? o.word.span : o.span,
     });
   }
@@ -89,7 +94,9 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
     ctx.report({
       code: 'spec-missing',
       severity: 'error',
-      message: `${what} needs the exchanger's sensible effectiveness: add eff_s= (e.g. eff_s=0.70), and eff_l= for one that also moves moisture`,
+      message:
+        `${what} needs the exchanger's sensible effectiveness: add eff_s= ` +
+        `(e.g. eff_s=0.70), and eff_l= for one that also moves moisture`,
       span: stmt.name?.span ?? stmt.keywordSpan,
     });
     return none;
@@ -247,7 +254,9 @@ function streamFlow(
       ctx.report({
         code: 'out-of-range',
         severity: 'error',
-        message: `${what}: ${p.key}=${p.q.quantity.number.text}${p.q.unitText} is not a positive flow; give the dry-air flow of ${from.name} as a positive figure`,
+        message:
+          `${what}: ${p.key}=${p.q.quantity.number.text}${p.q.unitText} is not a ` +
+          `positive flow; give the dry-air flow of ${from.name} as a positive figure`,
         span: p.q.quantity.span,
       });
       return null;
@@ -259,7 +268,10 @@ function streamFlow(
   ctx.report({
     code: 'spec-missing',
     severity: 'error',
-    message: `${what}: the flow of ${from.name} is not known: write it after the stream (${from.name} -> ${x.to!.text} ${ctx.units === 'IP' ? 'm=9,500lb/h or q=2,100cfm' : 'm=1.2kg/s or q=1.0m3/s'}), or let the stream leave a mix by flows`,
+    message:
+      `${what}: the flow of ${from.name} is not known: write it after the stream (${from.name} ` +
+      `-> ${x.to!.text} ${ctx.units === 'IP' ? 'm=9,500lb/h or q=2,100cfm' : 'm=1.2kg/s or q=1.0m3/s'}), ` +
+      `or let the stream leave a mix by flows`,
     span,
   });
   return null;

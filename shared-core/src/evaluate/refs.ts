@@ -101,8 +101,13 @@ function readOffset(ctx: EvalContext, q: QuantityNode, spec: KeySpec, written: s
     return bad(
       ctx,
       spec.dimension === 'fraction'
-        ? `${written}: a relative humidity takes no difference: '${off}' could mean ${Math.abs(q.number.value)} percentage points or ${Math.abs(q.number.value)} % of ${name}'s figure, and the same shift is other air at another temperature. Write rh= as a figure (e.g. rh=45%), or shift the moisture content, which is what a drier or moister air means: w=${name}.w${sign}${differenceExample('w')} or dp=${name}.dp${sign}${differenceExample('dp')}`
-        : `${written}: ${spec.title} cannot be shifted by a difference; refer to the property as it is (remove '${off}')`,
+        ? `${written}: a relative humidity takes no difference: '${off}' could ` +
+            `mean ${Math.abs(q.number.value)} percentage points or ${Math.abs(q.number.value)} % of ${name}'s ` +
+            `figure, and the same shift is other air at another temperature. Write rh= as a figure ` +
+            `(e.g. rh=45%), or shift the moisture content, which is what a drier or moister air means: ` +
+            `w=${name}.w${sign}${differenceExample('w')} or dp=${name}.dp${sign}${differenceExample('dp')}`
+        : `${written}: ${spec.title} cannot be shifted by a ` +
+            `difference; refer to the property as it is (remove '${off}')`,
       q.span,
     );
   }
@@ -123,7 +128,8 @@ function readOffset(ctx: EvalContext, q: QuantityNode, spec: KeySpec, written: s
       return bad(
         ctx,
         celsius
-          ? `${written}: write a temperature difference in K (${q.number.text}K; a difference of 1 °C is 1 K) or °F (${q.number.text}F), so it cannot be read as a temperature`
+          ? `${written}: write a temperature difference in K (${q.number.text}K; a difference ` +
+              `of 1 °C is 1 K) or °F (${q.number.text}F), so it cannot be read as a temperature`
           : `${written}: '${u}' is not a temperature difference unit; write the difference in K or °F, e.g. ${example}`,
         q.unit.span,
       );
@@ -162,8 +168,12 @@ export function readReference(
     return bad(
       ctx,
       between
-        ? `${what} goes between two states defined above, so its figures are claims and ${written} cannot be used here: a reference defines a state. Write the figure itself, or give the leaving state a new name so that the process defines it from ${written}`
-        : `${what} takes figures only: ${written} cannot be used here; references define state properties (in state and supply lines, and the leaving state of a process that defines it). Write the figure itself`,
+        ? `${what} goes between two states defined above, so its figures are claims and ${written} ` +
+            `cannot be used here: a reference defines a state. Write the figure itself, or ` +
+            `give the leaving state a new name so that the process defines it from ${written}`
+        : `${what} takes figures only: ${written} cannot be used here; ` +
+            `references define state properties (in state and supply lines, and the ` +
+            `leaving state of a process that defines it). Write the figure itself`,
       ref.span,
     );
   }
@@ -182,7 +192,9 @@ export function readReference(
     const known = STATE_KEYS[fromKey];
     return bad(
       ctx,
-      `${written}: '${fromKey}' ${known ? 'cannot be referenced' : `is not a property of ${ref.state.text}`}; a reference names one of ${DEFINING_KEYS.join(', ')} (e.g. ${prop.key}=${ref.state.text}.${prop.key})`,
+      `${written}: ` +
+        `'${fromKey}' ${known ? 'cannot be referenced' : `is not a property of ${ref.state.text}`}; a ` +
+        `reference names one of ${DEFINING_KEYS.join(', ')} (e.g. ${prop.key}=${ref.state.text}.${prop.key})`,
       ref.key.span,
     );
   }
@@ -190,7 +202,9 @@ export function readReference(
   if (fromSpec.dimension !== spec.dimension) {
     return bad(
       ctx,
-      `${written}: ${ref.state.text}.${fromKey} is ${dimensionWords(fromSpec.dimension)}, but ${prop.key} is ${dimensionWords(spec.dimension)}; refer to a property of the same kind (e.g. ${prop.key}=${ref.state.text}.${prop.key})`,
+      `${written}: ${ref.state.text}.${fromKey} is ${dimensionWords(fromSpec.dimension)}, ` +
+        `but ${prop.key} is ${dimensionWords(spec.dimension)}; refer to a property ` +
+        `of the same kind (e.g. ${prop.key}=${ref.state.text}.${prop.key})`,
       ref.key.span,
     );
   }
@@ -214,7 +228,8 @@ export function readReference(
   if (!Number.isFinite(si)) {
     return bad(
       ctx,
-      `${written}: ${ref.state.text}.${fromKey} has no finite value (bone-dry air has no dew point); refer to another property`,
+      `${written}: ${ref.state.text}.${fromKey} has no finite value ` +
+        `(bone-dry air has no dew point); refer to another property`,
       ref.span,
     );
   }

@@ -84,7 +84,9 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
       ctx.report({
         code: 'bad-reference',
         severity: 'error',
-        message: `${what}: ${p.key}=${p.q.quantity.number.text} cannot be a reference here; a supply takes only its dry-bulb from another state (db=OFF.db+0.8K). Write ${p.key}= as a figure`,
+        message:
+          `${what}: ${p.key}=${p.q.quantity.number.text} cannot be a reference here; a supply ` +
+          `takes only its dry-bulb from another state (db=OFF.db+0.8K). Write ${p.key}= as a figure`,
         span: p.prop.span,
       });
       refFailed = true;
@@ -126,7 +128,10 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
     ctx.report({
       code: 'underspecified',
       severity: 'error',
-      message: `${what} needs the supply dry-bulb (${ctx.units === 'IP' ? 'db=56.5F' : 'db=13.6C'}) or the dry-air flow (${ctx.units === 'IP' ? 'm=31,000lb/h, or q=7,200cfm' : 'm=3.9kg/s, or q=3.4m3/s'} at the supply state) to find the other`,
+      message:
+        `${what} needs the supply dry-bulb (${ctx.units === 'IP' ? 'db=56.5F' : 'db=13.6C'}) or the ` +
+        `dry-air flow (${ctx.units === 'IP' ? 'm=31,000lb/h, or q=7,200cfm' : 'm=3.9kg/s, or q=3.4m3/s'} ` +
+        `at the supply state) to find the other`,
       span: fallback,
     });
     return result;
@@ -137,7 +142,10 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
     ctx.report({
       code: 'pressure-mismatch',
       severity: 'warning',
-      message: `${what}: the room state ${room.name} is at ${ctx.fig(room.pressure.pa, 'pressure')} and the supply at ${ctx.fig(p, 'pressure')}; the loads are balanced at the supply's pressure. Put both at one pressure`,
+      message:
+        `${what}: the room state ${room.name} is at ${ctx.fig(room.pressure.pa, 'pressure')} ` +
+        `and the supply at ${ctx.fig(p, 'pressure')}; the loads are ` +
+        `balanced at the supply's pressure. Put both at one pressure`,
       span: stmt.room.span,
     });
   }
@@ -198,7 +206,8 @@ function w(p: ReadProp): string {
 function checkMoisture(t: number, W: number, p: number, span: Span, what: string, how: string): Solved | null {
   if (!(W >= 0)) {
     return err(
-      msg`${what}: ${how} needs a supply humidity ratio of ${fW(W)}, below zero: the supply air cannot absorb that latent load. Lower the supply temperature or raise the flow (a larger flow takes the moisture up with less drying)`,
+      msg`${what}: ${how} needs a supply humidity ratio of ${fW(W)}, below zero: the supply air cannot absorb that \
+latent load. Lower the supply temperature or raise the flow (a larger flow takes the moisture up with less drying)`,
       span,
     );
   }
@@ -207,14 +216,16 @@ function checkMoisture(t: number, W: number, p: number, span: Span, what: string
     ws = satHumRatio(t, p);
   } catch {
     return err(
-      msg`${what}: ${how} gives a supply dry-bulb of ${fT(t)}, where air cannot be saturated at ${fP(p)}; check the loads and the flow`,
+      msg`${what}: ${how} gives a supply dry-bulb of ${fT(t)}, where \
+air cannot be saturated at ${fP(p)}; check the loads and the flow`,
       span,
       'out-of-range',
     );
   }
   if (W > ws) {
     return err(
-      msg`${what}: ${how} needs a supply humidity ratio of ${fW(W)}, above saturation at ${fT(t)} (${fW(ws)}): no supply air can carry it. Raise the supply temperature or the flow, or check the sign of the latent load`,
+      msg`${what}: ${how} needs a supply humidity ratio of ${fW(W)}, above saturation at ${fT(t)} (${fW(ws)}): \
+no supply air can carry it. Raise the supply temperature or the flow, or check the sign of the latent load`,
       span,
     );
   }
@@ -237,14 +248,22 @@ function fromTemperature(
   if (Math.abs(dt) < 1e-9 || Math.abs(Qs) < 1e-9) {
     return err(
       Math.abs(Qs) < 1e-9
-        ? `${what}: with no sensible load the flow cannot follow from the supply temperature; give the flow (m= or q=) instead of db=`
-        : `${what}: ${w(db)} equals the room dry-bulb of ${roomName}, so no flow can carry a sensible load; give a supply temperature below (cooling) or above (heating) the room`,
+        ? `${what}: with no sensible load the flow cannot follow from the ` +
+            `supply temperature; give the flow (m= or q=) instead of db=`
+        : `${what}: ${w(db)} equals the room dry-bulb of ${roomName}, so no flow can carry a ` +
+            `sensible load; give a supply temperature below (cooling) or above (heating) the room`,
       db.prop.span,
     );
   }
   if (Qs / dt < 0) {
     return err(
-      msg`${what}: ${Qs > 0 ? msg`a sensible gain needs supply air cooler than ${roomName} (${fT(tR)})` : msg`a sensible loss (negative q_sensible) needs supply air warmer than ${roomName} (${fT(tR)})`}; ${w(db)} is not. Check the supply temperature or the sign of the load`,
+      msg`${what}: ${
+        Qs > 0
+          ? msg`a sensible gain needs supply air cooler than ${roomName} (${fT(tR)})`
+          : msg`a \
+sensible loss (negative q_sensible) needs supply air warmer than ${roomName} \
+(${fT(tR)})`
+      }; ${w(db)} is not. Check the supply temperature or the sign of the load`,
       db.prop.span,
     );
   }
@@ -283,7 +302,8 @@ function fromMassFlow(
   const s = atMassFlow(Qs, Ql, tR, wR, m);
   if (!Number.isFinite(s.t) || s.t < -100 || s.t > 200)
     return err(
-      msg`${what}: ${w(flow)} gives a supply dry-bulb of ${fT(s.t)}, outside ${fTL(-100)} to ${fTL(200)}; the flow is far too small for the loads`,
+      msg`${what}: ${w(flow)} gives a supply dry-bulb of ${fT(s.t)}, \
+outside ${fTL(-100)} to ${fTL(200)}; the flow is far too small for the loads`,
       flow.prop.span,
       'out-of-range',
     );
@@ -321,7 +341,8 @@ function fromVolumeFlow(
     m = next;
   }
   return err(
-    `${what}: the supply state for ${w(flow)} did not settle in ${MAX_ITERATIONS} steps (should never happen); give the mass flow m= instead`,
+    `${what}: the supply state for ${w(flow)} did not settle in ${MAX_ITERATIONS} ` +
+      `steps (should never happen); give the mass flow m= instead`,
     flow.prop.span,
     'no-convergence',
   );
@@ -354,7 +375,9 @@ function solveSupplyState(
     ctx.report({
       code: 'out-of-range',
       severity: 'error',
-      message: `${what}: the supply state (db ${ctx.fig(t, 'temperature')}, W ${ctx.fig(W, 'humidityRatio')}) has a property without a finite value; check the loads`,
+      message:
+        `${what}: the supply state (db ${ctx.fig(t, 'temperature')}, ` +
+        `W ${ctx.fig(W, 'humidityRatio')}) has a property without a finite value; check the loads`,
       span,
     });
     return null;
@@ -396,7 +419,9 @@ function supplyClaims(
       ctx.report({
         code: 'claim-undefined',
         severity: 'warning',
-        message: `${what}: the room SHR is not defined here (the total load is about zero, or the sensible and latent loads have opposite signs); remove shr=`,
+        message:
+          `${what}: the room SHR is not defined here (the total load is about ` +
+          `zero, or the sensible and latent loads have opposite signs); remove shr=`,
         span: p.prop.keySpan,
       });
       continue;

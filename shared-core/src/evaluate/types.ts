@@ -80,7 +80,10 @@ export interface ClaimResult {
   computedText: string;
 }
 
-/** A state (from `state`), a mixed state (from `mix`), a supply state (from `supply`), or a state a process or recovery defines. */
+/**
+ * A state (from `state`), a mixed state (from `mix`), a supply state (from `supply`), or a state a
+ * process or recovery defines.
+ */
 export interface StateResult {
   kind: 'state' | 'mix' | 'supply';
   name: string;
@@ -149,7 +152,10 @@ export interface PropertySource {
 
 /** What the equipment of a process that defines its leaving state was, and what it found. */
 export interface EquipmentResult {
-  /** `heater`, `fan`, `coil` (by ADP and bypass factor), `leaving` (by the leaving state's properties), `steam`, `adiabatic`, `recovery`. */
+  /**
+   * `heater`, `fan`, `coil` (by ADP and bypass factor), `leaving` (by the leaving state's
+   * properties), `steam`, `adiabatic`, `recovery`.
+   */
   form: 'heater' | 'fan' | 'coil' | 'leaving' | 'steam' | 'adiabatic' | 'recovery';
   /** The specification as written. */
   spec: string;
@@ -223,7 +229,10 @@ export interface ProcessResult {
    * resolve (see `resolution.ts`): `dw`, the latent heat and the water are then 0 and the SHR 1.
    */
   moistureUnchanged?: boolean;
-  /** With the apparatus dew point: the bypass factor that puts the leaving state on the coil line (contact factor 1 − bf). */
+  /**
+   * With the apparatus dew point: the bypass factor that puts
+   * the leaving state on the coil line (contact factor 1 − bf).
+   */
   bypassFactor?: number | null;
   /** For a process that defined its leaving state (or one side of a heat recovery): its equipment. */
   equipment?: EquipmentResult;

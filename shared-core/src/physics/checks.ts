@@ -61,7 +61,8 @@ export function pressureBelowSaturation(
 ): PsychroError {
   return new PsychroError({
     code: 'pressure-below-saturation',
-    message: msg`The saturation pressure at ${what} ${T(tC)} (${P(pws)}) is at or above the total pressure ${P(p)}: water boils there, so air cannot be saturated.`,
+    message: msg`The saturation pressure at ${what} ${T(tC)} (${P(pws)}) is at or \
+above the total pressure ${P(p)}: water boils there, so air cannot be saturated.`,
     fix: msg`Raise the pressure above ${P(pws)}, or use a lower ${what}.`,
     keys,
   });

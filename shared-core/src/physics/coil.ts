@@ -47,7 +47,8 @@ export function coilFromAdp(a: MoistAirState, adp: number, bf: number): Equipmen
     return fail(
       'unreachable',
       'adp',
-      msg`the apparatus dew point ${tText(adp)} is not below the entering dry-bulb ${tText(a.db)}, so the coil would not cool the air`,
+      msg`the apparatus dew point ${tText(adp)} is not below the \
+entering dry-bulb ${tText(a.db)}, so the coil would not cool the air`,
       'give an apparatus dew point below the entering dry-bulb (below its dew point for a coil that dries the air)',
     );
   }

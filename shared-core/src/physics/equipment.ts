@@ -44,7 +44,10 @@ export function ok<T>(value: T): EquipmentOutcome<T> {
   return { ok: true, value };
 }
 
-/** Moist-air specific heat per kg of dry air at humidity ratio w, J/(kg·K): 1006 + 1860 W (ASHRAE HoF 2017 SI Ch.1 eq 32). */
+/**
+ * Moist-air specific heat per kg of dry air at humidity ratio
+ * w, J/(kg·K): 1006 + 1860 W (ASHRAE HoF 2017 SI Ch.1 eq 32).
+ */
 export function moistCp(w: number): number {
   return 1006 + 1860 * w;
 }

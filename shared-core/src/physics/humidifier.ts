@@ -62,7 +62,8 @@ export function steamToW(a: MoistAirState, w2: number, hSteam: number): Equipmen
     return fail(
       'unreachable',
       'w',
-      msg`the target humidity ratio ${wText(w2)} is above saturation at the leaving ${tText(t2)} (${wText(ws)}): the steam would condense as fog`,
+      msg`the target humidity ratio ${wText(w2)} is above saturation at \
+the leaving ${tText(t2)} (${wText(ws)}): the steam would condense as fog`,
       'give a lower target, or heat the air before the humidifier',
     );
   }
@@ -91,7 +92,8 @@ function targetRhProblem(
     return fail(
       'unreachable',
       'rh',
-      msg`the target ${pctText(rh2)} is below the entering relative humidity ${pctText(a.rh)}: ${how} only adds moisture`,
+      msg`the target ${pctText(rh2)} is below the entering \
+relative humidity ${pctText(a.rh)}: ${how} only adds moisture`,
       fix,
     );
   }
@@ -179,7 +181,8 @@ export function adiabaticToDb(a: MoistAirState, db2: number): EquipmentOutcome<H
     return fail(
       'unreachable',
       'db',
-      msg`the target ${tText(db2)} is below the entering wet-bulb ${tText(a.wb)}: evaporation cannot cool air below its wet-bulb`,
+      msg`the target ${tText(db2)} is below the entering \
+wet-bulb ${tText(a.wb)}: evaporation cannot cool air below its wet-bulb`,
       msg`give a target of at least ${tText(a.wb)}`,
     );
   }

@@ -154,7 +154,8 @@ function checkElevation(z: number): void {
     throw new PsychroError({
       code: 'out-of-range',
       message: Number.isFinite(z)
-        ? msg`Elevation ${Z(z)} is outside the standard-atmosphere range used here (${ZL(ELEV_MIN_M)} to ${ZL(ELEV_MAX_M)}).`
+        ? msg`Elevation ${Z(z)} is outside the standard-atmosphere \
+range used here (${ZL(ELEV_MIN_M)} to ${ZL(ELEV_MAX_M)}).`
         : `Elevation ${String(z)} is not a finite number.`,
       fix: msg`Give an elevation between ${ZL(ELEV_MIN_M)} and ${ZL(ELEV_MAX_M)}, or give the pressure itself.`,
       keys: [],

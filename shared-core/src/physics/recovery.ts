@@ -88,7 +88,8 @@ export function recoverBetween(
       'out-of-range',
       'eff_l',
       `the latent effectiveness ${String(effL)} is outside 0 to 1`,
-      'give the latent effectiveness as a fraction from 0 to 1, e.g. eff_l=0.60, or leave it out for a sensible-only exchanger',
+      'give the latent effectiveness as a fraction from 0 to 1, e.g. ' +
+        'eff_l=0.60, or leave it out for a sensible-only exchanger',
     );
   }
   for (const s of [s1, s2]) {

@@ -281,7 +281,8 @@ export function dewPointFromVapPres(pw: number): number {
       code: 'out-of-range',
       message: !(pw >= 0)
         ? `Vapour pressure ${String(pw)} Pa is not a non-negative number.`
-        : msg`Vapour pressure ${P(pw)} is above the saturation pressure at ${TL(T_MAX_C)} (${PL(PWS_MAX)}): the dew point would be above the formulation's range.`,
+        : msg`Vapour pressure ${P(pw)} is above the saturation pressure at ${TL(T_MAX_C)} \
+(${PL(PWS_MAX)}): the dew point would be above the formulation's range.`,
       fix: msg`Give a vapour pressure between 0 and ${PL(PWS_MAX)}.`,
       keys: [],
     });
@@ -301,7 +302,8 @@ export function boilingPoint(p: number): number {
   if (!(p >= PWS_MIN && p <= PWS_MAX)) {
     throw new PsychroError({
       code: 'out-of-range',
-      message: msg`Pressure ${Number.isFinite(p) ? P(p) : String(p)} has no boiling point within ${TL(T_MIN_C)} to ${TL(T_MAX_C)}.`,
+      message: msg`Pressure ${Number.isFinite(p) ? P(p) : String(p)} \
+has no boiling point within ${TL(T_MIN_C)} to ${TL(T_MAX_C)}.`,
       fix: msg`Use a pressure between ${PL(PWS_MIN)} and ${PL(PWS_MAX)}.`,
       keys: [],
     });

@@ -27,8 +27,10 @@ export function sensibleToDb(a: MoistAirState, db2: number, key = 'db'): Equipme
     return fail(
       'unreachable',
       key,
-      msg`this would cool the air to ${tText(db2)}, below its dew point ${tText(a.dp)}: water would condense, so the humidity ratio could not stay the same`,
-      'a sensible heater or cooler keeps the humidity ratio; for a cooling coil that dries the air give its leaving state (db= with rh= or w=) or adp= with bf=',
+      msg`this would cool the air to ${tText(db2)}, below its dew point ${tText(a.dp)}: \
+water would condense, so the humidity ratio could not stay the same`,
+      'a sensible heater or cooler keeps the humidity ratio; for a cooling coil that ' +
+        'dries the air give its leaving state (db= with rh= or w=) or adp= with bf=',
     );
   }
   return ok(stateFromDbW(db2, a.w, a.p));

@@ -69,8 +69,10 @@ function problem(
 function dbOutOfRange(db: number, keys: DefiningKey[]): PsychroError {
   return problem(
     'out-of-range',
-    msg`These figures put the dry-bulb at ${Number.isFinite(db) ? fT(db) : 'an unbounded temperature'}, outside the formulation's ${fTL(T_MIN_C)} to ${fTL(T_MAX_C)}.`,
-    msg`Check the ${keys.map((k) => NAMES[k]).join(' and ')}; the state they describe must have a dry-bulb between ${fTL(T_MIN_C)} and ${fTL(T_MAX_C)}.`,
+    msg`These figures put the dry-bulb at ${Number.isFinite(db) ? fT(db) : 'an unbounded temperature'}, \
+outside the formulation's ${fTL(T_MIN_C)} to ${fTL(T_MAX_C)}.`,
+    msg`Check the ${keys.map((k) => NAMES[k]).join(' and ')}; the state they \
+describe must have a dry-bulb between ${fTL(T_MIN_C)} and ${fTL(T_MAX_C)}.`,
     keys,
   );
 }
@@ -139,7 +141,8 @@ const RANGE_ROUNDOFF_K = 1e-6;
 function fogWarning(t: number, w: number, ws: number, keys: DefiningKey[]): PhysicsProblem {
   return makeProblem({
     code: 'supersaturated',
-    message: msg`Fog: ${fW(w)} of water is more than saturated air at ${fT(t)} holds as vapour (${fW(ws)}); the rest, ${fW(w - ws)}, is suspended ${t < 0 ? 'ice' : 'liquid'}.`,
+    message: msg`Fog: ${fW(w)} of water is more than saturated air at ${fT(t)} holds as \
+vapour (${fW(ws)}); the rest, ${fW(w - ws)}, is suspended ${t < 0 ? 'ice' : 'liquid'}.`,
     fix: 'If fog is not intended, check the figures: the state lies beyond the saturation curve.',
     keys,
   });
@@ -156,7 +159,8 @@ function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
           s.w === 0
             ? 'Bone-dry air has no dew point (reported as −Infinity).'
             : s.dp === Number.NEGATIVE_INFINITY
-              ? msg`The humidity ratio ${fW(s.w)} at ${fP(s.p)} gives a vapour pressure too small to have a dew point (reported as −Infinity).`
+              ? msg`The humidity ratio ${fW(s.w)} at ${fP(s.p)} gives a \
+vapour pressure too small to have a dew point (reported as −Infinity).`
               : msg`The dew point ${fT(s.dp)} is below ${fTL(T_MIN_C)}: extrapolated from the ice equation.`,
         fix: 'Nothing to fix if the air is meant to be this dry.',
         keys: ['dp'],
@@ -177,7 +181,8 @@ function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
     warnings.push(
       makeProblem({
         code: 'pressure-below-saturation',
-        message: msg`The dry-bulb ${fT(s.db)} is at or above the boiling point at ${fP(s.p)}: this air cannot be saturated, so the saturation humidity ratio is infinite and the degree of saturation does not exist (given as 0).`,
+        message: msg`The dry-bulb ${fT(s.db)} is at or above the boiling point at ${fP(s.p)}: this air cannot be \
+saturated, so the saturation humidity ratio is infinite and the degree of saturation does not exist (given as 0).`,
         fix: 'Nothing to fix if superheated air is meant; otherwise check the pressure.',
         keys: ['db'],
       }),
@@ -204,8 +209,11 @@ export function solveState(
     if (overflow) {
       throw problem(
         'out-of-range',
-        msg`At ${fP(p)} these figures give a ${overflow === 'v' ? 'specific volume' : overflow === 'h' ? 'enthalpy' : `property (${overflow})`} that is not a finite number.`,
-        msg`Check the pressure and the humidity ratio: they are far outside any real air (${fPL(101325)} at sea level).`,
+        msg`At ${fP(p)} these figures give \
+a ${overflow === 'v' ? 'specific volume' : overflow === 'h' ? 'enthalpy' : `property (${overflow})`} \
+that is not a finite number.`,
+        msg`Check the pressure and the humidity ratio: they \
+are far outside any real air (${fPL(101325)} at sea level).`,
         DEFINING_KEYS.filter((k) => input[k] !== undefined),
       );
     }
@@ -315,7 +323,8 @@ function solveOrThrow(
     case DP | W:
       throw problem(
         'dependent-pair',
-        msg`The dew point and the humidity ratio both fix the moisture content (at ${fP(p)} one follows from the other), so together they do not fix the state.`,
+        msg`The dew point and the humidity ratio both fix the moisture content \
+(at ${fP(p)} one follows from the other), so together they do not fix the state.`,
         'Replace one of them with a temperature (db or wb), the relative humidity (rh) or the enthalpy (h).',
         ['dp', 'w'],
       );
@@ -459,7 +468,8 @@ function fromDbRh(db: number, rh: number, p: number): MoistAirState {
   if (pw >= p) {
     throw problem(
       'pressure-below-saturation',
-      msg`At ${fT(db)} and ${fRh(rh)} the vapour pressure would be ${fP(pw)}, at or above the total pressure ${fP(p)}: water boils there.`,
+      msg`At ${fT(db)} and ${fRh(rh)} the vapour pressure would \
+be ${fP(pw)}, at or above the total pressure ${fP(p)}: water boils there.`,
       msg`Lower the relative humidity below ${fRh(p / pwsDb)} or the dry-bulb, or raise the pressure.`,
       ['db', 'rh'],
     );
@@ -481,7 +491,8 @@ function fromDbH(
     throw problem(
       'enthalpy-too-low',
       msg`The enthalpy ${fH(h)} is below that of bone-dry air at ${fT(db)} (${fH(CP_DA * db)}).`,
-      msg`Use an enthalpy of at least ${fH(CP_DA * db)} at this dry-bulb (dry air 0 at ${fTL(0)}), or check the dry-bulb.`,
+      msg`Use an enthalpy of at least ${fH(CP_DA * db)} at this \
+dry-bulb (dry air 0 at ${fTL(0)}), or check the dry-bulb.`,
       keys,
     );
   }
@@ -501,7 +512,8 @@ function fromDbH(
     if (!(wTotal >= ws && wTotal < Number.POSITIVE_INFINITY)) {
       throw problem(
         'no-solution',
-        msg`The enthalpy ${fH(h)} is above that of saturated air at ${fT(db)} (${fH(hs)}), and suspended ${db < 0 ? 'ice' : 'water'} at this temperature cannot make up the difference.`,
+        msg`The enthalpy ${fH(h)} is above that of saturated air at ${fT(db)} (${fH(hs)}), \
+and suspended ${db < 0 ? 'ice' : 'water'} at this temperature cannot make up the difference.`,
         'Check the enthalpy and the dry-bulb, or give the humidity ratio instead of the enthalpy.',
         keys,
       );
@@ -524,7 +536,8 @@ function fromWbDp(
   if (dp > wb) {
     throw problem(
       'wb-too-low',
-      msg`The wet-bulb ${fT(wb)} is below the dew point ${fT(dp)}; the wet-bulb always lies between the dew point and the dry-bulb.`,
+      msg`The wet-bulb ${fT(wb)} is below the dew point ${fT(dp)}; \
+the wet-bulb always lies between the dew point and the dry-bulb.`,
       'Check the two figures (are they swapped?).',
       keys,
     );
@@ -552,7 +565,8 @@ function fromWbW(
     if (!opts?.allowFog) {
       throw problem(
         'supersaturated',
-        msg`The humidity ratio ${fW(w)} is above saturation at the wet-bulb ${fT(wb)} (${fW(wsWb)}): no air with this much vapour has so low a wet-bulb (it would be fog).`,
+        msg`The humidity ratio ${fW(w)} is above saturation at the wet-bulb ${fT(wb)} \
+(${fW(wsWb)}): no air with this much vapour has so low a wet-bulb (it would be fog).`,
         msg`Use a humidity ratio of at most ${fW(wsWb)} with this wet-bulb, or a higher wet-bulb.`,
         keys,
       );
@@ -625,7 +639,8 @@ function fromWbH(
   if (spread <= 1e-9 * Math.max(1, Math.abs(h)) && Math.abs(fLo) <= 1e-6 * Math.max(1000, Math.abs(h))) {
     throw problem(
       'dependent-pair',
-      msg`At a wet-bulb of ${fT(wb)} the enthalpy is the same (${fH(hLo)}) for every dry-bulb, so the two do not fix the state.`,
+      msg`At a wet-bulb of ${fT(wb)} the enthalpy is the same \
+(${fH(hLo)}) for every dry-bulb, so the two do not fix the state.`,
       'Replace the enthalpy with the dry-bulb, the relative humidity or the humidity ratio.',
       keys,
     );
@@ -634,8 +649,10 @@ function fromWbH(
     const [lo, hi2] = hLo < hHi ? [hLo, hHi] : [hHi, hLo];
     throw problem(
       'no-solution',
-      msg`No air with a wet-bulb of ${fT(wb)} has an enthalpy of ${fH(h)}: along that wet-bulb the enthalpy only ranges from ${fH(lo)} to ${fH(hi2)}.`,
-      'Check the enthalpy; the wet-bulb and the enthalpy are nearly redundant, so prefer the dry-bulb, rh or w with the wet-bulb.',
+      msg`No air with a wet-bulb of ${fT(wb)} has an enthalpy of ${fH(h)}: \
+along that wet-bulb the enthalpy only ranges from ${fH(lo)} to ${fH(hi2)}.`,
+      'Check the enthalpy; the wet-bulb and the enthalpy are nearly ' +
+        'redundant, so prefer the dry-bulb, rh or w with the wet-bulb.',
       keys,
     );
   }
@@ -645,7 +662,8 @@ function fromWbH(
   warnings.push(
     makeProblem({
       code: 'ill-conditioned',
-      message: msg`Wet-bulb and enthalpy are nearly parallel on the chart: along this wet-bulb the enthalpy changes by only about ${fDH(10 * slope)} per ${fDTL(10)} of dry-bulb${
+      message: msg`Wet-bulb and enthalpy are nearly parallel on the chart: along this \
+wet-bulb the enthalpy changes by only about ${fDH(10 * slope)} per ${fDTL(10)} of dry-bulb${
         slope > 0 ? msg`, so an error of ${fDH(100)} in h moves the dry-bulb by about ${fDT(100 / slope)}.` : '.'
       }`,
       fix: 'Prefer the dry-bulb, rh or w together with the wet-bulb.',
@@ -668,7 +686,8 @@ function fromDpRh(
   if (rh === 0) {
     throw problem(
       'no-solution',
-      msg`A relative humidity of 0 % means bone-dry air, which has no dew point; it cannot go with a dew point of ${fT(dp)}.`,
+      msg`A relative humidity of 0 % means bone-dry air, which \
+has no dew point; it cannot go with a dew point of ${fT(dp)}.`,
       'Give a relative humidity above 0 %, or replace the dew point with a dry-bulb.',
       keys,
     );
@@ -699,7 +718,8 @@ function fromDpH(
   if (db < dp) {
     throw problem(
       'enthalpy-too-low',
-      msg`The enthalpy ${fH(h)} is below that of saturated air at the dew point ${fT(dp)} (${fH(hs)}): the dry-bulb would be below the dew point.`,
+      msg`The enthalpy ${fH(h)} is below that of saturated air at the dew \
+point ${fT(dp)} (${fH(hs)}): the dry-bulb would be below the dew point.`,
       msg`Use an enthalpy of at least ${fH(hs)} with this dew point.`,
       keys,
     );
@@ -719,7 +739,8 @@ function fromRhW(
     if (rh === 0 && w === 0) {
       throw problem(
         'dependent-pair',
-        'A relative humidity of 0 % and a humidity ratio of 0 both say only that the air is bone-dry; they do not fix its temperature.',
+        'A relative humidity of 0 % and a humidity ratio of 0 both say ' +
+          'only that the air is bone-dry; they do not fix its temperature.',
         'Replace one of them with a temperature (db or wb) or the enthalpy (h).',
         keys,
       );
@@ -764,7 +785,8 @@ function fromRhH(
     // rh·pws reaches p even at −100 °C: no temperature in range gives air at this rh.
     throw problem(
       'pressure-below-saturation',
-      msg`At ${fP(p)}, air at ${fRh(rh)} would have a vapour pressure at or above the total pressure even at ${fTL(T_MIN_C)} (${fP(rh * pwsAt(T_MIN_C))}).`,
+      msg`At ${fP(p)}, air at ${fRh(rh)} would have a vapour pressure at or \
+above the total pressure even at ${fTL(T_MIN_C)} (${fP(rh * pwsAt(T_MIN_C))}).`,
       msg`Check the pressure and its unit (${fPL(101325)} at sea level).`,
       keys,
     );
@@ -829,7 +851,8 @@ function fromWH(
   if (!opts?.allowFog) {
     throw problem(
       'supersaturated',
-      msg`The humidity ratio ${fW(w)} with the enthalpy ${fH(h)} lies in the fog region: saturated air with that much water has ${fH(hSat)} at its dew point ${fT(tSat)}, so there is more water than the air can hold as vapour.`,
+      msg`The humidity ratio ${fW(w)} with the enthalpy ${fH(h)} lies in the fog region: saturated air with that \
+much water has ${fH(hSat)} at its dew point ${fT(tSat)}, so there is more water than the air can hold as vapour.`,
       msg`Use an enthalpy of at least ${fH(hSat)} with this humidity ratio, or allow fog.`,
       keys,
     );

@@ -256,7 +256,8 @@ function statesTable(
   const head = cols
     .map(
       (c) =>
-        `<th scope="col" class="num">${c.label} <span class="dm-unit">${escapeHtml(c.dim ? unitOf(c.dim, sys) : '%')}</span></th>`,
+        `<th scope="col" class="num">${c.label} <span ` +
+        `class="dm-unit">${escapeHtml(c.dim ? unitOf(c.dim, sys) : '%')}</span></th>`,
     )
     .join('');
   const n = cols.length + 1;
@@ -282,7 +283,8 @@ function statesTable(
     if (row.status === 'fog') facts.push('fog: above saturation');
     if (row.status === 'failed') facts.push('not computed: see the problems below');
     const status = row.status === 'ok' ? '' : ` dm-${row.status}`;
-    return `<tbody class="dm-item${status}"><tr><th scope="row" class="dm-name">${escapeHtml(item.name)}</th>${cells}</tr>${aboutRow(
+    return `<tbody class="dm-item${status}"><tr><th scope="row" \
+class="dm-name">${escapeHtml(item.name)}</th>${cells}</tr>${aboutRow(
       [
         description(item, ctx, limitOf(item.statement)),
         escapeHtml(facts.join('; ')),
@@ -293,7 +295,10 @@ function statesTable(
     )}</tbody>`;
   });
   const at = pressures.size === 1 ? ` at ${escapeHtml([...pressures][0]!)}` : '';
-  return `<table${id ? ` id="${id}"` : ''} class="dm-table dm-states"><caption>States and mixes${at}</caption><thead><tr><th scope="col">state</th>${head}</tr></thead>${bodies.join('')}</table>`;
+  return (
+    `<table${id ? ` id="${id}"` : ''} class="dm-table dm-states"><caption>States and ` +
+    `mixes${at}</caption><thead><tr><th scope="col">state</th>${head}</tr></thead>${bodies.join('')}</table>`
+  );
 }
 
 function processesTable(
@@ -319,7 +324,9 @@ function processesTable(
       );
     else if (row.coil.value !== '—') facts.push(`coil or heater duty with the water's enthalpy ${row.coil.text}`);
     if (row.volumeFlow.value !== '—') facts.push(`volume flow ${row.volumeFlow.text}`);
-    return `<tbody class="dm-item"><tr><th scope="row" class="dm-name">${escapeHtml(p.name)}<br><span class="dm-from">${escapeHtml(`${p.from} → ${p.to}`)}</span></th><td>${escapeHtml(row.kindWithAdp)}</td>${cells}</tr>${aboutRow(
+    return `<tbody class="dm-item"><tr><th scope="row" class="dm-name">${escapeHtml(p.name)}<br>\
+<span class="dm-from">${escapeHtml(`${p.from} → ${p.to}`)}</span>\
+</th><td>${escapeHtml(row.kindWithAdp)}</td>${cells}</tr>${aboutRow(
       [
         description(p, ctx, limitOf(p.statement)),
         escapeHtml(facts.join('; ')),
@@ -330,7 +337,11 @@ function processesTable(
     )}</tbody>`;
   });
   const water = escapeHtml(displaySymbol(waterUnit(sys)));
-  return `<table${id ? ` id="${id}"` : ''} class="dm-table dm-processes"><caption>Processes (positive = heat or water added to the air; water in ${water})</caption><thead><tr>${head}</tr></thead>${bodies.join('')}</table>`;
+  return (
+    `<table${id ? ` id="${id}"` : ''} class="dm-table dm-processes"><caption>Processes ` +
+    `(positive = heat or water added to the air; water ` +
+    `in ${water})</caption><thead><tr>${head}</tr></thead>${bodies.join('')}</table>`
+  );
 }
 
 function problemsHtml(
@@ -342,7 +353,8 @@ function problemsHtml(
   const at = (d: CoreDiagnostic) => `line ${ctx.lines.lineCol(d.span.start).line}`;
   const items = problems.map(
     (d) =>
-      `<li class="dm-${d.severity}"><strong>${d.severity}</strong> <code>${escapeHtml(d.code)}</code> (${at(d)}): ${escapeHtml(d.message)}</li>`,
+      `<li class="dm-${d.severity}"><strong>${d.severity}</strong> ` +
+      `<code>${escapeHtml(d.code)}</code> (${at(d)}): ${escapeHtml(d.message)}</li>`,
   );
   for (const d of acknowledged)
     items.push(
@@ -420,7 +432,8 @@ function inlineHtml(items: readonly EvaluatedItem[], problems: readonly CoreDiag
   const parts = items.map((i) => inlineItemText(i, ctx));
   for (const d of problems)
     parts.push(
-      `<span class="dm-${d.severity}"><strong>${d.severity}</strong> <code>${escapeHtml(d.code)}</code>: ${escapeHtml(d.message)}</span>`,
+      `<span class="dm-${d.severity}"><strong>${d.severity}</strong> ` +
+        `<code>${escapeHtml(d.code)}</code>: ${escapeHtml(d.message)}</span>`,
     );
   if (parts.length === 0) return '';
   return ` <span class="dm-inline">[→ ${parts.join('; ')}]</span>`;

@@ -73,14 +73,18 @@ export function resultsTableHtml(data: ResultsData, opts: HtmlOptions = {}): str
       '<th scope="col">state</th>',
       ...data.stateColumns.map(
         (c) =>
-          `<th scope="col" class="dewmark-num">${escapeHtml(c.label)} <span class="dewmark-unit">${escapeHtml(c.unit)}</span></th>`,
+          `<th scope="col" class="dewmark-num">${escapeHtml(c.label)} ` +
+          `<span class="dewmark-unit">${escapeHtml(c.unit)}</span></th>`,
       ),
     ];
     const rows = data.states.map((s) => {
       const cls = s.status === 'ok' ? '' : ` class="dewmark-${s.status}"`;
       const detail = s.detail ? ` <span class="dewmark-detail">${escapeHtml(s.detail)}</span>` : '';
       const cells = s.values.map((v) => `<td class="dewmark-num">${escapeHtml(v)}</td>`).join('');
-      return `<tr${cls}><th scope="row"><span class="dewmark-name">${escapeHtml(s.name)}</span>${detail}</th>${cells}</tr>`;
+      return (
+        `<tr${cls}><th scope="row"><span ` +
+        `class="dewmark-name">${escapeHtml(s.name)}</span>${detail}</th>${cells}</tr>`
+      );
     });
     out.push(
       `<table class="dewmark-states"><thead><tr>${head.join('')}</tr></thead><tbody>${rows.join('')}</tbody></table>`,

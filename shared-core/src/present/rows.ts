@@ -104,7 +104,10 @@ export interface ProcessRow {
   to: string;
   /** The kind in words (`cooling and dehumidifying`), `—` when unknown. */
   kind: string;
-  /** The kind with the apparatus dew point when there is one (`cooling and dehumidifying, ADP 9.4 °C`), for the results tables. */
+  /**
+   * The kind with the apparatus dew point when there is one (`cooling and dehumidifying, ADP
+   * 9.4 °C`), for the results tables.
+   */
   kindWithAdp: string;
   /** False when no flow was given: the heat and water figures are then per unit mass of dry air. */
   hasFlow: boolean;

@@ -312,20 +312,28 @@ export function staleTableDiagnostics(analysis: Analysis, text: string): CoreDia
     let message: string;
     switch (state) {
       case 'unterminated':
-        message = `${where} has no end marker ${RESULTS_END_MARKER}, so it cannot be refreshed. Add that line after the table (or delete the table and its start marker), then run "${RESULTS_COMMAND_TITLE}"`;
+        message =
+          `${where} has no end marker ${RESULTS_END_MARKER}, so it cannot be refreshed. Add that line ` +
+          `after the table (or delete the table and its start marker), then run "${RESULTS_COMMAND_TITLE}"`;
         break;
       case 'edited':
-        message = `${where} was edited by hand: its contents match neither its checksum nor the block's computed results. ${RUN} (hand edits between the markers are replaced)`;
+        message =
+          `${where} was edited by hand: its contents match neither its checksum nor the ` +
+          `block's computed results. ${RUN} (hand edits between the markers are replaced)`;
         break;
       case 'checksum':
-        message = `${where} shows the current results, but the checksum in its start marker does not match them. ${RUN}`;
+        message =
+          `${where} shows the current results, but the checksum ` + `in its start marker does not match them. ${RUN}`;
         break;
       default: {
         message = `${where} is out of date: the block's computed results changed since it was written. ${RUN}`;
         if (analysis.unitsSource === 'setting') {
           const other: UnitSystem = analysis.units === 'SI' ? 'IP' : 'SI';
           if (tableState(analysis, table, other) === 'fresh') {
-            message = `${where} shows results in ${other}, but this note has no units: line and the unit setting is ${analysis.units}. Add a "units: ${other}" line to the note to keep the table as it is, or ${RUN.charAt(0).toLowerCase()}${RUN.slice(1)}`;
+            message =
+              `${where} shows results in ${other}, but this note has no units: line and the ` +
+              `unit setting is ${analysis.units}. Add a "units: ${other}" line to the note ` +
+              `to keep the table as it is, or ${RUN.charAt(0).toLowerCase()}${RUN.slice(1)}`;
           }
         }
       }

@@ -19,7 +19,10 @@ import type { CancellationFlag, Edit, Note } from './types';
 /** One code action as plain data. */
 export interface FixAction {
   title: string;
-  /** `quickfix` fixes a diagnostic; `refactor` rewrites without one; `source` writes into the whole note (results tables). */
+  /**
+   * `quickfix` fixes a diagnostic; `refactor` rewrites without
+   * one; `source` writes into the whole note (results tables).
+   */
   kind: 'quickfix' | 'refactor' | 'source';
   edits: Edit[];
   /** The diagnostic this action fixes, when it is a quick fix. */

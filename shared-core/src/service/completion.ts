@@ -112,7 +112,8 @@ function nameEntries(note: Note, before: number, except: string | null): Complet
     let detail: string = item.kind;
     if (item.state) {
       const sys = note.analysis.units;
-      detail += ` · ${show(note, item.state.db, 'temperature', sys)} db, ${show(note, item.state.rh, 'fraction', sys)} rh`;
+      detail +=
+        ` · ${show(note, item.state.db, 'temperature', sys)} ` + `db, ${show(note, item.state.rh, 'fraction', sys)} rh`;
     }
     out.push({ label: item.name, kind: 'name', insertText: item.name, detail });
   }
@@ -164,7 +165,8 @@ function refKeyEntries(note: Note, before: number, name: string, key: string): C
     label: k,
     kind: 'key' as const,
     insertText: k,
-    detail: `${STATE_KEYS[k]!.title} of ${name}${item.state ? ` = ${show(note, item.state[k as 'db'], dim, sys)}` : ''}`,
+    detail:
+      `${STATE_KEYS[k]!.title} ` + `of ${name}${item.state ? ` = ${show(note, item.state[k as 'db'], dim, sys)}` : ''}`,
     documentation: `\`${key}=${name}.${k}\` takes ${STATE_KEYS[k]!.title} from ${name}; ${DIFFERENCE_EXAMPLE[k] ? `add a difference with + or − and a unit where it helps (e.g. \`${key}=${name}.${k}${DIFFERENCE_EXAMPLE[k]}\`).` : 'it takes no difference.'}`,
   }));
 }

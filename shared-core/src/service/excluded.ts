@@ -17,7 +17,8 @@ export function excludedDiagnostic(note: Note): CoreDiagnostic {
     severity: 'info',
     message:
       `This note is left out by ${by.file}: ${by.why}. \`dewmark check\` and Check All do not check it, so its ` +
-      'problems are not shown here either (hovers and hints still work). To check it, change the pattern in that file ' +
+      'problems are not shown here either (hovers and hints ' +
+      'still work). To check it, change the pattern in that file ' +
       'or move the note.',
     span: { start: 0, end },
   };

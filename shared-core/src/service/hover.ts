@@ -41,18 +41,31 @@ export interface HoverInfo {
 
 /** One or two lines on each statement keyword. */
 const KEYWORD_TEXT: Record<Statement['keyword'], string> = {
-  site: '`site:` sets the barometric pressure for the statements after it: `p=` a pressure, or `elev=` an elevation (standard atmosphere).',
+  site:
+    '`site:` sets the barometric pressure for the statements after it: ' +
+    '`p=` a pressure, or `elev=` an elevation (standard atmosphere).',
   units:
-    '`units:` chooses the unit system in which this note’s results are shown (`SI` or `IP`); input may mix units freely.',
+    '`units:` chooses the unit system in which this note’s ' +
+    'results are shown (`SI` or `IP`); input may mix units freely.',
   state:
-    '`state NAME: …` a moist-air state. Two independent properties fix it; `p=`/`elev=` override the site pressure; every further property is a claim, computed and compared.',
-  mix: '`mix NAME: A X + B Y …` adiabatic mixing of named states by dry-air mass fraction (`30%`), dry-air mass flow (`kg/s`, `lb/h`) or volume flow (`L/s`, `m3/s`, `cfm`) at each stream’s own state.',
+    '`state NAME: …` a moist-air state. Two independent properties fix it; `p=`/`elev=` ' +
+    'override the site pressure; every further property is a claim, computed and compared.',
+  mix:
+    '`mix NAME: A X + B Y …` adiabatic mixing of named states by dry-air mass fraction (`30%`), dry-air ' +
+    'mass flow (`kg/s`, `lb/h`) or volume flow (`L/s`, `m3/s`, `cfm`) at each stream’s own state.',
   supply:
-    '`supply NAME: ROOM q_sensible=… q_latent=… db=…` the supply state and dry-air flow that absorb the room’s sensible and latent gains; give the supply dry-bulb (`db=`) or the flow (`m=` or `q=` at the supply state) and the other follows.',
+    '`supply NAME: ROOM q_sensible=… q_latent=… db=…` the supply state and dry-air ' +
+    'flow that absorb the room’s sensible and latent gains; give the supply dry-bulb ' +
+    '(`db=`) or the flow (`m=` or `q=` at the supply state) and the other follows.',
   process:
-    '`process NAME: A -> B [m=… | q=…]` a process between two named states at one dry-air flow: heat rates, sensible heat ratio, moisture added or removed, and the kind of process. When B is a new name, the process defines it from its specification (`heat=`, `dt=`, `db=`, `dp_fan=` with `eff=`, `adp=` with `bf=`, `steam`, `adiabatic`).',
+    '`process NAME: A -> B [m=… | q=…]` a process between two named states at one dry-air ' +
+    'flow: heat rates, sensible heat ratio, moisture added or removed, and the kind of ' +
+    'process. When B is a new name, the process defines it from its specification (`heat=`, ' +
+    '`dt=`, `db=`, `dp_fan=` with `eff=`, `adp=` with `bf=`, `steam`, `adiabatic`).',
   recover:
-    '`recover NAME: A -> A2, B -> B2 eff_s=… [eff_l=…]` heat (and moisture) recovery between two streams, by effectiveness on the smaller capacity rate; defines both leaving states. `fog=ok` accepts condensation or frost on the cooled side.',
+    '`recover NAME: A -> A2, B -> B2 eff_s=… [eff_l=…]` heat (and moisture) recovery ' +
+    'between two streams, by effectiveness on the smaller capacity rate; defines ' +
+    'both leaving states. `fog=ok` accepts condensation or frost on the cooled side.',
 };
 
 /** The written text of a property (`rh=45%`). */
@@ -84,7 +97,8 @@ function claimsBlock(note: Note, item: EvaluatedItem): string[] {
     const file = note.settings.sources?.checkClaims;
     return written
       ? [
-          `Claims: not checked (${file ? `checkClaims is false in ${md(file)}` : 'setting dewmark.checkClaims is off'}).`,
+          `Claims: not checked ` +
+            `(${file ? `checkClaims is false in ${md(file)}` : 'setting dewmark.checkClaims is off'}).`,
         ]
       : [];
   }
@@ -236,7 +250,9 @@ function stateTable(note: Note, item: StateResult, system: UnitSystem, title: st
     }
     rows.push(
       '',
-      `\`mu\` —: not defined. The dry-bulb ${show(note, state.db, 'temperature', system)} is at or above the boiling point at ${show(note, state.p, 'pressure', system)}${boiling}: this air cannot be saturated, so it has no saturation humidity ratio Ws to compare W with. Every other figure holds.`,
+      `\`mu\` —: not defined. The dry-bulb ${show(note, state.db, 'temperature', system)} is at or above ` +
+        `the boiling point at ${show(note, state.p, 'pressure', system)}${boiling}: this air cannot be ` +
+        `saturated, so it has no saturation humidity ratio Ws to compare W with. Every other figure holds.`,
     );
   }
   // Near 0 °C both wick equations can solve: the one over water is reported, the other shown.
@@ -244,7 +260,9 @@ function stateTable(note: Note, item: StateResult, system: UnitSystem, title: st
   if (iceWb !== null) {
     rows.push(
       '',
-      `Wet-bulb: over water (eq 33) ${show(note, state.wb, 'temperature', system)}, reported; over ice (eq 35) ${show(note, iceWb, 'temperature', system)} also solves near ${show(note, 0, 'temperature', system)}.`,
+      `Wet-bulb: over water (eq 33) ${show(note, state.wb, 'temperature', system)}, ` +
+        `reported; over ice (eq 35) ${show(note, iceWb, 'temperature', system)} ` +
+        `also solves near ${show(note, 0, 'temperature', system)}.`,
     );
   }
   return rows;
@@ -253,7 +271,8 @@ function stateTable(note: Note, item: StateResult, system: UnitSystem, title: st
 /** The head of a supply's hover: the room loads, the room SHR and the flow it takes to absorb them. */
 function supplyHead(note: Note, item: StateResult, system: UnitSystem): string[] {
   const out = [
-    `**supply ${md(item.name)}** — supply air for the loads of ${md((item.statement.keyword === 'supply' && item.statement.room?.text) || '?')}`,
+    `**supply ${md(item.name)}** — supply air for the loads ` +
+      `of ${md((item.statement.keyword === 'supply' && item.statement.room?.text) || '?')}`,
   ];
   const f = item.supply;
   if (!f || item.massFlowKgS === undefined || item.massFlowKgS === null) return out;
@@ -268,7 +287,10 @@ function supplyHead(note: Note, item: StateResult, system: UnitSystem): string[]
     `| dry-air flow | ${show(note, item.massFlowKgS, 'massFlow', system)}${f.given === 'm' ? ' (given)' : ''} |`,
     `| volume flow at ${md(item.name)} | ${show(note, f.volumeFlowM3S, 'volumeFlow', system, lookupUnit(volumeUnit))}${f.given === 'q' ? ' (given)' : ''} |`,
     '',
-    `Found from the ${f.given === 'db' ? 'supply dry-bulb' : f.given === 'm' ? 'dry-air mass flow' : 'volume flow'} and the loads; a process from ${md(item.name)} to ${md(f.room)} at this flow gives the loads back (sensible with the moist-air cp at ${md(item.name)}'s W).`,
+    `Found from ` +
+      `the ${f.given === 'db' ? 'supply dry-bulb' : f.given === 'm' ? 'dry-air mass flow' : 'volume flow'} ` +
+      `and the loads; a process from ${md(item.name)} to ${md(f.room)} at this flow ` +
+      `gives the loads back (sensible with the moist-air cp at ${md(item.name)}'s W).`,
   );
   return out;
 }
@@ -333,7 +355,8 @@ function equipmentRows(note: Note, item: ProcessResult, system: UnitSystem): [st
   if (e.steamTempC !== undefined)
     rows.push([
       'steam supply',
-      `saturated at ${show(note, e.steamTempC, 'temperature', system)}, h ${show(note, e.steamEnthalpyJkg ?? 0, 'enthalpy', system)}`,
+      `saturated at ${show(note, e.steamTempC, 'temperature', system)}, ` +
+        `h ${show(note, e.steamEnthalpyJkg ?? 0, 'enthalpy', system)}`,
     ]);
   if (e.effSensible !== undefined) {
     rows.push([
@@ -445,12 +468,14 @@ function siteHover(note: Note, statement: Statement): string {
   if (!user) return KEYWORD_TEXT.site;
   const p = user.pressure;
   const lines = [
-    `**site** — ${show(note, p.pa, 'pressure', system)} (${show(note, p.pa, 'pressure', otherSystem(system))}) for the statements after it`,
+    `**site** — ${show(note, p.pa, 'pressure', system)} ` +
+      `(${show(note, p.pa, 'pressure', otherSystem(system))}) for the statements after it`,
   ];
   if (p.elevationM !== null)
     lines.push(
       '',
-      `From the elevation ${show(note, p.elevationM, 'length', system)} by the standard atmosphere (ASHRAE Handbook—Fundamentals Ch. 1).`,
+      `From the elevation ${show(note, p.elevationM, 'length', system)} ` +
+        `by the standard atmosphere (ASHRAE Handbook—Fundamentals Ch. 1).`,
     );
   lines.push('', md(p.origin));
   return lines.join('\n');
@@ -508,7 +533,9 @@ export function hover(note: Note, offset: number, token?: CancellationFlag): Hov
       const item = note.analysis.byName.get(target.name.text);
       if (!item || item.statement.span.start > target.statement.span.start) {
         return {
-          markdown: `\`${md(target.name.text)}\` is not defined before this line (names must be defined earlier in the note).`,
+          markdown:
+            `\`${md(target.name.text)}\` is not defined before ` +
+            `this line (names must be defined earlier in the note).`,
           span: target.name.span,
         };
       }

@@ -146,7 +146,9 @@ export function inlayHints(note: Note, span: Span, token?: CancellationFlag): Hi
     if (!r) continue;
     const pressure =
       item.kind === 'process' ? '' : ` at ${show(note, item.pressure.pa, 'pressure', note.analysis.units)}`;
-    const tooltip = `Computed by Dewmark for ${item.kind} **${item.name}**${pressure}. Hover the name for every figure and the claims.`;
+    const tooltip =
+      `Computed by Dewmark for ${item.kind} **${item.name}**${pressure}. ` +
+      `Hover the name for every figure and the claims.`;
     out.push({ offset: hintOffset(note, statement), label: r.label, tooltip, failed: r.failed });
   }
   return out;

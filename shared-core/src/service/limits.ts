@@ -46,9 +46,11 @@ export function limitDiagnostic(note: Note): CoreDiagnostic {
     code: NOTE_TOO_LARGE,
     severity: 'info',
     message:
-      `This note is ${size(limited.chars)}, more than the ${size(limited.limitChars)} that Dewmark evaluates as you type ` +
+      `This note is ${size(limited.chars)}, more than ` +
+      `the ${size(limited.limitChars)} that Dewmark evaluates as you type ` +
       `(setting dewmark.maxNoteSizeKB = ${note.settings.maxNoteKB}): no figures, hints or problems are shown for it. ` +
-      'Check it with `dewmark check` on the command line, split it into smaller notes, or raise the setting (0 = no limit).',
+      'Check it with `dewmark check` on the command line, split ' +
+      'it into smaller notes, or raise the setting (0 = no limit).',
     span: { start: 0, end },
   };
 }

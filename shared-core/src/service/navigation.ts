@@ -85,7 +85,10 @@ export function prepareRename(
 /** Why `newName` cannot replace `oldName` in this note, or null when it can. */
 export function renameProblem(note: Note, oldName: string, newName: string): string | null {
   if (!NAME_RE.test(newName)) {
-    return `"${newName}" is not a valid name: start with a letter, then use letters, digits, "_" or "-" (e.g. AHU-3_off_coil).`;
+    return (
+      `"${newName}" is not a valid name: start with a letter, ` +
+      `then use letters, digits, "_" or "-" (e.g. AHU-3_off_coil).`
+    );
   }
   if ((RESERVED as readonly string[]).includes(newName))
     return `"${newName}" is a statement keyword and cannot be a name; choose another name.`;
@@ -96,11 +99,17 @@ export function renameProblem(note: Note, oldName: string, newName: string): str
       ? clash.definedBy.nameSpan
       : clash?.statement.name?.span;
   if (clash && clashSpan) {
-    return `"${newName}" is already defined on line ${lineNumber(note.text, clashSpan.start)} (${clash.kind} ${newName}); choose a name that is not in use.`;
+    return (
+      `"${newName}" is already defined on line ${lineNumber(note.text, clashSpan.start)} ` +
+      `(${clash.kind} ${newName}); choose a name that is not in use.`
+    );
   }
   const used = note.analysis.references.find((r) => r.name === newName);
   if (used) {
-    return `"${newName}" is already used on line ${lineNumber(note.text, used.span.start)}; renaming to it would join two different names. Choose a name that is not in use.`;
+    return (
+      `"${newName}" is already used on line ${lineNumber(note.text, used.span.start)}; ` +
+      `renaming to it would join two different names. Choose a name that is not in use.`
+    );
   }
   return null;
 }

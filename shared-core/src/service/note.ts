@@ -151,7 +151,10 @@ export type Target =
   | { kind: 'system'; statement: Statement; name: NameNode }
   | { kind: 'statement'; statement: Statement };
 
-/** The names a statement refers to or defines after '->' (mix streams, process ends, recover streams, the states of property references). */
+/**
+ * The names a statement refers to or defines after '->' (mix streams, process ends, recover
+ * streams, the states of property references).
+ */
 export function referencesOf(statement: Statement): NameNode[] {
   const out: NameNode[] = [];
   if (statement.keyword === 'mix') for (const s of statement.streams) out.push(s.name);
@@ -208,7 +211,10 @@ export function targetAt(note: Note, offset: number): Target | undefined {
   return { kind: 'statement', statement };
 }
 
-/** The offset where the line holding `offset` ends (before `\r\n`, `\n` or a lone `\r`, as the Markdown reader splits lines). */
+/**
+ * The offset where the line holding `offset` ends (before `\r\n`, `\n` or a lone `\r`, as the
+ * Markdown reader splits lines).
+ */
 export function lineEnd(text: string, offset: number): number {
   const nl = text.indexOf('\n', offset);
   const end = nl < 0 ? text.length : nl;

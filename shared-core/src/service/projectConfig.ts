@@ -27,7 +27,10 @@ export interface ProjectConfig {
   path: string;
   /** The folder `include` and `exclude` patterns are relative to. */
   dir: string;
-  /** The editor-setting keys it sets and its `rules`, in the shape of the `dewmark` settings section (read by `readSettings`). */
+  /**
+   * The editor-setting keys it sets and its `rules`, in the shape of the `dewmark` settings section
+   * (read by `readSettings`).
+   */
   section: Record<string, unknown>;
   /** Glob patterns of notes to check (empty: every note). */
   include: string[];
@@ -56,7 +59,8 @@ export function parseProjectConfig(text: string, path: string, dir: string): Pro
     raw = JSON.parse(text.replace(/^\uFEFF/, ''));
   } catch (err) {
     config.problems.push(
-      `it is not valid JSON (${err instanceof Error ? err.message : String(err)}); fix it, or delete it to use the defaults`,
+      `it is not valid JSON (${err instanceof Error ? err.message : String(err)}); ` +
+        `fix it, or delete it to use the defaults`,
     );
     return config;
   }
@@ -68,7 +72,8 @@ export function parseProjectConfig(text: string, path: string, dir: string): Pro
   for (const key of Object.keys(obj)) {
     if (!(PROJECT_KEYS as readonly string[]).includes(key))
       config.problems.push(
-        `"${key}" is not a key of ${PROJECT_FILE}; the keys are ${PROJECT_KEYS.filter((k) => k !== '$schema').join(', ')}`,
+        `"${key}" is not a key of ${PROJECT_FILE}; the keys ` +
+          `are ${PROJECT_KEYS.filter((k) => k !== '$schema').join(', ')}`,
       );
   }
   for (const key of SETTING_KEYS) if (obj[key] !== undefined) config.section[key] = obj[key];

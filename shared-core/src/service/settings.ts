@@ -58,7 +58,8 @@ function readQuantitySetting(
   const m = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S*)$/.exec(text);
   if (!m)
     return {
-      problem: `dewmark.${name} = "${text}" is not a number with a unit (write e.g. "${example}"); the default is used.`,
+      problem:
+        `dewmark.${name} = "${text}" is not a number with a ` + `unit (write e.g. "${example}"); the default is used.`,
     };
   const value = Number(m[1]);
   const unitText = m[2] ?? '';
@@ -67,7 +68,9 @@ function readQuantitySetting(
   const unit = lookupUnit(unitText);
   if (!unit || unit.dimension !== dimension) {
     return {
-      problem: `dewmark.${name} = "${text}": "${unitText}" is not a unit of ${dimension === 'length' ? 'length' : 'pressure'} (write e.g. "${example}"); the default is used.`,
+      problem:
+        `dewmark.${name} = "${text}": "${unitText}" is not a unit ` +
+        `of ${dimension === 'length' ? 'length' : 'pressure'} (write e.g. "${example}"); the default is used.`,
     };
   }
   return { si: toSI(value, unit), written: `${m[1]} ${displaySymbol(unit)}` };
@@ -85,7 +88,8 @@ function readSite(obj: Record<string, unknown>, problems: string[]): DefaultSite
         return { kind: 'elevation', m: r.si, written: r.written };
       } catch (err) {
         problems.push(
-          `dewmark.elevation = "${r.written}": ${err instanceof Error ? err.message : String(err)} The default is used.`,
+          `dewmark.elevation = "${r.written}": ${err instanceof Error ? err.message : String(err)} ` +
+            `The default is used.`,
         );
       }
     }
@@ -143,7 +147,8 @@ export function readSettings(raw: unknown): { settings: ServiceSettings; problem
     hintProperties = 'auto';
   } else {
     problems.push(
-      `dewmark.inlayHints.properties must be a list of keys such as ["rh", "w", "h", "dp"]; the automatic choice is used.`,
+      `dewmark.inlayHints.properties must be a list of keys such ` +
+        `as ["rh", "w", "h", "dp"]; the automatic choice is used.`,
     );
   }
 
@@ -152,7 +157,8 @@ export function readSettings(raw: unknown): { settings: ServiceSettings; problem
   if (typeof pr === 'number' && Number.isInteger(pr) && pr >= 0 && pr <= MAX_EXTRA_DIGITS) extraDigits = pr;
   else if (pr !== undefined && pr !== null) {
     problems.push(
-      `dewmark.precision must be a whole number of extra decimals from 0 to ${MAX_EXTRA_DIGITS}, not ${JSON.stringify(pr)}; 0 is used.`,
+      `dewmark.precision must be a whole number of extra decimals from ` +
+        `0 to ${MAX_EXTRA_DIGITS}, not ${JSON.stringify(pr)}; 0 is used.`,
     );
   }
 
@@ -173,7 +179,8 @@ export function readSettings(raw: unknown): { settings: ServiceSettings; problem
   if (typeof mk === 'number' && Number.isInteger(mk) && mk >= 0) maxNoteKB = mk;
   else if (mk !== undefined && mk !== null) {
     problems.push(
-      `dewmark.maxNoteSizeKB must be a whole number of KB (0 for no limit), not ${JSON.stringify(mk)}; ${d.maxNoteKB} is used.`,
+      `dewmark.maxNoteSizeKB must be a whole number of KB (0 for no ` +
+        `limit), not ${JSON.stringify(mk)}; ${d.maxNoteKB} is used.`,
     );
   }
 
@@ -199,7 +206,8 @@ function readRules(raw: unknown, problems: string[]): Record<string, RuleSetting
   if (raw === undefined || raw === null) return undefined;
   if (typeof raw !== 'object' || Array.isArray(raw)) {
     problems.push(
-      `dewmark.rules must be an object of diagnostic codes, e.g. { "claim-mismatch": "error" }, not ${JSON.stringify(raw)}; it is ignored.`,
+      `dewmark.rules must be an object of diagnostic codes, e.g. { ` +
+        `"claim-mismatch": "error" }, not ${JSON.stringify(raw)}; it is ignored.`,
     );
     return undefined;
   }
@@ -207,7 +215,8 @@ function readRules(raw: unknown, problems: string[]): Record<string, RuleSetting
   for (const [code, value] of Object.entries(raw as Record<string, unknown>)) {
     if (!/^[a-z0-9]+(?:-[a-z0-9]+)*$/.test(code))
       problems.push(
-        `dewmark.rules: "${code}" is not a diagnostic code (lower-case words joined by hyphens, e.g. claim-mismatch); it is ignored.`,
+        `dewmark.rules: "${code}" is not a diagnostic code (lower-case ` +
+          `words joined by hyphens, e.g. claim-mismatch); it is ignored.`,
       );
     else if (typeof value !== 'string' || !(RULE_VALUES as readonly string[]).includes(value))
       problems.push(
@@ -227,7 +236,8 @@ export function toEvaluateSettings(s: ServiceSettings): EvaluateSettings {
   const file = s.sources?.site;
   if (s.site.kind === 'elevation') {
     pressurePa = stdAtmPressure(s.site.m);
-    pressureOrigin = `${file ? `${file}: elevation` : 'setting dewmark.elevation ='} ${s.site.written} (standard atmosphere):`;
+    pressureOrigin =
+      `${file ? `${file}: elevation` : 'setting dewmark.elevation ='} ${s.site.written} ` + `(standard atmosphere):`;
   } else if (s.site.written !== 'default') {
     pressurePa = s.site.pa;
     pressureOrigin = `${file ? `${file}: pressure` : 'setting dewmark.pressure ='} ${s.site.written}, i.e.`;

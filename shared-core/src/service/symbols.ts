@@ -46,7 +46,9 @@ function statementSymbols(note: Note, token?: CancellationFlag): OutlineSymbol[]
       if (item.processKind) detail += `, ${PROCESS_KIND_TEXT[item.processKind]}`;
       if (item.qTotalW !== null) detail += `, ${show(note, Math.abs(item.qTotalW), 'power', system)}`;
     } else if (item?.state) {
-      detail = `${show(note, item.state.db, 'temperature', system)} db, ${show(note, item.state.rh, 'fraction', system)} rh`;
+      detail =
+        `${show(note, item.state.db, 'temperature', system)} ` +
+        `db, ${show(note, item.state.rh, 'fraction', system)} rh`;
     }
     out.push({
       name: statement.name.text,

@@ -163,7 +163,9 @@ const SPECS: readonly UnitSpec[] = Object.freeze([
     BTU_PER_LB_OFFSET_J_PER_KG,
     fixed(2),
     {
-      note: 'kJ/kg = Btu/lb × 2.326 − 17.884: the dry-air datum moves from 0 °F to 0 °C as well as the unit (a difference converts by × 2.326 alone)',
+      note:
+        'kJ/kg = Btu/lb × 2.326 − 17.884: the dry-air datum moves from 0 °F ' +
+        'to 0 °C as well as the unit (a difference converts by × 2.326 alone)',
     },
   ),
 
@@ -251,7 +253,10 @@ export function unitsOf(dimension: Dimension): readonly UnitDef[] {
   return SPECS.filter((s) => s.dimension === dimension);
 }
 
-/** The SI base unit of a dimension (scale 1, offset 0: °C, Pa, kg/kg, J/kg, m³/kg, m, kg/s, m³/s, W, kg/m³); for fraction, `%` (the base 1 has no symbol). */
+/**
+ * The SI base unit of a dimension (scale 1, offset 0: °C, Pa, kg/kg, J/kg, m³/kg, m, kg/s, m³/s, W,
+ * kg/m³); for fraction, `%` (the base 1 has no symbol).
+ */
 export function baseUnit(dimension: Dimension): UnitDef {
   const base = SPECS.find((s) => s.dimension === dimension && s.scale === 1 && s.offset === 0);
   // '%' is the only fraction unit; its base "1" has no symbol of its own.
@@ -578,7 +583,10 @@ function decimalsForSignificant(value: number, figures: number): number {
   return figures - 1 - Math.floor(Math.log10(washed));
 }
 
-/** `12345.6` → `12,345.6`: thousands separated as `text/thousands.ts` says (IP figures, as US engineering documents write them). */
+/**
+ * `12345.6` → `12,345.6`: thousands separated as `text/thousands.ts` says (IP figures, as US
+ * engineering documents write them).
+ */
 function groupThousands(text: string): string {
   const m = /^(\D*)(\d{4,})(.*)$/.exec(text);
   if (!m) return text;

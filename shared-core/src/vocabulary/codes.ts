@@ -197,42 +197,49 @@ export const CODES = {
     severity: 'error',
     from: E,
     meaning:
-      'a supply state that cannot carry the room loads (the humidity ratio the latent load needs is negative or above saturation, the supply is not below the room for cooling, or the flow is not positive)',
+      'a supply state that cannot carry the room loads (the humidity ratio ' +
+      'the latent load needs is negative or above saturation, the supply ' +
+      'is not below the room for cooling, or the flow is not positive)',
     fixture: 'note',
   },
   'bad-reference': {
     severity: 'error',
     from: E,
     meaning:
-      'a property reference that cannot be used (a key that cannot be referenced, another kind, a wrong difference unit, a reference where only a figure goes)',
+      'a property reference that cannot be used (a key that cannot be referenced, ' +
+      'another kind, a wrong difference unit, a reference where only a figure goes)',
     fixture: 'note',
   },
   'mix-rest': {
     severity: 'error',
     from: E,
     meaning:
-      'a mix by total and remainder that does not add up (more than one rest stream, a rest without total=, streams of another kind than the total, or streams that leave nothing for the rest)',
+      'a mix by total and remainder that does not add up (more than one rest stream, a rest without ' +
+      'total=, streams of another kind than the total, or streams that leave nothing for the rest)',
     fixture: 'note',
   },
   'spec-missing': {
     severity: 'error',
     from: E,
     meaning:
-      'a process or recover specification lacks a key it needs (adp= without bf=, heat= without a flow, dp_fan= without eff=, steam without a target, recover without eff_s=)',
+      'a process or recover specification lacks a key it needs (adp= without bf=, heat= ' +
+      'without a flow, dp_fan= without eff=, steam without a target, recover without eff_s=)',
     fixture: 'note',
   },
   'spec-conflict': {
     severity: 'error',
     from: E,
     meaning:
-      'specification keys that cannot go together (heat= with dt=, heat= with adp=), or a specification on a process whose leaving state is already defined',
+      'specification keys that cannot go together (heat= with dt=, heat= with ' +
+      'adp=), or a specification on a process whose leaving state is already defined',
     fixture: 'note',
   },
   'spec-unreachable': {
     severity: 'error',
     from: E,
     meaning:
-      'a specification asks for a state the equipment cannot reach (steam to a lower humidity, an adiabatic humidifier beyond saturation…)',
+      'a specification asks for a state the equipment cannot reach (steam ' +
+      'to a lower humidity, an adiabatic humidifier beyond saturation…)',
     fixture: 'note',
   },
   'recovery-condensation': {
@@ -264,7 +271,8 @@ export const CODES = {
     alsoAs: 'warning',
     from: XE,
     meaning:
-      'a figure outside the range the engine computes, a non-positive pressure or flow, or a property without a finite value',
+      'a figure outside the range the engine computes, a non-positive ' +
+      'pressure or flow, or a property without a finite value',
     fixture: 'note',
   },
   'wb-above-db': { severity: 'error', from: X, meaning: 'wet-bulb above the dry-bulb', fixture: 'note' },
@@ -360,7 +368,8 @@ export const CODES = {
     severity: 'info',
     from: ['editor'],
     meaning:
-      "the note's project file dewmark.json leaves it out (include/exclude), so, as for dewmark check, its problems are not shown",
+      "the note's project file dewmark.json leaves it out (include/exclude), " +
+      'so, as for dewmark check, its problems are not shown',
     fixture: 'editor',
   },
 } as const satisfies Record<string, CodeSpec>;

@@ -51,7 +51,10 @@ export interface KeySpec {
   title: string;
   /** One line on what it means, for a hover on the key. */
   description: string;
-  /** Examples, each `key=value` that the notation accepts (every one is checked by a test); empty for a computed property. */
+  /**
+   * Examples, each `key=value` that the notation accepts (every
+   * one is checked by a test); empty for a computed property.
+   */
   examples: readonly string[];
   /** The examples in one phrase for messages: `db=24C or db=75F`. */
   example: string;
@@ -309,7 +312,8 @@ const ROWS = [
     bare: 'error',
     title: 'total flow of the mix',
     description:
-      'the flow the streams add up to: a dry-air mass flow, or a volume flow (each stream at its own state); one stream may then be written as rest',
+      'the flow the streams add up to: a dry-air mass flow, or a volume flow ' +
+      '(each stream at its own state); one stream may then be written as rest',
     examples: ['total=3.9kg/s', 'total=31000lb/h'],
   },
   {
@@ -417,7 +421,8 @@ const ROWS = [
     bare: 'si',
     title: 'fan efficiency or saturation effectiveness',
     description:
-      'total efficiency of a fan (electrical input to air power), or the saturation effectiveness of an adiabatic humidifier',
+      'total efficiency of a fan (electrical input to air power), ' +
+      'or the saturation effectiveness of an adiabatic humidifier',
     examples: ['eff=0.62', 'eff=62%'],
   },
   {

@@ -344,7 +344,8 @@ export async function startCodeServer(options: CodeServerOptions = {}): Promise<
       });
       if (r.status !== 0) {
         throw new Error(
-          `code-server --install-extension ${basename(src)} failed (exit ${r.status}, signal ${r.signal}):\n${r.stdout}\n${r.stderr}`,
+          `code-server --install-extension ${basename(src)} failed ` +
+            `(exit ${r.status}, signal ${r.signal}):\n${r.stdout}\n${r.stderr}`,
         );
       }
     }
@@ -636,7 +637,10 @@ export interface Workbench {
    * Select All and Copy in the editor, read through the clipboard. Leaves the cursor at the start.
    */
   editorText(options?: WaitOptions): Promise<string>;
-  /** Saves `rel` if its editor is dirty (Ctrl+S), waits until the tab is clean and the file changed on disk, and returns the file's text. */
+  /**
+   * Saves `rel` if its editor is dirty (Ctrl+S), waits until the tab is clean and the file changed
+   * on disk, and returns the file's text.
+   */
   saveAndRead(rel: string, options?: WaitOptions): Promise<string>;
   /** The active tab's label and dirty state. */
   activeTab(): Promise<{ label: string; dirty: boolean } | null>;

@@ -27,7 +27,10 @@ export type ToolName = 'nvim' | 'emacs' | 'chromium' | 'node24' | 'code-server' 
 export interface Tool {
   /** Which tool. */
   name: ToolName;
-  /** Executable (nvim, emacs, chromium, node24), script (code-server's `out/node/entry.js`) or package folder (playwright-core). */
+  /**
+   * Executable (nvim, emacs, chromium, node24), script (code-server's `out/node/entry.js`) or
+   * package folder (playwright-core).
+   */
   path: string;
   /** Version as the tool reports it (e.g. `0.7.2`, `156.0.8078.114`, `24.22.3`, `4.139.1`, `1.65.1`). */
   version: string;
