@@ -24,7 +24,9 @@ export function verdict(value: number | null, goal: number): string {
  */
 export function goalRow(label: string, value: number | null, unit: string, goal: number, decimals = 2): string {
   const shown = value === null || !Number.isFinite(value) ? 'n/a' : value.toFixed(decimals);
-  return `${label.padEnd(50)} ${shown.padStart(9)} ${unit.padEnd(3)} ${`goal ≤ ${goal} ${unit}`.padEnd(14)} ${verdict(value, goal).padEnd(8)} [${loadText()}]`;
+  const goalText = `goal ≤ ${goal} ${unit}`.padEnd(14);
+  const verdictText = verdict(value, goal).padEnd(8);
+  return `${label.padEnd(50)} ${shown.padStart(9)} ${unit.padEnd(3)} ${goalText} ${verdictText} [${loadText()}]`;
 }
 
 /** One line for a figure without a goal of its own (a breakdown or a context figure). */

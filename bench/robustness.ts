@@ -191,7 +191,9 @@ async function throughServer(n: BigNote, limitKB?: number): Promise<void> {
     }
     const limited = first.diagnostics.some((d) => d.code === 'note-too-large');
     console.log(
-      `${n.label.padEnd(20)} server${limitKB === 0 ? ' (no limit)' : ''}: ${limited ? 'over the limit (note-too-large), ' : ''}open → ${first.diagnostics.length} diagnostics ${openMs.toFixed(0)} ms; ` +
+      `${n.label.padEnd(20)} server${limitKB === 0 ? ' (no limit)' : ''}: ` +
+        `${limited ? 'over the limit (note-too-large), ' : ''}` +
+        `open → ${first.diagnostics.length} diagnostics ${openMs.toFixed(0)} ms; ` +
         `1-char edit → diagnostics ${median(edits).toFixed(0)} ms (median of 6); ` +
         `hover sent after the edit answered in ${median(hovers).toFixed(0)} ms`,
     );

@@ -6,7 +6,9 @@ const { join } = require('node:path');
 
 const bundle = join(__dirname, '..', 'dist', 'server.js');
 if (!existsSync(bundle)) {
-  process.stderr.write(`dewmark-language-server: ${bundle} is missing; run "npm run build" in the Dewmark folder first.\n`);
+  process.stderr.write(
+    `dewmark-language-server: ${bundle} is missing; run "npm run build" in the Dewmark folder first.\n`,
+  );
   process.exit(1);
 }
 require(bundle);

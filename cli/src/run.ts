@@ -135,8 +135,9 @@ async function analyse(
   }
   if (inputs.length === 0 && problems.length === 0) {
     const why = explainEmpty(empty).map(safeText);
+    const where = paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder';
     io.err(
-      `dewmark: no Markdown files (.md, .markdown) found in ${paths.length > 0 ? paths.map((p) => `'${safeText(p)}'`).join(', ') : 'the current folder'}${why.length > 0 ? `; ${why.join('; ')}` : ''}\n`,
+      `dewmark: no Markdown files (.md, .markdown) found in ${where}${why.length > 0 ? `; ${why.join('; ')}` : ''}\n`,
     );
     totals.ioProblems++;
   }
@@ -212,9 +213,8 @@ async function runCheck(paths: string[], opts: CommonOptions, io: CliIO): Promis
     };
     out.push(`${JSON.stringify(doc, null, 2)}\n`);
   } else if (format === 'sarif') {
-    out.push(
-      `${JSON.stringify(sarifLog(jsonFiles as { path: string; diagnostics: DiagnosticJson[] }[], VERSION, io.cwd), null, 2)}\n`,
-    );
+    const log = sarifLog(jsonFiles as { path: string; diagnostics: DiagnosticJson[] }[], VERSION, io.cwd);
+    out.push(`${JSON.stringify(log, null, 2)}\n`);
   } else {
     out.push(`${summaryLine(t.files, c, t.ioProblems)}\n`);
     if (maxWarnings !== null && c.warnings > maxWarnings)

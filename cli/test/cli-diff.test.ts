@@ -105,7 +105,7 @@ afterAll(() => {
 });
 
 describe('dewmark diff: an input edited upstream', () => {
-  it('lists every downstream figure that changed, with the claims written about it, and nothing unchanged', async () => {
+  it('lists every downstream figure that changed, with the claims written on it, and nothing unchanged', async () => {
     reset();
     writeFileSync(join(repo, 'notes', 'ahu2.md'), note('35C'));
     const r = await dewmark(['diff', '--format', 'json']);
@@ -158,7 +158,7 @@ describe('dewmark diff: an input edited upstream', () => {
     expect(doc.commit).toBe(git(['rev-parse', 'HEAD']).trim());
   });
 
-  it('agrees with eval: every figure eval gives differently (beyond display rounding) is listed, no other', async () => {
+  it('agrees with eval: each figure eval gives differently (beyond display rounding) is listed, no other', async () => {
     reset();
     const before = JSON.parse((await dewmark(['eval', '--format', 'json', 'notes/ahu2.md'])).out).files[0];
     writeFileSync(join(repo, 'notes', 'ahu2.md'), note('35C'));

@@ -229,7 +229,10 @@ describe('dewmark check', () => {
     const r = dewmark(['check', fixture]);
     expect(r.code).toBe(0);
     expect(r.out).toMatch(
-      /stale-results-table\.md:12:1: warning\[stale-results-table\]: the results table below the air block at line 6 is out of date: .*Insert or Refresh Results Table/,
+      new RegExp(
+        /stale-results-table\.md:12:1: warning\[stale-results-table\]: /.source +
+          /the results table below the air block at line 6 is out of date: .*Insert or Refresh Results Table/.source,
+      ),
     );
     expect(r.out).toContain('1 file, 0 errors, 1 warning');
     expect(dewmark(['check', '--max-warnings', '0', fixture]).code).toBe(1);

@@ -96,28 +96,25 @@ describe('dewmark fix', () => {
     expect(r.err).toContain('would fix 2 stale claims and 0 results tables in 1 file (run with --write to apply)');
   });
 
-  it(
-    '--write changes only the claimed figures (byte-order ' + 'mark and CRLF kept), and a second run has nothing to do',
-    () => {
-      const file = join(dir, 'write.md');
-      const before = Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(STALE, 'utf8')]);
-      writeFileSync(file, before);
-      const figures = proposed('write.md');
-      const r = dewmark(['fix', '--write', 'write.md']);
-      expect(r.code, r.err).toBe(0);
-      expect(r.out).toBe('');
-      const expected = Buffer.concat([
-        Buffer.from([0xef, 0xbb, 0xbf]),
-        Buffer.from(STALE.replace('w=11.0g/kg', `w=${figures[0]}`).replace('dp=25.0C', `dp=${figures[1]}`), 'utf8'),
-      ]);
-      expect(readFileSync(file).equals(expected)).toBe(true);
-      const again = dewmark(['fix', '--write', 'write.md']);
-      expect(again.code).toBe(0);
-      expect(again.err).toContain('nothing to fix');
-      expect(readFileSync(file).equals(expected)).toBe(true);
-      expect(dewmark(['check', '--max-warnings', '0', 'write.md']).code).toBe(0);
-    },
-  );
+  it('--write changes only the claimed figures (byte-order mark and CRLF kept); a second run does nothing', () => {
+    const file = join(dir, 'write.md');
+    const before = Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(STALE, 'utf8')]);
+    writeFileSync(file, before);
+    const figures = proposed('write.md');
+    const r = dewmark(['fix', '--write', 'write.md']);
+    expect(r.code, r.err).toBe(0);
+    expect(r.out).toBe('');
+    const expected = Buffer.concat([
+      Buffer.from([0xef, 0xbb, 0xbf]),
+      Buffer.from(STALE.replace('w=11.0g/kg', `w=${figures[0]}`).replace('dp=25.0C', `dp=${figures[1]}`), 'utf8'),
+    ]);
+    expect(readFileSync(file).equals(expected)).toBe(true);
+    const again = dewmark(['fix', '--write', 'write.md']);
+    expect(again.code).toBe(0);
+    expect(again.err).toContain('nothing to fix');
+    expect(readFileSync(file).equals(expected)).toBe(true);
+    expect(dewmark(['check', '--max-warnings', '0', 'write.md']).code).toBe(0);
+  });
 
   it('refreshes a results table that went stale, and only the text between its markers', () => {
     const fresh = withTables(

@@ -77,25 +77,22 @@ describe('eval --format json, written in pieces', () => {
     }
   });
 
-  it(
-    'prints the same document as stringifying every file at ' + 'once, for several files, none, and an unreadable one',
-    async () => {
-      const cwd = join(fixtures, 'features');
-      const files = readdirSync(cwd)
-        .filter((f) => f.endsWith('.md'))
-        .slice(0, 3);
-      const r = await dewmark(['eval', '--format', 'json', ...files, 'missing.md'], cwd);
-      expect(r.code).toBe(2); // the missing file
-      expect(r.err).toContain('missing.md');
-      const objects = files.map((f) => {
-        const text = readFileSync(join(cwd, f), 'utf8');
-        return evalFileJson(fileResult(f, text, analyzeNote(text)));
-      });
-      expect(r.out).toBe(`${JSON.stringify({ files: objects }, null, 2)}\n`);
-      const none = await dewmark(['eval', '--format', 'json', 'missing.md'], cwd);
-      expect(none.out).toBe(`${JSON.stringify({ files: [] }, null, 2)}\n`);
-    },
-  );
+  it('prints what stringifying all files at once prints, for several files, none, and an unreadable one', async () => {
+    const cwd = join(fixtures, 'features');
+    const files = readdirSync(cwd)
+      .filter((f) => f.endsWith('.md'))
+      .slice(0, 3);
+    const r = await dewmark(['eval', '--format', 'json', ...files, 'missing.md'], cwd);
+    expect(r.code).toBe(2); // the missing file
+    expect(r.err).toContain('missing.md');
+    const objects = files.map((f) => {
+      const text = readFileSync(join(cwd, f), 'utf8');
+      return evalFileJson(fileResult(f, text, analyzeNote(text)));
+    });
+    expect(r.out).toBe(`${JSON.stringify({ files: objects }, null, 2)}\n`);
+    const none = await dewmark(['eval', '--format', 'json', 'missing.md'], cwd);
+    expect(none.out).toBe(`${JSON.stringify({ files: [] }, null, 2)}\n`);
+  });
 });
 
 describe('rounding figures for the JSON', () => {

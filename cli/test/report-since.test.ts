@@ -74,7 +74,7 @@ afterAll(() => {
 });
 
 describe('dewmark report --since REV', () => {
-  it('holds what dewmark diff computes: each changed figure, old → new, with its claims; added statements', async () => {
+  it('holds what dewmark diff computes: each changed figure, old → new, its claims; added statements', async () => {
     writeFileSync(join(repo, 'ahu-3.md'), note('34C', 'state ROOM2: db=22C rh=45%'));
     const diff = await dewmark(['diff', 'HEAD', '--format', 'json', '--', 'ahu-3.md']);
     expect(diff.code).toBe(0);

@@ -41,13 +41,14 @@ export function statusFromSettings(s: StatusSettings): NoteStatusResult {
   const elevation = text(s.elevation);
   const pressure = text(s.pressure);
   let pressureLabel = '101.325 kPa';
-  let pressureDescribe = 'Default pressure 101.325 kPa (standard sea level), for notes without a site: line.';
+  const forNotes = 'for notes without a site: line.';
+  let pressureDescribe = `Default pressure 101.325 kPa (standard sea level), ${forNotes}`;
   if (elevation !== '') {
     pressureLabel = `elev ${elevation}`;
-    pressureDescribe = `Setting dewmark.elevation = ${elevation} (standard atmosphere), for notes without a site: line.`;
+    pressureDescribe = `Setting dewmark.elevation = ${elevation} (standard atmosphere), ${forNotes}`;
   } else if (pressure !== '') {
     pressureLabel = pressure;
-    pressureDescribe = `Setting dewmark.pressure = ${pressure}, for notes without a site: line.`;
+    pressureDescribe = `Setting dewmark.pressure = ${pressure}, ${forNotes}`;
   }
   return { units, unitsSource: 'setting', unitsValueRange: null, pressureLabel, pressureDescribe };
 }

@@ -53,9 +53,12 @@ function binary(display: string): ReadOutcome {
 /** The message for a note over the size limit (`size` when known: a regular file). */
 function tooLarge(display: string, size: number | null, maxBytes: number): ReadOutcome {
   const is = size === null ? `goes on past ${mb(maxBytes)}` : `is ${mb(size)}`;
+  const suggested = Math.max(DEFAULT_MAX_NOTE_MB * 2, Math.ceil((size ?? 2 * maxBytes) / 1024 / 1024) + 1);
   return {
     ok: false,
-    message: `'${display}' ${is}, more than the ${mb(maxBytes)} one note may be (so reading it cannot exhaust memory); split the note, or raise the limit with --max-note-size <MB>, e.g. --max-note-size ${Math.max(DEFAULT_MAX_NOTE_MB * 2, Math.ceil((size ?? 2 * maxBytes) / 1024 / 1024) + 1)}`,
+    message:
+      `'${display}' ${is}, more than the ${mb(maxBytes)} one note may be (so reading it cannot exhaust memory); ` +
+      `split the note, or raise the limit with --max-note-size <MB>, e.g. --max-note-size ${suggested}`,
   };
 }
 

@@ -50,7 +50,10 @@ export function projectFilter(p: ProjectPatterns): (abs: string) => LeftOutByPro
       return {
         by: 'include',
         patterns: [...p.include],
-        why: `${p.include.length === 1 ? 'its include pattern' : 'none of its include patterns'} ${list} ${p.include.length === 1 ? 'does not match it' : 'matches it'}`,
+        why:
+          p.include.length === 1
+            ? `its include pattern ${list} does not match it`
+            : `none of its include patterns ${list} matches it`,
       };
     }
     return null;

@@ -86,16 +86,13 @@ describe('states lie on their curves', () => {
     }
   });
 
-  it(
-    'a saturated state lies on the saturation curve, and a ' + 'wet-bulb line passes through a state of that wet-bulb',
-    () => {
-      const sat = state('S', 18, satHumRatio(18, P0));
-      const wbState = state('B', 30, humRatioFromWetBulb(30, 20, P0));
-      const svg = renderChartFromData(data([sat, wbState]));
-      expect(distanceToRuns(marker(svg, 'S'), curvePath(svg, 'saturation', '100'))).toBeLessThan(1);
-      expect(distanceToRuns(marker(svg, 'B'), curvePath(svg, 'wetBulb', '20'))).toBeLessThan(1);
-    },
-  );
+  it('a saturated state lies on the saturation curve; a wet-bulb line passes through a state of that wb', () => {
+    const sat = state('S', 18, satHumRatio(18, P0));
+    const wbState = state('B', 30, humRatioFromWetBulb(30, 20, P0));
+    const svg = renderChartFromData(data([sat, wbState]));
+    expect(distanceToRuns(marker(svg, 'S'), curvePath(svg, 'saturation', '100'))).toBeLessThan(1);
+    expect(distanceToRuns(marker(svg, 'B'), curvePath(svg, 'wetBulb', '20'))).toBeLessThan(1);
+  });
 
   it('an enthalpy line passes through a state of that enthalpy', () => {
     // 50 kJ/kg at w = 0.008: the dry-bulb from the engine's enthalpy equation.

@@ -169,7 +169,10 @@ describe('bad references get one clear error each, on the offending token', () =
       ['state OA: db=30C rh=40%', 'state X: db=30C rh=OA.rh+5%'],
       'bad-reference',
       '+5%',
-      /a relative humidity takes no difference: '\+5%' could mean 5 percentage points or 5 % of OA's figure.*rh=45%.*w=OA\.w\+0\.5g\/kg or dp=OA\.dp\+0\.8K/,
+      new RegExp(
+        /a relative humidity takes no difference: '\+5%' could mean 5 percentage points or 5 % of OA's figure/.source +
+          /.*rh=45%.*w=OA\.w\+0\.5g\/kg or dp=OA\.dp\+0\.8K/.source,
+      ),
     ],
     [
       'a process’s leaving values: the message names its leaving state',
@@ -183,7 +186,11 @@ describe('bad references get one clear error each, on the offending token', () =
       ['state A: db=30C rh=60%', 'process CC: A -> OFF m=1kg/s adp=10C bf=0.1', 'state X: db=CC.adp rh=100%'],
       'not-a-state',
       'CC',
-      /the air leaving CC is OFF, so write db=OFF\.db\. A process's own figures \(its apparatus dew point, heat rates, water, flow\) are not taken by reference: write the figure itself/,
+      new RegExp(
+        /the air leaving CC is OFF, so write db=OFF\.db\. /.source +
+          /A process's own figures \(its apparatus dew point, heat rates, water, flow\) /.source +
+          /are not taken by reference: write the figure itself/.source,
+      ),
     ],
     [
       'a tolerance',

@@ -27,8 +27,10 @@ export function statementText(st: Statement): string {
       return `site: ${props}`;
     case 'state':
       return `state ${st.name?.text ?? '?'}: ${props}`;
-    case 'mix':
-      return `mix ${st.name?.text ?? '?'}: ${st.streams.map((s) => `${s.name.text} ${quantityText(s.amount)}`).join(' + ')}${tail}`;
+    case 'mix': {
+      const streams = st.streams.map((s) => `${s.name.text} ${quantityText(s.amount)}`).join(' + ');
+      return `mix ${st.name?.text ?? '?'}: ${streams}${tail}`;
+    }
     case 'process':
       return (
         `process ${st.name?.text ?? '?'}: ${st.from?.text ?? '?'} ` +
@@ -39,7 +41,8 @@ export function statementText(st: Statement): string {
     case 'recover': {
       const own = (ps: typeof st.props): string =>
         ps.length ? ` | ${ps.map((p) => `${p.key}=${quantityText(p.value)}`).join(' ')}` : '';
-      return `recover ${st.name?.text ?? '?'}: ${st.streams.map((x) => `${x.from?.text ?? '?'} -> ${x.to?.text ?? '?'}${own(x.props)}`).join(', ')}${st.options.map((o) => ` ${o.key}=${o.word.text}`).join('')}`;
+      const streams = st.streams.map((x) => `${x.from?.text ?? '?'} -> ${x.to?.text ?? '?'}${own(x.props)}`).join(', ');
+      return `recover ${st.name?.text ?? '?'}: ${streams}${st.options.map((o) => ` ${o.key}=${o.word.text}`).join('')}`;
     }
   }
 }

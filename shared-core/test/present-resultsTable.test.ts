@@ -62,22 +62,19 @@ describe('block results', () => {
     expect(blocks[1]!.data.processes.map((p) => p.name)).toEqual(['CC', 'DRY']);
   });
 
-  it(
-    'shows ASHRAE HoF 2017 SI Ch.1 Example 1 in SI (W 6.5 g/kg ' + '±0.1, dp 7 °C ±0.5, rh 14 % ±1, h 56.7 kJ/kg ±0.1)',
-    () => {
-      // Check values PL-SI-EX1 (as cited in the PsychroLib test suite); half a shown digit added for rounding.
-      const lines = resultsTableMarkdown(blocks[0]!.data);
-      expect(lines[0]).toMatch(/^\| state +\| db °C \| wb °C \| dp °C \| rh % \| w g\/kg \| h kJ\/kg \|$/);
-      const [, db, wb, dp, rh, w, h] = row(lines, 'OA');
-      expect(num(db)).toBe(40);
-      expect(num(wb)).toBe(20);
-      expect(Math.abs(num(dp) - 7)).toBeLessThanOrEqual(0.55);
-      expect(Math.abs(num(rh) - 14)).toBeLessThanOrEqual(1.05);
-      expect(Math.abs(num(w) - 6.5)).toBeLessThanOrEqual(0.105);
-      expect(Math.abs(num(h) - 56.7)).toBeLessThanOrEqual(0.105);
-      expect(lines.join('\n')).toContain('Results in SI at 101.325 kPa.');
-    },
-  );
+  it('shows ASHRAE HoF 2017 SI Ch.1 Example 1 (W 6.5 g/kg ±0.1, dp 7 °C ±0.5, rh 14 % ±1, h 56.7 kJ/kg ±0.1)', () => {
+    // Check values PL-SI-EX1 (as cited in the PsychroLib test suite); half a shown digit added for rounding.
+    const lines = resultsTableMarkdown(blocks[0]!.data);
+    expect(lines[0]).toMatch(/^\| state +\| db °C \| wb °C \| dp °C \| rh % \| w g\/kg \| h kJ\/kg \|$/);
+    const [, db, wb, dp, rh, w, h] = row(lines, 'OA');
+    expect(num(db)).toBe(40);
+    expect(num(wb)).toBe(20);
+    expect(Math.abs(num(dp) - 7)).toBeLessThanOrEqual(0.55);
+    expect(Math.abs(num(rh) - 14)).toBeLessThanOrEqual(1.05);
+    expect(Math.abs(num(w) - 6.5)).toBeLessThanOrEqual(0.105);
+    expect(Math.abs(num(h) - 56.7)).toBeLessThanOrEqual(0.105);
+    expect(lines.join('\n')).toContain('Results in SI at 101.325 kPa.');
+  });
 
   it('shows the same state in I-P units when asked (ASHRAE HoF 2017 I-P Ch.1 Example 1 is 100 °F db, 65 °F wb)', () => {
     const ip = analyzeNote('```air\nunits: IP\nsite: p=14.696psia\nstate S: db=100F wb=65F\n```\n');
@@ -145,8 +142,8 @@ describe('block results', () => {
     expect(md).toMatch(/^- \*\*error\*\* wb-above-db .*wet-bulb/m);
     expect(md).toMatch(/^- \*\*warning\*\* claim-mismatch RA: .*w=/m);
     expect(resultsTableHtml(data)).toContain(
-      '<li class="dewmark-error"><span class="dewmark-severity">error</span> ' +
-        '<span class="dewmark-code">wb-above-db</span>',
+      '<li class="dewmark-error"><span class="dewmark-severity">' +
+        'error</span> <span class="dewmark-code">wb-above-db</span>',
     );
   });
 

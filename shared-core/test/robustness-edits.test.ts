@@ -66,7 +66,9 @@ const fixable = fc.oneof(
   fc.tuple(temp, fc.constantFrom('g/Kg', 'kpa', 'KJ/kg', 'Btu/LB', '°c', 'l/s')).map(([t, u]) => {
     if (u === 'kpa') return `state U${t + 20}: db=${t}C rh=50% p=84${u}`;
     if (u === 'l/s') return `state U${t + 20}: db=${t}C rh=50%`;
-    return `state U${t + 20}: db=${t}C ${u === 'KJ/kg' ? `h=45${u}` : u === 'Btu/LB' ? `h=20${u}` : u === '°c' ? `wb=${t - 2}${u}` : `w=6.1${u}`}`;
+    const second =
+      u === 'KJ/kg' ? `h=45${u}` : u === 'Btu/LB' ? `h=20${u}` : u === '°c' ? `wb=${t - 2}${u}` : `w=6.1${u}`;
+    return `state U${t + 20}: db=${t}C ${second}`;
   }),
   // statements the unit-system rewrite works on (SI and IP, flows, pressures, tolerances)
   fc.constantFrom(
@@ -135,7 +137,8 @@ function onlyInside(before: string, after: string, edits: readonly Edit[], what:
 
 function applyAndCheck(n: Note, s: ServiceSettings, action: FixAction, counts: Record<string, number>): void {
   const text = n.text;
-  const what = `'${action.title}' on ${JSON.stringify(text.slice(Math.max(0, action.edits[0]!.span.start - 30), action.edits[0]!.span.end + 30))}`;
+  const at = action.edits[0]!.span;
+  const what = `'${action.title}' on ${JSON.stringify(text.slice(Math.max(0, at.start - 30), at.end + 30))}`;
   const before = n.analysis.parsed.statements;
   const target = before.filter((st) =>
     action.edits.some((e) => e.span.start >= st.span.start && e.span.end <= st.span.end),

@@ -33,7 +33,7 @@ async function freshEngine() {
 }
 
 describe('a solver that hits its bound reports no-convergence', () => {
-  it('the bracketed root finder stops at maxIter and returns NaN (its callers turn that into no-convergence)', async () => {
+  it('the bracketed root finder stops at maxIter and returns NaN (callers turn that into no-convergence)', async () => {
     const { findRoot } = await import('../src/physics/roots');
     // Each iteration evaluates the function once: the evaluations count the iterations.
     let calls = 0;

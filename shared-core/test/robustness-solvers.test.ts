@@ -160,57 +160,53 @@ describe('every solve at the edges returns a state or a typed problem', () => {
     expect(problems).toBeGreaterThan(10);
   });
 
-  it(
-    'a state solved from any independent pair of its own ' + 'properties is the same state again (self-consistency)',
-    () => {
-      const pairs: [DefiningKey, DefiningKey][] = [];
-      for (let i = 0; i < DEFINING_KEYS.length; i++)
-        for (let j = i + 1; j < DEFINING_KEYS.length; j++) pairs.push([DEFINING_KEYS[i]!, DEFINING_KEYS[j]!]);
-      let trips = 0;
-      for (const p of PRESSURES) {
-        for (const db of TEMPS) {
-          for (const rh of [0.01, 0.5, 0.999999, 1]) {
-            const base = solve({ db, rh }, p);
-            if (!base.ok || !Number.isFinite(base.state.dp) || !Number.isFinite(base.state.ws)) continue;
-            const s = base.state;
-            for (const [a, b] of pairs) {
-              const what = `${a}+${b} from db=${db} rh=${rh} p=${p}`;
-              const r = solve({ [a]: s[a], [b]: s[b] }, p);
-              expectTyped(r, what);
-              if (!r.ok && (s[a] < -100 || s[b] < -100)) {
-                // A wet-bulb or dew point below −100 °C (extrapolated in the base state) is not accepted as input.
-                expect(r.problem.code, what).toBe('out-of-range');
-                continue;
-              }
-              if (a === 'dp' && b === 'w') {
-                expect(r.ok ? 'solved' : r.problem.code, what).toBe('dependent-pair');
-                continue;
-              }
-              if (!r.ok) {
-                // Saturated air: db, wb and dp coincide, so a pair of two of them fixes nothing more.
-                const saturatedPair =
-                  rh === 1 && ['db', 'wb', 'dp'].includes(a) && ['db', 'wb', 'dp', 'rh'].includes(b);
-                // wb with h is nearly parallel; at the extremes of the
-                // range the pair may be declared dependent or unsolvable.
-                const weakPair = a === 'wb' && b === 'h';
-                expect(saturatedPair || weakPair, `${what}: ${r.problem.code}: ${r.problem.message}`).toBe(true);
-                continue;
-              }
-              trips++;
-              checkDefinitions(r.state, what);
-              // wb+h magnifies the round-off of h by 1/(dh/ddb along the wet-bulb): looser there.
-              const tolT = a === 'wb' && b === 'h' ? 0.05 : 2e-5;
-              expect(Math.abs(r.state.db - s.db), `${what}: db ${r.state.db} vs ${s.db}`).toBeLessThanOrEqual(tolT);
-              expect(Math.abs(r.state.w - s.w), `${what}: w ${r.state.w} vs ${s.w}`).toBeLessThanOrEqual(
-                Math.max(1e-9, 1e-5 * s.w) + (tolT > 1e-3 ? 1e-4 * s.w : 0),
-              );
+  it('a state solved from any independent pair of its own properties is the same state (self-consistency)', () => {
+    const pairs: [DefiningKey, DefiningKey][] = [];
+    for (let i = 0; i < DEFINING_KEYS.length; i++)
+      for (let j = i + 1; j < DEFINING_KEYS.length; j++) pairs.push([DEFINING_KEYS[i]!, DEFINING_KEYS[j]!]);
+    let trips = 0;
+    for (const p of PRESSURES) {
+      for (const db of TEMPS) {
+        for (const rh of [0.01, 0.5, 0.999999, 1]) {
+          const base = solve({ db, rh }, p);
+          if (!base.ok || !Number.isFinite(base.state.dp) || !Number.isFinite(base.state.ws)) continue;
+          const s = base.state;
+          for (const [a, b] of pairs) {
+            const what = `${a}+${b} from db=${db} rh=${rh} p=${p}`;
+            const r = solve({ [a]: s[a], [b]: s[b] }, p);
+            expectTyped(r, what);
+            if (!r.ok && (s[a] < -100 || s[b] < -100)) {
+              // A wet-bulb or dew point below −100 °C (extrapolated in the base state) is not accepted as input.
+              expect(r.problem.code, what).toBe('out-of-range');
+              continue;
             }
+            if (a === 'dp' && b === 'w') {
+              expect(r.ok ? 'solved' : r.problem.code, what).toBe('dependent-pair');
+              continue;
+            }
+            if (!r.ok) {
+              // Saturated air: db, wb and dp coincide, so a pair of two of them fixes nothing more.
+              const saturatedPair = rh === 1 && ['db', 'wb', 'dp'].includes(a) && ['db', 'wb', 'dp', 'rh'].includes(b);
+              // wb with h is nearly parallel; at the extremes of the
+              // range the pair may be declared dependent or unsolvable.
+              const weakPair = a === 'wb' && b === 'h';
+              expect(saturatedPair || weakPair, `${what}: ${r.problem.code}: ${r.problem.message}`).toBe(true);
+              continue;
+            }
+            trips++;
+            checkDefinitions(r.state, what);
+            // wb+h magnifies the round-off of h by 1/(dh/ddb along the wet-bulb): looser there.
+            const tolT = a === 'wb' && b === 'h' ? 0.05 : 2e-5;
+            expect(Math.abs(r.state.db - s.db), `${what}: db ${r.state.db} vs ${s.db}`).toBeLessThanOrEqual(tolT);
+            expect(Math.abs(r.state.w - s.w), `${what}: w ${r.state.w} vs ${s.w}`).toBeLessThanOrEqual(
+              Math.max(1e-9, 1e-5 * s.w) + (tolT > 1e-3 ? 1e-4 * s.w : 0),
+            );
           }
         }
       }
-      expect(trips).toBeGreaterThan(1000);
-    },
-  );
+    }
+    expect(trips).toBeGreaterThan(1000);
+  });
 
   it('near the boiling point at 1 kPa: at, just below and just above it (eq 6 inverted)', () => {
     const p = 1000;
@@ -307,33 +303,30 @@ describe('every solve at the edges returns a state or a typed problem', () => {
     }
   });
 
-  it(
-    'non-finite and absurd inputs are typed problems (NaN, ' + '±Infinity, 1e308, −0, pressures of 0 and 1e-320 Pa)',
-    () => {
-      const values = [Number.NaN, Infinity, -Infinity, 1e308, -1e308, -0, 5e-324];
-      for (const p of [0, -1, 1e-320, Number.NaN, Infinity, 1e308, 101_325]) {
-        for (const [a, b] of [
-          ['db', 'rh'],
-          ['db', 'wb'],
-          ['db', 'w'],
-          ['rh', 'h'],
-          ['w', 'h'],
-          ['wb', 'rh'],
-          ['dp', 'h'],
-        ] as const) {
-          for (const x of values) {
-            // Not counted in the convergence figures: these are far outside any real air.
-            const r1 = solve({ [a]: x, [b]: 0.5 }, p, false);
-            const r2 = solve({ [a]: 20, [b]: x }, p, false);
-            for (const r of [r1, r2]) {
-              expectTyped(r, `${a}/${b} with ${x} at ${p} Pa`, Number.isFinite(x) && Number.isFinite(p));
-              if (r.ok) checkDefinitions(r.state, `${a}/${b} with ${x} at ${p} Pa`);
-            }
+  it('non-finite and absurd inputs are typed problems (NaN, ±Infinity, 1e308, −0, p of 0 and 1e-320 Pa)', () => {
+    const values = [Number.NaN, Infinity, -Infinity, 1e308, -1e308, -0, 5e-324];
+    for (const p of [0, -1, 1e-320, Number.NaN, Infinity, 1e308, 101_325]) {
+      for (const [a, b] of [
+        ['db', 'rh'],
+        ['db', 'wb'],
+        ['db', 'w'],
+        ['rh', 'h'],
+        ['w', 'h'],
+        ['wb', 'rh'],
+        ['dp', 'h'],
+      ] as const) {
+        for (const x of values) {
+          // Not counted in the convergence figures: these are far outside any real air.
+          const r1 = solve({ [a]: x, [b]: 0.5 }, p, false);
+          const r2 = solve({ [a]: 20, [b]: x }, p, false);
+          for (const r of [r1, r2]) {
+            expectTyped(r, `${a}/${b} with ${x} at ${p} Pa`, Number.isFinite(x) && Number.isFinite(p));
+            if (r.ok) checkDefinitions(r.state, `${a}/${b} with ${x} at ${p} Pa`);
           }
         }
       }
-    },
-  );
+    }
+  });
 
   it('the iterative solves converge in few iterations at every edge (over the states of all the tests above)', () => {
     // Runs after the grid tests in this file. Hard bounds are 80 (saturation inversion), 100

@@ -66,29 +66,26 @@ describe('hover on references', () => {
     expect(tableValue(h, 'db')).toBe(40);
   });
 
-  it(
-    'on a process that defines its leaving state: the ' + 'reference is that state’s, and its hover names the source',
-    () => {
-      const input = air(
-        'state RA: db=24C rh=50%',
-        'supply SA: RA q_sensible=40kW q_latent=10kW m=4kg/s',
-        'process CC: RA -> OFF db=11.5C w=SA.|w',
-      );
-      const { text, offsets } = marked(input);
-      const note = noteOf(text);
-      const h = hover(note, offsets[0]!)!;
-      const sa = note.analysis.items.find((i) => i.name === 'SA') as { state: { w: number } };
-      // The value is SA's computed W (a reference takes the property as it is), shown to 0.01 g/kg.
-      expect(h.markdown.split('\n')[0]).toBe(`\`w=SA.w\` — w from SA: ${(sa.state.w * 1000).toFixed(2)} g/kg`);
-      expect(h.markdown).toContain('**supply SA**');
-      // The leaving state's own hover marks the taken property and the process that defined it.
-      const off = hover(note, text.indexOf('OFF') + 1)!.markdown;
-      expect(off).toMatch(/\| `w` \| [\d.]+ \| g\/kg ← SA \|/);
-      expect(off).toContain('Defined by process CC from RA (`db=11.5C w=SA.w`).');
-      const d = definition(note, offsets[0]!);
-      expect(d && where(text, d.nameSpan)).toBe('3:SA');
-    },
-  );
+  it('on a process that defines its leaving state: the reference is that state’s; its hover names the source', () => {
+    const input = air(
+      'state RA: db=24C rh=50%',
+      'supply SA: RA q_sensible=40kW q_latent=10kW m=4kg/s',
+      'process CC: RA -> OFF db=11.5C w=SA.|w',
+    );
+    const { text, offsets } = marked(input);
+    const note = noteOf(text);
+    const h = hover(note, offsets[0]!)!;
+    const sa = note.analysis.items.find((i) => i.name === 'SA') as { state: { w: number } };
+    // The value is SA's computed W (a reference takes the property as it is), shown to 0.01 g/kg.
+    expect(h.markdown.split('\n')[0]).toBe(`\`w=SA.w\` — w from SA: ${(sa.state.w * 1000).toFixed(2)} g/kg`);
+    expect(h.markdown).toContain('**supply SA**');
+    // The leaving state's own hover marks the taken property and the process that defined it.
+    const off = hover(note, text.indexOf('OFF') + 1)!.markdown;
+    expect(off).toMatch(/\| `w` \| [\d.]+ \| g\/kg ← SA \|/);
+    expect(off).toContain('Defined by process CC from RA (`db=11.5C w=SA.w`).');
+    const d = definition(note, offsets[0]!);
+    expect(d && where(text, d.nameSpan)).toBe('3:SA');
+  });
 
   it('on the state name of a reference: the hover of that state', () => {
     const { text, offset } = at('MA.db', 1);

@@ -82,18 +82,15 @@ describe('inserting results tables', () => {
     expect(rest).toBe(NOTE);
   });
 
-  it(
-    'adds no statement, error or warning to the note, and ' + 'names from the first block resolve in the second table',
-    () => {
-      const before = analyzeNote(NOTE);
-      const a = analyzeNote(after);
-      expect(a.parsed.statements.length).toBe(before.parsed.statements.length);
-      expect(a.diagnostics.map((d) => d.code)).toEqual(before.diagnostics.map((d) => d.code));
-      expect(after).toMatch(/\| MA \(mix: OA 30.0 % \+ RA 70.0 %\) +\| +−?\d/);
-      // PH's w=4.5g/kg is MA's 4.45 g/kg rounded: a preheat coil, no moisture change (docs/notation.md).
-      expect(after).toMatch(/\| HC: MA → PH \| sensible heating/);
-    },
-  );
+  it('adds no statement, error or warning, and names from the first block resolve in the second table', () => {
+    const before = analyzeNote(NOTE);
+    const a = analyzeNote(after);
+    expect(a.parsed.statements.length).toBe(before.parsed.statements.length);
+    expect(a.diagnostics.map((d) => d.code)).toEqual(before.diagnostics.map((d) => d.code));
+    expect(after).toMatch(/\| MA \(mix: OA 30.0 % \+ RA 70.0 %\) +\| +−?\d/);
+    // PH's w=4.5g/kg is MA's 4.45 g/kg rounded: a preheat coil, no moisture change (docs/notation.md).
+    expect(after).toMatch(/\| HC: MA → PH \| sensible heating/);
+  });
 
   it('writes Markdown that renders as tables, with the markers as HTML comments', () => {
     const tokens = new MarkdownIt('commonmark').enable('table').parse(after, {});

@@ -18,13 +18,16 @@ import { KEYS, type KeySpec, type KeyStatement, keySpec } from '../src/vocabular
 /** A note that writes `example` where a key of `statement` goes (A and B are defined states). */
 function noteWith(statement: KeyStatement, example: string): string {
   const pair = /^(db|rh)=/.test(example) ? 'wb=17C dp=12C' : 'db=24C rh=50%';
+  // A supply needs both loads and its dry-bulb or flow; the example replaces the one of its key.
+  const supplyKeys = ['q_sensible=4kW', 'q_latent=1kW', /^(m|q)=/.test(example) ? '' : 'db=13C']
+    .filter((x) => x && !x.startsWith(`${example.split('=')[0]!}=`))
+    .join(' ');
   const line = {
     state: `state X: ${pair} ${example}`,
     mix: `mix X: A 40% + B 60% ${example}`,
     site: `site: ${example}`,
     process: `process X: A -> B ${example}`,
-    // A supply needs both loads and its dry-bulb or flow; the example replaces the one of its key.
-    supply: `supply X: A ${['q_sensible=4kW', 'q_latent=1kW', /^(m|q)=/.test(example) ? '' : 'db=13C'].filter((x) => x && !x.startsWith(`${example.split('=')[0]!}=`)).join(' ')} ${example}`,
+    supply: `supply X: A ${supplyKeys} ${example}`,
   }[statement];
   // The flow keys need no flow beside them; the other process keys get one.
   const flow = statement === 'process' && !/^(m|q)=/.test(example) ? ' m=2kg/s' : '';

@@ -111,7 +111,10 @@ for (const [label, MarkdownIt] of versions) {
     it('keeps the table inside the block quote of its block', () => {
       const html = md().render('> ```air\n> state A: db=24C rh=50%\n> ```\n\nAfter.\n');
       expect(html).toMatch(
-        /<blockquote>\n<pre><code class="language-air">[\s\S]*?<\/code><\/pre>\n<div class="dewmark-results"[\s\S]*?<\/div>\n<\/blockquote>/,
+        new RegExp(
+          /<blockquote>\n<pre><code class="language-air">[\s\S]*?<\/code><\/pre>\n/.source +
+            /<div class="dewmark-results"[\s\S]*?<\/div>\n<\/blockquote>/.source,
+        ),
       );
     });
 
@@ -138,7 +141,10 @@ for (const [label, MarkdownIt] of versions) {
       const blocks = resultBlocks(stale);
       expect(blocks).toHaveLength(2);
       expect(blocks[0]).toMatch(
-        /^The results table written below this block is out of date; run "Dewmark: Insert or Refresh Results Table" to refresh it\. Current results: state /,
+        new RegExp(
+          /^The results table written below this block is out of date; /.source +
+            /run "Dewmark: Insert or Refresh Results Table" to refresh it\. Current results: state /.source,
+        ),
       );
       expect(blocks[0]).toMatch(/RA 25\.0 /);
     });

@@ -19,7 +19,7 @@ const CONFIG_DIR = mkdtempSync(join(tmpdir(), 'dewmark-emacs-config-'));
 afterAll(() => rmSync(CONFIG_DIR, { recursive: true, force: true }));
 
 describe('Emacs (eglot) as the LSP client', () => {
-  it('starts the server from the README configuration, shows its diagnostics, hovers and follows an edit', async (ctx) => {
+  it('starts the server from the README configuration, shows diagnostics, hovers and follows an edit', async (ctx) => {
     const emacs = requireTool('emacs', ctx);
     const { report } = await runEmacs({
       emacs: emacs.path,

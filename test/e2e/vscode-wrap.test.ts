@@ -34,8 +34,11 @@ state WARM: db=95.5F w=120gr/lb
 `;
 
 /** A figure as the hints show it: a number (sign, thousands, decimals) and its unit. */
-const FIGURE =
-  /[−-]?\d[\d,]*(?:\.\d+)? (?:°F|°C|%|gr\/lb|Btu\/lb|psia|lb\/h|cfm|Btu\/h|MBH|ft³\/lb|g\/kg|kJ\/kg|kW|kg\/h)(?![A-Za-z/])/g;
+const FIGURE = new RegExp(
+  /[−-]?\d[\d,]*(?:\.\d+)? /.source +
+    /(?:°F|°C|%|gr\/lb|Btu\/lb|psia|lb\/h|cfm|Btu\/h|MBH|ft³\/lb|g\/kg|kJ\/kg|kW|kg\/h)(?![A-Za-z/])/.source,
+  'g',
+);
 
 const skip = skipWithout('node24', 'code-server', 'chromium', 'playwright-core');
 

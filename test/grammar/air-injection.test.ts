@@ -245,8 +245,9 @@ describe('air injection grammar', () => {
 
   const haveVscodeMarkdown = existsSync(vscodeHost);
   const ci = process.env.CI === 'true' || process.env.CI === '1';
+  const skipped = ' (SKIPPED: code-server is not installed in .e2e-tools; run scripts/setup-e2e-tools.sh)';
   it.skipIf(!haveVscodeMarkdown && !ci)(
-    `the same checks against VS Code's own Markdown grammar${haveVscodeMarkdown ? '' : ' (SKIPPED: code-server is not installed in .e2e-tools; run scripts/setup-e2e-tools.sh)'}`,
+    `the same checks against VS Code's own Markdown grammar${haveVscodeMarkdown ? '' : skipped}`,
     async () => {
       if (!haveVscodeMarkdown)
         throw new Error(

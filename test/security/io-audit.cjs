@@ -54,14 +54,19 @@ function wrap(obj, name, kind, when = () => true) {
 
 // Files: writing, creating, changing, deleting.
 const fileWrites = [
-  'writeFile', 'writeFileSync', 'appendFile', 'appendFileSync', 'createWriteStream', 'mkdir', 'mkdirSync', 'mkdtemp', 'mkdtempSync',
-  'rm', 'rmSync', 'rmdir', 'rmdirSync', 'unlink', 'unlinkSync', 'rename', 'renameSync', 'copyFile', 'copyFileSync', 'cp', 'cpSync',
-  'symlink', 'symlinkSync', 'link', 'linkSync', 'truncate', 'truncateSync', 'chmod', 'chmodSync', 'chown', 'chownSync', 'utimes', 'utimesSync',
+  'writeFile', 'writeFileSync', 'appendFile', 'appendFileSync', 'createWriteStream',
+  'mkdir', 'mkdirSync', 'mkdtemp', 'mkdtempSync',
+  'rm', 'rmSync', 'rmdir', 'rmdirSync', 'unlink', 'unlinkSync', 'rename', 'renameSync',
+  'copyFile', 'copyFileSync', 'cp', 'cpSync',
+  'symlink', 'symlinkSync', 'link', 'linkSync', 'truncate', 'truncateSync',
+  'chmod', 'chmodSync', 'chown', 'chownSync', 'utimes', 'utimesSync',
 ];
 for (const name of fileWrites) wrap(fs, name, 'file');
-for (const name of ['writeFile', 'appendFile', 'mkdir', 'mkdtemp', 'rm', 'rmdir', 'unlink', 'rename', 'copyFile', 'cp', 'symlink', 'link', 'truncate', 'chmod', 'chown', 'utimes']) {
-  wrap(fs.promises, name, 'file');
-}
+const promiseWrites = [
+  'writeFile', 'appendFile', 'mkdir', 'mkdtemp', 'rm', 'rmdir', 'unlink', 'rename',
+  'copyFile', 'cp', 'symlink', 'link', 'truncate', 'chmod', 'chown', 'utimes',
+];
+for (const name of promiseWrites) wrap(fs.promises, name, 'file');
 wrap(fs, 'open', 'file', (a) => writes(a[1]));
 wrap(fs, 'openSync', 'file', (a) => writes(a[1]));
 wrap(fs.promises, 'open', 'file', (a) => writes(a[1]));
@@ -82,7 +87,9 @@ for (const name of ['lookup', 'resolve', 'resolve4', 'resolve6', 'resolveAny']) 
 if (typeof globalThis.fetch === 'function') wrap(globalThis, 'fetch', 'network');
 
 // Other programs.
-for (const name of ['spawn', 'spawnSync', 'exec', 'execSync', 'execFile', 'execFileSync', 'fork']) wrap(childProcess, name, 'process');
+for (const name of ['spawn', 'spawnSync', 'exec', 'execSync', 'execFile', 'execFileSync', 'fork']) {
+  wrap(childProcess, name, 'process');
+}
 
 // Tells the test that the preload is in place in this process.
 try {

@@ -32,8 +32,9 @@ function isDownloadFailure(err: unknown): boolean {
     err instanceof Error
       ? `${err.message} ${String((err as { code?: unknown }).code ?? '')} ${String(err.cause ?? '')}`
       : String(err);
-  return /ENOTFOUND|EAI_AGAIN|ECONNREFUSED|ECONNRESET|ETIMEDOUT|ENETUNREACH|EHOSTUNREACH|getaddrinfo|fetch failed|socket hang up|timed? ?out|Failed to get|download/i.test(
-    text,
+  return (
+    /ENOTFOUND|EAI_AGAIN|ECONNREFUSED|ECONNRESET|ETIMEDOUT|ENETUNREACH|EHOSTUNREACH|getaddrinfo/i.test(text) ||
+    /fetch failed|socket hang up|timed? ?out|Failed to get|download/i.test(text)
   );
 }
 

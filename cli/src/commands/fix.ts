@@ -178,8 +178,8 @@ export async function runFix(paths: string[], opts: FixOptions, io: CliIO): Prom
     }
   }
   if (out) io.out(out);
-  const what =
-    `${plural(claims, 'stale claim')} and ${plural(tables, 'results table')} ` + `in ${plural(changedFiles, 'file')}`;
+  const files = plural(changedFiles, 'file');
+  const what = `${plural(claims, 'stale claim')} and ${plural(tables, 'results table')} in ${files}`;
   const summary =
     changedFiles === 0
       ? 'nothing to fix'

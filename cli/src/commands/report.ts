@@ -100,8 +100,8 @@ function table(id: string, caption: string, header: string[], rows: string[][], 
     .map((r) => `<tr>${r.map((c, i) => `<td${numeric[i] ? ' class="num"' : ''}>${c}</td>`).join('')}</tr>`)
     .join('\n');
   return (
-    `<table ` +
-    `id="${id}"><caption>${caption}</caption><thead><tr>${th}</tr></thead><tbody>\n${body}\n</tbody></table>`
+    `<table id="${id}"><caption>${caption}</caption><thead>` +
+    `<tr>${th}</tr></thead><tbody>\n${body}\n</tbody></table>`
   );
 }
 
@@ -140,7 +140,8 @@ function pressureSection(a: Analysis, lines: LineIndex, text: string): string {
     if (e) e.names.push(item.name);
     else bases.set(key, { basis: item.pressure, names: [item.name] });
   }
-  const settingText = `${figure(a.settings.pressurePa, 'pressure', a.units).text} (${escapeHtml(a.settings.pressureOrigin)})`;
+  const settingPressure = figure(a.settings.pressurePa, 'pressure', a.units).text;
+  const settingText = `${settingPressure} (${escapeHtml(a.settings.pressureOrigin)})`;
   if (bases.size === 0) return `<p id="pressure-basis">No states; the default pressure would be ${settingText}.</p>`;
   const items = [...bases.values()].map(({ basis, names }) => {
     const where =
@@ -149,12 +150,15 @@ function pressureSection(a: Analysis, lines: LineIndex, text: string): string {
       basis.elevationM !== null
         ? ' (elevation to pressure by the standard-atmosphere equation, ASHRAE HoF Ch. 1 eq 3)'
         : '';
-    return `<li><strong>${figure(basis.pa, 'pressure', a.units).text}</strong> — ${escapeHtml(basis.origin)}${escapeHtml(where)}${escapeHtml(elev)}; used by ${names.map((n) => `<span class="name">${escapeHtml(n)}</span>`).join(', ')}</li>`;
+    return (
+      `<li><strong>${figure(basis.pa, 'pressure', a.units).text}</strong>` +
+      ` — ${escapeHtml(basis.origin)}${escapeHtml(where)}${escapeHtml(elev)}; used ` +
+      `by ${names.map((n) => `<span class="name">${escapeHtml(n)}</span>`).join(', ')}</li>`
+    );
   });
   return (
-    `<ul id="pressure-basis">${items.join('\n')}</ul><p class="small">Default ` +
-    `when a note has no <code>site:</code> line: ${settingText}. The ` +
-    `chart's curves are drawn for the pressure most states use.</p>`
+    `<ul id="pressure-basis">${items.join('\n')}</ul><p class="small">Default when a note has no <code>` +
+    `site:</code> line: ${settingText}. The chart's curves are drawn for the pressure most states use.</p>`
   );
 }
 
@@ -280,7 +284,13 @@ function pageCss(title: string, path: string, page: PageSize | undefined): strin
   const size = page ? `size:${PAPER_MM[page][0]}mm ${PAPER_MM[page][1]}mm;` : '';
   const m = PAGE_MARGIN_MM;
   const box = 'font:8pt "Inter","Noto Sans","DejaVu Sans",sans-serif;color:#555';
-  return `@page{${size}margin:${m.top}mm ${m.right}mm ${m.bottom}mm ${m.left}mm;@top-left{content:${cssString(title)};${box};vertical-align:bottom;padding-bottom:3mm}@top-right{content:${cssString(path)};${box};vertical-align:bottom;padding-bottom:3mm}@bottom-left{content:"Design aid only \\2014  verify before use";${box}}@bottom-right{content:"Page " counter(page) " of " counter(pages);${box}}}`;
+  return (
+    `@page{${size}margin:${m.top}mm ${m.right}mm ${m.bottom}mm ${m.left}mm;` +
+    `@top-left{content:${cssString(title)};${box};vertical-align:bottom;padding-bottom:3mm}` +
+    `@top-right{content:${cssString(path)};${box};vertical-align:bottom;padding-bottom:3mm}` +
+    `@bottom-left{content:"Design aid only \\2014  verify before use";${box}}` +
+    `@bottom-right{content:"Page " counter(page) " of " counter(pages);${box}}}`
+  );
 }
 
 function frontMatterRows(fm: FrontMatter | null): string {
@@ -303,11 +313,12 @@ function signoffSection(fm: FrontMatter | null): string {
   const rows = SIGNOFF.map(
     (r) => `<tr><td>${r.role}</td><td>${escapeHtml(get(r.by))}</td><td></td><td>${escapeHtml(get(r.on))}</td></tr>`,
   ).join('');
-  const caption = `Revision ${revision ? escapeHtml(revision) : '______'}${filled ? ' — names and dates from the note\u2019s front matter; signatures by hand' : ''}`;
+  const source = filled ? ' — names and dates from the note\u2019s front matter; signatures by hand' : '';
+  const caption = `Revision ${revision ? escapeHtml(revision) : '______'}${source}`;
   return (
-    `<table class="signoff" id="signoff"><caption>${caption}</caption><thead><tr><th ` +
-    `scope="col">role</th><th scope="col">name</th><th scope="col">signature</th><th ` +
-    `scope="col">date</th></tr></thead><tbody>${rows}</tbody></table>`
+    `<table class="signoff" id="signoff"><caption>${caption}</caption><thead><tr>` +
+    `<th scope="col">role</th><th scope="col">name</th><th scope="col">signature</th>` +
+    `<th scope="col">date</th></tr></thead><tbody>${rows}</tbody></table>`
   );
 }
 
@@ -319,7 +330,8 @@ function claimVerdict(side: ClaimChange['old']): string {
 
 function claimChangeText(c: ClaimChange): string {
   const same = c.old !== null && c.new !== null && c.old.pass === c.new.pass && c.old.computed === c.new.computed;
-  return `${c.written} (line ${c.line}): ${same ? `still ${claimVerdict(c.new)}` : `${claimVerdict(c.old)} → ${claimVerdict(c.new)}`}`;
+  const verdict = same ? `still ${claimVerdict(c.new)}` : `${claimVerdict(c.old)} → ${claimVerdict(c.new)}`;
+  return `${c.written} (line ${c.line}): ${verdict}`;
 }
 
 /** The "changes since REV" section: each figure `dewmark diff` lists, old → new, with its claims. */
@@ -334,8 +346,8 @@ function changesSection(ch: ReportChanges): string {
   const count = (status: ItemChange['status']) => ch.items!.filter((i) => i.status === status).length;
   const rows: string[] = [];
   for (const it of ch.items) {
-    const who =
-      `${it.kind} <span class="name">${escapeHtml(it.name)}</span> ` + `<span class="dm-line">line ${it.line}</span>`;
+    const line = `<span class="dm-line">line ${it.line}</span>`;
+    const who = `${it.kind} <span class="name">${escapeHtml(it.name)}</span> ${line}`;
     if (it.status !== 'changed') {
       rows.push(
         `<tr><td>${who}</td><td colspan="4">${it.status === 'added' ? 'added' : 'removed'} since ${rev}</td></tr>`,
@@ -344,11 +356,14 @@ function changesSection(ch: ReportChanges): string {
     }
     for (const f of it.figures)
       rows.push(
-        `<tr><td>${who}</td><td><code>${escapeHtml(f.key)}</code></td><td class="num">${escapeHtml(f.old)}</td><td class="num">${escapeHtml(f.new)}</td><td>${f.claims.map((c) => escapeHtml(claimChangeText(c))).join('<br>')}</td></tr>`,
+        `<tr><td>${who}</td><td><code>${escapeHtml(f.key)}</code></td>` +
+          `<td class="num">${escapeHtml(f.old)}</td><td class="num">${escapeHtml(f.new)}</td>` +
+          `<td>${f.claims.map((c) => escapeHtml(claimChangeText(c))).join('<br>')}</td></tr>`,
       );
     if (it.claims.length > 0)
       rows.push(
-        `<tr><td>${who}</td><td>—</td><td></td><td></td><td>${it.claims.map((c) => escapeHtml(claimChangeText(c))).join('<br>')}</td></tr>`,
+        `<tr><td>${who}</td><td>—</td><td></td><td></td>` +
+          `<td>${it.claims.map((c) => escapeHtml(claimChangeText(c))).join('<br>')}</td></tr>`,
       );
   }
   const summary =
@@ -356,10 +371,10 @@ function changesSection(ch: ReportChanges): string {
     `(${plural(figures, 'figure', 'figures')}), ${count('added')} added, ${count('removed')} ` +
     `removed. Figures are compared as displayed, as <code>dewmark diff</code> compares them.`;
   return (
-    `<p id="changes-summary">${summary}</p><table id="changes" class="dm-table"><thead><tr><th ` +
-    `scope="col">statement</th><th scope="col">figure</th><th scope="col" ` +
-    `class="num">at ${rev}</th><th scope="col" class="num">now</th><th scope="col">claims on it ` +
-    `(as written: verdict then → now)</th></tr></thead><tbody>${rows.join('')}</tbody></table>`
+    `<p id="changes-summary">${summary}</p><table id="changes" class="dm-table"><thead><tr>` +
+    `<th scope="col">statement</th><th scope="col">figure</th><th scope="col" class="num">` +
+    `at ${rev}</th><th scope="col" class="num">now</th><th scope="col">claims on it (as ` +
+    `written: verdict then → now)</th></tr></thead><tbody>${rows.join('')}</tbody></table>`
   );
 }
 
@@ -395,7 +410,8 @@ export function renderReportHtml(input: ReportInput, opts: ReportOptions = {}): 
   const summary = [
     `<span>${plural(nStates, 'state or mix', 'states and mixes')}</span>`,
     `<span>${plural(nProcs, 'process', 'processes')}</span>`,
-    `<span class="${failedClaims > 0 ? 'warnings' : ''}">${plural(claims.length, 'claim', 'claims')}${claims.length > 0 ? `, ${failedClaims} outside its band` : ''}</span>`,
+    `<span class="${failedClaims > 0 ? 'warnings' : ''}">${plural(claims.length, 'claim', 'claims')}` +
+      `${claims.length > 0 ? `, ${failedClaims} outside its band` : ''}</span>`,
     errors > 0
       ? `<span class="errors">${plural(errors, 'error', 'errors')}</span>`
       : `<span class="clean">no errors</span>`,
@@ -408,6 +424,19 @@ export function renderReportHtml(input: ReportInput, opts: ReportOptions = {}): 
     ids: { states: 'states', processes: 'processes' },
   });
   const unitsWhy = a.unitsSource === 'note' ? 'set by the note' : 'default setting';
+  const changes = opts.changes
+    ? `<section aria-labelledby="h-changes"><h2 class="part" id="h-changes">` +
+      `Changes since ${escapeHtml(opts.changes.revision)}</h2>\n${changesSection(opts.changes)}\n</section>\n`
+    : '';
+  const unplaced = body.unplaced
+    ? `<div id="unplaced"><p class="small">These statements could not be placed in the text above; ` +
+      `here they are with their results:</p>${body.unplaced}</div>`
+    : '';
+  const missingImages =
+    body.missingImages.length > 0
+      ? `<p class="small" id="missing-images">${plural(body.missingImages.length, 'image was', 'images were')} ` +
+        'not included (marked in the text).</p>'
+      : '';
   return `<!doctype html>
 <html lang="en">
 <head>
@@ -436,14 +465,14 @@ ${frontMatterRows(body.frontMatter)}
 <section aria-labelledby="h-signoff"><h2 class="part" id="h-signoff">Revision and sign-off</h2>
 ${signoffSection(body.frontMatter)}
 </section>
-${opts.changes ? `<section aria-labelledby="h-changes"><h2 class="part" id="h-changes">Changes since ${escapeHtml(opts.changes.revision)}</h2>\n${changesSection(opts.changes)}\n</section>\n` : ''}<section aria-labelledby="h-note"><h2 class="part" id="h-note">The note, with its computed results</h2>
+${changes}<section aria-labelledby="h-note"><h2 class="part" id="h-note">The note, with its computed results</h2>
 <p class="small">Each air block is followed by what it computes; each statement written in the text is followed \
 by its figures in brackets. A claim reads <em>as written → computed</em>, ✓ within its band or ✗ outside it.</p>
 <article class="note-body" id="note">
 ${body.html}
 </article>
-${body.unplaced ? `<div id="unplaced"><p class="small">These statements could not be placed in the text above; here they are with their results:</p>${body.unplaced}</div>` : ''}
-${body.missingImages.length > 0 ? `<p class="small" id="missing-images">${plural(body.missingImages.length, 'image was', 'images were')} not included (marked in the text).</p>` : ''}
+${unplaced}
+${missingImages}
 </section>
 <section aria-labelledby="h-diagnostics"><h2 class="part" id="h-diagnostics">Diagnostics</h2>
 ${diagnosticsSection(a, lines, text)}

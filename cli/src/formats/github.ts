@@ -35,7 +35,8 @@ export function githubAnnotations(path: string, diagnostics: readonly Diagnostic
       `endColumn=${d.endColumn}`,
       `title=${escapeProperty(`dewmark ${d.code}`)}`,
     ];
-    out += `::${COMMAND[d.severity]} ${props.join(',')}::${escapeData(safeText(d.message.replace(/\s*\n\s*/g, ' ')))}\n`;
+    const message = escapeData(safeText(d.message.replace(/\s*\n\s*/g, ' ')));
+    out += `::${COMMAND[d.severity]} ${props.join(',')}::${message}\n`;
   }
   return out;
 }

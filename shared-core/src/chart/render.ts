@@ -256,14 +256,16 @@ function describe(data: ChartData, layout: ChartLayout): string {
       `relative-humidity curves from 10 % to 90 %, wet-bulb, enthalpy and specific-volume lines.`,
   ];
   if (data.points.length > 0) {
-    parts.push(
-      `Points: ${data.points.map((p) => `${p.kind === 'mix' ? 'mixed state ' : ''}${p.name} at ${positionText(p, data.units)}${p.fog ? ' (fog region, physically impossible as vapour)' : ''}`).join('; ')}.`,
-    );
+    const point = (p: ChartPoint) =>
+      `${p.kind === 'mix' ? 'mixed state ' : ''}${p.name} at ${positionText(p, data.units)}` +
+      `${p.fog ? ' (fog region, physically impossible as vapour)' : ''}`;
+    parts.push(`Points: ${data.points.map(point).join('; ')}.`);
   } else parts.push('No states are plotted.');
   for (const m of data.mixes) parts.push(`Mixing line of ${m.streams.join(' and ')} through ${m.name}.`);
   for (const pr of data.processes)
     parts.push(
-      `Process ${pr.name}: arrow from ${pr.from} to ${pr.to}${pr.kind ? ` (${pr.kind.replace(/-/g, ' ')})` : ''}${pr.adp ? `, apparatus dew point ${formatQuantity(pr.adp.db, 'temperature', data.units).text}` : ''}.`,
+      `Process ${pr.name}: arrow from ${pr.from} to ${pr.to}${pr.kind ? ` (${pr.kind.replace(/-/g, ' ')})` : ''}` +
+        `${pr.adp ? `, apparatus dew point ${formatQuantity(pr.adp.db, 'temperature', data.units).text}` : ''}.`,
     );
   for (const l of data.shrLines ?? [])
     parts.push(
@@ -763,9 +765,10 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
     `<text class="dmc-heading" x="${n(plot.left)}" ` +
       `y="24">${escapeXml(fitText(m.title, 15, full.width - plot.left - 10))}</text>`,
   );
-  out.push(
-    `<text class="dmc-sub" x="${n(plot.left)}" y="41">${escapeXml(`${formatQuantity(data.pressurePa, 'pressure', data.units).text} \u00b7 ${data.units} \u00b7 dry-bulb against humidity ratio`)}</text>`,
-  );
+  const subtitle =
+    `${formatQuantity(data.pressurePa, 'pressure', data.units).text} \u00b7 ${data.units} ` +
+    '\u00b7 dry-bulb against humidity ratio';
+  out.push(`<text class="dmc-sub" x="${n(plot.left)}" y="41">${escapeXml(subtitle)}</text>`);
   out.push(
     `<rect class="dmc-panel" x="${n(plot.left)}" y="${n(plot.top)}" ` +
       `width="${n(plot.right - plot.left)}" height="${n(plot.bottom - plot.top)}"/>`,
@@ -817,7 +820,8 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
     );
     out.push(`<path class="dmc-process${flagged}" d="M${n(start.x)} ${n(start.y)}L${n(base.x)} ${n(base.y)}"/>`);
     out.push(
-      `<path class="${pr.flagged ? 'dmc-arrow-flag' : 'dmc-arrow'}" d="M${n(tip.x)} ${n(tip.y)}L${n(base.x - uy * 4.5)} ${n(base.y + ux * 4.5)}L${n(base.x + uy * 4.5)} ${n(base.y - ux * 4.5)}Z"/>`,
+      `<path class="${pr.flagged ? 'dmc-arrow-flag' : 'dmc-arrow'}" d="M${n(tip.x)} ${n(tip.y)}` +
+        `L${n(base.x - uy * 4.5)} ${n(base.y + ux * 4.5)}L${n(base.x + uy * 4.5)} ${n(base.y - ux * 4.5)}Z"/>`,
     );
     out.push('</g>');
   }
@@ -848,9 +852,11 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
     const kind = pointClass(p);
     const where = positionText(p, data.units);
     out.push(`<g class="dmc-point${p.context ? ' dmc-context' : ''}" data-name="${escapeXml(p.name)}">`);
-    out.push(
-      `<title>${escapeXml(`${p.kind === 'mix' ? 'mix' : 'state'} ${p.name}: ${where}${p.fog ? ' \u2014 fog region (infeasible as vapour)' : ''}${p.context ? ' (defined in another part of the note)' : ''}`)}</title>`,
-    );
+    const title =
+      `${p.kind === 'mix' ? 'mix' : 'state'} ${p.name}: ${where}` +
+      `${p.fog ? ' \u2014 fog region (infeasible as vapour)' : ''}` +
+      `${p.context ? ' (defined in another part of the note)' : ''}`;
+    out.push(`<title>${escapeXml(title)}</title>`);
     const tag = tagOf.get(i);
     const lp = tag?.placed;
     if (lp?.leader) out.push(leaderLine(px, lp.box));
@@ -862,7 +868,8 @@ function drawChart(m: Measured, placed: Placed): SizedChart {
     if (p.fog) {
       const k = MARKER_RADIUS * 0.6;
       out.push(
-        `<path class="dmc-fogcross" d="M${n(px.x - k)} ${n(px.y - k)}L${n(px.x + k)} ${n(px.y + k)}M${n(px.x - k)} ${n(px.y + k)}L${n(px.x + k)} ${n(px.y - k)}"/>`,
+        `<path class="dmc-fogcross" d="M${n(px.x - k)} ${n(px.y - k)}L${n(px.x + k)} ${n(px.y + k)}` +
+          `M${n(px.x - k)} ${n(px.y + k)}L${n(px.x + k)} ${n(px.y - k)}"/>`,
       );
     }
     if (tag && lp) {

@@ -92,7 +92,8 @@ export function chartCss(): string {
     `.dmc .dmc-process.dmc-flagged{stroke:${v('flag')};stroke-dasharray:6 3}`,
     `.dmc .dmc-arrow{fill:${v('process')}}`,
     `.dmc .dmc-arrow-flag{fill:${v('flag')}}`,
-    `.dmc .dmc-process-name{font-size:10.5px;font-style:italic;fill:${v('process')};paint-order:stroke;stroke:${v('panel')};stroke-width:3px}`,
+    `.dmc .dmc-process-name{font-size:10.5px;font-style:italic;fill:${v('process')};` +
+      `paint-order:stroke;stroke:${v('panel')};stroke-width:3px}`,
     `.dmc .dmc-marker{stroke:${v('tag')};stroke-width:1.6}`,
     `.dmc .dmc-marker-state,.dmc .dmc-marker-supply{fill:${v('state')}}`,
     `.dmc .dmc-marker-mix{fill:${v('mix')}}`,
@@ -106,10 +107,12 @@ export function chartCss(): string {
     `.dmc .dmc-context .dmc-marker,.dmc .dmc-context .dmc-tag{opacity:.5}`,
     `.dmc .dmc-context .dmc-tagtext{fill:${v('muted')};font-weight:500}`,
     `.dmc .dmc-shrline{stroke:${v('shr')};stroke-width:1.6;fill:none;stroke-dasharray:10 3 2 3}`,
-    `.dmc .dmc-shr-name{font-size:10.5px;font-weight:600;fill:${v('shr')};paint-order:stroke;stroke:${v('panel')};stroke-width:3px}`,
+    `.dmc .dmc-shr-name{font-size:10.5px;font-weight:600;fill:${v('shr')};` +
+      `paint-order:stroke;stroke:${v('panel')};stroke-width:3px}`,
     `.dmc .dmc-coilline{stroke:${v('sat')};stroke-width:1.3;fill:none;stroke-dasharray:3 3}`,
     `.dmc .dmc-adp{fill:${v('panel')};stroke:${v('sat')};stroke-width:2}`,
-    `.dmc .dmc-adp-label{font-size:10px;font-weight:650;fill:${v('sat')};paint-order:stroke;stroke:${v('panel')};stroke-width:3px}`,
+    `.dmc .dmc-adp-label{font-size:10px;font-weight:650;fill:${v('sat')};` +
+      `paint-order:stroke;stroke:${v('panel')};stroke-width:3px}`,
     `.dmc .dmc-legend{font-size:11px;fill:${v('muted')}}`,
     `.dmc .dmc-caption{font-size:11px;fill:${v('muted')}}`,
     `.dmc .dmc-flag-title{font-size:11.5px;font-weight:650;fill:${v('flag')}}`,

@@ -9,7 +9,7 @@
  * | coil      | `adp=` with `bf=`                                 | coil.ts                     |
  * | steam     | the word `steam`, a target `w=` or `rh=` [`p_steam=`] | humidifier.ts           |
  * | adiabatic | the word `adiabatic`, `eff=` or a target `rh=`/`db=`/`w=` | humidifier.ts       |
- * | leaving   | the leaving state's own properties: `db=` alone (W unchanged), or a pair (`db=` with `rh=`/`w=`…) | state solver |
+ * | leaving   | leaving properties: `db=` alone (W unchanged), or a pair (`db=` with `rh=`/`w=`…) | state solver |
  *
  * With an equipment form, the leaving state's properties written on the line (`db=`, `rh=`…,
  * beyond a humidifier's target) are claims about it. The diagnostic codes of this module are
@@ -406,7 +406,7 @@ export function deriveLeaving(
                     code: 'unreachable',
                     key: 'w',
                     message:
-                      `the target humidity ratio is below the entering ` + `one: evaporating water only adds moisture`,
+                      'the target humidity ratio is below the entering one: evaporating water only adds moisture',
                     fix: 'give a higher target',
                   },
                   props,

@@ -234,10 +234,16 @@ function checkAmounts(
     if (k) allAmountKinds.add(k);
   }
   if (allAmountKinds.has('fraction') && (allAmountKinds.has('massFlow') || allAmountKinds.has('volumeFlow'))) {
+    const flows =
+      ctx.units === 'IP'
+        ? 'OA 2,500cfm + RA 7,500cfm, or mass flows such as 9,500lb/h'
+        : 'OA 1.2kg/s + RA 3.6kg/s, or volume flows such as 1000L/s';
     ctx.report({
       code: 'mix-amounts',
       severity: 'error',
-      message: `${what} mixes fractions (%) with flows; give every stream as a dry-air mass fraction (OA 25% + RA 75%) or every stream as a flow (${ctx.units === 'IP' ? 'OA 2,500cfm + RA 7,500cfm, or mass flows such as 9,500lb/h' : 'OA 1.2kg/s + RA 3.6kg/s, or volume flows such as 1000L/s'})`,
+      message:
+        `${what} mixes fractions (%) with flows; give every stream as a dry-air mass fraction (OA 25% + RA 75%) ` +
+        `or every stream as a flow (${flows})`,
       span: spanUnion(...stmt.streams.map((s) => s.span)),
     });
     return false;

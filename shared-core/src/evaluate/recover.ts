@@ -161,7 +161,14 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
     ctx.report({
       code: wet.kind === 'frost' ? 'recovery-frost' : 'recovery-condensation',
       severity: fogOk ? 'info' : 'warning',
-      message: `${what}: ${what2} on the ${cooled.from!.text} side: ${cooled.to!.text} leaves at ${ctx.fig(out.db, 'temperature')} with a ${out.dpFrost ? 'frost' : 'dew'} point of ${ctx.fig(wet.dewPointC, 'temperature')}${out.fog ? ' (a fog state: more water than the air can hold as vapour)' : ''}, while the surface at the cold end is about ${ctx.fig(wet.surfaceC, 'temperature')} (the mean of ${cooled.to!.text} and the entering ${other.from!.text}). ${fogOk ? 'Accepted by fog=ok.' : `Either ${advice}, or write fog=ok on the line if the design accepts it`}`,
+      message:
+        `${what}: ${what2} on the ${cooled.from!.text} side: ` +
+        `${cooled.to!.text} leaves at ${ctx.fig(out.db, 'temperature')} ` +
+        `with a ${out.dpFrost ? 'frost' : 'dew'} point of ${ctx.fig(wet.dewPointC, 'temperature')}` +
+        `${out.fog ? ' (a fog state: more water than the air can hold as vapour)' : ''}, ` +
+        `while the surface at the cold end is about ${ctx.fig(wet.surfaceC, 'temperature')} ` +
+        `(the mean of ${cooled.to!.text} and the entering ${other.from!.text}). ` +
+        `${fogOk ? 'Accepted by fog=ok.' : `Either ${advice}, or write fog=ok on the line if the design accepts it`}`,
       span: cooled.to!.span,
       related: [{ span: other.from!.span, message: `the colder entering stream ${other.from!.text}` }],
       data: { accepted: fogOk },

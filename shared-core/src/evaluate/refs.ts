@@ -42,7 +42,8 @@ const TEMPERATURE_DIFFERENCE: Readonly<Record<string, number>> = { K: 1, F: 5 / 
 
 /** The written reference (`OA.w+0.5g/kg`). */
 export function refText(ref: PropertyRefNode): string {
-  return `${ref.state.text}.${ref.key.text}${ref.offset ? `${ref.offset.number.text}${ref.offset.unit?.text ?? ''}` : ''}`;
+  const offset = ref.offset ? `${ref.offset.number.text}${ref.offset.unit?.text ?? ''}` : '';
+  return `${ref.state.text}.${ref.key.text}${offset}`;
 }
 
 /** The value of a defining property of a computed state, SI. */
@@ -76,7 +77,13 @@ function processRefused(
   ctx.report({
     code: 'not-a-state',
     severity: 'error',
-    message: `'${ref.state.text}' is a process, not a state; ${written} must name a state (or mix) defined above${to ? `: the air leaving ${ref.state.text} is ${to}, so write ${key}=${to}.${stateKey}` : ''}${isDefiningKey(fromKey) ? '' : `. A process's own figures (${fromKey === 'adp' ? 'its apparatus dew point' : `'${fromKey}'`}, heat rates, water, flow) are not taken by reference: write the figure itself`}`,
+    message:
+      `'${ref.state.text}' is a process, not a state; ${written} must name a state (or mix) defined above` +
+      `${to ? `: the air leaving ${ref.state.text} is ${to}, so write ${key}=${to}.${stateKey}` : ''}` +
+      (isDefiningKey(fromKey)
+        ? ''
+        : `. A process's own figures (${fromKey === 'adp' ? 'its apparatus dew point' : `'${fromKey}'`}, ` +
+          'heat rates, water, flow) are not taken by reference: write the figure itself'),
     span: ref.state.span,
     related: [{ span: defSpan, message: `process ${ref.state.text}` }],
   });

@@ -101,10 +101,16 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
   const ql = find('q_latent');
   if (!qs || !ql) {
     const missing = [qs ? null : 'q_sensible=', ql ? null : 'q_latent='].filter(Boolean).join(' and ');
+    const example =
+      ctx.units === 'IP'
+        ? 'q_sensible=141,600Btu/h q_latent=27,300Btu/h; q_latent=0Btu/h'
+        : 'q_sensible=41.5kW q_latent=8kW; q_latent=0kW';
     ctx.report({
       code: 'underspecified',
       severity: 'error',
-      message: `${what} needs the room's sensible and latent loads: add ${missing} (heat gains, e.g. ${ctx.units === 'IP' ? 'q_sensible=141,600Btu/h q_latent=27,300Btu/h; q_latent=0Btu/h' : 'q_sensible=41.5kW q_latent=8kW; q_latent=0kW'} when there is no latent load)`,
+      message:
+        `${what} needs the room's sensible and latent loads: add ${missing} (heat gains, e.g. ${example} ` +
+        'when there is no latent load)',
       span: fallback,
     });
     return result;

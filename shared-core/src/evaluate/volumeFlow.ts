@@ -20,7 +20,9 @@ export function volumeFlowProp(ctx: EvalContext, props: readonly ReadProp[], wha
     ctx.report({
       code: 'flow-conflict',
       severity: 'error',
-      message: `${what}: ${q!.key}= and ${extra.key}= both give the volume flow (${extra.key === 'q' ? `${q!.key}= is another name for q=` : `${extra.key}= is another name for q=`}); keep one (${q!.key}= is used)`,
+      message:
+        `${what}: ${q!.key}= and ${extra.key}= both give the volume flow ` +
+        `(${extra.key === 'q' ? q!.key : extra.key}= is another name for q=); keep one (${q!.key}= is used)`,
       span: extra.prop.span,
       related: [{ span: q!.prop.span, message: 'the flow used' }],
     });

@@ -267,6 +267,12 @@ function solveOrThrow(
     const given = keysOf(mask);
     if (n < 2) {
       const k1 = given[0];
+      const second =
+        k1 === 'db'
+          ? 'wb, dp, rh, w or h'
+          : k1 === 'w' || k1 === 'dp'
+            ? 'a temperature (db or wb), rh or h'
+            : 'db or w';
       throw problem(
         'underspecified',
         k1 === undefined
@@ -274,7 +280,7 @@ function solveOrThrow(
           : `Only the ${NAMES[k1]} is given: a state needs two defining properties.`,
         k1 === undefined
           ? 'Give two of db, wb, dp, rh, w, h (for example db and rh).'
-          : `Add a second property: ${k1 === 'db' ? 'wb, dp, rh, w or h' : k1 === 'w' || k1 === 'dp' ? 'a temperature (db or wb), rh or h' : 'db or w'}.`,
+          : `Add a second property: ${second}.`,
         given,
       );
     }

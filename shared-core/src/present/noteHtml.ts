@@ -90,7 +90,11 @@ function theRenderer(): NoteRenderer {
       return defaultImage(tokens, idx, options, env, self);
     }
     env.dewmark?.missingImages.push({ src, reason: answer.reason });
-    return `<span class="dm-missing-image" role="img" aria-label="${escapeHtml(alt)}">[image not included: ${escapeHtml(alt || src)} — <code>${escapeHtml(src)}</code>: ${escapeHtml(answer.reason)}]</span>`;
+    return (
+      `<span class="dm-missing-image" role="img" aria-label="${escapeHtml(alt)}">` +
+      `[image not included: ${escapeHtml(alt || src)} — <code>${escapeHtml(src)}</code>` +
+      `: ${escapeHtml(answer.reason)}]</span>`
+    );
   };
   renderer = md;
   return md;
@@ -256,8 +260,8 @@ function statesTable(
   const head = cols
     .map(
       (c) =>
-        `<th scope="col" class="num">${c.label} <span ` +
-        `class="dm-unit">${escapeHtml(c.dim ? unitOf(c.dim, sys) : '%')}</span></th>`,
+        `<th scope="col" class="num">${c.label} ` +
+        `<span class="dm-unit">${escapeHtml(c.dim ? unitOf(c.dim, sys) : '%')}</span></th>`,
     )
     .join('');
   const n = cols.length + 1;
@@ -296,8 +300,8 @@ class="dm-name">${escapeHtml(item.name)}</th>${cells}</tr>${aboutRow(
   });
   const at = pressures.size === 1 ? ` at ${escapeHtml([...pressures][0]!)}` : '';
   return (
-    `<table${id ? ` id="${id}"` : ''} class="dm-table dm-states"><caption>States and ` +
-    `mixes${at}</caption><thead><tr><th scope="col">state</th>${head}</tr></thead>${bodies.join('')}</table>`
+    `<table${id ? ` id="${id}"` : ''} class="dm-table dm-states"><caption>States and mixes${at}</caption>` +
+    `<thead><tr><th scope="col">state</th>${head}</tr></thead>${bodies.join('')}</table>`
   );
 }
 
@@ -338,8 +342,8 @@ function processesTable(
   });
   const water = escapeHtml(displaySymbol(waterUnit(sys)));
   return (
-    `<table${id ? ` id="${id}"` : ''} class="dm-table dm-processes"><caption>Processes ` +
-    `(positive = heat or water added to the air; water ` +
+    `<table${id ? ` id="${id}"` : ''} class="dm-table dm-processes">` +
+    `<caption>Processes (positive = heat or water added to the air; water ` +
     `in ${water})</caption><thead><tr>${head}</tr></thead>${bodies.join('')}</table>`
   );
 }
@@ -358,7 +362,8 @@ function problemsHtml(
   );
   for (const d of acknowledged)
     items.push(
-      `<li class="dm-acknowledged"><strong>acknowledged</strong> <code>${escapeHtml(d.code)}</code> (${at(d)}): ${escapeHtml(d.message)}${d.justification ? ` — reason given: ${escapeHtml(d.justification)}` : ''}</li>`,
+      `<li class="dm-acknowledged"><strong>acknowledged</strong> <code>${escapeHtml(d.code)}</code> (${at(d)}): ` +
+        `${escapeHtml(d.message)}${d.justification ? ` — reason given: ${escapeHtml(d.justification)}` : ''}</li>`,
     );
   return `<ul class="dm-problems">${items.join('')}</ul>`;
 }
@@ -522,8 +527,13 @@ export function noteHtml(text: string, analysis: Analysis, opts: NoteHtmlOptions
   for (const r of leftRegions) {
     const region = regions[r]!;
     const source = text.slice(region.contentSpan.start, region.contentSpan.end);
+    const results = itemsResultsHtml(analysis, text, items[r]!, problems[r]!, acknowledged[r]!, {
+      lines,
+      limitOf: () => region.span.end,
+    });
     left.push(
-      `<div class="dm-unplaced"><p>Line ${lines.lineCol(region.span.start).line}:</p><pre><code>${escapeHtml(source)}</code></pre><div class="dm-results">${itemsResultsHtml(analysis, text, items[r]!, problems[r]!, acknowledged[r]!, { lines, limitOf: () => region.span.end })}</div></div>`,
+      `<div class="dm-unplaced"><p>Line ${lines.lineCol(region.span.start).line}:</p>` +
+        `<pre><code>${escapeHtml(source)}</code></pre><div class="dm-results">${results}</div></div>`,
     );
   }
   return {

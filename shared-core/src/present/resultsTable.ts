@@ -82,8 +82,8 @@ export function resultsTableHtml(data: ResultsData, opts: HtmlOptions = {}): str
       const detail = s.detail ? ` <span class="dewmark-detail">${escapeHtml(s.detail)}</span>` : '';
       const cells = s.values.map((v) => `<td class="dewmark-num">${escapeHtml(v)}</td>`).join('');
       return (
-        `<tr${cls}><th scope="row"><span ` +
-        `class="dewmark-name">${escapeHtml(s.name)}</span>${detail}</th>${cells}</tr>`
+        `<tr${cls}><th scope="row">` +
+        `<span class="dewmark-name">${escapeHtml(s.name)}</span>${detail}</th>${cells}</tr>`
       );
     });
     out.push(
@@ -98,10 +98,15 @@ export function resultsTableHtml(data: ResultsData, opts: HtmlOptions = {}): str
       const cells = [p.total, p.sensible, p.latent, p.shr, p.water]
         .map((v) => `<td class="dewmark-num">${escapeHtml(v)}</td>`)
         .join('');
-      return `<tr><th scope="row"><span class="dewmark-name">${escapeHtml(p.name)}</span> <span class="dewmark-detail">${escapeHtml(`${p.from} → ${p.to}`)}</span></th><td>${escapeHtml(p.kind)}</td>${cells}</tr>`;
+      return (
+        `<tr><th scope="row"><span class="dewmark-name">${escapeHtml(p.name)}</span>` +
+        ` <span class="dewmark-detail">${escapeHtml(`${p.from} → ${p.to}`)}</span>` +
+        `</th><td>${escapeHtml(p.kind)}</td>${cells}</tr>`
+      );
     });
     out.push(
-      `<table class="dewmark-processes"><thead><tr>${head.join('')}</tr></thead><tbody>${rows.join('')}</tbody></table>`,
+      `<table class="dewmark-processes"><thead><tr>${head.join('')}</tr>` +
+        `</thead><tbody>${rows.join('')}</tbody></table>`,
     );
   }
   const basis = basisText(data);
@@ -109,7 +114,9 @@ export function resultsTableHtml(data: ResultsData, opts: HtmlOptions = {}): str
   if (data.problems.length > 0) {
     const items = data.problems.map(
       (p) =>
-        `<li class="dewmark-${p.severity}"><span class="dewmark-severity">${p.severity}</span> <span class="dewmark-code">${escapeHtml(p.code)}</span>${escapeHtml(problemSubject(p))} ${escapeHtml(p.message)}</li>`,
+        `<li class="dewmark-${p.severity}"><span class="dewmark-severity">${p.severity}</span> ` +
+        `<span class="dewmark-code">${escapeHtml(p.code)}</span>${escapeHtml(problemSubject(p))} ` +
+        `${escapeHtml(p.message)}</li>`,
     );
     out.push(`<ul class="dewmark-problems">${items.join('')}</ul>`);
   }
@@ -129,7 +136,8 @@ function markdownTable(header: string[], rows: string[][], right: boolean[]): st
   const widths = header.map((h, i) => Math.max(3, h.length, ...rows.map((r) => (r[i] ?? '').length)));
   const line = (cells: string[]) =>
     `| ${cells.map((c, i) => (right[i] ? c.padStart(widths[i]!) : c.padEnd(widths[i]!))).join(' | ')} |`;
-  const rule = `| ${widths.map((w, i) => (right[i] ? `${'-'.repeat(w - 1)}:` : `:${'-'.repeat(w - 1)}`)).join(' | ')} |`;
+  const dashes = widths.map((w, i) => (right[i] ? `${'-'.repeat(w - 1)}:` : `:${'-'.repeat(w - 1)}`));
+  const rule = `| ${dashes.join(' | ')} |`;
   return [line(header), rule, ...rows.map(line)];
 }
 
@@ -168,7 +176,8 @@ export function resultsTableMarkdown(data: ResultsData): string[] {
     parts.push(
       data.problems.map(
         (p) =>
-          `- **${p.severity}** ${escapeMarkdown(p.code)}${escapeMarkdown(problemSubject(p))} ${escapeMarkdown(withoutLineNumbers(p.message))}`,
+          `- **${p.severity}** ${escapeMarkdown(p.code)}${escapeMarkdown(problemSubject(p))} ` +
+          escapeMarkdown(withoutLineNumbers(p.message)),
       ),
     );
   }

@@ -323,7 +323,9 @@ export function staleTableDiagnostics(analysis: Analysis, text: string): CoreDia
         break;
       case 'checksum':
         message =
-          `${where} shows the current results, but the checksum ` + `in its start marker does not match them. ${RUN}`;
+          `${where} shows the current results, ` +
+          `but the checksum in its start marker ` +
+          `does not match them. ${RUN}`;
         break;
       default: {
         message = `${where} is out of date: the block's computed results changed since it was written. ${RUN}`;

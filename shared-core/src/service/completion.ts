@@ -112,8 +112,8 @@ function nameEntries(note: Note, before: number, except: string | null): Complet
     let detail: string = item.kind;
     if (item.state) {
       const sys = note.analysis.units;
-      detail +=
-        ` · ${show(note, item.state.db, 'temperature', sys)} ` + `db, ${show(note, item.state.rh, 'fraction', sys)} rh`;
+      detail += ` · ${show(note, item.state.db, 'temperature', sys)} db`;
+      detail += `, ${show(note, item.state.rh, 'fraction', sys)} rh`;
     }
     out.push({ label: item.name, kind: 'name', insertText: item.name, detail });
   }
@@ -161,14 +161,19 @@ function refKeyEntries(note: Note, before: number, name: string, key: string): C
   const sys = note.analysis.units;
   const dim = STATE_KEYS[key]!.dimension;
   // Only keys of the same kind as the one being set (db, wb, dp for a temperature).
-  return REFERENCE_KEYS.filter((k) => STATE_KEYS[k]!.dimension === dim).map((k) => ({
-    label: k,
-    kind: 'key' as const,
-    insertText: k,
-    detail:
-      `${STATE_KEYS[k]!.title} ` + `of ${name}${item.state ? ` = ${show(note, item.state[k as 'db'], dim, sys)}` : ''}`,
-    documentation: `\`${key}=${name}.${k}\` takes ${STATE_KEYS[k]!.title} from ${name}; ${DIFFERENCE_EXAMPLE[k] ? `add a difference with + or − and a unit where it helps (e.g. \`${key}=${name}.${k}${DIFFERENCE_EXAMPLE[k]}\`).` : 'it takes no difference.'}`,
-  }));
+  return REFERENCE_KEYS.filter((k) => STATE_KEYS[k]!.dimension === dim).map((k) => {
+    const now = item.state ? ` = ${show(note, item.state[k as 'db'], dim, sys)}` : '';
+    const difference = DIFFERENCE_EXAMPLE[k]
+      ? `add a difference with + or − and a unit where it helps (e.g. \`${key}=${name}.${k}${DIFFERENCE_EXAMPLE[k]}\`).`
+      : 'it takes no difference.';
+    return {
+      label: k,
+      kind: 'key' as const,
+      insertText: k,
+      detail: `${STATE_KEYS[k]!.title} of ${name}${now}`,
+      documentation: `\`${key}=${name}.${k}\` takes ${STATE_KEYS[k]!.title} from ${name}; ${difference}`,
+    };
+  });
 }
 
 /** The entries with a space put before them, for a cursor right after the statement's `:`. */

@@ -155,7 +155,9 @@ function sourcesBlock(note: Note, item: StateResult, system: UnitSystem): string
   const lines: string[] = [];
   if (item.definedBy)
     lines.push(
-      `Defined by ${md(item.definedBy.statement)} ${md(item.definedBy.name)} from ${md(item.definedBy.from)}${viaText(note, item.definedBy.from)}${item.definedBy.spec ? ` (${code(item.definedBy.spec)})` : ''}.`,
+      `Defined by ${md(item.definedBy.statement)} ${md(item.definedBy.name)} ` +
+        `from ${md(item.definedBy.from)}${viaText(note, item.definedBy.from)}` +
+        `${item.definedBy.spec ? ` (${code(item.definedBy.spec)})` : ''}.`,
     );
   if (item.sources && item.sources.length > 0)
     lines.push(`Taken from states above: ${item.sources.map((s) => sourceText(note, s, system)).join('; ')}.`);
@@ -277,6 +279,7 @@ function supplyHead(note: Note, item: StateResult, system: UnitSystem): string[]
   const f = item.supply;
   if (!f || item.massFlowKgS === undefined || item.massFlowKgS === null) return out;
   const volumeUnit = system === 'SI' ? (f.volumeFlowM3S < 1 ? 'L/s' : 'm3/s') : 'cfm';
+  const givenText = f.given === 'db' ? 'supply dry-bulb' : f.given === 'm' ? 'dry-air mass flow' : 'volume flow';
   out.push(
     '',
     '| | |',
@@ -285,11 +288,10 @@ function supplyHead(note: Note, item: StateResult, system: UnitSystem): string[]
     `| room latent gain | ${show(note, f.qLatentW, 'power', system)} |`,
     `| room SHR | ${f.shr === null ? '—' : showRatio(note, f.shr)} |`,
     `| dry-air flow | ${show(note, item.massFlowKgS, 'massFlow', system)}${f.given === 'm' ? ' (given)' : ''} |`,
-    `| volume flow at ${md(item.name)} | ${show(note, f.volumeFlowM3S, 'volumeFlow', system, lookupUnit(volumeUnit))}${f.given === 'q' ? ' (given)' : ''} |`,
+    `| volume flow at ${md(item.name)} | ${show(note, f.volumeFlowM3S, 'volumeFlow', system, lookupUnit(volumeUnit))}` +
+      `${f.given === 'q' ? ' (given)' : ''} |`,
     '',
-    `Found from ` +
-      `the ${f.given === 'db' ? 'supply dry-bulb' : f.given === 'm' ? 'dry-air mass flow' : 'volume flow'} ` +
-      `and the loads; a process from ${md(item.name)} to ${md(f.room)} at this flow ` +
+    `Found from the ${givenText} and the loads; a process from ${md(item.name)} to ${md(f.room)} at this flow ` +
       `gives the loads back (sensible with the moist-air cp at ${md(item.name)}'s W).`,
   );
   return out;
@@ -361,13 +363,17 @@ function equipmentRows(note: Note, item: ProcessResult, system: UnitSystem): [st
   if (e.effSensible !== undefined) {
     rows.push([
       'effectiveness',
-      `sensible ${plain(e.effSensible, 2)}${e.effLatent !== null && e.effLatent !== undefined ? `, latent ${plain(e.effLatent, 2)}` : ''} (on the smaller capacity rate)`,
+      `sensible ${plain(e.effSensible, 2)}` +
+        `${e.effLatent !== null && e.effLatent !== undefined ? `, latent ${plain(e.effLatent, 2)}` : ''} ` +
+        '(on the smaller capacity rate)',
     ]);
   }
   if (e.wetting) {
     rows.push([
       e.wetting.kind === 'frost' ? 'frost' : 'condensation',
-      `surface about ${show(note, e.wetting.surfaceC, 'temperature', system)}, dew point ${show(note, e.wetting.dewPointC, 'temperature', system)}${e.wetting.accepted ? ' (accepted: fog=ok)' : ''}`,
+      `surface about ${show(note, e.wetting.surfaceC, 'temperature', system)}, ` +
+        `dew point ${show(note, e.wetting.dewPointC, 'temperature', system)}` +
+        `${e.wetting.accepted ? ' (accepted: fog=ok)' : ''}`,
     ]);
   }
   return rows;
@@ -487,7 +493,8 @@ function statementHover(note: Note, statement: Statement, span: Span): HoverInfo
   if (statement.keyword === 'site') return { markdown: siteHover(note, statement), span };
   if (statement.keyword === 'units') return { markdown: KEYWORD_TEXT.units, span };
   const problems = problemsOf(note, statement);
-  const head = `**${statement.keyword}${'name' in statement && statement.name ? ` ${md(statement.name.text)}` : ''}** — not computed`;
+  const name = 'name' in statement && statement.name ? ` ${md(statement.name.text)}` : '';
+  const head = `**${statement.keyword}${name}** — not computed`;
   return { markdown: [head, '', ...problems].join('\n'), span };
 }
 

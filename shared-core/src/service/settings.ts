@@ -59,7 +59,9 @@ function readQuantitySetting(
   if (!m)
     return {
       problem:
-        `dewmark.${name} = "${text}" is not a number with a ` + `unit (write e.g. "${example}"); the default is used.`,
+        `dewmark.${name} = "${text}" ` +
+        `is not a number with a unit (write e.g. "${example}"); ` +
+        'the default is used.',
     };
   const value = Number(m[1]);
   const unitText = m[2] ?? '';
@@ -236,8 +238,8 @@ export function toEvaluateSettings(s: ServiceSettings): EvaluateSettings {
   const file = s.sources?.site;
   if (s.site.kind === 'elevation') {
     pressurePa = stdAtmPressure(s.site.m);
-    pressureOrigin =
-      `${file ? `${file}: elevation` : 'setting dewmark.elevation ='} ${s.site.written} ` + `(standard atmosphere):`;
+    const setting = file ? `${file}: elevation` : 'setting dewmark.elevation =';
+    pressureOrigin = `${setting} ${s.site.written} (standard atmosphere):`;
   } else if (s.site.written !== 'default') {
     pressurePa = s.site.pa;
     pressureOrigin = `${file ? `${file}: pressure` : 'setting dewmark.pressure ='} ${s.site.written}, i.e.`;

@@ -471,11 +471,22 @@ const BROWSER_HELPERS = String.raw`
     if (!line) return { error: 'no visible editor line contains ' + JSON.stringify(lineText) };
     const walker = document.createTreeWalker(line.el, NodeFilter.SHOW_TEXT);
     const nodes = []; let text = '';
-    for (let n = walker.nextNode(); n; n = walker.nextNode()) { nodes.push({ n, start: text.length }); text += norm(n.textContent); }
+    for (let n = walker.nextNode(); n; n = walker.nextNode()) {
+      nodes.push({ n, start: text.length });
+      text += norm(n.textContent);
+    }
     let at = -1;
     for (let i = 0; i <= (occurrence || 0); i++) { at = text.indexOf(word, at + 1); if (at < 0) break; }
-    if (at < 0) return { error: 'line ' + JSON.stringify(text) + ' has no occurrence #' + (occurrence || 0) + ' of ' + JSON.stringify(word) };
-    const locate = (pos) => { for (let i = nodes.length - 1; i >= 0; i--) if (nodes[i].start <= pos) return { node: nodes[i].n, off: pos - nodes[i].start }; return null; };
+    if (at < 0) {
+      const which = 'occurrence #' + (occurrence || 0) + ' of ' + JSON.stringify(word);
+      return { error: 'line ' + JSON.stringify(text) + ' has no ' + which };
+    }
+    const locate = (pos) => {
+      for (let i = nodes.length - 1; i >= 0; i--) {
+        if (nodes[i].start <= pos) return { node: nodes[i].n, off: pos - nodes[i].start };
+      }
+      return null;
+    };
     const s = locate(at), e = locate(at + word.length - 1);
     const range = document.createRange();
     range.setStart(s.node, s.off); range.setEnd(e.node, e.off + 1);
@@ -495,7 +506,9 @@ const BROWSER_HELPERS = String.raw`
       const message = part('.marker-message');
       if (message === undefined) return { kind: 'resource', file: part('.label-name'), text, ariaLabel };
       const icon = row.querySelector('.marker-icon');
-      const severity = icon ? (['error', 'warning', 'info'].find((s) => icon.classList.contains(s)) || 'hint') : undefined;
+      const severity = icon
+        ? (['error', 'warning', 'info'].find((s) => icon.classList.contains(s)) || 'hint')
+        : undefined;
       const pos = /Ln (\d+), Col (\d+)/.exec(part('.marker-line') || '');
       return { kind: 'marker', severity, message, source: part('.marker-source'), code: part('.marker-code'),
         line: pos ? Number(pos[1]) : undefined, column: pos ? Number(pos[2]) : undefined,
@@ -509,29 +522,46 @@ const BROWSER_HELPERS = String.raw`
       const m = /squiggly-(error|warning|info|hint)/.exec(el.className); if (!m) continue;
       const lineDiv = el.parentElement; const top = parseFloat((lineDiv && lineDiv.style.top) || '0');
       const line = ls.find((l) => Math.abs(l.top - top) < 1);
-      out.push({ severity: m[1], line: line ? norm(line.el.textContent) : undefined, left: parseFloat(el.style.left || '0'), width: parseFloat(el.style.width || '0') });
+      out.push({ severity: m[1], line: line ? norm(line.el.textContent) : undefined,
+        left: parseFloat(el.style.left || '0'), width: parseFloat(el.style.width || '0') });
     }
     return out;
   };
   const quickInputRows = () => [...document.querySelectorAll('.quick-input-widget .quick-input-list .monaco-list-row')]
     .filter(visible)
     .map((row) => { const r = row.getBoundingClientRect();
-      return { label: norm((row.querySelector('.label-name') || row).textContent).trim(), ariaLabel: row.getAttribute('aria-label') || '',
+      return { label: norm((row.querySelector('.label-name') || row).textContent).trim(),
+        ariaLabel: row.getAttribute('aria-label') || '',
         focused: row.classList.contains('focused'), x: r.x + r.width / 2, y: r.y + r.height / 2 }; });
-  const quickInputOpen = () => { const w = document.querySelector('.quick-input-widget'); return !!w && visible(w) && w.style.display !== 'none'; };
+  const quickInputOpen = () => {
+    const w = document.querySelector('.quick-input-widget');
+    return !!w && visible(w) && w.style.display !== 'none';
+  };
   const actionRows = () => [...document.querySelectorAll('.action-widget .monaco-list-row')]
     .filter(visible)
-    .map((row) => { const r = row.getBoundingClientRect(); return { text: norm((row.querySelector('.title') || row).textContent).trim(), x: r.x + r.width / 2, y: r.y + r.height / 2, header: row.classList.contains('group-header') }; });
+    .map((row) => { const r = row.getBoundingClientRect();
+      return { text: norm((row.querySelector('.title') || row).textContent).trim(),
+        x: r.x + r.width / 2, y: r.y + r.height / 2, header: row.classList.contains('group-header') }; });
   const activeTab = () => { const t = document.querySelector('.part.editor .editor-group-container.active .tab.active');
-    return t ? { label: t.getAttribute('data-resource-name') || t.getAttribute('aria-label') || norm(t.textContent).trim(), dirty: t.classList.contains('dirty') } : null; };
-  const notifications = () => [...document.querySelectorAll('.notifications-toasts .notification-toast, .notifications-center .notification-list-item')]
+    if (!t) return null;
+    return { label: t.getAttribute('data-resource-name') || t.getAttribute('aria-label') || norm(t.textContent).trim(),
+      dirty: t.classList.contains('dirty') }; };
+  const notificationRows = '.notifications-toasts .notification-toast, .notifications-center .notification-list-item';
+  const notifications = () => [...document.querySelectorAll(notificationRows)]
     .filter(visible).map((n) => norm((n.querySelector('.notification-list-item-message') || n).textContent).trim());
   const statusBar = () => [...document.querySelectorAll('.part.statusbar .statusbar-item')].filter(visible)
     .map((i) => norm(i.textContent).trim()).filter(Boolean);
   const editorFocused = () => { const ed = editor(); return !!ed && ed.contains(document.activeElement); };
-  const firstLineStart = () => { const l = lineEls()[0]; if (!l) return null; const r = l.el.getBoundingClientRect(); return { x: r.x + 2, y: r.y + r.height / 2 }; };
-  window.__dm = { norm, lines, editorFocused, firstLineStart, wordBox, hovers, problems, squiggles, quickInputRows, quickInputOpen, actionRows, activeTab, notifications, statusBar,
-    ready: () => !!document.querySelector('.monaco-workbench .part.editor') && !!document.querySelector('.monaco-workbench .part.statusbar') };
+  const firstLineStart = () => {
+    const l = lineEls()[0];
+    if (!l) return null;
+    const r = l.el.getBoundingClientRect();
+    return { x: r.x + 2, y: r.y + r.height / 2 };
+  };
+  window.__dm = { norm, lines, editorFocused, firstLineStart, wordBox, hovers, problems, squiggles, quickInputRows,
+    quickInputOpen, actionRows, activeTab, notifications, statusBar,
+    ready: () => !!document.querySelector('.monaco-workbench .part.editor')
+      && !!document.querySelector('.monaco-workbench .part.statusbar') };
 })();
 `;
 
@@ -852,6 +882,7 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
     opts: WaitOptions & { line?: string; occurrence?: number; expect?: string | RegExp } = {},
   ) => {
     const want = opts.expect ?? '';
+    const test = typeof want === 'string' ? `t.includes(${JSON.stringify(want)})` : `${want.toString()}.test(t)`;
     return waitFor(
       `a hover over "${word}"${want ? ` containing ${String(want)}` : ''}`,
       async () => {
@@ -860,11 +891,7 @@ export async function openWorkbench(server: CodeServer, options: WorkbenchOption
         await page.mouse.move(5, 5);
         await page.mouse.move(b.x, b.y, { steps: 4 });
         try {
-          await page.waitForFunction(
-            `window.__dm.hovers().some((t) => ${typeof want === 'string' ? `t.includes(${JSON.stringify(want)})` : `${want.toString()}.test(t)`})`,
-            undefined,
-            { timeout: 2500 },
-          );
+          await page.waitForFunction(`window.__dm.hovers().some((t) => ${test})`, undefined, { timeout: 2500 });
         } catch {
           return undefined; // retry: move away and back
         }
