@@ -44,9 +44,10 @@ export function startsNumber(text: string, pos: number, end: number): boolean {
 
 /**
  * Scans a number starting at `pos` (which must satisfy {@link startsNumber}). Stops after the
- * last character that belongs to it; the caller looks at what follows (a unit, a comma…).
+ * last character that belongs to it; the caller looks at what follows (a unit, a comma…). The
+ * result is written into `into` when given (a parser reading many numbers reuses one object).
  */
-export function scanNumber(text: string, pos: number, end: number): ScannedNumber {
+export function scanNumber(text: string, pos: number, end: number, into?: ScannedNumber): ScannedNumber {
   const start = pos;
   let c = text.charCodeAt(pos);
   let negative = false;
@@ -123,7 +124,13 @@ export function scanNumber(text: string, pos: number, end: number): ScannedNumbe
     const plain = grouped ? written.replaceAll(GROUP_SEPARATOR, '') : written;
     value = Number(text.charCodeAt(start) === 0x2212 ? `-${plain.slice(1)}` : plain);
   }
-  return { end: pos, written, value, fractionDigits, exponent };
+  if (!into) return { end: pos, written, value, fractionDigits, exponent };
+  into.end = pos;
+  into.written = written;
+  into.value = value;
+  into.fractionDigits = fractionDigits;
+  into.exponent = exponent;
+  return into;
 }
 
 /** Place value of the last written digit: `50` → 1, `9.30` → 0.01, `1.2e3` → 100, `0.0093` → 0.0001. */

@@ -56,7 +56,7 @@ import type {
 } from './ast';
 import type { Span } from '../text/types';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
-import { resolutionOf, scanNumber, startsNumber } from './number';
+import { resolutionOf, scanNumber, startsNumber, type ScannedNumber } from './number';
 import { differenceExample, findKey, referenceKeyFor } from '../vocabulary/keys';
 import { CODES, DIAGNOSTIC_CODES, type CodeFrom } from '../vocabulary/codes';
 import { SuggestIndex } from '../text/suggest';
@@ -126,6 +126,47 @@ function endsUnit(c: number): boolean {
   return isWs(c) || c === 0x23 || c === 0xb1 || c === 0x2b || c === 0x3d || c === 0x2c;
 }
 
+/** The statement keyword written as `text[start, end)`, or null (compared in place: no substring). */
+function keywordAt(text: string, start: number, end: number): Keyword | null {
+  const length = end - start;
+  for (const kw of KEYWORDS) {
+    if (kw.length === length && text.startsWith(kw, start)) return kw;
+  }
+  return null;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Short strings read again and again
+
+/** Size of {@link internedSlice}'s table (a power of two). */
+const INTERN_SLOTS = 256;
+/** Longest string {@link internedSlice} shares; longer ones are names and numbers, rarely repeated. */
+const INTERN_MAX_LENGTH = 8;
+const internTable: string[] = new Array<string>(INTERN_SLOTS).fill('');
+
+/**
+ * `text.slice(start, end)`, shared with an equal string read before when there is one: keys and
+ * units (`db`, `rh`, `C`, `%`) recur on every line, and a note of many statements keeps one copy
+ * of each instead of one per property. A direct-mapped table on the length and the first and
+ * last characters; a miss (or a collision) just slices and takes the slot. Constant work per call.
+ */
+function internedSlice(text: string, start: number, end: number): string {
+  const length = end - start;
+  if (length <= 0 || length > INTERN_MAX_LENGTH) return text.slice(start, end);
+  const first = text.charCodeAt(start);
+  const last = text.charCodeAt(end - 1);
+  const slot = (length * 31 + first * 7 + last) & (INTERN_SLOTS - 1);
+  const cached = internTable[slot] as string;
+  if (cached.length === length) {
+    let i = 0;
+    while (i < length && cached.charCodeAt(i) === text.charCodeAt(start + i)) i++;
+    if (i === length) return cached;
+  }
+  const fresh = text.slice(start, end);
+  internTable[slot] = fresh;
+  return fresh;
+}
+
 // ---------------------------------------------------------------------------------------------
 // Suggestions
 
@@ -152,11 +193,6 @@ function keywordAdvice(word: string): string {
 // ---------------------------------------------------------------------------------------------
 // The parser of one statement
 
-interface Scanned {
-  start: number;
-  end: number;
-}
-
 class StatementParser {
   private text = '';
   private segs: readonly Span[] = [];
@@ -170,6 +206,11 @@ class StatementParser {
   private savedSeg = 0;
   private savedPos = 0;
   private savedEnd = 0;
+  /** The number being read ({@link scanNumber} fills it in place: one object for every number). */
+  private readonly scanned: ScannedNumber = { end: 0, written: '', value: 0, fractionDigits: 0, exponent: 0 };
+  /** Scratch stack of the properties being read (see {@link StatementParser.props}); `propTop` is its height. */
+  private readonly propStack: PropertyNode[] = [];
+  private propTop = 0;
   diagnostics: CoreDiagnostic[] = [];
 
   parse(text: string, segs: readonly Span[], origin: StatementOrigin, diagnostics: CoreDiagnostic[]): Statement | null {
@@ -217,8 +258,11 @@ class StatementParser {
     return c === 0x2192 || (c === 0x2d && this.charAt(pos + 1) === 0x3e);
   }
 
-  /** A run of non-whitespace characters (up to a comment) from the cursor, for messages. */
-  private rawToken(): Scanned {
+  /**
+   * End of the run of non-whitespace characters (up to a comment) that starts at the cursor, for
+   * messages: the raw token is `text[pos, rawTokenEnd())`.
+   */
+  private rawTokenEnd(): number {
     const start = this.pos;
     let p = start;
     while (p < this.end) {
@@ -227,7 +271,7 @@ class StatementParser {
       p++;
     }
     if (p === start && p < this.end) p++;
-    return { start, end: p };
+    return p;
   }
 
   private save(): void {
@@ -251,10 +295,6 @@ class StatementParser {
     return { start, end };
   }
 
-  private slice(s: Scanned): string {
-    return this.text.slice(s.start, s.end);
-  }
-
   private report(code: SyntaxCode, message: string, start: number, end: number): void {
     this.diagnostics.push({ code, severity: 'error', message, span: { start, end: Math.max(start, end) } });
   }
@@ -263,8 +303,7 @@ class StatementParser {
   private skipRest(): void {
     for (;;) {
       if (this.peek() < 0) return;
-      const t = this.rawToken();
-      this.consume(t.end);
+      this.consume(this.rawTokenEnd());
     }
   }
 
@@ -275,19 +314,15 @@ class StatementParser {
     const start = this.pos;
     let p = start;
     while (p < this.end && isAsciiLetter(this.text.charCodeAt(p))) p++;
-    const word = this.text.slice(start, p);
     const after = this.charAt(p);
-    const keyword =
-      (KEYWORDS as readonly string[]).includes(word) && (after < 0 || after === 0x3a || isWs(after))
-        ? (word as Keyword)
-        : null;
+    const keyword = after < 0 || after === 0x3a || isWs(after) ? keywordAt(this.text, start, p) : null;
     if (!keyword) {
-      const t = this.rawToken();
-      let e = t.start;
-      while (e < t.end && this.text.charCodeAt(e) !== 0x3a) e++;
-      if (e === t.start) e = t.end;
-      const shown = this.text.slice(t.start, e);
-      this.report('unknown-keyword', `unknown statement '${shown}': ${keywordAdvice(shown)}`, t.start, e);
+      const tokenEnd = this.rawTokenEnd();
+      let e = start;
+      while (e < tokenEnd && this.text.charCodeAt(e) !== 0x3a) e++;
+      if (e === start) e = tokenEnd;
+      const shown = this.text.slice(start, e);
+      this.report('unknown-keyword', `unknown statement '${shown}': ${keywordAdvice(shown)}`, start, e);
       this.skipRest();
       return null;
     }
@@ -316,13 +351,13 @@ class StatementParser {
   }
 
   private site(keywordSpan: Span): SiteStatement {
-    this.colon('site', 'site: elev=1600m', keywordSpan.start);
+    this.colon('site', null, keywordSpan.start);
     const props = this.props();
     return { keyword: 'site', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), props };
   }
 
   private units(keywordSpan: Span): UnitsStatement {
-    this.colon('units', 'units: SI', keywordSpan.start);
+    this.colon('units', null, keywordSpan.start);
     let system: NameNode | null = null;
     if (this.peek() < 0) {
       this.report(
@@ -332,9 +367,10 @@ class StatementParser {
         this.lastEnd,
       );
     } else {
-      const t = this.rawToken();
-      this.consume(t.end);
-      system = { text: this.slice(t), span: this.span(t.start, t.end) };
+      const start = this.pos;
+      const end = this.rawTokenEnd();
+      this.consume(end);
+      system = { text: this.text.slice(start, end), span: this.span(start, end) };
       if (this.peek() >= 0) {
         const extraStart = this.pos;
         this.skipRest();
@@ -351,24 +387,14 @@ class StatementParser {
 
   private state(keywordSpan: Span): StateStatement {
     const name = this.definedName('state', keywordSpan, 'state RA: db=24C rh=50%');
-    this.colon(
-      name ? `state ${name.text}` : 'state',
-      `state ${name?.text ?? 'RA'}: db=24C rh=50%`,
-      keywordSpan.start,
-      !name,
-    );
+    this.colon('state', name, keywordSpan.start, !name);
     const props = this.props();
     return { keyword: 'state', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, props };
   }
 
   private mix(keywordSpan: Span): MixStatement {
     const name = this.definedName('mix', keywordSpan, 'mix MA: OA 25% + RA 75%');
-    this.colon(
-      name ? `mix ${name.text}` : 'mix',
-      `mix ${name?.text ?? 'MA'}: OA 25% + RA 75%`,
-      keywordSpan.start,
-      !name,
-    );
+    this.colon('mix', name, keywordSpan.start, !name);
     const streams = this.streams(keywordSpan, name?.text ?? 'MA');
     const props = this.props();
     return { keyword: 'mix', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, streams, props };
@@ -377,11 +403,11 @@ class StatementParser {
   private process(keywordSpan: Span): ProcessStatement {
     const name = this.definedName('process', keywordSpan, 'process CC: MA -> SA q=4.8m3/s');
     const self = name?.text ?? 'CC';
-    this.colon(name ? `process ${name.text}` : 'process', `process ${self}: MA -> SA`, keywordSpan.start, !name);
+    this.colon('process', name, keywordSpan.start, !name);
     // Without an arrow, a following name is still read as the leaving state (the arrow is reported).
     const { from, to } = this.arrowPair(keywordSpan, (f) => `process ${self}: ${f ?? 'MA'} -> SA`);
     const words: NameNode[] = [];
-    const props = this.props({ words });
+    const props = this.props(words);
     return {
       keyword: 'process',
       keywordSpan,
@@ -429,12 +455,7 @@ class StatementParser {
   private recover(keywordSpan: Span): RecoverStatement {
     const name = this.definedName('recover', keywordSpan, 'recover HX: OA -> OA2, EA -> EA2 eff_s=0.70');
     const self = name?.text ?? 'HX';
-    this.colon(
-      name ? `recover ${name.text}` : 'recover',
-      `recover ${self}: OA -> OA2, EA -> EA2 eff_s=0.70`,
-      keywordSpan.start,
-      !name,
-    );
+    this.colon('recover', name, keywordSpan.start, !name);
     const streams: RecoverStream[] = [];
     const props: PropertyNode[] = [];
     const options: WordPropertyNode[] = [];
@@ -445,7 +466,7 @@ class StatementParser {
           ? (f: string | null) => `recover ${self}: ${f ?? 'OA'} -> OA2, EA -> EA2 eff_s=0.70`
           : (f: string | null) => `recover ${self}: OA -> OA2, ${f ?? 'EA'} -> EA2 eff_s=0.70`;
       const { from, to } = this.arrowPair(keywordSpan, example);
-      const own = this.props({ stopAtComma: true, options });
+      const own = this.props(null, true, options);
       props.push(...own);
       streams.push({ from, to, props: own, span: this.span(start, Math.max(start, this.lastEnd)) });
       if (k === 0) {
@@ -488,18 +509,18 @@ class StatementParser {
 
   private supply(keywordSpan: Span): SupplyStatement {
     const name = this.definedName('supply', keywordSpan, 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C');
-    const example = `supply ${name?.text ?? 'SA'}: RA q_sensible=41.5kW q_latent=8kW db=13.6C`;
-    this.colon(name ? `supply ${name.text}` : 'supply', example, keywordSpan.start, !name);
-    const room = this.referencedName('the room state the supply serves', example, keywordSpan);
+    this.colon('supply', name, keywordSpan.start, !name);
+    const room = this.referencedName('the room state the supply serves', headExample('supply', name), keywordSpan);
     const props = this.props();
     return { keyword: 'supply', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, room, props };
   }
 
   /**
-   * `:` after the statement head (`headStart` to the cursor); reported on the head, not consumed,
-   * when missing — unless `quiet` (the missing name was reported and properties follow).
+   * `:` after the statement head (`keyword` and its `name`, from `headStart` to the cursor);
+   * reported on the head, not consumed, when missing — unless `quiet` (the missing name was
+   * reported and properties follow).
    */
-  private colon(head: string, example: string, headStart: number, quiet = false): void {
+  private colon(keyword: Keyword, name: NameNode | null, headStart: number, quiet = false): void {
     const headEnd = this.lastEnd;
     const c = this.peek();
     if (c === 0x3a) {
@@ -507,15 +528,20 @@ class StatementParser {
       return;
     }
     if (quiet && (c < 0 || this.keyAhead())) return;
-    this.report('missing-colon', `missing ':' after '${head}': write ${example}`, headStart, headEnd);
+    const head = name ? `${keyword} ${name.text}` : keyword;
+    this.report(
+      'missing-colon',
+      `missing ':' after '${head}': write ${headExample(keyword, name)}`,
+      headStart,
+      headEnd,
+    );
   }
 
   // --- names --------------------------------------------------------------------------------
 
-  /** Scans a name-like token at the cursor (without checking it). */
-  private nameToken(): Scanned {
-    const start = this.pos;
-    let p = start;
+  /** End of the name-like token at the cursor (not checked): the token is `text[pos, nameTokenEnd())`. */
+  private nameTokenEnd(): number {
+    let p = this.pos;
     while (p < this.end) {
       const c = this.text.charCodeAt(p);
       if (isWs(c) || c === 0x3a || c === 0x3d || c === 0x23 || c === 0x2c || c === 0x2b || c === 0xb1 || c === 0x2192)
@@ -523,27 +549,27 @@ class StatementParser {
       if (c === 0x2d && this.charAt(p + 1) === 0x3e) break;
       p++;
     }
-    return { start, end: p };
+    return p;
   }
 
-  /** Checks a scanned name: null (and a `bad-name` diagnostic) when it breaks the naming rule. */
-  private checkName(t: Scanned): NameNode | null {
+  /** Checks the name `text[start, end)`: null (and a `bad-name` diagnostic) when it breaks the naming rule. */
+  private checkName(start: number, end: number): NameNode | null {
     const text = this.text;
-    const first = letterAt(text, t.start, t.end);
+    const first = letterAt(text, start, end);
     let problem: string | null = null;
     if (first === 0) {
-      problem = isDigit(text.charCodeAt(t.start))
+      problem = isDigit(text.charCodeAt(start))
         ? 'a name starts with a letter'
-        : `a name cannot start with '${String.fromCodePoint(text.codePointAt(t.start) ?? 0)}'`;
+        : `a name cannot start with '${String.fromCodePoint(text.codePointAt(start) ?? 0)}'`;
     } else {
-      let p = t.start + first;
-      while (p < t.end) {
+      let p = start + first;
+      while (p < end) {
         const c = text.charCodeAt(p);
         if (isDigit(c) || c === 0x5f || c === 0x2d) {
           p++;
           continue;
         }
-        const l = letterAt(text, p, t.end);
+        const l = letterAt(text, p, end);
         if (l === 0) {
           problem = `a name cannot contain '${String.fromCodePoint(text.codePointAt(p) ?? 0)}'`;
           break;
@@ -554,13 +580,13 @@ class StatementParser {
     if (problem) {
       this.report(
         'bad-name',
-        `'${this.slice(t)}' is not a valid name: ${problem}; use a letter, then letters, digits, '_' or '-' (e.g. AHU-1_off)`,
-        t.start,
-        t.end,
+        `'${text.slice(start, end)}' is not a valid name: ${problem}; use a letter, then letters, digits, '_' or '-' (e.g. AHU-1_off)`,
+        start,
+        end,
       );
       return null;
     }
-    return { text: this.slice(t), span: this.span(t.start, t.end) };
+    return { text: text.slice(start, end), span: this.span(start, end) };
   }
 
   /** Whether a `key=` (with optional spaces before `=`, but not `=>`) starts at the cursor. */
@@ -597,20 +623,21 @@ class StatementParser {
       this.report('missing-name', `'${keyword}' needs a name before ':': write ${example}`, at, endAt);
       return null;
     }
-    const t = this.nameToken();
-    if (t.end === t.start) {
-      const r = this.rawToken();
-      this.consume(r.end);
+    const start = this.pos;
+    const end = this.nameTokenEnd();
+    if (end === start) {
+      const rawEnd = this.rawTokenEnd();
+      this.consume(rawEnd);
       this.report(
         'bad-name',
-        `'${this.slice(r)}' is not a valid name: use a letter, then letters, digits, '_' or '-' (e.g. ${example})`,
-        r.start,
-        r.end,
+        `'${this.text.slice(start, rawEnd)}' is not a valid name: use a letter, then letters, digits, '_' or '-' (e.g. ${example})`,
+        start,
+        rawEnd,
       );
       return null;
     }
-    this.consume(t.end);
-    return this.checkName(t);
+    this.consume(end);
+    return this.checkName(start, end);
   }
 
   /** A state named in a mix stream or a process. */
@@ -618,13 +645,14 @@ class StatementParser {
     if (!this.nameAhead()) {
       const c = this.peek();
       const at = c >= 0 ? this.pos : Math.max(keywordSpan.end, this.lastEnd);
-      this.report('missing-name', `${role} is missing: write ${example}`, at, c >= 0 ? this.rawToken().end : at);
+      this.report('missing-name', `${role} is missing: write ${example}`, at, c >= 0 ? this.rawTokenEnd() : at);
       return null;
     }
-    const t = this.nameToken();
-    if (t.end === t.start) return null;
-    this.consume(t.end);
-    return this.checkName(t);
+    const start = this.pos;
+    const end = this.nameTokenEnd();
+    if (end === start) return null;
+    this.consume(end);
+    return this.checkName(start, end);
   }
 
   // --- mix streams ----------------------------------------------------------------------------
@@ -645,8 +673,9 @@ class StatementParser {
           continue;
         }
         if (this.nameAhead() && letterAt(this.text, this.pos, this.end) > 0) {
-          const t = this.nameToken();
-          this.report('syntax', `missing '+' before the stream '${this.slice(t)}': write ${example}`, t.start, t.end);
+          const end = this.nameTokenEnd();
+          const shown = this.text.slice(this.pos, end);
+          this.report('syntax', `missing '+' before the stream '${shown}': write ${example}`, this.pos, end);
           expectStream = true;
           continue;
         }
@@ -660,13 +689,13 @@ class StatementParser {
           'missing-name',
           `a stream starts with the name of a state: write ${example}`,
           this.pos,
-          this.rawToken().end,
+          this.rawTokenEnd(),
         );
       } else if (this.nameAhead()) {
-        const t = this.nameToken();
-        if (t.end === t.start) break;
-        this.consume(t.end);
-        name = this.checkName(t);
+        const end = this.nameTokenEnd();
+        if (end === streamStart) break;
+        this.consume(end);
+        name = this.checkName(streamStart, end);
       } else {
         break;
       }
@@ -712,16 +741,22 @@ class StatementParser {
    * `key=value …` to the end of the statement. `words` collects bare words (`steam`) instead of
    * reporting them; `stopAtComma` ends the list at a comma (a recover's first stream); `options`
    * collects `key=word` (`fog=ok`) instead of reporting the word as a bad number.
+   *
+   * The properties are collected on the parser's scratch stack ({@link StatementParser.propStack})
+   * and copied out at the end into a list of exactly their number: one array per list, none grown.
    */
   private props(
-    opts: { words?: NameNode[]; stopAtComma?: boolean; options?: WordPropertyNode[] } = {},
+    words: NameNode[] | null = null,
+    stopAtComma = false,
+    options: WordPropertyNode[] | null = null,
   ): PropertyNode[] {
-    const props: PropertyNode[] = [];
+    const stack = this.propStack;
+    const base = this.propTop;
     for (;;) {
       const c = this.peek();
       if (c < 0) break;
       const start = this.pos;
-      if (c === 0x2c && opts.stopAtComma) break;
+      if (c === 0x2c && stopAtComma) break;
       if (c === 0x2c) {
         this.report('syntax', 'separate properties with spaces, not commas: write db=24C rh=50%', start, start + 1);
         this.consume(start + 1);
@@ -729,13 +764,13 @@ class StatementParser {
       }
       if (c === 0x3d) {
         this.consume(start + 1);
-        const value = this.peek() >= 0 && !this.keyAhead() ? this.rawToken() : null;
-        if (value) this.consume(value.end);
+        const valueEnd = this.peek() >= 0 && !this.keyAhead() ? this.rawTokenEnd() : -1;
+        if (valueEnd >= 0) this.consume(valueEnd);
         this.report(
           'syntax',
           "'=' without a key before it: write key=value, e.g. rh=50%",
           start,
-          value ? value.end : start + 1,
+          valueEnd >= 0 ? valueEnd : start + 1,
         );
         continue;
       }
@@ -744,63 +779,73 @@ class StatementParser {
         while (p < this.end && isKeyChar(this.text.charCodeAt(p))) p++;
         const keyEnd = p;
         while (p < this.end && (this.text.charCodeAt(p) === 0x20 || this.text.charCodeAt(p) === 0x09)) p++;
-        const key = this.text.slice(start, keyEnd);
-        const keySpan = this.span(start, keyEnd);
         if (this.charAt(p) === 0x3d) {
+          const key = internedSlice(this.text, start, keyEnd);
+          const keySpan = this.span(start, keyEnd);
           this.consume(p + 1);
-          const word = opts.options ? this.wordValue() : null;
+          const word = options ? this.wordValue() : null;
           if (word) {
-            opts.options!.push({ key, keySpan, word, span: this.span(start, word.span.end) });
+            options!.push({ key, keySpan, word, span: this.span(start, word.span.end) });
             continue;
           }
           const ref = this.propertyRef(key);
           if (ref === 'reported') {
-            props.push({ key, keySpan, value: null, span: this.span(start, this.lastEnd) });
+            stack[this.propTop++] = { key, keySpan, value: null, span: this.span(start, this.lastEnd) };
             continue;
           }
           if (ref) {
-            props.push({ key, keySpan, value: null, span: this.span(start, ref.span.end), ref });
+            stack[this.propTop++] = { key, keySpan, value: null, span: this.span(start, ref.span.end), ref };
             continue;
           }
           const value = this.value(key, keySpan);
-          props.push({ key, keySpan, value, span: this.span(start, value ? value.span.end : p + 1) });
+          stack[this.propTop++] = { key, keySpan, value, span: this.span(start, value ? value.span.end : p + 1) };
           continue;
         }
         const afterKey = this.charAt(keyEnd);
         if (keyEnd < this.end && !isWs(afterKey) && afterKey !== 0x23) {
           // Something glued to the word that is not '=': report the whole token.
-          const t = this.rawToken();
-          this.consume(t.end);
-          this.report('syntax', `'${this.slice(t)}' is not a property: write key=value, e.g. db=24C`, t.start, t.end);
+          const tokenEnd = this.rawTokenEnd();
+          this.consume(tokenEnd);
+          const shown = this.text.slice(start, tokenEnd);
+          this.report('syntax', `'${shown}' is not a property: write key=value, e.g. db=24C`, start, tokenEnd);
           continue;
         }
+        const key = internedSlice(this.text, start, keyEnd);
+        const keySpan = this.span(start, keyEnd);
         this.consume(keyEnd);
         if (this.peek() >= 0 && startsNumber(this.text, this.pos, this.end)) {
           // `rh 50%`: the '=' is missing; read the value all the same.
           this.report(
             'syntax',
-            `missing '=' after '${key}': write ${key}=${this.slice(this.rawToken())}`,
+            `missing '=' after '${key}': write ${key}=${this.text.slice(this.pos, this.rawTokenEnd())}`,
             start,
             keyEnd,
           );
           const value = this.quantity('prop');
-          props.push({ key, keySpan, value, span: this.span(start, value ? value.span.end : keyEnd) });
+          stack[this.propTop++] = { key, keySpan, value, span: this.span(start, value ? value.span.end : keyEnd) };
           continue;
         }
-        if (opts.words) {
-          opts.words.push({ text: key, span: keySpan });
+        if (words) {
+          words.push({ text: key, span: keySpan });
           continue;
         }
         this.report('syntax', `'${key}' is not a property: write key=value, e.g. db=24C`, start, keyEnd);
         continue;
       }
-      const t = this.rawToken();
-      this.consume(t.end);
-      this.report('syntax', `unexpected '${this.slice(t)}': expected key=value, e.g. db=24C`, t.start, t.end);
+      const tokenEnd = this.rawTokenEnd();
+      this.consume(tokenEnd);
+      this.report(
+        'syntax',
+        `unexpected '${this.text.slice(start, tokenEnd)}': expected key=value, e.g. db=24C`,
+        start,
+        tokenEnd,
+      );
     }
-    // A list grown by push keeps room for 17 entries; the tree keeps an exact copy (a note's
-    // statements stay in memory while it is open, or until the command line's output is written).
-    return props.slice();
+    // The tree keeps an exact copy (a note's statements stay in memory while it is open, or until
+    // the command line's output is written); the scratch entries are left to be overwritten.
+    const props = exactList(stack, base, this.propTop);
+    this.propTop = base;
+    return props;
   }
 
   /** A value that is a plain word of letters (`ok` in `fog=ok`), consumed; null (nothing consumed) otherwise. */
@@ -830,19 +875,20 @@ class StatementParser {
       return null;
     }
     if (!startsNumber(this.text, this.pos, this.end)) {
-      const t = this.rawToken();
-      this.consume(t.end);
-      const word = this.slice(t);
+      const tStart = this.pos;
+      const tEnd = this.rawTokenEnd();
+      this.consume(tEnd);
+      const word = this.text.slice(tStart, tEnd);
       const lower = word.toLowerCase().replace(/^[+\-−]/, '');
       const why =
         lower === 'nan' || lower.startsWith('inf') ? `'${word}' is not a finite number` : `'${word}' is not a number`;
-      const nameLike = letterAt(this.text, t.start, t.end) > 0 && !/[.=]/.test(word);
+      const nameLike = letterAt(this.text, tStart, tEnd) > 0 && !/[.=]/.test(word);
       const orRef = nameLike ? `, or another state's property: ${key}=${word}.${referenceKeyFor(key)}` : '';
       this.report(
         'bad-number',
         `${why}: write ${key}= followed by a decimal number and its unit, e.g. ${exampleFor(key)}${orRef}`,
-        t.start,
-        t.end,
+        tStart,
+        tEnd,
       );
       return null;
     }
@@ -879,13 +925,14 @@ class StatementParser {
       while (q < this.end && isKeyChar(this.text.charCodeAt(q))) q++;
     }
     if (q === keyStart) {
-      const t = this.rawToken();
-      this.consume(t.end);
+      const tStart = this.pos;
+      const tEnd = this.rawTokenEnd();
+      this.consume(tEnd);
       this.report(
         'missing-value',
-        `'${this.slice(t)}' names no property after the dot: write ${key}=${state.text}.${referenceKeyFor(key)} (a property of ${state.text})`,
-        t.start,
-        t.end,
+        `'${this.text.slice(tStart, tEnd)}' names no property after the dot: write ${key}=${state.text}.${referenceKeyFor(key)} (a property of ${state.text})`,
+        tStart,
+        tEnd,
       );
       return 'reported';
     }
@@ -898,13 +945,14 @@ class StatementParser {
       if (!offset) return 'reported'; // a malformed number
     } else if (c === 0x2b || c === 0x2d || c === 0x2212) {
       // `OA.db+` or `OA.db+x`: a sign without a number.
-      const t = this.rawToken();
-      this.consume(t.end);
+      const tStart = this.pos;
+      const tEnd = this.rawTokenEnd();
+      this.consume(tEnd);
       this.report(
         'missing-value',
-        `'${this.slice(t)}' needs a difference after the sign: write ${key}=${state.text}.${refKey.text}+${differenceExample(refKey.text)} (+ or − a difference with its unit)`,
-        t.start,
-        t.end,
+        `'${this.text.slice(tStart, tEnd)}' needs a difference after the sign: write ${key}=${state.text}.${refKey.text}+${differenceExample(refKey.text)} (+ or − a difference with its unit)`,
+        tStart,
+        tEnd,
       );
       return 'reported';
     }
@@ -912,13 +960,13 @@ class StatementParser {
     const after = this.charAt(this.pos);
     if (this.pos < this.end && !isWs(after) && after !== 0x23) {
       // Something glued on (`OA.w*2`, `OA.w.x`): only + or − a difference may follow.
-      const t = this.rawToken();
-      this.consume(t.end);
+      const tEnd = this.rawTokenEnd();
+      this.consume(tEnd);
       this.report(
         'syntax',
-        `'${this.text.slice(start, t.end)}' is not a property reference: write ${state.text}.${refKey.text}, or add or subtract a difference with its unit (${state.text}.${refKey.text}+${differenceExample(refKey.text)}); no other arithmetic`,
+        `'${this.text.slice(start, tEnd)}' is not a property reference: write ${state.text}.${refKey.text}, or add or subtract a difference with its unit (${state.text}.${refKey.text}+${differenceExample(refKey.text)}); no other arithmetic`,
         start,
-        t.end,
+        tEnd,
       );
       return 'reported';
     }
@@ -930,21 +978,25 @@ class StatementParser {
     const number = this.number(key);
     if (!number) return null;
     let unit: UnitNode | null = null;
-    const u = this.unitAt(this.pos);
-    if (u) {
-      this.consume(u.end);
-      unit = { text: this.slice(u), span: this.span(u.start, u.end) };
+    const unitStart = this.pos;
+    const unitEnd = this.unitEnd(unitStart);
+    if (unitEnd > unitStart) {
+      this.consume(unitEnd);
+      unit = { text: internedSlice(this.text, unitStart, unitEnd), span: this.span(unitStart, unitEnd) };
     } else {
-      const detached = this.detachedUnit(context);
-      if (detached) {
+      const detachedEnd = this.detachedUnit(context);
+      if (detachedEnd >= 0) {
+        // The cursor is at the unit's start.
+        const detachedStart = this.pos;
+        const written = internedSlice(this.text, detachedStart, detachedEnd);
         this.report(
           'value-spacing',
-          `write the unit directly after the number, e.g. ${number.text}${this.slice(detached)} (no space)`,
+          `write the unit directly after the number, e.g. ${number.text}${written} (no space)`,
           number.span.start,
-          detached.end,
+          detachedEnd,
         );
-        this.consume(detached.end);
-        unit = { text: this.slice(detached), span: this.span(detached.start, detached.end) };
+        this.consume(detachedEnd);
+        unit = { text: written, span: this.span(detachedStart, detachedEnd) };
       }
     }
     let tolerance: ToleranceNode | null = null;
@@ -973,49 +1025,50 @@ class StatementParser {
   /** A number at the cursor; null (with a `bad-number` diagnostic, token skipped) when malformed. */
   private number(key?: string): NumberNode | null {
     const start = this.pos;
-    const n = scanNumber(this.text, start, this.end);
+    const n = scanNumber(this.text, start, this.end, this.scanned);
     const next = this.charAt(n.end);
-    const example = key ? ` e.g. ${exampleFor(key)}` : '';
     if (next === 0x2c && isDigit(this.charAt(n.end + 1))) {
-      const t = this.rawToken();
-      this.consume(t.end);
-      const shown = this.slice(t);
-      this.report('bad-number', commaMessage(shown), t.start, t.end);
+      const tStart = this.pos;
+      const tEnd = this.rawTokenEnd();
+      this.consume(tEnd);
+      const shown = this.text.slice(tStart, tEnd);
+      this.report('bad-number', commaMessage(shown), tStart, tEnd);
       return null;
     }
     if (next === 0x2e || isDigit(next)) {
-      const t = this.rawToken();
-      this.consume(t.end);
+      const tStart = this.pos;
+      const tEnd = this.rawTokenEnd();
+      this.consume(tEnd);
       this.report(
         'bad-number',
-        `'${this.slice(t)}' is not a number: write one decimal number,${example || ' e.g. 24.5'}`,
-        t.start,
-        t.end,
+        `'${this.text.slice(tStart, tEnd)}' is not a number: write one decimal number,${numberExample(key, ' e.g. 24.5')}`,
+        tStart,
+        tEnd,
       );
       return null;
     }
     const value = n.value;
     if (!Number.isFinite(value)) {
-      const t = this.rawToken();
-      this.consume(t.end);
+      const tEnd = this.rawTokenEnd();
+      this.consume(tEnd);
       this.report(
         'bad-number',
-        `'${this.text.slice(start, n.end)}' is too large: write a finite number,${example || ' e.g. 1.2e3'}`,
+        `'${this.text.slice(start, n.end)}' is too large: write a finite number,${numberExample(key, ' e.g. 1.2e3')}`,
         start,
-        t.end,
+        tEnd,
       );
       return null;
     }
     const resolution = resolutionOf(n.fractionDigits, n.exponent);
     if (!Number.isFinite(resolution)) {
       // A finite value with a huge exponent (0e400): its last digit stands for more than a double holds.
-      const t = this.rawToken();
-      this.consume(t.end);
+      const tEnd = this.rawTokenEnd();
+      this.consume(tEnd);
       this.report(
         'bad-number',
-        `'${this.text.slice(start, n.end)}' has an exponent too large to compute with: write the number without it,${example || ' e.g. 0'}`,
+        `'${this.text.slice(start, n.end)}' has an exponent too large to compute with: write the number without it,${numberExample(key, ' e.g. 0')}`,
         start,
-        t.end,
+        tEnd,
       );
       return null;
     }
@@ -1028,28 +1081,25 @@ class StatementParser {
     };
   }
 
-  /** A unit written directly at `pos`, or null. */
-  private unitAt(pos: number): Scanned | null {
-    if (pos >= this.end) return null;
-    const c = this.text.charCodeAt(pos);
-    if (endsUnit(c)) return null;
+  /** End of the unit written directly at `pos` (`pos` itself when there is none). */
+  private unitEnd(pos: number): number {
     let p = pos;
     while (p < this.end && !endsUnit(this.text.charCodeAt(p))) p++;
-    return { start: pos, end: p };
+    return p;
   }
 
   /**
    * A unit separated from its number by spaces (`24 C`): a token that looks like a unit, is not a
-   * `key=` and (in a mix) is not the next stream's name followed by its amount. The cursor is
-   * left unchanged either way.
+   * `key=` and (in a mix) is not the next stream's name followed by its amount. Returns the
+   * unit's end with the cursor moved to its start, or -1 with the cursor unchanged.
    */
-  private detachedUnit(context: 'prop' | 'stream'): Scanned | null {
+  private detachedUnit(context: 'prop' | 'stream'): number {
     this.save();
     const from = this.pos;
     const c = this.peek();
     if (c < 0 || this.pos === from) {
       this.restore();
-      return null;
+      return -1;
     }
     const startsLikeUnit =
       c === 0x25 ||
@@ -1060,28 +1110,29 @@ class StatementParser {
       letterAt(this.text, this.pos, this.end) > 0;
     if (!startsLikeUnit || this.keyAhead() || this.isArrowAt(this.pos)) {
       this.restore();
-      return null;
+      return -1;
     }
-    const u = this.unitAt(this.pos);
-    if (!u) {
+    const uStart = this.pos;
+    const uEnd = this.unitEnd(uStart);
+    if (uEnd === uStart) {
       this.restore();
-      return null;
+      return -1;
     }
     // What follows the candidate: a number means it was a name or key with its value.
-    this.pos = u.end;
+    this.pos = uEnd;
     const next = this.peek();
     const followedByNumber = next >= 0 && startsNumber(this.text, this.pos, this.end);
     const followedByEq = next === 0x3d;
     this.restore();
-    if (followedByNumber || followedByEq) return null;
-    if (context === 'stream' && KEYWORDS.includes(this.text.slice(u.start, u.end) as Keyword)) return null;
+    if (followedByNumber || followedByEq) return -1;
+    if (context === 'stream' && keywordAt(this.text, uStart, uEnd) !== null) return -1;
     // Make the cursor point at the candidate for the caller.
     this.peek();
-    if (this.pos !== u.start) {
+    if (this.pos !== uStart) {
       this.restore();
-      return null;
+      return -1;
     }
-    return u;
+    return uEnd;
   }
 
   /** Length of a tolerance sign at `pos` (`±` → 1, `+-` → 2), or 0. */
@@ -1099,13 +1150,14 @@ class StatementParser {
     this.consume(start + signLen);
     const c = this.charAt(this.pos);
     if (c === 0x2b || c === 0x2d || c === 0x2212) {
-      const t = this.rawToken();
-      this.consume(t.end);
+      const tStart = this.pos;
+      const tEnd = this.rawTokenEnd();
+      this.consume(tEnd);
       this.report(
         'bad-number',
-        `write the tolerance without a sign, e.g. ±${this.text.slice(t.start + 1, t.end)}`,
+        `write the tolerance without a sign, e.g. ±${this.text.slice(tStart + 1, tEnd)}`,
         start,
-        t.end,
+        tEnd,
       );
       return null;
     }
@@ -1116,17 +1168,18 @@ class StatementParser {
         start,
         start + signLen,
       );
-      const t = this.unitAt(this.pos);
-      if (t) this.consume(t.end);
+      const unitEnd = this.unitEnd(this.pos);
+      if (unitEnd > this.pos) this.consume(unitEnd);
       return null;
     }
     const number = this.number();
     if (!number) return null;
     let unit: UnitNode | null = null;
-    const u = this.unitAt(this.pos);
-    if (u) {
-      this.consume(u.end);
-      unit = { text: this.slice(u), span: this.span(u.start, u.end) };
+    const unitStart = this.pos;
+    const unitEnd = this.unitEnd(unitStart);
+    if (unitEnd > unitStart) {
+      this.consume(unitEnd);
+      unit = { text: internedSlice(this.text, unitStart, unitEnd), span: this.span(unitStart, unitEnd) };
     }
     return { number, unit, span: this.span(start, unit ? unit.span.end : number.span.end) };
   }
@@ -1148,6 +1201,49 @@ function commaMessage(shown: string): string {
     return `'${shown}' is not a number: use a decimal point, not a comma (${shown.replace(',', '.')}); a comma is read only as a thousands separator (8,745)`;
   }
   return `'${shown}' is not a number: a comma is read only as a thousands separator, between groups of three digits after a first group of one to three (8,745 or 1,234,567.5); for a decimal fraction write a point (24.5)`;
+}
+
+/**
+ * A new array of `items[from, to)`. Short lists are written as array literals: V8 learns from
+ * where a literal is created that its arrays outlive the parse, and allocates them with the rest of
+ * the tree instead of copying them out of the young generation later (`slice` gives no such hint).
+ */
+function exactList<T>(items: readonly T[], from: number, to: number): T[] {
+  switch (to - from) {
+    case 0:
+      return [];
+    case 1:
+      return [items[from] as T];
+    case 2:
+      return [items[from] as T, items[from + 1] as T];
+    case 3:
+      return [items[from] as T, items[from + 1] as T, items[from + 2] as T];
+    default:
+      return items.slice(from, to);
+  }
+}
+
+/** What follows `NAME: ` in a statement's example, by keyword (site and units have no name). */
+const HEAD_EXAMPLES: Readonly<Record<Keyword, { name: string; rest: string }>> = {
+  site: { name: '', rest: 'elev=1600m' },
+  units: { name: '', rest: 'SI' },
+  state: { name: 'RA', rest: 'db=24C rh=50%' },
+  mix: { name: 'MA', rest: 'OA 25% + RA 75%' },
+  process: { name: 'CC', rest: 'MA -> SA' },
+  supply: { name: 'SA', rest: 'RA q_sensible=41.5kW q_latent=8kW db=13.6C' },
+  recover: { name: 'HX', rest: 'OA -> OA2, EA -> EA2 eff_s=0.70' },
+};
+
+/** A whole statement of this keyword for a message (`state RA: db=24C rh=50%`), with its name when it has one. */
+function headExample(keyword: Keyword, name: NameNode | null): string {
+  const example = HEAD_EXAMPLES[keyword];
+  if (example.name === '') return `${keyword}: ${example.rest}`;
+  return `${keyword} ${name ? name.text : example.name}: ${example.rest}`;
+}
+
+/** ` e.g. ` and the key's example for a number's message, or `fallback` when the number has no key. */
+function numberExample(key: string | undefined, fallback: string): string {
+  return key ? ` e.g. ${exampleFor(key)}` : fallback;
 }
 
 /** The first example of a key from the key table (`db=24C`, `shr=0.73`); `key=24C` for a key the table lacks. */
