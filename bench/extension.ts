@@ -34,11 +34,15 @@ const kib = (n: number) => `${(n / 1024).toFixed(1)} KiB`;
 function requireTimeMs(): number {
   const script = `
     const Module = require('module');
-    const stub = () => new Proxy(function () {}, { get: (t, k) => (k === \
-'prototype' ? {} : stub()), construct: () => ({}), apply: () => undefined });
+    const stub = () => new Proxy(function () {}, {
+      get: (t, k) => (k === 'prototype' ? {} : stub()),
+      construct: () => ({}),
+      apply: () => undefined,
+    });
     const load = Module._load;
-    Module._load = function (request, ...rest) { return request \
-=== 'vscode' ? stub() : load.call(this, request, ...rest); };
+    Module._load = function (request, ...rest) {
+      return request === 'vscode' ? stub() : load.call(this, request, ...rest);
+    };
     const t = performance.now();
     require(${JSON.stringify(join(root, 'dist', 'client.js'))});
     process.stdout.write(String(performance.now() - t));`;

@@ -262,14 +262,12 @@ function fromTemperature(
     );
   }
   if (Qs / dt < 0) {
+    const why =
+      Qs > 0
+        ? msg`a sensible gain needs supply air cooler than ${roomName} (${fT(tR)})`
+        : msg`a sensible loss (negative q_sensible) needs supply air warmer than ${roomName} (${fT(tR)})`;
     return err(
-      msg`${what}: ${
-        Qs > 0
-          ? msg`a sensible gain needs supply air cooler than ${roomName} (${fT(tR)})`
-          : msg`a \
-sensible loss (negative q_sensible) needs supply air warmer than ${roomName} \
-(${fT(tR)})`
-      }; ${w(db)} is not. Check the supply temperature or the sign of the load`,
+      msg`${what}: ${why}; ${w(db)} is not. Check the supply temperature or the sign of the load`,
       db.prop.span,
     );
   }

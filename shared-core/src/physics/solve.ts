@@ -207,13 +207,12 @@ export function solveState(
     // Only absurd figures (a pressure of 1e-320 Pa, a humidity ratio of 1e308) overflow a property.
     const overflow = FINITE_KEYS.find((k) => !Number.isFinite(state[k]));
     if (overflow) {
+      const what = overflow === 'v' ? 'specific volume' : overflow === 'h' ? 'enthalpy' : `property (${overflow})`;
       throw problem(
         'out-of-range',
-        msg`At ${fP(p)} these figures give \
-a ${overflow === 'v' ? 'specific volume' : overflow === 'h' ? 'enthalpy' : `property (${overflow})`} \
-that is not a finite number.`,
-        msg`Check the pressure and the humidity ratio: they \
-are far outside any real air (${fPL(101325)} at sea level).`,
+        msg`At ${fP(p)} these figures give a ${what} that is not a finite number.`,
+        msg`Check the pressure and the humidity ratio: they are far outside any real air \
+(${fPL(101325)} at sea level).`,
         DEFINING_KEYS.filter((k) => input[k] !== undefined),
       );
     }
