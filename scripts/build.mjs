@@ -87,10 +87,8 @@ for (const t of targets) {
     console.error(`built ${t.out}`);
   } catch (err) {
     failed++;
-    console.error(
-      `build: ${t.out} ` +
-        `failed${err instanceof Error && !err.message.includes('Build failed') ? `: ${err.message}` : ''}`,
-    );
+    const why = err instanceof Error && !err.message.includes('Build failed') ? `: ${err.message}` : '';
+    console.error(`build: ${t.out} failed${why}`);
   }
 }
 if (failed === 0) {

@@ -94,8 +94,8 @@ describe('degree of saturation above the boiling point', () => {
     expect(md).toMatch(
       /`mu` —: not defined\. The dry-bulb 150\.0 °C is at or above the boiling point at 101\.325 kPa \(100\.0 °C\)/,
     );
-    // Below the boiling point it is W/Ws as usual (24 °C / 50 %: about 49 %, ASHRAE HoF 2017 SI
-    // Ch.1 eq 12, from first principles).
+    // Below the boiling point it is W/Ws as usual (24 °C / 50 %: about 49 %,
+    // ASHRAE HoF 2017 SI Ch.1 eq 12, from first principles).
     const warm = hover(note, text.indexOf('WARM'))!.markdown;
     expect(warm).toMatch(/\| `mu` \| 49\.\d \| % \|/);
     expect(warm).not.toContain('not defined');

@@ -375,8 +375,8 @@ function totalFlowClaim(ctx: EvalContext, total: Total, streams: StreamRead[], f
     total.q,
     computed,
     () =>
-      `as the sum of the ` +
-      `streams' ${total.kind === 'massFlow' ? 'dry-air mass flows' : 'volume flows, each at its own state'}`,
+      `as the sum of the streams' ` +
+      (total.kind === 'massFlow' ? 'dry-air mass flows' : 'volume flows, each at its own state'),
   );
   if (diagnostic) ctx.report(diagnostic);
   return claim;

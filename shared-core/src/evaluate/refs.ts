@@ -196,12 +196,11 @@ export function readReference(
   if (outcome.ok && outcome.item.kind === 'process')
     return processRefused(ctx, ref, written, prop.key, outcome.item.to, outcome.def.span);
   if (!isDefiningKey(fromKey)) {
-    const known = STATE_KEYS[fromKey];
+    const why = STATE_KEYS[fromKey] ? 'cannot be referenced' : `is not a property of ${ref.state.text}`;
     return bad(
       ctx,
-      `${written}: ` +
-        `'${fromKey}' ${known ? 'cannot be referenced' : `is not a property of ${ref.state.text}`}; a ` +
-        `reference names one of ${DEFINING_KEYS.join(', ')} (e.g. ${prop.key}=${ref.state.text}.${prop.key})`,
+      `${written}: '${fromKey}' ${why}; ` +
+        `a reference names one of ${DEFINING_KEYS.join(', ')} (e.g. ${prop.key}=${ref.state.text}.${prop.key})`,
       ref.key.span,
     );
   }
