@@ -5,6 +5,8 @@
  * workspace check); it never writes files or opens network connections of its own. The wiring
  * is shared with the web build (./server); this file and ./nodeHost are the Node server's own.
  */
+// First, so that it holds while every other module initialises (see its comment).
+import './tierUp';
 import { createConnection } from 'vscode-languageserver/node';
 import { limitHeapSlack } from './heap';
 import { ShutdownGate } from './lifecycle';
