@@ -263,9 +263,9 @@ class Reuse implements EvaluateReuse {
     // Kept for the next run only when every name resolved to a computed item.
     const deps: EvaluatedItem[] = [];
     for (let i = refsBefore; i < ctx.references.length; i++) {
-      const reg = ctx.registered.get(ctx.references[i]!.name);
-      if (!reg || reg.def.statementIndex >= index || !reg.item) return result;
-      deps.push(reg.item);
+      const item = ctx.itemBefore(ctx.references[i]!.name, index);
+      if (!item) return result;
+      deps.push(item);
     }
     this.nextDependents.set(stmt, {
       statement: stmt,
@@ -299,8 +299,7 @@ function names(stmt: DependentStatement): NameNode[] {
 function currentDeps(ctx: EvalContext, entry: DependentEntry, index: number): EvaluatedItem[] | null {
   const out: EvaluatedItem[] = [];
   for (const old of entry.deps) {
-    const reg = ctx.registered.get(old.name);
-    const cur = reg && reg.def.statementIndex < index ? reg.item : null;
+    const cur = ctx.itemBefore(old.name, index);
     if (!cur || !readsTheSame(cur, old)) return null;
     out.push(cur);
   }

@@ -18,12 +18,6 @@ export interface NameDef {
   keyword: 'state' | 'mix' | 'process' | 'supply' | 'recover';
 }
 
-/** A registered name: where it was first defined and, once evaluated, its result. */
-export interface Registered {
-  def: NameDef;
-  item: EvaluatedItem | null;
-}
-
 /** Outcome of resolving a reference. */
 export type RefOutcome =
   | { ok: true; item: EvaluatedItem; def: NameDef }
@@ -36,11 +30,15 @@ export class EvalContext {
   readonly settings: EvaluateSettings;
   readonly diagnostics: CoreDiagnostic[] = [];
   readonly items: EvaluatedItem[] = [];
+  /** Each defined name's item, once its first definition (the one that owns the name) is evaluated. */
   readonly byName = new Map<string, EvaluatedItem>();
   readonly references: { name: string; span: Span; statement: Statement }[] = [];
-  /** Names registered so far (first definition wins). */
-  readonly registered = new Map<string, Registered>();
-  /** Every definition in the note, for `used-before-defined` and suggestions. */
+  /**
+   * Every definition in the note in document order, found before evaluation (the pre-scan), for
+   * `used-before-defined` and suggestions. The first of each name is the one that owns it (first
+   * definition wins); with {@link byName} it is the registry of names, so evaluating a statement
+   * adds no second record of its name.
+   */
   readonly allDefs = new Map<string, NameDef[]>();
   units: UnitSystem;
   unitsSource: 'note' | 'setting' = 'setting';
@@ -111,35 +109,44 @@ export class EvalContext {
     return w ? ` (${w})` : '';
   }
 
-  /** Registers a definition; reports `duplicate-name` for a second one. Returns false for a duplicate. */
-  define(def: NameDef, nameNode: NameNode): boolean {
-    const first = this.registered.get(def.name);
-    if (first) {
-      this.report({
-        code: 'duplicate-name',
-        severity: 'error',
-        message:
-          `'${def.name}' is already defined by the ${first.def.keyword} ` +
-          `statement${this.atLine(first.def.span)}; rename this one ` +
-          `(e.g. '${def.name}_2') or remove one of the two definitions`,
-        span: nameNode.span,
-        related: [{ span: first.def.span, message: `first definition of '${def.name}'` }],
-        data: { name: def.name },
-      });
-      return false;
+  /**
+   * Registers the name `node` written in statement `index` (a definition the pre-scan found):
+   * true when it is the name's first definition, which owns the name; else reports
+   * `duplicate-name` and returns false.
+   */
+  define(node: NameNode, index: number, keyword: NameDef['keyword']): boolean {
+    const first = this.allDefs.get(node.text)?.[0];
+    if (!first) {
+      // Not found by the pre-scan (it finds every name the evaluator defines): recorded now.
+      this.allDefs.set(node.text, [{ name: node.text, span: node.span, statementIndex: index, keyword }]);
+      return true;
     }
-    this.registered.set(def.name, { def, item: null });
-    return true;
+    if (first.statementIndex === index && first.span.start === node.span.start) return true;
+    const name = node.text;
+    this.report({
+      code: 'duplicate-name',
+      severity: 'error',
+      message: `'${name}' is already defined by the ${first.keyword} statement${this.atLine(first.span)}; rename this one (e.g. '${name}_2') or remove one of the two definitions`,
+      span: node.span,
+      related: [{ span: first.span, message: `first definition of '${name}'` }],
+      data: { name },
+    });
+    return false;
   }
 
   /** Stores an evaluated item (and links it to its name when this statement owns the name). */
   addItem(item: EvaluatedItem, owner: boolean): void {
     this.items.push(item);
-    if (owner) {
-      const reg = this.registered.get(item.name);
-      if (reg) reg.item = item;
-      if (!this.byName.has(item.name)) this.byName.set(item.name, item);
-    }
+    if (owner && !this.byName.has(item.name)) this.byName.set(item.name, item);
+  }
+
+  /**
+   * The item of `name` as a statement at `index` sees it: the item of its first definition when
+   * that stands above `index` and was computed, else null.
+   */
+  itemBefore(name: string, index: number): EvaluatedItem | null {
+    const first = this.allDefs.get(name)?.[0];
+    return first && first.statementIndex < index ? (this.byName.get(name) ?? null) : null;
   }
 
   /**
@@ -149,12 +156,13 @@ export class EvalContext {
    */
   resolve(ref: NameNode, statement: Statement, index: number): RefOutcome {
     this.references.push({ name: ref.text, span: ref.span, statement });
-    const reg = this.registered.get(ref.text);
-    if (reg && reg.def.statementIndex < index) {
-      if (reg.item) return { ok: true, item: reg.item, def: reg.def };
-      return { ok: false, failed: true, def: reg.def };
-    }
     const defs = this.allDefs.get(ref.text);
+    const first = defs?.[0];
+    if (first && first.statementIndex < index) {
+      const item = this.byName.get(ref.text);
+      if (item) return { ok: true, item, def: first };
+      return { ok: false, failed: true, def: first };
+    }
     const later = defs?.find((d) => d.statementIndex >= index);
     if (later) {
       const self = later.statementIndex === index;
@@ -163,8 +171,7 @@ export class EvalContext {
         severity: 'error',
         message: self
           ? `'${ref.text}' refers to the statement that defines it; refer to a state defined above`
-          : `'${ref.text}' is used here but defined further down${this.atLine(later.span)}; move ` +
-            `its definition above this statement (statements are evaluated in document order)`,
+          : `'${ref.text}' is used here but defined further down${this.atLine(later.span)}; move its definition above this statement (statements are evaluated in document order)`,
         span: ref.span,
         related: [{ span: later.span, message: `'${ref.text}' is defined here` }],
         data: { name: ref.text },

@@ -5,6 +5,7 @@
 import type {
   CoreDiagnostic,
   MixStatement,
+  NameNode,
   ParsedNote,
   ProcessStatement,
   Statement,
@@ -41,24 +42,31 @@ export function hasReferences(stmt: Statement): boolean {
  * not defined above), into `derives`. A `recover` defines both its leaving states.
  */
 function prescan(statements: Statement[], defs: Map<string, NameDef[]>, derives: Set<number>): void {
-  const add = (name: string, span: NameDef['span'], i: number, keyword: NameDef['keyword']): void => {
-    const d: NameDef = { name, span, statementIndex: i, keyword };
-    const list = defs.get(d.name);
-    if (list) list.push(d);
-    else defs.set(d.name, [d]);
-  };
-  statements.forEach((s, i) => {
-    if (namesSomething(s) && s.name) {
-      add(s.name.text, s.name.span, i, s.keyword);
-    }
-    if (s.keyword === 'process' && s.name && s.from && s.to && !defs.has(s.to.text) && hasSpecification(s)) {
+  for (let i = 0; i < statements.length; i++) {
+    const s = statements[i]!;
+    if (!namesSomething(s) || !s.name) continue;
+    addDef(defs, s.name, i, s.keyword);
+    if (s.keyword === 'process' && s.from && s.to && !defs.has(s.to.text) && hasSpecification(s)) {
       derives.add(i);
-      add(s.to.text, s.to.span, i, 'process');
+      addDef(defs, s.to, i, 'process');
     }
-    if (s.keyword === 'recover' && s.name) {
-      for (const x of s.streams) if (x.to) add(x.to.text, x.to.span, i, 'recover');
+    if (s.keyword === 'recover') {
+      for (const x of s.streams) if (x.to) addDef(defs, x.to, i, 'recover');
     }
-  });
+  }
+}
+
+/** Appends the definition of `node` at statement `index` to its name's list. */
+function addDef(defs: Map<string, NameDef[]>, node: NameNode, index: number, keyword: NameDef['keyword']): void {
+  const d: NameDef = { name: node.text, span: node.span, statementIndex: index, keyword };
+  const list = defs.get(d.name);
+  if (list) list.push(d);
+  else defs.set(d.name, [d]);
+}
+
+/** Orders diagnostics by where they start, then end. */
+function bySpan(x: CoreDiagnostic, y: CoreDiagnostic): number {
+  return x.span.start - y.span.start || x.span.end - y.span.end;
 }
 
 /**
@@ -217,12 +225,7 @@ export function* evaluateSteps(
           // Without a usable name the parser has reported the statement; evaluating the rest
           // would only add a second diagnostic for the same line.
           if (!stmt.name) break;
-          const owner = stmt.name
-            ? ctx.define(
-                { name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: stmt.keyword },
-                stmt.name,
-              )
-            : false;
+          const owner = ctx.define(stmt.name, index, stmt.keyword);
           let item: StateResult;
           if (stmt.keyword === 'mix')
             item = reuse
@@ -233,15 +236,12 @@ export function* evaluateSteps(
           else if (hasReferences(stmt))
             item = reuse.dependent(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
           else item = reuse.state(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
-          if (stmt.name) ctx.addItem(item, owner);
+          ctx.addItem(item, owner);
           break;
         }
         case 'supply': {
           if (!stmt.name) break;
-          const owner = ctx.define(
-            { name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'supply' },
-            stmt.name,
-          );
+          const owner = ctx.define(stmt.name, index, 'supply');
           const item = reuse
             ? reuse.dependent(ctx, stmt, index, () => evaluateSupply(ctx, stmt, index))
             : evaluateSupply(ctx, stmt, index);
@@ -250,17 +250,11 @@ export function* evaluateSteps(
         }
         case 'process': {
           if (!stmt.name) break;
-          const owner = ctx.define(
-            { name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'process' },
-            stmt.name,
-          );
+          const owner = ctx.define(stmt.name, index, 'process');
           if (derives.has(index) && stmt.to) {
             // It defines its leaving state too (evaluated every time: it is cheap, and what it
             // defines is new on every run).
-            const toOwner = ctx.define(
-              { name: stmt.to.text, span: stmt.to.span, statementIndex: index, keyword: 'process' },
-              stmt.to,
-            );
+            const toOwner = ctx.define(stmt.to, index, 'process');
             const out = evaluateProcess(ctx, stmt, index, true);
             // The name it defines is listed with the references (rename and find-references see it).
             ctx.references.push({ name: stmt.to.text, span: stmt.to.span, statement: stmt });
@@ -276,15 +270,8 @@ export function* evaluateSteps(
         }
         case 'recover': {
           if (!stmt.name) break;
-          const owner = ctx.define(
-            { name: stmt.name.text, span: stmt.name.span, statementIndex: index, keyword: 'recover' },
-            stmt.name,
-          );
-          const toOwners = stmt.streams.map((x) =>
-            x.to
-              ? ctx.define({ name: x.to.text, span: x.to.span, statementIndex: index, keyword: 'recover' }, x.to)
-              : false,
-          );
+          const owner = ctx.define(stmt.name, index, 'recover');
+          const toOwners = stmt.streams.map((x) => (x.to ? ctx.define(x.to, index, 'recover') : false));
           const out = evaluateRecover(ctx, stmt, index);
           for (const x of stmt.streams)
             if (x.to) ctx.references.push({ name: x.to.text, span: x.to.span, statement: stmt });
@@ -311,10 +298,8 @@ export function* evaluateSteps(
   }
 
   const parseDiagnostics: CoreDiagnostic[] = Array.isArray(parsed?.diagnostics) ? parsed.diagnostics : [];
-  const diagnostics = [...parseDiagnostics, ...ctx.diagnostics]
-    .map((d, i) => ({ d, i }))
-    .sort((x, y) => x.d.span.start - y.d.span.start || x.d.span.end - y.d.span.end || x.i - y.i)
-    .map((x) => x.d);
+  // In document order; the sort is stable, so diagnostics at one span keep the order they were made in.
+  const diagnostics = parseDiagnostics.concat(ctx.diagnostics).sort(bySpan);
 
   return {
     parsed,

@@ -23,10 +23,13 @@ export interface ReadProps {
   /** Usable properties in written order (first occurrence of each key). */
   props: ReadProp[];
   /** Keys written with a value that could not be read (its diagnostic is already reported). */
-  broken: string[];
+  broken: readonly string[];
   /** How many keys were not known (each reported as `unknown-key`). */
   unknownKeys: number;
 }
+
+/** No keys (shared, never written to). */
+const NO_KEYS: readonly string[] = [];
 
 /**
  * Reads `props` against `table`: `unknown-key` (with a suggestion), `duplicate-key` for a key
@@ -43,11 +46,11 @@ export function readProps(
   refs: RefSite,
 ): ReadProps {
   const out: ReadProp[] = [];
-  const broken: string[] = [];
+  // Made at the first key that cannot be read (most statements have none).
+  let broken: string[] | null = null;
   let unknownKeys = 0;
-  // Statements hold a handful of properties: a linear scan beats a Map here.
-  const seen: PropertyNode[] = [];
-  for (const prop of props) {
+  for (let i = 0; i < props.length; i++) {
+    const prop = props[i]!;
     const spec = Object.hasOwn(table, prop.key) ? table[prop.key] : undefined;
     if (!spec) {
       const keys = Object.keys(table);
@@ -65,10 +68,12 @@ export function readProps(
       unknownKeys++;
       continue;
     }
+    // The first property with this key is the one that counts (statements hold a handful of
+    // properties: a linear scan beats a Map here).
     let first: PropertyNode | undefined;
-    for (const p of seen) {
-      if (p.key === prop.key) {
-        first = p;
+    for (let j = 0; j < i; j++) {
+      if (props[j]!.key === prop.key) {
+        first = props[j];
         break;
       }
     }
@@ -84,11 +89,10 @@ export function readProps(
       });
       continue;
     }
-    seen.push(prop);
     if (prop.ref) {
       const r = readReference(ctx, prop, prop.ref, spec, refs, what);
       if (!r) {
-        broken.push(prop.key);
+        (broken ??= []).push(prop.key);
         continue;
       }
       out.push({ key: prop.key, spec, prop, q: r.q, ref: r.ref });
@@ -96,16 +100,16 @@ export function readProps(
     }
     if (prop.value === null) {
       // The parser has reported the syntax error already.
-      broken.push(prop.key);
+      (broken ??= []).push(prop.key);
       continue;
     }
     const r = readQuantity(prop, prop.value, spec);
     if (!r.ok) {
       ctx.report(r.diagnostic);
-      broken.push(prop.key);
+      (broken ??= []).push(prop.key);
       continue;
     }
-    out.push({ key: prop.key, spec, prop, q: r.value });
+    out.push({ key: prop.key, spec, prop, q: r.value, ref: undefined });
   }
-  return { props: out, broken, unknownKeys };
+  return { props: out, broken: broken ?? NO_KEYS, unknownKeys };
 }

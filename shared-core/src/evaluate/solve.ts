@@ -16,8 +16,12 @@ export function aboveBoilingPoint(s: MoistAirState): boolean {
 }
 
 /** {@link solveState} for notes: superheated air is a state like any other (see the module comment). */
-export function solveForNote(...args: Parameters<typeof solveState>): SolveResult {
-  const r = solveState(...args);
+export function solveForNote(
+  input: Parameters<typeof solveState>[0],
+  p: number,
+  options?: Parameters<typeof solveState>[2],
+): SolveResult {
+  const r = solveState(input, p, options);
   if (!r.ok || Number.isFinite(r.state.ws) || !aboveBoilingPoint(r.state)) return r;
   return {
     ok: true,

@@ -48,7 +48,7 @@ export function stateValue(s: MoistAirState, key: string): number | null {
 }
 
 /** `db=24C and rh=50%`, for messages. */
-export function writtenList(props: ReadProp[]): string {
+export function writtenList(props: readonly ReadProp[]): string {
   const parts = props.map((p) => `${p.key}=${p.q.quantity.number.text}${p.q.unitText}`);
   if (parts.length <= 1) return parts.join('');
   return `${parts.slice(0, -1).join(', ')} and ${parts[parts.length - 1]}`;
@@ -127,15 +127,27 @@ export function stateClaims(
   return out;
 }
 
-const NONE: ReadProp[] = [];
 const ALLOW_FOG = Object.freeze({ allowFog: true });
 
 function isPressureProp(p: ReadProp): boolean {
   return p.key === 'p' || p.key === 'elev';
 }
 
+/** True for a property that can define the state (its row of the key table says so: db wb dp rh w h). */
 function isDefiningProp(p: ReadProp): boolean {
-  return isDefiningKey(p.key);
+  return p.spec.defining === true;
+}
+
+/** True for a property taken from another state (`w=OA.w`). */
+function isReference(p: ReadProp): boolean {
+  return p.ref !== undefined;
+}
+
+/** The properties of `props` that pass `test`: `props` itself when all of them do (no copy for the common case). */
+function only(props: ReadProp[], test: (p: ReadProp) => boolean): ReadProp[] {
+  let n = 0;
+  for (const p of props) if (test(p)) n++;
+  return n === props.length ? props : props.filter(test);
 }
 
 /**
@@ -159,48 +171,58 @@ function pairInput(ka: DefiningKey, va: number, kb: DefiningKey, vb: number): Pa
 /**
  * Evaluates one `state` statement; always returns a result (with `state: null` when it failed).
  * The steps: read the properties (references resolved), the pressure, the defining pair, the
- * solve, the claims.
+ * solve, the claims. The result is built once, from what the steps found.
  */
 export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: number, owner: boolean): StateResult {
   void owner;
   const name = stmt.name?.text ?? '';
   const what = name ? `state ${name}` : 'this state';
-  const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
   const read = readProps(ctx, stmt.props, STATE_KEYS, what, { statement: stmt, index, allowed: true });
   const { props } = read;
-  const { pressure, failed } = statePressure(ctx, props, read.broken, what);
-  const result: StateResult = { kind: 'state', name, statement: stmt, state: null, pressure, defining: [], claims: [] };
+  // The site's pressure, unless the state sets its own (or could not read it).
+  let pressure = ctx.site;
+  let failed = false;
+  if (read.broken.length > 0 || props.some(isPressureProp))
+    ({ pressure, failed } = statePressure(ctx, props, read.broken, what));
+  const candidates = failed ? null : definingCandidates(ctx, props, read, what, stmt.name?.span ?? stmt.keywordSpan);
+  const solved = candidates ? solveFirstPair(ctx, candidates, pressure, what) : null;
+  const result: StateResult = {
+    kind: 'state',
+    name,
+    statement: stmt,
+    state: solved ? solved.state : null,
+    pressure,
+    defining: solved ? [solved.a.key as DefiningKey, solved.b.key as DefiningKey] : [],
+    claims: solved ? claimsBeyondPair(ctx, props, solved, pressure) : [],
+  };
   const sources = sourcesOf(props);
   if (sources) result.sources = sources;
-  if (failed) return result;
-  const candidates = definingCandidates(ctx, props, read, what, fallback);
-  if (!candidates) return result;
-  const solved = solveFirstPair(ctx, candidates, pressure, what);
-  if (!solved) return result;
-  const { a, b, state } = solved;
-  result.state = state;
-  result.defining = [a.key as DefiningKey, b.key as DefiningKey];
-  const claimsProps = props.filter((p) => p !== a && p !== b && p.key !== 'p' && p.key !== 'elev');
-  if (claimsProps.length > 0)
-    result.claims = stateClaims(
-      ctx,
-      claimsProps,
-      state,
-      () => `from ${writtenList([a, b])} at ${pressureWord(pressure, ctx.units)}`,
-    );
   return result;
+}
+
+/** The claims of a solved state: every property written beyond its defining pair and its pressure. */
+function claimsBeyondPair(
+  ctx: EvalContext,
+  props: ReadProp[],
+  { a, b, state }: SolvedPair,
+  pressure: PressureBasis,
+): ClaimResult[] {
+  let claimsProps: ReadProp[] | null = null;
+  for (const p of props) if (p !== a && p !== b && !isPressureProp(p)) (claimsProps ??= []).push(p);
+  if (!claimsProps) return [];
+  return stateClaims(ctx, claimsProps, state, () => `from ${writtenList([a, b])} at ${pressureWord(pressure, ctx.units)}`);
 }
 
 /** The pressure of a state: its own p= / elev=, else the site pressure; `failed` when the override could not be read. */
 function statePressure(
   ctx: EvalContext,
   props: ReadProp[],
-  broken: string[],
+  broken: readonly string[],
   what: string,
 ): { pressure: PressureBasis; failed: boolean } {
   let pressure: PressureBasis = ctx.site;
-  let failed = broken.length > 0 && (broken.includes('p') || broken.includes('elev'));
-  const override = props.some(isPressureProp) ? props.filter(isPressureProp) : NONE;
+  let failed = broken.includes('p') || broken.includes('elev');
+  const override = props.filter(isPressureProp);
   if (override.length > 0) {
     const basis = pressureFromProps(ctx, override, 'override', `${what} own pressure`);
     if (basis) pressure = basis;
@@ -221,7 +243,7 @@ function definingCandidates(
   what: string,
   fallback: Span,
 ): [ReadProp, ReadProp][] | null {
-  const defs = props.filter(isDefiningProp);
+  const defs = only(props, isDefiningProp);
   if (defs.length < 2) {
     // A property that could not be read (bad unit, unknown key) already explains the shortfall.
     const brokenDefining = read.broken.filter((k) => isDefiningKey(k));
@@ -236,7 +258,7 @@ function definingCandidates(
     });
     return null;
   }
-  const refs = defs.filter((d) => d.ref);
+  const refs = defs.some(isReference) ? defs.filter(isReference) : NO_PROPS;
   if (refs.length > 2) {
     ctx.report({
       code: 'bad-reference',
@@ -262,6 +284,26 @@ function definingCandidates(
   return candidates;
 }
 
+/** No properties (shared, never written to). */
+const NO_PROPS: readonly ReadProp[] = [];
+
+/** The defining pair a state was solved from, and the state. */
+interface SolvedPair {
+  a: ReadProp;
+  b: ReadProp;
+  state: MoistAirState;
+}
+
+/** The span of each written key of the candidates, for messages (built only when one is reported). */
+function spansOfCandidates(candidates: [ReadProp, ReadProp][]): Map<string, Span> {
+  return new Map<string, Span>(allOf(candidates).map((p) => [p.key, p.prop.span]));
+}
+
+/** Every property of the candidates, once. */
+function allOf(candidates: [ReadProp, ReadProp][]): ReadProp[] {
+  return [...new Set<ReadProp>(candidates.flat())];
+}
+
 /**
  * Solves the first candidate pair that is not dependent at the state's pressure (reporting the
  * engine's warnings, and its problem when the pair gives no state); null when none gives one.
@@ -271,32 +313,27 @@ function solveFirstPair(
   candidates: [ReadProp, ReadProp][],
   pressure: PressureBasis,
   what: string,
-): { a: ReadProp; b: ReadProp; state: MoistAirState } | null {
+): SolvedPair | null {
   // The span of each written key, for messages (built only when one is reported).
-  let spanMap: Map<string, Span> | null = null;
-  // Every property of the candidates, once (made only for a message).
-  const all = (): ReadProp[] => [...new Set<ReadProp>(candidates.flat())];
-  const spansByKey = (): Map<string, Span> =>
-    (spanMap ??= new Map<string, Span>(all().map((p) => [p.key, p.prop.span])));
+  let spans: Map<string, Span> | null = null;
   let lastDependent: { problem: PhysicsProblem; pair: ReadProp[] } | null = null;
   for (const [a, b] of candidates) {
-    const input = pairInput(a.key as DefiningKey, a.q.si, b.key as DefiningKey, b.q.si);
-    const solved = solveOrProblem(ctx.solve, input, pressure.pa, ALLOW_FOG, 'check the figures', [
-      a.key as DefiningKey,
-      b.key as DefiningKey,
-    ]);
+    const ka = a.key as DefiningKey;
+    const kb = b.key as DefiningKey;
+    const solved = solveOrProblem(ctx.solve, pairInput(ka, a.q.si, kb, b.q.si), pressure.pa, ALLOW_FOG, 'check the figures', [ka, kb]);
     if (!solved.ok) {
       if (solved.problem.code === 'dependent-pair') {
         lastDependent = { problem: solved.problem, pair: [a, b] };
         continue;
       }
+      spans ??= spansOfCandidates(candidates);
       ctx.report(
         problemDiagnostic(
           solved.problem,
           ctx.units,
           'error',
-          spansByKey(),
-          spanOf(spansByKey(), [a, b]),
+          spans,
+          spanOf(spans, [a, b]),
           what,
           pressureRelated(solved.problem, pressure),
         ),
@@ -304,28 +341,30 @@ function solveFirstPair(
       return null;
     }
     if (!stateFinite(solved.state)) {
-      reportNotFinite(ctx, solved.warnings, a, b, spanOf(spansByKey(), [a, b]), pressure, what);
+      spans ??= spansOfCandidates(candidates);
+      reportNotFinite(ctx, solved.warnings, a, b, spanOf(spans, [a, b]), pressure, what);
       return null;
     }
     let illReported = false;
     for (const w of solved.warnings) {
       if (w.code === 'ill-conditioned') illReported = true;
-      ctx.report(problemDiagnostic(w, ctx.units, 'warning', spansByKey(), spanOf(spansByKey(), [a, b]), what));
+      spans ??= spansOfCandidates(candidates);
+      ctx.report(problemDiagnostic(w, ctx.units, 'warning', spans, spanOf(spans, [a, b]), what));
     }
-    if (!illReported && isIllConditionedPair(a.key as DefiningKey, b.key as DefiningKey)) {
+    if (!illReported && isIllConditionedPair(ka, kb)) {
+      spans ??= spansOfCandidates(candidates);
       ctx.report({
         code: 'ill-conditioned',
         severity: 'warning',
         message: `${what}: ${writtenList([a, b])} are nearly parallel on the chart, so small changes in either move the state a lot; define it with db, dp, rh or w instead`,
-        span: spanOf(spansByKey(), [a, b]),
+        span: spanOf(spans, [a, b]),
       });
     }
     return { a, b, state: solved.state };
   }
   if (lastDependent) {
-    ctx.report(
-      problemDiagnostic(lastDependent.problem, ctx.units, 'error', spansByKey(), spanOf(spansByKey(), all()), what),
-    );
+    spans ??= spansOfCandidates(candidates);
+    ctx.report(problemDiagnostic(lastDependent.problem, ctx.units, 'error', spans, spanOf(spans, allOf(candidates)), what));
   }
   return null;
 }
@@ -372,7 +411,7 @@ export function pressureWord(p: PressureBasis, system: UnitSystem): string {
   return figureText(p.pa, 'pressure', system);
 }
 
-function spanOf(spansByKey: ReadonlyMap<string, Span>, props: ReadProp[]): Span {
+function spanOf(spansByKey: ReadonlyMap<string, Span>, props: readonly ReadProp[]): Span {
   let start = Infinity;
   let end = -Infinity;
   for (const p of props) {
