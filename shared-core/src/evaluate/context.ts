@@ -9,14 +9,9 @@ import type { MessageText } from '../physics/message';
 import type { Dimension } from '../units/types';
 import { figureText, messageText, type FigureTextOptions } from './figures';
 import { caseFoldedIndex, suggestName, type FoldedIndex } from '../text/suggest';
+import type { NameDef, NoteNames } from './names';
 
-/** One name definition found by the pre-scan (state, mix or process). */
-export interface NameDef {
-  name: string;
-  span: Span;
-  statementIndex: number;
-  keyword: 'state' | 'mix' | 'process' | 'supply' | 'recover';
-}
+export type { NameDef } from './names';
 
 /** Outcome of resolving a reference. */
 export type RefOutcome =
@@ -34,12 +29,11 @@ export class EvalContext {
   readonly byName = new Map<string, EvaluatedItem>();
   readonly references: { name: string; span: Span; statement: Statement }[] = [];
   /**
-   * Every definition in the note in document order, found before evaluation (the pre-scan), for
-   * `used-before-defined` and suggestions. The first of each name is the one that owns it (first
-   * definition wins); with {@link byName} it is the registry of names, so evaluating a statement
-   * adds no second record of its name.
+   * The names the note defines, found before evaluation (the pre-scan), for `used-before-defined`
+   * and suggestions: the first definition of each name owns it. With {@link byName} it is the
+   * registry of names, so evaluating a statement adds no second record of its name.
    */
-  readonly allDefs = new Map<string, NameDef[]>();
+  readonly names: NoteNames;
   units: UnitSystem;
   unitsSource: 'note' | 'setting' = 'setting';
   unitsSpan: Span | null = null;
@@ -57,11 +51,14 @@ export class EvalContext {
   private nameIndex: FoldedIndex | null = null;
 
   /**
-   * @param units  the note's unit system when it has a `units:` line (found before evaluation, so
-   *               that every message speaks the note's units wherever the line stands).
+   * @param units  the note's unit system: that of its `units:` line when it has one, else the
+   *               setting's (found before evaluation, so that every message speaks the note's
+   *               units wherever the line stands).
+   * @param names  the names the note defines (the pre-scan).
    */
-  constructor(settings: EvaluateSettings, text: string | undefined, units: UnitSystem = settings.units) {
+  constructor(settings: EvaluateSettings, text: string | undefined, units: UnitSystem, names: NoteNames) {
     this.settings = settings;
+    this.names = names;
     this.units = units;
     this.text = typeof text === 'string' ? text : undefined;
     const origin = settings.pressureOrigin === 'default' ? 'default' : settings.pressureOrigin;
@@ -114,15 +111,10 @@ export class EvalContext {
    * true when it is the name's first definition, which owns the name; else reports
    * `duplicate-name` and returns false.
    */
-  define(node: NameNode, index: number, keyword: NameDef['keyword']): boolean {
-    const first = this.allDefs.get(node.text)?.[0];
-    if (!first) {
-      // Not found by the pre-scan (it finds every name the evaluator defines): recorded now.
-      this.allDefs.set(node.text, [{ name: node.text, span: node.span, statementIndex: index, keyword }]);
-      return true;
-    }
-    if (first.statementIndex === index && first.span.start === node.span.start) return true;
+  define(node: NameNode, index: number): boolean {
+    if (this.names.owns(node, index)) return true;
     const name = node.text;
+    const first = this.names.firstDef(name)!;
     this.report({
       code: 'duplicate-name',
       severity: 'error',
@@ -145,8 +137,8 @@ export class EvalContext {
    * that stands above `index` and was computed, else null.
    */
   itemBefore(name: string, index: number): EvaluatedItem | null {
-    const first = this.allDefs.get(name)?.[0];
-    return first && first.statementIndex < index ? (this.byName.get(name) ?? null) : null;
+    const first = this.names.firstIndex(name);
+    return first >= 0 && first < index ? (this.byName.get(name) ?? null) : null;
   }
 
   /**
@@ -156,14 +148,15 @@ export class EvalContext {
    */
   resolve(ref: NameNode, statement: Statement, index: number): RefOutcome {
     this.references.push({ name: ref.text, span: ref.span, statement });
-    const defs = this.allDefs.get(ref.text);
-    const first = defs?.[0];
+    // The first definition: above (resolved, or failed) or at or below this statement (the
+    // definitions are in document order, so no other stands above).
+    const first = this.names.firstDef(ref.text);
     if (first && first.statementIndex < index) {
       const item = this.byName.get(ref.text);
       if (item) return { ok: true, item, def: first };
       return { ok: false, failed: true, def: first };
     }
-    const later = defs?.find((d) => d.statementIndex >= index);
+    const later = first;
     if (later) {
       const self = later.statementIndex === index;
       this.report({
@@ -178,7 +171,7 @@ export class EvalContext {
       });
       return { ok: false, failed: false };
     }
-    this.nameIndex ??= caseFoldedIndex(this.allDefs.keys());
+    this.nameIndex ??= caseFoldedIndex(this.names.names());
     const suggestion = suggestName(ref.text, this.nameIndex);
     this.report({
       code: 'unknown-name',

@@ -5,23 +5,21 @@
 import type {
   CoreDiagnostic,
   MixStatement,
-  NameNode,
   ParsedNote,
   ProcessStatement,
   Statement,
   StateStatement,
   SupplyStatement,
 } from '../notation/ast';
-import { namesSomething } from '../notation/named';
 import type { Analysis, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from './types';
 import type { UnitSystem } from '../units/types';
-import { EvalContext, type NameDef } from './context';
+import { EvalContext } from './context';
+import { NoteNames } from './names';
 import { SITE_KEYS } from './keys';
 import { exampleIn } from './figures';
 import { evaluateMix } from './mix';
 import { pressureFromProps } from './pressure';
 import { evaluateProcess } from './process';
-import { hasSpecification } from './derive';
 import { evaluateRecover } from './recover';
 import { readProps } from './props';
 import { resolveSettings } from './settings';
@@ -34,34 +32,6 @@ export type DependentStatement = MixStatement | ProcessStatement | StateStatemen
 /** True when a statement takes a property from another state (`w=OA.w`). */
 export function hasReferences(stmt: Statement): boolean {
   return stmt.keyword !== 'units' && stmt.props.some((p) => p.ref !== undefined);
-}
-
-/**
- * Every name a statement defines, found before evaluation (for `used-before-defined`), into
- * `defs`; and which process statements define their leaving state (a specification and a name
- * not defined above), into `derives`. A `recover` defines both its leaving states.
- */
-function prescan(statements: Statement[], defs: Map<string, NameDef[]>, derives: Set<number>): void {
-  for (let i = 0; i < statements.length; i++) {
-    const s = statements[i]!;
-    if (!namesSomething(s) || !s.name) continue;
-    addDef(defs, s.name, i, s.keyword);
-    if (s.keyword === 'process' && s.from && s.to && !defs.has(s.to.text) && hasSpecification(s)) {
-      derives.add(i);
-      addDef(defs, s.to, i, 'process');
-    }
-    if (s.keyword === 'recover') {
-      for (const x of s.streams) if (x.to) addDef(defs, x.to, i, 'recover');
-    }
-  }
-}
-
-/** Appends the definition of `node` at statement `index` to its name's list. */
-function addDef(defs: Map<string, NameDef[]>, node: NameNode, index: number, keyword: NameDef['keyword']): void {
-  const d: NameDef = { name: node.text, span: node.span, statementIndex: index, keyword };
-  const list = defs.get(d.name);
-  if (list) list.push(d);
-  else defs.set(d.name, [d]);
 }
 
 /** Orders diagnostics by where they start, then end. */
@@ -200,13 +170,11 @@ export function* evaluateSteps(
 ): Generator<void, Analysis, void> {
   const resolved = resolveSettings(settings);
   const statements = Array.isArray(parsed?.statements) ? parsed.statements : [];
-  const ctx = new EvalContext(resolved, text, noteUnits(statements, resolved.units));
+  const ctx = new EvalContext(resolved, text, noteUnits(statements, resolved.units), new NoteNames(statements).scan());
   if (reuse) {
     ctx.solve = reuse.solve;
     ctx.site = reuse.basis(ctx.site);
   }
-  const derives = new Set<number>();
-  prescan(statements, ctx.allDefs, derives);
 
   for (let index = 0; index < statements.length; index++) {
     if (index > 0 && index % STATEMENTS_PER_STEP === 0) yield;
@@ -225,7 +193,7 @@ export function* evaluateSteps(
           // Without a usable name the parser has reported the statement; evaluating the rest
           // would only add a second diagnostic for the same line.
           if (!stmt.name) break;
-          const owner = ctx.define(stmt.name, index, stmt.keyword);
+          const owner = ctx.define(stmt.name, index);
           let item: StateResult;
           if (stmt.keyword === 'mix')
             item = reuse
@@ -241,7 +209,7 @@ export function* evaluateSteps(
         }
         case 'supply': {
           if (!stmt.name) break;
-          const owner = ctx.define(stmt.name, index, 'supply');
+          const owner = ctx.define(stmt.name, index);
           const item = reuse
             ? reuse.dependent(ctx, stmt, index, () => evaluateSupply(ctx, stmt, index))
             : evaluateSupply(ctx, stmt, index);
@@ -250,11 +218,11 @@ export function* evaluateSteps(
         }
         case 'process': {
           if (!stmt.name) break;
-          const owner = ctx.define(stmt.name, index, 'process');
-          if (derives.has(index) && stmt.to) {
+          const owner = ctx.define(stmt.name, index);
+          if (ctx.names.derivesLeaving(index) && stmt.to) {
             // It defines its leaving state too (evaluated every time: it is cheap, and what it
             // defines is new on every run).
-            const toOwner = ctx.define(stmt.to, index, 'process');
+            const toOwner = ctx.define(stmt.to, index);
             const out = evaluateProcess(ctx, stmt, index, true);
             // The name it defines is listed with the references (rename and find-references see it).
             ctx.references.push({ name: stmt.to.text, span: stmt.to.span, statement: stmt });
@@ -270,8 +238,8 @@ export function* evaluateSteps(
         }
         case 'recover': {
           if (!stmt.name) break;
-          const owner = ctx.define(stmt.name, index, 'recover');
-          const toOwners = stmt.streams.map((x) => (x.to ? ctx.define(x.to, index, 'recover') : false));
+          const owner = ctx.define(stmt.name, index);
+          const toOwners = stmt.streams.map((x) => (x.to ? ctx.define(x.to, index) : false));
           const out = evaluateRecover(ctx, stmt, index);
           for (const x of stmt.streams)
             if (x.to) ctx.references.push({ name: x.to.text, span: x.to.span, statement: stmt });

@@ -169,7 +169,7 @@ export function evaluateProcess(
 function specificationUnused(ctx: EvalContext, stmt: ProcessStatement, props: ReadProp[], what: string): void {
   const first = stmt.words[0] ?? props.find((p) => DERIVE_KEY_NAMES.has(p.key))?.prop;
   if (!first || !stmt.to) return;
-  const def = ctx.allDefs.get(stmt.to.text)?.[0];
+  const def = ctx.names.firstDef(stmt.to.text);
   const where = def ? ctx.atLine(def.span) : '';
   const spanOf = 'text' in first ? first.span : first.span;
   ctx.report({

@@ -6,6 +6,7 @@ import type { ResolvedQuantity } from './quantity';
 import { readQuantity } from './quantity';
 import { suggestName } from '../text/suggest';
 import { readReference, type ReadRef, type RefSite } from './refs';
+import { appended } from './util';
 
 /** A property whose key is known and whose value was read. */
 export interface ReadProp {
@@ -92,7 +93,7 @@ export function readProps(
     if (prop.ref) {
       const r = readReference(ctx, prop, prop.ref, spec, refs, what);
       if (!r) {
-        (broken ??= []).push(prop.key);
+        broken = appended(broken, prop.key);
         continue;
       }
       out.push({ key: prop.key, spec, prop, q: r.q, ref: r.ref });
@@ -100,13 +101,13 @@ export function readProps(
     }
     if (prop.value === null) {
       // The parser has reported the syntax error already.
-      (broken ??= []).push(prop.key);
+      broken = appended(broken, prop.key);
       continue;
     }
     const r = readQuantity(prop, prop.value, spec);
     if (!r.ok) {
       ctx.report(r.diagnostic);
-      (broken ??= []).push(prop.key);
+      broken = appended(broken, prop.key);
       continue;
     }
     out.push({ key: prop.key, spec, prop, q: r.value, ref: undefined });

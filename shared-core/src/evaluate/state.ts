@@ -23,6 +23,7 @@ import { readProps } from './props';
 import { sourcesOf } from './refs';
 import { solveOrProblem } from './solve';
 import { checkClaim } from './claims';
+import { appended } from './util';
 import type { ClaimResult, PressureBasis, StateResult } from './types';
 
 /** The value of a state property in SI, for claims. */
@@ -208,9 +209,14 @@ function claimsBeyondPair(
   pressure: PressureBasis,
 ): ClaimResult[] {
   let claimsProps: ReadProp[] | null = null;
-  for (const p of props) if (p !== a && p !== b && !isPressureProp(p)) (claimsProps ??= []).push(p);
+  for (const p of props) if (p !== a && p !== b && !isPressureProp(p)) claimsProps = appended(claimsProps, p);
   if (!claimsProps) return [];
-  return stateClaims(ctx, claimsProps, state, () => `from ${writtenList([a, b])} at ${pressureWord(pressure, ctx.units)}`);
+  return stateClaims(
+    ctx,
+    claimsProps,
+    state,
+    () => `from ${writtenList([a, b])} at ${pressureWord(pressure, ctx.units)}`,
+  );
 }
 
 /** The pressure of a state: its own p= / elev=, else the site pressure; `failed` when the override could not be read. */
@@ -320,7 +326,14 @@ function solveFirstPair(
   for (const [a, b] of candidates) {
     const ka = a.key as DefiningKey;
     const kb = b.key as DefiningKey;
-    const solved = solveOrProblem(ctx.solve, pairInput(ka, a.q.si, kb, b.q.si), pressure.pa, ALLOW_FOG, 'check the figures', [ka, kb]);
+    const solved = solveOrProblem(
+      ctx.solve,
+      pairInput(ka, a.q.si, kb, b.q.si),
+      pressure.pa,
+      ALLOW_FOG,
+      'check the figures',
+      [ka, kb],
+    );
     if (!solved.ok) {
       if (solved.problem.code === 'dependent-pair') {
         lastDependent = { problem: solved.problem, pair: [a, b] };
@@ -364,7 +377,9 @@ function solveFirstPair(
   }
   if (lastDependent) {
     spans ??= spansOfCandidates(candidates);
-    ctx.report(problemDiagnostic(lastDependent.problem, ctx.units, 'error', spans, spanOf(spans, allOf(candidates)), what));
+    ctx.report(
+      problemDiagnostic(lastDependent.problem, ctx.units, 'error', spans, spanOf(spans, allOf(candidates)), what),
+    );
   }
   return null;
 }

@@ -1,5 +1,15 @@
-/** Small helpers of the evaluator: spans, number formatting (suggestions: `../text/suggest`). */
+/** Small helpers of the evaluator: spans, number formatting (suggestions: `../text/suggest`), lists. */
 import type { Span } from '../text/types';
+
+/**
+ * `list` with `x` appended, made at the first element (for lists that are most often empty: no
+ * array until one is needed).
+ */
+export function appended<T>(list: T[] | null, x: T): T[] {
+  if (list === null) return [x];
+  list.push(x);
+  return list;
+}
 
 /** The smallest span that covers all the given spans (the first one when only one). */
 export function spanUnion(...spans: Span[]): Span {
