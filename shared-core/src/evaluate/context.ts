@@ -129,7 +129,8 @@ export class EvalContext {
   /** Stores an evaluated item (and links it to its name when this statement owns the name). */
   addItem(item: EvaluatedItem, owner: boolean): void {
     this.items.push(item);
-    if (owner && !this.byName.has(item.name)) this.byName.set(item.name, item);
+    // A name has one owner (its first definition), so it is set once.
+    if (owner) this.byName.set(item.name, item);
   }
 
   /**

@@ -11,7 +11,7 @@ import type {
   StateStatement,
   SupplyStatement,
 } from '../notation/ast';
-import type { Analysis, EvaluateSettings, EvaluatedItem, PressureBasis, StateResult } from './types';
+import type { Analysis, EvaluateSettings, EvaluatedItem, PressureBasis, ProcessResult, StateResult } from './types';
 import type { UnitSystem } from '../units/types';
 import { EvalContext } from './context';
 import { NoteNames } from './names';
@@ -154,6 +154,123 @@ export function evaluate(
   }
 }
 
+/**
+ * Evaluates statement `index` into `ctx`: registers the names it defines and stores its items.
+ * (No function is made here per statement: the analyzer's `reuse` gets its `compute` from the
+ * helpers below, so a note evaluated without it makes none.)
+ */
+function evaluateStatement(ctx: EvalContext, stmt: Statement, index: number, reuse: EvaluateReuse | undefined): void {
+  switch (stmt.keyword) {
+    case 'site':
+      evaluateSite(ctx, stmt, index);
+      if (reuse) ctx.site = reuse.basis(ctx.site);
+      return;
+    case 'units':
+      evaluateUnits(ctx, stmt);
+      return;
+    case 'state': {
+      // Without a usable name the parser has reported the statement; evaluating the rest
+      // would only add a second diagnostic for the same line.
+      if (!stmt.name) return;
+      const owner = ctx.define(stmt.name, index);
+      const item = reuse ? reusedState(reuse, ctx, stmt, index, owner) : evaluateState(ctx, stmt, index, owner);
+      ctx.addItem(item, owner);
+      return;
+    }
+    case 'mix': {
+      if (!stmt.name) return;
+      const owner = ctx.define(stmt.name, index);
+      const item = reuse ? reusedMix(reuse, ctx, stmt, index, owner) : evaluateMix(ctx, stmt, index, owner);
+      ctx.addItem(item, owner);
+      return;
+    }
+    case 'supply': {
+      if (!stmt.name) return;
+      const owner = ctx.define(stmt.name, index);
+      const item = reuse ? reusedSupply(reuse, ctx, stmt, index) : evaluateSupply(ctx, stmt, index);
+      ctx.addItem(item, owner);
+      return;
+    }
+    case 'process': {
+      if (!stmt.name) return;
+      const owner = ctx.define(stmt.name, index);
+      if (ctx.names.derivesLeaving(index) && stmt.to) {
+        // It defines its leaving state too (evaluated every time: it is cheap, and what it
+        // defines is new on every run).
+        const toOwner = ctx.define(stmt.to, index);
+        const out = evaluateProcess(ctx, stmt, index, true);
+        // The name it defines is listed with the references (rename and find-references see it).
+        ctx.references.push({ name: stmt.to.text, span: stmt.to.span, statement: stmt });
+        if (out.leaving) ctx.addItem(out.leaving, toOwner);
+        if (out.process) ctx.addItem(out.process, owner);
+        return;
+      }
+      const item = reuse ? reusedProcess(reuse, ctx, stmt, index) : evaluateProcess(ctx, stmt, index).process;
+      if (item) ctx.addItem(item, owner);
+      return;
+    }
+    case 'recover': {
+      if (!stmt.name) return;
+      const owner = ctx.define(stmt.name, index);
+      const toOwners: boolean[] = [];
+      for (const x of stmt.streams) toOwners.push(x.to ? ctx.define(x.to, index) : false);
+      const out = evaluateRecover(ctx, stmt, index);
+      for (const x of stmt.streams)
+        if (x.to) ctx.references.push({ name: x.to.text, span: x.to.span, statement: stmt });
+      for (let k = 0; k < out.leaving.length; k++) {
+        const l = out.leaving[k];
+        if (l) ctx.addItem(l, toOwners[k] ?? false);
+      }
+      // The exchanger is registered under its name by its first side; the second side is listed as well.
+      for (let k = 0; k < out.sides.length; k++) {
+        const side = out.sides[k];
+        if (side) ctx.addItem(side, owner && k === 0);
+      }
+      return;
+    }
+    default:
+      return;
+  }
+}
+
+/** A state through the analyzer's reuse: a state with references depends on the states it names, like a mix. */
+function reusedState(
+  reuse: EvaluateReuse,
+  ctx: EvalContext,
+  stmt: StateStatement,
+  index: number,
+  owner: boolean,
+): StateResult {
+  const compute = (): StateResult => evaluateState(ctx, stmt, index, owner);
+  return hasReferences(stmt) ? reuse.dependent(ctx, stmt, index, compute) : reuse.state(ctx, stmt, index, compute);
+}
+
+/** A mix through the analyzer's reuse. */
+function reusedMix(
+  reuse: EvaluateReuse,
+  ctx: EvalContext,
+  stmt: MixStatement,
+  index: number,
+  owner: boolean,
+): StateResult {
+  return reuse.dependent(ctx, stmt, index, () => evaluateMix(ctx, stmt, index, owner));
+}
+
+/** A supply through the analyzer's reuse. */
+function reusedSupply(reuse: EvaluateReuse, ctx: EvalContext, stmt: SupplyStatement, index: number): StateResult {
+  return reuse.dependent(ctx, stmt, index, () => evaluateSupply(ctx, stmt, index));
+}
+
+/** A process between two states defined above, through the analyzer's reuse. */
+function reusedProcess(
+  reuse: EvaluateReuse,
+  ctx: EvalContext,
+  stmt: ProcessStatement,
+  index: number,
+): ProcessResult | null {
+  return reuse.dependent(ctx, stmt, index, () => evaluateProcess(ctx, stmt, index).process);
+}
+
 /** Statements evaluated between two pauses of {@link evaluateSteps}. */
 export const STATEMENTS_PER_STEP = 256;
 
@@ -180,81 +297,7 @@ export function* evaluateSteps(
     if (index > 0 && index % STATEMENTS_PER_STEP === 0) yield;
     const stmt = statements[index]!;
     try {
-      switch (stmt.keyword) {
-        case 'site':
-          evaluateSite(ctx, stmt, index);
-          if (reuse) ctx.site = reuse.basis(ctx.site);
-          break;
-        case 'units':
-          evaluateUnits(ctx, stmt);
-          break;
-        case 'state':
-        case 'mix': {
-          // Without a usable name the parser has reported the statement; evaluating the rest
-          // would only add a second diagnostic for the same line.
-          if (!stmt.name) break;
-          const owner = ctx.define(stmt.name, index);
-          let item: StateResult;
-          if (stmt.keyword === 'mix')
-            item = reuse
-              ? reuse.dependent(ctx, stmt, index, () => evaluateMix(ctx, stmt, index, owner))
-              : evaluateMix(ctx, stmt, index, owner);
-          else if (!reuse) item = evaluateState(ctx, stmt, index, owner);
-          // A state with references depends on the states it names, like a mix.
-          else if (hasReferences(stmt))
-            item = reuse.dependent(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
-          else item = reuse.state(ctx, stmt, index, () => evaluateState(ctx, stmt, index, owner));
-          ctx.addItem(item, owner);
-          break;
-        }
-        case 'supply': {
-          if (!stmt.name) break;
-          const owner = ctx.define(stmt.name, index);
-          const item = reuse
-            ? reuse.dependent(ctx, stmt, index, () => evaluateSupply(ctx, stmt, index))
-            : evaluateSupply(ctx, stmt, index);
-          ctx.addItem(item, owner);
-          break;
-        }
-        case 'process': {
-          if (!stmt.name) break;
-          const owner = ctx.define(stmt.name, index);
-          if (ctx.names.derivesLeaving(index) && stmt.to) {
-            // It defines its leaving state too (evaluated every time: it is cheap, and what it
-            // defines is new on every run).
-            const toOwner = ctx.define(stmt.to, index);
-            const out = evaluateProcess(ctx, stmt, index, true);
-            // The name it defines is listed with the references (rename and find-references see it).
-            ctx.references.push({ name: stmt.to.text, span: stmt.to.span, statement: stmt });
-            if (out.leaving) ctx.addItem(out.leaving, toOwner);
-            if (out.process) ctx.addItem(out.process, owner);
-            break;
-          }
-          const item = reuse
-            ? reuse.dependent(ctx, stmt, index, () => evaluateProcess(ctx, stmt, index).process)
-            : evaluateProcess(ctx, stmt, index).process;
-          if (item) ctx.addItem(item, owner);
-          break;
-        }
-        case 'recover': {
-          if (!stmt.name) break;
-          const owner = ctx.define(stmt.name, index);
-          const toOwners = stmt.streams.map((x) => (x.to ? ctx.define(x.to, index) : false));
-          const out = evaluateRecover(ctx, stmt, index);
-          for (const x of stmt.streams)
-            if (x.to) ctx.references.push({ name: x.to.text, span: x.to.span, statement: stmt });
-          out.leaving.forEach((l, k) => {
-            if (l) ctx.addItem(l, toOwners[k] ?? false);
-          });
-          // The exchanger is registered under its name by its first side; the second side is listed as well.
-          out.sides.forEach((side, k) => {
-            if (side) ctx.addItem(side, owner && k === 0);
-          });
-          break;
-        }
-        default:
-          break;
-      }
+      evaluateStatement(ctx, stmt, index, reuse);
     } catch (err) {
       ctx.report({
         code: 'internal-error',

@@ -28,8 +28,15 @@ export class NoteNames {
   private readonly first = new Map<string, number>();
   /** Indexes of the process statements that define their leaving state (see {@link scan}). */
   private readonly derives = new Set<number>();
+  /**
+   * Per statement: 1 when the name written after its keyword is the first definition of that
+   * name (it owns the name), so that registering it needs no look-up by name.
+   */
+  private readonly ownsOwnName: Uint8Array;
 
-  constructor(private readonly statements: readonly Statement[]) {}
+  constructor(private readonly statements: readonly Statement[]) {
+    this.ownsOwnName = new Uint8Array(statements.length);
+  }
 
   /**
    * The pre-scan: every name a statement defines, in document order. A statement defines its
@@ -41,7 +48,7 @@ export class NoteNames {
     for (let i = 0; i < statements.length; i++) {
       const s = statements[i]!;
       if (!namesSomething(s) || !s.name) continue;
-      this.add(s.name.text, i);
+      if (this.add(s.name.text, i)) this.ownsOwnName[i] = 1;
       if (s.keyword === 'process' && s.from && s.to && !this.first.has(s.to.text) && hasSpecification(s)) {
         this.derives.add(i);
         this.add(s.to.text, i);
@@ -53,8 +60,11 @@ export class NoteNames {
     return this;
   }
 
-  private add(name: string, index: number): void {
-    if (!this.first.has(name)) this.first.set(name, index);
+  /** Records a definition of `name` at statement `index`; true when it is the name's first. */
+  private add(name: string, index: number): boolean {
+    if (this.first.has(name)) return false;
+    this.first.set(name, index);
+    return true;
   }
 
   /** True when process statement `index` defines its leaving state (a specification and a new name). */
@@ -82,13 +92,14 @@ export class NoteNames {
    * definition that owns it). A name the pre-scan did not find is recorded now, as owned.
    */
   owns(node: NameNode, index: number): boolean {
+    const s = this.statements[index];
+    if (s && namesSomething(s) && node === s.name) return this.ownsOwnName[index] === 1;
     const first = this.first.get(node.text);
     if (first === undefined) {
       this.first.set(node.text, index);
       return true;
     }
     if (first !== index) return false;
-    const s = this.statements[index];
     // Several names of one statement may be equal (a heat recovery named like its leaving state).
     return !s || !namesSomething(s) || definingNode(s, node.text) === node;
   }
