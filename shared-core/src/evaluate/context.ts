@@ -25,12 +25,17 @@ export class EvalContext {
   readonly settings: EvaluateSettings;
   readonly diagnostics: CoreDiagnostic[] = [];
   readonly items: EvaluatedItem[] = [];
-  /** Each defined name's item, once its first definition (the one that owns the name) is evaluated. */
-  readonly byName = new Map<string, EvaluatedItem>();
+  /**
+   * The items of the names' first definitions (the ones that own them), in the order they were
+   * evaluated: what {@link byName} is made of.
+   */
+  readonly owners: EvaluatedItem[] = [];
+  /** {@link byName} once made (at the first reference resolved, or by the analysis when read). */
+  private byNameMap: Map<string, EvaluatedItem> | null = null;
   readonly references: { name: string; span: Span; statement: Statement }[] = [];
   /**
    * The names the note defines, found before evaluation (the pre-scan), for `used-before-defined`
-   * and suggestions: the first definition of each name owns it. With {@link byName} it is the
+   * and suggestions: the first definition of each name owns it. With {@link owners} it is the
    * registry of names, so evaluating a statement adds no second record of its name.
    */
   readonly names: NoteNames;
@@ -129,8 +134,25 @@ export class EvalContext {
   /** Stores an evaluated item (and links it to its name when this statement owns the name). */
   addItem(item: EvaluatedItem, owner: boolean): void {
     this.items.push(item);
+    if (!owner) return;
+    this.owners.push(item);
     // A name has one owner (its first definition), so it is set once.
-    if (owner) this.byName.set(item.name, item);
+    this.byNameMap?.set(item.name, item);
+  }
+
+  /**
+   * Each defined name → its item, for the names whose first definition is evaluated so far. Made
+   * at the first call (a note without references never needs it while it is evaluated), then
+   * kept up to date.
+   */
+  byName(): Map<string, EvaluatedItem> {
+    this.byNameMap ??= byNameOf(this.owners);
+    return this.byNameMap;
+  }
+
+  /** {@link byName} when it is made already, else null. */
+  byNameIfMade(): Map<string, EvaluatedItem> | null {
+    return this.byNameMap;
   }
 
   /**
@@ -139,7 +161,7 @@ export class EvalContext {
    */
   itemBefore(name: string, index: number): EvaluatedItem | null {
     const first = this.names.firstIndex(name);
-    return first >= 0 && first < index ? (this.byName.get(name) ?? null) : null;
+    return first >= 0 && first < index ? (this.byName().get(name) ?? null) : null;
   }
 
   /**
@@ -153,7 +175,7 @@ export class EvalContext {
     // definitions are in document order, so no other stands above).
     const first = this.names.firstDef(ref.text);
     if (first && first.statementIndex < index) {
-      const item = this.byName.get(ref.text);
+      const item = this.byName().get(ref.text);
       if (item) return { ok: true, item, def: first };
       return { ok: false, failed: true, def: first };
     }
@@ -185,4 +207,11 @@ export class EvalContext {
     });
     return { ok: false, failed: false };
   }
+}
+
+/** Each owner's name → the owner, in the owners' order. */
+export function byNameOf(owners: readonly EvaluatedItem[]): Map<string, EvaluatedItem> {
+  const map = new Map<string, EvaluatedItem>();
+  for (const item of owners) map.set(item.name, item);
+  return map;
 }

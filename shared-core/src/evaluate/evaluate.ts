@@ -13,7 +13,7 @@ import type {
 } from '../notation/ast';
 import type { Analysis, EvaluateSettings, EvaluatedItem, PressureBasis, ProcessResult, StateResult } from './types';
 import type { UnitSystem } from '../units/types';
-import { EvalContext } from './context';
+import { EvalContext, byNameOf } from './context';
 import { NoteNames } from './names';
 import { SITE_KEYS } from './keys';
 import { exampleIn } from './figures';
@@ -312,13 +312,25 @@ export function* evaluateSteps(
   // In document order; the sort is stable, so diagnostics at one span keep the order they were made in.
   const diagnostics = parseDiagnostics.concat(ctx.diagnostics).sort(bySpan);
 
+  const made = ctx.byNameIfMade();
+  const owners = ctx.owners;
   return {
     parsed,
     units: ctx.units,
     unitsSource: ctx.unitsSource,
     settings: resolved,
     items: ctx.items,
-    byName: ctx.byName,
+    // The map of names, made at its first read unless evaluation made it (for a reference): a
+    // reader that never looks a name up (the command line's output) never pays for it. After
+    // that read it is a plain property holding the map.
+    get byName(): Map<string, EvaluatedItem> {
+      const map = made ?? byNameOf(owners);
+      Object.defineProperty(this, 'byName', { value: map, writable: true, enumerable: true, configurable: true });
+      return map;
+    },
+    set byName(map: Map<string, EvaluatedItem>) {
+      Object.defineProperty(this, 'byName', { value: map, writable: true, enumerable: true, configurable: true });
+    },
     references: ctx.references,
     diagnostics,
   };
