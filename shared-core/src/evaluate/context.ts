@@ -123,7 +123,10 @@ export class EvalContext {
     this.report({
       code: 'duplicate-name',
       severity: 'error',
-      message: `'${name}' is already defined by the ${first.keyword} statement${this.atLine(first.span)}; rename this one (e.g. '${name}_2') or remove one of the two definitions`,
+      message:
+        `'${name}' is already defined by the ${first.keyword} ` +
+        `statement${this.atLine(first.span)}; rename this one ` +
+        `(e.g. '${name}_2') or remove one of the two definitions`,
       span: node.span,
       related: [{ span: first.span, message: `first definition of '${name}'` }],
       data: { name },
@@ -187,7 +190,8 @@ export class EvalContext {
         severity: 'error',
         message: self
           ? `'${ref.text}' refers to the statement that defines it; refer to a state defined above`
-          : `'${ref.text}' is used here but defined further down${this.atLine(later.span)}; move its definition above this statement (statements are evaluated in document order)`,
+          : `'${ref.text}' is used here but defined further down${this.atLine(later.span)}; move ` +
+            `its definition above this statement (statements are evaluated in document order)`,
         span: ref.span,
         related: [{ span: later.span, message: `'${ref.text}' is defined here` }],
         data: { name: ref.text },
