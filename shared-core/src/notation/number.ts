@@ -7,6 +7,7 @@
  * and the resolution is the place value of the last written digit.
  */
 import { GROUP_SEPARATOR, GROUP_SIZE, groupAt, groupDigits } from '../text/thousands';
+import { internedSlice } from './intern';
 
 /** A number found at a position, before any check of its value. */
 export interface ScannedNumber {
@@ -112,7 +113,7 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
       }
     }
   }
-  const written = text.slice(start, pos);
+  const written = internedSlice(text, start, pos);
   // Exact fast path: an integer below 2^53 times or divided by an exact power of ten is rounded
   // once, so it equals the correctly rounded decimal; anything else goes through Number().
   const k = exponent - fractionDigits;

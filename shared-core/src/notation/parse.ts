@@ -56,6 +56,7 @@ import type {
 } from './ast';
 import type { Span } from '../text/types';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
+import { internedSlice } from './intern';
 import { resolutionOf, scanNumber, startsNumber, type ScannedNumber } from './number';
 import { differenceExample, findKey, referenceKeyFor } from '../vocabulary/keys';
 import { CODES, DIAGNOSTIC_CODES, type CodeFrom } from '../vocabulary/codes';
@@ -133,38 +134,6 @@ function keywordAt(text: string, start: number, end: number): Keyword | null {
     if (kw.length === length && text.startsWith(kw, start)) return kw;
   }
   return null;
-}
-
-// ---------------------------------------------------------------------------------------------
-// Short strings read again and again
-
-/** Size of {@link internedSlice}'s table (a power of two). */
-const INTERN_SLOTS = 256;
-/** Longest string {@link internedSlice} shares; longer ones are names and numbers, rarely repeated. */
-const INTERN_MAX_LENGTH = 8;
-const internTable: string[] = new Array<string>(INTERN_SLOTS).fill('');
-
-/**
- * `text.slice(start, end)`, shared with an equal string read before when there is one: keys and
- * units (`db`, `rh`, `C`, `%`) recur on every line, and a note of many statements keeps one copy
- * of each instead of one per property. A direct-mapped table on the length and the first and
- * last characters; a miss (or a collision) just slices and takes the slot. Constant work per call.
- */
-function internedSlice(text: string, start: number, end: number): string {
-  const length = end - start;
-  if (length <= 0 || length > INTERN_MAX_LENGTH) return text.slice(start, end);
-  const first = text.charCodeAt(start);
-  const last = text.charCodeAt(end - 1);
-  const slot = (length * 31 + first * 7 + last) & (INTERN_SLOTS - 1);
-  const cached = internTable[slot] as string;
-  if (cached.length === length) {
-    let i = 0;
-    while (i < length && cached.charCodeAt(i) === text.charCodeAt(start + i)) i++;
-    if (i === length) return cached;
-  }
-  const fresh = text.slice(start, end);
-  internTable[slot] = fresh;
-  return fresh;
 }
 
 // ---------------------------------------------------------------------------------------------
