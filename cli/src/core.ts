@@ -4,7 +4,7 @@
  * point (`@dewmark/core/<layer>`).
  */
 export { analyzeNote } from '@dewmark/core/analyze';
-export type { Analysis, EvaluateSettings, ProcessResult, StateResult } from '@dewmark/core/evaluate';
+export type { Analysis, ClaimResult, EvaluateSettings, ProcessResult, StateResult } from '@dewmark/core/evaluate';
 export type { CoreDiagnostic } from '@dewmark/core/notation';
 export { LineIndex } from '@dewmark/core/text';
 export { displayUnit, displaySymbol, figure, lookupUnit, toSI } from '@dewmark/core/units';

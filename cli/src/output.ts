@@ -1,6 +1,7 @@
 /** What `dewmark` prints: diagnostic lines, the JSON documents, and the terminal tables. */
-import type { Analysis, CoreDiagnostic, Dimension, ProcessResult, StateResult, UnitSystem } from './core';
+import type { Analysis, ClaimResult, CoreDiagnostic, Dimension, ProcessResult, StateResult, UnitSystem } from './core';
 import { LineIndex, displaySymbol, displayUnit, jsonFigure, jsonName, processRow, stateRow, waterUnit } from './core';
+import { type JsonWriter, ObjectWriter, TextWriter, jsonKey, jsonKeys } from './jsonWriter';
 import { safeLinePath, safeText } from './sanitize';
 
 /** One checked or evaluated file. */
@@ -78,252 +79,306 @@ export function summaryLine(files: number, c: Counts, unreadable = 0): string {
   return parts.join(', ');
 }
 
-/** Significant digits of every figure in the JSON: beyond the engine's accuracy, clear of binary noise. */
-export const JSON_SIGNIFICANT_DIGITS = 12;
-
-/** 10⁰ … 10²²: the powers of ten a double holds exactly. */
-const EXACT_POW10: readonly number[] = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
-
-/**
- * A figure for the JSON at {@link JSON_SIGNIFICANT_DIGITS} significant digits — never a fixed
- * number of decimals, which would leave a −60 °C dew-point state's humidity ratio (3.3e-6 kg/kg)
- * with two; null stays null (never NaN or Infinity in the JSON). It is the double nearest to
- * `x.toPrecision(12)`: the usual figure (1e-6 ≤ |x| < 1e11) is scaled once to a 12-digit whole
- * number and rounded, and divided back (a quotient of two exact doubles, rounded once, is the
- * double nearest to the decimal); the scaling is exact to 1e-4 of the last digit, so a figure
- * that close to a half (a tie), and any other figure, goes through `toPrecision` itself. (The
- * test of the JSON precision compares the two on a million figures.)
- */
-export function roundForJson(x: number | null | undefined): number | null {
-  if (x === null || x === undefined || !Number.isFinite(x)) return null;
-  const a = x < 0 ? -x : x;
-  if (a >= 1e-6 && a < 1e11) {
-    // Decimals that leave 12 significant digits: 11 − the decimal exponent of a (1 … 17).
-    let s = 11 - Math.floor(Math.log10(a));
-    let y = a * (EXACT_POW10[s] as number);
-    if (y < 1e11) y = a * (EXACT_POW10[++s] as number);
-    else if (y >= 1e12) y = a * (EXACT_POW10[--s] as number);
-    const frac = y - Math.floor(y);
-    if (y >= 1e11 && y < 1e12 && (frac < 0.4999 || frac > 0.5001)) {
-      const v = Math.round(y) / (EXACT_POW10[s] as number);
-      return x < 0 ? -v : v;
-    }
-  }
-  const v = Number(x.toPrecision(JSON_SIGNIFICANT_DIGITS));
-  return Object.is(v, -0) ? 0 : v;
-}
-const r = roundForJson;
+export { JSON_SIGNIFICANT_DIGITS, roundForJson } from './jsonWriter';
 
 function lineOf(f: FileResult, item: StateResult | ProcessResult): number {
   const s = item.statement.name?.span ?? item.statement.span;
   return f.lines.lineCol(s.start).line;
 }
 
-/** A state or mix in the JSON shape of the notation's machine-readable output (SI, as the key names). */
-export function stateJson(f: FileResult, s: StateResult): Record<string, unknown> {
+/**
+ * The 1-based lines of a note's items, taken in document order: each found by stepping on a few
+ * lines from the last one, else (an item far ahead, or behind) by the index's binary search.
+ */
+class ItemLines {
+  private line = 0;
+  constructor(private readonly lines: LineIndex) {}
+  of(item: StateResult | ProcessResult): number {
+    const offset = (item.statement.name?.span ?? item.statement.span).start;
+    const idx = this.lines;
+    let l = this.line;
+    if (offset >= idx.lineStart(l)) {
+      const last = idx.lineCount - 1;
+      for (let k = 0; l < last && idx.lineStart(l + 1) <= offset; k++, l++)
+        if (k === 8) {
+          l = idx.lineAt(offset);
+          break;
+        }
+    } else l = idx.lineAt(offset);
+    this.line = l;
+    return l + 1;
+  }
+}
+
+/*
+ * The JSON shape of states, processes and files: written once, member by member, to a
+ * JsonWriter that builds either the objects (stateJson, processJson, evalFileJson) or directly
+ * the document's text (evalFileText). Field names and units of the keys' figures come from the
+ * key table; every figure goes through roundForJson.
+ */
+
+/** The JSON field names of a state's pressure and computed properties, and of a flow, from the key table. */
+const N = {
+  p: jsonKey(jsonName('p')),
+  db: jsonKey(jsonName('db')),
+  wb: jsonKey(jsonName('wb')),
+  dp: jsonKey(jsonName('dp')),
+  rh: jsonKey(jsonName('rh')),
+  w: jsonKey(jsonName('w')),
+  h: jsonKey(jsonName('h')),
+  v: jsonKey(jsonName('v')),
+  rho: jsonKey(jsonName('rho')),
+  m: jsonKey(jsonName('m')),
+} as const;
+
+/** The names of the other fields. */
+const K = jsonKeys([
+  'accepted',
+  'adp_C',
+  'bf',
+  'claims',
+  'computed',
+  'defined_by',
+  'defining',
+  'dh_kJkg',
+  'diagnostics',
+  'dp_C',
+  'dry_coil',
+  'dw_kgkg',
+  'eff_l',
+  'eff_s',
+  'equipment',
+  'fan_rise_K',
+  'form',
+  'fraction',
+  'from',
+  'fromKey',
+  'key',
+  'kind',
+  'line',
+  'name',
+  'offset',
+  'ok',
+  'pass',
+  'path',
+  'pressure',
+  'processes',
+  'q_latent_kW',
+  'q_sensible_kW',
+  'room',
+  'saturation_effectiveness',
+  'shr',
+  'sources',
+  'spec',
+  'states',
+  'steam_C',
+  'steam_h_kJkg',
+  'streams',
+  'surface_C',
+  'to',
+  'units',
+  'v_m3s',
+  'wetting',
+] as const);
+
+/** A state or mix (an object) in the JSON shape of the notation's machine-readable output (SI, as the key names). */
+function writeState(w: JsonWriter, s: StateResult, line: number): void {
   const st = s.state;
-  const out: Record<string, unknown> = {
-    name: s.name,
-    line: lineOf(f, s),
-    kind: s.kind,
-    ok: st !== null,
-  };
-  // Field names and units come from the key table.
-  // (One store per field, each always the same name: much faster than a loop over the names.)
-  out[N.p] = r(jsonFigure('p', s.pressure.pa));
-  out[N.db] = r(jsonFigure('db', st?.db));
-  out[N.wb] = r(jsonFigure('wb', st?.wb));
-  out[N.dp] = r(jsonFigure('dp', st?.dp));
-  out[N.rh] = r(jsonFigure('rh', st?.rh));
-  out[N.w] = r(jsonFigure('w', st?.w));
-  out[N.h] = r(jsonFigure('h', st?.h));
-  out[N.v] = r(jsonFigure('v', st?.v));
-  out[N.rho] = r(jsonFigure('rho', st?.rho));
-  out.defining = [...s.defining];
-  out.pressure = s.pressure.describe;
+  w.open(null);
+  w.str(K.name, s.name);
+  w.num(K.line, line);
+  w.str(K.kind, s.kind);
+  w.bool(K.ok, st !== null);
+  // One call per field, each always the same name: much faster than a loop over the names.
+  w.fig(N.p, jsonFigure('p', s.pressure.pa));
+  w.fig(N.db, jsonFigure('db', st?.db));
+  w.fig(N.wb, jsonFigure('wb', st?.wb));
+  w.fig(N.dp, jsonFigure('dp', st?.dp));
+  w.fig(N.rh, jsonFigure('rh', st?.rh));
+  w.fig(N.w, jsonFigure('w', st?.w));
+  w.fig(N.h, jsonFigure('h', st?.h));
+  w.fig(N.v, jsonFigure('v', st?.v));
+  w.fig(N.rho, jsonFigure('rho', st?.rho));
+  w.strings(K.defining, s.defining);
+  w.str(K.pressure, s.pressure.describe);
+  // The flow a mix, a supply or a process's leaving state carries: one field, where it first comes.
+  let flow = false;
   if (s.kind === 'mix') {
-    out.streams = (s.streams ?? []).map((x) => ({
-      name: x.name,
-      fraction: r(x.fraction),
-      [jsonName('m')]: r(jsonFigure('m', x.massFlowKgS)),
-    }));
-    out[jsonName('m')] = r(jsonFigure('m', s.massFlowKgS ?? null));
+    w.openArray(K.streams);
+    for (const x of s.streams ?? []) {
+      w.open(null);
+      w.str(K.name, x.name);
+      w.fig(K.fraction, x.fraction);
+      w.fig(N.m, jsonFigure('m', x.massFlowKgS));
+      w.close();
+    }
+    w.closeArray();
+    w.fig(N.m, jsonFigure('m', s.massFlowKgS ?? null));
+    flow = true;
   }
   if (s.kind === 'supply') {
     const f = s.supply;
-    out.room = f?.room ?? null;
-    out.q_sensible_kW = r(f ? f.qSensibleW / 1000 : null);
-    out.q_latent_kW = r(f ? f.qLatentW / 1000 : null);
-    out.shr = r(f?.shr ?? null);
-    out.m_kgs = r(s.massFlowKgS ?? null);
-    out.v_m3s = r(f?.volumeFlowM3S ?? null);
+    w.str(K.room, f?.room ?? null);
+    w.fig(K.q_sensible_kW, f ? f.qSensibleW / 1000 : null);
+    w.fig(K.q_latent_kW, f ? f.qLatentW / 1000 : null);
+    w.fig(K.shr, f?.shr ?? null);
+    w.fig(N.m, s.massFlowKgS ?? null);
+    w.fig(K.v_m3s, f?.volumeFlowM3S ?? null);
+    flow = true;
   }
   // Properties taken from states above: the offset in SI (K, kg/kg, J/kg).
-  if (s.sources)
-    out.sources = s.sources.map((x) => ({ key: x.key, from: x.from, fromKey: x.fromKey, offset: r(x.offsetSI) }));
-  if (s.definedBy?.spec !== undefined) {
-    // A state a process or recovery defines: where it came from, and the flow it carries.
-    out.defined_by = { [s.definedBy.statement]: s.definedBy.name, from: s.definedBy.from, spec: s.definedBy.spec };
-    out.m_kgs = r(s.massFlowKgS ?? null);
+  if (s.sources) {
+    w.openArray(K.sources);
+    for (const x of s.sources) {
+      w.open(null);
+      w.str(K.key, x.key);
+      w.str(K.from, x.from);
+      w.str(K.fromKey, x.fromKey);
+      w.fig(K.offset, x.offsetSI);
+      w.close();
+    }
+    w.closeArray();
   }
-  if (s.claims.length > 0) out.claims = s.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
-  return out;
+  const by = s.definedBy;
+  if (by?.spec !== undefined) {
+    // A state a process or recovery defines: where it came from, and the flow it carries.
+    w.value(K.defined_by, { [by.statement]: by.name, from: by.from, spec: by.spec });
+    if (!flow) w.fig(N.m, s.massFlowKgS ?? null);
+  }
+  writeClaims(w, s.claims);
+  w.close();
 }
 
-/** The JSON field names of a state's pressure and computed properties, from the key table. */
-const N = {
-  p: jsonName('p'),
-  db: jsonName('db'),
-  wb: jsonName('wb'),
-  dp: jsonName('dp'),
-  rh: jsonName('rh'),
-  w: jsonName('w'),
-  h: jsonName('h'),
-  v: jsonName('v'),
-  rho: jsonName('rho'),
-} as const;
+/** The claims of a state or process, when it has some. */
+function writeClaims(w: JsonWriter, claims: readonly ClaimResult[]): void {
+  if (claims.length === 0) return;
+  w.openArray(K.claims);
+  for (const c of claims) {
+    w.open(null);
+    w.str(K.key, c.key);
+    w.bool(K.pass, c.pass);
+    w.str(K.computed, c.computedText);
+    w.close();
+  }
+  w.closeArray();
+}
 
-/** A process in the JSON shape (heat rates in kW and water in kg/h, positive = added to the air). */
-export function processJson(f: FileResult, p: ProcessResult): Record<string, unknown> {
-  const out: Record<string, unknown> = {
-    name: p.name,
-    line: lineOf(f, p),
-    kind: p.processKind,
-    from: p.from,
-    to: p.to,
-  };
-  // The keys' fields (names and units from the key table), then the figures no key writes.
-  const keyed = [
-    ['m', p.massFlowKgS],
-    ['q_total', p.qTotalW],
-    ['q_sensible', p.qSensibleW],
-    ['q_latent', p.qLatentW],
-    ['shr', p.shr],
-    ['water', p.waterKgS],
-    ['q_coil', p.qCoilW],
-    ['q', p.volumeFlowM3S],
-  ] as const;
-  for (const [key, si] of keyed) out[jsonName(key)] = r(jsonFigure(key, si));
-  out.dh_kJkg = r(p.dhTotal / 1000);
-  out.dw_kgkg = r(p.dw);
-  out.adp_C = r(p.apparatusDewPointC ?? null);
-  if (p.bypassFactor !== null && p.bypassFactor !== undefined) out.bf = r(p.bypassFactor);
+/** A key of the key table that has a JSON field. */
+type JsonKeyName = Parameters<typeof jsonName>[0];
+
+/** The figures of a process that keys write (names and units from the key table), in the JSON's order. */
+const PROCESS_KEYED = (
+  [
+    ['m', (p) => p.massFlowKgS],
+    ['q_total', (p) => p.qTotalW],
+    ['q_sensible', (p) => p.qSensibleW],
+    ['q_latent', (p) => p.qLatentW],
+    ['shr', (p) => p.shr],
+    ['water', (p) => p.waterKgS],
+    ['q_coil', (p) => p.qCoilW],
+    ['q', (p) => p.volumeFlowM3S],
+  ] as const satisfies readonly (readonly [JsonKeyName, (p: ProcessResult) => number | null])[]
+).map(([key, si]) => ({ key, json: jsonKey(jsonName(key)), si }));
+
+/** A process (an object) in the JSON shape (heat rates in kW and water in kg/h, positive = added to the air). */
+function writeProcess(w: JsonWriter, p: ProcessResult, line: number): void {
+  w.open(null);
+  w.str(K.name, p.name);
+  w.num(K.line, line);
+  w.str(K.kind, p.processKind);
+  w.str(K.from, p.from);
+  w.str(K.to, p.to);
+  // The keys' fields, then the figures no key writes.
+  for (const k of PROCESS_KEYED) w.fig(k.json, jsonFigure(k.key, k.si(p)));
+  w.fig(K.dh_kJkg, p.dhTotal / 1000);
+  w.fig(K.dw_kgkg, p.dw);
+  w.fig(K.adp_C, p.apparatusDewPointC ?? null);
+  if (p.bypassFactor !== null && p.bypassFactor !== undefined) w.fig(K.bf, p.bypassFactor);
   const e = p.equipment;
   if (e) {
-    const eq: Record<string, unknown> = { form: e.form, spec: e.spec };
-    if (e.fanRiseK !== undefined) eq.fan_rise_K = r(e.fanRiseK);
-    if (e.dryCoil !== undefined) eq.dry_coil = e.dryCoil;
-    if (e.saturationEffectiveness !== undefined) eq.saturation_effectiveness = r(e.saturationEffectiveness);
-    if (e.steamTempC !== undefined) eq.steam_C = r(e.steamTempC);
-    if (e.steamEnthalpyJkg !== undefined) eq.steam_h_kJkg = r(e.steamEnthalpyJkg / 1000);
-    if (e.effSensible !== undefined) eq.eff_s = r(e.effSensible);
-    if (e.effLatent !== undefined) eq.eff_l = r(e.effLatent);
-    if (e.wetting !== undefined)
-      eq.wetting =
-        e.wetting === null
-          ? null
-          : {
-              kind: e.wetting.kind,
-              surface_C: r(e.wetting.surfaceC),
-              dp_C: r(e.wetting.dewPointC),
-              accepted: e.wetting.accepted,
-            };
-    out.equipment = eq;
+    w.open(K.equipment);
+    w.str(K.form, e.form);
+    w.str(K.spec, e.spec);
+    if (e.fanRiseK !== undefined) w.fig(K.fan_rise_K, e.fanRiseK);
+    if (e.dryCoil !== undefined) w.bool(K.dry_coil, e.dryCoil);
+    if (e.saturationEffectiveness !== undefined) w.fig(K.saturation_effectiveness, e.saturationEffectiveness);
+    if (e.steamTempC !== undefined) w.fig(K.steam_C, e.steamTempC);
+    if (e.steamEnthalpyJkg !== undefined) w.fig(K.steam_h_kJkg, e.steamEnthalpyJkg / 1000);
+    if (e.effSensible !== undefined) w.fig(K.eff_s, e.effSensible);
+    if (e.effLatent !== undefined) w.fig(K.eff_l, e.effLatent);
+    if (e.wetting === null) w.value(K.wetting, null);
+    else if (e.wetting !== undefined) {
+      w.open(K.wetting);
+      w.str(K.kind, e.wetting.kind);
+      w.fig(K.surface_C, e.wetting.surfaceC);
+      w.fig(K.dp_C, e.wetting.dewPointC);
+      w.bool(K.accepted, e.wetting.accepted);
+      w.close();
+    }
+    w.close();
   }
-  if (p.claims.length > 0) out.claims = p.claims.map((c) => ({ key: c.key, pass: c.pass, computed: c.computedText }));
-  return out;
+  writeClaims(w, p.claims);
+  w.close();
 }
 
-/** One file of the `eval --format json` document. */
+/** One file of the `eval --format json` document (an object): its states and mixes, its processes and its diagnostics. */
+function writeEvalFile(w: JsonWriter, f: FileResult): void {
+  const lines = new ItemLines(f.lines);
+  const items = f.analysis.items;
+  w.open(null);
+  w.str(K.path, f.path);
+  w.str(K.units, f.analysis.units);
+  w.openArray(K.states);
+  for (const item of items) {
+    if (item.kind === 'process') continue;
+    writeState(w, item, lines.of(item));
+  }
+  w.closeArray();
+  w.openArray(K.processes);
+  for (const item of items) {
+    if (item.kind !== 'process') continue;
+    writeProcess(w, item, lines.of(item));
+  }
+  w.closeArray();
+  w.openArray(K.diagnostics);
+  for (const d of f.analysis.diagnostics) {
+    w.value(null, diagnosticJson(f, d));
+  }
+  w.closeArray();
+  w.close();
+}
+
+/** The object of {@link writeState}. */
+export function stateJson(f: FileResult, s: StateResult): Record<string, unknown> {
+  const w = new ObjectWriter();
+  writeState(w, s, lineOf(f, s));
+  return w.result as Record<string, unknown>;
+}
+
+/** The object of {@link writeProcess}. */
+export function processJson(f: FileResult, p: ProcessResult): Record<string, unknown> {
+  const w = new ObjectWriter();
+  writeProcess(w, p, lineOf(f, p));
+  return w.result as Record<string, unknown>;
+}
+
+/** One file of the `eval --format json` document, as objects (see {@link writeEvalFile}). */
 export function evalFileJson(f: FileResult): Record<string, unknown> {
-  const states: Record<string, unknown>[] = [];
-  const processes: Record<string, unknown>[] = [];
-  for (const item of f.analysis.items) {
-    if (item.kind === 'process') processes.push(processJson(f, item));
-    else states.push(stateJson(f, item));
-  }
-  return {
-    path: f.path,
-    units: f.analysis.units,
-    states,
-    processes,
-    diagnostics: f.analysis.diagnostics.map((d) => diagnosticJson(f, d)),
-  };
+  const w = new ObjectWriter();
+  writeEvalFile(w, f);
+  return w.result as Record<string, unknown>;
 }
 
 /**
- * Objects of an array stringified at once: enough to keep JSON.stringify's speed, few enough that
- * the text (about 34 KB for 64 states) stays below V8's large-object size (128 KB), whose strings
- * go straight to the old generation and wait there for a full collection.
- */
-const JSON_BATCH = 64;
-
-/**
- * The elements of `values` as `JSON.stringify(array, null, 2)` prints them when the array's
- * elements lie `depth` (≥ 1) levels deep: `A,\n<indent>B…` without the brackets. The batch is
- * wrapped in depth − 1 arrays, stringified in one call, and the wrappers' text cut off.
- */
-function elementsText(values: unknown[], depth: number): string {
-  let nested: unknown = values;
-  let before = '';
-  let after = '';
-  for (let k = 0; k < depth; k++) {
-    if (k > 0) nested = [nested];
-    before += `${'  '.repeat(k)}[\n`;
-    after = `\n${'  '.repeat(k)}]${after}`;
-  }
-  before += '  '.repeat(depth);
-  const text = JSON.stringify(nested, null, 2);
-  return text.slice(before.length, text.length - after.length);
-}
-
-/**
- * Writes an array of objects made one by one by `make` (null: none for that element) as
- * `JSON.stringify` prints it with its elements `depth` levels deep, in pieces of
- * {@link JSON_BATCH} elements: at most one batch of objects exists at a time.
- */
-function emitArray<T>(
-  source: Iterable<T>,
-  make: (x: T) => unknown | null,
-  depth: number,
-  emit: (chunk: string) => void,
-): void {
-  const lead = `\n${'  '.repeat(depth)}`;
-  let batch: unknown[] = [];
-  let first = true;
-  const flush = (): void => {
-    emit(`${first ? '[' : ','}${lead}${elementsText(batch, depth)}`);
-    first = false;
-    batch = [];
-  };
-  for (const x of source) {
-    const v = make(x);
-    if (v === null) continue;
-    batch.push(v);
-    if (batch.length >= JSON_BATCH) flush();
-  }
-  if (batch.length > 0) flush();
-  emit(first ? '[]' : `\n${'  '.repeat(depth - 1)}]`);
-}
-
-/**
- * One file of the `eval --format json` document as text, handed to `emit` in pieces (a few
- * hundred states, processes or diagnostics each), so that a large note's document is never one
- * string or one tree of objects: exactly `JSON.stringify(evalFileJson(f), null, 2)` nested
- * `depth` levels deep (every line after the first indented by `depth` levels).
+ * One file of the `eval --format json` document as text, handed to `emit` in pieces (about 64 KB
+ * each), so that a large note's document is never one string or one tree of objects: exactly
+ * `JSON.stringify(evalFileJson(f), null, 2)` nested `depth` levels deep (every line after the
+ * first indented by `depth` levels), written without making the objects.
  */
 export function evalFileText(f: FileResult, depth: number, emit: (chunk: string) => void): void {
-  const field = `\n${'  '.repeat(depth + 1)}`;
-  emit(
-    `{${field}"path": ${JSON.stringify(f.path)},${field}"units": ${JSON.stringify(f.analysis.units)},${field}"states": `,
-  );
-  const items = f.analysis.items;
-  emitArray(items, (i) => (i.kind === 'process' ? null : stateJson(f, i)), depth + 2, emit);
-  emit(`,${field}"processes": `);
-  emitArray(items, (i) => (i.kind === 'process' ? processJson(f, i) : null), depth + 2, emit);
-  emit(`,${field}"diagnostics": `);
-  emitArray(f.analysis.diagnostics, (d) => diagnosticJson(f, d), depth + 2, emit);
-  emit(`\n${'  '.repeat(depth)}}`);
+  const w = new TextWriter(depth, emit);
+  writeEvalFile(w, f);
+  w.flush();
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -1,19 +1,63 @@
 /**
- * `eval --format json` writes its document in pieces as it is made (a few hundred states at a
- * time) instead of stringifying one tree of the whole run. The text must stay exactly what
+ * `eval --format json` writes its document in pieces as it is made (about 32 KB at a time)
+ * straight into text, without an object per state. The text must stay exactly what
  * `JSON.stringify({ files }, null, 2)` gave before: the fixture snapshots (written by the
- * one-string version) pin it byte for byte, and the command's whole output is compared with the
- * object form on notes that span several pieces. The faster rounding of figures is compared with
- * `toPrecision(12)` itself.
+ * one-string version) pin it byte for byte; the text of every note in the repository (fixtures,
+ * examples, docs) is compared with JSON.stringify of the object form, which comes from the same
+ * description of the shape, and the notes compared are checked to hold every part of the shape
+ * (mixes, supplies, processes, claims, sources, defined_by, equipment, nulls); the writer is
+ * compared with JSON.stringify on values of every kind (escapes, other scripts, long strings,
+ * empty containers, nesting) and on a million figures; the command's whole output is compared
+ * with the object form on notes that span several pieces. The faster rounding of figures is
+ * compared with `toPrecision(12)` itself.
  */
-import { readdirSync, readFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, relative } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../../shared-core/src/analyze';
 import { evalFileJson, evalFileText, fileResult, roundForJson, JSON_SIGNIFICANT_DIGITS } from '../src/output';
+import { TextWriter, jsonKey } from '../src/jsonWriter';
 import { runCli as dewmark } from './lib/runCli';
 
-const fixtures = join(__dirname, '..', '..', 'test', 'fixtures');
+const repo = join(__dirname, '..', '..');
+const fixtures = join(repo, 'test', 'fixtures');
+
+/** JSON.stringify(value, null, 2) as if the value were nested `depth` levels deep (in arrays). */
+function stringifiedAt(value: unknown, depth: number): string {
+  let nested: unknown = value;
+  let before = '';
+  let after = '';
+  for (let k = 0; k < depth; k++) {
+    nested = [nested];
+    before += `${'  '.repeat(k)}[\n`;
+    after = `\n${'  '.repeat(k)}]${after}`;
+  }
+  before += '  '.repeat(depth);
+  const whole = JSON.stringify(nested, null, 2);
+  expect(whole.startsWith(before) && whole.endsWith(after)).toBe(true);
+  return whole.slice(before.length, whole.length - after.length);
+}
+
+/** The text a TextWriter writes for `value` at `depth`, joined from its pieces. */
+function written(value: unknown, depth: number): string {
+  const pieces: string[] = [];
+  const w = new TextWriter(depth, (c) => pieces.push(c));
+  w.value(null, value);
+  w.flush();
+  return pieces.join('');
+}
+
+/** Every Markdown note below `dir` (recursively). */
+function notesBelow(dir: string): string[] {
+  const out: string[] = [];
+  for (const e of readdirSync(dir)) {
+    if (e === 'node_modules' || e.startsWith('.')) continue;
+    const p = join(dir, e);
+    if (statSync(p).isDirectory()) out.push(...notesBelow(p));
+    else if (/\.(md|markdown)$/.test(e)) out.push(p);
+  }
+  return out;
+}
 
 /** The text `evalFileText` hands out, joined, and the number of pieces. */
 function streamed(path: string, text: string, depth: number): { text: string; pieces: number } {
@@ -92,6 +136,157 @@ describe('eval --format json, written in pieces', () => {
     expect(r.out).toBe(`${JSON.stringify({ files: objects }, null, 2)}\n`);
     const none = await dewmark(['eval', '--format', 'json', 'missing.md'], cwd);
     expect(none.out).toBe(`${JSON.stringify({ files: [] }, null, 2)}\n`);
+  });
+});
+
+describe('eval --format json, written without the objects', () => {
+  it('gives every note of the repository the text JSON.stringify gives its objects, and the notes hold every part of the shape', () => {
+    const notes = [
+      ...notesBelow(join(repo, 'test', 'fixtures')),
+      ...notesBelow(join(repo, 'examples')),
+      ...notesBelow(join(repo, 'docs')),
+    ];
+    expect(notes.length).toBeGreaterThan(50);
+    // How often each part of the shape occurs in the notes compared (each must, for the comparison to cover it).
+    const seen: Record<string, number> = {
+      state: 0,
+      mix: 0,
+      supply: 0,
+      process: 0,
+      claims: 0,
+      sources: 0,
+      defined_by: 0,
+      equipment: 0,
+      wetting: 0,
+      bf: 0,
+      'failed state': 0,
+      'null figure': 0,
+      diagnostic: 0,
+    };
+    const count = (o: Record<string, unknown>): void => {
+      for (const [k, v] of Object.entries(o)) {
+        if (k in seen && k !== 'state' && k !== 'mix' && k !== 'supply' && k !== 'process') seen[k]!++;
+        if (v === null) seen['null figure']!++;
+        if (v && typeof v === 'object' && !Array.isArray(v)) count(v as Record<string, unknown>);
+      }
+    };
+    for (const path of notes) {
+      const text = readFileSync(path, 'utf8');
+      const name = relative(repo, path);
+      const f = fileResult(name, text, analyzeNote(text));
+      const object = evalFileJson(f) as {
+        states: Record<string, unknown>[];
+        processes: Record<string, unknown>[];
+        diagnostics: unknown[];
+      };
+      for (const depth of [0, 2]) {
+        const pieces: string[] = [];
+        evalFileText(f, depth, (c) => pieces.push(c));
+        expect(pieces.join(''), `${name} at depth ${depth}`).toBe(stringifiedAt(object, depth));
+      }
+      for (const st of object.states) {
+        seen[st.kind as string]!++;
+        if (st.ok === false) seen['failed state']!++;
+        count(st);
+      }
+      for (const p of object.processes) {
+        seen.process!++;
+        count(p);
+      }
+      seen.diagnostic! += object.diagnostics.length;
+    }
+    for (const [part, n] of Object.entries(seen)) expect(n, part).toBeGreaterThan(0);
+  });
+
+  it('writes values of every kind as JSON.stringify does, at any depth', () => {
+    const long = `${'a'.repeat(5000)}"\\${'é'.repeat(3000)}`;
+    const values: unknown[] = [
+      {},
+      [],
+      [[]],
+      { a: {}, b: [], c: [{}], d: [[], [1]] },
+      {
+        plain: 'RA',
+        quote: 'say "hi"',
+        backslash: 'a\\b',
+        controls: '\u0000\u0001\t\n\r\u001f\u007f',
+        other: 'Büro 24 °C, µg, 空調, 🌡',
+        lone: '\ud800 and \udc00',
+        long,
+        empty: '',
+        'key "quoted"': 1,
+        'clé non ASCII': 2,
+        [`k${'x'.repeat(5000)}`]: 3,
+        missing: undefined,
+        fn: () => 1,
+        nothing: null,
+        yes: true,
+        no: false,
+        figures: [0, -0, 1, -1, 0.1, 1e21, 1e-7, 123456789.123, Number.NaN, Number.POSITIVE_INFINITY],
+        holes: [undefined, null, () => 1],
+      },
+      'top',
+      42,
+      null,
+    ];
+    for (const v of values)
+      for (const depth of [0, 1, 3])
+        expect(written(v, depth), `${JSON.stringify(v)?.slice(0, 60)} at ${depth}`).toBe(stringifiedAt(v, depth));
+    // A long document comes in pieces, none much over the writer's piece size.
+    const many = Array.from({ length: 20000 }, (_, i) => ({ name: `Z${i}`, t: 'é'.repeat(i % 7), x: i / 7 }));
+    const pieces: string[] = [];
+    const w = new TextWriter(2, (c) => pieces.push(c));
+    w.value(null, many);
+    w.flush();
+    expect(pieces.join('')).toBe(stringifiedAt(many, 2));
+    expect(pieces.length).toBeGreaterThan(10);
+    for (const p of pieces) expect(Buffer.byteLength(p)).toBeLessThan(40_000);
+  });
+
+  it('writes a million figures as JSON.stringify writes them rounded, and every edge', () => {
+    let s = 20261204;
+    const random = () => {
+      s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+      return s / 4294967296;
+    };
+    const key = jsonKey('x');
+    const check = (xs: number[]): number => {
+      const pieces: string[] = [];
+      const w = new TextWriter(1, (c) => pieces.push(c));
+      w.open(null);
+      w.openArray(key);
+      for (const x of xs) w.fig(null, x);
+      w.closeArray();
+      w.close();
+      w.flush();
+      const got = pieces.join('');
+      const want = stringifiedAt({ x: xs.map((x) => roundForJson(x)) }, 1);
+      if (got === want) return 0;
+      // Name the first figure that differs.
+      const g = got.split('\n');
+      const e = want.split('\n');
+      const i = g.findIndex((line, k) => line !== e[k]);
+      expect(g[i], `figure ${xs[i - 2]}`).toBe(e[i]);
+      return 1;
+    };
+    let differ = 0;
+    for (let batch = 0; batch < 100; batch++) {
+      const xs: number[] = [];
+      for (let i = 0; i < 10_000; i++) {
+        // Magnitudes 1e-9 … 1e13, both signs, and short decimals (figures as written: 24.5, 0.0093).
+        const m = random() * 10 ** Math.floor(random() * 23 - 9);
+        xs.push(i % 3 === 0 ? Number(m.toPrecision(1 + (i % 14))) : random() < 0.5 ? -m : m);
+      }
+      differ += check(xs);
+    }
+    expect(differ).toBe(0);
+    // Ties, powers of ten, the edges of the fast range, a rounding up to 13 digits, and what is not a figure.
+    const edges = [1234567890.125, -1234567890.125, 0.5, 2.5, 1e-6, 9.99999999999e-7, 1e-7, 1.5e-7, 1e11];
+    edges.push(99999999999.95, 999999999999.5, 0.1, 1, 10, 100, 1e-5, 123456789012.5, 5e-324, Number.MAX_VALUE);
+    edges.push(-0, 0, 0.000123456789012345, 101.325, 84.5, 9.9999999999995, 9.99999999999949, -0.99999999999999);
+    edges.push(1e21, 1e22, -1e-300, Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY);
+    for (let k = -8; k <= 12; k++) edges.push(10 ** k, -(10 ** k), 10 ** k * (1 - 1e-13), 10 ** k * (1 + 1e-13));
+    expect(check(edges)).toBe(0);
   });
 });
 

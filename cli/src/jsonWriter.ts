@@ -1,0 +1,483 @@
+/**
+ * Where a JSON document's members go as a description of its shape writes them, one member at a
+ * time: into objects ({@link ObjectWriter}, what tests and other tools read), or straight into
+ * the text `JSON.stringify(value, null, 2)` prints for those objects ({@link TextWriter}, what
+ * `eval --format json` writes: no object per state, no second pass over a tree). The two are
+ * driven by the same description (output.ts `writeState`, `writeProcess`, `writeEvalFile`), so
+ * the shape has one home; and the figures of both are rounded by {@link roundForJson}.
+ */
+
+/** Significant digits of every figure in the JSON: beyond the engine's accuracy, clear of binary noise. */
+export const JSON_SIGNIFICANT_DIGITS = 12;
+
+/** 10⁰ … 10²²: the powers of ten a double holds exactly. */
+const EXACT_POW10: readonly number[] = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
+
+/** A double's bits, for its binary exponent (in the high word's bits 20…30). */
+const FLOAT = new Float64Array(1);
+const WORDS = new Uint32Array(FLOAT.buffer);
+const HIGH_WORD = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0; // little-endian: the second word
+const LOG10_2 = Math.log10(2);
+
+/**
+ * The usual figure's 12 significant digits, found without `toPrecision`: for 1e-6 ≤ a < 1e11,
+ * a is scaled by 10^s to a 12-digit whole number M (so that the figure is M / 10^s), returned as
+ * M · 32 + s (exact: M ≤ 10¹², s ≤ 18); −1 for any other a, and when the scaled figure lies
+ * within 1e-4 of a half (the scaling is exact to that, so a tie is left to `toPrecision`).
+ */
+function scaledDigits(a: number): number {
+  if (!(a >= 1e-6 && a < 1e11)) return -1;
+  // Decimals that leave 12 significant digits: 11 − the decimal exponent of a (1 … 17), here
+  // from the binary exponent b (a = 1.f · 2^b, so the decimal exponent is ⌊b·log₁₀2⌋ or one
+  // more, which the scaling below corrects).
+  FLOAT[0] = a;
+  let s = 11 - Math.floor(((WORDS[HIGH_WORD]! >>> 20) - 1023) * LOG10_2);
+  let y = a * (EXACT_POW10[s] as number);
+  if (y < 1e11) y = a * (EXACT_POW10[++s] as number);
+  else if (y >= 1e12) y = a * (EXACT_POW10[--s] as number);
+  const frac = y - Math.floor(y);
+  if (y >= 1e11 && y < 1e12 && (frac < 0.4999 || frac > 0.5001)) return Math.round(y) * 32 + s;
+  return -1;
+}
+
+/**
+ * A figure for the JSON at {@link JSON_SIGNIFICANT_DIGITS} significant digits — never a fixed
+ * number of decimals, which would leave a −60 °C dew-point state's humidity ratio (3.3e-6 kg/kg)
+ * with two; null stays null (never NaN or Infinity in the JSON). It is the double nearest to
+ * `x.toPrecision(12)`: the usual figure (1e-6 ≤ |x| < 1e11) is scaled once to a 12-digit whole
+ * number and rounded, and divided back (a quotient of two exact doubles, rounded once, is the
+ * double nearest to the decimal); the scaling is exact to 1e-4 of the last digit, so a figure
+ * that close to a half (a tie), and any other figure, goes through `toPrecision` itself. (The
+ * test of the JSON precision compares the two on a million figures.)
+ */
+export function roundForJson(x: number | null | undefined): number | null {
+  if (x === null || x === undefined || !Number.isFinite(x)) return null;
+  const code = scaledDigits(x < 0 ? -x : x);
+  if (code >= 0) {
+    const m = Math.floor(code / 32);
+    const v = m / (EXACT_POW10[code - m * 32] as number);
+    return x < 0 ? -v : v;
+  }
+  const v = Number(x.toPrecision(JSON_SIGNIFICANT_DIGITS));
+  return Object.is(v, -0) ? 0 : v;
+}
+
+/** A member's name, with the text a writer puts before its value (`"name": `, as UTF-8). */
+export interface JsonKey {
+  readonly name: string;
+  readonly text: Uint8Array;
+  /** The line starts with this key that a {@link TextWriter} has written, by depth (made as needed). */
+  readonly leads: Lead[];
+}
+
+/** The key of a member named `name` (made once per name: a document's keys are a few dozen). */
+export function jsonKey(name: string): JsonKey {
+  return { name, text: Buffer.from(`${JSON.stringify(name)}: `, 'utf8'), leads: [] };
+}
+
+/** Keys for names written in the code: `K.name`, `K.line` … */
+export function jsonKeys<const T extends readonly string[]>(names: T): { readonly [N in T[number]]: JsonKey } {
+  return Object.fromEntries(names.map((n) => [n, jsonKey(n)])) as { [N in T[number]]: JsonKey };
+}
+
+/** Receives the members of a JSON document in order (keys of one object never repeat). */
+export interface JsonWriter {
+  /** A figure (a member, or an element when `key` is null), rounded by {@link roundForJson}. */
+  fig(key: JsonKey | null, x: number | null | undefined): void;
+  /** A number as it is (a line number); NaN and ±Infinity are written as null. */
+  num(key: JsonKey | null, v: number): void;
+  /** A string member; an undefined value leaves the member out (as JSON.stringify does). */
+  str(key: JsonKey | null, v: string | null | undefined): void;
+  bool(key: JsonKey | null, v: boolean): void;
+  /** An array of strings (names and keys). */
+  strings(key: JsonKey | null, v: readonly string[]): void;
+  /** Any plain JSON value (objects, arrays, strings, numbers, booleans, null; undefined leaves it out). */
+  value(key: JsonKey | null, v: unknown): void;
+  /** Starts an object member or element; its members follow until {@link close}. */
+  open(key: JsonKey | null): void;
+  close(): void;
+  /** Starts an array member or element; its elements (key null) follow until {@link closeArray}. */
+  openArray(key: JsonKey | null): void;
+  closeArray(): void;
+}
+
+/** Builds the objects and arrays the members describe (the value is {@link ObjectWriter.result}). */
+export class ObjectWriter implements JsonWriter {
+  /** The value of the first member or element written at the top. */
+  result: unknown = undefined;
+  private readonly stack: (Record<string, unknown> | unknown[])[] = [];
+
+  private put(key: JsonKey | null, v: unknown): void {
+    const top = this.stack[this.stack.length - 1];
+    if (top === undefined) this.result = v;
+    else if (Array.isArray(top)) top.push(v);
+    else if (key !== null) top[key.name] = v;
+  }
+  fig(key: JsonKey | null, x: number | null | undefined): void {
+    this.put(key, roundForJson(x));
+  }
+  num(key: JsonKey | null, v: number): void {
+    this.put(key, Number.isFinite(v) ? v : null);
+  }
+  str(key: JsonKey | null, v: string | null | undefined): void {
+    if (v !== undefined || key === null) this.put(key, v ?? null);
+  }
+  bool(key: JsonKey | null, v: boolean): void {
+    this.put(key, v);
+  }
+  strings(key: JsonKey | null, v: readonly string[]): void {
+    this.put(key, [...v]);
+  }
+  value(key: JsonKey | null, v: unknown): void {
+    if (v !== undefined || key === null) this.put(key, v ?? null);
+  }
+  open(key: JsonKey | null): void {
+    const o: Record<string, unknown> = {};
+    this.put(key, o);
+    this.stack.push(o);
+  }
+  close(): void {
+    this.stack.pop();
+  }
+  openArray(key: JsonKey | null): void {
+    const a: unknown[] = [];
+    this.put(key, a);
+    this.stack.push(a);
+  }
+  closeArray(): void {
+    this.stack.pop();
+  }
+}
+
+/**
+ * Bytes of text a {@link TextWriter} hands out at a time (about): its string (of one byte a
+ * character when the text is ASCII) stays well below V8's large-object size (128 KB), whose
+ * strings go straight to the old generation and wait there for a full collection.
+ */
+const PIECE_BYTES = 1 << 15;
+
+/** A string or key at most this long is written into the buffer; a longer one is handed out on its own. */
+const LONG_TEXT = 4096;
+
+/** Whether `c` (a UTF-16 code unit) is written in a JSON string as itself, and in one byte. */
+const plainAscii = (c: number): boolean => c >= 0x20 && c < 0x7f && c !== 0x22 && c !== 0x5c;
+
+/**
+ * Bytes written as one: the start of a member's line (`,`, the line break, the indentation and
+ * the key) or the end of an object or array, as little-endian 32-bit words, so that they go
+ * into the buffer four bytes at a time (the last word may carry up to three bytes past the
+ * end, which the next write covers).
+ */
+interface Lead {
+  words: Uint32Array;
+  length: number;
+  /** Whether some byte is outside ASCII. */
+  wide: boolean;
+}
+
+function makeLead(bytes: Uint8Array): Lead {
+  const words = new Uint32Array(Math.ceil(bytes.length / 4));
+  for (let i = 0; i < bytes.length; i++) words[i >> 2] = words[i >> 2]! | (bytes[i]! << (8 * (i & 3)));
+  return { words, length: bytes.length, wide: bytes.some((b) => b >= 0x80) };
+}
+
+/** The line starts of array elements (no key), by depth and whether a comma comes first. */
+const ELEMENT_LEADS: Lead[] = [];
+/** The last lines of objects and arrays (a line break, the indentation, the bracket), by depth and bracket. */
+const CLOSE_LEADS: Lead[] = [];
+
+/** The start of a member's line at `depth`: `,` unless `first`, the line break, the indentation, the key. */
+function leadOf(key: JsonKey | null, depth: number, first: boolean): Lead {
+  const leads = key === null ? ELEMENT_LEADS : key.leads;
+  const i = 2 * depth + (first ? 0 : 1);
+  let lead = leads[i];
+  if (lead === undefined) {
+    const start = Buffer.from(`${first ? '' : ','}\n${'  '.repeat(depth)}`, 'latin1');
+    lead = makeLead(key === null ? start : Buffer.concat([start, key.text]));
+    leads[i] = lead;
+  }
+  return lead;
+}
+
+/** The end of an object (`}`) or array (`]`) whose members were at depth + 1. */
+function closeOf(depth: number, bracket: '}' | ']'): Lead {
+  const i = 2 * depth + (bracket === '}' ? 0 : 1);
+  let lead = CLOSE_LEADS[i];
+  if (lead === undefined) {
+    lead = makeLead(Buffer.from(`\n${'  '.repeat(depth)}${bracket}`, 'latin1'));
+    CLOSE_LEADS[i] = lead;
+  }
+  return lead;
+}
+
+const TRUE = makeLead(Buffer.from('true'));
+const FALSE = makeLead(Buffer.from('false'));
+
+/** The four ASCII digits of 0 … 9999 (with leading zeros), as little-endian words (the first digit lowest). */
+const FOUR_DIGITS = new Uint32Array(10000);
+for (let i = 0; i < 10000; i++) {
+  const d = (k: number): number => 0x30 + (Math.floor(i / k) % 10);
+  FOUR_DIGITS[i] = (d(1000) | (d(100) << 8) | (d(10) << 16) | (d(1) << 24)) >>> 0;
+}
+
+/**
+ * Writes the text `JSON.stringify(value, null, 2)` prints, as if the value were nested `depth`
+ * levels deep (its lines indented by `depth` levels; the first is not indented: it follows
+ * whatever came before), as UTF-8 bytes into a buffer that is handed to `emit` as text every
+ * {@link PIECE_BYTES} bytes or so and by {@link TextWriter.flush} — no string per member and no
+ * object per state. Figures are written from their 12 digits (see {@link TextWriter.fig}).
+ */
+export class TextWriter implements JsonWriter {
+  private readonly bytes = new ArrayBuffer(PIECE_BYTES + LONG_TEXT * 4 + 1024);
+  private readonly buf: Buffer = Buffer.from(this.bytes);
+  private readonly view = new DataView(this.bytes);
+  private pos = 0;
+  /** Whether some byte since the last piece is outside ASCII (the piece is then decoded as UTF-8). */
+  private wide = false;
+  /** The depth of the members of the open object or array (that of the top value before any). */
+  private depth: number;
+  /** Whether the open object or array has no member yet. */
+  private first = true;
+  /** Whether nothing is open: the next value is the top one and has no line of its own. */
+  private top = true;
+  /** The keys of the members of plain values ({@link TextWriter.value}). */
+  private readonly keys = new Map<string, JsonKey>();
+
+  constructor(
+    depth: number,
+    private readonly emit: (chunk: string) => void,
+  ) {
+    this.depth = depth;
+  }
+
+  /** Hands out the text written since the last piece. */
+  flush(): void {
+    if (this.pos === 0) return;
+    this.emit(this.buf.toString(this.wide ? 'utf8' : 'latin1', 0, this.pos));
+    this.pos = 0;
+    this.wide = false;
+  }
+
+  /** Writes any text as UTF-8 (a long one handed out as a piece of its own). */
+  private text(t: string): void {
+    if (t.length > LONG_TEXT) {
+      this.flush();
+      this.emit(t);
+      return;
+    }
+    if (this.pos + t.length * 3 > PIECE_BYTES) this.flush();
+    this.pos += this.buf.write(t, this.pos, 'utf8');
+    this.wide = true;
+  }
+
+  /** Writes ASCII text (a number's text, a literal). */
+  private ascii(t: string): void {
+    const buf = this.buf;
+    let p = this.pos;
+    for (let i = 0; i < t.length; i++) buf[p++] = t.charCodeAt(i);
+    this.pos = p;
+  }
+
+  /** Writes bytes made once (see {@link Lead}). */
+  private lead(lead: Lead): void {
+    const words = lead.words;
+    const view = this.view;
+    const p = this.pos;
+    for (let i = 0; i < words.length; i++) view.setUint32(p + 4 * i, words[i]!, true);
+    this.pos = p + lead.length;
+    if (lead.wide) this.wide = true;
+  }
+
+  /**
+   * The line start and key of the next member, with room for a short value after it (a figure,
+   * a literal, a bracket): hands out a piece first when the buffer is nearly full.
+   */
+  private member(key: JsonKey | null): void {
+    if (this.pos > PIECE_BYTES) this.flush();
+    if (this.top) {
+      this.top = false;
+      return;
+    }
+    const d = this.depth;
+    if (key !== null && key.text.length > LONG_TEXT) {
+      this.text(`${this.first ? '' : ','}\n${'  '.repeat(d)}${JSON.stringify(key.name)}: `);
+      this.first = false;
+      return;
+    }
+    this.lead(leadOf(key, d, this.first));
+    this.first = false;
+  }
+
+  /**
+   * A figure's JSON text, from the 12 digits M of {@link scaledDigits} (the figure is M / 10^s):
+   * the digits with the point s places from the right, trailing zeros after the point dropped,
+   * and `0.` and zeros before a figure below 1. That is the shortest decimal that reads back as
+   * the rounded figure (no other decimal of 12 digits or fewer lies within a unit of its last
+   * place), in the positional form JSON uses from 1e-7 to 1e21: so exactly what
+   * `JSON.stringify(roundForJson(x))` writes. Any other figure goes through those two.
+   */
+  fig(key: JsonKey | null, x: number | null | undefined): void {
+    this.member(key);
+    if (x === null || x === undefined || !Number.isFinite(x)) {
+      this.ascii('null');
+      return;
+    }
+    const code = scaledDigits(x < 0 ? -x : x);
+    if (code < 0) {
+      this.ascii(`${roundForJson(x)}`);
+      return;
+    }
+    const m = Math.floor(code / 32);
+    const s = code - m * 32;
+    // M's 12 digits as three groups of four (M = 10¹², a rounding up to 13 digits, is left to the slow way).
+    const g1 = Math.floor(m / 1e8);
+    if (g1 >= 10000) {
+      this.ascii(`${roundForJson(x)}`);
+      return;
+    }
+    const rest = (m - g1 * 1e8) | 0;
+    const g2 = (rest / 10000) | 0;
+    const g3 = rest - g2 * 10000;
+    const buf = this.buf;
+    const view = this.view;
+    let p = this.pos;
+    if (x < 0) buf[p++] = 0x2d; // -
+    let end: number;
+    if (s < 12) {
+      // 12 − s digits before the point: the digits are written one byte on, and those moved back.
+      view.setUint32(p + 1, FOUR_DIGITS[g1]!, true);
+      view.setUint32(p + 5, FOUR_DIGITS[g2]!, true);
+      view.setUint32(p + 9, FOUR_DIGITS[g3]!, true);
+      const point = p + 12 - s;
+      for (let i = p; i < point; i++) buf[i] = buf[i + 1]!;
+      buf[point] = 0x2e; // .
+      end = p + 13;
+    } else {
+      // Below 1: `0.`, s − 12 zeros, the digits.
+      buf[p++] = 0x30;
+      buf[p++] = 0x2e;
+      for (let i = s; i > 12; i--) buf[p++] = 0x30;
+      view.setUint32(p, FOUR_DIGITS[g1]!, true);
+      view.setUint32(p + 4, FOUR_DIGITS[g2]!, true);
+      view.setUint32(p + 8, FOUR_DIGITS[g3]!, true);
+      end = p + 12;
+    }
+    // Trailing zeros after the point dropped, and the point when nothing follows it.
+    while (buf[end - 1] === 0x30) end--;
+    if (buf[end - 1] === 0x2e) end--;
+    this.pos = end;
+  }
+  num(key: JsonKey | null, v: number): void {
+    this.member(key);
+    this.ascii(Number.isFinite(v) ? `${v}` : 'null');
+  }
+  str(key: JsonKey | null, v: string | null | undefined): void {
+    if (v === undefined && key !== null) return;
+    this.member(key);
+    if (v === null || v === undefined) {
+      this.ascii('null');
+      return;
+    }
+    const n = v.length;
+    if (n <= LONG_TEXT) {
+      // The usual name or key: printable ASCII, written as it is between quotes.
+      const buf = this.buf;
+      const start = this.pos;
+      let p = start;
+      buf[p++] = 0x22;
+      let i = 0;
+      for (; i < n; i++) {
+        const c = v.charCodeAt(i);
+        if (!plainAscii(c)) break;
+        buf[p++] = c;
+      }
+      if (i === n) {
+        buf[p++] = 0x22;
+        this.pos = p;
+        return;
+      }
+    }
+    // Anything else (escapes, other characters, a long string) as JSON.stringify writes it.
+    this.text(JSON.stringify(v));
+  }
+  bool(key: JsonKey | null, v: boolean): void {
+    this.member(key);
+    this.lead(v ? TRUE : FALSE);
+  }
+  strings(key: JsonKey | null, v: readonly string[]): void {
+    if (v.length === 0) {
+      this.member(key);
+      this.ascii('[]');
+      return;
+    }
+    this.openArray(key);
+    for (const s of v) this.str(null, s);
+    this.closeArray();
+  }
+  value(key: JsonKey | null, v: unknown): void {
+    if (v === undefined || typeof v === 'function' || typeof v === 'symbol') {
+      if (key === null) {
+        this.member(null);
+        this.ascii('null');
+      }
+      return;
+    }
+    if (v === null || typeof v !== 'object') {
+      if (typeof v === 'string') this.str(key, v);
+      else {
+        this.member(key);
+        this.ascii(JSON.stringify(v));
+      }
+      return;
+    }
+    if (Array.isArray(v)) {
+      if (v.length === 0) {
+        this.member(key);
+        this.ascii('[]');
+        return;
+      }
+      this.openArray(key);
+      for (const x of v) this.value(null, x);
+      this.closeArray();
+      return;
+    }
+    const o = v as Record<string, unknown>;
+    this.open(key);
+    for (const k of Object.keys(o)) this.value(this.keyOf(k), o[k]);
+    this.close();
+  }
+  /** The key of a member of a plain value (kept for the next time: such keys are few). */
+  private keyOf(name: string): JsonKey {
+    let k = this.keys.get(name);
+    if (k === undefined) {
+      k = jsonKey(name);
+      if (this.keys.size < 1024) this.keys.set(name, k);
+    }
+    return k;
+  }
+  open(key: JsonKey | null): void {
+    this.member(key);
+    this.buf[this.pos++] = 0x7b; // {
+    this.depth++;
+    this.first = true;
+  }
+  close(): void {
+    this.leave('}');
+  }
+  openArray(key: JsonKey | null): void {
+    this.member(key);
+    this.buf[this.pos++] = 0x5b; // [
+    this.depth++;
+    this.first = true;
+  }
+  closeArray(): void {
+    this.leave(']');
+  }
+  private leave(bracket: '}' | ']'): void {
+    this.depth--;
+    if (this.pos > PIECE_BYTES) this.flush();
+    if (this.first) this.buf[this.pos++] = bracket === '}' ? 0x7d : 0x5d;
+    else this.lead(closeOf(this.depth, bracket));
+    this.first = false;
+  }
+}
