@@ -321,7 +321,7 @@ function writeProcess(w: JsonWriter, p: ProcessResult, line: number): void {
   w.close();
 }
 
-/** One file of the `eval --format json` document (an object): its states and mixes, its processes and its diagnostics. */
+/** One file of the `eval --format json` document (an object): its states and mixes, processes and diagnostics. */
 function writeEvalFile(w: JsonWriter, f: FileResult): void {
   const lines = new ItemLines(f.lines);
   const items = f.analysis.items;

@@ -140,7 +140,7 @@ describe('eval --format json, written in pieces', () => {
 });
 
 describe('eval --format json, written without the objects', () => {
-  it('gives every note of the repository the text JSON.stringify gives its objects, and the notes hold every part of the shape', () => {
+  it('gives every note in the repository the text JSON.stringify gives its objects; the notes hold every part', () => {
     const notes = [
       ...notesBelow(join(repo, 'test', 'fixtures')),
       ...notesBelow(join(repo, 'examples')),
