@@ -9,8 +9,11 @@
  * - the whole job: `dewmark eval --format json` on a note of 100,000 (db, rh) states against a Node
  *   script computing the same states with PsychroLib (npm psychrolib, the test oracle) and printing
  *   them as JSON; whole processes, runs alternated, medians; the ratio (goal ≤ 0.5);
- * - the language server over stdio without V8 flags: resident memory after 10,000 edits of a
- *   2,000-line note (goal ≤ 80 MB).
+ * - the language server over stdio without Node options: resident memory after 10,000 edits of a
+ *   2,602-line note, measured as soon as the last edit's diagnostics arrive (goal ≤ 80 MB), with the
+ *   server's CPU time per edit, its resident memory after opening the note, and after 10 s without
+ *   edits (V8's memory reducer collects the heap down to its live size once the process has been
+ *   idle for about 8 s after its last full collection).
  * Run alone: `npm run bench -- hostile` (builds first) or `node --import tsx bench/hostile.ts`.
  */
 import { spawnSync } from 'node:child_process';
@@ -237,8 +240,20 @@ function rssOf(pid: number): number | null {
   }
 }
 
+function cpuMsOf(pid: number): number | null {
+  try {
+    const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+    // utime and stime, fields 14 and 15 of /proc/PID/stat (11 and 12 after the name), in ticks of 10 ms
+    return (Number(fields[11]) + Number(fields[12])) * 10;
+  } catch {
+    return null;
+  }
+}
+
 async function serverMemory(): Promise<void> {
   const EDITS = 10_000;
+  /** The pause after the edits, before the last figure (see the module comment). */
+  const PAUSE_MS = 10_000;
   const lines = ['# Riverside campus (invented)', ''];
   for (let b = 0; b < 200; b++) {
     lines.push(`## Plant room ${b}`, '', '```air');
@@ -251,6 +266,9 @@ async function serverMemory(): Promise<void> {
     const uri = 'file:///bench/edits.md';
     await s.open(uri, lines.join('\n'));
     await s.diagnosticsFor(uri, 1);
+    const pid = s.proc.pid;
+    const rssOpen = pid ? rssOf(pid) : null;
+    const cpuOpen = pid ? cpuMsOf(pid) : null;
     const line = 5; // `state R0_0: db=18C …`: the digit after `db=1` is replaced back and forth
     for (let v = 2; v <= EDITS + 1; v++) {
       await s.change(uri, v, [
@@ -259,16 +277,28 @@ async function serverMemory(): Promise<void> {
       if (v % 50 === 0) await s.diagnosticsFor(uri, v);
     }
     await s.diagnosticsFor(uri, EDITS + 1);
-    const pid = s.proc.pid;
+    const rss = pid ? rssOf(pid) : null;
+    const cpuEdits = pid ? cpuMsOf(pid) : null;
     console.log(
       goalRow(
-        `server RSS after ${EDITS} edits of a ${lines.length}-line note (stdio, no V8 flags)`,
-        pid ? rssOf(pid) : null,
+        `server RSS after ${EDITS} edits of a ${lines.length}-line note (stdio, no Node options)`,
+        rss,
         'MB',
         80,
         1,
       ),
     );
+    console.log(infoRow('  server RSS after opening the note', rssOpen, 'MB', 1));
+    console.log(
+      infoRow(
+        '  server CPU time per edit (mean, /proc stat)',
+        cpuEdits !== null && cpuOpen !== null ? (cpuEdits - cpuOpen) / EDITS : null,
+        'ms',
+        3,
+      ),
+    );
+    await new Promise((resolve) => setTimeout(resolve, PAUSE_MS));
+    console.log(infoRow(`  server RSS after ${PAUSE_MS / 1000} s without edits`, pid ? rssOf(pid) : null, 'MB', 1));
     await s.shutdown();
   } finally {
     s.kill();
