@@ -195,6 +195,19 @@ class StatementParser {
     return this.statement();
   }
 
+  /**
+   * Lets go of what the last statements read refer to (the document's text and pieces, the
+   * diagnostics list, the scratch stack's entries), once a caller is done with a run of them: the
+   * parser outlives every document, and should not keep the last one alive.
+   */
+  release(): void {
+    this.text = '';
+    this.segs = [];
+    this.diagnostics = [];
+    this.propStack.length = 0;
+    this.propTop = 0;
+  }
+
   // --- cursor -------------------------------------------------------------------------------
 
   /** Skips whitespace, moving on to the next piece at the end of one. */
@@ -1242,6 +1255,7 @@ export function parseStatementText(text: string, start: number, end: number, ori
 export function parseStatementPieces(text: string, pieces: readonly Span[], origin: StatementOrigin): StatementParse {
   const diagnostics: CoreDiagnostic[] = [];
   const statement = shared.parse(text, pieces, origin, diagnostics);
+  shared.release();
   return { statement, diagnostics };
 }
 
@@ -1282,5 +1296,6 @@ export function parseNote(text: string): ParsedNote {
     return { regions: [], headings: [], statements, diagnostics };
   }
   for (const region of extracted.regions) regionStatements(text, region, statements, diagnostics);
+  shared.release();
   return { regions: extracted.regions, headings: extracted.headings, statements, diagnostics };
 }
