@@ -159,6 +159,9 @@ const PIECE_BYTES = 1 << 15;
 /** A string or key at most this long is written into the buffer; a longer one is handed out on its own. */
 const LONG_TEXT = 4096;
 
+/** Strings this long or longer that come again are written from words made once (see {@link TextWriter.str}). */
+const REPEATED_FROM = 12;
+
 /** Whether `c` (a UTF-16 code unit) is written in a JSON string as itself, and in one byte. */
 const plainAscii = (c: number): boolean => c >= 0x20 && c < 0x7f && c !== 0x22 && c !== 0x5c;
 
@@ -240,6 +243,10 @@ export class TextWriter implements JsonWriter {
   private first = true;
   /** Whether nothing is open: the next value is the top one and has no line of its own. */
   private top = true;
+  /** The last string of {@link REPEATED_FROM} characters or more, and one that came twice running (with its text). */
+  private lastLong: string | null = null;
+  private repeated: string | null = null;
+  private repeatedText: Lead | null = null;
   /** The keys of the members of plain values ({@link TextWriter.value}). */
   private readonly keys = new Map<string, JsonKey>();
 
@@ -338,11 +345,27 @@ export class TextWriter implements JsonWriter {
     const rest = (m - g1 * 1e8) | 0;
     const g2 = (rest / 10000) | 0;
     const g3 = rest - g2 * 10000;
+    // The zeros M ends with (the text drops those after the point), counted a group at a time.
+    let zeros = 0;
+    let t = g3;
+    if (t === 0) {
+      zeros = 4;
+      t = g2;
+      if (t === 0) {
+        zeros = 8;
+        t = g1;
+      }
+    }
+    while (t % 10 === 0) {
+      zeros++;
+      t = (t / 10) | 0;
+    }
+    // Digits after the point that are kept: those of the s decimals that are not trailing zeros.
+    const decimals = s > zeros ? s - zeros : 0;
     const buf = this.buf;
     const view = this.view;
     let p = this.pos;
     if (x < 0) buf[p++] = 0x2d; // -
-    let end: number;
     if (s < 12) {
       // 12 − s digits before the point: the digits are written one byte on, and those moved back.
       view.setUint32(p + 1, FOUR_DIGITS[g1]!, true);
@@ -351,7 +374,7 @@ export class TextWriter implements JsonWriter {
       const point = p + 12 - s;
       for (let i = p; i < point; i++) buf[i] = buf[i + 1]!;
       buf[point] = 0x2e; // .
-      end = p + 13;
+      this.pos = decimals > 0 ? point + 1 + decimals : point;
     } else {
       // Below 1: `0.`, s − 12 zeros, the digits.
       buf[p++] = 0x30;
@@ -360,12 +383,8 @@ export class TextWriter implements JsonWriter {
       view.setUint32(p, FOUR_DIGITS[g1]!, true);
       view.setUint32(p + 4, FOUR_DIGITS[g2]!, true);
       view.setUint32(p + 8, FOUR_DIGITS[g3]!, true);
-      end = p + 12;
+      this.pos = p + 12 - zeros;
     }
-    // Trailing zeros after the point dropped, and the point when nothing follows it.
-    while (buf[end - 1] === 0x30) end--;
-    if (buf[end - 1] === 0x2e) end--;
-    this.pos = end;
   }
   num(key: JsonKey | null, v: number): void {
     this.member(key);
@@ -376,6 +395,10 @@ export class TextWriter implements JsonWriter {
     this.member(key);
     if (v === null || v === undefined) {
       this.ascii('null');
+      return;
+    }
+    if (v === this.repeated) {
+      this.lead(this.repeatedText!);
       return;
     }
     const n = v.length;
@@ -394,6 +417,12 @@ export class TextWriter implements JsonWriter {
       if (i === n) {
         buf[p++] = 0x22;
         this.pos = p;
+        // A longer string is kept as words, for when it comes again next (every state's pressure).
+        if (n >= REPEATED_FROM && v !== this.lastLong) this.lastLong = v;
+        else if (n >= REPEATED_FROM) {
+          this.repeated = v;
+          this.repeatedText = makeLead(buf.subarray(start, p));
+        }
         return;
       }
     }

@@ -161,10 +161,18 @@ function exitCodeFor(t: Totals, maxWarnings: number | null): number {
 
 /** Collects output and writes it in large pieces (a write per line is slow on a pipe). */
 class OutBuffer {
+  /** Characters of a piece large enough to be written on its own. */
+  private static readonly LARGE = 1 << 14;
   private parts: string[] = [];
   private size = 0;
   constructor(private readonly io: CliIO) {}
   push(text: string): void {
+    if (text.length >= OutBuffer.LARGE) {
+      // A large piece (of the eval JSON) goes out as it is, after what came before it: no copy.
+      this.flush();
+      this.io.out(text);
+      return;
+    }
     this.parts.push(text);
     this.size += text.length;
     if (this.size >= 1 << 16) this.flush();
