@@ -1,7 +1,7 @@
 /**
  * The evaluator's work per statement, counted (never timed): the Map look-ups it makes. A note of
- * n states without references records each name once, in the pre-scan's table, and makes no map
- * of names while it is evaluated (`analysis.byName` is made at its first read, with the same
+ * n states without references records each name once, in the registry of names, and makes no
+ * map of names while it is evaluated (`analysis.byName` is made at its first read, with the same
  * names, order and items); the other look-ups are the units of the written figures. The note is
  * invented; no figure is checked here.
  */
@@ -42,7 +42,7 @@ afterEach(() => {
 });
 
 describe('evaluator cost: the names of a note', () => {
-  it('makes four Map look-ups per state: two for its name (the pre-scan), one per unit written', () => {
+  it('makes four Map look-ups per state: two to register its name, one per unit written', () => {
     for (const n of [500, 2000]) {
       const text = statesNote(n);
       const parsed = parseNote(text);
@@ -52,9 +52,8 @@ describe('evaluator cost: the names of a note', () => {
       });
       expect(items).toBe(n); // the count does see every state evaluated
       expect(ops).toBeGreaterThanOrEqual(n); // every name is recorded
-      // The pre-scan's has+set per name and the unit of db= and of rh=; registering a state's own
-      // name and storing its item look nothing up (they were 5 more per state: a second table of
-      // names and the map of names).
+      // A get and a set to register each name, and the unit of db= and of rh=; storing the item
+      // looks nothing up (it was 5 more per state: a second table of names and the map of names).
       expect(ops).toBeLessThanOrEqual(4 * n + 64);
     }
   });

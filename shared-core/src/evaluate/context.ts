@@ -34,9 +34,9 @@ export class EvalContext {
   private byNameMap: Map<string, EvaluatedItem> | null = null;
   readonly references: { name: string; span: Span; statement: Statement }[] = [];
   /**
-   * The names the note defines, found before evaluation (the pre-scan), for `used-before-defined`
-   * and suggestions: the first definition of each name owns it. With {@link owners} it is the
-   * registry of names, so evaluating a statement adds no second record of its name.
+   * The names the note defines: those registered so far (the first definition of each name owns
+   * it), and those further down for `used-before-defined` and suggestions. With {@link owners} it
+   * is the registry of names.
    */
   readonly names: NoteNames;
   units: UnitSystem;
@@ -59,7 +59,7 @@ export class EvalContext {
    * @param units  the note's unit system: that of its `units:` line when it has one, else the
    *               setting's (found before evaluation, so that every message speaks the note's
    *               units wherever the line stands).
-   * @param names  the names the note defines (the pre-scan).
+   * @param names  the names the note defines (none registered yet).
    */
   constructor(settings: EvaluateSettings, text: string | undefined, units: UnitSystem, names: NoteNames) {
     this.settings = settings;
@@ -112,12 +112,11 @@ export class EvalContext {
   }
 
   /**
-   * Registers the name `node` written in statement `index` (a definition the pre-scan found):
-   * true when it is the name's first definition, which owns the name; else reports
-   * `duplicate-name` and returns false.
+   * Registers the name `node` written in statement `index`: true when it is the name's first
+   * definition, which owns the name; else reports `duplicate-name` and returns false.
    */
   define(node: NameNode, index: number): boolean {
-    if (this.names.owns(node, index)) return true;
+    if (this.names.define(node, index)) return true;
     const name = node.text;
     const first = this.names.firstDef(name)!;
     this.report({

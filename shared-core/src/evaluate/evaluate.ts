@@ -194,7 +194,7 @@ function evaluateStatement(ctx: EvalContext, stmt: Statement, index: number, reu
     case 'process': {
       if (!stmt.name) return;
       const owner = ctx.define(stmt.name, index);
-      if (ctx.names.derivesLeaving(index) && stmt.to) {
+      if (stmt.to && ctx.names.derivesLeaving(stmt)) {
         // It defines its leaving state too (evaluated every time: it is cheap, and what it
         // defines is new on every run).
         const toOwner = ctx.define(stmt.to, index);
@@ -287,7 +287,7 @@ export function* evaluateSteps(
 ): Generator<void, Analysis, void> {
   const resolved = resolveSettings(settings);
   const statements = Array.isArray(parsed?.statements) ? parsed.statements : [];
-  const ctx = new EvalContext(resolved, text, noteUnits(statements, resolved.units), new NoteNames(statements).scan());
+  const ctx = new EvalContext(resolved, text, noteUnits(statements, resolved.units), new NoteNames(statements));
   if (reuse) {
     ctx.solve = reuse.solve;
     ctx.site = reuse.basis(ctx.site);
