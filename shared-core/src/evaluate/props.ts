@@ -46,7 +46,10 @@ export function readProps(
   what: string,
   refs: RefSite,
 ): ReadProps {
-  const out: ReadProp[] = [];
+  // At most one property read per written one: sized once (a growing list would take room for
+  // 16 at its first element), cut to the number read at the end.
+  const out: ReadProp[] = new Array<ReadProp>(props.length);
+  let n = 0;
   // Made at the first key that cannot be read (most statements have none).
   let broken: string[] | null = null;
   let unknownKeys = 0;
@@ -96,7 +99,7 @@ export function readProps(
         broken = appended(broken, prop.key);
         continue;
       }
-      out.push({ key: prop.key, spec, prop, q: r.q, ref: r.ref });
+      out[n++] = { key: prop.key, spec, prop, q: r.q, ref: r.ref };
       continue;
     }
     if (prop.value === null) {
@@ -110,7 +113,8 @@ export function readProps(
       broken = appended(broken, prop.key);
       continue;
     }
-    out.push({ key: prop.key, spec, prop, q: r.value, ref: undefined });
+    out[n++] = { key: prop.key, spec, prop, q: r.value, ref: undefined };
   }
+  out.length = n;
   return { props: out, broken: broken ?? NO_KEYS, unknownKeys };
 }
