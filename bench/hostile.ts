@@ -12,8 +12,9 @@
  * - the language server over stdio without Node options: resident memory after 10,000 edits of a
  *   2,602-line note, measured as soon as the last edit's diagnostics arrive (goal ≤ 80 MB), with the
  *   server's CPU time per edit, its resident memory after opening the note, and after 10 s without
- *   edits (V8's memory reducer collects the heap down to its live size once the process has been
- *   idle for about 8 s after its last full collection).
+ *   edits (V8's memory reducer may have collected the heap down to its live size by then: it acts
+ *   about 8 s after a full collection that found the heap some 10 MB larger than when it last
+ *   acted, so this figure is the live size in some runs and unchanged in others).
  * Run alone: `npm run bench -- hostile` (builds first) or `node --import tsx bench/hostile.ts`.
  */
 import { spawnSync } from 'node:child_process';

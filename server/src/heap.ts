@@ -26,8 +26,10 @@
  * Setting the growth factor before the modules load instead (the young generation frozen at 2 × 1
  * MB) saved another 3.5 MB after the 10,000 edits of the 2,602-line bench note (74.6 MB against
  * 78.1 MB), but took 1.45 × the CPU (twice the scavenges, three times the full collections: 51 s
- * against 35 s at load 7–8), so it stays after them. When edits pause, V8's memory reducer (about
- * 8 s after its last full collection) brings the heap down to its live size: 62 MB on that note.
+ * against 35 s at load 7–8), so it stays after them. When edits pause, V8's memory reducer may
+ * bring the heap down to its live size (62 MB on that note), but only about 8 s after a full
+ * collection that found the heap some 10 MB larger than when the reducer last acted, so after the
+ * bench's 10 s pause the figure was 62 MB in some runs and unchanged in others.
  */
 import { setFlagsFromString } from 'node:v8';
 
