@@ -217,10 +217,21 @@ const TRUE = makeLead(Buffer.from('true'));
 const FALSE = makeLead(Buffer.from('false'));
 
 /** The four ASCII digits of 0 … 9999 (with leading zeros), as little-endian words (the first digit lowest). */
-const FOUR_DIGITS = new Uint32Array(10000);
-for (let i = 0; i < 10000; i++) {
-  const d = (k: number): number => 0x30 + (Math.floor(i / k) % 10);
-  FOUR_DIGITS[i] = (d(1000) | (d(100) << 8) | (d(10) << 16) | (d(1) << 24)) >>> 0;
+let fourDigitWords: Uint32Array | null = null;
+
+/** The four-digit words, made by the first writer (no cost for a command that writes no JSON text). */
+function fourDigits(): Uint32Array {
+  if (fourDigitWords) return fourDigitWords;
+  const t = new Uint32Array(10000);
+  for (let i = 0; i < 10000; i++) {
+    const a = 0x30 + ((i / 1000) | 0);
+    const b = 0x30 + (((i / 100) | 0) % 10);
+    const c = 0x30 + (((i / 10) | 0) % 10);
+    const d = 0x30 + (i % 10);
+    t[i] = (a | (b << 8) | (c << 16) | (d << 24)) >>> 0;
+  }
+  fourDigitWords = t;
+  return t;
 }
 
 /**
@@ -249,6 +260,8 @@ export class TextWriter implements JsonWriter {
   private repeatedText: Lead | null = null;
   /** The keys of the members of plain values ({@link TextWriter.value}). */
   private readonly keys = new Map<string, JsonKey>();
+  /** The four ASCII digits of 0 … 9999, as words (see {@link fourDigits}). */
+  private readonly fourDigits = fourDigits();
 
   constructor(
     depth: number,
@@ -364,13 +377,14 @@ export class TextWriter implements JsonWriter {
     const decimals = s > zeros ? s - zeros : 0;
     const buf = this.buf;
     const view = this.view;
+    const digits = this.fourDigits;
     let p = this.pos;
     if (x < 0) buf[p++] = 0x2d; // -
     if (s < 12) {
       // 12 − s digits before the point: the digits are written one byte on, and those moved back.
-      view.setUint32(p + 1, FOUR_DIGITS[g1]!, true);
-      view.setUint32(p + 5, FOUR_DIGITS[g2]!, true);
-      view.setUint32(p + 9, FOUR_DIGITS[g3]!, true);
+      view.setUint32(p + 1, digits[g1]!, true);
+      view.setUint32(p + 5, digits[g2]!, true);
+      view.setUint32(p + 9, digits[g3]!, true);
       const point = p + 12 - s;
       for (let i = p; i < point; i++) buf[i] = buf[i + 1]!;
       buf[point] = 0x2e; // .
@@ -380,9 +394,9 @@ export class TextWriter implements JsonWriter {
       buf[p++] = 0x30;
       buf[p++] = 0x2e;
       for (let i = s; i > 12; i--) buf[p++] = 0x30;
-      view.setUint32(p, FOUR_DIGITS[g1]!, true);
-      view.setUint32(p + 4, FOUR_DIGITS[g2]!, true);
-      view.setUint32(p + 8, FOUR_DIGITS[g3]!, true);
+      view.setUint32(p, digits[g1]!, true);
+      view.setUint32(p + 4, digits[g2]!, true);
+      view.setUint32(p + 8, digits[g3]!, true);
       this.pos = p + 12 - zeros;
     }
   }
