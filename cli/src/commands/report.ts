@@ -172,10 +172,10 @@ below 0 °C are taken over ice and dew points below 0 °C are frost points.</li>
 <li>Humidity ratio from vapour pressure, enthalpy (dry air 0 at 0 °C, water from liquid at 0 \
 °C; in IP units the dry-air datum is 0 °F) and specific volume from the chapter's equations; \
 thermodynamic wet-bulb from the chapter's wet-bulb energy balance, solved by a bounded iteration.</li>
-<li>Barometric pressure from a <code>site:</code> line, a state's own <code>p=</code>/<code>elev=</code>\
-, or the default; elevation is converted by the standard-atmosphere equation of the same chapter.</li>
-<li>Mixing: adiabatic, by dry-air mass and energy balance (humidity ratio and enthalpy mass-weighted);\
- a volume flow is converted to dry-air mass flow at its own stream's specific volume.</li>
+<li>Barometric pressure from a <code>site:</code> line, a state's own <code>p=</code>/<code>elev=</code>, \
+or the default; elevation is converted by the standard-atmosphere equation of the same chapter.</li>
+<li>Mixing: adiabatic, by dry-air mass and energy balance (humidity ratio and enthalpy mass-weighted); \
+a volume flow is converted to dry-air mass flow at its own stream's specific volume.</li>
 <li>Processes: at one dry-air flow; total heat from the enthalpy change, split into \
 sensible and latent parts; moisture added or removed from the humidity-ratio change.</li>
 <li>Valid range of the formulation: −100 °C to 200 °C. IP figures are exact conversions of the SI results.</li>
@@ -489,8 +489,8 @@ ${pressureSection(a, lines, text)}
 <section aria-labelledby="h-method"><h2 class="part" id="h-method">Method and sources</h2>
 ${METHOD}
 </section>
-<footer><p>Made by dewmark${opts.version ? ` ${escapeHtml(opts.version)}` : ''} from <code>${escapeHtml(path)}</code>\
- (SHA-256 ${digest.slice(0, 12)}…) on ${escapeHtml(generated)}. ${escapeHtml(CAUTION)}</p></footer>
+<footer><p>Made by dewmark${opts.version ? ` ${escapeHtml(opts.version)}` : ''} from <code>${escapeHtml(path)}</code> \
+(SHA-256 ${digest.slice(0, 12)}…) on ${escapeHtml(generated)}. ${escapeHtml(CAUTION)}</p></footer>
 </main>
 </body>
 </html>
