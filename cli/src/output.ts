@@ -46,7 +46,8 @@ export function diagnosticJson(f: FileResult, d: CoreDiagnostic): DiagnosticJson
 /** `path:line:col: severity[code]: message` (the form CI problem matchers read). */
 export function diagnosticLine(f: FileResult, d: CoreDiagnostic): string {
   const j = diagnosticJson(f, d);
-  return `${safeLinePath(f.path)}:${j.line}:${j.column}: ${j.severity}[${j.code}]: ${safeText(j.message.replace(/\s*\n\s*/g, ' '))}`;
+  const message = safeText(j.message.replace(/\s*\n\s*/g, ' '));
+  return `${safeLinePath(f.path)}:${j.line}:${j.column}: ${j.severity}[${j.code}]: ${message}`;
 }
 
 /** Counts of diagnostics by severity. */

@@ -94,7 +94,8 @@ export function renderFile(
       return { text: pieces.join(''), json: null, counts };
     }
     case 'eval-table': {
-      let t = `${safeLinePath(f.path)}  (results in ${f.analysis.units}${f.analysis.unitsSource === 'note' ? ', from the note' : ''})\n\n`;
+      const from = f.analysis.unitsSource === 'note' ? ', from the note' : '';
+      let t = `${safeLinePath(f.path)}  (results in ${f.analysis.units}${from})\n\n`;
       const st = statesTable(f);
       const pr = processesTable(f);
       if (st) t += `States\n${st}\n\n`;
@@ -110,7 +111,10 @@ export function renderFile(
   }
 }
 
-/** Reads (unless the text is given) and renders one task (its output to `emit` when given, see {@link renderFile}); never throws. */
+/**
+ * Reads (unless the text is given) and renders one task (its output to `emit` when given, see
+ * {@link renderFile}); never throws.
+ */
 export function runTask(task: Task, mode: Mode, settings: Partial<EvaluateSettings>, emit?: Emit): TaskResult {
   const read =
     task.text !== undefined
@@ -124,7 +128,9 @@ export function runTask(task: Task, mode: Mode, settings: Partial<EvaluateSettin
   } catch (err) {
     return {
       ok: false,
-      message: `'${task.input.display}' could not be checked (${err instanceof Error ? err.message : String(err)}); please report it with the note`,
+      message:
+        `'${task.input.display}' could not be checked ` +
+        `(${err instanceof Error ? err.message : String(err)}); please report it with the note`,
     };
   }
 }
@@ -142,7 +148,10 @@ interface Batch {
   tasks: Task[];
 }
 
-/** In a worker thread started by {@link runTasks}: does the batches it is sent and posts their results. Returns true when it was one. */
+/**
+ * In a worker thread started by {@link runTasks}: does the batches it is sent and posts their
+ * results. Returns true when it was one.
+ */
 export function workerMain(): boolean {
   if (isMainThread || !parentPort) return false;
   const job = workerData as WorkerJob | undefined;

@@ -3,7 +3,8 @@
  * folders (reading only; nothing is written), analyses it, and pushes its diagnostics. The notes
  * are the ones `dewmark check <folder>` reads (`@dewmark/files`: .gitignore and
  * .git/info/exclude honoured, node_modules and hidden folders left out, links not followed), read
- * the same way; a note its project file `dewmark.json` leaves out is listed as excluded and not read. Reports work-done progress and stops between folders and files when cancelled.
+ * the same way; a note its project file `dewmark.json` leaves out is listed as excluded and not
+ * read. Reports work-done progress and stops between folders and files when cancelled.
  */
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import type { CancellationToken, WorkDoneProgressReporter } from 'vscode-languageserver/node';
@@ -52,13 +53,17 @@ export function localFolderPath(uri: string): string | { reason: string } {
   const scheme = /^([a-z][a-z0-9+.-]*):/i.exec(uri)?.[1]?.toLowerCase();
   if (scheme !== 'file')
     return {
-      reason: `not a folder on this machine's disk (${scheme ? `'${scheme}:'` : 'no'} scheme); only file: folders are checked`,
+      reason:
+        `not a folder on this machine's disk (${scheme ? `'${scheme}:'` : 'no'} ` +
+        `scheme); only file: folders are checked`,
     };
   try {
     return fileURLToPath(uri);
   } catch (err) {
     return {
-      reason: `not a local path (${err instanceof Error ? err.message : String(err)}); only folders on this machine are checked`,
+      reason:
+        `not a local path (${err instanceof Error ? err.message : String(err)}); ` +
+        `only folders on this machine are checked`,
     };
   }
 }

@@ -4,8 +4,9 @@
  * defaults (Neovim 0.7 offers none of these). Over them, the nearest project file `dewmark.json`
  * above the note sets what it names: the editor's settings fill only what it leaves open. Which
  * project files can be read is the host's ({@link ProjectFiles}: local notes' on the Node server,
- * notes inside a workspace folder through the client in the web build). Project files are re-read when the client reports one changed (watched files) and
- * after a settings change. Invalid values are reported once and replaced by their defaults.
+ * notes inside a workspace folder through the client in the web build). Project files are re-read when the client
+ * reports one changed (watched files) and after a settings change. Invalid values are reported once and replaced by
+ * their defaults.
  */
 import {
   DidChangeConfigurationNotification,
@@ -40,7 +41,9 @@ export class Configuration {
   /** The workspace folders' URIs, kept current by the server: project files are named relative to them. */
   folders: () => readonly string[] = () => [];
 
-  /** `projectFiles` reads the project files (the disk for the Node server, the client's file system for the web build). */
+  /**
+   * `projectFiles` reads the project files (the disk for the Node server, the client's file system for the web build).
+   */
   constructor(
     private readonly connection: Connection,
     private readonly projectFiles: ProjectFiles,

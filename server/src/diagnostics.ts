@@ -116,7 +116,10 @@ export class Diagnostics {
     this.pushedClosed.add(uri);
   }
 
-  /** Clears what a workspace check pushed for a closed file that is no longer checked (its project file now leaves it out). */
+  /**
+   * Clears what a workspace check pushed for a closed file that
+   * is no longer checked (its project file now leaves it out).
+   */
   clearClosed(uri: string): void {
     if (this.pushedClosed.delete(uri)) void this.ctx.connection.sendDiagnostics({ uri, diagnostics: [] });
   }

@@ -34,7 +34,9 @@ interface Running {
   result: Promise<NoteDocument | null>;
 }
 
-/** Work done before the event loop is given a turn, ms (short enough that a keystroke's request is not kept waiting). */
+/**
+ * Work done before the event loop is given a turn, ms (short enough that a keystroke's request is not kept waiting).
+ */
 const SLICE_MS = 8;
 
 /** The open documents and their analyses. */

@@ -51,7 +51,8 @@ export class ShutdownGate {
       const method = typeof params?.method === 'string' ? params.method : 'a request';
       throw new ResponseError(
         ErrorCodes.InvalidRequest,
-        `The server has shut down: '${method}' is not accepted after 'shutdown'; only the 'exit' notification is. Restart the server to continue.`,
+        `The server has shut down: '${method}' is not accepted after 'shutdown'; ` +
+          `only the 'exit' notification is. Restart the server to continue.`,
       );
     });
   }

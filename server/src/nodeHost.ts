@@ -1,8 +1,8 @@
 /**
  * What the Node server does with the file system: project files `dewmark.json` read from the disk
  * above a local note (`file:` URIs; other schemes have none), with their include/exclude decided
- * by `@dewmark/files` (./projectScope), and the workspace check (./checkWorkspace). The web build has neither (./browserMain), so nothing here may be imported
- * by the code the two builds share.
+ * by `@dewmark/files` (./projectScope), and the workspace check (./checkWorkspace). The web build has neither
+ * (./browserMain), so nothing here may be imported by the code the two builds share.
  */
 import { dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';

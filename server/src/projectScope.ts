@@ -26,7 +26,9 @@ export function projectLabel(path: string, folders: readonly string[]): string {
   return best === undefined ? path : best.split(sep).join('/');
 }
 
-/** The settings fields `project` decides for the note at `uri`: where its values came from, and whether it is left out. */
+/**
+ * The settings fields `project` decides for the note at `uri`: where its values came from, and whether it is left out.
+ */
 export function projectScope(
   project: ProjectConfig,
   uri: string,

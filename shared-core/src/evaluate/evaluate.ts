@@ -60,7 +60,9 @@ function evaluateSite(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'sit
       ctx.report({
         code: 'underspecified',
         severity: 'error',
-        message: `site: sets nothing; write the pressure (site: ${exampleIn('p', ctx.units)}) or the elevation (site: ${exampleIn('elev', ctx.units)})`,
+        message:
+          `site: sets nothing; write the pressure (site: ${exampleIn('p', ctx.units)}) ` +
+          `or the elevation (site: ${exampleIn('elev', ctx.units)})`,
         span: stmt.keywordSpan,
       });
     }
@@ -85,7 +87,9 @@ function evaluateUnits(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'un
     ctx.report({
       code: 'unknown-unit-system',
       severity: 'error',
-      message: `'${word.text}' is not a unit system; write units: SI or units: IP${guess ? ` (did you mean ${guess}?)` : ''}`,
+      message:
+        `'${word.text}' is not a unit system; write units: SI ` +
+        `or units: IP${guess ? ` (did you mean ${guess}?)` : ''}`,
       span: word.span,
       data: guess ? { suggestion: guess } : {},
     });
@@ -95,7 +99,9 @@ function evaluateUnits(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'un
     ctx.report({
       code: 'units-conflict',
       severity: 'warning',
-      message: `a units: ${ctx.units} line is already in this note; results are shown in ${ctx.units}. Keep one units: line`,
+      message:
+        `a units: ${ctx.units} line is already in this note; ` +
+        `results are shown in ${ctx.units}. Keep one units: line`,
       span: word.span,
       related: ctx.unitsSpan ? [{ span: ctx.unitsSpan, message: `units: ${ctx.units}` }] : undefined,
     });
@@ -302,7 +308,9 @@ export function* evaluateSteps(
       ctx.report({
         code: 'internal-error',
         severity: 'error',
-        message: `this statement could not be evaluated (${err instanceof Error ? err.message : String(err)}); please report it with the note`,
+        message:
+          `this statement could not be evaluated ` +
+          `(${err instanceof Error ? err.message : String(err)}); please report it with the note`,
         span: (stmt as Statement).span ?? { start: 0, end: 0 },
       });
     }

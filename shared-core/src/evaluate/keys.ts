@@ -23,7 +23,10 @@ export const PROCESS_KEYS = keysOf('process');
  */
 export const SUPPLY_KEYS = keysOf('supply');
 
-/** The process keys that define a leaving state: the equipment keys and the leaving state's properties (see `derive.ts`). */
+/**
+ * The process keys that define a leaving state: the equipment keys and the leaving state's
+ * properties (see `derive.ts`).
+ */
 export const DERIVE_KEY_NAMES: ReadonlySet<string> = new Set(
   KEYS.filter((k) => k.in.includes('process') && (k.kind === 'process-spec' || k.kind === 'property')).map(
     (k) => k.key,
@@ -36,7 +39,10 @@ export const PROCESS_WORDS: Readonly<Record<string, string>> = {
   adiabatic: 'an adiabatic (evaporative) humidifier or cooler: eff= (saturation effectiveness), or a target rh= or db=',
 };
 
-/** Keys of `recover` (heat recovery between two streams): per stream m=/q=, then the exchanger's (rows of the key table). */
+/**
+ * Keys of `recover` (heat recovery between two streams): per
+ * stream m=/q=, then the exchanger's (rows of the key table).
+ */
 export const RECOVER_KEYS: Readonly<Record<string, KeySpec>> = Object.fromEntries(
   ['m', 'q', 'eff_s', 'eff_l', 'q_sensible', 'q_total'].map((k) => [k, findKey(k)!]),
 );
@@ -44,7 +50,9 @@ export const RECOVER_KEYS: Readonly<Record<string, KeySpec>> = Object.fromEntrie
 /** Word-valued options of `recover`: `fog=ok` acknowledges condensation or frost the design accepts. */
 export const RECOVER_WORDS: Readonly<Record<string, readonly string[]>> = { fog: ['ok'] };
 
-/** The state keys that can define a state (v is a claim only; p and elev set the pressure): the table's defining rows. */
+/**
+ * The state keys that can define a state (v is a claim only; p and elev set the pressure): the table's defining rows.
+ */
 export const DEFINING_KEYS: readonly DefiningKey[] = KEYS.filter((k) => k.defining).map((k) => k.key as DefiningKey);
 
 /** True when `key` can be one of the two defining properties. */

@@ -62,7 +62,9 @@ export function readProps(
       ctx.report({
         code: 'unknown-key',
         severity: 'error',
-        message: `'${prop.key}' is not a property of ${what}; ${suggestion ? `did you mean ${suggestion}=…? ` : ''}the keys are ${keys.join(', ')}`,
+        message:
+          `'${prop.key}' is not a property of ${what}; ` +
+          `${suggestion ? `did you mean ${suggestion}=…? ` : ''}the keys are ${keys.join(', ')}`,
         span: prop.keySpan,
         data: suggestion ? { key: prop.key, suggestion } : { key: prop.key },
       });

@@ -219,7 +219,9 @@ function claimsBeyondPair(
   );
 }
 
-/** The pressure of a state: its own p= / elev=, else the site pressure; `failed` when the override could not be read. */
+/**
+ * The pressure of a state: its own p= / elev=, else the site pressure; `failed` when the override could not be read.
+ */
 function statePressure(
   ctx: EvalContext,
   props: ReadProp[],
@@ -256,10 +258,15 @@ function definingCandidates(
     if (defs.length + brokenDefining.length + read.unknownKeys >= 2) return null;
     const has = defs.length === 1 ? `only ${writtenList(defs)}` : 'no defining property';
     const hasV = props.some((p) => p.key === 'v');
+    const missing = orList(DEFINING_KEYS.filter((k) => !defs.some((d) => d.key === k)));
+    const example = defs[0]?.key === 'db' ? 'rh=50%' : `${exampleIn('db', ctx.units)} rh=50%`;
     ctx.report({
       code: 'underspecified',
       severity: 'error',
-      message: `${what} has ${has}: two independent properties fix a state; add ${defs.length === 1 ? 'one more' : 'two'} of ${orList(DEFINING_KEYS.filter((k) => !defs.some((d) => d.key === k)))} (e.g. ${defs[0]?.key === 'db' ? 'rh=50%' : `${exampleIn('db', ctx.units)} rh=50%`})${hasV ? '; v is checked as a claim but cannot define a state' : ''}`,
+      message:
+        `${what} has ${has}: two independent properties fix a state; ` +
+        `add ${defs.length === 1 ? 'one more' : 'two'} of ${missing} (e.g. ${example})` +
+        `${hasV ? '; v is checked as a claim but cannot define a state' : ''}`,
       span: fallback,
     });
     return null;
@@ -269,7 +276,9 @@ function definingCandidates(
     ctx.report({
       code: 'bad-reference',
       severity: 'error',
-      message: `${what}: ${writtenList(refs)} are ${refs.length} properties taken from other states, but two fix a state and a reference always defines; write the others as figures (claims)`,
+      message:
+        `${what}: ${writtenList(refs)} are ${refs.length} properties taken from other states, ` +
+        `but two fix a state and a reference always defines; write the others as figures (claims)`,
       span: spanOf(new Map(), refs.slice(2)),
     });
     return null;
@@ -282,7 +291,10 @@ function definingCandidates(
     ctx.report({
       code: 'dependent-pair',
       severity: 'error',
-      message: `${what}: ${writtenList(pair)} fix the same thing (the moisture content) twice, so the state is not fixed; add ${thirdKindFor(a.key as DefiningKey, b.key as DefiningKey)}${refs.length > 0 ? ' (a reference always defines)' : ''}`,
+      message:
+        `${what}: ${writtenList(pair)} fix the same thing (the moisture content) twice, so the state is not fixed; ` +
+        `add ${thirdKindFor(a.key as DefiningKey, b.key as DefiningKey)}` +
+        `${refs.length > 0 ? ' (a reference always defines)' : ''}`,
       span: spanOf(new Map(), pair),
     });
     return null;
@@ -369,7 +381,9 @@ function solveFirstPair(
       ctx.report({
         code: 'ill-conditioned',
         severity: 'warning',
-        message: `${what}: ${writtenList([a, b])} are nearly parallel on the chart, so small changes in either move the state a lot; define it with db, dp, rh or w instead`,
+        message:
+          `${what}: ${writtenList([a, b])} are nearly parallel on the chart, so small ` +
+          `changes in either move the state a lot; define it with db, dp, rh or w instead`,
         span: spanOf(spans, [a, b]),
       });
     }
@@ -399,10 +413,11 @@ function reportNotFinite(
 ): void {
   const why = warnings.filter((w) => w.code === 'out-of-range' || w.code === 'pressure-below-saturation');
   if (why.length === 0) {
+    const pairText = writtenList([a, b]);
     ctx.report({
       code: 'out-of-range',
       severity: 'error',
-      message: `${what}: ${writtenList([a, b])} give a state with a property that has no finite value; check the figures`,
+      message: `${what}: ${pairText} give a state with a property that has no finite value; check the figures`,
       span,
     });
     return;
@@ -413,7 +428,8 @@ function reportNotFinite(
       severity: 'error',
       message: `${what}: ${problemTexts(w, ctx.units).message} ${
         w.code === 'pressure-below-saturation'
-          ? `Dewmark needs a state that can be saturated: lower the dry-bulb below the boiling point at ${pressureWord(pressure, ctx.units)}, or raise the pressure`
+          ? 'Dewmark needs a state that can be saturated: lower the dry-bulb below the boiling point ' +
+            `at ${pressureWord(pressure, ctx.units)}, or raise the pressure`
           : 'Dewmark needs every property finite: give a humidity ratio above zero'
       }`,
       span,

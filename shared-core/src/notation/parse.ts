@@ -62,7 +62,9 @@ import { differenceExample, findKey, referenceKeyFor } from '../vocabulary/keys'
 import { CODES, DIAGNOSTIC_CODES, type CodeFrom } from '../vocabulary/codes';
 import { SuggestIndex } from '../text/suggest';
 
-/** The diagnostic codes the parser reports, each with what it means (the registry's parser rows, `vocabulary/codes`). */
+/**
+ * The diagnostic codes the parser reports, each with what it means (the registry's parser rows, `vocabulary/codes`).
+ */
 export const SYNTAX_CODES = Object.freeze(
   Object.fromEntries(
     DIAGNOSTIC_CODES.filter((c) => (CODES[c].from as readonly string[]).includes('parser')).map((c) => [
@@ -156,7 +158,10 @@ function keywordAdvice(word: string): string {
     }
   }
   if (best && bestD === 2 && word.length >= 4) return `did you mean '${best}'?`;
-  return "a statement starts with 'site:', 'units:', 'state', 'mix', 'process', 'supply' or 'recover'; start a note line with '#'";
+  return (
+    "a statement starts with 'site:', 'units:', 'state', 'mix', " +
+    "'process', 'supply' or 'recover'; start a note line with '#'"
+  );
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -358,7 +363,8 @@ class StatementParser {
         this.skipRest();
         this.report(
           'syntax',
-          `unexpected '${this.text.slice(extraStart, this.lastEnd)}' after the unit system: 'units:' takes one word, SI or IP`,
+          `unexpected '${this.text.slice(extraStart, this.lastEnd)}' ` +
+            `after the unit system: 'units:' takes one word, SI or IP`,
           extraStart,
           this.lastEnd,
         );
@@ -458,7 +464,8 @@ class StatementParser {
           const at = this.peek() >= 0 ? this.pos : this.lastEnd;
           this.report(
             'syntax',
-            `a recover statement takes two streams separated by a comma: write recover ${self}: OA -> OA2, EA -> EA2 eff_s=0.70`,
+            `a recover statement takes two streams separated by a comma: ` +
+              `write recover ${self}: OA -> OA2, EA -> EA2 eff_s=0.70`,
             at,
             at,
           );
@@ -472,7 +479,8 @@ class StatementParser {
       this.skipRest();
       this.report(
         'syntax',
-        `unexpected '${this.text.slice(extraStart, this.lastEnd)}': a recover statement takes exactly two streams, OA -> OA2, EA -> EA2, then its properties`,
+        `unexpected '${this.text.slice(extraStart, this.lastEnd)}': a recover ` +
+          `statement takes exactly two streams, OA -> OA2, EA -> EA2, then its properties`,
         extraStart,
         this.lastEnd,
       );
@@ -562,7 +570,8 @@ class StatementParser {
     if (problem) {
       this.report(
         'bad-name',
-        `'${text.slice(start, end)}' is not a valid name: ${problem}; use a letter, then letters, digits, '_' or '-' (e.g. AHU-1_off)`,
+        `'${text.slice(start, end)}' is not a valid name: ${problem}; ` +
+          `use a letter, then letters, digits, '_' or '-' (e.g. AHU-1_off)`,
         start,
         end,
       );
@@ -612,7 +621,8 @@ class StatementParser {
       this.consume(rawEnd);
       this.report(
         'bad-name',
-        `'${this.text.slice(start, rawEnd)}' is not a valid name: use a letter, then letters, digits, '_' or '-' (e.g. ${example})`,
+        `'${this.text.slice(start, rawEnd)}' is not a valid name: use ` +
+          `a letter, then letters, digits, '_' or '-' (e.g. ${example})`,
         start,
         rawEnd,
       );
@@ -692,7 +702,8 @@ class StatementParser {
       } else if (name) {
         this.report(
           'missing-value',
-          `the stream '${name.text}' has no amount: write a dry-air mass fraction, a mass flow or a volume flow, e.g. ${name.text} 25%, ${name.text} 1.2kg/s or ${name.text} 1000L/s`,
+          `the stream '${name.text}' has no amount: write a dry-air mass fraction, a mass flow ` +
+            `or a volume flow, e.g. ${name.text} 25%, ${name.text} 1.2kg/s or ${name.text} 1000L/s`,
           name.span.start,
           name.span.end,
         );
@@ -912,7 +923,8 @@ class StatementParser {
       this.consume(tEnd);
       this.report(
         'missing-value',
-        `'${this.text.slice(tStart, tEnd)}' names no property after the dot: write ${key}=${state.text}.${referenceKeyFor(key)} (a property of ${state.text})`,
+        `'${this.text.slice(tStart, tEnd)}' names no property after the dot: ` +
+          `write ${key}=${state.text}.${referenceKeyFor(key)} (a property of ${state.text})`,
         tStart,
         tEnd,
       );
@@ -932,7 +944,9 @@ class StatementParser {
       this.consume(tEnd);
       this.report(
         'missing-value',
-        `'${this.text.slice(tStart, tEnd)}' needs a difference after the sign: write ${key}=${state.text}.${refKey.text}+${differenceExample(refKey.text)} (+ or − a difference with its unit)`,
+        `'${this.text.slice(tStart, tEnd)}' needs a difference after the sign: ` +
+          `write ${key}=${state.text}.${refKey.text}+${differenceExample(refKey.text)} ` +
+          `(+ or − a difference with its unit)`,
         tStart,
         tEnd,
       );
@@ -946,7 +960,9 @@ class StatementParser {
       this.consume(tEnd);
       this.report(
         'syntax',
-        `'${this.text.slice(start, tEnd)}' is not a property reference: write ${state.text}.${refKey.text}, or add or subtract a difference with its unit (${state.text}.${refKey.text}+${differenceExample(refKey.text)}); no other arithmetic`,
+        `'${this.text.slice(start, tEnd)}' is not a property reference: ` +
+          `write ${state.text}.${refKey.text}, or add or subtract a difference with its unit ` +
+          `(${state.text}.${refKey.text}+${differenceExample(refKey.text)}); no other arithmetic`,
         start,
         tEnd,
       );
@@ -992,7 +1008,8 @@ class StatementParser {
         tolerance = this.tolerance();
         this.report(
           'value-spacing',
-          `write the tolerance directly after the value, e.g. ${written}${this.text.slice(at, this.lastEnd).replace(/\s+/g, '')} (no space)`,
+          `write the tolerance directly after the value, ` +
+            `e.g. ${written}${this.text.slice(at, this.lastEnd).replace(/\s+/g, '')} (no space)`,
           at,
           this.lastEnd,
         );
@@ -1023,7 +1040,8 @@ class StatementParser {
       this.consume(tEnd);
       this.report(
         'bad-number',
-        `'${this.text.slice(tStart, tEnd)}' is not a number: write one decimal number,${numberExample(key, ' e.g. 24.5')}`,
+        `'${this.text.slice(tStart, tEnd)}' is not a number: write ` +
+          `one decimal number,${numberExample(key, ' e.g. 24.5')}`,
         tStart,
         tEnd,
       );
@@ -1048,7 +1066,8 @@ class StatementParser {
       this.consume(tEnd);
       this.report(
         'bad-number',
-        `'${this.text.slice(start, n.end)}' has an exponent too large to compute with: write the number without it,${numberExample(key, ' e.g. 0')}`,
+        `'${this.text.slice(start, n.end)}' has an exponent too large to compute ` +
+          `with: write the number without it,${numberExample(key, ' e.g. 0')}`,
         start,
         tEnd,
       );
@@ -1180,9 +1199,16 @@ function commaMessage(shown: string): string {
   const after = /,([0-9]*)$/.exec(numeric)?.[1] ?? '';
   const whole = numeric.replace(/^[+\-\u2212]/, '').split(',')[0] ?? '';
   if (commas === 1 && !numeric.includes('.') && after.length > 0 && (after.length < 3 || /^0*$/.test(whole))) {
-    return `'${shown}' is not a number: use a decimal point, not a comma (${shown.replace(',', '.')}); a comma is read only as a thousands separator (8,745)`;
+    return (
+      `'${shown}' is not a number: use a decimal point, not a comma ` +
+      `(${shown.replace(',', '.')}); a comma is read only as a thousands separator (8,745)`
+    );
   }
-  return `'${shown}' is not a number: a comma is read only as a thousands separator, between groups of three digits after a first group of one to three (8,745 or 1,234,567.5); for a decimal fraction write a point (24.5)`;
+  return (
+    `'${shown}' is not a number: a comma is read only as a thousands ` +
+    `separator, between groups of three digits after a first group of one to ` +
+    `three (8,745 or 1,234,567.5); for a decimal fraction write a point (24.5)`
+  );
 }
 
 /**
@@ -1290,7 +1316,10 @@ export function parseNote(text: string): ParsedNote {
     diagnostics.push({
       code: 'syntax',
       severity: 'error',
-      message: `could not read the Markdown structure of this note (${err instanceof Error ? err.message : String(err)}); no statement was read — please report this with the note`,
+      message:
+        `could not read the Markdown structure of this note ` +
+        `(${err instanceof Error ? err.message : String(err)}); ` +
+        `no statement was read — please report this with the note`,
       span: { start: 0, end: 0 },
     });
     return { regions: [], headings: [], statements, diagnostics };
