@@ -11,23 +11,9 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { cssString } from '../src/commands/report';
 import { findChromium } from '../src/commands/reportPdf';
-import { run, type CliIO } from '../src/run';
+import { runCli as dewmark } from './lib/runCli';
 
 const NOTE = '# Fernhill Pool — "hall" </style> AHU\n\n```air\nstate HALL: db=29C rh=60%\n```\n';
-
-async function dewmark(args: string[], cwd: string): Promise<{ code: number; err: string }> {
-  let err = '';
-  const io: CliIO = {
-    cwd,
-    out: () => {},
-    err: (t) => {
-      err += t;
-    },
-    stdin: async () => new Uint8Array(),
-    stderrIsTTY: false,
-  };
-  return { code: await run(args, io), err };
-}
 
 let dir = '';
 beforeAll(() => {

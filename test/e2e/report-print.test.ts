@@ -18,7 +18,7 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { PAGE_MARGIN_MM, PAPER_MM, type PageSize } from '../../cli/src/commands/report';
-import { run, type CliIO } from '../../cli/src/run';
+import { runCli as dewmark } from '../../cli/test/lib/runCli';
 import { CHROMIUM_ARGS, loadPlaywright } from './lib/codeServer';
 import { artifactsDir, REPO_ROOT, requireTool, skipWithout } from './lib/tools';
 
@@ -103,20 +103,6 @@ const MEASURE = `(() => {
     clipped,
   };
 })()`;
-
-async function dewmark(args: string[], cwd: string): Promise<{ code: number; err: string }> {
-  let err = '';
-  const io: CliIO = {
-    cwd,
-    out: () => {},
-    err: (t) => {
-      err += t;
-    },
-    stdin: async () => new Uint8Array(),
-    stderrIsTTY: false,
-  };
-  return { code: await run(args, io), err };
-}
 
 /** The page boxes of a PDF (`/MediaBox [0 0 w h]` of each page), in pt. */
 function mediaBoxes(pdf: Buffer): { w: number; h: number }[] {

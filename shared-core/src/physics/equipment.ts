@@ -4,7 +4,20 @@
  * Property functions may still throw {@link PsychroError} for a state outside the formulation's
  * range (callers catch it, as for any state).
  */
-import { M, type MessageFigure, type MessageParts, type MessageText, P, partsOf, RH, siText, T, W } from './message';
+import {
+  M,
+  type MessageFigure,
+  type MessageParts,
+  type MessageText,
+  P,
+  partsOf,
+  problemParts,
+  RH,
+  siText,
+  T,
+  W,
+  withoutFinalStop,
+} from './message';
 
 /** Why an equipment specification cannot be met, in the words of the engineer's input. */
 export interface EquipmentProblem {
@@ -37,6 +50,15 @@ export function fail<T>(
   const problem: EquipmentProblem = { code, key, message: siText(message), fix: siText(fix) };
   if (partsOf(message) || partsOf(fix)) problem.parts = { message, fix };
   return { ok: false, problem };
+}
+
+/**
+ * The `unreachable` outcome of a model whose leaving state the solver refused: the solver's own
+ * message (its final stop dropped, the model's words follow it) and fix, about `key`.
+ */
+export function unreachableState<T>(key: string, problem: Parameters<typeof problemParts>[0]): EquipmentOutcome<T> {
+  const { message, fix } = problemParts(problem);
+  return fail('unreachable', key, withoutFinalStop(message), fix);
 }
 
 /** Shorthand for a successful outcome. */

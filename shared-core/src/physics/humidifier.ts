@@ -23,8 +23,8 @@ import { dbFromEnthalpy, relHumFromHumRatio, satHumRatio } from './properties';
 import { stateFromDbW } from './state';
 import { solveState } from './solve';
 import { findRoot } from './roots';
-import { fail, ok, pctText, tText, wText, type EquipmentOutcome } from './equipment';
-import { msg, problemParts, withoutFinalStop } from './message';
+import { fail, ok, pctText, tText, unreachableState, wText, type EquipmentOutcome } from './equipment';
+import { msg } from './message';
 
 /** Default steam supply: saturated at 101.325 kPa (100 °C). */
 export const DEFAULT_STEAM_PRESSURE_PA = 101325;
@@ -143,13 +143,7 @@ function onWetBulbLine(
   key: string,
 ): EquipmentOutcome<HumidifierResult> {
   const solved = solveState({ wb: a.wb, ...input }, a.p);
-  if (!solved.ok)
-    return fail(
-      'unreachable',
-      key,
-      withoutFinalStop(problemParts(solved.problem).message),
-      problemParts(solved.problem).fix,
-    );
+  if (!solved.ok) return unreachableState(key, solved.problem);
   return ok({ state: solved.state, dw: solved.state.w - a.w });
 }
 

@@ -21,8 +21,8 @@
 import type { MoistAirState } from './types';
 import { solveState } from './solve';
 import { dewPointFromHumRatio } from './wetbulb';
-import { fail, moistCp, ok, type EquipmentOutcome, flowText } from './equipment';
-import { msg, problemParts, withoutFinalStop } from './message';
+import { fail, moistCp, ok, type EquipmentOutcome, flowText, unreachableState } from './equipment';
+import { msg } from './message';
 
 /** One stream through the exchanger. */
 export interface RecoveryStream {
@@ -58,13 +58,7 @@ export interface RecoveryResult {
 
 function leavingState(t: number, w: number, p: number, which: string): EquipmentOutcome<MoistAirState> {
   const solved = solveState({ db: t, w }, p, { allowFog: true });
-  if (!solved.ok)
-    return fail(
-      'unreachable',
-      which,
-      withoutFinalStop(problemParts(solved.problem).message),
-      problemParts(solved.problem).fix,
-    );
+  if (!solved.ok) return unreachableState(which, solved.problem);
   return ok(solved.state);
 }
 
