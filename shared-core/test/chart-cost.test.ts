@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { chartDataFromAnalysis, renderChartFromData, type ChartData, type ChartPoint } from '../src/chart';
 import { analyzeNote } from '../src/analyze';
 import { MAX_TAG_CANDIDATES } from '../src/chart/labels';
-import { elements } from './chart-helpers';
+import { elements, spread } from './chart-helpers';
 
 const P0 = 101_325; // ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0
 
@@ -31,21 +31,6 @@ function counting<T extends object>(obj: T, keys: (keyof T)[], run: () => void):
     });
   }
   return calls;
-}
-
-/** Invented states spread over the chart (a fixed pseudo-random walk), every third pair joined by a process. */
-function spread(n: number): ChartData {
-  let seed = 12345;
-  const rnd = () => {
-    seed = (seed * 1103515245 + 12345) % 2147483648;
-    return seed / 2147483648;
-  };
-  const points: ChartPoint[] = [];
-  for (let i = 0; i < n; i++)
-    points.push({ name: `Z${i}`, kind: 'state', db: 5 + rnd() * 30, w: 0.002 + rnd() * 0.012 });
-  const processes = [];
-  for (let i = 0; i + 1 < n; i += 3) processes.push({ name: `P${i}`, from: `Z${i}`, to: `Z${i + 1}` });
-  return { pressurePa: P0, units: 'SI', points, mixes: [], processes, infeasible: [] };
 }
 
 /** `n` states on one spot (a pasted line repeated), each pair joined by a process to one other spot. */

@@ -1,5 +1,8 @@
 /** Helpers for the chart tests: read the SVG text back into numbers (no DOM in unit tests). */
-import type { Pixel } from '../src/chart';
+import type { ChartData, ChartPoint, Pixel } from '../src/chart';
+
+/** Standard atmospheric pressure at sea level, Pa (ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0). */
+const SEA_LEVEL_PA = 101_325;
 
 /** Attributes of every element with a given tag and class, as string maps. */
 export function elements(svg: string, tag: string, cls?: string): Record<string, string>[] {
@@ -94,4 +97,19 @@ export function curvePath(svg: string, family: string, value: string): Pixel[][]
   const el = elements(svg, 'path').find((a) => a['data-family'] === family && a['data-value'] === value);
   if (!el) throw new Error(`no ${family} curve with value ${value} in the SVG`);
   return parsePath(el.d ?? '');
+}
+
+/** Invented states spread over the chart (a fixed pseudo-random walk), every third pair joined by a process. */
+export function spread(n: number, seed0 = 12345): ChartData {
+  let seed = seed0;
+  const rnd = () => {
+    seed = (seed * 1103515245 + 12345) % 2147483648;
+    return seed / 2147483648;
+  };
+  const points: ChartPoint[] = [];
+  for (let i = 0; i < n; i++)
+    points.push({ name: `Z${i}`, kind: 'state', db: 5 + rnd() * 30, w: 0.002 + rnd() * 0.012 });
+  const processes = [];
+  for (let i = 0; i + 1 < n; i += 3) processes.push({ name: `P${i}`, from: `Z${i}`, to: `Z${i + 1}` });
+  return { pressurePa: SEA_LEVEL_PA, units: 'SI', points, mixes: [], processes, infeasible: [] };
 }

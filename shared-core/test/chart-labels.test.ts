@@ -9,9 +9,9 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../src/analyze';
-import { renderChartCases, renderChartFromData, type ChartData, type ChartPoint } from '../src/chart';
+import { renderChartCases, renderChartFromData, type ChartPoint } from '../src/chart';
 import { textWidth } from '../src/chart/labels';
-import { elements, parsePath } from './chart-helpers';
+import { elements, parsePath, spread } from './chart-helpers';
 
 const P0 = 101_325; // ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0
 
@@ -88,21 +88,6 @@ function checkChart(svg: string, names: string[]): { tags: number; leaders: numb
     leaders: elements(svg, 'line', 'dmc-leader').length,
     unlabelled: names.filter((name) => listed.has(name)).length,
   };
-}
-
-/** Invented states spread over the chart (a fixed pseudo-random walk), every third pair joined by a process. */
-function spread(n: number, seed0 = 12345): ChartData {
-  let seed = seed0;
-  const rnd = () => {
-    seed = (seed * 1103515245 + 12345) % 2147483648;
-    return seed / 2147483648;
-  };
-  const points: ChartPoint[] = [];
-  for (let i = 0; i < n; i++)
-    points.push({ name: `Z${i}`, kind: 'state', db: 5 + rnd() * 30, w: 0.002 + rnd() * 0.012 });
-  const processes = [];
-  for (let i = 0; i + 1 < n; i += 3) processes.push({ name: `P${i}`, from: `Z${i}`, to: `Z${i + 1}` });
-  return { pressurePa: P0, units: 'SI', points, mixes: [], processes, infeasible: [] };
 }
 
 describe('labels on crowded charts', () => {
