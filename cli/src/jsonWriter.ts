@@ -2,7 +2,8 @@
  * Where a JSON document's members go as a description of its shape writes them, one member at a
  * time: into objects ({@link ObjectWriter}, what tests and other tools read), or straight into
  * the text `JSON.stringify(value, null, 2)` prints for those objects ({@link TextWriter}, what
- * `eval --format json` writes: no object per state, no second pass over a tree). The two are
+ * `eval --format json` writes, as UTF-8 bytes: no object per state, no second pass over a tree,
+ * no string of the text). The two are
  * driven by the same description (output.ts `writeState`, `writeProcess`, `writeEvalFile`), so
  * the shape has one home; and the figures of both are rounded by {@link roundForJson}.
  */
@@ -150,10 +151,18 @@ export class ObjectWriter implements JsonWriter {
 }
 
 /**
- * Bytes of text a {@link TextWriter} hands out at a time (about): its string (of one byte a
- * character when the text is ASCII) stays well below V8's large-object size (128 KB), whose
- * strings go straight to the old generation and wait there for a full collection.
+ * Takes a piece of a document's text: UTF-8 bytes, whole characters. The bytes are lent: the
+ * writer writes on over them once the call returns, unless it returns true, saying that it keeps
+ * them (a stream that could not write them at once); the writer then goes on in new memory.
  */
+export type TakePiece = (piece: Uint8Array) => boolean | undefined;
+
+/** A piece's text (see {@link TakePiece}). */
+export function pieceText(piece: Uint8Array): string {
+  return Buffer.from(piece.buffer, piece.byteOffset, piece.byteLength).toString('utf8');
+}
+
+/** Bytes of text a {@link TextWriter} hands out at a time (about). */
 const PIECE_BYTES = 1 << 15;
 
 /** A string or key at most this long is written into the buffer; a longer one is handed out on its own. */
@@ -174,14 +183,12 @@ const plainAscii = (c: number): boolean => c >= 0x20 && c < 0x7f && c !== 0x22 &
 interface Lead {
   words: Uint32Array;
   length: number;
-  /** Whether some byte is outside ASCII. */
-  wide: boolean;
 }
 
 function makeLead(bytes: Uint8Array): Lead {
   const words = new Uint32Array(Math.ceil(bytes.length / 4));
   for (let i = 0; i < bytes.length; i++) words[i >> 2] = words[i >> 2]! | (bytes[i]! << (8 * (i & 3)));
-  return { words, length: bytes.length, wide: bytes.some((b) => b >= 0x80) };
+  return { words, length: bytes.length };
 }
 
 /** The line starts of array elements (no key), by depth and whether a comma comes first. */
@@ -237,17 +244,15 @@ function fourDigits(): Uint32Array {
 /**
  * Writes the text `JSON.stringify(value, null, 2)` prints, as if the value were nested `depth`
  * levels deep (its lines indented by `depth` levels; the first is not indented: it follows
- * whatever came before), as UTF-8 bytes into a buffer that is handed to `emit` as text every
- * {@link PIECE_BYTES} bytes or so and by {@link TextWriter.flush} — no string per member and no
- * object per state. Figures are written from their 12 digits (see {@link TextWriter.fig}).
+ * whatever came before), as UTF-8 bytes into a buffer that is lent to `emit` every
+ * {@link PIECE_BYTES} bytes or so and by {@link TextWriter.flush} (see {@link TakePiece}) — no
+ * string per member, no object per state, and no string of the text. Figures are written from
+ * their 12 digits (see {@link TextWriter.fig}).
  */
 export class TextWriter implements JsonWriter {
-  private readonly bytes = new ArrayBuffer(PIECE_BYTES + LONG_TEXT * 4 + 1024);
-  private readonly buf: Buffer = Buffer.from(this.bytes);
-  private readonly view = new DataView(this.bytes);
+  private buf: Buffer;
+  private view: DataView;
   private pos = 0;
-  /** Whether some byte since the last piece is outside ASCII (the piece is then decoded as UTF-8). */
-  private wide = false;
   /** The depth of the members of the open object or array (that of the top value before any). */
   private depth: number;
   /** Whether the open object or array has no member yet. */
@@ -265,29 +270,35 @@ export class TextWriter implements JsonWriter {
 
   constructor(
     depth: number,
-    private readonly emit: (chunk: string) => void,
+    private readonly emit: TakePiece,
   ) {
     this.depth = depth;
+    [this.buf, this.view] = TextWriter.memory();
   }
 
-  /** Hands out the text written since the last piece. */
+  /** A buffer with room for a piece and the longest text written into it at once. */
+  private static memory(): [Buffer, DataView] {
+    const bytes = new ArrayBuffer(PIECE_BYTES + LONG_TEXT * 4 + 1024);
+    return [Buffer.from(bytes), new DataView(bytes)];
+  }
+
+  /** Lends out the text written since the last piece. */
   flush(): void {
     if (this.pos === 0) return;
-    this.emit(this.buf.toString(this.wide ? 'utf8' : 'latin1', 0, this.pos));
+    const kept = this.emit(this.buf.subarray(0, this.pos));
     this.pos = 0;
-    this.wide = false;
+    if (kept === true) [this.buf, this.view] = TextWriter.memory();
   }
 
   /** Writes any text as UTF-8 (a long one handed out as a piece of its own). */
   private text(t: string): void {
     if (t.length > LONG_TEXT) {
       this.flush();
-      this.emit(t);
+      this.emit(Buffer.from(t, 'utf8'));
       return;
     }
     if (this.pos + t.length * 3 > PIECE_BYTES) this.flush();
     this.pos += this.buf.write(t, this.pos, 'utf8');
-    this.wide = true;
   }
 
   /** Writes ASCII text (a number's text, a literal). */
@@ -305,7 +316,6 @@ export class TextWriter implements JsonWriter {
     const p = this.pos;
     for (let i = 0; i < words.length; i++) view.setUint32(p + 4 * i, words[i]!, true);
     this.pos = p + lead.length;
-    if (lead.wide) this.wide = true;
   }
 
   /**

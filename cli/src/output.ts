@@ -1,7 +1,7 @@
 /** What `dewmark` prints: diagnostic lines, the JSON documents, and the terminal tables. */
 import type { Analysis, ClaimResult, CoreDiagnostic, Dimension, ProcessResult, StateResult, UnitSystem } from './core';
 import { LineIndex, displaySymbol, displayUnit, jsonFigure, jsonName, processRow, stateRow, waterUnit } from './core';
-import { type JsonWriter, ObjectWriter, TextWriter, jsonKey, jsonKeys } from './jsonWriter';
+import { type JsonWriter, ObjectWriter, type TakePiece, TextWriter, jsonKey, jsonKeys } from './jsonWriter';
 import { safeLinePath, safeText } from './sanitize';
 
 /** One checked or evaluated file. */
@@ -80,7 +80,7 @@ export function summaryLine(files: number, c: Counts, unreadable = 0): string {
   return parts.join(', ');
 }
 
-export { JSON_SIGNIFICANT_DIGITS, roundForJson } from './jsonWriter';
+export { JSON_SIGNIFICANT_DIGITS, pieceText, roundForJson, type TakePiece } from './jsonWriter';
 
 function lineOf(f: FileResult, item: StateResult | ProcessResult): number {
   const s = item.statement.name?.span ?? item.statement.span;
@@ -371,12 +371,12 @@ export function evalFileJson(f: FileResult): Record<string, unknown> {
 }
 
 /**
- * One file of the `eval --format json` document as text, handed to `emit` in pieces (about 64 KB
- * each), so that a large note's document is never one string or one tree of objects: exactly
- * `JSON.stringify(evalFileJson(f), null, 2)` nested `depth` levels deep (every line after the
- * first indented by `depth` levels), written without making the objects.
+ * One file of the `eval --format json` document as UTF-8 bytes, lent to `emit` in pieces (about
+ * 32 KB each; see {@link TakePiece}), so that a large note's document is never one string or one
+ * tree of objects: exactly `JSON.stringify(evalFileJson(f), null, 2)` nested `depth` levels deep
+ * (every line after the first indented by `depth` levels), written without making the objects.
  */
-export function evalFileText(f: FileResult, depth: number, emit: (chunk: string) => void): void {
+export function evalFileText(f: FileResult, depth: number, emit: TakePiece): void {
   const w = new TextWriter(depth, emit);
   writeEvalFile(w, f);
   w.flush();

@@ -12,7 +12,7 @@ import {
   decodeText,
   explainEmpty,
 } from '@dewmark/files';
-import { summaryLine, type Counts } from './output';
+import { pieceText, summaryLine, type Counts, type TakePiece } from './output';
 import { runTasks, type Emit, type FileOutput, type Mode, type Task } from './work';
 import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from './settings';
 import { registerChart } from './commands/chart';
@@ -34,6 +34,11 @@ export const VERSION: string = typeof __DEWMARK_VERSION__ === 'string' ? __DEWMA
 export interface CliIO {
   cwd: string;
   out: (text: string) => void;
+  /**
+   * Writes bytes out, after what `out` wrote, and says whether it keeps them (see
+   * {@link TakePiece}); without it, bytes go to `out` as their UTF-8 text.
+   */
+  outBytes?: TakePiece;
   err: (text: string) => void;
   /** Standard input as bytes (read only when `-` is given), at most `maxBytes` + 1 of them. */
   stdin: (maxBytes?: number) => Promise<Uint8Array>;
@@ -177,6 +182,13 @@ class OutBuffer {
     this.size += text.length;
     if (this.size >= 1 << 16) this.flush();
   }
+  /** Writes bytes (a piece of the eval JSON) after what came before: whether they are kept (see {@link TakePiece}). */
+  pushBytes(bytes: Uint8Array): boolean {
+    this.flush();
+    if (this.io.outBytes) return this.io.outBytes(bytes) === true;
+    this.io.out(pieceText(bytes));
+    return false;
+  }
   flush(): void {
     if (this.parts.length === 0) return;
     this.io.out(this.parts.join(''));
@@ -260,10 +272,10 @@ async function runEvalCommand(paths: string[], opts: CommonOptions, io: CliIO): 
     },
     () => {
       let started = false;
-      return (chunk) => {
+      return (piece) => {
         if (!started) nextFile();
         started = true;
-        out.push(chunk);
+        return out.pushBytes(piece);
       };
     },
   );
@@ -439,6 +451,12 @@ export function processIO(): CliIO {
   return {
     cwd: process.cwd(),
     out: (t) => process.stdout.write(t),
+    // Bytes go to the stream as they are. A stream that cannot write them at once (a pipe whose
+    // reader is behind) queues them, holding on to them: the writer is told so and takes new memory.
+    outBytes: (bytes) => {
+      process.stdout.write(bytes);
+      return process.stdout.writableLength > 0;
+    },
     err: (t) => process.stderr.write(t),
     stdin: (maxBytes) => (stdinBytes ??= readStdin(maxBytes)),
     stderrIsTTY: process.stderr.isTTY === true,

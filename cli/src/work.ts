@@ -7,7 +7,7 @@ import { availableParallelism, loadavg } from 'node:os';
 import type { EvaluateSettings } from './core';
 import { analyzeNote } from './core';
 import { STDIN_PATH, decodeText, readInput, type Input } from '@dewmark/files';
-import type { Counts } from './output';
+import type { Counts, TakePiece } from './output';
 import { safeLinePath } from './sanitize';
 import {
   countDiagnostics,
@@ -15,6 +15,7 @@ import {
   diagnosticLine,
   evalFileText,
   fileResult,
+  pieceText,
   processesTable,
   statesTable,
 } from './output';
@@ -33,8 +34,8 @@ export interface FileOutput {
   counts: Counts;
 }
 
-/** Where a file's output may go in pieces as it is written, instead of as one string. */
-export type Emit = (chunk: string) => void;
+/** Where a file's output may go in pieces of bytes as it is written, instead of as one string. */
+export type Emit = TakePiece;
 
 /** One file to do: a path, or text already read (standard input). */
 export interface Task {
@@ -90,7 +91,10 @@ export function renderFile(
         return { text: '', json: null, counts };
       }
       const pieces: string[] = [];
-      evalFileText(f, 2, (c) => pieces.push(c));
+      evalFileText(f, 2, (piece) => {
+        pieces.push(pieceText(piece));
+        return false;
+      });
       return { text: pieces.join(''), json: null, counts };
     }
     case 'eval-table': {

@@ -4,8 +4,8 @@
  * 2 usage or I/O problems.
  */
 import { beforeAll, afterAll, describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { spawn, spawnSync } from 'node:child_process';
+import { closeSync, mkdirSync, mkdtempSync, openSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
@@ -283,6 +283,67 @@ describe('dewmark eval', () => {
     const r = dewmark(['eval', 'bad.md']);
     expect(r.code).toBe(1);
     expect(r.out).toContain('error[wb-above-db]');
+  });
+
+  /** A note of `n` invented states: its JSON (about 500 bytes a state) is many pieces, far more than a pipe holds. */
+  const manyStates = (n: number): string =>
+    ['# Zones (invented)', '', '```air']
+      .concat(Array.from({ length: n }, (_, i) => `state Z${i}: db=${18 + (i % 12)}.${i % 10}C rh=${30 + (i % 50)}%`))
+      .concat('```', '')
+      .join('\n');
+
+  /** Runs `dewmark args…` with its output on a pipe read by `reader`; its exit code, output and errors. */
+  const throughPipe = (
+    args: string[],
+    reader: (out: NodeJS.ReadableStream, chunk: Buffer) => void,
+  ): Promise<{ code: number | null; out: Buffer; err: string }> =>
+    new Promise((resolve) => {
+      const child = spawn(process.execPath, [bin, ...args], { cwd: dir, stdio: ['ignore', 'pipe', 'pipe'] });
+      const out: Buffer[] = [];
+      let err = '';
+      child.stdout.on('data', (chunk: Buffer) => {
+        out.push(chunk);
+        reader(child.stdout, chunk);
+      });
+      child.stderr.on('data', (chunk: Buffer) => {
+        err += chunk.toString('utf8');
+      });
+      child.on('close', (code) => resolve({ code, out: Buffer.concat(out), err }));
+    });
+
+  it('--format json writes the same bytes to a file and to a pipe whose reader falls behind', async () => {
+    writeFileSync(join(dir, 'many.md'), manyStates(4000));
+    const args = ['eval', '--format', 'json', 'many.md'];
+    const path = join(dir, 'many.json');
+    const fd = openSync(path, 'w');
+    const r = spawnSync(process.execPath, [bin, ...args], { cwd: dir, stdio: ['ignore', fd, 'pipe'], timeout: 60_000 });
+    closeSync(fd);
+    expect(r.status).toBe(0);
+    const toFile = readFileSync(path);
+    expect(toFile.length).toBeGreaterThan(1_000_000);
+    // The text is what JSON.stringify prints for what it holds.
+    const doc = JSON.parse(toFile.toString('utf8'));
+    expect(doc.files[0].states).toHaveLength(4000);
+    expect(toFile.toString('utf8')).toBe(`${JSON.stringify(doc, null, 2)}\n`);
+    // A reader that stops after every chunk it reads: the pipe fills, the writes are partial and
+    // the rest waits in the stream (bytes the command must not write over).
+    const slow = await throughPipe(args, (out) => {
+      out.pause();
+      setTimeout(() => out.resume(), 2);
+    });
+    expect(slow.code).toBe(0);
+    expect(slow.err).toBe('');
+    expect(slow.out.equals(toFile)).toBe(true);
+  });
+
+  it('--format json to a reader that stops reading (| head) ends quietly', async () => {
+    writeFileSync(join(dir, 'many.md'), manyStates(4000));
+    const r = await throughPipe(['eval', '--format', 'json', 'many.md'], (out) => {
+      (out as NodeJS.ReadableStream & { destroy(): void }).destroy();
+    });
+    expect(r.code).toBe(0);
+    expect(r.err).toBe('');
+    expect(r.out.toString('utf8').startsWith('{\n  "files": [\n')).toBe(true);
   });
 });
 

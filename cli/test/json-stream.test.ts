@@ -1,22 +1,23 @@
 /**
- * `eval --format json` writes its document in pieces as it is made (about 32 KB at a time)
- * straight into text, without an object per state. The text must stay exactly what
- * `JSON.stringify({ files }, null, 2)` gave before: the fixture snapshots (written by the
- * one-string version) pin it byte for byte; the text of every note in the repository (fixtures,
- * examples, docs) is compared with JSON.stringify of the object form, which comes from the same
- * description of the shape, and the notes compared are checked to hold every part of the shape
- * (mixes, supplies, processes, claims, sources, defined_by, equipment, nulls); the writer is
- * compared with JSON.stringify on values of every kind (escapes, other scripts, long strings,
- * empty containers, nesting) and on a million figures; the command's whole output is compared
- * with the object form on notes that span several pieces. The faster rounding of figures is
- * compared with `toPrecision(12)` itself.
+ * `eval --format json` writes its document in pieces of UTF-8 bytes as it is made (about 32 KB at
+ * a time, lent from one buffer unless the taker keeps them), without an object per state. The text
+ * must stay exactly what `JSON.stringify({ files }, null, 2)` gave before: the fixture snapshots
+ * (written by the one-string version) pin it byte for byte; the text of every note in the
+ * repository (fixtures, examples, docs) is compared with JSON.stringify of the object form, which
+ * comes from the same description of the shape, and the notes compared are checked to hold every
+ * part of the shape (mixes, supplies, processes, claims, sources, defined_by, equipment, nulls);
+ * the writer is compared with JSON.stringify on values of every kind (escapes, other scripts, long
+ * strings, empty containers, nesting) and on a million figures; the command's whole output is
+ * compared with the object form on notes that span several pieces. Each piece is decoded on its
+ * own (so a piece that split a character would show). The faster rounding of figures is compared
+ * with `toPrecision(12)` itself.
  */
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../../shared-core/src/analyze';
 import { evalFileJson, evalFileText, fileResult, roundForJson, JSON_SIGNIFICANT_DIGITS } from '../src/output';
-import { TextWriter, jsonKey } from '../src/jsonWriter';
+import { TextWriter, jsonKey, pieceText } from '../src/jsonWriter';
 import { runCli as dewmark } from './lib/runCli';
 
 const repo = join(__dirname, '..', '..');
@@ -38,13 +39,26 @@ function stringifiedAt(value: unknown, depth: number): string {
   return whole.slice(before.length, whole.length - after.length);
 }
 
+/** Takes lent pieces as a stream that writes them at once would: their text, each decoded on its own. */
+function collector(): { take: (piece: Uint8Array) => boolean; pieces: string[]; text: () => string } {
+  const pieces: string[] = [];
+  return {
+    take: (piece) => {
+      pieces.push(pieceText(piece));
+      return false;
+    },
+    pieces,
+    text: () => pieces.join(''),
+  };
+}
+
 /** The text a TextWriter writes for `value` at `depth`, joined from its pieces. */
 function written(value: unknown, depth: number): string {
-  const pieces: string[] = [];
-  const w = new TextWriter(depth, (c) => pieces.push(c));
+  const c = collector();
+  const w = new TextWriter(depth, c.take);
   w.value(null, value);
   w.flush();
-  return pieces.join('');
+  return c.text();
 }
 
 /** Every Markdown note below `dir` (recursively). */
@@ -61,9 +75,9 @@ function notesBelow(dir: string): string[] {
 
 /** The text `evalFileText` hands out, joined, and the number of pieces. */
 function streamed(path: string, text: string, depth: number): { text: string; pieces: number } {
-  const pieces: string[] = [];
-  evalFileText(fileResult(path, text, analyzeNote(text)), depth, (c) => pieces.push(c));
-  return { text: pieces.join(''), pieces: pieces.length };
+  const c = collector();
+  evalFileText(fileResult(path, text, analyzeNote(text)), depth, c.take);
+  return { text: c.text(), pieces: c.pieces.length };
 }
 
 /** A note of `n` states (invented figures), with a mix, a process and an error every 50 states. */
@@ -180,9 +194,9 @@ describe('eval --format json, written without the objects', () => {
         diagnostics: unknown[];
       };
       for (const depth of [0, 2]) {
-        const pieces: string[] = [];
-        evalFileText(f, depth, (c) => pieces.push(c));
-        expect(pieces.join(''), `${name} at depth ${depth}`).toBe(stringifiedAt(object, depth));
+        const c = collector();
+        evalFileText(f, depth, c.take);
+        expect(c.text(), `${name} at depth ${depth}`).toBe(stringifiedAt(object, depth));
       }
       for (const st of object.states) {
         seen[st.kind as string]!++;
@@ -234,13 +248,45 @@ describe('eval --format json, written without the objects', () => {
         expect(written(v, depth), `${JSON.stringify(v)?.slice(0, 60)} at ${depth}`).toBe(stringifiedAt(v, depth));
     // A long document comes in pieces, none much over the writer's piece size.
     const many = Array.from({ length: 20000 }, (_, i) => ({ name: `Z${i}`, t: 'é'.repeat(i % 7), x: i / 7 }));
-    const pieces: string[] = [];
-    const w = new TextWriter(2, (c) => pieces.push(c));
+    const c = collector();
+    const w = new TextWriter(2, c.take);
     w.value(null, many);
     w.flush();
-    expect(pieces.join('')).toBe(stringifiedAt(many, 2));
-    expect(pieces.length).toBeGreaterThan(10);
-    for (const p of pieces) expect(Buffer.byteLength(p)).toBeLessThan(40_000);
+    expect(c.text()).toBe(stringifiedAt(many, 2));
+    expect(c.pieces.length).toBeGreaterThan(10);
+    for (const p of c.pieces) expect(Buffer.byteLength(p)).toBeLessThan(40_000);
+  });
+
+  it('lends one buffer over and over, and takes new memory for each piece the taker keeps', () => {
+    const many = Array.from({ length: 20000 }, (_, i) => ({ name: `Z${i}`, t: 'é'.repeat(i % 7), x: i / 7 }));
+    const want = stringifiedAt(many, 2);
+    // A taker that writes at once (returns false): every piece is the same memory.
+    const memories = new Set<ArrayBufferLike>();
+    const c = collector();
+    const lending = new TextWriter(2, (piece) => {
+      memories.add(piece.buffer);
+      return c.take(piece);
+    });
+    lending.value(null, many);
+    lending.flush();
+    expect(c.text()).toBe(want);
+    expect(c.pieces.length).toBeGreaterThan(10);
+    expect(memories.size).toBe(1);
+    // A taker that keeps every other piece as it is, uncopied (a stream that queues them): what
+    // it keeps is never written over, and the pieces it lets go are the same memory again.
+    const kept: Uint8Array[] = [];
+    const all: (Uint8Array | string)[] = [];
+    let n = 0;
+    const keeping = new TextWriter(2, (piece) => {
+      const keep = n++ % 2 === 0;
+      if (keep) kept.push(piece);
+      all.push(keep ? piece : pieceText(piece));
+      return keep;
+    });
+    keeping.value(null, many);
+    keeping.flush();
+    expect(all.map((p) => (typeof p === 'string' ? p : pieceText(p))).join('')).toBe(want);
+    expect(new Set(kept.map((p) => p.buffer)).size).toBe(kept.length);
   });
 
   it('writes a million figures as JSON.stringify writes them rounded, and every edge', () => {
@@ -251,15 +297,15 @@ describe('eval --format json, written without the objects', () => {
     };
     const key = jsonKey('x');
     const check = (xs: number[]): number => {
-      const pieces: string[] = [];
-      const w = new TextWriter(1, (c) => pieces.push(c));
+      const c = collector();
+      const w = new TextWriter(1, c.take);
       w.open(null);
       w.openArray(key);
       for (const x of xs) w.fig(null, x);
       w.closeArray();
       w.close();
       w.flush();
-      const got = pieces.join('');
+      const got = c.text();
       const want = stringifiedAt({ x: xs.map((x) => roundForJson(x)) }, 1);
       if (got === want) return 0;
       // Name the first figure that differs.
