@@ -3,10 +3,13 @@
  * read without copying a key, unit or keyword out of the document for each property, and without
  * looking anything up in the key table (only a message needs a key's example). The counts are of
  * calls the parser makes (`String.prototype.slice` is wrapped while it runs; the key table's
- * lookup is a spy), so they do not depend on the machine or its load.
+ * lookup is a spy), so they do not depend on the machine or its load. The objects a parsed note
+ * keeps are counted the same way: by walking the tree (every object reachable through the fields of
+ * the result), not by measuring the heap.
  */
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { findKey } from '../src/vocabulary/keys';
+import type { ExtractedRegion } from '../src/markdown/regions';
 import { parseNote } from '../src/notation/parse';
 
 vi.mock('../src/vocabulary/keys', async (importOriginal) => {
@@ -37,6 +40,23 @@ function countingSlices<T>(fn: () => T): { result: T; slices: number } {
   }
 }
 
+/**
+ * Distinct objects (arrays included) reachable from `root` through its own fields. A span a node
+ * makes when it is read is not a field, and is not counted: it lives only as long as its reader
+ * keeps it.
+ */
+function objectsKept(root: unknown): number {
+  const seen = new Set<object>();
+  const todo: unknown[] = [root];
+  while (todo.length > 0) {
+    const v = todo.pop();
+    if (typeof v !== 'object' || v === null || seen.has(v)) continue;
+    seen.add(v);
+    for (const x of Object.values(v)) todo.push(x);
+  }
+  return seen.size;
+}
+
 afterEach(() => {
   vi.mocked(findKey).mockClear();
 });
@@ -55,6 +75,22 @@ describe('parser cost per statement', () => {
       // too). Keys (`db`, `rh`), units and the keyword are shared strings; a copy of each per
       // property would make 8 per state.
       expect(slices).toBeLessThanOrEqual(3 * n + 10);
+    }
+  });
+
+  it('keeps at most 13 objects for each simple state, the span of its line shared with the statement', () => {
+    // Per state: the statement, its name and the name's span, its property list, and for each of
+    // its two properties the property, its quantity, number and unit (12); the fence keeps the
+    // line's span, which is the statement's own. Spans that follow from a node's fields (the
+    // keyword's, a key's, a number's, a unit's, a quantity's, a property's) are made when read.
+    // A span object stored per node made 25.
+    const empty = objectsKept(parseNote(statesNote(0)));
+    for (const n of [500, 2000]) {
+      const parsed = parseNote(statesNote(n));
+      expect(parsed.statements).toHaveLength(n);
+      expect(objectsKept(parsed) - empty).toBeLessThanOrEqual(13 * n);
+      const fence = parsed.regions[0] as ExtractedRegion;
+      expect(parsed.statements.filter((st, i) => st.span === fence.lines[i])).toHaveLength(n);
     }
   });
 

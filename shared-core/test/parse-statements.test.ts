@@ -170,6 +170,72 @@ describe('positions', () => {
   });
 });
 
+describe('the tree as data', () => {
+  it('writes a state as JSON with every span, in the order of the tree types', () => {
+    // The nodes make some spans when read (notation/nodes.ts); their JSON is the documented shape.
+    const md = '```air\nstate A: db=1.5C±0.2 rh=50% w=B.w\n```\n';
+    const st = parseNote(md).statements[0];
+    const span = (start: number, end: number) => ({ start, end });
+    const number = (value: number, text: string, resolution: number, start: number) => ({
+      value,
+      text,
+      resolution,
+      span: span(start, start + text.length),
+    });
+    const unit = (text: string, start: number) => ({ text, span: span(start, start + text.length) });
+    const expected = {
+      keyword: 'state',
+      keywordSpan: span(7, 12),
+      origin: 'fence',
+      span: span(7, 40),
+      name: { text: 'A', span: span(13, 14) },
+      props: [
+        {
+          key: 'db',
+          keySpan: span(16, 18),
+          value: {
+            number: number(1.5, '1.5', 0.1, 19),
+            unit: unit('C', 22),
+            tolerance: { number: number(0.2, '0.2', 0.1, 24), unit: null, span: span(23, 27) },
+            span: span(19, 27),
+          },
+          span: span(16, 27),
+        },
+        {
+          key: 'rh',
+          keySpan: span(28, 30),
+          value: { number: number(50, '50', 1, 31), unit: unit('%', 33), tolerance: null, span: span(31, 34) },
+          span: span(28, 34),
+        },
+        {
+          key: 'w',
+          keySpan: span(35, 36),
+          value: null,
+          span: span(35, 40),
+          ref: {
+            state: { text: 'B', span: span(37, 38) },
+            key: { text: 'w', span: span(39, 40) },
+            offset: null,
+            span: span(37, 40),
+          },
+        },
+      ],
+    };
+    // The same text, key order included.
+    expect(JSON.stringify(st)).toBe(JSON.stringify(expected));
+  });
+
+  it('makes a new span each time one is read, never changing the node', () => {
+    const st = parseNote('```air\nstate A: db=24C\n```\n').statements[0];
+    const prop = st?.keyword === 'state' ? st.props[0] : undefined;
+    const first = prop?.keySpan;
+    expect(first).toEqual({ start: 16, end: 18 });
+    if (first) first.start = 0;
+    expect(prop?.keySpan).toEqual({ start: 16, end: 18 });
+    expect(prop?.value?.span).toEqual({ start: 19, end: 22 });
+  });
+});
+
 describe('parseStatementText', () => {
   const text = 'xx state A: db=1C rh=2% # c\nyy';
 

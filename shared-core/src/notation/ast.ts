@@ -3,6 +3,11 @@
  * could read plus a list of syntax diagnostics. Every node carries its exact source span
  * (UTF-16 offsets into the whole Markdown document). The tree knows nothing of physics or units:
  * unit symbols are kept as written and resolved by the evaluator.
+ *
+ * A span is never changed in place: two nodes (or a node and its fence line) may share one. The
+ * parser builds its common nodes with the classes of `nodes.ts`, which make the spans that follow
+ * from their other fields (a key's, a number's, a unit's…) when read: a reader that keeps such a
+ * span keeps the object it was given.
  */
 import type { DiagnosticCode } from '../vocabulary/codes';
 import type { Keyword } from '../markdown/regions';

@@ -34,6 +34,7 @@ import type {
 } from './ast';
 import type { Span } from '../text/types';
 import { extractRegions, type ExtractedNote, type ExtractedRegion, type FenceRegion } from '../markdown/regions';
+import { ParsedNumber, ParsedProperty, ParsedQuantity, ParsedState, ParsedUnit } from './nodes';
 import { parseNote, parseStatementPieces } from './parse';
 
 /** What {@link NoteParser.parse} returns. */
@@ -154,12 +155,15 @@ function shiftName(n: NameNode | null, d: number): NameNode | null {
   return n === null ? null : { text: n.text, span: shiftSpan(n.span, d) };
 }
 
-function shiftNumber(n: NumberNode, d: number): NumberNode {
-  return { value: n.value, text: n.text, resolution: n.resolution, span: shiftSpan(n.span, d) };
+// Numbers, units, quantities, properties and state statements are built as the parser builds
+// them (`nodes.ts`), so that a moved statement equals the one a fresh parse gives.
+
+function shiftNumber(n: NumberNode, d: number): ParsedNumber {
+  return new ParsedNumber(n.value, n.text, n.resolution, n.span.start + d);
 }
 
-function shiftUnit(u: UnitNode | null, d: number): UnitNode | null {
-  return u === null ? null : { text: u.text, span: shiftSpan(u.span, d) };
+function shiftUnit(u: UnitNode | null, d: number): ParsedUnit | null {
+  return u === null ? null : new ParsedUnit(u.text, u.span.start + d);
 }
 
 function shiftTolerance(t: ToleranceNode | null, d: number): ToleranceNode | null {
@@ -168,30 +172,22 @@ function shiftTolerance(t: ToleranceNode | null, d: number): ToleranceNode | nul
     : { number: shiftNumber(t.number, d), unit: shiftUnit(t.unit, d), span: shiftSpan(t.span, d) };
 }
 
-function shiftQuantity(q: QuantityNode | null, d: number): QuantityNode | null {
+function shiftQuantity(q: QuantityNode | null, d: number): ParsedQuantity | null {
   return q === null
     ? null
-    : {
-        number: shiftNumber(q.number, d),
-        unit: shiftUnit(q.unit, d),
-        tolerance: shiftTolerance(q.tolerance, d),
-        span: shiftSpan(q.span, d),
-      };
+    : new ParsedQuantity(shiftNumber(q.number, d), shiftUnit(q.unit, d), shiftTolerance(q.tolerance, d));
 }
 
 function shiftProps(props: PropertyNode[], d: number): PropertyNode[] {
   const out: PropertyNode[] = new Array<PropertyNode>(props.length);
   for (let i = 0; i < props.length; i++) {
     const p = props[i]!;
-    out[i] = {
-      key: p.key,
-      keySpan: shiftSpan(p.keySpan, d),
-      value: shiftQuantity(p.value, d),
-      span: shiftSpan(p.span, d),
-    };
+    const span = p.span;
+    const moved = new ParsedProperty(p.key, shiftQuantity(p.value, d), span.start + d, span.end + d);
+    out[i] = moved;
     if (p.ref) {
       const r = p.ref;
-      out[i]!.ref = {
+      moved.ref = {
         state: shiftName(r.state, d)!,
         key: { text: r.key.text, span: shiftSpan(r.key.span, d) },
         offset: shiftQuantity(r.offset, d),
@@ -225,14 +221,7 @@ export function shiftStatement(s: Statement, d: number): Statement {
     case 'units':
       return { keyword: 'units', keywordSpan, origin: s.origin, span, system: shiftName(s.system, d) };
     case 'state':
-      return {
-        keyword: 'state',
-        keywordSpan,
-        origin: s.origin,
-        span,
-        name: shiftName(s.name, d),
-        props: shiftProps(s.props, d),
-      };
+      return new ParsedState(s.origin, span, shiftName(s.name, d), shiftProps(s.props, d));
     case 'mix':
       return {
         keyword: 'mix',

@@ -36,7 +36,6 @@ import type {
   MixStatement,
   MixStream,
   NameNode,
-  NumberNode,
   ParsedNote,
   ProcessStatement,
   PropertyNode,
@@ -51,12 +50,12 @@ import type {
   StateStatement,
   SupplyStatement,
   ToleranceNode,
-  UnitNode,
   UnitsStatement,
 } from './ast';
 import type { Span } from '../text/types';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
 import { internedSlice } from './intern';
+import { ParsedNumber, ParsedProperty, ParsedQuantity, ParsedState, ParsedUnit } from './nodes';
 import { resolutionOf, scanNumber, startsNumber, type ScannedNumber } from './number';
 import { differenceExample, findKey, referenceKeyFor } from '../vocabulary/keys';
 import { CODES, DIAGNOSTIC_CODES, type CodeFrom } from '../vocabulary/codes';
@@ -314,14 +313,14 @@ class StatementParser {
       return null;
     }
     this.consume(p);
+    // The common statement makes no keyword span (its node derives it from the statement's start).
+    if (keyword === 'state') return this.state(start, p);
     const keywordSpan = this.span(start, p);
     switch (keyword) {
       case 'site':
         return this.site(keywordSpan);
       case 'units':
         return this.units(keywordSpan);
-      case 'state':
-        return this.state(keywordSpan);
       case 'mix':
         return this.mix(keywordSpan);
       case 'process':
@@ -335,6 +334,18 @@ class StatementParser {
 
   private stmtSpan(keywordSpan: Span): Span {
     return { start: keywordSpan.start, end: Math.max(keywordSpan.end, this.lastEnd) };
+  }
+
+  /**
+   * The span of a statement from `start` (its keyword's, which ends at `keywordEnd`) to its last
+   * token: the piece it was read from when that is exactly the statement (a fence line without
+   * indentation, trailing blanks or a comment), else a new span. Spans are never changed in place,
+   * so the line and the statement can share one.
+   */
+  private sharedStmtSpan(start: number, keywordEnd: number): Span {
+    const end = Math.max(keywordEnd, this.lastEnd);
+    const piece = this.segs.length === 1 ? this.segs[0] : undefined;
+    return piece !== undefined && piece.start === start && piece.end === end ? piece : { start, end };
   }
 
   private site(keywordSpan: Span): SiteStatement {
@@ -373,15 +384,15 @@ class StatementParser {
     return { keyword: 'units', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), system };
   }
 
-  private state(keywordSpan: Span): StateStatement {
-    const name = this.definedName('state', keywordSpan, 'state RA: db=24C rh=50%');
-    this.colon('state', name, keywordSpan.start, !name);
+  private state(start: number, keywordEnd: number): StateStatement {
+    const name = this.definedName('state', start, keywordEnd, 'state RA: db=24C rh=50%');
+    this.colon('state', name, start, !name);
     const props = this.props();
-    return { keyword: 'state', keywordSpan, origin: this.origin, span: this.stmtSpan(keywordSpan), name, props };
+    return new ParsedState(this.origin, this.sharedStmtSpan(start, keywordEnd), name, props);
   }
 
   private mix(keywordSpan: Span): MixStatement {
-    const name = this.definedName('mix', keywordSpan, 'mix MA: OA 25% + RA 75%');
+    const name = this.definedName('mix', keywordSpan.start, keywordSpan.end, 'mix MA: OA 25% + RA 75%');
     this.colon('mix', name, keywordSpan.start, !name);
     const streams = this.streams(keywordSpan, name?.text ?? 'MA');
     const props = this.props();
@@ -389,7 +400,7 @@ class StatementParser {
   }
 
   private process(keywordSpan: Span): ProcessStatement {
-    const name = this.definedName('process', keywordSpan, 'process CC: MA -> SA q=4.8m3/s');
+    const name = this.definedName('process', keywordSpan.start, keywordSpan.end, 'process CC: MA -> SA q=4.8m3/s');
     const self = name?.text ?? 'CC';
     this.colon('process', name, keywordSpan.start, !name);
     // Without an arrow, a following name is still read as the leaving state (the arrow is reported).
@@ -441,7 +452,12 @@ class StatementParser {
   }
 
   private recover(keywordSpan: Span): RecoverStatement {
-    const name = this.definedName('recover', keywordSpan, 'recover HX: OA -> OA2, EA -> EA2 eff_s=0.70');
+    const name = this.definedName(
+      'recover',
+      keywordSpan.start,
+      keywordSpan.end,
+      'recover HX: OA -> OA2, EA -> EA2 eff_s=0.70',
+    );
     const self = name?.text ?? 'HX';
     this.colon('recover', name, keywordSpan.start, !name);
     const streams: RecoverStream[] = [];
@@ -498,7 +514,12 @@ class StatementParser {
   }
 
   private supply(keywordSpan: Span): SupplyStatement {
-    const name = this.definedName('supply', keywordSpan, 'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C');
+    const name = this.definedName(
+      'supply',
+      keywordSpan.start,
+      keywordSpan.end,
+      'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C',
+    );
     this.colon('supply', name, keywordSpan.start, !name);
     const room = this.referencedName('the room state the supply serves', headExample('supply', name), keywordSpan);
     const props = this.props();
@@ -606,11 +627,11 @@ class StatementParser {
   }
 
   /** The name after `state`/`mix`/`process`. */
-  private definedName(keyword: Keyword, keywordSpan: Span, example: string): NameNode | null {
+  private definedName(keyword: Keyword, keywordStart: number, keywordEnd: number, example: string): NameNode | null {
     const c = this.peek();
     if (c < 0 || c === 0x3a || this.keyAhead()) {
-      const at = c === 0x3a ? this.pos : keywordSpan.start;
-      const endAt = c === 0x3a ? this.pos + 1 : keywordSpan.end;
+      const at = c === 0x3a ? this.pos : keywordStart;
+      const endAt = c === 0x3a ? this.pos + 1 : keywordEnd;
       this.report('missing-name', `'${keyword}' needs a name before ':': write ${example}`, at, endAt);
       return null;
     }
@@ -774,24 +795,25 @@ class StatementParser {
         while (p < this.end && (this.text.charCodeAt(p) === 0x20 || this.text.charCodeAt(p) === 0x09)) p++;
         if (this.charAt(p) === 0x3d) {
           const key = internedSlice(this.text, start, keyEnd);
-          const keySpan = this.span(start, keyEnd);
           this.consume(p + 1);
           const word = options ? this.wordValue() : null;
           if (word) {
-            options!.push({ key, keySpan, word, span: this.span(start, word.span.end) });
+            options!.push({ key, keySpan: this.span(start, keyEnd), word, span: this.span(start, word.span.end) });
             continue;
           }
           const ref = this.propertyRef(key);
           if (ref === 'reported') {
-            stack[this.propTop++] = { key, keySpan, value: null, span: this.span(start, this.lastEnd) };
+            stack[this.propTop++] = new ParsedProperty(key, null, start, this.lastEnd);
             continue;
           }
           if (ref) {
-            stack[this.propTop++] = { key, keySpan, value: null, span: this.span(start, ref.span.end), ref };
+            const prop = new ParsedProperty(key, null, start, ref.span.end);
+            prop.ref = ref;
+            stack[this.propTop++] = prop;
             continue;
           }
-          const value = this.value(key, keySpan);
-          stack[this.propTop++] = { key, keySpan, value, span: this.span(start, value ? value.span.end : p + 1) };
+          const value = this.value(key, start);
+          stack[this.propTop++] = new ParsedProperty(key, value, start, value ? value.end : p + 1);
           continue;
         }
         const afterKey = this.charAt(keyEnd);
@@ -804,7 +826,6 @@ class StatementParser {
           continue;
         }
         const key = internedSlice(this.text, start, keyEnd);
-        const keySpan = this.span(start, keyEnd);
         this.consume(keyEnd);
         if (this.peek() >= 0 && startsNumber(this.text, this.pos, this.end)) {
           // `rh 50%`: the '=' is missing; read the value all the same.
@@ -815,11 +836,11 @@ class StatementParser {
             keyEnd,
           );
           const value = this.quantity('prop');
-          stack[this.propTop++] = { key, keySpan, value, span: this.span(start, value ? value.span.end : keyEnd) };
+          stack[this.propTop++] = new ParsedProperty(key, value, start, value ? value.end : keyEnd);
           continue;
         }
         if (words) {
-          words.push({ text: key, span: keySpan });
+          words.push({ text: key, span: this.span(start, keyEnd) });
           continue;
         }
         this.report('syntax', `'${key}' is not a property: write key=value, e.g. db=24C`, start, keyEnd);
@@ -855,14 +876,14 @@ class StatementParser {
   }
 
   /** The value after `key=`; null (with a diagnostic) when there is no usable number. */
-  private value(key: string, keySpan: Span): QuantityNode | null {
+  private value(key: string, keyStart: number): ParsedQuantity | null {
     const eq = this.lastEnd;
     const c = this.peek();
     if (c < 0 || c === 0x2c || this.keyAhead()) {
       this.report(
         'missing-value',
         `'${key}=' has no value: write a number with its unit, e.g. ${exampleFor(key)}`,
-        keySpan.start,
+        keyStart,
         eq,
       );
       return null;
@@ -972,15 +993,15 @@ class StatementParser {
   }
 
   /** NUMBER[UNIT][±NUMBER[UNIT]] at the cursor (which starts a number). */
-  private quantity(context: 'prop' | 'stream', key?: string): QuantityNode | null {
+  private quantity(context: 'prop' | 'stream', key?: string): ParsedQuantity | null {
     const number = this.number(key);
     if (!number) return null;
-    let unit: UnitNode | null = null;
+    let unit: ParsedUnit | null = null;
     const unitStart = this.pos;
     const unitEnd = this.unitEnd(unitStart);
     if (unitEnd > unitStart) {
       this.consume(unitEnd);
-      unit = { text: internedSlice(this.text, unitStart, unitEnd), span: this.span(unitStart, unitEnd) };
+      unit = new ParsedUnit(internedSlice(this.text, unitStart, unitEnd), unitStart);
     } else {
       const detachedEnd = this.detachedUnit(context);
       if (detachedEnd >= 0) {
@@ -990,11 +1011,11 @@ class StatementParser {
         this.report(
           'value-spacing',
           `write the unit directly after the number, e.g. ${number.text}${written} (no space)`,
-          number.span.start,
+          number.at,
           detachedEnd,
         );
         this.consume(detachedEnd);
-        unit = { text: written, span: this.span(detachedStart, detachedEnd) };
+        unit = new ParsedUnit(written, detachedStart);
       }
     }
     let tolerance: ToleranceNode | null = null;
@@ -1017,12 +1038,11 @@ class StatementParser {
         this.restore();
       }
     }
-    const endAt = tolerance ? tolerance.span.end : unit ? unit.span.end : number.span.end;
-    return { number, unit, tolerance, span: this.span(number.span.start, endAt) };
+    return new ParsedQuantity(number, unit, tolerance);
   }
 
   /** A number at the cursor; null (with a `bad-number` diagnostic, token skipped) when malformed. */
-  private number(key?: string): NumberNode | null {
+  private number(key?: string): ParsedNumber | null {
     const start = this.pos;
     const n = scanNumber(this.text, start, this.end, this.scanned);
     const next = this.charAt(n.end);
@@ -1074,12 +1094,7 @@ class StatementParser {
       return null;
     }
     this.consume(n.end);
-    return {
-      value,
-      text: n.written,
-      resolution,
-      span: this.span(start, n.end),
-    };
+    return new ParsedNumber(value, n.written, resolution, start);
   }
 
   /** End of the unit written directly at `pos` (`pos` itself when there is none). */
@@ -1175,14 +1190,14 @@ class StatementParser {
     }
     const number = this.number();
     if (!number) return null;
-    let unit: UnitNode | null = null;
+    let unit: ParsedUnit | null = null;
     const unitStart = this.pos;
     const unitEnd = this.unitEnd(unitStart);
     if (unitEnd > unitStart) {
       this.consume(unitEnd);
-      unit = { text: internedSlice(this.text, unitStart, unitEnd), span: this.span(unitStart, unitEnd) };
+      unit = new ParsedUnit(internedSlice(this.text, unitStart, unitEnd), unitStart);
     }
-    return { number, unit, span: this.span(start, unit ? unit.span.end : number.span.end) };
+    return { number, unit, span: this.span(start, unit ? unit.end : number.end) };
   }
 }
 
