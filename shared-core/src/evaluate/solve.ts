@@ -8,6 +8,7 @@
  * engine's `pressure-below-saturation` error.
  */
 import { solveState } from '../physics';
+import { withWs } from '../physics/moistAir';
 import type { DefiningKey, MoistAirState, SolveResult } from '../physics/types';
 
 /** True for air at or above the boiling point at its pressure (it cannot be saturated). */
@@ -25,7 +26,7 @@ export function solveForNote(
   if (!r.ok || Number.isFinite(r.state.ws) || !aboveBoilingPoint(r.state)) return r;
   return {
     ok: true,
-    state: { ...r.state, ws: Number.MAX_VALUE },
+    state: withWs(r.state, Number.MAX_VALUE),
     warnings: r.warnings.filter((w) => w.code !== 'pressure-below-saturation'),
   };
 }

@@ -205,7 +205,7 @@ export function solveState(
   try {
     const state = solveOrThrow(input, p, options, warnings);
     // Only absurd figures (a pressure of 1e-320 Pa, a humidity ratio of 1e308) overflow a property.
-    const overflow = FINITE_KEYS.find((k) => !Number.isFinite(state[k]));
+    const overflow = notFinite(state);
     if (overflow) {
       const what = overflow === 'v' ? 'specific volume' : overflow === 'h' ? 'enthalpy' : `property (${overflow})`;
       throw problem(
@@ -224,8 +224,23 @@ export function solveState(
   }
 }
 
-/** Properties of a state that are finite for any real air (dp and ws may be infinite, see MoistAirState). */
-const FINITE_KEYS = ['db', 'wb', 'rh', 'w', 'h', 'v', 'rho', 'pw', 'pws', 'mu'] as const;
+/**
+ * The first property of `s` that is finite for any real air (dp and ws may be infinite, see
+ * MoistAirState) but is not here, or null (one test after another: no list or function per state).
+ */
+function notFinite(s: MoistAirState): 'db' | 'wb' | 'rh' | 'w' | 'h' | 'v' | 'rho' | 'pw' | 'pws' | 'mu' | null {
+  if (!Number.isFinite(s.db)) return 'db';
+  if (!Number.isFinite(s.wb)) return 'wb';
+  if (!Number.isFinite(s.rh)) return 'rh';
+  if (!Number.isFinite(s.w)) return 'w';
+  if (!Number.isFinite(s.h)) return 'h';
+  if (!Number.isFinite(s.v)) return 'v';
+  if (!Number.isFinite(s.rho)) return 'rho';
+  if (!Number.isFinite(s.pw)) return 'pw';
+  if (!Number.isFinite(s.pws)) return 'pws';
+  if (!Number.isFinite(s.mu)) return 'mu';
+  return null;
+}
 
 // Bits of the defining keys, in the fixed order of DEFINING_KEYS.
 const DB = 1;

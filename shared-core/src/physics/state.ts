@@ -20,6 +20,7 @@ import {
   satTempFromLn,
 } from './saturation';
 import { supersaturatedError, wetBulbSolve } from './wetbulb';
+import { moistAir } from './moistAir';
 
 /**
  * Every property of unsaturated (or exactly saturated) air from db °C, w kg/kg and p Pa, with
@@ -60,24 +61,22 @@ export function completeState(
   }
   const ws = pwsDb < p ? (EPSILON * pwsDb) / (p - pwsDb) : Number.POSITIVE_INFINITY;
   const v = (R_DA * (db + ZERO_C_K) * (1 + 1.607858 * w)) / p;
-  return {
+  return moistAir(
     p,
     db,
     wb,
     dp,
-    rh: pw / pwsDb,
+    pw / pwsDb,
     w,
-    h: CP_DA * db + w * (H_FG0 + CP_WV * db),
+    CP_DA * db + w * (H_FG0 + CP_WV * db),
     v,
-    rho: (1 + w) / v,
+    (1 + w) / v,
     pw,
-    pws: pwsDb,
+    pwsDb,
     ws,
-    mu: w / ws,
-    wbIce: wb < 0,
-    dpFrost: dp < SWITCH_C,
-    fog: false,
-  };
+    w / ws,
+    false,
+  );
 }
 
 /** pws at t °C with the triple-point switch (no range check). */
@@ -96,24 +95,22 @@ export function fogState(t: number, wTotal: number, p: number): MoistAirState {
   const pws = pwsAt(t);
   const ws = (EPSILON * pws) / (p - pws);
   const v = (R_DA * (t + ZERO_C_K) * (1 + 1.607858 * ws)) / p;
-  return {
+  return moistAir(
     p,
-    db: t,
-    wb: t,
-    dp: t,
-    rh: 1,
-    w: wTotal,
-    h: CP_DA * t + ws * (H_FG0 + CP_WV * t) + (wTotal - ws) * condensateEnthalpy(t),
+    t,
+    t,
+    t,
+    1,
+    wTotal,
+    CP_DA * t + ws * (H_FG0 + CP_WV * t) + (wTotal - ws) * condensateEnthalpy(t),
     v,
-    rho: (1 + wTotal) / v,
-    pw: pws,
+    (1 + wTotal) / v,
+    pws,
     pws,
     ws,
-    mu: wTotal / ws,
-    wbIce: t < 0,
-    dpFrost: t < SWITCH_C,
-    fog: true,
-  };
+    wTotal / ws,
+    true,
+  );
 }
 
 /**
