@@ -52,6 +52,7 @@ export {
   WB_TOLERANCE_K,
 } from './wetbulb';
 export { stateFromDbW } from './state';
+export { MoistAir, STATE_FIGURES, stateRecord, type MoistAirRecord } from './moistAir';
 export { solveState, DEFINING_KEYS } from './solve';
 export { fail as equipmentFailure, moistCp, type EquipmentOutcome, type EquipmentProblem } from './equipment';
 export {
