@@ -1,14 +1,32 @@
 /**
- * The evaluator's work per statement, counted (never timed): the Map look-ups it makes. A note of
- * n states without references records each name once, in the registry of names, and makes no
- * map of names while it is evaluated (`analysis.byName` is made at its first read, with the same
- * names, order and items); the other look-ups are the units of the written figures. The note is
- * invented; no figure is checked here.
+ * The evaluator's work per statement, counted (never timed): the Map look-ups it makes, and the
+ * bytes its results hold. A note of n states without references records each name once, in the
+ * registry of names, and makes no map of names while it is evaluated (`analysis.byName` is made
+ * at its first read, with the same names, order and items); the other look-ups are the units of
+ * the written figures. The bytes are the heap's growth between two forced collections (code
+ * left out), so they do not depend on the machine's speed or load. The note is invented; no
+ * figure is checked here.
  */
+import { getHeapSpaceStatistics, setFlagsFromString } from 'node:v8';
+import { runInNewContext } from 'node:vm';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { evaluate } from '../src/evaluate/evaluate';
 import type { StateResult } from '../src/evaluate/types';
 import { parseNote } from '../src/notation/parse';
+
+setFlagsFromString('--expose-gc');
+/** A full collection (the engine's own, exposed for this file). */
+const collect = runInNewContext('gc') as () => void;
+
+/** Bytes in use on the heap after a full collection, without compiled code (which warms up on its own). */
+function heapBytes(): number {
+  collect();
+  collect();
+  let bytes = 0;
+  for (const space of getHeapSpaceStatistics())
+    if (!space.space_name.startsWith('code')) bytes += space.space_used_size;
+  return bytes;
+}
 
 /** A block of `n` states with distinct names, each from db and rh (invented). */
 function statesNote(n: number, extra = ''): string {
@@ -87,5 +105,46 @@ describe('evaluator cost: the names of a note', () => {
     expect(analysis!.byName.get('T')).toBe(analysis!.items[1000]);
     // As above, and the map made at the reference (1 per name).
     expect(ops).toBeLessThanOrEqual(5 * 1001 + 64);
+  });
+});
+
+describe('evaluator cost: what the results of a note hold', () => {
+  it('holds at most 340 bytes per simple state once evaluated (its result, state and place in the lists)', () => {
+    const n = 5000;
+    const text = statesNote(n);
+    evaluate(parseNote(statesNote(300)), {}, text); // compiled and warm before the count
+    const parsed = parseNote(text);
+    const before = heapBytes();
+    const analysis = evaluate(parsed, {}, text);
+    const perState = (heapBytes() - before) / n;
+    // Read after the count, so the analysis is held while it is made.
+    expect(analysis.items).toHaveLength(n);
+    expect(analysis.diagnostics).toEqual([]);
+    // A result (7 fields), its state (13 figures in one array of unboxed doubles, and fog), and
+    // its places in the lists of items and of names' owners; the empty claims and the defining
+    // pair are lists shared by every result. A state as 16 fields, each figure boxed, and lists of
+    // its own made it ~540 bytes.
+    expect(perState).toBeGreaterThan(100); // the count does see the results
+    expect(perState).toBeLessThan(340);
+  });
+
+  it('shares the empty claims and the defining pair between results, which serialise as lists of their own', () => {
+    const text = statesNote(40);
+    const items = evaluate(parseNote(text), {}, text).items as StateResult[];
+    const [a, b] = [items[0]!, items[1]!];
+    expect(a.claims).toBe(b.claims);
+    expect(a.defining).toBe(b.defining);
+    expect(a.defining).toEqual(['db', 'rh']);
+    expect(Object.isFrozen(a.claims) && Object.isFrozen(a.defining)).toBe(true);
+    // Serialised, each list is a list of its own (a serialiser that marks an object met twice sees none twice).
+    const seen = new WeakSet<object>();
+    const lists = JSON.stringify([a.claims, b.claims, a.defining, b.defining], (_k, v: unknown) => {
+      if (v && typeof v === 'object') {
+        if (seen.has(v)) return '[seen]';
+        seen.add(v);
+      }
+      return v;
+    });
+    expect(lists).toBe('[[],[],["db","rh"],["db","rh"]]');
   });
 });

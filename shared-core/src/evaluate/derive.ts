@@ -44,7 +44,7 @@ import type { EvalContext } from './context';
 import { DERIVE_KEY_NAMES, PROCESS_KEYS, PROCESS_WORDS, isDefiningKey } from './keys';
 import { problemDiagnostic } from './problems';
 import type { ReadProp } from './props';
-import { candidatePairs, stateClaims, stateFinite, writtenList } from './state';
+import { candidatePairs, pairsHolding, stateClaims, stateFinite, writtenList } from './state';
 import type { ClaimResult, EquipmentResult, StateResult } from './types';
 import { suggestName } from '../text/suggest';
 import { spanUnion } from './util';
@@ -487,14 +487,14 @@ export function deriveLeaving(
         });
         return null;
       }
-      let pairs = candidatePairs(defs);
-      if (refs.length > 0) pairs = pairs.filter(([x, y]) => refs.every((r) => r === x || r === y));
+      const pairs = pairsHolding(candidatePairs(defs), refs);
       if (pairs.length === 0)
         return missing(
           `${writtenList(defs)} fix the same thing (the moisture content) twice; add db= to fix ${toName}`,
           spanUnion(...defs.map((d) => d.prop.span)),
         );
-      const [p1, p2] = pairs[0]!;
+      const p1 = pairs[0]!;
+      const p2 = pairs[1]!;
       const input: Partial<Record<DefiningKey, number>> = { [p1.key]: p1.q.si, [p2.key]: p2.q.si };
       const solved = ctx.solve(input, a.p);
       if (!solved.ok) {

@@ -54,7 +54,7 @@ export function noteUnits(statements: readonly Statement[], fallback: UnitSystem
 }
 
 function evaluateSite(ctx: EvalContext, stmt: Extract<Statement, { keyword: 'site' }>, index: number): void {
-  const { props, broken } = readProps(ctx, stmt.props, SITE_KEYS, 'site:', { statement: stmt, index, allowed: false });
+  const { props, broken } = readProps(ctx, stmt.props, SITE_KEYS, 'site:', stmt, index, false);
   if (props.length === 0) {
     if (broken.length === 0 && stmt.props.length === 0) {
       ctx.report({

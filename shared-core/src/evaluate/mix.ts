@@ -110,7 +110,9 @@ export function evaluateMix(ctx: EvalContext, stmt: MixStatement, index: number,
     totalProp ? stmt.props.filter((p) => p.key !== 'total') : stmt.props,
     MIX_KEYS,
     what,
-    { statement: stmt, index, allowed: false },
+    stmt,
+    index,
+    false,
   );
   const total = totalProp ? readTotal(ctx, totalProp, what, stmt) : null;
 

@@ -102,11 +102,7 @@ export function evaluateProcess(
   const what = name ? `process ${name}` : 'this process';
   // A process that defines its leaving state takes references for that state's properties
   // (`process CC: MA -> OFF w=SA.w rh=95%`); a process between two defined states takes figures.
-  const { props, broken } = readProps(ctx, stmt.props, PROCESS_KEYS, what, {
-    statement: stmt,
-    index,
-    allowed: derives,
-  });
+  const { props, broken } = readProps(ctx, stmt.props, PROCESS_KEYS, what, stmt, index, derives);
   if (!stmt.from || !stmt.to) return none; // the parser reported the syntax
   // Every property that is neither the specification nor the flow is a claim about the results.
   const claimable = props.filter((p) => !isSpecOrFlow(p.prop));

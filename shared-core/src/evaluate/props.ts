@@ -1,9 +1,9 @@
 /** Reading the `key=value` list of a statement against a table of keys. */
-import type { PropertyNode } from '../notation/ast';
+import type { PropertyNode, Statement } from '../notation/ast';
 import type { EvalContext } from './context';
 import type { KeySpec } from './keys';
 import type { ResolvedQuantity } from './quantity';
-import { readQuantity } from './quantity';
+import { resolveQuantity } from './quantity';
 import { suggestName } from '../text/suggest';
 import { readReference, type ReadRef, type RefSite } from './refs';
 import { appended } from './util';
@@ -35,8 +35,8 @@ const NO_KEYS: readonly string[] = [];
 /**
  * Reads `props` against `table`: `unknown-key` (with a suggestion), `duplicate-key` for a key
  * written twice (the first one counts), and the unit diagnostics of {@link readQuantity}.
- * A reference value (`w=OA.w`) is read against `refs` (see `./refs`): the statement it is in and
- * whether that statement takes references.
+ * A reference value (`w=OA.w`) is read where it stands (see `./refs`): in `statement`, number
+ * `index` of the note, which takes references when `allowed`.
  * @param what  the statement, for messages ("state OA", "site").
  */
 export function readProps(
@@ -44,7 +44,9 @@ export function readProps(
   props: PropertyNode[],
   table: Readonly<Record<string, KeySpec>>,
   what: string,
-  refs: RefSite,
+  statement: Statement,
+  index: number,
+  allowed: boolean,
 ): ReadProps {
   // At most one property read per written one: sized once (a growing list would take room for
   // 16 at its first element), cut to the number read at the end.
@@ -53,6 +55,7 @@ export function readProps(
   // Made at the first key that cannot be read (most statements have none).
   let broken: string[] | null = null;
   let unknownKeys = 0;
+  let refs: RefSite | null = null;
   for (let i = 0; i < props.length; i++) {
     const prop = props[i]!;
     const spec = Object.hasOwn(table, prop.key) ? table[prop.key] : undefined;
@@ -69,8 +72,7 @@ export function readProps(
         data: suggestion ? { key: prop.key, suggestion } : { key: prop.key },
       });
       // A reference after an unknown key is still a use of the name (rename follows it).
-      if (prop.ref)
-        ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement: refs.statement });
+      if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement });
       unknownKeys++;
       continue;
     }
@@ -84,8 +86,7 @@ export function readProps(
       }
     }
     if (first) {
-      if (prop.ref)
-        ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement: refs.statement });
+      if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement });
       ctx.report({
         code: 'duplicate-key',
         severity: 'error',
@@ -96,6 +97,8 @@ export function readProps(
       continue;
     }
     if (prop.ref) {
+      // Where references are read (made at the first one: most statements have none).
+      refs ??= { statement, index, allowed };
       const r = readReference(ctx, prop, prop.ref, spec, refs, what);
       if (!r) {
         broken = appended(broken, prop.key);
@@ -109,13 +112,12 @@ export function readProps(
       broken = appended(broken, prop.key);
       continue;
     }
-    const r = readQuantity(prop, prop.value, spec);
-    if (!r.ok) {
-      ctx.report(r.diagnostic);
+    const q = resolveQuantity(prop, prop.value, spec, ctx);
+    if (!q) {
       broken = appended(broken, prop.key);
       continue;
     }
-    out[n++] = { key: prop.key, spec, prop, q: r.value, ref: undefined };
+    out[n++] = { key: prop.key, spec, prop, q, ref: undefined };
   }
   out.length = n;
   return { props: out, broken: broken ?? NO_KEYS, unknownKeys };

@@ -98,22 +98,49 @@ export function readQuantity(
   q: QuantityNode,
   spec: QuantitySpec,
 ): QuantityOutcome {
+  const sink: DiagnosticSink = { diagnostic: null, report: collect };
+  const value = resolveQuantity(prop, q, spec, sink);
+  return value ? { ok: true, value } : { ok: false, diagnostic: sink.diagnostic! };
+}
+
+/** Where {@link resolveQuantity} reports a diagnostic (the evaluator's context, or a collector). */
+export interface DiagnosticReport {
+  report(d: CoreDiagnostic): void;
+}
+
+/** Keeps the one diagnostic of a {@link readQuantity}. */
+interface DiagnosticSink extends DiagnosticReport {
+  diagnostic: CoreDiagnostic | null;
+}
+
+function collect(this: DiagnosticSink, d: CoreDiagnostic): void {
+  this.diagnostic = d;
+}
+
+/**
+ * {@link readQuantity} without an outcome object: the value, or null after reporting the one
+ * diagnostic to `out` (what the evaluator reads every written figure with).
+ */
+export function resolveQuantity(
+  prop: { key: string; keySpan: PropertyNode['keySpan'] },
+  q: QuantityNode,
+  spec: QuantitySpec,
+  out: DiagnosticReport,
+): ResolvedQuantity | null {
   let unit: UnitDef | null = null;
   let unitText = '';
   let si: number;
   let scale: number;
   if (q.unit === null) {
     if (spec.bare === 'error') {
-      return {
-        ok: false,
-        diagnostic: {
-          code: 'missing-unit',
-          severity: 'error',
-          message: missingUnitMessage(spec, q.number.text, q.number.value),
-          span: q.number.span,
-          data: { key: spec.key, dimension: spec.dimension },
-        },
-      };
+      out.report({
+        code: 'missing-unit',
+        severity: 'error',
+        message: missingUnitMessage(spec, q.number.text, q.number.value),
+        span: q.number.span,
+        data: { key: spec.key, dimension: spec.dimension },
+      });
+      return null;
     }
     si = q.number.value;
     scale = 1;
@@ -128,16 +155,14 @@ export function readQuantity(
       const fix = suggestion
         ? `did you mean ${spec.key}=${q.number.text}${suggestion}?`
         : `write it like ${spec.example}`;
-      return {
-        ok: false,
-        diagnostic: {
-          code: 'unknown-unit',
-          severity: 'error',
-          message: `${what} (in ${whereText(prop.key, q)}); ${fix}`,
-          span: q.unit.span,
-          data: suggestion ? { suggestion, key: spec.key } : { key: spec.key },
-        },
-      };
+      out.report({
+        code: 'unknown-unit',
+        severity: 'error',
+        message: `${what} (in ${whereText(prop.key, q)}); ${fix}`,
+        span: q.unit.span,
+        data: suggestion ? { suggestion, key: spec.key } : { key: spec.key },
+      });
+      return null;
     }
     unit = def;
     si = unitToSI(q.number.value, def);
@@ -150,17 +175,15 @@ export function readQuantity(
     const t = q.tolerance;
     const tv = t.number.value;
     if (!(tv >= 0) || !Number.isFinite(tv)) {
-      return {
-        ok: false,
-        diagnostic: {
-          code: 'syntax',
-          severity: 'error',
-          message:
-            `the tolerance in ${whereText(prop.key, q)}±${t.number.text} ` +
-            `must be a positive figure; write it like ±2`,
-          span: t.span,
-        },
-      };
+      out.report({
+        code: 'syntax',
+        severity: 'error',
+        message:
+          `the tolerance in ${whereText(prop.key, q)}±${t.number.text} ` +
+          `must be a positive figure; write it like ±2`,
+        span: t.span,
+      });
+      return null;
     }
     explicitTolerance = true;
     if (t.unit === null) {
@@ -171,34 +194,30 @@ export function readQuantity(
     } else {
       const tdef = findUnit(t.unit.text);
       if (!tdef || tdef.dimension !== spec.dimension) {
-        return {
-          ok: false,
-          diagnostic: {
-            code: 'unknown-unit',
-            severity: 'error',
-            message:
-              `the tolerance unit '${t.unit.text}' in ${whereText(prop.key, q)} ` +
-              `does not fit ${spec.title}; write the tolerance in the value's unit ` +
-              `(±${t.number.text}) or as a percentage of it (±${t.number.text}%)`,
-            span: t.unit.span,
-          },
-        };
+        out.report({
+          code: 'unknown-unit',
+          severity: 'error',
+          message:
+            `the tolerance unit '${t.unit.text}' in ${whereText(prop.key, q)} ` +
+            `does not fit ${spec.title}; write the tolerance in the value's unit ` +
+            `(±${t.number.text}) or as a percentage of it (±${t.number.text}%)`,
+          span: t.unit.span,
+        });
+        return null;
       }
       toleranceSI = tv * Math.abs(tdef.scale);
     }
   }
   if (!Number.isFinite(si) || !Number.isFinite(toleranceSI)) {
-    return {
-      ok: false,
-      diagnostic: {
-        code: 'out-of-range',
-        severity: 'error',
-        message: `${whereText(prop.key, q)} is too large to use; check the figure`,
-        span: q.span,
-      },
-    };
+    out.report({
+      code: 'out-of-range',
+      severity: 'error',
+      message: `${whereText(prop.key, q)} is too large to use; check the figure`,
+      span: q.span,
+    });
+    return null;
   }
-  return { ok: true, value: { si, unit, unitText, toleranceSI, explicitTolerance, quantity: q } };
+  return { si, unit, unitText, toleranceSI, explicitTolerance, quantity: q };
 }
 
 /**

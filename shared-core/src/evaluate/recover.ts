@@ -66,7 +66,7 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
   const own: ReadProp[][] = [];
   const shared: ReadProp[] = [];
   for (const stream of stmt.streams) {
-    const { props } = readProps(ctx, stream.props, RECOVER_KEYS, what, { statement: stmt, index, allowed: false });
+    const { props } = readProps(ctx, stream.props, RECOVER_KEYS, what, stmt, index, false);
     own.push(props.filter((p) => p.key === 'm' || p.key === 'q'));
     for (const p of props) {
       if (p.key === 'm' || p.key === 'q') continue;

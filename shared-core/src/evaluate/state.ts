@@ -24,6 +24,7 @@ import { sourcesOf } from './refs';
 import { solveOrProblem } from './solve';
 import { checkClaim } from './claims';
 import { appended } from './util';
+import { EMPTY, definingPair } from './shared';
 import type { ClaimResult, PressureBasis, StateResult } from './types';
 
 /** The value of a state property in SI, for claims. */
@@ -79,21 +80,25 @@ function orList(xs: readonly string[]): string {
   return xs.length <= 1 ? xs.join('') : `${xs.slice(0, -1).join(', ')} or ${xs[xs.length - 1]}`;
 }
 
-/** Candidate defining pairs in order of preference (see the module comment). */
-export function candidatePairs(defs: ReadProp[]): [ReadProp, ReadProp][] {
+/**
+ * Candidate defining pairs in order of preference (see the module comment), as one flat list:
+ * pair k is `[list[2k], list[2k + 1]]`. For the common case, two defining properties written
+ * with db first, it is `defs` itself (no list is made).
+ */
+export function candidatePairs(defs: readonly ReadProp[]): readonly ReadProp[] {
   if (defs.length === 2) {
     // The common case: exactly two defining properties written.
     const a = defs[0]!;
     const b = defs[1]!;
-    if (isDependentPair(a.key as DefiningKey, b.key as DefiningKey)) return [];
-    return b.key === 'db' ? [[b, a]] : [[a, b]];
+    if (isDependentPair(a.key as DefiningKey, b.key as DefiningKey)) return NO_PROPS;
+    return b.key === 'db' ? [b, a] : defs;
   }
-  const out: [ReadProp, ReadProp][] = [];
+  const out: ReadProp[] = [];
   const db = defs.find((d) => d.key === 'db');
   if (db) {
-    for (const d of defs) if (d !== db) out.push([db, d]);
+    for (const d of defs) if (d !== db) out.push(db, d);
   }
-  const ill: [ReadProp, ReadProp][] = [];
+  const ill: ReadProp[] = [];
   for (let i = 0; i < defs.length; i++) {
     for (let j = i + 1; j < defs.length; j++) {
       const a = defs[i]!;
@@ -102,11 +107,23 @@ export function candidatePairs(defs: ReadProp[]): [ReadProp, ReadProp][] {
       const ka = a.key as DefiningKey;
       const kb = b.key as DefiningKey;
       if (isDependentPair(ka, kb)) continue;
-      if (isIllConditionedPair(ka, kb)) ill.push([a, b]);
-      else out.push([a, b]);
+      if (isIllConditionedPair(ka, kb)) ill.push(a, b);
+      else out.push(a, b);
     }
   }
-  return [...out, ...ill];
+  return out.concat(ill);
+}
+
+/** The candidate pairs (flat, as {@link candidatePairs} gives them) that hold every one of `refs`. */
+export function pairsHolding(pairs: readonly ReadProp[], refs: readonly ReadProp[]): readonly ReadProp[] {
+  if (refs.length === 0) return pairs;
+  const out: ReadProp[] = [];
+  for (let k = 0; k + 1 < pairs.length; k += 2) {
+    const a = pairs[k]!;
+    const b = pairs[k + 1]!;
+    if (refs.every((r) => r === a || r === b)) out.push(a, b);
+  }
+  return out;
 }
 
 /** Compares every claim of a computed state (the properties that did not define it). */
@@ -116,8 +133,8 @@ export function stateClaims(
   s: MoistAirState,
   context: string | (() => string),
 ): ClaimResult[] {
+  if (!ctx.settings.checkClaims) return EMPTY;
   const out: ClaimResult[] = [];
-  if (!ctx.settings.checkClaims) return out;
   for (const c of claimsProps) {
     const computed = stateValue(s, c.key);
     if (computed === null || !Number.isFinite(computed)) continue;
@@ -178,7 +195,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
   void owner;
   const name = stmt.name?.text ?? '';
   const what = name ? `state ${name}` : 'this state';
-  const read = readProps(ctx, stmt.props, STATE_KEYS, what, { statement: stmt, index, allowed: true });
+  const read = readProps(ctx, stmt.props, STATE_KEYS, what, stmt, index, true);
   const { props } = read;
   // The site's pressure, unless the state sets its own (or could not read it).
   let pressure = ctx.site;
@@ -193,8 +210,8 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
     statement: stmt,
     state: solved ? solved.state : null,
     pressure,
-    defining: solved ? [solved.a.key as DefiningKey, solved.b.key as DefiningKey] : [],
-    claims: solved ? claimsBeyondPair(ctx, props, solved, pressure) : [],
+    defining: solved ? definingPair(solved.a.key as DefiningKey, solved.b.key as DefiningKey) : EMPTY,
+    claims: solved ? claimsBeyondPair(ctx, props, solved, pressure) : EMPTY,
   };
   const sources = sourcesOf(props);
   if (sources) result.sources = sources;
@@ -210,7 +227,7 @@ function claimsBeyondPair(
 ): ClaimResult[] {
   let claimsProps: ReadProp[] | null = null;
   for (const p of props) if (p !== a && p !== b && !isPressureProp(p)) claimsProps = appended(claimsProps, p);
-  if (!claimsProps) return [];
+  if (!claimsProps) return EMPTY;
   return stateClaims(
     ctx,
     claimsProps,
@@ -250,7 +267,7 @@ function definingCandidates(
   read: ReadProps,
   what: string,
   fallback: Span,
-): [ReadProp, ReadProp][] | null {
+): readonly ReadProp[] | null {
   const defs = only(props, isDefiningProp);
   if (defs.length < 2) {
     // A property that could not be read (bad unit, unknown key) already explains the shortfall.
@@ -283,8 +300,7 @@ function definingCandidates(
     });
     return null;
   }
-  let candidates = candidatePairs(defs);
-  if (refs.length > 0) candidates = candidates.filter(([a, b]) => refs.every((r) => r === a || r === b));
+  const candidates = pairsHolding(candidatePairs(defs), refs);
   if (candidates.length === 0) {
     const [a, b] = refs.length === 2 ? [refs[0]!, refs[1]!] : [defs[0]!, defs[1]!];
     const pair = refs.length === 2 ? refs : defs;
@@ -313,13 +329,13 @@ interface SolvedPair {
 }
 
 /** The span of each written key of the candidates, for messages (built only when one is reported). */
-function spansOfCandidates(candidates: [ReadProp, ReadProp][]): Map<string, Span> {
+function spansOfCandidates(candidates: readonly ReadProp[]): Map<string, Span> {
   return new Map<string, Span>(allOf(candidates).map((p) => [p.key, p.prop.span]));
 }
 
 /** Every property of the candidates, once. */
-function allOf(candidates: [ReadProp, ReadProp][]): ReadProp[] {
-  return [...new Set<ReadProp>(candidates.flat())];
+function allOf(candidates: readonly ReadProp[]): ReadProp[] {
+  return [...new Set<ReadProp>(candidates)];
 }
 
 /**
@@ -328,14 +344,16 @@ function allOf(candidates: [ReadProp, ReadProp][]): ReadProp[] {
  */
 function solveFirstPair(
   ctx: EvalContext,
-  candidates: [ReadProp, ReadProp][],
+  candidates: readonly ReadProp[],
   pressure: PressureBasis,
   what: string,
 ): SolvedPair | null {
   // The span of each written key, for messages (built only when one is reported).
   let spans: Map<string, Span> | null = null;
   let lastDependent: { problem: PhysicsProblem; pair: ReadProp[] } | null = null;
-  for (const [a, b] of candidates) {
+  for (let k = 0; k + 1 < candidates.length; k += 2) {
+    const a = candidates[k]!;
+    const b = candidates[k + 1]!;
     const ka = a.key as DefiningKey;
     const kb = b.key as DefiningKey;
     const solved = solveOrProblem(

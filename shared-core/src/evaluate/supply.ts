@@ -65,7 +65,7 @@ export function evaluateSupply(ctx: EvalContext, stmt: SupplyStatement, index: n
   const name = stmt.name?.text ?? '';
   const what = name ? `supply ${name}` : 'this supply';
   const fallback: Span = stmt.name?.span ?? stmt.keywordSpan;
-  const read = readProps(ctx, stmt.props, SUPPLY_KEYS, what, { statement: stmt, index, allowed: true });
+  const read = readProps(ctx, stmt.props, SUPPLY_KEYS, what, stmt, index, true);
   const result: StateResult = {
     kind: 'supply',
     name,
