@@ -7,6 +7,8 @@
  * `node --import tsx bench/parse.ts`.
  */
 import { spawnSync } from 'node:child_process';
+import { getHeapStatistics, setFlagsFromString } from 'node:v8';
+import { runInNewContext } from 'node:vm';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { extractRegions } from '../shared-core/src/markdown/regions';
@@ -121,6 +123,30 @@ export function generateCalcNote(statements = 2000, lines = 10_000, seed = 7): s
   return out.slice(0, lines).join('\n');
 }
 
+/**
+ * Heap bytes that the tree of a note of `n` simple states (`state S1: db=15.7C rh=66%`, one fence)
+ * keeps, per state: the heap after a forced collection with the tree held, less the heap after one
+ * without it. Null when the collector cannot be reached.
+ */
+function keptPerState(n: number): number | null {
+  setFlagsFromString('--expose-gc');
+  const gc = runInNewContext('gc') as (() => void) | undefined;
+  if (typeof gc !== 'function') return null;
+  const lines = ['```air'];
+  for (let i = 0; i < n; i++) lines.push(`state S${i}: db=${(i % 300) / 10 + 0.1}C rh=${(i % 90) + 5}%`);
+  lines.push('```', '');
+  const note = lines.join('\n');
+  parseNote(note); // the code compiled and the interned strings made before measuring
+  gc();
+  gc();
+  const before = getHeapStatistics().used_heap_size;
+  const held = parseNote(note);
+  gc();
+  gc();
+  const kept = getHeapStatistics().used_heap_size - before;
+  return held.statements.length === n ? kept / n : null;
+}
+
 function percentile(sorted: number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))] as number;
 }
@@ -166,6 +192,9 @@ async function measure(flags: string): Promise<void> {
   console.log(infoRow('    min', all.wall[0] ?? null, 'ms'));
   console.log(infoRow('    of which finding the air regions (median)', percentile(md.wall, 0.5), 'ms'));
   console.log(infoRow('    CPU time per parse (median, GC threads included)', percentile(all.cpu, 0.5), 'ms'));
+  if (!process.argv.includes(CHILD_FLAG)) {
+    console.log(infoRow('  heap kept per simple state (20,000 states)', keptPerState(20_000), 'B', 0));
+  }
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {

@@ -71,9 +71,12 @@ export interface RawCodeBlock {
   /** End of the opening line and of the block's last line, trailing blanks excluded. */
   openEnd: number;
   closeEnd: number;
-  /** Per body line: content start offset and line end offset (normalized text). */
-  lineStarts: number[];
-  lineEnds: number[];
+  /**
+   * Per body line: content start offset and line end offset (normalized text). Typed arrays of
+   * the block's exact size (outside the garbage-collected heap; a fence can have many lines).
+   */
+  lineStarts: Int32Array;
+  lineEnds: Int32Array;
 }
 
 /** A code span as recorded by the wrapped `backticks` rule: offsets in the inline content string. */
@@ -231,15 +234,16 @@ function recordBlock(
 ): void {
   const col = collectorOf(state.env);
   if (!col || !token.map) return;
-  const lineStarts: number[] = [];
-  const lineEnds: number[] = [];
+  const count = Math.max(0, bodyEnd - bodyBegin);
+  const lineStarts = new Int32Array(count);
+  const lineEnds = new Int32Array(count);
   for (let line = bodyBegin; line < bodyEnd; line++) {
     const first = cutLine(state, line, indent);
     const pad = cutPad;
     const eMark = state.eMarks[line] as number;
     // A tab only partly taken by the indentation stays in the content (it is whitespace there).
-    lineStarts.push(Math.min(pad > 0 ? first - 1 : first, eMark));
-    lineEnds.push(eMark);
+    lineStarts[line - bodyBegin] = Math.min(pad > 0 ? first - 1 : first, eMark);
+    lineEnds[line - bodyBegin] = eMark;
   }
   const startLine = token.map[0];
   const trimmedEnd = (line: number): number => {
