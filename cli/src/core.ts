@@ -21,4 +21,4 @@ export {
   type ProjectConfig,
 } from '@dewmark/core/service';
 export type { Dimension, UnitSystem } from '@dewmark/core/units';
-export { jsonFigure, jsonName } from '@dewmark/core/vocabulary';
+export { jsonFigureOf, jsonName } from '@dewmark/core/vocabulary';

@@ -20,11 +20,15 @@ const WORDS = new Uint32Array(FLOAT.buffer);
 const HIGH_WORD = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0; // little-endian: the second word
 const LOG10_2 = Math.log10(2);
 
+/** The power of ten of the last figure {@link scaledDigits} scaled: the figure is M / 10^scale. */
+let scale = 0;
+
 /**
  * The usual figure's 12 significant digits, found without `toPrecision`: for 1e-6 ≤ a < 1e11,
- * a is scaled by 10^s to a 12-digit whole number M (so that the figure is M / 10^s), returned as
- * M · 32 + s (exact: M ≤ 10¹², s ≤ 18); −1 for any other a, and when the scaled figure lies
- * within 1e-4 of a half (the scaling is exact to that, so a tie is left to `toPrecision`).
+ * a is scaled by 10^s to a 12-digit whole number M (so that the figure is M / 10^s): returns M
+ * (at most 10¹²) and sets {@link scale} to s (at most 17); −1 for any other a, and when the
+ * scaled figure lies within 1e-4 of a half (the scaling is exact to that, so a tie is left to
+ * `toPrecision`).
  */
 function scaledDigits(a: number): number {
   if (!(a >= 1e-6 && a < 1e11)) return -1;
@@ -32,13 +36,19 @@ function scaledDigits(a: number): number {
   // from the binary exponent b (a = 1.f · 2^b, so the decimal exponent is ⌊b·log₁₀2⌋ or one
   // more, which the scaling below corrects).
   FLOAT[0] = a;
-  let s = 11 - Math.floor(((WORDS[HIGH_WORD]! >>> 20) - 1023) * LOG10_2);
+  let s = (11 - Math.floor(((WORDS[HIGH_WORD]! >>> 20) - 1023) * LOG10_2)) | 0;
   let y = a * (EXACT_POW10[s] as number);
-  if (y < 1e11) y = a * (EXACT_POW10[++s] as number);
-  else if (y >= 1e12) y = a * (EXACT_POW10[--s] as number);
+  if (y < 1e11) {
+    s = (s + 1) | 0;
+    y = a * (EXACT_POW10[s] as number);
+  } else if (y >= 1e12) {
+    s = (s - 1) | 0;
+    y = a * (EXACT_POW10[s] as number);
+  }
   const frac = y - Math.floor(y);
-  if (y >= 1e11 && y < 1e12 && (frac < 0.4999 || frac > 0.5001)) return Math.round(y) * 32 + s;
-  return -1;
+  if (!(y >= 1e11 && y < 1e12 && (frac < 0.4999 || frac > 0.5001))) return -1;
+  scale = s;
+  return Math.round(y);
 }
 
 /**
@@ -53,10 +63,9 @@ function scaledDigits(a: number): number {
  */
 export function roundForJson(x: number | null | undefined): number | null {
   if (x === null || x === undefined || !Number.isFinite(x)) return null;
-  const code = scaledDigits(x < 0 ? -x : x);
-  if (code >= 0) {
-    const m = Math.floor(code / 32);
-    const v = m / (EXACT_POW10[code - m * 32] as number);
+  const m = scaledDigits(x < 0 ? -x : x);
+  if (m >= 0) {
+    const v = m / (EXACT_POW10[scale] as number);
     return x < 0 ? -v : v;
   }
   const v = Number(x.toPrecision(JSON_SIGNIFICANT_DIGITS));
@@ -181,13 +190,15 @@ const plainAscii = (c: number): boolean => c >= 0x20 && c < 0x7f && c !== 0x22 &
  * end, which the next write covers).
  */
 interface Lead {
-  words: Uint32Array;
+  /** The words as 32-bit signed integers (a plain array of small integers is the quickest to read). */
+  words: number[];
   length: number;
 }
 
 function makeLead(bytes: Uint8Array): Lead {
-  const words = new Uint32Array(Math.ceil(bytes.length / 4));
-  for (let i = 0; i < bytes.length; i++) words[i >> 2] = words[i >> 2]! | (bytes[i]! << (8 * (i & 3)));
+  const words: number[] = [];
+  for (let i = 0; i < bytes.length; i += 4)
+    words.push(bytes[i]! | ((bytes[i + 1] ?? 0) << 8) | ((bytes[i + 2] ?? 0) << 16) | ((bytes[i + 3] ?? 0) << 24));
   return { words, length: bytes.length };
 }
 
@@ -224,18 +235,18 @@ const TRUE = makeLead(Buffer.from('true'));
 const FALSE = makeLead(Buffer.from('false'));
 
 /** The four ASCII digits of 0 … 9999 (with leading zeros), as little-endian words (the first digit lowest). */
-let fourDigitWords: Uint32Array | null = null;
+let fourDigitWords: Int32Array | null = null;
 
 /** The four-digit words, made by the first writer (no cost for a command that writes no JSON text). */
-function fourDigits(): Uint32Array {
+function fourDigits(): Int32Array {
   if (fourDigitWords) return fourDigitWords;
-  const t = new Uint32Array(10000);
+  const t = new Int32Array(10000);
   for (let i = 0; i < 10000; i++) {
     const a = 0x30 + ((i / 1000) | 0);
     const b = 0x30 + (((i / 100) | 0) % 10);
     const c = 0x30 + (((i / 10) | 0) % 10);
     const d = 0x30 + (i % 10);
-    t[i] = (a | (b << 8) | (c << 16) | (d << 24)) >>> 0;
+    t[i] = a | (b << 8) | (c << 16) | (d << 24);
   }
   fourDigitWords = t;
   return t;
@@ -314,7 +325,7 @@ export class TextWriter implements JsonWriter {
     const words = lead.words;
     const view = this.view;
     const p = this.pos;
-    for (let i = 0; i < words.length; i++) view.setUint32(p + 4 * i, words[i]!, true);
+    for (let i = 0; i < words.length; i++) view.setInt32(p + 4 * i, words[i]!, true);
     this.pos = p + lead.length;
   }
 
@@ -352,22 +363,17 @@ export class TextWriter implements JsonWriter {
       this.ascii('null');
       return;
     }
-    const code = scaledDigits(x < 0 ? -x : x);
-    if (code < 0) {
-      this.ascii(`${roundForJson(x)}`);
-      return;
-    }
-    const m = Math.floor(code / 32);
-    const s = code - m * 32;
+    const m = scaledDigits(x < 0 ? -x : x);
     // M's 12 digits as three groups of four (M = 10¹², a rounding up to 13 digits, is left to the slow way).
-    const g1 = Math.floor(m / 1e8);
-    if (g1 >= 10000) {
+    if (m < 0 || m >= 1e12) {
       this.ascii(`${roundForJson(x)}`);
       return;
     }
+    const s = scale;
+    const g1 = Math.floor(m / 1e8) | 0;
     const rest = (m - g1 * 1e8) | 0;
     const g2 = (rest / 10000) | 0;
-    const g3 = rest - g2 * 10000;
+    const g3 = (rest - g2 * 10000) | 0;
     // The zeros M ends with (the text drops those after the point), counted a group at a time.
     let zeros = 0;
     let t = g3;
@@ -383,8 +389,6 @@ export class TextWriter implements JsonWriter {
       zeros++;
       t = (t / 10) | 0;
     }
-    // Digits after the point that are kept: those of the s decimals that are not trailing zeros.
-    const decimals = s > zeros ? s - zeros : 0;
     const buf = this.buf;
     const view = this.view;
     const digits = this.fourDigits;
@@ -392,27 +396,43 @@ export class TextWriter implements JsonWriter {
     if (x < 0) buf[p++] = 0x2d; // -
     if (s < 12) {
       // 12 − s digits before the point: the digits are written one byte on, and those moved back.
-      view.setUint32(p + 1, digits[g1]!, true);
-      view.setUint32(p + 5, digits[g2]!, true);
-      view.setUint32(p + 9, digits[g3]!, true);
-      const point = p + 12 - s;
+      view.setInt32(p + 1, digits[g1]!, true);
+      view.setInt32(p + 5, digits[g2]!, true);
+      view.setInt32(p + 9, digits[g3]!, true);
+      const point = (p + 12 - s) | 0;
       for (let i = p; i < point; i++) buf[i] = buf[i + 1]!;
       buf[point] = 0x2e; // .
-      this.pos = decimals > 0 ? point + 1 + decimals : point;
+      // Digits after the point that are kept: those of the s decimals that are not trailing zeros.
+      this.pos = s > zeros ? (point + 1 + s - zeros) | 0 : point;
     } else {
       // Below 1: `0.`, s − 12 zeros, the digits.
       buf[p++] = 0x30;
       buf[p++] = 0x2e;
       for (let i = s; i > 12; i--) buf[p++] = 0x30;
-      view.setUint32(p, digits[g1]!, true);
-      view.setUint32(p + 4, digits[g2]!, true);
-      view.setUint32(p + 8, digits[g3]!, true);
-      this.pos = p + 12 - zeros;
+      view.setInt32(p, digits[g1]!, true);
+      view.setInt32(p + 4, digits[g2]!, true);
+      view.setInt32(p + 8, digits[g3]!, true);
+      this.pos = (p + 12 - zeros) | 0;
     }
   }
   num(key: JsonKey | null, v: number): void {
     this.member(key);
-    this.ascii(Number.isFinite(v) ? `${v}` : 'null');
+    if (v >= 0 && v < 1e9 && Number.isInteger(v)) this.whole(v | 0);
+    else this.ascii(Number.isFinite(v) ? `${v}` : 'null');
+  }
+
+  /** Writes a whole number 0 ≤ n < 10⁹ (a line number) as its digits. */
+  private whole(n: number): void {
+    let length = 1;
+    for (let t = n; t >= 10; t = (t / 10) | 0) length++;
+    const buf = this.buf;
+    let p = (this.pos + length) | 0;
+    this.pos = p;
+    let rest = n;
+    do {
+      buf[--p] = 0x30 + (rest % 10);
+      rest = (rest / 10) | 0;
+    } while (rest > 0);
   }
   str(key: JsonKey | null, v: string | null | undefined): void {
     if (v === undefined && key !== null) return;

@@ -1,6 +1,6 @@
 /** What `dewmark` prints: diagnostic lines, the JSON documents, and the terminal tables. */
 import type { Analysis, ClaimResult, CoreDiagnostic, Dimension, ProcessResult, StateResult, UnitSystem } from './core';
-import { LineIndex, displaySymbol, displayUnit, jsonFigure, jsonName, processRow, stateRow, waterUnit } from './core';
+import { LineIndex, displaySymbol, displayUnit, jsonFigureOf, jsonName, processRow, stateRow, waterUnit } from './core';
 import { type JsonWriter, ObjectWriter, type TakePiece, TextWriter, jsonKey, jsonKeys } from './jsonWriter';
 import { safeLinePath, safeText } from './sanitize';
 
@@ -118,18 +118,24 @@ class ItemLines {
  * key table; every figure goes through roundForJson.
  */
 
-/** The JSON field names of a state's pressure and computed properties, and of a flow, from the key table. */
+/** A key of the key table that has a JSON field. */
+type JsonKeyName = Parameters<typeof jsonName>[0];
+
+/** A key's JSON field: its name, and its figure in the field's unit (both from the key table). */
+const keyed = (key: JsonKeyName) => ({ json: jsonKey(jsonName(key)), figure: jsonFigureOf(key) });
+
+/** The JSON fields of a state's pressure and computed properties, and of a flow. */
 const N = {
-  p: jsonKey(jsonName('p')),
-  db: jsonKey(jsonName('db')),
-  wb: jsonKey(jsonName('wb')),
-  dp: jsonKey(jsonName('dp')),
-  rh: jsonKey(jsonName('rh')),
-  w: jsonKey(jsonName('w')),
-  h: jsonKey(jsonName('h')),
-  v: jsonKey(jsonName('v')),
-  rho: jsonKey(jsonName('rho')),
-  m: jsonKey(jsonName('m')),
+  p: keyed('p'),
+  db: keyed('db'),
+  wb: keyed('wb'),
+  dp: keyed('dp'),
+  rh: keyed('rh'),
+  w: keyed('w'),
+  h: keyed('h'),
+  v: keyed('v'),
+  rho: keyed('rho'),
+  m: keyed('m'),
 } as const;
 
 /** The names of the other fields. */
@@ -191,15 +197,15 @@ function writeState(w: JsonWriter, s: StateResult, line: number): void {
   w.str(K.kind, s.kind);
   w.bool(K.ok, st !== null);
   // One call per field, each always the same name: much faster than a loop over the names.
-  w.fig(N.p, jsonFigure('p', s.pressure.pa));
-  w.fig(N.db, jsonFigure('db', st?.db));
-  w.fig(N.wb, jsonFigure('wb', st?.wb));
-  w.fig(N.dp, jsonFigure('dp', st?.dp));
-  w.fig(N.rh, jsonFigure('rh', st?.rh));
-  w.fig(N.w, jsonFigure('w', st?.w));
-  w.fig(N.h, jsonFigure('h', st?.h));
-  w.fig(N.v, jsonFigure('v', st?.v));
-  w.fig(N.rho, jsonFigure('rho', st?.rho));
+  w.fig(N.p.json, N.p.figure(s.pressure.pa));
+  w.fig(N.db.json, N.db.figure(st?.db));
+  w.fig(N.wb.json, N.wb.figure(st?.wb));
+  w.fig(N.dp.json, N.dp.figure(st?.dp));
+  w.fig(N.rh.json, N.rh.figure(st?.rh));
+  w.fig(N.w.json, N.w.figure(st?.w));
+  w.fig(N.h.json, N.h.figure(st?.h));
+  w.fig(N.v.json, N.v.figure(st?.v));
+  w.fig(N.rho.json, N.rho.figure(st?.rho));
   w.strings(K.defining, s.defining);
   w.str(K.pressure, s.pressure.describe);
   // The flow a mix, a supply or a process's leaving state carries: one field, where it first comes.
@@ -210,11 +216,11 @@ function writeState(w: JsonWriter, s: StateResult, line: number): void {
       w.open(null);
       w.str(K.name, x.name);
       w.fig(K.fraction, x.fraction);
-      w.fig(N.m, jsonFigure('m', x.massFlowKgS));
+      w.fig(N.m.json, N.m.figure(x.massFlowKgS));
       w.close();
     }
     w.closeArray();
-    w.fig(N.m, jsonFigure('m', s.massFlowKgS ?? null));
+    w.fig(N.m.json, N.m.figure(s.massFlowKgS ?? null));
     flow = true;
   }
   if (s.kind === 'supply') {
@@ -223,7 +229,7 @@ function writeState(w: JsonWriter, s: StateResult, line: number): void {
     w.fig(K.q_sensible_kW, f ? f.qSensibleW / 1000 : null);
     w.fig(K.q_latent_kW, f ? f.qLatentW / 1000 : null);
     w.fig(K.shr, f?.shr ?? null);
-    w.fig(N.m, s.massFlowKgS ?? null);
+    w.fig(N.m.json, s.massFlowKgS ?? null);
     w.fig(K.v_m3s, f?.volumeFlowM3S ?? null);
     flow = true;
   }
@@ -244,7 +250,7 @@ function writeState(w: JsonWriter, s: StateResult, line: number): void {
   if (by?.spec !== undefined) {
     // A state a process or recovery defines: where it came from, and the flow it carries.
     w.value(K.defined_by, { [by.statement]: by.name, from: by.from, spec: by.spec });
-    if (!flow) w.fig(N.m, s.massFlowKgS ?? null);
+    if (!flow) w.fig(N.m.json, s.massFlowKgS ?? null);
   }
   writeClaims(w, s.claims);
   w.close();
@@ -264,9 +270,6 @@ function writeClaims(w: JsonWriter, claims: readonly ClaimResult[]): void {
   w.closeArray();
 }
 
-/** A key of the key table that has a JSON field. */
-type JsonKeyName = Parameters<typeof jsonName>[0];
-
 /** The figures of a process that keys write (names and units from the key table), in the JSON's order. */
 const PROCESS_KEYED = (
   [
@@ -279,7 +282,7 @@ const PROCESS_KEYED = (
     ['q_coil', (p) => p.qCoilW],
     ['q', (p) => p.volumeFlowM3S],
   ] as const satisfies readonly (readonly [JsonKeyName, (p: ProcessResult) => number | null])[]
-).map(([key, si]) => ({ key, json: jsonKey(jsonName(key)), si }));
+).map(([key, si]) => ({ ...keyed(key), si }));
 
 /** A process (an object) in the JSON shape (heat rates in kW and water in kg/h, positive = added to the air). */
 function writeProcess(w: JsonWriter, p: ProcessResult, line: number): void {
@@ -290,7 +293,7 @@ function writeProcess(w: JsonWriter, p: ProcessResult, line: number): void {
   w.str(K.from, p.from);
   w.str(K.to, p.to);
   // The keys' fields, then the figures no key writes.
-  for (const k of PROCESS_KEYED) w.fig(k.json, jsonFigure(k.key, k.si(p)));
+  for (const k of PROCESS_KEYED) w.fig(k.json, k.figure(k.si(p)));
   w.fig(K.dh_kJkg, p.dhTotal / 1000);
   w.fig(K.dw_kgkg, p.dw);
   w.fig(K.adp_C, p.apparatusDewPointC ?? null);
@@ -329,16 +332,17 @@ function writeEvalFile(w: JsonWriter, f: FileResult): void {
   w.open(null);
   w.str(K.path, f.path);
   w.str(K.units, f.analysis.units);
+  // Indexed loops: an iterator's result objects are not always optimised away (one per item).
   w.openArray(K.states);
-  for (const item of items) {
-    if (item.kind === 'process') continue;
-    writeState(w, item, lines.of(item));
+  for (let i = 0; i < items.length; i++) {
+    const item = items[i]!;
+    if (item.kind !== 'process') writeState(w, item, lines.of(item));
   }
   w.closeArray();
   w.openArray(K.processes);
-  for (const item of items) {
-    if (item.kind !== 'process') continue;
-    writeProcess(w, item, lines.of(item));
+  for (let i = 0; i < items.length; i++) {
+    const item = items[i]!;
+    if (item.kind === 'process') writeProcess(w, item, lines.of(item));
   }
   w.closeArray();
   w.openArray(K.diagnostics);

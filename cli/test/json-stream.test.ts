@@ -257,6 +257,24 @@ describe('eval --format json, written without the objects', () => {
     for (const p of c.pieces) expect(Buffer.byteLength(p)).toBeLessThan(40_000);
   });
 
+  it('writes whole numbers (line numbers) and any other number as JSON.stringify does', () => {
+    const numbers = [0, -0, 1, 9, 10, 99, 100, 4321, 99999, 100000, 123456789, 999999999, 1e9, 2 ** 31, 2 ** 53];
+    numbers.push(-1, -100, 0.5, 1.25, 1e21, 1e-7, Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY);
+    const key = jsonKey('line');
+    const c = collector();
+    const w = new TextWriter(0, c.take);
+    w.open(null);
+    for (const v of numbers) {
+      w.openArray(key);
+      w.num(null, v);
+      w.closeArray();
+    }
+    w.close();
+    w.flush();
+    const want = numbers.map((v) => `\n  "line": [\n    ${JSON.stringify([v]).slice(1, -1)}\n  ]`).join(',');
+    expect(c.text()).toBe(`{${want}\n}`);
+  });
+
   it('lends one buffer over and over, and takes new memory for each piece the taker keeps', () => {
     const many = Array.from({ length: 20000 }, (_, i) => ({ name: `Z${i}`, t: 'é'.repeat(i % 7), x: i / 7 }));
     const want = stringifiedAt(many, 2);

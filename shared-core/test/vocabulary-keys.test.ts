@@ -13,7 +13,15 @@ import type { PropertyNode, Statement } from '../src/notation/ast';
 import { STATE_ROWS } from '../src/service/format';
 import { HINT_KEYS } from '../src/service/types';
 import { lookupUnit } from '../src/units';
-import { KEYS, type KeySpec, type KeyStatement, keySpec } from '../src/vocabulary/keys';
+import {
+  type JsonKey,
+  KEYS,
+  type KeySpec,
+  type KeyStatement,
+  jsonFigure,
+  jsonFigureOf,
+  keySpec,
+} from '../src/vocabulary/keys';
 
 /** A note that writes `example` where a key of `statement` goes (A and B are defined states). */
 function noteWith(statement: KeyStatement, example: string): string {
@@ -200,5 +208,27 @@ describe('references read the table: which keys define a state, and the differen
     const d = analyzeNote(note).diagnostics;
     expect(d.map((x) => x.code)).toEqual(['bad-reference']);
     expect(d[0]!.message).toContain('a relative humidity takes no difference');
+  });
+});
+
+describe("the JSON fields' units come from the table", () => {
+  it('converts each JSON key by its row, one converter per key, and gives null for no figure', () => {
+    const jsonKeys = KEYS.filter((k) => k.json).map((k) => k.key as JsonKey);
+    expect(jsonKeys.length).toBeGreaterThan(10);
+    for (const key of jsonKeys) {
+      const json = keySpec(key).json!;
+      const convert = jsonFigureOf(key);
+      expect(jsonFigureOf(key), key).toBe(convert); // made once
+      for (const si of [0, -0, 1, -12.5, 101325, 0.0093, 1e-7]) {
+        const want = (si * (json.times ?? 1)) / (json.over ?? 1);
+        expect(convert(si), `${key} ${si}`).toBe(want);
+        expect(jsonFigure(key, si), `${key} ${si}`).toBe(want);
+      }
+      for (const none of [null, undefined, Number.NaN, Number.POSITIVE_INFINITY]) expect(convert(none)).toBeNull();
+    }
+    // The units the table gives (common practice: 1 kJ/kg = 1000 J/kg, 1 kPa = 1000 Pa, % = fraction × 100).
+    expect(jsonFigure('h', 50_300)).toBe(50.3);
+    expect(jsonFigure('p', 101_325)).toBe(101.325);
+    expect(jsonFigure('rh', 0.5)).toBe(50);
   });
 });

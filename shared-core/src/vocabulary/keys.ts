@@ -549,9 +549,26 @@ export function differenceExample(key: string): string {
 
 /** A figure in the unit of a key's JSON field (`h` in kJ/kg, `rh` in %); null for a missing or non-finite figure. */
 export function jsonFigure(key: JsonKey, si: number | null | undefined): number | null {
-  const json: NonNullable<KeySpec['json']> = keySpec(key).json!;
-  if (si === null || si === undefined || !Number.isFinite(si)) return null;
-  return (si * (json.times ?? 1)) / (json.over ?? 1);
+  return jsonFigureOf(key)(si);
+}
+
+/** The converters of {@link jsonFigureOf}, by key (made as asked). */
+const figureOf = new Map<JsonKey, (si: number | null | undefined) => number | null>();
+
+/**
+ * {@link jsonFigure} of one key, its row looked up once: the key's figures in the unit of its JSON
+ * field, for writing the key's figure of many states (small enough to be inlined where it is called).
+ */
+export function jsonFigureOf(key: JsonKey): (si: number | null | undefined) => number | null {
+  let f = figureOf.get(key);
+  if (f === undefined) {
+    const json: NonNullable<KeySpec['json']> = keySpec(key).json!;
+    const times = json.times ?? 1;
+    const over = json.over ?? 1;
+    f = (si) => (si === null || si === undefined || !Number.isFinite(si) ? null : (si * times) / over);
+    figureOf.set(key, f);
+  }
+  return f;
 }
 
 /** The JSON field name of a key. */
