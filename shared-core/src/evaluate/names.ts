@@ -19,6 +19,7 @@ import type { NameNode, ProcessStatement, Statement } from '../notation/ast';
 import { type NamingStatement, namesSomething } from '../notation/named';
 import type { Span } from '../text/types';
 import { hasSpecification } from './derive';
+import { NameTable } from './nameTable';
 
 /** One name definition (state, mix, supply, process or heat recovery). */
 export interface NameDef {
@@ -31,7 +32,7 @@ export interface NameDef {
 /** The names of a note: those defined so far, and (when asked) those of the whole note. */
 export class NoteNames {
   /** Name → index of the statement that first defines it, for the statements registered so far. */
-  private readonly registered = new Map<string, number>();
+  private readonly registered = new NameTable();
   /** The same for the whole note, made at the first question about a name not defined above. */
   private whole: Map<string, number> | null = null;
 
@@ -43,9 +44,7 @@ export class NoteNames {
    * the name's first definition, which owns the name.
    */
   define(node: NameNode, index: number): boolean {
-    if (this.registered.get(node.text) !== undefined) return false;
-    this.registered.set(node.text, index);
-    return true;
+    return this.registered.add(node.text, index);
   }
 
   /**
@@ -58,7 +57,7 @@ export class NoteNames {
 
   /** Index of the statement that first defines `name` among those registered so far, or -1. */
   firstIndex(name: string): number {
-    return this.registered.get(name) ?? -1;
+    return this.registered.get(name);
   }
 
   /**
@@ -66,7 +65,8 @@ export class NoteNames {
    * down the note; undefined when the note defines no such name.
    */
   firstDef(name: string): NameDef | undefined {
-    const index = this.registered.get(name) ?? this.wholeNote().get(name);
+    const first = this.registered.get(name);
+    const index = first >= 0 ? first : this.wholeNote().get(name);
     if (index === undefined) return undefined;
     const s = this.statements[index]!;
     if (!namesSomething(s)) return undefined;
@@ -107,7 +107,7 @@ function scanNote(statements: readonly Statement[]): Map<string, number> {
 }
 
 /** The rule of {@link NoteNames.derivesLeaving}, against the names `defined` so far. */
-function derives(stmt: ProcessStatement, defined: ReadonlyMap<string, number>): boolean {
+function derives(stmt: ProcessStatement, defined: { has(name: string): boolean }): boolean {
   return !!stmt.name && !!stmt.from && !!stmt.to && !defined.has(stmt.to.text) && hasSpecification(stmt);
 }
 

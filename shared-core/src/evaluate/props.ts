@@ -58,7 +58,10 @@ export function readProps(
   let refs: RefSite | null = null;
   for (let i = 0; i < props.length; i++) {
     const prop = props[i]!;
-    const spec = Object.hasOwn(table, prop.key) ? table[prop.key] : undefined;
+    // One look-up: a row of the table is its own key's (`spec.key`), which no property an
+    // object inherits is (`constructor`, `toString`…), so the row found is the key's own.
+    const found = table[prop.key];
+    const spec = found !== undefined && found.key === prop.key ? found : undefined;
     if (!spec) {
       const keys = Object.keys(table);
       const suggestion = suggestName(prop.key, keys);

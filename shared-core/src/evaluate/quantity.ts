@@ -60,13 +60,30 @@ export function suggestSymbol(text: string, dimensions?: Dimension[]): string | 
   return pick(r);
 }
 
-/** Looks a unit up, tolerating a units module that throws on odd input. */
+/** The units looked up last, by a slot of their spelling (a note writes a handful of units, over and over). */
+const UNIT_SLOTS = 16;
+const unitSpellings: string[] = new Array<string>(UNIT_SLOTS).fill('');
+const unitDefs: (UnitDef | undefined)[] = new Array<UnitDef | undefined>(UNIT_SLOTS).fill(undefined);
+
+/**
+ * Looks a unit up, tolerating a units module that throws on odd input. The table of units never
+ * changes, so the last unit found for each slot is kept and a spelling seen there is not looked
+ * up again (one comparison of short strings instead of a look-up per written figure).
+ */
 export function findUnit(symbol: string): UnitDef | undefined {
+  const slot = (symbol.length * 7 + (symbol.length > 0 ? symbol.charCodeAt(symbol.length - 1) : 0)) & (UNIT_SLOTS - 1);
+  if (unitSpellings[slot] === symbol) return unitDefs[slot];
+  let def: UnitDef | undefined;
   try {
-    return lookupUnit(symbol);
+    def = lookupUnit(symbol);
   } catch {
     return undefined;
   }
+  if (def) {
+    unitSpellings[slot] = symbol;
+    unitDefs[slot] = def;
+  }
+  return def;
 }
 
 const DIMENSION_WORDS: Record<Dimension, string> = {

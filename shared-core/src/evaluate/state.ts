@@ -170,17 +170,28 @@ function only(props: ReadProp[], test: (p: ReadProp) => boolean): ReadProp[] {
 
 /**
  * The solver's input for a defining pair, always with the same six fields (absent ones
- * undefined), so that every pair gives the solver an object of one shape.
+ * undefined), so that every pair gives the solver an object of one shape. It is one object,
+ * filled anew for each solve: a solver reads its input during the call and keeps nothing of it
+ * (the engine's `solveState` reads the figures; the analyzer's memo writes them into its key).
  */
+const PAIR_INPUT: Record<DefiningKey, number | undefined> = {
+  db: undefined,
+  wb: undefined,
+  dp: undefined,
+  rh: undefined,
+  w: undefined,
+  h: undefined,
+};
+
+/** {@link PAIR_INPUT} holding the pair `ka`=`va`, `kb`=`vb` (and nothing else). */
 function pairInput(ka: DefiningKey, va: number, kb: DefiningKey, vb: number): Partial<Record<DefiningKey, number>> {
-  const input: Record<DefiningKey, number | undefined> = {
-    db: undefined,
-    wb: undefined,
-    dp: undefined,
-    rh: undefined,
-    w: undefined,
-    h: undefined,
-  };
+  const input = PAIR_INPUT;
+  input.db = undefined;
+  input.wb = undefined;
+  input.dp = undefined;
+  input.rh = undefined;
+  input.w = undefined;
+  input.h = undefined;
   input[ka] = va;
   input[kb] = vb;
   return input as Partial<Record<DefiningKey, number>>;
@@ -362,7 +373,7 @@ function solveFirstPair(
       pressure.pa,
       ALLOW_FOG,
       'check the figures',
-      [ka, kb],
+      definingPair(ka, kb),
     );
     if (!solved.ok) {
       if (solved.problem.code === 'dependent-pair') {
