@@ -20,8 +20,12 @@ describe('name table', () => {
   it('keeps the first value of each name, answers -1 for others, over many growths', () => {
     const names = someNames(20_000);
     const table = new NameTable();
-    names.forEach((name, i) => expect(table.add(name, i)).toBe(true));
-    names.forEach((name, i) => expect(table.add(name, i + 1)).toBe(false));
+    names.forEach((name, i) => {
+      expect(table.add(name, i)).toBe(true);
+    });
+    names.forEach((name, i) => {
+      expect(table.add(name, i + 1)).toBe(false);
+    });
     names.forEach((name, i) => {
       expect(table.get(name)).toBe(i);
       expect(table.has(name)).toBe(true);
@@ -40,7 +44,9 @@ describe('name table', () => {
     for (let i = 0; colliding.length < MAX_PROBE + 10; i++)
       if ((nameHash(`N${i}`) & mask) === target) colliding.push(`N${i}`);
     const table = new NameTable();
-    colliding.forEach((name, i) => expect(table.add(name, i)).toBe(true));
+    colliding.forEach((name, i) => {
+      expect(table.add(name, i)).toBe(true);
+    });
     expect(table.add('plain', 999)).toBe(true);
     expect(Reflect.get(table, 'map')).toBeInstanceOf(Map); // the probe did run too long
     colliding.forEach((name, i) => {
