@@ -85,7 +85,10 @@ export class NameTable {
     return -2;
   }
 
-  /** Puts place `p` (plus one) with hash `h` in the first free slot of its run (no check for a long run: {@link find} came first). */
+  /**
+   * Puts place `p` (plus one) with hash `h` in the first free slot of its run (no check for a long
+   * run: {@link find} came first).
+   */
   private put(h: number, p: number): void {
     const places = this.places;
     const mask = places.length - 1;
