@@ -141,8 +141,15 @@ export function resolutionOf(fractionDigits: number, exponent: number): number {
 }
 
 const POW10_LIMIT = 30;
-/** 1e-30 … 1e30, each built from its decimal text: the double nearest to the power of ten (so 0.01, not 10 ** -2). */
-const POW10: readonly number[] = Array.from({ length: 2 * POW10_LIMIT + 1 }, (_, i) => Number(`1e${i - POW10_LIMIT}`));
+/**
+ * 1e-30 … 1e30, each built from its decimal text: the double nearest to the power of ten (so 0.01, not 10 ** -2).
+ * Frozen, the engine keeps each entry as a number object of its own (a table of plain doubles is
+ * read out as a new one each time): every number node of a note refers to the table's 0.1 rather
+ * than keeping a copy.
+ */
+const POW10: readonly number[] = Object.freeze(
+  Array.from({ length: 2 * POW10_LIMIT + 1 }, (_, i) => Number(`1e${i - POW10_LIMIT}`)),
+);
 
 /**
  * Place value of the last *significant* written digit, the usual engineering reading of a figure:
