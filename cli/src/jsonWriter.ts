@@ -484,7 +484,8 @@ export class TextWriter implements JsonWriter {
       return;
     }
     this.openArray(key);
-    for (const s of v) this.str(null, s);
+    // By index: an iterator's result objects are not always optimised away (one per name).
+    for (let i = 0; i < v.length; i++) this.str(null, v[i]!);
     this.closeArray();
   }
   value(key: JsonKey | null, v: unknown): void {
