@@ -3,7 +3,7 @@ import type { PropertyNode, Statement } from '../notation/ast';
 import type { EvalContext } from './context';
 import type { KeySpec } from './keys';
 import type { ResolvedQuantity } from './quantity';
-import { resolveQuantity } from './quantity';
+import { type ReadPropertyFigure, resolveQuantity } from './quantity';
 import { suggestName } from '../text/suggest';
 import { readReference, type ReadRef, type RefSite } from './refs';
 import { appended } from './util';
@@ -115,12 +115,13 @@ export function readProps(
       broken = appended(broken, prop.key);
       continue;
     }
-    const q = resolveQuantity(prop, prop.value, spec, ctx);
-    if (!q) {
+    // The property read is its own quantity (one object: `ReadPropertyFigure`).
+    const read = resolveQuantity(prop, prop.value, spec, ctx, spec);
+    if (!read) {
       broken = appended(broken, prop.key);
       continue;
     }
-    out[n++] = { key: prop.key, spec, prop, q, ref: undefined };
+    out[n++] = read as ReadPropertyFigure;
   }
   out.length = n;
   return { props: out, broken: broken ?? NO_KEYS, unknownKeys };

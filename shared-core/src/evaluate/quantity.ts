@@ -8,6 +8,7 @@ import type { Dimension, UnitDef } from '../units/types';
 import type { CoreDiagnostic, PropertyNode, QuantityNode } from '../notation/ast';
 import type { KeySpec } from './keys';
 import { significantResolution } from '../notation/number';
+import type { ReadProp } from './props';
 
 /** What reading a quantity needs to know of its key (a key-table row, or a mix stream's amount). */
 export type QuantitySpec = Pick<KeySpec, 'key' | 'dimension' | 'title' | 'bare' | 'example'>;
@@ -25,6 +26,57 @@ export interface ResolvedQuantity {
   /** True when the tolerance was written (`±2`). */
   explicitTolerance: boolean;
   quantity: QuantityNode;
+}
+
+/**
+ * A quantity as read: the value, the unit and the band, with the unit as written and whether the
+ * band was written read from the quantity itself (so that a figure is one object of four fields).
+ */
+export class ReadFigure implements ResolvedQuantity {
+  readonly si: number;
+  readonly unit: UnitDef | null;
+  readonly toleranceSI: number;
+  readonly quantity: QuantityNode;
+
+  constructor(si: number, unit: UnitDef | null, toleranceSI: number, quantity: QuantityNode) {
+    this.si = si;
+    this.unit = unit;
+    this.toleranceSI = toleranceSI;
+    this.quantity = quantity;
+  }
+
+  /** The unit as written (a figure read has a unit exactly when one is written), or ''. */
+  get unitText(): string {
+    return this.quantity.unit?.text ?? '';
+  }
+
+  /** True when the tolerance was written (a figure read has a valid one exactly when one is written). */
+  get explicitTolerance(): boolean {
+    return !!this.quantity.tolerance;
+  }
+}
+
+/**
+ * A statement's property read against its key's row: a {@link ReadProp} that is its own quantity
+ * (`q`), so that a property read is one object.
+ */
+export class ReadPropertyFigure extends ReadFigure implements ReadProp {
+  readonly prop: PropertyNode;
+  readonly spec: KeySpec;
+
+  constructor(si: number, unit: UnitDef | null, toleranceSI: number, prop: PropertyNode, spec: KeySpec) {
+    super(si, unit, toleranceSI, prop.value!);
+    this.prop = prop;
+    this.spec = spec;
+  }
+
+  get key(): string {
+    return this.prop.key;
+  }
+
+  get q(): ResolvedQuantity {
+    return this;
+  }
 }
 
 /** Outcome of reading a quantity: the value, or one diagnostic on the offending token. */
@@ -136,16 +188,18 @@ function collect(this: DiagnosticSink, d: CoreDiagnostic): void {
 
 /**
  * {@link readQuantity} without an outcome object: the value, or null after reporting the one
- * diagnostic to `out` (what the evaluator reads every written figure with).
+ * diagnostic to `out` (what the evaluator reads every written figure with). With `row` (the key
+ * table's row of `prop`, a statement's property whose value is `q`), the value is the property
+ * read ({@link ReadPropertyFigure}).
  */
 export function resolveQuantity(
   prop: { key: string; keySpan: PropertyNode['keySpan'] },
   q: QuantityNode,
   spec: QuantitySpec,
   out: DiagnosticReport,
+  row?: KeySpec,
 ): ResolvedQuantity | null {
   let unit: UnitDef | null = null;
-  let unitText = '';
   let si: number;
   let scale: number;
   if (q.unit === null) {
@@ -162,7 +216,6 @@ export function resolveQuantity(
     si = q.number.value;
     scale = 1;
   } else {
-    unitText = q.unit.text;
     const def = findUnit(q.unit.text);
     if (!def || def.dimension !== spec.dimension) {
       const suggestion = suggestSymbol(q.unit.text, [spec.dimension]);
@@ -187,7 +240,6 @@ export function resolveQuantity(
   }
   // Tolerance: half a unit of the last significant digit, or the explicit ± figure.
   let toleranceSI = (claimResolution(q, spec.dimension) / 2) * Math.abs(scale);
-  let explicitTolerance = false;
   if (q.tolerance) {
     const t = q.tolerance;
     const tv = t.number.value;
@@ -202,7 +254,6 @@ export function resolveQuantity(
       });
       return null;
     }
-    explicitTolerance = true;
     if (t.unit === null) {
       toleranceSI = tv * Math.abs(scale);
     } else if (t.unit.text === '%' && spec.dimension !== 'fraction') {
@@ -234,7 +285,9 @@ export function resolveQuantity(
     });
     return null;
   }
-  return { si, unit, unitText, toleranceSI, explicitTolerance, quantity: q };
+  return row
+    ? new ReadPropertyFigure(si, unit, toleranceSI, prop as PropertyNode, row)
+    : new ReadFigure(si, unit, toleranceSI, q);
 }
 
 /**
