@@ -26,10 +26,10 @@ export class EvalContext {
   readonly diagnostics: CoreDiagnostic[] = [];
   readonly items: EvaluatedItem[] = [];
   /**
-   * The items of the names' first definitions (the ones that own them), in the order they were
-   * evaluated: what {@link byName} is made of.
+   * The items of the names' first definitions (the ones that own them), once an item does not own
+   * its name; null while every item does (then they are {@link items}: no second list).
    */
-  readonly owners: EvaluatedItem[] = [];
+  private ownerItems: EvaluatedItem[] | null = null;
   /** {@link byName} once made (at the first reference resolved, or by the analysis when read). */
   private byNameMap: Map<string, EvaluatedItem> | null = null;
   readonly references: { name: string; span: Span; statement: Statement }[] = [];
@@ -137,10 +137,22 @@ export class EvalContext {
   /** Stores an evaluated item (and links it to its name when this statement owns the name). */
   addItem(item: EvaluatedItem, owner: boolean): void {
     this.items.push(item);
-    if (!owner) return;
-    this.owners.push(item);
+    if (!owner) {
+      // The first item that does not own its name: the owners are the items before it.
+      this.ownerItems ??= this.items.slice(0, this.items.length - 1);
+      return;
+    }
+    this.ownerItems?.push(item);
     // A name has one owner (its first definition), so it is set once.
     this.byNameMap?.set(item.name, item);
+  }
+
+  /**
+   * The items of the names' first definitions (the ones that own them), in the order they were
+   * evaluated: what {@link byName} is made of.
+   */
+  get owners(): readonly EvaluatedItem[] {
+    return this.ownerItems ?? this.items;
   }
 
   /**
