@@ -1,6 +1,8 @@
 /**
- * Results of evaluating a parsed note. Plain data, SI inside (see physics/types.ts for the
- * units); formatting for display happens in the service, the CLI and the chart.
+ * Results of evaluating a parsed note. Data, read and never changed in place (a state is the
+ * compact `physics/moistAir.ts`; shared lists are frozen: `./shared.ts`), SI inside (see
+ * physics/types.ts for the units); formatting for display happens in the service, the CLI and the
+ * chart.
  */
 import type { MoistAirState, DefiningKey } from '../physics/types';
 import type { UnitSystem } from '../units/types';
