@@ -17,25 +17,8 @@ import { SWITCH_C } from './saturation';
 /** The names of a state's figures, in the order of {@link MoistAir.figures} (and of the plain object's fields). */
 export const STATE_FIGURES = ['p', 'db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'rho', 'pw', 'pws', 'ws', 'mu'] as const;
 
-/** A state's fields as a plain object, in the order the engine has always written them. */
-export interface MoistAirRecord {
-  p: number;
-  db: number;
-  wb: number;
-  dp: number;
-  rh: number;
-  w: number;
-  h: number;
-  v: number;
-  rho: number;
-  pw: number;
-  pws: number;
-  ws: number;
-  mu: number;
-  wbIce: boolean;
-  dpFrost: boolean;
-  fog: boolean;
-}
+/** A state's fields as a plain object (own data properties, the fields of {@link MoistAirState}). */
+export type MoistAirRecord = { [K in keyof MoistAirState]: MoistAirState[K] };
 
 /** A moist-air state (see the module comment); build it with {@link moistAir}. */
 export class MoistAir implements MoistAirState {
