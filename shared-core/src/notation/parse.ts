@@ -996,13 +996,8 @@ class StatementParser {
   private quantity(context: 'prop' | 'stream', key?: string): ParsedQuantity | null {
     const number = this.number(key);
     if (!number) return null;
-    let unit: ParsedUnit | null = null;
-    const unitStart = this.pos;
-    const unitEnd = this.unitEnd(unitStart);
-    if (unitEnd > unitStart) {
-      this.consume(unitEnd);
-      unit = new ParsedUnit(internedSlice(this.text, unitStart, unitEnd), unitStart);
-    } else {
+    let unit = this.attachedUnit();
+    if (unit === null) {
       const detachedEnd = this.detachedUnit(context);
       if (detachedEnd >= 0) {
         // The cursor is at the unit's start.
@@ -1190,14 +1185,17 @@ class StatementParser {
     }
     const number = this.number();
     if (!number) return null;
-    let unit: ParsedUnit | null = null;
+    const unit = this.attachedUnit();
+    return { number, unit, span: this.span(start, unit ? unit.end : number.end) };
+  }
+
+  /** The unit written directly after a number, at the cursor (consumed), or null when none is. */
+  private attachedUnit(): ParsedUnit | null {
     const unitStart = this.pos;
     const unitEnd = this.unitEnd(unitStart);
-    if (unitEnd > unitStart) {
-      this.consume(unitEnd);
-      unit = new ParsedUnit(internedSlice(this.text, unitStart, unitEnd), unitStart);
-    }
-    return { number, unit, span: this.span(start, unit ? unit.end : number.end) };
+    if (unitEnd <= unitStart) return null;
+    this.consume(unitEnd);
+    return new ParsedUnit(internedSlice(this.text, unitStart, unitEnd), unitStart);
   }
 }
 
