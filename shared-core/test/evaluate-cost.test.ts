@@ -12,6 +12,7 @@ import { runInNewContext } from 'node:vm';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { evaluate } from '../src/evaluate/evaluate';
 import type { StateResult } from '../src/evaluate/types';
+import type { StateStatement } from '../src/notation/ast';
 import { parseNote } from '../src/notation/parse';
 
 setFlagsFromString('--expose-gc');
@@ -152,5 +153,34 @@ describe('evaluator cost: what the results of a note hold', () => {
       return v;
     });
     expect(lists).toBe('[[],[],["db","rh"],["db","rh"]]');
+  });
+
+  it('reads a line of many properties once over: duplicates are found among the first of each known key', () => {
+    // One state line of n unknown keys and then n dry-bulbs (a crafted line, invented figures):
+    // each dry-bulb after the first is a duplicate of the first. Looking for that first one
+    // among every property before it read the line n² times over.
+    const n = 2000;
+    const line = `state X: ${'zz=1 '.repeat(n)}${'db=20C '.repeat(n)}rh=50%`;
+    const text = `\`\`\`air\n${line}\n\`\`\`\n`;
+    const parsed = parseNote(text);
+    const stmt = parsed.statements[0] as StateStatement;
+    let reads = 0;
+    stmt.props = new Proxy(stmt.props, {
+      get(target, key, receiver) {
+        if (typeof key === 'string' && /^\d+$/.test(key)) reads++;
+        return Reflect.get(target, key, receiver);
+      },
+    });
+    const analysis = evaluate(parsed, {}, text);
+    expect(stmt.props).toHaveLength(2 * n + 1);
+    expect(reads).toBeLessThan(3 * stmt.props.length);
+    // The diagnostics are the same: each unknown key, and each later dry-bulb pointing at the first.
+    const codes = analysis.diagnostics.map((d) => d.code);
+    expect(codes.filter((c) => c === 'unknown-key')).toHaveLength(n);
+    const duplicates = analysis.diagnostics.filter((d) => d.code === 'duplicate-key');
+    expect(duplicates).toHaveLength(n - 1);
+    const firstDb = stmt.props[n]!;
+    expect(firstDb.key).toBe('db');
+    for (const d of duplicates) expect(d.related?.[0]?.span).toEqual(firstDb.span);
   });
 });

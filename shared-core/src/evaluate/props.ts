@@ -52,8 +52,8 @@ export function readProps(
   // 16 at its first element), cut to the number read at the end.
   const out: ReadProp[] = new Array<ReadProp>(props.length);
   let n = 0;
-  // Made at the first key that cannot be read (most statements have none).
-  let broken: string[] | null = null;
+  // The properties of known keys that could not be read, made at the first (most statements have none).
+  let broken: PropertyNode[] | null = null;
   let unknownKeys = 0;
   let refs: RefSite | null = null;
   for (let i = 0; i < props.length; i++) {
@@ -79,15 +79,10 @@ export function readProps(
       unknownKeys++;
       continue;
     }
-    // The first property with this key is the one that counts (statements hold a handful of
-    // properties: a linear scan beats a Map here).
-    let first: PropertyNode | undefined;
-    for (let j = 0; j < i; j++) {
-      if (props[j]!.key === prop.key) {
-        first = props[j];
-        break;
-      }
-    }
+    // The first property with this key is the one that counts. It is among the first properties
+    // of known keys, read or not (one per key: a list no longer than the table, however long the
+    // line), so a linear scan of those beats a Map here and stays linear in the line.
+    const first = firstWithKey(out, n, broken, prop.key);
     if (first) {
       if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement });
       ctx.report({
@@ -104,7 +99,7 @@ export function readProps(
       refs ??= { statement, index, allowed };
       const r = readReference(ctx, prop, prop.ref, spec, refs, what);
       if (!r) {
-        broken = appended(broken, prop.key);
+        broken = appended(broken, prop);
         continue;
       }
       out[n++] = { key: prop.key, spec, prop, q: r.q, ref: r.ref };
@@ -112,17 +107,29 @@ export function readProps(
     }
     if (prop.value === null) {
       // The parser has reported the syntax error already.
-      broken = appended(broken, prop.key);
+      broken = appended(broken, prop);
       continue;
     }
     // The property read is its own quantity (one object: `ReadPropertyFigure`).
     const read = resolveQuantity(prop, prop.value, spec, ctx, spec);
     if (!read) {
-      broken = appended(broken, prop.key);
+      broken = appended(broken, prop);
       continue;
     }
     out[n++] = read as ReadPropertyFigure;
   }
   out.length = n;
-  return { props: out, broken: broken ?? NO_KEYS, unknownKeys };
+  return { props: out, broken: broken ? broken.map((p) => p.key) : NO_KEYS, unknownKeys };
+}
+
+/** The property of key `key` among the first `n` read (`out`) and those that could not be read, if any. */
+function firstWithKey(
+  out: readonly ReadProp[],
+  n: number,
+  broken: readonly PropertyNode[] | null,
+  key: string,
+): PropertyNode | undefined {
+  for (let j = 0; j < n; j++) if (out[j]!.key === key) return out[j]!.prop;
+  if (broken) for (const p of broken) if (p.key === key) return p;
+  return undefined;
 }
