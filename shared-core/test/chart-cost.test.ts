@@ -8,9 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { chartDataFromAnalysis, renderChartFromData, type ChartData, type ChartPoint } from '../src/chart';
 import { analyzeNote } from '../src/analyze';
 import { MAX_TAG_CANDIDATES } from '../src/chart/labels';
-import { elements, spread } from './chart-helpers';
-
-const P0 = 101_325; // ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0
+import { P0, elements, spread } from './chart-helpers';
 
 /** Counts calls of `obj[key]` while `run` runs. */
 function counting<T extends object>(obj: T, keys: (keyof T)[], run: () => void): number {

@@ -2,7 +2,7 @@
 import type { ChartData, ChartPoint, Pixel } from '../src/chart';
 
 /** Standard atmospheric pressure at sea level, Pa (ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0). */
-const SEA_LEVEL_PA = 101_325;
+export const P0 = 101_325;
 
 /** Attributes of every element with a given tag and class, as string maps. */
 export function elements(svg: string, tag: string, cls?: string): Record<string, string>[] {
@@ -111,5 +111,5 @@ export function spread(n: number, seed0 = 12345): ChartData {
     points.push({ name: `Z${i}`, kind: 'state', db: 5 + rnd() * 30, w: 0.002 + rnd() * 0.012 });
   const processes = [];
   for (let i = 0; i + 1 < n; i += 3) processes.push({ name: `P${i}`, from: `Z${i}`, to: `Z${i + 1}` });
-  return { pressurePa: SEA_LEVEL_PA, units: 'SI', points, mixes: [], processes, infeasible: [] };
+  return { pressurePa: P0, units: 'SI', points, mixes: [], processes, infeasible: [] };
 }

@@ -11,9 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../src/analyze';
 import { renderChartCases, renderChartFromData, type ChartPoint } from '../src/chart';
 import { textWidth } from '../src/chart/labels';
-import { elements, parsePath, spread } from './chart-helpers';
-
-const P0 = 101_325; // ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0
+import { P0, elements, parsePath, spread } from './chart-helpers';
 
 interface Box {
   x: number;

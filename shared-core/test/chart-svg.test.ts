@@ -16,9 +16,7 @@ import {
   type ChartPoint,
 } from '../src/chart';
 import { humRatioFromRelHum, satHumRatio } from '../src/physics';
-import { elements } from './chart-helpers';
-
-const P0 = 101_325; // ASHRAE HoF 2017 SI Ch.1 Table 1, Z = 0
+import { P0, elements } from './chart-helpers';
 
 function state(name: string, db: number, w: number, extra: Partial<ChartPoint> = {}): ChartPoint {
   return { name, kind: 'state', db, w, ...extra };
