@@ -19,6 +19,7 @@ import {
   adiabaticByEffectiveness,
   adiabaticToDb,
   adiabaticToRh,
+  adiabaticToW,
   coilFromAdp,
   fanLeaving,
   fanTemperatureRise,
@@ -26,7 +27,6 @@ import {
   sensibleByDt,
   sensibleByDuty,
   sensibleToDb,
-  solveState,
   steamEnthalpy,
   steamToRh,
   steamToW,
@@ -36,7 +36,6 @@ import {
   PsychroError,
 } from '../physics';
 import type { DefiningKey } from '../physics/types';
-import { problemParts, withoutFinalStop } from '../physics/message';
 import { exampleIn, problemTexts } from './figures';
 import type { CoreDiagnostic, ProcessStatement, PropertyNode } from '../notation/ast';
 import type { Span } from '../text/types';
@@ -395,50 +394,9 @@ export function deriveLeaving(
             return modelValue(ctx, what, adiabaticToRh(a, target.q.si), props, fallback);
           case 'db':
             return modelValue(ctx, what, adiabaticToDb(a, target.q.si), props, fallback);
-          default: {
+          default:
             // To a target humidity ratio on the wet-bulb line.
-            if (target.q.si < a.w) {
-              ctx.report(
-                problemReport(
-                  ctx,
-                  what,
-                  {
-                    code: 'unreachable',
-                    key: 'w',
-                    message:
-                      'the target humidity ratio is below the entering one: evaporating water only adds moisture',
-                    fix: 'give a higher target',
-                  },
-                  props,
-                  fallback,
-                ),
-              );
-              return null;
-            }
-            const s = solveState({ wb: a.wb, w: target.q.si }, a.p);
-            if (!s.ok) {
-              ctx.report(
-                problemReport(
-                  ctx,
-                  what,
-                  {
-                    code: 'unreachable',
-                    key: 'w',
-                    message: s.problem.message.replace(/\.$/, ''),
-                    fix: s.problem.fix,
-                    parts: {
-                      message: withoutFinalStop(problemParts(s.problem).message),
-                      fix: problemParts(s.problem).fix,
-                    },
-                  },
-                  props,
-                  fallback,
-                ),
-              );
-              return null;
-            }
-            return { state: s.state, dw: s.state.w - a.w };
-          }
+            return modelValue(ctx, what, adiabaticToW(a, target.q.si), props, fallback);
         }
       });
       if (!r) return null;

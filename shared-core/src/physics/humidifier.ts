@@ -139,7 +139,7 @@ export function steamToRh(a: MoistAirState, rh2: number, hSteam: number): Equipm
 
 function onWetBulbLine(
   a: MoistAirState,
-  input: { db: number } | { rh: number },
+  input: { db: number } | { rh: number } | { w: number },
   key: string,
 ): EquipmentOutcome<HumidifierResult> {
   const solved = solveState({ wb: a.wb, ...input }, a.p);
@@ -190,6 +190,19 @@ export function adiabaticToRh(a: MoistAirState, rh2: number): EquipmentOutcome<H
   if (refused) return refused;
   if (rh2 <= a.rh) return ok({ state: a, dw: 0 });
   return onWetBulbLine(a, { rh: rh2 }, 'rh');
+}
+
+/** Adiabatic humidifier to a target humidity ratio `w2` (kg/kg) on the wet-bulb line. */
+export function adiabaticToW(a: MoistAirState, w2: number): EquipmentOutcome<HumidifierResult> {
+  if (w2 < a.w) {
+    return fail(
+      'unreachable',
+      'w',
+      'the target humidity ratio is below the entering one: evaporating water only adds moisture',
+      'give a higher target',
+    );
+  }
+  return onWetBulbLine(a, { w: w2 }, 'w');
 }
 
 /** Saturation effectiveness of an adiabatic process from `a` to `b`: (t₁ − t₂) / (t₁ − t*), or null when t₁ = t*. */

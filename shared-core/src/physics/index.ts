@@ -72,6 +72,7 @@ export {
   adiabaticByEffectiveness,
   adiabaticToDb,
   adiabaticToRh,
+  adiabaticToW,
   saturationEffectiveness,
   DEFAULT_STEAM_PRESSURE_PA,
   type HumidifierResult,
