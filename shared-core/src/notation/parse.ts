@@ -385,14 +385,14 @@ class StatementParser {
   }
 
   private state(start: number, keywordEnd: number): StateStatement {
-    const name = this.definedName('state', start, keywordEnd, 'state RA: db=24C rh=50%');
+    const name = this.definedName('state', start, keywordEnd);
     this.colon('state', name, start, !name);
     const props = this.props();
     return new ParsedState(this.origin, this.sharedStmtSpan(start, keywordEnd), name, props);
   }
 
   private mix(keywordSpan: Span): MixStatement {
-    const name = this.definedName('mix', keywordSpan.start, keywordSpan.end, 'mix MA: OA 25% + RA 75%');
+    const name = this.definedName('mix', keywordSpan.start, keywordSpan.end);
     this.colon('mix', name, keywordSpan.start, !name);
     const streams = this.streams(keywordSpan, name?.text ?? 'MA');
     const props = this.props();
@@ -452,12 +452,7 @@ class StatementParser {
   }
 
   private recover(keywordSpan: Span): RecoverStatement {
-    const name = this.definedName(
-      'recover',
-      keywordSpan.start,
-      keywordSpan.end,
-      'recover HX: OA -> OA2, EA -> EA2 eff_s=0.70',
-    );
+    const name = this.definedName('recover', keywordSpan.start, keywordSpan.end);
     const self = name?.text ?? 'HX';
     this.colon('recover', name, keywordSpan.start, !name);
     const streams: RecoverStream[] = [];
@@ -480,8 +475,7 @@ class StatementParser {
           const at = this.peek() >= 0 ? this.pos : this.lastEnd;
           this.report(
             'syntax',
-            `a recover statement takes two streams separated by a comma: ` +
-              `write recover ${self}: OA -> OA2, EA -> EA2 eff_s=0.70`,
+            `a recover statement takes two streams separated by a comma: write ${headExample('recover', name)}`,
             at,
             at,
           );
@@ -514,12 +508,7 @@ class StatementParser {
   }
 
   private supply(keywordSpan: Span): SupplyStatement {
-    const name = this.definedName(
-      'supply',
-      keywordSpan.start,
-      keywordSpan.end,
-      'supply SA: RA q_sensible=41.5kW q_latent=8kW db=13.6C',
-    );
+    const name = this.definedName('supply', keywordSpan.start, keywordSpan.end);
     this.colon('supply', name, keywordSpan.start, !name);
     const room = this.referencedName('the room state the supply serves', headExample('supply', name), keywordSpan);
     const props = this.props();
@@ -626,13 +615,21 @@ class StatementParser {
     return !this.keyAhead();
   }
 
-  /** The name after `state`/`mix`/`process`. */
-  private definedName(keyword: Keyword, keywordStart: number, keywordEnd: number, example: string): NameNode | null {
+  /**
+   * The name after the keyword; `example` is the statement written out for messages (made only
+   * for a message: by default the keyword's {@link headExample}).
+   */
+  private definedName(keyword: Keyword, keywordStart: number, keywordEnd: number, example?: string): NameNode | null {
     const c = this.peek();
     if (c < 0 || c === 0x3a || this.keyAhead()) {
       const at = c === 0x3a ? this.pos : keywordStart;
       const endAt = c === 0x3a ? this.pos + 1 : keywordEnd;
-      this.report('missing-name', `'${keyword}' needs a name before ':': write ${example}`, at, endAt);
+      this.report(
+        'missing-name',
+        `'${keyword}' needs a name before ':': write ${example ?? headExample(keyword, null)}`,
+        at,
+        endAt,
+      );
       return null;
     }
     const start = this.pos;
@@ -643,7 +640,7 @@ class StatementParser {
       this.report(
         'bad-name',
         `'${this.text.slice(start, rawEnd)}' is not a valid name: use ` +
-          `a letter, then letters, digits, '_' or '-' (e.g. ${example})`,
+          `a letter, then letters, digits, '_' or '-' (e.g. ${example ?? headExample(keyword, null)})`,
         start,
         rawEnd,
       );
