@@ -80,9 +80,20 @@ export interface JsonKey {
   readonly leads: Lead[];
 }
 
+/** The keys made so far, by name (one key per name for every writer and every document). */
+const KEYS = new Map<string, JsonKey>();
+/** At most this many keys are kept. */
+const MAX_KEYS = 1024;
+
 /** The key of a member named `name` (made once per name: a document's keys are a few dozen). */
 export function jsonKey(name: string): JsonKey {
-  return { name, text: Buffer.from(`${JSON.stringify(name)}: `, 'utf8'), leads: [] };
+  let key = KEYS.get(name);
+  if (key === undefined) {
+    key = { name, text: Buffer.from(`${JSON.stringify(name)}: `, 'utf8'), leads: [] };
+    // The keys written are the document's few dozen names; a plain value's keys are kept too, up to a bound.
+    if (KEYS.size < MAX_KEYS) KEYS.set(name, key);
+  }
+  return key;
 }
 
 /** Keys for names written in the code: `K.name`, `K.line` … */
@@ -274,8 +285,6 @@ export class TextWriter implements JsonWriter {
   private lastLong: string | null = null;
   private repeated: string | null = null;
   private repeatedText: Lead | null = null;
-  /** The keys of the members of plain values ({@link TextWriter.value}). */
-  private readonly keys = new Map<string, JsonKey>();
   /** The four ASCII digits of 0 … 9999, as words (see {@link fourDigits}). */
   private readonly fourDigits = fourDigits();
 
@@ -517,17 +526,8 @@ export class TextWriter implements JsonWriter {
     }
     const o = v as Record<string, unknown>;
     this.open(key);
-    for (const k of Object.keys(o)) this.value(this.keyOf(k), o[k]);
+    for (const k of Object.keys(o)) this.value(jsonKey(k), o[k]);
     this.close();
-  }
-  /** The key of a member of a plain value (kept for the next time: such keys are few). */
-  private keyOf(name: string): JsonKey {
-    let k = this.keys.get(name);
-    if (k === undefined) {
-      k = jsonKey(name);
-      if (this.keys.size < 1024) this.keys.set(name, k);
-    }
-    return k;
   }
   open(key: JsonKey | null): void {
     this.member(key);
