@@ -277,19 +277,28 @@ describe.skipIf(skip)('Dewmark extension in code-server', () => {
 
   it('draws the chart again at its panel width when the window is resized', async () => {
     const wb = session.workbench;
-    const drawnFor = async (what: string) =>
+    // The room must first change (the workbench lays out after the resize, so a view read at once is still the old
+    // one), then the drawing must follow it.
+    const drawnFor = async (what: string, roomChanged: (room: number) => boolean) =>
       wb.waitFor(what, async () => {
         const v = await chartView(wb.page);
         // Drawn for the room it has (within the page's 8 px step; at least 480 px, scaled down below that).
-        return v && Math.abs(v.drawnWidth - Math.max(480, v.roomWidth)) <= 8 && v.svgWidth <= v.roomWidth + 1
+        return v &&
+          roomChanged(v.roomWidth) &&
+          Math.abs(v.drawnWidth - Math.max(480, v.roomWidth)) <= 8 &&
+          v.svgWidth <= v.roomWidth + 1
           ? v
           : undefined;
       });
+    const before = await wb.waitFor('the chart before the resize', async () => (await chartView(wb.page)) ?? undefined);
     await wb.page.setViewportSize({ width: 1800, height: 1000 });
-    const wide = await drawnFor('the chart drawn for a wide panel');
+    const wide = await drawnFor('the chart drawn for a wide panel', (room) => room > before.roomWidth + 100);
     await wb.screenshot('chart-wide');
     await wb.page.setViewportSize({ width: 1400, height: 900 });
-    const narrow = await drawnFor('the chart drawn again for the narrower panel');
+    const narrow = await drawnFor(
+      'the chart drawn again for the narrower panel',
+      (room) => room < wide.roomWidth - 100,
+    );
     await wb.screenshot('chart-narrow');
     expect(narrow.drawnWidth).toBeLessThan(wide.drawnWidth - 100);
     expect(narrow.updates).toBeGreaterThan(wide.updates);
