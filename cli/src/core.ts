@@ -3,8 +3,15 @@
  * the units, the line index and the results-table edits (for `fix`), each from its layer's entry
  * point (`@dewmark/core/<layer>`).
  */
-export { analyzeNote } from '@dewmark/core/analyze';
-export type { Analysis, ClaimResult, EvaluateSettings, ProcessResult, StateResult } from '@dewmark/core/evaluate';
+export { analyzeHandingOut, analyzeNote, type HandedOutAnalysis, type HandingOut } from '@dewmark/core/analyze';
+export type {
+  Analysis,
+  ClaimResult,
+  EvaluateSettings,
+  EvaluatedItem,
+  ProcessResult,
+  StateResult,
+} from '@dewmark/core/evaluate';
 export type { CoreDiagnostic } from '@dewmark/core/notation';
 export { LineIndex } from '@dewmark/core/text';
 export { displayUnit, displaySymbol, figure, lookupUnit, toSI } from '@dewmark/core/units';

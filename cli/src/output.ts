@@ -1,6 +1,26 @@
 /** What `dewmark` prints: diagnostic lines, the JSON documents, and the terminal tables. */
-import type { Analysis, ClaimResult, CoreDiagnostic, Dimension, ProcessResult, StateResult, UnitSystem } from './core';
-import { LineIndex, displaySymbol, displayUnit, jsonFigureOf, jsonName, processRow, stateRow, waterUnit } from './core';
+import type {
+  Analysis,
+  ClaimResult,
+  CoreDiagnostic,
+  Dimension,
+  EvaluatedItem,
+  EvaluateSettings,
+  ProcessResult,
+  StateResult,
+  UnitSystem,
+} from './core';
+import {
+  LineIndex,
+  analyzeHandingOut,
+  displaySymbol,
+  displayUnit,
+  jsonFigureOf,
+  jsonName,
+  processRow,
+  stateRow,
+  waterUnit,
+} from './core';
 import { type JsonWriter, ObjectWriter, type TakePiece, TextWriter, jsonKey, jsonKeys } from './jsonWriter';
 import { safeLinePath, safeText } from './sanitize';
 
@@ -29,7 +49,7 @@ export function fileResult(path: string, text: string, analysis: Analysis): File
 }
 
 /** The diagnostic with 1-based line/column positions. */
-export function diagnosticJson(f: FileResult, d: CoreDiagnostic): DiagnosticJson {
+export function diagnosticJson(f: Pick<FileResult, 'text' | 'lines'>, d: CoreDiagnostic): DiagnosticJson {
   const a = f.lines.lineCol(Math.max(0, Math.min(d.span.start, f.text.length)));
   const b = f.lines.lineCol(Math.max(0, Math.min(d.span.end, f.text.length)));
   return {
@@ -60,14 +80,23 @@ export interface Counts {
 /** Counts the diagnostics of some files. */
 export function countDiagnostics(files: FileResult[]): Counts {
   const c: Counts = { errors: 0, warnings: 0, infos: 0 };
-  for (const f of files) {
-    for (const d of f.analysis.diagnostics) {
-      if (d.severity === 'error') c.errors++;
-      else if (d.severity === 'warning') c.warnings++;
-      else c.infos++;
-    }
-  }
+  for (const f of files) addCounts(c, f.analysis.diagnostics);
   return c;
+}
+
+/** Counts diagnostics by severity. */
+function countOf(diagnostics: readonly CoreDiagnostic[]): Counts {
+  const c: Counts = { errors: 0, warnings: 0, infos: 0 };
+  addCounts(c, diagnostics);
+  return c;
+}
+
+function addCounts(c: Counts, diagnostics: readonly CoreDiagnostic[]): void {
+  for (const d of diagnostics) {
+    if (d.severity === 'error') c.errors++;
+    else if (d.severity === 'warning') c.warnings++;
+    else c.infos++;
+  }
 }
 
 const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
@@ -325,28 +354,57 @@ function writeProcess(w: JsonWriter, p: ProcessResult, line: number): void {
   w.close();
 }
 
-/** One file of the `eval --format json` document (an object): its states and mixes, processes and diagnostics. */
-function writeEvalFile(w: JsonWriter, f: FileResult): void {
+/**
+ * A file of the `eval --format json` document as its parts come: its items, in document order,
+ * handed one at a time to `each` by `items` (which may evaluate the note as it goes), then its
+ * diagnostics (read once `items` has returned).
+ */
+interface EvalFileParts {
+  file: Pick<FileResult, 'path' | 'text' | 'lines'>;
+  units: UnitSystem;
+  items(each: (item: EvaluatedItem) => void): void;
+  diagnostics(): readonly CoreDiagnostic[];
+}
+
+/** The {@link EvalFileParts} of an analysed file. */
+function analysedParts(f: FileResult): EvalFileParts {
+  return {
+    file: f,
+    units: f.analysis.units,
+    items: (each) => {
+      // Indexed: an iterator's result objects are not always optimised away (one per item).
+      const items = f.analysis.items;
+      for (let i = 0; i < items.length; i++) each(items[i]!);
+    },
+    diagnostics: () => f.analysis.diagnostics,
+  };
+}
+
+/**
+ * One file of the `eval --format json` document (an object): its states and mixes, written as
+ * they come, then its processes and its diagnostics.
+ */
+function writeEvalFile(w: JsonWriter, parts: EvalFileParts): void {
+  const f = parts.file;
   const lines = new ItemLines(f.lines);
-  const items = f.analysis.items;
+  const processes: ProcessResult[] = [];
   w.open(null);
   w.str(K.path, f.path);
-  w.str(K.units, f.analysis.units);
-  // Indexed loops: an iterator's result objects are not always optimised away (one per item).
+  w.str(K.units, parts.units);
   w.openArray(K.states);
-  for (let i = 0; i < items.length; i++) {
-    const item = items[i]!;
-    if (item.kind !== 'process') writeState(w, item, lines.of(item));
-  }
+  parts.items((item) => {
+    if (item.kind === 'process') processes.push(item);
+    else writeState(w, item, lines.of(item));
+  });
   w.closeArray();
   w.openArray(K.processes);
-  for (let i = 0; i < items.length; i++) {
-    const item = items[i]!;
-    if (item.kind === 'process') writeProcess(w, item, lines.of(item));
+  for (let i = 0; i < processes.length; i++) {
+    const p = processes[i]!;
+    writeProcess(w, p, lines.of(p));
   }
   w.closeArray();
   w.openArray(K.diagnostics);
-  for (const d of f.analysis.diagnostics) {
+  for (const d of parts.diagnostics()) {
     w.value(null, diagnosticJson(f, d));
   }
   w.closeArray();
@@ -370,7 +428,7 @@ export function processJson(f: FileResult, p: ProcessResult): Record<string, unk
 /** One file of the `eval --format json` document, as objects (see {@link writeEvalFile}). */
 export function evalFileJson(f: FileResult): Record<string, unknown> {
   const w = new ObjectWriter();
-  writeEvalFile(w, f);
+  writeEvalFile(w, analysedParts(f));
   return w.result as Record<string, unknown>;
 }
 
@@ -382,8 +440,37 @@ export function evalFileJson(f: FileResult): Record<string, unknown> {
  */
 export function evalFileText(f: FileResult, depth: number, emit: TakePiece): void {
   const w = new TextWriter(depth, emit);
-  writeEvalFile(w, f);
+  writeEvalFile(w, analysedParts(f));
   w.flush();
+}
+
+/**
+ * {@link evalFileText} of the note `text` read at `path`, each state written as soon as it is
+ * evaluated and then let go (`analyzeHandingOut`): the same document, and a note of any length
+ * costs about as much memory as a short one. Returns the note's diagnostic counts; null, with
+ * nothing written, for a note that has to be analysed whole (see `analyzeHandingOut`).
+ */
+export function evalNoteText(
+  path: string,
+  text: string,
+  settings: Partial<EvaluateSettings>,
+  depth: number,
+  emit: TakePiece,
+): Counts | null {
+  const evaluation = analyzeHandingOut(text, settings);
+  if (!evaluation) return null;
+  let diagnostics: readonly CoreDiagnostic[] = [];
+  const w = new TextWriter(depth, emit);
+  writeEvalFile(w, {
+    file: { path, text, lines: new LineIndex(text) },
+    units: evaluation.units,
+    items: (each) => {
+      diagnostics = evaluation.run(each).diagnostics;
+    },
+    diagnostics: () => diagnostics,
+  });
+  w.flush();
+  return countOf(diagnostics);
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -14,6 +14,7 @@ import {
   diagnosticJson,
   diagnosticLine,
   evalFileText,
+  evalNoteText,
   fileResult,
   pieceText,
   processesTable,
@@ -62,6 +63,11 @@ export function renderFile(
   settings: Partial<EvaluateSettings>,
   emit?: Emit,
 ): FileOutput {
+  if (mode === 'eval-json' && emit) {
+    // Each state written as it is evaluated, nothing kept (for most notes; else analysed whole below).
+    const counts = evalNoteText(display, text, settings, 2, emit);
+    if (counts) return { text: '', json: null, counts };
+  }
   const f = fileResult(display, text, analyzeNote(text, settings));
   const counts = countDiagnostics([f]);
   switch (mode) {

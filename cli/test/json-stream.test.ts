@@ -16,7 +16,15 @@ import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../../shared-core/src/analyze';
-import { evalFileJson, evalFileText, fileResult, roundForJson, JSON_SIGNIFICANT_DIGITS } from '../src/output';
+import {
+  countDiagnostics,
+  evalFileJson,
+  evalFileText,
+  evalNoteText,
+  fileResult,
+  roundForJson,
+  JSON_SIGNIFICANT_DIGITS,
+} from '../src/output';
 import { TextWriter, jsonKey, pieceText } from '../src/jsonWriter';
 import { runCli as dewmark } from './lib/runCli';
 
@@ -210,6 +218,38 @@ describe('eval --format json, written without the objects', () => {
       seen.diagnostic! += object.diagnostics.length;
     }
     for (const [part, n] of Object.entries(seen)) expect(n, part).toBeGreaterThan(0);
+  });
+
+  it('writes each state as it is evaluated, keeping none: the same bytes and counts for every note here', () => {
+    const notes = [
+      ...notesBelow(join(repo, 'test', 'fixtures')),
+      ...notesBelow(join(repo, 'examples')),
+      ...notesBelow(join(repo, 'docs')),
+    ];
+    let handedOut = 0;
+    for (const path of notes) {
+      const text = readFileSync(path, 'utf8');
+      const name = relative(repo, path);
+      const f = fileResult(name, text, analyzeNote(text));
+      const whole = collector();
+      evalFileText(f, 2, whole.take);
+      const each = collector();
+      const counts = evalNoteText(name, text, {}, 2, each.take);
+      // A note with a written results table, or that names IP units, is analysed whole (nothing written here).
+      const declined = /units\s*:(?!\s*SI\b)/.test(text) || text.includes('dewmark-results');
+      expect(counts === null, `${name} declined`).toBe(declined);
+      if (counts === null) {
+        expect(each.pieces, name).toHaveLength(0);
+        continue;
+      }
+      handedOut++;
+      expect(each.text(), name).toBe(whole.text());
+      expect(counts, name).toEqual(countDiagnostics([f]));
+    }
+    // Most notes are written so, the examples among them.
+    expect(handedOut).toBeGreaterThan(notes.length / 2);
+    const example = readFileSync(join(repo, 'examples', 'kestrel-ridge-ahu1.md'), 'utf8');
+    expect(evalNoteText('x.md', example, {}, 0, collector().take)).not.toBeNull();
   });
 
   it('writes values of every kind as JSON.stringify does, at any depth', () => {

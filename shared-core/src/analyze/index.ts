@@ -5,4 +5,5 @@
  * table format) and below `service/`.
  */
 export { analyzeNote } from './analyze';
+export { analyzeHandingOut, type HandedOutAnalysis, type HandingOut } from './handingOut';
 export { createAnalyzer, type Analyzer } from './analyzer';

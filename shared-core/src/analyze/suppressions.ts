@@ -17,10 +17,13 @@
  * Linear in the note: one scan of the air regions' text for the word, and one pass over the
  * diagnostics with a line lookup each.
  */
-import type { CoreDiagnostic } from '../notation/ast';
+import type { CoreDiagnostic, ParsedNote } from '../notation/ast';
 import { LineIndex } from '../text/lineIndex';
 import type { Span } from '../text/types';
 import type { Analysis, RuleSetting, SuppressedDiagnostic } from '../evaluate/types';
+
+/** What the policy reads of an analysis (and sets: `diagnostics`, `suppressed`). */
+type PolicyInput = Pick<Analysis, 'settings' | 'diagnostics' | 'suppressed'> & { parsed: Pick<ParsedNote, 'regions'> };
 
 /** The word of an ignore comment. */
 export const IGNORE_WORD = 'dewmark-ignore';
@@ -56,7 +59,7 @@ function lineStart(text: string, offset: number): number {
 }
 
 /** Finds the ignore comments of the note's air regions. */
-function ignoreComments(analysis: Analysis, text: string, problems: CoreDiagnostic[]): IgnoreComment[] {
+function ignoreComments(analysis: PolicyInput, text: string, problems: CoreDiagnostic[]): IgnoreComment[] {
   const out: IgnoreComment[] = [];
   for (const region of analysis.parsed.regions) {
     const body = text.slice(region.contentSpan.start, region.contentSpan.end);
@@ -123,7 +126,7 @@ interface CommentIndex {
   lines: LineIndex;
 }
 
-function indexComments(comments: IgnoreComment[], analysis: Analysis, text: string): CommentIndex {
+function indexComments(comments: IgnoreComment[], analysis: PolicyInput, text: string): CommentIndex {
   const idx: CommentIndex = {
     byLine: new Map(),
     byRegion: new Map(),
@@ -167,7 +170,7 @@ function coveringComment(idx: CommentIndex, d: CoreDiagnostic): IgnoreComment | 
  * `diagnostics` is replaced, `suppressed` set). Diagnostic objects are never mutated: a changed
  * severity is a copy, since the incremental analyzer reuses them.
  */
-export function applyDiagnosticPolicy(analysis: Analysis, text: string): void {
+export function applyDiagnosticPolicy(analysis: PolicyInput, text: string): void {
   const rules = analysis.settings.rules;
   const hasRules = rules !== undefined && Object.keys(rules).length > 0;
   const problems: CoreDiagnostic[] = [];

@@ -10,6 +10,7 @@ import type { Dimension } from '../units/types';
 import { figureText, messageText, type FigureTextOptions } from './figures';
 import { caseFoldedIndex, suggestName, type FoldedIndex } from '../text/suggest';
 import type { NameDef, NoteNames } from './names';
+import { ForgottenStates } from './forgotten';
 
 export type { NameDef } from './names';
 
@@ -55,6 +56,16 @@ export class EvalContext {
   private lines: LineIndex | null = null;
   /** The defined names indexed for "did you mean", built at the first unknown name (one index for all of them). */
   private nameIndex: FoldedIndex | null = null;
+  /** Where items go when they are handed out rather than kept (see {@link handingOut}). */
+  private sink: ((item: EvaluatedItem) => void) | null = null;
+  /** The plain states let go after they were handed out (see `./forgotten`). */
+  private forgotten: ForgottenStates | null = null;
+  /** The statement being evaluated, and its fence line (−1 for a code span's): set by the evaluation. */
+  index = -1;
+  lineStart = -1;
+  lineEnd = -1;
+  /** True while a state let go is evaluated again: its diagnostics were reported the first time. */
+  private muted = false;
 
   /**
    * @param units  the note's unit system: that of its `units:` line when it has one, else the
@@ -92,7 +103,32 @@ export class EvalContext {
 
   /** Adds a diagnostic. */
   report(d: CoreDiagnostic): void {
-    this.diagnostics.push(d);
+    if (!this.muted) this.diagnostics.push(d);
+  }
+
+  /**
+   * Hands every item to `sink` as it is made instead of keeping it in {@link items}, and lets go
+   * of the plain states among them (`./forgotten`), which a reference evaluates again: for a
+   * reader that is done with an item once it has it (the command line writing a large note).
+   * Called before the first statement; the analysis is the same, less its items.
+   */
+  handingOut(sink: (item: EvaluatedItem) => void): void {
+    this.sink = sink;
+    this.forgotten = new ForgottenStates(this.text ?? '');
+    this.byNameMap = new Map();
+  }
+
+  /** `run()` under the pressure basis `site`, its diagnostics not reported (see `./forgotten`). */
+  quietly<T>(site: PressureBasis, run: () => T): T {
+    const { site: was, muted } = this;
+    this.site = site;
+    this.muted = true;
+    try {
+      return run();
+    } finally {
+      this.site = was;
+      this.muted = muted;
+    }
   }
 
   /** "line 12" when the source text is known, else "" (messages read well either way). */
@@ -136,6 +172,14 @@ export class EvalContext {
 
   /** Stores an evaluated item (and links it to its name when this statement owns the name). */
   addItem(item: EvaluatedItem, owner: boolean): void {
+    if (this.sink) {
+      this.sink(item);
+      if (!owner) return;
+      if (this.text !== undefined && ForgottenStates.canForget(item, this.lineStart))
+        this.forgotten!.forget(this.index, this.lineStart, this.lineEnd, this.site);
+      else this.byNameMap!.set(item.name, item);
+      return;
+    }
     this.items.push(item);
     if (!owner) {
       // The first item that does not own its name: the owners are the items before it.
@@ -176,7 +220,19 @@ export class EvalContext {
    */
   itemBefore(name: string, index: number): EvaluatedItem | null {
     const first = this.names.firstIndex(name);
-    return first >= 0 && first < index ? (this.byName().get(name) ?? null) : null;
+    return first >= 0 && first < index ? (this.ownerItem(name, first) ?? null) : null;
+  }
+
+  /**
+   * The item of the registered name `name`, first defined by statement `first`: kept, or let go
+   * and evaluated again (then kept); undefined when that statement made none.
+   */
+  ownerItem(name: string, first: number): EvaluatedItem | undefined {
+    const item = this.byName().get(name);
+    if (item || !this.forgotten) return item;
+    const again = this.forgotten.recall(this, first);
+    if (again) this.byNameMap!.set(name, again);
+    return again ?? undefined;
   }
 
   /**
@@ -190,7 +246,7 @@ export class EvalContext {
     // definitions are in document order, so no other stands above).
     const first = this.names.firstDef(ref.text);
     if (first && first.statementIndex < index) {
-      const item = this.byName().get(ref.text);
+      const item = this.ownerItem(ref.text, first.statementIndex);
       if (item) return { ok: true, item, def: first };
       return { ok: false, failed: true, def: first };
     }

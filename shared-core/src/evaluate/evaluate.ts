@@ -14,7 +14,8 @@ import type {
 import type { Analysis, EvaluateSettings, EvaluatedItem, PressureBasis, ProcessResult, StateResult } from './types';
 import type { UnitSystem } from '../units/types';
 import { EvalContext, byNameOf } from './context';
-import { NoteNames } from './names';
+import { NoteNames, statementList, type NoteStatements } from './names';
+import { parseNote, parseNoteStatements } from '../notation/parse';
 import { SITE_KEYS } from './keys';
 import { exampleIn } from './figures';
 import { evaluateMix } from './mix';
@@ -281,6 +282,42 @@ function reusedProcess(
 export const STATEMENTS_PER_STEP = 256;
 
 /**
+ * Evaluates statement `index` into `ctx` inside a guard: a failure becomes a diagnostic on the
+ * statement. `lineStart` and `lineEnd` are its fence line's offsets (−1 for a code span's), which
+ * an evaluation handing its items out needs to let a plain state go (`./forgotten`).
+ */
+function evaluateGuarded(
+  ctx: EvalContext,
+  stmt: Statement,
+  index: number,
+  reuse: EvaluateReuse | undefined,
+  lineStart = -1,
+  lineEnd = -1,
+): void {
+  ctx.index = index;
+  ctx.lineStart = lineStart;
+  ctx.lineEnd = lineEnd;
+  try {
+    evaluateStatement(ctx, stmt, index, reuse);
+  } catch (err) {
+    ctx.report({
+      code: 'internal-error',
+      severity: 'error',
+      message:
+        `this statement could not be evaluated ` +
+        `(${err instanceof Error ? err.message : String(err)}); please report it with the note`,
+      span: (stmt as Statement).span ?? { start: 0, end: 0 },
+    });
+  }
+}
+
+/** The evaluation's diagnostics after the parser's, in document order. */
+function allDiagnostics(parsed: readonly CoreDiagnostic[], ctx: EvalContext): CoreDiagnostic[] {
+  // The sort is stable, so diagnostics at one span keep the order they were made in.
+  return parsed.concat(ctx.diagnostics).sort(bySpan);
+}
+
+/**
  * {@link evaluate} in steps: a generator that pauses after every {@link STATEMENTS_PER_STEP}
  * statements (so a caller, the language server, can serve other work in between) and returns
  * the analysis. Driven to the end it is exactly `evaluate`.
@@ -293,7 +330,12 @@ export function* evaluateSteps(
 ): Generator<void, Analysis, void> {
   const resolved = resolveSettings(settings);
   const statements = Array.isArray(parsed?.statements) ? parsed.statements : [];
-  const ctx = new EvalContext(resolved, text, noteUnits(statements, resolved.units), new NoteNames(statements));
+  const ctx = new EvalContext(
+    resolved,
+    text,
+    noteUnits(statements, resolved.units),
+    new NoteNames(statementList(statements)),
+  );
   if (reuse) {
     ctx.solve = reuse.solve;
     ctx.site = reuse.basis(ctx.site);
@@ -301,25 +343,10 @@ export function* evaluateSteps(
 
   for (let index = 0; index < statements.length; index++) {
     if (index > 0 && index % STATEMENTS_PER_STEP === 0) yield;
-    const stmt = statements[index]!;
-    try {
-      evaluateStatement(ctx, stmt, index, reuse);
-    } catch (err) {
-      ctx.report({
-        code: 'internal-error',
-        severity: 'error',
-        message:
-          `this statement could not be evaluated ` +
-          `(${err instanceof Error ? err.message : String(err)}); please report it with the note`,
-        span: (stmt as Statement).span ?? { start: 0, end: 0 },
-      });
-    }
+    evaluateGuarded(ctx, statements[index]!, index, reuse);
   }
 
-  const parseDiagnostics: CoreDiagnostic[] = Array.isArray(parsed?.diagnostics) ? parsed.diagnostics : [];
-  // In document order; the sort is stable, so diagnostics at one span keep the order they were made in.
-  const diagnostics = parseDiagnostics.concat(ctx.diagnostics).sort(bySpan);
-
+  const diagnostics = allDiagnostics(Array.isArray(parsed?.diagnostics) ? parsed.diagnostics : [], ctx);
   const made = ctx.byNameIfMade();
   const owners = ctx.owners;
   return {
@@ -341,5 +368,93 @@ export function* evaluateSteps(
     },
     references: ctx.references,
     diagnostics,
+  };
+}
+
+/**
+ * What {@link evaluateHandingOut} returns: the analysis less what it handed out (its items, and the
+ * statements of `parsed`) and less the map of names and the references (an evaluation that keeps
+ * no item has neither).
+ */
+export interface HandedOutAnalysis extends Omit<Analysis, 'parsed' | 'items' | 'byName' | 'references'> {
+  parsed: Pick<ParsedNote, 'regions' | 'headings'>;
+}
+
+/**
+ * `units` followed by a colon and the word after it: every `units:` statement has them (a keyword
+ * is written as it is, and neither a fence nor a code span knows escapes).
+ */
+const UNITS_WRITTEN = /units\s*:\s*(\w*)/g;
+
+/**
+ * True when every `units:` the note may hold names `units` (or none is written): then the note's
+ * unit system is `units` from its first statement on, wherever its `units:` line stands.
+ */
+function unitsAgree(text: string, units: UnitSystem): boolean {
+  UNITS_WRITTEN.lastIndex = 0;
+  for (let m = UNITS_WRITTEN.exec(text); m; m = UNITS_WRITTEN.exec(text)) if (m[1] !== units) return false;
+  return true;
+}
+
+/**
+ * A note to be evaluated one statement at a time ({@link evaluateHandingOut}), its unit system
+ * known before the first statement.
+ */
+export interface HandingOut {
+  /**
+   * The unit system of every message and pressure description: the settings', which the note's
+   * `units:` line (if any) names too.
+   */
+  units: UnitSystem;
+  /**
+   * Parses and evaluates the note, handing each item (state, mix, supply, process) to `onItem`
+   * as soon as it is made, in the order of `evaluate(parseNote(text)).items`, and keeping
+   * neither the statements nor the items (a later reference reads what it needs again:
+   * `./forgotten`). Call it once.
+   */
+  run(onItem: (item: EvaluatedItem) => void): HandedOutAnalysis;
+}
+
+/**
+ * The same evaluation as {@link evaluate}, for a reader that is done with each item once it has
+ * it: memory stays flat however long the note. The note's unit system must be known before its
+ * first statement (it is in every message and pressure description), and a `units:` line may
+ * stand anywhere: so a note that may name other units than the settings' is not evaluated so
+ * (null; {@link evaluate} reads it).
+ */
+export function evaluateHandingOut(text: string, settings?: Partial<EvaluateSettings>): HandingOut | null {
+  const resolved = resolveSettings(settings);
+  if (!unitsAgree(text, resolved.units)) return null;
+  return { units: resolved.units, run: (onItem) => runHandingOut(text, resolved, onItem) };
+}
+
+function runHandingOut(
+  text: string,
+  resolved: EvaluateSettings,
+  onItem: (item: EvaluatedItem) => void,
+): HandedOutAnalysis {
+  let statements: readonly Statement[] | null = null;
+  // Every statement of the note, read again only when a message needs the rest of the note (a
+  // name used before its definition, an unknown name's suggestions, a duplicate name).
+  const all = (): readonly Statement[] => (statements ??= parseNote(text).statements);
+  const source: NoteStatements = {
+    defining: (name, index) => ctx.ownerItem(name, index)?.statement ?? all()[index],
+    all,
+  };
+  const ctx: EvalContext = new EvalContext(resolved, text, resolved.units, new NoteNames(source));
+  ctx.handingOut(onItem);
+  const parseDiagnostics: CoreDiagnostic[] = [];
+  let index = 0;
+  const parsed = parseNoteStatements(
+    text,
+    (stmt, lineStart, lineEnd) => evaluateGuarded(ctx, stmt, index++, undefined, lineStart, lineEnd),
+    parseDiagnostics,
+  );
+  return {
+    parsed,
+    units: ctx.units,
+    unitsSource: ctx.unitsSource,
+    settings: resolved,
+    diagnostics: allDiagnostics(parseDiagnostics, ctx),
   };
 }

@@ -29,6 +29,24 @@ export interface NameDef {
   keyword: 'state' | 'mix' | 'process' | 'supply' | 'recover';
 }
 
+/**
+ * Where {@link NoteNames} reads the statements that define names: the note's list of statements,
+ * or (when the evaluator takes the statements one at a time and keeps none, see
+ * `EvalContext.forgetting`) the statement that defined a name so far, and the whole list made
+ * when a message needs the rest of the note.
+ */
+export interface NoteStatements {
+  /** Statement `index`, which defines `name` (a registered name). */
+  defining(name: string, index: number): Statement | undefined;
+  /** Every statement of the note. */
+  all(): readonly Statement[];
+}
+
+/** The {@link NoteStatements} of a list of statements. */
+export function statementList(statements: readonly Statement[]): NoteStatements {
+  return { defining: (_name, index) => statements[index], all: () => statements };
+}
+
 /** The names of a note: those defined so far, and (when asked) those of the whole note. */
 export class NoteNames {
   /** Name → index of the statement that first defines it, for the statements registered so far. */
@@ -36,7 +54,7 @@ export class NoteNames {
   /** The same for the whole note, made at the first question about a name not defined above. */
   private whole: Map<string, number> | null = null;
 
-  constructor(private readonly statements: readonly Statement[]) {}
+  constructor(private readonly statements: NoteStatements) {}
 
   /**
    * Registers the name `node` written in statement `index` (the evaluator registers every name
@@ -68,8 +86,8 @@ export class NoteNames {
     const first = this.registered.get(name);
     const index = first >= 0 ? first : this.wholeNote().get(name);
     if (index === undefined) return undefined;
-    const s = this.statements[index]!;
-    if (!namesSomething(s)) return undefined;
+    const s = first >= 0 ? this.statements.defining(name, index) : this.statements.all()[index];
+    if (!s || !namesSomething(s)) return undefined;
     const node = definingNode(s, name);
     if (!node) return undefined;
     return { name, span: node.span, statementIndex: index, keyword: s.keyword };
@@ -81,7 +99,7 @@ export class NoteNames {
   }
 
   private wholeNote(): Map<string, number> {
-    this.whole ??= scanNote(this.statements);
+    this.whole ??= scanNote(this.statements.all());
     return this.whole;
   }
 }

@@ -1295,29 +1295,43 @@ export function parseStatementPieces(text: string, pieces: readonly Span[], orig
   return { statement, diagnostics };
 }
 
+/**
+ * Where {@link parseNoteStatements} hands each statement as it is read: the statement, and for a
+ * fence's line the line's span (`lineStart`, `lineEnd`: {@link parseStatementText} of that range
+ * reads the same statement again); −1 for both for a code span's statement.
+ */
+export type StatementSink = (statement: Statement, lineStart: number, lineEnd: number) => void;
+
 function regionStatements(
   text: string,
   region: ExtractedRegion,
-  statements: Statement[],
+  onStatement: StatementSink,
   diagnostics: CoreDiagnostic[],
 ): void {
   if (region.origin === 'inline') {
     const st = shared.parse(text, region.lines, 'inline', diagnostics);
-    if (st) statements.push(st);
+    if (st) onStatement(st, -1, -1);
     return;
   }
   const one: Span[] = [{ start: 0, end: 0 }];
   for (const line of region.lines) {
     one[0] = line;
     const st = shared.parse(text, one, 'fence', diagnostics);
-    if (st) statements.push(st);
+    if (st) onStatement(st, line.start, line.end);
   }
 }
 
-/** Finds the air regions of a Markdown note and parses their statements (never throws). */
-export function parseNote(text: string): ParsedNote {
-  const statements: Statement[] = [];
-  const diagnostics: CoreDiagnostic[] = [];
+/**
+ * {@link parseNote} that hands each statement to `onStatement` as it is read, in document order,
+ * instead of keeping them (so that a reader which is done with a statement lets it go). The
+ * parser's diagnostics go to `diagnostics`. Never throws; `onStatement` may read other statements
+ * of the text meanwhile ({@link parseStatementText}).
+ */
+export function parseNoteStatements(
+  text: string,
+  onStatement: StatementSink,
+  diagnostics: CoreDiagnostic[],
+): Pick<ParsedNote, 'regions' | 'headings'> {
   let extracted: ReturnType<typeof extractRegions>;
   try {
     extracted = extractRegions(text);
@@ -1332,9 +1346,20 @@ export function parseNote(text: string): ParsedNote {
         `no statement was read — please report this with the note`,
       span: { start: 0, end: 0 },
     });
-    return { regions: [], headings: [], statements, diagnostics };
+    return { regions: [], headings: [] };
   }
-  for (const region of extracted.regions) regionStatements(text, region, statements, diagnostics);
-  shared.release();
-  return { regions: extracted.regions, headings: extracted.headings, statements, diagnostics };
+  try {
+    for (const region of extracted.regions) regionStatements(text, region, onStatement, diagnostics);
+  } finally {
+    shared.release();
+  }
+  return { regions: extracted.regions, headings: extracted.headings };
+}
+
+/** Finds the air regions of a Markdown note and parses their statements (never throws). */
+export function parseNote(text: string): ParsedNote {
+  const statements: Statement[] = [];
+  const diagnostics: CoreDiagnostic[] = [];
+  const { regions, headings } = parseNoteStatements(text, (st) => statements.push(st), diagnostics);
+  return { regions, headings, statements, diagnostics };
 }

@@ -1,0 +1,188 @@
+/**
+ * The evaluation that hands its items out as they are made (`evaluateHandingOut`, what the command
+ * line writes a large note's results with) against the whole-note evaluation (`evaluate`): the
+ * same items in the same order, field for field, and the same diagnostics, on notes whose states
+ * are referred to after they were let go (under another site's pressure, by a duplicate name, from
+ * a mix, a process, a supply and a heat recovery), and the bytes it keeps per state while it runs
+ * (forced collections; counted, never timed). The notes are invented; no figure is checked here
+ * (the physics is checked against its sources in the physics and fixture tests).
+ */
+import { getHeapSpaceStatistics, setFlagsFromString } from 'node:v8';
+import { runInNewContext } from 'node:vm';
+import { describe, expect, it } from 'vitest';
+import { analyzeHandingOut } from '../src/analyze/handingOut';
+import { analyzeNote } from '../src/analyze/analyze';
+import { evaluate, evaluateHandingOut } from '../src/evaluate/evaluate';
+import type { EvaluatedItem, EvaluateSettings, StateResult } from '../src/evaluate/types';
+import { parseNote } from '../src/notation/parse';
+
+setFlagsFromString('--expose-gc');
+/** A full collection (the engine's own, exposed for this file). */
+const collect = runInNewContext('gc') as () => void;
+
+/** Bytes in use on the heap after a full collection, without compiled code. */
+function heapBytes(): number {
+  collect();
+  collect();
+  let bytes = 0;
+  for (const space of getHeapSpaceStatistics())
+    if (!space.space_name.startsWith('code')) bytes += space.space_used_size;
+  return bytes;
+}
+
+/** The items a handing-out evaluation of `text` hands out, and its analysis. */
+function handedOut(text: string, settings?: Partial<EvaluateSettings>) {
+  const evaluation = evaluateHandingOut(text, settings);
+  expect(evaluation, 'the note can be evaluated one statement at a time').not.toBeNull();
+  const items: EvaluatedItem[] = [];
+  const analysis = evaluation!.run((item) => items.push(item));
+  return { items, analysis, units: evaluation!.units };
+}
+
+/** Checks that handing out gives `evaluate`'s items and diagnostics for `text`; returns the whole analysis. */
+function expectSame(text: string, settings?: Partial<EvaluateSettings>) {
+  const whole = evaluate(parseNote(text), settings, text);
+  const out = handedOut(text, settings);
+  expect(JSON.stringify(out.items)).toBe(JSON.stringify(whole.items));
+  expect(out.analysis.diagnostics).toEqual(whole.diagnostics);
+  expect(out.units).toBe(whole.units);
+  expect(out.analysis.units).toBe(whole.units);
+  expect(out.analysis.unitsSource).toBe(whole.unitsSource);
+  expect(out.analysis.parsed.regions).toEqual(whole.parsed.regions);
+  return whole;
+}
+
+/** The computed state of `name` in an analysis (it must have been computed). */
+function computed(items: readonly EvaluatedItem[], name: string): StateResult {
+  const item = items.find((i): i is StateResult => i.name === name && i.kind !== 'process');
+  expect(item?.state, `${name} is computed`).toBeTruthy();
+  return item!;
+}
+
+/** A block of `n` states with distinct names, each from db and rh (invented). */
+function statesNote(n: number): string {
+  const lines = ['# Plant room states (invented)', '', '```air'];
+  for (let i = 0; i < n; i++) lines.push(`state S${i}: db=${15 + (i % 10)}C rh=${40 + (i % 30)}%`);
+  lines.push('```', '');
+  return lines.join('\n');
+}
+
+/** Invented: the air side of a lab wing, written so that every kind of statement refers to states let go. */
+const REFERRING_NOTE = `# Lab wing, level 3 (invented)
+
+\`\`\`air
+state OA: db=31C rh=40% h=99kJ/kg        # a claim that fails: reported once, not again when OA is read back
+state OVR: db=26C rh=50% p=97kPa         # its own pressure
+site: elev=1200m
+state RA: db=23C rh=45%
+state OA: db=10C rh=10%                  # a second OA: the first stays the one referred to
+state OFF: w=OA.w db=OA.db-3K            # read back from a state let go, under sea-level pressure
+state RA2: h=RA.h rh=55%                 # read back under the 1200 m pressure
+state OVR2: db=OVR.db rh=60%
+mix MA: OA 30% + RA 70%
+process HTG: RA -> OVR
+process CC: MA -> LVG db=13C rh=95%
+supply SA: RA q_sensible=12kW q_latent=2kW db=14C
+recover HX: OA -> OAHX m=1.2kg/s, RA -> EAHX m=1.0kg/s eff_s=0.65
+state BAD: w=OAA.w db=20C                # no such name: the suggestions read the whole note again
+state EARLY: w=LATE.w db=20C             # defined further down
+state LATE: db=20C rh=50%
+\`\`\`
+
+A state in the text, \`state TXT: db=21C rh=48%\`, is kept as it was made.
+
+\`\`\`air
+site: p=101.325kPa
+state TXT2: w=TXT.w db=RA.db
+state RA3: db=RA.db rh=RA.rh             # RA again, now kept
+\`\`\`
+`;
+
+describe('evaluating a note one statement at a time, keeping nothing', () => {
+  it('hands out the items and diagnostics of the whole evaluation, on states read back after they were let go', () => {
+    const whole = expectSame(REFERRING_NOTE);
+    // Each reference above resolved to a computed state (so the comparison covers the read back).
+    for (const name of ['OFF', 'RA2', 'OVR2', 'MA', 'LVG', 'SA', 'OAHX', 'EAHX', 'TXT2', 'RA3'])
+      computed(whole.items, name);
+    // OFF takes the first OA's humidity ratio (not the second's), RA2 the enthalpy RA had under the site's pressure.
+    const [firstOA, secondOA] = whole.items.filter((i): i is StateResult => i.name === 'OA');
+    expect(computed(whole.items, 'OFF').state!.w).toBe(firstOA!.state!.w);
+    expect(firstOA!.state!.w).not.toBe(secondOA!.state!.w);
+    expect(computed(whole.items, 'RA2').state!.h).toBe(computed(whole.items, 'RA').state!.h);
+    expect(computed(whole.items, 'RA').state!.p).toBeLessThan(firstOA!.state!.p);
+    const codes = whole.diagnostics.map((d) => d.code);
+    for (const code of ['claim-mismatch', 'duplicate-name', 'unknown-name', 'used-before-defined'])
+      expect(codes, code).toContain(code);
+    // The failed claim of OA, read back three times, is reported once.
+    expect(whole.diagnostics.filter((d) => d.code === 'claim-mismatch' && d.message.includes('h'))).toHaveLength(1);
+  });
+
+  it('gives the same in IP, with a project rule, and on notes that end mid-statement or hold nothing', () => {
+    expectSame(REFERRING_NOTE, { units: 'IP', pressurePa: 90_000, pressureOrigin: 'setting dewmark.pressure' });
+    expectSame('# Nothing here\n\nProse only.\n');
+    expectSame('```air\nstate A: db=20C rh=\nstate B: w=A.w db=\n');
+    expectSame('```air\nstate A db=20C\nmix M: A + \nprocess P: A ->\n```\n');
+    const ruled = analyzeHandingOut(REFERRING_NOTE, { rules: { 'unknown-name': 'warning', 'claim-mismatch': 'off' } });
+    const items: EvaluatedItem[] = [];
+    const a = ruled!.run((i) => items.push(i));
+    const b = analyzeNote(REFERRING_NOTE, { rules: { 'unknown-name': 'warning', 'claim-mismatch': 'off' } });
+    expect(a.diagnostics).toEqual(b.diagnostics);
+    expect(a.diagnostics.some((d) => d.code === 'unknown-name' && d.severity === 'warning')).toBe(true);
+    expect(JSON.stringify(items)).toBe(JSON.stringify(b.items));
+  });
+
+  it('applies ignore comments as the whole analysis does', () => {
+    const text = REFERRING_NOTE.replace(
+      'state BAD: w=OAA.w db=20C                # no such name',
+      'state BAD: w=OAA.w db=20C   # dewmark-ignore unknown-name -- a placeholder until the survey',
+    ).replace('state LATE:', '# dewmark-ignore fog\nstate LATE:');
+    const evaluation = analyzeHandingOut(text);
+    const a = evaluation!.run(() => {});
+    const b = analyzeNote(text);
+    expect(a.diagnostics).toEqual(b.diagnostics);
+    expect(a.suppressed).toEqual(b.suppressed);
+    expect(a.suppressed?.map((d) => d.code)).toEqual(['unknown-name']);
+    expect(a.diagnostics.some((d) => d.code === 'ignore-comment')).toBe(true);
+  });
+
+  it('hands out nothing for a note that may name other units than the settings, or holds a results table', () => {
+    expect(evaluateHandingOut('```air\nstate A: db=20C rh=50%\nunits: IP\n```\n')).toBeNull();
+    expect(evaluateHandingOut('Figures below are in `units: IP`.\n')).toBeNull();
+    expect(evaluateHandingOut('```air\nunits : SI\n```\n', { units: 'IP' })).toBeNull();
+    expect(evaluateHandingOut('```air\nunits: metric\n```\n')).toBeNull();
+    expect(evaluateHandingOut('```air\nunits: SI\nunits: SIx\n```\n')).toBeNull();
+    // A units: line naming the settings' units is read as it comes (the same as the whole evaluation).
+    expect(evaluateHandingOut('```air\nstate A: db=20C rh=50%\nunits: SI\n```\n')!.units).toBe('SI');
+    const whole = expectSame('```air\nstate A: db=70F rh=50%\nunits:  IP   # the plant is in IP\nunits: IP\n```\n', {
+      units: 'IP',
+    });
+    expect(whole.unitsSource).toBe('note');
+    expectSame('```air\nstate A: db=20C rh=50%\nunits: SI\nstate B: db=A.db rh=40%\nunits: SI\n```\n');
+    expect(analyzeHandingOut('```air\nstate A: db=20C rh=50%\n```\n<!-- dewmark-results end -->\n')).toBeNull();
+    // The word alone, without the colon, is prose.
+    expect(evaluateHandingOut('All units are SI.\n```air\nstate A: db=20C rh=50%\n```\n')).not.toBeNull();
+  });
+
+  it('keeps a fixed amount per state while it runs: its name, and where its line is, not its tree or result', () => {
+    const n = 20_000;
+    const text = statesNote(n);
+    // Warm up, so that compiled code and the parser's shared scratch space are not counted.
+    handedOut(statesNote(200));
+    let heldWhileRunning = 0;
+    const base = heapBytes();
+    let seen = 0;
+    evaluateHandingOut(text)!.run(() => {
+      if (++seen === n) heldWhileRunning = heapBytes() - base;
+    });
+    expect(seen).toBe(n);
+    const perState = heldWhileRunning / n;
+    // The name in the table of names (its string, slot and value) and three 4-byte slots of where its line is.
+    expect(perState).toBeLessThan(120);
+    // The whole evaluation holds every tree and result by then (several hundred bytes each).
+    const before = heapBytes();
+    const whole = evaluate(parseNote(text), {}, text);
+    const wholePerState = (heapBytes() - before) / n;
+    expect(whole.items).toHaveLength(n);
+    expect(wholePerState).toBeGreaterThan(4 * perState);
+  });
+});
