@@ -43,13 +43,16 @@ export interface DiagnosticJson {
   message: string;
 }
 
+/** What a file's diagnostics are printed with: its path, and its text with the text's line index. */
+export type CheckedFile = Pick<FileResult, 'path' | 'text' | 'lines'>;
+
 /** Builds a {@link FileResult}. */
 export function fileResult(path: string, text: string, analysis: Analysis): FileResult {
   return { path, text, analysis, lines: new LineIndex(text) };
 }
 
 /** The diagnostic with 1-based line/column positions. */
-export function diagnosticJson(f: Pick<FileResult, 'text' | 'lines'>, d: CoreDiagnostic): DiagnosticJson {
+export function diagnosticJson(f: Omit<CheckedFile, 'path'>, d: CoreDiagnostic): DiagnosticJson {
   const a = f.lines.lineCol(Math.max(0, Math.min(d.span.start, f.text.length)));
   const b = f.lines.lineCol(Math.max(0, Math.min(d.span.end, f.text.length)));
   return {
@@ -64,7 +67,7 @@ export function diagnosticJson(f: Pick<FileResult, 'text' | 'lines'>, d: CoreDia
 }
 
 /** `path:line:col: severity[code]: message` (the form CI problem matchers read). */
-export function diagnosticLine(f: FileResult, d: CoreDiagnostic): string {
+export function diagnosticLine(f: CheckedFile, d: CoreDiagnostic): string {
   const j = diagnosticJson(f, d);
   const message = safeText(j.message.replace(/\s*\n\s*/g, ' '));
   return `${safeLinePath(f.path)}:${j.line}:${j.column}: ${j.severity}[${j.code}]: ${message}`;
@@ -85,7 +88,7 @@ export function countDiagnostics(files: FileResult[]): Counts {
 }
 
 /** Counts diagnostics by severity. */
-function countOf(diagnostics: readonly CoreDiagnostic[]): Counts {
+export function diagnosticCounts(diagnostics: readonly CoreDiagnostic[]): Counts {
   const c: Counts = { errors: 0, warnings: 0, infos: 0 };
   addCounts(c, diagnostics);
   return c;
@@ -360,7 +363,7 @@ function writeProcess(w: JsonWriter, p: ProcessResult, line: number): void {
  * diagnostics (read once `items` has returned).
  */
 interface EvalFileParts {
-  file: Pick<FileResult, 'path' | 'text' | 'lines'>;
+  file: CheckedFile;
   units: UnitSystem;
   items(each: (item: EvaluatedItem) => void): void;
   diagnostics(): readonly CoreDiagnostic[];
@@ -470,7 +473,7 @@ export function evalNoteText(
     diagnostics: () => diagnostics,
   });
   w.flush();
-  return countOf(diagnostics);
+  return diagnosticCounts(diagnostics);
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -5,12 +5,13 @@
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { availableParallelism, loadavg } from 'node:os';
 import type { EvaluateSettings } from './core';
-import { analyzeNote } from './core';
+import { LineIndex, analyzeHandingOut, analyzeNote, type Analysis } from './core';
 import { STDIN_PATH, decodeText, readInput, type Input } from '@dewmark/files';
-import type { Counts, TakePiece } from './output';
+import type { CheckedFile, Counts, TakePiece } from './output';
 import { safeLinePath } from './sanitize';
 import {
   countDiagnostics,
+  diagnosticCounts,
   diagnosticJson,
   diagnosticLine,
   evalFileText,
@@ -68,28 +69,15 @@ export function renderFile(
     const counts = evalNoteText(display, text, settings, 2, emit);
     if (counts) return { text: '', json: null, counts };
   }
+  if (mode === 'check-text' || mode === 'check-json') {
+    // Only the diagnostics are printed: the items are let go as they are made (for most notes).
+    const handingOut = analyzeHandingOut(text, settings);
+    const analysis = handingOut ? handingOut.run(() => {}) : analyzeNote(text, settings);
+    return checkOutput(mode, { path: display, text, lines: new LineIndex(text) }, analysis);
+  }
   const f = fileResult(display, text, analyzeNote(text, settings));
   const counts = countDiagnostics([f]);
   switch (mode) {
-    case 'check-text': {
-      let t = '';
-      for (const d of f.analysis.diagnostics) t += `${diagnosticLine(f, d)}\n`;
-      return { text: t, json: null, counts };
-    }
-    case 'check-json': {
-      const json: Record<string, unknown> = {
-        path: f.path,
-        diagnostics: f.analysis.diagnostics.map((d) => diagnosticJson(f, d)),
-      };
-      // Diagnostics acknowledged by ignore comments: reported, not counted.
-      if (f.analysis.suppressed)
-        json.suppressed = f.analysis.suppressed.map((d) => ({
-          ...diagnosticJson(f, d),
-          justification: d.justification,
-          ignoreLine: f.lines.lineCol(d.suppressedBy.start).line,
-        }));
-      return { text: '', json, counts };
-    }
     case 'eval-json': {
       // The file's object inside the document's `files` array: two levels deep.
       if (emit) {
@@ -119,6 +107,32 @@ export function renderFile(
       return { text: t, json: null, counts };
     }
   }
+}
+
+/** The `check` output of a file from its diagnostics (and those ignore comments acknowledged). */
+function checkOutput(
+  mode: 'check-text' | 'check-json',
+  f: CheckedFile,
+  analysis: Pick<Analysis, 'diagnostics' | 'suppressed'>,
+): FileOutput {
+  const counts = diagnosticCounts(analysis.diagnostics);
+  if (mode === 'check-text') {
+    let t = '';
+    for (const d of analysis.diagnostics) t += `${diagnosticLine(f, d)}\n`;
+    return { text: t, json: null, counts };
+  }
+  const json: Record<string, unknown> = {
+    path: f.path,
+    diagnostics: analysis.diagnostics.map((d) => diagnosticJson(f, d)),
+  };
+  // Diagnostics acknowledged by ignore comments: reported, not counted.
+  if (analysis.suppressed)
+    json.suppressed = analysis.suppressed.map((d) => ({
+      ...diagnosticJson(f, d),
+      justification: d.justification,
+      ignoreLine: f.lines.lineCol(d.suppressedBy.start).line,
+    }));
+  return { text: '', json, counts };
 }
 
 /**
