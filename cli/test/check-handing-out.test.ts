@@ -5,27 +5,14 @@
  * and IP and with a project rule, and on notes the whole analysis must read (a results table, IP
  * units named in the note). No figure is checked here.
  */
-import { readdirSync, readFileSync, statSync } from 'node:fs';
-import { join, relative } from 'node:path';
+import { readFileSync } from 'node:fs';
+import { relative } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { repo, repositoryNotes } from './lib/notes';
 import { analyzeHandingOut, analyzeNote } from '../../shared-core/src/analyze';
 import type { EvaluateSettings } from '../../shared-core/src/evaluate/types';
 import { countDiagnostics, diagnosticJson, diagnosticLine, fileResult } from '../src/output';
 import { renderFile } from '../src/work';
-
-const repo = join(__dirname, '..', '..');
-
-/** Every Markdown note below `dir` (recursively). */
-function notesBelow(dir: string): string[] {
-  const out: string[] = [];
-  for (const e of readdirSync(dir)) {
-    if (e === 'node_modules' || e.startsWith('.')) continue;
-    const p = join(dir, e);
-    if (statSync(p).isDirectory()) out.push(...notesBelow(p));
-    else if (/\.(md|markdown)$/.test(e)) out.push(p);
-  }
-  return out;
-}
 
 /** What `check` printed for a note before it let items go: from the whole analysis. */
 function wholeCheck(name: string, text: string, settings: Partial<EvaluateSettings>) {
@@ -49,11 +36,7 @@ function wholeCheck(name: string, text: string, settings: Partial<EvaluateSettin
 
 describe('check, letting each item go', () => {
   it('prints the diagnostics of the whole analysis for every note in the repository, in SI, IP and with a rule', () => {
-    const notes = [
-      ...notesBelow(join(repo, 'test', 'fixtures')),
-      ...notesBelow(join(repo, 'examples')),
-      ...notesBelow(join(repo, 'docs')),
-    ];
+    const notes = repositoryNotes();
     expect(notes.length).toBeGreaterThan(50);
     const settingsList: Partial<EvaluateSettings>[] = [
       {},

@@ -12,9 +12,10 @@
  * own (so a piece that split a character would show). The faster rounding of figures is compared
  * with `toPrecision(12)` itself.
  */
-import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { repo, repositoryNotes } from './lib/notes';
 import { analyzeNote } from '../../shared-core/src/analyze';
 import {
   countDiagnostics,
@@ -28,7 +29,6 @@ import {
 import { TextWriter, jsonKey, pieceText } from '../src/jsonWriter';
 import { runCli as dewmark } from './lib/runCli';
 
-const repo = join(__dirname, '..', '..');
 const fixtures = join(repo, 'test', 'fixtures');
 
 /** JSON.stringify(value, null, 2) as if the value were nested `depth` levels deep (in arrays). */
@@ -67,18 +67,6 @@ function written(value: unknown, depth: number): string {
   w.value(null, value);
   w.flush();
   return c.text();
-}
-
-/** Every Markdown note below `dir` (recursively). */
-function notesBelow(dir: string): string[] {
-  const out: string[] = [];
-  for (const e of readdirSync(dir)) {
-    if (e === 'node_modules' || e.startsWith('.')) continue;
-    const p = join(dir, e);
-    if (statSync(p).isDirectory()) out.push(...notesBelow(p));
-    else if (/\.(md|markdown)$/.test(e)) out.push(p);
-  }
-  return out;
 }
 
 /** The text `evalFileText` hands out, joined, and the number of pieces. */
@@ -163,11 +151,7 @@ describe('eval --format json, written in pieces', () => {
 
 describe('eval --format json, written without the objects', () => {
   it('gives every note in the repository the text JSON.stringify gives its objects; the notes hold every part', () => {
-    const notes = [
-      ...notesBelow(join(repo, 'test', 'fixtures')),
-      ...notesBelow(join(repo, 'examples')),
-      ...notesBelow(join(repo, 'docs')),
-    ];
+    const notes = repositoryNotes();
     expect(notes.length).toBeGreaterThan(50);
     // How often each part of the shape occurs in the notes compared (each must, for the comparison to cover it).
     const seen: Record<string, number> = {
@@ -221,11 +205,7 @@ describe('eval --format json, written without the objects', () => {
   });
 
   it('writes each state as it is evaluated, keeping none: the same bytes and counts for every note here', () => {
-    const notes = [
-      ...notesBelow(join(repo, 'test', 'fixtures')),
-      ...notesBelow(join(repo, 'examples')),
-      ...notesBelow(join(repo, 'docs')),
-    ];
+    const notes = repositoryNotes();
     let handedOut = 0;
     for (const path of notes) {
       const text = readFileSync(path, 'utf8');

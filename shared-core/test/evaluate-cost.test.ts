@@ -7,27 +7,12 @@
  * left out), so they do not depend on the machine's speed or load. The note is invented; no
  * figure is checked here.
  */
-import { getHeapSpaceStatistics, setFlagsFromString } from 'node:v8';
-import { runInNewContext } from 'node:vm';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { heapBytes } from './heap-helpers';
 import { evaluate } from '../src/evaluate/evaluate';
 import type { StateResult } from '../src/evaluate/types';
 import type { StateStatement } from '../src/notation/ast';
 import { parseNote } from '../src/notation/parse';
-
-setFlagsFromString('--expose-gc');
-/** A full collection (the engine's own, exposed for this file). */
-const collect = runInNewContext('gc') as () => void;
-
-/** Bytes in use on the heap after a full collection, without compiled code (which warms up on its own). */
-function heapBytes(): number {
-  collect();
-  collect();
-  let bytes = 0;
-  for (const space of getHeapSpaceStatistics())
-    if (!space.space_name.startsWith('code')) bytes += space.space_used_size;
-  return bytes;
-}
 
 /** A block of `n` states with distinct names, each from db and rh (invented). */
 function statesNote(n: number, extra = ''): string {

@@ -7,28 +7,13 @@
  * (forced collections; counted, never timed). The notes are invented; no figure is checked here
  * (the physics is checked against its sources in the physics and fixture tests).
  */
-import { getHeapSpaceStatistics, setFlagsFromString } from 'node:v8';
-import { runInNewContext } from 'node:vm';
 import { describe, expect, it } from 'vitest';
+import { heapBytes } from './heap-helpers';
 import { analyzeHandingOut } from '../src/analyze/handingOut';
 import { analyzeNote } from '../src/analyze/analyze';
 import { evaluate, evaluateHandingOut } from '../src/evaluate/evaluate';
 import type { EvaluatedItem, EvaluateSettings, StateResult } from '../src/evaluate/types';
 import { parseNote } from '../src/notation/parse';
-
-setFlagsFromString('--expose-gc');
-/** A full collection (the engine's own, exposed for this file). */
-const collect = runInNewContext('gc') as () => void;
-
-/** Bytes in use on the heap after a full collection, without compiled code. */
-function heapBytes(): number {
-  collect();
-  collect();
-  let bytes = 0;
-  for (const space of getHeapSpaceStatistics())
-    if (!space.space_name.startsWith('code')) bytes += space.space_used_size;
-  return bytes;
-}
 
 /** The items a handing-out evaluation of `text` hands out, and its analysis. */
 function handedOut(text: string, settings?: Partial<EvaluateSettings>) {
