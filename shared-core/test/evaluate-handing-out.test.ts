@@ -80,6 +80,8 @@ A state in the text, \`state TXT: db=21C rh=48%\`, is kept as it was made.
 site: p=101.325kPa
 state TXT2: w=TXT.w db=RA.db
 state RA3: db=RA.db rh=RA.rh             # RA again, now kept
+state AFTER: w=LVG.w db=LVG.db+1K        # states a process and a heat recovery defined
+state WARM: db=OAHX.db rh=30%
 \`\`\`
 `;
 
@@ -87,7 +89,7 @@ describe('evaluating a note one statement at a time, keeping nothing', () => {
   it('hands out the items and diagnostics of the whole evaluation, on states read back after they were let go', () => {
     const whole = expectSame(REFERRING_NOTE);
     // Each reference above resolved to a computed state (so the comparison covers the read back).
-    for (const name of ['OFF', 'RA2', 'OVR2', 'MA', 'LVG', 'SA', 'OAHX', 'EAHX', 'TXT2', 'RA3'])
+    for (const name of ['OFF', 'RA2', 'OVR2', 'MA', 'LVG', 'SA', 'OAHX', 'EAHX', 'TXT2', 'RA3', 'AFTER', 'WARM'])
       computed(whole.items, name);
     // OFF takes the first OA's humidity ratio (not the second's), RA2 the enthalpy RA had under the site's pressure.
     const [firstOA, secondOA] = whole.items.filter((i): i is StateResult => i.name === 'OA');

@@ -32,7 +32,7 @@ export interface NameDef {
 /**
  * Where {@link NoteNames} reads the statements that define names: the note's list of statements,
  * or (when the evaluator takes the statements one at a time and keeps none, see
- * `EvalContext.forgetting`) the statement that defined a name so far, and the whole list made
+ * `EvalContext.handingOut`) the statement that defined a name so far, and the whole list made
  * when a message needs the rest of the note.
  */
 export interface NoteStatements {
