@@ -7,7 +7,7 @@
  * and the resolution is the place value of the last written digit.
  */
 import { GROUP_SEPARATOR, GROUP_SIZE, groupAt, groupDigits } from '../text/thousands';
-import { internedSlice } from './intern';
+import { HASH_START, hashStep, internedHashedSlice } from './intern';
 
 /** A number found at a position, before any check of its value. */
 export interface ScannedNumber {
@@ -52,8 +52,11 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
   const start = pos;
   let c = text.charCodeAt(pos);
   let negative = false;
+  // The written text's hash for the intern table, built as each character is read (see `intern.ts`).
+  let hash = HASH_START;
   if (c === 0x2b || c === 0x2d || c === 0x2212) {
     negative = c !== 0x2b;
+    hash = hashStep(hash, c);
     pos++;
   }
   // The digits as an integer (exact while there are at most 15 of them).
@@ -64,15 +67,21 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
     c = text.charCodeAt(pos);
     if (!isDigit(c)) break;
     mantissa = mantissa * 10 + (c - 0x30);
+    hash = hashStep(hash, c);
     digits++;
     pos++;
   }
   // Thousands separators (the rule is `text/thousands.ts`'s): only after a first group of 1–3
   // digits that does not start with 0, and only whole groups (anything else is left to the caller).
   let grouped = false;
-  if (digits >= 1 && digits <= GROUP_SIZE && text.charCodeAt(first) !== 0x30) {
+  if (digits >= 1 && digits <= GROUP_SIZE && c === 0x2c && text.charCodeAt(first) !== 0x30) {
     while (groupAt(text, pos, end)) {
-      for (let i = 1; i <= GROUP_SIZE; i++) mantissa = mantissa * 10 + (text.charCodeAt(pos + i) - 0x30);
+      hash = hashStep(hash, 0x2c);
+      for (let i = 1; i <= GROUP_SIZE; i++) {
+        const d = text.charCodeAt(pos + i);
+        mantissa = mantissa * 10 + (d - 0x30);
+        hash = hashStep(hash, d);
+      }
       digits += GROUP_SIZE;
       pos += GROUP_SIZE + 1;
       grouped = true;
@@ -80,11 +89,13 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
   }
   let fractionDigits = 0;
   if (pos < end && text.charCodeAt(pos) === 0x2e) {
+    hash = hashStep(hash, 0x2e);
     pos++;
     while (pos < end) {
       c = text.charCodeAt(pos);
       if (!isDigit(c)) break;
       mantissa = mantissa * 10 + (c - 0x30);
+      hash = hashStep(hash, c);
       digits++;
       pos++;
       fractionDigits++;
@@ -96,24 +107,30 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
     if (c === 0x65 || c === 0x45) {
       let q = pos + 1;
       let sign = 1;
+      let h = hashStep(hash, c);
       const s = text.charCodeAt(q);
       if (s === 0x2b || s === 0x2d) {
         if (s === 0x2d) sign = -1;
+        h = hashStep(h, s);
         q++;
       }
       if (q < end && isDigit(text.charCodeAt(q))) {
         let e = 0;
-        while (q < end && isDigit(text.charCodeAt(q))) {
+        while (q < end) {
+          const d = text.charCodeAt(q);
+          if (!isDigit(d)) break;
           // Saturate: a huge exponent gives an infinite value or zero, reported or kept by the caller.
-          if (e < 100000) e = e * 10 + (text.charCodeAt(q) - 0x30);
+          if (e < 100000) e = e * 10 + (d - 0x30);
+          h = hashStep(h, d);
           q++;
         }
         exponent = sign * e;
         pos = q;
+        hash = h;
       }
     }
   }
-  const written = internedSlice(text, start, pos);
+  const written = internedHashedSlice(text, start, pos, hash);
   // Exact fast path: an integer below 2^53 times or divided by an exact power of ten is rounded
   // once, so it equals the correctly rounded decimal; anything else goes through Number().
   const k = exponent - fractionDigits;

@@ -54,7 +54,7 @@ import type {
 } from './ast';
 import type { Span } from '../text/types';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
-import { internedSlice } from './intern';
+import { HASH_START, hashStep, internedHashedSlice, internedSlice } from './intern';
 import { ParsedNumber, ParsedProperty, ParsedQuantity, ParsedState, ParsedUnit } from './nodes';
 import { resolutionOf, scanNumber, startsNumber, type ScannedNumber } from './number';
 import { differenceExample, findKey, referenceKeyFor } from '../vocabulary/keys';
@@ -128,11 +128,23 @@ function endsUnit(c: number): boolean {
   return isWs(c) || c === 0x23 || c === 0xb1 || c === 0x2b || c === 0x3d || c === 0x2c;
 }
 
+/**
+ * The keywords of each length (`KEYWORDS_BY_LENGTH[5]` is `units` and `state`): a word is compared
+ * only with the keywords as long as it is, which is one or two of them.
+ */
+const KEYWORDS_BY_LENGTH: readonly (readonly Keyword[])[] = Array.from(
+  { length: Math.max(...KEYWORDS.map((kw) => kw.length)) + 1 },
+  (_, n) => KEYWORDS.filter((kw) => kw.length === n),
+);
+
 /** The statement keyword written as `text[start, end)`, or null (compared in place: no substring). */
 function keywordAt(text: string, start: number, end: number): Keyword | null {
-  const length = end - start;
-  for (const kw of KEYWORDS) {
-    if (kw.length === length && text.startsWith(kw, start)) return kw;
+  const candidates = KEYWORDS_BY_LENGTH[end - start];
+  if (candidates === undefined) return null;
+  for (const kw of candidates) {
+    let i = 0;
+    while (i < kw.length && kw.charCodeAt(i) === text.charCodeAt(start + i)) i++;
+    if (i === kw.length) return kw;
   }
   return null;
 }
@@ -184,6 +196,9 @@ class StatementParser {
   /** Scratch stack of the properties being read (see {@link StatementParser.props}); `propTop` is its height. */
   private readonly propStack: PropertyNode[] = [];
   private propTop = 0;
+  /** What {@link StatementParser.nameTokenEnd} found of the last token it read (see there). */
+  private nameTokenPlain = false;
+  private nameTokenKeyEnd = -1;
   diagnostics: CoreDiagnostic[] = [];
 
   parse(text: string, segs: readonly Span[], origin: StatementOrigin, diagnostics: CoreDiagnostic[]): Statement | null {
@@ -539,17 +554,58 @@ class StatementParser {
 
   // --- names --------------------------------------------------------------------------------
 
-  /** End of the name-like token at the cursor (not checked): the token is `text[pos, nameTokenEnd())`. */
+  /**
+   * End of the name-like token at the cursor (not checked): the token is `text[pos, nameTokenEnd())`.
+   * The same reading of its characters tells {@link nameTokenPlain} and {@link nameTokenKeyEnd}.
+   */
   private nameTokenEnd(): number {
-    let p = this.pos;
+    const text = this.text;
+    const start = this.pos;
+    let p = start;
+    let keyEnd = -1;
+    let plain = p < this.end && isAsciiLetter(text.charCodeAt(p));
     while (p < this.end) {
-      const c = this.text.charCodeAt(p);
+      const c = text.charCodeAt(p);
+      if (isKeyChar(c)) {
+        p++;
+        continue;
+      }
+      if (keyEnd < 0) keyEnd = p;
       if (isWs(c) || c === 0x3a || c === 0x3d || c === 0x23 || c === 0x2c || c === 0x2b || c === 0xb1 || c === 0x2192)
         break;
-      if (c === 0x2d && this.charAt(p + 1) === 0x3e) break;
+      if (c === 0x2d) {
+        if (this.charAt(p + 1) === 0x3e) break;
+      } else {
+        plain = false;
+      }
       p++;
     }
+    this.nameTokenPlain = plain;
+    this.nameTokenKeyEnd = p > start && isKeyStart(text.charCodeAt(start)) ? (keyEnd < 0 ? p : keyEnd) : -1;
     return p;
+  }
+
+  /**
+   * Whether a `key=` starts at the token {@link nameTokenEnd} just read (ending at `end`), as
+   * {@link keyAhead} tells, without reading the token again: a key is the token's first run of key
+   * characters, and is followed by `=` only when that run is the whole token (the token ends
+   * before any space or `=`).
+   */
+  private keyAtNameToken(end: number): boolean {
+    if (this.nameTokenKeyEnd !== end) return false;
+    let p = end;
+    while (p < this.end && (this.text.charCodeAt(p) === 0x20 || this.text.charCodeAt(p) === 0x09)) p++;
+    return this.charAt(p) === 0x3d && this.charAt(p + 1) !== 0x3e; // `=>` is a mistyped arrow
+  }
+
+  /**
+   * The name `text[start, end)` that {@link nameTokenEnd} just read, checked: a token of ASCII
+   * letters, digits, `_` and `-` that starts with a letter was found to keep the naming rule by
+   * that reading; any other goes through {@link checkName}.
+   */
+  private checkedName(start: number, end: number): NameNode | null {
+    if (!this.nameTokenPlain) return this.checkName(start, end);
+    return { text: this.text.slice(start, end), span: this.span(start, end) };
   }
 
   /** Checks the name `text[start, end)`: null (and a `bad-name` diagnostic) when it breaks the naming rule. */
@@ -621,7 +677,9 @@ class StatementParser {
    */
   private definedName(keyword: Keyword, keywordStart: number, keywordEnd: number, example?: string): NameNode | null {
     const c = this.peek();
-    if (c < 0 || c === 0x3a || this.keyAhead()) {
+    const start = this.pos;
+    const end = c < 0 || c === 0x3a ? start : this.nameTokenEnd();
+    if (c < 0 || c === 0x3a || this.keyAtNameToken(end)) {
       const at = c === 0x3a ? this.pos : keywordStart;
       const endAt = c === 0x3a ? this.pos + 1 : keywordEnd;
       this.report(
@@ -632,8 +690,6 @@ class StatementParser {
       );
       return null;
     }
-    const start = this.pos;
-    const end = this.nameTokenEnd();
     if (end === start) {
       const rawEnd = this.rawTokenEnd();
       this.consume(rawEnd);
@@ -647,7 +703,7 @@ class StatementParser {
       return null;
     }
     this.consume(end);
-    return this.checkName(start, end);
+    return this.checkedName(start, end);
   }
 
   /** A state named in a mix stream or a process. */
@@ -662,7 +718,7 @@ class StatementParser {
     const end = this.nameTokenEnd();
     if (end === start) return null;
     this.consume(end);
-    return this.checkName(start, end);
+    return this.checkedName(start, end);
   }
 
   // --- mix streams ----------------------------------------------------------------------------
@@ -705,7 +761,7 @@ class StatementParser {
         const end = this.nameTokenEnd();
         if (end === streamStart) break;
         this.consume(end);
-        name = this.checkName(streamStart, end);
+        name = this.checkedName(streamStart, end);
       } else {
         break;
       }
@@ -786,16 +842,32 @@ class StatementParser {
         continue;
       }
       if (isKeyStart(c)) {
+        const text = this.text;
+        // The key, hashed for the intern table as it is read.
+        let hash = hashStep(HASH_START, c);
         let p = start + 1;
-        while (p < this.end && isKeyChar(this.text.charCodeAt(p))) p++;
+        while (p < this.end) {
+          const k = text.charCodeAt(p);
+          if (!isKeyChar(k)) break;
+          hash = hashStep(hash, k);
+          p++;
+        }
         const keyEnd = p;
-        while (p < this.end && (this.text.charCodeAt(p) === 0x20 || this.text.charCodeAt(p) === 0x09)) p++;
+        while (p < this.end && (text.charCodeAt(p) === 0x20 || text.charCodeAt(p) === 0x09)) p++;
         if (this.charAt(p) === 0x3d) {
-          const key = internedSlice(this.text, start, keyEnd);
+          const key = internedHashedSlice(text, start, keyEnd, hash);
           this.consume(p + 1);
           const word = options ? this.wordValue() : null;
           if (word) {
             options!.push({ key, keySpan: this.span(start, keyEnd), word, span: this.span(start, word.span.end) });
+            continue;
+          }
+          if (this.peek() >= 0 && startsNumber(text, this.pos, this.end)) {
+            // The usual value, a number: decided by its first character, which is all that
+            // `propertyRef` (a reference starts with a letter) and `value` (a missing value is
+            // an end, a comma or a `key=`) would look at before reading it as {@link quantity}.
+            const value = this.quantity('prop', key);
+            stack[this.propTop++] = new ParsedProperty(key, value, start, value ? value.end : p + 1);
             continue;
           }
           const ref = this.propertyRef(key);
@@ -822,7 +894,7 @@ class StatementParser {
           this.report('syntax', `'${shown}' is not a property: write key=value, e.g. db=24C`, start, tokenEnd);
           continue;
         }
-        const key = internedSlice(this.text, start, keyEnd);
+        const key = internedHashedSlice(text, start, keyEnd, hash);
         this.consume(keyEnd);
         if (this.peek() >= 0 && startsNumber(this.text, this.pos, this.end)) {
           // `rh 50%`: the '=' is missing; read the value all the same.
@@ -1188,11 +1260,20 @@ class StatementParser {
 
   /** The unit written directly after a number, at the cursor (consumed), or null when none is. */
   private attachedUnit(): ParsedUnit | null {
+    const text = this.text;
     const unitStart = this.pos;
-    const unitEnd = this.unitEnd(unitStart);
+    // {@link unitEnd}'s scan, hashing the unit for the intern table as it goes.
+    let unitEnd = unitStart;
+    let hash = HASH_START;
+    while (unitEnd < this.end) {
+      const c = text.charCodeAt(unitEnd);
+      if (endsUnit(c)) break;
+      hash = hashStep(hash, c);
+      unitEnd++;
+    }
     if (unitEnd <= unitStart) return null;
     this.consume(unitEnd);
-    return new ParsedUnit(internedSlice(this.text, unitStart, unitEnd), unitStart);
+    return new ParsedUnit(internedHashedSlice(text, unitStart, unitEnd, hash), unitStart);
   }
 }
 
