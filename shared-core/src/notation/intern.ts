@@ -2,62 +2,104 @@
  * Short strings of a note that recur (keys, units, numbers as written: `db`, `rh`, `C`, `%`,
  * `24`, `50`), shared instead of copied: a note of many statements keeps one `db` rather than one
  * per property, and reading a property allocates nothing for them once seen. A direct-mapped
- * table on a hash of the characters; a miss (or a collision) slices and takes the slot, so the
- * table holds at most {@link INTERN_SLOTS} strings of at most {@link INTERN_MAX_LENGTH} characters,
- * and each call costs a constant amount of work.
+ * table; a miss (or a collision) slices and takes the slot, so the table holds at most
+ * {@link INTERN_SLOTS} strings of at most {@link INTERN_MAX_LENGTH} characters, and each call
+ * costs a constant amount of work.
  *
- * A scanner that reads the characters anyway (a key, a number, a unit) folds them into the hash
- * as it goes ({@link hashStep}) and calls {@link internedHashedSlice}, so that the characters are
- * not read once more to hash them.
+ * A string of at most {@link PACK_MAX_LENGTH} characters below 256 (nearly every key, unit and
+ * number) is also one exact number, its *pack* ({@link packStep}): the table keeps each slot's
+ * pack, and a look-up compares one number instead of the characters. A scanner that reads the
+ * characters anyway (a key, a number, a unit) packs them as it goes and calls
+ * {@link internedPackedSlice}, so that they are not read again. Any other string is hashed and
+ * compared character by character.
  */
 
 /** Size of the table (a power of two). */
 const INTERN_SLOTS = 4096;
 /** Longest string shared; longer ones are rarely written twice. */
 const INTERN_MAX_LENGTH = 8;
+/** Longest string that has a pack: 6 characters of 8 bits and the length stay below 2^53. */
+const PACK_MAX_LENGTH = 6;
+/** 2^48: the pack's length digit (above the six character bytes). */
+const PACK_LENGTH_UNIT = 2 ** 48;
 const table: string[] = Array.from({ length: INTERN_SLOTS }, () => '');
+/** Each slot's pack with its length ({@link slotPack}), or -1 for a string that has none. */
+const slotPacks = new Float64Array(INTERN_SLOTS).fill(-1);
+
+/** The pack of no characters; {@link packStep} adds one. */
+export const PACK_START = 0;
+
 /**
- * Each slot's string again, as its length and its characters ({@link INTERN_MAX_LENGTH} per slot),
- * so that a look-up compares with these contiguous numbers rather than with the string, which
- * lies wherever it was allocated (reading it was most of a look-up's cost).
+ * The pack of some characters followed by `c` (`pack` is theirs): base 256, exact while there are
+ * at most {@link PACK_MAX_LENGTH} characters and each is below 256. A scanner also keeps the
+ * bitwise or of the characters (`wide`), which tells whether one is 256 or above.
  */
-const slotLengths = new Uint8Array(INTERN_SLOTS);
-const slotChars = new Uint16Array(INTERN_SLOTS * INTERN_MAX_LENGTH);
+export function packStep(pack: number, c: number): number {
+  return pack * 256 + c;
+}
 
-/** The hash of no characters; {@link hashStep} adds one. */
-export const HASH_START = 0;
+/** A pack with the string's length above its characters: equal only for equal strings. */
+function slotPack(pack: number, length: number): number {
+  return pack + length * PACK_LENGTH_UNIT;
+}
 
-/** The hash of some characters followed by `c` (`hash` is theirs). */
-export function hashStep(hash: number, c: number): number {
-  return (Math.imul(hash, 31) + c) | 0;
+/**
+ * The slot of a pack with its length, from its low and high 32 bits (`| 0` keeps the low 32 bits
+ * of an integer-valued double, and multiplying by 2^-32 is exact; a `%` would cost a division).
+ */
+function packSlot(withLength: number): number {
+  const low = withLength | 0;
+  const high = (withLength * 2 ** -32) | 0;
+  const mixed = low ^ Math.imul(high, 0x9e3779b1);
+  return (mixed ^ (mixed >>> 12) ^ (mixed >>> 24)) & (INTERN_SLOTS - 1);
 }
 
 /** `text.slice(start, end)`, or an equal string returned by an earlier call. */
 export function internedSlice(text: string, start: number, end: number): string {
-  if (end - start > INTERN_MAX_LENGTH) return text.slice(start, end);
-  let hash = HASH_START;
-  for (let i = start; i < end; i++) hash = hashStep(hash, text.charCodeAt(i));
-  return internedHashedSlice(text, start, end, hash);
+  const length = end - start;
+  if (length <= 0 || length > INTERN_MAX_LENGTH) return text.slice(start, end);
+  let pack = PACK_START;
+  let wide = 0;
+  for (let i = start; i < end; i++) {
+    const c = text.charCodeAt(i);
+    pack = packStep(pack, c);
+    wide |= c;
+  }
+  return internedPackedSlice(text, start, end, pack, wide);
 }
 
 /**
- * {@link internedSlice} when the caller has hashed `text[start, end)` already: `hash` is
- * {@link HASH_START} followed by a {@link hashStep} for each character, in order.
+ * {@link internedSlice} when the caller has read `text[start, end)` already: `pack` is
+ * {@link PACK_START} followed by a {@link packStep} for each character, in order, and `wide` the
+ * bitwise or of the characters.
  */
-export function internedHashedSlice(text: string, start: number, end: number, hash: number): string {
+export function internedPackedSlice(text: string, start: number, end: number, pack: number, wide: number): string {
   const length = end - start;
   if (length <= 0 || length > INTERN_MAX_LENGTH) return text.slice(start, end);
-  const mixed = hash ^ length;
-  const slot = (mixed ^ (mixed >>> 12)) & (INTERN_SLOTS - 1);
-  const at = slot * INTERN_MAX_LENGTH;
-  if (slotLengths[slot] === length) {
+  if (length > PACK_MAX_LENGTH || wide > 0xff) return internedByCharacters(text, start, end);
+  const key = slotPack(pack, length);
+  const slot = packSlot(key);
+  if (slotPacks[slot] === key) return table[slot] as string;
+  const fresh = text.slice(start, end);
+  table[slot] = fresh;
+  slotPacks[slot] = key;
+  return fresh;
+}
+
+/** The look-up of a string that has no pack: its slot from a hash, compared character by character. */
+function internedByCharacters(text: string, start: number, end: number): string {
+  const length = end - start;
+  let hash = length;
+  for (let i = start; i < end; i++) hash = (Math.imul(hash, 31) + text.charCodeAt(i)) | 0;
+  const slot = (hash ^ (hash >>> 12)) & (INTERN_SLOTS - 1);
+  const cached = table[slot] as string;
+  if ((slotPacks[slot] as number) < 0 && cached.length === length) {
     let i = 0;
-    while (i < length && slotChars[at + i] === text.charCodeAt(start + i)) i++;
-    if (i === length) return table[slot] as string;
+    while (i < length && cached.charCodeAt(i) === text.charCodeAt(start + i)) i++;
+    if (i === length) return cached;
   }
   const fresh = text.slice(start, end);
   table[slot] = fresh;
-  slotLengths[slot] = length;
-  for (let i = 0; i < length; i++) slotChars[at + i] = text.charCodeAt(start + i);
+  slotPacks[slot] = -1;
   return fresh;
 }

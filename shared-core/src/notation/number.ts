@@ -7,7 +7,7 @@
  * and the resolution is the place value of the last written digit.
  */
 import { GROUP_SEPARATOR, GROUP_SIZE, groupAt, groupDigits } from '../text/thousands';
-import { HASH_START, hashStep, internedHashedSlice } from './intern';
+import { PACK_START, internedPackedSlice, packStep } from './intern';
 
 /** A number found at a position, before any check of its value. */
 export interface ScannedNumber {
@@ -52,11 +52,12 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
   const start = pos;
   let c = text.charCodeAt(pos);
   let negative = false;
-  // The written text's hash for the intern table, built as each character is read (see `intern.ts`).
-  let hash = HASH_START;
+  // The written text's pack for the intern table, built as each character is read (see `intern.ts`);
+  // every character of a number is below 256 but the minus sign `−`.
+  let pack = PACK_START;
   if (c === 0x2b || c === 0x2d || c === 0x2212) {
     negative = c !== 0x2b;
-    hash = hashStep(hash, c);
+    pack = packStep(pack, c);
     pos++;
   }
   // The digits as an integer (exact while there are at most 15 of them).
@@ -67,7 +68,7 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
     c = text.charCodeAt(pos);
     if (!isDigit(c)) break;
     mantissa = mantissa * 10 + (c - 0x30);
-    hash = hashStep(hash, c);
+    pack = packStep(pack, c);
     digits++;
     pos++;
   }
@@ -76,11 +77,11 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
   let grouped = false;
   if (digits >= 1 && digits <= GROUP_SIZE && c === 0x2c && text.charCodeAt(first) !== 0x30) {
     while (groupAt(text, pos, end)) {
-      hash = hashStep(hash, 0x2c);
+      pack = packStep(pack, 0x2c);
       for (let i = 1; i <= GROUP_SIZE; i++) {
         const d = text.charCodeAt(pos + i);
         mantissa = mantissa * 10 + (d - 0x30);
-        hash = hashStep(hash, d);
+        pack = packStep(pack, d);
       }
       digits += GROUP_SIZE;
       pos += GROUP_SIZE + 1;
@@ -89,13 +90,13 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
   }
   let fractionDigits = 0;
   if (pos < end && text.charCodeAt(pos) === 0x2e) {
-    hash = hashStep(hash, 0x2e);
+    pack = packStep(pack, 0x2e);
     pos++;
     while (pos < end) {
       c = text.charCodeAt(pos);
       if (!isDigit(c)) break;
       mantissa = mantissa * 10 + (c - 0x30);
-      hash = hashStep(hash, c);
+      pack = packStep(pack, c);
       digits++;
       pos++;
       fractionDigits++;
@@ -107,11 +108,11 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
     if (c === 0x65 || c === 0x45) {
       let q = pos + 1;
       let sign = 1;
-      let h = hashStep(hash, c);
+      let h = packStep(pack, c);
       const s = text.charCodeAt(q);
       if (s === 0x2b || s === 0x2d) {
         if (s === 0x2d) sign = -1;
-        h = hashStep(h, s);
+        h = packStep(h, s);
         q++;
       }
       if (q < end && isDigit(text.charCodeAt(q))) {
@@ -121,16 +122,16 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
           if (!isDigit(d)) break;
           // Saturate: a huge exponent gives an infinite value or zero, reported or kept by the caller.
           if (e < 100000) e = e * 10 + (d - 0x30);
-          h = hashStep(h, d);
+          h = packStep(h, d);
           q++;
         }
         exponent = sign * e;
         pos = q;
-        hash = h;
+        pack = h;
       }
     }
   }
-  const written = internedHashedSlice(text, start, pos, hash);
+  const written = internedPackedSlice(text, start, pos, pack, text.charCodeAt(start) === 0x2212 ? 0x2212 : 0);
   // Exact fast path: an integer below 2^53 times or divided by an exact power of ten is rounded
   // once, so it equals the correctly rounded decimal; anything else goes through Number().
   const k = exponent - fractionDigits;

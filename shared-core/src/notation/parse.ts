@@ -54,7 +54,7 @@ import type {
 } from './ast';
 import type { Span } from '../text/types';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
-import { HASH_START, hashStep, internedHashedSlice, internedSlice } from './intern';
+import { PACK_START, internedPackedSlice, internedSlice, packStep } from './intern';
 import { ParsedNumber, ParsedProperty, ParsedQuantity, ParsedState, ParsedUnit } from './nodes';
 import { resolutionOf, scanNumber, startsNumber, type ScannedNumber } from './number';
 import { differenceExample, findKey, referenceKeyFor } from '../vocabulary/keys';
@@ -129,24 +129,37 @@ function endsUnit(c: number): boolean {
 }
 
 /**
- * The keywords of each length (`KEYWORDS_BY_LENGTH[5]` is `units` and `state`): a word is compared
- * only with the keywords as long as it is, which is one or two of them.
+ * A word of ASCII letters as one number, `code` being that of the letters before `c`: each letter
+ * is a digit from 1 to 58 in base 64, so two words of up to eight letters have the same code only
+ * when they are the same word, and a longer word's code is larger than any shorter word's. A word
+ * is compared with the keywords as one number instead of letter by letter.
  */
-const KEYWORDS_BY_LENGTH: readonly (readonly Keyword[])[] = Array.from(
-  { length: Math.max(...KEYWORDS.map((kw) => kw.length)) + 1 },
-  (_, n) => KEYWORDS.filter((kw) => kw.length === n),
-);
+function wordCodeStep(code: number, c: number): number {
+  return code * 64 + (c - 0x40);
+}
+
+/** The code of each keyword ({@link wordCodeStep}), in the order of {@link KEYWORDS}. */
+const KEYWORD_CODES: readonly number[] = KEYWORDS.map((kw) => {
+  let code = 0;
+  for (let i = 0; i < kw.length; i++) code = wordCodeStep(code, kw.charCodeAt(i));
+  return code;
+});
+
+/** The statement keyword whose code ({@link wordCodeStep}) is `code`, or null. */
+function keywordOfCode(code: number): Keyword | null {
+  for (let i = 0; i < KEYWORD_CODES.length; i++) if (KEYWORD_CODES[i] === code) return KEYWORDS[i] as Keyword;
+  return null;
+}
 
 /** The statement keyword written as `text[start, end)`, or null (compared in place: no substring). */
 function keywordAt(text: string, start: number, end: number): Keyword | null {
-  const candidates = KEYWORDS_BY_LENGTH[end - start];
-  if (candidates === undefined) return null;
-  for (const kw of candidates) {
-    let i = 0;
-    while (i < kw.length && kw.charCodeAt(i) === text.charCodeAt(start + i)) i++;
-    if (i === kw.length) return kw;
+  let code = 0;
+  for (let p = start; p < end; p++) {
+    const c = text.charCodeAt(p);
+    if (!isAsciiLetter(c)) return null;
+    code = wordCodeStep(code, c);
   }
-  return null;
+  return keywordOfCode(code);
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -313,10 +326,17 @@ class StatementParser {
   private statement(): Statement | null {
     if (this.peek() < 0) return null;
     const start = this.pos;
+    // The run of letters, as its word code (`keywordAt`'s reading, in the same pass).
     let p = start;
-    while (p < this.end && isAsciiLetter(this.text.charCodeAt(p))) p++;
+    let code = 0;
+    while (p < this.end) {
+      const c = this.text.charCodeAt(p);
+      if (!isAsciiLetter(c)) break;
+      code = wordCodeStep(code, c);
+      p++;
+    }
     const after = this.charAt(p);
-    const keyword = after < 0 || after === 0x3a || isWs(after) ? keywordAt(this.text, start, p) : null;
+    const keyword = after < 0 || after === 0x3a || isWs(after) ? keywordOfCode(code) : null;
     if (!keyword) {
       const tokenEnd = this.rawTokenEnd();
       let e = start;
@@ -843,19 +863,19 @@ class StatementParser {
       }
       if (isKeyStart(c)) {
         const text = this.text;
-        // The key, hashed for the intern table as it is read.
-        let hash = hashStep(HASH_START, c);
+        // The key, packed for the intern table as it is read (key characters are ASCII).
+        let pack = packStep(PACK_START, c);
         let p = start + 1;
         while (p < this.end) {
           const k = text.charCodeAt(p);
           if (!isKeyChar(k)) break;
-          hash = hashStep(hash, k);
+          pack = packStep(pack, k);
           p++;
         }
         const keyEnd = p;
         while (p < this.end && (text.charCodeAt(p) === 0x20 || text.charCodeAt(p) === 0x09)) p++;
         if (this.charAt(p) === 0x3d) {
-          const key = internedHashedSlice(text, start, keyEnd, hash);
+          const key = internedPackedSlice(text, start, keyEnd, pack, 0);
           this.consume(p + 1);
           const word = options ? this.wordValue() : null;
           if (word) {
@@ -894,7 +914,7 @@ class StatementParser {
           this.report('syntax', `'${shown}' is not a property: write key=value, e.g. db=24C`, start, tokenEnd);
           continue;
         }
-        const key = internedHashedSlice(text, start, keyEnd, hash);
+        const key = internedPackedSlice(text, start, keyEnd, pack, 0);
         this.consume(keyEnd);
         if (this.peek() >= 0 && startsNumber(this.text, this.pos, this.end)) {
           // `rh 50%`: the '=' is missing; read the value all the same.
@@ -1262,18 +1282,20 @@ class StatementParser {
   private attachedUnit(): ParsedUnit | null {
     const text = this.text;
     const unitStart = this.pos;
-    // {@link unitEnd}'s scan, hashing the unit for the intern table as it goes.
+    // {@link unitEnd}'s scan, packing the unit for the intern table as it goes.
     let unitEnd = unitStart;
-    let hash = HASH_START;
+    let pack = PACK_START;
+    let wide = 0;
     while (unitEnd < this.end) {
       const c = text.charCodeAt(unitEnd);
       if (endsUnit(c)) break;
-      hash = hashStep(hash, c);
+      pack = packStep(pack, c);
+      wide |= c;
       unitEnd++;
     }
     if (unitEnd <= unitStart) return null;
     this.consume(unitEnd);
-    return new ParsedUnit(internedHashedSlice(text, unitStart, unitEnd, hash), unitStart);
+    return new ParsedUnit(internedPackedSlice(text, unitStart, unitEnd, pack, wide), unitStart);
   }
 }
 
