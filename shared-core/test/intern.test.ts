@@ -12,9 +12,7 @@ import { internedPackedSlice, internedSlice, PACK_START, packStep } from '../src
 /** Characters of every kind a key, unit or number may hold (NUL included: it has a pack too). */
 const CHARS = ['0', '5', '9', '.', ',', 'e', 'C', 'd', 'b', '%', '/', '\0', '°', 'µ', '³', '−', '\u00ff', '\u0100'];
 
-const shortString = fc
-  .array(fc.constantFrom(...CHARS), { minLength: 0, maxLength: 10 })
-  .map((cs) => cs.join(''));
+const shortString = fc.array(fc.constantFrom(...CHARS), { minLength: 0, maxLength: 10 }).map((cs) => cs.join(''));
 
 /** The pack and `wide` of `s` as a scanner computes them while reading it. */
 function packed(s: string): { pack: number; wide: number } {
