@@ -188,35 +188,91 @@ const PIECE_BYTES = 1 << 15;
 /** A string or key at most this long is written into the buffer; a longer one is handed out on its own. */
 const LONG_TEXT = 4096;
 
-/** Strings this long or longer that come again are written from words made once (see {@link TextWriter.str}). */
-const REPEATED_FROM = 12;
-
 /** Whether `c` (a UTF-16 code unit) is written in a JSON string as itself, and in one byte. */
 const plainAscii = (c: number): boolean => c >= 0x20 && c < 0x7f && c !== 0x22 && c !== 0x5c;
 
+/** A lead and the value after it are kept as one {@link Words} when they are at most this many bytes. */
+const KEPT_BYTES = 128;
+
 /**
- * Bytes written as one: the start of a member's line (`,`, the line break, the indentation and
- * the key) or the end of an object or array, as little-endian 32-bit words, so that they go
- * into the buffer four bytes at a time (the last word may carry up to three bytes past the
- * end, which the next write covers).
+ * Bytes made once, to go into the buffer eight bytes at a time, as the little-endian doubles
+ * they spell (the last may carry up to seven bytes past the end, which the next write covers).
+ * Only bytes below 0x80 (ASCII) are held so: such a double's exponent is below 0x7ff, so it is
+ * never a NaN, whose bits a copy need not keep; any other bytes go four at a time as 32-bit
+ * words. (Eight bytes a time are fewer writes: a state's text is mostly these.)
  */
-interface Lead {
-  /** The words as 32-bit signed integers (a plain array of small integers is the quickest to read). */
-  words: number[];
-  length: number;
+interface Words {
+  /** The bytes as doubles, or null when some byte is not ASCII. */
+  readonly doubles: Float64Array | null;
+  /** The bytes as 32-bit words, when they are not ASCII (else empty). */
+  readonly words: Int32Array;
+  readonly length: number;
 }
 
-function makeLead(bytes: Uint8Array): Lead {
-  const words: number[] = [];
-  for (let i = 0; i < bytes.length; i += 4)
-    words.push(bytes[i]! | ((bytes[i + 1] ?? 0) << 8) | ((bytes[i + 2] ?? 0) << 16) | ((bytes[i + 3] ?? 0) << 24));
-  return { words, length: bytes.length };
+const NO_WORDS = new Int32Array(0);
+
+function wordsOf(bytes: Uint8Array): Words {
+  let ascii = true;
+  for (let i = 0; i < bytes.length; i++) if (bytes[i]! >= 0x80) ascii = false;
+  if (ascii) {
+    const padded = new Uint8Array((bytes.length + 7) & ~7);
+    padded.set(bytes);
+    // (The doubles are read from the bytes as the buffer's DataView writes them: little-endian.)
+    const view = new DataView(padded.buffer);
+    const doubles = new Float64Array(padded.length >> 3);
+    for (let i = 0; i < doubles.length; i++) doubles[i] = view.getFloat64(8 * i, true);
+    return { doubles, words: NO_WORDS, length: bytes.length };
+  }
+  const words = new Int32Array((bytes.length + 3) >> 2);
+  for (let i = 0; i < bytes.length; i++) words[i >> 2]! |= bytes[i]! << (8 * (i & 3));
+  return { doubles: null, words, length: bytes.length };
+}
+
+/**
+ * The start of a member's line (`,`, the line break, the indentation and the key) or of an array
+ * element's, as {@link Words}; and the last value written after it, kept with the lead as one
+ * {@link Words} once the same value came twice running. A state's members come at the same depth
+ * with the same key every time, and many of their values repeat from state to state (the
+ * pressure and its description, the kind, `ok`, the defining keys): such a member is then one
+ * copy of bytes made once, with no figure's digits to find and no string to read. The bytes kept
+ * are those the value was just written as, so the text is the same.
+ */
+class Lead implements Words {
+  readonly doubles: Float64Array | null;
+  readonly words: Int32Array;
+  readonly length: number;
+  /** The last string, figure and array of strings written after this lead (NaN: none yet). */
+  lastString: string | null = null;
+  lastFigure = Number.NaN;
+  lastStrings: readonly string[] | null = null;
+  /** The value kept with the lead (it came twice running), and the lead with its text. */
+  keptString: string | null = null;
+  withString: Words | null = null;
+  keptFigure = Number.NaN;
+  withFigure: Words | null = null;
+  keptStrings: readonly string[] | null = null;
+  withStrings: Words | null = null;
+  withTrue: Words | null = null;
+  withFalse: Words | null = null;
+  constructor(bytes: Uint8Array) {
+    const w = wordsOf(bytes);
+    this.doubles = w.doubles;
+    this.words = w.words;
+    this.length = w.length;
+  }
+}
+
+/** Whether two arrays of strings hold the same strings. */
+function sameStrings(a: readonly string[], b: readonly string[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 /** The line starts of array elements (no key), by depth and whether a comma comes first. */
 const ELEMENT_LEADS: Lead[] = [];
 /** The last lines of objects and arrays (a line break, the indentation, the bracket), by depth and bracket. */
-const CLOSE_LEADS: Lead[] = [];
+const CLOSE_LEADS: Words[] = [];
 
 /** The start of a member's line at `depth`: `,` unless `first`, the line break, the indentation, the key. */
 function leadOf(key: JsonKey | null, depth: number, first: boolean): Lead {
@@ -225,42 +281,48 @@ function leadOf(key: JsonKey | null, depth: number, first: boolean): Lead {
   let lead = leads[i];
   if (lead === undefined) {
     const start = Buffer.from(`${first ? '' : ','}\n${'  '.repeat(depth)}`, 'latin1');
-    lead = makeLead(key === null ? start : Buffer.concat([start, key.text]));
+    lead = new Lead(key === null ? start : Buffer.concat([start, key.text]));
     leads[i] = lead;
   }
   return lead;
 }
 
 /** The end of an object (`}`) or array (`]`) whose members were at depth + 1. */
-function closeOf(depth: number, bracket: '}' | ']'): Lead {
+function closeOf(depth: number, bracket: '}' | ']'): Words {
   const i = 2 * depth + (bracket === '}' ? 0 : 1);
   let lead = CLOSE_LEADS[i];
   if (lead === undefined) {
-    lead = makeLead(Buffer.from(`\n${'  '.repeat(depth)}${bracket}`, 'latin1'));
+    lead = wordsOf(Buffer.from(`\n${'  '.repeat(depth)}${bracket}`, 'latin1'));
     CLOSE_LEADS[i] = lead;
   }
   return lead;
 }
 
-const TRUE = makeLead(Buffer.from('true'));
-const FALSE = makeLead(Buffer.from('false'));
+/**
+ * The four ASCII digits of 0 … 9999 (with leading zeros) as little-endian words (the first digit
+ * lowest), and the zeros each ends with (4 for 0).
+ */
+interface FourDigits {
+  readonly words: Int32Array;
+  readonly zeros: Uint8Array;
+}
+let fourDigitTables: FourDigits | null = null;
 
-/** The four ASCII digits of 0 … 9999 (with leading zeros), as little-endian words (the first digit lowest). */
-let fourDigitWords: Int32Array | null = null;
-
-/** The four-digit words, made by the first writer (no cost for a command that writes no JSON text). */
-function fourDigits(): Int32Array {
-  if (fourDigitWords) return fourDigitWords;
-  const t = new Int32Array(10000);
+/** The four-digit tables, made by the first writer (no cost for a command that writes no JSON text). */
+function fourDigits(): FourDigits {
+  if (fourDigitTables) return fourDigitTables;
+  const words = new Int32Array(10000);
+  const zeros = new Uint8Array(10000);
   for (let i = 0; i < 10000; i++) {
     const a = 0x30 + ((i / 1000) | 0);
     const b = 0x30 + (((i / 100) | 0) % 10);
     const c = 0x30 + (((i / 10) | 0) % 10);
     const d = 0x30 + (i % 10);
-    t[i] = a | (b << 8) | (c << 16) | (d << 24);
+    words[i] = a | (b << 8) | (c << 16) | (d << 24);
+    zeros[i] = i === 0 ? 4 : i % 1000 === 0 ? 3 : i % 100 === 0 ? 2 : i % 10 === 0 ? 1 : 0;
   }
-  fourDigitWords = t;
-  return t;
+  fourDigitTables = { words, zeros };
+  return fourDigitTables;
 }
 
 /**
@@ -269,7 +331,8 @@ function fourDigits(): Int32Array {
  * whatever came before), as UTF-8 bytes into a buffer that is lent to `emit` every
  * {@link PIECE_BYTES} bytes or so and by {@link TextWriter.flush} (see {@link TakePiece}) — no
  * string per member, no object per state, and no string of the text. Figures are written from
- * their 12 digits (see {@link TextWriter.fig}).
+ * their 12 digits (see {@link TextWriter.fig}); a member whose value is the one last written
+ * after the same line start is copied whole (see {@link Lead}).
  */
 export class TextWriter implements JsonWriter {
   private buf: Buffer;
@@ -281,12 +344,11 @@ export class TextWriter implements JsonWriter {
   private first = true;
   /** Whether nothing is open: the next value is the top one and has no line of its own. */
   private top = true;
-  /** The last string of {@link REPEATED_FROM} characters or more, and one that came twice running (with its text). */
-  private lastLong: string | null = null;
-  private repeated: string | null = null;
-  private repeatedText: Lead | null = null;
-  /** The four ASCII digits of 0 … 9999, as words (see {@link fourDigits}). */
-  private readonly fourDigits = fourDigits();
+  /** Pieces handed out so far (bytes written since a count are all in the buffer while it is unchanged). */
+  private pieces = 0;
+  /** The four ASCII digits of 0 … 9999 as words, and the zeros they end with (see {@link fourDigits}). */
+  private readonly digitWords: Int32Array;
+  private readonly digitZeros: Uint8Array;
 
   constructor(
     depth: number,
@@ -294,6 +356,9 @@ export class TextWriter implements JsonWriter {
   ) {
     this.depth = depth;
     [this.buf, this.view] = TextWriter.memory();
+    const digits = fourDigits();
+    this.digitWords = digits.words;
+    this.digitZeros = digits.zeros;
   }
 
   /** A buffer with room for a piece and the longest text written into it at once. */
@@ -305,6 +370,7 @@ export class TextWriter implements JsonWriter {
   /** Lends out the text written since the last piece. */
   flush(): void {
     if (this.pos === 0) return;
+    this.pieces++;
     const kept = this.emit(this.buf.subarray(0, this.pos));
     this.pos = 0;
     if (kept === true) [this.buf, this.view] = TextWriter.memory();
@@ -314,6 +380,7 @@ export class TextWriter implements JsonWriter {
   private text(t: string): void {
     if (t.length > LONG_TEXT) {
       this.flush();
+      this.pieces++;
       this.emit(Buffer.from(t, 'utf8'));
       return;
     }
@@ -329,33 +396,80 @@ export class TextWriter implements JsonWriter {
     this.pos = p;
   }
 
-  /** Writes bytes made once (see {@link Lead}). */
-  private lead(lead: Lead): void {
-    const words = lead.words;
+  /** Writes bytes made once (see {@link Words}). */
+  private words(w: Words): void {
     const view = this.view;
     const p = this.pos;
-    for (let i = 0; i < words.length; i++) view.setInt32(p + 4 * i, words[i]!, true);
-    this.pos = p + lead.length;
+    const doubles = w.doubles;
+    if (doubles !== null) for (let i = 0; i < doubles.length; i++) view.setFloat64(p + 8 * i, doubles[i]!, true);
+    else {
+      const words = w.words;
+      for (let i = 0; i < words.length; i++) view.setInt32(p + 4 * i, words[i]!, true);
+    }
+    this.pos = p + w.length;
   }
 
   /**
-   * The line start and key of the next member, with room for a short value after it (a figure,
-   * a literal, a bracket): hands out a piece first when the buffer is nearly full.
+   * The line start of the next member (its key's, or an element's), not yet written, with room
+   * for a short value after it (a figure, a literal, a bracket): hands out a piece first when the
+   * buffer is nearly full. Null when there is no lead to write: before the top value, and for a
+   * key too long for the buffer (whose line start this writes itself).
    */
-  private member(key: JsonKey | null): void {
+  private member(key: JsonKey | null): Lead | null {
     if (this.pos > PIECE_BYTES) this.flush();
-    if (this.top) {
-      this.top = false;
-      return;
-    }
-    const d = this.depth;
-    if (key !== null && key.text.length > LONG_TEXT) {
-      this.text(`${this.first ? '' : ','}\n${'  '.repeat(d)}${JSON.stringify(key.name)}: `);
-      this.first = false;
-      return;
-    }
-    this.lead(leadOf(key, d, this.first));
+    const first = this.first;
     this.first = false;
+    if (first && this.top) {
+      this.top = false;
+      return null;
+    }
+    if (key !== null && key.text.length > LONG_TEXT) {
+      this.text(`${first ? '' : ','}\n${'  '.repeat(this.depth)}${JSON.stringify(key.name)}: `);
+      return null;
+    }
+    return leadOf(key, this.depth, first);
+  }
+
+  /** Writes the line start of the next member (see {@link member}). */
+  private begin(key: JsonKey | null): void {
+    const lead = this.member(key);
+    if (lead !== null) this.words(lead);
+  }
+
+  /**
+   * The bytes from `start` to here (a lead and its value) as {@link Words}, when they are few
+   * enough to keep and all still in the buffer (no piece handed out since `pieces` was read).
+   */
+  private kept(start: number, pieces: number): Words | null {
+    if (pieces !== this.pieces || this.pos - start > KEPT_BYTES) return null;
+    return wordsOf(this.buf.subarray(start, this.pos));
+  }
+
+  /**
+   * A figure's JSON text (see {@link figure}); the same figure as the last one after this
+   * member's line start is copied with the lead (doubles that are equal have one text: ±0 both
+   * write 0).
+   */
+  fig(key: JsonKey | null, x: number | null | undefined): void {
+    const lead = this.member(key);
+    if (lead === null) {
+      this.figure(x);
+      return;
+    }
+    if (x === lead.keptFigure) {
+      this.words(lead.withFigure!);
+      return;
+    }
+    const start = this.pos;
+    const pieces = this.pieces;
+    this.words(lead);
+    this.figure(x);
+    if (typeof x !== 'number') return;
+    if (x !== lead.lastFigure) lead.lastFigure = x;
+    else {
+      lead.withFigure = this.kept(start, pieces);
+      if (lead.withFigure !== null) lead.keptFigure = x;
+    }
   }
 
   /**
@@ -366,8 +480,7 @@ export class TextWriter implements JsonWriter {
    * place), in the positional form JSON uses from 1e-7 to 1e21: so exactly what
    * `JSON.stringify(roundForJson(x))` writes. Any other figure goes through those two.
    */
-  fig(key: JsonKey | null, x: number | null | undefined): void {
-    this.member(key);
+  private figure(x: number | null | undefined): void {
     if (x === null || x === undefined || !Number.isFinite(x)) {
       this.ascii('null');
       return;
@@ -379,28 +492,16 @@ export class TextWriter implements JsonWriter {
       return;
     }
     const s = scale;
-    const g1 = Math.floor(m / 1e8) | 0;
+    const g1 = Math.floor(m / 1e8) | 0; // 1000 … 9999: M has 12 digits
     const rest = (m - g1 * 1e8) | 0;
     const g2 = (rest / 10000) | 0;
     const g3 = (rest - g2 * 10000) | 0;
-    // The zeros M ends with (the text drops those after the point), counted a group at a time.
-    let zeros = 0;
-    let t = g3;
-    if (t === 0) {
-      zeros = 4;
-      t = g2;
-      if (t === 0) {
-        zeros = 8;
-        t = g1;
-      }
-    }
-    while (t % 10 === 0) {
-      zeros++;
-      t = (t / 10) | 0;
-    }
+    // The zeros M ends with (the text drops those after the point): a group's from the table.
+    const tz = this.digitZeros;
+    const zeros = g3 !== 0 ? tz[g3]! : g2 !== 0 ? 4 + tz[g2]! : 8 + tz[g1]!;
     const buf = this.buf;
     const view = this.view;
-    const digits = this.fourDigits;
+    const digits = this.digitWords;
     let p = this.pos;
     if (x < 0) buf[p++] = 0x2d; // -
     if (s < 12) {
@@ -425,7 +526,8 @@ export class TextWriter implements JsonWriter {
     }
   }
   num(key: JsonKey | null, v: number): void {
-    this.member(key);
+    const lead = this.member(key);
+    if (lead !== null) this.words(lead);
     if (v >= 0 && v < 1e9 && Number.isInteger(v)) this.whole(v | 0);
     else this.ascii(Number.isFinite(v) ? `${v}` : 'null');
   }
@@ -443,23 +545,46 @@ export class TextWriter implements JsonWriter {
       rest = (rest / 10) | 0;
     } while (rest > 0);
   }
+
+  /**
+   * A string member or element; the same string as the last one after this line start (every
+   * state's pressure description and kind) is copied with the lead.
+   */
   str(key: JsonKey | null, v: string | null | undefined): void {
     if (v === undefined && key !== null) return;
-    this.member(key);
-    if (v === null || v === undefined) {
-      this.ascii('null');
+    const lead = this.member(key);
+    if (lead === null) {
+      this.string(v);
       return;
     }
-    if (v === this.repeated) {
-      this.lead(this.repeatedText!);
+    if (v === lead.keptString && v !== null) {
+      this.words(lead.withString!);
+      return;
+    }
+    const start = this.pos;
+    const pieces = this.pieces;
+    this.words(lead);
+    this.string(v);
+    // (A string too long to keep is not remembered either: no long string is held on to.)
+    if (typeof v !== 'string' || v.length > KEPT_BYTES) return;
+    if (v !== lead.lastString) lead.lastString = v;
+    else {
+      lead.withString = this.kept(start, pieces);
+      if (lead.withString !== null) lead.keptString = v;
+    }
+  }
+
+  /** Writes a string's JSON text (null for null or undefined). */
+  private string(v: string | null | undefined): void {
+    if (v === null || v === undefined) {
+      this.ascii('null');
       return;
     }
     const n = v.length;
     if (n <= LONG_TEXT) {
       // The usual name or key: printable ASCII, written as it is between quotes.
       const buf = this.buf;
-      const start = this.pos;
-      let p = start;
+      let p = this.pos;
       buf[p++] = 0x22;
       let i = 0;
       for (; i < n; i++) {
@@ -470,12 +595,6 @@ export class TextWriter implements JsonWriter {
       if (i === n) {
         buf[p++] = 0x22;
         this.pos = p;
-        // A longer string is kept as words, for when it comes again next (every state's pressure).
-        if (n >= REPEATED_FROM && v !== this.lastLong) this.lastLong = v;
-        else if (n >= REPEATED_FROM) {
-          this.repeated = v;
-          this.repeatedText = makeLead(buf.subarray(start, p));
-        }
         return;
       }
     }
@@ -483,24 +602,65 @@ export class TextWriter implements JsonWriter {
     this.text(JSON.stringify(v));
   }
   bool(key: JsonKey | null, v: boolean): void {
-    this.member(key);
-    this.lead(v ? TRUE : FALSE);
-  }
-  strings(key: JsonKey | null, v: readonly string[]): void {
-    if (v.length === 0) {
-      this.member(key);
-      this.ascii('[]');
+    const lead = this.member(key);
+    if (lead === null) {
+      this.ascii(v ? 'true' : 'false');
       return;
     }
-    this.openArray(key);
-    // By index: an iterator's result objects are not always optimised away (one per name).
-    for (let i = 0; i < v.length; i++) this.str(null, v[i]!);
-    this.closeArray();
+    // A lead followed by true or false is kept with each the first time (the members written are few).
+    const kept = v ? lead.withTrue : lead.withFalse;
+    if (kept !== null) {
+      this.words(kept);
+      return;
+    }
+    const start = this.pos;
+    const pieces = this.pieces;
+    this.words(lead);
+    this.ascii(v ? 'true' : 'false');
+    if (v) lead.withTrue = this.kept(start, pieces);
+    else lead.withFalse = this.kept(start, pieces);
+  }
+
+  /**
+   * An array of strings; the same strings as the last array after this member's line start (a
+   * state's defining keys) are copied whole, with the lead, the brackets and the indentation.
+   */
+  strings(key: JsonKey | null, v: readonly string[]): void {
+    // The lead `member` will give (none for the top value or a key too long for the buffer).
+    const lead =
+      (this.first && this.top) || (key !== null && key.text.length > LONG_TEXT)
+        ? null
+        : leadOf(key, this.depth, this.first);
+    if (lead !== null && lead.keptStrings !== null && sameStrings(v, lead.keptStrings)) {
+      this.member(key);
+      this.words(lead.withStrings!);
+      return;
+    }
+    if (this.pos > PIECE_BYTES) this.flush();
+    const start = this.pos;
+    const pieces = this.pieces;
+    if (v.length === 0) {
+      this.begin(key);
+      this.ascii('[]');
+    } else {
+      this.openArray(key);
+      // By index: an iterator's result objects are not always optimised away (one per name).
+      for (let i = 0; i < v.length; i++) this.str(null, v[i]!);
+      this.closeArray();
+    }
+    if (lead === null) return;
+    // Only an array short enough to keep is remembered (and copied: the caller's may change).
+    if (pieces !== this.pieces || this.pos - start > KEPT_BYTES) lead.lastStrings = null;
+    else if (lead.lastStrings === null || !sameStrings(v, lead.lastStrings)) lead.lastStrings = [...v];
+    else {
+      lead.withStrings = this.kept(start, pieces);
+      lead.keptStrings = lead.lastStrings;
+    }
   }
   value(key: JsonKey | null, v: unknown): void {
     if (v === undefined || typeof v === 'function' || typeof v === 'symbol') {
       if (key === null) {
-        this.member(null);
+        this.begin(null);
         this.ascii('null');
       }
       return;
@@ -508,14 +668,14 @@ export class TextWriter implements JsonWriter {
     if (v === null || typeof v !== 'object') {
       if (typeof v === 'string') this.str(key, v);
       else {
-        this.member(key);
+        this.begin(key);
         this.ascii(JSON.stringify(v));
       }
       return;
     }
     if (Array.isArray(v)) {
       if (v.length === 0) {
-        this.member(key);
+        this.begin(key);
         this.ascii('[]');
         return;
       }
@@ -530,7 +690,7 @@ export class TextWriter implements JsonWriter {
     this.close();
   }
   open(key: JsonKey | null): void {
-    this.member(key);
+    this.begin(key);
     this.buf[this.pos++] = 0x7b; // {
     this.depth++;
     this.first = true;
@@ -539,7 +699,7 @@ export class TextWriter implements JsonWriter {
     this.leave('}');
   }
   openArray(key: JsonKey | null): void {
-    this.member(key);
+    this.begin(key);
     this.buf[this.pos++] = 0x5b; // [
     this.depth++;
     this.first = true;
@@ -551,7 +711,7 @@ export class TextWriter implements JsonWriter {
     this.depth--;
     if (this.pos > PIECE_BYTES) this.flush();
     if (this.first) this.buf[this.pos++] = bracket === '}' ? 0x7d : 0x5d;
-    else this.lead(closeOf(this.depth, bracket));
+    else this.words(closeOf(this.depth, bracket));
     this.first = false;
   }
 }

@@ -277,6 +277,56 @@ describe('eval --format json, written without the objects', () => {
     for (const p of c.pieces) expect(Buffer.byteLength(p)).toBeLessThan(40_000);
   });
 
+  it('writes a member whose value repeats after the same line start (copied with it) as JSON.stringify does', () => {
+    // Runs of equal values (kept with their line start once they come twice running) and changes,
+    // at two depths, with values too long to keep, long strings handed out as pieces of their own,
+    // and enough rows for the repeats to cross many pieces.
+    const K = {
+      name: jsonKey('name'),
+      kind: jsonKey('kind'),
+      ok: jsonKey('ok'),
+      p: jsonKey('p'),
+      db: jsonKey('db'),
+      defining: jsonKey('defining'),
+      text: jsonKey('text'),
+      inner: jsonKey('inner'),
+    };
+    const rows = Array.from({ length: 6000 }, (_, i) => ({
+      name: `S${i}`,
+      kind: i % 500 < 250 ? 'state' : i % 7 === 0 ? null : 'mix',
+      ok: i % 3 !== 0,
+      p: i % 40 < 30 ? 101.325 : i % 2 === 0 ? -0 : 0,
+      db: i % 4 < 2 ? 24.5 : i % 9 === 0 ? null : 1 / 3,
+      defining: i % 100 < 60 ? ['db', 'rh'] : i % 100 < 80 ? [] : Array.from({ length: 30 }, (_, k) => `key${k}`),
+      text: i % 1000 < 400 ? 'default 101.325 kPa' : i % 1000 < 700 ? 'é'.repeat(200) : 'x'.repeat(5000),
+      inner: { p: 101.325, defining: ['db', 'rh'], ok: i % 5 === 0 },
+    }));
+    const c = collector();
+    const w = new TextWriter(2, c.take);
+    w.openArray(null);
+    for (const r of rows) {
+      w.open(null);
+      w.str(K.name, r.name);
+      w.str(K.kind, r.kind);
+      w.bool(K.ok, r.ok);
+      w.fig(K.p, r.p);
+      w.fig(K.db, r.db);
+      w.strings(K.defining, r.defining);
+      w.str(K.text, r.text);
+      w.open(K.inner);
+      w.fig(K.p, r.inner.p);
+      w.strings(K.defining, r.inner.defining);
+      w.bool(K.ok, r.inner.ok);
+      w.close();
+      w.close();
+    }
+    w.closeArray();
+    w.flush();
+    const want = rows.map((r) => ({ ...r, p: roundForJson(r.p), db: roundForJson(r.db) }));
+    expect(c.pieces.length).toBeGreaterThan(50);
+    expect(c.text()).toBe(stringifiedAt(want, 2));
+  });
+
   it('writes whole numbers (line numbers) and any other number as JSON.stringify does', () => {
     const numbers = [0, -0, 1, 9, 10, 99, 100, 4321, 99999, 100000, 123456789, 999999999, 1e9, 2 ** 31, 2 ** 53];
     numbers.push(-1, -100, 0.5, 1.25, 1e21, 1e-7, Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY);
