@@ -39,10 +39,32 @@ const common = {
   define: { __DEWMARK_VERSION__: JSON.stringify(pkg.version), 'import.meta.url': '__bundleMetaUrl' },
 };
 
+/**
+ * commander loads node:child_process when it is loaded, for subcommands that are programs of
+ * their own (it spawns them), which dewmark has none of; loading it (and the net and socket
+ * modules it loads) is a few milliseconds of every command's start. commander is given a module
+ * whose `spawn` loads it on first use instead.
+ */
+const lazyChildProcess = {
+  name: 'lazy-child-process',
+  setup(b) {
+    b.onResolve({ filter: /^node:child_process$/ }, (args) =>
+      /[\\/]node_modules[\\/]commander[\\/]/.test(args.importer)
+        ? { path: 'child_process', namespace: 'lazy-builtin' }
+        : undefined,
+    );
+    b.onLoad({ filter: /.*/, namespace: 'lazy-builtin' }, () => ({
+      contents: "module.exports = { get spawn() { return require('node:child_process').spawn; } };",
+      loader: 'js',
+    }));
+  },
+};
+
 const targets = [
-  { entry: 'cli/src/main.ts', out: 'dist/cli.js', required: true },
-  // The editor bundles ship in the .vsix: whitespace and syntax minified, names kept so that a
-  // stack trace in the server log still reads.
+  // Whitespace and syntax minified, names kept so that a stack trace still reads: every command
+  // starts by compiling the whole bundle, and a third less text is a few milliseconds less of it.
+  { entry: 'cli/src/main.ts', out: 'dist/cli.js', required: true, minify: true, plugins: [lazyChildProcess] },
+  // The editor bundles ship in the .vsix: minified in the same way.
   { entry: 'server/src/main.ts', out: 'dist/server.js', required: false, minify: true },
   { entry: 'client/src/node.ts', out: 'dist/client.js', required: false, external: ['vscode'], minify: true },
   // The web build (the manifest's `browser` entry): the client for the browser-based editor's web
@@ -82,6 +104,8 @@ for (const t of targets) {
       entryPoints: [entry],
       outfile: join(outdir, t.out.replace(/^dist\//, '')),
       external: t.external ?? [],
+      // (Only when the target has its own: the web options bring theirs.)
+      ...(t.plugins ? { plugins: t.plugins } : {}),
     });
     metafiles.set(t.out.replace(/^dist\//, ''), result.metafile);
     console.error(`built ${t.out}`);

@@ -313,14 +313,16 @@ function fourDigits(): FourDigits {
   if (fourDigitTables) return fourDigitTables;
   const words = new Int32Array(10000);
   const zeros = new Uint8Array(10000);
-  for (let i = 0; i < 10000; i++) {
-    const a = 0x30 + ((i / 1000) | 0);
-    const b = 0x30 + (((i / 100) | 0) % 10);
-    const c = 0x30 + (((i / 10) | 0) % 10);
-    const d = 0x30 + (i % 10);
-    words[i] = a | (b << 8) | (c << 16) | (d << 24);
-    zeros[i] = i === 0 ? 4 : i % 1000 === 0 ? 3 : i % 100 === 0 ? 2 : i % 10 === 0 ? 1 : 0;
-  }
+  // Digit by digit, with no division: this runs once per command, mostly before any optimisation.
+  let i = 0;
+  for (let a = 0; a < 10; a++)
+    for (let b = 0; b < 10; b++)
+      for (let c = 0; c < 10; c++)
+        for (let d = 0; d < 10; d++) {
+          words[i] = (0x30 + a) | ((0x30 + b) << 8) | ((0x30 + c) << 16) | ((0x30 + d) << 24);
+          zeros[i] = d !== 0 ? 0 : c !== 0 ? 1 : b !== 0 ? 2 : a !== 0 ? 3 : 4;
+          i++;
+        }
   fourDigitTables = { words, zeros };
   return fourDigitTables;
 }

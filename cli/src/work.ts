@@ -2,8 +2,7 @@
  * The work done per file, as a pure function of the file's text, so that it can run in the main
  * thread or in worker threads (many files are checked in parallel on a multi-core machine).
  */
-import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
-import { availableParallelism, loadavg } from 'node:os';
+import { os, workerThreads } from './builtins';
 import type { EvaluateSettings } from './core';
 import { LineIndex, analyzeHandingOut, analyzeNote, type Analysis } from './core';
 import { STDIN_PATH, decodeText, readInput, type Input } from '@dewmark/files';
@@ -166,6 +165,9 @@ interface WorkerJob {
   settings: Partial<EvaluateSettings>;
 }
 
+/** The argument a worker thread is started with (after the bundle's path in its `process.argv`). */
+const WORKER_ARGUMENT = '--dewmark-worker-thread';
+
 /** A batch of tasks sent to a worker (its results come back with the same `start`). */
 interface Batch {
   start: number;
@@ -177,6 +179,10 @@ interface Batch {
  * results. Returns true when it was one.
  */
 export function workerMain(): boolean {
+  // Only a thread started with the worker's argument may be one: the main thread of a usual run
+  // loads no worker module to find out.
+  if (process.argv[2] !== WORKER_ARGUMENT) return false;
+  const { isMainThread, parentPort, workerData } = workerThreads();
   if (isMainThread || !parentPort) return false;
   const job = workerData as WorkerJob | undefined;
   if (job?.dewmarkWorker !== true) return false;
@@ -215,8 +221,8 @@ export function workerCount(n: number): number {
   let cores = 1;
   let load = 0;
   try {
-    cores = availableParallelism();
-    load = loadavg()[0] ?? 0; // 0 where the system has no load average (Windows)
+    cores = os().availableParallelism();
+    load = os().loadavg()[0] ?? 0; // 0 where the system has no load average (Windows)
   } catch {
     cores = 1;
   }
@@ -290,7 +296,7 @@ export async function runTasks(
         // Batches sent and not yet answered: two, so that a worker never waits for the next one.
         const inflight: Batch[] = [];
         let finished = false;
-        const w = new Worker(__filename, { workerData: job });
+        const w = new (workerThreads().Worker)(__filename, { workerData: job, argv: [WORKER_ARGUMENT] });
         const fill = (): void => {
           while (inflight.length < 2) {
             const b = take();

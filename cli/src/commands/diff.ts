@@ -7,7 +7,6 @@
  * figure formatter shows them, so "changed" means "a reader of the results would see a different
  * figure" (a change below the last shown digit is not reported).
  */
-import { execFile } from 'node:child_process';
 import { existsSync, realpathSync } from 'node:fs';
 import { isAbsolute, join, relative, sep } from 'node:path';
 import type { Command } from 'commander';
@@ -22,6 +21,7 @@ import {
   type StateResult,
   type UnitSystem,
 } from '../core';
+import { childProcess } from '../builtins';
 import { LineIndex } from '../core';
 import type { CliIO } from '../run';
 import { UsageError, maxNoteBytes, toSettings, type RawEvalOptions } from '../settings';
@@ -229,7 +229,7 @@ export class GitProblem extends Error {}
 /** Runs git with an argument array (no shell) in `cwd`; resolves to stdout as bytes. */
 function git(args: string[], cwd: string, maxBuffer = 64 * 1024 * 1024): Promise<Buffer> {
   return new Promise((resolve, reject) => {
-    execFile(
+    childProcess().execFile(
       'git',
       args,
       {

@@ -9,11 +9,11 @@
  * scripts, and a Content-Security-Policy that forbids loading anything. The contract is in
  * docs/report.md.
  */
-import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
 import { renderChartCases } from '@dewmark/core/chart';
 import type { PressureBasis } from '@dewmark/core/evaluate';
 import { itemsResultsHtml, noteHtml, type FrontMatter, type ImageAnswer } from '@dewmark/core/present';
+import { crypto } from '../builtins';
 import { LineIndex, figure, type Analysis, type CoreDiagnostic } from '../core';
 import type { CliIO } from '../run';
 import { checkOutputPath, exitCodeOf, readOneNote, writeOutput, wroteLine, type WriteOptions } from './outputFile';
@@ -390,7 +390,7 @@ export function renderReportHtml(input: ReportInput, opts: ReportOptions = {}): 
   const claims = a.items.flatMap((i) => i.claims);
   const failedClaims = claims.filter((c) => !c.pass).length;
   const generated = opts.generatedAt ?? new Date().toISOString();
-  const digest = createHash('sha256').update(text, 'utf8').digest('hex');
+  const digest = crypto().createHash('sha256').update(text, 'utf8').digest('hex');
   const body = noteHtml(text, a, { image: opts.image });
   const fmTitle = body.frontMatter?.fields.find((f) => f.key === 'title')?.value;
   const title = body.title ?? fmTitle ?? path;

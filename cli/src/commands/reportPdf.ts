@@ -7,10 +7,9 @@
  * argument array, never through a shell, with its own throw-away profile, no extensions, no
  * network services); the paper size and margins are the report's own `@page` rules.
  */
-import { spawn } from 'node:child_process';
 import { accessSync, constants, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { delimiter, join } from 'node:path';
+import { childProcess, os } from '../builtins';
 import { pathToFileURL } from 'node:url';
 
 /** Names of a Chromium-family browser looked for on `PATH`, in order. */
@@ -78,7 +77,7 @@ export async function printPdf(
   html: string,
   timeoutMs = PRINT_TIMEOUT_MS,
 ): Promise<{ ok: true; pdf: Buffer } | { ok: false; message: string }> {
-  const dir = mkdtempSync(join(tmpdir(), 'dewmark-pdf-'));
+  const dir = mkdtempSync(join(os().tmpdir(), 'dewmark-pdf-'));
   try {
     const page = join(dir, 'report.html');
     const out = join(dir, 'report.pdf');
@@ -102,7 +101,7 @@ export async function printPdf(
     ];
     const run = await new Promise<{ code: number | null; stderr: string; timedOut: boolean; error?: string }>(
       (resolve) => {
-        const child = spawn(chromium, args, { stdio: ['ignore', 'ignore', 'pipe'], detached: true });
+        const child = childProcess().spawn(chromium, args, { stdio: ['ignore', 'ignore', 'pipe'], detached: true });
         let stderr = '';
         let timedOut = false;
         child.stderr?.on('data', (b: Buffer) => {
