@@ -265,6 +265,17 @@ class StatementParser {
 
   /** The next significant character after whitespace, or -1 at the end (or at a comment). */
   private peek(): number {
+    // Most calls find the cursor on a significant character already: that case is answered here,
+    // in a method short enough to be compiled into its callers; blanks are skipped by `peekPast`.
+    if (this.pos < this.end) {
+      const c = this.text.charCodeAt(this.pos);
+      if (!isWs(c)) return c === 0x23 ? -1 : c;
+    }
+    return this.peekPast();
+  }
+
+  /** {@link peek} once the cursor is on a blank or at the end of a piece. */
+  private peekPast(): number {
     this.skipWs();
     if (this.pos >= this.end) return -1;
     const c = this.text.charCodeAt(this.pos);
@@ -1093,44 +1104,63 @@ class StatementParser {
   private quantity(context: 'prop' | 'stream', key?: string): ParsedQuantity | null {
     const number = this.number(key);
     if (!number) return null;
-    let unit = this.attachedUnit();
-    if (unit === null) {
-      const detachedEnd = this.detachedUnit(context);
-      if (detachedEnd >= 0) {
-        // The cursor is at the unit's start.
-        const detachedStart = this.pos;
-        const written = internedSlice(this.text, detachedStart, detachedEnd);
-        this.report(
-          'value-spacing',
-          `write the unit directly after the number, e.g. ${number.text}${written} (no space)`,
-          number.at,
-          detachedEnd,
-        );
-        this.consume(detachedEnd);
-        unit = new ParsedUnit(written, detachedStart);
-      }
-    }
+    // What is written apart from the number (reported) is read by methods of its own, out of this
+    // one, which stays short enough for the engine to compile it into its callers.
+    const unit = this.attachedUnit() ?? this.detachedUnitNode(number, context);
     let tolerance: ToleranceNode | null = null;
-    if (this.toleranceAt(this.pos) > 0) {
-      tolerance = this.tolerance();
-    } else {
-      this.save();
-      if (this.peek() >= 0 && this.toleranceAt(this.pos) > 0) {
-        const at = this.pos;
-        const written = `${number.text}${unit?.text ?? ''}`;
-        tolerance = this.tolerance();
-        this.report(
-          'value-spacing',
-          `write the tolerance directly after the value, ` +
-            `e.g. ${written}${this.text.slice(at, this.lastEnd).replace(/\s+/g, '')} (no space)`,
-          at,
-          this.lastEnd,
-        );
-      } else {
-        this.restore();
-      }
-    }
+    if (this.toleranceAt(this.pos) > 0) tolerance = this.tolerance();
+    else if (this.toleranceAfterBlanks()) tolerance = this.detachedTolerance(number, unit);
     return new ParsedQuantity(number, unit, tolerance);
+  }
+
+  /** A unit written apart from its number (`24 C`), reported and consumed; null when none is. */
+  private detachedUnitNode(number: ParsedNumber, context: 'prop' | 'stream'): ParsedUnit | null {
+    const detachedEnd = this.detachedUnit(context);
+    if (detachedEnd < 0) return null;
+    // The cursor is at the unit's start.
+    const detachedStart = this.pos;
+    const written = internedSlice(this.text, detachedStart, detachedEnd);
+    this.report(
+      'value-spacing',
+      `write the unit directly after the number, e.g. ${number.text}${written} (no space)`,
+      number.at,
+      detachedEnd,
+    );
+    this.consume(detachedEnd);
+    return new ParsedUnit(written, detachedStart);
+  }
+
+  /**
+   * Whether the next significant character after the cursor is a tolerance sign (`24C ±0.5`), as
+   * {@link peek} and {@link toleranceAt} would tell, without moving the cursor: the blanks are
+   * looked over in place, and only at the end of a piece (a code span on several lines) is the
+   * cursor moved on and back.
+   */
+  private toleranceAfterBlanks(): boolean {
+    let p = this.pos;
+    while (p < this.end && isWs(this.text.charCodeAt(p))) p++;
+    if (p < this.end) return this.toleranceAt(p) > 0;
+    if (this.seg + 1 >= this.segs.length) return false;
+    this.save();
+    const found = this.peek() >= 0 && this.toleranceAt(this.pos) > 0;
+    this.restore();
+    return found;
+  }
+
+  /** The tolerance after blanks ({@link toleranceAfterBlanks}), reported and read. */
+  private detachedTolerance(number: ParsedNumber, unit: ParsedUnit | null): ToleranceNode | null {
+    this.peek();
+    const at = this.pos;
+    const written = `${number.text}${unit?.text ?? ''}`;
+    const tolerance = this.tolerance();
+    this.report(
+      'value-spacing',
+      `write the tolerance directly after the value, ` +
+        `e.g. ${written}${this.text.slice(at, this.lastEnd).replace(/\s+/g, '')} (no space)`,
+      at,
+      this.lastEnd,
+    );
+    return tolerance;
   }
 
   /** A number at the cursor; null (with a `bad-number` diagnostic, token skipped) when malformed. */
@@ -1138,55 +1168,80 @@ class StatementParser {
     const start = this.pos;
     const n = scanNumber(this.text, start, this.end, this.scanned);
     const next = this.charAt(n.end);
-    if (next === 0x2c && isDigit(this.charAt(n.end + 1))) {
-      const tStart = this.pos;
+    const value = n.value;
+    const resolution = resolutionOf(n.fractionDigits, n.exponent);
+    // One test for anything that may be wrong; the messages are in `numberProblem`, out of this
+    // method, which stays short enough for the engine to compile it into its callers.
+    if (
+      next === 0x2c ||
+      next === 0x2e ||
+      isDigit(next) ||
+      !Number.isFinite(value) ||
+      !Number.isFinite(resolution)
+    ) {
+      if (this.numberProblem(start, n.end, next, value, resolution, key)) return null;
+    }
+    this.consume(n.end);
+    return new ParsedNumber(value, n.written, resolution, start);
+  }
+
+  /**
+   * Reports what is wrong with the number scanned from `start` to `end` (followed by `next`, with
+   * this value and resolution) and skips its token; false, with nothing done, when it is fine
+   * after all (a comma that is not followed by a digit ends the number).
+   */
+  private numberProblem(
+    start: number,
+    end: number,
+    next: number,
+    value: number,
+    resolution: number,
+    key: string | undefined,
+  ): boolean {
+    if (next === 0x2c && isDigit(this.charAt(end + 1))) {
       const tEnd = this.rawTokenEnd();
       this.consume(tEnd);
-      const shown = this.text.slice(tStart, tEnd);
-      this.report('bad-number', commaMessage(shown), tStart, tEnd);
-      return null;
+      const shown = this.text.slice(start, tEnd);
+      this.report('bad-number', commaMessage(shown), start, tEnd);
+      return true;
     }
     if (next === 0x2e || isDigit(next)) {
-      const tStart = this.pos;
       const tEnd = this.rawTokenEnd();
       this.consume(tEnd);
       this.report(
         'bad-number',
-        `'${this.text.slice(tStart, tEnd)}' is not a number: write ` +
+        `'${this.text.slice(start, tEnd)}' is not a number: write ` +
           `one decimal number,${numberExample(key, ' e.g. 24.5')}`,
-        tStart,
+        start,
         tEnd,
       );
-      return null;
+      return true;
     }
-    const value = n.value;
     if (!Number.isFinite(value)) {
       const tEnd = this.rawTokenEnd();
       this.consume(tEnd);
       this.report(
         'bad-number',
-        `'${this.text.slice(start, n.end)}' is too large: write a finite number,${numberExample(key, ' e.g. 1.2e3')}`,
+        `'${this.text.slice(start, end)}' is too large: write a finite number,${numberExample(key, ' e.g. 1.2e3')}`,
         start,
         tEnd,
       );
-      return null;
+      return true;
     }
-    const resolution = resolutionOf(n.fractionDigits, n.exponent);
     if (!Number.isFinite(resolution)) {
       // A finite value with a huge exponent (0e400): its last digit stands for more than a double holds.
       const tEnd = this.rawTokenEnd();
       this.consume(tEnd);
       this.report(
         'bad-number',
-        `'${this.text.slice(start, n.end)}' has an exponent too large to compute ` +
+        `'${this.text.slice(start, end)}' has an exponent too large to compute ` +
           `with: write the number without it,${numberExample(key, ' e.g. 0')}`,
         start,
         tEnd,
       );
-      return null;
+      return true;
     }
-    this.consume(n.end);
-    return new ParsedNumber(value, n.written, resolution, start);
+    return false;
   }
 
   /** End of the unit written directly at `pos` (`pos` itself when there is none). */
