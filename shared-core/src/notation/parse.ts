@@ -1172,13 +1172,7 @@ class StatementParser {
     const resolution = resolutionOf(n.fractionDigits, n.exponent);
     // One test for anything that may be wrong; the messages are in `numberProblem`, out of this
     // method, which stays short enough for the engine to compile it into its callers.
-    if (
-      next === 0x2c ||
-      next === 0x2e ||
-      isDigit(next) ||
-      !Number.isFinite(value) ||
-      !Number.isFinite(resolution)
-    ) {
+    if (next === 0x2c || next === 0x2e || isDigit(next) || !Number.isFinite(value) || !Number.isFinite(resolution)) {
       if (this.numberProblem(start, n.end, next, value, resolution, key)) return null;
     }
     this.consume(n.end);
