@@ -27,6 +27,14 @@ export interface ReadProps {
   broken: readonly string[];
   /** How many keys were not known (each reported as `unknown-key`). */
   unknownKeys: number;
+  /**
+   * Counted while reading, so that a statement need not pass over its properties again: how many
+   * of {@link props} can define a state (their row says so), set the pressure (`p`, `elev`), and
+   * are references.
+   */
+  defining: number;
+  pressure: number;
+  references: number;
 }
 
 /** No keys (shared, never written to). */
@@ -56,12 +64,12 @@ export function readProps(
   let broken: PropertyNode[] | null = null;
   let unknownKeys = 0;
   let refs: RefSite | null = null;
+  let defining = 0;
+  let pressure = 0;
+  let references = 0;
   for (let i = 0; i < props.length; i++) {
     const prop = props[i]!;
-    // One look-up: a row of the table is its own key's (`spec.key`), which no property an
-    // object inherits is (`constructor`, `toString`…), so the row found is the key's own.
-    const found = table[prop.key];
-    const spec = found !== undefined && found.key === prop.key ? found : undefined;
+    const spec = rowOf(table, prop.key);
     if (!spec) {
       const keys = Object.keys(table);
       const suggestion = suggestName(prop.key, keys);
@@ -82,7 +90,7 @@ export function readProps(
     // The first property with this key is the one that counts. It is among the first properties
     // of known keys, read or not (one per key: a list no longer than the table, however long the
     // line), so a linear scan of those beats a Map here and stays linear in the line.
-    const first = firstWithKey(out, n, broken, prop.key);
+    const first = firstWithKey(out, n, broken, spec.key);
     if (first) {
       if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement });
       ctx.report({
@@ -102,7 +110,10 @@ export function readProps(
         broken = appended(broken, prop);
         continue;
       }
-      out[n++] = { key: prop.key, spec, prop, q: r.q, ref: r.ref };
+      out[n++] = { key: spec.key, spec, prop, q: r.q, ref: r.ref };
+      references++;
+      if (spec.defining === true) defining++;
+      if (isPressureKey(spec.key)) pressure++;
       continue;
     }
     if (prop.value === null) {
@@ -117,9 +128,51 @@ export function readProps(
       continue;
     }
     out[n++] = read as ReadPropertyFigure;
+    if (spec.defining === true) defining++;
+    if (isPressureKey(spec.key)) pressure++;
   }
-  out.length = n;
-  return { props: out, broken: broken ? broken.map((p) => p.key) : NO_KEYS, unknownKeys };
+  // Setting an array's length is a call into the engine: done only when a property was not read.
+  if (n !== out.length) out.length = n;
+  return {
+    props: out,
+    broken: broken ? broken.map((p) => p.key) : NO_KEYS,
+    unknownKeys,
+    defining,
+    pressure,
+    references,
+  };
+}
+
+/** True for a key that sets a statement's pressure rather than describing its air. */
+export function isPressureKey(key: string): boolean {
+  return key === 'p' || key === 'elev';
+}
+
+/** Rows found last, by a slot of the key as written (see {@link rowOf}). */
+const ROW_SLOTS = 32;
+const rowTables: (Readonly<Record<string, KeySpec>> | null)[] = new Array(ROW_SLOTS).fill(null);
+const rowKeys: string[] = new Array<string>(ROW_SLOTS).fill('');
+const rowSpecs: (KeySpec | null)[] = new Array(ROW_SLOTS).fill(null);
+
+/**
+ * The row of `table` for the key written `key`, or undefined when the table has none. A row of
+ * the table is its own key's (`spec.key`), which no property an object inherits is
+ * (`constructor`, `toString`…), so the row found is the key's own.
+ *
+ * The tables never change, so the last row found for each slot is kept with its table and the
+ * key as written: a note writes a handful of keys over and over, and the parser hands each out
+ * as the same string, which compares with the one kept at once. Looking a key up in the table
+ * itself costs more: the note's string is first matched with the engine's own copy of the text.
+ */
+function rowOf(table: Readonly<Record<string, KeySpec>>, key: string): KeySpec | undefined {
+  const slot = (key.length * 7 + key.charCodeAt(0) * 3 + key.charCodeAt(key.length - 1)) & (ROW_SLOTS - 1);
+  if (rowKeys[slot] === key && rowTables[slot] === table) return rowSpecs[slot]!;
+  const found = table[key];
+  if (found === undefined || found.key !== key) return undefined;
+  rowTables[slot] = table;
+  rowKeys[slot] = key;
+  rowSpecs[slot] = found;
+  return found;
 }
 
 /** The property of key `key` among the first `n` read (`out`) and those that could not be read, if any. */

@@ -58,24 +58,51 @@ export class ReadFigure implements ResolvedQuantity {
 
 /**
  * A statement's property read against its key's row: a {@link ReadProp} that is its own quantity
- * (`q`), so that a property read is one object.
+ * (`q`), so that a property read is one object. It is a class of its own rather than a subclass of
+ * {@link ReadFigure}: a derived class's constructor is a second call that the engine makes per
+ * object (the base allocates it), and every state reads two of these.
  */
-export class ReadPropertyFigure extends ReadFigure implements ReadProp {
+export class ReadPropertyFigure implements ReadProp, ResolvedQuantity {
+  readonly si: number;
+  readonly unit: UnitDef | null;
+  readonly toleranceSI: number;
   readonly prop: PropertyNode;
   readonly spec: KeySpec;
 
   constructor(si: number, unit: UnitDef | null, toleranceSI: number, prop: PropertyNode, spec: KeySpec) {
-    super(si, unit, toleranceSI, prop.value!);
+    this.si = si;
+    this.unit = unit;
+    this.toleranceSI = toleranceSI;
     this.prop = prop;
     this.spec = spec;
   }
 
+  /**
+   * The key: its row's own string, equal to the key as written (the row was found by it). The
+   * row's string is the table's literal, which compares with the literals of the evaluator
+   * (`key === 'db'`) at once, where the string read from the note is compared character by character.
+   */
   get key(): string {
-    return this.prop.key;
+    return this.spec.key;
   }
 
   get q(): ResolvedQuantity {
     return this;
+  }
+
+  /** The quantity as written: the property's value. */
+  get quantity(): QuantityNode {
+    return this.prop.value!;
+  }
+
+  /** The unit as written (a figure read has a unit exactly when one is written), or ''. */
+  get unitText(): string {
+    return this.prop.value!.unit?.text ?? '';
+  }
+
+  /** True when the tolerance was written (a figure read has a valid one exactly when one is written). */
+  get explicitTolerance(): boolean {
+    return !!this.prop.value!.tolerance;
   }
 }
 

@@ -19,7 +19,7 @@ import { problemDiagnostic } from './problems';
 import { exampleIn, figureText, problemTexts } from './figures';
 import type { UnitSystem } from '../units/types';
 import type { ReadProp, ReadProps } from './props';
-import { readProps } from './props';
+import { isPressureKey, readProps } from './props';
 import { sourcesOf } from './refs';
 import { solveOrProblem } from './solve';
 import { checkClaim } from './claims';
@@ -148,7 +148,7 @@ export function stateClaims(
 const ALLOW_FOG = Object.freeze({ allowFog: true });
 
 function isPressureProp(p: ReadProp): boolean {
-  return p.key === 'p' || p.key === 'elev';
+  return isPressureKey(p.key);
 }
 
 /** True for a property that can define the state (its row of the key table says so: db wb dp rh w h). */
@@ -159,13 +159,6 @@ function isDefiningProp(p: ReadProp): boolean {
 /** True for a property taken from another state (`w=OA.w`). */
 function isReference(p: ReadProp): boolean {
   return p.ref !== undefined;
-}
-
-/** The properties of `props` that pass `test`: `props` itself when all of them do (no copy for the common case). */
-function only(props: ReadProp[], test: (p: ReadProp) => boolean): ReadProp[] {
-  let n = 0;
-  for (const p of props) if (test(p)) n++;
-  return n === props.length ? props : props.filter(test);
 }
 
 /**
@@ -192,9 +185,35 @@ function pairInput(ka: DefiningKey, va: number, kb: DefiningKey, vb: number): Pa
   input.rh = undefined;
   input.w = undefined;
   input.h = undefined;
-  input[ka] = va;
-  input[kb] = vb;
+  setInput(input, ka, va);
+  setInput(input, kb, vb);
   return input as Partial<Record<DefiningKey, number>>;
+}
+
+/**
+ * `input[k] = v`, written as one store per key: a store under a key chosen at run time goes
+ * through the engine's generic look-up, where a store to a named field is one write.
+ */
+function setInput(input: Record<DefiningKey, number | undefined>, k: DefiningKey, v: number): void {
+  switch (k) {
+    case 'db':
+      input.db = v;
+      return;
+    case 'wb':
+      input.wb = v;
+      return;
+    case 'dp':
+      input.dp = v;
+      return;
+    case 'rh':
+      input.rh = v;
+      return;
+    case 'w':
+      input.w = v;
+      return;
+    default:
+      input.h = v;
+  }
 }
 
 /**
@@ -211,7 +230,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
   // The site's pressure, unless the state sets its own (or could not read it).
   let pressure = ctx.site;
   let failed = false;
-  if (read.broken.length > 0 || props.some(isPressureProp))
+  if (read.broken.length > 0 || read.pressure > 0)
     ({ pressure, failed } = statePressure(ctx, props, read.broken, what));
   const candidates = failed ? null : definingCandidates(ctx, props, read, what, stmt.name?.span ?? stmt.keywordSpan);
   const solved = candidates ? solveFirstPair(ctx, candidates, pressure, what) : null;
@@ -224,8 +243,10 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
     defining: solved ? definingPair(solved.a.key as DefiningKey, solved.b.key as DefiningKey) : EMPTY,
     claims: solved ? claimsBeyondPair(ctx, props, solved, pressure) : EMPTY,
   };
-  const sources = sourcesOf(props);
-  if (sources) result.sources = sources;
+  if (read.references > 0) {
+    const sources = sourcesOf(props);
+    if (sources) result.sources = sources;
+  }
   return result;
 }
 
@@ -236,6 +257,8 @@ function claimsBeyondPair(
   { a, b, state }: SolvedPair,
   pressure: PressureBasis,
 ): ClaimResult[] {
+  // The pair is two of the properties: with no other, there is no claim.
+  if (props.length === 2) return EMPTY;
   let claimsProps: ReadProp[] | null = null;
   for (const p of props) if (p !== a && p !== b && !isPressureProp(p)) claimsProps = appended(claimsProps, p);
   if (!claimsProps) return EMPTY;
@@ -279,7 +302,7 @@ function definingCandidates(
   what: string,
   fallback: Span,
 ): readonly ReadProp[] | null {
-  const defs = only(props, isDefiningProp);
+  const defs = read.defining === props.length ? props : props.filter(isDefiningProp);
   if (defs.length < 2) {
     // A property that could not be read (bad unit, unknown key) already explains the shortfall.
     const brokenDefining = read.broken.filter((k) => isDefiningKey(k));
@@ -299,7 +322,7 @@ function definingCandidates(
     });
     return null;
   }
-  const refs = defs.some(isReference) ? defs.filter(isReference) : NO_PROPS;
+  const refs = read.references > 0 && defs.some(isReference) ? defs.filter(isReference) : NO_PROPS;
   if (refs.length > 2) {
     ctx.report({
       code: 'bad-reference',
