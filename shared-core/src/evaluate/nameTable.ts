@@ -4,10 +4,13 @@
  *
  * A `Map` keyed by the names costs several cache misses per name in a note of many thousand: on
  * its way to a name's slot it compares the name with the names it meets, reading each of them.
- * Here the slots are two typed arrays, each name's hash and the place of the name in the list of
- * names, filled by linear probing: registering a name reads its own characters (for the hash),
- * one run of slots and, only when two hashes are equal, the other name. The table doubles when
- * half full, from the hashes alone.
+ * Here everything is kept in typed arrays, with no object per name: the slots (each name's hash
+ * and its place, side by side, filled by linear probing), and per place the name's characters (one
+ * pool of UTF-16 code units) and its value. Registering a name reads its own characters (for the
+ * hash), one run of slots and, only when two hashes are equal, the other name's characters; a new
+ * name's characters are copied to the pool. The table doubles when half full, from the hashes
+ * alone. Keeping the characters rather than the strings also leaves the garbage collector nothing
+ * to trace or move per name.
  *
  * The hash is not keyed, so names could be written to collide: a probe that runs longer than
  * {@link MAX_PROBE} slots moves every name to a `Map` (whose hash is keyed per process), and the
@@ -21,6 +24,12 @@ export const MAX_PROBE = 64;
 /** Slots of a new table (a power of two). */
 export const FIRST_SLOTS = 256;
 
+/** Names a new table has room for before its lists of places grow. */
+const FIRST_PLACES = 128;
+
+/** Characters a new table has room for before its pool grows. */
+const FIRST_CHARS = 1024;
+
 /** FNV-1a over the UTF-16 code units of `s` (32-bit): the table's hash of a name. */
 export function nameHash(s: string): number {
   let h = 0x811c9dc5 | 0;
@@ -30,14 +39,16 @@ export function nameHash(s: string): number {
 
 /** Name → index of its first definition (see the module comment). */
 export class NameTable {
-  /** The names, in the order they were added. */
-  private readonly names: string[] = [];
-  /** The value of each name, in the same order. */
-  private readonly values: number[] = [];
-  /** Per slot: the place in {@link names} plus one, or 0 for an empty slot. */
-  private places = new Int32Array(FIRST_SLOTS);
-  /** Per slot: the hash of its name. */
-  private hashes = new Int32Array(FIRST_SLOTS);
+  /** Per slot, two numbers: the hash of its name, and the name's place plus one (0 for an empty slot). */
+  private slots = new Int32Array(2 * FIRST_SLOTS);
+  /** How many names there are (their places are 0 … count − 1, in the order they were added). */
+  private count = 0;
+  /** Per place: where its name's characters start in {@link chars}; entry `count` is where the next starts. */
+  private starts = new Int32Array(FIRST_PLACES + 1);
+  /** Per place: the value of its name. */
+  private values = new Int32Array(FIRST_PLACES);
+  /** The characters of the names, one after the other. */
+  private chars = new Uint16Array(FIRST_CHARS);
   /** Every name when probing ran too long (then the only table in use). */
   private map: Map<string, number> | null = null;
 
@@ -60,29 +71,67 @@ export class NameTable {
     const place = this.find(name, h);
     if (place >= 0) return false;
     if (place === -2) return this.addToMap(name, value);
-    this.names.push(name);
-    this.values.push(value);
-    if (this.names.length * 2 > this.places.length) this.grow();
-    else this.put(h, this.names.length);
+    this.append(name, value);
+    if (this.count * 2 > this.slots.length >> 1) this.grow(h);
+    else this.put(h, this.count);
     return true;
   }
 
   /**
-   * The place of `name` in {@link names}; -1 when absent; -2 when the probe ran longer than
-   * {@link MAX_PROBE} slots (every name is in {@link map} then).
+   * The place of `name`; -1 when absent; -2 when the probe ran longer than {@link MAX_PROBE}
+   * slots (every name is in {@link map} then).
    */
   private find(name: string, h: number): number {
-    const places = this.places;
-    const mask = places.length - 1;
+    const slots = this.slots;
+    const mask = (slots.length >> 1) - 1;
     let slot = h & mask;
     for (let probe = 0; probe < MAX_PROBE; probe++) {
-      const p = places[slot]!;
+      const p = slots[2 * slot + 1]!;
       if (p === 0) return -1;
-      if (this.hashes[slot] === h && this.names[p - 1] === name) return p - 1;
+      if (slots[2 * slot] === h && this.isNameAt(p - 1, name)) return p - 1;
       slot = (slot + 1) & mask;
     }
     this.toMap();
     return -2;
+  }
+
+  /** True when the name at `place` is `name`. */
+  private isNameAt(place: number, name: string): boolean {
+    const start = this.starts[place]!;
+    if (this.starts[place + 1]! - start !== name.length) return false;
+    const chars = this.chars;
+    for (let i = 0; i < name.length; i++) if (chars[start + i] !== name.charCodeAt(i)) return false;
+    return true;
+  }
+
+  /** The name at `place`, as a string (for the move to a Map only). */
+  private nameAt(place: number): string {
+    let s = '';
+    for (let i = this.starts[place]!; i < this.starts[place + 1]!; i++) s += String.fromCharCode(this.chars[i]!);
+    return s;
+  }
+
+  /** Adds `name` with `value` at the next place (its characters to the pool). */
+  private append(name: string, value: number): void {
+    const place = this.count;
+    if (place === this.values.length) {
+      this.values = grown(this.values, 2 * place);
+      this.starts = grown(this.starts, 2 * place + 1);
+    }
+    const start = this.starts[place]!;
+    const end = start + name.length;
+    if (end > this.chars.length) {
+      let n = 2 * this.chars.length;
+      while (n < end) n *= 2;
+      const chars = new Uint16Array(n);
+      chars.set(this.chars);
+      this.chars = chars;
+    }
+    const chars = this.chars;
+    for (let i = 0; i < name.length; i++) chars[start + i] = name.charCodeAt(i);
+    this.starts[place + 1] = end;
+    this.values[place] = value;
+    this.count = place + 1;
   }
 
   /**
@@ -90,34 +139,33 @@ export class NameTable {
    * run: {@link find} came first).
    */
   private put(h: number, p: number): void {
-    const places = this.places;
-    const mask = places.length - 1;
+    const slots = this.slots;
+    const mask = (slots.length >> 1) - 1;
     let slot = h & mask;
-    while (places[slot] !== 0) slot = (slot + 1) & mask;
-    places[slot] = p;
-    this.hashes[slot] = h;
+    while (slots[2 * slot + 1] !== 0) slot = (slot + 1) & mask;
+    slots[2 * slot] = h;
+    slots[2 * slot + 1] = p;
   }
 
-  /** Twice the slots, refilled from the stored hashes (the names themselves are not read). */
-  private grow(): void {
-    const oldPlaces = this.places;
-    const oldHashes = this.hashes;
-    this.places = new Int32Array(oldPlaces.length * 2);
-    this.hashes = new Int32Array(oldPlaces.length * 2);
-    for (let slot = 0; slot < oldPlaces.length; slot++) {
-      const p = oldPlaces[slot]!;
-      if (p !== 0) this.put(oldHashes[slot]!, p);
+  /**
+   * Twice the slots, refilled from the stored hashes (the names themselves are not read), and the
+   * name just added, of hash `h`, whose slot is not taken yet.
+   */
+  private grow(h: number): void {
+    const old = this.slots;
+    this.slots = new Int32Array(old.length * 2);
+    for (let i = 0; i < old.length; i += 2) {
+      const p = old[i + 1]!;
+      if (p !== 0) this.put(old[i]!, p);
     }
-    // The name just added, whose slot is not taken yet.
-    const last = this.names.length;
-    this.put(nameHash(this.names[last - 1]!), last);
+    this.put(h, this.count);
   }
 
   /** Moves every name to {@link map} (see the module comment). */
   private toMap(): void {
     if (this.map) return;
     const map = new Map<string, number>();
-    for (let i = 0; i < this.names.length; i++) map.set(this.names[i]!, this.values[i]!);
+    for (let i = 0; i < this.count; i++) map.set(this.nameAt(i), this.values[i]!);
     this.map = map;
   }
 
@@ -127,4 +175,11 @@ export class NameTable {
     map.set(name, value);
     return true;
   }
+}
+
+/** `a` copied into a new array of `n` elements. */
+function grown(a: Int32Array, n: number): Int32Array<ArrayBuffer> {
+  const b = new Int32Array(n);
+  b.set(a);
+  return b;
 }
