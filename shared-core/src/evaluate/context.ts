@@ -154,6 +154,12 @@ export class EvalContext {
    */
   define(node: NameNode, index: number): boolean {
     if (this.names.define(node, index)) return true;
+    this.duplicateName(node);
+    return false;
+  }
+
+  /** Reports `duplicate-name` for `node`, a name defined above. */
+  private duplicateName(node: NameNode): void {
     const name = node.text;
     const first = this.names.firstDef(name)!;
     this.report({
@@ -167,7 +173,6 @@ export class EvalContext {
       related: [{ span: first.span, message: `first definition of '${name}'` }],
       data: { name },
     });
-    return false;
   }
 
   /** Stores an evaluated item (and links it to its name when this statement owns the name). */

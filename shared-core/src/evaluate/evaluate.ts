@@ -7,6 +7,7 @@ import type {
   MixStatement,
   ParsedNote,
   ProcessStatement,
+  RecoverStatement,
   Statement,
   StateStatement,
   SupplyStatement,
@@ -198,45 +199,57 @@ function evaluateStatement(ctx: EvalContext, stmt: Statement, index: number, reu
       ctx.addItem(item, owner);
       return;
     }
-    case 'process': {
-      if (!stmt.name) return;
-      const owner = ctx.define(stmt.name, index);
-      if (stmt.to && ctx.names.derivesLeaving(stmt)) {
-        // It defines its leaving state too (evaluated every time: it is cheap, and what it
-        // defines is new on every run).
-        const toOwner = ctx.define(stmt.to, index);
-        const out = evaluateProcess(ctx, stmt, index, true);
-        // The name it defines is listed with the references (rename and find-references see it).
-        ctx.references.push({ name: stmt.to.text, span: stmt.to.span, statement: stmt });
-        if (out.leaving) ctx.addItem(out.leaving, toOwner);
-        if (out.process) ctx.addItem(out.process, owner);
-        return;
-      }
-      const item = reuse ? reusedProcess(reuse, ctx, stmt, index) : evaluateProcess(ctx, stmt, index).process;
-      if (item) ctx.addItem(item, owner);
+    case 'process':
+      evaluateProcessStatement(ctx, stmt, index, reuse);
       return;
-    }
-    case 'recover': {
-      if (!stmt.name) return;
-      const owner = ctx.define(stmt.name, index);
-      const toOwners: boolean[] = [];
-      for (const x of stmt.streams) toOwners.push(x.to ? ctx.define(x.to, index) : false);
-      const out = evaluateRecover(ctx, stmt, index);
-      for (const x of stmt.streams)
-        if (x.to) ctx.references.push({ name: x.to.text, span: x.to.span, statement: stmt });
-      for (let k = 0; k < out.leaving.length; k++) {
-        const l = out.leaving[k];
-        if (l) ctx.addItem(l, toOwners[k] ?? false);
-      }
-      // The exchanger is registered under its name by its first side; the second side is listed as well.
-      for (let k = 0; k < out.sides.length; k++) {
-        const side = out.sides[k];
-        if (side) ctx.addItem(side, owner && k === 0);
-      }
+    case 'recover':
+      evaluateRecoverStatement(ctx, stmt, index);
       return;
-    }
     default:
       return;
+  }
+}
+
+/** A `process` statement (the `process` case of {@link evaluateStatement}). */
+function evaluateProcessStatement(
+  ctx: EvalContext,
+  stmt: ProcessStatement,
+  index: number,
+  reuse: EvaluateReuse | undefined,
+): void {
+  if (!stmt.name) return;
+  const owner = ctx.define(stmt.name, index);
+  if (stmt.to && ctx.names.derivesLeaving(stmt)) {
+    // It defines its leaving state too (evaluated every time: it is cheap, and what it
+    // defines is new on every run).
+    const toOwner = ctx.define(stmt.to, index);
+    const out = evaluateProcess(ctx, stmt, index, true);
+    // The name it defines is listed with the references (rename and find-references see it).
+    ctx.references.push({ name: stmt.to.text, span: stmt.to.span, statement: stmt });
+    if (out.leaving) ctx.addItem(out.leaving, toOwner);
+    if (out.process) ctx.addItem(out.process, owner);
+    return;
+  }
+  const item = reuse ? reusedProcess(reuse, ctx, stmt, index) : evaluateProcess(ctx, stmt, index).process;
+  if (item) ctx.addItem(item, owner);
+}
+
+/** A `recover` statement (the `recover` case of {@link evaluateStatement}). */
+function evaluateRecoverStatement(ctx: EvalContext, stmt: RecoverStatement, index: number): void {
+  if (!stmt.name) return;
+  const owner = ctx.define(stmt.name, index);
+  const toOwners: boolean[] = [];
+  for (const x of stmt.streams) toOwners.push(x.to ? ctx.define(x.to, index) : false);
+  const out = evaluateRecover(ctx, stmt, index);
+  for (const x of stmt.streams) if (x.to) ctx.references.push({ name: x.to.text, span: x.to.span, statement: stmt });
+  for (let k = 0; k < out.leaving.length; k++) {
+    const l = out.leaving[k];
+    if (l) ctx.addItem(l, toOwners[k] ?? false);
+  }
+  // The exchanger is registered under its name by its first side; the second side is listed as well.
+  for (let k = 0; k < out.sides.length; k++) {
+    const side = out.sides[k];
+    if (side) ctx.addItem(side, owner && k === 0);
   }
 }
 

@@ -51,6 +51,8 @@ export class NameTable {
   private chars = new Uint16Array(FIRST_CHARS);
   /** Every name when probing ran too long (then the only table in use). */
   private map: Map<string, number> | null = null;
+  /** The empty slot that ended the last {@link find} of an absent name (where that name goes). */
+  private free = 0;
 
   /** The value of `name`, or -1 when it has none. */
   get(name: string): number {
@@ -73,13 +75,17 @@ export class NameTable {
     if (place === -2) return this.addToMap(name, value);
     this.append(name, value);
     if (this.count * 2 > this.slots.length >> 1) this.grow(h);
-    else this.put(h, this.count);
+    else {
+      // The slot the search ended at, free (no second probe).
+      this.slots[2 * this.free] = h;
+      this.slots[2 * this.free + 1] = this.count;
+    }
     return true;
   }
 
   /**
-   * The place of `name`; -1 when absent; -2 when the probe ran longer than {@link MAX_PROBE}
-   * slots (every name is in {@link map} then).
+   * The place of `name`; -1 when absent (the empty slot found is {@link free}); -2 when the probe
+   * ran longer than {@link MAX_PROBE} slots (every name is in {@link map} then).
    */
   private find(name: string, h: number): number {
     const slots = this.slots;
@@ -87,7 +93,10 @@ export class NameTable {
     let slot = h & mask;
     for (let probe = 0; probe < MAX_PROBE; probe++) {
       const p = slots[2 * slot + 1]!;
-      if (p === 0) return -1;
+      if (p === 0) {
+        this.free = slot;
+        return -1;
+      }
       if (slots[2 * slot] === h && this.isNameAt(p - 1, name)) return p - 1;
       slot = (slot + 1) & mask;
     }

@@ -1,5 +1,5 @@
 /** Reading the `key=value` list of a statement against a table of keys. */
-import type { PropertyNode, Statement } from '../notation/ast';
+import type { PropertyNode, PropertyRefNode, Statement } from '../notation/ast';
 import type { EvalContext } from './context';
 import type { KeySpec } from './keys';
 import type { ResolvedQuantity } from './quantity';
@@ -57,13 +57,14 @@ export function readProps(
   allowed: boolean,
 ): ReadProps {
   // At most one property read per written one: sized once (a growing list would take room for
-  // 16 at its first element), cut to the number read at the end.
+  // 16 at its first element), cut to the number read at the end. (The rare outcomes, a diagnostic
+  // or a reference, are functions of their own, so that this one stays small enough for the
+  // engine to build into its callers.)
   const out: ReadProp[] = new Array<ReadProp>(props.length);
   let n = 0;
   // The properties of known keys that could not be read, made at the first (most statements have none).
   let broken: PropertyNode[] | null = null;
   let unknownKeys = 0;
-  let refs: RefSite | null = null;
   let defining = 0;
   let pressure = 0;
   let references = 0;
@@ -71,19 +72,7 @@ export function readProps(
     const prop = props[i]!;
     const spec = rowOf(table, prop.key);
     if (!spec) {
-      const keys = Object.keys(table);
-      const suggestion = suggestName(prop.key, keys);
-      ctx.report({
-        code: 'unknown-key',
-        severity: 'error',
-        message:
-          `'${prop.key}' is not a property of ${what}; ` +
-          `${suggestion ? `did you mean ${suggestion}=…? ` : ''}the keys are ${keys.join(', ')}`,
-        span: prop.keySpan,
-        data: suggestion ? { key: prop.key, suggestion } : { key: prop.key },
-      });
-      // A reference after an unknown key is still a use of the name (rename follows it).
-      if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement });
+      unknownKey(ctx, prop, table, what, statement);
       unknownKeys++;
       continue;
     }
@@ -92,42 +81,22 @@ export function readProps(
     // line), so a linear scan of those beats a Map here and stays linear in the line.
     const first = firstWithKey(out, n, broken, spec.key);
     if (first) {
-      if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement });
-      ctx.report({
-        code: 'duplicate-key',
-        severity: 'error',
-        message: `${prop.key}= is written twice in ${what}; the first one is used, remove one of them`,
-        span: prop.keySpan,
-        related: [{ span: first.span, message: `first ${prop.key}=` }],
-      });
+      duplicateKey(ctx, prop, first, what, statement);
       continue;
     }
-    if (prop.ref) {
-      // Where references are read (made at the first one: most statements have none).
-      refs ??= { statement, index, allowed };
-      const r = readReference(ctx, prop, prop.ref, spec, refs, what);
-      if (!r) {
-        broken = appended(broken, prop);
-        continue;
-      }
-      out[n++] = { key: spec.key, spec, prop, q: r.q, ref: r.ref };
-      references++;
-      if (spec.defining === true) defining++;
-      if (isPressureKey(spec.key)) pressure++;
-      continue;
-    }
-    if (prop.value === null) {
-      // The parser has reported the syntax error already.
-      broken = appended(broken, prop);
-      continue;
-    }
-    // The property read is its own quantity (one object: `ReadPropertyFigure`).
-    const read = resolveQuantity(prop, prop.value, spec, ctx, spec);
+    // A reference, or the property read as its own quantity (one object: `ReadPropertyFigure`);
+    // null when it could not be read (a value missing is the parser's syntax error, reported).
+    const read = prop.ref
+      ? referenceRead(ctx, prop, prop.ref, spec, { statement, index, allowed }, what)
+      : prop.value === null
+        ? null
+        : (resolveQuantity(prop, prop.value, spec, ctx, spec) as ReadPropertyFigure | null);
     if (!read) {
       broken = appended(broken, prop);
       continue;
     }
-    out[n++] = read as ReadPropertyFigure;
+    out[n++] = read;
+    if (prop.ref) references++;
     if (spec.defining === true) defining++;
     if (isPressureKey(spec.key)) pressure++;
   }
@@ -146,6 +115,60 @@ export function readProps(
 /** True for a key that sets a statement's pressure rather than describing its air. */
 export function isPressureKey(key: string): boolean {
   return key === 'p' || key === 'elev';
+}
+
+/** `unknown-key` for `prop` (with a suggestion among the keys of `table`). */
+function unknownKey(
+  ctx: EvalContext,
+  prop: PropertyNode,
+  table: Readonly<Record<string, KeySpec>>,
+  what: string,
+  statement: Statement,
+): void {
+  const keys = Object.keys(table);
+  const suggestion = suggestName(prop.key, keys);
+  ctx.report({
+    code: 'unknown-key',
+    severity: 'error',
+    message:
+      `'${prop.key}' is not a property of ${what}; ` +
+      `${suggestion ? `did you mean ${suggestion}=…? ` : ''}the keys are ${keys.join(', ')}`,
+    span: prop.keySpan,
+    data: suggestion ? { key: prop.key, suggestion } : { key: prop.key },
+  });
+  // A reference after an unknown key is still a use of the name (rename follows it).
+  if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement });
+}
+
+/** `duplicate-key` for `prop`, whose key `first` is written with already. */
+function duplicateKey(
+  ctx: EvalContext,
+  prop: PropertyNode,
+  first: PropertyNode,
+  what: string,
+  statement: Statement,
+): void {
+  if (prop.ref) ctx.references.push({ name: prop.ref.state.text, span: prop.ref.state.span, statement });
+  ctx.report({
+    code: 'duplicate-key',
+    severity: 'error',
+    message: `${prop.key}= is written twice in ${what}; the first one is used, remove one of them`,
+    span: prop.keySpan,
+    related: [{ span: first.span, message: `first ${prop.key}=` }],
+  });
+}
+
+/** The property `prop` whose value is the reference `ref`, read at `site` (see `./refs`); null after a diagnostic. */
+function referenceRead(
+  ctx: EvalContext,
+  prop: PropertyNode,
+  ref: PropertyRefNode,
+  spec: KeySpec,
+  site: RefSite,
+  what: string,
+): ReadProp | null {
+  const r = readReference(ctx, prop, ref, spec, site, what);
+  return r ? { key: spec.key, spec, prop, q: r.q, ref: r.ref } : null;
 }
 
 /** Rows found last, by a slot of the key as written (see {@link rowOf}). */

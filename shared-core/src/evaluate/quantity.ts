@@ -5,7 +5,7 @@
  */
 import { lookupUnit, suggestUnit } from '../units';
 import type { Dimension, UnitDef } from '../units/types';
-import type { CoreDiagnostic, PropertyNode, QuantityNode } from '../notation/ast';
+import type { CoreDiagnostic, PropertyNode, QuantityNode, ToleranceNode } from '../notation/ast';
 import type { KeySpec } from './keys';
 import { significantResolution } from '../notation/number';
 import type { ReadProp } from './props';
@@ -226,95 +226,119 @@ export function resolveQuantity(
   out: DiagnosticReport,
   row?: KeySpec,
 ): ResolvedQuantity | null {
+  // The rare outcomes (a diagnostic, a written tolerance) are functions of their own, so that this
+  // one stays small enough for the engine to build into its callers.
   let unit: UnitDef | null = null;
   let si: number;
   let scale: number;
   if (q.unit === null) {
-    if (spec.bare === 'error') {
-      out.report({
-        code: 'missing-unit',
-        severity: 'error',
-        message: missingUnitMessage(spec, q.number.text, q.number.value),
-        span: q.number.span,
-        data: { key: spec.key, dimension: spec.dimension },
-      });
-      return null;
-    }
+    if (spec.bare === 'error') return missingUnit(q, spec, out);
     si = q.number.value;
     scale = 1;
   } else {
     const def = findUnit(q.unit.text);
-    if (!def || def.dimension !== spec.dimension) {
-      const suggestion = suggestSymbol(q.unit.text, [spec.dimension]);
-      const what = def
-        ? `'${q.unit.text}' is ${dimensionWords(def.dimension)} unit, but ${spec.key} is ${spec.title}`
-        : `'${q.unit.text}' is not a unit Dewmark knows`;
-      const fix = suggestion
-        ? `did you mean ${spec.key}=${q.number.text}${suggestion}?`
-        : `write it like ${spec.example}`;
-      out.report({
-        code: 'unknown-unit',
-        severity: 'error',
-        message: `${what} (in ${whereText(prop.key, q)}); ${fix}`,
-        span: q.unit.span,
-        data: suggestion ? { suggestion, key: spec.key } : { key: spec.key },
-      });
-      return null;
-    }
+    if (!def || def.dimension !== spec.dimension) return unknownUnit(prop, q, q.unit, spec, def, out);
     unit = def;
     si = unitToSI(q.number.value, def);
     scale = def.scale;
   }
   // Tolerance: half a unit of the last significant digit, or the explicit ± figure.
-  let toleranceSI = (claimResolution(q, spec.dimension) / 2) * Math.abs(scale);
-  if (q.tolerance) {
-    const t = q.tolerance;
-    const tv = t.number.value;
-    if (!(tv >= 0) || !Number.isFinite(tv)) {
-      out.report({
-        code: 'syntax',
-        severity: 'error',
-        message:
-          `the tolerance in ${whereText(prop.key, q)}±${t.number.text} ` +
-          `must be a positive figure; write it like ±2`,
-        span: t.span,
-      });
-      return null;
-    }
-    if (t.unit === null) {
-      toleranceSI = tv * Math.abs(scale);
-    } else if (t.unit.text === '%' && spec.dimension !== 'fraction') {
-      // ±2% of a non-% value: a relative band around the written figure in its own unit.
-      toleranceSI = (tv / 100) * Math.abs(q.number.value) * Math.abs(scale);
-    } else {
-      const tdef = findUnit(t.unit.text);
-      if (!tdef || tdef.dimension !== spec.dimension) {
-        out.report({
-          code: 'unknown-unit',
-          severity: 'error',
-          message:
-            `the tolerance unit '${t.unit.text}' in ${whereText(prop.key, q)} ` +
-            `does not fit ${spec.title}; write the tolerance in the value's unit ` +
-            `(±${t.number.text}) or as a percentage of it (±${t.number.text}%)`,
-          span: t.unit.span,
-        });
-        return null;
-      }
-      toleranceSI = tv * Math.abs(tdef.scale);
-    }
-  }
-  if (!Number.isFinite(si) || !Number.isFinite(toleranceSI)) {
-    out.report({
-      code: 'out-of-range',
-      severity: 'error',
-      message: `${whereText(prop.key, q)} is too large to use; check the figure`,
-      span: q.span,
-    });
-    return null;
-  }
+  const toleranceSI = q.tolerance
+    ? writtenTolerance(prop, q, q.tolerance, spec, scale, out)
+    : (claimResolution(q, spec.dimension) / 2) * Math.abs(scale);
+  if (toleranceSI === null) return null;
+  if (!Number.isFinite(si) || !Number.isFinite(toleranceSI)) return tooLarge(prop, q, out);
   return row
     ? new ReadPropertyFigure(si, unit, toleranceSI, prop as PropertyNode, row)
     : new ReadFigure(si, unit, toleranceSI, q);
+}
+
+/** `missing-unit` for `q`, a bare number of a key that needs a unit; null. */
+function missingUnit(q: QuantityNode, spec: QuantitySpec, out: DiagnosticReport): null {
+  out.report({
+    code: 'missing-unit',
+    severity: 'error',
+    message: missingUnitMessage(spec, q.number.text, q.number.value),
+    span: q.number.span,
+    data: { key: spec.key, dimension: spec.dimension },
+  });
+  return null;
+}
+
+/** `unknown-unit` for `q`'s unit `u`, not a unit (`def` undefined) or one of another dimension; null. */
+function unknownUnit(
+  prop: { key: string },
+  q: QuantityNode,
+  u: NonNullable<QuantityNode['unit']>,
+  spec: QuantitySpec,
+  def: UnitDef | undefined,
+  out: DiagnosticReport,
+): null {
+  const suggestion = suggestSymbol(u.text, [spec.dimension]);
+  const what = def
+    ? `'${u.text}' is ${dimensionWords(def.dimension)} unit, but ${spec.key} is ${spec.title}`
+    : `'${u.text}' is not a unit Dewmark knows`;
+  const fix = suggestion ? `did you mean ${spec.key}=${q.number.text}${suggestion}?` : `write it like ${spec.example}`;
+  out.report({
+    code: 'unknown-unit',
+    severity: 'error',
+    message: `${what} (in ${whereText(prop.key, q)}); ${fix}`,
+    span: u.span,
+    data: suggestion ? { suggestion, key: spec.key } : { key: spec.key },
+  });
+  return null;
+}
+
+/**
+ * The band of a claim written with its tolerance `t` (`±2`, `±2%`, `±0.5K`), SI, for a value of
+ * unit scale `scale`; null after reporting a tolerance that cannot be read.
+ */
+function writtenTolerance(
+  prop: { key: string },
+  q: QuantityNode,
+  t: ToleranceNode,
+  spec: QuantitySpec,
+  scale: number,
+  out: DiagnosticReport,
+): number | null {
+  const tv = t.number.value;
+  if (!(tv >= 0) || !Number.isFinite(tv)) {
+    out.report({
+      code: 'syntax',
+      severity: 'error',
+      message: `the tolerance in ${whereText(prop.key, q)}±${t.number.text} must be a positive figure; write it like ±2`,
+      span: t.span,
+    });
+    return null;
+  }
+  if (t.unit === null) return tv * Math.abs(scale);
+  // ±2% of a non-% value: a relative band around the written figure in its own unit.
+  if (t.unit.text === '%' && spec.dimension !== 'fraction') return (tv / 100) * Math.abs(q.number.value) * Math.abs(scale);
+  const tdef = findUnit(t.unit.text);
+  if (!tdef || tdef.dimension !== spec.dimension) {
+    out.report({
+      code: 'unknown-unit',
+      severity: 'error',
+      message:
+        `the tolerance unit '${t.unit.text}' in ${whereText(prop.key, q)} ` +
+        `does not fit ${spec.title}; write the tolerance in the value's unit ` +
+        `(±${t.number.text}) or as a percentage of it (±${t.number.text}%)`,
+      span: t.unit.span,
+    });
+    return null;
+  }
+  return tv * Math.abs(tdef.scale);
+}
+
+/** `out-of-range` for a figure (or its band) too large to use; null. */
+function tooLarge(prop: { key: string }, q: QuantityNode, out: DiagnosticReport): null {
+  out.report({
+    code: 'out-of-range',
+    severity: 'error',
+    message: `${whereText(prop.key, q)} is too large to use; check the figure`,
+    span: q.span,
+  });
+  return null;
 }
 
 /**

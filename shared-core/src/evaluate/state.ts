@@ -232,7 +232,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
   let failed = false;
   if (read.broken.length > 0 || read.pressure > 0)
     ({ pressure, failed } = statePressure(ctx, props, read.broken, what));
-  const candidates = failed ? null : definingCandidates(ctx, props, read, what, stmt.name?.span ?? stmt.keywordSpan);
+  const candidates = failed ? null : definingCandidates(ctx, props, read, what, stmt);
   const solved = candidates ? solveFirstPair(ctx, candidates, pressure, what) : null;
   const result: StateResult = {
     kind: 'state',
@@ -293,63 +293,89 @@ function statePressure(
 /**
  * The candidate defining pairs in order of preference, or null after a diagnostic (too few
  * properties, a dependent pair). A reference always defines: only pairs holding every reference
- * are candidates, so at most two references fit on one state.
+ * are candidates, so at most two references fit on one state. (The diagnostics are functions of
+ * their own, so that this one stays small enough for the engine to build into its caller.)
  */
 function definingCandidates(
   ctx: EvalContext,
   props: ReadProp[],
   read: ReadProps,
   what: string,
-  fallback: Span,
+  stmt: StateStatement,
 ): readonly ReadProp[] | null {
   const defs = read.defining === props.length ? props : props.filter(isDefiningProp);
   if (defs.length < 2) {
-    // A property that could not be read (bad unit, unknown key) already explains the shortfall.
-    const brokenDefining = read.broken.filter((k) => isDefiningKey(k));
-    if (defs.length + brokenDefining.length + read.unknownKeys >= 2) return null;
-    const has = defs.length === 1 ? `only ${writtenList(defs)}` : 'no defining property';
-    const hasV = props.some((p) => p.key === 'v');
-    const missing = orList(DEFINING_KEYS.filter((k) => !defs.some((d) => d.key === k)));
-    const example = defs[0]?.key === 'db' ? 'rh=50%' : `${exampleIn('db', ctx.units)} rh=50%`;
-    ctx.report({
-      code: 'underspecified',
-      severity: 'error',
-      message:
-        `${what} has ${has}: two independent properties fix a state; ` +
-        `add ${defs.length === 1 ? 'one more' : 'two'} of ${missing} (e.g. ${example})` +
-        `${hasV ? '; v is checked as a claim but cannot define a state' : ''}`,
-      span: fallback,
-    });
+    underspecified(ctx, props, defs, read, what, stmt.name?.span ?? stmt.keywordSpan);
     return null;
   }
   const refs = read.references > 0 && defs.some(isReference) ? defs.filter(isReference) : NO_PROPS;
   if (refs.length > 2) {
-    ctx.report({
-      code: 'bad-reference',
-      severity: 'error',
-      message:
-        `${what}: ${writtenList(refs)} are ${refs.length} properties taken from other states, ` +
-        `but two fix a state and a reference always defines; write the others as figures (claims)`,
-      span: spanOf(new Map(), refs.slice(2)),
-    });
+    tooManyReferences(ctx, refs, what);
     return null;
   }
   const candidates = pairsHolding(candidatePairs(defs), refs);
   if (candidates.length === 0) {
-    const [a, b] = refs.length === 2 ? [refs[0]!, refs[1]!] : [defs[0]!, defs[1]!];
-    const pair = refs.length === 2 ? refs : defs;
-    ctx.report({
-      code: 'dependent-pair',
-      severity: 'error',
-      message:
-        `${what}: ${writtenList(pair)} fix the same thing (the moisture content) twice, so the state is not fixed; ` +
-        `add ${thirdKindFor(a.key as DefiningKey, b.key as DefiningKey)}` +
-        `${refs.length > 0 ? ' (a reference always defines)' : ''}`,
-      span: spanOf(new Map(), pair),
-    });
+    noIndependentPair(ctx, defs, refs, what);
     return null;
   }
   return candidates;
+}
+
+/**
+ * `underspecified` for a state with fewer than two defining properties `defs`, reported on
+ * `fallback`, unless a property that could not be read (bad unit, unknown key) already explains
+ * the shortfall.
+ */
+function underspecified(
+  ctx: EvalContext,
+  props: ReadProp[],
+  defs: ReadProp[],
+  read: ReadProps,
+  what: string,
+  fallback: Span,
+): void {
+  const brokenDefining = read.broken.filter((k) => isDefiningKey(k));
+  if (defs.length + brokenDefining.length + read.unknownKeys >= 2) return;
+  const has = defs.length === 1 ? `only ${writtenList(defs)}` : 'no defining property';
+  const hasV = props.some((p) => p.key === 'v');
+  const missing = orList(DEFINING_KEYS.filter((k) => !defs.some((d) => d.key === k)));
+  const example = defs[0]?.key === 'db' ? 'rh=50%' : `${exampleIn('db', ctx.units)} rh=50%`;
+  ctx.report({
+    code: 'underspecified',
+    severity: 'error',
+    message:
+      `${what} has ${has}: two independent properties fix a state; ` +
+      `add ${defs.length === 1 ? 'one more' : 'two'} of ${missing} (e.g. ${example})` +
+      `${hasV ? '; v is checked as a claim but cannot define a state' : ''}`,
+    span: fallback,
+  });
+}
+
+/** `bad-reference` for a state with more than two references `refs` (a reference always defines). */
+function tooManyReferences(ctx: EvalContext, refs: readonly ReadProp[], what: string): void {
+  ctx.report({
+    code: 'bad-reference',
+    severity: 'error',
+    message:
+      `${what}: ${writtenList(refs)} are ${refs.length} properties taken from other states, ` +
+      `but two fix a state and a reference always defines; write the others as figures (claims)`,
+    span: spanOf(new Map(), refs.slice(2)),
+  });
+}
+
+/** `dependent-pair` for a state whose defining properties `defs` (holding `refs`) give no candidate pair. */
+function noIndependentPair(ctx: EvalContext, defs: ReadProp[], refs: readonly ReadProp[], what: string): void {
+  const [a, b] = refs.length === 2 ? [refs[0]!, refs[1]!] : [defs[0]!, defs[1]!];
+  const pair = refs.length === 2 ? refs : defs;
+  ctx.report({
+    code: 'dependent-pair',
+    severity: 'error',
+    message:
+      `${what}: ${writtenList(pair)} fix the same thing (the moisture content) twice, so the state is not fixed; ` +
+      `add ${thirdKindFor(a.key as DefiningKey, b.key as DefiningKey)}` +
+      `${refs.length > 0 ? ' (a reference always defines)' : ''}`,
+    span: spanOf(new Map(), pair),
+  });
 }
 
 /** No properties (shared, never written to). */
@@ -375,6 +401,8 @@ function allOf(candidates: readonly ReadProp[]): ReadProp[] {
 /**
  * Solves the first candidate pair that is not dependent at the state's pressure (reporting the
  * engine's warnings, and its problem when the pair gives no state); null when none gives one.
+ * (The reports are functions of their own, so that this one stays small enough for the engine to
+ * build into its caller.)
  */
 function solveFirstPair(
   ctx: EvalContext,
@@ -382,9 +410,7 @@ function solveFirstPair(
   pressure: PressureBasis,
   what: string,
 ): SolvedPair | null {
-  // The span of each written key, for messages (built only when one is reported).
-  let spans: Map<string, Span> | null = null;
-  let lastDependent: { problem: PhysicsProblem; pair: ReadProp[] } | null = null;
+  let lastDependent: PhysicsProblem | null = null;
   for (let k = 0; k + 1 < candidates.length; k += 2) {
     const a = candidates[k]!;
     const b = candidates[k + 1]!;
@@ -400,54 +426,78 @@ function solveFirstPair(
     );
     if (!solved.ok) {
       if (solved.problem.code === 'dependent-pair') {
-        lastDependent = { problem: solved.problem, pair: [a, b] };
+        lastDependent = solved.problem;
         continue;
       }
-      spans ??= spansOfCandidates(candidates);
-      ctx.report(
-        problemDiagnostic(
-          solved.problem,
-          ctx.units,
-          'error',
-          spans,
-          spanOf(spans, [a, b]),
-          what,
-          pressureRelated(solved.problem, pressure),
-        ),
-      );
+      reportProblem(ctx, solved.problem, candidates, [a, b], pressure, what);
       return null;
     }
     if (!stateFinite(solved.state)) {
-      spans ??= spansOfCandidates(candidates);
-      reportNotFinite(ctx, solved.warnings, a, b, spanOf(spans, [a, b]), pressure, what);
+      reportNotFinite(ctx, solved.warnings, a, b, spanOf(spansOfCandidates(candidates), [a, b]), pressure, what);
       return null;
     }
-    let illReported = false;
-    for (const w of solved.warnings) {
-      if (w.code === 'ill-conditioned') illReported = true;
-      spans ??= spansOfCandidates(candidates);
-      ctx.report(problemDiagnostic(w, ctx.units, 'warning', spans, spanOf(spans, [a, b]), what));
-    }
-    if (!illReported && isIllConditionedPair(ka, kb)) {
-      spans ??= spansOfCandidates(candidates);
-      ctx.report({
-        code: 'ill-conditioned',
-        severity: 'warning',
-        message:
-          `${what}: ${writtenList([a, b])} are nearly parallel on the chart, so small ` +
-          `changes in either move the state a lot; define it with db, dp, rh or w instead`,
-        span: spanOf(spans, [a, b]),
-      });
-    }
+    if (solved.warnings.length > 0 || isIllConditionedPair(ka, kb))
+      reportWarnings(ctx, solved.warnings, candidates, a, b, what);
     return { a, b, state: solved.state };
   }
-  if (lastDependent) {
-    spans ??= spansOfCandidates(candidates);
-    ctx.report(
-      problemDiagnostic(lastDependent.problem, ctx.units, 'error', spans, spanOf(spans, allOf(candidates)), what),
-    );
-  }
+  if (lastDependent) reportProblem(ctx, lastDependent, candidates, allOf(candidates), null, what);
   return null;
+}
+
+/**
+ * The engine's problem with the candidate pairs, an error on the properties `on`; with the
+ * pressure used when it is the pressure's problem (`pressure` given).
+ */
+function reportProblem(
+  ctx: EvalContext,
+  problem: PhysicsProblem,
+  candidates: readonly ReadProp[],
+  on: readonly ReadProp[],
+  pressure: PressureBasis | null,
+  what: string,
+): void {
+  const spans = spansOfCandidates(candidates);
+  ctx.report(
+    problemDiagnostic(
+      problem,
+      ctx.units,
+      'error',
+      spans,
+      spanOf(spans, on),
+      what,
+      pressure ? pressureRelated(problem, pressure) : undefined,
+    ),
+  );
+}
+
+/**
+ * The engine's warnings on the state solved from `a` and `b`, and `ill-conditioned` for an
+ * ill-conditioned pair the engine did not warn about.
+ */
+function reportWarnings(
+  ctx: EvalContext,
+  warnings: readonly PhysicsProblem[],
+  candidates: readonly ReadProp[],
+  a: ReadProp,
+  b: ReadProp,
+  what: string,
+): void {
+  const spans = spansOfCandidates(candidates);
+  let illReported = false;
+  for (const w of warnings) {
+    if (w.code === 'ill-conditioned') illReported = true;
+    ctx.report(problemDiagnostic(w, ctx.units, 'warning', spans, spanOf(spans, [a, b]), what));
+  }
+  if (!illReported && isIllConditionedPair(a.key as DefiningKey, b.key as DefiningKey)) {
+    ctx.report({
+      code: 'ill-conditioned',
+      severity: 'warning',
+      message:
+        `${what}: ${writtenList([a, b])} are nearly parallel on the chart, so small ` +
+        `changes in either move the state a lot; define it with db, dp, rh or w instead`,
+      span: spanOf(spans, [a, b]),
+    });
+  }
 }
 
 /**
