@@ -313,7 +313,8 @@ function writtenTolerance(
   }
   if (t.unit === null) return tv * Math.abs(scale);
   // ±2% of a non-% value: a relative band around the written figure in its own unit.
-  if (t.unit.text === '%' && spec.dimension !== 'fraction') return (tv / 100) * Math.abs(q.number.value) * Math.abs(scale);
+  if (t.unit.text === '%' && spec.dimension !== 'fraction')
+    return (tv / 100) * Math.abs(q.number.value) * Math.abs(scale);
   const tdef = findUnit(t.unit.text);
   if (!tdef || tdef.dimension !== spec.dimension) {
     out.report({
