@@ -306,7 +306,8 @@ function writtenTolerance(
     out.report({
       code: 'syntax',
       severity: 'error',
-      message: `the tolerance in ${whereText(prop.key, q)}±${t.number.text} must be a positive figure; write it like ±2`,
+      message:
+        `the tolerance in ${whereText(prop.key, q)}±${t.number.text} ` + 'must be a positive figure; write it like ±2',
       span: t.span,
     });
     return null;
