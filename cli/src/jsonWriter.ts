@@ -14,11 +14,10 @@ export const JSON_SIGNIFICANT_DIGITS = 12;
 /** 10⁰ … 10²²: the powers of ten a double holds exactly. */
 const EXACT_POW10: readonly number[] = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
 
-/** A double's bits, for its binary exponent (in the high word's bits 20…30). */
-const FLOAT = new Float64Array(1);
-const WORDS = new Uint32Array(FLOAT.buffer);
-const HIGH_WORD = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0; // little-endian: the second word
 const LOG10_2 = Math.log10(2);
+/** 2³¹ and 2³². */
+const TWO_31 = 2147483648;
+const TWO_32 = 4294967296;
 
 /** The power of ten of the last figure {@link scaledDigits} scaled: the figure is M / 10^scale. */
 let scale = 0;
@@ -33,10 +32,11 @@ let scale = 0;
 function scaledDigits(a: number): number {
   if (!(a >= 1e-6 && a < 1e11)) return -1;
   // Decimals that leave 12 significant digits: 11 − the decimal exponent of a (1 … 17), here
-  // from the binary exponent b (a = 1.f · 2^b, so the decimal exponent is ⌊b·log₁₀2⌋ or one
-  // more, which the scaling below corrects).
-  FLOAT[0] = a;
-  let s = (11 - Math.floor(((WORDS[HIGH_WORD]! >>> 20) - 1023) * LOG10_2)) | 0;
+  // from the binary exponent b = ⌊log₂a⌋ (the decimal exponent is ⌊b·log₁₀2⌋ or one more, which
+  // the scaling below corrects). b is counted from the leading zeros of a's whole part (a below
+  // 1 is first scaled by 2³¹, exactly): no memory is written and read back for a's bits.
+  const b = a >= 1 ? (a < TWO_32 ? 31 - Math.clz32(a) : 32) : -Math.clz32(a * TWO_31);
+  let s = (11 - Math.floor(b * LOG10_2)) | 0;
   let y = a * (EXACT_POW10[s] as number);
   if (y < 1e11) {
     s = (s + 1) | 0;
@@ -494,8 +494,18 @@ export class TextWriter implements JsonWriter {
       return;
     }
     const s = scale;
-    const g1 = Math.floor(m / 1e8) | 0; // 1000 … 9999: M has 12 digits
-    const rest = (m - g1 * 1e8) | 0;
+    // M's first four digits (1000 … 9999) by a multiplication, which may be one off when M is
+    // about a multiple of 10⁸: then the rest (exact: whole numbers below 2⁵³) says so.
+    let g1 = Math.floor(m * 1e-8) | 0;
+    let rest = m - g1 * 1e8;
+    if (rest < 0) {
+      g1 = (g1 - 1) | 0;
+      rest += 1e8;
+    } else if (rest >= 1e8) {
+      g1 = (g1 + 1) | 0;
+      rest -= 1e8;
+    }
+    rest |= 0;
     const g2 = (rest / 10000) | 0;
     const g3 = (rest - g2 * 10000) | 0;
     // The zeros M ends with (the text drops those after the point): a group's from the table.
