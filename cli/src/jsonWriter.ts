@@ -34,7 +34,8 @@ function scaledDigits(a: number): number {
   // Decimals that leave 12 significant digits: 11 − the decimal exponent of a (1 … 17), here
   // from the binary exponent b = ⌊log₂a⌋ (the decimal exponent is ⌊b·log₁₀2⌋ or one more, which
   // the scaling below corrects). b is counted from the leading zeros of a's whole part (a below
-  // 1 is first scaled by 2³¹, exactly): no memory is written and read back for a's bits.
+  // 1 is first scaled by 2³¹, exactly; a above 2³² is given 32, one decade short at most, which
+  // the scaling corrects too): no memory is written and read back for a's bits.
   const b = a >= 1 ? (a < TWO_32 ? 31 - Math.clz32(a) : 32) : -Math.clz32(a * TWO_31);
   let s = (11 - Math.floor(b * LOG10_2)) | 0;
   let y = a * (EXACT_POW10[s] as number);
