@@ -404,8 +404,18 @@ export class TextWriter implements JsonWriter {
     const view = this.view;
     const p = this.pos;
     const doubles = w.doubles;
-    if (doubles !== null) for (let i = 0; i < doubles.length; i++) view.setFloat64(p + 8 * i, doubles[i]!, true);
-    else {
+    if (doubles !== null) {
+      // Most are three doubles or fewer (a line start and a short value): those without a loop.
+      const n = doubles.length;
+      view.setFloat64(p, doubles[0]!, true);
+      if (n > 1) {
+        view.setFloat64(p + 8, doubles[1]!, true);
+        if (n > 2) {
+          view.setFloat64(p + 16, doubles[2]!, true);
+          for (let i = 3; i < n; i++) view.setFloat64(p + 8 * i, doubles[i]!, true);
+        }
+      }
+    } else {
       const words = w.words;
       for (let i = 0; i < words.length; i++) view.setInt32(p + 4 * i, words[i]!, true);
     }
