@@ -12,6 +12,7 @@ import { heapBytes } from './heap-helpers';
 import { analyzeHandingOut } from '../src/analyze/handingOut';
 import { analyzeNote } from '../src/analyze/analyze';
 import { evaluate, evaluateHandingOut } from '../src/evaluate/evaluate';
+import { STATEMENTS_PER_GROUP } from '../src/evaluate/group';
 import type { EvaluatedItem, EvaluateSettings, StateResult } from '../src/evaluate/types';
 import { parseNote } from '../src/notation/parse';
 
@@ -132,6 +133,27 @@ describe('evaluating a note one statement at a time, keeping nothing', () => {
     expect(a.diagnostics.some((d) => d.code === 'ignore-comment')).toBe(true);
   });
 
+  it('gives the same when references cross the groups the statements are evaluated in', () => {
+    // Invented: 300 states (several groups of STATEMENTS_PER_GROUP), with references back to
+    // states of earlier groups (let go), within a group, forward within a group and into a later
+    // group, a duplicate name across groups, and a site line in the middle of a group.
+    const lines = ['# Riser states, floors 1 to 300 (invented)', '', '```air'];
+    for (let i = 0; i < 300; i++) {
+      if (i === 100) lines.push('site: elev=900m');
+      if (i % 37 === 5) lines.push(`state R${i}: w=S${i - 5}.w db=S${Math.max(0, i - 70)}.db+1K`);
+      else if (i === 60) lines.push('state EARLY: w=S61.w db=20C');
+      else if (i === 62) lines.push('state AHEAD: w=S250.w db=20C');
+      else if (i === 130) lines.push('state S3: db=30C rh=20%');
+      lines.push(`state S${i}: db=${12 + (i % 17)}C rh=${35 + (i % 40)}%`);
+    }
+    lines.push('```', '');
+    const whole = expectSame(lines.join('\n'));
+    expect(whole.items.length).toBeGreaterThan(2 * STATEMENTS_PER_GROUP);
+    for (const name of ['R42', 'R79', 'R116', 'R264']) computed(whole.items, name);
+    const codes = whole.diagnostics.map((d) => d.code);
+    for (const code of ['duplicate-name', 'used-before-defined']) expect(codes, code).toContain(code);
+  });
+
   it('hands out nothing for a note that may name other units than the settings, or holds a results table', () => {
     expect(evaluateHandingOut('```air\nstate A: db=20C rh=50%\nunits: IP\n```\n')).toBeNull();
     expect(evaluateHandingOut('Figures below are in `units: IP`.\n')).toBeNull();
@@ -163,7 +185,7 @@ describe('evaluating a note one statement at a time, keeping nothing', () => {
     });
     expect(seen).toBe(n);
     const perState = heldWhileRunning / n;
-    // The name in the table of names (its string, slot and value) and three 4-byte slots of where its line is.
+    // The name in the table of names (its characters, slot and value) and three 4-byte slots of where its line is.
     expect(perState).toBeLessThan(120);
     // The whole evaluation holds every tree and result by then (several hundred bytes each).
     const before = heapBytes();

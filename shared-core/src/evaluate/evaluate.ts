@@ -27,6 +27,7 @@ import { readProps } from './props';
 import { resolveSettings } from './settings';
 import { evaluateState } from './state';
 import { evaluateSupply } from './supply';
+import { StatementGroup } from './group';
 
 /** A statement whose result depends on other statements. */
 export type DependentStatement = MixStatement | ProcessStatement | StateStatement | SupplyStatement;
@@ -458,11 +459,16 @@ function runHandingOut(
   ctx.handingOut(onItem);
   const parseDiagnostics: CoreDiagnostic[] = [];
   let index = 0;
+  // The statements are evaluated a group at a time, in order (see `./group`).
+  const group = new StatementGroup((stmt, lineStart, lineEnd) =>
+    evaluateGuarded(ctx, stmt, index++, undefined, lineStart, lineEnd),
+  );
   const parsed = parseNoteStatements(
     text,
-    (stmt, lineStart, lineEnd) => evaluateGuarded(ctx, stmt, index++, undefined, lineStart, lineEnd),
+    (stmt, lineStart, lineEnd) => group.add(stmt, lineStart, lineEnd),
     parseDiagnostics,
   );
+  group.flush();
   return {
     parsed,
     units: ctx.units,
