@@ -62,7 +62,7 @@ function objectsKept(root: unknown): number {
 function countingCharacterReads(fn: () => void): number {
   const original = String.prototype.charCodeAt;
   let reads = 0;
-  String.prototype.charCodeAt = function (this: string, index?: number): number {
+  String.prototype.charCodeAt = function (this: string, index: number): number {
     reads++;
     return original.call(this, index);
   };

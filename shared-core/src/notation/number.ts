@@ -55,6 +55,7 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
   // The written text's pack for the intern table, built as each character is read (see `intern.ts`);
   // every character of a number is below 256 but the minus sign `−`.
   let pack = PACK_START;
+  const wide = c === 0x2212 ? c : 0;
   if (c === 0x2b || c === 0x2d || c === 0x2212) {
     negative = c !== 0x2b;
     pack = packStep(pack, c);
@@ -87,9 +88,11 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
       pos += GROUP_SIZE + 1;
       grouped = true;
     }
+    c = text.charCodeAt(pos);
   }
+  // From here `c` is the character at `pos` whenever `pos < end` (the loops stop on it).
   let fractionDigits = 0;
-  if (pos < end && text.charCodeAt(pos) === 0x2e) {
+  if (pos < end && c === 0x2e) {
     pack = packStep(pack, 0x2e);
     pos++;
     while (pos < end) {
@@ -104,7 +107,6 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
   }
   let exponent = 0;
   if (pos < end) {
-    c = text.charCodeAt(pos);
     if (c === 0x65 || c === 0x45) {
       let q = pos + 1;
       let sign = 1;
@@ -131,7 +133,7 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
       }
     }
   }
-  const written = internedPackedSlice(text, start, pos, pack, text.charCodeAt(start) === 0x2212 ? 0x2212 : 0);
+  const written = internedPackedSlice(text, start, pos, pack, wide);
   // Exact fast path: an integer below 2^53 times or divided by an exact power of ten is rounded
   // once, so it equals the correctly rounded decimal; anything else goes through Number().
   const k = exponent - fractionDigits;

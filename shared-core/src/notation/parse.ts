@@ -632,8 +632,7 @@ class StatementParser {
    */
   private keyAtNameToken(end: number): boolean {
     if (this.nameTokenKeyEnd !== end) return false;
-    let p = end;
-    while (p < this.end && (this.text.charCodeAt(p) === 0x20 || this.text.charCodeAt(p) === 0x09)) p++;
+    const p = this.spacesEnd(end);
     return this.charAt(p) === 0x3d && this.charAt(p + 1) !== 0x3e; // `=>` is a mistyped arrow
   }
 
@@ -690,8 +689,18 @@ class StatementParser {
     if (this.peek() < 0 || !isKeyStart(this.text.charCodeAt(this.pos))) return false;
     let p = this.pos + 1;
     while (p < this.end && isKeyChar(this.text.charCodeAt(p))) p++;
-    while (p < this.end && (this.text.charCodeAt(p) === 0x20 || this.text.charCodeAt(p) === 0x09)) p++;
+    p = this.spacesEnd(p);
     return this.charAt(p) === 0x3d && this.charAt(p + 1) !== 0x3e; // `=>` is a mistyped arrow
+  }
+
+  /** End of the run of spaces and tabs from `p` in the current piece (each character read once). */
+  private spacesEnd(p: number): number {
+    while (p < this.end) {
+      const c = this.text.charCodeAt(p);
+      if (c !== 0x20 && c !== 0x09) break;
+      p++;
+    }
+    return p;
   }
 
   /** Whether the word `rest` (a stream's remainder) is at the cursor, as a word of its own. */
@@ -885,15 +894,21 @@ class StatementParser {
         // The key, packed for the intern table as it is read (key characters are ASCII).
         let pack = packStep(PACK_START, c);
         let p = start + 1;
+        // `k` is the character at `p` (-1 at the end of the piece): each is read once.
+        let k = -1;
         while (p < this.end) {
-          const k = text.charCodeAt(p);
+          k = text.charCodeAt(p);
           if (!isKeyChar(k)) break;
           pack = packStep(pack, k);
           p++;
         }
+        if (p >= this.end) k = -1;
         const keyEnd = p;
-        while (p < this.end && (text.charCodeAt(p) === 0x20 || text.charCodeAt(p) === 0x09)) p++;
-        if (this.charAt(p) === 0x3d) {
+        while (k === 0x20 || k === 0x09) {
+          p++;
+          k = p < this.end ? text.charCodeAt(p) : -1;
+        }
+        if (k === 0x3d) {
           const key = internedPackedSlice(text, start, keyEnd, pack, 0);
           this.consume(p + 1);
           const word = options ? this.wordValue() : null;
