@@ -82,19 +82,21 @@ const CRLF_OR_CR = /\r\n?/g;
 
 /**
  * The text markdown-it reads and the offset of its start in `text`: same length as `text` minus a
- * BOM, plus a final line break when `text` ends in a line of only blanks without one.
+ * BOM, plus a final line break when `text` ends in a line of only blanks without one; and whether
+ * `text` holds a carriage return (`hasCR`: only then can a line end in `\r\n`).
  */
-export function normalizeForMarkdown(text: string): { src: string; base: number } {
+export function normalizeForMarkdown(text: string): { src: string; base: number; hasCR: boolean } {
   const base = text.charCodeAt(0) === 0xfeff ? 1 : 0;
   let src = base ? text.slice(1) : text;
-  if (src.indexOf('\r') >= 0) src = src.replace(CRLF_OR_CR, (m) => (m.length === 2 ? ' \n' : '\n'));
+  const hasCR = src.indexOf('\r') >= 0;
+  if (hasCR) src = src.replace(CRLF_OR_CR, (m) => (m.length === 2 ? ' \n' : '\n'));
   if (src.indexOf('\0') >= 0) src = src.replace(/\0/g, '\uFFFD');
   // markdown-it drops a last line of only spaces or tabs that has no line break; a final line
   // break changes nothing else in CommonMark, and offsets before it stay the same.
   let k = src.length;
   while (k > 0 && isSpaceOrTab(src.charCodeAt(k - 1))) k--;
   if (k < src.length && (k === 0 || src.charCodeAt(k - 1) === 10)) src += '\n';
-  return { src, base };
+  return { src, base, hasCR };
 }
 
 function isSpaceOrTab(c: number): boolean {
@@ -112,7 +114,7 @@ export interface ScanOptions {
 
 /** Finds the fences, indented code, code spans and headings of a Markdown text. */
 export function scanMarkdown(text: string, options: ScanOptions = {}): MarkdownScan {
-  const { src, base } = normalizeForMarkdown(text);
+  const { src, base, hasCR } = normalizeForMarkdown(text);
   const result: MarkdownScan = { fences: [], indentedCode: [], codeSpans: [], headings: [] };
   if (src.length === 0) return result;
   const md = markdownIt();
@@ -124,7 +126,8 @@ export function scanMarkdown(text: string, options: ScanOptions = {}): MarkdownS
   /** End of a line's content in the original text (before `\r\n`): `e` is the `\n` offset in src. */
   const contentEnd = (e: number): number => {
     const o = e + base;
-    return text.charCodeAt(o - 1) === 13 && text.charCodeAt(o) === 10 ? o - 1 : o;
+    // Without a carriage return in the text (the usual case) no line ends in `\r\n`: nothing to read.
+    return hasCR && text.charCodeAt(o - 1) === 13 && text.charCodeAt(o) === 10 ? o - 1 : o;
   };
 
   for (const b of col.blocks) {

@@ -250,19 +250,6 @@ class StatementParser {
 
   // --- cursor -------------------------------------------------------------------------------
 
-  /** Skips whitespace, moving on to the next piece at the end of one. */
-  private skipWs(): void {
-    for (;;) {
-      while (this.pos < this.end && isWs(this.text.charCodeAt(this.pos))) this.pos++;
-      if (this.pos < this.end) return;
-      const next = this.segs[this.seg + 1];
-      if (!next) return;
-      this.seg++;
-      this.pos = next.start;
-      this.end = next.end;
-    }
-  }
-
   /** The next significant character after whitespace, or -1 at the end (or at a comment). */
   private peek(): number {
     // Most calls find the cursor on a significant character already: that case is answered here,
@@ -270,16 +257,25 @@ class StatementParser {
     if (this.pos < this.end) {
       const c = this.text.charCodeAt(this.pos);
       if (!isWs(c)) return c === 0x23 ? -1 : c;
+      this.pos++;
     }
     return this.peekPast();
   }
 
-  /** {@link peek} once the cursor is on a blank or at the end of a piece. */
+  /** {@link peek} past a blank or at the end of a piece: skips whitespace, moving on to the next piece at the end of one. */
   private peekPast(): number {
-    this.skipWs();
-    if (this.pos >= this.end) return -1;
-    const c = this.text.charCodeAt(this.pos);
-    return c === 0x23 ? -1 : c;
+    for (;;) {
+      while (this.pos < this.end) {
+        const c = this.text.charCodeAt(this.pos);
+        if (!isWs(c)) return c === 0x23 ? -1 : c;
+        this.pos++;
+      }
+      const next = this.segs[this.seg + 1];
+      if (!next) return -1;
+      this.seg++;
+      this.pos = next.start;
+      this.end = next.end;
+    }
   }
 
   private charAt(pos: number): number {
