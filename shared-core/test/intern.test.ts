@@ -10,7 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { internedPackedSlice, internedSlice, PACK_START, packStep } from '../src/notation/intern';
 
 /** Characters of every kind a key, unit or number may hold (NUL included: it has a pack too). */
-const CHARS = ['0', '5', '9', '.', ',', 'e', 'C', 'd', 'b', '%', '/', '\0', '°', 'µ', '³', '−', '\u00ff', '\u0100'];
+const CHARS = [...'059.,eCdb%/', '\0', '°', 'µ', '³', '−', '\u00ff', '\u0100'];
 
 const shortString = fc.array(fc.constantFrom(...CHARS), { minLength: 0, maxLength: 10 }).map((cs) => cs.join(''));
 

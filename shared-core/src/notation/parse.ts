@@ -262,7 +262,10 @@ class StatementParser {
     return this.peekPast();
   }
 
-  /** {@link peek} past a blank or at the end of a piece: skips whitespace, moving on to the next piece at the end of one. */
+  /**
+   * {@link peek} past a blank or at the end of a piece: skips whitespace, moving on to the next
+   * piece at the end of one.
+   */
   private peekPast(): number {
     for (;;) {
       while (this.pos < this.end) {
