@@ -327,6 +327,40 @@ describe('eval --format json, written without the objects', () => {
     expect(c.text()).toBe(stringifiedAt(want, 2));
   });
 
+  it('copies a member whose value came twice running after the same line start, and only then', () => {
+    // The members of every state that repeat (kind, ok, pressure, its description, defining keys)
+    // are written as one copy once kept: counted, so that the saving cannot silently go.
+    // What is kept stays with the line starts (keys by depth) from writer to writer: each run has
+    // keys and strings of its own, at a depth as shallow as a document's states (a deep line start
+    // with its value is too long to keep).
+    const run = (rows: number, same: boolean, depth: number): number => {
+      const K = { name: jsonKey(`name${depth}`), kind: jsonKey(`kind${depth}`), ok: jsonKey(`ok${depth}`) };
+      const p = jsonKey(`p_kPa${depth}`);
+      const defining = jsonKey(`defining${depth}`);
+      const pressure = jsonKey(`pressure${depth}`);
+      const w = new TextWriter(depth, () => false);
+      w.openArray(null);
+      for (let i = 0; i < rows; i++) {
+        w.open(null);
+        w.str(K.name, `S${i}`); // never the same: never copied
+        w.str(K.kind, same ? 'state' : `k${i}`);
+        w.bool(K.ok, true);
+        w.fig(p, same ? 101.325 : 90 + i / 7);
+        w.strings(defining, same ? [`db${depth}`, `rh${depth}`] : [`db${depth}`, `x${i}`]);
+        w.str(pressure, same ? 'default 101.325 kPa' : `p${i}`);
+        w.close();
+      }
+      w.closeArray();
+      w.flush();
+      return w.copies;
+    };
+    // A value is kept the second time it comes, and every later one is a copy (true and false
+    // are kept the first time each comes); changing values are written every time, but for the
+    // first defining key, an element of its own.
+    expect(run(1000, true, 5)).toBe(4 * (1000 - 2) + (1000 - 1));
+    expect(run(1000, false, 6)).toBe(1000 - 1 + (1000 - 2));
+  });
+
   it('writes whole numbers (line numbers) and any other number as JSON.stringify does', () => {
     const numbers = [0, -0, 1, 9, 10, 99, 100, 4321, 99999, 100000, 123456789, 999999999, 1e9, 2 ** 31, 2 ** 53];
     numbers.push(-1, -100, 0.5, 1.25, 1e21, 1e-7, Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY);
