@@ -349,7 +349,7 @@ export class TextWriter implements JsonWriter {
   private top = true;
   /** Pieces handed out so far (bytes written since a count are all in the buffer while it is unchanged). */
   private pieces = 0;
-  /** Members written as one copy of bytes kept with their line start (see {@link Lead}): a count of work saved, for tests. */
+  /** Members written as one copy of bytes kept with their line start (see {@link Lead}): work saved, for tests. */
   copies = 0;
   /** The four ASCII digits of 0 … 9999 as words, and the zeros they end with (see {@link fourDigits}). */
   private readonly digitWords: Int32Array;
