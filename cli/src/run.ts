@@ -24,6 +24,7 @@ import type { DiagnosticJson } from './output';
 import { githubAnnotations } from './formats/github';
 import { sarifLog } from './formats/sarif';
 import { safeText } from './sanitize';
+import { writeWaiting } from './stdoutBytes';
 
 declare const __DEWMARK_VERSION__: string | undefined;
 
@@ -451,10 +452,14 @@ export function processIO(): CliIO {
   return {
     cwd: process.cwd(),
     out: (t) => process.stdout.write(t),
-    // Bytes go to the stream as they are. A stream that cannot write them at once (a pipe whose
-    // reader is behind) queues them, holding on to them: the writer is told so and takes new memory.
+    // Bytes go to the descriptor as the system takes them, the reader setting the pace
+    // (./stdoutBytes), unless text is still queued in the stream (they must come after it) or the
+    // descriptor fails (a closed pipe): then to the stream, which queues what it cannot write at
+    // once, holding on to it — the writer is told so and takes new memory.
     outBytes: (bytes) => {
-      process.stdout.write(bytes);
+      const written = process.stdout.writableLength === 0 ? writeWaiting(1, bytes) : 0;
+      if (written === bytes.length) return false;
+      process.stdout.write(bytes.subarray(written));
       return process.stdout.writableLength > 0;
     },
     err: (t) => process.stderr.write(t),

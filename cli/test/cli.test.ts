@@ -336,6 +336,42 @@ describe('dewmark eval', () => {
     expect(slow.out.equals(toFile)).toBe(true);
   });
 
+  it('writes its bytes to a pipe as the reader takes them, holding none back in memory', async () => {
+    // The command's own output function, in a process of its own whose pipe is read slowly:
+    // 200 pieces of 64 KB (far more than a pipe holds). It reports the most bytes the stream ever
+    // held back, and how many pieces it was told were kept (then it would take new memory).
+    const script = [
+      `const { processIO } = await import(${JSON.stringify(join(root, 'cli', 'src', 'run.ts'))});`,
+      'const io = processIO();',
+      'let held = 0, kept = 0;',
+      'for (let i = 0; i < 200; i++) {',
+      '  if (io.outBytes(new Uint8Array(65536).fill(48 + (i % 10)))) kept++;',
+      '  held = Math.max(held, process.stdout.writableLength);',
+      '}',
+      'process.stderr.write(JSON.stringify({ held, kept }));',
+    ].join('\n');
+    const r = await new Promise<{ code: number | null; bytes: number; err: string }>((resolve) => {
+      const child = spawn(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], {
+        cwd: root,
+        stdio: ['ignore', 'pipe', 'pipe'],
+      });
+      let bytes = 0;
+      let err = '';
+      child.stdout.on('data', (chunk: Buffer) => {
+        bytes += chunk.length;
+        child.stdout.pause();
+        setTimeout(() => child.stdout.resume(), 1);
+      });
+      child.stderr.on('data', (chunk: Buffer) => {
+        err += chunk.toString('utf8');
+      });
+      child.on('close', (code) => resolve({ code, bytes, err }));
+    });
+    expect(r.code).toBe(0);
+    expect(r.bytes).toBe(200 * 65536);
+    expect(JSON.parse(r.err)).toEqual({ held: 0, kept: 0 });
+  });
+
   it('--format json to a reader that stops reading (| head) ends quietly', async () => {
     writeFileSync(join(dir, 'many.md'), manyStates(4000));
     const r = await throughPipe(['eval', '--format', 'json', 'many.md'], (out) => {
