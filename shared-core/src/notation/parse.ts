@@ -934,8 +934,9 @@ class StatementParser {
             stack[this.propTop++] = prop;
             continue;
           }
-          const value = this.value(key, start);
-          stack[this.propTop++] = new ParsedProperty(key, value, start, value ? value.end : p + 1);
+          // Neither a number nor a reference: reported as a missing value or not a number.
+          this.unusableValue(key, start);
+          stack[this.propTop++] = new ParsedProperty(key, null, start, p + 1);
           continue;
         }
         const afterKey = this.charAt(keyEnd);
@@ -997,8 +998,11 @@ class StatementParser {
     return { text: this.text.slice(start, p), span: this.span(start, p) };
   }
 
-  /** The value after `key=`; null (with a diagnostic) when there is no usable number. */
-  private value(key: string, keyStart: number): ParsedQuantity | null {
+  /**
+   * Reports the value after `key=` that is neither a number nor a reference (those are read
+   * before this is called): a missing value, or a word that is not a number (consumed).
+   */
+  private unusableValue(key: string, keyStart: number): void {
     const eq = this.lastEnd;
     const c = this.peek();
     if (c < 0 || c === 0x2c || this.keyAhead()) {
@@ -1008,27 +1012,23 @@ class StatementParser {
         keyStart,
         eq,
       );
-      return null;
+      return;
     }
-    if (!startsNumber(this.text, this.pos, this.end)) {
-      const tStart = this.pos;
-      const tEnd = this.rawTokenEnd();
-      this.consume(tEnd);
-      const word = this.text.slice(tStart, tEnd);
-      const lower = word.toLowerCase().replace(/^[+\-−]/, '');
-      const why =
-        lower === 'nan' || lower.startsWith('inf') ? `'${word}' is not a finite number` : `'${word}' is not a number`;
-      const nameLike = letterAt(this.text, tStart, tEnd) > 0 && !/[.=]/.test(word);
-      const orRef = nameLike ? `, or another state's property: ${key}=${word}.${referenceKeyFor(key)}` : '';
-      this.report(
-        'bad-number',
-        `${why}: write ${key}= followed by a decimal number and its unit, e.g. ${exampleFor(key)}${orRef}`,
-        tStart,
-        tEnd,
-      );
-      return null;
-    }
-    return this.quantity('prop', key);
+    const tStart = this.pos;
+    const tEnd = this.rawTokenEnd();
+    this.consume(tEnd);
+    const word = this.text.slice(tStart, tEnd);
+    const lower = word.toLowerCase().replace(/^[+\-−]/, '');
+    const why =
+      lower === 'nan' || lower.startsWith('inf') ? `'${word}' is not a finite number` : `'${word}' is not a number`;
+    const nameLike = letterAt(this.text, tStart, tEnd) > 0 && !/[.=]/.test(word);
+    const orRef = nameLike ? `, or another state's property: ${key}=${word}.${referenceKeyFor(key)}` : '';
+    this.report(
+      'bad-number',
+      `${why}: write ${key}= followed by a decimal number and its unit, e.g. ${exampleFor(key)}${orRef}`,
+      tStart,
+      tEnd,
+    );
   }
 
   /**
