@@ -552,8 +552,7 @@ export class TextWriter implements JsonWriter {
     }
   }
   num(key: JsonKey | null, v: number): void {
-    const lead = this.member(key);
-    if (lead !== null) this.words(lead);
+    this.begin(key);
     if (v >= 0 && v < 1e9 && Number.isInteger(v)) this.whole(v | 0);
     else this.ascii(Number.isFinite(v) ? `${v}` : 'null');
   }

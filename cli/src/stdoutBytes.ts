@@ -12,13 +12,13 @@ import { writeSync } from 'node:fs';
 const SLEEP = new Int32Array(new SharedArrayBuffer(4));
 
 /**
- * Writes `bytes` to `fd` from `from` on, waiting while the descriptor is full (EAGAIN). Returns
- * the number of bytes written: all of them, or fewer when the descriptor failed otherwise (a
- * closed pipe: EPIPE), in which case the caller writes the rest through its stream, whose error
- * handling applies.
+ * Writes `bytes` to `fd`, waiting while the descriptor is full (EAGAIN). Returns the number of
+ * bytes written: all of them, or fewer when the descriptor failed otherwise (a closed pipe:
+ * EPIPE), in which case the caller writes the rest through its stream, whose error handling
+ * applies.
  */
-export function writeWaiting(fd: number, bytes: Uint8Array, from = 0): number {
-  let done = from;
+export function writeWaiting(fd: number, bytes: Uint8Array): number {
+  let done = 0;
   while (done < bytes.length) {
     try {
       done += writeSync(fd, bytes, done, bytes.length - done);
@@ -27,5 +27,5 @@ export function writeWaiting(fd: number, bytes: Uint8Array, from = 0): number {
       Atomics.wait(SLEEP, 0, 0, 1);
     }
   }
-  return done - from;
+  return done;
 }
