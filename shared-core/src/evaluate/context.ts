@@ -110,7 +110,8 @@ export class EvalContext {
    * Hands every item to `sink` as it is made instead of keeping it in {@link items}, and lets go
    * of the plain states among them (`./forgotten`), which a reference evaluates again: for a
    * reader that is done with an item once it has it (the command line writing a large note).
-   * Called before the first statement; the analysis is the same, less its items.
+   * Called before the first statement, on a context given the note's text (a state let go is read
+   * back from it); the analysis is the same, less its items.
    */
   handingOut(sink: (item: EvaluatedItem) => void): void {
     this.sink = sink;
@@ -180,7 +181,7 @@ export class EvalContext {
     if (this.sink) {
       this.sink(item);
       if (!owner) return;
-      if (this.text !== undefined && ForgottenStates.canForget(item, this.lineStart))
+      if (ForgottenStates.canForget(item, this.lineStart))
         this.forgotten!.forget(this.index, this.lineStart, this.lineEnd, this.site);
       else this.byNameMap!.set(item.name, item);
       return;

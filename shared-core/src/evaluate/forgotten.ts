@@ -34,9 +34,9 @@ export class ForgottenStates {
   constructor(private readonly text: string) {}
 
   /**
-   * True when `item`, the item of statement `index` written on the fence line [lineStart,
-   * lineEnd) (−1 for a code span), can be let go: a `state` statement's own result with no
-   * reference (see the module comment).
+   * True when `item`, made by a statement whose fence line starts at `lineStart` (−1 for a code
+   * span's statement), can be let go: a `state` statement's own result with no reference (see
+   * the module comment).
    */
   static canForget(item: EvaluatedItem, lineStart: number): boolean {
     return lineStart >= 0 && item.kind === 'state' && item.statement.keyword === 'state' && item.sources === undefined;

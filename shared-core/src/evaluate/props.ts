@@ -68,6 +68,8 @@ export function readProps(
   let defining = 0;
   let pressure = 0;
   let references = 0;
+  // Where the references of this statement are read, made at the first (most have none).
+  let refs: RefSite | null = null;
   for (let i = 0; i < props.length; i++) {
     const prop = props[i]!;
     const spec = rowOf(table, prop.key);
@@ -87,7 +89,7 @@ export function readProps(
     // A reference, or the property read as its own quantity (one object: `ReadPropertyFigure`);
     // null when it could not be read (a value missing is the parser's syntax error, reported).
     const read = prop.ref
-      ? referenceRead(ctx, prop, prop.ref, spec, { statement, index, allowed }, what)
+      ? referenceRead(ctx, prop, prop.ref, spec, (refs ??= { statement, index, allowed }), what)
       : prop.value === null
         ? null
         : (resolveQuantity(prop, prop.value, spec, ctx, spec) as ReadPropertyFigure | null);
