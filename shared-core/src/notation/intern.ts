@@ -58,6 +58,8 @@ function packSlot(withLength: number): number {
 export function internedSlice(text: string, start: number, end: number): string {
   const length = end - start;
   if (length <= 0 || length > INTERN_MAX_LENGTH) return text.slice(start, end);
+  // Too long for a pack: hashed (reading the characters once).
+  if (length > PACK_MAX_LENGTH) return internedByCharacters(text, start, end);
   let pack = PACK_START;
   let wide = 0;
   for (let i = start; i < end; i++) {
