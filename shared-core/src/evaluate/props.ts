@@ -88,8 +88,9 @@ export function readProps(
     }
     // A reference, or the property read as its own quantity (one object: `ReadPropertyFigure`);
     // null when it could not be read (a value missing is the parser's syntax error, reported).
+    if (prop.ref) refs ??= { statement, index, allowed };
     const read = prop.ref
-      ? referenceRead(ctx, prop, prop.ref, spec, (refs ??= { statement, index, allowed }), what)
+      ? referenceRead(ctx, prop, prop.ref, spec, refs!, what)
       : prop.value === null
         ? null
         : (resolveQuantity(prop, prop.value, spec, ctx, spec) as ReadPropertyFigure | null);
