@@ -9,4 +9,5 @@ if (!existsSync(bundle)) {
   process.stderr.write(`dewmark: ${bundle} is missing; run "npm run build" in the Dewmark folder first.\n`);
   process.exit(2);
 }
-require(bundle);
+// From the code cache the build made, when it belongs to this bundle (see run-bundle.js).
+require('./run-bundle.js').runBundle(bundle, module);

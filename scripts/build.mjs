@@ -4,8 +4,9 @@
 // dist/THIRD-PARTY-NOTICES.md with the licence of every third-party package bundled into them.
 // Everything it says goes to stderr, so that `npm pack --json` (which runs it) prints only JSON.
 import { build } from 'esbuild';
-import { existsSync, readFileSync, writeFileSync } from 'node:fs';
-import { dirname, join, resolve } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { existsSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { dirname, join, relative, resolve } from 'node:path';
 import { thirdPartyNotices } from './notices.mjs';
 import { webOptions } from './web-build.mjs';
 import { fileURLToPath } from 'node:url';
@@ -123,6 +124,36 @@ if (failed === 0) {
   } catch (err) {
     failed++;
     console.error(`build: dist/THIRD-PARTY-NOTICES.md: ${err instanceof Error ? err.message : String(err)}`);
+  }
+}
+// V8's code cache of the CLI (dist/cli.js.cache, read by bin/run-bundle.js): made by a training
+// run, `eval --format json` on the example notes, so that it holds the code that parses,
+// evaluates and writes a note. Without it the CLI still runs, only starting a little slower, so a
+// failed training run warns.
+const cliBundle = join(outdir, 'cli.js');
+const cliCache = `${cliBundle}.cache`;
+rmSync(cliCache, { force: true });
+if (failed === 0 && existsSync(cliBundle)) {
+  const examples = readdirSync(join(root, 'examples'))
+    .filter((f) => f.endsWith('.md'))
+    .map((f) => join(root, 'examples', f));
+  const run = spawnSync(
+    process.execPath,
+    [join(root, 'scripts', 'train-code-cache.cjs'), 'eval', '--format', 'json', ...examples],
+    {
+      cwd: root,
+      env: { ...process.env, DEWMARK_TRAIN_BUNDLE: cliBundle, DEWMARK_CODE_CACHE_OUT: cliCache, DEWMARK_WORKERS: '0' },
+      stdio: ['ignore', 'ignore', 'pipe'],
+      encoding: 'utf8',
+      timeout: 60_000,
+    },
+  );
+  if (existsSync(cliCache)) console.error(`built ${relative(root, cliCache)}`);
+  else {
+    const why = run.error
+      ? run.error.message
+      : `${run.status ?? run.signal}: ${run.stderr.trim().split('\n')[0] ?? ''}`;
+    console.warn(`build: no code cache for the CLI (training run ended with ${why}); it starts a little slower`);
   }
 }
 if (failed > 0) {

@@ -119,6 +119,7 @@ describe('npm package', () => {
         'SECURITY.md',
         'bin/dewmark-language-server.js',
         'bin/dewmark.js',
+        'bin/run-bundle.js',
         'dist/THIRD-PARTY-NOTICES.md',
         'dist/cli.js',
         'dist/server.js',
