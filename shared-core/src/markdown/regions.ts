@@ -4,6 +4,7 @@
  * `site:`, `units:` — the keyword followed by whitespace or `:`). Everything else is prose.
  */
 import type { Span } from '../text/types';
+import { lazyLines, lineOffsetsOf } from './lines';
 import { scanMarkdown } from './scan';
 import type { AirRegion, HeadingNode } from './types';
 
@@ -16,7 +17,10 @@ export type Keyword = (typeof STATEMENT_KEYWORDS)[number];
 /** A ` ```air ` fence. */
 export interface FenceRegion extends AirRegion {
   origin: 'fence';
-  /** Each body line's content: one statement (or blank, or a comment) per line. */
+  /**
+   * Each body line's content: one statement (or blank, or a comment) per line. Made at its first
+   * read (`./lines`); `lineOffsetsOf(region)` gives the same lines as offsets without making it.
+   */
   lines: Span[];
   /** The whole info string (`air`, or `air` followed by more words). */
   info: string;
@@ -45,6 +49,9 @@ export interface ExtractedNote {
   headings: HeadingNode[];
 }
 
+/** The place of a fence region's `lines` until it is made a field read from offsets (`./lines`). */
+const NOT_READ: Span[] = [];
+
 const KEYWORD_ANYWHERE = /state|mix|process|recover|site|units/;
 
 /** Whether `content` starts with a statement keyword followed by whitespace or `:`. */
@@ -66,14 +73,20 @@ export function extractRegions(text: string): ExtractedNote {
   const fences: FenceRegion[] = [];
   for (const f of scan.fences) {
     if (f.lang !== 'air') continue;
-    fences.push({
+    const region: FenceRegion = {
       origin: 'fence',
       span: f.span,
       contentSpan: f.contentSpan,
-      lines: f.lines,
+      lines: NOT_READ,
       info: f.info,
       closed: f.closed,
-    });
+    };
+    // The block's lines, made when first read (by either object: they share one list); a reader
+    // that only goes over them takes their offsets (`lineOffsetsOf`) and makes no span per line.
+    const offsets = lineOffsetsOf(f);
+    if (offsets) lazyLines(region, offsets, f);
+    else region.lines = f.lines;
+    fences.push(region);
   }
   const inline: InlineRegion[] = [];
   for (const c of scan.codeSpans) {

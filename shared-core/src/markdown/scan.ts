@@ -17,7 +17,11 @@
 import type { Token } from 'markdown-it';
 import type { Span } from '../text/types';
 import type { HeadingNode } from './types';
+import { lazyLines, type LineOffsets } from './lines';
 import { createMarkdownIt, type Collector, type InlineMap, type ScanEnv } from './markdownIt';
+
+/** The place of a block's `lines` until {@link lazyLines} makes it a field read from offsets. */
+const UNREAD: Span[] = [];
 
 /** A fenced code block (backticks or tildes), closed or running to the end of its container. */
 export interface FenceBlock {
@@ -25,7 +29,10 @@ export interface FenceBlock {
   span: Span;
   /** From the start of the first body line to the end of the last; empty when there is no body. */
   contentSpan: Span;
-  /** Each body line's content (container prefixes and fence indentation removed, no line break). */
+  /**
+   * Each body line's content (container prefixes and fence indentation removed, no line break);
+   * made at its first read (`lineOffsetsOf` of `./lines` gives the offsets without making it).
+   */
   lines: Span[];
   /** The info string, backslash escapes and entities resolved, trimmed. */
   info: string;
@@ -131,39 +138,51 @@ export function scanMarkdown(text: string, options: ScanOptions = {}): MarkdownS
   };
 
   for (const b of col.blocks) {
-    const lines: Span[] = [];
-    for (let i = 0; i < b.lineStarts.length; i++) {
-      const end = contentEnd(b.lineEnds[i] as number);
-      const start = Math.min((b.lineStarts[i] as number) + base, end);
-      lines.push({ start, end });
+    // The body lines stay two typed arrays of offsets (see `./lines`): moved into the original
+    // text here only when it has a BOM or a carriage return (else they are its offsets already,
+    // and a start never lies past its end).
+    const starts = b.lineStarts;
+    const ends = b.lineEnds;
+    const count = starts.length;
+    if (base !== 0 || hasCR) {
+      for (let i = 0; i < count; i++) {
+        const end = contentEnd(ends[i] as number);
+        starts[i] = Math.min((starts[i] as number) + base, end);
+        ends[i] = end;
+      }
     }
+    const offsets: LineOffsets = { starts, ends };
     const start = b.start + base;
-    const lastLine = lines[lines.length - 1];
     let end: number;
-    if (b.kind === 'fence' && (b.closed || !lastLine)) {
+    if (b.kind === 'fence' && (b.closed || count === 0)) {
       // The closing fence line (or the lone opening line), without trailing blanks.
       end = b.closeEnd + base;
     } else {
-      end = lastLine ? lastLine.end : start;
+      end = count > 0 ? (ends[count - 1] as number) : start;
     }
     if (b.kind === 'indented') {
-      result.indentedCode.push({ span: { start, end }, lines });
+      const block: IndentedCodeBlock = { span: { start, end }, lines: UNREAD };
+      lazyLines(block, offsets);
+      result.indentedCode.push(block);
       continue;
     }
-    const firstLine = lines[0];
     const openEnd = b.openEnd + base;
     const contentSpan =
-      firstLine && lastLine ? { start: firstLine.start, end: lastLine.end } : { start: openEnd, end: openEnd };
+      count > 0
+        ? { start: starts[0] as number, end: ends[count - 1] as number }
+        : { start: openEnd, end: openEnd };
     const info = fenceInfo(md, b.info);
-    result.fences.push({
+    const fence: FenceBlock = {
       span: { start, end },
       contentSpan,
-      lines,
+      lines: UNREAD,
       info,
       lang: info === '' ? '' : (info.split(/\s+/)[0] ?? ''),
       markup: b.markup,
       closed: b.closed,
-    });
+    };
+    lazyLines(fence, offsets);
+    result.fences.push(fence);
   }
 
   for (const h of col.headings) {

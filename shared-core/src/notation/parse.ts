@@ -53,6 +53,7 @@ import type {
   UnitsStatement,
 } from './ast';
 import type { Span } from '../text/types';
+import { lineOffsetsOf } from '../markdown/lines';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
 import { PACK_START, internedPackedSlice, internedSlice, packStep } from './intern';
 import { ParsedNumber, ParsedProperty, ParsedQuantity, ParsedState, ParsedUnit } from './nodes';
@@ -199,6 +200,9 @@ function keywordAdvice(word: string): string {
 // ---------------------------------------------------------------------------------------------
 // The parser of one statement
 
+/** The pieces of a statement read from offsets ({@link StatementParser.parseLine}): none. */
+const NO_PIECES: readonly Span[] = [];
+
 class StatementParser {
   private text = '';
   private segs: readonly Span[] = [];
@@ -223,15 +227,36 @@ class StatementParser {
   diagnostics: CoreDiagnostic[] = [];
 
   parse(text: string, segs: readonly Span[], origin: StatementOrigin, diagnostics: CoreDiagnostic[]): Statement | null {
-    this.text = text;
     this.segs = segs;
+    const first = segs[0];
+    return this.read(text, first ? first.start : 0, first ? first.end : 0, origin, diagnostics);
+  }
+
+  /**
+   * {@link parse} of one fence line, `text[start, end)`, given as offsets: no span object stands for
+   * the line (so the statement's span is always a new one, never the line's).
+   */
+  parseLine(text: string, start: number, end: number, diagnostics: CoreDiagnostic[]): Statement | null {
+    // No pieces: the cursor never moves on to a next one, and `sharedStmtSpan` finds none to share.
+    this.segs = NO_PIECES;
+    return this.read(text, start, end, 'fence', diagnostics);
+  }
+
+  /** Reads the statement of the piece `text[start, end)`, the first of {@link segs}. */
+  private read(
+    text: string,
+    start: number,
+    end: number,
+    origin: StatementOrigin,
+    diagnostics: CoreDiagnostic[],
+  ): Statement | null {
+    this.text = text;
     this.origin = origin;
     this.diagnostics = diagnostics;
     this.seg = 0;
-    const first = segs[0];
-    this.pos = first ? first.start : 0;
-    this.end = first ? first.end : 0;
-    this.lastEnd = this.pos;
+    this.pos = start;
+    this.end = end;
+    this.lastEnd = start;
     return this.statement();
   }
 
@@ -1476,15 +1501,33 @@ export function parseStatementPieces(text: string, pieces: readonly Span[], orig
  */
 export type StatementSink = (statement: Statement, lineStart: number, lineEnd: number) => void;
 
+/**
+ * Reads the statements of `region` into `onStatement`. A fence's lines are read from their offsets
+ * (`markdown/lines`), making no span per line, unless `shareLines`: then each line's span is made
+ * (the region's `lines`) and a statement that is exactly its line shares the line's span (a note
+ * whose statements are all kept keeps one span for both).
+ */
 function regionStatements(
   text: string,
   region: ExtractedRegion,
   onStatement: StatementSink,
   diagnostics: CoreDiagnostic[],
+  shareLines: boolean,
 ): void {
   if (region.origin === 'inline') {
     const st = shared.parse(text, region.lines, 'inline', diagnostics);
     if (st) onStatement(st, -1, -1);
+    return;
+  }
+  const offsets = shareLines ? undefined : lineOffsetsOf(region);
+  if (offsets) {
+    const { starts, ends } = offsets;
+    for (let i = 0; i < starts.length; i++) {
+      const start = starts[i] as number;
+      const end = ends[i] as number;
+      const st = shared.parseLine(text, start, end, diagnostics);
+      if (st) onStatement(st, start, end);
+    }
     return;
   }
   const one: Span[] = [{ start: 0, end: 0 }];
@@ -1506,6 +1549,16 @@ export function parseNoteStatements(
   onStatement: StatementSink,
   diagnostics: CoreDiagnostic[],
 ): Pick<ParsedNote, 'regions' | 'headings'> {
+  return readNote(text, onStatement, diagnostics, false);
+}
+
+/** {@link parseNoteStatements}; `shareLines` as for {@link regionStatements}. */
+function readNote(
+  text: string,
+  onStatement: StatementSink,
+  diagnostics: CoreDiagnostic[],
+  shareLines: boolean,
+): Pick<ParsedNote, 'regions' | 'headings'> {
   let extracted: ReturnType<typeof extractRegions>;
   try {
     extracted = extractRegions(text);
@@ -1523,7 +1576,7 @@ export function parseNoteStatements(
     return { regions: [], headings: [] };
   }
   try {
-    for (const region of extracted.regions) regionStatements(text, region, onStatement, diagnostics);
+    for (const region of extracted.regions) regionStatements(text, region, onStatement, diagnostics, shareLines);
   } finally {
     shared.release();
   }
@@ -1534,6 +1587,7 @@ export function parseNoteStatements(
 export function parseNote(text: string): ParsedNote {
   const statements: Statement[] = [];
   const diagnostics: CoreDiagnostic[] = [];
-  const { regions, headings } = parseNoteStatements(text, (st) => statements.push(st), diagnostics);
+  // The statements are all kept: each shares its fence line's span when it is exactly its line.
+  const { regions, headings } = readNote(text, (st) => statements.push(st), diagnostics, true);
   return { regions, headings, statements, diagnostics };
 }
