@@ -1121,8 +1121,10 @@ class StatementParser {
       return 'reported';
     }
     const end = offset ? offset.span.end : q;
+    // Glued on: the cursor is still where the reference ends (a quantity leaves it at the next
+    // token, past any blanks) on a character that is neither a blank nor a comment.
     const after = this.charAt(this.pos);
-    if (this.pos < this.end && !isWs(after) && after !== 0x23) {
+    if (this.pos === end && this.pos < this.end && !isWs(after) && after !== 0x23) {
       // Something glued on (`OA.w*2`, `OA.w.x`): only + or − a difference may follow.
       const tEnd = this.rawTokenEnd();
       this.consume(tEnd);
@@ -1146,9 +1148,15 @@ class StatementParser {
     // What is written apart from the number (reported) is read by methods of its own, out of this
     // one, which stays short enough for the engine to compile it into its callers.
     const unit = this.attachedUnit() ?? this.detachedUnitNode(number, context);
+    // The next significant character, read once: a tolerance sign right here (`24C±0.5`) or after
+    // blanks (`24C ±0.5`, reported); anything else is the next token, where the cursor is left for
+    // the caller (which would skip the same blanks to read it).
+    const partEnd = this.pos;
+    const c = this.peek();
     let tolerance: ToleranceNode | null = null;
-    if (this.toleranceAt(this.pos) > 0) tolerance = this.tolerance();
-    else if (this.toleranceAfterBlanks()) tolerance = this.detachedTolerance(number, unit);
+    if (c === 0xb1 || (c === 0x2b && this.charAt(this.pos + 1) === 0x2d)) {
+      tolerance = this.pos === partEnd ? this.tolerance() : this.detachedTolerance(number, unit);
+    }
     return new ParsedQuantity(number, unit, tolerance);
   }
 
@@ -1169,26 +1177,8 @@ class StatementParser {
     return new ParsedUnit(written, detachedStart);
   }
 
-  /**
-   * Whether the next significant character after the cursor is a tolerance sign (`24C ±0.5`), as
-   * {@link peek} and {@link toleranceAt} would tell, without moving the cursor: the blanks are
-   * looked over in place, and only at the end of a piece (a code span on several lines) is the
-   * cursor moved on and back.
-   */
-  private toleranceAfterBlanks(): boolean {
-    let p = this.pos;
-    while (p < this.end && isWs(this.text.charCodeAt(p))) p++;
-    if (p < this.end) return this.toleranceAt(p) > 0;
-    if (this.seg + 1 >= this.segs.length) return false;
-    this.save();
-    const found = this.peek() >= 0 && this.toleranceAt(this.pos) > 0;
-    this.restore();
-    return found;
-  }
-
-  /** The tolerance after blanks ({@link toleranceAfterBlanks}), reported and read. */
+  /** A tolerance written after blanks (`24C ±0.5`; the cursor is at its sign), reported and read. */
   private detachedTolerance(number: ParsedNumber, unit: ParsedUnit | null): ToleranceNode | null {
-    this.peek();
     const at = this.pos;
     const written = `${number.text}${unit?.text ?? ''}`;
     const tolerance = this.tolerance();
