@@ -9,6 +9,7 @@ import MarkdownIt from 'markdown-it';
 import { describe, expect, it } from 'vitest';
 import { createMarkdownIt } from '../src/markdown/markdownIt';
 import { extractRegions, startsWithKeyword, type ExtractedRegion } from '../src/markdown/regions';
+import { lineOffsetsOf } from '../src/markdown/lines';
 import { scanMarkdown } from '../src/markdown/scan';
 
 /**
@@ -80,6 +81,45 @@ describe('air fences', () => {
     expect(regions).toHaveLength(1);
     expect(regions[0]?.lines).toEqual([]);
     expect(regions[0]?.contentSpan.start).toBe(regions[0]?.contentSpan.end);
+  });
+});
+
+describe('the body lines of a fence, kept as offsets until read', () => {
+  const md = '> ```air\r\n> state A: db=24C\r\n>\r\n>   state B: db=20C\r\n> ```\r\n';
+
+  it('gives the offsets of each line without making its span, then the same spans when read', () => {
+    const { regions } = extractRegions(md);
+    const region = regions[0] as ExtractedRegion;
+    // Not made yet: the field is still the one that makes it.
+    expect(Object.getOwnPropertyDescriptor(region, 'lines')?.get).toBeTypeOf('function');
+    const offsets = lineOffsetsOf(region);
+    expect(offsets && [...offsets.starts].map((s, i) => md.slice(s, offsets.ends[i]))).toEqual([
+      'state A: db=24C',
+      '',
+      '  state B: db=20C',
+    ]);
+    expect(Object.getOwnPropertyDescriptor(region, 'lines')?.get).toBeTypeOf('function');
+    const lines = region.lines;
+    expect(lines).toEqual([...(offsets?.starts ?? [])].map((start, i) => ({ start, end: offsets?.ends[i] })));
+    // Made once: a plain field from then on, the same array and spans at every read.
+    expect(Object.getOwnPropertyDescriptor(region, 'lines')?.value).toBe(lines);
+    expect(region.lines).toBe(lines);
+    expect(Object.keys(region)).toEqual(['origin', 'span', 'contentSpan', 'lines', 'info', 'closed']);
+    expect(JSON.parse(JSON.stringify(region)).lines).toEqual(lines);
+  });
+
+  it('forgets the offsets when the lines are written', () => {
+    const region = extractRegions(md).regions[0] as ExtractedRegion;
+    region.lines = [{ start: 0, end: 1 }];
+    expect(lineOffsetsOf(region)).toBeUndefined();
+    expect(region.lines).toEqual([{ start: 0, end: 1 }]);
+  });
+
+  it('has no offsets for a code span or a region built elsewhere', () => {
+    const { regions } = extractRegions('`state A: db=24C`\n');
+    expect(regions[0]?.origin).toBe('inline');
+    expect(lineOffsetsOf(regions[0] as ExtractedRegion)).toBeUndefined();
+    expect(lineOffsetsOf({ lines: [] })).toBeUndefined();
   });
 });
 

@@ -11,7 +11,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { findKey } from '../src/vocabulary/keys';
 import type { ExtractedRegion } from '../src/markdown/regions';
-import { parseNote } from '../src/notation/parse';
+import { parseNote, parseNoteStatements } from '../src/notation/parse';
 
 vi.mock('../src/vocabulary/keys', async (importOriginal) => {
   const actual = await importOriginal<typeof import('../src/vocabulary/keys')>();
@@ -122,6 +122,32 @@ describe('parser cost per statement', () => {
       parseNote(text); // compiled and the intern table filled before counting
       const reads = countingCharacterReads(() => parseNote(text));
       expect(reads).toBeLessThan(2.5 * text.length);
+    }
+  });
+
+  it('hands the statements of a fence out without making a span for each line', () => {
+    // The fence's lines are read from their offsets (`markdown/lines`): the region's list of line
+    // spans is never made, and each statement handed out has a span of its own (gone with it).
+    for (const n of [500, 2000]) {
+      const text = statesNote(n);
+      const lines: [number, number][] = [];
+      const spans = new Set<object>();
+      const { regions } = parseNoteStatements(
+        text,
+        (st, lineStart, lineEnd) => {
+          lines.push([lineStart, lineEnd]);
+          spans.add(st.span);
+        },
+        [],
+      );
+      expect(lines).toHaveLength(n);
+      expect(spans.size).toBe(n);
+      const fence = regions[0] as ExtractedRegion;
+      expect(Object.getOwnPropertyDescriptor(fence, 'lines')?.get).toBeTypeOf('function');
+      // Read afterwards, the lines are those the statements were handed out with, and none of
+      // them is a statement's span.
+      expect(fence.lines.map((l) => [l.start, l.end])).toEqual(lines);
+      expect(fence.lines.filter((l) => spans.has(l))).toEqual([]);
     }
   });
 
