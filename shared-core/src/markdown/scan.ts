@@ -168,9 +168,7 @@ export function scanMarkdown(text: string, options: ScanOptions = {}): MarkdownS
     }
     const openEnd = b.openEnd + base;
     const contentSpan =
-      count > 0
-        ? { start: starts[0] as number, end: ends[count - 1] as number }
-        : { start: openEnd, end: openEnd };
+      count > 0 ? { start: starts[0] as number, end: ends[count - 1] as number } : { start: openEnd, end: openEnd };
     const info = fenceInfo(md, b.info);
     const fence: FenceBlock = {
       span: { start, end },
