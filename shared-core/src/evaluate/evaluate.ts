@@ -348,7 +348,8 @@ export function* evaluateSteps(
     resolved,
     text,
     noteUnits(statements, resolved.units),
-    new NoteNames(statementList(statements)),
+    // Each statement defines a name or two at most, most of them one or none.
+    new NoteNames(statementList(statements), statements.length),
   );
   if (reuse) {
     ctx.solve = reuse.solve;
@@ -442,6 +443,15 @@ export function evaluateHandingOut(text: string, settings?: Partial<EvaluateSett
   return { units: resolved.units, run: (onItem) => runHandingOut(text, resolved, onItem) };
 }
 
+/**
+ * The characters of a note per name it defines, about, where it defines many (a state line,
+ * `state S12: db=24C rh=50%`, is some thirty): a guess at how many names a note holds from its
+ * length alone, for the first size of the registry of names (see `NameTable`). A note of prose
+ * defines fewer; the guess only saves the registry's doublings, and costs address space only
+ * when too high.
+ */
+const CHARACTERS_PER_NAME = 32;
+
 function runHandingOut(
   text: string,
   resolved: EvaluateSettings,
@@ -455,7 +465,12 @@ function runHandingOut(
     defining: (name, index) => ctx.ownerItem(name, index)?.statement ?? all()[index],
     all,
   };
-  const ctx: EvalContext = new EvalContext(resolved, text, resolved.units, new NoteNames(source));
+  const ctx: EvalContext = new EvalContext(
+    resolved,
+    text,
+    resolved.units,
+    new NoteNames(source, text.length / CHARACTERS_PER_NAME),
+  );
   ctx.handingOut(onItem);
   const parseDiagnostics: CoreDiagnostic[] = [];
   let index = 0;

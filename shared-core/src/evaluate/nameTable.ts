@@ -30,6 +30,15 @@ const FIRST_PLACES = 128;
 /** Characters a new table has room for before its pool grows. */
 const FIRST_CHARS = 1024;
 
+/**
+ * The most slots a table is first made with for the names it expects (2^20: 8 MB); past them it
+ * grows as it fills.
+ */
+const MOST_FIRST_SLOTS = 1 << 20;
+
+/** Characters per expected name that a table first has room for (a name of a note is short: `OA`, `S12`). */
+const CHARS_PER_EXPECTED_NAME = 6;
+
 /** FNV-1a over the UTF-16 code units of `s` (32-bit): the table's hash of a name. */
 export function nameHash(s: string): number {
   let h = 0x811c9dc5 | 0;
@@ -40,19 +49,36 @@ export function nameHash(s: string): number {
 /** Name → index of its first definition (see the module comment). */
 export class NameTable {
   /** Per slot, two numbers: the hash of its name, and the name's place plus one (0 for an empty slot). */
-  private slots = new Int32Array(2 * FIRST_SLOTS);
+  private slots: Int32Array;
   /** How many names there are (their places are 0 … count − 1, in the order they were added). */
   private count = 0;
   /** Per place: where its name's characters start in {@link chars}; entry `count` is where the next starts. */
-  private starts = new Int32Array(FIRST_PLACES + 1);
+  private starts: Int32Array;
   /** Per place: the value of its name. */
-  private values = new Int32Array(FIRST_PLACES);
+  private values: Int32Array;
   /** The characters of the names, one after the other. */
-  private chars = new Uint16Array(FIRST_CHARS);
+  private chars: Uint16Array;
   /** Every name when probing ran too long (then the only table in use). */
   private map: Map<string, number> | null = null;
   /** The empty slot that ended the last {@link find} of an absent name (where that name goes). */
   private free = 0;
+
+  /**
+   * @param expected  about how many names the table will hold (a guess; 0 when unknown). It is
+   *   made with room for them (up to {@link MOST_FIRST_SLOTS} slots): a table that doubles as it
+   *   fills moves every name at each doubling, twice the work of placing them once, and copies its
+   *   lists. Room not used costs address space only: the arrays are made zeroed, and the system
+   *   gives memory to a page of them when it is first written.
+   */
+  constructor(expected = 0) {
+    let slots = FIRST_SLOTS;
+    while (slots < 2 * expected && slots < MOST_FIRST_SLOTS) slots *= 2;
+    const places = Math.max(FIRST_PLACES, slots / 2);
+    this.slots = new Int32Array(2 * slots);
+    this.starts = new Int32Array(places + 1);
+    this.values = new Int32Array(places);
+    this.chars = new Uint16Array(Math.max(FIRST_CHARS, places * CHARS_PER_EXPECTED_NAME));
+  }
 
   /** The value of `name`, or -1 when it has none. */
   get(name: string): number {

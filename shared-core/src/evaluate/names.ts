@@ -50,11 +50,17 @@ export function statementList(statements: readonly Statement[]): NoteStatements 
 /** The names of a note: those defined so far, and (when asked) those of the whole note. */
 export class NoteNames {
   /** Name → index of the statement that first defines it, for the statements registered so far. */
-  private readonly registered = new NameTable();
+  private readonly registered: NameTable;
   /** The same for the whole note, made at the first question about a name not defined above. */
   private whole: Map<string, number> | null = null;
 
-  constructor(private readonly statements: NoteStatements) {}
+  /** @param expected  about how many names the note defines (a guess, for the table's first size; 0 when unknown). */
+  constructor(
+    private readonly statements: NoteStatements,
+    expected = 0,
+  ) {
+    this.registered = new NameTable(expected);
+  }
 
   /**
    * Registers the name `node` written in statement `index` (the evaluator registers every name

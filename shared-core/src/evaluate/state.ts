@@ -233,15 +233,19 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
   if (read.broken.length > 0 || read.pressure > 0)
     ({ pressure, failed } = statePressure(ctx, props, read.broken, what));
   const candidates = failed ? null : definingCandidates(ctx, props, read, what, stmt);
-  const solved = candidates ? solveFirstPair(ctx, candidates, pressure, what) : null;
+  const state = candidates ? solveFirstPair(ctx, candidates, pressure, what) : null;
+  // The pair it was solved from: candidates `solvedAt` and `solvedAt + 1` (read before anything
+  // else solves a state).
+  const a = state ? candidates![solvedAt]! : null;
+  const b = state ? candidates![solvedAt + 1]! : null;
   const result: StateResult = {
     kind: 'state',
     name,
     statement: stmt,
-    state: solved ? solved.state : null,
+    state,
     pressure,
-    defining: solved ? definingPair(solved.a.key as DefiningKey, solved.b.key as DefiningKey) : EMPTY,
-    claims: solved ? claimsBeyondPair(ctx, props, solved, pressure) : EMPTY,
+    defining: a && b ? definingPair(a.key as DefiningKey, b.key as DefiningKey) : EMPTY,
+    claims: state && a && b ? claimsBeyondPair(ctx, props, a, b, state, pressure) : EMPTY,
   };
   if (read.references > 0) {
     const sources = sourcesOf(props);
@@ -254,7 +258,9 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
 function claimsBeyondPair(
   ctx: EvalContext,
   props: ReadProp[],
-  { a, b, state }: SolvedPair,
+  a: ReadProp,
+  b: ReadProp,
+  state: MoistAirState,
   pressure: PressureBasis,
 ): ClaimResult[] {
   // The pair is two of the properties: with no other, there is no claim.
@@ -381,12 +387,13 @@ function noIndependentPair(ctx: EvalContext, defs: ReadProp[], refs: readonly Re
 /** No properties (shared, never written to). */
 const NO_PROPS: readonly ReadProp[] = [];
 
-/** The defining pair a state was solved from, and the state. */
-interface SolvedPair {
-  a: ReadProp;
-  b: ReadProp;
-  state: MoistAirState;
-}
+/**
+ * Where the pair that {@link solveFirstPair} solved its state from stands in its candidates (the
+ * pair is `candidates[solvedAt]`, `candidates[solvedAt + 1]`): set by it, read by its caller
+ * right after. (The state is the one result of the call; the pair's place is a number beside it
+ * rather than an object of three fields made per state.)
+ */
+let solvedAt = -1;
 
 /** The span of each written key of the candidates, for messages (built only when one is reported). */
 function spansOfCandidates(candidates: readonly ReadProp[]): Map<string, Span> {
@@ -400,7 +407,8 @@ function allOf(candidates: readonly ReadProp[]): ReadProp[] {
 
 /**
  * Solves the first candidate pair that is not dependent at the state's pressure (reporting the
- * engine's warnings, and its problem when the pair gives no state); null when none gives one.
+ * engine's warnings, and its problem when the pair gives no state): the state, its pair's place
+ * in {@link solvedAt}; null when none gives one.
  * (The reports are functions of their own, so that this one stays small enough for the engine to
  * build into its caller.)
  */
@@ -409,7 +417,7 @@ function solveFirstPair(
   candidates: readonly ReadProp[],
   pressure: PressureBasis,
   what: string,
-): SolvedPair | null {
+): MoistAirState | null {
   let lastDependent: PhysicsProblem | null = null;
   for (let k = 0; k + 1 < candidates.length; k += 2) {
     const a = candidates[k]!;
@@ -438,7 +446,8 @@ function solveFirstPair(
     }
     if (solved.warnings.length > 0 || isIllConditionedPair(ka, kb))
       reportWarnings(ctx, solved.warnings, candidates, a, b, what);
-    return { a, b, state: solved.state };
+    solvedAt = k;
+    return solved.state;
   }
   if (lastDependent) reportProblem(ctx, lastDependent, candidates, allOf(candidates), null, what);
   return null;

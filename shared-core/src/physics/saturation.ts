@@ -134,6 +134,18 @@ export function satVapPres(tC: number): number {
  */
 export const satTempDeriv = { d1: 0, d2: 0, ice: false };
 
+/**
+ * The argument (ln pw) and the result (°C) of the inversion ({@link satTempIteration}), passed in
+ * an array of unboxed doubles: a function the engine does not build into its caller takes a
+ * double argument, and gives a double result, as a heap object of its own; a store to this array
+ * and a load from it allocate nothing, and {@link satTempFromLn}, which fills it, is small enough
+ * to be built into its callers.
+ */
+const SAT_IO = new Float64Array(2);
+/** Places in {@link SAT_IO}. */
+const IO_Y = 0;
+const IO_T = 1;
+
 const MAX_SAT_ITER = 80;
 
 /**
@@ -205,6 +217,14 @@ function guessInvT(y: number): number {
  * lowers the iteration bound (tests check the inversion converges well within it).
  */
 export function satTempFromLn(y: number, maxIter = MAX_SAT_ITER): number {
+  SAT_IO[IO_Y] = y;
+  satTempIteration(maxIter);
+  return SAT_IO[IO_T]!;
+}
+
+/** {@link satTempFromLn}'s iteration, from and to {@link SAT_IO} (see there). */
+function satTempIteration(maxIter: number): void {
+  const y = SAT_IO[IO_Y]!;
   const ice = y < LN_PWS_TRIPLE;
   satTempDeriv.ice = ice;
   // Iterate in kelvin, keeping x = 1/T alongside T (the first guess gives x directly).
@@ -261,12 +281,13 @@ export function satTempFromLn(y: number, maxIter = MAX_SAT_ITER): number {
       // Slopes at the last iterate (within 2e-3 K of the root): only a starting aid for callers.
       satTempDeriv.d1 = d1;
       satTempDeriv.d2 = d2;
-      return next - ZERO_C_K;
+      SAT_IO[IO_T] = next - ZERO_C_K;
+      return;
     }
     T = next;
     x = 1 / T;
   }
-  return Number.NaN;
+  SAT_IO[IO_T] = Number.NaN;
 }
 
 /**

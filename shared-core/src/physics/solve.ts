@@ -190,6 +190,12 @@ saturated, so the saturation humidity ratio is infinite and the degree of satura
   }
 }
 
+/** The warnings of the solve under way (see {@link solveState}). */
+const WARNINGS: PhysicsProblem[] = [];
+
+/** The warnings of a result without any: one frozen empty list, shared. */
+const NO_WARNINGS = Object.freeze([]) as unknown as PhysicsProblem[];
+
 /**
  * Solve a moist-air state from exactly two defining properties (SI: °C, fraction, kg/kg, J/kg)
  * at pressure p Pa. Valid pairs: db with wb, dp, rh, w or h; wb with rh, w, dp or h (wb+h is
@@ -201,7 +207,12 @@ export function solveState(
   p: number,
   options?: SolveOptions,
 ): SolveResult {
-  const warnings: PhysicsProblem[] = [];
+  // The warnings are collected in one list kept for every solve (a solve calls no other), and a
+  // result without any shares the empty list: most states have none, and a list made per solve
+  // was one object per state for nothing.
+  const warnings = WARNINGS;
+  // Left over only by a solve that failed (setting the length is a call into the engine).
+  if (warnings.length !== 0) warnings.length = 0;
   try {
     const state = solveOrThrow(input, p, options, warnings);
     // Only absurd figures (a pressure of 1e-320 Pa, a humidity ratio of 1e308) overflow a property.
@@ -217,7 +228,7 @@ export function solveState(
       );
     }
     stateWarnings(state, warnings);
-    return { ok: true, state, warnings };
+    return { ok: true, state, warnings: warnings.length === 0 ? NO_WARNINGS : warnings.splice(0) };
   } catch (e) {
     if (e instanceof PsychroError) return { ok: false, problem: e.problem };
     throw e;

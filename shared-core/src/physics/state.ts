@@ -38,6 +38,48 @@ export function completeState(
   dp: number,
   wb: number,
 ): MoistAirState {
+  const io = COMPLETE_IN;
+  io[IN_DB] = db;
+  io[IN_W] = w;
+  io[IN_P] = p;
+  io[IN_PWS_DB] = pwsDb;
+  io[IN_PW] = pw;
+  io[IN_LN_PW] = lnPw;
+  io[IN_DP] = dp;
+  io[IN_WB] = wb;
+  return completeFromInput();
+}
+
+/**
+ * The arguments of {@link completeState}, passed to its work ({@link completeFromInput}) in one
+ * array of unboxed doubles: a function the engine does not build into its caller takes each
+ * double argument as a heap object of its own (most of the eight here are computed just before
+ * the call), where a store to this array and a load from it allocate nothing. completeState,
+ * which fills it, is small enough to be built into its callers. (One state is completed at a
+ * time: the work reads its arguments first and completes no other state.)
+ */
+const COMPLETE_IN = new Float64Array(8);
+/** Places in {@link COMPLETE_IN}, in the order of {@link completeState}'s parameters. */
+const IN_DB = 0;
+const IN_W = 1;
+const IN_P = 2;
+const IN_PWS_DB = 3;
+const IN_PW = 4;
+const IN_LN_PW = 5;
+const IN_DP = 6;
+const IN_WB = 7;
+
+/** {@link completeState} from its arguments in {@link COMPLETE_IN} (see there). */
+function completeFromInput(): MoistAirState {
+  const io = COMPLETE_IN;
+  const db = io[IN_DB]!;
+  const w = io[IN_W]!;
+  const p = io[IN_P]!;
+  const pwsDb = io[IN_PWS_DB]!;
+  const pw = io[IN_PW]!;
+  const lnPw = io[IN_LN_PW]!;
+  let dp = io[IN_DP]!;
+  let wb = io[IN_WB]!;
   let d1 = 0;
   let d2 = 0;
   if (pw > 0) {

@@ -111,6 +111,26 @@ export function wRoundoff(wsStar: number): number {
 }
 
 /**
+ * The arguments and the result of the wet-bulb iteration ({@link wetBulbIteration}), passed in one
+ * array of unboxed doubles. A function the engine does not build into its caller (the iteration
+ * is too large) takes each double argument, and gives its double result, as a heap object of its
+ * own: nine per state on the way from the dew point to the wet-bulb. A store to this array and a
+ * load from it allocate nothing, and {@link wetBulbSolve}, which fills it, is small enough to be
+ * built into its callers. (One iteration runs at a time: it calls nothing that iterates.)
+ */
+const WB_IO = new Float64Array(9);
+/** Places in {@link WB_IO}: the eight arguments of {@link wetBulbSolve}, then the result. */
+const IO_DB = 0;
+const IO_W = 1;
+const IO_P = 2;
+const IO_PW = 3;
+const IO_DP = 4;
+const IO_D1 = 5;
+const IO_D2 = 6;
+const IO_PWS_DB = 7;
+const IO_WB = 8;
+
+/**
  * Wet-bulb, °C, by safeguarded Halley/Newton steps on eq 33/35 (internal, inputs already checked).
  * `pw` is the vapour pressure, `dp` the dew point (−Infinity for bone-dry air), `dpD1`, `dpD2`
  * the first two derivatives of ln pws at (or within 2e-3 K of) the dew point on its branch, and
@@ -131,18 +151,49 @@ export function wetBulbSolve(
   pwsDb: number,
   maxIter = MAX_WB_ITER,
 ): number {
+  const io = WB_IO;
+  io[IO_DB] = db;
+  io[IO_W] = w;
+  io[IO_P] = p;
+  io[IO_PW] = pw;
+  io[IO_DP] = dp;
+  io[IO_D1] = dpD1;
+  io[IO_D2] = dpD2;
+  io[IO_PWS_DB] = pwsDb;
+  wetBulbIteration(maxIter);
+  return io[IO_WB]!;
+}
+
+/** {@link wetBulbSolve}'s iteration, from and to {@link WB_IO} (see there). */
+function wetBulbIteration(maxIter: number): void {
+  const io = WB_IO;
+  const db = io[IO_DB]!;
+  const w = io[IO_W]!;
+  const p = io[IO_P]!;
+  const pw = io[IO_PW]!;
+  const dp = io[IO_DP]!;
+  const dpD1 = io[IO_D1]!;
+  const dpD2 = io[IO_D2]!;
+  const pwsDb = io[IO_PWS_DB]!;
   // Upper end: the dry-bulb, or the boiling point at p when the dry-bulb is above it (where the
   // saturation humidity ratio is infinite); the residual is +∞ there and is never evaluated.
   let hi = db;
   if (pwsDb >= p) {
-    if (p > PWS_MAX) return Number.NaN;
+    if (p > PWS_MAX) {
+      io[IO_WB] = Number.NaN;
+      return;
+    }
     hi = satTempRaw(p);
-    if (Number.isNaN(hi)) return Number.NaN;
+    if (Number.isNaN(hi)) {
+      io[IO_WB] = Number.NaN;
+      return;
+    }
   }
   let lo = Math.max(dp, WB_FLOOR_C);
   if (lo >= hi) {
     // Saturated air (dp = db up to round-off) or air at its boiling point.
-    return Math.min(hi, db);
+    io[IO_WB] = Math.min(hi, db);
+    return;
   }
   const e = EPSILON * p;
   // Branch: ice (eq 35) when the whole bracket is below 0 °C; water (eq 33) when it is above; in
@@ -223,7 +274,8 @@ export function wetBulbSolve(
       const a = a0 - a1 * t;
       const g = a * ws - 1.006 * (db - t) - w * (dConst - d1 * t);
       if (g === 0) {
-        return t < lo0 ? lo0 : Math.min(t, hi0);
+        io[IO_WB] = t < lo0 ? lo0 : Math.min(t, hi0);
+        return;
       }
       if (g < 0) lo = t;
       else hi = t;
@@ -242,16 +294,18 @@ export function wetBulbSolve(
       // where the slope of pws jumps (ice below, water above): no stop there.
       if (Math.abs(step) < WB_STEP_DONE && Math.abs(c) < 0.005 && t < SWITCH_C === next < SWITCH_C) {
         // Within the bracket (a last step can overshoot it by round-off).
-        return next < lo0 ? lo0 : Math.min(next, hi0);
+        io[IO_WB] = next < lo0 ? lo0 : Math.min(next, hi0);
+        return;
       }
       if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
     }
     if (hi - lo < 1e-9) {
-      return next < lo0 ? lo0 : Math.min(next, hi0);
+      io[IO_WB] = next < lo0 ? lo0 : Math.min(next, hi0);
+      return;
     }
     t = next;
   }
-  return Number.NaN;
+  io[IO_WB] = Number.NaN;
 }
 
 /**
