@@ -61,20 +61,34 @@ export class ReadFigure implements ResolvedQuantity {
  * (`q`), so that a property read is one object. It is a class of its own rather than a subclass of
  * {@link ReadFigure}: a derived class's constructor is a second call that the engine makes per
  * object (the base allocates it), and every state reads two of these.
+ *
+ * Its figures (`si`, `toleranceSI`) are worked out from the written quantity when read, by the
+ * same expressions {@link resolveQuantity} checked them with, so they are the same doubles: a
+ * field holding a double is a heap object of its own per object (two per property, four per
+ * state), and most properties are read for their value once (the defining pair) and for their
+ * band never (only a claim has one that is compared).
  */
 export class ReadPropertyFigure implements ReadProp, ResolvedQuantity {
-  readonly si: number;
   readonly unit: UnitDef | null;
-  readonly toleranceSI: number;
   readonly prop: PropertyNode;
   readonly spec: KeySpec;
 
-  constructor(si: number, unit: UnitDef | null, toleranceSI: number, prop: PropertyNode, spec: KeySpec) {
-    this.si = si;
+  /** `unit`: the written value's unit as found (null for a bare number read in the SI base). */
+  constructor(unit: UnitDef | null, prop: PropertyNode, spec: KeySpec) {
     this.unit = unit;
-    this.toleranceSI = toleranceSI;
     this.prop = prop;
     this.spec = spec;
+  }
+
+  /** The written value in the SI base of the key's dimension (see {@link resolveQuantity}). */
+  get si(): number {
+    const value = this.prop.value!.number.value;
+    return this.unit === null ? value : unitToSI(value, this.unit);
+  }
+
+  /** The claim's band, SI (see {@link resolveQuantity}). */
+  get toleranceSI(): number {
+    return toleranceOf(this.prop.value!, this.spec.dimension, this.unit === null ? 1 : this.unit.scale);
   }
 
   /**
@@ -242,15 +256,23 @@ export function resolveQuantity(
     si = unitToSI(q.number.value, def);
     scale = def.scale;
   }
-  // Tolerance: half a unit of the last significant digit, or the explicit ± figure.
-  const toleranceSI = q.tolerance
-    ? writtenTolerance(prop, q, q.tolerance, spec, scale, out)
-    : (claimResolution(q, spec.dimension) / 2) * Math.abs(scale);
-  if (toleranceSI === null) return null;
+  // A written tolerance that cannot be read is reported; else the band is worked out.
+  if (q.tolerance && !toleranceReadable(prop, q, q.tolerance, spec, out)) return null;
+  const toleranceSI = toleranceOf(q, spec.dimension, scale);
   if (!Number.isFinite(si) || !Number.isFinite(toleranceSI)) return tooLarge(prop, q, out);
-  return row
-    ? new ReadPropertyFigure(si, unit, toleranceSI, prop as PropertyNode, row)
-    : new ReadFigure(si, unit, toleranceSI, q);
+  // A property read works its figures out again when they are read, by these same expressions.
+  return row ? new ReadPropertyFigure(unit, prop as PropertyNode, row) : new ReadFigure(si, unit, toleranceSI, q);
+}
+
+/**
+ * The band of a claim written as `q` (whose written tolerance, if any, is readable), SI, for a
+ * value of `dimension` in a unit of scale `scale`: half a unit of the last significant digit, or
+ * the explicit ± figure.
+ */
+function toleranceOf(q: QuantityNode, dimension: Dimension, scale: number): number {
+  return q.tolerance
+    ? writtenTolerance(q, q.tolerance, dimension, scale)
+    : (claimResolution(q, dimension) / 2) * Math.abs(scale);
 }
 
 /** `missing-unit` for `q`, a bare number of a key that needs a unit; null. */
@@ -291,16 +313,24 @@ function unknownUnit(
 
 /**
  * The band of a claim written with its tolerance `t` (`±2`, `±2%`, `±0.5K`), SI, for a value of
- * unit scale `scale`; null after reporting a tolerance that cannot be read.
+ * `dimension` in a unit of scale `scale`; `t` is readable ({@link toleranceReadable}).
  */
-function writtenTolerance(
+function writtenTolerance(q: QuantityNode, t: ToleranceNode, dimension: Dimension, scale: number): number {
+  const tv = t.number.value;
+  if (t.unit === null) return tv * Math.abs(scale);
+  // ±2% of a non-% value: a relative band around the written figure in its own unit.
+  if (t.unit.text === '%' && dimension !== 'fraction') return (tv / 100) * Math.abs(q.number.value) * Math.abs(scale);
+  return tv * Math.abs(findUnit(t.unit.text)!.scale);
+}
+
+/** True when the tolerance `t` written in `q` can be read; else reports why and returns false. */
+function toleranceReadable(
   prop: { key: string },
   q: QuantityNode,
   t: ToleranceNode,
   spec: QuantitySpec,
-  scale: number,
   out: DiagnosticReport,
-): number | null {
+): boolean {
   const tv = t.number.value;
   if (!(tv >= 0) || !Number.isFinite(tv)) {
     out.report({
@@ -310,12 +340,10 @@ function writtenTolerance(
         `the tolerance in ${whereText(prop.key, q)}±${t.number.text} ` + 'must be a positive figure; write it like ±2',
       span: t.span,
     });
-    return null;
+    return false;
   }
-  if (t.unit === null) return tv * Math.abs(scale);
-  // ±2% of a non-% value: a relative band around the written figure in its own unit.
-  if (t.unit.text === '%' && spec.dimension !== 'fraction')
-    return (tv / 100) * Math.abs(q.number.value) * Math.abs(scale);
+  if (t.unit === null) return true;
+  if (t.unit.text === '%' && spec.dimension !== 'fraction') return true;
   const tdef = findUnit(t.unit.text);
   if (!tdef || tdef.dimension !== spec.dimension) {
     out.report({
@@ -327,9 +355,9 @@ function writtenTolerance(
         `(±${t.number.text}) or as a percentage of it (±${t.number.text}%)`,
       span: t.unit.span,
     });
-    return null;
+    return false;
   }
-  return tv * Math.abs(tdef.scale);
+  return true;
 }
 
 /** `out-of-range` for a figure (or its band) too large to use; null. */

@@ -380,8 +380,33 @@ function rootWithinRoundoff(f: (x: number) => number, x: number, fx: number): bo
   return Number.isFinite(slope) && slope !== 0 && Math.abs(fx / slope) <= RANGE_ROUNDOFF_K;
 }
 
-/** Range and sign checks of one input value. */
+/**
+ * Range and sign checks of one input value: the test, small enough for the engine to build into
+ * the solver (the key is a constant there), and the messages only when it fails.
+ */
 function checkValue(k: DefiningKey, x: number): void {
+  if (!valueInRange(k, x)) valueProblem(k, x);
+}
+
+/** True when `x` is a usable value of key `k` (what {@link valueProblem} checks, as one test). */
+function valueInRange(k: DefiningKey, x: number): boolean {
+  if (typeof x !== 'number') return false;
+  switch (k) {
+    case 'db':
+    case 'wb':
+    case 'dp':
+      return x >= T_MIN_C && x <= T_MAX_C;
+    case 'rh':
+      return x >= 0 && x <= 1;
+    case 'w':
+      return x >= 0 && x < Number.POSITIVE_INFINITY;
+    default:
+      return Number.isFinite(x);
+  }
+}
+
+/** Throws the problem with the value `x` of key `k` (one that {@link valueInRange} refuses). */
+function valueProblem(k: DefiningKey, x: number): void {
   if (typeof x !== 'number' || !Number.isFinite(x)) {
     throw problem(
       'out-of-range',
