@@ -1,0 +1,159 @@
+/**
+ * What the evaluator and the state solver allocate per state, counted in bytes by the engine's
+ * heap profiler (`allocation-helpers.ts`; never timed), and the structure that keeps it low: the
+ * shared empty list of warnings, a property read that works its figures out when read (the same
+ * doubles as the checked ones), and a registry of names first made with room for the names a note
+ * suggests. The notes and figures are invented; no physical value is checked here (the solver's
+ * values are checked against their sources in physics-check-values.test.ts).
+ */
+import { describe, expect, it } from 'vitest';
+import { allocatedBytes } from './allocation-helpers';
+import { evaluate } from '../src/evaluate/evaluate';
+import { NameTable } from '../src/evaluate/nameTable';
+import { readProps } from '../src/evaluate/props';
+import { readQuantity, type ResolvedQuantity } from '../src/evaluate/quantity';
+import { EvalContext } from '../src/evaluate/context';
+import { NoteNames, statementList } from '../src/evaluate/names';
+import { resolveSettings } from '../src/evaluate/settings';
+import { STATE_KEYS } from '../src/evaluate/keys';
+import type { StateStatement } from '../src/notation/ast';
+import { parseNote } from '../src/notation/parse';
+import { solveState } from '../src/physics';
+import { dewPointFromHumRatio, wetBulbFromHumRatio } from '../src/physics/wetbulb';
+
+/** A block of `n` states with distinct names, each from db and rh (invented). */
+function statesNote(n: number): string {
+  const lines = ['# Plant room states (invented)', '', '```air'];
+  for (let i = 0; i < n; i++) lines.push(`state S${i}: db=${15 + (i % 10)}C rh=${40 + (i % 30)}%`);
+  lines.push('```', '');
+  return lines.join('\n');
+}
+
+/** `run` made warm (compiled) first, then its bytes per call of `calls`. */
+async function bytesPerCall(calls: number, run: () => void): Promise<number> {
+  for (let i = 0; i < 5; i++) run();
+  return (await allocatedBytes(run)) / calls;
+}
+
+describe('allocation per state', () => {
+  it('evaluates a state from db and rh with at most 820 bytes allocated', async () => {
+    const n = 4000;
+    const text = statesNote(n);
+    const parsed = parseNote(text);
+    let items = 0;
+    const perState = await bytesPerCall(n, () => {
+      items = evaluate(parsed, {}, text).items.length;
+    });
+    expect(items).toBe(n);
+    // Kept: its result (7 fields) and its state (13 figures in one array of unboxed doubles); let
+    // go: the two properties read, the solver's input and outcome. The properties held their
+    // value and band in heap numbers of their own, the solver took its doubles as heap numbers
+    // from call to call, a solve made a list for its warnings and a state an object for its
+    // pair: about 1000 bytes.
+    expect(perState).toBeGreaterThan(300); // the count does see the results
+    expect(perState).toBeLessThan(820);
+  });
+
+  it('solves a state with at most 400 bytes allocated, the state included', async () => {
+    const n = 5000;
+    let solved = 0;
+    const perCall = await bytesPerCall(n, () => {
+      solved = 0;
+      for (let i = 0; i < n; i++) {
+        const r = solveState({ db: -10 + (i % 50), rh: 0.05 + (i % 90) / 100 }, 101325, { allowFog: true });
+        if (r.ok) solved++;
+      }
+    });
+    expect(solved).toBe(n);
+    // The state (~190 bytes), the outcome and the input object of the call above. The doubles
+    // passed between the solver's steps were heap numbers of their own: about 490 bytes.
+    expect(perCall).toBeGreaterThan(150);
+    expect(perCall).toBeLessThan(400);
+  });
+
+  it('finds a wet-bulb and a dew point with at most 110 bytes allocated', async () => {
+    const n = 5000;
+    let sum = 0;
+    const perCall = await bytesPerCall(n, () => {
+      sum = 0;
+      for (let i = 0; i < n; i++) {
+        const w = 0.0005 + (i % 20) * 0.0002;
+        sum += wetBulbFromHumRatio(10 + (i % 40), w, 101325) + dewPointFromHumRatio(w, 101325);
+      }
+    });
+    expect(Number.isFinite(sum)).toBe(true);
+    // Each iteration takes its arguments and gives its result in an array of unboxed doubles:
+    // what is left is the two figures returned. Passed as arguments, about 200 bytes.
+    expect(perCall).toBeLessThan(110);
+  });
+});
+
+describe('the structure that keeps it low', () => {
+  it('shares one frozen empty list of warnings; a solve with warnings keeps its own', () => {
+    const a = solveState({ db: 20, rh: 0.5 }, 101325);
+    const b = solveState({ db: 25, rh: 0.4 }, 101325);
+    expect(a.ok && b.ok).toBe(true);
+    if (!a.ok || !b.ok) return;
+    expect(a.warnings).toEqual([]);
+    expect(a.warnings).toBe(b.warnings);
+    expect(Object.isFrozen(a.warnings)).toBe(true);
+    // Fog (invented figures: more water than air at 20 °C holds) warns; its list is its own,
+    // and neither the next solve with a warning nor one without changes it.
+    const fog = solveState({ db: 20, w: 0.03 }, 101325, { allowFog: true });
+    expect(fog.ok).toBe(true);
+    if (!fog.ok) return;
+    expect(fog.warnings.map((w) => w.code)).toEqual(['supersaturated']);
+    const first = fog.warnings[0];
+    const again = solveState({ db: 10, w: 0.03 }, 101325, { allowFog: true });
+    solveState({ db: 21, rh: 0.5 }, 101325);
+    expect(again.ok && again.warnings).not.toBe(fog.warnings);
+    expect(fog.warnings).toHaveLength(1);
+    expect(fog.warnings[0]).toBe(first);
+    // A solve that failed leaves nothing behind for the next one.
+    expect(solveState({ db: 20, w: -1 }, 101325).ok).toBe(false);
+    const next = solveState({ db: 22, rh: 0.45 }, 101325);
+    expect(next.ok && next.warnings).toEqual([]);
+  });
+
+  it('reads the same doubles for a property as for the quantity it is written as', () => {
+    // Figures in several units, with and without a written band (invented).
+    const line =
+      'state X: db=75.2F±0.5 wb=14C±2% dp=285.15K rh=45.5% w=7.5g/kg±0.2 h=40kJ/kg±1kJ/kg p=98.7kPa v=0.85m3/kg';
+    const text = `\`\`\`air\n${line}\n\`\`\`\n`;
+    const stmt = parseNote(text).statements[0] as StateStatement;
+    const ctx = new EvalContext(resolveSettings({}), text, 'SI', new NoteNames(statementList([stmt])));
+    const { props } = readProps(ctx, stmt.props, STATE_KEYS, 'state X', stmt, 0, true);
+    expect(props.map((p) => p.key)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h', 'p', 'v']);
+    expect(ctx.diagnostics).toEqual([]);
+    for (const p of props) {
+      const alone = readQuantity(p.prop, p.prop.value!, p.spec);
+      expect(alone.ok).toBe(true);
+      const q = (alone as { value: ResolvedQuantity }).value;
+      expect(Object.is(p.q.si, q.si)).toBe(true);
+      expect(Object.is(p.q.toleranceSI, q.toleranceSI)).toBe(true);
+      expect(p.q.unit).toBe(q.unit);
+      expect(p.q.explicitTolerance).toBe(q.explicitTolerance);
+      expect(p.q.unitText).toBe(q.unitText);
+    }
+  });
+
+  it('makes a registry of names with room for the names expected: it never grows while they are added', () => {
+    const n = 50_000;
+    const table = new NameTable(n);
+    const slots = Reflect.get(table, 'slots') as Int32Array;
+    const chars = Reflect.get(table, 'chars') as Uint16Array;
+    for (let i = 0; i < n; i++) expect(table.add(`S${i}`, i)).toBe(true);
+    expect(Reflect.get(table, 'slots')).toBe(slots); // no doubling: the names were placed once
+    expect(Reflect.get(table, 'chars')).toBe(chars);
+    expect(table.get('S0')).toBe(0);
+    expect(table.get(`S${n - 1}`)).toBe(n - 1);
+    expect(table.add('S7', 1)).toBe(false);
+    // Without a guess it starts small and grows, with the same answers.
+    const small = new NameTable();
+    const first = Reflect.get(small, 'slots') as Int32Array;
+    for (let i = 0; i < n; i++) small.add(`S${i}`, i);
+    expect(Reflect.get(small, 'slots')).not.toBe(first);
+    expect(first.length).toBeLessThan(slots.length);
+    for (let i = 0; i < n; i += 997) expect(small.get(`S${i}`)).toBe(table.get(`S${i}`));
+  });
+});
