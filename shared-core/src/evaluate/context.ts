@@ -111,11 +111,12 @@ export class EvalContext {
    * of the plain states among them (`./forgotten`), which a reference evaluates again: for a
    * reader that is done with an item once it has it (the command line writing a large note).
    * Called before the first statement, on a context given the note's text (a state let go is read
-   * back from it); the analysis is the same, less its items.
+   * back from it); the analysis is the same, less its items. `expected`: about how many
+   * statements the note holds (a guess for the first size of the slots of the states let go).
    */
-  handingOut(sink: (item: EvaluatedItem) => void): void {
+  handingOut(sink: (item: EvaluatedItem) => void, expected = 0): void {
     this.sink = sink;
-    this.forgotten = new ForgottenStates(this.text ?? '');
+    this.forgotten = new ForgottenStates(this.text ?? '', expected);
     this.byNameMap = new Map();
   }
 

@@ -444,11 +444,11 @@ export function evaluateHandingOut(text: string, settings?: Partial<EvaluateSett
 }
 
 /**
- * The characters of a note per name it defines, about, where it defines many (a state line,
- * `state S12: db=24C rh=50%`, is some thirty): a guess at how many names a note holds from its
- * length alone, for the first size of the registry of names (see `NameTable`). A note of prose
- * defines fewer; the guess only saves the registry's doublings, and costs address space only
- * when too high.
+ * The characters of a note per statement (and name it defines), about, where it holds many (a
+ * state line, `state S12: db=24C rh=50%`, is some thirty): a guess at how many a note holds from
+ * its length alone, for the first size of the registry of names (see `NameTable`) and of the
+ * slots of the states let go (`./forgotten`). A note of prose holds fewer; the guess only saves
+ * their doublings, and costs address space only when too high.
  */
 const CHARACTERS_PER_NAME = 32;
 
@@ -465,13 +465,9 @@ function runHandingOut(
     defining: (name, index) => ctx.ownerItem(name, index)?.statement ?? all()[index],
     all,
   };
-  const ctx: EvalContext = new EvalContext(
-    resolved,
-    text,
-    resolved.units,
-    new NoteNames(source, text.length / CHARACTERS_PER_NAME),
-  );
-  ctx.handingOut(onItem);
+  const expected = text.length / CHARACTERS_PER_NAME;
+  const ctx: EvalContext = new EvalContext(resolved, text, resolved.units, new NoteNames(source, expected));
+  ctx.handingOut(onItem, expected);
   const parseDiagnostics: CoreDiagnostic[] = [];
   let index = 0;
   // The statements are evaluated a group at a time, in order (see `./group`).

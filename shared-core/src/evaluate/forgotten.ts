@@ -22,16 +22,33 @@ const FIRST_SLOTS = 1024;
 
 /** Plain states let go by their statement index (see the module comment). */
 export class ForgottenStates {
-  /** Per statement index: the start of its fence line, or −1 when it was not let go. */
-  private starts = new Int32Array(FIRST_SLOTS).fill(-1);
+  /**
+   * Per statement index: the start of its fence line plus one, or 0 when it was not let go (so
+   * that the slots are ready as made: zeroed).
+   */
+  private starts: Int32Array;
   /** Per statement index: the end of its fence line. */
-  private ends = new Int32Array(FIRST_SLOTS);
+  private ends: Int32Array;
   /** Per statement index: the place of its pressure basis in {@link bases}. */
-  private basisOf = new Int32Array(FIRST_SLOTS);
+  private basisOf: Int32Array;
   /** The pressure bases in force where states were let go, each once. */
   private readonly bases: PressureBasis[] = [];
 
-  constructor(private readonly text: string) {}
+  /**
+   * @param expected  about how many statements the note holds (a guess; 0 when unknown): the
+   *   slots are first made for them, rather than doubled and copied as they fill (room not used
+   *   costs address space only: the arrays are made zeroed, and no page of them is written before
+   *   a slot on it is).
+   */
+  constructor(
+    private readonly text: string,
+    expected = 0,
+  ) {
+    const n = Math.max(FIRST_SLOTS, Math.ceil(expected));
+    this.starts = new Int32Array(n);
+    this.ends = new Int32Array(n);
+    this.basisOf = new Int32Array(n);
+  }
 
   /**
    * True when `item`, made by a statement whose fence line starts at `lineStart` (−1 for a code
@@ -49,7 +66,7 @@ export class ForgottenStates {
     // to compare with; one seen before is listed again, which costs a slot and no search.
     let b = this.bases.length - 1;
     if (b < 0 || this.bases[b] !== basis) b = this.bases.push(basis) - 1;
-    this.starts[index] = lineStart;
+    this.starts[index] = lineStart + 1;
     this.ends[index] = lineEnd;
     this.basisOf[index] = b;
   }
@@ -60,18 +77,18 @@ export class ForgottenStates {
    */
   recall(ctx: EvalContext, index: number): StateResult | null {
     if (index < 0 || index >= this.starts.length) return null;
-    const start = this.starts[index]!;
+    const start = this.starts[index]! - 1;
     if (start < 0) return null;
     const stmt = parseStatementText(this.text, start, this.ends[index]!, 'fence').statement;
     if (stmt?.keyword !== 'state') return null;
-    this.starts[index] = -1;
+    this.starts[index] = 0;
     return ctx.quietly(this.bases[this.basisOf[index]!]!, () => evaluateState(ctx, stmt, index, true));
   }
 
   private grow(need: number): void {
     let n = this.starts.length * 2;
     while (n < need) n *= 2;
-    const starts = new Int32Array(n).fill(-1);
+    const starts = new Int32Array(n);
     starts.set(this.starts);
     const ends = new Int32Array(n);
     ends.set(this.ends);

@@ -4,10 +4,11 @@
  *
  * A `Map` keyed by the names costs several cache misses per name in a note of many thousand: on
  * its way to a name's slot it compares the name with the names it meets, reading each of them.
- * Here everything is kept in typed arrays, with no object per name: the slots (each name's hash
- * and its place, side by side, filled by linear probing), and per place the name's characters (one
- * pool of UTF-16 code units) and its value. Registering a name reads its own characters (for the
- * hash), one run of slots and, only when two hashes are equal, the other name's characters; a new
+ * Here everything is kept in typed arrays, with no object per name: the slots (a byte each that
+ * marks the hash of its name, and its name's place; filled by linear probing), and per place the
+ * name's hash, its characters (one pool of UTF-16 code units) and its value. Registering a name
+ * reads its own characters (for the hash), one run of marks and, only when a mark is equal, that
+ * slot's place and hash and, when the hashes are equal too, the other name's characters; a new
  * name's characters are copied to the pool. The table doubles when half full, from the hashes
  * alone. Keeping the characters rather than the strings also leaves the garbage collector nothing
  * to trace or move per name.
@@ -31,7 +32,7 @@ const FIRST_PLACES = 128;
 const FIRST_CHARS = 1024;
 
 /**
- * The most slots a table is first made with for the names it expects (2^20: 8 MB); past them it
+ * The most slots a table is first made with for the names it expects (2^20: 5 MB); past them it
  * grows as it fills.
  */
 const MOST_FIRST_SLOTS = 1 << 20;
@@ -46,12 +47,30 @@ export function nameHash(s: string): number {
   return h;
 }
 
+/**
+ * The mark of a hash in the slot it takes (1 … 255; 0 marks an empty slot): its top eight bits,
+ * which the slot's number (the low bits) does not hold.
+ */
+function markOf(h: number): number {
+  return h >>> 24 || 1;
+}
+
 /** Name → index of its first definition (see the module comment). */
 export class NameTable {
-  /** Per slot, two numbers: the hash of its name, and the name's place plus one (0 for an empty slot). */
-  private slots: Int32Array;
+  /**
+   * Per slot, one byte: the mark of the hash of its name ({@link markOf}), 0 for an empty slot.
+   * The run of slots a name is looked for in is read here, in a quarter of the memory of the
+   * places, which stays in the processor's cache for a table of many thousand names; the slot's
+   * place is read only when the marks are equal (a new name meets an equal mark about once in
+   * 255 slots).
+   */
+  private marks: Uint8Array;
+  /** Per slot: the place of its name (when its mark is not 0). */
+  private placeOfSlot: Int32Array;
   /** How many names there are (their places are 0 … count − 1, in the order they were added). */
   private count = 0;
+  /** Per place: the hash of its name (the table doubles from these, without reading the names). */
+  private hashes: Int32Array;
   /** Per place: where its name's characters start in {@link chars}; entry `count` is where the next starts. */
   private starts: Int32Array;
   /** Per place: the value of its name. */
@@ -74,7 +93,9 @@ export class NameTable {
     let slots = FIRST_SLOTS;
     while (slots < 2 * expected && slots < MOST_FIRST_SLOTS) slots *= 2;
     const places = Math.max(FIRST_PLACES, slots / 2);
-    this.slots = new Int32Array(2 * slots);
+    this.marks = new Uint8Array(slots);
+    this.placeOfSlot = new Int32Array(slots);
+    this.hashes = new Int32Array(places);
     this.starts = new Int32Array(places + 1);
     this.values = new Int32Array(places);
     this.chars = new Uint16Array(Math.max(FIRST_CHARS, places * CHARS_PER_EXPECTED_NAME));
@@ -99,12 +120,12 @@ export class NameTable {
     const place = this.find(name, h);
     if (place >= 0) return false;
     if (place === -2) return this.addToMap(name, value);
-    this.append(name, value);
-    if (this.count * 2 > this.slots.length >> 1) this.grow(h);
+    this.append(name, h, value);
+    if (this.count * 2 > this.marks.length) this.grow();
     else {
       // The slot the search ended at, free (no second probe).
-      this.slots[2 * this.free] = h;
-      this.slots[2 * this.free + 1] = this.count;
+      this.marks[this.free] = markOf(h);
+      this.placeOfSlot[this.free] = this.count - 1;
     }
     return true;
   }
@@ -114,16 +135,20 @@ export class NameTable {
    * ran longer than {@link MAX_PROBE} slots (every name is in {@link map} then).
    */
   private find(name: string, h: number): number {
-    const slots = this.slots;
-    const mask = (slots.length >> 1) - 1;
+    const marks = this.marks;
+    const mask = marks.length - 1;
+    const mark = markOf(h);
     let slot = h & mask;
     for (let probe = 0; probe < MAX_PROBE; probe++) {
-      const p = slots[2 * slot + 1]!;
-      if (p === 0) {
+      const m = marks[slot]!;
+      if (m === 0) {
         this.free = slot;
         return -1;
       }
-      if (slots[2 * slot] === h && this.isNameAt(p - 1, name)) return p - 1;
+      if (m === mark) {
+        const p = this.placeOfSlot[slot]!;
+        if (this.hashes[p] === h && this.isNameAt(p, name)) return p;
+      }
       slot = (slot + 1) & mask;
     }
     this.toMap();
@@ -146,11 +171,12 @@ export class NameTable {
     return s;
   }
 
-  /** Adds `name` with `value` at the next place (its characters to the pool). */
-  private append(name: string, value: number): void {
+  /** Adds `name`, of hash `h`, with `value` at the next place (its characters to the pool). */
+  private append(name: string, h: number, value: number): void {
     const place = this.count;
     if (place === this.values.length) {
       this.values = grown(this.values, 2 * place);
+      this.hashes = grown(this.hashes, 2 * place);
       this.starts = grown(this.starts, 2 * place + 1);
     }
     const start = this.starts[place]!;
@@ -165,35 +191,29 @@ export class NameTable {
     const chars = this.chars;
     for (let i = 0; i < name.length; i++) chars[start + i] = name.charCodeAt(i);
     this.starts[place + 1] = end;
+    this.hashes[place] = h;
     this.values[place] = value;
     this.count = place + 1;
   }
 
   /**
-   * Puts place `p` (plus one) with hash `h` in the first free slot of its run (no check for a long
-   * run: {@link find} came first).
+   * Twice the slots, every name placed again from its stored hash (the names themselves are not
+   * read), in the order of their places (the name just added last, its slot not taken yet).
    */
-  private put(h: number, p: number): void {
-    const slots = this.slots;
-    const mask = (slots.length >> 1) - 1;
-    let slot = h & mask;
-    while (slots[2 * slot + 1] !== 0) slot = (slot + 1) & mask;
-    slots[2 * slot] = h;
-    slots[2 * slot + 1] = p;
-  }
-
-  /**
-   * Twice the slots, refilled from the stored hashes (the names themselves are not read), and the
-   * name just added, of hash `h`, whose slot is not taken yet.
-   */
-  private grow(h: number): void {
-    const old = this.slots;
-    this.slots = new Int32Array(old.length * 2);
-    for (let i = 0; i < old.length; i += 2) {
-      const p = old[i + 1]!;
-      if (p !== 0) this.put(old[i]!, p);
+  private grow(): void {
+    const n = this.marks.length * 2;
+    const marks = new Uint8Array(n);
+    const placeOfSlot = new Int32Array(n);
+    const mask = n - 1;
+    for (let p = 0; p < this.count; p++) {
+      const h = this.hashes[p]!;
+      let slot = h & mask;
+      while (marks[slot] !== 0) slot = (slot + 1) & mask;
+      marks[slot] = markOf(h);
+      placeOfSlot[slot] = p;
     }
-    this.put(h, this.count);
+    this.marks = marks;
+    this.placeOfSlot = placeOfSlot;
   }
 
   /** Moves every name to {@link map} (see the module comment). */
