@@ -256,9 +256,13 @@ export function resolveQuantity(
     si = unitToSI(q.number.value, def);
     scale = def.scale;
   }
-  // A written tolerance that cannot be read is reported; else the band is worked out.
+  // A written tolerance that cannot be read is reported; else the band is worked out (the
+  // expressions of `toleranceOf`, written out here so that the band is not a double returned
+  // from a call).
   if (q.tolerance && !toleranceReadable(prop, q, q.tolerance, spec, out)) return null;
-  const toleranceSI = toleranceOf(q, spec.dimension, scale);
+  const toleranceSI = q.tolerance
+    ? writtenTolerance(q, q.tolerance, spec.dimension, scale)
+    : (claimResolution(q, spec.dimension) / 2) * Math.abs(scale);
   if (!Number.isFinite(si) || !Number.isFinite(toleranceSI)) return tooLarge(prop, q, out);
   // A property read works its figures out again when they are read, by these same expressions.
   return row ? new ReadPropertyFigure(unit, prop as PropertyNode, row) : new ReadFigure(si, unit, toleranceSI, q);
