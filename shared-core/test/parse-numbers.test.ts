@@ -69,6 +69,7 @@ describe('numbers', () => {
       value: 1.25,
       fractionDigits: 1,
       exponent: -1,
+      next: 0x78,
     });
     expect(scanNumber('\u22123', 0, 2)).toEqual({
       end: 2,
@@ -76,9 +77,25 @@ describe('numbers', () => {
       value: -3,
       fractionDigits: 0,
       exponent: 0,
+      next: -1,
     });
     expect(scanNumber('-1234567890123456789.5e-3', 0, 25).value).toBe(Number('-1234567890123456.7895'));
     expect(scanNumber('1e400', 0, 5).value).toBe(Infinity);
+    // `next` is the character the number stops at, as the text has it (-1 at the end of the range).
+    for (const [text, end, stop] of [
+      ['5ex', 1, 'e'],
+      ['5e+x', 1, 'e'],
+      ['1,234C', 5, 'C'],
+      ['1,23C', 1, ','],
+      ['2.5%', 3, '%'],
+      ['7.', 2, ''],
+      ['3e2 ', 3, ' '],
+      ['24C rh', 2, 'C'],
+    ] as const) {
+      const n = scanNumber(text, 0, text.length);
+      expect([n.end, n.next]).toEqual([end, stop === '' ? -1 : stop.charCodeAt(0)]);
+    }
+    expect(scanNumber('24C', 0, 2).next).toBe(-1);
     expect(scanNumber('\u22121234567890123456789', 0, 20).value).toBe(Number('-1234567890123456789'));
   });
 

@@ -21,13 +21,19 @@ export interface ScannedNumber {
   fractionDigits: number;
   /** The written exponent (0 when none). */
   exponent: number;
+  /**
+   * The character at {@link end}, or -1 when the scanned range ends there: read by the scan
+   * anyway (it is where the number stops), so that the caller need not read it again.
+   */
+  next: number;
 }
 
 /** 1, 10, …, 1e22: the powers of ten that a double holds exactly. */
 const EXACT_POW10: readonly number[] = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
 
+/** `0`–`9`, in one comparison (a character below `0` wraps to a large unsigned number). */
 function isDigit(c: number): boolean {
-  return c >= 0x30 && c <= 0x39;
+  return (c - 0x30) >>> 0 < 10;
 }
 
 /** Whether a number can start at `pos` (a digit, or a sign or point followed by one). */
@@ -119,8 +125,9 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
       }
       if (q < end && isDigit(text.charCodeAt(q))) {
         let e = 0;
+        let d = -1;
         while (q < end) {
-          const d = text.charCodeAt(q);
+          d = text.charCodeAt(q);
           if (!isDigit(d)) break;
           // Saturate: a huge exponent gives an infinite value or zero, reported or kept by the caller.
           if (e < 100000) e = e * 10 + (d - 0x30);
@@ -130,9 +137,12 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
         exponent = sign * e;
         pos = q;
         pack = h;
+        c = d;
       }
     }
   }
+  // The character the number stops at (`c`, read by the loop that stopped there), or -1 at the end.
+  const next = pos < end ? c : -1;
   const written = internedPackedSlice(text, start, pos, pack, wide);
   // Exact fast path: an integer below 2^53 times or divided by an exact power of ten is rounded
   // once, so it equals the correctly rounded decimal; anything else goes through Number().
@@ -145,12 +155,13 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
     const plain = grouped ? written.replaceAll(GROUP_SEPARATOR, '') : written;
     value = Number(text.charCodeAt(start) === 0x2212 ? `-${plain.slice(1)}` : plain);
   }
-  if (!into) return { end: pos, written, value, fractionDigits, exponent };
+  if (!into) return { end: pos, written, value, fractionDigits, exponent, next };
   into.end = pos;
   into.written = written;
   into.value = value;
   into.fractionDigits = fractionDigits;
   into.exponent = exponent;
+  into.next = next;
   return into;
 }
 

@@ -99,12 +99,18 @@ function isWs(c: number): boolean {
   return c <= 0x20 ? c === 0x20 || (c >= 0x09 && c <= 0x0d) : c === 0xa0 || c === 0xfeff;
 }
 
+/**
+ * The character classes below are asked of nearly every character of a note, so each is one
+ * expression without a call: `c | 0x20` folds A–Z onto a–z, and `(x - low) >>> 0 < n` tests
+ * `low <= x < low + n` in one comparison (a character below `low`, or -1 for none, wraps to a large
+ * unsigned number).
+ */
 function isAsciiLetter(c: number): boolean {
-  return (c >= 0x41 && c <= 0x5a) || (c >= 0x61 && c <= 0x7a);
+  return ((c | 0x20) - 0x61) >>> 0 < 26;
 }
 
 function isDigit(c: number): boolean {
-  return c >= 0x30 && c <= 0x39;
+  return (c - 0x30) >>> 0 < 10;
 }
 
 const LETTER = /^\p{L}/u;
@@ -122,11 +128,11 @@ function letterAt(text: string, pos: number, end: number): number {
 
 /** Whether a key can start with `c` (ASCII letter or `_`). */
 function isKeyStart(c: number): boolean {
-  return isAsciiLetter(c) || c === 0x5f;
+  return ((c | 0x20) - 0x61) >>> 0 < 26 || c === 0x5f;
 }
 
 function isKeyChar(c: number): boolean {
-  return isAsciiLetter(c) || isDigit(c) || c === 0x5f;
+  return ((c | 0x20) - 0x61) >>> 0 < 26 || (c - 0x30) >>> 0 < 10 || c === 0x5f;
 }
 
 /** Characters that end a unit (and any token of a value). */
@@ -217,7 +223,17 @@ class StatementParser {
   private savedPos = 0;
   private savedEnd = 0;
   /** The number being read ({@link scanNumber} fills it in place: one object for every number). */
-  private readonly scanned: ScannedNumber = { end: 0, written: '', value: 0, fractionDigits: 0, exponent: 0 };
+  private readonly scanned: ScannedNumber = {
+    end: 0,
+    written: '',
+    value: 0,
+    fractionDigits: 0,
+    exponent: 0,
+    next: -1,
+  };
+  /** The pack and `wide` of the unit {@link StatementParser.unitEnd} read last, for the intern table. */
+  private unitPack = PACK_START;
+  private unitWide = 0;
   /** Scratch stack of the properties being read (see {@link StatementParser.props}); `propTop` is its height. */
   private readonly propStack: PropertyNode[] = [];
   private propTop = 0;
@@ -940,7 +956,9 @@ class StatementParser {
             options!.push({ key, keySpan: this.span(start, keyEnd), word, span: this.span(start, word.span.end) });
             continue;
           }
-          if (this.peek() >= 0 && startsNumber(text, this.pos, this.end)) {
+          const v = this.peek();
+          // A digit starts a number: the usual case needs no call.
+          if (isDigit(v) || (v >= 0 && startsNumber(text, this.pos, this.end))) {
             // The usual value, a number: decided by its first character, which is all that
             // `propertyRef` (a reference starts with a letter) and `value` (a missing value is
             // an end, a comma or a `key=`) would look at before reading it as {@link quantity}.
@@ -1147,7 +1165,8 @@ class StatementParser {
     if (!number) return null;
     // What is written apart from the number (reported) is read by methods of its own, out of this
     // one, which stays short enough for the engine to compile it into its callers.
-    const unit = this.attachedUnit() ?? this.detachedUnitNode(number, context);
+    // The scan of the number read the character after it: the unit's first, if there is one.
+    const unit = this.attachedUnit(this.scanned.next) ?? this.detachedUnitNode(number, context);
     // The next significant character, read once: a tolerance sign right here (`24C±0.5`) or after
     // blanks (`24C ±0.5`, reported); anything else is the next token, where the cursor is left for
     // the caller (which would skip the same blanks to read it).
@@ -1196,7 +1215,7 @@ class StatementParser {
   private number(key?: string): ParsedNumber | null {
     const start = this.pos;
     const n = scanNumber(this.text, start, this.end, this.scanned);
-    const next = this.charAt(n.end);
+    const next = n.next;
     const value = n.value;
     const resolution = resolutionOf(n.fractionDigits, n.exponent);
     // One test for anything that may be wrong; the messages are in `numberProblem`, out of this
@@ -1267,10 +1286,26 @@ class StatementParser {
     return false;
   }
 
-  /** End of the unit written directly at `pos` (`pos` itself when there is none). */
-  private unitEnd(pos: number): number {
+  /**
+   * End of the unit written directly at `pos` (`pos` itself when there is none); `first` is the
+   * character at `pos` (-1 at the end of the piece) when the caller has read it already. The
+   * unit's pack for the intern table is made as it is read, and left in {@link unitPack} and
+   * {@link unitWide}: the one reading of a unit's characters serves both its end and its string.
+   */
+  private unitEnd(pos: number, first: number = this.charAt(pos)): number {
+    const text = this.text;
     let p = pos;
-    while (p < this.end && !endsUnit(this.text.charCodeAt(p))) p++;
+    let c = first;
+    let pack = PACK_START;
+    let wide = 0;
+    while (c >= 0 && !endsUnit(c)) {
+      pack = packStep(pack, c);
+      wide |= c;
+      p++;
+      c = p < this.end ? text.charCodeAt(p) : -1;
+    }
+    this.unitPack = pack;
+    this.unitWide = wide;
     return p;
   }
 
@@ -1360,28 +1395,20 @@ class StatementParser {
     }
     const number = this.number();
     if (!number) return null;
-    const unit = this.attachedUnit();
+    const unit = this.attachedUnit(this.scanned.next);
     return { number, unit, span: this.span(start, unit ? unit.end : number.end) };
   }
 
-  /** The unit written directly after a number, at the cursor (consumed), or null when none is. */
-  private attachedUnit(): ParsedUnit | null {
-    const text = this.text;
+  /**
+   * The unit written directly after a number, at the cursor (consumed), or null when none is;
+   * `first` is the character at the cursor (-1 at the end of the piece), which the number's scan read.
+   */
+  private attachedUnit(first: number): ParsedUnit | null {
     const unitStart = this.pos;
-    // {@link unitEnd}'s scan, packing the unit for the intern table as it goes.
-    let unitEnd = unitStart;
-    let pack = PACK_START;
-    let wide = 0;
-    while (unitEnd < this.end) {
-      const c = text.charCodeAt(unitEnd);
-      if (endsUnit(c)) break;
-      pack = packStep(pack, c);
-      wide |= c;
-      unitEnd++;
-    }
-    if (unitEnd <= unitStart) return null;
+    const unitEnd = this.unitEnd(unitStart, first);
+    if (unitEnd === unitStart) return null;
     this.consume(unitEnd);
-    return new ParsedUnit(internedPackedSlice(text, unitStart, unitEnd, pack, wide), unitStart);
+    return new ParsedUnit(internedPackedSlice(this.text, unitStart, unitEnd, this.unitPack, this.unitWide), unitStart);
   }
 }
 
