@@ -28,4 +28,4 @@ export {
   type ProjectConfig,
 } from '@dewmark/core/service';
 export type { Dimension, UnitSystem } from '@dewmark/core/units';
-export { jsonFigureOf, jsonName } from '@dewmark/core/vocabulary';
+export { jsonField, jsonFigureIn, jsonFigureOf, jsonName } from '@dewmark/core/vocabulary';

@@ -12,12 +12,18 @@
 export const JSON_SIGNIFICANT_DIGITS = 12;
 
 /** 10⁰ … 10²²: the powers of ten a double holds exactly. */
-const EXACT_POW10: readonly number[] = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
+const POW10 = Float64Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
 
-const LOG10_2 = Math.log10(2);
 /** 2³¹ and 2³². */
 const TWO_31 = 2147483648;
 const TWO_32 = 4294967296;
+
+/**
+ * For a binary exponent b (−32 … 36, at index b + 32): 11 − ⌊b·log₁₀2⌋, the decimals that
+ * leave 12 significant digits of a figure in [2^b, 2^(b+1)) when its decimal exponent is
+ * ⌊b·log₁₀2⌋ (one fewer when it is one more). A table: no multiplication and rounding per figure.
+ */
+const DECIMALS_OF_EXPONENT = Int8Array.from({ length: 69 }, (_, i) => 11 - Math.floor((i - 32) * Math.log10(2)));
 
 /** The power of ten of the last figure {@link scaledDigits} scaled: the figure is M / 10^scale. */
 let scale = 0;
@@ -32,24 +38,22 @@ let scale = 0;
 function scaledDigits(a: number): number {
   if (!(a >= 1e-6 && a < 1e11)) return -1;
   // Decimals that leave 12 significant digits: 11 − the decimal exponent of a (1 … 17), here
-  // from the binary exponent b = ⌊log₂a⌋ (the decimal exponent is ⌊b·log₁₀2⌋ or one more, which
-  // the scaling below corrects). b is counted from the leading zeros of a's whole part (a below
-  // 1 is first scaled by 2³¹, exactly; a above 2³² is given 32, one decade short at most, which
-  // the scaling corrects too): no memory is written and read back for a's bits.
+  // from the binary exponent b = ⌊log₂a⌋ (the decimal exponent is ⌊b·log₁₀2⌋ or one more: a
+  // lies in [2^b, 2^(b+1)), less than a decade). b is counted from the leading zeros of a's whole
+  // part (a below 1 is first scaled by 2³¹, exactly; a above 2³² is given 32, whose decimal
+  // exponent, 9, is still a's or one less): no memory is written and read back for a's bits.
   const b = a >= 1 ? (a < TWO_32 ? 31 - Math.clz32(a) : 32) : -Math.clz32(a * TWO_31);
-  let s = (11 - Math.floor(b * LOG10_2)) | 0;
-  let y = a * (EXACT_POW10[s] as number);
-  if (y < 1e11) {
-    s = (s + 1) | 0;
-    y = a * (EXACT_POW10[s] as number);
-  } else if (y >= 1e12) {
-    s = (s - 1) | 0;
-    y = a * (EXACT_POW10[s] as number);
-  }
-  const frac = y - Math.floor(y);
-  if (!(y >= 1e11 && y < 1e12 && (frac < 0.4999 || frac > 0.5001))) return -1;
+  let s = DECIMALS_OF_EXPONENT[b + 32]!;
+  // One decimal fewer when a has one digit more than the table assumes (13 digits scaled); the
+  // comparison is taken as a number, so that no branch hangs on which (it is either, by the figure).
+  s = (s - +(a * POW10[s]! >= 1e12)) | 0;
+  const y = a * POW10[s]!;
+  const m = Math.round(y);
+  // y − m is y's fraction, or it less 1 (both exact): within 1e-4 of ±0.5 is a tie.
+  const d = y - m;
+  if (!(y >= 1e11 && y < 1e12 && d < 0.4999 && d > -0.4999)) return -1;
   scale = s;
-  return Math.round(y);
+  return m;
 }
 
 /**
@@ -66,7 +70,7 @@ export function roundForJson(x: number | null | undefined): number | null {
   if (x === null || x === undefined || !Number.isFinite(x)) return null;
   const m = scaledDigits(x < 0 ? -x : x);
   if (m >= 0) {
-    const v = m / (EXACT_POW10[scale] as number);
+    const v = m / POW10[scale]!;
     return x < 0 ? -v : v;
   }
   const v = Number(x.toPrecision(JSON_SIGNIFICANT_DIGITS));
@@ -102,10 +106,33 @@ export function jsonKeys<const T extends readonly string[]>(names: T): { readonl
   return Object.fromEntries(names.map((n) => [n, jsonKey(n)])) as { [N in T[number]]: JsonKey };
 }
 
+/**
+ * Keys of members that are written one after another ({@link JsonWriter.figures}): their line
+ * starts are looked up once per row, not once per member.
+ */
+export interface JsonKeyRow {
+  readonly keys: readonly JsonKey[];
+  /** Whether some key is too long for a {@link TextWriter}'s buffer (its line start is written as text). */
+  readonly long: boolean;
+  /** The keys' line starts, by depth and whether the first comes first in its object (made as needed). */
+  readonly leads: Lead[][];
+}
+
+/** The row of `keys` (make it once, and write it many times). */
+export function jsonKeyRow(keys: readonly JsonKey[]): JsonKeyRow {
+  return { keys: [...keys], long: keys.some((k) => k.text.length > LONG_TEXT), leads: [] };
+}
+
 /** Receives the members of a JSON document in order (keys of one object never repeat). */
 export interface JsonWriter {
   /** A figure (a member, or an element when `key` is null), rounded by {@link roundForJson}. */
   fig(key: JsonKey | null, x: number | null | undefined): void;
+  /**
+   * Members that are figures, one after another: `row.keys[i]`'s is `xs[i]` (NaN for null), each
+   * as {@link fig} writes it. (Several at once, from an array of doubles: no figure is a boxed
+   * double on its way, and their line starts are looked up once for all.)
+   */
+  figures(row: JsonKeyRow, xs: Float64Array): void;
   /** A number as it is (a line number); NaN and ±Infinity are written as null. */
   num(key: JsonKey | null, v: number): void;
   /** A string member; an undefined value leaves the member out (as JSON.stringify does). */
@@ -137,6 +164,10 @@ export class ObjectWriter implements JsonWriter {
   }
   fig(key: JsonKey | null, x: number | null | undefined): void {
     this.put(key, roundForJson(x));
+  }
+  figures(row: JsonKeyRow, xs: Float64Array): void {
+    const keys = row.keys;
+    for (let i = 0; i < keys.length; i++) this.put(keys[i]!, roundForJson(xs[i]));
   }
   num(key: JsonKey | null, v: number): void {
     this.put(key, Number.isFinite(v) ? v : null);
@@ -354,6 +385,8 @@ export class TextWriter implements JsonWriter {
   /** The four ASCII digits of 0 … 9999 as words, and the zeros they end with (see {@link fourDigits}). */
   private readonly digitWords: Int32Array;
   private readonly digitZeros: Uint8Array;
+  /** The figure {@link fig} writes, as {@link figures} reads it. */
+  private readonly one = new Float64Array(1);
 
   constructor(
     depth: number,
@@ -460,17 +493,50 @@ export class TextWriter implements JsonWriter {
     return wordsOf(this.buf.subarray(start, this.pos));
   }
 
-  /**
-   * A figure's JSON text (see {@link figure}); the same figure as the last one after this
-   * member's line start is copied with the lead (doubles that are equal have one text: ±0 both
-   * write 0).
-   */
+  /** One figure, as {@link figures} writes it (the figure goes there in {@link one}). */
   fig(key: JsonKey | null, x: number | null | undefined): void {
-    const lead = this.member(key);
-    if (lead === null) {
-      this.figure(x);
+    const one = this.one;
+    one[0] = x === null || x === undefined ? Number.NaN : x;
+    this.figureMember(key, one, 0);
+  }
+
+  figures(row: JsonKeyRow, xs: Float64Array): void {
+    const keys = row.keys;
+    const n = keys.length;
+    if ((this.first && this.top) || row.long) {
+      // (The top value, or a key too long for the buffer: member by member, as fig does.)
+      for (let i = 0; i < n; i++) this.figureMember(keys[i]!, xs, i);
       return;
     }
+    // The keys' line starts at this depth, found once (as member() would find each).
+    const at = 2 * this.depth + (this.first ? 0 : 1);
+    let leads = row.leads[at];
+    if (leads === undefined) {
+      leads = keys.map((key, i) => leadOf(key, this.depth, i === 0 && this.first));
+      row.leads[at] = leads;
+    }
+    this.first = false;
+    for (let i = 0; i < n; i++) {
+      if (this.pos > PIECE_BYTES) this.flush();
+      this.figureAfter(leads[i]!, xs, i);
+    }
+  }
+
+  /** The member of `key` whose figure is `xs[i]` (see {@link figureAfter}). */
+  private figureMember(key: JsonKey | null, xs: Float64Array, i: number): void {
+    const lead = this.member(key);
+    if (lead === null) this.figure(xs, i);
+    else this.figureAfter(lead, xs, i);
+  }
+
+  /**
+   * The line start `lead` and the figure `xs[i]`'s JSON text (see {@link figure}); the same
+   * figure as the last one after this line start is copied with the lead (doubles that are equal
+   * have one text: ±0 both write 0). The figure is read from the array, not passed: a double
+   * passed to a call that is not inlined is boxed (a heap object).
+   */
+  private figureAfter(lead: Lead, xs: Float64Array, i: number): void {
+    const x = xs[i]!;
     if (x === lead.keptFigure) {
       this.words(lead.withFigure!);
       this.copies++;
@@ -479,8 +545,8 @@ export class TextWriter implements JsonWriter {
     const start = this.pos;
     const pieces = this.pieces;
     this.words(lead);
-    this.figure(x);
-    if (typeof x !== 'number') return;
+    this.figure(xs, i);
+    // (NaN, null, is never equal to the last figure: it is never kept.)
     if (x !== lead.lastFigure) lead.lastFigure = x;
     else {
       lead.withFigure = this.kept(start, pieces);
@@ -494,10 +560,12 @@ export class TextWriter implements JsonWriter {
    * and `0.` and zeros before a figure below 1. That is the shortest decimal that reads back as
    * the rounded figure (no other decimal of 12 digits or fewer lies within a unit of its last
    * place), in the positional form JSON uses from 1e-7 to 1e21: so exactly what
-   * `JSON.stringify(roundForJson(x))` writes. Any other figure goes through those two.
+   * `JSON.stringify(roundForJson(x))` writes. Any other figure goes through those two. (x is
+   * `xs[i]`; NaN and ±Infinity write null.)
    */
-  private figure(x: number | null | undefined): void {
-    if (x === null || x === undefined || !Number.isFinite(x)) {
+  private figure(xs: Float64Array, i: number): void {
+    const x = xs[i]!;
+    if (!Number.isFinite(x)) {
       this.ascii('null');
       return;
     }

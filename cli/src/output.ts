@@ -15,13 +15,23 @@ import {
   analyzeHandingOut,
   displaySymbol,
   displayUnit,
+  jsonField,
+  jsonFigureIn,
   jsonFigureOf,
   jsonName,
   processRow,
   stateRow,
   waterUnit,
 } from './core';
-import { type JsonWriter, ObjectWriter, type TakePiece, TextWriter, jsonKey, jsonKeys } from './jsonWriter';
+import {
+  type JsonWriter,
+  ObjectWriter,
+  type TakePiece,
+  TextWriter,
+  jsonKey,
+  jsonKeyRow,
+  jsonKeys,
+} from './jsonWriter';
 import { safeLinePath, safeText } from './sanitize';
 
 /** One checked or evaluated file. */
@@ -156,19 +166,21 @@ type JsonKeyName = Parameters<typeof jsonName>[0];
 /** A key's JSON field: its name, and its figure in the field's unit (both from the key table). */
 const keyed = (key: JsonKeyName) => ({ json: jsonKey(jsonName(key)), figure: jsonFigureOf(key) });
 
-/** The JSON fields of a state's pressure and computed properties, and of a flow. */
-const N = {
-  p: keyed('p'),
-  db: keyed('db'),
-  wb: keyed('wb'),
-  dp: keyed('dp'),
-  rh: keyed('rh'),
-  w: keyed('w'),
-  h: keyed('h'),
-  v: keyed('v'),
-  rho: keyed('rho'),
-  m: keyed('m'),
-} as const;
+/** The JSON field of a flow. */
+const N = { m: keyed('m') } as const;
+
+/**
+ * The fields of a state's figures, in the JSON's order: its pressure, then its computed
+ * properties (names and units from the key table).
+ */
+const STATE_FIELDS = (['p', 'db', 'wb', 'dp', 'rh', 'w', 'h', 'v', 'rho'] as const).map(jsonField);
+const STATE_KEYS = jsonKeyRow(STATE_FIELDS.map((f) => jsonKey(f.name)));
+/**
+ * A state's figures in their fields' units, in the order of {@link STATE_FIELDS}: filled for each
+ * state and handed to the writer whole (see {@link JsonWriter.figures}), so that no figure is a
+ * boxed double on its way (one array for every state: the writer reads it before it returns).
+ */
+const stateFigures = new Float64Array(STATE_FIELDS.length);
 
 /** The names of the other fields. */
 const K = jsonKeys([
@@ -229,15 +241,22 @@ function writeState(w: JsonWriter, s: StateResult, line: number): void {
   w.str(K.kind, s.kind);
   w.bool(K.ok, st !== null);
   // One call per field, each always the same name: much faster than a loop over the names.
-  w.fig(N.p.json, N.p.figure(s.pressure.pa));
-  w.fig(N.db.json, N.db.figure(st?.db));
-  w.fig(N.wb.json, N.wb.figure(st?.wb));
-  w.fig(N.dp.json, N.dp.figure(st?.dp));
-  w.fig(N.rh.json, N.rh.figure(st?.rh));
-  w.fig(N.w.json, N.w.figure(st?.w));
-  w.fig(N.h.json, N.h.figure(st?.h));
-  w.fig(N.v.json, N.v.figure(st?.v));
-  w.fig(N.rho.json, N.rho.figure(st?.rho));
+  // The figures by index in STATE_FIELDS' order; a state not computed has none (NaN: null).
+  const u = STATE_FIELDS;
+  const xs = stateFigures;
+  xs[0] = jsonFigureIn(u[0]!, s.pressure.pa);
+  if (st === null) xs.fill(Number.NaN, 1);
+  else {
+    xs[1] = jsonFigureIn(u[1]!, st.db);
+    xs[2] = jsonFigureIn(u[2]!, st.wb);
+    xs[3] = jsonFigureIn(u[3]!, st.dp);
+    xs[4] = jsonFigureIn(u[4]!, st.rh);
+    xs[5] = jsonFigureIn(u[5]!, st.w);
+    xs[6] = jsonFigureIn(u[6]!, st.h);
+    xs[7] = jsonFigureIn(u[7]!, st.v);
+    xs[8] = jsonFigureIn(u[8]!, st.rho);
+  }
+  w.figures(STATE_KEYS, xs);
   w.strings(K.defining, s.defining);
   w.str(K.pressure, s.pressure.describe);
   // The flow a mix, a supply or a process's leaving state carries: one field, where it first comes.

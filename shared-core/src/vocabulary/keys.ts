@@ -552,20 +552,51 @@ export function jsonFigure(key: JsonKey, si: number | null | undefined): number 
   return jsonFigureOf(key)(si);
 }
 
+/**
+ * A key's JSON field as data: its name, and the factors of its unit, from the key's row (1 when
+ * the row gives none): its figure is {@link jsonFigureIn}.
+ */
+export interface JsonField {
+  readonly name: string;
+  readonly times: number;
+  readonly over: number;
+}
+
+/** The fields of {@link jsonField}, by key (made as asked). */
+const fieldOf = new Map<JsonKey, JsonField>();
+
+/** A key's JSON field (its row looked up once). */
+export function jsonField(key: JsonKey): JsonField {
+  let f = fieldOf.get(key);
+  if (f === undefined) {
+    const json: NonNullable<KeySpec['json']> = keySpec(key).json!;
+    f = Object.freeze({ name: json.name, times: json.times ?? 1, over: json.over ?? 1 });
+    fieldOf.set(key, f);
+  }
+  return f;
+}
+
+/**
+ * A figure in the unit of a JSON field, from the SI base: (si × times) / over — the one home of
+ * that conversion (NaN and ±Infinity stay so). Small, so that a writer of many figures that keeps
+ * them in a Float64Array has it inlined: no call and no boxed double per figure.
+ */
+export function jsonFigureIn(field: JsonField, si: number): number {
+  return (si * field.times) / field.over;
+}
+
 /** The converters of {@link jsonFigureOf}, by key (made as asked). */
 const figureOf = new Map<JsonKey, (si: number | null | undefined) => number | null>();
 
 /**
  * {@link jsonFigure} of one key, its row looked up once: the key's figures in the unit of its JSON
- * field, for writing the key's figure of many states (small enough to be inlined where it is called).
+ * field, for writing the key's figure of many states.
  */
 export function jsonFigureOf(key: JsonKey): (si: number | null | undefined) => number | null {
   let f = figureOf.get(key);
   if (f === undefined) {
-    const json: NonNullable<KeySpec['json']> = keySpec(key).json!;
-    const times = json.times ?? 1;
-    const over = json.over ?? 1;
-    f = (si) => (si === null || si === undefined || !Number.isFinite(si) ? null : (si * times) / over);
+    const field = jsonField(key);
+    f = (si) => (si === null || si === undefined || !Number.isFinite(si) ? null : jsonFigureIn(field, si));
     figureOf.set(key, f);
   }
   return f;
@@ -573,5 +604,5 @@ export function jsonFigureOf(key: JsonKey): (si: number | null | undefined) => n
 
 /** The JSON field name of a key. */
 export function jsonName(key: JsonKey): string {
-  return keySpec(key).json!.name;
+  return jsonField(key).name;
 }
