@@ -77,10 +77,15 @@ export function roundForJson(x: number | null | undefined): number | null {
   return Object.is(v, -0) ? 0 : v;
 }
 
+/** A string or key at most this long is written into the buffer; a longer one is handed out on its own. */
+const LONG_TEXT = 4096;
+
 /** A member's name, with the text a writer puts before its value (`"name": `, as UTF-8). */
 export interface JsonKey {
   readonly name: string;
   readonly text: Uint8Array;
+  /** Whether the text is too long for a {@link TextWriter}'s buffer (it is written as a piece of its own). */
+  readonly long: boolean;
   /** The line starts with this key that a {@link TextWriter} has written, by depth (made as needed). */
   readonly leads: Lead[];
 }
@@ -94,7 +99,8 @@ const MAX_KEYS = 1024;
 export function jsonKey(name: string): JsonKey {
   let key = KEYS.get(name);
   if (key === undefined) {
-    key = { name, text: Buffer.from(`${JSON.stringify(name)}: `, 'utf8'), leads: [] };
+    const text = Buffer.from(`${JSON.stringify(name)}: `, 'utf8');
+    key = { name, text, long: text.length > LONG_TEXT, leads: [] };
     // The keys written are the document's few dozen names; a plain value's keys are kept too, up to a bound.
     if (KEYS.size < MAX_KEYS) KEYS.set(name, key);
   }
@@ -120,7 +126,7 @@ export interface JsonKeyRow {
 
 /** The row of `keys` (make it once, and write it many times). */
 export function jsonKeyRow(keys: readonly JsonKey[]): JsonKeyRow {
-  return { keys: [...keys], long: keys.some((k) => k.text.length > LONG_TEXT), leads: [] };
+  return { keys: [...keys], long: keys.some((k) => k.long), leads: [] };
 }
 
 /** Receives the members of a JSON document in order (keys of one object never repeat). */
@@ -217,8 +223,6 @@ export function pieceText(piece: Uint8Array): string {
 /** Bytes of text a {@link TextWriter} hands out at a time (about). */
 const PIECE_BYTES = 1 << 15;
 
-/** A string or key at most this long is written into the buffer; a longer one is handed out on its own. */
-const LONG_TEXT = 4096;
 
 /** Whether `c` (a UTF-16 code unit) is written in a JSON string as itself, and in one byte. */
 const plainAscii = (c: number): boolean => c >= 0x20 && c < 0x7f && c !== 0x22 && c !== 0x5c;
@@ -471,7 +475,7 @@ export class TextWriter implements JsonWriter {
       this.top = false;
       return null;
     }
-    if (key !== null && key.text.length > LONG_TEXT) {
+    if (key !== null && key.long) {
       this.text(`${first ? '' : ','}\n${'  '.repeat(this.depth)}${JSON.stringify(key.name)}: `);
       return null;
     }
@@ -625,12 +629,34 @@ export class TextWriter implements JsonWriter {
     else this.ascii(Number.isFinite(v) ? `${v}` : 'null');
   }
 
-  /** Writes a whole number 0 ≤ n < 10⁹ (a line number) as its digits. */
+  /**
+   * Writes a whole number 0 ≤ n < 10⁹ (a line number) as its digits: those below 10⁸ as one or
+   * two groups of four from the table (the first without its leading zeros), any other digit by digit.
+   */
   private whole(n: number): void {
+    const view = this.view;
+    const digits = this.digitWords;
+    let p = this.pos;
+    if (n < 100000000) {
+      const high = (n / 10000) | 0;
+      const low = (n - high * 10000) | 0;
+      const first = high === 0 ? low : high;
+      // The first group's digits, its leading zeros shifted out (the bytes past them are written
+      // over by what follows: the buffer has room for four).
+      const length = first < 10 ? 1 : first < 100 ? 2 : first < 1000 ? 3 : 4;
+      view.setInt32(p, digits[first]! >>> (32 - 8 * length), true);
+      p += length;
+      if (high !== 0) {
+        view.setInt32(p, digits[low]!, true);
+        p += 4;
+      }
+      this.pos = p;
+      return;
+    }
     let length = 1;
     for (let t = n; t >= 10; t = (t / 10) | 0) length++;
     const buf = this.buf;
-    let p = (this.pos + length) | 0;
+    p = (p + length) | 0;
     this.pos = p;
     let rest = n;
     do {
@@ -721,25 +747,18 @@ export class TextWriter implements JsonWriter {
    * state's defining keys) are copied whole, with the lead, the brackets and the indentation.
    */
   strings(key: JsonKey | null, v: readonly string[]): void {
-    // The lead `member` will give (none for the top value or a key too long for the buffer).
-    const lead =
-      (this.first && this.top) || (key !== null && key.text.length > LONG_TEXT)
-        ? null
-        : leadOf(key, this.depth, this.first);
+    const lead = this.member(key);
     if (lead !== null && lead.keptStrings !== null && sameStrings(v, lead.keptStrings)) {
-      this.member(key);
       this.words(lead.withStrings!);
       this.copies++;
       return;
     }
-    if (this.pos > PIECE_BYTES) this.flush();
     const start = this.pos;
     const pieces = this.pieces;
-    if (v.length === 0) {
-      this.begin(key);
-      this.ascii('[]');
-    } else {
-      this.openArray(key);
+    if (lead !== null) this.words(lead);
+    if (v.length === 0) this.ascii('[]');
+    else {
+      this.enter(0x5b); // [
       // By index: an iterator's result objects are not always optimised away (one per name).
       for (let i = 0; i < v.length; i++) this.str(null, v[i]!);
       this.closeArray();
@@ -787,16 +806,18 @@ export class TextWriter implements JsonWriter {
   }
   open(key: JsonKey | null): void {
     this.begin(key);
-    this.buf[this.pos++] = 0x7b; // {
-    this.depth++;
-    this.first = true;
+    this.enter(0x7b); // {
   }
   close(): void {
     this.leave('}');
   }
   openArray(key: JsonKey | null): void {
     this.begin(key);
-    this.buf[this.pos++] = 0x5b; // [
+    this.enter(0x5b); // [
+  }
+  /** Writes an opening bracket (after its line start): its members follow, one level deeper. */
+  private enter(bracket: number): void {
+    this.buf[this.pos++] = bracket;
     this.depth++;
     this.first = true;
   }

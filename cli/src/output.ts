@@ -130,26 +130,36 @@ function lineOf(f: FileResult, item: StateResult | ProcessResult): number {
 }
 
 /**
- * The 1-based lines of a note's items, taken in document order: each found by stepping on a few
- * lines from the last one, else (an item far ahead, or behind) by the index's binary search.
+ * The 1-based lines of a note's items, taken in document order: the line breaks from the last
+ * item to the next are counted in the text by the native search, so that no index of the note's
+ * lines need be made for them (a note's items are most of its lines); an item behind the last
+ * one, and any item of a text with a line break other than `\n`, is found by the file's line index.
  */
 class ItemLines {
+  /** Whether every line break of the text is `\n`. */
+  private readonly plain: boolean;
+  /** The offset last asked for, its 0-based line, and the first `\n` at or after it (−1: none). */
+  private offset = 0;
   private line = 0;
-  constructor(private readonly lines: LineIndex) {}
+  private next: number;
+  constructor(private readonly file: CheckedFile) {
+    this.plain = file.text.indexOf('\r') < 0;
+    this.next = file.text.indexOf('\n');
+  }
   of(item: StateResult | ProcessResult): number {
     const offset = (item.statement.name?.span ?? item.statement.span).start;
-    const idx = this.lines;
-    let l = this.line;
-    if (offset >= idx.lineStart(l)) {
-      const last = idx.lineCount - 1;
-      for (let k = 0; l < last && idx.lineStart(l + 1) <= offset; k++, l++)
-        if (k === 8) {
-          l = idx.lineAt(offset);
-          break;
-        }
-    } else l = idx.lineAt(offset);
-    this.line = l;
-    return l + 1;
+    if (!this.plain || offset < this.offset) return this.file.lines.lineCol(offset).line;
+    const text = this.file.text;
+    let line = this.line;
+    let i = this.next;
+    while (i >= 0 && i < offset) {
+      line++;
+      i = text.indexOf('\n', i + 1);
+    }
+    this.offset = offset;
+    this.line = line;
+    this.next = i;
+    return line + 1;
   }
 }
 
@@ -408,22 +418,23 @@ function analysedParts(f: FileResult): EvalFileParts {
  */
 function writeEvalFile(w: JsonWriter, parts: EvalFileParts): void {
   const f = parts.file;
-  const lines = new ItemLines(f.lines);
+  const lines = new ItemLines(f);
+  // The processes come after the states: each is kept with its line, found as it comes.
   const processes: ProcessResult[] = [];
+  const processLines: number[] = [];
   w.open(null);
   w.str(K.path, f.path);
   w.str(K.units, parts.units);
   w.openArray(K.states);
   parts.items((item) => {
-    if (item.kind === 'process') processes.push(item);
-    else writeState(w, item, lines.of(item));
+    if (item.kind === 'process') {
+      processes.push(item);
+      processLines.push(lines.of(item));
+    } else writeState(w, item, lines.of(item));
   });
   w.closeArray();
   w.openArray(K.processes);
-  for (let i = 0; i < processes.length; i++) {
-    const p = processes[i]!;
-    writeProcess(w, p, lines.of(p));
-  }
+  for (let i = 0; i < processes.length; i++) writeProcess(w, processes[i]!, processLines[i]!);
   w.closeArray();
   w.openArray(K.diagnostics);
   for (const d of parts.diagnostics()) {
@@ -483,8 +494,17 @@ export function evalNoteText(
   if (!evaluation) return null;
   let diagnostics: readonly CoreDiagnostic[] = [];
   const w = new TextWriter(depth, emit);
+  // The note's line index is made only if a diagnostic needs it (the items' lines are counted).
+  let lines: LineIndex | undefined;
   writeEvalFile(w, {
-    file: { path, text, lines: new LineIndex(text) },
+    file: {
+      path,
+      text,
+      get lines() {
+        lines ??= new LineIndex(text);
+        return lines;
+      },
+    },
     units: evaluation.units,
     items: (each) => {
       diagnostics = evaluation.run(each).diagnostics;
