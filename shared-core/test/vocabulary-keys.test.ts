@@ -18,7 +18,9 @@ import {
   KEYS,
   type KeySpec,
   type KeyStatement,
+  jsonField,
   jsonFigure,
+  jsonFigureIn,
   jsonFigureOf,
   keySpec,
 } from '../src/vocabulary/keys';
@@ -223,7 +225,11 @@ describe("the JSON fields' units come from the table", () => {
         const want = (si * (json.times ?? 1)) / (json.over ?? 1);
         expect(convert(si), `${key} ${si}`).toBe(want);
         expect(jsonFigure(key, si), `${key} ${si}`).toBe(want);
+        // The same conversion from the field as data (what a writer of many figures applies itself).
+        expect(jsonFigureIn(jsonField(key), si), `${key} ${si}`).toBe(want);
       }
+      expect(jsonField(key)).toEqual({ name: json.name, times: json.times ?? 1, over: json.over ?? 1 });
+      expect(jsonFigureIn(jsonField(key), Number.NaN)).toBeNaN();
       for (const none of [null, undefined, Number.NaN, Number.POSITIVE_INFINITY]) expect(convert(none)).toBeNull();
     }
     // The units the table gives (common practice: 1 kJ/kg = 1000 J/kg, 1 kPa = 1000 Pa, % = fraction × 100).
