@@ -223,7 +223,6 @@ export function pieceText(piece: Uint8Array): string {
 /** Bytes of text a {@link TextWriter} hands out at a time (about). */
 const PIECE_BYTES = 1 << 15;
 
-
 /** Whether `c` (a UTF-16 code unit) is written in a JSON string as itself, and in one byte. */
 const plainAscii = (c: number): boolean => c >= 0x20 && c < 0x7f && c !== 0x22 && c !== 0x5c;
 

@@ -23,15 +23,7 @@ import {
   stateRow,
   waterUnit,
 } from './core';
-import {
-  type JsonWriter,
-  ObjectWriter,
-  type TakePiece,
-  TextWriter,
-  jsonKey,
-  jsonKeyRow,
-  jsonKeys,
-} from './jsonWriter';
+import { type JsonWriter, ObjectWriter, type TakePiece, TextWriter, jsonKey, jsonKeyRow, jsonKeys } from './jsonWriter';
 import { safeLinePath, safeText } from './sanitize';
 
 /** One checked or evaluated file. */

@@ -41,7 +41,7 @@ function stringifiedAt(value: unknown, depth: number): string {
 function edgeFigures(): number[] {
   const xs = [1e-6, 9.99999999999e-7, 1e-7, 1.5e-7, 1e11, 99999999999.95, 99999999999.4, 1e11 - 1e-5];
   xs.push(1234567890.125, 2.5, 0.5, 0.125, 101.325, 84.5, 24, 24.5, 0.0093, 3.3e-6, 123456789012.5, 5e-324);
-  xs.push(9.9999999999995, 9.99999999999949, 0.99999999999999, 100.000000000049, 1.00000000000050);
+  xs.push(9.9999999999995, 9.99999999999949, 0.99999999999999, 100.000000000049, 1.0000000000005);
   xs.push(0, -0, 1e21, 1e22, Number.MAX_VALUE, Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY);
   // Every binary exponent of the fast range (the decimals come from a table by exponent), just
   // below and above each power of two, and each power of ten.
@@ -49,7 +49,8 @@ function edgeFigures(): number[] {
     const a = 2 ** b;
     xs.push(a, a * (1 - 2 ** -52), a * (1 + 2 ** -52), a * 1.9999999999);
   }
-  for (let k = -7; k <= 12; k++) xs.push(10 ** k, 10 ** k * (1 - 1e-13), 10 ** k * (1 + 1e-13), 10 ** k - 10 ** (k - 12) / 2);
+  for (let k = -7; k <= 12; k++)
+    xs.push(10 ** k, 10 ** k * (1 - 1e-13), 10 ** k * (1 + 1e-13), 10 ** k - 10 ** (k - 12) / 2);
   // Figures with trailing zeros after the point, and whole figures of every length.
   for (let k = 0; k < 12; k++) xs.push(1.5 * 10 ** k, 7 * 10 ** (k - 6), 123 * 10 ** (k - 4));
   return [...xs, ...xs.map((x) => -x)];
@@ -75,7 +76,8 @@ describe('a row of figures from an array of doubles', () => {
   it('writes each figure as fig() does and as JSON.stringify writes the rounded figure, at every edge', () => {
     const xs = edgeFigures();
     const rows: Float64Array[] = [];
-    for (let i = 0; i < xs.length; i += 9) rows.push(Float64Array.from({ length: 9 }, (_, k) => xs[(i + k) % xs.length]!));
+    for (let i = 0; i < xs.length; i += 9)
+      rows.push(Float64Array.from({ length: 9 }, (_, k) => xs[(i + k) % xs.length]!));
     for (const named of [true, false]) {
       for (const depth of [0, 3]) {
         const objects = new ObjectWriter();
