@@ -45,14 +45,16 @@ const NO_KEYS: readonly string[] = [];
  * written twice (the first one counts), and the unit diagnostics of {@link readQuantity}.
  * A reference value (`w=OA.w`) is read where it stands (see `./refs`): in `statement`, number
  * `index` of the note, which takes references when `allowed`.
- * @param what  the statement, for messages ("state OA", "site").
+ * @param what  the statement, for messages ("state OA", "site"): the words, or the function
+ *   that gives them for `statement` (called only when a message is made: the words of a state
+ *   would otherwise be a string made for every state, and read for few).
  */
-export function readProps(
+export function readProps<S extends Statement>(
   ctx: EvalContext,
   props: PropertyNode[],
   table: Readonly<Record<string, KeySpec>>,
-  what: string,
-  statement: Statement,
+  what: string | ((statement: S) => string),
+  statement: S,
   index: number,
   allowed: boolean,
 ): ReadProps {
@@ -74,7 +76,7 @@ export function readProps(
     const prop = props[i]!;
     const spec = rowOf(table, prop.key);
     if (!spec) {
-      unknownKey(ctx, prop, table, what, statement);
+      unknownKey(ctx, prop, table, whatText(what, statement), statement);
       unknownKeys++;
       continue;
     }
@@ -83,14 +85,14 @@ export function readProps(
     // line), so a linear scan of those beats a Map here and stays linear in the line.
     const first = firstWithKey(out, n, broken, spec.key);
     if (first) {
-      duplicateKey(ctx, prop, first, what, statement);
+      duplicateKey(ctx, prop, first, whatText(what, statement), statement);
       continue;
     }
     // A reference, or the property read as its own quantity (one object: `ReadPropertyFigure`);
     // null when it could not be read (a value missing is the parser's syntax error, reported).
     if (prop.ref) refs ??= { statement, index, allowed };
     const read = prop.ref
-      ? referenceRead(ctx, prop, prop.ref, spec, refs!, what)
+      ? referenceRead(ctx, prop, prop.ref, spec, refs!, whatText(what, statement))
       : prop.value === null
         ? null
         : (resolveQuantity(prop, prop.value, spec, ctx, spec) as ReadPropertyFigure | null);
@@ -113,6 +115,11 @@ export function readProps(
     pressure,
     references,
   };
+}
+
+/** The words of `what` for `statement` (see {@link readProps}). */
+function whatText<S extends Statement>(what: string | ((statement: S) => string), statement: S): string {
+  return typeof what === 'string' ? what : what(statement);
 }
 
 /** True for a key that sets a statement's pressure rather than describing its air. */

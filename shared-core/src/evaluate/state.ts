@@ -224,18 +224,18 @@ function setInput(input: Record<DefiningKey, number | undefined>, k: DefiningKey
 export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: number, owner: boolean): StateResult {
   void owner;
   const name = stmt.name?.text ?? '';
-  const what = name ? `state ${name}` : 'this state';
-  const read = readProps(ctx, stmt.props, STATE_KEYS, what, stmt, index, true);
+  // The words of the state in messages (`stateWhat`) are made only when a message is.
+  const read = readProps(ctx, stmt.props, STATE_KEYS, stateWhat, stmt, index, true);
   const { props } = read;
   // The site's pressure, unless the state sets its own (or could not read it).
   let pressure = ctx.site;
   let failed = false;
   if (read.broken.length > 0 || read.pressure > 0)
-    ({ pressure, failed } = statePressure(ctx, props, read.broken, what));
-  const candidates = failed ? null : definingCandidates(ctx, props, read, what, stmt);
-  const state = candidates ? solveFirstPair(ctx, candidates, pressure, what) : null;
-  // The pair it was solved from: candidates `solvedAt` and `solvedAt + 1` (read before anything
-  // else solves a state).
+    ({ pressure, failed } = statePressure(ctx, props, read.broken, stateWhat(stmt)));
+  const candidates = failed ? null : definingCandidates(ctx, props, read, stmt);
+  const state = candidates ? solveFirstPair(ctx, candidates, pressure, stmt) : null;
+  // The pair it was solved from: candidates `solvedAt` and `solvedAt + 1`, its keys `solvedKeys`
+  // (read before anything else solves a state).
   const a = state ? candidates![solvedAt]! : null;
   const b = state ? candidates![solvedAt + 1]! : null;
   const result: StateResult = {
@@ -244,7 +244,7 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
     statement: stmt,
     state,
     pressure,
-    defining: a && b ? definingPair(a.key as DefiningKey, b.key as DefiningKey) : EMPTY,
+    defining: state ? solvedKeys : EMPTY,
     claims: state && a && b ? claimsBeyondPair(ctx, props, a, b, state, pressure) : EMPTY,
   };
   if (read.references > 0) {
@@ -252,6 +252,12 @@ export function evaluateState(ctx: EvalContext, stmt: StateStatement, index: num
     if (sources) result.sources = sources;
   }
   return result;
+}
+
+/** A state statement as messages name it: `state OA`, or `this state` when it has no name. */
+function stateWhat(stmt: StateStatement): string {
+  const name = stmt.name?.text ?? '';
+  return name ? `state ${name}` : 'this state';
 }
 
 /** The claims of a solved state: every property written beyond its defining pair and its pressure. */
@@ -306,22 +312,21 @@ function definingCandidates(
   ctx: EvalContext,
   props: ReadProp[],
   read: ReadProps,
-  what: string,
   stmt: StateStatement,
 ): readonly ReadProp[] | null {
   const defs = read.defining === props.length ? props : props.filter(isDefiningProp);
   if (defs.length < 2) {
-    underspecified(ctx, props, defs, read, what, stmt.name?.span ?? stmt.keywordSpan);
+    underspecified(ctx, props, defs, read, stateWhat(stmt), stmt.name?.span ?? stmt.keywordSpan);
     return null;
   }
   const refs = read.references > 0 && defs.some(isReference) ? defs.filter(isReference) : NO_PROPS;
   if (refs.length > 2) {
-    tooManyReferences(ctx, refs, what);
+    tooManyReferences(ctx, refs, stateWhat(stmt));
     return null;
   }
   const candidates = pairsHolding(candidatePairs(defs), refs);
   if (candidates.length === 0) {
-    noIndependentPair(ctx, defs, refs, what);
+    noIndependentPair(ctx, defs, refs, stateWhat(stmt));
     return null;
   }
   return candidates;
@@ -394,6 +399,8 @@ const NO_PROPS: readonly ReadProp[] = [];
  * rather than an object of three fields made per state.)
  */
 let solvedAt = -1;
+/** The list of that pair's keys (`definingPair`), found once for the solve and the result. */
+let solvedKeys: DefiningKey[] = EMPTY;
 
 /** The span of each written key of the candidates, for messages (built only when one is reported). */
 function spansOfCandidates(candidates: readonly ReadProp[]): Map<string, Span> {
@@ -408,7 +415,7 @@ function allOf(candidates: readonly ReadProp[]): ReadProp[] {
 /**
  * Solves the first candidate pair that is not dependent at the state's pressure (reporting the
  * engine's warnings, and its problem when the pair gives no state): the state, its pair's place
- * in {@link solvedAt}; null when none gives one.
+ * in {@link solvedAt} and its keys in {@link solvedKeys}; null when none gives one.
  * (The reports are functions of their own, so that this one stays small enough for the engine to
  * build into its caller.)
  */
@@ -416,7 +423,7 @@ function solveFirstPair(
   ctx: EvalContext,
   candidates: readonly ReadProp[],
   pressure: PressureBasis,
-  what: string,
+  stmt: StateStatement,
 ): MoistAirState | null {
   let lastDependent: PhysicsProblem | null = null;
   for (let k = 0; k + 1 < candidates.length; k += 2) {
@@ -424,32 +431,35 @@ function solveFirstPair(
     const b = candidates[k + 1]!;
     const ka = a.key as DefiningKey;
     const kb = b.key as DefiningKey;
+    const keys = definingPair(ka, kb);
     const solved = solveOrProblem(
       ctx.solve,
       pairInput(ka, a.q.si, kb, b.q.si),
       pressure.pa,
       ALLOW_FOG,
       'check the figures',
-      definingPair(ka, kb),
+      keys,
     );
     if (!solved.ok) {
       if (solved.problem.code === 'dependent-pair') {
         lastDependent = solved.problem;
         continue;
       }
-      reportProblem(ctx, solved.problem, candidates, [a, b], pressure, what);
+      reportProblem(ctx, solved.problem, candidates, [a, b], pressure, stateWhat(stmt));
       return null;
     }
     if (!stateFinite(solved.state)) {
-      reportNotFinite(ctx, solved.warnings, a, b, spanOf(spansOfCandidates(candidates), [a, b]), pressure, what);
+      const span = spanOf(spansOfCandidates(candidates), [a, b]);
+      reportNotFinite(ctx, solved.warnings, a, b, span, pressure, stateWhat(stmt));
       return null;
     }
     if (solved.warnings.length > 0 || isIllConditionedPair(ka, kb))
-      reportWarnings(ctx, solved.warnings, candidates, a, b, what);
+      reportWarnings(ctx, solved.warnings, candidates, a, b, stateWhat(stmt));
     solvedAt = k;
+    solvedKeys = keys;
     return solved.state;
   }
-  if (lastDependent) reportProblem(ctx, lastDependent, candidates, allOf(candidates), null, what);
+  if (lastDependent) reportProblem(ctx, lastDependent, candidates, allOf(candidates), null, stateWhat(stmt));
   return null;
 }
 
