@@ -474,7 +474,7 @@ export class TextWriter implements JsonWriter {
       this.top = false;
       return null;
     }
-    if (key !== null && key.long) {
+    if (key?.long) {
       this.text(`${first ? '' : ','}\n${'  '.repeat(this.depth)}${JSON.stringify(key.name)}: `);
       return null;
     }
