@@ -101,8 +101,10 @@ describe('the body lines of a fence, kept as offsets until read', () => {
     expect(Object.getOwnPropertyDescriptor(region, 'lines')?.get).toBeTypeOf('function');
     const lines = region.lines;
     expect(lines).toEqual([...(offsets?.starts ?? [])].map((start, i) => ({ start, end: offsets?.ends[i] })));
-    // Made once: a plain field from then on, the same array and spans at every read.
+    // Made once: a plain field from then on, the same array and spans at every read; the offsets
+    // are let go (the spans hold them).
     expect(Object.getOwnPropertyDescriptor(region, 'lines')?.value).toBe(lines);
+    expect(lineOffsetsOf(region)).toBeUndefined();
     expect(region.lines).toBe(lines);
     expect(Object.keys(region)).toEqual(['origin', 'span', 'contentSpan', 'lines', 'info', 'closed']);
     expect(JSON.parse(JSON.stringify(region)).lines).toEqual(lines);

@@ -35,8 +35,8 @@ function settle(holder: object, lines: Span[]): void {
 /**
  * Gives `holder` a field `lines` (enumerable, where a `lines` field already is, so the object's
  * fields keep their order) whose spans are made at its first read from `offsets`, or read from
- * `source.lines` when given (two objects that describe the same block share one list). Writing
- * the field makes it a plain one, and the offsets are forgotten.
+ * `source.lines` when given (two objects that describe the same block share one list). Read or
+ * written, the field becomes a plain one, and the offsets are forgotten (the spans hold them).
  */
 export function lazyLines(holder: { lines: Span[] }, offsets: LineOffsets, source?: { lines: Span[] }): void {
   offsetsOf.set(holder, offsets);
@@ -45,6 +45,7 @@ export function lazyLines(holder: { lines: Span[] }, offsets: LineOffsets, sourc
     configurable: true,
     get(this: { lines: Span[] }): Span[] {
       const lines = source ? source.lines : spansOf(offsets);
+      offsetsOf.delete(this);
       settle(this, lines);
       return lines;
     },
@@ -56,8 +57,9 @@ export function lazyLines(holder: { lines: Span[] }, offsets: LineOffsets, sourc
 }
 
 /**
- * The line offsets behind `holder.lines` when that list is made on read ({@link lazyLines}) and
- * was never written since (read or not, its spans are these offsets); undefined otherwise.
+ * The line offsets behind `holder.lines` while that list is still to be made on read
+ * ({@link lazyLines}); undefined once it was read or written, or when it never was one (a reader
+ * then reads `lines`).
  */
 export function lineOffsetsOf(holder: object): LineOffsets | undefined {
   return offsetsOf.get(holder);

@@ -19,7 +19,7 @@ export interface FenceRegion extends AirRegion {
   origin: 'fence';
   /**
    * Each body line's content: one statement (or blank, or a comment) per line. Made at its first
-   * read (`./lines`); `lineOffsetsOf(region)` gives the same lines as offsets without making it.
+   * read (`./lines`); until then `lineOffsetsOf(region)` gives the same lines as offsets.
    */
   lines: Span[];
   /** The whole info string (`air`, or `air` followed by more words). */

@@ -31,7 +31,7 @@ export interface FenceBlock {
   contentSpan: Span;
   /**
    * Each body line's content (container prefixes and fence indentation removed, no line break);
-   * made at its first read (`lineOffsetsOf` of `./lines` gives the offsets without making it).
+   * made at its first read (until then `lineOffsetsOf` of `./lines` gives the offsets).
    */
   lines: Span[];
   /** The info string, backslash escapes and entities resolved, trimmed. */
