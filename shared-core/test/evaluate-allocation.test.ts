@@ -29,15 +29,21 @@ function statesNote(n: number): string {
   return lines.join('\n');
 }
 
+/** A pause in which the engine's compiler threads can finish and install what they compile. */
+const settle = (): Promise<void> => new Promise((resolve) => setTimeout(resolve, 25));
+
 /**
- * `run` made warm (compiled) first, then its bytes per call of `calls`: the least of three counts
- * (a count taken while the engine is still compiling a part of `run` holds that part's first,
- * slower form).
+ * `run` made warm (compiled) first, then its bytes per call of `calls`: the least of five counts,
+ * each after a pause (a count taken while the engine is still compiling a part of `run` on its
+ * threads, which on a busy machine may take a while, holds that part's first, slower form).
  */
 async function bytesPerCall(calls: number, run: () => void): Promise<number> {
-  for (let i = 0; i < 5; i++) run();
+  for (let i = 0; i < 10; i++) run();
   let least = Number.POSITIVE_INFINITY;
-  for (let i = 0; i < 3; i++) least = Math.min(least, await allocatedBytes(run));
+  for (let i = 0; i < 5; i++) {
+    await settle();
+    least = Math.min(least, await allocatedBytes(run));
+  }
   return least / calls;
 }
 
