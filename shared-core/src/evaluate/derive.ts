@@ -41,7 +41,7 @@ import type { CoreDiagnostic, ProcessStatement, PropertyNode } from '../notation
 import type { Span } from '../text/types';
 import type { EvalContext } from './context';
 import { DERIVE_KEY_NAMES, PROCESS_KEYS, PROCESS_WORDS, isDefiningKey } from './keys';
-import { problemDiagnostic } from './problems';
+import { problemDiagnostic, problemMessage } from './problems';
 import type { ReadProp } from './props';
 import { candidatePairs, pairsHolding, stateClaims, stateFinite, writtenList } from './state';
 import type { ClaimResult, EquipmentResult, StateResult } from './types';
@@ -131,7 +131,7 @@ function problemReport(
   return {
     code: p.code === 'unreachable' ? 'spec-unreachable' : 'out-of-range',
     severity: 'error',
-    message: `${what}: ${texts.message}; ${texts.fix}`,
+    message: problemMessage(what, texts),
     span: prop ? prop.prop.span : fallback,
   };
 }

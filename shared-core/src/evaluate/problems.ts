@@ -32,12 +32,10 @@ export function problemDiagnostic(
   const span = spans.length > 0 ? spanUnion(...spans) : fallback;
   const sev = WARNING_CODES.has(problem.code) ? 'warning' : severity;
   const texts = problemTexts(problem, system);
-  const msg = ensureSentence(texts.message);
-  const fix = texts.fix ? ` ${ensureSentence(capitalize(texts.fix))}` : '';
   const d: CoreDiagnostic = {
     code: problem.code,
     severity: sev,
-    message: `${where}: ${msg}${fix}`,
+    message: problemMessage(where, texts),
     span,
     data: { keys: [...(problem.keys ?? [])], fix: texts.fix },
   };
@@ -58,6 +56,15 @@ export function problemOf(err: unknown): PhysicsProblem {
     fix: 'check the figures',
     keys: [],
   };
+}
+
+/**
+ * A problem's diagnostic text: where it is, what is wrong and how to fix it, each a sentence
+ * (`Coil CC-1: The coil … . Use …`) — the one form of every problem's message.
+ */
+export function problemMessage(where: string, texts: { message: string; fix: string }): string {
+  const fix = texts.fix ? ` ${ensureSentence(capitalize(texts.fix))}` : '';
+  return `${where}: ${ensureSentence(texts.message)}${fix}`;
 }
 
 function ensureSentence(s: string): string {

@@ -21,6 +21,7 @@ import { enteringState } from './mix';
 import { buildProcessResult } from './process';
 import type { ReadProp } from './props';
 import { readProps } from './props';
+import { problemMessage } from './problems';
 import type { ClaimResult, ProcessResult, StateResult } from './types';
 import { suggestName } from '../text/suggest';
 
@@ -123,7 +124,7 @@ export function evaluateRecover(ctx: EvalContext, stmt: RecoverStatement, index:
     ctx.report({
       code: r.problem.code === 'unreachable' ? 'spec-unreachable' : 'out-of-range',
       severity: 'error',
-      message: `${what}: ${texts.message}; ${texts.fix}`,
+      message: problemMessage(what, texts),
       span: p ? p.prop.span : effS.prop.span,
     });
     return none;
