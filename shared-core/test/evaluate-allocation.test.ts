@@ -33,14 +33,15 @@ function statesNote(n: number): string {
 const settle = (): Promise<void> => new Promise((resolve) => setTimeout(resolve, 25));
 
 /**
- * `run` made warm (compiled) first, then its bytes per call of `calls`: the least of five counts,
- * each after a pause (a count taken while the engine is still compiling a part of `run` on its
- * threads, which on a busy machine may take a while, holds that part's first, slower form).
+ * `run` made warm (compiled) first, then its bytes per call of `calls`: the least of twelve
+ * counts, each after a pause (a count taken while the engine is still compiling a part of `run`
+ * on its threads, which on a machine busy with other tests may take a while, holds that part's
+ * first, slower form; code that allocates more once compiled still counts more in every round).
  */
 async function bytesPerCall(calls: number, run: () => void): Promise<number> {
   for (let i = 0; i < 10; i++) run();
   let least = Number.POSITIVE_INFINITY;
-  for (let i = 0; i < 5; i++) {
+  for (let i = 0; i < 12; i++) {
     await settle();
     least = Math.min(least, await allocatedBytes(run));
   }
