@@ -11,31 +11,8 @@
 import { describe, expect, it } from 'vitest';
 import { analyzeNote } from '../../shared-core/src/analyze';
 import { evalFileJson, evalFileText, evalNoteText, fileResult, roundForJson } from '../src/output';
-import { ObjectWriter, TextWriter, jsonKey, jsonKeyRow, pieceText } from '../src/jsonWriter';
-
-/** Takes lent pieces as a stream that writes them at once would: their text, each decoded on its own. */
-function collector(): { take: (piece: Uint8Array) => boolean; pieces: string[]; text: () => string } {
-  const pieces: string[] = [];
-  return {
-    take: (piece) => {
-      pieces.push(pieceText(piece));
-      return false;
-    },
-    pieces,
-    text: () => pieces.join(''),
-  };
-}
-
-/** JSON.stringify(value, null, 2) of a value nested `depth` levels deep in arrays, without the arrays' lines. */
-function stringifiedAt(value: unknown, depth: number): string {
-  let nested: unknown = value;
-  for (let k = 0; k < depth; k++) nested = [nested];
-  const lines = JSON.stringify(nested, null, 2).split('\n');
-  return lines
-    .slice(depth, lines.length - depth)
-    .join('\n')
-    .slice(2 * depth);
-}
+import { ObjectWriter, TextWriter, jsonKey, jsonKeyRow } from '../src/jsonWriter';
+import { collector, stringifiedAt } from './lib/jsonText';
 
 /** Figures at every edge of the fast path: the ends of its range, ties, binary and decimal exponents, zeros. */
 function edgeFigures(): number[] {

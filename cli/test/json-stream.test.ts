@@ -27,38 +27,10 @@ import {
   JSON_SIGNIFICANT_DIGITS,
 } from '../src/output';
 import { TextWriter, jsonKey, pieceText } from '../src/jsonWriter';
+import { collector, stringifiedAt } from './lib/jsonText';
 import { runCli as dewmark } from './lib/runCli';
 
 const fixtures = join(repo, 'test', 'fixtures');
-
-/** JSON.stringify(value, null, 2) as if the value were nested `depth` levels deep (in arrays). */
-function stringifiedAt(value: unknown, depth: number): string {
-  let nested: unknown = value;
-  let before = '';
-  let after = '';
-  for (let k = 0; k < depth; k++) {
-    nested = [nested];
-    before += `${'  '.repeat(k)}[\n`;
-    after = `\n${'  '.repeat(k)}]${after}`;
-  }
-  before += '  '.repeat(depth);
-  const whole = JSON.stringify(nested, null, 2);
-  expect(whole.startsWith(before) && whole.endsWith(after)).toBe(true);
-  return whole.slice(before.length, whole.length - after.length);
-}
-
-/** Takes lent pieces as a stream that writes them at once would: their text, each decoded on its own. */
-function collector(): { take: (piece: Uint8Array) => boolean; pieces: string[]; text: () => string } {
-  const pieces: string[] = [];
-  return {
-    take: (piece) => {
-      pieces.push(pieceText(piece));
-      return false;
-    },
-    pieces,
-    text: () => pieces.join(''),
-  };
-}
 
 /** The text a TextWriter writes for `value` at `depth`, joined from its pieces. */
 function written(value: unknown, depth: number): string {
