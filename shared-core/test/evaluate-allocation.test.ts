@@ -153,19 +153,19 @@ describe('the structure that keeps it low', () => {
   it('makes a registry of names with room for the names expected: it never grows while they are added', () => {
     const n = 50_000;
     const table = new NameTable(n);
-    const slots = Reflect.get(table, 'marks') as Uint8Array;
+    const slots = Reflect.get(table, 'slots') as Int32Array;
     const chars = Reflect.get(table, 'chars') as Uint16Array;
     for (let i = 0; i < n; i++) expect(table.add(`S${i}`, i)).toBe(true);
-    expect(Reflect.get(table, 'marks')).toBe(slots); // no doubling: the names were placed once
+    expect(Reflect.get(table, 'slots')).toBe(slots); // no doubling: the names were placed once
     expect(Reflect.get(table, 'chars')).toBe(chars);
     expect(table.get('S0')).toBe(0);
     expect(table.get(`S${n - 1}`)).toBe(n - 1);
     expect(table.add('S7', 1)).toBe(false);
     // Without a guess it starts small and grows, with the same answers.
     const small = new NameTable();
-    const first = Reflect.get(small, 'marks') as Uint8Array;
+    const first = Reflect.get(small, 'slots') as Int32Array;
     for (let i = 0; i < n; i++) small.add(`S${i}`, i);
-    expect(Reflect.get(small, 'marks')).not.toBe(first);
+    expect(Reflect.get(small, 'slots')).not.toBe(first);
     expect(first.length).toBeLessThan(slots.length);
     for (let i = 0; i < n; i += 997) expect(small.get(`S${i}`)).toBe(table.get(`S${i}`));
   });

@@ -7,11 +7,12 @@
  * (forced collections; counted, never timed). The notes are invented; no figure is checked here
  * (the physics is checked against its sources in the physics and fixture tests).
  */
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { heapBytes } from './heap-helpers';
 import { analyzeHandingOut } from '../src/analyze/handingOut';
 import { analyzeNote } from '../src/analyze/analyze';
 import { evaluate, evaluateHandingOut } from '../src/evaluate/evaluate';
+import { ForgottenStates } from '../src/evaluate/forgotten';
 import { STATEMENTS_PER_GROUP } from '../src/evaluate/group';
 import type { EvaluatedItem, EvaluateSettings, StateResult } from '../src/evaluate/types';
 import { parseNote } from '../src/notation/parse';
@@ -152,6 +153,25 @@ describe('evaluating a note one statement at a time, keeping nothing', () => {
     for (const name of ['R42', 'R79', 'R116', 'R264']) computed(whole.items, name);
     const codes = whole.diagnostics.map((d) => d.code);
     for (const code of ['duplicate-name', 'used-before-defined']) expect(codes, code).toContain(code);
+  });
+
+  it('makes the slots of the states let go first for a few, then for the note, doubling past that', () => {
+    // Counted, not timed: the slots are made by one call at the first state let go and again a
+    // few states later (so that the engine has met the call before it optimises `forget`, and a
+    // doubling late in a long note keeps its optimised code), then only as the note outgrows
+    // them. Invented: 3000 states, a state near the end reading back the first and a middle one.
+    const grow = vi.spyOn(ForgottenStates.prototype as unknown as { grow(need: number): void }, 'grow');
+    try {
+      const text = statesNote(3000).replace('```\n', 'state LAST: w=S0.w db=S1500.db\n```\n');
+      const whole = expectSame(text);
+      expect(computed(whole.items, 'LAST').state!.w).toBe(computed(whole.items, 'S0').state!.w);
+      const needs = grow.mock.calls.map(([need]) => need);
+      expect(needs.slice(0, 2)).toEqual([1, 65]);
+      // 3000 states: made for a few, then for the ~2500 the note's length suggests, then one doubling.
+      expect(needs).toHaveLength(3);
+    } finally {
+      grow.mockRestore();
+    }
   });
 
   it('hands out nothing for a note that may name other units than the settings, or holds a results table', () => {

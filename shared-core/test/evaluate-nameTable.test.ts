@@ -3,7 +3,7 @@
  * addition, whatever the names and however many, and names written to collide in the table's
  * hash move it to a Map without changing an answer. The names are invented; no figure is checked.
  */
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { FIRST_SLOTS, MAX_PROBE, NameTable, nameHash } from '../src/evaluate/nameTable';
 
 /** Names of many shapes: short, long, accented, astral, with digits (invented). */
@@ -55,5 +55,48 @@ describe('name table', () => {
     });
     expect(table.get('plain')).toBe(999);
     expect(table.get('N-1')).toBe(-1);
+  });
+});
+
+describe('name table: work per name', () => {
+  it("reads a slot's hash and place as one entry, and compares characters only with names of the same hash", () => {
+    // Compared characters are work (and, in a long note, a branch met late): a new name is
+    // compared only with a name whose whole 32-bit hash is its own, not with one in every few
+    // hundred it meets, however full the table.
+    const names = someNames(30_000);
+    const table = new NameTable(names.length);
+    // Two words per slot (hash, place + 1), and no other per-slot array.
+    expect(Reflect.get(table, 'slots')).toBeInstanceOf(Int32Array);
+    expect(Reflect.get(table, 'marks')).toBeUndefined();
+    expect(Reflect.get(table, 'placeOfSlot')).toBeUndefined();
+    // Per name: how many names before it have its hash.
+    const byHash = new Map<number, number>();
+    const earlier = names.map((name) => {
+      const h = nameHash(name);
+      const n = byHash.get(h) ?? 0;
+      byHash.set(h, n + 1);
+      return n;
+    });
+    const proto = NameTable.prototype as unknown as { isNameAt(place: number, name: string): boolean };
+    const compare = vi.spyOn(proto, 'isNameAt');
+    try {
+      names.forEach((name, i) => {
+        expect(table.add(name, i)).toBe(true);
+      });
+      // Each earlier name of the same hash stands in the new name's run of slots (no name is
+      // ever removed), so it is compared once; no other is.
+      expect(compare).toHaveBeenCalledTimes(earlier.reduce((a, b) => a + b, 0));
+      // A name added again, or looked up, is compared with those before it of its hash, then itself.
+      for (const i of [0, 123, 4567, names.length - 1]) {
+        compare.mockClear();
+        expect(table.add(names[i]!, -5)).toBe(false);
+        expect(compare).toHaveBeenCalledTimes(earlier[i]! + 1);
+        compare.mockClear();
+        expect(table.get(names[i]!)).toBe(i);
+        expect(compare).toHaveBeenCalledTimes(earlier[i]! + 1);
+      }
+    } finally {
+      compare.mockRestore();
+    }
   });
 });

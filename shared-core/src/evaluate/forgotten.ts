@@ -17,26 +17,35 @@ import type { EvalContext } from './context';
 import { evaluateState } from './state';
 import type { EvaluatedItem, PressureBasis, StateResult } from './types';
 
-/** Statements the slots are first made for; they double as needed. */
+/** Statements the slots are made for at their first doubling, at least; they double as needed. */
 const FIRST_SLOTS = 1024;
+
+/** The slots before the first state is let go (none). */
+const NO_SLOTS = new Int32Array(0);
+
+/** Statements the slots are made for at the first state let go (see {@link ForgottenStates.forget}). */
+const FEW_SLOTS = 64;
 
 /** Plain states let go by their statement index (see the module comment). */
 export class ForgottenStates {
   /**
    * Per statement index: the start of its fence line plus one, or 0 when it was not let go (so
-   * that the slots are ready as made: zeroed).
+   * that the slots are ready as made: zeroed). The slots are made at the first state let go, and
+   * made again, for the states the note is expected to hold, some states later (see {@link forget}).
    */
-  private starts: Int32Array;
+  private starts: Int32Array = NO_SLOTS;
   /** Per statement index: the end of its fence line. */
-  private ends: Int32Array;
+  private ends: Int32Array = NO_SLOTS;
   /** Per statement index: the place of its pressure basis in {@link bases}. */
-  private basisOf: Int32Array;
+  private basisOf: Int32Array = NO_SLOTS;
   /** The pressure bases in force where states were let go, each once. */
   private readonly bases: PressureBasis[] = [];
+  /** How many slots are made at the first doubling, at least. */
+  private readonly firstSlots: number;
 
   /**
    * @param expected  about how many statements the note holds (a guess; 0 when unknown): the
-   *   slots are first made for them, rather than doubled and copied as they fill (room not used
+   *   slots are made for them at their first doubling, rather than doubled and copied as they fill (room not used
    *   costs address space only: the arrays are made zeroed, and no page of them is written before
    *   a slot on it is).
    */
@@ -44,10 +53,7 @@ export class ForgottenStates {
     private readonly text: string,
     expected = 0,
   ) {
-    const n = Math.max(FIRST_SLOTS, Math.ceil(expected));
-    this.starts = new Int32Array(n);
-    this.ends = new Int32Array(n);
-    this.basisOf = new Int32Array(n);
+    this.firstSlots = Math.max(FIRST_SLOTS, Math.ceil(expected));
   }
 
   /**
@@ -61,6 +67,11 @@ export class ForgottenStates {
 
   /** Lets go of the state of statement `index`, written on [lineStart, lineEnd) and evaluated under `basis`. */
   forget(index: number, lineStart: number, lineEnd: number, basis: PressureBasis): void {
+    // The slots are made by the same call as a later doubling, first for a few states, then (at
+    // the first doubling, some states later) for as many as the note is expected to hold: so the
+    // engine has met the call while it collects type feedback for this code (which it does from
+    // some calls on, not from the first), and a doubling late in a long note (past the guess)
+    // does not throw its optimised code away.
     if (index >= this.starts.length) this.grow(index + 1);
     // The pressure in force changes only forward (at a site: line), so the last basis is the one
     // to compare with; one seen before is listed again, which costs a slot and no search.
@@ -85,8 +96,9 @@ export class ForgottenStates {
     return ctx.quietly(this.bases[this.basisOf[index]!]!, () => evaluateState(ctx, stmt, index, true));
   }
 
+  /** Makes the slots, or doubles them, for `need` statements at least. */
   private grow(need: number): void {
-    let n = this.starts.length * 2;
+    let n = this.starts.length === 0 ? FEW_SLOTS : Math.max(this.firstSlots, this.starts.length * 2);
     while (n < need) n *= 2;
     const starts = new Int32Array(n);
     starts.set(this.starts);

@@ -4,14 +4,17 @@
  *
  * A `Map` keyed by the names costs several cache misses per name in a note of many thousand: on
  * its way to a name's slot it compares the name with the names it meets, reading each of them.
- * Here everything is kept in typed arrays, with no object per name: the slots (a byte each that
- * marks the hash of its name, and its name's place; filled by linear probing), and per place the
- * name's hash, its characters (one pool of UTF-16 code units) and its value. Registering a name
- * reads its own characters (for the hash), one run of marks and, only when a mark is equal, that
- * slot's place and hash and, when the hashes are equal too, the other name's characters; a new
- * name's characters are copied to the pool. The table doubles when half full, from the hashes
- * alone. Keeping the characters rather than the strings also leaves the garbage collector nothing
- * to trace or move per name.
+ * Here everything is kept in typed arrays, with no object per name: the slots (filled by linear
+ * probing), each two 32-bit words side by side, the hash of its name and its name's place plus
+ * one (0: an empty slot), and per place the name's characters (one pool of UTF-16 code units)
+ * and its value. Registering a name reads its own characters (for the hash), one run of slots
+ * and, only when a slot's hash is equal, the other name's characters; a new name's characters
+ * are copied to the pool. A slot's hash and place are one 8-byte entry of one array, so a name
+ * met in a slot costs one cache miss, not one per array, and the whole 32-bit hash is compared
+ * there: two names of a note rarely share one, so the comparison of characters (a branch the
+ * engine's optimised code may not have met yet) is next to never taken for a new name. The table
+ * doubles when half full, from the hashes alone. Keeping the characters rather than the strings
+ * also leaves the garbage collector nothing to trace or move per name.
  *
  * The hash is not keyed, so names could be written to collide: a probe that runs longer than
  * {@link MAX_PROBE} slots moves every name to a `Map` (whose hash is keyed per process), and the
@@ -32,8 +35,8 @@ const FIRST_PLACES = 128;
 const FIRST_CHARS = 1024;
 
 /**
- * The most slots a table is first made with for the names it expects (2^20: 5 MB); past them it
- * grows as it fills.
+ * The most slots a table is first made with for the names it expects (2^20: 8 MB of slots); past
+ * them it grows as it fills.
  */
 const MOST_FIRST_SLOTS = 1 << 20;
 
@@ -47,30 +50,15 @@ export function nameHash(s: string): number {
   return h;
 }
 
-/**
- * The mark of a hash in the slot it takes (1 … 255; 0 marks an empty slot): its top eight bits,
- * which the slot's number (the low bits) does not hold.
- */
-function markOf(h: number): number {
-  return h >>> 24 || 1;
-}
-
 /** Name → index of its first definition (see the module comment). */
 export class NameTable {
   /**
-   * Per slot, one byte: the mark of the hash of its name ({@link markOf}), 0 for an empty slot.
-   * The run of slots a name is looked for in is read here, in a quarter of the memory of the
-   * places, which stays in the processor's cache for a table of many thousand names; the slot's
-   * place is read only when the marks are equal (a new name meets an equal mark about once in
-   * 255 slots).
+   * Per slot, two words: at `2·slot` the hash of its name, at `2·slot + 1` its name's place plus
+   * one, 0 for an empty slot (see the module comment). Its length is twice the number of slots.
    */
-  private marks: Uint8Array;
-  /** Per slot: the place of its name (when its mark is not 0). */
-  private placeOfSlot: Int32Array;
+  private slots: Int32Array;
   /** How many names there are (their places are 0 … count − 1, in the order they were added). */
   private count = 0;
-  /** Per place: the hash of its name (the table doubles from these, without reading the names). */
-  private hashes: Int32Array;
   /** Per place: where its name's characters start in {@link chars}; entry `count` is where the next starts. */
   private starts: Int32Array;
   /** Per place: the value of its name. */
@@ -79,7 +67,10 @@ export class NameTable {
   private chars: Uint16Array;
   /** Every name when probing ran too long (then the only table in use). */
   private map: Map<string, number> | null = null;
-  /** The empty slot that ended the last {@link find} of an absent name (where that name goes). */
+  /**
+   * The empty slot that ended the last {@link find} of an absent name (where that name goes):
+   * its first word's index in {@link slots}.
+   */
   private free = 0;
 
   /**
@@ -93,9 +84,7 @@ export class NameTable {
     let slots = FIRST_SLOTS;
     while (slots < 2 * expected && slots < MOST_FIRST_SLOTS) slots *= 2;
     const places = Math.max(FIRST_PLACES, slots / 2);
-    this.marks = new Uint8Array(slots);
-    this.placeOfSlot = new Int32Array(slots);
-    this.hashes = new Int32Array(places);
+    this.slots = new Int32Array(2 * slots);
     this.starts = new Int32Array(places + 1);
     this.values = new Int32Array(places);
     this.chars = new Uint16Array(Math.max(FIRST_CHARS, places * CHARS_PER_EXPECTED_NAME));
@@ -120,36 +109,44 @@ export class NameTable {
     const place = this.find(name, h);
     if (place >= 0) return false;
     if (place === -2) return this.addToMap(name, value);
-    this.append(name, h, value);
-    if (this.count * 2 > this.marks.length) this.grow();
+    this.append(name, value);
+    if (this.count > this.slots.length >> 2) this.grow(h);
     else {
       // The slot the search ended at, free (no second probe).
-      this.marks[this.free] = markOf(h);
-      this.placeOfSlot[this.free] = this.count - 1;
+      this.slots[this.free] = h;
+      this.slots[this.free + 1] = this.count;
     }
     return true;
   }
 
   /**
-   * The place of `name`; -1 when absent (the empty slot found is {@link free}); -2 when the probe
-   * ran longer than {@link MAX_PROBE} slots (every name is in {@link map} then).
+   * The place of `name`, of hash `h`; -1 when absent (the empty slot found is {@link free}); -2
+   * when the probe ran longer than {@link MAX_PROBE} slots (every name is in {@link map} then).
    */
   private find(name: string, h: number): number {
-    const marks = this.marks;
-    const mask = marks.length - 1;
-    const mark = markOf(h);
-    let slot = h & mask;
-    for (let probe = 0; probe < MAX_PROBE; probe++) {
-      const m = marks[slot]!;
-      if (m === 0) {
-        this.free = slot;
+    const slots = this.slots;
+    // `at` is a slot's first word: even, 2·slot (so the slots wrap at `wrap`, their words' count − 2).
+    const wrap = slots.length - 2;
+    let at = (h << 1) & wrap;
+    let probes = 0;
+    for (;;) {
+      // Everything a probe works out is worked out before the test of an empty slot. While the
+      // table is nearly empty (the first few thousand names: while the engine collects type
+      // feedback for this code) the first slot probed is nearly always empty; arithmetic met
+      // only past a taken slot would be met for the first time by optimised code, which throws
+      // itself away on it. Past the test only choices between values already known remain.
+      const taken = slots[at + 1]!;
+      const sameHash = slots[at] === h;
+      const next = (at + 2) & wrap;
+      probes++;
+      const last = probes === MAX_PROBE;
+      if (taken === 0) {
+        this.free = at;
         return -1;
       }
-      if (m === mark) {
-        const p = this.placeOfSlot[slot]!;
-        if (this.hashes[p] === h && this.isNameAt(p, name)) return p;
-      }
-      slot = (slot + 1) & mask;
+      if (sameHash && this.isNameAt(taken - 1, name)) return taken - 1;
+      if (last) break;
+      at = next;
     }
     this.toMap();
     return -2;
@@ -171,12 +168,11 @@ export class NameTable {
     return s;
   }
 
-  /** Adds `name`, of hash `h`, with `value` at the next place (its characters to the pool). */
-  private append(name: string, h: number, value: number): void {
+  /** Adds `name` with `value` at the next place (its characters to the pool). */
+  private append(name: string, value: number): void {
     const place = this.count;
     if (place === this.values.length) {
       this.values = grown(this.values, 2 * place);
-      this.hashes = grown(this.hashes, 2 * place);
       this.starts = grown(this.starts, 2 * place + 1);
     }
     const start = this.starts[place]!;
@@ -191,29 +187,24 @@ export class NameTable {
     const chars = this.chars;
     for (let i = 0; i < name.length; i++) chars[start + i] = name.charCodeAt(i);
     this.starts[place + 1] = end;
-    this.hashes[place] = h;
     this.values[place] = value;
     this.count = place + 1;
   }
 
   /**
-   * Twice the slots, every name placed again from its stored hash (the names themselves are not
-   * read), in the order of their places (the name just added last, its slot not taken yet).
+   * Twice the slots, every name placed again from the hash in its slot (the names themselves are
+   * not read), and the name just added last (of hash `h`, its slot not taken yet).
    */
-  private grow(): void {
-    const n = this.marks.length * 2;
-    const marks = new Uint8Array(n);
-    const placeOfSlot = new Int32Array(n);
-    const mask = n - 1;
-    for (let p = 0; p < this.count; p++) {
-      const h = this.hashes[p]!;
-      let slot = h & mask;
-      while (marks[slot] !== 0) slot = (slot + 1) & mask;
-      marks[slot] = markOf(h);
-      placeOfSlot[slot] = p;
+  private grow(h: number): void {
+    const old = this.slots;
+    const slots = new Int32Array(2 * old.length);
+    const mask = (slots.length >> 1) - 1;
+    for (let at = 0; at < old.length; at += 2) {
+      const taken = old[at + 1]!;
+      if (taken !== 0) place(slots, mask, old[at]!, taken);
     }
-    this.marks = marks;
-    this.placeOfSlot = placeOfSlot;
+    place(slots, mask, h, this.count);
+    this.slots = slots;
   }
 
   /** Moves every name to {@link map} (see the module comment). */
@@ -230,6 +221,14 @@ export class NameTable {
     map.set(name, value);
     return true;
   }
+}
+
+/** Puts the name of hash `h` and place `taken` − 1 in the first empty slot of its run in `slots` (of `mask` + 1 slots). */
+function place(slots: Int32Array, mask: number, h: number, taken: number): void {
+  let slot = h & mask;
+  while (slots[2 * slot + 1] !== 0) slot = (slot + 1) & mask;
+  slots[2 * slot] = h;
+  slots[2 * slot + 1] = taken;
 }
 
 /** `a` copied into a new array of `n` elements. */

@@ -276,7 +276,9 @@ function satTempIteration(maxIter: number): void {
     let next = T - step;
     // Halley's error after a step s is ~ C s³ with C < 1e-2 K⁻² on this range: < 1e-10 K here.
     const done = Math.abs(step) < 2e-3;
-    if (!done && !(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    // The midpoint is worked out whether it is taken or not (see `wetBulbIteration`).
+    const mid = 0.5 * (lo + hi);
+    if (!done && !(next > lo && next < hi)) next = mid;
     if (done || hi - lo < 1e-12) {
       // Slopes at the last iterate (within 2e-3 K of the root): only a starting aid for callers.
       satTempDeriv.d1 = d1;

@@ -224,7 +224,12 @@ function wetBulbIteration(maxIter: number): void {
   const dConst = (ice ? 2830 : 2501) + 1.86 * db;
   const gConst = 1.006 + d1 * w;
 
-  let t: number;
+  // The first iterate: the midpoint of the bracket, unless the free first step below lands
+  // inside it. (The midpoint is worked out whether it is taken or not, here and in the loop: a
+  // step that leaves the bracket is rare, one state in many thousand, and arithmetic that the
+  // engine's optimised code meets for the first time, without type feedback, throws that code
+  // away, where a choice between two doubles already worked out does not.)
+  let t = 0.5 * (lo + hi);
   if (lo === dp && w > 0) {
     // Free first step from the dew point: there pws = pw, Ws = W and the residual is
     // −(db − dp)(1.006 + 1.86 W); its slopes need no exponential.
@@ -239,10 +244,8 @@ function wetBulbIteration(maxIter: number): void {
     const igp = 1 / gp;
     const newton = g * igp;
     const c = 0.5 * newton * gpp * igp;
-    t = dp - (c > -0.5 && c < 0.5 ? newton * (1 + c * (1 + c)) : newton);
-    if (!(t > lo && t < hi)) t = 0.5 * (lo + hi);
-  } else {
-    t = 0.5 * (lo + hi);
+    const first = dp - (c > -0.5 && c < 0.5 ? newton * (1 + c * (1 + c)) : newton);
+    if (first > lo && first < hi) t = first;
   }
 
   for (let i = 0; i < maxIter; i++) {
@@ -297,7 +300,8 @@ function wetBulbIteration(maxIter: number): void {
         io[IO_WB] = next < lo0 ? lo0 : Math.min(next, hi0);
         return;
       }
-      if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+      const mid = 0.5 * (lo + hi);
+      if (!(next > lo && next < hi)) next = mid;
     }
     if (hi - lo < 1e-9) {
       io[IO_WB] = next < lo0 ? lo0 : Math.min(next, hi0);
