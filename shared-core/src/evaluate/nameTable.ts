@@ -223,7 +223,10 @@ export class NameTable {
   }
 }
 
-/** Puts the name of hash `h` and place `taken` − 1 in the first empty slot of its run in `slots` (of `mask` + 1 slots). */
+/**
+ * Puts the name of hash `h` and place `taken` − 1 in the first empty slot of its run in `slots`
+ * (of `mask` + 1 slots).
+ */
 function place(slots: Int32Array, mask: number, h: number, taken: number): void {
   let slot = h & mask;
   while (slots[2 * slot + 1] !== 0) slot = (slot + 1) & mask;
