@@ -31,11 +31,18 @@ let scale = 0;
 /**
  * The usual figure's 12 significant digits, found without `toPrecision`: for 1e-6 ≤ a < 1e11,
  * a is scaled by 10^s to a 12-digit whole number M (so that the figure is M / 10^s): returns M
- * (at most 10¹²) and sets {@link scale} to s (at most 17); −1 for any other a, and when the
+ * (below 10¹²; 0 for a = 0, at s = 11) and sets {@link scale} to s (at most 17); −1 for any other a, and when the
  * scaled figure lies within 1e-4 of a half (the scaling is exact to that, so a tie is left to
  * `toPrecision`).
  */
 function scaledDigits(a: number): number {
+  // Zero is the digits 0 at scale 11 (its text is `0`, as for any M below 10¹¹ at that scale).
+  // (Asked first, so that the comparison runs for every figure: a comparison the engine has
+  // seen no figure reach would be compiled as a return to the interpreter; see TextWriter.figure.)
+  if (a === 0) {
+    scale = 11;
+    return 0;
+  }
   if (!(a >= 1e-6 && a < 1e11)) return -1;
   // Decimals that leave 12 significant digits: 11 − the decimal exponent of a (1 … 17), here
   // from the binary exponent b = ⌊log₂a⌋ (the decimal exponent is ⌊b·log₁₀2⌋ or one more: a
@@ -52,15 +59,19 @@ function scaledDigits(a: number): number {
   // y − m is y's fraction, or it less 1 (both exact): within 1e-4 of ±0.5 is a tie.
   const d = y - m;
   if (!(y >= 1e11 && y < 1e12 && d < 0.4999 && d > -0.4999)) return -1;
-  scale = s;
-  return m;
+  // A figure that rounds up to 13 digits (M = 10¹²) is 10¹¹ at one decimal fewer: the same
+  // quotient (both are 10^(12 − s) exactly), with 12 digits. Chosen by value, not by a branch of
+  // its own, for the reason above.
+  const up = m >= 1e12;
+  scale = s - (up ? 1 : 0);
+  return up ? 1e11 : m;
 }
 
 /**
  * A figure for the JSON at {@link JSON_SIGNIFICANT_DIGITS} significant digits — never a fixed
  * number of decimals, which would leave a −60 °C dew-point state's humidity ratio (3.3e-6 kg/kg)
  * with two; null stays null (never NaN or Infinity in the JSON). It is the double nearest to
- * `x.toPrecision(12)`: the usual figure (1e-6 ≤ |x| < 1e11) is scaled once to a 12-digit whole
+ * `x.toPrecision(12)`: the usual figure (1e-6 ≤ |x| < 1e11, and 0) is scaled once to a 12-digit whole
  * number and rounded, and divided back (a quotient of two exact doubles, rounded once, is the
  * double nearest to the decimal); the scaling is exact to 1e-4 of the last digit, so a figure
  * that close to a half (a tie), and any other figure, goes through `toPrecision` itself. (The
@@ -306,7 +317,10 @@ function sameStrings(a: readonly string[], b: readonly string[]): boolean {
 
 /** The line starts of array elements (no key), by depth and whether a comma comes first. */
 const ELEMENT_LEADS: Lead[] = [];
-/** The last lines of objects and arrays (a line break, the indentation, the bracket), by depth and bracket. */
+/**
+ * The ends of objects and arrays, by depth, bracket and whether they are empty: the last line (a
+ * line break, the indentation, the bracket), or the bracket alone after the opening one.
+ */
 const CLOSE_LEADS: Words[] = [];
 
 /** The start of a member's line at `depth`: `,` unless `first`, the line break, the indentation, the key. */
@@ -322,15 +336,39 @@ function leadOf(key: JsonKey | null, depth: number, first: boolean): Lead {
   return lead;
 }
 
-/** The end of an object (`}`) or array (`]`) whose members were at depth + 1. */
-function closeOf(depth: number, bracket: '}' | ']'): Words {
-  const i = 2 * depth + (bracket === '}' ? 0 : 1);
-  let lead = CLOSE_LEADS[i];
-  if (lead === undefined) {
-    lead = wordsOf(Buffer.from(`\n${'  '.repeat(depth)}${bracket}`, 'latin1'));
-    CLOSE_LEADS[i] = lead;
-  }
+/** The end of an object (`}`) or array (`]`) whose members were at depth + 1 (none when `empty`). */
+function closeOf(depth: number, bracket: '}' | ']', empty: boolean): Words {
+  const lead = CLOSE_LEADS[closeIndex(depth, bracket, empty)];
+  return lead !== undefined ? lead : makeClose(depth, bracket, empty);
+}
+
+function closeIndex(depth: number, bracket: '}' | ']', empty: boolean): number {
+  return 4 * depth + (bracket === '}' ? 0 : 2) + (empty ? 1 : 0);
+}
+
+/** {@link closeOf}'s bytes, made and kept. */
+function makeClose(depth: number, bracket: '}' | ']', empty: boolean): Words {
+  const lead = wordsOf(Buffer.from(empty ? bracket : `\n${'  '.repeat(depth)}${bracket}`, 'latin1'));
+  CLOSE_LEADS[closeIndex(depth, bracket, empty)] = lead;
   return lead;
+}
+
+/**
+ * Closing lines made before any is written, for documents this deep: a line made while the
+ * document is written would be a path that the compiled writer had never seen taken (the last
+ * lines of the document come after it is compiled), which sends it back to the interpreter.
+ */
+const CLOSES_MADE_AHEAD = 8;
+
+/** Makes the closing lines of depths below {@link CLOSES_MADE_AHEAD} (once, by the first writer). */
+function makeClosesAhead(): void {
+  if (CLOSE_LEADS.length >= 4 * CLOSES_MADE_AHEAD) return;
+  for (let depth = 0; depth < CLOSES_MADE_AHEAD; depth++) {
+    for (const bracket of ['}', ']'] as const) {
+      if (CLOSE_LEADS[closeIndex(depth, bracket, false)] === undefined) makeClose(depth, bracket, false);
+      if (CLOSE_LEADS[closeIndex(depth, bracket, true)] === undefined) makeClose(depth, bracket, true);
+    }
+  }
 }
 
 /**
@@ -343,21 +381,41 @@ interface FourDigits {
 }
 let fourDigitTables: FourDigits | null = null;
 
-/** The four-digit tables, made by the first writer (no cost for a command that writes no JSON text). */
+/**
+ * The four-digit tables, made by the first writer (no cost for a command that writes no JSON text).
+ * This runs once per command, before any optimisation: it is a hundred steps, not ten thousand
+ * (which the interpreter would run long enough for the engine to compile the loop on its own).
+ */
 function fourDigits(): FourDigits {
   if (fourDigitTables) return fourDigitTables;
-  const words = new Int32Array(10000);
+  // The two-digit pairs 00 … 99 (each after a mark), and the zeros each ends with (2 for 00).
+  let marked = '';
+  const pairZeros = new Uint8Array(100);
+  for (let i = 0; i < 100; i++) {
+    const tens = (i / 10) | 0;
+    const ones = i - 10 * tens;
+    marked += `|${tens}${ones}`;
+    pairZeros[i] = ones !== 0 ? 0 : tens !== 0 ? 1 : 2;
+  }
+  // The text of 0000 … 9999, a hundred at a time: the first pair put at each mark of the hundred
+  // pairs (one native replacement each), read as little-endian words (the first digit lowest).
+  let text = '';
   const zeros = new Uint8Array(10000);
-  // Digit by digit, with no division: this runs once per command, mostly before any optimisation.
-  let i = 0;
-  for (let a = 0; a < 10; a++)
-    for (let b = 0; b < 10; b++)
-      for (let c = 0; c < 10; c++)
-        for (let d = 0; d < 10; d++) {
-          words[i] = (0x30 + a) | ((0x30 + b) << 8) | ((0x30 + c) << 16) | ((0x30 + d) << 24);
-          zeros[i] = d !== 0 ? 0 : c !== 0 ? 1 : b !== 0 ? 2 : a !== 0 ? 3 : 4;
-          i++;
-        }
+  for (let high = 0; high < 100; high++) {
+    const tens = (high / 10) | 0;
+    text += marked.replaceAll('|', `${tens}${high - 10 * tens}`);
+    // A number ends with its last pair's zeros, or two more than the first pair's when the last is 00.
+    zeros.set(pairZeros, 100 * high);
+    zeros[100 * high] = 2 + pairZeros[high]!;
+  }
+  const bytes = Buffer.from(text, 'latin1');
+  const words = new Int32Array(10000);
+  // The bytes copied in are the little-endian words on a little-endian machine; read one by one elsewhere.
+  if (new Uint8Array(Uint16Array.of(1).buffer)[0] === 1) new Uint8Array(words.buffer).set(bytes);
+  else {
+    const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+    for (let i = 0; i < 10000; i++) words[i] = view.getInt32(4 * i, true);
+  }
   fourDigitTables = { words, zeros };
   return fourDigitTables;
 }
@@ -400,12 +458,23 @@ export class TextWriter implements JsonWriter {
     const digits = fourDigits();
     this.digitWords = digits.words;
     this.digitZeros = digits.zeros;
+    makeClosesAhead();
   }
 
   /** A buffer with room for a piece and the longest text written into it at once. */
   private static memory(): [Buffer, DataView] {
     const bytes = new ArrayBuffer(PIECE_BYTES + LONG_TEXT * 4 + 1024);
     return [Buffer.from(bytes), new DataView(bytes)];
+  }
+
+  /**
+   * Hands out a piece when the buffer is nearly full (there is room after {@link PIECE_BYTES}
+   * for a line start and a short value). One method for every writer of a line, so that its call
+   * of {@link flush}, made every few hundred lines, has been seen made by the time any of them is
+   * compiled (a call never seen made is compiled as a return to the interpreter).
+   */
+  private room(): void {
+    if (this.pos > PIECE_BYTES) this.flush();
   }
 
   /** Lends out the text written since the last piece. */
@@ -467,7 +536,7 @@ export class TextWriter implements JsonWriter {
    * key too long for the buffer (whose line start this writes itself).
    */
   private member(key: JsonKey | null): Lead | null {
-    if (this.pos > PIECE_BYTES) this.flush();
+    this.room();
     const first = this.first;
     this.first = false;
     if (first && this.top) {
@@ -520,7 +589,7 @@ export class TextWriter implements JsonWriter {
     }
     this.first = false;
     for (let i = 0; i < n; i++) {
-      if (this.pos > PIECE_BYTES) this.flush();
+      this.room();
       this.figureAfter(leads[i]!, xs, i);
     }
   }
@@ -563,19 +632,18 @@ export class TextWriter implements JsonWriter {
    * and `0.` and zeros before a figure below 1. That is the shortest decimal that reads back as
    * the rounded figure (no other decimal of 12 digits or fewer lies within a unit of its last
    * place), in the positional form JSON uses from 1e-7 to 1e21: so exactly what
-   * `JSON.stringify(roundForJson(x))` writes. Any other figure goes through those two. (x is
-   * `xs[i]`; NaN and ±Infinity write null.)
+   * `JSON.stringify(roundForJson(x))` writes. Any other figure goes through those two, in
+   * {@link figureText}. (x is `xs[i]`; NaN and ±Infinity write null.)
+   *
+   * Every figure of the usual kind runs the same steps, with no branch taken by some figures
+   * only: a step that the engine has seen no figure take when it compiles this method is compiled
+   * as a return to the interpreter, and the method is compiled again once a figure takes it.
    */
   private figure(xs: Float64Array, i: number): void {
     const x = xs[i]!;
-    if (!Number.isFinite(x)) {
-      this.ascii('null');
-      return;
-    }
     const m = scaledDigits(x < 0 ? -x : x);
-    // M's 12 digits as three groups of four (M = 10¹², a rounding up to 13 digits, is left to the slow way).
-    if (m < 0 || m >= 1e12) {
-      this.ascii(`${roundForJson(x)}`);
+    if (m < 0) {
+      this.figureText(x);
       return;
     }
     const s = scale;
@@ -593,9 +661,12 @@ export class TextWriter implements JsonWriter {
     rest |= 0;
     const g2 = (rest / 10000) | 0;
     const g3 = (rest - g2 * 10000) | 0;
-    // The zeros M ends with (the text drops those after the point): a group's from the table.
-    const tz = this.digitZeros;
-    const zeros = g3 !== 0 ? tz[g3]! : g2 !== 0 ? 4 + tz[g2]! : 8 + tz[g1]!;
+    // The zeros M ends with (the text drops those after the point): those of its last group
+    // that is not 0000, from the table, and four for each 0000 after it (both tests made for
+    // every figure, and one look-up: see above).
+    const last3 = g3 !== 0;
+    const last2 = g2 !== 0;
+    const zeros = (last3 ? 0 : last2 ? 4 : 8) + this.digitZeros[last3 ? g3 : last2 ? g2 : g1]!;
     const buf = this.buf;
     const view = this.view;
     const digits = this.digitWords;
@@ -622,6 +693,11 @@ export class TextWriter implements JsonWriter {
       this.pos = (p + 12 - zeros) | 0;
     }
   }
+
+  /** A figure's text the slow way (see {@link figure}): null, a tie, or beyond the usual range. */
+  private figureText(x: number): void {
+    this.ascii(Number.isFinite(x) ? `${roundForJson(x)}` : 'null');
+  }
   num(key: JsonKey | null, v: number): void {
     this.begin(key);
     if (v >= 0 && v < 1e9 && Number.isInteger(v)) this.whole(v | 0);
@@ -645,11 +721,11 @@ export class TextWriter implements JsonWriter {
       const length = first < 10 ? 1 : first < 100 ? 2 : first < 1000 ? 3 : 4;
       view.setInt32(p, digits[first]! >>> (32 - 8 * length), true);
       p += length;
-      if (high !== 0) {
-        view.setInt32(p, digits[low]!, true);
-        p += 4;
-      }
-      this.pos = p;
+      // The second group: always written (past the end when there is none, where it is written
+      // over), so that a line number of five digits, first met long after this method is
+      // compiled, takes no step of its own (see figure).
+      view.setInt32(p, digits[low]!, true);
+      this.pos = p + (high !== 0 ? 4 : 0);
       return;
     }
     let length = 1;
@@ -825,9 +901,10 @@ export class TextWriter implements JsonWriter {
   }
   private leave(bracket: '}' | ']'): void {
     this.depth--;
-    if (this.pos > PIECE_BYTES) this.flush();
-    if (this.first) this.buf[this.pos++] = bracket === '}' ? 0x7d : 0x5d;
-    else this.words(closeOf(this.depth, bracket));
+    this.room();
+    // An empty one's bracket is one of the ends too, so that every end takes the same steps (the
+    // empty arrays come last in the document, after this is compiled: see figure).
+    this.words(closeOf(this.depth, bracket, this.first));
     this.first = false;
   }
 }
