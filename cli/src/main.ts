@@ -2,21 +2,15 @@
 import { processIO, run } from './run';
 import { workerMain } from './work';
 
-/** Runs the command line in the main thread. */
+/** Runs the command line in the main thread (a closed output pipe ends quietly: see `processIO`). */
 function startCli(): void {
-  // A closed pipe (`dewmark check | head`) ends the output quietly.
-  for (const stream of [process.stdout, process.stderr]) {
-    stream.on('error', (err: NodeJS.ErrnoException) => {
-      if (err.code === 'EPIPE') process.exit(process.exitCode ?? 0);
-      throw err;
-    });
-  }
-  run(process.argv.slice(2), processIO()).then(
+  const io = processIO();
+  run(process.argv.slice(2), io).then(
     (code) => {
       process.exitCode = code;
     },
     (err: unknown) => {
-      process.stderr.write(`dewmark: unexpected failure: ${err instanceof Error ? err.message : String(err)}\n`);
+      io.err(`dewmark: unexpected failure: ${err instanceof Error ? err.message : String(err)}\n`);
       process.exitCode = 2;
     },
   );

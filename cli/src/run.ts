@@ -107,7 +107,7 @@ async function analyse(
       totals.ioProblems++;
     }
   }
-  const progress = io.stderrIsTTY && tasks.length >= PROGRESS_FROM;
+  const progress = tasks.length >= PROGRESS_FROM && io.stderrIsTTY;
   await runTasks(
     tasks,
     mode,
@@ -171,12 +171,18 @@ class OutBuffer {
   private static readonly LARGE = 1 << 14;
   private parts: string[] = [];
   private size = 0;
+  /**
+   * Set once a piece went out as bytes (the eval JSON, see `outBytes`): the text around the
+   * pieces then goes the same way, so the output stream is never made when nothing else needs it
+   * (see `processIO`).
+   */
+  private viaBytes = false;
   constructor(private readonly io: CliIO) {}
   push(text: string): void {
     if (text.length >= OutBuffer.LARGE) {
       // A large piece (of the eval JSON) goes out as it is, after what came before it: no copy.
       this.flush();
-      this.io.out(text);
+      this.write(text);
       return;
     }
     this.parts.push(text);
@@ -185,16 +191,26 @@ class OutBuffer {
   }
   /** Writes bytes (a piece of the eval JSON) after what came before: whether they are kept (see {@link TakePiece}). */
   pushBytes(bytes: Uint8Array): boolean {
+    if (!this.io.outBytes) {
+      this.flush();
+      this.io.out(pieceText(bytes));
+      return false;
+    }
+    this.viaBytes = true;
     this.flush();
-    if (this.io.outBytes) return this.io.outBytes(bytes) === true;
-    this.io.out(pieceText(bytes));
-    return false;
+    return this.io.outBytes(bytes) === true;
   }
   flush(): void {
     if (this.parts.length === 0) return;
-    this.io.out(this.parts.join(''));
+    const text = this.parts.join('');
     this.parts = [];
     this.size = 0;
+    this.write(text);
+  }
+  private write(text: string): void {
+    // (A new buffer of the text's own: whether `outBytes` keeps it does not matter.)
+    if (this.viaBytes && this.io.outBytes) this.io.outBytes(Buffer.from(text, 'utf8'));
+    else this.io.out(text);
   }
 }
 
@@ -446,25 +462,47 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   return code ?? 0;
 }
 
+/**
+ * `process.stdout` or `process.stderr`, with a closed pipe (`dewmark check | head`) ending the
+ * output quietly. Node makes each stream at its first read, loading its stream modules (a few
+ * milliseconds of every start); `eval --format json` writes its bytes to the descriptor itself
+ * and a clean run writes nothing to stderr, so a stream is first read only to write to it.
+ */
+function quietOnClose(stream: NodeJS.WriteStream): NodeJS.WriteStream {
+  stream.on('error', (err: NodeJS.ErrnoException) => {
+    if (err.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    throw err;
+  });
+  return stream;
+}
+
 /** The process's own I/O. */
 export function processIO(): CliIO {
   let stdinBytes: Promise<Uint8Array> | null = null;
+  let stdoutStream: NodeJS.WriteStream | null = null;
+  let stderrStream: NodeJS.WriteStream | null = null;
+  const stdout = (): NodeJS.WriteStream => (stdoutStream ??= quietOnClose(process.stdout));
+  const stderr = (): NodeJS.WriteStream => (stderrStream ??= quietOnClose(process.stderr));
   return {
     cwd: process.cwd(),
-    out: (t) => process.stdout.write(t),
+    out: (t) => stdout().write(t),
     // Bytes go to the descriptor as the system takes them, the reader setting the pace
     // (./stdoutBytes), unless text is still queued in the stream (they must come after it) or the
     // descriptor fails (a closed pipe): then to the stream, which queues what it cannot write at
-    // once, holding on to it — the writer is told so and takes new memory.
+    // once, holding on to it — the writer is told so and takes new memory. (A stream not made yet
+    // holds nothing.)
     outBytes: (bytes) => {
-      const written = process.stdout.writableLength === 0 ? writeWaiting(1, bytes) : 0;
+      const written = stdoutStream === null || stdoutStream.writableLength === 0 ? writeWaiting(1, bytes) : 0;
       if (written === bytes.length) return false;
-      process.stdout.write(bytes.subarray(written));
-      return process.stdout.writableLength > 0;
+      stdout().write(bytes.subarray(written));
+      return stdout().writableLength > 0;
     },
-    err: (t) => process.stderr.write(t),
+    err: (t) => stderr().write(t),
     stdin: (maxBytes) => (stdinBytes ??= readStdin(maxBytes)),
-    stderrIsTTY: process.stderr.isTTY === true,
+    // Read only when a progress line could be shown (many files): see `quietOnClose`.
+    get stderrIsTTY() {
+      return stderr().isTTY === true;
+    },
   };
 }
 

@@ -381,6 +381,34 @@ describe('dewmark eval', () => {
     expect(r.err).toBe('');
     expect(r.out.toString('utf8').startsWith('{\n  "files": [\n')).toBe(true);
   });
+
+  it('--format json on a clean note makes neither output stream (Node loads its stream modules for one)', () => {
+    // A preload that says, straight to the descriptor, when process.stdout or process.stderr is
+    // first read (Node makes the stream then).
+    const preload = join(dir, 'stream-reads.cjs');
+    writeFileSync(
+      preload,
+      `for (const name of ['stdout', 'stderr']) {
+  const d = Object.getOwnPropertyDescriptor(process, name);
+  Object.defineProperty(process, name, { configurable: true, enumerable: d.enumerable, get() {
+    require('node:fs').writeSync(2, 'made process.' + name + '\\n');
+    Object.defineProperty(process, name, d);
+    return d.get.call(process);
+  } });
+}\n`,
+    );
+    const run = (args: string[]) =>
+      spawnSync(process.execPath, ['-r', preload, bin, ...args], { cwd: dir, encoding: 'utf8', timeout: 60_000 });
+    const json = run(['eval', '--format', 'json', 'good.md']);
+    expect(json.status).toBe(0);
+    expect(JSON.parse(json.stdout).files[0].states.length).toBeGreaterThan(0);
+    expect(json.stderr).toBe('');
+    // Text goes through the stream: then it is made (the preload does see it).
+    const text = run(['check', 'good.md']);
+    expect(text.status).toBe(0);
+    expect(text.stdout).toBe('1 file, 0 errors, 0 warnings\n');
+    expect(text.stderr).toBe('made process.stdout\n');
+  });
 });
 
 describe('usage', () => {

@@ -105,10 +105,29 @@ export function firstInvalidUtf8(b: Uint8Array): number {
 const CHUNK = 1 << 16;
 
 /**
+ * Fills `buf` from `at` with what `fd` gives until it is full or the file ends; returns the
+ * bytes in `buf` after the call.
+ */
+function fill(fd: number, buf: Buffer, at: number): number {
+  let got = at;
+  while (got < buf.length) {
+    const n = readSync(fd, buf, got, buf.length - got, null);
+    if (n === 0) break;
+    got += n;
+  }
+  return got;
+}
+
+/**
  * Reads a file input as text (standard input is read by the caller), never more than `maxBytes`
  * + 1 bytes: the first bytes are sniffed for binary content before anything else is read, a
  * regular file's size is checked before its contents are read, and a device or pipe (which has
  * no size: `/dev/zero`, a FIFO) is read in chunks only up to the limit.
+ *
+ * A regular file within the limit is read into one buffer of its size and one byte more (the
+ * sniffed head is its start, the rest is read after it), so its bytes are copied once, by the
+ * system, before they are decoded; the extra byte shows a file that grew since its size was
+ * read, whose rest is then read in chunks as from a pipe.
  */
 export function readInput(input: Input, maxBytes: number = DEFAULT_MAX_NOTE_BYTES): ReadOutcome {
   if (input.abs === null) return { ok: false, message: 'standard input must be read by the caller' };
@@ -121,37 +140,27 @@ export function readInput(input: Input, maxBytes: number = DEFAULT_MAX_NOTE_BYTE
   try {
     const st = fstatSync(fd);
     if (st.isDirectory()) return { ok: false, message: `cannot read '${input.display}': it is a folder` };
-    const head = Buffer.allocUnsafe(BINARY_SNIFF);
-    let got = 0;
-    while (got < BINARY_SNIFF) {
-      const n = readSync(fd, head, got, BINARY_SNIFF - got, null);
-      if (n === 0) break;
-      got += n;
-    }
-    if (head.subarray(0, got).includes(0)) return binary(input.display);
+    const whole = st.isFile() && st.size <= maxBytes;
+    const first = Buffer.allocUnsafe(whole ? Math.max(BINARY_SNIFF, st.size + 1) : BINARY_SNIFF);
+    const got = fill(fd, first.subarray(0, BINARY_SNIFF), 0);
+    if (first.subarray(0, got).includes(0)) return binary(input.display);
     if (st.isFile() && st.size > maxBytes) return tooLarge(input.display, st.size, maxBytes);
-    if (got < BINARY_SNIFF) return decodeText(head.subarray(0, got), input.display, maxBytes);
-    // The rest: into one buffer of the known size for a regular file, else chunk by chunk.
-    const chunks: Buffer[] = [head];
-    let total = got;
-    let size = st.isFile() ? Math.max(CHUNK, st.size - got + 1) : CHUNK;
+    if (got < BINARY_SNIFF) return decodeText(first.subarray(0, got), input.display, maxBytes);
+    let total = fill(fd, first, got);
+    if (total < first.length) return decodeText(first.subarray(0, total), input.display, maxBytes);
+    // Not all read yet (a device or pipe, or a file that grew): the rest chunk by chunk.
+    const chunks: Buffer[] = [first];
     for (;;) {
-      const room = Math.min(size, maxBytes + 1 - total);
+      const room = Math.min(CHUNK, maxBytes + 1 - total);
       if (room <= 0) break;
       const buf = Buffer.allocUnsafe(room);
-      let filled = 0;
-      while (filled < room) {
-        const n = readSync(fd, buf, filled, room - filled, null);
-        if (n === 0) break;
-        filled += n;
-      }
+      const filled = fill(fd, buf, 0);
       chunks.push(filled === room ? buf : buf.subarray(0, filled));
       total += filled;
       if (filled < room) break;
-      size = CHUNK;
     }
     if (total > maxBytes) return tooLarge(input.display, st.isFile() ? Math.max(st.size, total) : null, maxBytes);
-    return decodeText(chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, total), input.display, maxBytes);
+    return decodeText(Buffer.concat(chunks, total), input.display, maxBytes);
   } catch (err) {
     return cannotRead(input.display, err);
   } finally {
