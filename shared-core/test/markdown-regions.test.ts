@@ -10,7 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { createMarkdownIt } from '../src/markdown/markdownIt';
 import { extractRegions, startsWithKeyword, type ExtractedRegion } from '../src/markdown/regions';
 import { lineOffsetsOf } from '../src/markdown/lines';
-import { scanMarkdown } from '../src/markdown/scan';
+import { normalizeForMarkdown, scanMarkdown } from '../src/markdown/scan';
 
 /**
  * One summary per region: `fence|line|line…` (each body line read through its range) or
@@ -302,6 +302,62 @@ describe('the instrumented markdown-it', () => {
         expect(a.lineMax).toBe(b.lineMax);
       }),
       { seed: 31337, numRuns: 2000 },
+    );
+  });
+
+  it('builds the same line table on a long text (the tables grow several times)', () => {
+    const ours = createMarkdownIt();
+    const theirs = new MarkdownIt('commonmark');
+    const pieces = ['state A: db=1C', '', '  x', '\tcode', '> q', ' ', '- item', '```air', '~~~'];
+    const lines = Array.from({ length: 6000 }, (_, i) => pieces[(i * 7 + (i >> 3)) % pieces.length] ?? '');
+    for (const src of [lines.join('\n'), `${lines.join('\n')}\n`, `${lines.join('\n')}\n  `]) {
+      const a = new ours.block.State(src, ours, {}, []);
+      const b = new theirs.block.State(src, theirs, {}, []);
+      for (const k of ['bMarks', 'eMarks', 'tShift', 'sCount', 'bsCount'] as const)
+        expect(Array.from(a[k]), k).toEqual(Array.from(b[k]));
+      expect(a.lineMax).toBe(b.lineMax);
+    }
+  });
+
+  it('finds the line breaks in one pass: one search per line', () => {
+    const md = createMarkdownIt();
+    const src = Array.from({ length: 3000 }, (_, i) => `state S${i}: db=${i % 40}C rh=50%`).join('\n');
+    const indexOf = String.prototype.indexOf;
+    let searches = 0;
+    String.prototype.indexOf = function (this: string, ...args: [string, number?]) {
+      if (args[0] === '\n') searches++;
+      return indexOf.apply(this, args);
+    };
+    try {
+      new md.block.State(src, md, {}, []);
+    } finally {
+      String.prototype.indexOf = indexOf;
+    }
+    expect(searches).toBe(3000);
+  });
+
+  it("gives each fence's body lines as stock markdown-it cuts them, in containers too", () => {
+    // Fences at the start of their container (their lines copied from the line table at once)
+    // and indented or list fences (each line cut): the lines read back must join into stock
+    // markdown-it's fence content. Without tabs, where markdown-it turns a split tab into spaces.
+    const stock = new MarkdownIt('commonmark');
+    const doc = fc
+      .array(fc.constantFrom('> ', '>', '```', '~~~', '```air', ' ', '  ', '- ', '1. ', 'x', 'state A', '\n', '\n', '\n'), {
+        maxLength: 60,
+      })
+      .map((xs) => xs.join(''));
+    fc.assert(
+      fc.property(doc, (md) => {
+        type T = { type: string; content: string };
+        // (The last line of the text has no line break in markdown-it's content; stock markdown-it
+        // reads the text as the scan hands it over, a last line of blanks kept.)
+        const want = (stock.parse(normalizeForMarkdown(md).src, {}) as T[])
+          .filter((t) => t.type === 'fence')
+          .map((t) => t.content.replace(/\n$/, ''));
+        const got = scanMarkdown(md).fences.map((f) => f.lines.map((l) => md.slice(l.start, l.end)).join('\n'));
+        expect(got, JSON.stringify(md)).toEqual(want);
+      }),
+      { seed: 4242, numRuns: 3000 },
     );
   });
 

@@ -126,6 +126,13 @@ function dropTokens(state: StateBlock, n: number): void {
 /** Deepest nesting of containers (and of inline links) followed; deeper content is not read. */
 export const MAX_NESTING = 100;
 
+/** `a`'s values in a new array of `size` (zeros after them). */
+function grown(a: Int32Array, size: number): Int32Array {
+  const b = new Int32Array(size);
+  b.set(a);
+  return b;
+}
+
 function isSpace(c: number): boolean {
   return c === 0x20 || c === 0x09;
 }
@@ -235,15 +242,28 @@ function recordBlock(
   const col = collectorOf(state.env);
   if (!col || !token.map) return;
   const count = Math.max(0, bodyEnd - bodyBegin);
-  const lineStarts = new Int32Array(count);
-  const lineEnds = new Int32Array(count);
-  for (let line = bodyBegin; line < bodyEnd; line++) {
-    const first = cutLine(state, line, indent);
-    const pad = cutPad;
-    const eMark = state.eMarks[line] as number;
-    // A tab only partly taken by the indentation stays in the content (it is whitespace there).
-    lineStarts[line - bodyBegin] = Math.min(pad > 0 ? first - 1 : first, eMark);
-    lineEnds[line - bodyBegin] = eMark;
+  let lineStarts: Int32Array;
+  let lineEnds: Int32Array;
+  if (indent === 0) {
+    // Nothing to cut (a fence at the start of its container: `cutLine` would give each line's
+    // own start and no pad): the lines are the table's, copied at once. A line's start is never
+    // past its end (markdown-it's block quote moves it at most to the end), so the `Math.min`
+    // below would change nothing. A long note is one such fence of many lines, and this runs once.
+    const b = state.bMarks as unknown as Int32Array;
+    const e = state.eMarks as unknown as Int32Array;
+    lineStarts = b.slice(bodyBegin, bodyBegin + count);
+    lineEnds = e.slice(bodyBegin, bodyBegin + count);
+  } else {
+    lineStarts = new Int32Array(count);
+    lineEnds = new Int32Array(count);
+    for (let line = bodyBegin; line < bodyEnd; line++) {
+      const first = cutLine(state, line, indent);
+      const pad = cutPad;
+      const eMark = state.eMarks[line] as number;
+      // A tab only partly taken by the indentation stays in the content (it is whitespace there).
+      lineStarts[line - bodyBegin] = Math.min(pad > 0 ? first - 1 : first, eMark);
+      lineEnds[line - bodyBegin] = eMark;
+    }
   }
   const startLine = token.map[0];
   const trimmedEnd = (line: number): number => {
@@ -550,16 +570,19 @@ function useFastTokens(md: Md): void {
     constructor(src: string, mdIn: Md, env: Env, tokens: Token[]) {
       super('', mdIn, env, tokens);
       const len = src.length;
-      // Count the lines first so that the five tables are allocated once, at their final size, as
-      // typed arrays (their storage is outside the garbage-collected heap; markdown-it only ever
-      // indexes them, and every value is an integer between -1 and the text's length).
-      let lines = 1;
-      for (let i = src.indexOf('\n'); i >= 0; i = src.indexOf('\n', i + 1)) lines++;
-      const bMarks = new Int32Array(lines + 1);
-      const eMarks = new Int32Array(lines + 1);
-      const tShift = new Int32Array(lines + 1);
-      const sCount = new Int32Array(lines + 1);
-      const bsCount = new Int32Array(lines + 1);
+      // The five tables are typed arrays (their storage is outside the garbage-collected heap;
+      // markdown-it only ever indexes them, and every value is an integer between -1 and the
+      // text's length). They start at a guess of the line count (32 characters a line) and grow
+      // by half when full (a native copy; so at most a third of a table is unused, and only while
+      // the note is parsed), rather than the lines being counted first: that was a second pass of
+      // one `indexOf` per line, and this constructor runs once per note, mostly before it is
+      // optimised.
+      let size = (len >> 5) + 16;
+      let bMarks: Int32Array = new Int32Array(size);
+      let eMarks: Int32Array = new Int32Array(size);
+      let tShift: Int32Array = new Int32Array(size);
+      let sCount: Int32Array = new Int32Array(size);
+      let bsCount: Int32Array = new Int32Array(size);
       let n = 0;
       let start = 0;
       while (start < len) {
@@ -574,11 +597,20 @@ function useFastTokens(md: Md): void {
           else break;
         }
         if (nl < 0 && p === lineEnd) break;
+        if (n + 1 >= size) {
+          // Room for this line and the sentinel line after the last one.
+          size += size >> 1;
+          bMarks = grown(bMarks, size);
+          eMarks = grown(eMarks, size);
+          tShift = grown(tShift, size);
+          sCount = grown(sCount, size);
+          bsCount = grown(bsCount, size);
+        }
         bMarks[n] = start;
         eMarks[n] = lineEnd;
         tShift[n] = p - start;
         sCount[n] = offset;
-        bsCount[n] = 0;
+        // (bsCount stays 0, as the new array holds.)
         n++;
         if (nl < 0) break;
         start = nl + 1;
