@@ -342,9 +342,12 @@ describe('the instrumented markdown-it', () => {
     // markdown-it's fence content. Without tabs, where markdown-it turns a split tab into spaces.
     const stock = new MarkdownIt('commonmark');
     const doc = fc
-      .array(fc.constantFrom('> ', '>', '```', '~~~', '```air', ' ', '  ', '- ', '1. ', 'x', 'state A', '\n', '\n', '\n'), {
-        maxLength: 60,
-      })
+      .array(
+        fc.constantFrom('> ', '>', '```', '~~~', '```air', ' ', '  ', '- ', '1. ', 'x', 'state A', '\n', '\n', '\n'),
+        {
+          maxLength: 60,
+        },
+      )
       .map((xs) => xs.join(''));
     fc.assert(
       fc.property(doc, (md) => {
