@@ -12,6 +12,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { findKey } from '../src/vocabulary/keys';
 import type { ExtractedRegion } from '../src/markdown/regions';
 import { parseNote, parseNoteStatements } from '../src/notation/parse';
+import { ParsedNumber, ParsedProperty, ParsedQuantity, ParsedState, ParsedUnit } from '../src/notation/nodes';
 
 vi.mock('../src/vocabulary/keys', async (importOriginal) => {
   const actual = await importOriginal<typeof import('../src/vocabulary/keys')>();
@@ -164,5 +165,57 @@ describe('parser cost per statement', () => {
     expect(parsed.diagnostics.map((d) => d.code)).toEqual(['bad-number']);
     expect(parsed.diagnostics[0]?.message).toContain(`e.g. ${findKey('db')?.examples[0]}`);
     expect(vi.mocked(findKey)).toHaveBeenCalled();
+  });
+});
+
+describe('the nodes of a statement', () => {
+  /**
+   * Makes a node with `make` and counts the fields `names` that its constructor sets by assignment
+   * to a field the node does not have yet (a setter put on the prototype for each catches that).
+   * A class field that is defined (not `declare`d) is made an own field, set to undefined, before
+   * the constructor runs — a step of its own for every node of every line — and the constructor's
+   * assignment then passes the setter by. Returns the count and the node's own keys, in order.
+   */
+  function assignedFields(
+    proto: object,
+    names: readonly string[],
+    make: () => object,
+  ): { set: number; keys: string[] } {
+    let set = 0;
+    for (const name of names) {
+      Object.defineProperty(proto, name, {
+        configurable: true,
+        set(this: object, v: unknown) {
+          set++;
+          Object.defineProperty(this, name, { value: v, writable: true, enumerable: true, configurable: true });
+        },
+      });
+    }
+    try {
+      const keys = Object.keys(make());
+      return { set, keys };
+    } finally {
+      for (const name of names) delete (proto as Record<string, unknown>)[name];
+    }
+  }
+
+  it('sets each field once, in the order of the interfaces, with no field defined before the constructor', () => {
+    const number = new ParsedNumber(24, '24', 1, 10);
+    const unit = new ParsedUnit('C', 12);
+    const quantity = new ParsedQuantity(number, unit, null);
+    const cases: [object, readonly string[], () => object][] = [
+      [ParsedNumber.prototype, ['value', 'text', 'resolution', 'at'], () => new ParsedNumber(24, '24', 1, 10)],
+      [ParsedUnit.prototype, ['text', 'at'], () => new ParsedUnit('C', 12)],
+      [ParsedQuantity.prototype, ['number', 'unit', 'tolerance'], () => new ParsedQuantity(number, unit, null)],
+      [ParsedProperty.prototype, ['key', 'value', 'at', 'end'], () => new ParsedProperty('db', quantity, 7, 13)],
+      [
+        ParsedState.prototype,
+        ['keyword', 'origin', 'span', 'name', 'props'],
+        () => new ParsedState('fence', { start: 0, end: 13 }, null, []),
+      ],
+    ];
+    for (const [proto, names, make] of cases) {
+      expect(assignedFields(proto, names, make)).toEqual({ set: names.length, keys: [...names] });
+    }
   });
 });
