@@ -25,7 +25,7 @@ const PACK_MAX_LENGTH = 6;
 /** 2^48: the pack's length digit (above the six character bytes). */
 const PACK_LENGTH_UNIT = 2 ** 48;
 const table: string[] = Array.from({ length: INTERN_SLOTS }, () => '');
-/** Each slot's pack with its length ({@link slotPack}), or -1 for a string that has none. */
+/** Each slot's pack with its length (see {@link internedPackedSlice}), or -1 for a string that has none. */
 const slotPacks = new Float64Array(INTERN_SLOTS).fill(-1);
 
 /** The pack of no characters; {@link packStep} adds one. */
@@ -40,11 +40,6 @@ export function packStep(pack: number, c: number): number {
   return pack * 256 + c;
 }
 
-/** A pack with the string's length above its characters: equal only for equal strings. */
-function slotPack(pack: number, length: number): number {
-  return pack + length * PACK_LENGTH_UNIT;
-}
-
 /**
  * The slot of a 32-bit hash: the top {@link SLOT_BITS} bits of its product with 2^32 divided by the
  * golden ratio (multiplicative hashing), where every bit of the hash counts. (Folding the hash's
@@ -54,16 +49,6 @@ function slotPack(pack: number, length: number): number {
  */
 function slotOfHash(hash: number): number {
   return Math.imul(hash, 0x9e3779b1) >>> (32 - SLOT_BITS);
-}
-
-/**
- * The slot of a pack with its length, from its low and high 32 bits (`| 0` keeps the low 32 bits
- * of an integer-valued double, and multiplying by 2^-32 is exact; a `%` would cost a division).
- */
-function packSlot(withLength: number): number {
-  const low = withLength | 0;
-  const high = (withLength * 2 ** -32) | 0;
-  return slotOfHash(low ^ Math.imul(high, 0x85ebca6b));
 }
 
 /** `text.slice(start, end)`, or an equal string returned by an earlier call. */
@@ -91,8 +76,13 @@ export function internedPackedSlice(text: string, start: number, end: number, pa
   const length = end - start;
   if (length <= 0 || length > INTERN_MAX_LENGTH) return text.slice(start, end);
   if (length > PACK_MAX_LENGTH || wide > 0xff) return internedByCharacters(text, start, end);
-  const key = slotPack(pack, length);
-  const slot = packSlot(key);
+  // The pack with the string's length above its characters (equal only for equal strings), and
+  // its slot from its low and high 32 bits (`| 0` keeps the low 32 bits of an integer-valued
+  // double, and multiplying by 2^-32 is exact; a `%` would cost a division). Written out here
+  // rather than in helpers of their own: this runs for most keys, numbers and units of a note,
+  // and each call costs the interpreter more than the arithmetic, before the engine compiles it.
+  const key = pack + length * PACK_LENGTH_UNIT;
+  const slot = slotOfHash((key | 0) ^ Math.imul((key * 2 ** -32) | 0, 0x85ebca6b));
   if (slotPacks[slot] === key) return table[slot] as string;
   const fresh = text.slice(start, end);
   table[slot] = fresh;
