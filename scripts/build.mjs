@@ -61,12 +61,48 @@ const lazyChildProcess = {
   },
 };
 
+/**
+ * markdown-it loads the HTML entity decoder (`entities`) when it is loaded, and that module
+ * builds its table of every named entity then (a few milliseconds of every start, compile
+ * included). markdown-it calls it only for a `&…;` it has to decode (in a fence's info string or a
+ * link, not in the rules dewmark keeps on: see shared-core/src/markdown/markdownIt.ts), so
+ * markdown-it is given a module whose `decodeHTMLStrict` loads the real one at its first call
+ * and hands over to it: the same function, decoding the same way, loaded when first needed.
+ */
+const lazyEntities = {
+  name: 'lazy-entities',
+  setup(b) {
+    b.onResolve({ filter: /^entities$/ }, (args) =>
+      args.namespace !== 'lazy-entities' && /[\\/]node_modules[\\/]markdown-it[\\/]/.test(args.importer)
+        ? { path: 'entities', namespace: 'lazy-entities', pluginData: { resolveDir: args.resolveDir } }
+        : undefined,
+    );
+    b.onLoad({ filter: /.*/, namespace: 'lazy-entities' }, (args) => ({
+      // (esbuild runs a module reached by `require` only when it is first required.)
+      contents: `let entities;
+export function decodeHTMLStrict(text) {
+  entities ??= require('entities');
+  return entities.decodeHTMLStrict(text);
+}
+`,
+      resolveDir: args.pluginData.resolveDir,
+      loader: 'js',
+    }));
+  },
+};
+
 const targets = [
   // Whitespace and syntax minified, names kept so that a stack trace still reads: every command
   // starts by compiling the whole bundle, and a third less text is a few milliseconds less of it.
-  { entry: 'cli/src/main.ts', out: 'dist/cli.js', required: true, minify: true, plugins: [lazyChildProcess] },
+  {
+    entry: 'cli/src/main.ts',
+    out: 'dist/cli.js',
+    required: true,
+    minify: true,
+    plugins: [lazyChildProcess, lazyEntities],
+  },
   // The editor bundles ship in the .vsix: minified in the same way.
-  { entry: 'server/src/main.ts', out: 'dist/server.js', required: false, minify: true },
+  { entry: 'server/src/main.ts', out: 'dist/server.js', required: false, minify: true, plugins: [lazyEntities] },
   { entry: 'client/src/node.ts', out: 'dist/client.js', required: false, external: ['vscode'], minify: true },
   // The web build (the manifest's `browser` entry): the client for the browser-based editor's web
   // worker extension host, and the server it runs in a Web Worker (a classic script).

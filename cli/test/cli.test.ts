@@ -409,6 +409,43 @@ describe('dewmark eval', () => {
     expect(text.stdout).toBe('1 file, 0 errors, 0 warnings\n');
     expect(text.stderr).toBe('made process.stdout\n');
   });
+
+  it("builds the HTML entity table only for a note that has an entity to decode (markdown-it's decoder loads then)", () => {
+    // V8's precise coverage counts the calls of the function that builds the table, by name.
+    const preload = join(dir, 'count-calls.cjs');
+    writeFileSync(
+      preload,
+      `const inspector = require('node:inspector');
+const session = new inspector.Session();
+session.connect();
+session.post('Profiler.enable');
+session.post('Profiler.startPreciseCoverage', { callCount: true, detailed: false });
+process.on('exit', () => {
+  session.post('Profiler.takePreciseCoverage', (err, res) => {
+    let calls = 0;
+    for (const s of res.result)
+      if (s.url.endsWith('cli.js'))
+        for (const f of s.functions) if (f.functionName === 'decodeTrieDict') calls += f.ranges[0].count;
+    require('node:fs').writeSync(2, 'table built ' + calls + '\\n');
+  });
+});\n`,
+    );
+    const run = (file: string) =>
+      spawnSync(process.execPath, ['-r', preload, bin, 'eval', '--format', 'json', file], {
+        cwd: dir,
+        encoding: 'utf8',
+        timeout: 60_000,
+      });
+    const plain = run('good.md');
+    expect(plain.status).toBe(0);
+    expect(plain.stderr).toBe('table built 0\n');
+    // `&lt;` in a fence's info string is decoded (the info string is not the block's language).
+    writeFileSync(join(dir, 'entity.md'), '# E\n\n```air &lt;tag&gt;\nstate A: db=20C rh=50%\n```\n');
+    const entity = run('entity.md');
+    expect(entity.status).toBe(0);
+    expect(entity.stderr).toBe('table built 1\n');
+    expect(JSON.parse(entity.stdout).files[0].states).toHaveLength(1);
+  });
 });
 
 describe('usage', () => {
