@@ -91,6 +91,28 @@ export function decodeHTMLStrict(text) {
   },
 };
 
+/**
+ * Rewrites the bundle at `file` with the characters outside ASCII of its regular expressions
+ * escaped (see ./ascii-bundle.mjs): every command reads the bundle as one-byte text then. Needs
+ * TypeScript (a devDependency); without it the bundle stays as esbuild wrote it, which runs the same.
+ */
+async function keepAscii(file) {
+  let escapeRegExps;
+  try {
+    ({ escapeRegExpNonAscii: escapeRegExps } = await import('./ascii-bundle.mjs'));
+  } catch {
+    console.warn(`build: ${relative(root, file)} left with its characters outside ASCII (no TypeScript to find them)`);
+    return;
+  }
+  const { code, left } = escapeRegExps(readFileSync(file, 'utf8'));
+  writeFileSync(file, code);
+  if (left > 0)
+    console.warn(
+      `build: ${relative(root, file)} keeps ${left} characters outside ASCII (in a tagged template or an identifier); ` +
+        'write them as \\u escapes in the source so that Node reads the bundle as one-byte text',
+    );
+}
+
 const targets = [
   // Whitespace and syntax minified, names kept so that a stack trace still reads: every command
   // starts by compiling the whole bundle, and a third less text is a few milliseconds less of it.
@@ -100,6 +122,7 @@ const targets = [
     required: true,
     minify: true,
     plugins: [lazyChildProcess, lazyEntities],
+    ascii: true,
   },
   // The editor bundles ship in the .vsix: minified in the same way.
   { entry: 'server/src/main.ts', out: 'dist/server.js', required: false, minify: true, plugins: [lazyEntities] },
@@ -144,6 +167,7 @@ for (const t of targets) {
       // (Only when the target has its own: the web options bring theirs.)
       ...(t.plugins ? { plugins: t.plugins } : {}),
     });
+    if (t.ascii) await keepAscii(join(outdir, t.out.replace(/^dist\//, '')));
     metafiles.set(t.out.replace(/^dist\//, ''), result.metafile);
     console.error(`built ${t.out}`);
   } catch (err) {

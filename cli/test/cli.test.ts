@@ -410,6 +410,12 @@ describe('dewmark eval', () => {
     expect(text.stderr).toBe('made process.stdout\n');
   });
 
+  it('is an ASCII bundle, which Node reads as one-byte text (scripts/ascii-bundle.mjs)', () => {
+    const bundle = readFileSync(join(root, 'dist', 'cli.js'), 'latin1');
+    const at = bundle.search(/[\u0080-\u00FF]/);
+    expect(at < 0 ? '' : bundle.slice(Math.max(0, at - 80), at + 20)).toBe('');
+  });
+
   it("builds the HTML entity table only for a note that has an entity to decode (markdown-it's decoder loads then)", () => {
     // V8's precise coverage counts the calls of the function that builds the table, by name.
     const preload = join(dir, 'count-calls.cjs');

@@ -159,8 +159,9 @@ function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
           s.w === 0
             ? 'Bone-dry air has no dew point (reported as −Infinity).'
             : s.dp === Number.NEGATIVE_INFINITY
-              ? msg`The humidity ratio ${fW(s.w)} at ${fP(s.p)} gives a \
-vapour pressure too small to have a dew point (reported as −Infinity).`
+              ? // (\u2212: the minus sign, escaped so that the CLI bundle stays ASCII: scripts/ascii-bundle.mjs.)
+                msg`The humidity ratio ${fW(s.w)} at ${fP(s.p)} gives a \
+vapour pressure too small to have a dew point (reported as \u2212Infinity).`
               : msg`The dew point ${fT(s.dp)} is below ${fTL(T_MIN_C)}: extrapolated from the ice equation.`,
         fix: 'Nothing to fix if the air is meant to be this dry.',
         keys: ['dp'],
