@@ -108,8 +108,8 @@ async function keepAscii(file) {
   writeFileSync(file, code);
   if (left > 0)
     console.warn(
-      `build: ${relative(root, file)} keeps ${left} characters outside ASCII (in a tagged template or an identifier); ` +
-        'write them as \\u escapes in the source so that Node reads the bundle as one-byte text',
+      `build: ${relative(root, file)} keeps ${left} characters outside ASCII ` +
+        '(in a tagged template or an identifier); write them as \\u escapes in the source so that Node reads the bundle as one-byte text',
     );
 }
 

@@ -416,7 +416,7 @@ describe('dewmark eval', () => {
     expect(at < 0 ? '' : bundle.slice(Math.max(0, at - 80), at + 20)).toBe('');
   });
 
-  it("builds the HTML entity table only for a note that has an entity to decode (markdown-it's decoder loads then)", () => {
+  it('builds the HTML entity table only for a note with an entity to decode (the decoder loads then)', () => {
     // V8's precise coverage counts the calls of the function that builds the table, by name.
     const preload = join(dir, 'count-calls.cjs');
     writeFileSync(
