@@ -109,7 +109,8 @@ async function keepAscii(file) {
   if (left > 0)
     console.warn(
       `build: ${relative(root, file)} keeps ${left} characters outside ASCII ` +
-        '(in a tagged template or an identifier); write them as \\u escapes in the source so that Node reads the bundle as one-byte text',
+        '(in a tagged template or an identifier); write them as \\u escapes in the source ' +
+        'so that Node reads the bundle as one-byte text',
     );
 }
 
