@@ -10,6 +10,7 @@
  * Every other property written is a claim.
  */
 import type { DefiningKey, MoistAirState, PhysicsProblem } from '../physics/types';
+import { figuresFinite } from '../physics/moistAir';
 import type { StateStatement } from '../notation/ast';
 import type { Span } from '../text/types';
 import type { EvalContext } from './context';
@@ -58,21 +59,7 @@ export function writtenList(props: readonly ReadProp[]): string {
 
 /** True when every numeric property of a state is finite (the invariant of results). */
 export function stateFinite(s: MoistAirState): boolean {
-  return (
-    Number.isFinite(s.p) &&
-    Number.isFinite(s.db) &&
-    Number.isFinite(s.wb) &&
-    Number.isFinite(s.dp) &&
-    Number.isFinite(s.rh) &&
-    Number.isFinite(s.w) &&
-    Number.isFinite(s.h) &&
-    Number.isFinite(s.v) &&
-    Number.isFinite(s.rho) &&
-    Number.isFinite(s.pw) &&
-    Number.isFinite(s.pws) &&
-    Number.isFinite(s.ws) &&
-    Number.isFinite(s.mu)
-  );
+  return figuresFinite(s, false);
 }
 
 /** `a, b or c`. */

@@ -110,6 +110,48 @@ export function moistAir(
   return new MoistAir([p, db, wb, dp, rh, w, h, v, rho, pw, pws, ws, mu], fog);
 }
 
+/**
+ * True when every figure of state `s` is finite, or (`realOnly`) every figure but the pressure,
+ * the dew point and the saturation humidity ratio (the others are finite for any real air; see
+ * {@link MoistAirState}). A {@link MoistAir}'s figures are read from its array, with no getter
+ * called per figure: every state solved is tested, and before the engine has optimised the test
+ * each getter is a call of its own. x·0 is 0 for a finite x and NaN for an infinite or NaN one,
+ * so one sum tests them all.
+ */
+export function figuresFinite(s: MoistAirState, realOnly: boolean): boolean {
+  if (!(s instanceof MoistAir)) return eachFigureFinite(s, realOnly);
+  const f = s.figures;
+  const real =
+    f[1]! * 0 +
+    f[2]! * 0 +
+    f[4]! * 0 +
+    f[5]! * 0 +
+    f[6]! * 0 +
+    f[7]! * 0 +
+    f[8]! * 0 +
+    f[9]! * 0 +
+    f[10]! * 0 +
+    f[12]! * 0;
+  return (realOnly ? real : real + f[0]! * 0 + f[3]! * 0 + f[11]! * 0) === 0;
+}
+
+/** {@link figuresFinite} for a state of another kind, figure by figure. */
+function eachFigureFinite(s: MoistAirState, realOnly: boolean): boolean {
+  return (
+    (realOnly || (Number.isFinite(s.p) && Number.isFinite(s.dp) && Number.isFinite(s.ws))) &&
+    Number.isFinite(s.db) &&
+    Number.isFinite(s.wb) &&
+    Number.isFinite(s.rh) &&
+    Number.isFinite(s.w) &&
+    Number.isFinite(s.h) &&
+    Number.isFinite(s.v) &&
+    Number.isFinite(s.rho) &&
+    Number.isFinite(s.pw) &&
+    Number.isFinite(s.pws) &&
+    Number.isFinite(s.mu)
+  );
+}
+
 /** `s` with another saturation humidity ratio (every other figure, and the degree of saturation, as they are). */
 export function withWs(s: MoistAirState, ws: number): MoistAirState {
   return moistAir(s.p, s.db, s.wb, s.dp, s.rh, s.w, s.h, s.v, s.rho, s.pw, s.pws, ws, s.mu, s.fog);

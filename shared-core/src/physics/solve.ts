@@ -40,6 +40,7 @@ import {
   satTempRaw,
 } from './saturation';
 import { completeState, fogState, pwsAt } from './state';
+import { figuresFinite } from './moistAir';
 import { humRatioEq33, supersaturatedError, wRoundoff } from './wetbulb';
 import { SATURATION_ROUNDOFF, TEMP_ROUNDOFF_K, pressureBelowSaturation } from './checks';
 import { findRoot } from './roots';
@@ -148,47 +149,53 @@ vapour (${fW(ws)}); the rest, ${fW(w - ws)}, is suspended ${t < 0 ? 'ice' : 'liq
   });
 }
 
-/** Warnings about a finished state: temperatures extrapolated below the range, no saturation possible. */
+/**
+ * Warnings about a finished state: temperatures extrapolated below the range, no saturation
+ * possible. (Each warning is made by a function of its own: cold paths out of this hot one.)
+ */
 function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
   if (s.fog) return;
-  if (s.dp < T_MIN_C - RANGE_ROUNDOFF_K) {
-    warnings.push(
-      makeProblem({
-        code: 'out-of-range',
-        message:
-          s.w === 0
-            ? 'Bone-dry air has no dew point (reported as −Infinity).'
-            : s.dp === Number.NEGATIVE_INFINITY
-              ? // (\u2212: the minus sign, escaped so that the CLI bundle stays ASCII: scripts/ascii-bundle.mjs.)
-                msg`The humidity ratio ${fW(s.w)} at ${fP(s.p)} gives a \
+  if (s.dp < T_MIN_C - RANGE_ROUNDOFF_K) warnings.push(dewPointBelowRange(s));
+  if (s.wb < T_MIN_C - RANGE_ROUNDOFF_K) warnings.push(wetBulbBelowRange(s));
+  if (!Number.isFinite(s.ws)) warnings.push(cannotSaturate(s));
+}
+
+/** `out-of-range`: the dew point of `s` is below the formulation's range (or has none). */
+function dewPointBelowRange(s: MoistAirState): PhysicsProblem {
+  return makeProblem({
+    code: 'out-of-range',
+    message:
+      s.w === 0
+        ? 'Bone-dry air has no dew point (reported as −Infinity).'
+        : s.dp === Number.NEGATIVE_INFINITY
+          ? // (\u2212: the minus sign, escaped so that the CLI bundle stays ASCII: scripts/ascii-bundle.mjs.)
+            msg`The humidity ratio ${fW(s.w)} at ${fP(s.p)} gives a \
 vapour pressure too small to have a dew point (reported as \u2212Infinity).`
-              : msg`The dew point ${fT(s.dp)} is below ${fTL(T_MIN_C)}: extrapolated from the ice equation.`,
-        fix: 'Nothing to fix if the air is meant to be this dry.',
-        keys: ['dp'],
-      }),
-    );
-  }
-  if (s.wb < T_MIN_C - RANGE_ROUNDOFF_K) {
-    warnings.push(
-      makeProblem({
-        code: 'out-of-range',
-        message: msg`The wet-bulb ${fT(s.wb)} is below ${fTL(T_MIN_C)}: extrapolated from the ice equation.`,
-        fix: 'Nothing to fix if the air is meant to be this cold and dry.',
-        keys: ['wb'],
-      }),
-    );
-  }
-  if (!Number.isFinite(s.ws)) {
-    warnings.push(
-      makeProblem({
-        code: 'pressure-below-saturation',
-        message: msg`The dry-bulb ${fT(s.db)} is at or above the boiling point at ${fP(s.p)}: this air cannot be \
+          : msg`The dew point ${fT(s.dp)} is below ${fTL(T_MIN_C)}: extrapolated from the ice equation.`,
+    fix: 'Nothing to fix if the air is meant to be this dry.',
+    keys: ['dp'],
+  });
+}
+
+/** `out-of-range`: the wet-bulb of `s` is below the formulation's range. */
+function wetBulbBelowRange(s: MoistAirState): PhysicsProblem {
+  return makeProblem({
+    code: 'out-of-range',
+    message: msg`The wet-bulb ${fT(s.wb)} is below ${fTL(T_MIN_C)}: extrapolated from the ice equation.`,
+    fix: 'Nothing to fix if the air is meant to be this cold and dry.',
+    keys: ['wb'],
+  });
+}
+
+/** `pressure-below-saturation`: `s` is at or above the boiling point at its pressure. */
+function cannotSaturate(s: MoistAirState): PhysicsProblem {
+  return makeProblem({
+    code: 'pressure-below-saturation',
+    message: msg`The dry-bulb ${fT(s.db)} is at or above the boiling point at ${fP(s.p)}: this air cannot be \
 saturated, so the saturation humidity ratio is infinite and the degree of saturation does not exist (given as 0).`,
-        fix: 'Nothing to fix if superheated air is meant; otherwise check the pressure.',
-        keys: ['db'],
-      }),
-    );
-  }
+    fix: 'Nothing to fix if superheated air is meant; otherwise check the pressure.',
+    keys: ['db'],
+  });
 }
 
 /** The warnings of the solve under way (see {@link solveState}). */
@@ -218,16 +225,7 @@ export function solveState(
     const state = solveOrThrow(input, p, options, warnings);
     // Only absurd figures (a pressure of 1e-320 Pa, a humidity ratio of 1e308) overflow a property.
     const overflow = notFinite(state);
-    if (overflow) {
-      const what = overflow === 'v' ? 'specific volume' : overflow === 'h' ? 'enthalpy' : `property (${overflow})`;
-      throw problem(
-        'out-of-range',
-        msg`At ${fP(p)} these figures give a ${what} that is not a finite number.`,
-        msg`Check the pressure and the humidity ratio: they are far outside any real air \
-(${fPL(101325)} at sea level).`,
-        DEFINING_KEYS.filter((k) => input[k] !== undefined),
-      );
-    }
+    if (overflow) throw overflowProblem(overflow, p, input);
     stateWarnings(state, warnings);
     return { ok: true, state, warnings: warnings.length === 0 ? NO_WARNINGS : warnings.splice(0) };
   } catch (e) {
@@ -236,11 +234,33 @@ export function solveState(
   }
 }
 
+/** The problem of a state whose property `overflow` is not finite (see {@link solveState}). */
+function overflowProblem(
+  overflow: NonNullable<ReturnType<typeof notFinite>>,
+  p: number,
+  input: Partial<Record<DefiningKey, number>>,
+): PsychroError {
+  const what = overflow === 'v' ? 'specific volume' : overflow === 'h' ? 'enthalpy' : `property (${overflow})`;
+  return problem(
+    'out-of-range',
+    msg`At ${fP(p)} these figures give a ${what} that is not a finite number.`,
+    msg`Check the pressure and the humidity ratio: they are far outside any real air \
+(${fPL(101325)} at sea level).`,
+    DEFINING_KEYS.filter((k) => input[k] !== undefined),
+  );
+}
+
 /**
  * The first property of `s` that is finite for any real air (dp and ws may be infinite, see
- * MoistAirState) but is not here, or null (one test after another: no list or function per state).
+ * MoistAirState) but is not here, or null: one test of them all (`figuresFinite`), and the
+ * property looked for only when one is not (no list or function per state).
  */
 function notFinite(s: MoistAirState): 'db' | 'wb' | 'rh' | 'w' | 'h' | 'v' | 'rho' | 'pw' | 'pws' | 'mu' | null {
+  return figuresFinite(s, true) ? null : firstNotFinite(s);
+}
+
+/** The first property of `s` that {@link notFinite} finds not finite (there is one). */
+function firstNotFinite(s: MoistAirState): 'db' | 'wb' | 'rh' | 'w' | 'h' | 'v' | 'rho' | 'pw' | 'pws' | 'mu' | null {
   if (!Number.isFinite(s.db)) return 'db';
   if (!Number.isFinite(s.wb)) return 'wb';
   if (!Number.isFinite(s.rh)) return 'rh';
@@ -289,42 +309,10 @@ function solveOrThrow(
     (h !== undefined ? H : 0);
   let n = 0;
   for (let m = mask; m !== 0; m &= m - 1) n++;
-  if (n !== 2) {
-    const given = keysOf(mask);
-    if (n < 2) {
-      const k1 = given[0];
-      const second =
-        k1 === 'db'
-          ? 'wb, dp, rh, w or h'
-          : k1 === 'w' || k1 === 'dp'
-            ? 'a temperature (db or wb), rh or h'
-            : 'db or w';
-      throw problem(
-        'underspecified',
-        k1 === undefined
-          ? 'No defining property is given: a state needs two.'
-          : `Only the ${NAMES[k1]} is given: a state needs two defining properties.`,
-        k1 === undefined
-          ? 'Give two of db, wb, dp, rh, w, h (for example db and rh).'
-          : `Add a second property: ${second}.`,
-        given,
-      );
-    }
-    throw problem(
-      'overspecified',
-      `${n} defining properties are given (${given.join(', ')}); the solver takes exactly two.`,
-      'Pass two of them to the solver and compare the others with the result.',
-      given,
-    );
-  }
-  if (!(p > 0 && p < Number.POSITIVE_INFINITY)) {
-    throw problem(
-      'out-of-range',
-      `Pressure ${String(p)} Pa is not a positive, finite pressure.`,
-      msg`Give the barometric pressure as a positive figure (${fPL(101325)} at sea level), or a site elevation.`,
-      [],
-    );
-  }
+  // The problems are made by functions of their own (cold paths out of this hot one: a smaller
+  // function is optimised sooner, and compiles in less time).
+  if (n !== 2) throw countProblem(mask, n);
+  if (!(p > 0 && p < Number.POSITIVE_INFINITY)) throw pressureProblem(p);
   if (db !== undefined) checkValue('db', db);
   if (wb !== undefined) checkValue('wb', wb);
   if (dp !== undefined) checkValue('dp', dp);
@@ -353,13 +341,7 @@ function solveOrThrow(
     case DP | RH:
       return fromDpRh(dp!, rh!, p, opts, warnings);
     case DP | W:
-      throw problem(
-        'dependent-pair',
-        msg`The dew point and the humidity ratio both fix the moisture content \
-(at ${fP(p)} one follows from the other), so together they do not fix the state.`,
-        'Replace one of them with a temperature (db or wb), the relative humidity (rh) or the enthalpy (h).',
-        ['dp', 'w'],
-      );
+      throw dependentDpW(p);
     case DP | H:
       return fromDpH(dp!, h!, p, opts, warnings);
     case RH | W:
@@ -369,6 +351,53 @@ function solveOrThrow(
     default: // W | H
       return fromWH(w!, h!, p, opts, warnings);
   }
+}
+
+/** The problem of a solver input with `n` (not two) defining properties, those of `mask`. */
+function countProblem(mask: number, n: number): PsychroError {
+  const given = keysOf(mask);
+  if (n < 2) {
+    const k1 = given[0];
+    const second =
+      k1 === 'db' ? 'wb, dp, rh, w or h' : k1 === 'w' || k1 === 'dp' ? 'a temperature (db or wb), rh or h' : 'db or w';
+    return problem(
+      'underspecified',
+      k1 === undefined
+        ? 'No defining property is given: a state needs two.'
+        : `Only the ${NAMES[k1]} is given: a state needs two defining properties.`,
+      k1 === undefined
+        ? 'Give two of db, wb, dp, rh, w, h (for example db and rh).'
+        : `Add a second property: ${second}.`,
+      given,
+    );
+  }
+  return problem(
+    'overspecified',
+    `${n} defining properties are given (${given.join(', ')}); the solver takes exactly two.`,
+    'Pass two of them to the solver and compare the others with the result.',
+    given,
+  );
+}
+
+/** The problem of a solver pressure `p` that is not positive and finite. */
+function pressureProblem(p: number): PsychroError {
+  return problem(
+    'out-of-range',
+    `Pressure ${String(p)} Pa is not a positive, finite pressure.`,
+    msg`Give the barometric pressure as a positive figure (${fPL(101325)} at sea level), or a site elevation.`,
+    [],
+  );
+}
+
+/** The problem of dew point with humidity ratio at `p`: a dependent pair. */
+function dependentDpW(p: number): PsychroError {
+  return problem(
+    'dependent-pair',
+    msg`The dew point and the humidity ratio both fix the moisture content \
+(at ${fP(p)} one follows from the other), so together they do not fix the state.`,
+    'Replace one of them with a temperature (db or wb), the relative humidity (rh) or the enthalpy (h).',
+    ['dp', 'w'],
+  );
 }
 
 /**
@@ -522,17 +551,20 @@ function fromDbRh(db: number, rh: number, p: number): MoistAirState {
   const lnPwsDb = db < SWITCH_C ? lnPwsIce(T) : lnPwsWater(T);
   const pwsDb = Math.exp(lnPwsDb);
   const pw = rh * pwsDb;
-  if (pw >= p) {
-    throw problem(
-      'pressure-below-saturation',
-      msg`At ${fT(db)} and ${fRh(rh)} the vapour pressure would \
-be ${fP(pw)}, at or above the total pressure ${fP(p)}: water boils there.`,
-      msg`Lower the relative humidity below ${fRh(p / pwsDb)} or the dry-bulb, or raise the pressure.`,
-      ['db', 'rh'],
-    );
-  }
+  if (pw >= p) throw boilsAtDbRh(db, rh, p, pwsDb, pw);
   const w = (EPSILON * pw) / (p - pw);
   return completeState(db, w, p, pwsDb, pw, lnPwsDb + Math.log(rh), Number.NaN, Number.NaN);
+}
+
+/** The problem of db with rh whose vapour pressure `pw` (rh·`pwsDb`) is at or above `p`. */
+function boilsAtDbRh(db: number, rh: number, p: number, pwsDb: number, pw: number): PsychroError {
+  return problem(
+    'pressure-below-saturation',
+    msg`At ${fT(db)} and ${fRh(rh)} the vapour pressure would \
+be ${fP(pw)}, at or above the total pressure ${fP(p)}: water boils there.`,
+    msg`Lower the relative humidity below ${fRh(p / pwsDb)} or the dry-bulb, or raise the pressure.`,
+    ['db', 'rh'],
+  );
 }
 
 function fromDbH(
