@@ -56,7 +56,7 @@ describe("a state's figures tested for finiteness", () => {
   it("reads an engine state's figures from its array: no getter is called by the solve's test or the result's", () => {
     const solved = solveState({ db: 24, rh: 0.5 }, 101325);
     expect(solved.ok).toBe(true);
-    const state = (solved as { state: MoistAir }).state;
+    const state = (solved as { state: unknown }).state as MoistAir;
     expect(state).toBeInstanceOf(MoistAir);
     const getters = STATE_FIGURES.map((name) => vi.spyOn(MoistAir.prototype, name, 'get'));
     expect(stateFinite(state)).toBe(true);
