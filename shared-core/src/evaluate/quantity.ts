@@ -72,12 +72,21 @@ export class ReadPropertyFigure implements ReadProp, ResolvedQuantity {
   readonly unit: UnitDef | null;
   readonly prop: PropertyNode;
   readonly spec: KeySpec;
+  /**
+   * The key: its row's own string, equal to the key as written (the row was found by it). The
+   * row's string is the table's literal, which compares with the literals of the evaluator
+   * (`key === 'db'`) at once, where the string read from the note is compared character by
+   * character. A field rather than a getter: it is read some five times per state, and before
+   * the engine has optimised its readers a getter is a call each time.
+   */
+  readonly key: string;
 
   /** `unit`: the written value's unit as found (null for a bare number read in the SI base). */
   constructor(unit: UnitDef | null, prop: PropertyNode, spec: KeySpec) {
     this.unit = unit;
     this.prop = prop;
     this.spec = spec;
+    this.key = spec.key;
   }
 
   /** The written value in the SI base of the key's dimension (see {@link resolveQuantity}). */
@@ -89,15 +98,6 @@ export class ReadPropertyFigure implements ReadProp, ResolvedQuantity {
   /** The claim's band, SI (see {@link resolveQuantity}). */
   get toleranceSI(): number {
     return toleranceOf(this.prop.value!, this.spec.dimension, this.unit === null ? 1 : this.unit.scale);
-  }
-
-  /**
-   * The key: its row's own string, equal to the key as written (the row was found by it). The
-   * row's string is the table's literal, which compares with the literals of the evaluator
-   * (`key === 'db'`) at once, where the string read from the note is compared character by character.
-   */
-  get key(): string {
-    return this.spec.key;
   }
 
   get q(): ResolvedQuantity {

@@ -40,7 +40,7 @@ import {
   satTempRaw,
 } from './saturation';
 import { completeState, fogState, pwsAt } from './state';
-import { figuresFinite } from './moistAir';
+import { MoistAir, figuresFinite } from './moistAir';
 import { humRatioEq33, supersaturatedError, wRoundoff } from './wetbulb';
 import { SATURATION_ROUNDOFF, TEMP_ROUNDOFF_K, pressureBelowSaturation } from './checks';
 import { findRoot } from './roots';
@@ -155,9 +155,11 @@ vapour (${fW(ws)}); the rest, ${fW(w - ws)}, is suspended ${t < 0 ? 'ice' : 'liq
  */
 function stateWarnings(s: MoistAirState, warnings: PhysicsProblem[]): void {
   if (s.fog) return;
-  if (s.dp < T_MIN_C - RANGE_ROUNDOFF_K) warnings.push(dewPointBelowRange(s));
-  if (s.wb < T_MIN_C - RANGE_ROUNDOFF_K) warnings.push(wetBulbBelowRange(s));
-  if (!Number.isFinite(s.ws)) warnings.push(cannotSaturate(s));
+  // An engine state's figures are read from its array (as in `figuresFinite`: no getter call).
+  const f = s instanceof MoistAir ? s.figures : null;
+  if ((f ? f[3]! : s.dp) < T_MIN_C - RANGE_ROUNDOFF_K) warnings.push(dewPointBelowRange(s));
+  if ((f ? f[2]! : s.wb) < T_MIN_C - RANGE_ROUNDOFF_K) warnings.push(wetBulbBelowRange(s));
+  if (!Number.isFinite(f ? f[11]! : s.ws)) warnings.push(cannotSaturate(s));
 }
 
 /** `out-of-range`: the dew point of `s` is below the formulation's range (or has none). */
