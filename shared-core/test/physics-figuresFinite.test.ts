@@ -53,7 +53,7 @@ describe("a state's figures tested for finiteness", () => {
     expect(figuresFinite(stateOf(FIGURES.map(() => 0)), false)).toBe(true);
   });
 
-  it("reads an engine state's figures from its array: no getter is called by the solve's checks or the result's", () => {
+  it("reads an engine state's figures from its array: no getter called by the solve's checks or the result's", () => {
     const solved = solveState({ db: 24, rh: 0.5 }, 101325);
     expect(solved.ok).toBe(true);
     const state = (solved as { state: unknown }).state as MoistAir;
