@@ -275,9 +275,20 @@ function wordsOf(bytes: Uint8Array): Words {
 }
 
 /**
+ * How many times running a string, figure or array of strings comes after the same line start
+ * before it is kept with it ({@link Lead}): three, not two. The second time is a note's second
+ * state, before the engine has begun to record what the writer's methods do (it does once a
+ * method has run for a while); the step that keeps a value would then be first recorded when
+ * some later value repeats, after the method is compiled, and that sends the compiled method
+ * back to the interpreter, to be compiled again. The third time comes after the recording has
+ * begun. (A value that repeats is written out once more before it is copied.)
+ */
+const KEEP_RUN = 3;
+
+/**
  * The start of a member's line (`,`, the line break, the indentation and the key) or of an array
  * element's, as {@link Words}; and the last value written after it, kept with the lead as one
- * {@link Words} once the same value came twice running. A state's members come at the same depth
+ * {@link Words} once the same value came {@link KEEP_RUN} times running. A state's members come at the same depth
  * with the same key every time, and many of their values repeat from state to state (the
  * pressure and its description, the kind, `ok`, the defining keys): such a member is then one
  * copy of bytes made once, with no figure's digits to find and no string to read. The bytes kept
@@ -291,7 +302,11 @@ class Lead implements Words {
   lastString: string | null = null;
   lastFigure = Number.NaN;
   lastStrings: readonly string[] | null = null;
-  /** The value kept with the lead (it came twice running), and the lead with its text. */
+  /** How many times running the last string, figure and array of strings came. */
+  stringRun = 0;
+  figureRun = 0;
+  stringsRun = 0;
+  /** The value kept with the lead (it came {@link KEEP_RUN} times running), and the lead with its text. */
   keptString: string | null = null;
   withString: Words | null = null;
   keptFigure = Number.NaN;
@@ -619,8 +634,10 @@ export class TextWriter implements JsonWriter {
     this.words(lead);
     this.figure(xs, i);
     // (NaN, null, is never equal to the last figure: it is never kept.)
-    if (x !== lead.lastFigure) lead.lastFigure = x;
-    else {
+    if (x !== lead.lastFigure) {
+      lead.lastFigure = x;
+      lead.figureRun = 1;
+    } else if (++lead.figureRun >= KEEP_RUN) {
       lead.withFigure = this.kept(start, pieces);
       if (lead.withFigure !== null) lead.keptFigure = x;
     }
@@ -762,8 +779,10 @@ export class TextWriter implements JsonWriter {
     this.string(v);
     // (A string too long to keep is not remembered either: no long string is held on to.)
     if (typeof v !== 'string' || v.length > KEPT_BYTES) return;
-    if (v !== lead.lastString) lead.lastString = v;
-    else {
+    if (v !== lead.lastString) {
+      lead.lastString = v;
+      lead.stringRun = 1;
+    } else if (++lead.stringRun >= KEEP_RUN) {
       lead.withString = this.kept(start, pieces);
       if (lead.withString !== null) lead.keptString = v;
     }
@@ -841,8 +860,10 @@ export class TextWriter implements JsonWriter {
     if (lead === null) return;
     // Only an array short enough to keep is remembered (and copied: the caller's may change).
     if (pieces !== this.pieces || this.pos - start > KEPT_BYTES) lead.lastStrings = null;
-    else if (lead.lastStrings === null || !sameStrings(v, lead.lastStrings)) lead.lastStrings = [...v];
-    else {
+    else if (lead.lastStrings === null || !sameStrings(v, lead.lastStrings)) {
+      lead.lastStrings = [...v];
+      lead.stringsRun = 1;
+    } else if (++lead.stringsRun >= KEEP_RUN) {
       lead.withStrings = this.kept(start, pieces);
       lead.keptStrings = lead.lastStrings;
     }

@@ -95,8 +95,8 @@ describe('a row of figures from an array of doubles', () => {
     text.flush();
     expect(c.pieces.length).toBeGreaterThan(50);
     expect(c.text()).toBe(stringifiedAt(objects.result, 2));
-    // The pressure, ±0 and 50 and 0.0093 are copies from the third row on, and the repeats of the
-    // runs from their second repeat on (counted: the work saved cannot silently go).
+    // The pressure, ±0 and 50 and 0.0093 are copies from the fourth row on, and the repeats of the
+    // runs from their third repeat on (counted: the work saved cannot silently go).
     expect(text.copies).toBeGreaterThan(4 * 19_000);
     // The row's figures share their line starts with fig(): once the row has written the same
     // pressure three times after a line start, fig() writing it there is a copy too.

@@ -250,7 +250,7 @@ describe('eval --format json, written without the objects', () => {
   });
 
   it('writes a member whose value repeats after the same line start (copied with it) as JSON.stringify does', () => {
-    // Runs of equal values (kept with their line start once they come twice running) and changes,
+    // Runs of equal values (kept with their line start once they come three times running) and changes,
     // at two depths, with values too long to keep, long strings handed out as pieces of their own,
     // and enough rows for the repeats to cross many pieces.
     const K = {
@@ -299,7 +299,7 @@ describe('eval --format json, written without the objects', () => {
     expect(c.text()).toBe(stringifiedAt(want, 2));
   });
 
-  it('copies a member whose value came twice running after the same line start, and only then', () => {
+  it('copies a member whose value came three times running after the same line start, and only then', () => {
     // The members of every state that repeat (kind, ok, pressure, its description, defining keys)
     // are written as one copy once kept: counted, so that the saving cannot silently go.
     // What is kept stays with the line starts (keys by depth) from writer to writer: each run has
@@ -326,11 +326,11 @@ describe('eval --format json, written without the objects', () => {
       w.flush();
       return w.copies;
     };
-    // A value is kept the second time it comes, and every later one is a copy (true and false
-    // are kept the first time each comes); changing values are written every time, but for the
-    // first defining key, an element of its own.
-    expect(run(1000, true, 5)).toBe(4 * (1000 - 2) + (1000 - 1));
-    expect(run(1000, false, 6)).toBe(1000 - 1 + (1000 - 2));
+    // A value is kept the third time it comes running (KEEP_RUN), and every later one is a copy
+    // (true and false are kept the first time each comes); changing values are written every
+    // time, but for the first defining key, an element of its own.
+    expect(run(1000, true, 5)).toBe(4 * (1000 - 3) + (1000 - 1));
+    expect(run(1000, false, 6)).toBe(1000 - 1 + (1000 - 3));
   });
 
   it('writes whole numbers (line numbers) and any other number as JSON.stringify does', () => {
