@@ -476,6 +476,14 @@ function quietOnClose(stream: NodeJS.WriteStream): NodeJS.WriteStream {
   return stream;
 }
 
+/**
+ * Whether text for standard output goes to the descriptor as bytes, as the eval JSON does (see
+ * `outBytes`), so that the output stream is not made for it (see `quietOnClose`). Not on
+ * Windows, where a console shows text written through the stream only (the stream converts it
+ * for the console).
+ */
+const TEXT_TO_DESCRIPTOR = process.platform !== 'win32';
+
 /** The process's own I/O. */
 export function processIO(): CliIO {
   let stdinBytes: Promise<Uint8Array> | null = null;
@@ -483,20 +491,25 @@ export function processIO(): CliIO {
   let stderrStream: NodeJS.WriteStream | null = null;
   const stdout = (): NodeJS.WriteStream => (stdoutStream ??= quietOnClose(process.stdout));
   const stderr = (): NodeJS.WriteStream => (stderrStream ??= quietOnClose(process.stderr));
+  // Bytes go to the descriptor as the system takes them, the reader setting the pace
+  // (./stdoutBytes), unless text is still queued in the stream (they must come after it) or the
+  // descriptor fails (a closed pipe): then to the stream, which queues what it cannot write at
+  // once, holding on to it — the writer is told so and takes new memory. (A stream not made yet
+  // holds nothing.)
+  const outBytes = (bytes: Uint8Array): boolean => {
+    const written = stdoutStream === null || stdoutStream.writableLength === 0 ? writeWaiting(1, bytes) : 0;
+    if (written === bytes.length) return false;
+    stdout().write(bytes.subarray(written));
+    return stdout().writableLength > 0;
+  };
   return {
     cwd: process.cwd(),
-    out: (t) => stdout().write(t),
-    // Bytes go to the descriptor as the system takes them, the reader setting the pace
-    // (./stdoutBytes), unless text is still queued in the stream (they must come after it) or the
-    // descriptor fails (a closed pipe): then to the stream, which queues what it cannot write at
-    // once, holding on to it — the writer is told so and takes new memory. (A stream not made yet
-    // holds nothing.)
-    outBytes: (bytes) => {
-      const written = stdoutStream === null || stdoutStream.writableLength === 0 ? writeWaiting(1, bytes) : 0;
-      if (written === bytes.length) return false;
-      stdout().write(bytes.subarray(written));
-      return stdout().writableLength > 0;
+    out: (t) => {
+      // (A new buffer of the text's own: whether the stream keeps it does not matter.)
+      if (TEXT_TO_DESCRIPTOR) outBytes(Buffer.from(t, 'utf8'));
+      else stdout().write(t);
     },
+    outBytes,
     err: (t) => stderr().write(t),
     stdin: (maxBytes) => (stdinBytes ??= readStdin(maxBytes)),
     // Read only when a progress line could be shown (many files): see `quietOnClose`.

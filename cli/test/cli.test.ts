@@ -382,7 +382,18 @@ describe('dewmark eval', () => {
     expect(r.out.toString('utf8').startsWith('{\n  "files": [\n')).toBe(true);
   });
 
-  it('--format json on a clean note makes neither output stream (Node loads its stream modules for one)', () => {
+  it("check's text to a reader that stops reading (| head) ends quietly", async () => {
+    const lines = Array.from({ length: 5000 }, (_, i) => `state B${i}: db=24C w=9.3g/kg rh=80%`);
+    writeFileSync(join(dir, 'stale.md'), ['# Stale claims (invented)', '', '```air', ...lines, '```', ''].join('\n'));
+    const r = await throughPipe(['check', 'stale.md'], (out) => {
+      (out as NodeJS.ReadableStream & { destroy(): void }).destroy();
+    });
+    expect(r.code).toBe(0);
+    expect(r.err).toBe('');
+    expect(r.out.toString('utf8').startsWith('stale.md:4:')).toBe(true);
+  });
+
+  it('check and eval --format json on a clean note make neither output stream (Node loads its stream modules for one)', () => {
     // A preload that says, straight to the descriptor, when process.stdout or process.stderr is
     // first read (Node makes the stream then).
     const preload = join(dir, 'stream-reads.cjs');
@@ -403,11 +414,15 @@ describe('dewmark eval', () => {
     expect(json.status).toBe(0);
     expect(JSON.parse(json.stdout).files[0].states.length).toBeGreaterThan(0);
     expect(json.stderr).toBe('');
-    // Text goes through the stream: then it is made (the preload does see it).
     const text = run(['check', 'good.md']);
     expect(text.status).toBe(0);
     expect(text.stdout).toBe('1 file, 0 errors, 0 warnings\n');
-    expect(text.stderr).toBe('made process.stdout\n');
+    // Text goes to the descriptor (not on Windows, where a console needs the stream).
+    expect(text.stderr).toBe(process.platform === 'win32' ? 'made process.stdout\n' : '');
+    // A message on stderr goes through its stream: then it is made (the preload does see it).
+    const usage = run(['check', '--format', 'nope', 'good.md']);
+    expect(usage.status).toBe(2);
+    expect(usage.stderr).toMatch(/^made process\.stderr\ndewmark: --format must be/);
   });
 
   it('is an ASCII bundle, which Node reads as one-byte text (scripts/ascii-bundle.mjs)', () => {
