@@ -393,7 +393,7 @@ describe('dewmark eval', () => {
     expect(r.out.toString('utf8').startsWith('stale.md:4:')).toBe(true);
   });
 
-  it('check and eval --format json on a clean note make neither output stream (Node loads stream modules for one)', () => {
+  it('check and eval --format json on a clean note make no output stream (Node loads stream modules for one)', () => {
     // A preload that says, straight to the descriptor, when process.stdout or process.stderr is
     // first read (Node makes the stream then).
     const preload = join(dir, 'stream-reads.cjs');
