@@ -14,6 +14,13 @@ export const JSON_SIGNIFICANT_DIGITS = 12;
 /** 10⁰ … 10²²: the powers of ten a double holds exactly. */
 const POW10 = Float64Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
 
+/**
+ * 2²⁷ + 1, and the high halves (26 bits) of the powers of ten in {@link POW10}: Veltkamp's
+ * splitting of a double into two halves whose products are exact (see {@link scaledDigits}).
+ */
+const SPLITTER = 134217729;
+const POW10_HIGH = POW10.map((p) => SPLITTER * p - (SPLITTER * p - p));
+
 /** 2³¹ and 2³². */
 const TWO_31 = 2147483648;
 const TWO_32 = 4294967296;
@@ -31,9 +38,8 @@ let scale = 0;
 /**
  * The usual figure's 12 significant digits, found without `toPrecision`: for 1e-6 ≤ a < 1e11,
  * a is scaled by 10^s to a 12-digit whole number M (so that the figure is M / 10^s): returns M
- * (below 10¹²; 0 for a = 0, at s = 11) and sets {@link scale} to s (at most 17); −1 for any other a, and when the
- * scaled figure lies within 1e-4 of a half (the scaling is exact to that, so a tie is left to
- * `toPrecision`).
+ * (below 10¹²; 0 for a = 0, at s = 11) and sets {@link scale} to s (at most 17); −1 for any
+ * other a. M is a·10^s rounded half up, as `toPrecision` rounds the exact value of a.
  */
 function scaledDigits(a: number): number {
   // Zero is the digits 0 at scale 11 (its text is `0`, as for any M below 10¹¹ at that scale).
@@ -54,11 +60,28 @@ function scaledDigits(a: number): number {
   // One decimal fewer when a has one digit more than the table assumes (13 digits scaled); the
   // comparison is taken as a number, so that no branch hangs on which (it is either, by the figure).
   s = (s - +(a * POW10[s]! >= 1e12)) | 0;
-  const y = a * POW10[s]!;
-  const m = Math.round(y);
-  // y − m is y's fraction, or it less 1 (both exact): within 1e-4 of ±0.5 is a tie.
-  const d = y - m;
-  if (!(y >= 1e11 && y < 1e12 && d < 0.4999 && d > -0.4999)) return -1;
+  const p = POW10[s]!;
+  const y = a * p;
+  if (!(y >= 1e11 && y < 1e12)) return -1;
+  // y is a·10^s rounded once (10^s is exact), so it is within half a unit of its last place
+  // (2⁻¹³ at most here) of the exact product, and its fraction is a whole number of such units:
+  // Math.round(y), which rounds a half up, rounds a·10^s correctly unless y's fraction is
+  // exactly one half (y − m = −0.5, exact). Then the exact product's error e (y + e = a·10^s
+  // exactly: Dekker's product of a's and 10^s's halves) decides: below the half when e < 0.
+  // Everything is computed for every figure, with no step taken only at a half: a step first
+  // taken after the engine compiled this (a half comes once in some thousands of figures) would
+  // send the compiled writer back to the interpreter (see TextWriter.figure). Before, a figure
+  // within 1e-4 of a half went through toPrecision.
+  let m = Math.round(y);
+  const half = y - m === -0.5;
+  const c = SPLITTER * a;
+  const aHigh = c - (c - a);
+  const aLow = a - aHigh;
+  const pHigh = POW10_HIGH[s]!;
+  const pLow = p - pHigh;
+  const e = aHigh * pHigh - y + aHigh * pLow + aLow * pHigh + aLow * pLow;
+  const below = e < 0;
+  m -= half && below ? 1 : 0;
   // A figure that rounds up to 13 digits (M = 10¹²) is 10¹¹ at one decimal fewer: the same
   // quotient (both are 10^(12 − s) exactly), with 12 digits. Chosen by value, not by a branch of
   // its own, for the reason above.
@@ -73,8 +96,8 @@ function scaledDigits(a: number): number {
  * with two; null stays null (never NaN or Infinity in the JSON). It is the double nearest to
  * `x.toPrecision(12)`: the usual figure (1e-6 ≤ |x| < 1e11, and 0) is scaled once to a 12-digit whole
  * number and rounded, and divided back (a quotient of two exact doubles, rounded once, is the
- * double nearest to the decimal); the scaling is exact to 1e-4 of the last digit, so a figure
- * that close to a half (a tie), and any other figure, goes through `toPrecision` itself. (The
+ * double nearest to the decimal; a figure at a half of its last digit is rounded by the exact
+ * product, see scaledDigits); any other figure goes through `toPrecision` itself. (The
  * test of the JSON precision compares the two on a million figures.)
  */
 export function roundForJson(x: number | null | undefined): number | null {
@@ -711,7 +734,7 @@ export class TextWriter implements JsonWriter {
     }
   }
 
-  /** A figure's text the slow way (see {@link figure}): null, a tie, or beyond the usual range. */
+  /** A figure's text the slow way (see {@link figure}): null, or beyond the usual range. */
   private figureText(x: number): void {
     this.ascii(Number.isFinite(x) ? `${roundForJson(x)}` : 'null');
   }
