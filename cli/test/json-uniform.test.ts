@@ -2,8 +2,9 @@
  * The JSON writer's usual lines take the same steps whatever their values, so that the engine,
  * which compiles a method from the steps it has seen taken, is never sent back to the interpreter
  * by a value first met after that (a zero, a figure that rounds up to 13 digits, a figure at a
- * half of its 12th digit, a figure whose last four digits are zeros, a line number of five digits or more, an empty array at the end of
- * the document). What can be counted is pinned here: the figures that take the slow way
+ * half of its 12th digit, a figure whose last four digits are zeros, a line number of five
+ * digits or more, an empty array at the end of the document). What can be counted is pinned
+ * here: the figures that take the slow way
  * (`toPrecision`, counted by wrapping it), and the text of every such value, compared with
  * JSON.stringify. (No time is measured.)
  */
