@@ -126,6 +126,9 @@ function dropTokens(state: StateBlock, n: number): void {
 /** Deepest nesting of containers (and of inline links) followed; deeper content is not read. */
 export const MAX_NESTING = 100;
 
+/** Characters at the start of a text whose lines give the first guess of its line count. */
+const LINE_SAMPLE = 4096;
+
 /** `a`'s values in a new array of `size` (zeros after them). */
 function grown(a: Int32Array, size: number): Int32Array {
   const b = new Int32Array(size);
@@ -572,12 +575,17 @@ function useFastTokens(md: Md): void {
       const len = src.length;
       // The five tables are typed arrays (their storage is outside the garbage-collected heap;
       // markdown-it only ever indexes them, and every value is an integer between -1 and the
-      // text's length). They start at a guess of the line count (32 characters a line) and grow
-      // by half when full (a native copy; so at most a third of a table is unused, and only while
-      // the note is parsed), rather than the lines being counted first: that was a second pass of
-      // one `indexOf` per line, and this constructor runs once per note, mostly before it is
-      // optimised.
-      let size = (len >> 5) + 16;
+      // text's length). They start at the line count that the text's first few kilobytes
+      // suggest for the whole, and a quarter more (a note's lines are much alike), and grow by half
+      // when full (a native copy; at most a third of a table is then unused, and only while the
+      // note is parsed), rather than the lines being counted first: that was a second pass of one
+      // `indexOf` per line, and this constructor runs once per note, mostly before it is optimised.
+      const sampleEnd = Math.min(len, LINE_SAMPLE);
+      let sampled = 1;
+      for (let i = src.indexOf('\n'); i >= 0 && i < sampleEnd; i = src.indexOf('\n', i + 1)) sampled++;
+      // (Never more than a line per 16 characters at first: a text whose start is dense with
+      // line breaks cannot make the tables large; shorter lines throughout grow them.)
+      let size = Math.min(Math.ceil((1.25 * sampled * len) / Math.max(sampleEnd, 1)), len >> 4) + 16;
       let bMarks: Int32Array = new Int32Array(size);
       let eMarks: Int32Array = new Int32Array(size);
       let tShift: Int32Array = new Int32Array(size);
