@@ -11,7 +11,7 @@ import { allocatedBytes } from './allocation-helpers';
 import { evaluate } from '../src/evaluate/evaluate';
 import { NameTable } from '../src/evaluate/nameTable';
 import { readProps } from '../src/evaluate/props';
-import { readQuantity, type ResolvedQuantity } from '../src/evaluate/quantity';
+import { ReadFigure, ReadPropertyFigure, readQuantity, type ResolvedQuantity } from '../src/evaluate/quantity';
 import { EvalContext } from '../src/evaluate/context';
 import { NoteNames, statementList } from '../src/evaluate/names';
 import { resolveSettings } from '../src/evaluate/settings';
@@ -20,6 +20,7 @@ import type { StateStatement } from '../src/notation/ast';
 import { parseNote } from '../src/notation/parse';
 import { solveState } from '../src/physics';
 import { dewPointFromHumRatio, wetBulbFromHumRatio } from '../src/physics/wetbulb';
+import { MoistAir } from '../src/physics/moistAir';
 
 /** A block of `n` states with distinct names, each from db and rh (invented). */
 function statesNote(n: number): string {
@@ -168,5 +169,60 @@ describe('the structure that keeps it low', () => {
     expect(Reflect.get(small, 'slots')).not.toBe(first);
     expect(first.length).toBeLessThan(slots.length);
     for (let i = 0; i < n; i += 997) expect(small.get(`S${i}`)).toBe(table.get(`S${i}`));
+  });
+});
+
+describe('the objects made per state', () => {
+  /**
+   * Makes an object with `make` and counts the fields `names` that its constructor sets by
+   * assignment to a field the object does not have yet (a setter put on the prototype for each
+   * catches that). A class field that is defined (not `declare`d) is made an own field, set to
+   * undefined, before the constructor runs (an initializer of its own, for every state solved and
+   * every property read), and the constructor's assignment then passes the setter by. Returns the
+   * count and the object's own keys, in order.
+   */
+  function assignedFields(
+    proto: object,
+    names: readonly string[],
+    make: () => object,
+  ): { set: number; keys: string[] } {
+    let set = 0;
+    for (const name of names) {
+      Object.defineProperty(proto, name, {
+        configurable: true,
+        set(this: object, v: unknown) {
+          set++;
+          Object.defineProperty(this, name, { value: v, writable: true, enumerable: true, configurable: true });
+        },
+      });
+    }
+    try {
+      const keys = Object.keys(make());
+      return { set, keys };
+    } finally {
+      for (const name of names) delete (proto as Record<string, unknown>)[name];
+    }
+  }
+
+  it('sets each field once, in order, with no field defined before the constructor', () => {
+    const parsed = parseNote('```air\nstate OA: db=24C rh=50%\n```\n');
+    const stmt = parsed.statements[0] as StateStatement;
+    const prop = stmt.props[0]!;
+    const spec = STATE_KEYS.db!;
+    const figure = readQuantity(prop, prop.value!, spec);
+    expect(figure.ok).toBe(true);
+    const unit = (figure as { value: ResolvedQuantity }).value.unit;
+    const cases: [object, readonly string[], () => object][] = [
+      [MoistAir.prototype, ['figures', 'fog'], () => new MoistAir([101325, 24], false)],
+      [ReadPropertyFigure.prototype, ['unit', 'prop', 'spec', 'key'], () => new ReadPropertyFigure(unit, prop, spec)],
+      [
+        ReadFigure.prototype,
+        ['si', 'unit', 'toleranceSI', 'quantity'],
+        () => new ReadFigure(24, unit, 0.5, prop.value!),
+      ],
+    ];
+    for (const [proto, names, make] of cases) {
+      expect(assignedFields(proto, names, make)).toEqual({ set: names.length, keys: [...names] });
+    }
   });
 });

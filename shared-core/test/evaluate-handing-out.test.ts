@@ -192,6 +192,24 @@ describe('evaluating a note one statement at a time, keeping nothing', () => {
     expect(evaluateHandingOut('All units are SI.\n```air\nstate A: db=20C rh=50%\n```\n')).not.toBeNull();
   });
 
+  it('runs no pattern over a note that never writes the word units', () => {
+    // The note is searched for the word once; the pattern that reads a units: line (a match tried
+    // at every character) runs only over a note that holds it.
+    const lines = ['```air'];
+    for (let i = 0; i < 200; i++) lines.push(`state S${i}: db=${15 + (i % 10)}C rh=${40 + (i % 30)}%`);
+    const text = `${lines.join('\n')}\n\`\`\`\n`;
+    const withUnits = `${text}\`units: SI\`\n`;
+    const exec = vi.spyOn(RegExp.prototype, 'exec');
+    try {
+      expect(evaluateHandingOut(text)).not.toBeNull();
+      expect(exec.mock.calls.filter((args) => args[0] === text)).toEqual([]);
+      expect(evaluateHandingOut(withUnits)).not.toBeNull();
+      expect(exec.mock.calls.filter((args) => args[0] === withUnits).length).toBeGreaterThan(0);
+    } finally {
+      exec.mockRestore();
+    }
+  });
+
   it('keeps a fixed amount per state while it runs: its name, and where its line is, not its tree or result', () => {
     const n = 20_000;
     const text = statesNote(n);

@@ -406,6 +406,9 @@ const UNITS_WRITTEN = /units\s*:\s*(\w*)/g;
  * unit system is `units` from its first statement on, wherever its `units:` line stands.
  */
 function unitsAgree(text: string, units: UnitSystem): boolean {
+  // Most notes write no `units`: one search for the word (a scan for its first character) tells
+  // so, where the pattern tries a match at every character of the note.
+  if (!text.includes('units')) return true;
   UNITS_WRITTEN.lastIndex = 0;
   for (let m = UNITS_WRITTEN.exec(text); m; m = UNITS_WRITTEN.exec(text)) if (m[1] !== units) return false;
   return true;

@@ -33,10 +33,11 @@ export interface ResolvedQuantity {
  * band was written read from the quantity itself (so that a figure is one object of four fields).
  */
 export class ReadFigure implements ResolvedQuantity {
-  readonly si: number;
-  readonly unit: UnitDef | null;
-  readonly toleranceSI: number;
-  readonly quantity: QuantityNode;
+  // Declared only, set by the constructor (see {@link ReadPropertyFigure}).
+  declare readonly si: number;
+  declare readonly unit: UnitDef | null;
+  declare readonly toleranceSI: number;
+  declare readonly quantity: QuantityNode;
 
   constructor(si: number, unit: UnitDef | null, toleranceSI: number, quantity: QuantityNode) {
     this.si = si;
@@ -69,9 +70,12 @@ export class ReadFigure implements ResolvedQuantity {
  * band never (only a claim has one that is compared).
  */
 export class ReadPropertyFigure implements ReadProp, ResolvedQuantity {
-  readonly unit: UnitDef | null;
-  readonly prop: PropertyNode;
-  readonly spec: KeySpec;
+  // The fields are declared only (`declare`: no class field definitions), so that a property read
+  // is made by its constructor's stores alone: a defined field is first made undefined on every
+  // new object by an initializer of its own, a call per object before the engine optimises it.
+  declare readonly unit: UnitDef | null;
+  declare readonly prop: PropertyNode;
+  declare readonly spec: KeySpec;
   /**
    * The key: its row's own string, equal to the key as written (the row was found by it). The
    * row's string is the table's literal, which compares with the literals of the evaluator
@@ -79,7 +83,7 @@ export class ReadPropertyFigure implements ReadProp, ResolvedQuantity {
    * character. A field rather than a getter: it is read some five times per state, and before
    * the engine has optimised its readers a getter is a call each time.
    */
-  readonly key: string;
+  declare readonly key: string;
 
   /** `unit`: the written value's unit as found (null for a bare number read in the SI base). */
   constructor(unit: UnitDef | null, prop: PropertyNode, spec: KeySpec) {

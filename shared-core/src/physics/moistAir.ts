@@ -22,10 +22,13 @@ export type MoistAirRecord = { [K in keyof MoistAirState]: MoistAirState[K] };
 
 /** A moist-air state (see the module comment); build it with {@link moistAir}. */
 export class MoistAir implements MoistAirState {
+  // The fields are declared only (`declare`: no class field definitions), so that a state is
+  // made by its constructor's two stores alone: a defined field is first made undefined on every
+  // new object by an initializer of its own, a call per state before the engine optimises it.
   /** The figures in the order of {@link STATE_FIGURES}, SI (see {@link MoistAirState} for each). */
-  readonly figures: readonly number[];
+  declare readonly figures: readonly number[];
   /** True when the state lies in the fog region. */
-  readonly fog: boolean;
+  declare readonly fog: boolean;
 
   constructor(figures: readonly number[], fog: boolean) {
     this.figures = figures;
