@@ -4,10 +4,12 @@
  * reading its characters over and over, and without looking anything up in the key table (only a
  * message needs a key's example). The counts are of calls the parser makes
  * (`String.prototype.slice` and `charCodeAt` are wrapped while it runs; the key table's lookup is
- * a spy), so they do not depend on the machine or its load. The objects a parsed note
+ * a spy; calls of the parser's own functions come from V8's precise coverage), so they do not
+ * depend on the machine or its load. The objects a parsed note
  * keeps are counted the same way: by walking the tree (every object reachable through the fields of
  * the result), not by measuring the heap.
  */
+import { Session } from 'node:inspector/promises';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { findKey } from '../src/vocabulary/keys';
 import type { ExtractedRegion } from '../src/markdown/regions';
@@ -158,6 +160,50 @@ describe('parser cost per statement', () => {
     const parsed = parseNote(statesNote(1000));
     expect(parsed.diagnostics).toEqual([]);
     expect(vi.mocked(findKey)).not.toHaveBeenCalled();
+  });
+
+  it('calls fewer than 80 of its own functions per simple state, none of them per character', async () => {
+    // A note's first few thousand statements are read by the interpreter and the baseline
+    // compiler, where a call costs more than the comparison a character class makes: the loops
+    // over a statement's characters write the classes out. Counted by V8's precise coverage (calls
+    // of each function of the parser's modules, by name). Calling a class or pack step per
+    // character made about 139 calls per state; now it is 77.
+    const perCharacter = new Set(['isWs', 'isKeyChar', 'isKeyStart', 'isAsciiLetter', 'isDigit', 'packStep']);
+    perCharacter.add('wordCodeStep').add('endsUnit').add('slotOfHash');
+    const session = new Session();
+    session.connect();
+    try {
+      await session.post('Profiler.enable');
+      for (const n of [1000, 3000]) {
+        const text = statesNote(n);
+        await session.post('Profiler.startPreciseCoverage', { callCount: true, detailed: false });
+        // Taking the coverage resets the counts: the calls of the tests before are not counted.
+        await session.post('Profiler.takePreciseCoverage');
+        let read = 0;
+        parseNoteStatements(text, () => read++, []);
+        const { result } = await session.post('Profiler.takePreciseCoverage');
+        await session.post('Profiler.stopPreciseCoverage');
+        expect(read).toBe(n);
+        let calls = 0;
+        let classCalls = 0;
+        for (const script of result) {
+          if (!/notation\/(parse|number|intern|nodes)\.ts/.test(script.url)) continue;
+          for (const f of script.functions) {
+            // Nameless: the module itself, and the getters through which the test runner's
+            // module system reads a binding that another module imports (the bundle has none).
+            if (f.functionName === '') continue;
+            const count = f.ranges[0]?.count ?? 0;
+            calls += count;
+            if (perCharacter.has(f.functionName)) classCalls += count;
+          }
+        }
+        expect(calls).toBeGreaterThan(n); // the count sees the parser at all
+        expect(calls).toBeLessThan(80 * n);
+        expect(classCalls).toBeLessThanOrEqual(8 * n);
+      }
+    } finally {
+      session.disconnect();
+    }
   });
 
   it('still gives the key example in a message about a bad number', () => {

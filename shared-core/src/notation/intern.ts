@@ -82,7 +82,8 @@ export function internedPackedSlice(text: string, start: number, end: number, pa
   // rather than in helpers of their own: this runs for most keys, numbers and units of a note,
   // and each call costs the interpreter more than the arithmetic, before the engine compiles it.
   const key = pack + length * PACK_LENGTH_UNIT;
-  const slot = slotOfHash((key | 0) ^ Math.imul((key * 2 ** -32) | 0, 0x85ebca6b));
+  // `slotOfHash`, written out too.
+  const slot = Math.imul((key | 0) ^ Math.imul((key * 2 ** -32) | 0, 0x85ebca6b), 0x9e3779b1) >>> (32 - SLOT_BITS);
   if (slotPacks[slot] === key) return table[slot] as string;
   const fresh = text.slice(start, end);
   table[slot] = fresh;

@@ -71,11 +71,14 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
   let mantissa = 0;
   let digits = 0;
   const first = pos;
+  // The loops over digits write `isDigit` and `packStep` out: they run for every number of a note,
+  // mostly in the interpreter and the baseline compiler before the engine optimizes this function,
+  // where each call costs more than its arithmetic.
   while (pos < end) {
     c = text.charCodeAt(pos);
-    if (!isDigit(c)) break;
+    if ((c - 0x30) >>> 0 >= 10) break;
     mantissa = mantissa * 10 + (c - 0x30);
-    pack = packStep(pack, c);
+    pack = pack * 256 + c;
     digits++;
     pos++;
   }
@@ -103,9 +106,9 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
     pos++;
     while (pos < end) {
       c = text.charCodeAt(pos);
-      if (!isDigit(c)) break;
+      if ((c - 0x30) >>> 0 >= 10) break;
       mantissa = mantissa * 10 + (c - 0x30);
-      pack = packStep(pack, c);
+      pack = pack * 256 + c;
       digits++;
       pos++;
       fractionDigits++;

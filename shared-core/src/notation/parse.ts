@@ -55,7 +55,7 @@ import type {
 import type { Span } from '../text/types';
 import { lineOffsetsOf } from '../markdown/lines';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
-import { PACK_START, internedPackedSlice, internedSlice, packStep } from './intern';
+import { PACK_START, internedPackedSlice, internedSlice } from './intern';
 import { ParsedNumber, ParsedProperty, ParsedQuantity, ParsedState, ParsedUnit } from './nodes';
 import { resolutionOf, scanNumber, startsNumber, type ScannedNumber } from './number';
 import { differenceExample, findKey, referenceKeyFor } from '../vocabulary/keys';
@@ -103,7 +103,11 @@ function isWs(c: number): boolean {
  * The character classes below are asked of nearly every character of a note, so each is one
  * expression without a call: `c | 0x20` folds A–Z onto a–z, and `(x - low) >>> 0 < n` tests
  * `low <= x < low + n` in one comparison (a character below `low`, or -1 for none, wraps to a large
- * unsigned number).
+ * unsigned number). The loops that read the characters of every statement (its keyword, name,
+ * keys, numbers and units, and the blanks between them) write these expressions out instead of
+ * calling the functions: a note's first few thousand statements are read by the interpreter and
+ * the baseline compiler, where each call costs more than the comparison it makes, and a function
+ * called per character is compiled by the optimizing compiler on its own before its callers are.
  */
 function isAsciiLetter(c: number): boolean {
   return ((c | 0x20) - 0x61) >>> 0 < 26;
@@ -133,14 +137,6 @@ function isKeyStart(c: number): boolean {
 
 function isKeyChar(c: number): boolean {
   return ((c | 0x20) - 0x61) >>> 0 < 26 || (c - 0x30) >>> 0 < 10 || c === 0x5f;
-}
-
-/** Characters that end a unit (and any token of a value). */
-function endsUnit(c: number): boolean {
-  // Split at `=` (the highest ASCII one) so that a letter of a unit is answered in a few comparisons.
-  return c <= 0x3d
-    ? c === 0x20 || (c >= 0x09 && c <= 0x0d) || c === 0x23 || c === 0x2b || c === 0x2c || c === 0x3d
-    : c === 0xb1 || c === 0xa0 || c === 0xfeff;
 }
 
 /**
@@ -297,7 +293,8 @@ class StatementParser {
     // in a method short enough to be compiled into its callers; blanks are skipped by `peekPast`.
     if (this.pos < this.end) {
       const c = this.text.charCodeAt(this.pos);
-      if (!isWs(c)) return c === 0x23 ? -1 : c;
+      // Not a blank (`isWs`, written out): a printable ASCII character is answered by the first test.
+      if (c > 0x20 ? c !== 0xa0 && c !== 0xfeff : c !== 0x20 && (c < 0x09 || c > 0x0d)) return c === 0x23 ? -1 : c;
       this.pos++;
     }
     return this.peekPast();
@@ -311,7 +308,7 @@ class StatementParser {
     for (;;) {
       while (this.pos < this.end) {
         const c = this.text.charCodeAt(this.pos);
-        if (!isWs(c)) return c === 0x23 ? -1 : c;
+        if (c > 0x20 ? c !== 0xa0 && c !== 0xfeff : c !== 0x20 && (c < 0x09 || c > 0x0d)) return c === 0x23 ? -1 : c;
         this.pos++;
       }
       const next = this.segs[this.seg + 1];
@@ -390,8 +387,9 @@ class StatementParser {
     let code = 0;
     while (p < this.end) {
       const c = this.text.charCodeAt(p);
-      if (!isAsciiLetter(c)) break;
-      code = wordCodeStep(code, c);
+      // `isAsciiLetter` and `wordCodeStep`, written out.
+      if (((c | 0x20) - 0x61) >>> 0 >= 26) break;
+      code = code * 64 + (c - 0x40);
       p++;
     }
     const after = this.charAt(p);
@@ -645,7 +643,8 @@ class StatementParser {
     let plain = p < this.end && isAsciiLetter(text.charCodeAt(p));
     while (p < this.end) {
       const c = text.charCodeAt(p);
-      if (isKeyChar(c)) {
+      // `isKeyChar`, written out.
+      if (((c | 0x20) - 0x61) >>> 0 < 26 || (c - 0x30) >>> 0 < 10 || c === 0x5f) {
         p++;
         continue;
       }
@@ -929,17 +928,20 @@ class StatementParser {
         );
         continue;
       }
-      if (isKeyStart(c)) {
+      // `isKeyStart`, written out (see the character classes).
+      if (((c | 0x20) - 0x61) >>> 0 < 26 || c === 0x5f) {
         const text = this.text;
-        // The key, packed for the intern table as it is read (key characters are ASCII).
-        let pack = packStep(PACK_START, c);
+        // The key, packed for the intern table as it is read (key characters are ASCII; the pack
+        // step is written out, as in the loop below).
+        let pack = PACK_START * 256 + c;
         let p = start + 1;
         // `k` is the character at `p` (-1 at the end of the piece): each is read once.
         let k = -1;
         while (p < this.end) {
           k = text.charCodeAt(p);
-          if (!isKeyChar(k)) break;
-          pack = packStep(pack, k);
+          // `isKeyChar` and `packStep`, written out.
+          if (((k | 0x20) - 0x61) >>> 0 >= 26 && (k - 0x30) >>> 0 >= 10 && k !== 0x5f) break;
+          pack = pack * 256 + k;
           p++;
         }
         if (p >= this.end) k = -1;
@@ -958,7 +960,7 @@ class StatementParser {
           }
           const v = this.peek();
           // A digit starts a number: the usual case needs no call.
-          if (isDigit(v) || (v >= 0 && startsNumber(text, this.pos, this.end))) {
+          if ((v - 0x30) >>> 0 < 10 || (v >= 0 && startsNumber(text, this.pos, this.end))) {
             // The usual value, a number: decided by its first character, which is all that
             // `propertyRef` (a reference starts with a letter) and `value` (a missing value is
             // an end, a comma or a `key=`) would look at before reading it as {@link quantity}.
@@ -1298,8 +1300,15 @@ class StatementParser {
     let c = first;
     let pack = PACK_START;
     let wide = 0;
-    while (c >= 0 && !endsUnit(c)) {
-      pack = packStep(pack, c);
+    // Until a character that ends a unit (and any token of a value): a blank, `#`, `+`, `,`, `=` or
+    // `±`. The test is split at `=` (the highest ASCII one of them) so that a letter of a unit is
+    // answered in a few comparisons; the pack step is written out too (see the character classes).
+    while (
+      c > 0x3d
+        ? c !== 0xb1 && c !== 0xa0 && c !== 0xfeff
+        : c >= 0 && c !== 0x20 && (c < 0x09 || c > 0x0d) && c !== 0x23 && c !== 0x2b && c !== 0x2c && c !== 0x3d
+    ) {
+      pack = pack * 256 + c;
       wide |= c;
       p++;
       c = p < this.end ? text.charCodeAt(p) : -1;
