@@ -459,6 +459,99 @@ function fourDigits(): FourDigits {
 }
 
 /**
+ * The text of an object, an element of an array at `depth`, whose members are the same from one
+ * element to the next but for a name, a line number and some figures (a note's plain states):
+ * the bytes before the name, between these values and after the last figure, made once as
+ * {@link Words} from the object's own description (see {@link jsonSkeleton}), so that an element
+ * is written as a dozen runs of bytes and its values ({@link TextWriter.skeletal}).
+ */
+export interface JsonSkeleton {
+  readonly depth: number;
+  /** The text before the name, with the element's line start (its comma, and without for the first element). */
+  readonly head: Words;
+  readonly headFirst: Words;
+  /** The text after the name, after the line number, and after each figure. */
+  readonly runs: readonly Words[];
+  readonly figures: number;
+  /** The first figure the skeleton was made for, and the text after the line number to the second figure with it. */
+  readonly firstFigure: number;
+  readonly withFirst: Words;
+  /** The most bytes an element takes but for its name's (the fixed text, the longest line number and figures). */
+  readonly bytes: number;
+}
+
+/** Writes an object's members (its name, line and figures given) to a writer, at its top. */
+export type SkeletonMembers = (w: JsonWriter, name: string, line: number, xs: Float64Array) => void;
+
+/**
+ * The values a skeleton is made with: text that the fixed members are checked not to hold (a
+ * name of control characters, a nine-digit line, figures of ten digits).
+ */
+const MARK_NAME = '\u0000\u0001\u0002';
+const MARK_LINE = 987654321;
+const markFigure = (i: number): number => 975318642.5 + i;
+
+/** The most bytes a figure's text takes (`-0.00000123456789012`, `-1.23456789012e+21`), and a line number's. */
+const MAX_FIGURE_BYTES = 24;
+const MAX_LINE_BYTES = 10;
+
+/**
+ * The skeleton of the objects `members` writes, at `depth`, with `figures` figures: made by
+ * writing them once with marks for the values and cutting the text at the marks. Null when a
+ * mark's text is not found exactly once, in order (some fixed member held it): the caller then
+ * writes each object member by member.
+ */
+export function jsonSkeleton(
+  depth: number,
+  figures: number,
+  members: SkeletonMembers,
+  firstFigure: number,
+): JsonSkeleton | null {
+  const pieces: Uint8Array[] = [];
+  const w = new TextWriter(depth, (piece) => {
+    pieces.push(piece.slice());
+    return false;
+  });
+  members(
+    w,
+    MARK_NAME,
+    MARK_LINE,
+    Float64Array.from({ length: figures }, (_, i) => markFigure(i)),
+  );
+  w.flush();
+  const text = Buffer.concat(pieces);
+  const marks = [JSON.stringify(MARK_NAME), `${MARK_LINE}`];
+  for (let i = 0; i < figures; i++) marks.push(`${roundForJson(markFigure(i))}`);
+  const cut: Uint8Array[] = [];
+  let from = 0;
+  for (const mark of marks) {
+    const at = text.indexOf(mark, from, 'latin1');
+    if (at < 0 || text.lastIndexOf(mark, undefined, 'latin1') !== at) return null;
+    cut.push(text.subarray(from, at));
+    from = at + mark.length;
+  }
+  cut.push(text.subarray(from));
+  const lead = (first: boolean) => Buffer.concat([Buffer.from(`${first ? '' : ','}\n${'  '.repeat(depth)}`), cut[0]!]);
+  const head = lead(false);
+  let bytes = head.length + MAX_LINE_BYTES + 2 + figures * MAX_FIGURE_BYTES;
+  for (let i = 1; i < cut.length; i++) bytes += cut[i]!.length;
+  // (The first figure's text as figure() writes it: JSON.stringify's of the rounded figure. No
+  // figure, NaN, is kept as NaN, which no figure equals: the runs are then never used.)
+  const usual = Number.isFinite(firstFigure) ? firstFigure : Number.NaN;
+  const first = Buffer.from(`${roundForJson(usual)}`, 'latin1');
+  return {
+    depth,
+    head: wordsOf(head),
+    headFirst: wordsOf(lead(true)),
+    runs: cut.slice(1).map(wordsOf),
+    figures,
+    bytes,
+    firstFigure: usual,
+    withFirst: wordsOf(Buffer.concat([cut[2]!, first, cut[3]!])),
+  };
+}
+
+/**
  * Writes the text `JSON.stringify(value, null, 2)` prints, as if the value were nested `depth`
  * levels deep (its lines indented by `depth` levels; the first is not indented: it follows
  * whatever came before), as UTF-8 bytes into a buffer that is lent to `emit` every
@@ -481,6 +574,8 @@ export class TextWriter implements JsonWriter {
   private pieces = 0;
   /** Members written as one copy of bytes kept with their line start (see {@link Lead}): work saved, for tests. */
   copies = 0;
+  /** Elements written from a {@link JsonSkeleton} (see {@link skeletal}): for tests. */
+  skeletons = 0;
   /** The four ASCII digits of 0 … 9999 as words, and the zeros they end with (see {@link fourDigits}). */
   private readonly digitWords: Int32Array;
   private readonly digitZeros: Uint8Array;
@@ -601,6 +696,42 @@ export class TextWriter implements JsonWriter {
   private kept(start: number, pieces: number): Words | null {
     if (pieces !== this.pieces || this.pos - start > KEPT_BYTES) return null;
     return wordsOf(this.buf.subarray(start, this.pos));
+  }
+
+  /**
+   * An element whose text is `skeleton`'s with `name`, `line` and the figures `xs` in its places
+   * (see {@link JsonSkeleton}): the fixed text between them goes as a few runs of bytes made once,
+   * with one check of the buffer's room for the whole element, no line start looked up and no
+   * value compared with the last. False, with nothing written, when the writer is not at the
+   * skeleton's depth inside an array (the caller writes the element member by member).
+   */
+  /** The skeleton of the elements `members` writes, at the depth of this writer's open array (see {@link jsonSkeleton}). */
+  skeleton(figures: number, members: SkeletonMembers, firstFigure: number): JsonSkeleton | null {
+    return jsonSkeleton(this.depth, figures, members, firstFigure);
+  }
+
+  skeletal(skeleton: JsonSkeleton, name: string, line: number, xs: Float64Array): boolean {
+    if (this.top || skeleton.depth !== this.depth) return false;
+    // The most bytes the element can take: its fixed text, the longest line number and figures
+    // (counted in the skeleton), and the name (one that is not plain ASCII goes through text(),
+    // which finds its own room).
+    if (this.pos + skeleton.bytes + Math.min(name.length, LONG_TEXT) > PIECE_BYTES) this.flush();
+    const runs = skeleton.runs;
+    this.words(this.first ? skeleton.headFirst : skeleton.head);
+    this.first = false;
+    this.string(name);
+    this.words(runs[0]!);
+    this.number(line);
+    // The first figure, when it is the skeleton's (a note's pressure), goes with the runs around it.
+    const usual = xs[0] === skeleton.firstFigure;
+    this.words(usual ? skeleton.withFirst : runs[1]!);
+    const n = skeleton.figures;
+    for (let i = usual ? 1 : 0; i < n; i++) {
+      this.figure(xs, i);
+      this.words(runs[i + 2]!);
+    }
+    this.skeletons++;
+    return true;
   }
 
   /** One figure, as {@link figures} writes it (the figure goes there in {@link one}). */
@@ -740,6 +871,11 @@ export class TextWriter implements JsonWriter {
   }
   num(key: JsonKey | null, v: number): void {
     this.begin(key);
+    this.number(v);
+  }
+
+  /** A number's text as it is (see {@link num}). */
+  private number(v: number): void {
     if (v >= 0 && v < 1e9 && Number.isInteger(v)) this.whole(v | 0);
     else this.ascii(Number.isFinite(v) ? `${v}` : 'null');
   }

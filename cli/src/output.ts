@@ -23,7 +23,16 @@ import {
   stateRow,
   waterUnit,
 } from './core';
-import { type JsonWriter, ObjectWriter, type TakePiece, TextWriter, jsonKey, jsonKeyRow, jsonKeys } from './jsonWriter';
+import {
+  type JsonSkeleton,
+  type JsonWriter,
+  ObjectWriter,
+  type TakePiece,
+  TextWriter,
+  jsonKey,
+  jsonKeyRow,
+  jsonKeys,
+} from './jsonWriter';
 import { safeLinePath, safeText } from './sanitize';
 
 /** One checked or evaluated file. */
@@ -234,14 +243,13 @@ const K = jsonKeys([
   'wetting',
 ] as const);
 
-/** A state or mix (an object) in the JSON shape of the notation's machine-readable output (SI, as the key names). */
-function writeState(w: JsonWriter, s: StateResult, line: number): void {
+/**
+ * A state or mix (an object) in the JSON shape of the notation's machine-readable output (SI, as
+ * the key names). A plain state whose fixed members are those of a skeleton `skeletons` has made
+ * is written from it (the same text, see {@link StateSkeletons}).
+ */
+function writeState(w: JsonWriter, s: StateResult, line: number, skeletons: StateSkeletons | null): void {
   const st = s.state;
-  w.open(null);
-  w.str(K.name, s.name);
-  w.num(K.line, line);
-  w.str(K.kind, s.kind);
-  w.bool(K.ok, st !== null);
   // One call per field, each always the same name: much faster than a loop over the names.
   // The figures by index in STATE_FIELDS' order; a state not computed has none (NaN: null).
   const u = STATE_FIELDS;
@@ -258,6 +266,17 @@ function writeState(w: JsonWriter, s: StateResult, line: number): void {
     xs[7] = jsonFigureIn(u[7]!, st.v);
     xs[8] = jsonFigureIn(u[8]!, st.rho);
   }
+  if (skeletons?.write(s, line, xs)) return;
+  writeStateMembers(w, s, s.name, line, xs);
+}
+
+/** The members of {@link writeState}, with the state's name, line and figures (in {@link STATE_FIELDS}' order) given. */
+function writeStateMembers(w: JsonWriter, s: StateResult, name: string, line: number, xs: Float64Array): void {
+  w.open(null);
+  w.str(K.name, name);
+  w.num(K.line, line);
+  w.str(K.kind, s.kind);
+  w.bool(K.ok, s.state !== null);
   w.figures(STATE_KEYS, xs);
   w.strings(K.defining, s.defining);
   w.str(K.pressure, s.pressure.describe);
@@ -307,6 +326,76 @@ function writeState(w: JsonWriter, s: StateResult, line: number): void {
   }
   writeClaims(w, s.claims);
   w.close();
+}
+
+/**
+ * Whether every member {@link writeStateMembers} writes for `s` but its name, line and figures
+ * depends only on its kind, whether it was computed, its defining keys and its pressure's
+ * description (a state with no flow, no sources, no definition by a process and no claims).
+ */
+const plainState = (s: StateResult): boolean =>
+  s.kind === 'state' && s.sources === undefined && s.definedBy?.spec === undefined && s.claims.length === 0;
+
+/** A skeleton of plain states, with what its fixed members were made from. */
+interface StateShape {
+  readonly ok: boolean;
+  readonly defining: readonly string[];
+  readonly describe: string;
+  /** Null when no skeleton could be made (the states of this shape are written member by member). */
+  readonly skeleton: JsonSkeleton | null;
+}
+
+/** At most this many skeletons are kept per file (a note's plain states have one or two shapes). */
+const MAX_STATE_SHAPES = 4;
+
+/**
+ * The skeletons of a file's plain states (see {@link JsonSkeleton}), made from
+ * {@link writeStateMembers} when a shape comes a second time running, so that a note whose states
+ * each have a pressure of their own makes none.
+ */
+class StateSkeletons {
+  private readonly shapes: StateShape[] = [];
+  /** The shape of the last plain state that had no skeleton. */
+  private last: StateResult | null = null;
+  constructor(private readonly w: TextWriter) {}
+
+  /** Writes `s` from its shape's skeleton; false, with nothing written, when it has none (yet). */
+  write(s: StateResult, line: number, xs: Float64Array): boolean {
+    if (!plainState(s)) return false;
+    const ok = s.state !== null;
+    const describe = s.pressure.describe;
+    const shapes = this.shapes;
+    for (let i = 0; i < shapes.length; i++) {
+      const shape = shapes[i]!;
+      if (shape.ok === ok && shape.describe === describe && sameStrings(shape.defining, s.defining)) {
+        return shape.skeleton !== null && this.w.skeletal(shape.skeleton, s.name, line, xs);
+      }
+    }
+    const last = this.last;
+    this.last = s;
+    if (
+      last === null ||
+      (last.state !== null) !== ok ||
+      last.pressure.describe !== describe ||
+      !sameStrings(last.defining, s.defining) ||
+      shapes.length >= MAX_STATE_SHAPES
+    )
+      return false;
+    const skeleton = this.w.skeleton(
+      STATE_FIELDS.length,
+      (w, name, at, figures) => writeStateMembers(w, s, name, at, figures),
+      xs[0]!,
+    );
+    shapes.push({ ok, defining: [...s.defining], describe, skeleton });
+    return skeleton !== null && this.w.skeletal(skeleton, s.name, line, xs);
+  }
+}
+
+/** Whether two arrays of strings hold the same strings. */
+function sameStrings(a: readonly string[], b: readonly string[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 /** The claims of a state or process, when it has some. */
@@ -414,6 +503,7 @@ function writeEvalFile(w: JsonWriter, parts: EvalFileParts): void {
   // The processes come after the states: each is kept with its line, found as it comes.
   const processes: ProcessResult[] = [];
   const processLines: number[] = [];
+  const skeletons = w instanceof TextWriter ? new StateSkeletons(w) : null;
   w.open(null);
   w.str(K.path, f.path);
   w.str(K.units, parts.units);
@@ -422,7 +512,7 @@ function writeEvalFile(w: JsonWriter, parts: EvalFileParts): void {
     if (item.kind === 'process') {
       processes.push(item);
       processLines.push(lines.of(item));
-    } else writeState(w, item, lines.of(item));
+    } else writeState(w, item, lines.of(item), skeletons);
   });
   w.closeArray();
   w.openArray(K.processes);
@@ -439,7 +529,7 @@ function writeEvalFile(w: JsonWriter, parts: EvalFileParts): void {
 /** The object of {@link writeState}. */
 export function stateJson(f: FileResult, s: StateResult): Record<string, unknown> {
   const w = new ObjectWriter();
-  writeState(w, s, lineOf(f, s));
+  writeState(w, s, lineOf(f, s), null);
   return w.result as Record<string, unknown>;
 }
 
