@@ -289,13 +289,18 @@ class StatementParser {
 
   /** The next significant character after whitespace, or -1 at the end (or at a comment). */
   private peek(): number {
-    // Most calls find the cursor on a significant character already: that case is answered here,
-    // in a method short enough to be compiled into its callers; blanks are skipped by `peekPast`.
+    // Most calls find the cursor on a significant character already, or on the one space that
+    // separates two tokens, or at the end of a statement's only piece: those cases are answered
+    // here, in a method short enough to be compiled into its callers; longer runs of blanks are
+    // skipped by `peekPast`.
     if (this.pos < this.end) {
-      const c = this.text.charCodeAt(this.pos);
+      let c = this.text.charCodeAt(this.pos);
+      if (c === 0x20 && this.pos + 1 < this.end) c = this.text.charCodeAt(++this.pos);
       // Not a blank (`isWs`, written out): a printable ASCII character is answered by the first test.
       if (c > 0x20 ? c !== 0xa0 && c !== 0xfeff : c !== 0x20 && (c < 0x09 || c > 0x0d)) return c === 0x23 ? -1 : c;
       this.pos++;
+    } else if (this.seg + 1 >= this.segs.length) {
+      return -1;
     }
     return this.peekPast();
   }
@@ -393,7 +398,7 @@ class StatementParser {
       p++;
     }
     const after = this.charAt(p);
-    const keyword = after < 0 || after === 0x3a || isWs(after) ? keywordOfCode(code) : null;
+    const keyword = after === 0x20 || after < 0 || after === 0x3a || isWs(after) ? keywordOfCode(code) : null;
     if (!keyword) {
       const tokenEnd = this.rawTokenEnd();
       let e = start;
@@ -649,7 +654,8 @@ class StatementParser {
         continue;
       }
       if (keyEnd < 0) keyEnd = p;
-      if (isWs(c) || c === 0x3a || c === 0x3d || c === 0x23 || c === 0x2c || c === 0x2b || c === 0xb1 || c === 0x2192)
+      // (The usual end of a name, the colon of its statement, is tested first.)
+      if (c === 0x3a || isWs(c) || c === 0x3d || c === 0x23 || c === 0x2c || c === 0x2b || c === 0xb1 || c === 0x2192)
         break;
       if (c === 0x2d) {
         if (this.charAt(p + 1) === 0x3e) break;
@@ -1222,7 +1228,13 @@ class StatementParser {
     const resolution = resolutionOf(n.fractionDigits, n.exponent);
     // One test for anything that may be wrong; the messages are in `numberProblem`, out of this
     // method, which stays short enough for the engine to compile it into its callers.
-    if (next === 0x2c || next === 0x2e || isDigit(next) || !Number.isFinite(value) || !Number.isFinite(resolution)) {
+    if (
+      next === 0x2c ||
+      next === 0x2e ||
+      (next - 0x30) >>> 0 < 10 || // `isDigit`, written out
+      !Number.isFinite(value) ||
+      !Number.isFinite(resolution)
+    ) {
       if (this.numberProblem(start, n.end, next, value, resolution, key)) return null;
     }
     this.consume(n.end);
