@@ -549,7 +549,7 @@ export function evalFileJson(f: FileResult): Record<string, unknown> {
 
 /**
  * One file of the `eval --format json` document as UTF-8 bytes, lent to `emit` in pieces (about
- * 32 KB each; see {@link TakePiece}), so that a large note's document is never one string or one
+ * 64 KB each; see {@link TakePiece}), so that a large note's document is never one string or one
  * tree of objects: exactly `JSON.stringify(evalFileJson(f), null, 2)` nested `depth` levels deep
  * (every line after the first indented by `depth` levels), written without making the objects.
  */

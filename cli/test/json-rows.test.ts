@@ -73,7 +73,7 @@ describe('a row of figures from an array of doubles', () => {
 
   it('writes a figure that repeats after the same line start as one copy, over many pieces', () => {
     // A pressure that never changes, figures that repeat in runs, and ones that change every time:
-    // enough rows to cross many pieces (about 32 KB each), so that a kept copy meets a piece's end.
+    // enough rows to cross many pieces (about 64 KB each), so that a kept copy meets a piece's end.
     const rows = Array.from({ length: 20_000 }, (_, i) =>
       Float64Array.of(
         101.325,
