@@ -100,3 +100,83 @@ describe('name table: work per name', () => {
     }
   });
 });
+
+describe('name table: numbered names', () => {
+  /** The slot (its first word's index in the slots) of each of the first `count` places. */
+  function slotsOfPlaces(table: NameTable, count: number): number[] {
+    const slots = Reflect.get(table, 'slots') as Int32Array;
+    const at = new Array<number>(count).fill(-1);
+    for (let w = 0; w < slots.length; w += 2) if (slots[w + 1]! !== 0) at[slots[w + 1]! - 1] = w;
+    return at;
+  }
+
+  it('gives names numbered in turn hashes one apart, and reads more than nine digits as characters', () => {
+    expect(nameHash('S13') - nameHash('S12')).toBe(1);
+    expect(nameHash('AHU_7')).toBe(nameHash('AHU_07')); // the same number: told apart by characters
+    expect(nameHash('S1023') - nameHash('S0')).toBe(1023);
+    // Across a block of 1024 numbers the hash moves elsewhere (the block's number is mixed in).
+    expect(Math.abs(nameHash('S1024') - nameHash('S1023'))).toBeGreaterThan(1024);
+    // More than nine digits are read as characters: FNV-1a over every code unit.
+    const fnv1a = (text: string): number => {
+      let h = 0x811c9dc5 | 0;
+      for (let i = 0; i < text.length; i++) h = Math.imul(h ^ text.charCodeAt(i), 0x01000193);
+      return h;
+    };
+    expect(nameHash('S1234567890')).toBe(fnv1a('S1234567890'));
+    expect(nameHash('OA')).toBe(fnv1a('OA'));
+    expect(nameHash('S123456789')).not.toBe(fnv1a('S123456789'));
+  });
+
+  it('places names numbered in turn in slots in turn', () => {
+    const n = 3000;
+    const table = new NameTable(n);
+    for (let i = 0; i < n; i++) expect(table.add(`S${i}`, i)).toBe(true);
+    const at = slotsOfPlaces(table, n);
+    const words = (Reflect.get(table, 'slots') as Int32Array).length;
+    // Within a block of 1024 numbers each name's slot follows the one before it (round the end
+    // of the slots), unless a name of another block took it first (the blocks stand anywhere).
+    let inTurn = 0;
+    for (let i = 1; i < n; i++) if (at[i] === (at[i - 1]! + 2) % words) inTurn++;
+    expect(inTurn).toBeGreaterThan(0.99 * n);
+  });
+
+  it('steps out of a run of taken slots: names meeting one never probe long, and the answers stay', () => {
+    // A long run of numbered names (a third of the slots), then other names, many of which have
+    // their first slot inside the run: with a step to the next slot they would walk along it,
+    // past the longest probe allowed, and the table would turn into a Map.
+    const table = new NameTable(60_000);
+    for (let i = 0; i < 40_000; i++) table.add(`S${i}`, i);
+    const others: string[] = [];
+    for (let i = 0; i < 5000; i++) others.push(`T${i}x`, `R${i}_a`);
+    others.forEach((name, i) => {
+      expect(table.add(name, 40_000 + i)).toBe(true);
+    });
+    expect(Reflect.get(table, 'map')).toBeNull();
+    others.forEach((name, i) => {
+      expect(table.get(name)).toBe(40_000 + i);
+    });
+    for (let i = 0; i < 40_000; i += 97) expect(table.get(`S${i}`)).toBe(i);
+  });
+
+  it('keeps its slots, without a Map, for notes numbered in steps, by several stems, or counting down', () => {
+    const n = 100_000;
+    const patterns: ((i: number) => string)[] = [
+      (i) => `S${i}`,
+      (i) => `S${i * 8}`,
+      (i) => `S${i * 1000}`,
+      (i) => `S${i * 1024}`,
+      (i) => `S${i * 65_536}`,
+      (i) => `S${n - i}`,
+      (i) => `S${String(i).padStart(7, '0')}`,
+      (i) => `${['OA', 'RA', 'SA', 'AHU', 'Room', 'S', 'MA', 'X_'][i % 8]}${Math.floor(i / 8)}`,
+      (i) => `P${i % 100}_${Math.floor(i / 100)}`,
+      (i) => `Z${i}x`,
+    ];
+    for (const name of patterns) {
+      const table = new NameTable(n);
+      for (let i = 0; i < n; i++) table.add(name(i), i);
+      expect(Reflect.get(table, 'map'), name(12345)).toBeNull();
+      for (let i = 0; i < n; i += 9973) expect(table.get(name(i))).toBe(i);
+    }
+  });
+});
