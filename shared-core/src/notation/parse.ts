@@ -361,6 +361,11 @@ class StatementParser {
     this.end = this.savedEnd;
   }
 
+  /**
+   * Moves the cursor to `to`, past what was read. Called per token, so the common path of a
+   * statement (its keyword, name and colon, each property's key, number and unit) writes these two
+   * lines out instead: a call costs the interpreter more than they do.
+   */
   private consume(to: number): void {
     this.pos = to;
     if (to > this.lastEnd) this.lastEnd = to;
@@ -409,7 +414,8 @@ class StatementParser {
       this.skipRest();
       return null;
     }
-    this.consume(p);
+    this.pos = p; // `consume`, written out on the common path
+    if (p > this.lastEnd) this.lastEnd = p;
     // The common statement makes no keyword span (its node derives it from the statement's start).
     if (keyword === 'state') return this.state(start, p);
     const keywordSpan = this.span(start, p);
@@ -621,7 +627,9 @@ class StatementParser {
     const headEnd = this.lastEnd;
     const c = this.peek();
     if (c === 0x3a) {
-      this.consume(this.pos + 1);
+      const afterColon = this.pos + 1;
+      this.pos = afterColon; // `consume`, written out on the common path
+      if (afterColon > this.lastEnd) this.lastEnd = afterColon;
       return;
     }
     if (quiet && (c < 0 || this.keyAhead())) return;
@@ -795,7 +803,8 @@ class StatementParser {
       );
       return null;
     }
-    this.consume(end);
+    this.pos = end; // `consume`, written out on the common path
+    if (end > this.lastEnd) this.lastEnd = end;
     return this.checkedName(start, end);
   }
 
@@ -958,7 +967,9 @@ class StatementParser {
         }
         if (k === 0x3d) {
           const key = internedPackedSlice(text, start, keyEnd, pack, 0);
-          this.consume(p + 1);
+          const valueStart = p + 1;
+          this.pos = valueStart; // `consume`, written out on the common path
+          if (valueStart > this.lastEnd) this.lastEnd = valueStart;
           const word = options ? this.wordValue() : null;
           if (word) {
             options!.push({ key, keySpan: this.span(start, keyEnd), word, span: this.span(start, word.span.end) });
@@ -1237,7 +1248,9 @@ class StatementParser {
     ) {
       if (this.numberProblem(start, n.end, next, value, resolution, key)) return null;
     }
-    this.consume(n.end);
+    const numberEnd = n.end;
+    this.pos = numberEnd; // `consume`, written out on the common path
+    if (numberEnd > this.lastEnd) this.lastEnd = numberEnd;
     return new ParsedNumber(value, n.written, resolution, start);
   }
 
@@ -1428,7 +1441,8 @@ class StatementParser {
     const unitStart = this.pos;
     const unitEnd = this.unitEnd(unitStart, first);
     if (unitEnd === unitStart) return null;
-    this.consume(unitEnd);
+    this.pos = unitEnd; // `consume`, written out on the common path
+    if (unitEnd > this.lastEnd) this.lastEnd = unitEnd;
     return new ParsedUnit(internedPackedSlice(this.text, unitStart, unitEnd, this.unitPack, this.unitWide), unitStart);
   }
 }
