@@ -32,6 +32,9 @@ const TWO_32 = 4294967296;
  */
 const DECIMALS_OF_EXPONENT = Int8Array.from({ length: 69 }, (_, i) => 11 - Math.floor((i - 32) * Math.log10(2)));
 
+/** The eight ASCII bytes `0.000000` as the little-endian double they spell (see {@link Words}). */
+const ZERO_POINT_ZEROS = new DataView(Uint8Array.from('0.000000', (c) => c.charCodeAt(0)).buffer).getFloat64(0, true);
+
 /** The power of ten of the last figure {@link scaledDigits} scaled: the figure is M / 10^scale. */
 let scale = 0;
 
@@ -858,10 +861,10 @@ export class TextWriter implements JsonWriter {
       // Digits after the point that are kept: those of the s decimals that are not trailing zeros.
       this.pos = s > zeros ? (point + 1 + s - zeros) | 0 : point;
     } else {
-      // Below 1: `0.`, s − 12 zeros, the digits.
-      buf[p++] = 0x30;
-      buf[p++] = 0x2e;
-      for (let i = s; i > 12; i--) buf[p++] = 0x30;
+      // Below 1: `0.`, s − 12 zeros (at most 5: the figure is at least 1e-6), the digits. The
+      // eight bytes `0.000000` go at once; the digits are written over the zeros not needed.
+      view.setFloat64(p, ZERO_POINT_ZEROS, true);
+      p = (p + s - 10) | 0;
       view.setInt32(p, digits[g1]!, true);
       view.setInt32(p + 4, digits[g2]!, true);
       view.setInt32(p + 8, digits[g3]!, true);

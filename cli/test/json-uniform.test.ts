@@ -101,6 +101,21 @@ describe('figures that once took the slow way', () => {
   });
 });
 
+describe('figures below 1', () => {
+  it('write `0.` and their zeros at once, for every count of zeros the fast range has (none to five)', () => {
+    // `0.000000` goes as eight bytes and the digits over the zeros not needed: figures with 0 … 5
+    // zeros after the point, either sign, with all 12 digits and with trailing zeros dropped.
+    const xs: number[] = [];
+    for (let k = 1; k <= 6; k++) {
+      const unit = 10 ** -k;
+      xs.push(unit, 1.23456789012 * unit, 9.99999999999 * unit, 1.5 * unit, 7.0000000001 * unit);
+    }
+    xs.push(1e-6, 9.99999999999e-7, 0.999999999999, 0.1, 0.5);
+    const all = [...xs, ...xs.map((x) => -x)];
+    expect(figuresText(all, 3)).toBe(stringifiedAt({ x: all.map((x) => roundForJson(x)) }, 3));
+  });
+});
+
 describe('line numbers and the ends of objects and arrays', () => {
   it('writes line numbers of one to nine digits as JSON.stringify does', () => {
     const lines = [1, 9, 10, 99, 100, 999, 1000, 9999, 10000, 10001, 99999, 100000, 1234567, 99999999, 100000000];
