@@ -156,6 +156,9 @@ const KEYWORD_CODES: readonly number[] = KEYWORDS.map((kw) => {
   return code;
 });
 
+/** The code of `state`, the common statement's keyword ({@link wordCodeStep}). */
+const STATE_CODE = KEYWORD_CODES[KEYWORDS.indexOf('state')] as number;
+
 /** The statement keyword whose code ({@link wordCodeStep}) is `code`, or null. */
 function keywordOfCode(code: number): Keyword | null {
   for (let i = 0; i < KEYWORD_CODES.length; i++) if (KEYWORD_CODES[i] === code) return KEYWORDS[i] as Keyword;
@@ -227,9 +230,6 @@ class StatementParser {
     exponent: 0,
     next: -1,
   };
-  /** The pack and `wide` of the unit {@link StatementParser.unitEnd} read last, for the intern table. */
-  private unitPack = PACK_START;
-  private unitWide = 0;
   /** Scratch stack of the properties being read (see {@link StatementParser.props}); `propTop` is its height. */
   private readonly propStack: PropertyNode[] = [];
   private propTop = 0;
@@ -402,8 +402,14 @@ class StatementParser {
       code = code * 64 + (c - 0x40);
       p++;
     }
-    const after = this.charAt(p);
-    const keyword = after === 0x20 || after < 0 || after === 0x3a || isWs(after) ? keywordOfCode(code) : null;
+    const after = p < this.end ? this.text.charCodeAt(p) : -1; // `charAt`, written out
+    // The common statement's keyword is compared here, without a call (its code is the first).
+    const keyword =
+      after === 0x20 || after < 0 || after === 0x3a || isWs(after)
+        ? code === STATE_CODE
+          ? 'state'
+          : keywordOfCode(code)
+        : null;
     if (!keyword) {
       const tokenEnd = this.rawTokenEnd();
       let e = start;
@@ -780,7 +786,9 @@ class StatementParser {
     const c = this.peek();
     const start = this.pos;
     const end = c < 0 || c === 0x3a ? start : this.nameTokenEnd();
-    if (c < 0 || c === 0x3a || this.keyAtNameToken(end)) {
+    // A name followed by its colon, the common case, is no `key=` (asked without a call).
+    const colonAfter = end < this.end && this.text.charCodeAt(end) === 0x3a;
+    if (c < 0 || c === 0x3a || (!colonAfter && this.keyAtNameToken(end))) {
       const at = c === 0x3a ? this.pos : keywordStart;
       const endAt = c === 0x3a ? this.pos + 1 : keywordEnd;
       this.report(
@@ -1314,32 +1322,24 @@ class StatementParser {
   }
 
   /**
-   * End of the unit written directly at `pos` (`pos` itself when there is none); `first` is the
-   * character at `pos` (-1 at the end of the piece) when the caller has read it already. The
-   * unit's pack for the intern table is made as it is read, and left in {@link unitPack} and
-   * {@link unitWide}: the one reading of a unit's characters serves both its end and its string.
+   * End of the unit written directly at `pos` (`pos` itself when there is none): the run of
+   * characters up to one that ends a unit (and any token of a value), a blank, `#`, `+`, `,`, `=`
+   * or `±`. The test is split at `=` (the highest ASCII one of them) so that a letter of a unit is
+   * answered in a few comparisons. {@link attachedUnit}, which reads nearly every unit of a note,
+   * makes the same test in its own loop (packing the unit for the intern table as it goes).
    */
-  private unitEnd(pos: number, first: number = this.charAt(pos)): number {
+  private unitEnd(pos: number): number {
     const text = this.text;
     let p = pos;
-    let c = first;
-    let pack = PACK_START;
-    let wide = 0;
-    // Until a character that ends a unit (and any token of a value): a blank, `#`, `+`, `,`, `=` or
-    // `±`. The test is split at `=` (the highest ASCII one of them) so that a letter of a unit is
-    // answered in a few comparisons; the pack step is written out too (see the character classes).
+    let c = this.charAt(pos);
     while (
       c > 0x3d
         ? c !== 0xb1 && c !== 0xa0 && c !== 0xfeff
         : c >= 0 && c !== 0x20 && (c < 0x09 || c > 0x0d) && c !== 0x23 && c !== 0x2b && c !== 0x2c && c !== 0x3d
     ) {
-      pack = pack * 256 + c;
-      wide |= c;
       p++;
       c = p < this.end ? text.charCodeAt(p) : -1;
     }
-    this.unitPack = pack;
-    this.unitWide = wide;
     return p;
   }
 
@@ -1439,11 +1439,28 @@ class StatementParser {
    */
   private attachedUnit(first: number): ParsedUnit | null {
     const unitStart = this.pos;
-    const unitEnd = this.unitEnd(unitStart, first);
+    // `unitEnd`'s loop, written out (this is nearly every unit of a note): the one reading of the
+    // unit's characters finds its end and makes its pack for the intern table (pack step written
+    // out too, see the character classes).
+    const text = this.text;
+    let unitEnd = unitStart;
+    let c = first;
+    let pack = PACK_START;
+    let wide = 0;
+    while (
+      c > 0x3d
+        ? c !== 0xb1 && c !== 0xa0 && c !== 0xfeff
+        : c >= 0 && c !== 0x20 && (c < 0x09 || c > 0x0d) && c !== 0x23 && c !== 0x2b && c !== 0x2c && c !== 0x3d
+    ) {
+      pack = pack * 256 + c;
+      wide |= c;
+      unitEnd++;
+      c = unitEnd < this.end ? text.charCodeAt(unitEnd) : -1;
+    }
     if (unitEnd === unitStart) return null;
     this.pos = unitEnd; // `consume`, written out on the common path
     if (unitEnd > this.lastEnd) this.lastEnd = unitEnd;
-    return new ParsedUnit(internedPackedSlice(this.text, unitStart, unitEnd, this.unitPack, this.unitWide), unitStart);
+    return new ParsedUnit(internedPackedSlice(text, unitStart, unitEnd, pack, wide), unitStart);
   }
 }
 
