@@ -479,6 +479,8 @@ export interface JsonSkeleton {
   readonly headFirst: Words;
   /** The text after the name, after the line number, and after each figure. */
   readonly runs: readonly Words[];
+  /** The text after each figure (runs from the third on, by figure). */
+  readonly afterFigures: readonly Words[];
   readonly figures: number;
   /** The first figure the skeleton was made for, and the text after the line number to the second figure with it. */
   readonly firstFigure: number;
@@ -546,11 +548,13 @@ export function jsonSkeleton(
   // figure, NaN, is kept as NaN, which no figure equals: the runs are then never used.)
   const usual = Number.isFinite(firstFigure) ? firstFigure : Number.NaN;
   const first = Buffer.from(`${roundForJson(usual)}`, 'latin1');
+  const runs = cut.slice(1).map(wordsOf);
   return {
     depth,
     head: wordsOf(head),
     headFirst: wordsOf(lead(true)),
-    runs: cut.slice(1).map(wordsOf),
+    runs,
+    afterFigures: runs.slice(2),
     figures,
     bytes,
     firstFigure: usual,
@@ -732,11 +736,7 @@ export class TextWriter implements JsonWriter {
     // The first figure, when it is the skeleton's (a note's pressure), goes with the runs around it.
     const usual = xs[0] === skeleton.firstFigure;
     this.words(usual ? skeleton.withFirst : runs[1]!);
-    const n = skeleton.figures;
-    for (let i = usual ? 1 : 0; i < n; i++) {
-      this.figure(xs, i);
-      this.words(runs[i + 2]!);
-    }
+    this.figureRun(xs, usual ? 1 : 0, skeleton.figures, skeleton.afterFigures);
     this.skeletons++;
     return true;
   }
@@ -818,57 +818,69 @@ export class TextWriter implements JsonWriter {
    * as a return to the interpreter, and the method is compiled again once a figure takes it.
    */
   private figure(xs: Float64Array, i: number): void {
-    const x = xs[i]!;
-    const m = scaledDigits(x < 0 ? -x : x);
-    if (m < 0) {
-      this.figureText(x);
-      return;
-    }
-    const s = scale;
-    // M's first four digits (1000 … 9999) by a multiplication, which may be one off when M is
-    // about a multiple of 10⁸: then the rest (exact: whole numbers below 2⁵³) says so.
-    let g1 = Math.floor(m * 1e-8) | 0;
-    let rest = m - g1 * 1e8;
-    if (rest < 0) {
-      g1 = (g1 - 1) | 0;
-      rest += 1e8;
-    } else if (rest >= 1e8) {
-      g1 = (g1 + 1) | 0;
-      rest -= 1e8;
-    }
-    rest |= 0;
-    const g2 = (rest / 10000) | 0;
-    const g3 = (rest - g2 * 10000) | 0;
-    // The zeros M ends with (the text drops those after the point): those of its last group
-    // that is not 0000, from the table, and four for each 0000 after it (both tests made for
-    // every figure, and one look-up: see above).
-    const last3 = g3 !== 0;
-    const last2 = g2 !== 0;
-    const zeros = (last3 ? 0 : last2 ? 4 : 8) + this.digitZeros[last3 ? g3 : last2 ? g2 : g1]!;
+    this.figureRun(xs, i, i + 1, null);
+  }
+
+  /**
+   * The figures `xs[from]` … `xs[to − 1]` as {@link figure} writes each, each followed by
+   * `after[i]` when given (a skeleton's text after each figure): one call for a state's figures,
+   * the buffer and tables read once for all.
+   */
+  private figureRun(xs: Float64Array, from: number, to: number, after: readonly Words[] | null): void {
     const buf = this.buf;
     const view = this.view;
     const digits = this.digitWords;
-    let p = this.pos;
-    if (x < 0) buf[p++] = 0x2d; // -
-    if (s < 12) {
-      // 12 − s digits before the point: the digits are written one byte on, and those moved back.
-      view.setInt32(p + 1, digits[g1]!, true);
-      view.setInt32(p + 5, digits[g2]!, true);
-      view.setInt32(p + 9, digits[g3]!, true);
-      const point = (p + 12 - s) | 0;
-      for (let i = p; i < point; i++) buf[i] = buf[i + 1]!;
-      buf[point] = 0x2e; // .
-      // Digits after the point that are kept: those of the s decimals that are not trailing zeros.
-      this.pos = s > zeros ? (point + 1 + s - zeros) | 0 : point;
-    } else {
-      // Below 1: `0.`, s − 12 zeros (at most 5: the figure is at least 1e-6), the digits. The
-      // eight bytes `0.000000` go at once; the digits are written over the zeros not needed.
-      view.setFloat64(p, ZERO_POINT_ZEROS, true);
-      p = (p + s - 10) | 0;
-      view.setInt32(p, digits[g1]!, true);
-      view.setInt32(p + 4, digits[g2]!, true);
-      view.setInt32(p + 8, digits[g3]!, true);
-      this.pos = (p + 12 - zeros) | 0;
+    const digitZeros = this.digitZeros;
+    for (let i = from; i < to; i++) {
+      const x = xs[i]!;
+      const m = scaledDigits(x < 0 ? -x : x);
+      if (m < 0) this.figureText(x);
+      else {
+        const s = scale;
+        // M's first four digits (1000 … 9999) by a multiplication, which may be one off when M is
+        // about a multiple of 10⁸: then the rest (exact: whole numbers below 2⁵³) says so.
+        let g1 = Math.floor(m * 1e-8) | 0;
+        let rest = m - g1 * 1e8;
+        if (rest < 0) {
+          g1 = (g1 - 1) | 0;
+          rest += 1e8;
+        } else if (rest >= 1e8) {
+          g1 = (g1 + 1) | 0;
+          rest -= 1e8;
+        }
+        rest |= 0;
+        const g2 = (rest / 10000) | 0;
+        const g3 = (rest - g2 * 10000) | 0;
+        // The zeros M ends with (the text drops those after the point): those of its last group
+        // that is not 0000, from the table, and four for each 0000 after it (both tests made for
+        // every figure, and one look-up: see above).
+        const last3 = g3 !== 0;
+        const last2 = g2 !== 0;
+        const zeros = (last3 ? 0 : last2 ? 4 : 8) + digitZeros[last3 ? g3 : last2 ? g2 : g1]!;
+        let p = this.pos;
+        if (x < 0) buf[p++] = 0x2d; // -
+        if (s < 12) {
+          // 12 − s digits before the point: the digits are written one byte on, and those moved back.
+          view.setInt32(p + 1, digits[g1]!, true);
+          view.setInt32(p + 5, digits[g2]!, true);
+          view.setInt32(p + 9, digits[g3]!, true);
+          const point = (p + 12 - s) | 0;
+          for (let k = p; k < point; k++) buf[k] = buf[k + 1]!;
+          buf[point] = 0x2e; // .
+          // Digits after the point that are kept: those of the s decimals that are not trailing zeros.
+          this.pos = s > zeros ? (point + 1 + s - zeros) | 0 : point;
+        } else {
+          // Below 1: `0.`, s − 12 zeros (at most 5: the figure is at least 1e-6), the digits. The
+          // eight bytes `0.000000` go at once; the digits are written over the zeros not needed.
+          view.setFloat64(p, ZERO_POINT_ZEROS, true);
+          p = (p + s - 10) | 0;
+          view.setInt32(p, digits[g1]!, true);
+          view.setInt32(p + 4, digits[g2]!, true);
+          view.setInt32(p + 8, digits[g3]!, true);
+          this.pos = (p + 12 - zeros) | 0;
+        }
+      }
+      if (after !== null) this.words(after[i]!);
     }
   }
 

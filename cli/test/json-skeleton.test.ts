@@ -101,6 +101,25 @@ describe('elements written from a skeleton', () => {
     expect(skeletal).toBe(1);
   });
 
+  it("writes an element's figures and the text between them in one call", () => {
+    const c = collector();
+    const w = new TextWriter(2, c.take);
+    w.openArray(null);
+    const skeleton = w.skeleton(4, members('n'), 101.325)!;
+    // (A method of the writer's own: counted through its prototype.)
+    const run = vi.spyOn(TextWriter.prototype as unknown as { figureRun: () => void }, 'figureRun');
+    try {
+      for (let i = 0; i < 50; i++)
+        w.skeletal(skeleton, `S${i}`, i, Float64Array.of(i % 2 ? 101.325 : 90, i / 7, -i, 0.001 * i));
+      expect(run).toHaveBeenCalledTimes(50);
+    } finally {
+      run.mockRestore();
+    }
+    w.closeArray();
+    w.flush();
+    expect(w.skeletons).toBe(50);
+  });
+
   it('writes nothing, and says so, at a depth other than its own or at the top', () => {
     const c = collector();
     const w = new TextWriter(1, c.take);
