@@ -8,7 +8,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { allocatedBytes } from './allocation-helpers';
-import { evaluate } from '../src/evaluate/evaluate';
+import { evaluate, type EvaluateReuse } from '../src/evaluate/evaluate';
+import { solveForNote } from '../src/evaluate/solve';
 import { NameTable } from '../src/evaluate/nameTable';
 import { readProps } from '../src/evaluate/props';
 import { ReadFigure, ReadPropertyFigure, readQuantity, type ResolvedQuantity } from '../src/evaluate/quantity';
@@ -127,6 +128,34 @@ describe('the structure that keeps it low', () => {
     expect(solveState({ db: 20, w: -1 }, 101325).ok).toBe(false);
     const next = solveState({ db: 22, rh: 0.45 }, 101325);
     expect(next.ok && next.warnings).toEqual([]);
+  });
+
+  it('hands the solver an input of its own per state: six fields, the pair written and nothing else', () => {
+    // A figure stored to an object made long before costs the garbage collector's record of the
+    // store; one made for the solve does not. The input is the same shape for every pair.
+    const seen: { input: object; entries: [string, unknown][] }[] = [];
+    const reuse: EvaluateReuse = {
+      state: (_ctx, _stmt, _index, compute) => compute(),
+      dependent: (_ctx, _stmt, _index, compute) => compute(),
+      solve: (input, p, options) => {
+        seen.push({ input, entries: Object.entries(input) });
+        return solveForNote(input, p, options);
+      },
+      basis: (basis) => basis,
+    };
+    const analysis = evaluate(parseNote(statesNote(3)), undefined, undefined, reuse);
+    expect(analysis.diagnostics).toEqual([]);
+    expect(seen).toHaveLength(3);
+    expect(new Set(seen.map((s) => s.input)).size).toBe(3);
+    seen.forEach((s, i) => {
+      expect(s.entries.map(([k]) => k)).toEqual(['db', 'wb', 'dp', 'rh', 'w', 'h']);
+      const values = Object.fromEntries(s.entries) as Record<string, number | undefined>;
+      expect(values.db).toBe(15 + i);
+      expect(values.rh).toBeCloseTo((40 + i) / 100, 12);
+      for (const k of ['wb', 'dp', 'w', 'h']) expect(values[k]).toBeUndefined();
+      // Not filled anew by a later solve.
+      expect(Object.entries(s.input)).toEqual(s.entries);
+    });
   });
 
   it('reads the same doubles for a property as for the quantity it is written as', () => {

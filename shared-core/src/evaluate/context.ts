@@ -48,7 +48,7 @@ export class EvalContext {
   /**
    * The state solver the statements use: {@link solveForNote}, or a memoizing wrapper of it when
    * an analyzer reuses its previous run (same results either way). It reads its input during the
-   * call only and keeps nothing of it (a state line fills one input object anew for each solve).
+   * call only and keeps nothing of it.
    */
   solve: typeof solveForNote = solveForNote;
   /** The note's text (for line numbers in messages), and its line index once a message needs it. */

@@ -149,29 +149,23 @@ function isReference(p: ReadProp): boolean {
 }
 
 /**
- * The solver's input for a defining pair, always with the same six fields (absent ones
- * undefined), so that every pair gives the solver an object of one shape. It is one object,
- * filled anew for each solve: a solver reads its input during the call and keeps nothing of it
- * (the engine's `solveState` reads the figures; the analyzer's memo writes them into its key).
+ * The solver's input for the pair `ka`=`va`, `kb`=`vb` (and nothing else), always with the same
+ * six fields (absent ones undefined), so that every pair gives the solver an object of one shape.
+ * It is made for each solve, not kept and filled anew: a figure stored to a field is a number
+ * object of its own, made just before, and storing it to an object made long before (one the
+ * garbage collector has moved to its old generation) records the store in the old generation's
+ * list of pointers to new objects, a call per figure; an object made just before needs no record.
+ * (A solver reads its input during the call and keeps nothing of it.)
  */
-const PAIR_INPUT: Record<DefiningKey, number | undefined> = {
-  db: undefined,
-  wb: undefined,
-  dp: undefined,
-  rh: undefined,
-  w: undefined,
-  h: undefined,
-};
-
-/** {@link PAIR_INPUT} holding the pair `ka`=`va`, `kb`=`vb` (and nothing else). */
 function pairInput(ka: DefiningKey, va: number, kb: DefiningKey, vb: number): Partial<Record<DefiningKey, number>> {
-  const input = PAIR_INPUT;
-  input.db = undefined;
-  input.wb = undefined;
-  input.dp = undefined;
-  input.rh = undefined;
-  input.w = undefined;
-  input.h = undefined;
+  const input: Record<DefiningKey, number | undefined> = {
+    db: undefined,
+    wb: undefined,
+    dp: undefined,
+    rh: undefined,
+    w: undefined,
+    h: undefined,
+  };
   setInput(input, ka, va);
   setInput(input, kb, vb);
   return input as Partial<Record<DefiningKey, number>>;
