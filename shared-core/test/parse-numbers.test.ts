@@ -69,6 +69,7 @@ describe('numbers', () => {
       value: 1.25,
       fractionDigits: 1,
       exponent: -1,
+      resolution: 0.01,
       next: 0x78,
     });
     expect(scanNumber('\u22123', 0, 2)).toEqual({
@@ -77,8 +78,14 @@ describe('numbers', () => {
       value: -3,
       fractionDigits: 0,
       exponent: 0,
+      resolution: 1,
       next: -1,
     });
+    // The scan's own resolution is resolutionOf's of what it read, to the bit, near and far from 1.
+    for (const text of ['0', '24', '9.30', '0.0093', '1.2e3', '5e-31', '5e30', '5e31', '1.5e-400', '1,234.567']) {
+      const n = scanNumber(text, 0, text.length);
+      expect(Object.is(n.resolution, resolutionOf(n.fractionDigits, n.exponent))).toBe(true);
+    }
     expect(scanNumber('-1234567890123456789.5e-3', 0, 25).value).toBe(Number('-1234567890123456.7895'));
     expect(scanNumber('1e400', 0, 5).value).toBe(Infinity);
     // `next` is the character the number stops at, as the text has it (-1 at the end of the range).

@@ -21,6 +21,8 @@ export interface ScannedNumber {
   fractionDigits: number;
   /** The written exponent (0 when none). */
   exponent: number;
+  /** Place value of the last written digit ({@link resolutionOf}). */
+  resolution: number;
   /**
    * The character at {@link end}, or -1 when the scanned range ends there: read by the scan
    * anyway (it is where the number stops), so that the caller need not read it again.
@@ -102,7 +104,7 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
   // From here `c` is the character at `pos` whenever `pos < end` (the loops stop on it).
   let fractionDigits = 0;
   if (pos < end && c === 0x2e) {
-    pack = packStep(pack, 0x2e);
+    pack = pack * 256 + 0x2e; // `packStep`, written out as in the loops
     pos++;
     while (pos < end) {
       c = text.charCodeAt(pos);
@@ -158,12 +160,15 @@ export function scanNumber(text: string, pos: number, end: number, into?: Scanne
     const plain = grouped ? written.replaceAll(GROUP_SEPARATOR, '') : written;
     value = Number(text.charCodeAt(start) === 0x2212 ? `-${plain.slice(1)}` : plain);
   }
-  if (!into) return { end: pos, written, value, fractionDigits, exponent, next };
+  // `resolutionOf`, written out (`k` is its exponent): it is asked of every number the parser reads.
+  const resolution = k >= -POW10_LIMIT && k <= POW10_LIMIT ? (POW10[k + POW10_LIMIT] as number) : Number(`1e${k}`);
+  if (!into) return { end: pos, written, value, fractionDigits, exponent, resolution, next };
   into.end = pos;
   into.written = written;
   into.value = value;
   into.fractionDigits = fractionDigits;
   into.exponent = exponent;
+  into.resolution = resolution;
   into.next = next;
   return into;
 }

@@ -57,7 +57,7 @@ import { lineOffsetsOf } from '../markdown/lines';
 import { extractRegions, STATEMENT_KEYWORDS, type ExtractedRegion } from '../markdown/regions';
 import { PACK_START, internedPackedSlice, internedSlice } from './intern';
 import { ParsedNumber, ParsedProperty, ParsedQuantity, ParsedState, ParsedUnit } from './nodes';
-import { resolutionOf, scanNumber, startsNumber, type ScannedNumber } from './number';
+import { scanNumber, startsNumber, type ScannedNumber } from './number';
 import { differenceExample, findKey, referenceKeyFor } from '../vocabulary/keys';
 import { CODES, DIAGNOSTIC_CODES, type CodeFrom } from '../vocabulary/codes';
 import { SuggestIndex } from '../text/suggest';
@@ -228,11 +228,17 @@ class StatementParser {
     value: 0,
     fractionDigits: 0,
     exponent: 0,
+    resolution: 1,
     next: -1,
   };
   /** Scratch stack of the properties being read (see {@link StatementParser.props}); `propTop` is its height. */
   private readonly propStack: PropertyNode[] = [];
   private propTop = 0;
+  /**
+   * The end of the quantity {@link StatementParser.quantity} read last (its node's `end`, which
+   * is found by two getters): its last part's end, known where each part is read.
+   */
+  private quantityEnd = 0;
   /** What {@link StatementParser.nameTokenEnd} found of the last token it read (see there). */
   private nameTokenPlain = false;
   private nameTokenKeyEnd = -1;
@@ -659,7 +665,10 @@ class StatementParser {
     const start = this.pos;
     let p = start;
     let keyEnd = -1;
-    let plain = p < this.end && isAsciiLetter(text.charCodeAt(p));
+    // The classes of the first character (`isAsciiLetter`, `isKeyStart`), written out.
+    const first = p < this.end ? text.charCodeAt(p) : -1;
+    const firstIsLetter = ((first | 0x20) - 0x61) >>> 0 < 26;
+    let plain = firstIsLetter;
     while (p < this.end) {
       const c = text.charCodeAt(p);
       // `isKeyChar`, written out.
@@ -679,7 +688,7 @@ class StatementParser {
       p++;
     }
     this.nameTokenPlain = plain;
-    this.nameTokenKeyEnd = p > start && isKeyStart(text.charCodeAt(start)) ? (keyEnd < 0 ? p : keyEnd) : -1;
+    this.nameTokenKeyEnd = p > start && (firstIsLetter || first === 0x5f) ? (keyEnd < 0 ? p : keyEnd) : -1;
     return p;
   }
 
@@ -702,7 +711,7 @@ class StatementParser {
    */
   private checkedName(start: number, end: number): NameNode | null {
     if (!this.nameTokenPlain) return this.checkName(start, end);
-    return { text: this.text.slice(start, end), span: this.span(start, end) };
+    return { text: this.text.slice(start, end), span: { start, end } };
   }
 
   /** Checks the name `text[start, end)`: null (and a `bad-name` diagnostic) when it breaks the naming rule. */
@@ -990,7 +999,7 @@ class StatementParser {
             // `propertyRef` (a reference starts with a letter) and `value` (a missing value is
             // an end, a comma or a `key=`) would look at before reading it as {@link quantity}.
             const value = this.quantity('prop', key);
-            stack[this.propTop++] = new ParsedProperty(key, value, start, value ? value.end : p + 1);
+            stack[this.propTop++] = new ParsedProperty(key, value, start, value ? this.quantityEnd : p + 1);
             continue;
           }
           const ref = this.propertyRef(key);
@@ -1203,6 +1212,7 @@ class StatementParser {
     if (c === 0xb1 || (c === 0x2b && this.charAt(this.pos + 1) === 0x2d)) {
       tolerance = this.pos === partEnd ? this.tolerance() : this.detachedTolerance(number, unit);
     }
+    this.quantityEnd = tolerance ? tolerance.span.end : partEnd;
     return new ParsedQuantity(number, unit, tolerance);
   }
 
@@ -1244,7 +1254,7 @@ class StatementParser {
     const n = scanNumber(this.text, start, this.end, this.scanned);
     const next = n.next;
     const value = n.value;
-    const resolution = resolutionOf(n.fractionDigits, n.exponent);
+    const resolution = n.resolution;
     // One test for anything that may be wrong; the messages are in `numberProblem`, out of this
     // method, which stays short enough for the engine to compile it into its callers.
     if (
