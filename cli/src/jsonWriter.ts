@@ -507,8 +507,9 @@ const MAX_LINE_BYTES = 10;
 /**
  * The skeleton of the objects `members` writes, at `depth`, with `figures` figures: made by
  * writing them once with marks for the values and cutting the text at the marks. Null when a
- * mark's text is not found exactly once, in order (some fixed member held it): the caller then
- * writes each object member by member.
+ * mark's text is not found exactly once, in order (some fixed member held it), or when the
+ * fixed text is longer than {@link LONG_TEXT} bytes: the caller then writes each object member
+ * by member.
  */
 export function jsonSkeleton(
   depth: number,
@@ -544,6 +545,9 @@ export function jsonSkeleton(
   const head = lead(false);
   let bytes = head.length + MAX_LINE_BYTES + 2 + figures * MAX_FIGURE_BYTES;
   for (let i = 1; i < cut.length; i++) bytes += cut[i]!.length;
+  // An element's fixed text goes into the buffer whole: one longer than a long string (which the
+  // buffer has room for past a piece's end) is written member by member, its long values as pieces.
+  if (bytes > LONG_TEXT) return null;
   // (The first figure's text as figure() writes it: JSON.stringify's of the rounded figure. No
   // figure, NaN, is kept as NaN, which no figure equals: the runs are then never used.)
   const usual = Number.isFinite(firstFigure) ? firstFigure : Number.NaN;

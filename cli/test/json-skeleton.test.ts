@@ -101,6 +101,20 @@ describe('elements written from a skeleton', () => {
     expect(skeletal).toBe(1);
   });
 
+  it('is not made when the fixed text is longer than a long string, and such elements are written right', () => {
+    // Fixed text longer than the buffer's room past a piece (a long description): member by member.
+    const elements: Element[] = Array.from({ length: 3 }, (_, i) => ({
+      name: `S${i}`,
+      line: i,
+      xs: Float64Array.of(1, 2, 3, i),
+    }));
+    for (const note of ['d'.repeat(3000), 'd'.repeat(100_000), 'é'.repeat(50_000)]) {
+      const { text, want, skeletal } = both(elements, 2, note);
+      expect(text).toBe(want);
+      expect(skeletal).toBe(note.length <= 3000 ? 3 : 0);
+    }
+  });
+
   it("writes an element's figures and the text between them in one call", () => {
     const c = collector();
     const w = new TextWriter(2, c.take);
