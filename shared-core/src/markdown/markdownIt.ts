@@ -616,9 +616,12 @@ function useFastTokens(md: Md): void {
         }
         bMarks[n] = start;
         eMarks[n] = lineEnd;
-        tShift[n] = p - start;
-        sCount[n] = offset;
-        // (bsCount stays 0, as the new array holds.)
+        // A line that starts with no blank (most lines) keeps the zeros the new tables hold, as
+        // bsCount always does: two stores fewer per line, while this loop runs in the interpreter.
+        if (p > start) {
+          tShift[n] = p - start;
+          sCount[n] = offset;
+        }
         n++;
         if (nl < 0) break;
         start = nl + 1;
