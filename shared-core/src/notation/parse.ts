@@ -257,7 +257,15 @@ class StatementParser {
   parseLine(text: string, start: number, end: number, diagnostics: CoreDiagnostic[]): Statement | null {
     // No pieces: the cursor never moves on to a next one, and `sharedStmtSpan` finds none to share.
     this.segs = NO_PIECES;
-    return this.read(text, start, end, 'fence', diagnostics);
+    // `read`, written out: this is the call for every line of a fence.
+    this.text = text;
+    this.origin = 'fence';
+    this.diagnostics = diagnostics;
+    this.seg = 0;
+    this.pos = start;
+    this.end = end;
+    this.lastEnd = start;
+    return this.statement();
   }
 
   /** Reads the statement of the piece `text[start, end)`, the first of {@link segs}. */
@@ -992,7 +1000,10 @@ class StatementParser {
             options!.push({ key, keySpan: this.span(start, keyEnd), word, span: this.span(start, word.span.end) });
             continue;
           }
-          const v = this.peek();
+          // The character right after `=`, the value's first unless blanks come between: a digit
+          // (the usual case) needs no call to `peek`, which would answer the same.
+          let v = valueStart < this.end ? text.charCodeAt(valueStart) : -1;
+          if ((v - 0x30) >>> 0 >= 10) v = this.peek();
           // A digit starts a number: the usual case needs no call.
           if ((v - 0x30) >>> 0 < 10 || (v >= 0 && startsNumber(text, this.pos, this.end))) {
             // The usual value, a number: decided by its first character, which is all that
