@@ -11,7 +11,8 @@ import { allocatedBytes } from './allocation-helpers';
 import { evaluate, type EvaluateReuse } from '../src/evaluate/evaluate';
 import { solveForNote } from '../src/evaluate/solve';
 import { NameTable } from '../src/evaluate/nameTable';
-import { readProps } from '../src/evaluate/props';
+import { readProps, rowOf } from '../src/evaluate/props';
+import type { KeySpec } from '../src/evaluate/keys';
 import { ReadFigure, ReadPropertyFigure, readQuantity, type ResolvedQuantity } from '../src/evaluate/quantity';
 import { EvalContext } from '../src/evaluate/context';
 import { NoteNames, statementList } from '../src/evaluate/names';
@@ -156,6 +157,39 @@ describe('the structure that keeps it low', () => {
       // Not filled anew by a later solve.
       expect(Object.entries(s.input)).toEqual(s.entries);
     });
+  });
+
+  it('finds the row of a key kept in its slot by its characters, for keys of one or two, or as a string', () => {
+    // Keys of one slot (a code unit 32 apart at the end, `da` and `dA`; a length 32 apart) and
+    // keys of code units far from ASCII: each written as a new string every time, looked up in
+    // turn, so that every look-up meets the row another key left in its slot.
+    const keys = [
+      'da',
+      'dA',
+      'd',
+      'a',
+      'aa',
+      'a'.repeat(33),
+      '\uffff',
+      '\uffff\uffff',
+      '\u8061a',
+      'a\u8061',
+      'dbx',
+      'dbX',
+    ];
+    const table = Object.fromEntries(keys.map((k) => [k, { key: k } as unknown as KeySpec]));
+    const fresh = (k: string): string => [...k].map((c) => String.fromCharCode(c.charCodeAt(0))).join('');
+    for (let round = 0; round < 3; round++) {
+      for (const k of keys) expect(rowOf(table, fresh(k))).toBe(table[k]);
+      for (const other of ['db', 'dB', 'Da', 'b', '\ufffe', 'aaa', 'constructor', 'toString'])
+        expect(rowOf(table, fresh(other))).toBeUndefined();
+    }
+    // Another table with the same keys has rows of its own.
+    const second = Object.fromEntries(keys.map((k) => [k, { key: k } as unknown as KeySpec]));
+    for (const k of keys) {
+      expect(rowOf(second, fresh(k))).toBe(second[k]);
+      expect(rowOf(table, fresh(k))).toBe(table[k]);
+    }
   });
 
   it('reads the same doubles for a property as for the quantity it is written as', () => {

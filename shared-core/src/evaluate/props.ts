@@ -186,6 +186,11 @@ const ROW_SLOTS = 32;
 const rowTables: (Readonly<Record<string, KeySpec>> | null)[] = new Array(ROW_SLOTS).fill(null);
 const rowKeys: string[] = new Array<string>(ROW_SLOTS).fill('');
 const rowSpecs: (KeySpec | null)[] = new Array(ROW_SLOTS).fill(null);
+/**
+ * Per slot, a key of one or two characters as a number, its length and code units (length·2^32 +
+ * first·2^16 + last: no other string has it), or −1 for a longer key (compared as a string).
+ */
+const rowShortCodes = new Float64Array(ROW_SLOTS).fill(-1);
 
 /**
  * The row of `table` for the key written `key`, or undefined when the table has none. A row of
@@ -193,18 +198,36 @@ const rowSpecs: (KeySpec | null)[] = new Array(ROW_SLOTS).fill(null);
  * (`constructor`, `toString`…), so the row found is the key's own.
  *
  * The tables never change, so the last row found for each slot is kept with its table and the
- * key as written: a note writes a handful of keys over and over, and the parser hands each out
- * as the same string, which compares with the one kept at once. Looking a key up in the table
- * itself costs more: the note's string is first matched with the engine's own copy of the text.
+ * key as written: a note writes a handful of keys over and over. A key of one or two characters
+ * (`db`, `rh`, `w`: most keys) is recognised by its characters, read for the slot anyway, where
+ * the comparison of two strings is a call (unless they are the same object, which is not known
+ * before the call); a longer one is compared as a string. Looking a key up in the table itself
+ * costs more: the note's string is first matched with the engine's own copy of the text.
  */
-function rowOf(table: Readonly<Record<string, KeySpec>>, key: string): KeySpec | undefined {
-  const slot = (key.length * 7 + key.charCodeAt(0) * 3 + key.charCodeAt(key.length - 1)) & (ROW_SLOTS - 1);
-  if (rowKeys[slot] === key && rowTables[slot] === table) return rowSpecs[slot]!;
+export function rowOf(table: Readonly<Record<string, KeySpec>>, key: string): KeySpec | undefined {
+  const length = key.length;
+  const first = key.charCodeAt(0);
+  const last = key.charCodeAt(length - 1);
+  const slot = (length * 7 + first * 3 + last) & (ROW_SLOTS - 1);
+  const code = length <= 2 ? length * 4294967296 + first * 65536 + last : -1;
+  if (rowTables[slot] === table && (code >= 0 ? rowShortCodes[slot] === code : rowKeys[slot] === key))
+    return rowSpecs[slot]!;
+  return rowFound(table, key, slot, code);
+}
+
+/** {@link rowOf} for a key not found in its slot: the table's row, kept in the slot. */
+function rowFound(
+  table: Readonly<Record<string, KeySpec>>,
+  key: string,
+  slot: number,
+  code: number,
+): KeySpec | undefined {
   const found = table[key];
   if (found === undefined || found.key !== key) return undefined;
   rowTables[slot] = table;
   rowKeys[slot] = key;
   rowSpecs[slot] = found;
+  rowShortCodes[slot] = code;
   return found;
 }
 
