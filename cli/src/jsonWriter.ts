@@ -566,6 +566,11 @@ export function jsonSkeleton(
   };
 }
 
+/** The buffer a writer gave back when it ended, for the next one (see TextWriter.end). */
+let spareMemory: [Buffer, DataView] | null = null;
+/** An ended writer's buffer: none (a write after the end goes nowhere, or throws, rather than into the next writer's). */
+const ENDED = Buffer.alloc(0);
+
 /**
  * Writes the text `JSON.stringify(value, null, 2)` prints, as if the value were nested `depth`
  * levels deep (its lines indented by `depth` levels; the first is not indented: it follows
@@ -609,10 +614,31 @@ export class TextWriter implements JsonWriter {
     makeClosesAhead();
   }
 
-  /** A buffer with room for a piece and the longest text written into it at once. */
+  /**
+   * A buffer with room for a piece and the longest text written into it at once: the one a
+   * writer that has ended gave back ({@link end}), else new (zeroed) memory, so that a run of
+   * many short notes does not make a buffer for each.
+   */
   private static memory(): [Buffer, DataView] {
+    const spare = spareMemory;
+    if (spare !== null) {
+      spareMemory = null;
+      return spare;
+    }
     const bytes = new ArrayBuffer(PIECE_BYTES + LONG_TEXT * 4 + 1024);
     return [Buffer.from(bytes), new DataView(bytes)];
+  }
+
+  /**
+   * Hands out the rest of the text ({@link flush}) and gives the buffer back for the next writer:
+   * the taker holds none of it then (a piece it kept was in memory the writer had let go). Nothing
+   * may be written after.
+   */
+  end(): void {
+    this.flush();
+    spareMemory = [this.buf, this.view];
+    this.buf = ENDED;
+    this.view = new DataView(ENDED.buffer, ENDED.byteOffset, 0);
   }
 
   /**
@@ -720,6 +746,11 @@ export class TextWriter implements JsonWriter {
    * value compared with the last. False, with nothing written, when the writer is not at the
    * skeleton's depth inside an array (the caller writes the element member by member).
    */
+  /** The depth of the members of the open object or array. */
+  get openDepth(): number {
+    return this.depth;
+  }
+
   /** The skeleton of the elements `members` writes, at the depth of this writer's open array (see {@link jsonSkeleton}). */
   skeleton(figures: number, members: SkeletonMembers, firstFigure: number): JsonSkeleton | null {
     return jsonSkeleton(this.depth, figures, members, firstFigure);

@@ -245,10 +245,10 @@ const K = jsonKeys([
 
 /**
  * A state or mix (an object) in the JSON shape of the notation's machine-readable output (SI, as
- * the key names). A plain state whose fixed members are those of a skeleton `skeletons` has made
- * is written from it (the same text, see {@link StateSkeletons}).
+ * the key names). A plain state written to a TextWriter (`text`), whose fixed members are those
+ * of a skeleton made before, is written from it (the same text, see {@link stateSkeletons}).
  */
-function writeState(w: JsonWriter, s: StateResult, line: number, skeletons: StateSkeletons | null): void {
+function writeState(w: JsonWriter, s: StateResult, line: number, text: TextWriter | null): void {
   const st = s.state;
   // One call per field, each always the same name: much faster than a loop over the names.
   // The figures by index in STATE_FIELDS' order; a state not computed has none (NaN: null).
@@ -266,7 +266,7 @@ function writeState(w: JsonWriter, s: StateResult, line: number, skeletons: Stat
     xs[7] = jsonFigureIn(u[7]!, st.v);
     xs[8] = jsonFigureIn(u[8]!, st.rho);
   }
-  if (skeletons?.write(s, line, xs)) return;
+  if (text !== null && stateSkeletons.write(text, s, line, xs)) return;
   writeStateMembers(w, s, s.name, line, xs);
 }
 
@@ -338,6 +338,8 @@ const plainState = (s: StateResult): boolean =>
 
 /** A skeleton of plain states, with what its fixed members were made from. */
 interface StateShape {
+  /** The depth of the states (that of the array they are written in). */
+  readonly depth: number;
   readonly ok: boolean;
   readonly defining: readonly string[];
   readonly describe: string;
@@ -345,30 +347,34 @@ interface StateShape {
   readonly skeleton: JsonSkeleton | null;
 }
 
-/** At most this many skeletons are kept per file (a note's plain states have one or two shapes). */
-const MAX_STATE_SHAPES = 4;
+/** At most this many skeletons are kept (the plain states of a run's notes have a few shapes). */
+const MAX_STATE_SHAPES = 8;
 
 /**
- * The skeletons of a file's plain states (see {@link JsonSkeleton}), made from
- * {@link writeStateMembers} when a shape comes a second time running, so that a note whose states
- * each have a pressure of their own makes none.
+ * The skeletons of plain states (see {@link JsonSkeleton}), made from {@link writeStateMembers}
+ * when a shape comes a second time running, so that a note whose states each have a pressure of
+ * their own makes none; kept for the whole run, so that a run of many short notes makes each once.
  */
-class StateSkeletons {
-  private readonly shapes: StateShape[] = [];
-  /** The shape of the last plain state that had no skeleton. */
-  private last: StateResult | null = null;
-  constructor(private readonly w: TextWriter) {}
-
+const stateSkeletons = {
+  shapes: [] as StateShape[],
+  /** The last plain state whose shape had no skeleton. */
+  last: null as StateResult | null,
   /** Writes `s` from its shape's skeleton; false, with nothing written, when it has none (yet). */
-  write(s: StateResult, line: number, xs: Float64Array): boolean {
+  write(w: TextWriter, s: StateResult, line: number, xs: Float64Array): boolean {
     if (!plainState(s)) return false;
+    const depth = w.openDepth;
     const ok = s.state !== null;
     const describe = s.pressure.describe;
     const shapes = this.shapes;
     for (let i = 0; i < shapes.length; i++) {
       const shape = shapes[i]!;
-      if (shape.ok === ok && shape.describe === describe && sameStrings(shape.defining, s.defining)) {
-        return shape.skeleton !== null && this.w.skeletal(shape.skeleton, s.name, line, xs);
+      if (
+        shape.depth === depth &&
+        shape.ok === ok &&
+        shape.describe === describe &&
+        sameStrings(shape.defining, s.defining)
+      ) {
+        return shape.skeleton !== null && w.skeletal(shape.skeleton, s.name, line, xs);
       }
     }
     const last = this.last;
@@ -381,15 +387,15 @@ class StateSkeletons {
       shapes.length >= MAX_STATE_SHAPES
     )
       return false;
-    const skeleton = this.w.skeleton(
+    const skeleton = w.skeleton(
       STATE_FIELDS.length,
-      (w, name, at, figures) => writeStateMembers(w, s, name, at, figures),
+      (into, name, at, figures) => writeStateMembers(into, s, name, at, figures),
       xs[0]!,
     );
-    shapes.push({ ok, defining: [...s.defining], describe, skeleton });
-    return skeleton !== null && this.w.skeletal(skeleton, s.name, line, xs);
-  }
-}
+    shapes.push({ depth, ok, defining: [...s.defining], describe, skeleton });
+    return skeleton !== null && w.skeletal(skeleton, s.name, line, xs);
+  },
+};
 
 /** Whether two arrays of strings hold the same strings. */
 function sameStrings(a: readonly string[], b: readonly string[]): boolean {
@@ -503,7 +509,7 @@ function writeEvalFile(w: JsonWriter, parts: EvalFileParts): void {
   // The processes come after the states: each is kept with its line, found as it comes.
   const processes: ProcessResult[] = [];
   const processLines: number[] = [];
-  const skeletons = w instanceof TextWriter ? new StateSkeletons(w) : null;
+  const text = w instanceof TextWriter ? w : null;
   w.open(null);
   w.str(K.path, f.path);
   w.str(K.units, parts.units);
@@ -512,7 +518,7 @@ function writeEvalFile(w: JsonWriter, parts: EvalFileParts): void {
     if (item.kind === 'process') {
       processes.push(item);
       processLines.push(lines.of(item));
-    } else writeState(w, item, lines.of(item), skeletons);
+    } else writeState(w, item, lines.of(item), text);
   });
   w.closeArray();
   w.openArray(K.processes);
@@ -556,7 +562,7 @@ export function evalFileJson(f: FileResult): Record<string, unknown> {
 export function evalFileText(f: FileResult, depth: number, emit: TakePiece): void {
   const w = new TextWriter(depth, emit);
   writeEvalFile(w, analysedParts(f));
-  w.flush();
+  w.end();
 }
 
 /**
@@ -593,7 +599,7 @@ export function evalNoteText(
     },
     diagnostics: () => diagnostics,
   });
-  w.flush();
+  w.end();
   return diagnosticCounts(diagnostics);
 }
 

@@ -176,8 +176,9 @@ describe('a note written from skeletons', () => {
       const d = collector();
       if (evalNoteText('n.md', text, {}, 2, d.take) !== null) {
         expect(d.text()).toBe(stringifiedAt(object, 2));
-        // The same states go through a skeleton both ways.
-        expect(spy.mock.results.filter((r) => r.value === true).length).toBe(2 * fromFile);
+        // The same states go through a skeleton the second way, and the first too now that the
+        // shapes are made (skeletons are kept for the run).
+        expect(spy.mock.results.filter((r) => r.value === true).length).toBeGreaterThanOrEqual(2 * fromFile);
       } else expect(d.text()).toBe('');
       return fromFile;
     } finally {
@@ -185,9 +186,12 @@ describe('a note written from skeletons', () => {
     }
   }
 
-  it('writes all but the first of many plain states from one skeleton (made at the second)', () => {
+  it('writes all but the first of many plain states from one skeleton (made at the second, kept for the run)', () => {
     const n = 600;
-    expect(check(note(n, (i) => `state S${i}: db=${(i % 40) - 5}.${i % 10}C rh=${10 + (i % 85)}%`))).toBe(n - 1);
+    const text = note(n, (i) => `state S${i}: db=${(i % 40) - 5}.${i % 10}C rh=${10 + (i % 85)}%`);
+    expect(check(text)).toBeGreaterThanOrEqual(n - 1);
+    // Once made, the first state of the next note is written from it too.
+    expect(check(text)).toBe(n);
   });
 
   it('is the same text for states that fail, in I-P units, at other pressures, with other defining keys', () => {
@@ -209,8 +213,8 @@ describe('a note written from skeletons', () => {
     // Plain states in runs of the same shape go through a skeleton; the alternating shapes make
     // at most a few, and states of a pressure of their own none.
     expect(si).toBeGreaterThan(300);
-    expect(ip).toBe(700 - 1);
-    expect(failing).toBe(300 - 1);
+    expect(ip).toBeGreaterThanOrEqual(700 - 1);
+    expect(failing).toBeGreaterThanOrEqual(300 - 1);
   });
 
   it('is the same text among states that are not plain (mixes, supplies, sources, claims, process outputs)', () => {
@@ -229,5 +233,40 @@ describe('a note written from skeletons', () => {
     expect(analysis.items.some((item) => item.kind !== 'process' && item.sources !== undefined)).toBe(true);
     expect(analysis.items.some((item) => item.kind !== 'process' && item.definedBy?.spec !== undefined)).toBe(true);
     expect(check(text)).toBeGreaterThan(100);
+  });
+});
+
+describe('the buffer of a writer that has ended', () => {
+  const text = note(3, (i) => `state S${i}: db=2${i}C rh=50%`);
+  const file = () => fileResult('n.md', text, analyzeNote(text));
+
+  it("is the next writer's (no new memory per note), unless the taker kept a piece of it", () => {
+    const buffers: ArrayBufferLike[] = [];
+    const lend = (piece: Uint8Array): boolean => {
+      buffers.push(piece.buffer);
+      return false;
+    };
+    evalFileText(file(), 2, lend);
+    evalFileText(file(), 2, lend);
+    evalNoteText('n.md', text, {}, 2, lend);
+    expect(buffers.length).toBe(3);
+    expect(new Set(buffers).size).toBe(1);
+    // A taker that keeps its piece: the writer goes on in new memory, and the kept bytes stay as
+    // they were while later notes are written.
+    let kept: Uint8Array | null = null;
+    evalFileText(file(), 2, (piece) => {
+      kept = piece;
+      return true;
+    });
+    const copy = Buffer.from(kept!).toString('latin1');
+    const after: ArrayBufferLike[] = [];
+    for (let k = 0; k < 3; k++)
+      evalFileText(file(), 2, (piece) => {
+        after.push(piece.buffer);
+        return false;
+      });
+    expect(after).not.toContain(kept!.buffer);
+    expect(Buffer.from(kept!).toString('latin1')).toBe(copy);
+    expect(copy).toBe(stringifiedAt(evalFileJson(file()), 2));
   });
 });
