@@ -4,27 +4,17 @@
  *
  * A `Map` keyed by the names costs several cache misses per name in a note of many thousand: on
  * its way to a name's slot it compares the name with the names it meets, reading each of them.
- * Here everything is kept in typed arrays, with no object per name: the slots, each two 32-bit
- * words side by side, the hash of its name and its name's place plus one (0: an empty slot), and
- * per place the name's characters (one pool of UTF-16 code units) and its value. Registering a
- * name reads its own characters (for the hash), the slots of its probe and, only when a slot's
- * hash is equal, the other name's characters; a new name's characters are copied to the pool. A
- * slot's hash and place are one 8-byte entry of one array, so a name met in a slot costs one
- * cache miss, not one per array, and the whole 32-bit hash is compared there: two names of a note
- * rarely share one, so the comparison of characters (a branch the engine's optimised code may not
- * have met yet) is next to never taken for a new name. The table doubles when half full, from the
- * hashes alone. Keeping the characters rather than the strings also leaves the garbage collector
- * nothing to trace or move per name.
- *
- * A long note numbers its names (`S1`, `S2` … `S99999`): the hash of a name ending in digits is
- * that of the rest plus the number they write ({@link nameHash}), so such names, defined in turn,
- * take slots in turn. Their entries are then written one after the other, a cache line and a page
- * of memory at a time, where names scattered over the slots would each cost a cache miss, and
- * every page of the slots a page fault (the system gives memory to a page when it is first
- * written). A run of names so placed is one run of taken slots, so a name whose slot is taken does
- * not look at the next slot but steps over the slots by a long stride ({@link stepOf}: odd, so that
- * its probe can reach every slot): a name meeting a run leaves it at the next step, as it leaves
- * any taken slot.
+ * Here everything is kept in typed arrays, with no object per name: the slots (filled by linear
+ * probing), each two 32-bit words side by side, the hash of its name and its name's place plus
+ * one (0: an empty slot), and per place the name's characters (one pool of UTF-16 code units)
+ * and its value. Registering a name reads its own characters (for the hash), one run of slots
+ * and, only when a slot's hash is equal, the other name's characters; a new name's characters
+ * are copied to the pool. A slot's hash and place are one 8-byte entry of one array, so a name
+ * met in a slot costs one cache miss, not one per array, and the whole 32-bit hash is compared
+ * there: two names of a note rarely share one, so the comparison of characters (a branch the
+ * engine's optimised code may not have met yet) is next to never taken for a new name. The table
+ * doubles when half full, from the hashes alone. Keeping the characters rather than the strings
+ * also leaves the garbage collector nothing to trace or move per name.
  *
  * The hash is not keyed, so names could be written to collide: a probe that runs longer than
  * {@link MAX_PROBE} slots moves every name to a `Map` (whose hash is keyed per process), and the
@@ -32,7 +22,7 @@
  * probes, and a note's names cost time in proportion to their number and length.
  */
 
-/** The most slots a look-up may probe before the table turns into a Map. */
+/** The longest run of slots a look-up may probe before the table turns into a Map. */
 export const MAX_PROBE = 64;
 
 /** Slots of a new table (a power of two). */
@@ -53,57 +43,11 @@ const MOST_FIRST_SLOTS = 1 << 20;
 /** Characters per expected name that a table first has room for (a name of a note is short: `OA`, `S12`). */
 const CHARS_PER_EXPECTED_NAME = 6;
 
-/** Numbers of a block, 2^BLOCK_BITS: {@link nameHash} places the names of one block in turn. */
-const BLOCK_BITS = 10;
-const NUMBER_BLOCK = 1 << BLOCK_BITS;
-
-/** The numbers {@link nameHash} reads at the end of a name: up to 9 digits. */
-const MOST_NUMBER = 999_999_999;
-
-/**
- * The table's hash of a name (32-bit): FNV-1a over its UTF-16 code units, except that trailing
- * digits (up to 9) count as the number they write: FNV-1a of the rest, plus the number's place in
- * its block of {@link NUMBER_BLOCK} numbers as it is and the block's number mixed. `S12` and `S13`
- * have hashes one apart (see the module comment), while names numbered in steps of a block or
- * more (`S0`, `S1024`, `S2048` …) are spread over the slots as other names are. Names of equal
- * hash are told apart by their characters (`S7` and `S07` share one).
- */
+/** FNV-1a over the UTF-16 code units of `s` (32-bit): the table's hash of a name. */
 export function nameHash(s: string): number {
   let h = 0x811c9dc5 | 0;
-  // The hash of the name before its last run of digits, and the number they write so far (−1
-  // after a character that is not a digit, −2 after more than 9 digits): one pass, each
-  // character read once.
-  let before = h;
-  let n = -1;
-  for (let i = 0; i < s.length; i++) {
-    const c = s.charCodeAt(i);
-    const digit = c - 48;
-    if (digit >= 0 && digit <= 9) {
-      if (n === -1) before = h;
-      const next = n < 0 ? digit : n * 10 + digit;
-      n = n === -2 || next > MOST_NUMBER ? -2 : next;
-    } else n = -1;
-    h = Math.imul(h ^ c, 0x01000193);
-  }
-  if (n < 0) return h;
-  // The block's number mixed (MurmurHash3's finaliser: every bit of it moves every bit of the result).
-  const b = n >>> BLOCK_BITS;
-  let x = Math.imul(b ^ (b >>> 16), 0x85ebca6b);
-  x = Math.imul(x ^ (x >>> 13), 0xc2b2ae35);
-  x ^= x >>> 16;
-  return (before + (n & (NUMBER_BLOCK - 1)) + x) | 0;
-}
-
-/**
- * The step of a probe in a table of `size` slots (a power of two), in slots: the odd number next
- * to `size`/φ, the golden section of the table. Its multiples fall the farthest apart of any
- * step's (each next one in the largest gap the ones before it leave), so the slots a probe looks
- * at are spread over the whole table, and a run of taken slots, however long, holds few of them.
- * Every name steps by it: a probe is linear probing in another order of the slots, in which the
- * names of one run stand far apart.
- */
-function stepOf(size: number): number {
-  return (size * 0.6180339887498949) | 1;
+  for (let i = 0; i < s.length; i++) h = Math.imul(h ^ s.charCodeAt(i), 0x01000193);
+  return h;
 }
 
 /** Name → index of its first definition (see the module comment). */
@@ -183,8 +127,6 @@ export class NameTable {
     const slots = this.slots;
     // `at` is a slot's first word: even, 2·slot (so the slots wrap at `wrap`, their words' count − 2).
     const wrap = slots.length - 2;
-    // The step in words (two per slot).
-    const stride = stepOf(slots.length >> 1) << 1;
     let at = (h << 1) & wrap;
     let probes = 0;
     for (;;) {
@@ -195,7 +137,7 @@ export class NameTable {
       // itself away on it. Past the test only choices between values already known remain.
       const taken = slots[at + 1]!;
       const sameHash = slots[at] === h;
-      const next = (at + stride) & wrap;
+      const next = (at + 2) & wrap;
       probes++;
       const last = probes === MAX_PROBE;
       if (taken === 0) {
@@ -282,13 +224,12 @@ export class NameTable {
 }
 
 /**
- * Puts the name of hash `h` and place `taken` − 1 in the first empty slot of its probe in `slots`
+ * Puts the name of hash `h` and place `taken` − 1 in the first empty slot of its run in `slots`
  * (of `mask` + 1 slots).
  */
 function place(slots: Int32Array, mask: number, h: number, taken: number): void {
-  const step = stepOf(mask + 1);
   let slot = h & mask;
-  while (slots[2 * slot + 1] !== 0) slot = (slot + step) & mask;
+  while (slots[2 * slot + 1] !== 0) slot = (slot + 1) & mask;
   slots[2 * slot] = h;
   slots[2 * slot + 1] = taken;
 }
