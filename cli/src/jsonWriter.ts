@@ -568,7 +568,10 @@ export function jsonSkeleton(
 
 /** The buffer a writer gave back when it ended, for the next one (see TextWriter.end). */
 let spareMemory: [Buffer, DataView] | null = null;
-/** An ended writer's buffer: none (a write after the end goes nowhere, or throws, rather than into the next writer's). */
+/**
+ * An ended writer's buffer: none (a write after the end goes nowhere, or throws, rather than into the next
+ * writer's).
+ */
 const ENDED = Buffer.alloc(0);
 
 /**
@@ -751,7 +754,10 @@ export class TextWriter implements JsonWriter {
     return this.depth;
   }
 
-  /** The skeleton of the elements `members` writes, at the depth of this writer's open array (see {@link jsonSkeleton}). */
+  /**
+   * The skeleton of the elements `members` writes, at the depth of this writer's open array (see
+   * {@link jsonSkeleton}).
+   */
   skeleton(figures: number, members: SkeletonMembers, firstFigure: number): JsonSkeleton | null {
     return jsonSkeleton(this.depth, figures, members, firstFigure);
   }

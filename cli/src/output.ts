@@ -270,7 +270,10 @@ function writeState(w: JsonWriter, s: StateResult, line: number, text: TextWrite
   writeStateMembers(w, s, s.name, line, xs);
 }
 
-/** The members of {@link writeState}, with the state's name, line and figures (in {@link STATE_FIELDS}' order) given. */
+/**
+ * The members of {@link writeState}, with the state's name, line and figures (in {@link STATE_FIELDS}' order)
+ * given.
+ */
 function writeStateMembers(w: JsonWriter, s: StateResult, name: string, line: number, xs: Float64Array): void {
   w.open(null);
   w.str(K.name, name);
