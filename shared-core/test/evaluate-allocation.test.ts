@@ -8,6 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { allocatedBytes } from './allocation-helpers';
+import { assignedFields } from './field-helpers';
 import { evaluate, type EvaluateReuse } from '../src/evaluate/evaluate';
 import { solveForNote } from '../src/evaluate/solve';
 import { NameTable } from '../src/evaluate/nameTable';
@@ -236,37 +237,6 @@ describe('the structure that keeps it low', () => {
 });
 
 describe('the objects made per state', () => {
-  /**
-   * Makes an object with `make` and counts the fields `names` that its constructor sets by
-   * assignment to a field the object does not have yet (a setter put on the prototype for each
-   * catches that). A class field that is defined (not `declare`d) is made an own field, set to
-   * undefined, before the constructor runs (an initializer of its own, for every state solved and
-   * every property read), and the constructor's assignment then passes the setter by. Returns the
-   * count and the object's own keys, in order.
-   */
-  function assignedFields(
-    proto: object,
-    names: readonly string[],
-    make: () => object,
-  ): { set: number; keys: string[] } {
-    let set = 0;
-    for (const name of names) {
-      Object.defineProperty(proto, name, {
-        configurable: true,
-        set(this: object, v: unknown) {
-          set++;
-          Object.defineProperty(this, name, { value: v, writable: true, enumerable: true, configurable: true });
-        },
-      });
-    }
-    try {
-      const keys = Object.keys(make());
-      return { set, keys };
-    } finally {
-      for (const name of names) delete (proto as Record<string, unknown>)[name];
-    }
-  }
-
   it('sets each field once, in order, with no field defined before the constructor', () => {
     const parsed = parseNote('```air\nstate OA: db=24C rh=50%\n```\n');
     const stmt = parsed.statements[0] as StateStatement;

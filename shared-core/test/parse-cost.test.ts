@@ -11,6 +11,7 @@
  */
 import { Session } from 'node:inspector/promises';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { assignedFields } from './field-helpers';
 import { findKey } from '../src/vocabulary/keys';
 import type { ExtractedRegion } from '../src/markdown/regions';
 import { parseNote, parseNoteStatements } from '../src/notation/parse';
@@ -217,36 +218,6 @@ describe('parser cost per statement', () => {
 });
 
 describe('the nodes of a statement', () => {
-  /**
-   * Makes a node with `make` and counts the fields `names` that its constructor sets by assignment
-   * to a field the node does not have yet (a setter put on the prototype for each catches that).
-   * A class field that is defined (not `declare`d) is made an own field, set to undefined, before
-   * the constructor runs — a step of its own for every node of every line — and the constructor's
-   * assignment then passes the setter by. Returns the count and the node's own keys, in order.
-   */
-  function assignedFields(
-    proto: object,
-    names: readonly string[],
-    make: () => object,
-  ): { set: number; keys: string[] } {
-    let set = 0;
-    for (const name of names) {
-      Object.defineProperty(proto, name, {
-        configurable: true,
-        set(this: object, v: unknown) {
-          set++;
-          Object.defineProperty(this, name, { value: v, writable: true, enumerable: true, configurable: true });
-        },
-      });
-    }
-    try {
-      const keys = Object.keys(make());
-      return { set, keys };
-    } finally {
-      for (const name of names) delete (proto as Record<string, unknown>)[name];
-    }
-  }
-
   it('sets each field once, in the order of the interfaces, with no field defined before the constructor', () => {
     const number = new ParsedNumber(24, '24', 1, 10);
     const unit = new ParsedUnit('C', 12);
